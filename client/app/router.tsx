@@ -1,0 +1,36 @@
+import { createBrowserRouter } from 'react-router-dom';
+import { GuestOnly, RequireRole } from './guards';
+import { Layout } from './layout';
+import { DashboardRoute } from './routes/dashboard';
+import { ForgotPasswordRoute } from './routes/forgot-password';
+import { GithubWelcomeRoute } from './routes/github-welcome';
+import { LandingRoute } from './routes/landing';
+import { NotFoundRoute } from './routes/not-found';
+import { ResetPasswordRoute } from './routes/reset-password';
+import { RouteError } from './routes/route-error';
+import { SignInRoute } from './routes/sign-in';
+import { SignUpRoute } from './routes/sign-up';
+import { VerifyEmailRoute } from './routes/verify-email';
+
+export const router = createBrowserRouter([
+  {
+    element: <Layout />,
+    errorElement: <RouteError />,
+    children: [
+      {
+        errorElement: <RouteError />,
+        children: [
+          { path: '/', element: <LandingRoute /> },
+          { path: '/signin', element: <GuestOnly><SignInRoute /></GuestOnly> },
+          { path: '/signup', element: <GuestOnly><SignUpRoute /></GuestOnly> },
+          { path: '/forgot-password', element: <ForgotPasswordRoute /> },
+          { path: '/reset-password', element: <ResetPasswordRoute /> },
+          { path: '/verify-email', element: <VerifyEmailRoute /> },
+          { path: '/welcome/github', element: <GithubWelcomeRoute /> },
+          { path: '/dashboard', element: <RequireRole><DashboardRoute /></RequireRole> },
+          { path: '*', element: <NotFoundRoute /> },
+        ],
+      },
+    ],
+  },
+]);

@@ -1,0 +1,66 @@
+import { toast } from 'sonner';
+import type { Me } from '@shared/schemas/auth';
+import { Button } from '@client/components/ui/button';
+import { Card, PageTitle } from '@client/components/ui/card';
+import { Notice } from '@client/components/ui/notice';
+import { useResendVerification } from '@client/features/auth/api/auth-mutations';
+import { useMe } from '@client/features/auth/api/use-me';
+
+const roleWords: Record<Me['role'], { title: string; lead: string }> = {
+  builder: {
+    title: 'Your workbench',
+    lead: 'Post a block for machining, compare what shops offer, and pay only once the measured results check out.',
+  },
+  shop: {
+    title: 'Your shop floor',
+    lead: 'Find blocks that need your machines, bid with a price and a turnaround, and hand over measured results.',
+  },
+  admin: {
+    title: 'Operations',
+    lead: 'Keep the marketplace honest: verify shops, settle disagreements and watch the money held for jobs.',
+  },
+};
+
+function VerifyBanner() {
+  const resend = useResendVerification({
+    mutationConfig: {
+      onSuccess: () => toast.success('A new confirmation link is on its way.'),
+      onError: (error) => toast.error(error.message),
+    },
+  });
+  return (
+    <Notice tone="caution" title="Please confirm your e-mail address" className="mb-6">
+      <p>We sent you a link when you signed up. Confirming lets shops and builders reach you about jobs.</p>
+      <Button variant="secondary" className="mt-2" busy={resend.isPending} onClick={() => resend.mutate()}>
+        Send the link again
+      </Button>
+    </Notice>
+  );
+}
+
+export function DashboardRoute() {
+  const { data: me } = useMe();
+  if (!me) return null;
+  const words = roleWords[me.role];
+  return (
+    <div>
+      <PageTitle title={words.title} lead={words.lead} />
+      {!me.emailVerified && <VerifyBanner />}
+      <Card>
+        <h2 className="text-xl font-bold">Your account</h2>
+        <dl className="mt-4 grid gap-x-6 gap-y-2 sm:grid-cols-[max-content_1fr]">
+          <dt className="font-semibold text-ink-soft">Name</dt>
+          <dd>{me.displayName}</dd>
+          <dt className="font-semibold text-ink-soft">E-mail</dt>
+          <dd>
+            {me.email} {me.emailVerified ? <span className="text-pass">(confirmed)</span> : <span className="text-caution">(not confirmed yet)</span>}
+          </dd>
+          <dt className="font-semibold text-ink-soft">Role</dt>
+          <dd className="capitalize">{me.role}</dd>
+          <dt className="font-semibold text-ink-soft">Sign-in</dt>
+          <dd>{[me.hasPassword && 'e-mail and password', me.githubLinked && 'GitHub'].filter(Boolean).join(', ')}</dd>
+        </dl>
+      </Card>
+    </div>
+  );
+}

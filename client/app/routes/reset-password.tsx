@@ -1,0 +1,76 @@
+import { zodResolver } from '@hookform/resolvers/zod';
+import { useState } from 'react';
+import { useForm } from 'react-hook-form';
+import { Link, useNavigate, useSearchParams } from 'react-router-dom';
+import { toast } from 'sonner';
+import { z } from 'zod';
+import { newPasswordSchema } from '@shared/schemas/auth';
+import { Button } from '@client/components/ui/button';
+import { Card, PageTitle } from '@client/components/ui/card';
+import { Notice } from '@client/components/ui/notice';
+import { TextField } from '@client/components/ui/text-field';
+import { useConfirmPasswordReset } from '@client/features/auth/api/auth-mutations';
+import { applyServerErrors } from '@client/lib/form-errors';
+
+const formSchema = z
+  .object({ password: newPasswordSchema, repeat: z.string() })
+  .refine((v) => v.password === v.repeat, { path: ['repeat'], message: 'The two passwords differ.' });
+type FormValues = z.infer<typeof formSchema>;
+
+export function ResetPasswordRoute() {
+  const [params] = useSearchParams();
+  const token = params.get('token') ?? '';
+  const navigate = useNavigate();
+  const [formError, setFormError] = useState<string>();
+  const form = useForm<FormValues>({ resolver: zodResolver(formSchema), defaultValues: { password: '', repeat: '' } });
+  const confirm = useConfirmPasswordReset({
+    mutationConfig: {
+      onSuccess: () => {
+        toast.success('Password changed. Sign in with your new password.');
+        navigate('/signin', { replace: true });
+      },
+    },
+  });
+  const onSubmit = form.handleSubmit(({ password }) => {
+    setFormError(undefined);
+    confirm.mutate({ token, password }, { onError: (error) => setFormError(applyServerErrors(error, form.setError, ['password'])) });
+  });
+  return (
+    <div className="mx-auto max-w-md">
+      <PageTitle title="Choose a new password" />
+      <Card>
+        {!token ? (
+          <Notice tone="error">
+            This page needs the link from your e-mail. <Link to="/forgot-password" className="underline">Ask for a new link</Link>.
+          </Notice>
+        ) : (
+          <form onSubmit={onSubmit} noValidate className="flex flex-col gap-4" aria-label="Choose a new password">
+            {formError && (
+              <Notice tone="error">
+                {formError} <Link to="/forgot-password" className="underline">Ask for a new link</Link>.
+              </Notice>
+            )}
+            <TextField
+              label="New password"
+              type="password"
+              autoComplete="new-password"
+              hint="At least 10 characters."
+              error={form.formState.errors.password?.message}
+              {...form.register('password')}
+            />
+            <TextField
+              label="New password again"
+              type="password"
+              autoComplete="new-password"
+              error={form.formState.errors.repeat?.message}
+              {...form.register('repeat')}
+            />
+            <Button type="submit" busy={confirm.isPending}>
+              Save the new password
+            </Button>
+          </form>
+        )}
+      </Card>
+    </div>
+  );
+}

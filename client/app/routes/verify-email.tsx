@@ -1,0 +1,38 @@
+import { useEffect, useRef } from 'react';
+import { Link, useSearchParams } from 'react-router-dom';
+import { Card, PageTitle } from '@client/components/ui/card';
+import { Notice } from '@client/components/ui/notice';
+import { useVerifyEmail } from '@client/features/auth/api/auth-mutations';
+
+export function VerifyEmailRoute() {
+  const [params] = useSearchParams();
+  const token = params.get('token') ?? '';
+  const verify = useVerifyEmail();
+  const sent = useRef(false);
+  useEffect(() => {
+    // Once per visit, even under React's double effects in development.
+    if (token && !sent.current) {
+      sent.current = true;
+      verify.mutate({ token });
+    }
+  }, [token, verify]);
+  return (
+    <div className="mx-auto max-w-md">
+      <PageTitle title="Confirm your e-mail address" />
+      <Card>
+        {!token && <Notice tone="error">This page needs the link from your e-mail.</Notice>}
+        {verify.isPending && <Notice>Confirming …</Notice>}
+        {verify.isSuccess && (
+          <Notice tone="success" title="Confirmed">
+            Thank you. <Link to="/dashboard" className="underline">Go to your dashboard</Link>.
+          </Notice>
+        )}
+        {verify.isError && (
+          <Notice tone="error" title="That link did not work">
+            {verify.error.message} You can send a new one from your dashboard.
+          </Notice>
+        )}
+      </Card>
+    </div>
+  );
+}

@@ -1,0 +1,30 @@
+import { queryOptions } from '@tanstack/react-query';
+import type { Me, PendingGithub } from '@shared/schemas/auth';
+import { ApiError, api } from '@client/lib/api-client';
+
+export const authKeys = {
+  all: ['auth'] as const,
+  me: () => [...authKeys.all, 'me'] as const,
+  pendingGithub: () => [...authKeys.all, 'pending-github'] as const,
+};
+
+/** The signed-in person, or null when signed out (a 401 is an answer, not an error). */
+export async function getMe(): Promise<Me | null> {
+  try {
+    const { user } = await api.get<{ user: Me }>('/api/auth/me');
+    return user;
+  } catch (error) {
+    if (error instanceof ApiError && error.status === 401) return null;
+    throw error;
+  }
+}
+
+export const authQueries = {
+  me: () => queryOptions({ queryKey: authKeys.me(), queryFn: getMe, staleTime: 60_000 }),
+  pendingGithub: () =>
+    queryOptions({
+      queryKey: authKeys.pendingGithub(),
+      queryFn: () => api.get<{ pending: PendingGithub }>('/api/auth/github/pending').then((r) => r.pending),
+      retry: false,
+    }),
+};

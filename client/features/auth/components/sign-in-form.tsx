@@ -1,0 +1,44 @@
+import { zodResolver } from '@hookform/resolvers/zod';
+import { useState } from 'react';
+import { useForm } from 'react-hook-form';
+import { Link } from 'react-router-dom';
+import { signInSchema, type SignInInput } from '@shared/schemas/auth';
+import { Button } from '@client/components/ui/button';
+import { Notice } from '@client/components/ui/notice';
+import { TextField } from '@client/components/ui/text-field';
+import { applyServerErrors } from '@client/lib/form-errors';
+import { useSignIn } from '../api/auth-mutations';
+
+export function SignInForm({ onSignedIn }: { onSignedIn: () => void }) {
+  const [formError, setFormError] = useState<string>();
+  const form = useForm<SignInInput>({ resolver: zodResolver(signInSchema), defaultValues: { email: '', password: '' } });
+  const signIn = useSignIn({ mutationConfig: { onSuccess: onSignedIn } });
+  const { errors } = form.formState;
+
+  const onSubmit = form.handleSubmit((values) => {
+    setFormError(undefined);
+    signIn.mutate(values, { onError: (error) => setFormError(applyServerErrors(error, form.setError, ['email', 'password'])) });
+  });
+
+  return (
+    <form onSubmit={onSubmit} noValidate className="flex flex-col gap-4" aria-label="Sign in">
+      {formError && <Notice tone="error">{formError}</Notice>}
+      <TextField label="E-mail" type="email" autoComplete="email" error={errors.email?.message} {...form.register('email')} />
+      <TextField
+        label="Password"
+        type="password"
+        autoComplete="current-password"
+        error={errors.password?.message}
+        {...form.register('password')}
+      />
+      <Button type="submit" busy={signIn.isPending}>
+        Sign in
+      </Button>
+      <p className="text-sm">
+        <Link to="/forgot-password" className="font-semibold text-slate-700 underline underline-offset-4">
+          Forgot your password?
+        </Link>
+      </p>
+    </form>
+  );
+}

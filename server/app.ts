@@ -1,0 +1,130 @@
+import connectPgSimple from 'connect-pg-simple';
+import { csrfSync } from 'csrf-sync';
+import express, { type RequestHandler } from 'express';
+import session from 'express-session';
+import helmet from 'helmet';
+import { randomUUID } from 'node:crypto';
+import { existsSync } from 'node:fs';
+import { join } from 'node:path';
+import type pg from 'pg';
+import type { Logger } from 'pino';
+import { pinoHttp } from 'pino-http';
+import type { Database } from './db/client';
+import type { AppConfig } from './env';
+import { createPassport } from './lib/auth/passport';
+import { errorHandler, notFoundApi } from './lib/errors';
+import { adminRouter } from './modules/admin/admin.routes';
+import { authRouter } from './modules/auth/auth.routes';
+import { healthRouter } from './modules/health/health.routes';
+
+export const SESSION_COOKIE = 'tm.sid';
+
+export interface AppDeps {
+  config: AppConfig;
+  db: Database;
+  pool: pg.Pool;
+  logger: Logger;
+  /** How the browser app is served: built files, Vite's dev middleware, or not at all (API tests). */
+  client?: { kind: 'static'; dir: string } | { kind: 'middleware'; handler: RequestHandler; indexHtml: (url: string) => Promise<string> };
+}
+
+/** Builds the Express app without listening, so tests can drive it directly. */
+export function createApp(deps: AppDeps) {
+  const { config, db, pool, logger } = deps;
+  const app = express();
+  app.set('trust proxy', 'loopback');
+  app.disable('x-powered-by');
+
+  app.use(
+    pinoHttp({
+      logger,
+      genReqId: (req, res) => {
+        const incoming = req.headers['x-request-id'];
+        const id = typeof incoming === 'string' && /^[\w-]{8,64}$/.test(incoming) ? incoming : randomUUID();
+        res.setHeader('X-Request-Id', id);
+        return id;
+      },
+      autoLogging: { ignore: (req) => req.url === '/api/health' },
+    }),
+  );
+
+  const devClient = deps.client?.kind === 'middleware';
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        directives: {
+          defaultSrc: ["'self'"],
+          // Vite's dev server injects an inline preamble for hot reload; the built app has no inline script.
+          scriptSrc: devClient ? ["'self'", "'unsafe-inline'"] : ["'self'"],
+          styleSrc: ["'self'", "'unsafe-inline'"],
+          imgSrc: ["'self'", 'data:', 'blob:'],
+          fontSrc: ["'self'", 'data:'],
+          connectSrc: devClient ? ["'self'", 'ws:', 'wss:'] : ["'self'"],
+          formAction: ["'self'"],
+          frameAncestors: ["'none'"],
+          objectSrc: ["'none'"],
+          upgradeInsecureRequests: null,
+        },
+      },
+      crossOriginEmbedderPolicy: false,
+    }),
+  );
+
+  app.use('/api/health', healthRouter(pool));
+
+  const PgStore = connectPgSimple(session);
+  const store = new PgStore({ pool, tableName: 'sessions', createTableIfMissing: false, pruneSessionInterval: 15 * 60 });
+  const secure = config.appUrl.startsWith('https://');
+  app.use(
+    session({
+      name: SESSION_COOKIE,
+      secret: config.sessionSecret,
+      store,
+      resave: false,
+      saveUninitialized: false,
+      rolling: true,
+      proxy: true,
+      cookie: { httpOnly: true, sameSite: 'lax', secure, maxAge: 14 * 24 * 60 * 60_000, path: '/' },
+    }),
+  );
+
+  const passport = createPassport({ db, appUrl: config.appUrl, github: config.github });
+  app.use(passport.initialize());
+  app.use(passport.session());
+
+  app.use('/api', express.json({ limit: '200kb' }));
+
+  const { csrfSynchronisedProtection, generateToken } = csrfSync({
+    getTokenFromRequest: (req) => req.get('x-csrf-token'),
+    errorConfig: { statusCode: 403, code: 'EBADCSRFTOKEN', message: 'invalid csrf token' },
+  });
+  app.use('/api', csrfSynchronisedProtection);
+
+  app.use(
+    '/api/auth',
+    authRouter({ db, config, passport, generateCsrfToken: generateToken, sessionCookieName: SESSION_COOKIE }),
+  );
+
+  app.use('/api/admin', adminRouter({ db, appUrl: config.appUrl }));
+
+  app.use('/api', notFoundApi);
+
+  if (deps.client?.kind === 'static') {
+    const dir = deps.client.dir;
+    const indexFile = join(dir, 'index.html');
+    if (!existsSync(indexFile)) throw new Error(`The browser app is not built (no ${indexFile}). Run: npm run build`);
+    app.use(express.static(dir, { index: false, maxAge: '1h' }));
+    app.get('/{*splat}', (_req, res) => res.sendFile(indexFile, { headers: { 'Cache-Control': 'no-cache' } }));
+  } else if (deps.client?.kind === 'middleware') {
+    const { handler, indexHtml } = deps.client;
+    app.use(handler);
+    app.get('/{*splat}', async (req, res) => {
+      res.type('html').send(await indexHtml(req.originalUrl));
+    });
+  }
+
+  app.use(errorHandler);
+  return Object.assign(app, { sessionStore: store });
+}
+
+export type App = ReturnType<typeof createApp>;

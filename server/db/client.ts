@@ -1,0 +1,44 @@
+import { drizzle, type NodePgDatabase } from 'drizzle-orm/node-postgres';
+import { migrate } from 'drizzle-orm/node-postgres/migrator';
+import { fileURLToPath } from 'node:url';
+import pg from 'pg';
+import * as schema from './schema';
+
+export type Database = NodePgDatabase<typeof schema> & { $client: pg.Pool };
+/** A transaction handle; repositories accept either this or the database. */
+export type Tx = Parameters<Parameters<Database['transaction']>[0]>[0];
+export type Executor = Database | Tx;
+
+export const migrationsFolder = fileURLToPath(new URL('../../drizzle', import.meta.url));
+
+export function createPool(url: string, max = 10): pg.Pool {
+  const pool = new pg.Pool({ connectionString: url, max, connectionTimeoutMillis: 5_000, idleTimeoutMillis: 30_000 });
+  // An idle client losing its server (database restarted) must not crash the process.
+  pool.on('error', () => {});
+  return pool;
+}
+
+export function createDb(pool: pg.Pool): Database {
+  return drizzle(pool, { schema, casing: 'snake_case' }) as Database;
+}
+
+export async function runMigrations(url: string): Promise<void> {
+  const pool = createPool(url, 1);
+  try {
+    await migrate(createDb(pool), { migrationsFolder });
+  } finally {
+    await pool.end();
+  }
+}
+
+/** Errors that mean the database could not be reached, as opposed to a bad query. */
+export function isDatabaseUnavailable(error: unknown): boolean {
+  const err = error as { code?: string; message?: string; cause?: unknown } | undefined;
+  if (!err || typeof err !== 'object') return false;
+  const connectionCodes = new Set(['ECONNREFUSED', 'ECONNRESET', 'ETIMEDOUT', 'EPIPE', '57P01', '57P02', '57P03', '08000', '08001', '08003', '08006']);
+  if (err.code && connectionCodes.has(err.code)) return true;
+  if (typeof err.message === 'string' && /Connection terminated|timeout exceeded when trying to connect|connection timeout/i.test(err.message)) {
+    return true;
+  }
+  return err.cause ? isDatabaseUnavailable(err.cause) : false;
+}

@@ -1,0 +1,125 @@
+import { z } from 'zod';
+
+/**
+ * The only reader of process.env. Everything the server needs from its
+ * environment is validated here and handed around as a typed object.
+ */
+const schema = z
+  .object({
+    NODE_ENV: z.enum(['development', 'test', 'production']).default('development'),
+    PORT: z.coerce.number().int().min(0).max(65535).default(3000),
+    APP_URL: z.url().optional(),
+    DATABASE_URL: z.string().min(1).default('postgres://postgres@127.0.0.1:54329/tenthmark'),
+    TENTHMARK_PG_PORT: z.coerce.number().int().min(1).max(65535).default(54329),
+    SESSION_SECRET: z.string().min(16).optional(),
+    LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
+
+    SMTP_HOST: z.string().default('127.0.0.1'),
+    SMTP_PORT: z.coerce.number().int().min(1).max(65535).default(1025),
+    SMTP_SECURE: z.stringbool().default(false),
+    SMTP_USER: z.string().optional(),
+    SMTP_PASSWORD: z.string().optional(),
+    MAIL_FROM: z.string().default('Tenthmark <no-reply@tenthmark.test>'),
+    MAILDEV_WEB_PORT: z.coerce.number().int().min(1).max(65535).default(1080),
+
+    GITHUB_CLIENT_ID: z.string().optional(),
+    GITHUB_CLIENT_SECRET: z.string().optional(),
+    GITHUB_STAND_IN_PORT: z.coerce.number().int().min(1).max(65535).default(3101),
+    GITHUB_STAND_IN_URL: z.url().optional(),
+
+    RATE_LIMIT_SIGNIN_MAX: z.coerce.number().int().positive().default(10),
+    RATE_LIMIT_SIGNUP_MAX: z.coerce.number().int().positive().default(20),
+  })
+  .superRefine((value, ctx) => {
+    if (value.NODE_ENV === 'production' && !value.SESSION_SECRET) {
+      ctx.addIssue({ code: 'custom', path: ['SESSION_SECRET'], message: 'is required in production (16+ characters)' });
+    }
+    if (Boolean(value.GITHUB_CLIENT_ID) !== Boolean(value.GITHUB_CLIENT_SECRET)) {
+      ctx.addIssue({
+        code: 'custom',
+        path: ['GITHUB_CLIENT_SECRET'],
+        message: 'GITHUB_CLIENT_ID and GITHUB_CLIENT_SECRET go together',
+      });
+    }
+  });
+
+export type RawEnv = z.infer<typeof schema>;
+
+export interface GithubConfig {
+  clientId: string;
+  clientSecret: string;
+  authorizationURL: string;
+  tokenURL: string;
+  userProfileURL: string;
+  userEmailURL: string;
+  /** True when pointed at the local stand-in instead of GitHub. */
+  standIn: boolean;
+}
+
+export interface AppConfig {
+  nodeEnv: RawEnv['NODE_ENV'];
+  port: number;
+  appUrl: string;
+  databaseUrl: string;
+  pgPort: number;
+  sessionSecret: string;
+  logLevel: RawEnv['LOG_LEVEL'];
+  smtp: { host: string; port: number; secure: boolean; user?: string; password?: string };
+  mailFrom: string;
+  maildevWebPort: number;
+  github: GithubConfig;
+  githubStandInPort: number;
+  rateLimits: { signInMax: number; signUpMax: number };
+}
+
+export function loadConfig(source: NodeJS.ProcessEnv = process.env): AppConfig {
+  const parsed = schema.safeParse(source);
+  if (!parsed.success) {
+    const lines = parsed.error.issues.map((issue) => `  ${issue.path.join('.') || '(env)'}: ${issue.message}`);
+    throw new Error(`The environment is not valid:\n${lines.join('\n')}`);
+  }
+  const env = parsed.data;
+  const appUrl = (env.APP_URL ?? `http://localhost:${env.PORT}`).replace(/\/$/, '');
+  const realGithub = Boolean(env.GITHUB_CLIENT_ID && env.GITHUB_CLIENT_SECRET);
+  const standInUrl = (env.GITHUB_STAND_IN_URL ?? `http://127.0.0.1:${env.GITHUB_STAND_IN_PORT}`).replace(/\/$/, '');
+  const github: GithubConfig = realGithub
+    ? {
+        clientId: env.GITHUB_CLIENT_ID!,
+        clientSecret: env.GITHUB_CLIENT_SECRET!,
+        authorizationURL: 'https://github.com/login/oauth/authorize',
+        tokenURL: 'https://github.com/login/oauth/access_token',
+        userProfileURL: 'https://api.github.com/user',
+        userEmailURL: 'https://api.github.com/user/emails',
+        standIn: false,
+      }
+    : {
+        clientId: 'tenthmark-local',
+        clientSecret: 'tenthmark-local-secret',
+        authorizationURL: `${standInUrl}/login/oauth/authorize`,
+        tokenURL: `${standInUrl}/login/oauth/access_token`,
+        userProfileURL: `${standInUrl}/user`,
+        userEmailURL: `${standInUrl}/user/emails`,
+        standIn: true,
+      };
+  return {
+    nodeEnv: env.NODE_ENV,
+    port: env.PORT,
+    appUrl,
+    databaseUrl: env.DATABASE_URL,
+    pgPort: env.TENTHMARK_PG_PORT,
+    sessionSecret: env.SESSION_SECRET ?? 'tenthmark-local-development-secret',
+    logLevel: env.LOG_LEVEL,
+    smtp: {
+      host: env.SMTP_HOST,
+      port: env.SMTP_PORT,
+      secure: env.SMTP_SECURE,
+      user: env.SMTP_USER,
+      password: env.SMTP_PASSWORD,
+    },
+    mailFrom: env.MAIL_FROM,
+    maildevWebPort: env.MAILDEV_WEB_PORT,
+    github,
+    githubStandInPort: env.GITHUB_STAND_IN_PORT,
+    rateLimits: { signInMax: env.RATE_LIMIT_SIGNIN_MAX, signUpMax: env.RATE_LIMIT_SIGNUP_MAX },
+  };
+}

@@ -1,0 +1,98 @@
+/**
+ * E-mail templates in the product's look: a plain-text part and an HTML part
+ * built from the same words. Inline styles only, since mail clients drop <style>.
+ */
+export interface RenderedMail {
+  template: string;
+  subject: string;
+  text: string;
+  html: string;
+}
+
+const escapeHtml = (value: string) =>
+  value.replace(/[&<>"']/g, (ch) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[ch]!);
+
+interface Layout {
+  template: string;
+  subject: string;
+  greeting: string;
+  paragraphs: string[];
+  action?: { label: string; url: string };
+  footnote?: string;
+}
+
+function render(layout: Layout): RenderedMail {
+  const text = [
+    layout.greeting,
+    '',
+    ...layout.paragraphs.flatMap((p) => [p, '']),
+    ...(layout.action ? [`${layout.action.label}: ${layout.action.url}`, ''] : []),
+    ...(layout.footnote ? [layout.footnote, ''] : []),
+    '— Tenthmark, machining jobs measured and paid on acceptance',
+  ].join('\n');
+
+  const button = layout.action
+    ? `<p style="margin:24px 0"><a href="${escapeHtml(layout.action.url)}" style="background:#1d4e6b;color:#ffffff;text-decoration:none;font-weight:700;padding:12px 20px;border-radius:6px;display:inline-block">${escapeHtml(layout.action.label)}</a></p>
+<p style="font-size:13px;color:#4a5a66">If the button does not work, paste this address into your browser:<br><span style="word-break:break-all">${escapeHtml(layout.action.url)}</span></p>`
+    : '';
+  const html = `<!doctype html>
+<html lang="en"><head><meta charset="utf-8"><title>${escapeHtml(layout.subject)}</title></head>
+<body style="margin:0;background:#f3f1ec;font-family:Manrope,Segoe UI,Helvetica,Arial,sans-serif;color:#16232d">
+<table role="presentation" width="100%" cellpadding="0" cellspacing="0" style="padding:24px 0"><tr><td align="center">
+<table role="presentation" width="560" cellpadding="0" cellspacing="0" style="background:#ffffff;border-radius:10px;border-top:6px solid #b8741a">
+<tr><td style="padding:28px 32px 8px;font-size:20px;font-weight:800;letter-spacing:0.02em;color:#1d4e6b">Tenthmark</td></tr>
+<tr><td style="padding:8px 32px 28px;font-size:15px;line-height:1.6">
+<p>${escapeHtml(layout.greeting)}</p>
+${layout.paragraphs.map((p) => `<p>${escapeHtml(p)}</p>`).join('\n')}
+${button}
+${layout.footnote ? `<p style="font-size:13px;color:#4a5a66">${escapeHtml(layout.footnote)}</p>` : ''}
+</td></tr></table>
+<p style="font-size:12px;color:#4a5a66">Tenthmark: machining jobs measured and paid on acceptance.</p>
+</td></tr></table></body></html>`;
+  return { template: layout.template, subject: layout.subject, text, html };
+}
+
+export function verifyEmailMail(input: { displayName: string; url: string; hours: number }): RenderedMail {
+  return render({
+    template: 'verify_email',
+    subject: 'Confirm your e-mail address for Tenthmark',
+    greeting: `Hello ${input.displayName},`,
+    paragraphs: ['Please confirm that this is your e-mail address, so shops and builders can reach you about your jobs.'],
+    action: { label: 'Confirm my e-mail address', url: input.url },
+    footnote: `The link works once and expires in ${input.hours} hours. If you did not sign up, ignore this message.`,
+  });
+}
+
+export function passwordResetMail(input: { displayName: string; url: string; minutes: number }): RenderedMail {
+  return render({
+    template: 'reset_password',
+    subject: 'Choose a new Tenthmark password',
+    greeting: `Hello ${input.displayName},`,
+    paragraphs: ['Someone asked to reset the password of your Tenthmark account. If it was you, choose a new password here.'],
+    action: { label: 'Choose a new password', url: input.url },
+    footnote: `The link works once and expires in ${input.minutes} minutes. If you did not ask, ignore this message; your password stays as it is.`,
+  });
+}
+
+export function passwordChangedMail(input: { displayName: string }): RenderedMail {
+  return render({
+    template: 'password_changed',
+    subject: 'Your Tenthmark password was changed',
+    greeting: `Hello ${input.displayName},`,
+    paragraphs: [
+      'The password of your Tenthmark account was just changed, and every other signed-in device was signed out.',
+      'If this was not you, reset your password straight away and tell us.',
+    ],
+  });
+}
+
+export function adminInviteMail(input: { displayName: string; invitedBy: string; url: string; hours: number }): RenderedMail {
+  return render({
+    template: 'admin_invite',
+    subject: 'You have a Tenthmark staff account',
+    greeting: `Hello ${input.displayName},`,
+    paragraphs: [`${input.invitedBy} made you an administrator of Tenthmark. Choose a password to start.`],
+    action: { label: 'Choose my password', url: input.url },
+    footnote: `The link works once and expires in ${input.hours} hours.`,
+  });
+}

@@ -1,0 +1,159 @@
+import type { Database } from '../../db/client';
+import type { User } from '../../db/schema';
+import type { PendingGithub, Role, SignUpInput } from '../../../shared/schemas/auth';
+import { AppError, badRequest, conflict } from '../../lib/errors';
+import { hashPassword, verifyPassword } from '../../lib/auth/passwords';
+import { enqueueMail } from '../../lib/mail/outbox';
+import { passwordChangedMail, passwordResetMail, verifyEmailMail } from '../../lib/mail/templates';
+import {
+  deleteSessionsOfUser,
+  findUserByEmail,
+  findUserByGithubId,
+  findUserById,
+  insertUser,
+  updateUser,
+} from '../users/users.repository';
+import { consumeToken, issueToken } from './tokens';
+
+export const VERIFY_TTL_MS = 48 * 60 * 60_000;
+export const RESET_TTL_MS = 60 * 60_000;
+
+export interface AuthDeps {
+  db: Database;
+  appUrl: string;
+}
+
+async function sendVerification(deps: AuthDeps, tx: Parameters<Parameters<Database['transaction']>[0]>[0], user: User) {
+  const token = await issueToken(tx, user.id, 'verify_email', VERIFY_TTL_MS);
+  const url = `${deps.appUrl}/verify-email?token=${token}`;
+  await enqueueMail(tx, user.email, verifyEmailMail({ displayName: user.displayName, url, hours: VERIFY_TTL_MS / 3_600_000 }));
+}
+
+/** Creates the account and queues the verification mail in one transaction. */
+export async function signUp(deps: AuthDeps, input: SignUpInput): Promise<User> {
+  const passwordHash = await hashPassword(input.password);
+  return deps.db.transaction(async (tx) => {
+    const user = await insertUser(tx, {
+      email: input.email,
+      displayName: input.displayName,
+      role: input.role,
+      passwordHash,
+    });
+    if (!user) {
+      throw new AppError('email_taken', 'An account with this e-mail address already exists.', 409, {
+        email: 'An account with this e-mail address already exists. Sign in instead, or reset your password.',
+      });
+    }
+    await sendVerification(deps, tx, user);
+    return user;
+  });
+}
+
+/** Checks e-mail and password; the same answer whether the e-mail or the password was wrong. */
+export async function authenticate(deps: AuthDeps, email: string, password: string): Promise<User> {
+  const user = await findUserByEmail(deps.db, email);
+  const ok = await verifyPassword(user?.passwordHash, password);
+  if (!user || !ok) throw new AppError('wrong_credentials', 'That e-mail and password do not match an account.', 401);
+  if (user.status === 'suspended') {
+    throw new AppError('suspended', 'This account is suspended. Contact Tenthmark support.', 403);
+  }
+  return user;
+}
+
+/** Queues a reset link when the account exists; says nothing either way. */
+export async function requestPasswordReset(deps: AuthDeps, email: string): Promise<void> {
+  await deps.db.transaction(async (tx) => {
+    const user = await findUserByEmail(tx, email);
+    if (!user || user.status === 'suspended') return;
+    const token = await issueToken(tx, user.id, 'reset_password', RESET_TTL_MS);
+    const url = `${deps.appUrl}/reset-password?token=${token}`;
+    await enqueueMail(tx, user.email, passwordResetMail({ displayName: user.displayName, url, minutes: RESET_TTL_MS / 60_000 }));
+  });
+}
+
+const expiredLink = () =>
+  new AppError('link_expired', 'This link has expired or was already used. Ask for a new one.', 400, {
+    token: 'This link has expired or was already used.',
+  });
+
+/** Spends the reset link, sets the password, ends every session of the account. */
+export async function confirmPasswordReset(deps: AuthDeps, token: string, password: string): Promise<User> {
+  const passwordHash = await hashPassword(password);
+  return deps.db.transaction(async (tx) => {
+    const userId = await consumeToken(tx, token, 'reset_password');
+    if (!userId) throw expiredLink();
+    // Following the link proves the person reads that mailbox.
+    const user = await findUserById(tx, userId);
+    const updated = await updateUser(tx, userId, { passwordHash, emailVerifiedAt: user?.emailVerifiedAt ?? new Date() });
+    if (!updated) throw expiredLink();
+    await deleteSessionsOfUser(tx, userId);
+    await enqueueMail(tx, updated.email, passwordChangedMail({ displayName: updated.displayName }));
+    return updated;
+  });
+}
+
+export async function verifyEmail(deps: AuthDeps, token: string): Promise<User> {
+  return deps.db.transaction(async (tx) => {
+    const userId = await consumeToken(tx, token, 'verify_email');
+    if (!userId) throw expiredLink();
+    const user = await updateUser(tx, userId, { emailVerifiedAt: new Date() });
+    if (!user) throw expiredLink();
+    return user;
+  });
+}
+
+export async function resendVerification(deps: AuthDeps, user: User): Promise<void> {
+  if (user.emailVerifiedAt) throw conflict('Your e-mail address is already confirmed.', 'already_verified');
+  await deps.db.transaction((tx) => sendVerification(deps, tx, user));
+}
+
+export interface GithubProfile {
+  githubId: string;
+  login: string;
+  displayName: string;
+  /** The primary address GitHub has verified, if any. */
+  email?: string;
+}
+
+export type GithubOutcome = { kind: 'signed-in'; user: User } | { kind: 'needs-role'; pending: PendingGithub & { githubId: string } };
+
+/** A known GitHub account signs in; a new one must first choose a role. */
+export async function githubSignIn(deps: AuthDeps, profile: GithubProfile): Promise<GithubOutcome> {
+  const known = await findUserByGithubId(deps.db, profile.githubId);
+  if (known) {
+    if (known.status === 'suspended') {
+      throw new AppError('suspended', 'This account is suspended. Contact Tenthmark support.', 403);
+    }
+    return { kind: 'signed-in', user: known };
+  }
+  if (!profile.email) {
+    throw badRequest('Your GitHub account has no verified e-mail address. Add one on GitHub, or sign up with e-mail.');
+  }
+  if (await findUserByEmail(deps.db, profile.email)) {
+    throw conflict(
+      'An account with the e-mail address of this GitHub account already exists. Sign in with your password.',
+      'email_taken',
+    );
+  }
+  return {
+    kind: 'needs-role',
+    pending: { githubId: profile.githubId, login: profile.login, email: profile.email, displayName: profile.displayName },
+  };
+}
+
+export async function completeGithubSignUp(
+  deps: AuthDeps,
+  pending: PendingGithub & { githubId: string },
+  role: Extract<Role, 'builder' | 'shop'>,
+): Promise<User> {
+  const user = await insertUser(deps.db, {
+    email: pending.email,
+    displayName: pending.displayName,
+    role,
+    githubId: pending.githubId,
+    // GitHub told us this address is verified.
+    emailVerifiedAt: new Date(),
+  });
+  if (!user) throw conflict('An account for this GitHub user or e-mail address already exists.', 'email_taken');
+  return user;
+}

@@ -1,0 +1,54 @@
+import { createServer, type Server } from 'node:http';
+import type { AddressInfo } from 'node:net';
+import { createApp, type AppDeps } from './app';
+import { createDb, createPool, runMigrations } from './db/client';
+import type { AppConfig } from './env';
+import { createLogger } from './lib/logger';
+import { createOutboxWorker } from './lib/mail/outbox';
+import { createTransport } from './lib/mail/transport';
+
+export interface RunningServer {
+  server: Server;
+  url: string;
+  port: number;
+  close(): Promise<void>;
+}
+
+/**
+ * Starts one app instance: database pool, HTTP server and the mail outbox
+ * worker. Used by server/index.ts, by `npm start` and by the browser tests.
+ */
+export async function startServer(
+  config: AppConfig,
+  options: { client?: AppDeps['client']; migrate?: boolean; mailIntervalMs?: number } = {},
+): Promise<RunningServer> {
+  const logger = createLogger(config);
+  if (options.migrate ?? true) await runMigrations(config.databaseUrl);
+  const pool = createPool(config.databaseUrl);
+  const db = createDb(pool);
+  const app = createApp({ config, db, pool, logger, client: options.client });
+  const server = createServer(app);
+  await new Promise<void>((resolve, reject) => {
+    server.once('error', reject);
+    server.listen(config.port, '127.0.0.1', () => resolve());
+  });
+  const port = (server.address() as AddressInfo).port;
+
+  const transport = createTransport(config.smtp);
+  const worker = createOutboxWorker({ db, transport, from: config.mailFrom, logger });
+  worker.start(options.mailIntervalMs ?? 1_000);
+
+  return {
+    server,
+    port,
+    url: `http://localhost:${port}`,
+    async close() {
+      await worker.stop();
+      await new Promise<void>((resolve) => server.close(() => resolve()));
+      server.closeAllConnections();
+      app.sessionStore.close();
+      transport.close();
+      await pool.end();
+    },
+  };
+}

@@ -1,0 +1,67 @@
+import { z } from 'zod';
+
+/** Roles a person can choose at sign-up; admin accounts come only from an admin. */
+export const selfServiceRoles = ['builder', 'shop'] as const;
+export const roles = ['builder', 'shop', 'admin'] as const;
+export type Role = (typeof roles)[number];
+
+const email = z
+  .string({ error: 'Enter your e-mail address.' })
+  .trim()
+  .min(1, 'Enter your e-mail address.')
+  .max(254, 'That e-mail address is too long.')
+  .pipe(z.email({ error: 'Enter a valid e-mail address, like name@example.com.' }));
+
+export const newPasswordSchema = z
+  .string({ error: 'Choose a password.' })
+  .min(10, 'Use at least 10 characters.')
+  .max(200, 'Use at most 200 characters.');
+
+const role = z.enum(selfServiceRoles, { error: 'Choose whether you build engines or run a machine shop.' });
+
+export const signUpSchema = z.object({
+  displayName: z
+    .string({ error: 'Enter your name or your business name.' })
+    .trim()
+    .min(1, 'Enter your name or your business name.')
+    .max(80, 'Use at most 80 characters.'),
+  email,
+  password: newPasswordSchema,
+  role,
+});
+export type SignUpInput = z.infer<typeof signUpSchema>;
+
+export const signInSchema = z.object({
+  email,
+  password: z.string({ error: 'Enter your password.' }).min(1, 'Enter your password.').max(200, 'That password is too long.'),
+});
+export type SignInInput = z.infer<typeof signInSchema>;
+
+export const passwordResetRequestSchema = z.object({ email });
+export type PasswordResetRequestInput = z.infer<typeof passwordResetRequestSchema>;
+
+const token = z.string({ error: 'The link is incomplete.' }).regex(/^[A-Za-z0-9_-]{20,100}$/, 'The link is incomplete or damaged.');
+
+export const passwordResetConfirmSchema = z.object({ token, password: newPasswordSchema });
+export type PasswordResetConfirmInput = z.infer<typeof passwordResetConfirmSchema>;
+
+export const verifyEmailSchema = z.object({ token });
+
+export const githubCompleteSchema = z.object({ role });
+export type GithubCompleteInput = z.infer<typeof githubCompleteSchema>;
+
+/** The signed-in person as the API shows them to themselves. */
+export const meSchema = z.object({
+  id: z.string(),
+  email: z.string(),
+  displayName: z.string(),
+  role: z.enum(roles),
+  emailVerified: z.boolean(),
+  hasPassword: z.boolean(),
+  githubLinked: z.boolean(),
+});
+export type Me = z.infer<typeof meSchema>;
+
+/** A GitHub sign-in waiting for the person to choose a role. */
+export const pendingGithubSchema = z.object({ login: z.string(), email: z.string(), displayName: z.string() });
+export type PendingGithub = z.infer<typeof pendingGithubSchema>;
