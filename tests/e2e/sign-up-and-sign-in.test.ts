@@ -1,0 +1,116 @@
+import { join } from 'node:path';
+import type { Browser, BrowserContext, Page } from 'playwright-core';
+import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, inject, it } from 'vitest';
+import { DEMO_PASSWORD, demoAccounts } from '../../server/dev/seed';
+import type { RunningServer } from '../../server/runtime';
+import { uniqueEmail } from '../factories';
+import { artifactsDir, launchBrowser, startBrowserApp } from '../setup/browser';
+
+let browser: Browser;
+let app: { server: RunningServer; close: () => Promise<void> };
+let context: BrowserContext;
+let page: Page;
+const consoleErrors: string[] = [];
+
+beforeAll(async () => {
+  [browser, app] = await Promise.all([launchBrowser(), startBrowserApp()]);
+});
+afterAll(async () => {
+  await browser?.close();
+  await app?.close();
+});
+beforeEach(async () => {
+  context = await browser.newContext({ viewport: { width: 768, height: 1024 } }); // a shop-floor tablet
+  page = await context.newPage();
+  consoleErrors.length = 0;
+  page.on('console', (msg) => {
+    // A 401 from /api/auth/me is how a signed-out visitor is recognised.
+    if (msg.type() === 'error' && !/401/.test(msg.text())) consoleErrors.push(msg.text());
+  });
+  page.on('pageerror', (err) => consoleErrors.push(err.message));
+});
+afterEach(async () => {
+  await context?.close();
+});
+
+const url = (path: string) => `${app.server.url}${path}`;
+
+async function waitForMail(to: string, subject: string) {
+  const deadline = Date.now() + 10_000;
+  while (Date.now() < deadline) {
+    const res = await fetch(`${inject('maildevUrl')}/api/email`);
+    const mails = (await res.json()) as Array<{ subject: string; text: string; to: Array<{ address: string }> }>;
+    const mail = mails.find((m) => m.subject === subject && m.to.some((t) => t.address === to));
+    if (mail) return mail;
+    await new Promise((r) => setTimeout(r, 200));
+  }
+  throw new Error(`no mail "${subject}" to ${to} arrived`);
+}
+
+describe('in a real browser', () => {
+  it('when a new shop signs up through the form, then it lands on its dashboard and can confirm its e-mail from the real mail', async () => {
+    const email = uniqueEmail('browser-shop');
+    await page.goto(url('/signup'));
+    await page.getByRole('radio', { name: /I run a machine shop/ }).check();
+    await page.getByLabel('Your name or business name').fill('Harrow Lane Cylinder Works');
+    await page.getByLabel('E-mail').fill(email);
+    await page.getByLabel('Password').fill('shop floor password');
+    await page.getByRole('button', { name: 'Create my account' }).click();
+
+    await page.waitForURL(url('/dashboard'));
+    await expect(page.getByRole('heading', { level: 1 }).textContent()).resolves.toBe('Your shop floor');
+    await expect(page.getByTestId('signed-in-as').textContent()).resolves.toContain('Harrow Lane Cylinder Works');
+    await expect(page.getByText('Please confirm your e-mail address').isVisible()).resolves.toBe(true);
+    await page.screenshot({ path: join(artifactsDir, 'dashboard-after-sign-up.png'), fullPage: true });
+
+    // The verification mail went through the outbox, over SMTP, into maildev.
+    const mail = await waitForMail(email, 'Confirm your e-mail address for Tenthmark');
+    const link = /https?:\/\/\S+\/verify-email\?token=[\w-]+/.exec(mail.text)![0];
+    await page.goto(url(new URL(link).pathname + new URL(link).search));
+    await page.getByText('Confirmed').waitFor();
+    await page.goto(url('/dashboard'));
+    await page.getByText('(confirmed)').waitFor();
+    expect(consoleErrors).toEqual([]);
+  });
+
+  it('when the sign-up form is sent with mistakes, then each message shows beside its field and the typed values stay', async () => {
+    await page.goto(url('/signup'));
+    await page.getByLabel('E-mail').fill('not-an-address');
+    await page.getByLabel('Password').fill('short');
+    await page.getByRole('button', { name: 'Create my account' }).click();
+
+    await page.getByText('Use at least 10 characters.').waitFor();
+    await page.getByText('Enter a valid e-mail address, like name@example.com.').waitFor();
+    await page.getByText('Choose whether you build engines or run a machine shop.').waitFor();
+    await expect(page.getByLabel('E-mail').inputValue()).resolves.toBe('not-an-address');
+    await expect(page.getByLabel('E-mail').getAttribute('aria-invalid')).resolves.toBe('true');
+    expect(page.url()).toBe(url('/signup'));
+    await page.screenshot({ path: join(artifactsDir, 'sign-up-errors.png'), fullPage: true });
+  });
+
+  it('when a demo builder signs in through the form, then the dashboard greets them; a wrong password shows the server message', async () => {
+    const builder = demoAccounts.find((a) => a.role === 'builder')!;
+    await page.goto(url('/signin'));
+    await page.getByLabel('E-mail').fill(builder.email);
+    await page.getByLabel('Password').fill('not the demo password');
+    await page.getByRole('button', { name: 'Sign in' }).click();
+    await page.getByText('That e-mail and password do not match an account.').waitFor();
+
+    await page.getByLabel('Password').fill(DEMO_PASSWORD);
+    await page.getByRole('button', { name: 'Sign in' }).click();
+    await page.waitForURL(url('/dashboard'));
+    await expect(page.getByTestId('signed-in-as').textContent()).resolves.toContain(builder.displayName);
+    await expect(page.getByRole('heading', { level: 1 }).textContent()).resolves.toBe('Your workbench');
+
+    await page.getByRole('button', { name: 'Sign out' }).click();
+    await page.waitForURL(url('/'));
+    await page.goto(url('/dashboard'));
+    await page.waitForURL(/\/signin\?returnTo=%2Fdashboard$/);
+  });
+
+  it('when an unknown page is opened, then the 404 page shows inside the layout', async () => {
+    await page.goto(url('/no/such/page'));
+    await expect(page.getByRole('heading', { level: 1 }).textContent()).resolves.toBe('Page not found');
+    await expect(page.getByRole('link', { name: 'Go to the front page' }).isVisible()).resolves.toBe(true);
+  });
+});

@@ -1,0 +1,36 @@
+import { mkdirSync } from 'node:fs';
+import { fileURLToPath } from 'node:url';
+import { chromium, type Browser } from 'playwright-core';
+import { createDb, createPool } from '../../server/db/client';
+import { seedIfEmpty } from '../../server/dev/seed';
+import { startServer, type RunningServer } from '../../server/runtime';
+import { createTestDatabase, testConfig } from './test-env';
+
+export const artifactsDir = fileURLToPath(new URL('../artifacts', import.meta.url));
+const clientDir = fileURLToPath(new URL('../../dist/client', import.meta.url));
+
+/** Debian's Chromium, headless; playwright-core never downloads a browser of its own. */
+export function launchBrowser(): Promise<Browser> {
+  return chromium.launch({ executablePath: '/usr/bin/chromium', headless: true, args: ['--disable-gpu'] });
+}
+
+/**
+ * The whole app as a person meets it: the production build of the browser app
+ * served by a real HTTP server on a database of its own, with the demo accounts.
+ */
+export async function startBrowserApp(): Promise<{ server: RunningServer; close: () => Promise<void> }> {
+  mkdirSync(artifactsDir, { recursive: true });
+  const database = await createTestDatabase();
+  const seedPool = createPool(database.url, 2);
+  await seedIfEmpty(createDb(seedPool));
+  await seedPool.end();
+  const config = testConfig(database.url, { PORT: '0' });
+  const server = await startServer(config, { client: { kind: 'static', dir: clientDir }, migrate: false, mailIntervalMs: 200 });
+  return {
+    server,
+    close: async () => {
+      await server.close();
+      await database.drop();
+    },
+  };
+}
