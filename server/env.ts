@@ -8,6 +8,7 @@ const schema = z
   .object({
     NODE_ENV: z.enum(['development', 'test', 'production']).default('development'),
     PORT: z.coerce.number().int().min(0).max(65535).default(3000),
+    HOST: z.string().min(1).default('127.0.0.1'),
     APP_URL: z.url().optional(),
     DATABASE_URL: z.string().min(1).default('postgres://postgres@127.0.0.1:54329/tenthmark'),
     TENTHMARK_PG_PORT: z.coerce.number().int().min(1).max(65535).default(54329),
@@ -59,6 +60,7 @@ export interface GithubConfig {
 export interface AppConfig {
   nodeEnv: RawEnv['NODE_ENV'];
   port: number;
+  host: string;
   appUrl: string;
   databaseUrl: string;
   pgPort: number;
@@ -104,6 +106,7 @@ export function loadConfig(source: NodeJS.ProcessEnv = process.env): AppConfig {
   return {
     nodeEnv: env.NODE_ENV,
     port: env.PORT,
+    host: env.HOST,
     appUrl,
     databaseUrl: env.DATABASE_URL,
     pgPort: env.TENTHMARK_PG_PORT,

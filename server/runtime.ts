@@ -30,7 +30,7 @@ export async function startServer(
   const server = createServer(app);
   await new Promise<void>((resolve, reject) => {
     server.once('error', reject);
-    server.listen(config.port, '127.0.0.1', () => resolve());
+    server.listen(config.port, config.host, () => resolve());
   });
   const port = (server.address() as AddressInfo).port;
 
