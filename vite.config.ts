@@ -23,6 +23,7 @@ export default defineConfig({
     host: '127.0.0.1',
   },
   test: {
+    reporters: ['default', './tests/setup/summary-reporter.ts'],
     projects: [
       {
         extends: true,

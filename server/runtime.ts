@@ -20,9 +20,9 @@ export interface RunningServer {
  */
 export async function startServer(
   config: AppConfig,
-  options: { client?: AppDeps['client']; migrate?: boolean; mailIntervalMs?: number } = {},
+  options: { client?: AppDeps['client']; migrate?: boolean; mailIntervalMs?: number; prettyLogs?: boolean } = {},
 ): Promise<RunningServer> {
-  const logger = createLogger(config);
+  const logger = createLogger(config, { pretty: options.prettyLogs });
   if (options.migrate ?? true) await runMigrations(config.databaseUrl);
   const pool = createPool(config.databaseUrl);
   const db = createDb(pool);

@@ -85,7 +85,7 @@ try {
     client = { kind: 'static' as const, dir: `${root}/dist/client` };
   }
 
-  const app = await startServer({ ...config, databaseUrl }, { client });
+  const app = await startServer({ ...config, databaseUrl }, { client, prettyLogs: process.stdout.isTTY });
   cleanups.push(() => app.close());
 
   console.log(`
