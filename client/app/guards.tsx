@@ -1,5 +1,6 @@
 import type { ReactNode } from 'react';
-import { Navigate, useLocation } from 'react-router-dom';
+import { Navigate, useLocation, useSearchParams } from 'react-router-dom';
+import { safeReturnPath } from '@shared/paths';
 import type { Role } from '@shared/schemas/auth';
 import { Notice } from '@client/components/ui/notice';
 import { useMe } from '@client/features/auth/api/use-me';
@@ -16,10 +17,11 @@ export function RequireRole({ roles, children }: { roles?: Role[]; children: Rea
   return children;
 }
 
-/** Pages for signed-out visitors only (sign in, sign up) send signed-in people to their dashboard. */
+/** Pages for signed-out visitors only (sign in, sign up) send signed-in people on, to where they were going. */
 export function GuestOnly({ children }: { children: ReactNode }) {
   const { data: me, isPending } = useMe();
+  const [params] = useSearchParams();
   if (isPending) return null;
-  if (me) return <Navigate to="/dashboard" replace />;
+  if (me) return <Navigate to={safeReturnPath(params.get('returnTo'))} replace />;
   return children;
 }

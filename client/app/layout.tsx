@@ -15,7 +15,10 @@ export const navigationByRole: Record<Me['role'] | 'anonymous', NavItem[]> = {
   anonymous: [{ to: '/', label: 'How it works' }],
   builder: [{ to: '/dashboard', label: 'Workbench' }],
   shop: [{ to: '/dashboard', label: 'Shop floor' }],
-  admin: [{ to: '/dashboard', label: 'Operations' }],
+  admin: [
+    { to: '/dashboard', label: 'Operations' },
+    { to: '/admin/people', label: 'People' },
+  ],
 };
 
 function navClass({ isActive }: { isActive: boolean }) {

@@ -1,6 +1,7 @@
 import { createBrowserRouter } from 'react-router-dom';
 import { GuestOnly, RequireRole } from './guards';
 import { Layout } from './layout';
+import { AdminPeopleRoute } from './routes/admin-people';
 import { DashboardRoute } from './routes/dashboard';
 import { ForgotPasswordRoute } from './routes/forgot-password';
 import { GithubWelcomeRoute } from './routes/github-welcome';
@@ -28,6 +29,7 @@ export const router = createBrowserRouter([
           { path: '/verify-email', element: <VerifyEmailRoute /> },
           { path: '/welcome/github', element: <GithubWelcomeRoute /> },
           { path: '/dashboard', element: <RequireRole><DashboardRoute /></RequireRole> },
+          { path: '/admin/people', element: <RequireRole roles={['admin']}><AdminPeopleRoute /></RequireRole> },
           { path: '*', element: <NotFoundRoute /> },
         ],
       },

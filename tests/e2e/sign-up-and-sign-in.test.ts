@@ -21,6 +21,7 @@ afterAll(async () => {
 });
 beforeEach(async () => {
   context = await browser.newContext({ viewport: { width: 768, height: 1024 } }); // a shop-floor tablet
+  context.setDefaultTimeout(10_000);
   page = await context.newPage();
   consoleErrors.length = 0;
   page.on('console', (msg) => {
@@ -106,6 +107,37 @@ describe('in a real browser', () => {
     await page.waitForURL(url('/'));
     await page.goto(url('/dashboard'));
     await page.waitForURL(/\/signin\?returnTo=%2Fdashboard$/);
+  });
+
+  it('when the demo admin adds an administrator, then the newcomer shows in the people list; a builder cannot open that page', async () => {
+    const admin = demoAccounts.find((a) => a.role === 'admin')!;
+    await page.goto(url('/signin?returnTo=%2Fadmin%2Fpeople'));
+    await page.getByLabel('E-mail').fill(admin.email);
+    await page.getByLabel('Password').fill(DEMO_PASSWORD);
+    await page.getByRole('button', { name: 'Sign in' }).click();
+    await page.waitForURL(url('/admin/people'));
+    await page.getByText(/^\d+ accounts$/).waitFor();
+
+    const email = uniqueEmail('staff');
+    const form = page.getByRole('form', { name: 'Add an administrator' });
+    await form.getByLabel('Name').fill('Wren Ashcombe');
+    await form.getByLabel('E-mail').fill(email);
+    await form.getByRole('button', { name: 'Add administrator' }).click();
+    await page.getByText('Wren Ashcombe is an administrator now').waitFor();
+    await page.getByRole('cell', { name: email }).waitFor();
+    await page.screenshot({ path: join(artifactsDir, 'admin-people.png'), fullPage: true });
+    await waitForMail(email, 'You have a Tenthmark staff account');
+
+    const builderContext = await browser.newContext();
+    const builderPage = await builderContext.newPage();
+    const builder = demoAccounts.find((a) => a.role === 'builder')!;
+    await builderPage.goto(url('/signin?returnTo=%2Fadmin%2Fpeople'));
+    await builderPage.getByLabel('E-mail').fill(builder.email);
+    await builderPage.getByLabel('Password').fill(DEMO_PASSWORD);
+    await builderPage.getByRole('button', { name: 'Sign in' }).click();
+    await builderPage.getByText('Not for your account').waitFor();
+    await expect(builderPage.getByRole('link', { name: 'People' }).count()).resolves.toBe(0);
+    await builderContext.close();
   });
 
   it('when an unknown page is opened, then the 404 page shows inside the layout', async () => {

@@ -1,0 +1,20 @@
+import { Card, PageTitle } from '@client/components/ui/card';
+import { AddAdminForm } from '@client/features/admin/components/add-admin-form';
+import { PeopleTable } from '@client/features/admin/components/people-table';
+
+export function AdminPeopleRoute() {
+  return (
+    <div>
+      <PageTitle title="People" lead="Every account on Tenthmark. New administrators are added here, by an administrator." />
+      <div className="grid gap-6 lg:grid-cols-[2fr_1fr]">
+        <Card>
+          <PeopleTable />
+        </Card>
+        <Card>
+          <h2 className="mb-4 text-xl font-bold">Add an administrator</h2>
+          <AddAdminForm />
+        </Card>
+      </div>
+    </div>
+  );
+}

@@ -1,0 +1,73 @@
+import { useDeferredValue, useState } from 'react';
+import type { Role } from '@shared/schemas/auth';
+import { Notice } from '@client/components/ui/notice';
+import { useAdminUsers } from '../api/admin-users';
+
+const dateFormat = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium' });
+
+export function PeopleTable() {
+  const [q, setQ] = useState('');
+  const [role, setRole] = useState<Role | ''>('');
+  const filters = { q: useDeferredValue(q.trim()) || undefined, role: role || undefined };
+  const users = useAdminUsers(filters);
+  return (
+    <div className="flex flex-col gap-4">
+      <div className="flex flex-wrap gap-3">
+        <label className="flex flex-1 flex-col gap-1 text-sm font-semibold">
+          Search by name or e-mail
+          <input
+            type="search"
+            value={q}
+            onChange={(e) => setQ(e.target.value)}
+            className="min-h-11 rounded-lg border border-slate-300 bg-white px-3 text-base font-normal"
+          />
+        </label>
+        <label className="flex flex-col gap-1 text-sm font-semibold">
+          Role
+          <select
+            value={role}
+            onChange={(e) => setRole(e.target.value as Role | '')}
+            className="min-h-11 rounded-lg border border-slate-300 bg-white px-3 text-base font-normal"
+          >
+            <option value="">All</option>
+            <option value="builder">Builders</option>
+            <option value="shop">Shops</option>
+            <option value="admin">Administrators</option>
+          </select>
+        </label>
+      </div>
+      {users.isError && <Notice tone="error">{users.error.message}</Notice>}
+      {users.data && (
+        <>
+          <p className="text-sm text-ink-soft" aria-live="polite">
+            {users.data.total} {users.data.total === 1 ? 'account' : 'accounts'}
+          </p>
+          <div className="overflow-x-auto">
+            <table className="w-full text-left text-sm">
+              <thead className="border-b border-slate-200 text-ink-soft">
+                <tr>
+                  <th scope="col" className="py-2 pr-4">Name</th>
+                  <th scope="col" className="py-2 pr-4">E-mail</th>
+                  <th scope="col" className="py-2 pr-4">Role</th>
+                  <th scope="col" className="py-2 pr-4">Status</th>
+                  <th scope="col" className="py-2">Joined</th>
+                </tr>
+              </thead>
+              <tbody>
+                {users.data.users.map((user) => (
+                  <tr key={user.id} className="border-b border-slate-100">
+                    <td className="py-2 pr-4 font-semibold">{user.displayName}</td>
+                    <td className="py-2 pr-4">{user.email}</td>
+                    <td className="py-2 pr-4 capitalize">{user.role}</td>
+                    <td className="py-2 pr-4">{user.status === 'active' ? 'Active' : 'Suspended'}</td>
+                    <td className="py-2">{dateFormat.format(new Date(user.createdAt))}</td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          </div>
+        </>
+      )}
+    </div>
+  );
+}
