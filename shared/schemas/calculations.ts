@@ -1,0 +1,244 @@
+/**
+ * Request schemas for the calculation API (POST /api/calculations/<route>),
+ * also used by the calculator forms. Each field has a plain-English message;
+ * physically impossible input (zero or negative sizes, zero speed, an empty
+ * profile, NaN or infinite numbers) fails here, so the route answers 400 and
+ * the library in shared/calc never sees it.
+ *
+ * Lengths are in the request's `unit` (inch or millimetre). Upper bounds are
+ * generous sanity caps that keep results finite, not engineering limits.
+ */
+import { z } from 'zod';
+import { MIN_PROFILE_POINTS } from '../calc/roughness';
+import { clearanceVolume } from '../calc/engine';
+
+/** Largest length accepted, in the request's unit (a 10 m bore in millimetres). */
+export const MAX_LENGTH = 10_000;
+/** Largest volume accepted, cc. */
+export const MAX_VOLUME_CC = 10_000_000;
+/** Largest speed or rate accepted (rev/min, cycles/min). */
+export const MAX_RATE = 100_000;
+/** Most cylinders accepted in one request. */
+export const MAX_CYLINDERS = 64;
+/** Most straightedge readings accepted. */
+export const MAX_DECK_READINGS = 100;
+/** Most profile heights accepted. */
+export const MAX_PROFILE_POINTS = 500_000;
+/** Largest profile height accepted, either sign, µm (10 cm). */
+export const MAX_HEIGHT_UM = 100_000;
+
+function withCommas(value: number): string {
+  return String(value).replace(/\B(?=(\d{3})+(?!\d))/g, ',');
+}
+
+/** A finite number with "required" and "must be a number" messages. */
+function numberField(label: string) {
+  return z.number({
+    error: (issue) => (issue.input === undefined ? `${label} is required.` : `${label} must be a number.`),
+  });
+}
+
+function positive(label: string, max = MAX_LENGTH) {
+  return numberField(label)
+    .positive(`${label} must be greater than zero.`)
+    .max(max, `${label} must be at most ${withCommas(max)}.`);
+}
+
+function nonNegative(label: string, max = MAX_LENGTH) {
+  return numberField(label)
+    .min(0, `${label} cannot be negative.`)
+    .max(max, `${label} must be at most ${withCommas(max)}.`);
+}
+
+function signed(label: string, maxAbs = MAX_LENGTH) {
+  return numberField(label)
+    .min(-maxAbs, `${label} must be at least -${withCommas(maxAbs)}.`)
+    .max(maxAbs, `${label} must be at most ${withCommas(maxAbs)}.`);
+}
+
+export const lengthUnitSchema = z.enum(['in', 'mm'], { error: 'Choose inches or millimetres.' });
+
+// --- engine geometry -------------------------------------------------------
+
+export const displacementRequestSchema = z.object({
+  unit: lengthUnitSchema,
+  bore: positive('Bore'),
+  stroke: positive('Stroke'),
+  cylinders: numberField('Number of cylinders')
+    .int('Number of cylinders must be a whole number.')
+    .min(1, 'Number of cylinders must be at least 1.')
+    .max(MAX_CYLINDERS, `Number of cylinders must be at most ${MAX_CYLINDERS}.`),
+});
+
+export const compressionRatioRequestSchema = z
+  .object({
+    unit: lengthUnitSchema,
+    bore: positive('Bore'),
+    stroke: positive('Stroke'),
+    chamberCc: nonNegative('Chamber volume', MAX_VOLUME_CC),
+    pistonCc: signed('Piston volume', MAX_VOLUME_CC),
+    deckClearance: signed('Deck clearance'),
+    gasketBore: positive('Gasket bore'),
+    gasketThickness: nonNegative('Gasket thickness'),
+  })
+  .superRefine((value, ctx) => {
+    // Runs even when a field above failed, so only judge complete, valid input.
+    const numbers = [value.bore, value.stroke, value.chamberCc, value.pistonCc, value.deckClearance, value.gasketBore, value.gasketThickness];
+    if (!numbers.every((n) => typeof n === 'number' && Number.isFinite(n))) return;
+    if (value.unit !== 'in' && value.unit !== 'mm') return;
+    if (clearanceVolume(value).clearanceCc <= 0) {
+      ctx.addIssue({
+        code: 'custom',
+        path: [value.pistonCc < 0 ? 'pistonCc' : 'deckClearance'],
+        message:
+          'These volumes leave no space above the piston at top dead centre. Check the dome volume (negative) and the deck clearance (negative when the piston stands above the deck).',
+      });
+    }
+  });
+
+// --- honing -----------------------------------------------------------------
+
+const honeFields = {
+  unit: lengthUnitSchema,
+  bore: positive('Bore'),
+  spindleRpm: positive('Spindle speed', MAX_RATE),
+  strokeLength: positive('Stroke length'),
+};
+
+export const crosshatchRequestSchema = z.object({
+  ...honeFields,
+  cyclesPerMinute: positive('Cycles per minute', MAX_RATE),
+});
+
+export const crosshatchRateRequestSchema = z.object({
+  ...honeFields,
+  includedAngleDeg: numberField('Included angle')
+    .positive('Included angle must be greater than 0 degrees.')
+    .lt(180, 'Included angle must be less than 180 degrees.'),
+});
+
+// --- bores --------------------------------------------------------------------
+
+const readingPairSchema = z.object(
+  {
+    thrust: positive('Thrust reading'),
+    axial: positive('Axial reading'),
+  },
+  { error: 'Enter a thrust and an axial reading.' },
+);
+
+export const cylinderReadingsSchema = z.object(
+  {
+    top: readingPairSchema,
+    middle: readingPairSchema,
+    bottom: readingPairSchema,
+    piston: positive('Piston diameter').optional(),
+  },
+  { error: 'Enter the top, middle and bottom readings.' },
+);
+
+export const boreSpecSchema = z
+  .object({
+    targetBore: positive('Target bore').optional(),
+    targetTolerance: nonNegative('Target tolerance').optional(),
+    clearanceMin: nonNegative('Minimum clearance').optional(),
+    clearanceMax: nonNegative('Maximum clearance').optional(),
+    maxTaper: nonNegative('Maximum taper').optional(),
+    maxOutOfRound: nonNegative('Maximum out-of-round').optional(),
+  })
+  .superRefine((spec, ctx) => {
+    if (typeof spec.clearanceMin === 'number' && typeof spec.clearanceMax === 'number' && spec.clearanceMin > spec.clearanceMax) {
+      ctx.addIssue({ code: 'custom', path: ['clearanceMax'], message: 'Maximum clearance cannot be smaller than minimum clearance.' });
+    }
+  });
+
+export const boreInspectionRequestSchema = z.object({
+  unit: lengthUnitSchema,
+  cylinders: z
+    .array(cylinderReadingsSchema, { error: 'Enter the readings for each cylinder.' })
+    .min(1, 'Enter the readings for at least one cylinder.')
+    .max(MAX_CYLINDERS, `Enter at most ${MAX_CYLINDERS} cylinders.`),
+  spec: boreSpecSchema.optional(),
+});
+
+export const boreSizeRequestSchema = z
+  .object({
+    unit: lengthUnitSchema,
+    pistonDiameter: positive('Piston diameter'),
+    clearanceMin: nonNegative('Minimum clearance'),
+    clearanceMax: nonNegative('Maximum clearance'),
+    honeAllowance: nonNegative('Hone allowance'),
+  })
+  .superRefine((value, ctx) => {
+    const { pistonDiameter, clearanceMin, clearanceMax, honeAllowance } = value;
+    if (![pistonDiameter, clearanceMin, clearanceMax, honeAllowance].every((n) => typeof n === 'number' && Number.isFinite(n))) return;
+    if (clearanceMin > clearanceMax) {
+      ctx.addIssue({ code: 'custom', path: ['clearanceMax'], message: 'Maximum clearance cannot be smaller than minimum clearance.' });
+      return;
+    }
+    if (honeAllowance >= pistonDiameter + (clearanceMin + clearanceMax) / 2) {
+      ctx.addIssue({ code: 'custom', path: ['honeAllowance'], message: 'Hone allowance must be smaller than the finished bore.' });
+    }
+  });
+
+// --- deck ---------------------------------------------------------------------
+
+export const deckFlatnessRequestSchema = z.object({
+  unit: lengthUnitSchema,
+  readings: z
+    .array(nonNegative('Each straightedge reading'), { error: 'Enter the straightedge readings.' })
+    .min(1, 'Enter at least one straightedge reading.')
+    .max(MAX_DECK_READINGS, `Enter at most ${MAX_DECK_READINGS} straightedge readings.`),
+  material: z.enum(['cast-iron', 'aluminium'], { error: 'Choose cast iron or aluminium.' }),
+  gasket: z.enum(['mls', 'composite'], { error: 'Choose a multi-layer steel or composite gasket.' }),
+  /** Optional: the shop's own limit, replacing the common-practice table. */
+  shopLimit: positive('Shop limit').optional(),
+});
+
+// --- roughness ----------------------------------------------------------------
+
+export const roughnessRequestSchema = z.object({
+  heightsUm: z
+    .array(signed('Each height', MAX_HEIGHT_UM), { error: 'Enter the profile heights as a list of numbers.' })
+    .min(MIN_PROFILE_POINTS, `A profile needs at least ${MIN_PROFILE_POINTS} heights.`)
+    .max(MAX_PROFILE_POINTS, `A profile can have at most ${withCommas(MAX_PROFILE_POINTS)} heights.`),
+  spacingUm: positive('Sample spacing', 1_000_000),
+});
+
+// --- rings --------------------------------------------------------------------
+
+export const ringGapRequestSchema = z.object({
+  unit: lengthUnitSchema,
+  bore: positive('Bore'),
+  application: z.enum(['street', 'performance', 'race', 'boost'], {
+    error: 'Choose street, performance, race or boost.',
+  }),
+});
+
+/** Every request schema by its route name under /api/calculations/. */
+export const calculationRequestSchemas = {
+  displacement: displacementRequestSchema,
+  'compression-ratio': compressionRatioRequestSchema,
+  crosshatch: crosshatchRequestSchema,
+  'crosshatch-rate': crosshatchRateRequestSchema,
+  'bore-inspection': boreInspectionRequestSchema,
+  'bore-size': boreSizeRequestSchema,
+  'deck-flatness': deckFlatnessRequestSchema,
+  roughness: roughnessRequestSchema,
+  'ring-gap': ringGapRequestSchema,
+} as const;
+
+export type CalculationRoute = keyof typeof calculationRequestSchemas;
+
+export type LengthUnitInput = z.infer<typeof lengthUnitSchema>;
+export type DisplacementRequest = z.infer<typeof displacementRequestSchema>;
+export type CompressionRatioRequest = z.infer<typeof compressionRatioRequestSchema>;
+export type CrosshatchRequest = z.infer<typeof crosshatchRequestSchema>;
+export type CrosshatchRateRequest = z.infer<typeof crosshatchRateRequestSchema>;
+export type CylinderReadingsInput = z.infer<typeof cylinderReadingsSchema>;
+export type BoreSpecInput = z.infer<typeof boreSpecSchema>;
+export type BoreInspectionRequest = z.infer<typeof boreInspectionRequestSchema>;
+export type BoreSizeRequest = z.infer<typeof boreSizeRequestSchema>;
+export type DeckFlatnessRequest = z.infer<typeof deckFlatnessRequestSchema>;
+export type RoughnessRequest = z.infer<typeof roughnessRequestSchema>;
+export type RingGapRequest = z.infer<typeof ringGapRequestSchema>;
