@@ -15,6 +15,7 @@ import { createPassport } from './lib/auth/passport';
 import { errorHandler, notFoundApi } from './lib/errors';
 import { adminRouter } from './modules/admin/admin.routes';
 import { authRouter } from './modules/auth/auth.routes';
+import { calculationsRouter, ROUGHNESS_BODY_LIMIT } from './modules/calculations/calculations.routes';
 import { healthRouter } from './modules/health/health.routes';
 
 export const SESSION_COOKIE = 'tm.sid';
@@ -92,10 +93,14 @@ export function createApp(deps: AppDeps) {
   app.use(passport.initialize());
   app.use(passport.session());
 
+  // A roughness profile may be large; every other body stays small.
+  app.use('/api/calculations/roughness', express.json({ limit: ROUGHNESS_BODY_LIMIT }));
   app.use('/api', express.json({ limit: '200kb' }));
 
   const { csrfSynchronisedProtection, generateToken } = csrfSync({
     getTokenFromRequest: (req) => req.get('x-csrf-token'),
+    // Calculations change nothing stored and use no session: scripts may call them without a token.
+    skipCsrfProtection: (req) => req.originalUrl.startsWith('/api/calculations/'),
     errorConfig: { statusCode: 403, code: 'EBADCSRFTOKEN', message: 'invalid csrf token' },
   });
   app.use('/api', csrfSynchronisedProtection);
@@ -105,6 +110,7 @@ export function createApp(deps: AppDeps) {
     authRouter({ db, config, passport, generateCsrfToken: generateToken, sessionCookieName: SESSION_COOKIE }),
   );
 
+  app.use('/api/calculations', calculationsRouter({ db, perMinute: config.rateLimits.calculationsPerMinute }));
   app.use('/api/admin', adminRouter({ db, appUrl: config.appUrl }));
 
   app.use('/api', notFoundApi);

@@ -30,6 +30,7 @@ const schema = z
 
     RATE_LIMIT_SIGNIN_MAX: z.coerce.number().int().positive().default(10),
     RATE_LIMIT_SIGNUP_MAX: z.coerce.number().int().positive().default(20),
+    RATE_LIMIT_CALCULATIONS_PER_MINUTE: z.coerce.number().int().positive().default(120),
   })
   .superRefine((value, ctx) => {
     if (value.NODE_ENV === 'production' && !value.SESSION_SECRET) {
@@ -71,7 +72,7 @@ export interface AppConfig {
   maildevWebPort: number;
   github: GithubConfig;
   githubStandInPort: number;
-  rateLimits: { signInMax: number; signUpMax: number };
+  rateLimits: { signInMax: number; signUpMax: number; calculationsPerMinute: number };
 }
 
 export function loadConfig(source: NodeJS.ProcessEnv = process.env): AppConfig {
@@ -123,6 +124,10 @@ export function loadConfig(source: NodeJS.ProcessEnv = process.env): AppConfig {
     maildevWebPort: env.MAILDEV_WEB_PORT,
     github,
     githubStandInPort: env.GITHUB_STAND_IN_PORT,
-    rateLimits: { signInMax: env.RATE_LIMIT_SIGNIN_MAX, signUpMax: env.RATE_LIMIT_SIGNUP_MAX },
+    rateLimits: {
+      signInMax: env.RATE_LIMIT_SIGNIN_MAX,
+      signUpMax: env.RATE_LIMIT_SIGNUP_MAX,
+      calculationsPerMinute: env.RATE_LIMIT_CALCULATIONS_PER_MINUTE,
+    },
   };
 }

@@ -1,5 +1,6 @@
 import type { ErrorRequestHandler, RequestHandler } from 'express';
 import { ZodError } from 'zod';
+import { CalculationError } from '../../shared/calc/errors';
 import { isDatabaseUnavailable } from '../db/client';
 
 export type FieldErrors = Record<string, string>;
@@ -54,6 +55,10 @@ export const errorHandler: ErrorRequestHandler = (error, req, res, _next) => {
   if (error instanceof AppError) return send(error.status, error.code, error.message, error.fields);
   if (error instanceof ZodError) {
     return send(400, 'invalid_input', 'Some of the values are not valid.', zodFields(error));
+  }
+  if (error instanceof CalculationError) {
+    // The schemas catch impossible input first; this is the safety net.
+    return send(400, 'invalid_input', error.message, error.field ? { [error.field]: error.message } : undefined);
   }
   const http = error as HttpishError;
   if (http.type === 'entity.parse.failed') return send(400, 'malformed_body', 'The request body is not valid JSON.');

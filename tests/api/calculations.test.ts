@@ -1,0 +1,188 @@
+import supertest from 'supertest';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { setupTestApp, type TestContext } from '../setup/test-env';
+
+let ctx: TestContext;
+beforeAll(async () => {
+  ctx = await setupTestApp();
+});
+afterAll(async () => {
+  await ctx?.close();
+});
+
+// Signed out, no session and no CSRF token: the calculation API is open to scripts.
+const calc = (route: string, body: unknown) => supertest(ctx.app).post(`/api/calculations/${route}`).send(body as object);
+
+const near = (actual: number, expected: number, tolerance = 1e-9) => expect(Math.abs(actual - expected)).toBeLessThan(tolerance);
+
+describe('calculation API: answers', () => {
+  it('when displacement is asked, then cc, litres and cubic inches come back', async () => {
+    const res = await calc('displacement', { unit: 'in', bore: 4, stroke: 3.48, cylinders: 8 });
+    expect(res.status).toBe(200);
+    near(res.body.cubicInches, (Math.PI / 4) * 16 * 3.48 * 8); // derived: π/4 · bore² · stroke · cylinders
+    near(res.body.cc, res.body.cubicInches * 16.387064, 1e-6); // derived: 1 in³ = 16.387064 cc exactly
+    near(res.body.litres, res.body.cc / 1000);
+  });
+
+  it('when compression ratio is asked for the worked example, then 9.01', async () => {
+    const res = await calc('compression-ratio', {
+      unit: 'in',
+      bore: 4,
+      stroke: 3.48,
+      chamberCc: 70,
+      pistonCc: 5,
+      deckClearance: 0.05,
+      gasketBore: 4,
+      gasketThickness: 0.02,
+    });
+    expect(res.status).toBe(200);
+    expect(Math.abs(res.body.ratio - 9.01)).toBeLessThan(0.01); // source: Circle Track, "Compression Ratio Rules" (worked example, 9.01)
+    near(res.body.ratio, (res.body.sweptCc + res.body.clearanceCc) / res.body.clearanceCc); // derived: CR = (Vs + Vc) / Vc
+  });
+
+  it('when the crosshatch angle and its inverse are asked, then they agree', async () => {
+    // derived: included angle = 2·atan(va/vt), vt = π·D·n, va = 2·L·f; for 45°, f = π·D·n·tan(22.5°) / (2·L)
+    const cycles = (Math.PI * 4 * 200 * Math.tan(Math.PI / 8)) / (2 * 4);
+    const rate = await calc('crosshatch-rate', { unit: 'in', bore: 4, spindleRpm: 200, strokeLength: 4, includedAngleDeg: 45 });
+    expect(rate.status).toBe(200);
+    near(rate.body.cyclesPerMinute, cycles, 1e-9);
+    const angle = await calc('crosshatch', { unit: 'in', bore: 4, spindleRpm: 200, strokeLength: 4, cyclesPerMinute: cycles });
+    expect(angle.status).toBe(200);
+    near(angle.body.includedAngleDeg, 45, 1e-9);
+  });
+
+  it('when bore readings are checked against a spec, then taper, out-of-round and clearance come back with one reason per failed limit', async () => {
+    const res = await calc('bore-inspection', {
+      unit: 'in',
+      cylinders: [
+        {
+          top: { thrust: 4.0312, axial: 4.031 },
+          middle: { thrust: 4.0308, axial: 4.0309 },
+          bottom: { thrust: 4.0306, axial: 4.0307 },
+          piston: 4.028,
+        },
+        {
+          top: { thrust: 4.031, axial: 4.031 },
+          middle: { thrust: 4.031, axial: 4.031 },
+          bottom: { thrust: 4.031, axial: 4.031 },
+          piston: 4.028,
+        },
+      ],
+      spec: { maxTaper: 0.0005, maxOutOfRound: 0.0005, clearanceMin: 0.0025, clearanceMax: 0.0035 },
+    });
+    expect(res.status).toBe(200);
+    const [first, second] = res.body.cylinders;
+    near(first.taper, 0.0006, 1e-12); // derived: thrust 4.0312 − 4.0306 (larger than axial 4.0310 − 4.0307)
+    near(first.outOfRound, 0.0002, 1e-12); // derived: |4.0312 − 4.0310| at the top
+    near(first.mean, (4.0312 + 4.031 + 4.0308 + 4.0309 + 4.0306 + 4.0307) / 6, 1e-12); // derived: mean of six readings
+    near(first.clearance, first.mean - 4.028, 1e-12); // derived: mean bore − piston
+    expect(first.pass).toBe(false);
+    expect(first.failures).toHaveLength(1);
+    expect(first.failures[0].limit).toBe('maxTaper');
+    near(first.failures[0].value, 0.0006, 1e-12);
+    expect(first.failures[0].allowed).toBe(0.0005);
+    expect(second.pass).toBe(true);
+    near(second.clearance, 0.003, 1e-12); // derived: 4.0310 − 4.0280
+    near(res.body.worst.taper, 0.0006, 1e-12);
+    expect(res.body.pass).toBe(false);
+  });
+
+  it('when a bore size is asked, then the finished size and the size to bore to come back', async () => {
+    const res = await calc('bore-size', { unit: 'in', pistonDiameter: 4.028, clearanceMin: 0.0025, clearanceMax: 0.0035, honeAllowance: 0.0025 });
+    expect(res.status).toBe(200);
+    near(res.body.finishedBore, 4.031, 1e-12); // derived: piston + mean clearance = 4.0280 + 0.0030
+    near(res.body.boreTo, 4.0285, 1e-12); // derived: finished − hone allowance
+  });
+
+  it('when deck flatness is asked, then the largest reading is judged against the material and gasket limit', async () => {
+    const iron = await calc('deck-flatness', { unit: 'in', readings: [0.001, 0.0015, 0.003], material: 'cast-iron', gasket: 'composite' });
+    expect(iron.status).toBe(200);
+    expect(iron.body).toMatchObject({ outOfFlat: 0.003, limit: 0.004, pass: true }); // common practice (no published source): 0.004 in for cast iron with a composite gasket
+    const alloy = await calc('deck-flatness', { unit: 'mm', readings: [0.02, 0.04], material: 'aluminium', gasket: 'mls' });
+    expect(alloy.status).toBe(200);
+    near(alloy.body.limit, 0.0254, 1e-12); // common practice (no published source): 0.001 in for aluminium with MLS, 1 in = 25.4 mm
+    expect(alloy.body.pass).toBe(false);
+  });
+
+  it('when a roughness profile is sent, then Ra, Rq, Rz and the Rk family come back; a large profile is accepted', async () => {
+    // A triangle wave of amplitude 1 µm over whole periods: Ra = A/2, Rq = A/√3, Rk = 2A (derived).
+    const period = 400;
+    const heightsUm = Array.from({ length: period * 250 }, (_, i) => {
+      const phase = (i % period) / period;
+      return phase < 0.5 ? -1 + 4 * phase : 3 - 4 * phase;
+    });
+    const res = await calc('roughness', { heightsUm, spacingUm: 0.5 });
+    expect(res.status).toBe(200);
+    near(res.body.ra, 0.5, 1e-3); // derived: triangle wave Ra = A/2
+    near(res.body.rq, 1 / Math.sqrt(3), 1e-3); // derived: triangle wave Rq = A/√3
+    near(res.body.rk, 2, 2e-3); // derived: triangle wave Rk = 2A
+    for (const key of ['rz', 'rpk', 'rvk', 'mr1', 'mr2']) expect(typeof res.body[key]).toBe('number');
+  });
+
+  it('when ring gap guidance is asked, then top and second ring gaps come back in the request unit', async () => {
+    const res = await calc('ring-gap', { unit: 'mm', bore: 101.6, application: 'street' });
+    expect(res.status).toBe(200);
+    near(res.body.topRing, 0.4064, 1e-12); // common practice (no published source): 0.004 per unit of bore for a street top ring
+    expect(res.body.secondRing).toBeGreaterThan(res.body.topRing);
+  });
+});
+
+describe('calculation API: bad input', () => {
+  const cases: Array<[string, unknown, string[]]> = [
+    ['displacement', { unit: 'in', bore: -4, stroke: 0, cylinders: 2.5 }, ['bore', 'cylinders', 'stroke']],
+    ['displacement', { unit: 'furlong', bore: 4, stroke: 3, cylinders: 4 }, ['unit']],
+    ['compression-ratio', { unit: 'in', bore: 4, stroke: 3.48, chamberCc: 10, pistonCc: -40, deckClearance: 0, gasketBore: 4, gasketThickness: 0 }, ['pistonCc']],
+    ['crosshatch', { unit: 'in', bore: 4, spindleRpm: 0, strokeLength: 4, cyclesPerMinute: 30 }, ['spindleRpm']],
+    ['crosshatch-rate', { unit: 'in', bore: 4, spindleRpm: 200, strokeLength: 4, includedAngleDeg: 180 }, ['includedAngleDeg']],
+    ['bore-inspection', { unit: 'in', cylinders: [] }, ['cylinders']],
+    ['bore-inspection', { unit: 'in', cylinders: [{ top: { thrust: 4, axial: -1 }, middle: { thrust: 4, axial: 4 } }] }, ['cylinders.0.bottom', 'cylinders.0.top.axial']],
+    ['bore-size', { unit: 'in', pistonDiameter: 4, clearanceMin: 0.004, clearanceMax: 0.002, honeAllowance: 0.002 }, ['clearanceMax']],
+    ['deck-flatness', { unit: 'in', readings: [], material: 'granite', gasket: 'mls' }, ['material', 'readings']],
+    ['roughness', { heightsUm: [], spacingUm: 1 }, ['heightsUm']],
+    ['roughness', { heightsUm: [1, 2, 3, 4, 5, 6, 7, 8, 9, 'ten'], spacingUm: 0 }, ['heightsUm.9', 'spacingUm']],
+    ['ring-gap', { unit: 'in', bore: 4, application: 'lawnmower' }, ['application']],
+  ];
+
+  it.each(cases)('when %s gets impossible input %j, then 400 names each field', async (route, body, fields) => {
+    const res = await calc(route, body);
+    expect(res.status).toBe(400);
+    expect(res.body.error.code).toBe('invalid_input');
+    expect(Object.keys(res.body.error.fields).sort()).toEqual(fields);
+    for (const message of Object.values(res.body.error.fields)) expect(String(message).length).toBeGreaterThan(5);
+  });
+
+  it('when the body is not an object at all, then 400 rather than 500', async () => {
+    for (const body of ['"text"', '[1,2]', 'null', '42']) {
+      const res = await supertest(ctx.app).post('/api/calculations/displacement').set('Content-Type', 'application/json').send(body);
+      expect(res.status).toBe(400);
+      expect(res.body.error).toBeDefined();
+    }
+  });
+
+  it('when a roughness profile is larger than the body limit, then 413', async () => {
+    const huge = `{"spacingUm":1,"heightsUm":[${'1.234567890123,'.repeat(1_000_000)}1]}`;
+    const res = await supertest(ctx.app).post('/api/calculations/roughness').set('Content-Type', 'application/json').send(huge);
+    expect(res.status).toBe(413);
+    expect(res.body.error.code).toBe('too_large');
+  });
+
+  it('when another route gets a body over 200 kB, then 413', async () => {
+    const res = await calc('displacement', { unit: 'in', bore: 4, stroke: 3, cylinders: 8, padding: 'x'.repeat(300_000) });
+    expect(res.status).toBe(413);
+  });
+});
+
+describe('calculation API: rate limit', () => {
+  it('when one address sends more than the limit in a minute, then 429', async () => {
+    const limited = await setupTestApp({ RATE_LIMIT_CALCULATIONS_PER_MINUTE: '3' });
+    try {
+      const body = { unit: 'in', bore: 4, application: 'race' };
+      for (let i = 0; i < 3; i += 1) expect((await supertest(limited.app).post('/api/calculations/ring-gap').send(body)).status).toBe(200);
+      const res = await supertest(limited.app).post('/api/calculations/ring-gap').send(body);
+      expect(res.status).toBe(429);
+      expect(res.body.error.code).toBe('too_many_attempts');
+    } finally {
+      await limited.close();
+    }
+  });
+});
