@@ -15,6 +15,10 @@ import { createPassport } from './lib/auth/passport';
 import { errorHandler, notFoundApi } from './lib/errors';
 import { adminRouter } from './modules/admin/admin.routes';
 import { authRouter } from './modules/auth/auth.routes';
+import { bidsRouter } from './modules/bids/bids.routes';
+import { jobsRouter } from './modules/jobs/jobs.routes';
+import { shopsRouter } from './modules/shops/shops.routes';
+import { LocalDiskStorage, type FileStorage } from './lib/storage';
 import { calculationsRouter, ROUGHNESS_BODY_LIMIT } from './modules/calculations/calculations.routes';
 import { healthRouter } from './modules/health/health.routes';
 
@@ -25,6 +29,8 @@ export interface AppDeps {
   db: Database;
   pool: pg.Pool;
   logger: Logger;
+  /** Where photos go; a folder on disk unless an object store is given. */
+  storage?: FileStorage;
   /** How the browser app is served: built files, Vite's dev middleware, or not at all (API tests). */
   client?: { kind: 'static'; dir: string } | { kind: 'middleware'; handler: RequestHandler; indexHtml: (url: string) => Promise<string> };
 }
@@ -111,6 +117,10 @@ export function createApp(deps: AppDeps) {
   );
 
   app.use('/api/calculations', calculationsRouter({ db, perMinute: config.rateLimits.calculationsPerMinute }));
+  const storage = deps.storage ?? new LocalDiskStorage(config.uploadsDir);
+  app.use('/api', shopsRouter({ db }));
+  app.use('/api', jobsRouter({ db, appUrl: config.appUrl, storage }));
+  app.use('/api', bidsRouter({ db, appUrl: config.appUrl }));
   app.use('/api/admin', adminRouter({ db, appUrl: config.appUrl }));
 
   app.use('/api', notFoundApi);

@@ -1,3 +1,4 @@
+import { fileURLToPath } from 'node:url';
 import { z } from 'zod';
 
 /**
@@ -13,6 +14,7 @@ const schema = z
     DATABASE_URL: z.string().min(1).default('postgres://postgres@127.0.0.1:54329/tenthmark'),
     TENTHMARK_PG_PORT: z.coerce.number().int().min(1).max(65535).default(54329),
     SESSION_SECRET: z.string().min(16).optional(),
+    UPLOADS_DIR: z.string().min(1).optional(),
     LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
 
     SMTP_HOST: z.string().default('127.0.0.1'),
@@ -67,6 +69,7 @@ export interface AppConfig {
   pgPort: number;
   sessionSecret: string;
   logLevel: RawEnv['LOG_LEVEL'];
+  uploadsDir: string;
   smtp: { host: string; port: number; secure: boolean; user?: string; password?: string };
   mailFrom: string;
   maildevWebPort: number;
@@ -113,6 +116,7 @@ export function loadConfig(source: NodeJS.ProcessEnv = process.env): AppConfig {
     pgPort: env.TENTHMARK_PG_PORT,
     sessionSecret: env.SESSION_SECRET ?? 'tenthmark-local-development-secret',
     logLevel: env.LOG_LEVEL,
+    uploadsDir: env.UPLOADS_DIR ?? fileURLToPath(new URL('../uploads', import.meta.url)),
     smtp: {
       host: env.SMTP_HOST,
       port: env.SMTP_PORT,

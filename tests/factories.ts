@@ -1,6 +1,12 @@
+import { eq } from 'drizzle-orm';
+import type { BidInput } from '../shared/schemas/bids';
+import type { JobInput } from '../shared/schemas/jobs';
+import type { ShopProfileInput } from '../shared/schemas/shops';
+import { insertJob } from '../server/modules/jobs/jobs.repository';
+import { upsertShop } from '../server/modules/shops/shops.repository';
 import { randomBytes } from 'node:crypto';
 import type { Database } from '../server/db/client';
-import { users, type User } from '../server/db/schema';
+import { jobs, users, type User } from '../server/db/schema';
 import { hashPassword } from '../server/lib/auth/passwords';
 
 export const TEST_PASSWORD = 'correct horse battery';
@@ -29,3 +35,91 @@ export async function createUser(
     .returning();
   return { ...user, password };
 }
+
+
+/** A date `days` from today, as YYYY-MM-DD. */
+export const inDays = (days: number) => new Date(Date.now() + days * 86_400_000).toISOString().slice(0, 10);
+
+export function shopProfileInput(overrides: Partial<ShopProfileInput> = {}): ShopProfileInput {
+  return {
+    name: `Test Bore Works ${randomBytes(3).toString('hex')}`,
+    country: 'United States',
+    region: 'Ohio',
+    city: 'Dayton',
+    takesShipped: true,
+    capabilities: ['clean', 'bore', 'hone', 'deck'],
+    equipmentNotes: 'Boring bar, power hone, deck surfacer.',
+    turnaroundDays: 10,
+    rateCard: [
+      { operation: 'bore', priceCents: 3500 },
+      { operation: 'hone', priceCents: 2500 },
+      { operation: 'deck', priceCents: 18000 },
+    ],
+    notifyMatchingJobs: false,
+    ...overrides,
+  };
+}
+
+/** A shop account with its profile. */
+export async function createShop(db: Database, overrides: Partial<ShopProfileInput> = {}, userOverrides: Partial<typeof users.$inferInsert> = {}) {
+  const user = await createUser(db, { role: 'shop', ...userOverrides });
+  const shop = await db.transaction((tx) => upsertShop(tx, user.id, shopProfileInput(overrides)));
+  return { user, shop };
+}
+
+export function jobInput(overrides: Partial<JobInput> = {}): JobInput {
+  return {
+    title: 'Bore and hone a V8 block',
+    engineFamily: 'Small-block V8, iron block',
+    layout: 'v',
+    cylinders: 8,
+    blockMaterial: 'cast-iron',
+    unit: 'in',
+    stockBore: 4,
+    stroke: 3.48,
+    pistonDiameter: 4.028,
+    clearanceMin: 0.0025,
+    clearanceMax: 0.0035,
+    pistonType: 'forged',
+    crosshatchMinDeg: 40,
+    crosshatchMaxDeg: 50,
+    maxTaper: 0.0005,
+    maxOutOfRound: 0.0005,
+    deckNotes: '',
+    operations: [
+      { code: 'bore', quantity: 8 },
+      { code: 'hone', quantity: 8 },
+    ],
+    logistics: 'ship',
+    country: 'United States',
+    region: 'Ohio',
+    city: 'Columbus',
+    neededBy: inDays(30),
+    notes: '',
+    ...overrides,
+  };
+}
+
+/** A job straight into the database, in the given state. */
+export async function createJob(db: Database, builderId: string, options: { status?: 'draft' | 'open'; input?: Partial<JobInput> } = {}) {
+  const job = await insertJob(db, builderId, jobInput(options.input));
+  if ((options.status ?? 'open') === 'open') {
+    const [open] = await db.update(jobs).set({ status: 'open', publishedAt: new Date() }).where(eq(jobs.id, job.id)).returning();
+    return open;
+  }
+  return job;
+}
+
+export function bidInput(overrides: Partial<BidInput> = {}): BidInput {
+  return {
+    lineItems: [
+      { operation: 'bore', description: 'Bore', quantity: 8, unitPriceCents: 3500 },
+      { operation: 'hone', description: 'Hone', quantity: 8, unitPriceCents: 2500 },
+    ],
+    turnaroundDays: 8,
+    validUntil: inDays(14),
+    note: '',
+    ...overrides,
+  };
+}
+

@@ -1,4 +1,4 @@
-import { mkdirSync } from 'node:fs';
+import { mkdirSync, rmSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { chromium, type Browser } from 'playwright-core';
 import { createDb, createPool } from '../../server/db/client';
@@ -31,6 +31,7 @@ export async function startBrowserApp(): Promise<{ server: RunningServer; close:
     close: async () => {
       await server.close();
       await database.drop();
+      rmSync(config.uploadsDir, { recursive: true, force: true });
     },
   };
 }

@@ -1,4 +1,7 @@
 import { randomBytes } from 'node:crypto';
+import { rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
 import pg from 'pg';
 import supertest from 'supertest';
 import { inject } from 'vitest';
@@ -47,6 +50,7 @@ export function testConfig(databaseUrl: string, overrides: Record<string, string
     LOG_LEVEL: 'silent',
     SESSION_SECRET: 'test-session-secret-0123456789',
     APP_URL: 'http://localhost:5999',
+    UPLOADS_DIR: join(tmpdir(), `tenthmark-uploads-${randomBytes(6).toString('hex')}`),
     SMTP_HOST: '127.0.0.1',
     SMTP_PORT: String(inject('smtpPort')),
     GITHUB_STAND_IN_URL: inject('githubStandInUrl'),
@@ -90,6 +94,7 @@ export async function setupTestApp(overrides: Record<string, string> = {}): Prom
       for (const app of apps) app.sessionStore.close();
       await Promise.all(pools.map((pool) => pool.end().catch(() => {})));
       await database.drop();
+      rmSync(config.uploadsDir, { recursive: true, force: true });
     },
   };
 }
@@ -117,4 +122,12 @@ export async function agentFor(app: App) {
       return agent.get(path);
     },
   };
+}
+
+/** An agent signed in as this person (made by the factories, so the password is known). */
+export async function signedIn(app: App, user: { email: string; password: string }) {
+  const client = await agentFor(app);
+  const res = await client.post('/api/auth/login', { email: user.email, password: user.password });
+  if (res.status !== 200) throw new Error(`sign-in failed for ${user.email}: ${res.status} ${JSON.stringify(res.body)}`);
+  return client;
 }

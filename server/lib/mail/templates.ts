@@ -96,3 +96,82 @@ export function adminInviteMail(input: { displayName: string; invitedBy: string;
     footnote: `The link works once and expires in ${input.hours} hours.`,
   });
 }
+
+const money = (cents: number) => new Intl.NumberFormat('en-US', { style: 'currency', currency: 'USD' }).format(cents / 100);
+
+export function newBidMail(input: { builderName: string; shopName: string; jobTitle: string; totalCents: number; turnaroundDays: number; url: string }): RenderedMail {
+  return render({
+    template: 'new_bid',
+    subject: `New bid on “${input.jobTitle}”`,
+    greeting: `Hello ${input.builderName},`,
+    paragraphs: [`${input.shopName} bid ${money(input.totalCents)} with a turnaround of ${input.turnaroundDays} working days on your job “${input.jobTitle}”.`],
+    action: { label: 'Compare the bids', url: input.url },
+  });
+}
+
+export function bidRevisedMail(input: { builderName: string; shopName: string; jobTitle: string; totalCents: number; turnaroundDays: number; url: string }): RenderedMail {
+  return render({
+    template: 'bid_revised',
+    subject: `A bid on “${input.jobTitle}” changed`,
+    greeting: `Hello ${input.builderName},`,
+    paragraphs: [`${input.shopName} revised its bid on “${input.jobTitle}”: now ${money(input.totalCents)}, ${input.turnaroundDays} working days.`],
+    action: { label: 'Compare the bids', url: input.url },
+  });
+}
+
+export function bidAcceptedMail(input: { shopName: string; jobTitle: string; totalCents: number; url: string }): RenderedMail {
+  return render({
+    template: 'bid_accepted',
+    subject: `Your bid on “${input.jobTitle}” was accepted`,
+    greeting: `Hello ${input.shopName},`,
+    paragraphs: [
+      `The builder accepted your bid of ${money(input.totalCents)} on “${input.jobTitle}”.`,
+      'The builder pays next; the payment is held until they accept your inspection record. Wait for the payment before you start work.',
+    ],
+    action: { label: 'Open the job', url: input.url },
+  });
+}
+
+export function bidDeclinedMail(input: { shopName: string; jobTitle: string; reason?: string; url: string }): RenderedMail {
+  return render({
+    template: 'bid_declined',
+    subject: `Your bid on “${input.jobTitle}” was not chosen`,
+    greeting: `Hello ${input.shopName},`,
+    paragraphs: [
+      `The builder of “${input.jobTitle}” did not choose your bid.`,
+      ...(input.reason ? [`Their note: ${input.reason}`] : []),
+      'Thank you for bidding; there are more jobs on the board.',
+    ],
+    action: { label: 'Open the job board', url: input.url },
+  });
+}
+
+export function jobChangedMail(input: { shopName: string; jobTitle: string; url: string }): RenderedMail {
+  return render({
+    template: 'job_changed',
+    subject: `“${input.jobTitle}” was changed`,
+    greeting: `Hello ${input.shopName},`,
+    paragraphs: [`The builder changed the job “${input.jobTitle}” that you bid on. Check the new details; revise your bid if the work changed.`],
+    action: { label: 'See the job', url: input.url },
+  });
+}
+
+export function jobCancelledMail(input: { shopName: string; jobTitle: string }): RenderedMail {
+  return render({
+    template: 'job_cancelled',
+    subject: `“${input.jobTitle}” was cancelled`,
+    greeting: `Hello ${input.shopName},`,
+    paragraphs: [`The builder cancelled the job “${input.jobTitle}” that you bid on. Your bid is closed; nothing more is needed from you.`],
+  });
+}
+
+export function matchingJobMail(input: { shopName: string; jobTitle: string; summary: string; url: string }): RenderedMail {
+  return render({
+    template: 'matching_job',
+    subject: `A new job that fits your shop: “${input.jobTitle}”`,
+    greeting: `Hello ${input.shopName},`,
+    paragraphs: [`A builder just posted work your shop does: ${input.summary}.`],
+    action: { label: 'See the job', url: input.url },
+    footnote: 'You get these because your shop profile asks for matching jobs. Turn them off there at any time.',
+  });
+}

@@ -1,0 +1,50 @@
+import { fileTypeFromBuffer } from 'file-type';
+import sharp, { type Metadata } from 'sharp';
+import { AppError } from './errors';
+
+export const PHOTO_TYPES = ['image/jpeg', 'image/png', 'image/webp'] as const;
+/** Beyond this many pixels an image is refused before it is decoded (a decompression bomb). */
+export const MAX_INPUT_PIXELS = 40_000_000;
+export const LARGE_EDGE = 2000;
+export const THUMB_EDGE = 480;
+
+export interface ProcessedPhoto {
+  large: Buffer;
+  thumb: Buffer;
+  width: number;
+  height: number;
+}
+
+/**
+ * Checks what the bytes really are (never the name or the browser's word),
+ * then re-encodes to a large and a thumbnail WebP. Orientation from EXIF is
+ * applied first; every piece of metadata (GPS included) is dropped, because
+ * sharp writes none unless asked.
+ */
+export async function processPhoto(input: Buffer): Promise<ProcessedPhoto> {
+  const sniffed = await fileTypeFromBuffer(input);
+  if (!sniffed || !(PHOTO_TYPES as readonly string[]).includes(sniffed.mime)) {
+    throw new AppError('unsupported_type', 'Photos must be JPEG, PNG or WebP images.', 415);
+  }
+  const source = () => sharp(input, { limitInputPixels: MAX_INPUT_PIXELS, failOn: 'error' });
+  let meta: Metadata;
+  try {
+    meta = await source().metadata();
+  } catch {
+    throw new AppError('unreadable_image', 'This image could not be read. Is the file complete?', 415);
+  }
+  if (!meta.width || !meta.height || meta.width * meta.height > MAX_INPUT_PIXELS) {
+    throw new AppError(
+      'too_many_pixels',
+      `This image has too many pixels (${meta.width ?? '?'} × ${meta.height ?? '?'}). Keep photos under ${MAX_INPUT_PIXELS / 1_000_000} megapixels.`,
+      413,
+    );
+  }
+  try {
+    const large = await source().rotate().resize({ width: LARGE_EDGE, height: LARGE_EDGE, fit: 'inside', withoutEnlargement: true }).webp({ quality: 82 }).toBuffer({ resolveWithObject: true });
+    const thumb = await source().rotate().resize({ width: THUMB_EDGE, height: THUMB_EDGE, fit: 'inside', withoutEnlargement: true }).webp({ quality: 75 }).toBuffer();
+    return { large: large.data, thumb, width: large.info.width, height: large.info.height };
+  } catch {
+    throw new AppError('unreadable_image', 'This image could not be read. Is the file complete?', 415);
+  }
+}

@@ -1,0 +1,283 @@
+import { and, asc, desc, eq, inArray, ne, sql } from 'drizzle-orm';
+import { lineAmountCents } from '../../../shared/catalogue';
+import type { Bid, BidInput, BidLine, BidRevision } from '../../../shared/schemas/bids';
+import type { Database, Executor } from '../../db/client';
+import { bidLineItems, bidRevisions, bids, jobs, shops, users, type User } from '../../db/schema';
+import { AppError, conflict, forbidden, notFound } from '../../lib/errors';
+import { enqueueMail } from '../../lib/mail/outbox';
+import { bidAcceptedMail, bidDeclinedMail, bidRevisedMail, newBidMail } from '../../lib/mail/templates';
+import { findJob, type JobRow } from '../jobs/jobs.repository';
+import { jobForViewer } from '../jobs/jobs.service';
+import { findShopByUser, type ShopRow } from '../shops/shops.repository';
+
+export interface BidDeps {
+  db: Database;
+  appUrl: string;
+}
+
+type BidRow = typeof bids.$inferSelect;
+
+const today = () => new Date().toISOString().slice(0, 10);
+
+/** Lines with their amounts, and the total, all in integer cents, worked out here and nowhere else. */
+export function priceLines(input: BidInput): { lines: BidLine[]; totalCents: number } {
+  const lines = input.lineItems.map((item) => ({
+    operation: item.operation ?? null,
+    description: item.description,
+    quantity: item.quantity,
+    unitPriceCents: item.unitPriceCents,
+    amountCents: lineAmountCents(item.quantity, item.unitPriceCents),
+  }));
+  const totalCents = lines.reduce((sum, line) => sum + line.amountCents, 0);
+  if (!Number.isSafeInteger(totalCents) || totalCents > 2_000_000_000) {
+    throw new AppError('invalid_input', 'The total is too large.', 400, { lineItems: 'The total is too large.' });
+  }
+  return { lines, totalCents };
+}
+
+async function requireShop(db: Executor, user: User): Promise<ShopRow> {
+  const shop = await findShopByUser(db, user.id);
+  if (!shop) throw conflict('Set up your shop profile before you bid.', 'no_shop_profile');
+  return shop;
+}
+
+async function writeLines(tx: Executor, bidId: string, lines: BidLine[]) {
+  await tx.delete(bidLineItems).where(eq(bidLineItems.bidId, bidId));
+  await tx.insert(bidLineItems).values(lines.map((line, position) => ({ bidId, position, ...line })));
+}
+
+const jobUrl = (deps: BidDeps, jobId: string) => `${deps.appUrl}/jobs/${jobId}`;
+
+async function builderOf(tx: Executor, job: JobRow) {
+  const [builder] = await tx.select({ email: users.email, displayName: users.displayName }).from(users).where(eq(users.id, job.builderId));
+  return builder;
+}
+
+async function shopContact(tx: Executor, shopId: string) {
+  const [row] = await tx
+    .select({ name: shops.name, email: users.email })
+    .from(shops)
+    .innerJoin(users, eq(users.id, shops.userId))
+    .where(eq(shops.id, shopId));
+  return row;
+}
+
+export async function createBid(deps: BidDeps, user: User, jobId: string, input: BidInput): Promise<string> {
+  const { lines, totalCents } = priceLines(input);
+  if (input.validUntil < today()) throw new AppError('invalid_input', 'A bid must be valid until today or later.', 400, { validUntil: 'Pick today or a later date.' });
+  return deps.db.transaction(async (tx) => {
+    const shop = await requireShop(tx, user);
+    const job = await findJob(tx, jobId, { forUpdate: true });
+    if (!job || job.status === 'draft') throw notFound('No job with that id.');
+    if (job.status !== 'open') throw conflict('This job is no longer taking bids.', 'job_not_open');
+    const [existing] = await tx
+      .select({ id: bids.id })
+      .from(bids)
+      .where(and(eq(bids.jobId, job.id), eq(bids.shopId, shop.id), eq(bids.status, 'active')));
+    if (existing) throw conflict('Your shop already has a bid on this job; revise it instead.', 'bid_exists');
+    const [bid] = await tx
+      .insert(bids)
+      .values({ jobId: job.id, shopId: shop.id, totalCents, turnaroundDays: input.turnaroundDays, validUntil: input.validUntil, note: input.note, jobRevision: job.revision })
+      .returning();
+    await writeLines(tx, bid.id, lines);
+    await tx.update(jobs).set({ bidCount: sql`${jobs.bidCount} + 1` }).where(eq(jobs.id, job.id));
+    const builder = await builderOf(tx, job);
+    await enqueueMail(
+      tx,
+      builder.email,
+      newBidMail({ builderName: builder.displayName, shopName: shop.name, jobTitle: job.title, totalCents, turnaroundDays: input.turnaroundDays, url: jobUrl(deps, job.id) }),
+    );
+    return bid.id;
+  });
+}
+
+/** Locks the bid's job, then the bid, always in that order, so bid changes never deadlock each other. */
+async function lockBidAndJob(tx: Executor, bidId: string): Promise<{ bid: BidRow; job: JobRow }> {
+  const [peek] = await tx.select({ jobId: bids.jobId }).from(bids).where(eq(bids.id, bidId));
+  if (!peek) throw notFound('No bid with that id.');
+  const job = await findJob(tx, peek.jobId, { forUpdate: true });
+  const [bid] = await tx.select().from(bids).where(eq(bids.id, bidId)).for('update');
+  if (!job || !bid) throw notFound('No bid with that id.');
+  return { bid, job };
+}
+
+async function ownBid(tx: Executor, user: User, bidId: string) {
+  const shop = await requireShop(tx, user);
+  const locked = await lockBidAndJob(tx, bidId);
+  if (locked.bid.shopId !== shop.id) throw notFound('No bid with that id.');
+  return { ...locked, shop };
+}
+
+export async function reviseBid(deps: BidDeps, user: User, bidId: string, input: BidInput): Promise<void> {
+  const { lines, totalCents } = priceLines(input);
+  if (input.validUntil < today()) throw new AppError('invalid_input', 'A bid must be valid until today or later.', 400, { validUntil: 'Pick today or a later date.' });
+  await deps.db.transaction(async (tx) => {
+    const { bid, job, shop } = await ownBid(tx, user, bidId);
+    if (bid.status !== 'active') throw conflict('Only an active bid can be revised.', 'bid_not_active');
+    if (job.status !== 'open') throw conflict('This job is no longer taking bids.', 'job_not_open');
+    const previous = await tx.select().from(bidLineItems).where(eq(bidLineItems.bidId, bid.id)).orderBy(asc(bidLineItems.position));
+    await tx.insert(bidRevisions).values({
+      bidId: bid.id,
+      version: bid.version,
+      totalCents: bid.totalCents,
+      turnaroundDays: bid.turnaroundDays,
+      validUntil: bid.validUntil,
+      note: bid.note,
+      lineItems: previous.map(({ operation, description, quantity, unitPriceCents, amountCents }) => ({ operation, description, quantity, unitPriceCents, amountCents })),
+      createdAt: bid.updatedAt,
+    });
+    await tx
+      .update(bids)
+      .set({ version: bid.version + 1, totalCents, turnaroundDays: input.turnaroundDays, validUntil: input.validUntil, note: input.note, jobRevision: job.revision, updatedAt: new Date() })
+      .where(eq(bids.id, bid.id));
+    await writeLines(tx, bid.id, lines);
+    const builder = await builderOf(tx, job);
+    await enqueueMail(
+      tx,
+      builder.email,
+      bidRevisedMail({ builderName: builder.displayName, shopName: shop.name, jobTitle: job.title, totalCents, turnaroundDays: input.turnaroundDays, url: jobUrl(deps, job.id) }),
+    );
+  });
+}
+
+export async function withdrawBid(deps: BidDeps, user: User, bidId: string): Promise<void> {
+  await deps.db.transaction(async (tx) => {
+    const { bid, job } = await ownBid(tx, user, bidId);
+    if (bid.status !== 'active') throw conflict('Only an active bid can be withdrawn.', 'bid_not_active');
+    await tx.update(bids).set({ status: 'withdrawn', decidedAt: new Date(), updatedAt: new Date() }).where(eq(bids.id, bid.id));
+    await tx.update(jobs).set({ bidCount: sql`greatest(${jobs.bidCount} - 1, 0)` }).where(eq(jobs.id, job.id));
+  });
+}
+
+async function builderBid(tx: Executor, user: User, bidId: string) {
+  const locked = await lockBidAndJob(tx, bidId);
+  if (locked.job.builderId !== user.id) throw notFound('No bid with that id.');
+  return locked;
+}
+
+/**
+ * Accepts one bid: in one transaction the job becomes awarded, this bid
+ * accepted and every other active bid declined. The job's row lock makes
+ * racing accepts wait; the first wins and the rest find the job awarded (409).
+ */
+export async function acceptBid(deps: BidDeps, user: User, bidId: string): Promise<void> {
+  await deps.db.transaction(async (tx) => {
+    const { bid, job } = await builderBid(tx, user, bidId);
+    if (job.status !== 'open') throw conflict('This job already has an accepted bid, or is closed.', 'job_not_open');
+    if (bid.status !== 'active') throw conflict('This bid is no longer active.', 'bid_not_active');
+    if (bid.validUntil < today()) throw conflict('This bid has expired; ask the shop to revise it.', 'bid_expired');
+    const now = new Date();
+    await tx.update(bids).set({ status: 'accepted', decidedAt: now, updatedAt: now }).where(eq(bids.id, bid.id));
+    const declined = await tx
+      .update(bids)
+      .set({ status: 'declined', decidedAt: now, declineReason: 'Another bid was accepted.', updatedAt: now })
+      .where(and(eq(bids.jobId, job.id), ne(bids.id, bid.id), eq(bids.status, 'active')))
+      .returning({ shopId: bids.shopId });
+    await tx.update(jobs).set({ status: 'awarded', awardedBidId: bid.id, updatedAt: now }).where(eq(jobs.id, job.id));
+
+    const winner = await shopContact(tx, bid.shopId);
+    await enqueueMail(tx, winner.email, bidAcceptedMail({ shopName: winner.name, jobTitle: job.title, totalCents: bid.totalCents, url: jobUrl(deps, job.id) }));
+    for (const { shopId } of declined) {
+      const loser = await shopContact(tx, shopId);
+      await enqueueMail(tx, loser.email, bidDeclinedMail({ shopName: loser.name, jobTitle: job.title, url: `${deps.appUrl}/board` }));
+    }
+  });
+}
+
+export async function declineBid(deps: BidDeps, user: User, bidId: string, reason: string): Promise<void> {
+  await deps.db.transaction(async (tx) => {
+    const { bid, job } = await builderBid(tx, user, bidId);
+    if (bid.status !== 'active') throw conflict('This bid is no longer active.', 'bid_not_active');
+    await tx.update(bids).set({ status: 'declined', decidedAt: new Date(), declineReason: reason || null, updatedAt: new Date() }).where(eq(bids.id, bid.id));
+    await tx.update(jobs).set({ bidCount: sql`greatest(${jobs.bidCount} - 1, 0)` }).where(eq(jobs.id, job.id));
+    const shop = await shopContact(tx, bid.shopId);
+    await enqueueMail(tx, shop.email, bidDeclinedMail({ shopName: shop.name, jobTitle: job.title, reason, url: `${deps.appUrl}/board` }));
+  });
+}
+
+/** Bids as their readers see them, with lines, shop and how well the shop's capabilities cover the job. */
+async function present(db: Executor, rows: BidRow[]): Promise<Bid[]> {
+  if (rows.length === 0) return [];
+  const ids = rows.map((r) => r.id);
+  const [lines, shopRows, jobRows] = await Promise.all([
+    db.select().from(bidLineItems).where(inArray(bidLineItems.bidId, ids)).orderBy(asc(bidLineItems.position)),
+    db.select().from(shops).where(inArray(shops.id, [...new Set(rows.map((r) => r.shopId))])),
+    db.select({ id: jobs.id, operations: jobs.operations }).from(jobs).where(inArray(jobs.id, [...new Set(rows.map((r) => r.jobId))])),
+  ]);
+  const shopById = new Map(shopRows.map((s) => [s.id, s]));
+  const opsByJob = new Map(jobRows.map((j) => [j.id, j.operations]));
+  return rows.map((row) => {
+    const shop = shopById.get(row.shopId)!;
+    const ops = opsByJob.get(row.jobId) ?? [];
+    const covered = ops.filter((op) => shop.capabilities.includes(op)).length;
+    return {
+      id: row.id,
+      jobId: row.jobId,
+      status: row.status,
+      version: row.version,
+      totalCents: row.totalCents,
+      turnaroundDays: row.turnaroundDays,
+      validUntil: row.validUntil,
+      note: row.note,
+      lineItems: lines
+        .filter((l) => l.bidId === row.id)
+        .map(({ operation, description, quantity, unitPriceCents, amountCents }) => ({ operation, description, quantity, unitPriceCents, amountCents })),
+      shop: { id: shop.id, name: shop.name, country: shop.country, region: shop.region, city: shop.city, verified: shop.verifiedAt !== null, rating: null },
+      capabilityMatch: ops.length ? covered / ops.length : 1,
+      createdAt: row.createdAt.toISOString(),
+      updatedAt: row.updatedAt.toISOString(),
+    };
+  });
+}
+
+/** A job's bids: all of them for its builder and admins, only its own for a shop. */
+export async function bidsForJob(deps: BidDeps, user: User, jobId: string): Promise<Bid[]> {
+  const job = await jobForViewer(deps.db, jobId, user);
+  let where = eq(bids.jobId, job.id);
+  if (user.role === 'shop') {
+    const shop = await findShopByUser(deps.db, user.id);
+    if (!shop) return [];
+    where = and(where, eq(bids.shopId, shop.id))!;
+  } else if (user.role === 'builder' && job.builderId !== user.id) {
+    throw forbidden('Only the builder who posted this job sees its bids.');
+  }
+  const rows = await deps.db.select().from(bids).where(where).orderBy(asc(bids.totalCents), asc(bids.createdAt));
+  return present(deps.db, rows);
+}
+
+export async function bidWithHistory(deps: BidDeps, user: User, bidId: string): Promise<{ bid: Bid; revisions: BidRevision[] }> {
+  const [row] = await deps.db.select().from(bids).where(eq(bids.id, bidId));
+  if (!row) throw notFound('No bid with that id.');
+  if (user.role !== 'admin') {
+    const shop = user.role === 'shop' ? await findShopByUser(deps.db, user.id) : undefined;
+    const job = await findJob(deps.db, row.jobId);
+    const mine = shop?.id === row.shopId || job?.builderId === user.id;
+    if (!mine) throw notFound('No bid with that id.');
+  }
+  const [bid] = await present(deps.db, [row]);
+  const revisions = await deps.db.select().from(bidRevisions).where(eq(bidRevisions.bidId, row.id)).orderBy(desc(bidRevisions.version));
+  return {
+    bid,
+    revisions: revisions.map((r) => ({
+      version: r.version,
+      totalCents: r.totalCents,
+      turnaroundDays: r.turnaroundDays,
+      validUntil: r.validUntil,
+      note: r.note,
+      lineItems: r.lineItems as BidLine[],
+      createdAt: r.createdAt.toISOString(),
+    })),
+  };
+}
+
+export async function bidsOfShop(deps: BidDeps, user: User): Promise<Array<Bid & { jobTitle: string; jobStatus: string }>> {
+  const shop = await findShopByUser(deps.db, user.id);
+  if (!shop) return [];
+  const rows = await deps.db.select().from(bids).where(eq(bids.shopId, shop.id)).orderBy(desc(bids.updatedAt));
+  const presented = await present(deps.db, rows);
+  const titles = rows.length
+    ? await deps.db.select({ id: jobs.id, title: jobs.title, status: jobs.status }).from(jobs).where(inArray(jobs.id, rows.map((r) => r.jobId)))
+    : [];
+  const byId = new Map(titles.map((t) => [t.id, t]));
+  return presented.map((b) => ({ ...b, jobTitle: byId.get(b.jobId)?.title ?? '', jobStatus: byId.get(b.jobId)?.status ?? '' }));
+}

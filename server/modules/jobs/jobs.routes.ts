@@ -1,0 +1,109 @@
+import { Router, type RequestHandler } from 'express';
+import multer from 'multer';
+import { z } from 'zod';
+import { uuidSchema } from '../../../shared/schemas/common';
+import { boardQuerySchema, jobInputSchema, myJobsQuerySchema } from '../../../shared/schemas/jobs';
+import { currentUser, requireRole, requireUser } from '../../lib/auth/guards';
+import { AppError } from '../../lib/errors';
+import { boardPage, jobsOfBuilder } from './jobs.repository';
+import {
+  addPhotos,
+  cancelJob,
+  createJob,
+  jobDetail,
+  jobForViewer,
+  MAX_PHOTOS_PER_JOB,
+  publishJob,
+  readPhoto,
+  removePhoto,
+  updateJob,
+  type JobDeps,
+} from './jobs.service';
+
+export const MAX_PHOTO_BYTES = 15 * 1024 * 1024;
+
+const upload = multer({
+  storage: multer.memoryStorage(),
+  limits: { fileSize: MAX_PHOTO_BYTES, files: MAX_PHOTOS_PER_JOB, fields: 5, parts: MAX_PHOTOS_PER_JOB + 5 },
+});
+
+/** multer's own errors in the API's error shape: too big is 413, the rest 400. */
+const receivePhotos: RequestHandler = (req, res, next) => {
+  upload.array('photos', MAX_PHOTOS_PER_JOB)(req, res, (error: unknown) => {
+    if (!error) return next();
+    if (error instanceof multer.MulterError) {
+      if (error.code === 'LIMIT_FILE_SIZE') return next(new AppError('too_large', `Each photo may be at most ${MAX_PHOTO_BYTES / 1024 / 1024} MB.`, 413));
+      if (error.code === 'LIMIT_FILE_COUNT' || error.code === 'LIMIT_PART_COUNT') {
+        return next(new AppError('too_many_photos', `Send at most ${MAX_PHOTOS_PER_JOB} photos at a time.`, 413));
+      }
+      return next(new AppError('invalid_input', `The upload is not valid (${error.message}). Send the files in a field named "photos".`, 400));
+    }
+    next(error);
+  });
+};
+
+const jobParams = z.object({ jobId: uuidSchema });
+const photoParams = z.object({ jobId: uuidSchema, photoId: uuidSchema, size: z.enum(['thumb', 'large'], { error: 'Ask for thumb or large.' }) });
+
+export function jobsRouter(deps: JobDeps) {
+  const router = Router();
+
+  router.get('/jobs', requireRole('shop', 'admin'), async (req, res) => {
+    res.json(await boardPage(deps.db, boardQuerySchema.parse(req.query)));
+  });
+
+  router.get('/jobs/mine', requireRole('builder'), async (req, res) => {
+    const { status } = myJobsQuerySchema.parse(req.query);
+    res.json({ jobs: await jobsOfBuilder(deps.db, currentUser(req).id, status) });
+  });
+
+  router.post('/jobs', requireRole('builder'), async (req, res) => {
+    const job = await createJob(deps, currentUser(req), jobInputSchema.parse(req.body));
+    res.status(201).json({ job: await jobDetail(deps, job, currentUser(req)) });
+  });
+
+  router.get('/jobs/:jobId', requireUser, async (req, res) => {
+    const { jobId } = jobParams.parse(req.params);
+    const user = currentUser(req);
+    const job = await jobForViewer(deps.db, jobId, user);
+    res.json({ job: await jobDetail(deps, job, user) });
+  });
+
+  router.put('/jobs/:jobId', requireRole('builder'), async (req, res) => {
+    const { jobId } = jobParams.parse(req.params);
+    const job = await updateJob(deps, currentUser(req), jobId, jobInputSchema.parse(req.body));
+    res.json({ job: await jobDetail(deps, job, currentUser(req)) });
+  });
+
+  router.post('/jobs/:jobId/publish', requireRole('builder'), async (req, res) => {
+    const { jobId } = jobParams.parse(req.params);
+    const job = await publishJob(deps, currentUser(req), jobId);
+    res.json({ job: await jobDetail(deps, job, currentUser(req)) });
+  });
+
+  router.post('/jobs/:jobId/cancel', requireRole('builder'), async (req, res) => {
+    const { jobId } = jobParams.parse(req.params);
+    const job = await cancelJob(deps, currentUser(req), jobId);
+    res.json({ job: await jobDetail(deps, job, currentUser(req)) });
+  });
+
+  router.post('/jobs/:jobId/photos', requireRole('builder'), receivePhotos, async (req, res) => {
+    const { jobId } = jobParams.parse(req.params);
+    const files = (req.files as Express.Multer.File[] | undefined) ?? [];
+    res.status(201).json({ photos: await addPhotos(deps, currentUser(req), jobId, files) });
+  });
+
+  router.get('/jobs/:jobId/photos/:photoId/:size', requireUser, async (req, res) => {
+    const { jobId, photoId, size } = photoParams.parse(req.params);
+    const data = await readPhoto(deps, currentUser(req), jobId, photoId, size);
+    res.set({ 'Content-Type': 'image/webp', 'Cache-Control': 'private, max-age=3600', 'X-Content-Type-Options': 'nosniff' }).send(data);
+  });
+
+  router.delete('/jobs/:jobId/photos/:photoId', requireRole('builder'), async (req, res) => {
+    const { jobId, photoId } = photoParams.omit({ size: true }).parse(req.params);
+    await removePhoto(deps, currentUser(req), jobId, photoId);
+    res.status(204).end();
+  });
+
+  return router;
+}

@@ -1,0 +1,239 @@
+import { and, arrayContains, eq, inArray, sql } from 'drizzle-orm';
+import { randomUUID } from 'node:crypto';
+import type { JobDetail, JobInput } from '../../../shared/schemas/jobs';
+import type { Database, Executor } from '../../db/client';
+import { bids, jobPhotos, jobs, shops, users, type User } from '../../db/schema';
+import { AppError, conflict, forbidden, notFound } from '../../lib/errors';
+import { processPhoto, type ProcessedPhoto } from '../../lib/images';
+import { enqueueMail } from '../../lib/mail/outbox';
+import { jobCancelledMail, jobChangedMail, matchingJobMail } from '../../lib/mail/templates';
+import type { FileStorage } from '../../lib/storage';
+import { findShopByUser } from '../shops/shops.repository';
+import { columnsFromInput, findJob, insertJob, photosOf, photoUrl, type JobRow } from './jobs.repository';
+
+export const MAX_PHOTOS_PER_JOB = 12;
+
+export interface JobDeps {
+  db: Database;
+  appUrl: string;
+  storage: FileStorage;
+}
+
+const jobUrl = (deps: { appUrl: string }, id: string) => `${deps.appUrl}/jobs/${id}`;
+
+/**
+ * Who may see a job: its builder and admins always; shops while it is open,
+ * and afterwards only shops that bid on it. A draft is nobody else's business,
+ * so to others it does not exist (404).
+ */
+export async function jobForViewer(db: Executor, jobId: string, user: User): Promise<JobRow> {
+  const job = await findJob(db, jobId);
+  if (!job) throw notFound('No job with that id.');
+  if (user.role === 'admin' || job.builderId === user.id) return job;
+  if (job.status === 'draft') throw notFound('No job with that id.');
+  if (user.role === 'shop') {
+    if (job.status === 'open') return job;
+    const shop = await findShopByUser(db, user.id);
+    if (shop) {
+      const [bid] = await db.select({ id: bids.id }).from(bids).where(and(eq(bids.jobId, job.id), eq(bids.shopId, shop.id))).limit(1);
+      if (bid) return job;
+    }
+  }
+  throw forbidden('This job is not yours to see.');
+}
+
+/** The job with its row lock, for a change by its builder. */
+async function ownJobForUpdate(tx: Executor, jobId: string, user: User): Promise<JobRow> {
+  const job = await findJob(tx, jobId, { forUpdate: true });
+  if (!job || (job.builderId !== user.id && job.status === 'draft')) throw notFound('No job with that id.');
+  if (job.builderId !== user.id) throw forbidden('Only the builder who posted this job can change it.');
+  return job;
+}
+
+export async function createJob(deps: JobDeps, user: User, input: JobInput): Promise<JobRow> {
+  return insertJob(deps.db, user.id, input);
+}
+
+export async function jobDetail(deps: JobDeps, job: JobRow, user: User): Promise<JobDetail> {
+  const [photos, [builder]] = await Promise.all([
+    photosOf(deps.db, job.id),
+    deps.db.select({ id: users.id, displayName: users.displayName }).from(users).where(eq(users.id, job.builderId)),
+  ]);
+  let canBid = false;
+  let myBidId: string | null = null;
+  if (user.role === 'shop') {
+    const shop = await findShopByUser(deps.db, user.id);
+    if (shop) {
+      const [mine] = await deps.db
+        .select({ id: bids.id })
+        .from(bids)
+        .where(and(eq(bids.jobId, job.id), eq(bids.shopId, shop.id), eq(bids.status, 'active')));
+      myBidId = mine?.id ?? null;
+      canBid = job.status === 'open' && !mine;
+    }
+  }
+  return {
+    id: job.id,
+    title: job.title,
+    status: job.status,
+    engineFamily: job.engineFamily,
+    cylinders: job.cylinders,
+    blockMaterial: job.blockMaterial as JobDetail['blockMaterial'],
+    operations: job.operations,
+    logistics: job.logistics as JobDetail['logistics'],
+    country: job.country,
+    region: job.region,
+    city: job.city,
+    neededBy: job.neededBy,
+    bidCount: job.bidCount,
+    publishedAt: job.publishedAt?.toISOString() ?? null,
+    createdAt: job.createdAt.toISOString(),
+    updatedAt: job.updatedAt.toISOString(),
+    thumbUrl: photos[0] ? photoUrl(job.id, photos[0].id, 'thumb') : null,
+    builder: { id: builder.id, displayName: builder.displayName },
+    spec: job.spec as JobInput,
+    photos: photos.map((p) => ({ id: p.id, width: p.width, height: p.height, thumbUrl: photoUrl(job.id, p.id, 'thumb'), largeUrl: photoUrl(job.id, p.id, 'large') })),
+    awardedBidId: job.awardedBidId,
+    viewer: { isOwner: job.builderId === user.id, canBid, myBidId },
+  };
+}
+
+/** Shops with an active bid, and their account e-mail, for telling them about a change. */
+async function activeBidders(tx: Executor, jobId: string) {
+  return tx
+    .select({ shopName: shops.name, email: users.email })
+    .from(bids)
+    .innerJoin(shops, eq(shops.id, bids.shopId))
+    .innerJoin(users, eq(users.id, shops.userId))
+    .where(and(eq(bids.jobId, jobId), eq(bids.status, 'active')));
+}
+
+/** A draft changes quietly; an open job's bidders are told by e-mail. */
+export async function updateJob(deps: JobDeps, user: User, jobId: string, input: JobInput): Promise<JobRow> {
+  return deps.db.transaction(async (tx) => {
+    const job = await ownJobForUpdate(tx, jobId, user);
+    if (job.status !== 'draft' && job.status !== 'open') {
+      throw conflict('This job can no longer be edited: a bid was already accepted.', 'job_not_editable');
+    }
+    const [updated] = await tx
+      .update(jobs)
+      .set({ ...columnsFromInput(input), revision: job.revision + 1, updatedAt: new Date() })
+      .where(eq(jobs.id, job.id))
+      .returning();
+    if (job.status === 'open') {
+      for (const bidder of await activeBidders(tx, job.id)) {
+        await enqueueMail(tx, bidder.email, jobChangedMail({ shopName: bidder.shopName, jobTitle: updated.title, url: jobUrl(deps, job.id) }));
+      }
+    }
+    return updated;
+  });
+}
+
+/** Draft to open; shops that asked for matching jobs and can do all the work are told. */
+export async function publishJob(deps: JobDeps, user: User, jobId: string): Promise<JobRow> {
+  return deps.db.transaction(async (tx) => {
+    const job = await ownJobForUpdate(tx, jobId, user);
+    if (job.status !== 'draft') throw conflict('Only a draft can be published; this job is already out.', 'job_not_draft');
+    const [published] = await tx
+      .update(jobs)
+      .set({ status: 'open', publishedAt: new Date(), updatedAt: new Date() })
+      .where(eq(jobs.id, job.id))
+      .returning();
+    const matching = await tx
+      .select({ shopName: shops.name, email: users.email })
+      .from(shops)
+      .innerJoin(users, eq(users.id, shops.userId))
+      .where(and(eq(shops.notifyMatchingJobs, true), arrayContains(shops.capabilities, job.operations), eq(users.status, 'active')));
+    const summary = `${job.engineFamily}, ${job.cylinders} cylinders, ${job.operations.join(', ')}, ${job.city}, ${job.region}`;
+    for (const shop of matching) {
+      await enqueueMail(tx, shop.email, matchingJobMail({ shopName: shop.shopName, jobTitle: job.title, summary, url: jobUrl(deps, job.id) }));
+    }
+    return published;
+  });
+}
+
+/** Before payment a job can be cancelled freely; its open bids close and their shops are told. */
+export async function cancelJob(deps: JobDeps, user: User, jobId: string): Promise<JobRow> {
+  return deps.db.transaction(async (tx) => {
+    const job = await ownJobForUpdate(tx, jobId, user);
+    if (!['draft', 'open', 'awarded'].includes(job.status)) {
+      throw conflict('A paid job cannot be cancelled here; ask for a refund instead.', 'job_not_cancellable');
+    }
+    const affected = await tx
+      .select({ shopName: shops.name, email: users.email })
+      .from(bids)
+      .innerJoin(shops, eq(shops.id, bids.shopId))
+      .innerJoin(users, eq(users.id, shops.userId))
+      .where(and(eq(bids.jobId, job.id), inArray(bids.status, ['active', 'accepted'])));
+    await tx
+      .update(bids)
+      .set({ status: 'declined', decidedAt: new Date(), declineReason: 'The job was cancelled.', updatedAt: new Date() })
+      .where(and(eq(bids.jobId, job.id), inArray(bids.status, ['active', 'accepted'])));
+    const [cancelled] = await tx
+      .update(jobs)
+      .set({ status: 'cancelled', cancelledAt: new Date(), bidCount: 0, awardedBidId: null, updatedAt: new Date() })
+      .where(eq(jobs.id, job.id))
+      .returning();
+    for (const shop of affected) await enqueueMail(tx, shop.email, jobCancelledMail({ shopName: shop.shopName, jobTitle: job.title }));
+    return cancelled;
+  });
+}
+
+const photoKey = (jobId: string, id: string, size: 'large' | 'thumb') => `jobs/${jobId}/${id}-${size}.webp`;
+
+/**
+ * Adds photos to a job. Every file is checked and re-encoded before anything
+ * is stored; the count limit is checked under the job's row lock so two
+ * uploads at once cannot pass 12 together.
+ */
+export async function addPhotos(deps: JobDeps, user: User, jobId: string, files: Array<{ buffer: Buffer }>) {
+  if (files.length === 0) throw new AppError('invalid_input', 'Choose at least one photo.', 400, { photos: 'Choose at least one photo.' });
+  const processed: ProcessedPhoto[] = [];
+  for (const file of files) processed.push(await processPhoto(file.buffer));
+
+  const stored: string[] = [];
+  try {
+    return await deps.db.transaction(async (tx) => {
+      const job = await ownJobForUpdate(tx, jobId, user);
+      if (!['draft', 'open'].includes(job.status)) throw conflict('Photos can be added only while the job is a draft or open.', 'job_not_editable');
+      const [{ count }] = await tx.select({ count: sql<number>`count(*)::int` }).from(jobPhotos).where(eq(jobPhotos.jobId, job.id));
+      if (count + processed.length > MAX_PHOTOS_PER_JOB) {
+        throw conflict(`A job can have at most ${MAX_PHOTOS_PER_JOB} photos; this one has ${count}.`, 'too_many_photos');
+      }
+      const rows = [];
+      for (const [index, photo] of processed.entries()) {
+        const id = randomUUID();
+        for (const size of ['large', 'thumb'] as const) {
+          const key = photoKey(job.id, id, size);
+          await deps.storage.put(key, size === 'large' ? photo.large : photo.thumb);
+          stored.push(key);
+        }
+        rows.push({ id, jobId: job.id, uploadedBy: user.id, storageKey: `jobs/${job.id}/${id}`, width: photo.width, height: photo.height, bytes: photo.large.length, position: count + index });
+      }
+      const inserted = await tx.insert(jobPhotos).values(rows).returning();
+      return inserted.map((p) => ({ id: p.id, width: p.width, height: p.height, thumbUrl: photoUrl(job.id, p.id, 'thumb'), largeUrl: photoUrl(job.id, p.id, 'large') }));
+    });
+  } catch (error) {
+    await Promise.all(stored.map((key) => deps.storage.remove(key).catch(() => {})));
+    throw error;
+  }
+}
+
+export async function readPhoto(deps: JobDeps, user: User, jobId: string, photoId: string, size: 'large' | 'thumb'): Promise<Buffer> {
+  const job = await jobForViewer(deps.db, jobId, user);
+  const [photo] = await deps.db.select().from(jobPhotos).where(and(eq(jobPhotos.id, photoId), eq(jobPhotos.jobId, job.id)));
+  if (!photo) throw notFound('No such photo.');
+  const data = await deps.storage.get(photoKey(job.id, photo.id, size));
+  if (!data) throw notFound('The photo file is missing.');
+  return data;
+}
+
+export async function removePhoto(deps: JobDeps, user: User, jobId: string, photoId: string): Promise<void> {
+  await deps.db.transaction(async (tx) => {
+    const job = await ownJobForUpdate(tx, jobId, user);
+    if (!['draft', 'open'].includes(job.status)) throw conflict('Photos can be removed only while the job is a draft or open.', 'job_not_editable');
+    const [photo] = await tx.delete(jobPhotos).where(and(eq(jobPhotos.id, photoId), eq(jobPhotos.jobId, job.id))).returning();
+    if (!photo) throw notFound('No such photo.');
+  });
+  await Promise.all((['large', 'thumb'] as const).map((size) => deps.storage.remove(photoKey(jobId, photoId, size))));
+}

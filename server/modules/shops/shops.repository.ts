@@ -1,0 +1,98 @@
+import { and, arrayContains, asc, eq, ilike, inArray, or, sql, type SQL } from 'drizzle-orm';
+import type { PublicShop, ShopDirectoryQuery, ShopProfileInput } from '../../../shared/schemas/shops';
+import type { Executor } from '../../db/client';
+import { shopRates, shops } from '../../db/schema';
+
+export type ShopRow = typeof shops.$inferSelect;
+
+export async function findShopByUser(db: Executor, userId: string): Promise<ShopRow | undefined> {
+  const [row] = await db.select().from(shops).where(eq(shops.userId, userId));
+  return row;
+}
+
+export async function findShopById(db: Executor, id: string): Promise<ShopRow | undefined> {
+  const [row] = await db.select().from(shops).where(eq(shops.id, id));
+  return row;
+}
+
+export async function ratesFor(db: Executor, shopIds: string[]) {
+  if (shopIds.length === 0) return new Map<string, Array<{ operation: string; priceCents: number }>>();
+  const rows = await db.select().from(shopRates).where(inArray(shopRates.shopId, shopIds)).orderBy(asc(shopRates.operation));
+  const map = new Map<string, Array<{ operation: string; priceCents: number }>>();
+  for (const row of rows) {
+    const list = map.get(row.shopId) ?? [];
+    list.push({ operation: row.operation, priceCents: row.priceCents });
+    map.set(row.shopId, list);
+  }
+  return map;
+}
+
+/** Creates or replaces the shop's profile and rate card in one transaction's worth of statements. */
+export async function upsertShop(db: Executor, userId: string, input: ShopProfileInput): Promise<ShopRow> {
+  const values = {
+    name: input.name,
+    country: input.country,
+    region: input.region,
+    city: input.city,
+    takesShipped: input.takesShipped,
+    capabilities: input.capabilities,
+    equipmentNotes: input.equipmentNotes,
+    turnaroundDays: input.turnaroundDays,
+    notifyMatchingJobs: input.notifyMatchingJobs,
+  };
+  const [row] = await db
+    .insert(shops)
+    .values({ userId, ...values })
+    .onConflictDoUpdate({ target: shops.userId, set: { ...values, updatedAt: new Date() } })
+    .returning();
+  await db.delete(shopRates).where(eq(shopRates.shopId, row.id));
+  if (input.rateCard.length) {
+    await db.insert(shopRates).values(input.rateCard.map((r) => ({ shopId: row.id, operation: r.operation, priceCents: r.priceCents })));
+  }
+  return row;
+}
+
+export function toPublicShop(row: ShopRow, rateCard: Array<{ operation: string; priceCents: number }>): PublicShop {
+  return {
+    id: row.id,
+    name: row.name,
+    country: row.country,
+    region: row.region,
+    city: row.city,
+    takesShipped: row.takesShipped,
+    capabilities: row.capabilities,
+    equipmentNotes: row.equipmentNotes,
+    turnaroundDays: row.turnaroundDays,
+    rateCard,
+    verified: row.verifiedAt !== null,
+    // Reviews arrive with the reviews feature; until then no shop has a rating.
+    rating: null,
+  };
+}
+
+const escapeLike = (value: string) => value.replace(/[\\%_]/g, (c) => `\\${c}`);
+
+export async function searchShops(db: Executor, query: ShopDirectoryQuery) {
+  const filters: SQL[] = [];
+  if (query.q) {
+    const pattern = `%${escapeLike(query.q)}%`;
+    filters.push(or(ilike(shops.name, pattern), ilike(shops.city, pattern))!);
+  }
+  if (query.operation) filters.push(arrayContains(shops.capabilities, [query.operation]));
+  if (query.country) filters.push(sql`lower(${shops.country}) = lower(${query.country})`);
+  if (query.region) filters.push(sql`lower(${shops.region}) = lower(${query.region})`);
+  if (query.takesShipped !== undefined) filters.push(eq(shops.takesShipped, query.takesShipped));
+  const where = filters.length ? and(...filters) : undefined;
+  const [rows, [{ total }]] = await Promise.all([
+    db
+      .select()
+      .from(shops)
+      .where(where)
+      .orderBy(sql`${shops.verifiedAt} IS NULL`, asc(shops.name), asc(shops.id))
+      .limit(query.pageSize)
+      .offset((query.page - 1) * query.pageSize),
+    db.select({ total: sql<number>`count(*)::int` }).from(shops).where(where),
+  ]);
+  const rates = await ratesFor(db, rows.map((r) => r.id));
+  return { shops: rows.map((row) => toPublicShop(row, rates.get(row.id) ?? [])), total, page: query.page, pageSize: query.pageSize };
+}

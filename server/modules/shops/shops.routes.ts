@@ -1,0 +1,40 @@
+import { Router } from 'express';
+import { uuidSchema } from '../../../shared/schemas/common';
+import { shopDirectoryQuerySchema, shopProfileSchema } from '../../../shared/schemas/shops';
+import type { Database } from '../../db/client';
+import { currentUser, requireRole } from '../../lib/auth/guards';
+import { notFound } from '../../lib/errors';
+import { findShopById, findShopByUser, ratesFor, searchShops, toPublicShop, upsertShop } from './shops.repository';
+
+/** The public shop directory and a shop's own profile. */
+export function shopsRouter(deps: { db: Database }) {
+  const { db } = deps;
+  const router = Router();
+
+  router.get('/shops', async (req, res) => {
+    res.json(await searchShops(db, shopDirectoryQuerySchema.parse(req.query)));
+  });
+
+  router.get('/shops/:shopId', async (req, res) => {
+    const shop = await findShopById(db, uuidSchema.parse(req.params.shopId));
+    if (!shop) throw notFound('No shop with that id.');
+    const rates = await ratesFor(db, [shop.id]);
+    res.json({ shop: toPublicShop(shop, rates.get(shop.id) ?? []) });
+  });
+
+  router.get('/shop-profile', requireRole('shop'), async (req, res) => {
+    const shop = await findShopByUser(db, currentUser(req).id);
+    if (!shop) throw notFound('You have not set up your shop profile yet.');
+    const rates = await ratesFor(db, [shop.id]);
+    res.json({ shop: { ...toPublicShop(shop, rates.get(shop.id) ?? []), notifyMatchingJobs: shop.notifyMatchingJobs } });
+  });
+
+  router.put('/shop-profile', requireRole('shop'), async (req, res) => {
+    const input = shopProfileSchema.parse(req.body);
+    const shop = await db.transaction((tx) => upsertShop(tx, currentUser(req).id, input));
+    const rates = await ratesFor(db, [shop.id]);
+    res.json({ shop: { ...toPublicShop(shop, rates.get(shop.id) ?? []), notifyMatchingJobs: shop.notifyMatchingJobs } });
+  });
+
+  return router;
+}

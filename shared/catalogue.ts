@@ -1,0 +1,64 @@
+/**
+ * The machining work a builder can ask for, in the trade's own words, and how
+ * each is priced: per cylinder, per part, or once per job.
+ */
+export type PricedPer = 'cylinder' | 'part' | 'job';
+export type PartKind = 'block' | 'head' | 'crank' | 'rotating';
+
+export interface Operation {
+  code: string;
+  name: string;
+  description: string;
+  pricedPer: PricedPer;
+  part: PartKind;
+}
+
+export const operations = [
+  { code: 'clean', name: 'Clean', description: 'Hot tank or thermal clean, plugs out, passages flushed.', pricedPer: 'part', part: 'block' },
+  { code: 'crack-test', name: 'Crack test', description: 'Magnetic particle or dye penetrant check for cracks.', pricedPer: 'part', part: 'block' },
+  { code: 'bore', name: 'Bore', description: 'Bore each cylinder to size, leaving stock for the hone.', pricedPer: 'cylinder', part: 'block' },
+  { code: 'hone', name: 'Hone', description: 'Finish hone to the final size and crosshatch.', pricedPer: 'cylinder', part: 'block' },
+  { code: 'plateau-hone', name: 'Plateau hone', description: 'A final pass that knocks the peaks off for a plateau finish.', pricedPer: 'cylinder', part: 'block' },
+  { code: 'torque-plate-hone', name: 'Torque-plate hone', description: 'Hone with a torque plate bolted on to mimic the head’s clamping load.', pricedPer: 'cylinder', part: 'block' },
+  { code: 'deck', name: 'Deck', description: 'Surface the deck flat and to height, with the finish the gasket needs.', pricedPer: 'part', part: 'block' },
+  { code: 'line-hone', name: 'Line hone', description: 'Size and align the main bearing bores.', pricedPer: 'part', part: 'block' },
+  { code: 'sleeve', name: 'Sleeve', description: 'Fit a new sleeve to a cylinder past its last oversize or cracked.', pricedPer: 'cylinder', part: 'block' },
+  { code: 'cam-bore', name: 'Cam bore', description: 'Line bore or fit cam bearings.', pricedPer: 'part', part: 'block' },
+  { code: 'head-resurface', name: 'Head resurface', description: 'Surface a cylinder head’s gasket face flat.', pricedPer: 'part', part: 'head' },
+  { code: 'valve-job', name: 'Valve job', description: 'Cut seats and valves, set installed height.', pricedPer: 'part', part: 'head' },
+  { code: 'crank-grind', name: 'Crank grind', description: 'Grind main and rod journals undersize and polish.', pricedPer: 'part', part: 'crank' },
+  { code: 'balance', name: 'Balance', description: 'Balance the rotating assembly.', pricedPer: 'job', part: 'rotating' },
+] as const satisfies readonly Operation[];
+
+export type OperationCode = (typeof operations)[number]['code'];
+
+export const operationCodes = operations.map((op) => op.code) as [OperationCode, ...OperationCode[]];
+
+const byCode = new Map<string, Operation>(operations.map((op) => [op.code, op]));
+
+export function findOperation(code: string): Operation | undefined {
+  return byCode.get(code);
+}
+
+/**
+ * How many units of an operation a job needs: the cylinder count for work
+ * priced per cylinder, the number of parts (heads, say) for per-part work,
+ * and one for per-job work.
+ */
+export function defaultQuantity(code: string, job: { cylinders: number; parts?: number }): number {
+  const op = findOperation(code);
+  if (!op) return 1;
+  if (op.pricedPer === 'cylinder') return job.cylinders;
+  if (op.pricedPer === 'part') return Math.max(1, job.parts ?? 1);
+  return 1;
+}
+
+/** Money is integer cents everywhere; this is the one place a line total is worked out. */
+export function lineAmountCents(quantity: number, unitPriceCents: number): number {
+  if (!Number.isInteger(quantity) || !Number.isInteger(unitPriceCents)) throw new Error('quantity and unit price must be whole numbers');
+  return quantity * unitPriceCents;
+}
+
+export function formatCents(cents: number, currency = 'USD', locale?: string): string {
+  return new Intl.NumberFormat(locale, { style: 'currency', currency }).format(cents / 100);
+}

@@ -1,0 +1,154 @@
+import { z } from 'zod';
+import { isoDateSchema, operationCodeSchema, queryInt, regionSchema } from './common';
+
+export const jobStatuses = ['draft', 'open', 'awarded', 'funded', 'in_work', 'inspection_submitted', 'completed', 'disputed', 'resolved', 'cancelled'] as const;
+export type JobStatus = (typeof jobStatuses)[number];
+
+export const blockMaterials = ['cast-iron', 'aluminium'] as const;
+export const engineLayouts = ['inline', 'v', 'flat', 'other'] as const;
+export const pistonTypes = ['cast', 'hypereutectic', 'forged'] as const;
+export const logisticsOptions = ['ship', 'drop-off'] as const;
+
+const optionalPositive = (label: string, max = 10_000) =>
+  z
+    .number({ error: `${label} must be a number.` })
+    .positive(`${label} must be greater than zero.`)
+    .max(max, `${label} must be at most ${max}.`)
+    .optional();
+
+const optionalNonNegative = (label: string, max = 10_000) =>
+  z
+    .number({ error: `${label} must be a number.` })
+    .min(0, `${label} cannot be negative.`)
+    .max(max, `${label} must be at most ${max}.`)
+    .optional();
+
+export const jobOperationSchema = z.object({
+  code: operationCodeSchema,
+  quantity: z.number({ error: 'Enter how many.' }).int('Use a whole number.').min(1, 'At least one.').max(64, 'At most 64.'),
+});
+
+/**
+ * The block's specification and what the builder wants done. Lengths are in
+ * `unit`; finishes in micrometres; angles in degrees.
+ */
+export const jobFieldsSchema = z.object({
+  title: z.string({ error: 'Give the job a short title.' }).trim().min(4, 'Use at least 4 characters.').max(120, 'Use at most 120 characters.'),
+  engineFamily: z.string({ error: 'Describe the engine.' }).trim().min(2, 'Describe the engine, e.g. “small-block V8, 1970s”.').max(120, 'Use at most 120 characters.'),
+  layout: z.enum(engineLayouts, { error: 'Choose inline, V, flat or other.' }),
+  cylinders: z.number({ error: 'Enter the number of cylinders.' }).int('Use a whole number.').min(1, 'At least one cylinder.').max(16, 'At most 16 cylinders.'),
+  blockMaterial: z.enum(blockMaterials, { error: 'Choose cast iron or aluminium.' }),
+  unit: z.enum(['in', 'mm'], { error: 'Choose inches or millimetres.' }),
+  stockBore: z.number({ error: 'Enter the stock bore.' }).positive('The stock bore must be greater than zero.').max(10_000),
+  stroke: z.number({ error: 'Enter the stroke.' }).positive('The stroke must be greater than zero.').max(10_000),
+  targetBore: optionalPositive('Target bore'),
+  pistonDiameter: optionalPositive('Piston diameter'),
+  clearanceMin: optionalNonNegative('Minimum clearance', 10),
+  clearanceMax: optionalNonNegative('Maximum clearance', 10),
+  pistonType: z.enum(pistonTypes, { error: 'Choose cast, hypereutectic or forged.' }),
+  crosshatchMinDeg: optionalPositive('Smallest crosshatch angle', 179),
+  crosshatchMaxDeg: optionalPositive('Largest crosshatch angle', 179),
+  finishRaMaxUm: optionalPositive('Largest bore Ra', 100),
+  finishRkMaxUm: optionalPositive('Largest Rk', 100),
+  finishRpkMaxUm: optionalPositive('Largest Rpk', 100),
+  finishRvkMaxUm: optionalPositive('Largest Rvk', 100),
+  maxTaper: optionalNonNegative('Maximum taper', 10),
+  maxOutOfRound: optionalNonNegative('Maximum out-of-round', 10),
+  deckFlatnessMax: optionalNonNegative('Deck out-of-flat limit', 10),
+  deckRaMaxUm: optionalPositive('Largest deck Ra', 100),
+  deckNotes: z.string().trim().max(1000, 'Use at most 1,000 characters.').default(''),
+  operations: z
+    .array(jobOperationSchema, { error: 'Choose the work you want done.' })
+    .min(1, 'Choose at least one kind of work.')
+    .max(20, 'At most 20 kinds of work.'),
+  logistics: z.enum(logisticsOptions, { error: 'Choose shipping or drop-off.' }),
+  ...regionSchema.shape,
+  neededBy: isoDateSchema('Needed by'),
+  notes: z.string().trim().max(4000, 'Use at most 4,000 characters.').default(''),
+});
+
+type JobFields = z.infer<typeof jobFieldsSchema>;
+
+/** Rules across fields, shared by create and edit. */
+function checkJob(job: Partial<JobFields>, ctx: z.RefinementCtx) {
+  if (job.targetBore === undefined && job.pistonDiameter === undefined) {
+    ctx.addIssue({ code: 'custom', path: ['targetBore'], message: 'Give a target bore, or the piston diameter with a clearance range.' });
+  }
+  if (job.pistonDiameter !== undefined && (job.clearanceMin === undefined || job.clearanceMax === undefined)) {
+    ctx.addIssue({ code: 'custom', path: ['clearanceMax'], message: 'With a piston diameter, give the clearance range too.' });
+  }
+  if (job.clearanceMin !== undefined && job.clearanceMax !== undefined && job.clearanceMin > job.clearanceMax) {
+    ctx.addIssue({ code: 'custom', path: ['clearanceMax'], message: 'The largest clearance cannot be smaller than the smallest.' });
+  }
+  if (job.crosshatchMinDeg !== undefined && job.crosshatchMaxDeg !== undefined && job.crosshatchMinDeg > job.crosshatchMaxDeg) {
+    ctx.addIssue({ code: 'custom', path: ['crosshatchMaxDeg'], message: 'The largest angle cannot be smaller than the smallest.' });
+  }
+  if (job.operations) {
+    const codes = job.operations.map((op) => op.code);
+    codes.forEach((code, index) => {
+      if (codes.indexOf(code) !== index) ctx.addIssue({ code: 'custom', path: ['operations', index, 'code'], message: 'Each kind of work once, please.' });
+    });
+  }
+}
+
+export const jobInputSchema = jobFieldsSchema.superRefine(checkJob);
+export type JobInput = z.infer<typeof jobInputSchema>;
+/** What a form holds before parsing (defaults not yet applied). */
+export type JobFormValues = z.input<typeof jobInputSchema>;
+
+export const boardSorts = ['newest', 'needed-soonest', 'fewest-bids'] as const;
+
+export const boardQuerySchema = z.object({
+  operation: operationCodeSchema.optional(),
+  material: z.enum(blockMaterials, { error: 'Choose cast-iron or aluminium.' }).optional(),
+  cylinders: queryInt('Cylinders', 1, 16).optional(),
+  country: z.string().trim().min(1).max(60).optional(),
+  region: z.string().trim().min(1).max(60).optional(),
+  logistics: z.enum(logisticsOptions, { error: 'Choose ship or drop-off.' }).optional(),
+  neededBefore: isoDateSchema('Needed before').optional(),
+  sort: z.enum(boardSorts, { error: 'Sort by newest, needed-soonest or fewest-bids.' }).default('newest'),
+  page: queryInt('Page', 1, 10_000).default(1),
+  pageSize: queryInt('Page size', 1, 100).default(20),
+});
+export type BoardQuery = z.infer<typeof boardQuerySchema>;
+
+export const myJobsQuerySchema = z.object({
+  status: z.enum(jobStatuses, { error: 'Unknown status.' }).optional(),
+});
+
+export interface JobPhoto {
+  id: string;
+  width: number;
+  height: number;
+  thumbUrl: string;
+  largeUrl: string;
+}
+
+export interface JobSummary {
+  id: string;
+  title: string;
+  status: JobStatus;
+  engineFamily: string;
+  cylinders: number;
+  blockMaterial: (typeof blockMaterials)[number];
+  operations: string[];
+  logistics: (typeof logisticsOptions)[number];
+  country: string;
+  region: string;
+  city: string;
+  neededBy: string;
+  bidCount: number;
+  publishedAt: string | null;
+  createdAt: string;
+  thumbUrl: string | null;
+}
+
+export interface JobDetail extends JobSummary {
+  builder: { id: string; displayName: string };
+  spec: JobInput;
+  photos: JobPhoto[];
+  awardedBidId: string | null;
+  updatedAt: string;
+  /** What the person asking may do with it. */
+  viewer: { isOwner: boolean; canBid: boolean; myBidId: string | null };
+}
