@@ -122,9 +122,9 @@ CREATE UNIQUE INDEX "bids_one_active_per_shop_idx" ON "bids" USING btree ("job_i
 CREATE UNIQUE INDEX "bids_one_accepted_per_job_idx" ON "bids" USING btree ("job_id") WHERE "bids"."status" = 'accepted';--> statement-breakpoint
 CREATE INDEX "job_photos_job_idx" ON "job_photos" USING btree ("job_id","position");--> statement-breakpoint
 CREATE INDEX "jobs_builder_idx" ON "jobs" USING btree ("builder_id","created_at");--> statement-breakpoint
-CREATE INDEX "jobs_open_published_idx" ON "jobs" USING btree ("published_at" DESC NULLS LAST,"id") WHERE "jobs"."status" = 'open';--> statement-breakpoint
+CREATE INDEX "jobs_open_published_idx" ON "jobs" USING btree ("published_at" DESC NULLS FIRST,"id" DESC NULLS FIRST) WHERE "jobs"."status" = 'open';--> statement-breakpoint
 CREATE INDEX "jobs_open_needed_idx" ON "jobs" USING btree ("needed_by","id") WHERE "jobs"."status" = 'open';--> statement-breakpoint
-CREATE INDEX "jobs_open_bids_idx" ON "jobs" USING btree ("bid_count","published_at" DESC NULLS LAST) WHERE "jobs"."status" = 'open';--> statement-breakpoint
+CREATE INDEX "jobs_open_bids_idx" ON "jobs" USING btree ("bid_count","published_at" DESC NULLS FIRST,"id" DESC NULLS FIRST) WHERE "jobs"."status" = 'open';--> statement-breakpoint
 CREATE INDEX "jobs_open_spec_idx" ON "jobs" USING btree ("block_material","cylinders","country","region") WHERE "jobs"."status" = 'open';--> statement-breakpoint
 CREATE INDEX "jobs_operations_idx" ON "jobs" USING gin ("operations");--> statement-breakpoint
 CREATE UNIQUE INDEX "shops_user_idx" ON "shops" USING btree ("user_id");--> statement-breakpoint

@@ -191,9 +191,9 @@ export const jobs = pgTable(
   },
   (t) => [
     index('jobs_builder_idx').on(t.builderId, t.createdAt),
-    index('jobs_open_published_idx').on(t.publishedAt.desc(), t.id).where(sql`${t.status} = 'open'`),
+    index('jobs_open_published_idx').on(t.publishedAt.desc().nullsFirst(), t.id.desc().nullsFirst()).where(sql`${t.status} = 'open'`),
     index('jobs_open_needed_idx').on(t.neededBy, t.id).where(sql`${t.status} = 'open'`),
-    index('jobs_open_bids_idx').on(t.bidCount, t.publishedAt.desc()).where(sql`${t.status} = 'open'`),
+    index('jobs_open_bids_idx').on(t.bidCount, t.publishedAt.desc().nullsFirst(), t.id.desc().nullsFirst()).where(sql`${t.status} = 'open'`),
     index('jobs_open_spec_idx').on(t.blockMaterial, t.cylinders, t.country, t.region).where(sql`${t.status} = 'open'`),
     index('jobs_operations_idx').using('gin', t.operations),
     check('jobs_cylinders_check', sql`${t.cylinders} BETWEEN 1 AND 16`),

@@ -30,21 +30,22 @@ export async function processPhoto(input: Buffer): Promise<ProcessedPhoto> {
   let meta: Metadata;
   try {
     meta = await source().metadata();
-  } catch {
+  } catch (error) {
+    if (/pixel limit/i.test(String(error))) throw tooManyPixels();
     throw new AppError('unreadable_image', 'This image could not be read. Is the file complete?', 415);
   }
-  if (!meta.width || !meta.height || meta.width * meta.height > MAX_INPUT_PIXELS) {
-    throw new AppError(
-      'too_many_pixels',
-      `This image has too many pixels (${meta.width ?? '?'} × ${meta.height ?? '?'}). Keep photos under ${MAX_INPUT_PIXELS / 1_000_000} megapixels.`,
-      413,
-    );
-  }
+  if (!meta.width || !meta.height || meta.width * meta.height > MAX_INPUT_PIXELS) throw tooManyPixels(meta.width, meta.height);
   try {
     const large = await source().rotate().resize({ width: LARGE_EDGE, height: LARGE_EDGE, fit: 'inside', withoutEnlargement: true }).webp({ quality: 82 }).toBuffer({ resolveWithObject: true });
     const thumb = await source().rotate().resize({ width: THUMB_EDGE, height: THUMB_EDGE, fit: 'inside', withoutEnlargement: true }).webp({ quality: 75 }).toBuffer();
     return { large: large.data, thumb, width: large.info.width, height: large.info.height };
-  } catch {
+  } catch (error) {
+    if (/pixel limit/i.test(String(error))) throw tooManyPixels();
     throw new AppError('unreadable_image', 'This image could not be read. Is the file complete?', 415);
   }
+}
+
+function tooManyPixels(width?: number, height?: number) {
+  const size = width && height ? ` (${width} × ${height})` : '';
+  return new AppError('too_many_pixels', `This image has too many pixels${size}. Keep photos under ${MAX_INPUT_PIXELS / 1_000_000} megapixels.`, 413);
 }

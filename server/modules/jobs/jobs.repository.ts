@@ -103,18 +103,22 @@ const boardOrder = {
   'fewest-bids': [asc(jobs.bidCount), desc(jobs.publishedAt), desc(jobs.id)],
 } as const;
 
+/** The board's page query (exposed so a test can EXPLAIN exactly what runs). */
+export function boardRowsQuery(db: Executor, query: BoardQuery) {
+  return db
+    .select(summaryColumns)
+    .from(jobs)
+    .where(boardWhere(query))
+    .orderBy(...boardOrder[query.sort])
+    .limit(query.pageSize)
+    .offset((query.page - 1) * query.pageSize);
+}
+
 /** One page of the board and the total: two statements whatever the page size. */
 export async function boardPage(db: Executor, query: BoardQuery) {
-  const where = boardWhere(query);
   const [rows, [{ total }]] = await Promise.all([
-    db
-      .select(summaryColumns)
-      .from(jobs)
-      .where(where)
-      .orderBy(...boardOrder[query.sort])
-      .limit(query.pageSize)
-      .offset((query.page - 1) * query.pageSize),
-    db.select({ total: sql<number>`count(*)::int` }).from(jobs).where(where),
+    boardRowsQuery(db, query),
+    db.select({ total: sql<number>`count(*)::int` }).from(jobs).where(boardWhere(query)),
   ]);
   return { jobs: rows.map(toSummary), total, page: query.page, pageSize: query.pageSize, sort: query.sort };
 }
