@@ -21,6 +21,7 @@ import { shopsRouter } from './modules/shops/shops.routes';
 import { LocalDiskStorage, type FileStorage } from './lib/storage';
 import { calculationsRouter, ROUGHNESS_BODY_LIMIT } from './modules/calculations/calculations.routes';
 import { healthRouter } from './modules/health/health.routes';
+import { openApiDocument } from './openapi';
 
 export const SESSION_COOKIE = 'tm.sid';
 
@@ -122,6 +123,10 @@ export function createApp(deps: AppDeps) {
   app.use('/api', jobsRouter({ db, appUrl: config.appUrl, storage }));
   app.use('/api', bidsRouter({ db, appUrl: config.appUrl }));
   app.use('/api/admin', adminRouter({ db, appUrl: config.appUrl }));
+
+  app.get('/api/openapi.json', (_req, res) => {
+    res.json(openApiDocument());
+  });
 
   app.use('/api', notFoundApi);
 

@@ -1,0 +1,147 @@
+import { OpenAPIRegistry, OpenApiGeneratorV31, type RouteConfig } from '@asteasolutions/zod-to-openapi';
+import { z } from 'zod';
+import { createAdminSchema, userSearchSchema } from '../shared/schemas/admin';
+import {
+  githubCompleteSchema,
+  passwordResetConfirmSchema,
+  passwordResetRequestSchema,
+  signInSchema,
+  signUpSchema,
+  verifyEmailSchema,
+} from '../shared/schemas/auth';
+import { bidInputSchema, declineBidSchema } from '../shared/schemas/bids';
+import { calculationRequestSchemas } from '../shared/schemas/calculations';
+import { uuidSchema } from '../shared/schemas/common';
+import { boardQuerySchema, jobInputSchema, myJobsQuerySchema } from '../shared/schemas/jobs';
+import { shopDirectoryQuerySchema, shopProfileSchema } from '../shared/schemas/shops';
+
+/**
+ * The API's OpenAPI description, built from the same zod schemas the routes
+ * parse with. tests/api/openapi.test.ts checks it lists every route the
+ * Express router has, and nothing it lacks.
+ */
+type Access = 'public' | 'signed-in' | 'builder' | 'shop' | 'admin' | 'builder, shop or admin';
+
+interface RouteDoc {
+  method: 'get' | 'post' | 'put' | 'delete';
+  path: string;
+  summary: string;
+  tag: string;
+  access: Access;
+  body?: z.ZodType;
+  query?: z.ZodObject;
+  params?: z.ZodObject;
+  ok?: { status: number; description: string };
+  /** A state-changing request needs the X-CSRF-Token header, except where it says otherwise. */
+  csrf?: boolean;
+}
+
+const errorSchema = z.object({
+  error: z.object({
+    code: z.string(),
+    message: z.string(),
+    fields: z.record(z.string(), z.string()).optional(),
+  }),
+});
+
+const jobId = z.object({ jobId: uuidSchema });
+const bidId = z.object({ bidId: uuidSchema });
+const shopId = z.object({ shopId: uuidSchema });
+const photo = z.object({ jobId: uuidSchema, photoId: uuidSchema });
+const photoSized = photo.extend({ size: z.enum(['thumb', 'large']) });
+
+const calculationRoutes: RouteDoc[] = Object.entries(calculationRequestSchemas).map(([name, schema]) => ({
+  method: 'post',
+  path: `/api/calculations/${name}`,
+  summary: `Calculate: ${name.replace(/-/g, ' ')}`,
+  tag: 'Calculations',
+  access: 'public',
+  body: schema,
+  csrf: false,
+}));
+
+export const routeDocs: RouteDoc[] = [
+  { method: 'get', path: '/api/health', summary: 'Service and database health', tag: 'Health', access: 'public' },
+  { method: 'get', path: '/api/auth/csrf', summary: 'A CSRF token for this session', tag: 'Sign-in', access: 'public' },
+  { method: 'get', path: '/api/auth/me', summary: 'The signed-in person', tag: 'Sign-in', access: 'signed-in' },
+  { method: 'post', path: '/api/auth/signup', summary: 'Create an account (builder or shop) and sign in', tag: 'Sign-in', access: 'public', body: signUpSchema, ok: { status: 201, description: 'Created and signed in' } },
+  { method: 'post', path: '/api/auth/login', summary: 'Sign in with e-mail and password', tag: 'Sign-in', access: 'public', body: signInSchema },
+  { method: 'post', path: '/api/auth/logout', summary: 'Sign out and end the session', tag: 'Sign-in', access: 'public', ok: { status: 204, description: 'Signed out' } },
+  { method: 'post', path: '/api/auth/verify-email', summary: 'Confirm an e-mail address with the mailed token', tag: 'Sign-in', access: 'public', body: verifyEmailSchema },
+  { method: 'post', path: '/api/auth/verify-email/resend', summary: 'Send the confirmation link again', tag: 'Sign-in', access: 'signed-in', ok: { status: 202, description: 'Queued' } },
+  { method: 'post', path: '/api/auth/password-reset/request', summary: 'Mail a password reset link', tag: 'Sign-in', access: 'public', body: passwordResetRequestSchema, ok: { status: 202, description: 'Queued when the account exists' } },
+  { method: 'post', path: '/api/auth/password-reset/confirm', summary: 'Set a new password with the mailed token', tag: 'Sign-in', access: 'public', body: passwordResetConfirmSchema },
+  { method: 'get', path: '/api/auth/github', summary: 'Start a GitHub sign-in (redirects)', tag: 'Sign-in', access: 'public', query: z.object({ returnTo: z.string().optional() }), ok: { status: 302, description: 'To the provider' } },
+  { method: 'get', path: '/api/auth/github/callback', summary: 'Where the provider sends the browser back (redirects)', tag: 'Sign-in', access: 'public', ok: { status: 302, description: 'Into the app' } },
+  { method: 'get', path: '/api/auth/github/pending', summary: 'A first GitHub sign-in waiting for a role', tag: 'Sign-in', access: 'public' },
+  { method: 'post', path: '/api/auth/github/complete', summary: 'Choose a role and create the account', tag: 'Sign-in', access: 'public', body: githubCompleteSchema, ok: { status: 201, description: 'Created and signed in' } },
+  ...calculationRoutes,
+  { method: 'get', path: '/api/shops', summary: 'The public shop directory', tag: 'Shops', access: 'public', query: shopDirectoryQuerySchema },
+  { method: 'get', path: '/api/shops/{shopId}', summary: 'A shop’s public page', tag: 'Shops', access: 'public', params: shopId },
+  { method: 'get', path: '/api/shop-profile', summary: 'The signed-in shop’s own profile', tag: 'Shops', access: 'shop' },
+  { method: 'put', path: '/api/shop-profile', summary: 'Create or replace the signed-in shop’s profile and rate card', tag: 'Shops', access: 'shop', body: shopProfileSchema },
+  { method: 'get', path: '/api/jobs', summary: 'The job board: open jobs, filtered, sorted and paged', tag: 'Jobs', access: 'shop', query: boardQuerySchema },
+  { method: 'get', path: '/api/jobs/mine', summary: 'The signed-in builder’s jobs', tag: 'Jobs', access: 'builder', query: myJobsQuerySchema },
+  { method: 'post', path: '/api/jobs', summary: 'Create a draft job', tag: 'Jobs', access: 'builder', body: jobInputSchema, ok: { status: 201, description: 'Draft created' } },
+  { method: 'get', path: '/api/jobs/{jobId}', summary: 'A job, for its builder, shops while open, and shops that bid', tag: 'Jobs', access: 'signed-in', params: jobId },
+  { method: 'put', path: '/api/jobs/{jobId}', summary: 'Edit a draft or open job (bidders are told)', tag: 'Jobs', access: 'builder', params: jobId, body: jobInputSchema },
+  { method: 'post', path: '/api/jobs/{jobId}/publish', summary: 'Publish a draft to the board', tag: 'Jobs', access: 'builder', params: jobId },
+  { method: 'post', path: '/api/jobs/{jobId}/cancel', summary: 'Cancel a job before payment', tag: 'Jobs', access: 'builder', params: jobId },
+  { method: 'post', path: '/api/jobs/{jobId}/photos', summary: 'Upload photos (multipart field "photos"; JPEG, PNG or WebP; 15 MB each; 12 per job)', tag: 'Jobs', access: 'builder', params: jobId, ok: { status: 201, description: 'Stored' } },
+  { method: 'get', path: '/api/jobs/{jobId}/photos/{photoId}/{size}', summary: 'A photo, re-encoded as WebP', tag: 'Jobs', access: 'signed-in', params: photoSized, ok: { status: 200, description: 'image/webp' } },
+  { method: 'delete', path: '/api/jobs/{jobId}/photos/{photoId}', summary: 'Remove a photo', tag: 'Jobs', access: 'builder', params: photo, ok: { status: 204, description: 'Removed' } },
+  { method: 'get', path: '/api/jobs/{jobId}/bids', summary: 'A job’s bids: all for its builder, its own for a shop', tag: 'Bids', access: 'signed-in', params: jobId },
+  { method: 'post', path: '/api/jobs/{jobId}/bids', summary: 'Bid on an open job (the total is worked out by the server)', tag: 'Bids', access: 'shop', params: jobId, body: bidInputSchema, ok: { status: 201, description: 'Bid placed' } },
+  { method: 'get', path: '/api/bids/mine', summary: 'The signed-in shop’s bids', tag: 'Bids', access: 'shop' },
+  { method: 'get', path: '/api/bids/{bidId}', summary: 'A bid with its earlier versions', tag: 'Bids', access: 'signed-in', params: bidId },
+  { method: 'put', path: '/api/bids/{bidId}', summary: 'Revise an active bid (the old version is kept)', tag: 'Bids', access: 'shop', params: bidId, body: bidInputSchema },
+  { method: 'post', path: '/api/bids/{bidId}/withdraw', summary: 'Withdraw an active bid', tag: 'Bids', access: 'shop', params: bidId },
+  { method: 'post', path: '/api/bids/{bidId}/accept', summary: 'Accept a bid: the job is awarded and every other bid declined', tag: 'Bids', access: 'builder', params: bidId },
+  { method: 'post', path: '/api/bids/{bidId}/decline', summary: 'Decline a bid', tag: 'Bids', access: 'builder', params: bidId, body: declineBidSchema },
+  { method: 'get', path: '/api/admin/users', summary: 'Search accounts', tag: 'Admin', access: 'admin', query: userSearchSchema },
+  { method: 'post', path: '/api/admin/admins', summary: 'Make another administrator', tag: 'Admin', access: 'admin', body: createAdminSchema, ok: { status: 201, description: 'Created; a link to choose a password is mailed' } },
+  { method: 'get', path: '/api/openapi.json', summary: 'This description', tag: 'Health', access: 'public' },
+];
+
+function toRouteConfig(doc: RouteDoc): RouteConfig {
+  const ok = doc.ok ?? { status: 200, description: 'Done' };
+  const needsCsrf = doc.method !== 'get' && doc.csrf !== false;
+  return {
+    method: doc.method,
+    path: doc.path,
+    summary: doc.summary,
+    description: `Who may call it: ${doc.access}.${needsCsrf ? ' Send the session cookie and the X-CSRF-Token header from GET /api/auth/csrf.' : ''}`,
+    tags: [doc.tag],
+    request: {
+      ...(doc.params ? { params: doc.params } : {}),
+      ...(doc.query ? { query: doc.query } : {}),
+      ...(doc.body ? { body: { content: { 'application/json': { schema: doc.body } } } } : {}),
+      ...(needsCsrf ? { headers: z.object({ 'x-csrf-token': z.string() }) } : {}),
+    },
+    responses: {
+      [ok.status]: { description: ok.description },
+      400: { description: 'Input not valid; a message per field', content: { 'application/json': { schema: errorSchema } } },
+      ...(doc.access !== 'public' ? { 401: { description: 'Not signed in', content: { 'application/json': { schema: errorSchema } } } } : {}),
+      ...(['builder', 'shop', 'admin', 'signed-in'].includes(doc.access) ? { 403: { description: 'Not allowed for this account', content: { 'application/json': { schema: errorSchema } } } } : {}),
+      429: { description: 'Too many requests', content: { 'application/json': { schema: errorSchema } } },
+    },
+  };
+}
+
+let cached: object | undefined;
+
+export function openApiDocument(): object {
+  if (cached) return cached;
+  const registry = new OpenAPIRegistry();
+  for (const doc of routeDocs) registry.registerPath(toRouteConfig(doc));
+  cached = new OpenApiGeneratorV31(registry.definitions).generateDocument({
+    openapi: '3.1.0',
+    info: {
+      title: 'Tenthmark API',
+      version: '0.1.0',
+      description: 'Engine machining jobs, bids and measured results. JSON in and out; errors as { error: { code, message, fields } }.',
+    },
+    servers: [{ url: '/' }],
+  });
+  return cached;
+}
