@@ -48,6 +48,8 @@ export async function startServer(
       server.closeAllConnections();
       app.sessionStore.close();
       transport.close();
+      // The session store touches a session after its response has gone out; let the last ones land.
+      await new Promise((resolve) => setTimeout(resolve, 100));
       await pool.end();
     },
   };

@@ -1,0 +1,89 @@
+/**
+ * `npm run bench`: the job board and job detail under load, on a throwaway
+ * PostgreSQL cluster seeded with 10,000 open jobs. Prints p50, p95, p99 and
+ * requests per second for each; asserts nothing.
+ */
+import autocannon from 'autocannon';
+import { sql } from 'drizzle-orm';
+import { mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { createDb, createPool, runMigrations } from '../../server/db/client';
+import { ensureCluster, ensureDatabase } from '../../server/dev/postgres';
+import { loadConfig } from '../../server/env';
+import { hashPassword } from '../../server/lib/auth/passwords';
+import { startServer } from '../../server/runtime';
+import { freePort } from '../setup/ports';
+
+const JOBS = 10_000;
+const DURATION_S = Number(process.env.BENCH_SECONDS ?? 10);
+
+const dir = mkdtempSync(join(tmpdir(), 'tenthmark-bench-'));
+const cluster = ensureCluster({ dir, port: await freePort(), throwaway: true });
+let server: Awaited<ReturnType<typeof startServer>> | undefined;
+try {
+  await ensureDatabase(cluster, 'bench');
+  const url = cluster.url('bench');
+  await runMigrations(url);
+  const pool = createPool(url, 2);
+  const db = createDb(pool);
+  const hash = await hashPassword('bench password 1');
+  console.log(`seeding ${JOBS.toLocaleString()} open jobs …`);
+  await db.execute(sql`INSERT INTO users (email, display_name, role, password_hash, email_verified_at)
+    VALUES ('builder@bench.test', 'Bench Builder', 'builder', ${hash}, now()), ('shop@bench.test', 'Bench Shop', 'shop', ${hash}, now())`);
+  await db.execute(sql`INSERT INTO shops (user_id, name, country, region, city, takes_shipped, capabilities, turnaround_days)
+    SELECT id, 'Bench Shop', 'United States', 'Ohio', 'Dayton', true, ARRAY['bore','hone','deck'], 10 FROM users WHERE role = 'shop'`);
+  await db.execute(sql`
+    INSERT INTO jobs (builder_id, status, title, engine_family, cylinders, block_material, operations, logistics, country, region, city, needed_by, spec, published_at, bid_count)
+    SELECT (SELECT id FROM users WHERE role = 'builder'), 'open', 'Bench job ' || g, 'Bench V8', (ARRAY[4,6,8])[1 + g % 3],
+      CASE WHEN g % 3 = 0 THEN 'aluminium' ELSE 'cast-iron' END,
+      CASE g % 4 WHEN 0 THEN ARRAY['bore','hone'] WHEN 1 THEN ARRAY['deck'] WHEN 2 THEN ARRAY['bore','hone','deck'] ELSE ARRAY['line-hone'] END,
+      CASE WHEN g % 2 = 0 THEN 'ship' ELSE 'drop-off' END,
+      'United States', (ARRAY['Ohio','Oregon','Texas','Maine','Utah'])[1 + g % 5], 'Town ' || (g % 50), current_date + (g % 120),
+      jsonb_build_object('title', 'Bench job ' || g, 'unit', 'in', 'stockBore', 4, 'stroke', 3.48), now() - g * interval '1 minute', g % 7
+    FROM generate_series(1, ${JOBS}) AS g`);
+  await db.execute(sql`ANALYZE`);
+  const [{ id: sampleJob }] = (await db.execute<{ id: string }>(sql`SELECT id FROM jobs ORDER BY published_at DESC LIMIT 1 OFFSET 500`)).rows;
+  await pool.end();
+
+  const config = loadConfig({ NODE_ENV: 'production', LOG_LEVEL: 'silent', DATABASE_URL: url, PORT: '0', SESSION_SECRET: 'bench-session-secret-123456', RATE_LIMIT_SIGNIN_MAX: '1000' });
+  server = await startServer(config, { migrate: false });
+  const base = `http://127.0.0.1:${server.port}`;
+
+  // Sign in as the shop once and reuse the session cookie.
+  const csrfRes = await fetch(`${base}/api/auth/csrf`);
+  const firstCookie = csrfRes.headers.get('set-cookie')!.split(';')[0];
+  const { csrfToken } = (await csrfRes.json()) as { csrfToken: string };
+  const login = await fetch(`${base}/api/auth/login`, {
+    method: 'POST',
+    headers: { 'Content-Type': 'application/json', Cookie: firstCookie, 'X-CSRF-Token': csrfToken },
+    body: JSON.stringify({ email: 'shop@bench.test', password: 'bench password 1' }),
+  });
+  if (login.status !== 200) throw new Error(`bench sign-in failed: ${login.status}`);
+  const cookie = login.headers.get('set-cookie')!.split(';')[0];
+
+  const cases = [
+    { name: 'board, newest, 20 a page', path: '/api/jobs?pageSize=20' },
+    { name: 'board, filtered (bore, cast iron, Ohio) and sorted by needed-by', path: '/api/jobs?operation=bore&material=cast-iron&region=Ohio&sort=needed-soonest' },
+    { name: 'board, page 150 of 50-row pages', path: '/api/jobs?pageSize=50&page=150' },
+    { name: 'job detail', path: `/api/jobs/${sampleJob}` },
+  ];
+  console.log(`\n${JOBS.toLocaleString()} open jobs; ${DURATION_S} s per case, 20 connections, one app instance\n`);
+  console.log('case'.padEnd(70), 'p50 ms'.padStart(8), 'p95 ms'.padStart(8), 'p99 ms'.padStart(8), 'req/s'.padStart(9), 'errors'.padStart(7));
+  for (const c of cases) {
+    const result = await autocannon({ url: `${base}${c.path}`, connections: 20, duration: DURATION_S, headers: { cookie } });
+    const p95 = (result.latency as unknown as Record<string, number>).p95 ?? result.latency.p97_5;
+    console.log(
+      c.name.padEnd(70),
+      String(result.latency.p50).padStart(8),
+      String(p95).padStart(8),
+      String(result.latency.p99).padStart(8),
+      result.requests.average.toFixed(0).padStart(9),
+      String(result.errors + result.non2xx).padStart(7),
+    );
+  }
+} finally {
+  await server?.close();
+  cluster.stop();
+  rmSync(dir, { recursive: true, force: true });
+}
