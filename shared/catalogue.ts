@@ -62,3 +62,27 @@ export function lineAmountCents(quantity: number, unitPriceCents: number): numbe
 export function formatCents(cents: number, currency = 'USD', locale?: string): string {
   return new Intl.NumberFormat(locale, { style: 'currency', currency }).format(cents / 100);
 }
+
+export interface PrefilledLine {
+  operation: OperationCode;
+  description: string;
+  quantity: number;
+  unitPriceCents: number;
+}
+
+/**
+ * A bid's first draft: one line per operation the job asks for, with the
+ * job's quantity and the shop's price for that work (0 where the shop has
+ * none yet, for the shop to fill in).
+ */
+export function prefillBidLines(
+  jobOperations: ReadonlyArray<{ code: string; quantity: number }>,
+  rateCard: ReadonlyArray<{ operation: string; priceCents: number }>,
+): PrefilledLine[] {
+  const prices = new Map(rateCard.map((r) => [r.operation, r.priceCents]));
+  return jobOperations.flatMap((op) => {
+    const known = findOperation(op.code);
+    if (!known) return [];
+    return [{ operation: known.code as OperationCode, description: known.name, quantity: op.quantity, unitPriceCents: prices.get(op.code) ?? 0 }];
+  });
+}

@@ -47,6 +47,11 @@ async function toApiError(res: Response): Promise<ApiError> {
   return new ApiError(res.status, 'error', `The server answered ${res.status}. Try again.`);
 }
 
+/** The session's CSRF token, fetched once when needed (for requests made outside `api`, such as uploads). */
+export async function getCsrfToken(): Promise<string> {
+  return csrfToken ?? fetchCsrfToken();
+}
+
 type Method = 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE';
 
 async function request<T>(method: Method, path: string, body?: unknown, retried = false): Promise<T> {

@@ -1,0 +1,48 @@
+import { queryOptions, useMutation, useQuery, useQueryClient, type UseMutationOptions } from '@tanstack/react-query';
+import type { Bid, BidInput, BidRevision } from '@shared/schemas/bids';
+import { api, type ApiError } from '@client/lib/api-client';
+import { bidKeys, jobKeys } from '@client/lib/query-keys';
+
+export type BidWithHistory = { bid: Bid; revisions: BidRevision[] };
+export type MyBid = Bid & { jobTitle: string; jobStatus: string };
+
+export const bidQueries = {
+  forJob: (jobId: string) => queryOptions({ queryKey: bidKeys.forJob(jobId), queryFn: () => api.get<{ bids: Bid[] }>(`/api/jobs/${jobId}/bids`).then((r) => r.bids) }),
+  mine: () => queryOptions({ queryKey: bidKeys.mine(), queryFn: () => api.get<{ bids: MyBid[] }>('/api/bids/mine').then((r) => r.bids) }),
+  detail: (id: string) => queryOptions({ queryKey: bidKeys.detail(id), queryFn: () => api.get<BidWithHistory>(`/api/bids/${id}`) }),
+};
+
+export const useJobBids = (jobId: string) => useQuery(bidQueries.forJob(jobId));
+export const useMyBids = () => useQuery(bidQueries.mine());
+export const useBid = (id: string | null | undefined) => useQuery({ ...bidQueries.detail(id ?? ''), enabled: Boolean(id) });
+
+type Config<TVars> = Omit<UseMutationOptions<BidWithHistory, ApiError, TVars>, 'mutationFn'>;
+
+/** Every bid change refreshes the job (status, bid count) and the bid lists. */
+function useBidMutation<TVars>(run: (vars: TVars) => Promise<BidWithHistory>, config?: Config<TVars>) {
+  const queryClient = useQueryClient();
+  const { onSuccess, ...rest } = config ?? {};
+  return useMutation<BidWithHistory, ApiError, TVars>({
+    ...rest,
+    mutationFn: run,
+    onSuccess: (result, ...args) => {
+      queryClient.setQueryData(bidKeys.detail(result.bid.id), result);
+      void queryClient.invalidateQueries({ queryKey: bidKeys.forJob(result.bid.jobId) });
+      void queryClient.invalidateQueries({ queryKey: bidKeys.mine() });
+      void queryClient.invalidateQueries({ queryKey: jobKeys.detail(result.bid.jobId) });
+      void queryClient.invalidateQueries({ queryKey: jobKeys.boards() });
+      return onSuccess?.(result, ...args);
+    },
+  });
+}
+
+export const usePlaceBid = (jobId: string, options?: { mutationConfig?: Config<BidInput> }) =>
+  useBidMutation((input: BidInput) => api.post<BidWithHistory>(`/api/jobs/${jobId}/bids`, input), options?.mutationConfig);
+export const useReviseBid = (options?: { mutationConfig?: Config<{ id: string; input: BidInput }> }) =>
+  useBidMutation(({ id, input }: { id: string; input: BidInput }) => api.put<BidWithHistory>(`/api/bids/${id}`, input), options?.mutationConfig);
+export const useWithdrawBid = (options?: { mutationConfig?: Config<string> }) =>
+  useBidMutation((id: string) => api.post<BidWithHistory>(`/api/bids/${id}/withdraw`), options?.mutationConfig);
+export const useAcceptBid = (options?: { mutationConfig?: Config<string> }) =>
+  useBidMutation((id: string) => api.post<BidWithHistory>(`/api/bids/${id}/accept`), options?.mutationConfig);
+export const useDeclineBid = (options?: { mutationConfig?: Config<{ id: string; reason: string }> }) =>
+  useBidMutation(({ id, reason }: { id: string; reason: string }) => api.post<BidWithHistory>(`/api/bids/${id}/decline`, { reason }), options?.mutationConfig);

@@ -1,0 +1,36 @@
+import type { BoardQuery, JobStatus } from '@shared/schemas/jobs';
+import type { ShopDirectoryQuery } from '@shared/schemas/shops';
+
+/**
+ * Query-key factories, one per feature, kept in the shared layer so one
+ * feature can refresh another's data (a new bid changes the job's bid count)
+ * without importing that feature.
+ */
+export type BoardFilters = Partial<BoardQuery>;
+export type DirectoryFilters = Partial<Omit<ShopDirectoryQuery, 'takesShipped'>> & { takesShipped?: 'true' | 'false' };
+
+export const jobKeys = {
+  all: ['jobs'] as const,
+  boards: () => [...jobKeys.all, 'board'] as const,
+  board: (filters: BoardFilters) => [...jobKeys.boards(), filters] as const,
+  mineAll: () => [...jobKeys.all, 'mine'] as const,
+  mine: (status?: JobStatus) => [...jobKeys.mineAll(), status ?? 'all'] as const,
+  details: () => [...jobKeys.all, 'detail'] as const,
+  detail: (id: string) => [...jobKeys.details(), id] as const,
+};
+
+export const bidKeys = {
+  all: ['bids'] as const,
+  forJob: (jobId: string) => [...bidKeys.all, 'job', jobId] as const,
+  mine: () => [...bidKeys.all, 'mine'] as const,
+  detail: (id: string) => [...bidKeys.all, 'detail', id] as const,
+};
+
+export const shopKeys = {
+  all: ['shops'] as const,
+  lists: () => [...shopKeys.all, 'list'] as const,
+  list: (filters: DirectoryFilters) => [...shopKeys.lists(), filters] as const,
+  details: () => [...shopKeys.all, 'detail'] as const,
+  detail: (id: string) => [...shopKeys.details(), id] as const,
+  own: () => [...shopKeys.all, 'own'] as const,
+};
