@@ -12,12 +12,22 @@ interface NavItem {
 
 /** What each role sees in the navigation. Later features add their pages here. */
 export const navigationByRole: Record<Me['role'] | 'anonymous', NavItem[]> = {
-  anonymous: [{ to: '/', label: 'How it works' }],
-  builder: [{ to: '/dashboard', label: 'Workbench' }],
-  shop: [{ to: '/dashboard', label: 'Shop floor' }],
+  anonymous: [
+    { to: '/', label: 'How it works' },
+    { to: '/calculator', label: 'Calculator' },
+  ],
+  builder: [
+    { to: '/dashboard', label: 'Workbench' },
+    { to: '/calculator', label: 'Calculator' },
+  ],
+  shop: [
+    { to: '/dashboard', label: 'Shop floor' },
+    { to: '/calculator', label: 'Calculator' },
+  ],
   admin: [
     { to: '/dashboard', label: 'Operations' },
     { to: '/admin/people', label: 'People' },
+    { to: '/calculator', label: 'Calculator' },
   ],
 };
 

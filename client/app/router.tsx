@@ -22,6 +22,7 @@ export const router = createBrowserRouter([
         errorElement: <RouteError />,
         children: [
           { path: '/', element: <LandingRoute /> },
+          { path: '/calculator', lazy: () => import('./routes/calculator').then((m) => ({ Component: m.CalculatorRoute })) },
           { path: '/signin', element: <GuestOnly><SignInRoute /></GuestOnly> },
           { path: '/signup', element: <GuestOnly><SignUpRoute /></GuestOnly> },
           { path: '/forgot-password', element: <ForgotPasswordRoute /> },

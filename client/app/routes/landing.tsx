@@ -26,6 +26,9 @@ export function LandingRoute() {
             <Link to="/signin" className="inline-flex min-h-11 items-center rounded-lg px-5 font-semibold text-slate-700 ring-1 ring-slate-300 hover:bg-slate-50">
               Sign in
             </Link>
+            <Link to="/calculator" className="inline-flex min-h-11 items-center rounded-lg px-5 font-semibold text-slate-700 underline underline-offset-4 hover:bg-slate-50">
+              Try the machining calculator
+            </Link>
           </div>
         </div>
         <Card className="bg-slate-800 text-slate-50 ring-0">

@@ -1,0 +1,65 @@
+import { PageTitle } from '@client/components/ui/card';
+import { Notice } from '@client/components/ui/notice';
+import { BoreCheckCalculator } from '@client/features/calculator/components/bore-check-calculator';
+import { BoreSizeCalculator } from '@client/features/calculator/components/bore-size-calculator';
+import { CompressionCalculator } from '@client/features/calculator/components/compression-calculator';
+import { CrosshatchCalculator } from '@client/features/calculator/components/crosshatch-calculator';
+import { DeckFlatnessCalculator } from '@client/features/calculator/components/deck-flatness-calculator';
+import { DisplacementCalculator } from '@client/features/calculator/components/displacement-calculator';
+import { RingGapCalculator } from '@client/features/calculator/components/ring-gap-calculator';
+import { RoughnessCalculator } from '@client/features/calculator/components/roughness-calculator';
+import { UnitSwitch } from '@client/features/calculator/components/unit-switch';
+import { usePageUnit } from '@client/features/calculator/hooks/use-page-unit';
+import { CALCULATOR_SECTIONS } from '@client/features/calculator/sections';
+
+/**
+ * The public calculator page: every calculation of the shared library as a
+ * form with live results, worked out in the browser. Loaded as its own chunk
+ * (with recharts) from the router.
+ */
+export function CalculatorRoute() {
+  const [unit, setUnit] = usePageUnit();
+  return (
+    <div className="flex flex-col gap-6">
+      <div>
+        <PageTitle
+          title="Machining calculator"
+          lead="Figures for the bench: engine size and compression, bore checks and sizes, honing angle, deck flatness, surface finish and ring gaps. Results appear as you type; nothing is sent or saved."
+        />
+        <Notice tone="caution" title="Guidance, not a specification">
+          <p data-testid="guidance-caution">
+            The figures are guidance. Engine and piston makers&apos; specifications, calibrated instruments, local codes and licensed
+            practice govern. Values marked &ldquo;common practice&rdquo; are shop habits, not published limits.
+          </p>
+        </Notice>
+      </div>
+
+      <nav aria-label="Calculators on this page">
+        <ul className="grid gap-2 sm:grid-cols-2 lg:grid-cols-4">
+          {CALCULATOR_SECTIONS.map((section) => (
+            <li key={section.id}>
+              <a
+                href={`#${section.id}`}
+                className="flex h-full flex-col rounded-lg bg-paper-raised px-3 py-2 ring-1 ring-slate-200 hover:bg-white hover:ring-slate-400"
+              >
+                <span className="font-semibold text-slate-700 underline-offset-4 hover:underline">{section.title}</span>
+                <span className="text-sm text-ink-soft">{section.blurb}</span>
+              </a>
+            </li>
+          ))}
+        </ul>
+      </nav>
+
+      <UnitSwitch unit={unit} onChange={setUnit} />
+
+      <DisplacementCalculator unit={unit} />
+      <CompressionCalculator unit={unit} />
+      <BoreCheckCalculator unit={unit} />
+      <BoreSizeCalculator unit={unit} />
+      <CrosshatchCalculator unit={unit} />
+      <DeckFlatnessCalculator unit={unit} />
+      <RoughnessCalculator />
+      <RingGapCalculator unit={unit} />
+    </div>
+  );
+}

@@ -1,0 +1,293 @@
+import { join } from 'node:path';
+import type { Browser, BrowserContext, Locator, Page } from 'playwright-core';
+import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, it } from 'vitest';
+import { CC_PER_CUBIC_INCH, roughness } from '../../shared/calc';
+import type { RunningServer } from '../../server/runtime';
+import { syntheticPlateauProfile } from '../../client/features/calculator/lib/synthetic-profile';
+import { artifactsDir, launchBrowser, startBrowserApp } from '../setup/browser';
+
+let browser: Browser;
+let app: { server: RunningServer; close: () => Promise<void> };
+let context: BrowserContext;
+let page: Page;
+const consoleErrors: string[] = [];
+
+beforeAll(async () => {
+  [browser, app] = await Promise.all([launchBrowser(), startBrowserApp()]);
+});
+afterAll(async () => {
+  await browser?.close();
+  await app?.close();
+});
+beforeEach(async () => {
+  context = await browser.newContext({ viewport: { width: 768, height: 1024 } }); // a shop-floor tablet
+  context.setDefaultTimeout(10_000);
+  page = await context.newPage();
+  consoleErrors.length = 0;
+  page.on('console', (msg) => {
+    // A 401 from /api/auth/me is how a signed-out visitor is recognised.
+    if (msg.type() === 'error' && !/401/.test(msg.text())) consoleErrors.push(msg.text());
+  });
+  page.on('pageerror', (err) => consoleErrors.push(err.message));
+});
+afterEach(async () => {
+  await context?.close();
+});
+
+const url = (path: string) => `${app.server.url}${path}`;
+const card = (name: string) => page.getByRole('region', { name, exact: true });
+/** The number in a figure such as "5,733.0 cc" or "9.01 : 1". */
+const numberIn = async (locator: Locator) => Number(/-?[\d,]+(?:\.\d+)?/.exec((await locator.textContent()) ?? '')![0].replace(/,/g, ''));
+
+async function openCalculator() {
+  await page.goto(url('/calculator'));
+  await page.getByRole('heading', { level: 1, name: 'Machining calculator' }).waitFor();
+}
+
+describe('the calculator page, as a signed-out visitor', () => {
+  it('when the nav link is followed, then the page opens with the guidance caution in view', async () => {
+    await page.goto(url('/'));
+    await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Calculator' }).click();
+    await page.waitForURL(url('/calculator'));
+    await page.getByRole('heading', { level: 1, name: 'Machining calculator' }).waitFor();
+    const caution = page.getByTestId('guidance-caution');
+    await expect(caution.isVisible()).resolves.toBe(true);
+    await expect(caution.textContent()).resolves.toContain(
+      "Engine and piston makers' specifications, calibrated instruments, local codes and licensed practice govern.",
+    );
+    const inPage = page.getByRole('navigation', { name: 'Calculators on this page' });
+    await expect(inPage.getByRole('link').count()).resolves.toBe(8);
+    await page.screenshot({ path: join(artifactsDir, 'calculator-top-768.png') });
+
+    // The in-page list jumps to a calculator without leaving the page.
+    await inPage.getByRole('link', { name: /Ring end gap/ }).click();
+    await page.waitForURL(url('/calculator#ring-gap'));
+    await expect(card('Ring end gap').getByLabel('Bore (in)', { exact: true }).isVisible()).resolves.toBe(true);
+    await expect(page.getByRole('heading', { level: 1, name: 'Machining calculator' }).count()).resolves.toBe(1);
+    expect(consoleErrors).toEqual([]);
+  });
+
+  it('when bore, stroke and cylinders are typed, then the displacement shows at once; a negative bore shows its message and no result', async () => {
+    await openCalculator();
+    const displacement = card('Displacement');
+    await expect(displacement.getByTestId('missing-hint').textContent()).resolves.toContain('Still to enter: the bore, the stroke and the number of cylinders');
+    await displacement.getByLabel('Bore (in)', { exact: true }).fill('4');
+    await displacement.getByLabel('Stroke (in)', { exact: true }).fill('3.48');
+    await displacement.getByLabel('Cylinders', { exact: true }).fill('8');
+    // derived: π/4 · 4² · 3.48 · 8 in³ × 16.387064 cc/in³ = 5,733.0 cc
+    const expectedCc = (Math.PI / 4) * 4 ** 2 * 3.48 * 8 * CC_PER_CUBIC_INCH;
+    expect(expectedCc).toBeCloseTo(5733, 0);
+    await expect(numberIn(displacement.getByTestId('displacement-cc'))).resolves.toBeCloseTo(expectedCc, 1);
+    await expect(displacement.getByTestId('displacement-cc').textContent()).resolves.toBe('5,733.0 cc');
+
+    await displacement.getByLabel('Bore (in)', { exact: true }).fill('-4');
+    await displacement.getByText('Bore must be greater than zero.').waitFor();
+    await expect(displacement.getByLabel('Bore (in)', { exact: true }).getAttribute('aria-invalid')).resolves.toBe('true');
+    await expect(displacement.getByTestId('displacement-result').count()).resolves.toBe(0);
+    await expect(displacement.getByTestId('missing-hint').textContent()).resolves.toContain('Correct the field marked in red');
+    await displacement.screenshot({ path: join(artifactsDir, 'calculator-displacement-error.png') });
+    expect(consoleErrors).toEqual([]);
+  });
+
+  it('when the compression example is typed, then the ratio reads 9.01; an overbore and deck cut show their effect', async () => {
+    await openCalculator();
+    const compression = card('Compression ratio');
+    await compression.getByLabel('Bore (in)', { exact: true }).fill('4.000');
+    await compression.getByLabel('Stroke (in)', { exact: true }).fill('3.48');
+    await compression.getByLabel('Chamber volume (cc)', { exact: true }).fill('70');
+    await compression.getByLabel('Piston volume (cc)', { exact: true }).fill('5');
+    await compression.getByLabel('Deck clearance (in)', { exact: true }).fill('0.050');
+    await compression.getByLabel('Gasket bore (in)', { exact: true }).fill('4.000');
+    await compression.getByLabel('Gasket thickness (in)', { exact: true }).fill('0.020');
+    // source: Circle Track, "Compression Ratio Rules" (worked example: 9.01 for these figures)
+    await expect(compression.getByTestId('compression-ratio').textContent()).resolves.toBe('9.01 : 1');
+
+    // derived: a 0.010 in deck cut takes π/4 · 4² · 0.010 in³ = 2.059 cc off the clearance volume, so the ratio rises
+    await compression.getByLabel('Deck cut (in)', { exact: true }).fill('0.010');
+    await compression.getByLabel('Cylinders', { exact: true }).fill('8');
+    const effect = compression.getByTestId('machining-effect');
+    await effect.waitFor();
+    const after = await numberIn(effect.getByRole('row', { name: /Compression ratio/ }).getByRole('cell').nth(1));
+    const clearanceBefore = 70 + 5 + ((Math.PI / 4) * 16 * 0.07) * CC_PER_CUBIC_INCH;
+    const swept = (Math.PI / 4) * 16 * 3.48 * CC_PER_CUBIC_INCH;
+    const clearanceAfter = clearanceBefore - (Math.PI / 4) * 16 * 0.01 * CC_PER_CUBIC_INCH;
+    expect(after).toBeCloseTo((swept + clearanceAfter) / clearanceAfter, 2);
+    await compression.screenshot({ path: join(artifactsDir, 'calculator-compression.png') });
+    expect(consoleErrors).toEqual([]);
+  });
+
+  it('when the unit switch is moved to millimetres, then a typed 4 in bore reads 101.600 mm and the result stays the same', async () => {
+    await openCalculator();
+    const displacement = card('Displacement');
+    await displacement.getByLabel('Bore (in)', { exact: true }).fill('4');
+    await displacement.getByLabel('Stroke (in)', { exact: true }).fill('3.48');
+    await displacement.getByLabel('Cylinders', { exact: true }).fill('8');
+    const cc = await numberIn(displacement.getByTestId('displacement-cc'));
+
+    const unitSwitch = page.getByRole('radiogroup', { name: 'Length unit' });
+    await unitSwitch.getByRole('radio', { name: 'Millimetres' }).click();
+    await expect(unitSwitch.getByRole('radio', { name: 'Millimetres' }).getAttribute('aria-checked')).resolves.toBe('true');
+    // derived: 4 in × 25.4 mm/in = 101.6 mm exactly (NIST, 1 in = 25.4 mm); 3.48 in = 88.392 mm
+    await expect(displacement.getByLabel('Bore (mm)', { exact: true }).inputValue()).resolves.toBe('101.600');
+    await expect(displacement.getByLabel('Stroke (mm)', { exact: true }).inputValue()).resolves.toBe('88.392');
+    await expect(displacement.getByLabel('Cylinders', { exact: true }).inputValue()).resolves.toBe('8');
+    await expect(numberIn(displacement.getByTestId('displacement-cc'))).resolves.toBe(cc);
+
+    // The arrow keys move the choice back, as in any radio group.
+    await unitSwitch.getByRole('radio', { name: 'Millimetres' }).press('ArrowLeft');
+    await expect(displacement.getByLabel('Bore (in)', { exact: true }).inputValue()).resolves.toBe('4.0000');
+    expect(consoleErrors).toEqual([]);
+  });
+
+  it('when readings are typed with Tab through the grid, then a cylinder whose taper is over the limit fails with the reason and is charted', async () => {
+    await openCalculator();
+    const boreCheck = card('Bore check');
+    await boreCheck.getByLabel('Cylinders', { exact: true }).selectOption('2');
+    await boreCheck.getByLabel('Most taper (in)', { exact: true }).fill('0.0005');
+
+    // Cylinder 1 wider at the top: 4.0320, 4.0310, 4.0300 in both directions; cylinder 2 straight at 4.0300.
+    const rows = [
+      ['4.0320', '4.0320', '4.0310', '4.0310', '4.0300', '4.0300'],
+      ['4.0300', '4.0300', '4.0300', '4.0300', '4.0300', '4.0300'],
+    ];
+    const order = ['top thrust', 'top axial', 'middle thrust', 'middle axial', 'bottom thrust', 'bottom axial', 'piston diameter'];
+    await boreCheck.getByLabel('Cylinder 1 top thrust', { exact: true }).focus();
+    for (const [c, readings] of rows.entries()) {
+      for (const [i, reading] of readings.entries()) {
+        const focused = await page.evaluate(() => document.activeElement?.getAttribute('aria-label'));
+        expect(focused).toBe(`Cylinder ${c + 1} ${order[i]}`);
+        await page.keyboard.type(reading);
+        await page.keyboard.press('Tab');
+      }
+      // The piston diameter is optional: Tab past it to the next cylinder.
+      expect(await page.evaluate(() => document.activeElement?.getAttribute('aria-label'))).toBe(`Cylinder ${c + 1} piston diameter`);
+      await page.keyboard.press('Tab');
+    }
+
+    const first = boreCheck.getByTestId('bore-row-1');
+    // derived: taper = largest − smallest over the depths = 4.0320 − 4.0300 = 0.0020 in, over the 0.0005 in limit
+    await first.getByText('Taper 0.0020 in is over the 0.0005 in limit.').waitFor();
+    await expect(first.getByText('Fail', { exact: true }).isVisible()).resolves.toBe(true);
+    await expect(boreCheck.getByTestId('bore-row-2').getByText('Pass', { exact: true }).isVisible()).resolves.toBe(true);
+    await expect(boreCheck.getByText('1 of 2 outside limits').isVisible()).resolves.toBe(true);
+    await expect(boreCheck.getByTestId('bore-depth-chart').locator('svg.recharts-surface').count()).resolves.toBeGreaterThan(0);
+    await expect(boreCheck.getByTestId('bore-depth-chart').locator('.recharts-line').count()).resolves.toBe(2);
+
+    // A reading of zero is refused with the schema's message, named by its cell, and the results go away.
+    await boreCheck.getByLabel('Cylinder 2 middle axial', { exact: true }).fill('0');
+    await boreCheck.getByText('Cylinder 2 middle axial: Axial reading must be greater than zero.').waitFor();
+    await expect(boreCheck.getByTestId('bore-check-result').count()).resolves.toBe(0);
+    await boreCheck.getByLabel('Cylinder 2 middle axial', { exact: true }).fill('4.0300');
+    await boreCheck.getByTestId('bore-check-result').waitFor();
+    await boreCheck.screenshot({ path: join(artifactsDir, 'calculator-bore-check-768.png') });
+    expect(consoleErrors).toEqual([]);
+  });
+
+  it('when the synthetic example profile is loaded, then the roughness figures and the material-ratio chart appear', async () => {
+    await openCalculator();
+    const rough = card('Surface roughness');
+    await rough.getByRole('button', { name: 'Load the synthetic example' }).click();
+    await expect(rough.getByTestId('loaded-profile').textContent()).resolves.toContain('Synthetic example');
+    await rough.getByTestId('roughness-result').waitFor();
+    const chart = rough.getByTestId('material-ratio-chart');
+    await expect(chart.locator('svg.recharts-surface').count()).resolves.toBeGreaterThan(0);
+    await expect(chart.locator('.recharts-line').count()).resolves.toBe(5);
+    await expect(chart.locator('.recharts-reference-area').count()).resolves.toBe(1);
+
+    // derived: the shared library on the same seeded heights; the page must show what the library computes
+    const expected = roughness(syntheticPlateauProfile());
+    for (const key of ['ra', 'rq', 'rz', 'rk', 'rpk', 'rvk'] as const) {
+      await expect(numberIn(rough.getByTestId(`roughness-${key}`))).resolves.toBeCloseTo(expected[key], 3);
+    }
+    await expect(numberIn(rough.getByTestId('roughness-mr1'))).resolves.toBeCloseTo(expected.mr1, 1);
+    await expect(numberIn(rough.getByTestId('roughness-mr2'))).resolves.toBeCloseTo(expected.mr2, 1);
+    // A plateau-honed-like surface: valleys deeper than the peaks are high.
+    expect(expected.rvk).toBeGreaterThan(expected.rpk);
+    await rough.screenshot({ path: join(artifactsDir, 'calculator-roughness-768.png') });
+    expect(consoleErrors).toEqual([]);
+  });
+
+  it('when a CSV with a header is uploaded, then it is read; a file with a word among the heights shows where', async () => {
+    await openCalculator();
+    const rough = card('Surface roughness');
+    // A triangle wave of amplitude 1 µm sampled at its peaks and troughs, 20 whole periods.
+    const period = [0, 0.5, 1, 0.5, 0, -0.5, -1, -0.5];
+    const heights = Array.from({ length: 20 }, () => period).flat();
+    const csv = `height_um\n${heights.join('\n')}\n`;
+    await rough.getByLabel('Or read a CSV or text file', { exact: true }).setInputFiles({ name: 'trace.csv', mimeType: 'text/csv', buffer: Buffer.from(csv) });
+    await expect(rough.getByTestId('loaded-profile').textContent()).resolves.toContain('header line skipped');
+    await rough.getByLabel('Sample spacing (µm)', { exact: true }).fill('0.5');
+    await rough.getByTestId('roughness-result').waitFor();
+    // derived: the mean of |z| over these samples is (0 + 0.5 + 1 + 0.5) / 4 = 0.5 µm (a triangle wave has Ra = A/2)
+    await expect(numberIn(rough.getByTestId('roughness-ra'))).resolves.toBeCloseTo(0.5, 3);
+
+    await rough.getByRole('button', { name: 'Clear' }).click();
+    await rough
+      .getByLabel('Or read a CSV or text file', { exact: true })
+      .setInputFiles({ name: 'bad.csv', mimeType: 'text/csv', buffer: Buffer.from('height\n0.5\n0.7\nabc\n') });
+    await rough.getByText('bad.csv: Line 4: “abc” is not a number.', { exact: false }).waitFor();
+    await expect(rough.getByTestId('roughness-result').count()).resolves.toBe(0);
+    expect(consoleErrors).toEqual([]);
+  });
+
+  it('when every calculator is filled in on a wide screen, then the page lays out results beside the inputs', async () => {
+    const wide = await browser.newContext({ viewport: { width: 1280, height: 900 } });
+    wide.setDefaultTimeout(10_000);
+    page = await wide.newPage();
+    page.on('pageerror', (err) => consoleErrors.push(err.message));
+    try {
+      await openCalculator();
+      const displacement = card('Displacement');
+      await displacement.getByLabel('Bore (in)', { exact: true }).fill('4');
+      await displacement.getByLabel('Stroke (in)', { exact: true }).fill('3.48');
+      await displacement.getByLabel('Cylinders', { exact: true }).fill('8');
+      const compression = card('Compression ratio');
+      for (const [label, value] of [
+        ['Bore (in)', '4.000'],
+        ['Stroke (in)', '3.48'],
+        ['Chamber volume (cc)', '70'],
+        ['Piston volume (cc)', '5'],
+        ['Deck clearance (in)', '0.050'],
+        ['Gasket bore (in)', '4.000'],
+        ['Gasket thickness (in)', '0.020'],
+      ]) {
+        await compression.getByLabel(label, { exact: true }).fill(value);
+      }
+      const boreCheck = card('Bore check');
+      await boreCheck.getByLabel('Cylinders', { exact: true }).selectOption('8');
+      await boreCheck.getByRole('button', { name: 'Fill in example readings' }).click();
+      await boreCheck.getByTestId('bore-check-result').waitFor();
+      const boreSize = card('Bore size');
+      await boreSize.getByLabel('Piston diameter (in)', { exact: true }).fill('4.0270');
+      await boreSize.getByLabel('Least clearance (in)', { exact: true }).fill('0.0025');
+      await boreSize.getByLabel('Most clearance (in)', { exact: true }).fill('0.0035');
+      await boreSize.getByLabel('Standard bore (in)', { exact: true }).fill('4.000');
+      await boreSize.getByLabel('Largest reading, worst cylinder (in)', { exact: true }).fill('4.0185');
+      await boreSize.getByLabel('Clean-up beyond it (in)', { exact: true }).fill('0.005');
+      // common practice (no published source): the smallest of the +0.010/+0.020/+0.030 in steps that reaches 4.0235 in is +0.030 in
+      await expect(boreSize.getByTestId('oversize-step').textContent()).resolves.toBe('+0.030 in');
+      const crosshatch = card('Crosshatch');
+      await crosshatch.getByLabel('Bore (in)', { exact: true }).fill('4.030');
+      await crosshatch.getByLabel('Spindle speed (rev/min)', { exact: true }).fill('150');
+      await crosshatch.getByLabel('Stroke length of the hone (in)', { exact: true }).fill('4');
+      await crosshatch.getByLabel('Cycles per minute', { exact: true }).fill('70');
+      await crosshatch.getByTestId('crosshatch-angle-result').waitFor();
+      const deck = card('Deck flatness');
+      await deck.getByLabel('Straightedge readings (in)', { exact: true }).fill('0.0010, 0.0015 0.0005\n0.0025');
+      await deck.getByText('Over the limit').waitFor();
+      await card('Surface roughness').getByRole('button', { name: 'Load the synthetic example' }).click();
+      await card('Ring end gap').getByLabel('Bore (in)', { exact: true }).fill('4.030');
+      await card('Surface roughness').getByTestId('material-ratio-chart').locator('svg').first().waitFor();
+      // Full-page shots from the top, so the sticky unit switch sits in its place under the calculator list.
+      await page.evaluate(() => window.scrollTo(0, 0));
+      await page.screenshot({ path: join(artifactsDir, 'calculator-full-1280.png'), fullPage: true });
+
+      await page.setViewportSize({ width: 768, height: 1024 });
+      await page.evaluate(() => window.scrollTo(0, 0));
+      await page.screenshot({ path: join(artifactsDir, 'calculator-full-768.png'), fullPage: true });
+    } finally {
+      await wide.close();
+    }
+    expect(consoleErrors).toEqual([]);
+  });
+});
