@@ -1,4 +1,3 @@
-import connectPgSimple from 'connect-pg-simple';
 import { csrfSync } from 'csrf-sync';
 import express, { type RequestHandler } from 'express';
 import session from 'express-session';
@@ -18,6 +17,7 @@ import { authRouter } from './modules/auth/auth.routes';
 import { bidsRouter } from './modules/bids/bids.routes';
 import { jobsRouter } from './modules/jobs/jobs.routes';
 import { shopsRouter } from './modules/shops/shops.routes';
+import { createSessionStore } from './lib/session-store';
 import { LocalDiskStorage, type FileStorage } from './lib/storage';
 import { calculationsRouter, ROUGHNESS_BODY_LIMIT } from './modules/calculations/calculations.routes';
 import { healthRouter } from './modules/health/health.routes';
@@ -80,8 +80,7 @@ export function createApp(deps: AppDeps) {
 
   app.use('/api/health', healthRouter(pool));
 
-  const PgStore = connectPgSimple(session);
-  const store = new PgStore({ pool, tableName: 'sessions', createTableIfMissing: false, pruneSessionInterval: 15 * 60 });
+  const store = createSessionStore(pool);
   const secure = config.appUrl.startsWith('https://');
   app.use(
     session({

@@ -161,6 +161,30 @@ describe('sessions and CSRF', () => {
     expect(me.body.user.id).toBe(user.id);
   });
 
+  it('when a signed-in person keeps reading, then the session row is rewritten at most hourly, yet its expiry still slides', async () => {
+    const user = await createUser(ctx.db);
+    const client = await agentFor(ctx.app);
+    const res = await client.post('/api/auth/login', { email: user.email, password: TEST_PASSWORD });
+    const sid = decodeURIComponent(sessionCookie(res)!.split(';')[0].slice('tm.sid='.length)).slice(2).split('.')[0];
+    const read = async () => (await ctx.pool.query('SELECT expire, sess FROM sessions WHERE sid = $1', [sid])).rows[0] as { expire: Date; sess: { touchedAt: number } };
+
+    const first = await read();
+    await client.get('/api/auth/me').expect(200);
+    await client.get('/api/auth/me').expect(200);
+    expect(await read()).toEqual(first);
+
+    // Two hours on, the next request pushes the expiry forward.
+    const old = new Date(first.expire.getTime() - 2 * 3_600_000);
+    await ctx.pool.query(
+      `UPDATE sessions SET expire = $2, sess = jsonb_set(sess::jsonb, '{touchedAt}', to_jsonb($3::bigint))::json WHERE sid = $1`,
+      [sid, old, first.sess.touchedAt - 2 * 3_600_000],
+    );
+    await client.get('/api/auth/me').expect(200);
+    const after = await read();
+    expect(after.expire.getTime()).toBeGreaterThan(old.getTime() + 3_600_000);
+    expect(after.sess.touchedAt).toBeGreaterThan(first.sess.touchedAt - 1);
+  });
+
   it('when a state-changing request has no CSRF token, then 403 and nothing changes', async () => {
     const email = uniqueEmail();
     const client = await agentFor(ctx.app);
