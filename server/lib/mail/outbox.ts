@@ -48,12 +48,14 @@ export function createOutboxWorker(options: OutboxWorkerOptions) {
   let timer: NodeJS.Timeout | undefined;
   let running: Promise<number> | undefined;
 
-  async function sendOne(now: Date): Promise<boolean> {
+  async function sendOne(now: Date | undefined): Promise<boolean> {
+    // Without a given time, the database's clock decides what is due (the rows were stamped by it, to the microsecond).
+    const at = now ? sql`${now.toISOString()}::timestamptz` : sql`now()`;
     return options.db.transaction(async (tx) => {
       const [mail] = await tx
         .select()
         .from(mailOutbox)
-        .where(and(eq(mailOutbox.status, 'pending'), lte(mailOutbox.nextAttemptAt, now)))
+        .where(and(eq(mailOutbox.status, 'pending'), lte(mailOutbox.nextAttemptAt, at)))
         .orderBy(mailOutbox.nextAttemptAt)
         .limit(1)
         .for('update', { skipLocked: true });
@@ -81,7 +83,7 @@ export function createOutboxWorker(options: OutboxWorkerOptions) {
             attempts,
             lastError: message.slice(0, 1000),
             status: attempts >= maxAttempts ? 'failed' : 'pending',
-            nextAttemptAt: sql`${now.toISOString()}::timestamptz + ${retryDelayMs(attempts, baseDelayMs, maxDelayMs)} * interval '1 millisecond'`,
+            nextAttemptAt: sql`${at} + ${retryDelayMs(attempts, baseDelayMs, maxDelayMs)} * interval '1 millisecond'`,
           })
           .where(eq(mailOutbox.id, mail.id));
         options.logger?.warn({ mailId: mail.id, attempts, err: message }, 'mail not sent; will retry');
@@ -90,8 +92,8 @@ export function createOutboxWorker(options: OutboxWorkerOptions) {
     });
   }
 
-  /** Sends every mail due at `now`; resolves to the number of mails tried. */
-  async function processDue(now: Date = new Date()): Promise<number> {
+  /** Sends every mail due at `now` (the database's clock when not given); resolves to the number of mails tried. */
+  async function processDue(now?: Date): Promise<number> {
     let tried = 0;
     while (tried < batchSize * 10 && (await sendOne(now))) tried += 1;
     return tried;
