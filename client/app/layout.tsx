@@ -1,4 +1,4 @@
-import { NavLink, Outlet, useNavigate } from 'react-router-dom';
+import { NavLink, Outlet, ScrollRestoration, useNavigate } from 'react-router-dom';
 import { toast } from 'sonner';
 import type { Me } from '@shared/schemas/auth';
 import { useSignOut } from '@client/features/auth/api/auth-mutations';
@@ -14,19 +14,27 @@ interface NavItem {
 export const navigationByRole: Record<Me['role'] | 'anonymous', NavItem[]> = {
   anonymous: [
     { to: '/', label: 'How it works' },
+    { to: '/shops', label: 'Shops' },
     { to: '/calculator', label: 'Calculator' },
   ],
   builder: [
     { to: '/dashboard', label: 'Workbench' },
+    { to: '/jobs', label: 'My jobs' },
+    { to: '/jobs/new', label: 'Post a job' },
+    { to: '/shops', label: 'Shops' },
     { to: '/calculator', label: 'Calculator' },
   ],
   shop: [
     { to: '/dashboard', label: 'Shop floor' },
+    { to: '/board', label: 'Job board' },
+    { to: '/bids', label: 'My bids' },
+    { to: '/shop/profile', label: 'Shop profile' },
     { to: '/calculator', label: 'Calculator' },
   ],
   admin: [
     { to: '/dashboard', label: 'Operations' },
     { to: '/admin/people', label: 'People' },
+    { to: '/shops', label: 'Shops' },
     { to: '/calculator', label: 'Calculator' },
   ],
 };
@@ -101,6 +109,7 @@ export function Layout() {
           )}
         </div>
       </header>
+      <ScrollRestoration />
       <main id="main" className="mx-auto w-full max-w-page flex-1 px-4 py-8">
         <Outlet />
       </main>

@@ -1,4 +1,4 @@
-import { createBrowserRouter } from 'react-router-dom';
+import { createBrowserRouter, Outlet } from 'react-router-dom';
 import { GuestOnly, RequireRole } from './guards';
 import { Layout } from './layout';
 import { AdminPeopleRoute } from './routes/admin-people';
@@ -31,6 +31,28 @@ export const router = createBrowserRouter([
           { path: '/welcome/github', element: <GithubWelcomeRoute /> },
           { path: '/dashboard', element: <RequireRole><DashboardRoute /></RequireRole> },
           { path: '/admin/people', element: <RequireRole roles={['admin']}><AdminPeopleRoute /></RequireRole> },
+          { path: '/shops', lazy: () => import('./routes/shop-directory').then((m) => ({ Component: m.ShopDirectoryRoute })) },
+          { path: '/shops/:shopId', lazy: () => import('./routes/shop-page').then((m) => ({ Component: m.ShopPageRoute })) },
+          {
+            element: <RequireRole roles={['builder']}><Outlet /></RequireRole>,
+            children: [
+              { path: '/jobs', lazy: () => import('./routes/my-jobs').then((m) => ({ Component: m.MyJobsRoute })) },
+              { path: '/jobs/new', lazy: () => import('./routes/job-new').then((m) => ({ Component: m.NewJobRoute })) },
+              { path: '/jobs/:jobId/edit', lazy: () => import('./routes/job-edit').then((m) => ({ Component: m.EditJobRoute })) },
+            ],
+          },
+          {
+            element: <RequireRole><Outlet /></RequireRole>,
+            children: [{ path: '/jobs/:jobId', lazy: () => import('./routes/job-detail').then((m) => ({ Component: m.JobDetailRoute })) }],
+          },
+          {
+            element: <RequireRole roles={['shop']}><Outlet /></RequireRole>,
+            children: [
+              { path: '/board', lazy: () => import('./routes/board').then((m) => ({ Component: m.BoardRoute })) },
+              { path: '/bids', lazy: () => import('./routes/my-bids').then((m) => ({ Component: m.MyBidsRoute })) },
+              { path: '/shop/profile', lazy: () => import('./routes/shop-profile').then((m) => ({ Component: m.ShopProfileRoute })) },
+            ],
+          },
           { path: '*', element: <NotFoundRoute /> },
         ],
       },

@@ -1,3 +1,4 @@
+import { Link } from 'react-router-dom';
 import { toast } from 'sonner';
 import type { Me } from '@shared/schemas/auth';
 import { Button } from '@client/components/ui/button';
@@ -46,6 +47,17 @@ export function DashboardRoute() {
     <div>
       <PageTitle title={words.title} lead={words.lead} />
       {!me.emailVerified && <VerifyBanner />}
+      {me.role === 'builder' && (
+        <Card className="mb-6 flex flex-wrap items-center gap-4">
+          <p className="flex-1 text-ink-soft">Have a block that needs machining? Describe it once; shops bid with a price and a turnaround.</p>
+          <Link to="/jobs/new" className="inline-flex min-h-11 items-center rounded-lg bg-slate-700 px-4 py-2 font-semibold text-white hover:bg-slate-800">
+            Post a job
+          </Link>
+          <Link to="/jobs" className="font-semibold text-slate-700 underline underline-offset-4">
+            See my jobs
+          </Link>
+        </Card>
+      )}
       <Card>
         <h2 className="text-xl font-bold">Your account</h2>
         <dl className="mt-4 grid gap-x-6 gap-y-2 sm:grid-cols-[max-content_1fr]">

@@ -1,0 +1,381 @@
+import { Link, useSearchParams } from 'react-router-dom';
+import { findOperation, operations } from '@shared/catalogue';
+import { boardQuerySchema, type BoardQuery, type JobSummary } from '@shared/schemas/jobs';
+import { Button } from '@client/components/ui/button';
+import { PageTitle } from '@client/components/ui/card';
+import { DebouncedTextField } from '@client/components/ui/debounced-text-field';
+import { Notice } from '@client/components/ui/notice';
+import { Pager } from '@client/components/ui/pager';
+import { SelectField } from '@client/components/ui/select-field';
+import { TextField } from '@client/components/ui/text-field';
+import { useBoard, type BoardFilters } from '@client/features/jobs/api/jobs';
+import { useOwnShop } from '@client/features/shops/api/shops';
+import { cn } from '@client/lib/cn';
+
+type Sort = BoardQuery['sort'];
+const FILTER_KEYS = ['operation', 'material', 'cylinders', 'country', 'region', 'logistics', 'neededBefore'] as const;
+type FilterKey = (typeof FILTER_KEYS)[number];
+const PAGE_SIZES = [10, 20, 50, 100];
+const shape = boardQuerySchema.shape;
+
+const materialWords: Record<JobSummary['blockMaterial'], string> = { 'cast-iron': 'Cast iron', aluminium: 'Aluminium' };
+const logisticsWords: Record<JobSummary['logistics'], string> = { ship: 'Shipped to the shop', 'drop-off': 'Dropped off' };
+
+/** How each sort reads, and which way its column runs (for aria-sort). */
+const sorts: Record<Sort, { column: string; order: string; direction: 'ascending' | 'descending' }> = {
+  newest: { column: 'Posted', order: 'newest first', direction: 'descending' },
+  'needed-soonest': { column: 'Needed by', order: 'soonest first', direction: 'ascending' },
+  'fewest-bids': { column: 'Bids', order: 'fewest first', direction: 'ascending' },
+};
+
+/** The board's filters from the address bar, keeping only values the API accepts, so a hand-edited address never breaks the page. */
+function readFilters(params: URLSearchParams): BoardFilters & { sort: Sort; page: number; pageSize: number } {
+  const pick = <K extends keyof typeof shape>(key: K) => {
+    const raw = params.get(key)?.trim();
+    if (!raw) return undefined;
+    const parsed = shape[key].safeParse(raw);
+    return parsed.success ? (parsed.data as BoardQuery[K]) : undefined;
+  };
+  return {
+    operation: pick('operation'),
+    material: pick('material'),
+    cylinders: pick('cylinders'),
+    country: pick('country'),
+    region: pick('region'),
+    logistics: pick('logistics'),
+    neededBefore: pick('neededBefore'),
+    sort: pick('sort') ?? 'newest',
+    page: pick('page') ?? 1,
+    pageSize: pick('pageSize') ?? 20,
+  };
+}
+
+/** A calendar date (YYYY-MM-DD) as the reader's date, without a time-zone shift. */
+function formatDay(isoDate: string) {
+  const [year, month, day] = isoDate.slice(0, 10).split('-').map(Number);
+  return new Date(year, month - 1, day).toLocaleDateString(undefined, { day: 'numeric', month: 'short', year: 'numeric' });
+}
+
+function formatPosted(timestamp: string | null) {
+  if (!timestamp) return '—';
+  return new Date(timestamp).toLocaleDateString(undefined, { day: 'numeric', month: 'short' });
+}
+
+function SortHeader({ sort, current, onSort, className }: { sort: Sort; current: Sort; onSort: (sort: Sort) => void; className?: string }) {
+  const words = sorts[sort];
+  const active = sort === current;
+  return (
+    <th scope="col" aria-sort={active ? words.direction : 'none'} className={cn('py-2 pr-3 align-bottom', className)}>
+      <button
+        type="button"
+        onClick={() => onSort(sort)}
+        className={cn(
+          '-mx-2 inline-flex min-h-9 items-center gap-1 whitespace-nowrap rounded-md px-2 font-semibold hover:bg-slate-100',
+          active ? 'text-ink' : 'text-ink-soft',
+        )}
+      >
+        {words.column}
+        <span aria-hidden className={cn('text-xs', active ? 'text-slate-700' : 'text-ink-faint')}>
+          {active ? (words.direction === 'ascending' ? '▲' : '▼') : '↕'}
+        </span>
+        <span className="sr-only">{active ? `, sorted ${words.order}` : `, sort ${words.order}`}</span>
+      </button>
+    </th>
+  );
+}
+
+function JobRow({ job }: { job: JobSummary }) {
+  return (
+    <tr className="border-b border-slate-100 align-top">
+      <td className="py-3 pr-3">
+        <Thumb job={job} className="h-12 w-16" />
+      </td>
+      <th scope="row" className="py-3 pr-3 text-left font-normal">
+        <Link to={`/jobs/${job.id}`} className="font-bold text-slate-700 underline-offset-4 hover:underline">
+          {job.title}
+        </Link>
+      </th>
+      <td className="py-3 pr-3">{job.engineFamily}</td>
+      <td className="py-3 pr-3 text-right tabular-nums">{job.cylinders}</td>
+      <td className="py-3 pr-3 whitespace-nowrap">{materialWords[job.blockMaterial]}</td>
+      <td className="py-3 pr-3">{job.operations.map((code) => findOperation(code)?.name ?? code).join(', ')}</td>
+      <td className="py-3 pr-3">
+        {[job.city, job.region].filter(Boolean).join(', ')}
+        <span className="block text-sm text-ink-soft">{logisticsWords[job.logistics]}</span>
+      </td>
+      <td className="py-3 pr-3 whitespace-nowrap">{formatPosted(job.publishedAt)}</td>
+      <td className="py-3 pr-3 whitespace-nowrap">{formatDay(job.neededBy)}</td>
+      <td className="py-3 text-right tabular-nums">{job.bidCount}</td>
+    </tr>
+  );
+}
+
+function Thumb({ job, className }: { job: JobSummary; className?: string }) {
+  return job.thumbUrl ? (
+    <img src={job.thumbUrl} alt="" loading="lazy" className={cn('rounded-md bg-paper-sunk object-cover ring-1 ring-slate-200', className)} />
+  ) : (
+    <div aria-hidden className={cn('flex items-center justify-center rounded-md bg-paper-sunk text-xs text-ink-soft ring-1 ring-slate-200', className)}>
+      no photo
+    </div>
+  );
+}
+
+/** The same facts as a table row, as a card for tablets and phones. */
+function JobCard({ job }: { job: JobSummary }) {
+  return (
+    <article className="flex h-full gap-4 rounded-card bg-paper-raised p-4 shadow-card ring-1 ring-slate-100">
+      <Thumb job={job} className="h-16 w-20 shrink-0" />
+      <div className="flex min-w-0 flex-1 flex-col gap-2">
+        <h2 className="text-base font-bold leading-snug">
+          <Link to={`/jobs/${job.id}`} className="text-slate-700 underline-offset-4 hover:underline">
+            {job.title}
+          </Link>
+        </h2>
+        <p className="text-sm text-ink-soft">
+          {job.engineFamily} · {job.cylinders} {job.cylinders === 1 ? 'cylinder' : 'cylinders'} · {materialWords[job.blockMaterial].toLowerCase()}
+        </p>
+        <p className="text-sm">{job.operations.map((code) => findOperation(code)?.name ?? code).join(', ')}</p>
+        <dl className="grid grid-cols-[max-content_1fr] gap-x-3 gap-y-0.5 text-sm">
+          <dt className="font-semibold text-ink-soft">Where</dt>
+          <dd>
+            {[job.city, job.region].filter(Boolean).join(', ')} · {logisticsWords[job.logistics].toLowerCase()}
+          </dd>
+          <dt className="font-semibold text-ink-soft">Needed by</dt>
+          <dd>{formatDay(job.neededBy)}</dd>
+          <dt className="font-semibold text-ink-soft">Posted</dt>
+          <dd>{formatPosted(job.publishedAt)}</dd>
+          <dt className="font-semibold text-ink-soft">Bids</dt>
+          <dd>{job.bidCount === 0 ? 'none yet' : job.bidCount}</dd>
+        </dl>
+      </div>
+    </article>
+  );
+}
+
+export function BoardRoute() {
+  const [params, setParams] = useSearchParams();
+  const filters = readFilters(params);
+  const board = useBoard(filters);
+  const own = useOwnShop();
+  const filtered = FILTER_KEYS.some((key) => params.get(key));
+
+  const update = (change: (next: URLSearchParams) => void, { replace = false } = {}) => {
+    setParams(
+      (current) => {
+        const next = new URLSearchParams(current);
+        change(next);
+        return next;
+      },
+      { replace },
+    );
+  };
+  /** A new filter starts again at page 1. */
+  const setFilter = (key: FilterKey, value: string, options?: { replace?: boolean }) =>
+    update((next) => {
+      if (value.trim()) next.set(key, value.trim());
+      else next.delete(key);
+      next.delete('page');
+    }, options);
+  const setSort = (sort: Sort) =>
+    update((next) => {
+      if (sort === 'newest') next.delete('sort');
+      else next.set('sort', sort);
+      next.delete('page');
+    });
+  const setPage = (page: number) => {
+    update((next) => (page > 1 ? next.set('page', String(page)) : next.delete('page')));
+    window.scrollTo({ top: 0 });
+  };
+  const setPageSize = (size: string) =>
+    update((next) => {
+      if (size === '20') next.delete('pageSize');
+      else next.set('pageSize', size);
+      next.delete('page');
+    });
+  const clearFilters = () =>
+    update((next) => {
+      for (const key of FILTER_KEYS) next.delete(key);
+      next.delete('page');
+    });
+
+  return (
+    <div>
+      <PageTitle title="Job board" lead="Open jobs from engine builders. Open one to see its full spec and photos, and to bid." />
+
+      {own.data === null && (
+        <Notice tone="caution" title="Set up your shop profile to bid" className="mb-6">
+          You can look around, but a shop needs a profile before it can bid.{' '}
+          <Link to="/shop/profile" className="font-semibold underline underline-offset-4">
+            Set up your shop profile
+          </Link>
+        </Notice>
+      )}
+
+      <form
+        role="search"
+        aria-label="Filter jobs"
+        onSubmit={(event) => event.preventDefault()}
+        className="mb-6 grid gap-4 rounded-card bg-paper-sunk p-4 sm:grid-cols-2 lg:grid-cols-4"
+      >
+        <SelectField
+          label="Work"
+          value={filters.operation ?? ''}
+          onChange={(event) => setFilter('operation', event.target.value)}
+          options={[{ value: '', label: 'Any work' }, ...operations.map((op) => ({ value: op.code, label: op.name }))]}
+        />
+        <SelectField
+          label="Block material"
+          value={filters.material ?? ''}
+          onChange={(event) => setFilter('material', event.target.value)}
+          options={[{ value: '', label: 'Any material' }, ...Object.entries(materialWords).map(([value, label]) => ({ value, label }))]}
+        />
+        <SelectField
+          label="Cylinders"
+          value={filters.cylinders ? String(filters.cylinders) : ''}
+          onChange={(event) => setFilter('cylinders', event.target.value)}
+          options={[{ value: '', label: 'Any number' }, ...Array.from({ length: 16 }, (_, i) => ({ value: String(i + 1), label: String(i + 1) }))]}
+        />
+        <SelectField
+          label="Getting it to you"
+          value={filters.logistics ?? ''}
+          onChange={(event) => setFilter('logistics', event.target.value)}
+          options={[{ value: '', label: 'Shipped or dropped off' }, ...Object.entries(logisticsWords).map(([value, label]) => ({ value, label }))]}
+        />
+        <DebouncedTextField label="Country" value={params.get('country') ?? ''} onCommit={(text) => setFilter('country', text, { replace: true })} />
+        <DebouncedTextField
+          label="State, province or county"
+          value={params.get('region') ?? ''}
+          onCommit={(text) => setFilter('region', text, { replace: true })}
+        />
+        <TextField
+          label="Needed before"
+          type="date"
+          value={filters.neededBefore ?? ''}
+          onChange={(event) => setFilter('neededBefore', event.target.value, { replace: true })}
+        />
+        <div className="flex items-end">
+          <Button variant="secondary" onClick={clearFilters} disabled={!filtered} className="w-full">
+            Clear filters
+          </Button>
+        </div>
+      </form>
+
+      {board.isError && (
+        <Notice tone="error" title="The board could not be loaded">
+          {board.error.message}
+        </Notice>
+      )}
+      {board.isPending && <p className="text-ink-soft">Loading jobs …</p>}
+      {board.data && (
+        <>
+          <div className="mb-3 flex flex-wrap items-end justify-between gap-3">
+            <p className="text-lg font-bold" aria-live="polite" data-testid="board-total">
+              {board.data.total === 1 ? '1 job' : `${board.data.total} jobs`}
+              <span className="font-normal text-ink-soft">
+                {filtered ? (board.data.total === 1 ? ' matches these filters' : ' match these filters') : ' open'}
+              </span>
+            </p>
+            <div className="flex flex-wrap items-center gap-4">
+              <label className="flex items-center gap-2 text-sm font-semibold lg:hidden">
+                Sort by
+                <select
+                  value={filters.sort}
+                  onChange={(event) => setSort(event.target.value as Sort)}
+                  className="min-h-11 rounded-lg border border-slate-300 bg-white px-3 text-base font-normal"
+                >
+                  {(Object.keys(sorts) as Sort[]).map((sort) => (
+                    <option key={sort} value={sort}>
+                      {sorts[sort].column}, {sorts[sort].order}
+                    </option>
+                  ))}
+                </select>
+              </label>
+              <label className="flex items-center gap-2 text-sm font-semibold">
+                Per page
+                <select
+                  value={String(filters.pageSize)}
+                  onChange={(event) => setPageSize(event.target.value)}
+                  className="min-h-11 rounded-lg border border-slate-300 bg-white px-3 text-base font-normal"
+                >
+                  {PAGE_SIZES.map((size) => (
+                    <option key={size} value={size}>
+                      {size}
+                    </option>
+                  ))}
+                </select>
+              </label>
+            </div>
+          </div>
+
+          {board.data.jobs.length === 0 ? (
+            <div className="rounded-card bg-paper-raised p-8 text-center ring-1 ring-slate-100">
+              <p className="text-lg font-bold">{filtered ? 'No open jobs match these filters' : 'No open jobs right now'}</p>
+              <p className="mt-1 text-ink-soft">
+                {filtered
+                  ? 'Try any work, a wider area or a later date.'
+                  : 'New jobs appear here as soon as builders publish them. Turn on e-mails in your shop profile to hear about matching ones.'}
+              </p>
+              {filtered && (
+                <Button variant="secondary" className="mt-4" onClick={clearFilters}>
+                  Clear filters
+                </Button>
+              )}
+            </div>
+          ) : (
+            <>
+              <ul aria-label="Open jobs" aria-busy={board.isFetching} className={cn('grid gap-4 md:grid-cols-2 lg:hidden', board.isPlaceholderData && 'opacity-60')}>
+                {board.data.jobs.map((job) => (
+                  <li key={job.id}>
+                    <JobCard job={job} />
+                  </li>
+                ))}
+              </ul>
+              <div
+                className={cn(
+                  'relative hidden overflow-x-auto rounded-card bg-paper-raised px-4 shadow-card ring-1 ring-slate-100 lg:block',
+                  board.isPlaceholderData && 'opacity-60',
+                )}
+                aria-busy={board.isFetching}
+              >
+                <table className="w-full text-left text-sm">
+                  <caption className="sr-only">Open jobs, {sorts[filters.sort].column.toLowerCase()} {sorts[filters.sort].order}</caption>
+                  <thead className="border-b border-slate-200 text-ink-soft">
+                    <tr>
+                      <th scope="col" className="w-20 py-2 pr-3 align-bottom font-semibold">
+                        <span className="sr-only">Photo</span>
+                      </th>
+                      <th scope="col" className="py-2 pr-3 align-bottom font-semibold">Job</th>
+                      <th scope="col" className="py-2 pr-3 align-bottom font-semibold">Engine</th>
+                      <th scope="col" className="py-2 pr-3 text-right align-bottom font-semibold">
+                        <abbr title="Cylinders" className="no-underline">Cyl.</abbr>
+                      </th>
+                      <th scope="col" className="py-2 pr-3 align-bottom font-semibold">Material</th>
+                      <th scope="col" className="py-2 pr-3 align-bottom font-semibold">Work</th>
+                      <th scope="col" className="py-2 pr-3 align-bottom font-semibold">Where</th>
+                      <SortHeader sort="newest" current={filters.sort} onSort={setSort} />
+                      <SortHeader sort="needed-soonest" current={filters.sort} onSort={setSort} />
+                      <SortHeader sort="fewest-bids" current={filters.sort} onSort={setSort} className="pr-0 text-right" />
+                    </tr>
+                  </thead>
+                  <tbody>
+                    {board.data.jobs.map((job) => (
+                      <JobRow key={job.id} job={job} />
+                    ))}
+                  </tbody>
+                </table>
+              </div>
+            </>
+          )}
+          <Pager
+            className="mt-6"
+            label="Job board pages"
+            page={board.data.page}
+            pageSize={board.data.pageSize}
+            total={board.data.total}
+            onPage={setPage}
+          />
+        </>
+      )}
+    </div>
+  );
+}

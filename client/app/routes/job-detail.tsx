@@ -1,0 +1,134 @@
+import type { ReactNode } from 'react';
+import { Link, useParams } from 'react-router-dom';
+import type { JobDetail } from '@shared/schemas/jobs';
+import { Card } from '@client/components/ui/card';
+import { Notice } from '@client/components/ui/notice';
+import { useMe } from '@client/features/auth/api/use-me';
+import { BidComparison } from '@client/features/bids/components/bid-comparison';
+import { ShopBidPanel } from '@client/features/bids/components/shop-bid-panel';
+import { useJob } from '@client/features/jobs/api/jobs';
+import { JobFiguresPanel } from '@client/features/jobs/components/job-figures';
+import { JobOwnerActions } from '@client/features/jobs/components/job-owner-actions';
+import { JobLogistics, JobOperations, JobSpec } from '@client/features/jobs/components/job-spec';
+import { JobStatusBadge } from '@client/features/jobs/components/job-status-badge';
+import { formatDay, plural, statusWords } from '@client/features/jobs/components/job-words';
+import { PhotoGallery } from '@client/features/jobs/components/photo-gallery';
+import { PhotoUploader } from '@client/features/jobs/components/photo-uploader';
+import { ApiError } from '@client/lib/api-client';
+
+function Section({ title, children, action }: { title: string; children: ReactNode; action?: ReactNode }) {
+  return (
+    <Card className="flex flex-col gap-4">
+      <div className="flex flex-wrap items-baseline justify-between gap-2">
+        <h2 className="text-xl font-bold tracking-tight">{title}</h2>
+        {action}
+      </div>
+      {children}
+    </Card>
+  );
+}
+
+function LoadFailed({ error }: { error: Error }) {
+  const status = error instanceof ApiError ? error.status : 0;
+  const title = status === 404 ? 'No such job' : status === 403 ? 'You cannot open this job' : 'The job could not be loaded';
+  const lead =
+    status === 404
+      ? 'It may have been removed, or the link may be mistyped. A draft is visible only to the builder writing it.'
+      : status === 403
+        ? 'A job is open to the builder who posted it, to shops while it takes bids, and afterwards to the shops that bid on it.'
+        : 'Try again in a moment.';
+  return (
+    <div className="mx-auto max-w-lg">
+      <Notice tone="error" title={title}>
+        <p>{error.message}</p>
+        <p className="mt-1">{lead}</p>
+      </Notice>
+      <p className="mt-4">
+        <Link to="/dashboard" className="font-semibold text-slate-700 underline underline-offset-4">
+          Back to your dashboard
+        </Link>
+      </p>
+    </div>
+  );
+}
+
+function Header({ job }: { job: JobDetail }) {
+  const isOwner = job.viewer.isOwner;
+  return (
+    <header className="flex flex-col gap-3">
+      {isOwner && (
+        <Link to="/jobs" className="self-start text-sm font-semibold text-slate-700 underline underline-offset-4">
+          ← My jobs
+        </Link>
+      )}
+      <h1 className="text-3xl font-extrabold tracking-tight text-ink">{job.title}</h1>
+      <div className="flex flex-wrap items-center gap-x-4 gap-y-2">
+        <JobStatusBadge status={job.status} />
+        <span className="text-ink-soft">{statusWords[job.status].explain}</span>
+      </div>
+      <p className="text-ink-soft">
+        {job.engineFamily} · {job.cylinders} cylinders · needed by {formatDay(job.neededBy)}
+        {job.status !== 'draft' && ` · ${plural(job.bidCount, 'bid')}`}
+      </p>
+    </header>
+  );
+}
+
+/**
+ * A job as its reader needs it: the builder manages photos, publishes, edits,
+ * cancels and compares bids; a shop sees the spec and its own bid; an
+ * administrator sees everything without the buttons.
+ */
+export function JobDetailRoute() {
+  const { jobId = '' } = useParams();
+  const { data: me } = useMe();
+  const jobQuery = useJob(jobId);
+
+  if (jobQuery.isPending) return <p className="text-ink-soft">Loading the job …</p>;
+  if (jobQuery.isError) return <LoadFailed error={jobQuery.error} />;
+
+  const job = jobQuery.data;
+  const isOwner = job.viewer.isOwner;
+  const photosOpen = job.status === 'draft' || job.status === 'open';
+  const showBids = (isOwner || me?.role === 'admin') && job.status !== 'draft';
+
+  return (
+    <div className="flex flex-col gap-6">
+      <Header job={job} />
+      {isOwner && <JobOwnerActions job={job} />}
+
+      {showBids && (
+        <Section title="Bids">
+          <BidComparison jobId={job.id} jobStatus={job.status} canDecide={isOwner} />
+        </Section>
+      )}
+      {me?.role === 'shop' && <ShopBidPanel job={job} />}
+
+      <div className="grid items-start gap-6 lg:grid-cols-[minmax(0,1fr)_20rem]">
+        <div className="flex min-w-0 flex-col gap-6">
+          <Section title="Photos">
+            <PhotoGallery jobId={job.id} jobTitle={job.title} photos={job.photos} canRemove={isOwner && photosOpen} />
+            {isOwner && photosOpen && <PhotoUploader jobId={job.id} existingCount={job.photos.length} />}
+          </Section>
+          <Section title="Work wanted">
+            <JobOperations spec={job.spec} />
+          </Section>
+          <Section title="Specification">
+            <JobSpec spec={job.spec} />
+          </Section>
+          {job.spec.notes && (
+            <Section title="Notes from the builder">
+              <p className="whitespace-pre-wrap text-ink">{job.spec.notes}</p>
+            </Section>
+          )}
+        </div>
+        <aside className="flex flex-col gap-6" aria-label="At a glance">
+          <Section title="At a glance">
+            <JobLogistics job={job} />
+          </Section>
+          <JobFiguresPanel title="Figures from the spec" input={job.spec} />
+        </aside>
+      </div>
+    </div>
+  );
+}

@@ -1,0 +1,32 @@
+import { useNavigate } from 'react-router-dom';
+import { toast } from 'sonner';
+import { PageTitle } from '@client/components/ui/card';
+import { useCreateJob } from '@client/features/jobs/api/jobs';
+import { JobForm } from '@client/features/jobs/components/job-form';
+
+/** A new job, saved as a draft that only its builder sees until it is published. */
+export function NewJobRoute() {
+  const navigate = useNavigate();
+  const create = useCreateJob({
+    mutationConfig: {
+      onSuccess: (job) => {
+        toast.success('Draft saved. Add photos, then publish it when it is ready.');
+        navigate(`/jobs/${job.id}`);
+      },
+    },
+  });
+  return (
+    <div>
+      <PageTitle
+        title="Post a job"
+        lead="Describe the block and the work you want. It is saved as a draft: only you see it until you publish it to the job board."
+      />
+      <JobForm
+        submitLabel="Save draft"
+        cancelTo="/jobs"
+        saveNote="You can add photos on the next page."
+        onSave={(input) => create.mutateAsync(input)}
+      />
+    </div>
+  );
+}

@@ -1,0 +1,79 @@
+import { Link } from 'react-router-dom';
+import { formatCents } from '@shared/catalogue';
+import { PageTitle } from '@client/components/ui/card';
+import { Notice } from '@client/components/ui/notice';
+import { useMyBids } from '@client/features/bids/api/bids';
+import { BidStatusBadge, days, formatMoment } from '@client/features/bids/components/bid-summary';
+
+const jobStatusWords: Record<string, string> = {
+  open: 'open for bids',
+  awarded: 'awarded',
+  funded: 'paid, held in escrow',
+  in_work: 'in work',
+  inspection_submitted: 'inspection sent',
+  completed: 'completed',
+  disputed: 'in dispute',
+  resolved: 'resolved',
+  cancelled: 'cancelled',
+};
+
+export function MyBidsRoute() {
+  const bids = useMyBids();
+  return (
+    <div>
+      <PageTitle title="My bids" lead="Every bid your shop has sent, most recently changed first." />
+      {bids.isPending && <p className="text-ink-soft">Loading your bids …</p>}
+      {bids.isError && (
+        <Notice tone="error" title="Your bids could not be loaded">
+          {bids.error.message}
+        </Notice>
+      )}
+      {bids.data && bids.data.length === 0 && (
+        <div className="rounded-card bg-paper-raised p-8 text-center ring-1 ring-slate-100">
+          <p className="text-lg font-bold">No bids yet</p>
+          <p className="mt-1 text-ink-soft">
+            Find a job on the{' '}
+            <Link to="/board" className="font-semibold text-slate-700 underline underline-offset-4">
+              job board
+            </Link>{' '}
+            and bid from its page.
+          </p>
+        </div>
+      )}
+      {bids.data && bids.data.length > 0 && (
+        <div role="region" aria-label="Your bids" tabIndex={0} className="relative overflow-x-auto rounded-card bg-paper-raised px-4 shadow-card ring-1 ring-slate-100">
+          <table className="w-full min-w-[40rem] text-left text-sm">
+            <thead className="border-b border-slate-200 text-ink-soft">
+              <tr>
+                <th scope="col" className="py-3 pr-4 font-semibold">Job</th>
+                <th scope="col" className="py-3 pr-4 font-semibold">Status</th>
+                <th scope="col" className="py-3 pr-4 text-right font-semibold">Total</th>
+                <th scope="col" className="py-3 pr-4 font-semibold">Turnaround</th>
+                <th scope="col" className="py-3 font-semibold">Updated</th>
+              </tr>
+            </thead>
+            <tbody>
+              {bids.data.map((bid) => (
+                <tr key={bid.id} className="border-b border-slate-100 align-top">
+                  <th scope="row" className="py-3 pr-4 text-left font-normal">
+                    <Link to={`/jobs/${bid.jobId}`} className="font-bold text-slate-700 underline-offset-4 hover:underline">
+                      {bid.jobTitle || 'Untitled job'}
+                    </Link>
+                    <span className="block text-ink-soft">Job {jobStatusWords[bid.jobStatus] ?? bid.jobStatus}</span>
+                  </th>
+                  <td className="py-3 pr-4">
+                    <BidStatusBadge status={bid.status} />
+                    {bid.version > 1 && <span className="block pt-1 text-ink-soft">version {bid.version}</span>}
+                  </td>
+                  <td className="py-3 pr-4 text-right font-semibold tabular-nums">{formatCents(bid.totalCents)}</td>
+                  <td className="py-3 pr-4">{days(bid.turnaroundDays)}</td>
+                  <td className="py-3">{formatMoment(bid.updatedAt)}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </div>
+      )}
+    </div>
+  );
+}

@@ -1,0 +1,156 @@
+import { useSearchParams } from 'react-router-dom';
+import { operations } from '@shared/catalogue';
+import { shopDirectoryQuerySchema } from '@shared/schemas/shops';
+import { Button } from '@client/components/ui/button';
+import { PageTitle } from '@client/components/ui/card';
+import { DebouncedTextField } from '@client/components/ui/debounced-text-field';
+import { Notice } from '@client/components/ui/notice';
+import { Pager } from '@client/components/ui/pager';
+import { SelectField } from '@client/components/ui/select-field';
+import { useShops, type DirectoryFilters } from '@client/features/shops/api/shops';
+import { ShopCard } from '@client/features/shops/components/shop-card';
+
+const PAGE_SIZE = 12;
+const FILTER_KEYS = ['q', 'operation', 'country', 'region', 'takesShipped'] as const;
+const shape = shopDirectoryQuerySchema.shape;
+
+/** The filters in the address bar, keeping only values the API accepts (a hand-edited address never breaks the page). */
+function readFilters(params: URLSearchParams): DirectoryFilters {
+  const text = (key: 'q' | 'country' | 'region') => {
+    const value = params.get(key)?.trim();
+    return value && shape[key].safeParse(value).success ? value : undefined;
+  };
+  const operation = shape.operation.safeParse(params.get('operation') ?? undefined);
+  const shipped = params.get('takesShipped');
+  const page = shape.page.safeParse(params.get('page') ?? undefined);
+  return {
+    q: text('q'),
+    operation: operation.success ? operation.data : undefined,
+    country: text('country'),
+    region: text('region'),
+    takesShipped: shipped === 'true' || shipped === 'false' ? shipped : undefined,
+    page: page.success ? page.data : 1,
+    pageSize: PAGE_SIZE,
+  };
+}
+
+export function ShopDirectoryRoute() {
+  const [params, setParams] = useSearchParams();
+  const filters = readFilters(params);
+  const shops = useShops(filters);
+  const filtered = FILTER_KEYS.some((key) => params.get(key));
+
+  /** A new filter value starts again at page 1; typing replaces the history entry instead of adding one per pause. */
+  const setFilter = (key: (typeof FILTER_KEYS)[number], value: string, { replace = false } = {}) => {
+    setParams(
+      (current) => {
+        const next = new URLSearchParams(current);
+        if (value.trim()) next.set(key, value.trim());
+        else next.delete(key);
+        next.delete('page');
+        return next;
+      },
+      { replace },
+    );
+  };
+  const setPage = (page: number) => {
+    setParams((current) => {
+      const next = new URLSearchParams(current);
+      if (page > 1) next.set('page', String(page));
+      else next.delete('page');
+      return next;
+    });
+    window.scrollTo({ top: 0 });
+  };
+
+  return (
+    <div>
+      <PageTitle
+        title="Machine shops"
+        lead="Shops that bore, hone, deck and grind for engine builders. Open a shop to see its equipment and usual prices."
+      />
+      <form
+        role="search"
+        aria-label="Filter shops"
+        onSubmit={(event) => event.preventDefault()}
+        className="mb-6 grid gap-4 rounded-card bg-paper-sunk p-4 sm:grid-cols-2 md:grid-cols-3 lg:grid-cols-5"
+      >
+        <DebouncedTextField
+          label="Name or town"
+          type="search"
+          value={params.get('q') ?? ''}
+          onCommit={(text) => setFilter('q', text, { replace: true })}
+          className="lg:col-span-1"
+        />
+        <SelectField
+          label="Work"
+          value={filters.operation ?? ''}
+          onChange={(event) => setFilter('operation', event.target.value)}
+          options={[{ value: '', label: 'Any work' }, ...operations.map((op) => ({ value: op.code, label: op.name }))]}
+        />
+        <DebouncedTextField label="Country" value={params.get('country') ?? ''} onCommit={(text) => setFilter('country', text, { replace: true })} />
+        <DebouncedTextField
+          label="State, province or county"
+          value={params.get('region') ?? ''}
+          onCommit={(text) => setFilter('region', text, { replace: true })}
+        />
+        <SelectField
+          label="Shipped parts"
+          value={filters.takesShipped ?? ''}
+          onChange={(event) => setFilter('takesShipped', event.target.value)}
+          options={[
+            { value: '', label: 'Either' },
+            { value: 'true', label: 'Takes shipped parts' },
+            { value: 'false', label: 'Drop-off only' },
+          ]}
+        />
+      </form>
+
+      {shops.isError && (
+        <Notice tone="error" title="The shops could not be loaded">
+          {shops.error.message}
+        </Notice>
+      )}
+      {shops.isPending && <p className="text-ink-soft">Loading shops …</p>}
+      {shops.data && (
+        <>
+          <div className="mb-4 flex flex-wrap items-center justify-between gap-3">
+            <p className="font-semibold" aria-live="polite">
+              {shops.data.total === 1 ? '1 shop' : `${shops.data.total} shops`}
+              {filtered ? (shops.data.total === 1 ? ' matches these filters' : ' match these filters') : ''}
+            </p>
+            {filtered && (
+              <Button variant="quiet" onClick={() => setParams(new URLSearchParams())}>
+                Clear filters
+              </Button>
+            )}
+          </div>
+          {shops.data.shops.length === 0 ? (
+            <div className="rounded-card bg-paper-raised p-8 text-center ring-1 ring-slate-100">
+              <p className="text-lg font-bold">No shops {filtered ? 'match these filters' : 'have joined yet'}</p>
+              <p className="mt-1 text-ink-soft">
+                {filtered ? 'Try a wider area, or any kind of work.' : 'Shops appear here once they set up a profile.'}
+              </p>
+            </div>
+          ) : (
+            <ul className={`grid gap-4 sm:grid-cols-2 lg:grid-cols-3 ${shops.isPlaceholderData ? 'opacity-60' : ''}`} aria-busy={shops.isFetching}>
+              {shops.data.shops.map((shop) => (
+                <li key={shop.id}>
+                  <ShopCard shop={shop} />
+                </li>
+              ))}
+            </ul>
+          )}
+          <Pager
+            className="mt-6"
+            label="Shop list pages"
+            page={shops.data.page}
+            pageSize={shops.data.pageSize}
+            total={shops.data.total}
+            onPage={setPage}
+          />
+        </>
+      )}
+    </div>
+  );
+}

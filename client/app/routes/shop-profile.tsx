@@ -1,0 +1,39 @@
+import { Link } from 'react-router-dom';
+import { PageTitle } from '@client/components/ui/card';
+import { Notice } from '@client/components/ui/notice';
+import { useOwnShop } from '@client/features/shops/api/shops';
+import { ShopProfileForm } from '@client/features/shops/components/shop-profile-form';
+
+export function ShopProfileRoute() {
+  const own = useOwnShop();
+  return (
+    <div className="mx-auto max-w-4xl">
+      <PageTitle
+        title="Your shop profile"
+        lead="What builders see when you bid: where you are, the work you do and what it usually costs."
+      />
+      {own.isPending && <p className="text-ink-soft">Loading your profile …</p>}
+      {own.isError && (
+        <Notice tone="error" title="Your profile could not be loaded">
+          {own.error.message}
+        </Notice>
+      )}
+      {own.isSuccess && (
+        <>
+          {own.data === null ? (
+            <Notice title="Set up your profile to start bidding" className="mb-6">
+              A shop needs a profile before it can bid. Builders compare bids by the shop behind them, and your rate card fills in the lines
+              of each bid for you, so a bid takes a minute instead of a phone call.
+            </Notice>
+          ) : (
+            <p className="mb-6 text-sm text-ink-soft">
+              Builders see this on <Link to={`/shops/${own.data.id}`} className="font-semibold text-slate-700 underline underline-offset-4">your public shop page</Link>.
+              Changes apply to bids you place from now on; bids already sent keep their prices.
+            </p>
+          )}
+          <ShopProfileForm key={own.data?.id ?? 'new'} shop={own.data} />
+        </>
+      )}
+    </div>
+  );
+}

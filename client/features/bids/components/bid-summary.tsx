@@ -1,0 +1,64 @@
+import { formatCents } from '@shared/catalogue';
+import type { BidLine, BidStatus } from '@shared/schemas/bids';
+import { Badge, type BadgeTone } from '@client/components/ui/badge';
+
+export const bidStatusWords: Record<BidStatus, { label: string; tone: BadgeTone }> = {
+  active: { label: 'Active', tone: 'info' },
+  accepted: { label: 'Accepted', tone: 'success' },
+  declined: { label: 'Declined', tone: 'error' },
+  withdrawn: { label: 'Withdrawn', tone: 'muted' },
+};
+
+export function BidStatusBadge({ status }: { status: BidStatus }) {
+  const words = bidStatusWords[status];
+  return <Badge tone={words.tone}>{words.label}</Badge>;
+}
+
+/** A calendar date (YYYY-MM-DD) as the reader's date, without a time-zone shift. */
+export function formatDay(isoDate: string) {
+  const [year, month, day] = isoDate.slice(0, 10).split('-').map(Number);
+  return new Date(year, month - 1, day).toLocaleDateString(undefined, { day: 'numeric', month: 'short', year: 'numeric' });
+}
+
+export function formatMoment(timestamp: string) {
+  return new Date(timestamp).toLocaleString(undefined, { day: 'numeric', month: 'short', year: 'numeric', hour: 'numeric', minute: '2-digit' });
+}
+
+export const days = (n: number) => `${n} working ${n === 1 ? 'day' : 'days'}`;
+
+/** A bid's lines with their amounts and the server's total. */
+export function BidLinesTable({ lines, totalCents, caption }: { lines: BidLine[]; totalCents: number; caption: string }) {
+  return (
+    <div className="relative overflow-x-auto">
+      <table className="w-full min-w-[28rem] text-left text-sm">
+        <caption className="sr-only">{caption}</caption>
+        <thead className="border-b border-slate-200 text-ink-soft">
+          <tr>
+            <th scope="col" className="py-2 pr-3 font-semibold">Line</th>
+            <th scope="col" className="py-2 pr-3 text-right font-semibold">Quantity</th>
+            <th scope="col" className="py-2 pr-3 text-right font-semibold">Unit price</th>
+            <th scope="col" className="py-2 text-right font-semibold">Amount</th>
+          </tr>
+        </thead>
+        <tbody>
+          {lines.map((line, index) => (
+            <tr key={index} className="border-b border-slate-100">
+              <td className="py-2 pr-3">{line.description}</td>
+              <td className="py-2 pr-3 text-right tabular-nums">{line.quantity}</td>
+              <td className="py-2 pr-3 text-right tabular-nums">{formatCents(line.unitPriceCents)}</td>
+              <td className="py-2 text-right tabular-nums">{formatCents(line.amountCents)}</td>
+            </tr>
+          ))}
+        </tbody>
+        <tfoot>
+          <tr>
+            <th scope="row" colSpan={3} className="py-2 pr-3 text-right font-bold">
+              Total
+            </th>
+            <td className="py-2 text-right text-base font-extrabold tabular-nums">{formatCents(totalCents)}</td>
+          </tr>
+        </tfoot>
+      </table>
+    </div>
+  );
+}

@@ -1,0 +1,388 @@
+import { zodResolver } from '@hookform/resolvers/zod';
+import { useId, useState, type ReactNode } from 'react';
+import { Controller, useForm, useWatch, type FieldErrors, type Path, type UseFormRegisterReturn } from 'react-hook-form';
+import { Link } from 'react-router-dom';
+import { type LengthUnit, convertLength } from '@shared/calc';
+import {
+  blockMaterials,
+  engineLayouts,
+  jobFieldsSchema,
+  jobInputSchema,
+  logisticsOptions,
+  pistonTypes,
+  type JobFormValues,
+  type JobInput,
+} from '@shared/schemas/jobs';
+import { Button } from '@client/components/ui/button';
+import { Notice } from '@client/components/ui/notice';
+import { SegmentedControl } from '@client/components/ui/segmented-control';
+import { SelectField } from '@client/components/ui/select-field';
+import { TextAreaField } from '@client/components/ui/text-area-field';
+import { TextField } from '@client/components/ui/text-field';
+import { cn } from '@client/lib/cn';
+import { applyServerErrors } from '@client/lib/form-errors';
+import { JobFiguresPanel } from './job-figures';
+import { layoutWords, logisticsWords, materialWords, pistonWords, todayIso } from './job-words';
+import { OperationsPicker } from './operations-picker';
+
+/** Fields holding a length in the job's unit: converted in place when the unit changes. */
+const LENGTH_FIELDS = ['stockBore', 'stroke', 'targetBore', 'pistonDiameter', 'clearanceMin', 'clearanceMax', 'maxTaper', 'maxOutOfRound', 'deckFlatnessMax'] as const;
+
+/** Every field the server may name in a 400, for putting its messages beside the inputs. */
+const FIELD_NAMES = Object.keys(jobFieldsSchema.shape) as Array<Path<JobFormValues>>;
+
+const INVALID = 'invalid';
+
+const unitOptions = [
+  { value: 'in', label: 'Inches' },
+  { value: 'mm', label: 'Millimetres' },
+] as const;
+
+/**
+ * The typed text as the schema wants it: nothing typed is "not given"
+ * (undefined), anything that is not a plain decimal is NaN, which the schema
+ * answers with its "must be a number" message. The input keeps the text.
+ */
+function typedNumber(text: unknown): number | undefined {
+  if (typeof text === 'number') return text;
+  const trimmed = String(text ?? '').trim();
+  if (trimmed === '') return undefined;
+  return /^[-+]?(?:\d+\.?\d*|\.\d+)$/.test(trimmed) ? Number(trimmed) : Number.NaN;
+}
+
+const emptyToUndefined = (value: unknown) => (value === '' || value === null ? undefined : value);
+
+/** A converted length written back into its input without floating-point noise. */
+const tidy = (value: number) => Number(value.toPrecision(12));
+
+const blankJob: Partial<JobFormValues> = {
+  unit: 'in',
+  operations: [],
+  deckNotes: '',
+  notes: '',
+  title: '',
+  engineFamily: '',
+  country: '',
+  region: '',
+  city: '',
+  neededBy: '',
+};
+
+function FormSection({ title, intro, children, className }: { title: string; intro?: ReactNode; children: ReactNode; className?: string }) {
+  const id = useId();
+  return (
+    <section aria-labelledby={id} className={cn('rounded-card bg-paper-raised p-5 shadow-card ring-1 ring-slate-100 sm:p-6', className)}>
+      <h2 id={id} className="text-xl font-bold tracking-tight text-ink">
+        {title}
+      </h2>
+      {intro && <div className="mt-1 text-ink-soft">{intro}</div>}
+      <div className="mt-4 flex flex-col gap-4">{children}</div>
+    </section>
+  );
+}
+
+function Grid({ children, columns = 2 }: { children: ReactNode; columns?: 2 | 3 }) {
+  return <div className={cn('grid gap-4 sm:grid-cols-2', columns === 3 && 'lg:grid-cols-3')}>{children}</div>;
+}
+
+/** Radio buttons for a short choice, with one message for the group. */
+function ChoiceGroup({
+  legend,
+  options,
+  error,
+  registration,
+}: {
+  legend: string;
+  options: Array<{ value: string; label: string }>;
+  error?: string;
+  registration: UseFormRegisterReturn;
+}) {
+  const id = useId();
+  return (
+    <fieldset className="flex flex-col gap-2" aria-describedby={error ? `${id}-error` : undefined}>
+      <legend className="mb-1 text-sm font-semibold text-ink">{legend}</legend>
+      <div className="flex flex-wrap gap-3">
+        {options.map((option) => (
+          <label
+            key={option.value}
+            className={cn(
+              'flex min-h-11 cursor-pointer items-center gap-2 rounded-lg bg-white px-3 py-2 ring-1 has-[:checked]:ring-2 has-[:checked]:ring-slate-700',
+              error ? 'ring-fail' : 'ring-slate-300',
+            )}
+          >
+            <input
+              type="radio"
+              value={option.value}
+              aria-invalid={error ? true : undefined}
+              aria-describedby={error ? `${id}-error` : undefined}
+              className="size-4 accent-slate-700"
+              {...registration}
+            />
+            <span className="text-base text-ink">{option.label}</span>
+          </label>
+        ))}
+      </div>
+      {error && (
+        <p id={`${id}-error`} className="text-sm font-semibold text-fail">
+          {error}
+        </p>
+      )}
+    </fieldset>
+  );
+}
+
+export interface JobFormProps {
+  /** The saved spec when editing; a blank form otherwise. */
+  initial?: JobInput;
+  submitLabel: string;
+  /** Saves the parsed spec; a rejected ApiError puts its field messages beside the inputs. */
+  onSave: (input: JobInput) => Promise<unknown>;
+  /** Where "Cancel" goes. */
+  cancelTo: string;
+  /** Words beside the save button (what saving does). */
+  saveNote?: ReactNode;
+}
+
+/**
+ * The job's spec, grouped the way a builder thinks about a block, checked with
+ * the shared schema as it is sent, and with live figures from the shared
+ * calculation library beside it (below the sizes on a tablet).
+ */
+export function JobForm({ initial, submitLabel, onSave, cancelTo, saveNote }: JobFormProps) {
+  /** A server refusal's message, or 'invalid' while the form's own checks fail. */
+  const [formError, setFormError] = useState<string>();
+  const form = useForm<JobFormValues, unknown, JobInput>({
+    resolver: zodResolver(jobInputSchema),
+    defaultValues: (initial ?? blankJob) as JobFormValues,
+  });
+  const { errors, isSubmitting } = form.formState;
+  const values = useWatch({ control: form.control });
+  const unit: LengthUnit = values.unit === 'mm' ? 'mm' : 'in';
+
+  const number = (name: Path<JobFormValues>) => form.register(name, { setValueAs: typedNumber });
+  const choice = (name: Path<JobFormValues>) => form.register(name, { setValueAs: emptyToUndefined });
+  const message = (name: keyof JobFormValues) => (errors as FieldErrors<Record<string, unknown>>)[name]?.message as string | undefined;
+
+  const changeUnit = (next: LengthUnit) => {
+    if (next === unit) return;
+    for (const field of LENGTH_FIELDS) {
+      const value = form.getValues(field);
+      if (typeof value === 'number' && Number.isFinite(value)) {
+        form.setValue(field, tidy(convertLength(value, unit, next)), { shouldDirty: true });
+      }
+    }
+    form.setValue('unit', next, { shouldDirty: true });
+  };
+
+  const onSubmit = form.handleSubmit(
+    async (input) => {
+      setFormError(undefined);
+      try {
+        await onSave(input);
+      } catch (error) {
+        setFormError(applyServerErrors(error, form.setError, FIELD_NAMES));
+      }
+    },
+    () => setFormError(INVALID),
+  );
+
+  const operationErrors = errors.operations as
+    | (FieldErrors<{ quantity: number; code: string }>[] & { message?: string; root?: { message?: string } })
+    | undefined;
+  const quantityErrors: Record<string, string | undefined> = {};
+  (values.operations ?? []).forEach((op, index) => {
+    const entry = operationErrors?.[index];
+    if (op?.code && entry) quantityErrors[op.code] = (entry.quantity?.message ?? entry.code?.message) as string | undefined;
+  });
+  const lengthLabel = (words: string, optional = false) => `${words} (${unit})${optional ? ', optional' : ''}`;
+  const numberProps = { inputMode: 'decimal' as const, autoComplete: 'off', spellCheck: false };
+
+  return (
+    <form onSubmit={onSubmit} noValidate aria-label="Job details" className="flex flex-col gap-6">
+      {formError && (formError !== INVALID || Object.keys(errors).length > 0) && (
+        <Notice tone="error">{formError === INVALID ? 'Some values need another look. Each one is marked below with what to change.' : formError}</Notice>
+      )}
+      <div className="grid items-start gap-6 lg:grid-cols-[minmax(0,1fr)_21rem]">
+        <FormSection title="The block" className="lg:col-start-1">
+          <TextField
+            label="Job title"
+            hint="One line shops read on the board, e.g. “Bore and hone an iron V8 block”."
+            error={message('title')}
+            {...form.register('title')}
+          />
+          <TextField
+            label="Engine"
+            hint="Family and era in your own words, e.g. “small-block V8, 1970s”."
+            error={message('engineFamily')}
+            {...form.register('engineFamily')}
+          />
+          <Grid>
+            <SelectField
+              label="Layout"
+              options={[{ value: '', label: 'Choose…' }, ...engineLayouts.map((v) => ({ value: v, label: layoutWords[v] }))]}
+              error={message('layout')}
+              {...choice('layout')}
+            />
+            <TextField label="Cylinders" inputMode="numeric" autoComplete="off" error={message('cylinders')} {...number('cylinders')} />
+          </Grid>
+          <ChoiceGroup
+            legend="Block material"
+            options={blockMaterials.map((v) => ({ value: v, label: materialWords[v] }))}
+            error={message('blockMaterial')}
+            registration={choice('blockMaterial')}
+          />
+        </FormSection>
+
+        <FormSection
+          title="Sizes and clearance"
+          className="lg:col-start-1"
+          intro="Give a target bore, or the measured piston diameter with the clearance range its maker gives. Both is fine too."
+        >
+          <div className="flex flex-wrap items-center gap-x-4 gap-y-2">
+            <span className="text-sm font-semibold text-ink" aria-hidden>
+              Lengths in
+            </span>
+            <SegmentedControl label="Length unit" options={unitOptions} value={unit} onChange={changeUnit} />
+            <span className="text-sm text-ink-soft">Switching converts what you have typed (1 in = 25.4 mm).</span>
+          </div>
+          <Grid>
+            <TextField label={lengthLabel('Stock bore')} hint="The engine’s original bore." error={message('stockBore')} {...numberProps} {...number('stockBore')} />
+            <TextField label={lengthLabel('Stroke')} error={message('stroke')} {...numberProps} {...number('stroke')} />
+            <TextField
+              label={lengthLabel('Target bore', true)}
+              hint="The finished size you want, if you know it."
+              error={message('targetBore')}
+              {...numberProps}
+              {...number('targetBore')}
+            />
+            <TextField
+              label={lengthLabel('Piston diameter', true)}
+              hint="Measured at the gauge point, 90° to the pin."
+              error={message('pistonDiameter')}
+              {...numberProps}
+              {...number('pistonDiameter')}
+            />
+            <TextField label={lengthLabel('Smallest clearance', true)} hint="Piston to wall." error={message('clearanceMin')} {...numberProps} {...number('clearanceMin')} />
+            <TextField label={lengthLabel('Largest clearance', true)} error={message('clearanceMax')} {...numberProps} {...number('clearanceMax')} />
+          </Grid>
+          <SelectField
+            label="Piston type"
+            className="sm:max-w-xs"
+            options={[{ value: '', label: 'Choose…' }, ...pistonTypes.map((v) => ({ value: v, label: pistonWords[v] }))]}
+            error={message('pistonType')}
+            {...choice('pistonType')}
+          />
+        </FormSection>
+
+        <aside aria-label="Live figures" className="lg:sticky lg:top-4 lg:col-start-2 lg:row-span-8 lg:row-start-1">
+          <JobFiguresPanel
+            input={{
+              unit,
+              cylinders: values.cylinders,
+              stockBore: values.stockBore,
+              stroke: values.stroke,
+              targetBore: values.targetBore,
+              pistonDiameter: values.pistonDiameter,
+              clearanceMin: values.clearanceMin,
+              clearanceMax: values.clearanceMax,
+            }}
+          />
+        </aside>
+
+        <FormSection
+          title="Finish and geometry limits"
+          className="lg:col-start-1"
+          intro="All optional. Leave a box empty when the shop’s usual practice will do. Finishes in micrometres (1 µm ≈ 39.4 µin)."
+        >
+          <Grid>
+            <TextField label="Smallest crosshatch angle (°), optional" error={message('crosshatchMinDeg')} {...numberProps} {...number('crosshatchMinDeg')} />
+            <TextField label="Largest crosshatch angle (°), optional" error={message('crosshatchMaxDeg')} {...numberProps} {...number('crosshatchMaxDeg')} />
+            <TextField label="Largest bore Ra (µm), optional" error={message('finishRaMaxUm')} {...numberProps} {...number('finishRaMaxUm')} />
+            <TextField label="Largest Rk (µm), optional" error={message('finishRkMaxUm')} {...numberProps} {...number('finishRkMaxUm')} />
+            <TextField label="Largest Rpk (µm), optional" error={message('finishRpkMaxUm')} {...numberProps} {...number('finishRpkMaxUm')} />
+            <TextField label="Largest Rvk (µm), optional" error={message('finishRvkMaxUm')} {...numberProps} {...number('finishRvkMaxUm')} />
+            <TextField label={lengthLabel('Maximum taper', true)} error={message('maxTaper')} {...numberProps} {...number('maxTaper')} />
+            <TextField label={lengthLabel('Maximum out-of-round', true)} error={message('maxOutOfRound')} {...numberProps} {...number('maxOutOfRound')} />
+          </Grid>
+        </FormSection>
+
+        <FormSection title="Deck" className="lg:col-start-1">
+          <Grid>
+            <TextField label={lengthLabel('Deck out-of-flat limit', true)} error={message('deckFlatnessMax')} {...numberProps} {...number('deckFlatnessMax')} />
+            <TextField label="Largest deck Ra (µm), optional" error={message('deckRaMaxUm')} {...numberProps} {...number('deckRaMaxUm')} />
+          </Grid>
+          <TextAreaField
+            label="Deck notes, optional"
+            rows={3}
+            hint="Deck height wanted, head gasket type, or anything else the deck needs."
+            error={message('deckNotes')}
+            {...form.register('deckNotes')}
+          />
+        </FormSection>
+
+        <FormSection title="Work wanted" className="lg:col-start-1" intro="Tick the work you want done. Quantities start from the cylinder count; change them if you need to.">
+          <Controller
+            control={form.control}
+            name="operations"
+            render={({ field }) => (
+              <OperationsPicker
+                value={field.value ?? []}
+                onChange={field.onChange}
+                cylinders={values.cylinders}
+                error={operationErrors?.message ?? operationErrors?.root?.message}
+                quantityErrors={quantityErrors}
+                focusRef={field.ref}
+              />
+            )}
+          />
+        </FormSection>
+
+        <FormSection title="Getting the parts there" className="lg:col-start-1" intro="Shops see your town and region, never your address.">
+          <ChoiceGroup
+            legend="How the parts get to the shop"
+            options={logisticsOptions.map((v) => ({ value: v, label: logisticsWords[v] }))}
+            error={message('logistics')}
+            registration={choice('logistics')}
+          />
+          <Grid columns={3}>
+            <TextField label="Country" autoComplete="country-name" error={message('country')} {...form.register('country')} />
+            <TextField label="State, province or county" autoComplete="address-level1" error={message('region')} {...form.register('region')} />
+            <TextField label="Town or city" autoComplete="address-level2" error={message('city')} {...form.register('city')} />
+          </Grid>
+        </FormSection>
+
+        <FormSection title="Needed by" className="lg:col-start-1">
+          <TextField
+            label="Date you need the parts back"
+            type="date"
+            min={todayIso()}
+            className="sm:max-w-xs"
+            hint="Shops quote their turnaround against this."
+            error={message('neededBy')}
+            {...form.register('neededBy')}
+          />
+        </FormSection>
+
+        <FormSection title="Notes" className="lg:col-start-1">
+          <TextAreaField
+            label="Anything else the shop should know, optional"
+            rows={5}
+            hint="Known damage, previous machining, parts you will send along."
+            error={message('notes')}
+            {...form.register('notes')}
+          />
+        </FormSection>
+      </div>
+
+      <div className="flex flex-wrap items-center gap-3 rounded-card bg-paper-raised p-4 shadow-card ring-1 ring-slate-100">
+        <Button type="submit" busy={isSubmitting}>
+          {submitLabel}
+        </Button>
+        <Link to={cancelTo} className="rounded-md px-3 py-2 font-semibold text-slate-700 underline underline-offset-4 hover:bg-slate-50">
+          Cancel
+        </Link>
+        {saveNote && <p className="text-sm text-ink-soft">{saveNote}</p>}
+      </div>
+    </form>
+  );
+}

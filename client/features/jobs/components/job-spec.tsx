@@ -1,0 +1,132 @@
+import type { ReactNode } from 'react';
+import type { LengthUnit } from '@shared/calc';
+import { findOperation } from '@shared/catalogue';
+import type { JobDetail, JobInput } from '@shared/schemas/jobs';
+import { formatDay, formatLength, layoutWords, materialWords, pistonWords, quantityText, unitWords } from './job-words';
+
+type Item = [label: string, value: ReactNode] | false | undefined;
+
+const given = (n: number | undefined): n is number => typeof n === 'number' && Number.isFinite(n);
+const micrometres = (n: number) => `${new Intl.NumberFormat('en-US', { maximumFractionDigits: 3 }).format(n)} µm`;
+const degrees = (n: number) => `${new Intl.NumberFormat('en-US', { maximumFractionDigits: 1 }).format(n)}°`;
+
+/** "a – b", "at least a", "at most b", or nothing. */
+function range(min: number | undefined, max: number | undefined, format: (n: number) => string): string | undefined {
+  if (given(min) && given(max)) return min === max ? format(min) : `${format(min)} – ${format(max)}`;
+  if (given(min)) return `at least ${format(min)}`;
+  if (given(max)) return `at most ${format(max)}`;
+  return undefined;
+}
+
+function Facts({ items, empty, stacked = false }: { items: Item[]; empty?: string; stacked?: boolean }) {
+  const shown = items.filter((item): item is [string, ReactNode] => Boolean(item) && (item as [string, ReactNode])[1] !== undefined);
+  if (shown.length === 0) return <p className="text-ink-soft">{empty ?? 'None given.'}</p>;
+  return (
+    <dl className={stacked ? 'flex flex-col gap-y-0.5 [&_dd]:mb-2' : 'grid gap-x-6 gap-y-1.5 sm:grid-cols-[13rem_1fr]'}>
+      {shown.map(([label, value]) => (
+        <div key={label} className="contents">
+          <dt className="text-ink-soft">{label}</dt>
+          <dd className="font-semibold tabular-nums text-ink">{value}</dd>
+        </div>
+      ))}
+    </dl>
+  );
+}
+
+function Group({ title, children }: { title: string; children: ReactNode }) {
+  return (
+    <div className="flex flex-col gap-2">
+      <h3 className="text-base font-bold text-ink">{title}</h3>
+      {children}
+    </div>
+  );
+}
+
+/** The block's specification in words, every length with its unit. */
+export function JobSpec({ spec }: { spec: JobInput }) {
+  const unit: LengthUnit = spec.unit;
+  const length = (n: number | undefined) => (given(n) ? formatLength(n, unit) : undefined);
+  return (
+    <div className="flex flex-col gap-5">
+      <p className="text-sm text-ink-soft">Lengths in {unitWords[unit]}; surface finish in micrometres.</p>
+      <Group title="The block">
+        <Facts
+          items={[
+            ['Engine', spec.engineFamily],
+            ['Layout', layoutWords[spec.layout]],
+            ['Cylinders', spec.cylinders],
+            ['Block material', materialWords[spec.blockMaterial]],
+            ['Piston type', pistonWords[spec.pistonType]],
+          ]}
+        />
+      </Group>
+      <Group title="Sizes and clearance">
+        <Facts
+          items={[
+            ['Stock bore', length(spec.stockBore)],
+            ['Stroke', length(spec.stroke)],
+            ['Target bore', length(spec.targetBore)],
+            ['Piston diameter', length(spec.pistonDiameter)],
+            ['Piston-to-wall clearance', range(spec.clearanceMin, spec.clearanceMax, (n) => formatLength(n, unit))],
+          ]}
+        />
+      </Group>
+      <Group title="Finish and geometry limits">
+        <Facts
+          empty="None given: the shop’s usual practice applies."
+          items={[
+            ['Crosshatch angle', range(spec.crosshatchMinDeg, spec.crosshatchMaxDeg, degrees)],
+            ['Largest bore Ra', given(spec.finishRaMaxUm) ? micrometres(spec.finishRaMaxUm) : undefined],
+            ['Largest Rk', given(spec.finishRkMaxUm) ? micrometres(spec.finishRkMaxUm) : undefined],
+            ['Largest Rpk', given(spec.finishRpkMaxUm) ? micrometres(spec.finishRpkMaxUm) : undefined],
+            ['Largest Rvk', given(spec.finishRvkMaxUm) ? micrometres(spec.finishRvkMaxUm) : undefined],
+            ['Maximum taper', length(spec.maxTaper)],
+            ['Maximum out-of-round', length(spec.maxOutOfRound)],
+          ]}
+        />
+      </Group>
+      <Group title="Deck">
+        <Facts
+          empty="No deck limits given."
+          items={[
+            ['Out-of-flat limit', length(spec.deckFlatnessMax)],
+            ['Largest deck Ra', given(spec.deckRaMaxUm) ? micrometres(spec.deckRaMaxUm) : undefined],
+          ]}
+        />
+        {spec.deckNotes && <p className="whitespace-pre-wrap text-ink">{spec.deckNotes}</p>}
+      </Group>
+    </div>
+  );
+}
+
+/** The operations wanted, with how many of each. */
+export function JobOperations({ spec }: { spec: JobInput }) {
+  return (
+    <ul className="grid gap-2 sm:grid-cols-2">
+      {spec.operations.map((op) => {
+        const known = findOperation(op.code);
+        return (
+          <li key={op.code} className="flex items-baseline justify-between gap-3 rounded-lg bg-white px-3 py-2 ring-1 ring-slate-200">
+            <span className="font-semibold text-ink">{known?.name ?? op.code}</span>
+            <span className="text-sm tabular-nums text-ink-soft">{quantityText(known, op.quantity)}</span>
+          </li>
+        );
+      })}
+    </ul>
+  );
+}
+
+/** Where, how and when, for the page's side column. */
+export function JobLogistics({ job }: { job: JobDetail }) {
+  return (
+    <Facts
+      stacked
+      items={[
+        ['Needed by', formatDay(job.neededBy)],
+        ['Getting it there', job.logistics === 'ship' ? 'Shipped to the shop by the builder' : 'Dropped off at the shop by the builder'],
+        ['Builder’s area', [job.city, job.region, job.country].filter(Boolean).join(', ')],
+        ['Posted by', job.builder.displayName],
+      ]}
+    />
+  );
+}

@@ -1,0 +1,77 @@
+/**
+ * How the jobs feature puts the spec into words: status names a builder
+ * understands, the choices of the form, and lengths and dates as the trade
+ * writes them.
+ */
+import type { LengthUnit } from '@shared/calc';
+import type { BadgeTone } from '@client/components/ui/badge';
+import type { JobInput, JobStatus } from '@shared/schemas/jobs';
+
+export const statusWords: Record<JobStatus, { label: string; tone: BadgeTone; explain: string }> = {
+  draft: { label: 'Draft', tone: 'muted', explain: 'Only you can see it. Publish it when it is ready for shops.' },
+  open: { label: 'Open for bids', tone: 'info', explain: 'Shops can see it on the job board and bid.' },
+  awarded: { label: 'Awarded', tone: 'success', explain: 'You accepted a bid. Payment into escrow comes next.' },
+  funded: { label: 'Paid into escrow', tone: 'success', explain: 'The price is held by Tenthmark; the shop may start.' },
+  in_work: { label: 'In the shop', tone: 'success', explain: 'The shop has the parts and is working on them.' },
+  inspection_submitted: { label: 'Results to review', tone: 'caution', explain: 'The shop sent its measured results for you to check.' },
+  completed: { label: 'Completed', tone: 'success', explain: 'You accepted the results and the shop was paid.' },
+  disputed: { label: 'In dispute', tone: 'error', explain: 'An administrator is looking at the disagreement.' },
+  resolved: { label: 'Dispute settled', tone: 'neutral', explain: 'An administrator decided the dispute.' },
+  cancelled: { label: 'Cancelled', tone: 'muted', explain: 'This job was cancelled.' },
+};
+
+export const layoutWords: Record<JobInput['layout'], string> = { inline: 'Inline', v: 'V', flat: 'Flat (opposed)', other: 'Other' };
+export const materialWords: Record<JobInput['blockMaterial'], string> = { 'cast-iron': 'Cast iron', aluminium: 'Aluminium' };
+export const pistonWords: Record<JobInput['pistonType'], string> = { cast: 'Cast', hypereutectic: 'Hypereutectic', forged: 'Forged' };
+export const logisticsWords: Record<JobInput['logistics'], string> = {
+  ship: 'I ship the parts to the shop',
+  'drop-off': 'I drop the parts off at the shop',
+};
+export const unitWords: Record<LengthUnit, string> = { in: 'inches', mm: 'millimetres' };
+
+/** A length as the trade writes it: 3 to 4 decimals in inches (a tenth is 0.0001 in), 2 to 3 in millimetres. */
+export function formatLength(value: number, unit: LengthUnit): string {
+  const [min, max] = unit === 'in' ? [3, 4] : [2, 3];
+  return `${new Intl.NumberFormat('en-US', { minimumFractionDigits: min, maximumFractionDigits: max }).format(value)} ${unit}`;
+}
+
+/** A signed length difference, e.g. "+0.0300 in". */
+export function formatLengthChange(value: number, unit: LengthUnit): string {
+  const decimals = unit === 'in' ? 4 : 3;
+  return `${new Intl.NumberFormat('en-US', { minimumFractionDigits: decimals, maximumFractionDigits: decimals, signDisplay: 'exceptZero' }).format(value)} ${unit}`;
+}
+
+export function formatNumber(value: number, decimals: number): string {
+  return new Intl.NumberFormat('en-US', { minimumFractionDigits: decimals, maximumFractionDigits: decimals }).format(value);
+}
+
+/** A calendar date (YYYY-MM-DD) read as a local day, so it never shifts by a time zone. */
+export function formatDay(isoDate: string): string {
+  const [y, m, d] = isoDate.slice(0, 10).split('-').map(Number);
+  if (!y || !m || !d) return isoDate;
+  return new Intl.DateTimeFormat('en-US', { day: 'numeric', month: 'short', year: 'numeric' }).format(new Date(y, m - 1, d));
+}
+
+/** Today as YYYY-MM-DD in the viewer's own time zone. */
+export function todayIso(): string {
+  const now = new Date();
+  return `${now.getFullYear()}-${String(now.getMonth() + 1).padStart(2, '0')}-${String(now.getDate()).padStart(2, '0')}`;
+}
+
+export const plural = (count: number, one: string, many = `${one}s`) => `${count} ${count === 1 ? one : many}`;
+
+const countWords: Record<string, [string, string]> = {
+  block: ['block', 'blocks'],
+  head: ['head', 'heads'],
+  crank: ['crank', 'cranks'],
+  rotating: ['assembly', 'assemblies'],
+};
+
+/** How much of an operation is wanted, in words: "8 cylinders", "2 heads", "once". */
+export function quantityText(op: { pricedPer: string; part: string } | undefined, quantity: number): string {
+  if (!op) return `× ${quantity}`;
+  if (op.pricedPer === 'cylinder') return plural(quantity, 'cylinder');
+  if (op.pricedPer === 'job') return quantity === 1 ? 'once' : `${quantity} times`;
+  const [one, many] = countWords[op.part] ?? ['part', 'parts'];
+  return plural(quantity, one, many);
+}

@@ -1,0 +1,361 @@
+import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { request, type APIRequestContext, type Browser, type BrowserContext, type Locator, type Page } from 'playwright-core';
+import sharp from 'sharp';
+import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, it } from 'vitest';
+import { CC_PER_CUBIC_INCH } from '../../shared/calc';
+import type { JobDetail, JobInput } from '../../shared/schemas/jobs';
+import { DEMO_PASSWORD, demoAccounts } from '../../server/dev/seed';
+import type { RunningServer } from '../../server/runtime';
+import { bidInput, inDays, jobInput, shopProfileInput, uniqueEmail } from '../factories';
+import { artifactsDir, launchBrowser, startBrowserApp } from '../setup/browser';
+
+let browser: Browser;
+let app: { server: RunningServer; close: () => Promise<void> };
+let context: BrowserContext;
+let page: Page;
+let photoDir: string;
+const consoleErrors: string[] = [];
+const apiSessions: APIRequestContext[] = [];
+
+const builder = demoAccounts.find((a) => a.email === 'juno@builders.test')!;
+const otherBuilder = demoAccounts.find((a) => a.email === 'teodor@builders.test')!;
+const lanternHill = demoAccounts.find((a) => a.email === 'bench@lanternhill.test')!;
+const kessrow = demoAccounts.find((a) => a.email === 'desk@kessrow.test')!;
+
+/** A photo of an invented block deck: grey casting with eight dark bores, made here so the test needs no files. */
+async function makeDeckPhoto(path: string, shade: string) {
+  const bores = Array.from({ length: 4 }, (_, i) => `<circle cx="${260 + i * 360}" cy="420" r="150" fill="#2a2d31"/><circle cx="${260 + i * 360}" cy="800" r="150" fill="#2a2d31"/>`).join('');
+  const svg = `<svg xmlns="http://www.w3.org/2000/svg" width="1600" height="1200"><rect width="1600" height="1200" fill="${shade}"/>${bores}</svg>`;
+  await sharp(Buffer.from(svg)).jpeg({ quality: 85 }).toFile(path);
+}
+
+beforeAll(async () => {
+  [browser, app] = await Promise.all([launchBrowser(), startBrowserApp()]);
+  photoDir = mkdtempSync(join(tmpdir(), 'tenthmark-e2e-photos-'));
+  await Promise.all([makeDeckPhoto(join(photoDir, 'deck-left.jpg'), '#9aa0a6'), makeDeckPhoto(join(photoDir, 'deck-right.jpg'), '#b5b0a4')]);
+});
+afterAll(async () => {
+  await Promise.all(apiSessions.map((session) => session.dispose()));
+  await browser?.close();
+  await app?.close();
+  if (photoDir) rmSync(photoDir, { recursive: true, force: true });
+});
+beforeEach(async () => {
+  context = await browser.newContext({ viewport: { width: 768, height: 1024 } }); // a shop-floor tablet
+  context.setDefaultTimeout(10_000);
+  page = await context.newPage();
+  consoleErrors.length = 0;
+  page.on('console', (msg) => {
+    // A 401 from /api/auth/me is how a signed-out visitor is recognised.
+    if (msg.type() === 'error' && !/401/.test(msg.text())) consoleErrors.push(msg.text());
+  });
+  page.on('pageerror', (err) => consoleErrors.push(err.message));
+});
+afterEach(async () => {
+  await context?.close();
+});
+
+const url = (path: string) => `${app.server.url}${path}`;
+/** The number in a figure such as "5,733 cc". */
+const numberIn = async (locator: Locator) => Number(/-?[\d,]+(?:\.\d+)?/.exec((await locator.textContent()) ?? '')![0].replace(/,/g, ''));
+
+async function signIn(email: string, returnTo: string) {
+  await page.goto(url(`/signin?returnTo=${encodeURIComponent(returnTo)}`));
+  await page.getByLabel('E-mail').fill(email);
+  await page.getByLabel('Password').fill(DEMO_PASSWORD);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await page.waitForURL(url(returnTo));
+}
+
+/**
+ * A signed-in API session outside the browser, for the other side of the
+ * marketplace (shops bidding) and for setting up jobs; it sends the CSRF token.
+ */
+async function apiAs(account: { email: string; password?: string } | { signUp: { displayName: string; email: string; role: 'shop' | 'builder' } }) {
+  const session = await request.newContext({ baseURL: app.server.url });
+  apiSessions.push(session);
+  let token: string = (await (await session.get('/api/auth/csrf')).json()).csrfToken;
+  const res =
+    'signUp' in account
+      ? await session.post('/api/auth/signup', { data: { ...account.signUp, password: 'a long enough test password' }, headers: { 'X-CSRF-Token': token } })
+      : await session.post('/api/auth/login', { data: { email: account.email, password: account.password ?? DEMO_PASSWORD }, headers: { 'X-CSRF-Token': token } });
+  if (!res.ok()) throw new Error(`could not sign in: ${res.status()} ${await res.text()}`);
+  token = (await res.json()).csrfToken;
+  const send = async (method: 'POST' | 'PUT', path: string, data: unknown = {}, multipart?: Record<string, { name: string; mimeType: string; buffer: Buffer }>) => {
+    const body = multipart ? { multipart } : { data };
+    const answer = await session.fetch(path, { method, ...body, headers: { 'X-CSRF-Token': token } });
+    if (!answer.ok()) throw new Error(`${method} ${path} answered ${answer.status()}: ${await answer.text()}`);
+    return answer.json();
+  };
+  return { send };
+}
+
+/** A shop with a profile places a bid on the job, through the API. */
+async function shopBids(shop: Awaited<ReturnType<typeof apiAs>>, jobId: string, profile: Parameters<typeof shopProfileInput>[0], bid: Parameters<typeof bidInput>[0]) {
+  await shop.send('PUT', '/api/shop-profile', shopProfileInput(profile));
+  return shop.send('POST', `/api/jobs/${jobId}/bids`, bidInput(bid));
+}
+
+/** A job of the demo builder's, made through the API, optionally published. */
+async function builderJob(input: Partial<JobInput>, publish: boolean, photo?: string): Promise<JobDetail> {
+  const juno = await apiAs(builder);
+  const { job } = (await juno.send('POST', '/api/jobs', jobInput(input))) as { job: JobDetail };
+  if (photo) await juno.send('POST', `/api/jobs/${job.id}/photos`, undefined, { photos: { name: 'deck.jpg', mimeType: 'image/jpeg', buffer: readFileSync(photo) } });
+  if (publish) await juno.send('POST', `/api/jobs/${job.id}/publish`);
+  return job;
+}
+
+describe('a builder posting a job and choosing a shop, in a real browser', () => {
+  it('when the builder fills the form, adds photos, publishes and accepts a bid, then every step shows and the job ends awarded', async () => {
+    await signIn(builder.email, '/jobs/new');
+    await page.getByRole('heading', { level: 1, name: 'Post a job' }).waitFor();
+    const form = page.getByRole('form', { name: 'Job details' });
+    const figures = page.getByRole('complementary', { name: 'Live figures' });
+    await expect(figures.getByTestId('guidance-caution').textContent()).resolves.toContain(
+      "Engine and piston makers' specifications, calibrated instruments, local codes and licensed practice govern.",
+    );
+
+    // The block, with a cylinder count the schema refuses.
+    await form.getByLabel('Job title').fill('Bore, hone and deck an iron V8 block');
+    await form.getByLabel('Engine', { exact: true }).fill('Small-block V8, late 1970s');
+    await form.getByLabel('Layout').selectOption('v');
+    await form.getByLabel('Cylinders', { exact: true }).fill('20');
+    await form.getByRole('radio', { name: 'Cast iron' }).check();
+    await form.getByLabel('Stock bore (in)').fill('4.000');
+    await form.getByLabel('Stroke (in)').fill('3.48');
+    await form.getByLabel('Piston diameter (in), optional').fill('4.028');
+    await form.getByLabel('Smallest clearance (in), optional').fill('0.0025');
+    await form.getByLabel('Largest clearance (in), optional').fill('0.0035');
+    await form.getByLabel('Piston type').selectOption('forged');
+    await form.getByLabel('Smallest crosshatch angle (°), optional').fill('40');
+    await form.getByLabel('Largest crosshatch angle (°), optional').fill('50');
+    await form.getByLabel('Maximum taper (in), optional').fill('0.0005');
+    await form.getByLabel('Deck out-of-flat limit (in), optional').fill('0.002');
+    for (const work of ['Bore', 'Hone', 'Deck']) await form.getByRole('checkbox', { name: work, exact: true }).check();
+    await form.getByRole('radio', { name: 'I ship the parts to the shop' }).check();
+    await form.getByLabel('Country').fill('United States');
+    await form.getByLabel('State, province or county').fill('Ohio');
+    await form.getByLabel('Town or city').fill('Columbus');
+    await form.getByLabel('Date you need the parts back').fill(inDays(30));
+    // 20 cylinders is no engine the form accepts, so no displacement yet.
+    await expect(figures.getByText(/Still to enter: the number of cylinders/).isVisible()).resolves.toBe(true);
+
+    await form.getByRole('button', { name: 'Save draft' }).click();
+    const cylinders = form.getByLabel('Cylinders', { exact: true });
+    await form.getByText('At most 16 cylinders.').waitFor();
+    await expect(cylinders.getAttribute('aria-invalid')).resolves.toBe('true');
+    const describedBy = (await cylinders.getAttribute('aria-describedby'))!;
+    await expect(page.locator(`[id="${describedBy}"]`).textContent()).resolves.toBe('At most 16 cylinders.');
+    await expect(form.getByLabel('Job title').inputValue()).resolves.toBe('Bore, hone and deck an iron V8 block');
+    expect(page.url()).toBe(url('/jobs/new'));
+
+    // Fixing the count brings the figures, and per-cylinder work follows it.
+    await cylinders.fill('8');
+    await form.getByText('At most 16 cylinders.').waitFor({ state: 'detached' });
+    // derived: π/4 · 4² · 3.48 · 8 in³ × 16.387064 = 5,733.0 cc
+    const expectedCc = (Math.PI / 4) * 4 ** 2 * 3.48 * 8 * CC_PER_CUBIC_INCH;
+    expect(expectedCc).toBeCloseTo(5733, 0);
+    await expect(numberIn(figures.getByTestId('job-displacement-cc'))).resolves.toBeCloseTo(expectedCc, 0);
+    // derived: finished = piston 4.028 + mean clearance (0.0025 + 0.0035)/2 = 4.0310 in; oversize 4.031 − 4.000 = +0.0310 in
+    await expect(figures.getByTestId('job-finished-bore').textContent()).resolves.toBe('4.031 in');
+    // common practice: 0.0025 in left for the hone, so bore to 4.0310 − 0.0025 = 4.0285 in
+    await expect(figures.getByTestId('job-bore-to').textContent()).resolves.toBe('4.0285 in');
+    await expect(figures.getByTestId('job-oversize').textContent()).resolves.toBe('+0.0310 in');
+    await expect(form.getByLabel('Cylinders for Bore').inputValue()).resolves.toBe('8');
+    await expect(form.getByLabel('Cylinders for Hone').inputValue()).resolves.toBe('8');
+    await expect(form.getByLabel('Blocks for Deck').inputValue()).resolves.toBe('1');
+    await page.screenshot({ path: join(artifactsDir, 'job-form.png'), fullPage: true });
+
+    // Millimetres convert what is typed (1 in = 25.4 mm exactly), and back.
+    await form.getByRole('radio', { name: 'Millimetres' }).click();
+    await expect(form.getByLabel('Stock bore (mm)').inputValue()).resolves.toBe('101.6');
+    await expect(numberIn(figures.getByTestId('job-displacement-cc'))).resolves.toBeCloseTo(expectedCc, 0);
+    await form.getByRole('radio', { name: 'Inches' }).click();
+    await expect(form.getByLabel('Stock bore (in)').inputValue()).resolves.toBe('4');
+
+    await page.setViewportSize({ width: 1280, height: 900 });
+    await page.screenshot({ path: join(artifactsDir, 'job-form-1280.png'), fullPage: true });
+    await page.setViewportSize({ width: 768, height: 1024 });
+
+    await form.getByRole('button', { name: 'Save draft' }).click();
+    await page.waitForURL(/\/jobs\/[0-9a-f-]{36}$/);
+    const jobId = new URL(page.url()).pathname.split('/').pop()!;
+    await page.getByRole('heading', { level: 1, name: 'Bore, hone and deck an iron V8 block' }).waitFor();
+    await page.getByText('Status: Draft', { exact: true }).waitFor();
+    await expect(page.getByText('4.000 in', { exact: true }).first().isVisible()).resolves.toBe(true);
+    await expect(page.getByText('0.0025 in – 0.0035 in').isVisible()).resolves.toBe(true);
+
+    // A file that is not a photo is refused before it is sent.
+    const chooser = page.getByLabel('Choose photos');
+    await chooser.setInputFiles({ name: 'notes.txt', mimeType: 'text/plain', buffer: Buffer.from('not a photo') });
+    await page.getByText('“notes.txt” is not a JPEG, PNG or WebP photo.').waitFor();
+
+    // Two photos, each with its own progress bar, then two thumbnails.
+    await chooser.setInputFiles([join(photoDir, 'deck-left.jpg'), join(photoDir, 'deck-right.jpg')]);
+    await page.getByRole('progressbar', { name: 'Upload of deck-left.jpg' }).waitFor();
+    await page.getByRole('progressbar', { name: 'Upload of deck-right.jpg' }).waitFor();
+    await expect(page.locator('progress').count()).resolves.toBe(2);
+    await page.getByRole('button', { name: 'Open photo 2 of 2 full size' }).waitFor();
+    await expect(page.getByText('Uploaded', { exact: true }).count()).resolves.toBe(2);
+    const thumbs = page.getByTestId('job-photo-thumb');
+    await expect(thumbs.count()).resolves.toBe(2);
+    await page.waitForFunction(() => [...document.querySelectorAll<HTMLImageElement>('[data-testid="job-photo-thumb"]')].every((img) => img.complete && img.naturalWidth > 0));
+
+    // The full-size view: a dialog; arrows step, Tab stays inside, Escape closes and focus comes back.
+    const first = page.getByRole('button', { name: 'Open photo 1 of 2 full size' });
+    await first.click();
+    const viewer = page.getByRole('dialog', { name: 'Photo 1 of 2' });
+    await viewer.waitFor();
+    await page.waitForFunction(() => {
+      const img = document.querySelector<HTMLImageElement>('dialog[open] img');
+      return Boolean(img?.complete && img.naturalWidth > 0);
+    });
+    await page.screenshot({ path: join(artifactsDir, 'job-photo-viewer.png') });
+    await page.keyboard.press('ArrowRight');
+    await page.getByRole('dialog', { name: 'Photo 2 of 2' }).waitFor();
+    for (let i = 0; i < 5; i += 1) await page.keyboard.press('Tab');
+    await expect(page.evaluate(() => Boolean(document.activeElement?.closest('dialog[open]')))).resolves.toBe(true);
+    await page.keyboard.press('ArrowLeft');
+    await viewer.waitFor();
+    await page.keyboard.press('Escape');
+    await viewer.waitFor({ state: 'hidden' });
+    await expect(page.evaluate(() => document.activeElement?.getAttribute('aria-label'))).resolves.toBe('Open photo 1 of 2 full size');
+    await page.screenshot({ path: join(artifactsDir, 'job-detail-owner.png'), fullPage: true });
+
+    await page.getByRole('button', { name: 'Publish' }).click();
+    await page.getByText('Status: Open for bids', { exact: true }).waitFor();
+
+    // Three shops bid through the API (the shop pages are built separately).
+    const [lantern, kess, quarry] = await Promise.all([
+      apiAs(lanternHill),
+      apiAs(kessrow),
+      apiAs({ signUp: { displayName: 'Quarry Bend Machining', email: uniqueEmail('quarry-bend'), role: 'shop' } }),
+    ]);
+    await shopBids(lantern, jobId, { name: 'Lantern Hill Machine Works', city: 'Dayton', capabilities: ['clean', 'bore', 'hone', 'deck'] }, {
+      lineItems: [
+        { operation: 'bore', description: 'Bore', quantity: 8, unitPriceCents: 3500 },
+        { operation: 'hone', description: 'Hone', quantity: 8, unitPriceCents: 2500 },
+        { operation: 'deck', description: 'Deck', quantity: 1, unitPriceCents: 18000 },
+      ],
+      turnaroundDays: 9,
+      note: 'Torque plate on hand for the final hone.',
+    });
+    await shopBids(kess, jobId, { name: 'Kessrow Bore & Deck', region: 'Indiana', city: 'Muncie', capabilities: ['bore', 'hone'], rateCard: [] }, {
+      lineItems: [
+        { operation: 'bore', description: 'Bore and hone', quantity: 8, unitPriceCents: 7000 },
+        { operation: 'deck', description: 'Deck (sent out)', quantity: 1, unitPriceCents: 22000 },
+      ],
+      turnaroundDays: 6,
+    });
+    await shopBids(quarry, jobId, { name: 'Quarry Bend Machining', region: 'Kentucky', city: 'Lexington' }, { turnaroundDays: 25 });
+
+    await page.reload();
+    const bids = page.getByRole('list', { name: 'Bids on this job' });
+    await bids.waitFor();
+    await expect(page.getByTestId('bid-card').count()).resolves.toBe(3);
+    const card = (shop: string) => page.getByTestId('bid-card').filter({ hasText: shop });
+    // $280 + $200 + $180 = $660.00 for Lantern Hill.
+    await expect(card('Lantern Hill Machine Works').getByTestId('bid-total').textContent()).resolves.toBe('$660.00');
+    await expect(card('Lantern Hill Machine Works').getByText('100%').isVisible()).resolves.toBe(true);
+    await expect(card('Kessrow Bore & Deck').getByText('67%').isVisible()).resolves.toBe(true);
+    await expect(card('Kessrow Bore & Deck').getByText('Quickest').isVisible()).resolves.toBe(true);
+    await expect(card('Quarry Bend Machining').getByText('No reviews yet').isVisible()).resolves.toBe(true);
+    await card('Lantern Hill Machine Works').locator('summary').click();
+    await expect(card('Lantern Hill Machine Works').getByRole('cell', { name: '$180.00' }).first().isVisible()).resolves.toBe(true);
+
+    // Decline one with a reason.
+    await page.getByRole('button', { name: 'Decline the bid from Quarry Bend Machining' }).click();
+    const declineDialog = page.getByRole('dialog', { name: 'Decline the bid from Quarry Bend Machining?' });
+    await declineDialog.getByLabel('Reason, optional').fill('Five weeks is too long for my build.');
+    await declineDialog.getByRole('button', { name: 'Decline bid' }).click();
+    await declineDialog.waitFor({ state: 'hidden' });
+    await card('Quarry Bend Machining').getByText('Declined').waitFor();
+    await page.screenshot({ path: join(artifactsDir, 'bid-comparison.png'), fullPage: true });
+
+    await page.setViewportSize({ width: 1280, height: 900 });
+    const table = page.getByRole('table', { name: 'Bids on this job, side by side' });
+    await table.waitFor();
+    await expect(table.getByTestId('bid-row').count()).resolves.toBe(3);
+    await page.screenshot({ path: join(artifactsDir, 'bid-comparison-1280.png'), fullPage: true });
+    await page.setViewportSize({ width: 768, height: 1024 });
+
+    // Accept: the confirm step says the other open bid will be declined.
+    await page.getByRole('button', { name: 'Accept the bid from Lantern Hill Machine Works' }).click();
+    const acceptDialog = page.getByRole('dialog', { name: 'Accept the bid from Lantern Hill Machine Works?' });
+    await expect(acceptDialog.textContent()).resolves.toContain('The other open bid will be declined and its shop told.');
+    await acceptDialog.getByRole('button', { name: 'Accept this bid' }).click();
+    await acceptDialog.waitFor({ state: 'hidden' });
+    await page.getByText('Status: Awarded', { exact: true }).waitFor();
+    await page.getByText('You accepted the bid from Lantern Hill Machine Works', { exact: true }).waitFor();
+    await card('Lantern Hill Machine Works').getByText('Accepted').waitFor();
+    await card('Kessrow Bore & Deck').getByText('Declined').waitFor();
+    await expect(page.getByRole('button', { name: /^Accept the bid/ }).count()).resolves.toBe(0);
+    await expect(page.getByLabel('Choose photos').count()).resolves.toBe(0);
+
+    // My jobs lists it as awarded; an unused filter shows the empty state.
+    await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'My jobs' }).click();
+    const row = page.getByTestId('my-job').filter({ hasText: 'Bore, hone and deck an iron V8 block' });
+    await row.getByText('Status: Awarded', { exact: true }).waitFor();
+    await page.screenshot({ path: join(artifactsDir, 'my-jobs.png'), fullPage: true });
+    await page.getByLabel('Show').selectOption('in_work');
+    await page.getByText('No jobs with the status “In the shop”').waitFor();
+    expect(page.url()).toBe(url('/jobs?status=in_work'));
+    expect(consoleErrors).toEqual([]);
+  });
+
+  it('when the builder edits an open job that has a bid, then the page warns that the bidder will be told; cancelling asks first', async () => {
+    const job = await builderJob({ title: 'Line hone an aluminium block' }, true);
+    await shopBids(await apiAs(lanternHill), job.id, {}, {});
+
+    await signIn(builder.email, `/jobs/${job.id}/edit`);
+    await page.getByText('When you save, the 1 shop that bid will be told by e-mail').waitFor();
+    await page.screenshot({ path: join(artifactsDir, 'job-edit-open.png') });
+    await expect(page.getByLabel('Job title').inputValue()).resolves.toBe('Line hone an aluminium block');
+    await expect(page.getByLabel('Stock bore (in)').inputValue()).resolves.toBe('4');
+    await page.getByLabel('Job title').fill('Line hone and deck an aluminium block');
+    await page.getByRole('button', { name: 'Save changes' }).click();
+    await page.getByRole('heading', { level: 1, name: 'Line hone and deck an aluminium block' }).waitFor();
+
+    await page.getByRole('button', { name: 'Cancel job' }).click();
+    const confirm = page.getByRole('dialog', { name: 'Cancel this job?' });
+    await expect(confirm.textContent()).resolves.toContain('Shops that bid are told');
+    await confirm.getByRole('button', { name: 'Keep the job' }).click();
+    await confirm.waitFor({ state: 'hidden' });
+    await expect(page.getByText('Status: Open for bids', { exact: true }).isVisible()).resolves.toBe(true);
+    await page.getByRole('button', { name: 'Cancel job' }).click();
+    await confirm.getByRole('button', { name: 'Cancel the job' }).click();
+    await page.getByText('Status: Cancelled', { exact: true }).waitFor();
+    await expect(page.getByRole('link', { name: 'Edit' }).count()).resolves.toBe(0);
+    expect(consoleErrors).toEqual([]);
+  });
+
+  it('when a job has a photo, then My jobs shows it as the thumbnail beside the title', async () => {
+    const job = await builderJob({ title: 'A job with a photo of its deck' }, false, join(photoDir, 'deck-left.jpg'));
+    await signIn(builder.email, '/jobs');
+    const row = page.getByTestId('my-job').filter({ hasText: job.title });
+    await row.waitFor();
+    await expect(row.locator('img').count()).resolves.toBe(1);
+    await page.waitForFunction((title) => {
+      const item = [...document.querySelectorAll('[data-testid="my-job"]')].find((li) => li.textContent?.includes(title));
+      const img = item?.querySelector('img');
+      return Boolean(img?.complete && img.naturalWidth > 0);
+    }, job.title);
+  });
+
+  it("when another builder opens someone else's job, then a clear message says why instead of the job", async () => {
+    const [draft, open] = await Promise.all([builderJob({ title: 'A draft nobody else sees' }, false), builderJob({ title: 'An open job of Juno’s' }, true)]);
+    await signIn(otherBuilder.email, '/dashboard');
+
+    await page.goto(url(`/jobs/${draft.id}`));
+    await page.getByText('No such job').waitFor();
+    await expect(page.getByText('A draft nobody else sees').count()).resolves.toBe(0);
+
+    await page.goto(url(`/jobs/${open.id}`));
+    await page.getByText('You cannot open this job', { exact: true }).waitFor();
+    await expect(page.getByRole('alert').textContent()).resolves.toContain('This job is not yours to see.');
+    await page.screenshot({ path: join(artifactsDir, 'job-not-yours.png') });
+    await expect(page.getByText('An open job of Juno’s').count()).resolves.toBe(0);
+  });
+});
