@@ -15,6 +15,8 @@ import { errorHandler, notFoundApi } from './lib/errors';
 import { adminRouter } from './modules/admin/admin.routes';
 import { authRouter } from './modules/auth/auth.routes';
 import { bidsRouter } from './modules/bids/bids.routes';
+import { messagesRouter } from './modules/messages/messages.routes';
+import { RealtimeHub } from './realtime/hub';
 import { jobsRouter } from './modules/jobs/jobs.routes';
 import { shopsRouter } from './modules/shops/shops.routes';
 import { createSessionStore } from './lib/session-store';
@@ -82,8 +84,7 @@ export function createApp(deps: AppDeps) {
 
   const store = createSessionStore(pool);
   const secure = config.appUrl.startsWith('https://');
-  app.use(
-    session({
+  const sessionMiddleware = session({
       name: SESSION_COOKIE,
       secret: config.sessionSecret,
       store,
@@ -92,8 +93,8 @@ export function createApp(deps: AppDeps) {
       rolling: true,
       proxy: true,
       cookie: { httpOnly: true, sameSite: 'lax', secure, maxAge: 14 * 24 * 60 * 60_000, path: '/' },
-    }),
-  );
+    });
+  app.use(sessionMiddleware);
 
   const passport = createPassport({ db, appUrl: config.appUrl, github: config.github });
   app.use(passport.initialize());
@@ -118,9 +119,11 @@ export function createApp(deps: AppDeps) {
 
   app.use('/api/calculations', calculationsRouter({ db, perMinute: config.rateLimits.calculationsPerMinute }));
   const storage = deps.storage ?? new LocalDiskStorage(config.uploadsDir);
+  const hub = new RealtimeHub();
   app.use('/api', shopsRouter({ db }));
-  app.use('/api', jobsRouter({ db, appUrl: config.appUrl, storage }));
-  app.use('/api', bidsRouter({ db, appUrl: config.appUrl }));
+  app.use('/api', jobsRouter({ db, appUrl: config.appUrl, storage, hub }));
+  app.use('/api', bidsRouter({ db, appUrl: config.appUrl, hub }));
+  app.use('/api', messagesRouter({ db, hub, messagesPer10s: config.rateLimits.messagesPer10s }));
   app.use('/api/admin', adminRouter({ db, appUrl: config.appUrl }));
 
   app.get('/api/openapi.json', (_req, res) => {
@@ -144,7 +147,7 @@ export function createApp(deps: AppDeps) {
   }
 
   app.use(errorHandler);
-  return Object.assign(app, { sessionStore: store });
+  return Object.assign(app, { sessionStore: store, sessionMiddleware, hub });
 }
 
 export type App = ReturnType<typeof createApp>;

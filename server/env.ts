@@ -33,6 +33,7 @@ const schema = z
     RATE_LIMIT_SIGNIN_MAX: z.coerce.number().int().positive().default(10),
     RATE_LIMIT_SIGNUP_MAX: z.coerce.number().int().positive().default(20),
     RATE_LIMIT_CALCULATIONS_PER_MINUTE: z.coerce.number().int().positive().default(120),
+    RATE_LIMIT_MESSAGES_PER_10S: z.coerce.number().int().positive().default(20),
   })
   .superRefine((value, ctx) => {
     if (value.NODE_ENV === 'production' && !value.SESSION_SECRET) {
@@ -75,7 +76,7 @@ export interface AppConfig {
   maildevWebPort: number;
   github: GithubConfig;
   githubStandInPort: number;
-  rateLimits: { signInMax: number; signUpMax: number; calculationsPerMinute: number };
+  rateLimits: { signInMax: number; signUpMax: number; calculationsPerMinute: number; messagesPer10s: number };
 }
 
 export function loadConfig(source: NodeJS.ProcessEnv = process.env): AppConfig {
@@ -132,6 +133,7 @@ export function loadConfig(source: NodeJS.ProcessEnv = process.env): AppConfig {
       signInMax: env.RATE_LIMIT_SIGNIN_MAX,
       signUpMax: env.RATE_LIMIT_SIGNUP_MAX,
       calculationsPerMinute: env.RATE_LIMIT_CALCULATIONS_PER_MINUTE,
+      messagesPer10s: env.RATE_LIMIT_MESSAGES_PER_10S,
     },
   };
 }

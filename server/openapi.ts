@@ -13,6 +13,7 @@ import { bidInputSchema, declineBidSchema } from '../shared/schemas/bids';
 import { calculationRequestSchemas } from '../shared/schemas/calculations';
 import { uuidSchema } from '../shared/schemas/common';
 import { boardQuerySchema, jobInputSchema, myJobsQuerySchema } from '../shared/schemas/jobs';
+import { historyQuerySchema, markReadSchema, openThreadSchema, sendMessageSchema } from '../shared/schemas/messages';
 import { shopDirectoryQuerySchema, shopProfileSchema } from '../shared/schemas/shops';
 
 /**
@@ -20,7 +21,7 @@ import { shopDirectoryQuerySchema, shopProfileSchema } from '../shared/schemas/s
  * parse with. tests/api/openapi.test.ts checks it lists every route the
  * Express router has, and nothing it lacks.
  */
-type Access = 'public' | 'signed-in' | 'builder' | 'shop' | 'admin' | 'builder, shop or admin';
+type Access = 'public' | 'signed-in' | 'builder' | 'shop' | 'admin' | 'builder or shop';
 
 interface RouteDoc {
   method: 'get' | 'post' | 'put' | 'delete';
@@ -47,6 +48,7 @@ const errorSchema = z.object({
 const jobId = z.object({ jobId: uuidSchema });
 const bidId = z.object({ bidId: uuidSchema });
 const shopId = z.object({ shopId: uuidSchema });
+const threadId = z.object({ threadId: uuidSchema });
 const photo = z.object({ jobId: uuidSchema, photoId: uuidSchema });
 const photoSized = photo.extend({ size: z.enum(['thumb', 'large']) });
 
@@ -98,6 +100,12 @@ export const routeDocs: RouteDoc[] = [
   { method: 'post', path: '/api/bids/{bidId}/withdraw', summary: 'Withdraw an active bid', tag: 'Bids', access: 'shop', params: bidId },
   { method: 'post', path: '/api/bids/{bidId}/accept', summary: 'Accept a bid: the job is awarded and every other bid declined', tag: 'Bids', access: 'builder', params: bidId },
   { method: 'post', path: '/api/bids/{bidId}/decline', summary: 'Decline a bid', tag: 'Bids', access: 'builder', params: bidId, body: declineBidSchema },
+  { method: 'get', path: '/api/threads', summary: 'The signed-in person’s conversations with unread counts', tag: 'Messages', access: 'signed-in' },
+  { method: 'get', path: '/api/jobs/{jobId}/threads', summary: 'A job’s conversations the person may read', tag: 'Messages', access: 'signed-in', params: jobId },
+  { method: 'post', path: '/api/jobs/{jobId}/threads', summary: 'Open (or find) the conversation between the job’s builder and a shop', tag: 'Messages', access: 'builder or shop', params: jobId, body: openThreadSchema, ok: { status: 201, description: 'The conversation' } },
+  { method: 'get', path: '/api/threads/{threadId}/messages', summary: 'Message history, newest first, paged by cursor', tag: 'Messages', access: 'signed-in', params: threadId, query: historyQuerySchema },
+  { method: 'post', path: '/api/threads/{threadId}/messages', summary: 'Send a message (a repeated clientId returns the stored one); live clients use the socket', tag: 'Messages', access: 'builder or shop', params: threadId, body: sendMessageSchema, ok: { status: 201, description: 'Stored and delivered' } },
+  { method: 'post', path: '/api/threads/{threadId}/read', summary: 'Mark the conversation read up to a message', tag: 'Messages', access: 'signed-in', params: threadId, body: markReadSchema },
   { method: 'get', path: '/api/admin/users', summary: 'Search accounts', tag: 'Admin', access: 'admin', query: userSearchSchema },
   { method: 'post', path: '/api/admin/admins', summary: 'Make another administrator', tag: 'Admin', access: 'admin', body: createAdminSchema, ok: { status: 201, description: 'Created; a link to choose a password is mailed' } },
   { method: 'get', path: '/api/openapi.json', summary: 'This description', tag: 'Health', access: 'public' },
@@ -122,7 +130,7 @@ function toRouteConfig(doc: RouteDoc): RouteConfig {
       [ok.status]: { description: ok.description },
       400: { description: 'Input not valid; a message per field', content: { 'application/json': { schema: errorSchema } } },
       ...(doc.access !== 'public' ? { 401: { description: 'Not signed in', content: { 'application/json': { schema: errorSchema } } } } : {}),
-      ...(['builder', 'shop', 'admin', 'signed-in'].includes(doc.access) ? { 403: { description: 'Not allowed for this account', content: { 'application/json': { schema: errorSchema } } } } : {}),
+      ...(['builder', 'shop', 'admin', 'signed-in', 'builder or shop'].includes(doc.access) ? { 403: { description: 'Not allowed for this account', content: { 'application/json': { schema: errorSchema } } } } : {}),
       429: { description: 'Too many requests', content: { 'application/json': { schema: errorSchema } } },
     },
   };

@@ -6,11 +6,14 @@ import type { AppConfig } from './env';
 import { createLogger } from './lib/logger';
 import { createOutboxWorker } from './lib/mail/outbox';
 import { createTransport } from './lib/mail/transport';
+import { startDigestWorker } from './modules/messages/digest';
+import { attachRealtime } from './realtime/socket-server';
 
 export interface RunningServer {
   server: Server;
   url: string;
   port: number;
+  io: import('socket.io').Server;
   close(): Promise<void>;
 }
 
@@ -34,6 +37,17 @@ export async function startServer(
   });
   const port = (server.address() as AddressInfo).port;
 
+  const io = attachRealtime({
+    server,
+    sessionMiddleware: app.sessionMiddleware,
+    db,
+    pool,
+    hub: app.hub,
+    logger,
+    messagesPer10s: config.rateLimits.messagesPer10s,
+  });
+  const digests = startDigestWorker({ db, appUrl: config.appUrl, logger });
+
   const transport = createTransport(config.smtp);
   const worker = createOutboxWorker({ db, transport, from: config.mailFrom, logger });
   worker.start(options.mailIntervalMs ?? 1_000);
@@ -42,7 +56,10 @@ export async function startServer(
     server,
     port,
     url: `http://localhost:${port}`,
+    io,
     async close() {
+      digests.stop();
+      await new Promise<void>((resolve) => io.close(() => resolve()));
       await worker.stop();
       await new Promise<void>((resolve) => server.close(() => resolve()));
       server.closeAllConnections();

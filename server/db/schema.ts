@@ -1,6 +1,8 @@
 import { sql } from 'drizzle-orm';
 import {
+  bigserial,
   boolean,
+  customType,
   check,
   date,
   index,
@@ -16,6 +18,8 @@ import {
   uuid,
   varchar,
 } from 'drizzle-orm/pg-core';
+
+const customBytea = customType<{ data: Buffer }>({ dataType: () => 'bytea' });
 
 export const userRole = pgEnum('user_role', ['builder', 'shop', 'admin']);
 export const userStatus = pgEnum('user_status', ['active', 'suspended']);
@@ -181,6 +185,7 @@ export const jobs = pgTable(
     city: text().notNull(),
     neededBy: date({ mode: 'string' }).notNull(),
     spec: jsonb().notNull(),
+    /** Bids received and not withdrawn (declined ones still count). */
     bidCount: integer().notNull().default(0),
     awardedBidId: uuid(),
     /** Goes up with every edit, so a bid can say which version of the job it answered. */
@@ -291,6 +296,70 @@ export const bidRevisions = pgTable(
   },
   (t) => [uniqueIndex('bid_revisions_version_idx').on(t.bidId, t.version)],
 );
+
+/** One conversation per job and shop, between the job's builder and that shop. */
+export const threads = pgTable(
+  'threads',
+  {
+    id: uuid().primaryKey().defaultRandom(),
+    jobId: uuid()
+      .notNull()
+      .references(() => jobs.id, { onDelete: 'cascade' }),
+    shopId: uuid()
+      .notNull()
+      .references(() => shops.id),
+    lastMessageAt: timestamp({ withTimezone: true }),
+    createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [uniqueIndex('threads_job_shop_idx').on(t.jobId, t.shopId), index('threads_shop_idx').on(t.shopId, t.lastMessageAt)],
+);
+
+export const messages = pgTable(
+  'messages',
+  {
+    id: uuid().primaryKey().defaultRandom(),
+    threadId: uuid()
+      .notNull()
+      .references(() => threads.id, { onDelete: 'cascade' }),
+    authorId: uuid()
+      .notNull()
+      .references(() => users.id),
+    /** The id the sender's browser made up, so a resend after a reconnect is stored once. */
+    clientId: text().notNull(),
+    body: text().notNull(),
+    /** Millisecond precision, like JavaScript dates, so cursors and read marks compare exactly. */
+    createdAt: timestamp({ withTimezone: true, precision: 3 }).notNull().defaultNow(),
+  },
+  (t) => [
+    uniqueIndex('messages_author_client_idx').on(t.authorId, t.clientId),
+    index('messages_thread_idx').on(t.threadId, t.createdAt.desc(), t.id.desc()),
+    check('messages_body_check', sql`char_length(${t.body}) BETWEEN 1 AND 4000`),
+  ],
+);
+
+/** Where each person has read up to in a thread, and up to where they were sent a digest. */
+export const threadReads = pgTable(
+  'thread_reads',
+  {
+    threadId: uuid()
+      .notNull()
+      .references(() => threads.id, { onDelete: 'cascade' }),
+    userId: uuid()
+      .notNull()
+      .references(() => users.id, { onDelete: 'cascade' }),
+    lastReadAt: timestamp({ withTimezone: true }),
+    lastReadMessageId: uuid(),
+    digestedThrough: timestamp({ withTimezone: true }),
+  },
+  (t) => [primaryKey({ columns: [t.threadId, t.userId] })],
+);
+
+/** Payloads the socket.io PostgreSQL adapter cannot fit in a NOTIFY (over 8 kB, or binary). */
+export const socketIoAttachments = pgTable('socket_io_attachments', {
+  id: bigserial({ mode: 'number' }).unique(),
+  createdAt: timestamp({ withTimezone: true }).defaultNow(),
+  payload: customBytea(),
+});
 
 export type User = typeof users.$inferSelect;
 export type Role = (typeof userRole.enumValues)[number];

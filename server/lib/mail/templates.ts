@@ -175,3 +175,15 @@ export function matchingJobMail(input: { shopName: string; jobTitle: string; sum
     footnote: 'You get these because your shop profile asks for matching jobs. Turn them off there at any time.',
   });
 }
+
+export function unreadDigestMail(input: { displayName: string; otherName: string; jobTitle: string; unread: number; url: string }): RenderedMail {
+  const count = input.unread === 1 ? 'a message' : `${input.unread} messages`;
+  return render({
+    template: 'unread_digest',
+    subject: `${input.otherName} sent you ${count} about “${input.jobTitle}”`,
+    greeting: `Hello ${input.displayName},`,
+    paragraphs: [`You have ${count} from ${input.otherName} about “${input.jobTitle}” waiting unread.`],
+    action: { label: 'Read and reply', url: input.url },
+    footnote: 'We send one reminder per conversation, not one per message.',
+  });
+}

@@ -1,15 +1,22 @@
-import { Router } from 'express';
+import { Router, type Request } from 'express';
 import { z } from 'zod';
 import { bidInputSchema, declineBidSchema } from '../../../shared/schemas/bids';
 import { uuidSchema } from '../../../shared/schemas/common';
 import { currentUser, requireRole, requireUser } from '../../lib/auth/guards';
+import type { JobChange, RealtimeHub } from '../../realtime/hub';
 import { acceptBid, bidsForJob, bidsOfShop, bidWithHistory, createBid, declineBid, reviseBid, withdrawBid, type BidDeps } from './bids.service';
 
 const jobParams = z.object({ jobId: uuidSchema });
 const bidParams = z.object({ bidId: uuidSchema });
 
-export function bidsRouter(deps: BidDeps) {
+export function bidsRouter(deps: BidDeps & { hub: RealtimeHub }) {
   const router = Router();
+  /** The answer for the person who asked, and a nudge to every open page of the job. */
+  const answer = async (req: Request, bidId: string, change: JobChange) => {
+    const result = await bidWithHistory(deps, currentUser(req), bidId);
+    deps.hub.jobChanged(result.bid.jobId, change);
+    return result;
+  };
 
   router.get('/jobs/:jobId/bids', requireUser, async (req, res) => {
     const { jobId } = jobParams.parse(req.params);
@@ -19,7 +26,7 @@ export function bidsRouter(deps: BidDeps) {
   router.post('/jobs/:jobId/bids', requireRole('shop'), async (req, res) => {
     const { jobId } = jobParams.parse(req.params);
     const bidId = await createBid(deps, currentUser(req), jobId, bidInputSchema.parse(req.body));
-    res.status(201).json(await bidWithHistory(deps, currentUser(req), bidId));
+    res.status(201).json(await answer(req, bidId, 'bid_placed'));
   });
 
   router.get('/bids/mine', requireRole('shop'), async (req, res) => {
@@ -34,26 +41,26 @@ export function bidsRouter(deps: BidDeps) {
   router.put('/bids/:bidId', requireRole('shop'), async (req, res) => {
     const { bidId } = bidParams.parse(req.params);
     await reviseBid(deps, currentUser(req), bidId, bidInputSchema.parse(req.body));
-    res.json(await bidWithHistory(deps, currentUser(req), bidId));
+    res.json(await answer(req, bidId, 'bid_revised'));
   });
 
   router.post('/bids/:bidId/withdraw', requireRole('shop'), async (req, res) => {
     const { bidId } = bidParams.parse(req.params);
     await withdrawBid(deps, currentUser(req), bidId);
-    res.json(await bidWithHistory(deps, currentUser(req), bidId));
+    res.json(await answer(req, bidId, 'bid_withdrawn'));
   });
 
   router.post('/bids/:bidId/accept', requireRole('builder'), async (req, res) => {
     const { bidId } = bidParams.parse(req.params);
     await acceptBid(deps, currentUser(req), bidId);
-    res.json(await bidWithHistory(deps, currentUser(req), bidId));
+    res.json(await answer(req, bidId, 'bid_accepted'));
   });
 
   router.post('/bids/:bidId/decline', requireRole('builder'), async (req, res) => {
     const { bidId } = bidParams.parse(req.params);
     const { reason } = declineBidSchema.parse(req.body);
     await declineBid(deps, currentUser(req), bidId, reason);
-    res.json(await bidWithHistory(deps, currentUser(req), bidId));
+    res.json(await answer(req, bidId, 'bid_declined'));
   });
 
   return router;

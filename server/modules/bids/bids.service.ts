@@ -188,8 +188,8 @@ export async function declineBid(deps: BidDeps, user: User, bidId: string, reaso
   await deps.db.transaction(async (tx) => {
     const { bid, job } = await builderBid(tx, user, bidId);
     if (bid.status !== 'active') throw conflict('This bid is no longer active.', 'bid_not_active');
+    // The bid count is bids received and not withdrawn: a declined bid still counts.
     await tx.update(bids).set({ status: 'declined', decidedAt: new Date(), declineReason: reason || null, updatedAt: new Date() }).where(eq(bids.id, bid.id));
-    await tx.update(jobs).set({ bidCount: sql`greatest(${jobs.bidCount} - 1, 0)` }).where(eq(jobs.id, job.id));
     const shop = await shopContact(tx, bid.shopId);
     await enqueueMail(tx, shop.email, bidDeclinedMail({ shopName: shop.name, jobTitle: job.title, reason, url: `${deps.appUrl}/board` }));
   });

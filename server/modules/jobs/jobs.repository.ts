@@ -35,7 +35,8 @@ export async function findJob(db: Executor, id: string, options: { forUpdate?: b
   return row;
 }
 
-const firstPhotoId = sql<string | null>`(SELECT p.id FROM job_photos p WHERE p.job_id = ${jobs.id} ORDER BY p.position, p.created_at LIMIT 1)`;
+// Written out in full: inside a subquery an unqualified "id" would mean the photo's own id.
+const firstPhotoId = sql<string | null>`(SELECT p.id FROM job_photos p WHERE p.job_id = "jobs"."id" ORDER BY p.position, p.created_at LIMIT 1)`;
 
 const summaryColumns = {
   id: jobs.id,

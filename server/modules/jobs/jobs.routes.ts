@@ -5,6 +5,7 @@ import { uuidSchema } from '../../../shared/schemas/common';
 import { boardQuerySchema, jobInputSchema, myJobsQuerySchema } from '../../../shared/schemas/jobs';
 import { currentUser, requireRole, requireUser } from '../../lib/auth/guards';
 import { AppError } from '../../lib/errors';
+import type { RealtimeHub } from '../../realtime/hub';
 import { boardPage, jobsOfBuilder } from './jobs.repository';
 import {
   addPhotos,
@@ -45,7 +46,7 @@ const receivePhotos: RequestHandler = (req, res, next) => {
 const jobParams = z.object({ jobId: uuidSchema });
 const photoParams = z.object({ jobId: uuidSchema, photoId: uuidSchema, size: z.enum(['thumb', 'large'], { error: 'Ask for thumb or large.' }) });
 
-export function jobsRouter(deps: JobDeps) {
+export function jobsRouter(deps: JobDeps & { hub: RealtimeHub }) {
   const router = Router();
 
   router.get('/jobs', requireRole('shop', 'admin'), async (req, res) => {
@@ -72,25 +73,30 @@ export function jobsRouter(deps: JobDeps) {
   router.put('/jobs/:jobId', requireRole('builder'), async (req, res) => {
     const { jobId } = jobParams.parse(req.params);
     const job = await updateJob(deps, currentUser(req), jobId, jobInputSchema.parse(req.body));
+    deps.hub.jobChanged(jobId, 'job_updated');
     res.json({ job: await jobDetail(deps, job, currentUser(req)) });
   });
 
   router.post('/jobs/:jobId/publish', requireRole('builder'), async (req, res) => {
     const { jobId } = jobParams.parse(req.params);
     const job = await publishJob(deps, currentUser(req), jobId);
+    deps.hub.jobChanged(jobId, 'job_published');
     res.json({ job: await jobDetail(deps, job, currentUser(req)) });
   });
 
   router.post('/jobs/:jobId/cancel', requireRole('builder'), async (req, res) => {
     const { jobId } = jobParams.parse(req.params);
     const job = await cancelJob(deps, currentUser(req), jobId);
+    deps.hub.jobChanged(jobId, 'job_cancelled');
     res.json({ job: await jobDetail(deps, job, currentUser(req)) });
   });
 
   router.post('/jobs/:jobId/photos', requireRole('builder'), receivePhotos, async (req, res) => {
     const { jobId } = jobParams.parse(req.params);
     const files = (req.files as Express.Multer.File[] | undefined) ?? [];
-    res.status(201).json({ photos: await addPhotos(deps, currentUser(req), jobId, files) });
+    const photos = await addPhotos(deps, currentUser(req), jobId, files);
+    deps.hub.jobChanged(jobId, 'photos_changed');
+    res.status(201).json({ photos });
   });
 
   router.get('/jobs/:jobId/photos/:photoId/:size', requireUser, async (req, res) => {
@@ -102,6 +108,7 @@ export function jobsRouter(deps: JobDeps) {
   router.delete('/jobs/:jobId/photos/:photoId', requireRole('builder'), async (req, res) => {
     const { jobId, photoId } = photoParams.omit({ size: true }).parse(req.params);
     await removePhoto(deps, currentUser(req), jobId, photoId);
+    deps.hub.jobChanged(jobId, 'photos_changed');
     res.status(204).end();
   });
 

@@ -171,7 +171,7 @@ export async function cancelJob(deps: JobDeps, user: User, jobId: string): Promi
       .where(and(eq(bids.jobId, job.id), inArray(bids.status, ['active', 'accepted'])));
     const [cancelled] = await tx
       .update(jobs)
-      .set({ status: 'cancelled', cancelledAt: new Date(), bidCount: 0, awardedBidId: null, updatedAt: new Date() })
+      .set({ status: 'cancelled', cancelledAt: new Date(), awardedBidId: null, updatedAt: new Date() })
       .where(eq(jobs.id, job.id))
       .returning();
     for (const shop of affected) await enqueueMail(tx, shop.email, jobCancelledMail({ shopName: shop.shopName, jobTitle: job.title }));

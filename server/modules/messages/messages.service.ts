@@ -1,0 +1,246 @@
+import { and, desc, eq, lt, or, sql } from 'drizzle-orm';
+import type { HistoryPage, Message, ThreadSummary } from '../../../shared/schemas/messages';
+import type { Database, Executor } from '../../db/client';
+import { bids, jobs, messages, shops, threadReads, threads, users, type User } from '../../db/schema';
+import { AppError, conflict, forbidden, notFound } from '../../lib/errors';
+import { findJob, type JobRow } from '../jobs/jobs.repository';
+import { findShopByUser } from '../shops/shops.repository';
+
+type ThreadRow = typeof threads.$inferSelect;
+
+export interface ThreadAccess {
+  thread: ThreadRow;
+  job: JobRow;
+  /** The two people in the conversation. */
+  builderId: string;
+  shopUserId: string;
+  canWrite: boolean;
+}
+
+const CLOSED_STATUSES = new Set(['cancelled', 'resolved']);
+
+/**
+ * Whether the thread can take new messages: never once the job is closed;
+ * after the award only the thread with the winning shop goes on.
+ */
+async function writable(db: Executor, job: JobRow, thread: ThreadRow): Promise<boolean> {
+  if (CLOSED_STATUSES.has(job.status)) return false;
+  if (!job.awardedBidId) return true;
+  const [awarded] = await db.select({ shopId: bids.shopId }).from(bids).where(eq(bids.id, job.awardedBidId));
+  return awarded?.shopId === thread.shopId;
+}
+
+/** The thread if this person may read it: the job's builder, the thread's shop, or an admin (read only). */
+export async function threadFor(db: Executor, threadId: string, user: User): Promise<ThreadAccess> {
+  const [thread] = await db.select().from(threads).where(eq(threads.id, threadId));
+  if (!thread) throw notFound('No conversation with that id.');
+  const job = await findJob(db, thread.jobId);
+  const [shop] = await db.select({ userId: shops.userId }).from(shops).where(eq(shops.id, thread.shopId));
+  if (!job || !shop) throw notFound('No conversation with that id.');
+  const isParty = user.id === job.builderId || user.id === shop.userId;
+  if (!isParty && user.role !== 'admin') throw notFound('No conversation with that id.');
+  return {
+    thread,
+    job,
+    builderId: job.builderId,
+    shopUserId: shop.userId,
+    canWrite: isParty && (await writable(db, job, thread)),
+  };
+}
+
+/**
+ * The conversation between a job's builder and one shop, made on first use.
+ * A shop may open one on a job it can see (to ask a question); the builder
+ * may open one with a shop that bid.
+ */
+export async function openThread(db: Database, user: User, jobId: string, shopId?: string): Promise<ThreadRow> {
+  const job = await findJob(db, jobId);
+  if (!job || (job.status === 'draft' && job.builderId !== user.id)) throw notFound('No job with that id.');
+  let targetShopId: string;
+  if (user.role === 'shop') {
+    const shop = await findShopByUser(db, user.id);
+    if (!shop) throw conflict('Set up your shop profile before you write to builders.', 'no_shop_profile');
+    if (shopId && shopId !== shop.id) throw forbidden('A shop can only open its own conversation.');
+    const [bid] = await db.select({ id: bids.id }).from(bids).where(and(eq(bids.jobId, job.id), eq(bids.shopId, shop.id))).limit(1);
+    if (job.status !== 'open' && !bid) throw forbidden('This job is not taking questions.');
+    targetShopId = shop.id;
+  } else if (user.role === 'builder') {
+    if (job.builderId !== user.id) throw forbidden('Only the builder who posted this job can write about it.');
+    if (!shopId) throw new AppError('invalid_input', 'Say which shop to write to.', 400, { shopId: 'Choose a shop.' });
+    const [bid] = await db.select({ id: bids.id }).from(bids).where(and(eq(bids.jobId, job.id), eq(bids.shopId, shopId))).limit(1);
+    const [existing] = await db.select().from(threads).where(and(eq(threads.jobId, job.id), eq(threads.shopId, shopId)));
+    if (existing) return existing;
+    if (!bid) throw conflict('You can write to shops that bid on this job or asked about it.', 'no_bid');
+    targetShopId = shopId;
+  } else {
+    throw forbidden('Administrators read conversations; they do not start them.');
+  }
+  await db.insert(threads).values({ jobId: job.id, shopId: targetShopId }).onConflictDoNothing();
+  const [thread] = await db.select().from(threads).where(and(eq(threads.jobId, job.id), eq(threads.shopId, targetShopId)));
+  return thread;
+}
+
+type MessageRow = typeof messages.$inferSelect & { authorName: string; authorRole: User['role'] };
+
+function toMessage(row: MessageRow): Message {
+  return {
+    id: row.id,
+    threadId: row.threadId,
+    clientId: row.clientId,
+    author: { id: row.authorId, displayName: row.authorName, role: row.authorRole },
+    body: row.body,
+    createdAt: row.createdAt.toISOString(),
+  };
+}
+
+const messageColumns = {
+  id: messages.id,
+  threadId: messages.threadId,
+  authorId: messages.authorId,
+  clientId: messages.clientId,
+  body: messages.body,
+  createdAt: messages.createdAt,
+  authorName: users.displayName,
+  authorRole: users.role,
+};
+
+const encodeCursor = (row: { createdAt: Date; id: string }) => Buffer.from(`${row.createdAt.toISOString()}|${row.id}`).toString('base64url');
+function decodeCursor(cursor: string): { createdAt: Date; id: string } {
+  const [iso, id] = Buffer.from(cursor, 'base64url').toString('utf8').split('|');
+  const createdAt = new Date(iso);
+  if (!id || Number.isNaN(createdAt.getTime()) || !/^[0-9a-f-]{36}$/.test(id)) {
+    throw new AppError('invalid_input', 'That cursor is not valid.', 400, { before: 'That cursor is not valid.' });
+  }
+  return { createdAt, id };
+}
+
+/** A page of messages, newest first, before the cursor. */
+export async function history(db: Database, user: User, threadId: string, before: string | undefined, limit: number): Promise<HistoryPage> {
+  await threadFor(db, threadId, user);
+  const cursor = before ? decodeCursor(before) : undefined;
+  const rows = await db
+    .select(messageColumns)
+    .from(messages)
+    .innerJoin(users, eq(users.id, messages.authorId))
+    .where(
+      cursor
+        ? and(eq(messages.threadId, threadId), or(lt(messages.createdAt, cursor.createdAt), and(eq(messages.createdAt, cursor.createdAt), lt(messages.id, cursor.id))))
+        : eq(messages.threadId, threadId),
+    )
+    .orderBy(desc(messages.createdAt), desc(messages.id))
+    .limit(limit + 1);
+  const page = rows.slice(0, limit);
+  return { messages: page.map(toMessage), nextCursor: rows.length > limit ? encodeCursor(page[page.length - 1]) : null };
+}
+
+/**
+ * Stores a message once: the (author, client id) pair is unique, so a resend
+ * after a reconnect finds the stored message instead of making a second.
+ */
+export async function sendMessage(
+  db: Database,
+  user: User,
+  threadId: string,
+  input: { clientId: string; body: string },
+): Promise<{ message: Message; duplicate: boolean; access: ThreadAccess }> {
+  const access = await threadFor(db, threadId, user);
+  if (!access.canWrite) throw conflict('This conversation is closed to new messages.', 'thread_closed');
+  return db.transaction(async (tx) => {
+    const [inserted] = await tx
+      .insert(messages)
+      .values({ threadId, authorId: user.id, clientId: input.clientId, body: input.body })
+      .onConflictDoNothing({ target: [messages.authorId, messages.clientId] })
+      .returning({ id: messages.id });
+    const id = inserted?.id;
+    const [row] = await tx
+      .select(messageColumns)
+      .from(messages)
+      .innerJoin(users, eq(users.id, messages.authorId))
+      .where(id ? eq(messages.id, id) : and(eq(messages.authorId, user.id), eq(messages.clientId, input.clientId)));
+    if (row.threadId !== threadId) throw conflict('That message id was already used in another conversation.', 'client_id_reused');
+    if (id) {
+      await tx.update(threads).set({ lastMessageAt: row.createdAt }).where(eq(threads.id, threadId));
+      await markReadTx(tx, threadId, user.id, row.id, row.createdAt);
+    }
+    return { message: toMessage(row), duplicate: !id, access };
+  });
+}
+
+async function markReadTx(tx: Executor, threadId: string, userId: string, messageId: string, at: Date) {
+  await tx
+    .insert(threadReads)
+    .values({ threadId, userId, lastReadAt: at, lastReadMessageId: messageId })
+    .onConflictDoUpdate({
+      target: [threadReads.threadId, threadReads.userId],
+      set: { lastReadAt: at, lastReadMessageId: messageId },
+      // Read receipts only move forward.
+      setWhere: sql`${threadReads.lastReadAt} IS NULL OR ${threadReads.lastReadAt} < ${at.toISOString()}::timestamptz`,
+    });
+}
+
+export async function markRead(db: Database, user: User, threadId: string, messageId: string): Promise<{ messageId: string; access: ThreadAccess }> {
+  const access = await threadFor(db, threadId, user);
+  const [message] = await db.select().from(messages).where(and(eq(messages.id, messageId), eq(messages.threadId, threadId)));
+  if (!message) throw notFound('No such message in this conversation.');
+  await markReadTx(db, threadId, user.id, message.id, message.createdAt);
+  return { messageId: message.id, access };
+}
+
+/** Threads the person is part of, newest first, with unread counts. */
+export async function myThreads(db: Database, user: User, jobId?: string): Promise<ThreadSummary[]> {
+  const shop = user.role === 'shop' ? await findShopByUser(db, user.id) : undefined;
+  if (user.role === 'shop' && !shop) return [];
+  const mine =
+    user.role === 'admin'
+      ? jobId
+        ? sql`true`
+        : sql`false`
+      : user.role === 'shop'
+        ? sql`t.shop_id = ${shop!.id}`
+        : sql`j.builder_id = ${user.id}`;
+  const rows = await db.execute<{
+    id: string;
+    job_id: string;
+    job_title: string;
+    shop_id: string;
+    shop_name: string;
+    shop_user_id: string;
+    builder_id: string;
+    builder_name: string;
+    last_message_at: Date | null;
+    unread: number;
+    other_last_read: string | null;
+    open_for_writing: boolean;
+  }>(sql`
+    SELECT t.id, t.job_id, j.title AS job_title, s.id AS shop_id, s.name AS shop_name, s.user_id AS shop_user_id,
+           j.builder_id, b.display_name AS builder_name, t.last_message_at,
+           (SELECT count(*)::int FROM messages m
+              WHERE m.thread_id = t.id AND m.author_id <> ${user.id}
+                AND m.created_at > coalesce(r.last_read_at, '-infinity'::timestamptz)) AS unread,
+           (SELECT o.last_read_message_id FROM thread_reads o WHERE o.thread_id = t.id AND o.user_id <> ${user.id}
+              AND o.user_id IN (j.builder_id, s.user_id) LIMIT 1) AS other_last_read,
+           (j.status NOT IN ('cancelled', 'resolved')
+              AND (j.awarded_bid_id IS NULL OR EXISTS (SELECT 1 FROM bids ab WHERE ab.id = j.awarded_bid_id AND ab.shop_id = t.shop_id))) AS open_for_writing
+    FROM threads t
+    JOIN jobs j ON j.id = t.job_id
+    JOIN shops s ON s.id = t.shop_id
+    JOIN users b ON b.id = j.builder_id
+    LEFT JOIN thread_reads r ON r.thread_id = t.id AND r.user_id = ${user.id}
+    WHERE ${mine} ${jobId ? sql`AND t.job_id = ${jobId}` : sql``}
+    ORDER BY t.last_message_at DESC NULLS LAST, t.created_at DESC`);
+  return rows.rows.map((row) => {
+    const isParty = user.id === row.builder_id || user.id === row.shop_user_id;
+    return {
+      id: row.id,
+      jobId: row.job_id,
+      jobTitle: row.job_title,
+      shop: { id: row.shop_id, name: row.shop_name },
+      builder: { id: row.builder_id, displayName: row.builder_name },
+      lastMessageAt: row.last_message_at ? new Date(row.last_message_at).toISOString() : null,
+      unread: isParty ? Number(row.unread) : 0,
+      // The same rule as writable(), in SQL, so the list costs one statement.
+      canWrite: isParty && row.open_for_writing,
+      otherLastReadMessageId: row.other_last_read,
+    };
+  });
+}

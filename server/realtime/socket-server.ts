@@ -1,0 +1,147 @@
+import { createAdapter } from '@socket.io/postgres-adapter';
+import type { RequestHandler } from 'express';
+import type { Server as HttpServer } from 'node:http';
+import type pg from 'pg';
+import type { Logger } from 'pino';
+import { Server, type Socket } from 'socket.io';
+import { z } from 'zod';
+import { uuidSchema } from '../../shared/schemas/common';
+import { markReadSchema, sendMessageSchema } from '../../shared/schemas/messages';
+import type { Database } from '../db/client';
+import type { User } from '../db/schema';
+import { AppError, zodFields } from '../lib/errors';
+import { PostgresRateLimitStore } from '../lib/rate-limit';
+import { jobForViewer } from '../modules/jobs/jobs.service';
+import { markRead, sendMessage, threadFor } from '../modules/messages/messages.service';
+import { findUserById } from '../modules/users/users.repository';
+import { rooms, type RealtimeHub } from './hub';
+
+export interface RealtimeOptions {
+  server: HttpServer;
+  sessionMiddleware: RequestHandler;
+  db: Database;
+  pool: pg.Pool;
+  hub: RealtimeHub;
+  logger: Logger;
+  /** Messages one person may send in ten seconds. */
+  messagesPer10s: number;
+}
+
+type Ack = (answer: { ok: true; [key: string]: unknown } | { ok: false; error: { code: string; message: string; fields?: Record<string, string> } }) => void;
+
+function failure(error: unknown) {
+  if (error instanceof AppError) return { ok: false as const, error: { code: error.code, message: error.message, ...(error.fields ? { fields: error.fields } : {}) } };
+  if (error instanceof z.ZodError) return { ok: false as const, error: { code: 'invalid_input', message: 'Some of the values are not valid.', fields: zodFields(error) } };
+  return { ok: false as const, error: { code: 'internal', message: 'Something went wrong on our side.' } };
+}
+
+/**
+ * socket.io on the app's HTTP server. A socket connects with the same session
+ * cookie as the pages (no session, no connection), joins its own user room,
+ * and may join only the conversations and job pages its user may read.
+ */
+export function attachRealtime(options: RealtimeOptions): Server {
+  const { db, hub, logger } = options;
+  const io = new Server(options.server, {
+    path: '/socket.io',
+    serveClient: false,
+    // Same origin only: the app and the socket share one host.
+    cors: { origin: false },
+    adapter: createAdapter(options.pool, { errorHandler: (err) => logger.warn({ err }, 'socket.io adapter error') }),
+    connectionStateRecovery: { maxDisconnectionDuration: 2 * 60_000 },
+  });
+  io.engine.use(options.sessionMiddleware);
+
+  io.use((socket, next) => {
+    const session = (socket.request as unknown as { session?: { passport?: { user?: string } } }).session;
+    const userId = session?.passport?.user;
+    if (!userId) return next(Object.assign(new Error('unauthenticated'), { data: { code: 'unauthenticated', message: 'Sign in first.' } }));
+    findUserById(db, userId).then(
+      (user) => {
+        if (!user || user.status !== 'active') return next(Object.assign(new Error('unauthenticated'), { data: { code: 'unauthenticated', message: 'Sign in first.' } }));
+        socket.data.user = user;
+        next();
+      },
+      (error) => next(error as Error),
+    );
+  });
+
+  const limiter = new PostgresRateLimitStore(db, 'messages');
+  limiter.init({ windowMs: 10_000 } as never);
+
+  const threadArg = z.object({ threadId: uuidSchema });
+  const jobArg = z.object({ jobId: uuidSchema });
+
+  io.on('connection', (socket: Socket) => {
+    const user = socket.data.user as User;
+    void socket.join(rooms.user(user.id));
+
+    const handle = <T>(event: string, run: (payload: T) => Promise<Record<string, unknown>>) => {
+      socket.on(event, async (payload: T, ack?: Ack) => {
+        try {
+          const result = await run(payload);
+          if (typeof ack === 'function') ack({ ok: true, ...result });
+        } catch (error) {
+          if (!(error instanceof AppError) && !(error instanceof z.ZodError)) logger.error({ err: error, event }, 'socket handler failed');
+          if (typeof ack === 'function') ack(failure(error));
+        }
+      });
+    };
+
+    handle('thread:join', async (payload) => {
+      const { threadId } = threadArg.parse(payload);
+      const access = await threadFor(db, threadId, user);
+      await socket.join(rooms.thread(threadId));
+      return { canWrite: access.canWrite };
+    });
+
+    handle('thread:leave', async (payload) => {
+      const { threadId } = threadArg.parse(payload);
+      await socket.leave(rooms.thread(threadId));
+      return {};
+    });
+
+    handle('job:watch', async (payload) => {
+      const { jobId } = jobArg.parse(payload);
+      await jobForViewer(db, jobId, user);
+      await socket.join(rooms.job(jobId));
+      return {};
+    });
+
+    handle('job:unwatch', async (payload) => {
+      const { jobId } = jobArg.parse(payload);
+      await socket.leave(rooms.job(jobId));
+      return {};
+    });
+
+    handle('message:send', async (payload) => {
+      const { threadId } = threadArg.parse(payload);
+      const input = sendMessageSchema.parse(payload);
+      const { totalHits } = await limiter.increment(user.id);
+      if (totalHits > options.messagesPer10s) {
+        throw new AppError('too_many_attempts', 'You are sending messages too fast. Wait a few seconds.', 429);
+      }
+      const { message, duplicate, access } = await sendMessage(db, user, threadId, input);
+      if (!duplicate) hub.messageCreated(message, [access.builderId, access.shopUserId].filter((id) => id !== user.id));
+      return { message, duplicate };
+    });
+
+    handle('typing', async (payload) => {
+      const { threadId } = threadArg.parse(payload);
+      if (!socket.rooms.has(rooms.thread(threadId))) throw new AppError('forbidden', 'Join the conversation first.', 403);
+      socket.to(rooms.thread(threadId)).emit('typing', { threadId, userId: user.id, displayName: user.displayName });
+      return {};
+    });
+
+    handle('read', async (payload) => {
+      const { threadId } = threadArg.parse(payload);
+      const { messageId } = markReadSchema.parse(payload);
+      await markRead(db, user, threadId, messageId);
+      hub.readMoved(threadId, user.id, messageId);
+      return {};
+    });
+  });
+
+  hub.io = io;
+  return io;
+}
