@@ -108,7 +108,7 @@ async function builderJob(input: Partial<JobInput>, publish: boolean, photo?: st
 }
 
 describe('a builder posting a job and choosing a shop, in a real browser', () => {
-  it('when the builder fills the form, adds photos, publishes and accepts a bid, then every step shows and the job ends awarded', async () => {
+  it('when the builder posts a job with two photos, a shop finds it on the board and bids, and the builder accepts, then every step shows and the job ends awarded', async () => {
     await signIn(builder.email, '/jobs/new');
     await page.getByRole('heading', { level: 1, name: 'Post a job' }).waitFor();
     const form = page.getByRole('form', { name: 'Job details' });
@@ -227,21 +227,35 @@ describe('a builder posting a job and choosing a shop, in a real browser', () =>
     await page.getByRole('button', { name: 'Publish' }).click();
     await page.getByText('Status: Open for bids', { exact: true }).waitFor();
 
-    // Three shops bid through the API (the shop pages are built separately).
+    // Lantern Hill finds the job on the board and bids through its own browser; two more shops bid through the API.
     const [lantern, kess, quarry] = await Promise.all([
       apiAs(lanternHill),
       apiAs(kessrow),
       apiAs({ signUp: { displayName: 'Quarry Bend Machining', email: uniqueEmail('quarry-bend'), role: 'shop' } }),
     ]);
-    await shopBids(lantern, jobId, { name: 'Lantern Hill Machine Works', city: 'Dayton', capabilities: ['clean', 'bore', 'hone', 'deck'] }, {
-      lineItems: [
-        { operation: 'bore', description: 'Bore', quantity: 8, unitPriceCents: 3500 },
-        { operation: 'hone', description: 'Hone', quantity: 8, unitPriceCents: 2500 },
-        { operation: 'deck', description: 'Deck', quantity: 1, unitPriceCents: 18000 },
-      ],
-      turnaroundDays: 9,
-      note: 'Torque plate on hand for the final hone.',
-    });
+    await lantern.send('PUT', '/api/shop-profile', shopProfileInput({ name: 'Lantern Hill Machine Works', city: 'Dayton', capabilities: ['clean', 'bore', 'hone', 'deck'] }));
+    const shopContext = await browser.newContext({ viewport: { width: 1280, height: 900 } });
+    shopContext.setDefaultTimeout(10_000);
+    const shopPage = await shopContext.newPage();
+    try {
+      await shopPage.goto(url('/signin?returnTo=%2Fboard'));
+      await shopPage.getByLabel('E-mail').fill(lanternHill.email);
+      await shopPage.getByLabel('Password').fill(DEMO_PASSWORD);
+      await shopPage.getByRole('button', { name: 'Sign in' }).click();
+      await shopPage.waitForURL(url('/board'));
+      await shopPage.getByRole('link', { name: 'Bore, hone and deck an iron V8 block' }).first().click();
+      await shopPage.waitForURL(url(`/jobs/${jobId}`));
+      const bidForm = shopPage.getByRole('form', { name: 'Your bid', exact: true });
+      await bidForm.waitFor();
+      // Prefilled from the job's work and the rate card: 8 × $35.00 + 8 × $25.00 + 1 × $180.00.
+      await expect.poll(() => bidForm.getByTestId('bid-running-total').textContent()).toBe('$660.00');
+      await bidForm.getByLabel('Turnaround (working days)').fill('9');
+      await bidForm.getByLabel('Note to the builder (optional)').fill('Torque plate on hand for the final hone.');
+      await bidForm.getByRole('button', { name: 'Send my bid' }).click();
+      await shopPage.getByText('Bid sent. The builder has been told.').waitFor();
+    } finally {
+      await shopContext.close();
+    }
     await shopBids(kess, jobId, { name: 'Kessrow Bore & Deck', region: 'Indiana', city: 'Muncie', capabilities: ['bore', 'hone'], rateCard: [] }, {
       lineItems: [
         { operation: 'bore', description: 'Bore and hone', quantity: 8, unitPriceCents: 7000 },
