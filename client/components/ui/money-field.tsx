@@ -1,5 +1,6 @@
 import { forwardRef, useId, type InputHTMLAttributes, type ReactNode } from 'react';
 import { cn } from '@client/lib/cn';
+import { FieldFrame, useFieldIds } from './field-frame';
 
 export interface MoneyFieldProps extends Omit<InputHTMLAttributes<HTMLInputElement>, 'type'> {
   label: string;
@@ -20,16 +21,10 @@ export const MoneyField = forwardRef<HTMLInputElement, MoneyFieldProps>(function
   { label, hideLabel = false, error, hint, suffix, className, id, ...rest },
   ref,
 ) {
-  const autoId = useId();
-  const inputId = id ?? autoId;
-  const hintId = hint ? `${inputId}-hint` : undefined;
-  const suffixId = suffix ? `${inputId}-suffix` : undefined;
-  const errorId = error ? `${inputId}-error` : undefined;
+  const suffixId = `${useId()}-suffix`;
+  const ids = useFieldIds({ id, hint, error, extra: suffix ? suffixId : undefined });
   return (
-    <div className={cn('flex flex-col gap-1', className)}>
-      <label htmlFor={inputId} className={cn('text-sm font-semibold text-ink', hideLabel && 'sr-only')}>
-        {label}
-      </label>
+    <FieldFrame label={label} hint={hint} error={error} hideLabel={hideLabel} className={className} {...ids}>
       <div className="flex items-center gap-2">
         <div
           className={cn(
@@ -42,12 +37,12 @@ export const MoneyField = forwardRef<HTMLInputElement, MoneyFieldProps>(function
           </span>
           <input
             ref={ref}
-            id={inputId}
+            id={ids.inputId}
             type="text"
             inputMode="decimal"
             autoComplete="off"
             aria-invalid={error ? true : undefined}
-            aria-describedby={[suffixId, hintId, errorId].filter(Boolean).join(' ') || undefined}
+            aria-describedby={ids.describedBy}
             className="w-full min-w-0 rounded-lg bg-transparent py-2 pl-1 pr-3 text-right text-base tabular-nums text-ink placeholder:text-ink-faint"
             {...rest}
           />
@@ -58,16 +53,6 @@ export const MoneyField = forwardRef<HTMLInputElement, MoneyFieldProps>(function
           </span>
         )}
       </div>
-      {hint && !error && (
-        <p id={hintId} className="text-sm text-ink-faint">
-          {hint}
-        </p>
-      )}
-      {error && (
-        <p id={errorId} className="text-sm font-semibold text-fail">
-          {error}
-        </p>
-      )}
-    </div>
+    </FieldFrame>
   );
 });

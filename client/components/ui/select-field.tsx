@@ -1,5 +1,6 @@
-import { forwardRef, useId, type ReactNode, type SelectHTMLAttributes } from 'react';
+import { forwardRef, type ReactNode, type SelectHTMLAttributes } from 'react';
 import { cn } from '@client/lib/cn';
+import { FieldFrame, inputBorder, useFieldIds } from './field-frame';
 
 export interface SelectOption {
   value: string;
@@ -18,24 +19,15 @@ export const SelectField = forwardRef<HTMLSelectElement, SelectFieldProps>(funct
   { label, options, error, hint, className, id, ...rest },
   ref,
 ) {
-  const autoId = useId();
-  const selectId = id ?? autoId;
-  const hintId = hint ? `${selectId}-hint` : undefined;
-  const errorId = error ? `${selectId}-error` : undefined;
+  const ids = useFieldIds({ id, hint, error });
   return (
-    <div className={cn('flex flex-col gap-1', className)}>
-      <label htmlFor={selectId} className="text-sm font-semibold text-ink">
-        {label}
-      </label>
+    <FieldFrame label={label} hint={hint} error={error} className={className} {...ids}>
       <select
         ref={ref}
-        id={selectId}
+        id={ids.inputId}
         aria-invalid={error ? true : undefined}
-        aria-describedby={[hintId, errorId].filter(Boolean).join(' ') || undefined}
-        className={cn(
-          'min-h-11 rounded-lg border bg-white px-3 py-2 text-base text-ink',
-          error ? 'border-fail' : 'border-slate-300 focus:border-slate-600',
-        )}
+        aria-describedby={ids.describedBy}
+        className={cn('min-h-11 rounded-lg border bg-white px-3 py-2 text-base text-ink', inputBorder(error))}
         {...rest}
       >
         {options.map((option) => (
@@ -44,16 +36,6 @@ export const SelectField = forwardRef<HTMLSelectElement, SelectFieldProps>(funct
           </option>
         ))}
       </select>
-      {hint && !error && (
-        <p id={hintId} className="text-sm text-ink-faint">
-          {hint}
-        </p>
-      )}
-      {error && (
-        <p id={errorId} className="text-sm font-semibold text-fail">
-          {error}
-        </p>
-      )}
-    </div>
+    </FieldFrame>
   );
 });

@@ -1,5 +1,6 @@
-import { forwardRef, useId, type ReactNode, type TextareaHTMLAttributes } from 'react';
+import { forwardRef, type ReactNode, type TextareaHTMLAttributes } from 'react';
 import { cn } from '@client/lib/cn';
+import { FieldFrame, inputBorder, useFieldIds } from './field-frame';
 
 export interface TextAreaFieldProps extends TextareaHTMLAttributes<HTMLTextAreaElement> {
   label: string;
@@ -12,37 +13,18 @@ export const TextAreaField = forwardRef<HTMLTextAreaElement, TextAreaFieldProps>
   { label, error, hint, className, id, rows = 4, ...rest },
   ref,
 ) {
-  const autoId = useId();
-  const inputId = id ?? autoId;
-  const hintId = hint ? `${inputId}-hint` : undefined;
-  const errorId = error ? `${inputId}-error` : undefined;
+  const ids = useFieldIds({ id, hint, error });
   return (
-    <div className={cn('flex flex-col gap-1', className)}>
-      <label htmlFor={inputId} className="text-sm font-semibold text-ink">
-        {label}
-      </label>
+    <FieldFrame label={label} hint={hint} error={error} className={className} {...ids}>
       <textarea
         ref={ref}
-        id={inputId}
+        id={ids.inputId}
         rows={rows}
         aria-invalid={error ? true : undefined}
-        aria-describedby={[hintId, errorId].filter(Boolean).join(' ') || undefined}
-        className={cn(
-          'rounded-lg border bg-white px-3 py-2 font-mono text-sm text-ink placeholder:text-ink-faint',
-          error ? 'border-fail' : 'border-slate-300 focus:border-slate-600',
-        )}
+        aria-describedby={ids.describedBy}
+        className={cn('rounded-lg border bg-white px-3 py-2 font-mono text-sm text-ink placeholder:text-ink-faint', inputBorder(error))}
         {...rest}
       />
-      {hint && !error && (
-        <p id={hintId} className="text-sm text-ink-faint">
-          {hint}
-        </p>
-      )}
-      {error && (
-        <p id={errorId} className="text-sm font-semibold text-fail">
-          {error}
-        </p>
-      )}
-    </div>
+    </FieldFrame>
   );
 });
