@@ -1,0 +1,151 @@
+/**
+ * `npm run bench:realtime`: several hundred socket.io clients spread over two
+ * app instances that share one PostgreSQL (the adapter carries messages
+ * between them). Prints message delivery latency p50 / p99 and the number of
+ * connections held; asserts nothing.
+ */
+import { sql } from 'drizzle-orm';
+import { randomBytes } from 'node:crypto';
+import { mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { io as connect, type Socket } from 'socket.io-client';
+import { createDb, createPool, runMigrations } from '../../server/db/client';
+import { ensureCluster, ensureDatabase } from '../../server/dev/postgres';
+import { loadConfig } from '../../server/env';
+import { hashPassword } from '../../server/lib/auth/passwords';
+import { startServer, type RunningServer } from '../../server/runtime';
+import { freePort } from '../setup/ports';
+
+const THREADS = Number(process.env.BENCH_THREADS ?? 20);
+const LISTENERS_PER_THREAD = Number(process.env.BENCH_LISTENERS ?? 15);
+const MESSAGES_PER_THREAD = Number(process.env.BENCH_MESSAGES ?? 10);
+const PASSWORD = 'bench password 1';
+
+const dir = mkdtempSync(join(tmpdir(), 'tenthmark-rt-bench-'));
+const cluster = ensureCluster({ dir, port: await freePort(), throwaway: true });
+const servers: RunningServer[] = [];
+const sockets: Socket[] = [];
+try {
+  await ensureDatabase(cluster, 'bench');
+  const url = cluster.url('bench');
+  await runMigrations(url);
+  const pool = createPool(url, 2);
+  const db = createDb(pool);
+  const hash = await hashPassword(PASSWORD);
+  await db.execute(sql`
+    INSERT INTO users (email, display_name, role, password_hash, email_verified_at)
+    SELECT 'builder' || g || '@bench.test', 'Bench Builder ' || g, 'builder'::user_role, ${hash}, now() FROM generate_series(1, ${THREADS}) g
+    UNION ALL
+    SELECT 'shop' || g || '@bench.test', 'Bench Shop ' || g, 'shop'::user_role, ${hash}, now() FROM generate_series(1, ${THREADS}) g`);
+  await db.execute(sql`
+    INSERT INTO shops (user_id, name, country, region, city, takes_shipped, capabilities, turnaround_days)
+    SELECT id, display_name, 'United States', 'Ohio', 'Dayton', true, ARRAY['bore'], 10 FROM users WHERE role = 'shop'`);
+  await db.execute(sql`
+    INSERT INTO jobs (builder_id, status, title, engine_family, cylinders, block_material, operations, logistics, country, region, city, needed_by, spec, published_at)
+    SELECT id, 'open', 'Bench job ' || split_part(email, '@', 1), 'Bench V8', 8, 'cast-iron', ARRAY['bore'], 'ship', 'United States', 'Ohio', 'Dayton', current_date + 30, '{}'::jsonb, now()
+    FROM users WHERE role = 'builder'`);
+  const pairs = (
+    await db.execute<{ thread_id: string; builder_email: string; shop_email: string }>(sql`
+      WITH b AS (SELECT id, email, row_number() OVER (ORDER BY email) n FROM users WHERE role = 'builder'),
+           s AS (SELECT sh.id AS shop_id, u.email, row_number() OVER (ORDER BY u.email) n FROM shops sh JOIN users u ON u.id = sh.user_id),
+           t AS (INSERT INTO threads (job_id, shop_id)
+                 SELECT j.id, s.shop_id FROM b JOIN jobs j ON j.builder_id = b.id JOIN s ON s.n = b.n RETURNING id, job_id, shop_id)
+      SELECT t.id AS thread_id, b.email AS builder_email, s.email AS shop_email
+      FROM t JOIN jobs j ON j.id = t.job_id JOIN b ON b.id = j.builder_id JOIN s ON s.shop_id = t.shop_id`)
+  ).rows;
+  await pool.end();
+
+  const config = loadConfig({
+    NODE_ENV: 'production',
+    LOG_LEVEL: 'silent',
+    DATABASE_URL: url,
+    PORT: '0',
+    SESSION_SECRET: 'bench-session-secret-123456',
+    RATE_LIMIT_SIGNIN_MAX: '100000',
+    RATE_LIMIT_MESSAGES_PER_10S: '100000',
+  });
+  servers.push(await startServer(config, { migrate: false }), await startServer(config, { migrate: false }));
+
+  const cookies = new Map<string, string>();
+  async function cookieFor(email: string): Promise<string> {
+    const known = cookies.get(email);
+    if (known) return known;
+    const base = servers[0].url;
+    const first = await fetch(`${base}/api/auth/csrf`);
+    const anon = first.headers.get('set-cookie')!.split(';')[0];
+    const { csrfToken } = (await first.json()) as { csrfToken: string };
+    const login = await fetch(`${base}/api/auth/login`, {
+      method: 'POST',
+      headers: { 'Content-Type': 'application/json', Cookie: anon, 'X-CSRF-Token': csrfToken },
+      body: JSON.stringify({ email, password: PASSWORD }),
+    });
+    if (login.status !== 200) throw new Error(`sign-in for ${email} answered ${login.status}`);
+    const cookie = login.headers.get('set-cookie')!.split(';')[0];
+    cookies.set(email, cookie);
+    return cookie;
+  }
+
+  const open = async (server: RunningServer, cookie: string) => {
+    const socket = connect(server.url, { transports: ['websocket'], extraHeaders: { cookie }, reconnection: false, forceNew: true });
+    sockets.push(socket);
+    await new Promise<void>((resolve, reject) => {
+      socket.once('connect', () => resolve());
+      socket.once('connect_error', reject);
+    });
+    return socket;
+  };
+
+  console.log(`connecting ${THREADS * (LISTENERS_PER_THREAD + 1)} clients over two instances …`);
+  const latencies: number[] = [];
+  let expected = 0;
+  const senders: Array<{ socket: Socket; threadId: string }> = [];
+  for (const pair of pairs) {
+    const builderCookie = await cookieFor(pair.builder_email);
+    const shopCookie = await cookieFor(pair.shop_email);
+    for (let l = 0; l < LISTENERS_PER_THREAD; l += 1) {
+      // Listeners alternate between the instances; the sender sits on instance A.
+      const listener = await open(servers[l % 2], builderCookie);
+      const joined = (await listener.timeout(10_000).emitWithAck('thread:join', { threadId: pair.thread_id })) as { ok: boolean };
+      if (!joined.ok) throw new Error('a listener could not join its thread');
+      listener.on('message:new', (message: { body: string }) => {
+        const sentAt = Number(message.body.split(' ')[1]);
+        latencies.push(performance.now() - sentAt);
+      });
+    }
+    senders.push({ socket: await open(servers[0], shopCookie), threadId: pair.thread_id });
+  }
+  const held = servers.reduce((sum, s) => sum + s.io.engine.clientsCount, 0);
+
+  const started = performance.now();
+  for (let m = 0; m < MESSAGES_PER_THREAD; m += 1) {
+    await Promise.all(
+      senders.map(async ({ socket, threadId }) => {
+        const answer = (await socket.timeout(10_000).emitWithAck('message:send', {
+          threadId,
+          clientId: randomBytes(8).toString('hex'),
+          body: `sent ${performance.now()}`,
+        })) as { ok: boolean };
+        if (answer.ok) expected += LISTENERS_PER_THREAD;
+      }),
+    );
+  }
+  const deadline = Date.now() + 15_000;
+  while (latencies.length < expected && Date.now() < deadline) await new Promise((r) => setTimeout(r, 50));
+  const elapsed = (performance.now() - started) / 1000;
+
+  latencies.sort((a, b) => a - b);
+  const pick = (q: number) => latencies[Math.min(latencies.length - 1, Math.floor(q * latencies.length))] ?? NaN;
+  console.log(`
+connections held        ${held} (instance A ${servers[0].io.engine.clientsCount}, instance B ${servers[1].io.engine.clientsCount})
+messages sent           ${THREADS * MESSAGES_PER_THREAD} (${THREADS} conversations × ${MESSAGES_PER_THREAD})
+deliveries              ${latencies.length} of ${expected} expected, in ${elapsed.toFixed(1)} s
+delivery latency p50    ${pick(0.5).toFixed(1)} ms
+delivery latency p99    ${pick(0.99).toFixed(1)} ms
+delivery latency max    ${latencies.at(-1)?.toFixed(1)} ms`);
+} finally {
+  for (const socket of sockets) socket.disconnect();
+  for (const server of servers) await server.close();
+  cluster.stop();
+  rmSync(dir, { recursive: true, force: true });
+}
