@@ -16,6 +16,8 @@ import { adminRouter } from './modules/admin/admin.routes';
 import { authRouter } from './modules/auth/auth.routes';
 import { bidsRouter } from './modules/bids/bids.routes';
 import { messagesRouter } from './modules/messages/messages.routes';
+import { paymentsRouter, paymentsWebhook } from './modules/payments/payments.routes';
+import { createPaymentsClient, type PaymentsClient } from './lib/payments-client';
 import { RealtimeHub } from './realtime/hub';
 import { jobsRouter } from './modules/jobs/jobs.routes';
 import { shopsRouter } from './modules/shops/shops.routes';
@@ -32,6 +34,8 @@ export interface AppDeps {
   db: Database;
   pool: pg.Pool;
   logger: Logger;
+  /** The payment API client; made from the configuration unless given. */
+  payments?: PaymentsClient;
   /** Where photos go; a folder on disk unless an object store is given. */
   storage?: FileStorage;
   /** How the browser app is served: built files, Vite's dev middleware, or not at all (API tests). */
@@ -82,6 +86,12 @@ export function createApp(deps: AppDeps) {
 
   app.use('/api/health', healthRouter(pool));
 
+  // The payment webhook reads its raw body and proves itself by signature: before the JSON parser, sessions and CSRF.
+  const paymentsClient = deps.payments ?? createPaymentsClient(config.payments);
+  const hub = new RealtimeHub();
+  const paymentDeps = { db, payments: paymentsClient, appUrl: config.appUrl, hub };
+  app.use('/api', paymentsWebhook({ ...paymentDeps, webhookSecret: config.payments.webhookSecret }));
+
   const store = createSessionStore(pool);
   const secure = config.appUrl.startsWith('https://');
   const sessionMiddleware = session({
@@ -119,10 +129,10 @@ export function createApp(deps: AppDeps) {
 
   app.use('/api/calculations', calculationsRouter({ db, perMinute: config.rateLimits.calculationsPerMinute }));
   const storage = deps.storage ?? new LocalDiskStorage(config.uploadsDir);
-  const hub = new RealtimeHub();
   app.use('/api', shopsRouter({ db }));
   app.use('/api', jobsRouter({ db, appUrl: config.appUrl, storage, hub }));
-  app.use('/api', bidsRouter({ db, appUrl: config.appUrl, hub }));
+  app.use('/api', bidsRouter({ db, appUrl: config.appUrl, hub, platformFeeBps: config.payments.platformFeeBps }));
+  app.use('/api', paymentsRouter(paymentDeps));
   app.use('/api', messagesRouter({ db, hub, messagesPer10s: config.rateLimits.messagesPer10s }));
   app.use('/api/admin', adminRouter({ db, appUrl: config.appUrl }));
 
@@ -147,7 +157,7 @@ export function createApp(deps: AppDeps) {
   }
 
   app.use(errorHandler);
-  return Object.assign(app, { sessionStore: store, sessionMiddleware, hub });
+  return Object.assign(app, { sessionStore: store, sessionMiddleware, hub, paymentDeps });
 }
 
 export type App = ReturnType<typeof createApp>;

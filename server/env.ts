@@ -30,6 +30,13 @@ const schema = z
     GITHUB_STAND_IN_PORT: z.coerce.number().int().min(1).max(65535).default(3101),
     GITHUB_STAND_IN_URL: z.url().optional(),
 
+    STRIPE_SECRET_KEY: z.string().startsWith('sk_', 'must be a secret key (sk_…)').default('sk_test_tenthmark_local'),
+    STRIPE_WEBHOOK_SECRET: z.string().startsWith('whsec_', 'must be a webhook secret (whsec_…)').default('whsec_tenthmark_local_signing_secret'),
+    /** Where the payment API is; unset with a real key means the provider itself. */
+    STRIPE_API_URL: z.url().optional(),
+    PAYMENTS_STAND_IN_PORT: z.coerce.number().int().min(1).max(65535).default(12111),
+    PLATFORM_FEE_BPS: z.coerce.number().int().min(0).max(5000).default(800),
+
     RATE_LIMIT_SIGNIN_MAX: z.coerce.number().int().positive().default(10),
     RATE_LIMIT_SIGNUP_MAX: z.coerce.number().int().positive().default(20),
     RATE_LIMIT_CALCULATIONS_PER_MINUTE: z.coerce.number().int().positive().default(120),
@@ -76,6 +83,14 @@ export interface AppConfig {
   maildevWebPort: number;
   github: GithubConfig;
   githubStandInPort: number;
+  payments: {
+    secretKey: string;
+    webhookSecret: string;
+    /** Set when talking to a local stand-in instead of the provider. */
+    apiUrl?: string;
+    standInPort: number;
+    platformFeeBps: number;
+  };
   rateLimits: { signInMax: number; signUpMax: number; calculationsPerMinute: number; messagesPer10s: number };
 }
 
@@ -129,6 +144,13 @@ export function loadConfig(source: NodeJS.ProcessEnv = process.env): AppConfig {
     maildevWebPort: env.MAILDEV_WEB_PORT,
     github,
     githubStandInPort: env.GITHUB_STAND_IN_PORT,
+    payments: {
+      secretKey: env.STRIPE_SECRET_KEY,
+      webhookSecret: env.STRIPE_WEBHOOK_SECRET,
+      apiUrl: env.STRIPE_API_URL ?? (env.STRIPE_SECRET_KEY === 'sk_test_tenthmark_local' ? `http://127.0.0.1:${env.PAYMENTS_STAND_IN_PORT}` : undefined),
+      standInPort: env.PAYMENTS_STAND_IN_PORT,
+      platformFeeBps: env.PLATFORM_FEE_BPS,
+    },
     rateLimits: {
       signInMax: env.RATE_LIMIT_SIGNIN_MAX,
       signUpMax: env.RATE_LIMIT_SIGNUP_MAX,

@@ -13,6 +13,7 @@ import { bidInputSchema, declineBidSchema } from '../shared/schemas/bids';
 import { calculationRequestSchemas } from '../shared/schemas/calculations';
 import { uuidSchema } from '../shared/schemas/common';
 import { boardQuerySchema, jobInputSchema, myJobsQuerySchema } from '../shared/schemas/jobs';
+import { changeOrderInputSchema, splitSchema } from '../shared/schemas/payments';
 import { historyQuerySchema, markReadSchema, openThreadSchema, sendMessageSchema } from '../shared/schemas/messages';
 import { shopDirectoryQuerySchema, shopProfileSchema } from '../shared/schemas/shops';
 
@@ -49,6 +50,7 @@ const jobId = z.object({ jobId: uuidSchema });
 const bidId = z.object({ bidId: uuidSchema });
 const shopId = z.object({ shopId: uuidSchema });
 const threadId = z.object({ threadId: uuidSchema });
+const changeOrderId = z.object({ changeOrderId: uuidSchema });
 const photo = z.object({ jobId: uuidSchema, photoId: uuidSchema });
 const photoSized = photo.extend({ size: z.enum(['thumb', 'large']) });
 
@@ -106,6 +108,17 @@ export const routeDocs: RouteDoc[] = [
   { method: 'get', path: '/api/threads/{threadId}/messages', summary: 'Message history, newest first, paged by cursor', tag: 'Messages', access: 'signed-in', params: threadId, query: historyQuerySchema },
   { method: 'post', path: '/api/threads/{threadId}/messages', summary: 'Send a message (a repeated clientId returns the stored one); live clients use the socket', tag: 'Messages', access: 'builder or shop', params: threadId, body: sendMessageSchema, ok: { status: 201, description: 'Stored and delivered' } },
   { method: 'post', path: '/api/threads/{threadId}/read', summary: 'Mark the conversation read up to a message', tag: 'Messages', access: 'signed-in', params: threadId, body: markReadSchema },
+  { method: 'post', path: '/api/payments/webhook', summary: 'Payment provider events (signed with Stripe-Signature; raw JSON body)', tag: 'Payments', access: 'public', csrf: false },
+  { method: 'post', path: '/api/shop-profile/payouts', summary: 'Start or continue the shop’s payout account onboarding; answers the provider’s link', tag: 'Payments', access: 'shop' },
+  { method: 'post', path: '/api/jobs/{jobId}/checkout', summary: 'Pay the accepted bid: answers a hosted payment page address', tag: 'Payments', access: 'builder', params: jobId },
+  { method: 'get', path: '/api/jobs/{jobId}/money', summary: 'The job’s payments, ledger balance and any payout or refund still on its way', tag: 'Payments', access: 'signed-in', params: jobId },
+  { method: 'post', path: '/api/jobs/{jobId}/cancel-and-refund', summary: 'Cancel a paid job the shop has not started; the payment is refunded in full', tag: 'Payments', access: 'builder', params: jobId },
+  { method: 'get', path: '/api/jobs/{jobId}/change-orders', summary: 'Extra work proposed on a job', tag: 'Payments', access: 'signed-in', params: jobId },
+  { method: 'post', path: '/api/jobs/{jobId}/change-orders', summary: 'The awarded shop proposes extra work with a price', tag: 'Payments', access: 'shop', params: jobId, body: changeOrderInputSchema, ok: { status: 201, description: 'Proposed' } },
+  { method: 'post', path: '/api/change-orders/{changeOrderId}/approve', summary: 'Agree to extra work and pay for it: answers a hosted payment page address', tag: 'Payments', access: 'builder', params: changeOrderId },
+  { method: 'post', path: '/api/change-orders/{changeOrderId}/decline', summary: 'Decline proposed extra work', tag: 'Payments', access: 'builder', params: changeOrderId },
+  { method: 'post', path: '/api/admin/jobs/{jobId}/release', summary: 'Release what the job holds to the shop, less the fee (once, however often asked)', tag: 'Payments', access: 'admin', params: jobId },
+  { method: 'post', path: '/api/admin/jobs/{jobId}/split', summary: 'Pay the shop a share of what is held and refund the rest', tag: 'Payments', access: 'admin', params: jobId, body: splitSchema },
   { method: 'get', path: '/api/admin/users', summary: 'Search accounts', tag: 'Admin', access: 'admin', query: userSearchSchema },
   { method: 'post', path: '/api/admin/admins', summary: 'Make another administrator', tag: 'Admin', access: 'admin', body: createAdminSchema, ok: { status: 201, description: 'Created; a link to choose a password is mailed' } },
   { method: 'get', path: '/api/openapi.json', summary: 'This description', tag: 'Health', access: 'public' },

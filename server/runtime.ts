@@ -7,6 +7,7 @@ import { createLogger } from './lib/logger';
 import { createOutboxWorker } from './lib/mail/outbox';
 import { createTransport } from './lib/mail/transport';
 import { startDigestWorker } from './modules/messages/digest';
+import { startMoneyWorker } from './modules/payments/payments.service';
 import { attachRealtime } from './realtime/socket-server';
 
 export interface RunningServer {
@@ -14,6 +15,7 @@ export interface RunningServer {
   url: string;
   port: number;
   io: import('socket.io').Server;
+  app: ReturnType<typeof createApp>;
   close(): Promise<void>;
 }
 
@@ -47,6 +49,7 @@ export async function startServer(
     messagesPer10s: config.rateLimits.messagesPer10s,
   });
   const digests = startDigestWorker({ db, appUrl: config.appUrl, logger });
+  const money = startMoneyWorker(app.paymentDeps);
 
   const transport = createTransport(config.smtp);
   const worker = createOutboxWorker({ db, transport, from: config.mailFrom, logger });
@@ -57,8 +60,10 @@ export async function startServer(
     port,
     url: `http://localhost:${port}`,
     io,
+    app,
     async close() {
       digests.stop();
+      money.stop();
       await new Promise<void>((resolve) => io.close(() => resolve()));
       await worker.stop();
       await new Promise<void>((resolve) => server.close(() => resolve()));

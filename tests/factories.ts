@@ -6,7 +6,7 @@ import { insertJob } from '../server/modules/jobs/jobs.repository';
 import { upsertShop } from '../server/modules/shops/shops.repository';
 import { randomBytes } from 'node:crypto';
 import type { Database } from '../server/db/client';
-import { jobs, users, type User } from '../server/db/schema';
+import { jobs, shops, users, type User } from '../server/db/schema';
 import { hashPassword } from '../server/lib/auth/passwords';
 
 export const TEST_PASSWORD = 'correct horse battery';
@@ -60,10 +60,25 @@ export function shopProfileInput(overrides: Partial<ShopProfileInput> = {}): Sho
   };
 }
 
-/** A shop account with its profile. */
-export async function createShop(db: Database, overrides: Partial<ShopProfileInput> = {}, userOverrides: Partial<typeof users.$inferInsert> = {}) {
+/**
+ * A shop account with its profile. Its payout account is marked ready unless
+ * `payouts: false` (the payment tests set one up through the stand-in instead).
+ */
+export async function createShop(
+  db: Database,
+  overrides: Partial<ShopProfileInput> = {},
+  userOverrides: Partial<typeof users.$inferInsert> = {},
+  options: { payouts?: boolean } = {},
+) {
   const user = await createUser(db, { role: 'shop', ...userOverrides });
-  const shop = await db.transaction((tx) => upsertShop(tx, user.id, shopProfileInput(overrides)));
+  let shop = await db.transaction((tx) => upsertShop(tx, user.id, shopProfileInput(overrides)));
+  if (options.payouts ?? true) {
+    [shop] = await db
+      .update(shops)
+      .set({ payoutAccountId: `acct_factory_${randomBytes(6).toString('hex')}`, payoutsReadyAt: new Date() })
+      .where(eq(shops.id, shop.id))
+      .returning();
+  }
   return { user, shop };
 }
 

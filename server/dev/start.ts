@@ -10,6 +10,7 @@ import { loadConfig } from '../env';
 import { startServer } from '../runtime';
 import { startGithubStandIn } from './github-stand-in';
 import { startMaildev } from './maildev';
+import { startPaymentsStandIn } from './payments-stand-in';
 import { ensureCluster, ensureDatabase } from './postgres';
 import { DEMO_PASSWORD, demoAccounts, seedIfEmpty } from './seed';
 
@@ -64,6 +65,18 @@ try {
     cleanups.push(() => standIn.close());
   }
 
+  let paymentsNote = 'the provider (STRIPE_SECRET_KEY)';
+  if (config.payments.apiUrl && config.payments.secretKey === 'sk_test_tenthmark_local') {
+    const standIn = await startPaymentsStandIn({
+      port: config.payments.standInPort,
+      dataFile: `${root}/.data/payments-stand-in.json`,
+      secretKey: config.payments.secretKey,
+      webhook: { url: `${config.appUrl}/api/payments/webhook`, secret: config.payments.webhookSecret },
+    });
+    cleanups.push(() => standIn.close());
+    paymentsNote = `local stand-in on 127.0.0.1:${config.payments.standInPort}`;
+  }
+
   let client;
   if (dev) {
     const { createServer } = await import('vite');
@@ -94,6 +107,7 @@ try {
     App          ${config.appUrl}
     Mail inbox   ${maildev.webUrl}
     GitHub       ${config.github.standIn ? `local stand-in on 127.0.0.1:${config.githubStandInPort}` : 'github.com'}
+    Payments     ${paymentsNote} — test card 4242 4242 4242 4242
     Database     ${databaseUrl}
 
   Demo accounts (password "${DEMO_PASSWORD}"):

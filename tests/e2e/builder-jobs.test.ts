@@ -9,6 +9,7 @@ import type { JobDetail, JobInput } from '../../shared/schemas/jobs';
 import { DEMO_PASSWORD, demoAccounts } from '../../server/dev/seed';
 import type { RunningServer } from '../../server/runtime';
 import { bidInput, inDays, jobInput, shopProfileInput, uniqueEmail } from '../factories';
+import { completeOnboardingPage } from '../setup/payments';
 import { artifactsDir, launchBrowser, startBrowserApp } from '../setup/browser';
 
 let browser: Browser;
@@ -83,8 +84,8 @@ async function apiAs(account: { email: string; password?: string } | { signUp: {
       : await session.post('/api/auth/login', { data: { email: account.email, password: account.password ?? DEMO_PASSWORD }, headers: { 'X-CSRF-Token': token } });
   if (!res.ok()) throw new Error(`could not sign in: ${res.status()} ${await res.text()}`);
   token = (await res.json()).csrfToken;
-  const send = async (method: 'POST' | 'PUT', path: string, data: unknown = {}, multipart?: Record<string, { name: string; mimeType: string; buffer: Buffer }>) => {
-    const body = multipart ? { multipart } : { data };
+  const send = async (method: 'GET' | 'POST' | 'PUT', path: string, data: unknown = {}, multipart?: Record<string, { name: string; mimeType: string; buffer: Buffer }>) => {
+    const body = method === 'GET' ? {} : multipart ? { multipart } : { data };
     const answer = await session.fetch(path, { method, ...body, headers: { 'X-CSRF-Token': token } });
     if (!answer.ok()) throw new Error(`${method} ${path} answered ${answer.status()}: ${await answer.text()}`);
     return answer.json();
@@ -234,6 +235,10 @@ describe('a builder posting a job and choosing a shop, in a real browser', () =>
       apiAs({ signUp: { displayName: 'Quarry Bend Machining', email: uniqueEmail('quarry-bend'), role: 'shop' } }),
     ]);
     await lantern.send('PUT', '/api/shop-profile', shopProfileInput({ name: 'Lantern Hill Machine Works', city: 'Dayton', capabilities: ['clean', 'bore', 'hone', 'deck'] }));
+    // The shop that will be chosen sets up its payout account through the stand-in's onboarding page.
+    const { url: onboarding } = await lantern.send('POST', '/api/shop-profile/payouts');
+    await completeOnboardingPage(onboarding);
+    await expect.poll(async () => (await lantern.send('GET', '/api/shop-profile')).shop.payouts, { timeout: 8_000 }).toBe('ready');
     const shopContext = await browser.newContext({ viewport: { width: 1280, height: 900 } });
     shopContext.setDefaultTimeout(10_000);
     const shopPage = await shopContext.newPage();

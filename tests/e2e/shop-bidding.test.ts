@@ -5,6 +5,7 @@ import type { JobDetail, JobInput } from '../../shared/schemas/jobs';
 import { DEMO_PASSWORD, demoAccounts } from '../../server/dev/seed';
 import type { RunningServer } from '../../server/runtime';
 import { inDays, jobInput, shopProfileInput } from '../factories';
+import { completeOnboardingPage } from '../setup/payments';
 import { artifactsDir, launchBrowser, startBrowserApp } from '../setup/browser';
 
 let browser: Browser;
@@ -316,6 +317,10 @@ describe('a shop in a real browser', () => {
     const job = await publishJob(builderApi, { title: 'Deck an inline-six block', cylinders: 6, layout: 'inline', operations: [{ code: 'deck', quantity: 1 }] });
     const shopApi = await apiSession(kessrow.email);
     await shopApi.put('/api/shop-profile', shopProfileInput({ name: 'Kessrow Bore & Deck', capabilities: ['deck'], rateCard: [{ operation: 'deck', priceCents: 17550 }] }));
+    // A bid can be accepted only once the shop can be paid: its payout account goes through the stand-in's onboarding page.
+    const { url: onboarding } = await shopApi.post<{ url: string }>('/api/shop-profile/payouts');
+    await completeOnboardingPage(onboarding);
+    await expect.poll(async () => (await shopApi.get<{ shop: { payouts: string } }>('/api/shop-profile')).shop.payouts, { timeout: 8_000 }).toBe('ready');
     const { bid } = await shopApi.post<{ bid: { id: string } }>(`/api/jobs/${job.id}/bids`, {
       lineItems: [{ operation: 'deck', description: 'Deck', quantity: 1, unitPriceCents: 17550 }],
       turnaroundDays: 4,

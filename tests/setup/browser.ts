@@ -4,6 +4,7 @@ import { chromium, type Browser } from 'playwright-core';
 import { createDb, createPool } from '../../server/db/client';
 import { seedIfEmpty } from '../../server/dev/seed';
 import { startServer, type RunningServer } from '../../server/runtime';
+import { sendWebhooksTo, startTestStandIn, TEST_WEBHOOK_SECRET } from './payments';
 import { createTestDatabase, testConfig } from './test-env';
 
 export const artifactsDir = fileURLToPath(new URL('../artifacts', import.meta.url));
@@ -18,18 +19,22 @@ export function launchBrowser(): Promise<Browser> {
  * The whole app as a person meets it: the production build of the browser app
  * served by a real HTTP server on a database of its own, with the demo accounts.
  */
-export async function startBrowserApp(): Promise<{ server: RunningServer; close: () => Promise<void> }> {
+export async function startBrowserApp(): Promise<{ server: RunningServer; payments: Awaited<ReturnType<typeof startTestStandIn>>['standIn']; close: () => Promise<void> }> {
   mkdirSync(artifactsDir, { recursive: true });
   const database = await createTestDatabase();
   const seedPool = createPool(database.url, 2);
   await seedIfEmpty(createDb(seedPool));
   await seedPool.end();
-  const config = testConfig(database.url, { PORT: '0' });
+  const payments = await startTestStandIn();
+  const config = testConfig(database.url, { PORT: '0', STRIPE_API_URL: payments.standIn.url, STRIPE_WEBHOOK_SECRET: TEST_WEBHOOK_SECRET });
   const server = await startServer(config, { client: { kind: 'static', dir: clientDir }, migrate: false, mailIntervalMs: 200 });
+  await sendWebhooksTo(payments.standIn, server.url);
   return {
     server,
+    payments: payments.standIn,
     close: async () => {
       await server.close();
+      await payments.standIn.close();
       await database.drop();
       rmSync(config.uploadsDir, { recursive: true, force: true });
     },

@@ -187,3 +187,36 @@ export function unreadDigestMail(input: { displayName: string; otherName: string
     footnote: 'We send one reminder per conversation, not one per message.',
   });
 }
+
+export function paymentReceiptMail(input: { name: string; side: 'builder' | 'shop'; jobTitle: string; amountCents: number; what: string; url: string }): RenderedMail {
+  return render({
+    template: 'payment_receipt',
+    subject: `Payment received for “${input.jobTitle}”`,
+    greeting: `Hello ${input.name},`,
+    paragraphs:
+      input.side === 'builder'
+        ? [`We received your payment of ${money(input.amountCents)} for ${input.what} on “${input.jobTitle}”.`, 'It is held until you accept the shop’s inspection record; then it goes to the shop.']
+        : [`The builder paid ${money(input.amountCents)} for ${input.what} on “${input.jobTitle}”.`, 'The payment is held and goes to your payout account when the builder accepts your inspection record.'],
+    action: { label: 'Open the job', url: input.url },
+  });
+}
+
+export function payoutSentMail(input: { name: string; jobTitle: string; amountCents: number; feeCents: number; url: string }): RenderedMail {
+  return render({
+    template: 'payout_sent',
+    subject: `${money(input.amountCents)} is on its way for “${input.jobTitle}”`,
+    greeting: `Hello ${input.name},`,
+    paragraphs: [`We sent ${money(input.amountCents)} to your payout account for “${input.jobTitle}” (Tenthmark’s fee: ${money(input.feeCents)}).`],
+    action: { label: 'Open the job', url: input.url },
+  });
+}
+
+export function refundSentMail(input: { name: string; jobTitle: string; amountCents: number; url: string }): RenderedMail {
+  return render({
+    template: 'refund_sent',
+    subject: `${money(input.amountCents)} refunded for “${input.jobTitle}”`,
+    greeting: `Hello ${input.name},`,
+    paragraphs: [`We refunded ${money(input.amountCents)} to your card for “${input.jobTitle}”. Banks take a few days to show it.`],
+    action: { label: 'Open the job', url: input.url },
+  });
+}

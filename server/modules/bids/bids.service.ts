@@ -13,6 +13,8 @@ import { findShopByUser, type ShopRow } from '../shops/shops.repository';
 export interface BidDeps {
   db: Database;
   appUrl: string;
+  /** The platform's fee, fixed on the job when a bid is accepted. */
+  platformFeeBps?: number;
 }
 
 type BidRow = typeof bids.$inferSelect;
@@ -166,6 +168,8 @@ export async function acceptBid(deps: BidDeps, user: User, bidId: string): Promi
     if (job.status !== 'open') throw conflict('This job already has an accepted bid, or is closed.', 'job_not_open');
     if (bid.status !== 'active') throw conflict('This bid is no longer active.', 'bid_not_active');
     if (bid.validUntil < today()) throw conflict('This bid has expired; ask the shop to revise it.', 'bid_expired');
+    const [shop] = await tx.select({ ready: shops.payoutsReadyAt }).from(shops).where(eq(shops.id, bid.shopId));
+    if (!shop?.ready) throw conflict('This shop has not finished setting up its payout account, so its bid cannot be accepted yet.', 'shop_payouts_not_ready');
     const now = new Date();
     await tx.update(bids).set({ status: 'accepted', decidedAt: now, updatedAt: now }).where(eq(bids.id, bid.id));
     const declined = await tx
@@ -173,7 +177,7 @@ export async function acceptBid(deps: BidDeps, user: User, bidId: string): Promi
       .set({ status: 'declined', decidedAt: now, declineReason: 'Another bid was accepted.', updatedAt: now })
       .where(and(eq(bids.jobId, job.id), ne(bids.id, bid.id), eq(bids.status, 'active')))
       .returning({ shopId: bids.shopId });
-    await tx.update(jobs).set({ status: 'awarded', awardedBidId: bid.id, updatedAt: now }).where(eq(jobs.id, job.id));
+    await tx.update(jobs).set({ status: 'awarded', awardedBidId: bid.id, feeBps: deps.platformFeeBps ?? 0, updatedAt: now }).where(eq(jobs.id, job.id));
 
     const winner = await shopContact(tx, bid.shopId);
     await enqueueMail(tx, winner.email, bidAcceptedMail({ shopName: winner.name, jobTitle: job.title, totalCents: bid.totalCents, url: jobUrl(deps, job.id) }));

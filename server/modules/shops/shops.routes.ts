@@ -4,7 +4,13 @@ import { shopDirectoryQuerySchema, shopProfileSchema } from '../../../shared/sch
 import type { Database } from '../../db/client';
 import { currentUser, requireRole } from '../../lib/auth/guards';
 import { notFound } from '../../lib/errors';
-import { findShopById, findShopByUser, ratesFor, searchShops, toPublicShop, upsertShop } from './shops.repository';
+import { findShopById, findShopByUser, ratesFor, searchShops, toPublicShop, upsertShop, type ShopRow } from './shops.repository';
+
+/** What a shop sees of itself: the public profile, its e-mail choice and its payout account's state. */
+function ownShop(shop: ShopRow, rateCard: Array<{ operation: string; priceCents: number }>) {
+  const payouts = shop.payoutsReadyAt ? 'ready' : shop.payoutAccountId ? 'pending' : 'none';
+  return { ...toPublicShop(shop, rateCard), notifyMatchingJobs: shop.notifyMatchingJobs, payouts };
+}
 
 /** The public shop directory and a shop's own profile. */
 export function shopsRouter(deps: { db: Database }) {
@@ -26,14 +32,14 @@ export function shopsRouter(deps: { db: Database }) {
     const shop = await findShopByUser(db, currentUser(req).id);
     if (!shop) throw notFound('You have not set up your shop profile yet.');
     const rates = await ratesFor(db, [shop.id]);
-    res.json({ shop: { ...toPublicShop(shop, rates.get(shop.id) ?? []), notifyMatchingJobs: shop.notifyMatchingJobs } });
+    res.json({ shop: ownShop(shop, rates.get(shop.id) ?? []) });
   });
 
   router.put('/shop-profile', requireRole('shop'), async (req, res) => {
     const input = shopProfileSchema.parse(req.body);
     const shop = await db.transaction((tx) => upsertShop(tx, currentUser(req).id, input));
     const rates = await ratesFor(db, [shop.id]);
-    res.json({ shop: { ...toPublicShop(shop, rates.get(shop.id) ?? []), notifyMatchingJobs: shop.notifyMatchingJobs } });
+    res.json({ shop: ownShop(shop, rates.get(shop.id) ?? []) });
   });
 
   return router;

@@ -1,0 +1,58 @@
+import { and, asc, eq, inArray } from 'drizzle-orm';
+import type { ChangeOrder, ChangeOrderInput } from '../../../shared/schemas/payments';
+import { bids, changeOrders, payments, type User } from '../../db/schema';
+import { conflict, forbidden, notFound } from '../../lib/errors';
+import { findJob } from '../jobs/jobs.repository';
+import { findShopByUser } from '../shops/shops.repository';
+import { startChangeOrderCheckout, type PaymentDeps } from './payments.service';
+
+const toView = (row: typeof changeOrders.$inferSelect): ChangeOrder => ({
+  id: row.id,
+  jobId: row.jobId,
+  description: row.description,
+  amountCents: row.amountCents,
+  status: row.status,
+  createdAt: row.createdAt.toISOString(),
+});
+
+/** The awarded shop proposes extra work, with a price, while the job is paid for or under way. */
+export async function proposeChangeOrder(deps: PaymentDeps, user: User, jobId: string, input: ChangeOrderInput): Promise<ChangeOrder> {
+  const job = await findJob(deps.db, jobId);
+  const shop = await findShopByUser(deps.db, user.id);
+  if (!job || !shop) throw notFound('No job with that id.');
+  const [awarded] = job.awardedBidId ? await deps.db.select({ shopId: bids.shopId }).from(bids).where(eq(bids.id, job.awardedBidId)) : [];
+  if (awarded?.shopId !== shop.id) throw forbidden('Only the shop doing the work proposes extra work.');
+  if (!['funded', 'in_work'].includes(job.status)) throw conflict('Extra work can be proposed once the job is paid for and before the inspection.', 'job_not_in_work');
+  const [row] = await deps.db.insert(changeOrders).values({ jobId, shopId: shop.id, description: input.description, amountCents: input.amountCents }).returning();
+  return toView(row);
+}
+
+export async function changeOrdersFor(deps: PaymentDeps, jobId: string): Promise<ChangeOrder[]> {
+  const rows = await deps.db.select().from(changeOrders).where(eq(changeOrders.jobId, jobId)).orderBy(asc(changeOrders.createdAt));
+  return rows.map(toView);
+}
+
+async function builderChangeOrder(deps: PaymentDeps, user: User, id: string) {
+  const [row] = await deps.db.select().from(changeOrders).where(eq(changeOrders.id, id));
+  const job = row ? await findJob(deps.db, row.jobId) : undefined;
+  if (!row || !job || job.builderId !== user.id) throw notFound('No change order with that id.');
+  return { row, job };
+}
+
+/** The builder agrees and pays the difference: a second checkout in the job's transfer group. */
+export async function approveChangeOrder(deps: PaymentDeps, user: User, id: string): Promise<{ url: string }> {
+  const { row, job } = await builderChangeOrder(deps, user, id);
+  if (!['proposed', 'approved'].includes(row.status)) throw conflict('This change order is already settled.', 'change_order_settled');
+  if (!['funded', 'in_work'].includes(job.status)) throw conflict('The job is past the point where extra work can be paid for.', 'job_not_in_work');
+  await deps.db.update(changeOrders).set({ status: 'approved', decidedAt: new Date(), updatedAt: new Date() }).where(eq(changeOrders.id, row.id));
+  return startChangeOrderCheckout(deps, job, row);
+}
+
+export async function declineChangeOrder(deps: PaymentDeps, user: User, id: string): Promise<ChangeOrder> {
+  const { row } = await builderChangeOrder(deps, user, id);
+  if (row.status !== 'proposed') throw conflict('Only a proposed change order can be declined.', 'change_order_settled');
+  const paid = await deps.db.select({ id: payments.id }).from(payments).where(and(eq(payments.changeOrderId, row.id), inArray(payments.status, ['paid'])));
+  if (paid.length) throw conflict('This change order is paid.', 'change_order_settled');
+  const [updated] = await deps.db.update(changeOrders).set({ status: 'declined', decidedAt: new Date(), updatedAt: new Date() }).where(eq(changeOrders.id, row.id)).returning();
+  return toView(updated);
+}

@@ -1,0 +1,398 @@
+import { and, asc, eq, inArray, lte, sql } from 'drizzle-orm';
+import type Stripe from 'stripe';
+import type { Database, Executor } from '../../db/client';
+import { bids, changeOrders, jobs, moneyMoves, payments, shops, users, type User } from '../../db/schema';
+import { AppError, conflict, forbidden, notFound } from '../../lib/errors';
+import { enqueueMail } from '../../lib/mail/outbox';
+import { paymentReceiptMail, payoutSentMail, refundSentMail } from '../../lib/mail/templates';
+import type { PaymentsClient } from '../../lib/payments-client';
+import type { RealtimeHub } from '../../realtime/hub';
+import { findJob } from '../jobs/jobs.repository';
+import { findShopByUser } from '../shops/shops.repository';
+import { appendLedger, feeFor, jobBalance } from './ledger';
+
+export interface PaymentDeps {
+  db: Database;
+  payments: PaymentsClient;
+  appUrl: string;
+  hub?: RealtimeHub;
+  currency?: string;
+}
+
+const currencyOf = (deps: PaymentDeps) => deps.currency ?? 'usd';
+
+// ---------------------------------------------------------------------------
+// Shop payout accounts
+
+/** Makes (once) the shop's connected account and an onboarding link for it. */
+export async function startPayoutOnboarding(deps: PaymentDeps, user: User): Promise<{ url: string }> {
+  const shop = await findShopByUser(deps.db, user.id);
+  if (!shop) throw conflict('Set up your shop profile first.', 'no_shop_profile');
+  let accountId = shop.payoutAccountId;
+  if (!accountId) {
+    const account = await deps.payments.accounts.create(
+      { type: 'express', email: user.email, capabilities: { transfers: { requested: true } }, metadata: { shop_id: shop.id } },
+      { idempotencyKey: `payout-account-${shop.id}` },
+    );
+    accountId = account.id;
+    await deps.db.update(shops).set({ payoutAccountId: accountId }).where(and(eq(shops.id, shop.id), sql`${shops.payoutAccountId} IS NULL`));
+    const [fresh] = await deps.db.select({ id: shops.payoutAccountId }).from(shops).where(eq(shops.id, shop.id));
+    accountId = fresh.id!;
+  }
+  const link = await deps.payments.accountLinks.create({
+    account: accountId,
+    type: 'account_onboarding',
+    refresh_url: `${deps.appUrl}/shop/profile?payouts=refresh`,
+    return_url: `${deps.appUrl}/shop/profile?payouts=return`,
+  });
+  return { url: link.url };
+}
+
+/** An account the provider says can receive transfers is ready for payouts. */
+export async function applyAccount(tx: Executor, account: Stripe.Account): Promise<void> {
+  const ready = account.capabilities?.transfers === 'active';
+  await tx
+    .update(shops)
+    .set({ payoutsReadyAt: ready ? sql`coalesce(${shops.payoutsReadyAt}, now())` : null })
+    .where(eq(shops.payoutAccountId, account.id));
+}
+
+// ---------------------------------------------------------------------------
+// Paying in
+
+async function checkoutFor(deps: PaymentDeps, payment: typeof payments.$inferSelect, title: string) {
+  return deps.payments.checkout.sessions.create(
+    {
+      mode: 'payment',
+      line_items: [
+        {
+          quantity: 1,
+          price_data: { currency: payment.currency, unit_amount: payment.amountCents, product_data: { name: title } },
+        },
+      ],
+      payment_intent_data: { transfer_group: payment.jobId, metadata: { job_id: payment.jobId, payment_id: payment.id } },
+      metadata: { job_id: payment.jobId, payment_id: payment.id },
+      success_url: `${deps.appUrl}/jobs/${payment.jobId}?payment=done&session={CHECKOUT_SESSION_ID}`,
+      cancel_url: `${deps.appUrl}/jobs/${payment.jobId}?payment=cancelled`,
+    },
+    { idempotencyKey: `checkout-${payment.id}` },
+  );
+}
+
+/**
+ * The builder pays the accepted bid's total. A pending payment is reused, so
+ * pressing Pay twice makes one Checkout Session.
+ */
+export async function startJobCheckout(deps: PaymentDeps, user: User, jobId: string): Promise<{ url: string }> {
+  const job = await findJob(deps.db, jobId);
+  if (!job || job.builderId !== user.id) throw notFound('No job with that id.');
+  if (job.status !== 'awarded' || !job.awardedBidId) throw conflict('Only a job with an accepted bid waits for payment.', 'job_not_awarded');
+  const [bid] = await deps.db.select().from(bids).where(eq(bids.id, job.awardedBidId));
+  const payment = await deps.db.transaction(async (tx) => {
+    const [existing] = await tx
+      .select()
+      .from(payments)
+      .where(and(eq(payments.jobId, job.id), eq(payments.kind, 'bid'), inArray(payments.status, ['pending', 'paid'])))
+      .for('update');
+    if (existing?.status === 'paid') throw conflict('This job is already paid.', 'already_paid');
+    if (existing) return existing;
+    const [created] = await tx.insert(payments).values({ jobId: job.id, kind: 'bid', amountCents: bid.totalCents, currency: currencyOf(deps) }).returning();
+    return created;
+  });
+  const session = await checkoutFor(deps, payment, `Machine work: ${job.title}`);
+  await deps.db.update(payments).set({ checkoutSessionId: session.id, updatedAt: new Date() }).where(eq(payments.id, payment.id));
+  return { url: session.url! };
+}
+
+/** The builder pays an approved change order; an unpaid earlier attempt is reused. */
+export async function startChangeOrderCheckout(
+  deps: PaymentDeps,
+  job: { id: string; title: string },
+  order: typeof changeOrders.$inferSelect,
+): Promise<{ url: string }> {
+  const payment = await deps.db.transaction(async (tx) => {
+    const [existing] = await tx
+      .select()
+      .from(payments)
+      .where(and(eq(payments.changeOrderId, order.id), inArray(payments.status, ['pending', 'paid'])))
+      .for('update');
+    if (existing?.status === 'paid') throw conflict('This change order is already paid.', 'already_paid');
+    if (existing) return existing;
+    const [created] = await tx
+      .insert(payments)
+      .values({ jobId: job.id, kind: 'change_order', changeOrderId: order.id, amountCents: order.amountCents, currency: currencyOf(deps) })
+      .returning();
+    return created;
+  });
+  const session = await checkoutFor(deps, payment, `Extra work on ${job.title}: ${order.description}`.slice(0, 250));
+  await deps.db.update(payments).set({ checkoutSessionId: session.id, updatedAt: new Date() }).where(eq(payments.id, payment.id));
+  return { url: session.url! };
+}
+
+/**
+ * A Checkout Session finished. The session is read back from the API (never
+ * trusted from the event alone) and, when paid, the payment, its ledger entry
+ * and the job's new state are written in one transaction, once.
+ */
+export async function applyCheckoutSession(deps: PaymentDeps, sessionId: string): Promise<void> {
+  const session = await deps.payments.checkout.sessions.retrieve(sessionId, { expand: ['payment_intent.latest_charge'] });
+  const paymentId = session.metadata?.payment_id;
+  if (!paymentId) return;
+  const intent = session.payment_intent as Stripe.PaymentIntent | null;
+  const charge = intent && typeof intent === 'object' ? (intent.latest_charge as Stripe.Charge | null) : null;
+  let jobId: string | undefined;
+  await deps.db.transaction(async (tx) => {
+    const [payment] = await tx.select().from(payments).where(eq(payments.id, paymentId)).for('update');
+    if (!payment) return;
+    jobId = payment.jobId;
+    if (session.status === 'expired' && payment.status === 'pending') {
+      await tx.update(payments).set({ status: 'expired', updatedAt: new Date() }).where(eq(payments.id, payment.id));
+      return;
+    }
+    if (session.payment_status !== 'paid' || !intent || !charge || payment.status === 'paid') return;
+    if (session.amount_total !== payment.amountCents) throw new Error(`paid ${session.amount_total} for a payment of ${payment.amountCents}`);
+    await tx
+      .update(payments)
+      .set({ status: 'paid', paidAt: new Date(), paymentIntentId: intent.id, chargeId: charge.id, checkoutSessionId: session.id, failureMessage: null, updatedAt: new Date() })
+      .where(eq(payments.id, payment.id));
+    await appendLedger(tx, { jobId: payment.jobId, paymentId: payment.id, kind: 'paid_in', amountCents: payment.amountCents, reference: charge.id });
+    if (payment.kind === 'bid') {
+      await tx.update(jobs).set({ status: 'funded', updatedAt: new Date() }).where(and(eq(jobs.id, payment.jobId), eq(jobs.status, 'awarded')));
+    } else if (payment.changeOrderId) {
+      await tx.update(changeOrders).set({ status: 'paid', updatedAt: new Date() }).where(eq(changeOrders.id, payment.changeOrderId));
+    }
+    const job = (await findJob(tx, payment.jobId))!;
+    const parties = await partiesOf(tx, job.id);
+    const receipt = { jobTitle: job.title, amountCents: payment.amountCents, what: payment.kind === 'bid' ? 'the accepted bid' : 'a change order', url: `${deps.appUrl}/jobs/${job.id}` };
+    await enqueueMail(tx, parties.builderEmail, paymentReceiptMail({ ...receipt, name: parties.builderName, side: 'builder' }));
+    if (parties.shopEmail) await enqueueMail(tx, parties.shopEmail, paymentReceiptMail({ ...receipt, name: parties.shopName!, side: 'shop' }));
+  });
+  if (jobId) deps.hub?.jobChanged(jobId, 'job_updated');
+}
+
+/** Remembers why a card was refused, for the builder's page. */
+export async function applyPaymentFailed(deps: PaymentDeps, intent: Stripe.PaymentIntent): Promise<void> {
+  const paymentId = intent.metadata?.payment_id;
+  if (!paymentId) return;
+  const message = intent.last_payment_error?.message ?? 'The payment did not go through.';
+  await deps.db.update(payments).set({ failureMessage: message, updatedAt: new Date() }).where(and(eq(payments.id, paymentId), eq(payments.status, 'pending')));
+}
+
+async function partiesOf(tx: Executor, jobId: string) {
+  const [row] = await tx
+    .select({ builderEmail: users.email, builderName: users.displayName, awardedBidId: jobs.awardedBidId })
+    .from(jobs)
+    .innerJoin(users, eq(users.id, jobs.builderId))
+    .where(eq(jobs.id, jobId));
+  let shopEmail: string | undefined;
+  let shopName: string | undefined;
+  if (row.awardedBidId) {
+    const [shop] = await tx
+      .select({ email: users.email, name: shops.name })
+      .from(bids)
+      .innerJoin(shops, eq(shops.id, bids.shopId))
+      .innerJoin(users, eq(users.id, shops.userId))
+      .where(eq(bids.id, row.awardedBidId));
+    shopEmail = shop?.email;
+    shopName = shop?.name;
+  }
+  return { ...row, shopEmail, shopName };
+}
+
+// ---------------------------------------------------------------------------
+// Paying out and refunding
+
+async function awardedShop(tx: Executor, jobId: string) {
+  const job = await findJob(tx, jobId);
+  if (!job?.awardedBidId) throw conflict('This job has no accepted bid.', 'job_not_awarded');
+  const [shop] = await tx.select().from(shops).innerJoin(bids, eq(bids.shopId, shops.id)).where(eq(bids.id, job.awardedBidId));
+  return { job, shop: shop.shops };
+}
+
+/**
+ * Plans the movements that empty what the job holds: for each paid payment,
+ * its share to the shop (less the fee) and/or back to the builder. Planning
+ * happens under the job's row lock and each movement has a key derived from
+ * the payment, so any number of callers plan the same movements once.
+ */
+async function planMoves(tx: Executor, jobId: string, shopShareCents: number | 'all'): Promise<void> {
+  const job = await findJob(tx, jobId, { forUpdate: true });
+  if (!job) throw notFound('No job with that id.');
+  const paid = await tx.select().from(payments).where(and(eq(payments.jobId, jobId), eq(payments.status, 'paid'))).orderBy(asc(payments.paidAt));
+  const planned = await tx.select().from(moneyMoves).where(eq(moneyMoves.jobId, jobId));
+  if (planned.length > 0) return; // already decided: the same decision is carried out, not a second one
+  if (paid.length === 0) throw conflict('Nothing has been paid for this job.', 'nothing_held');
+  const total = paid.reduce((sum, p) => sum + p.amountCents, 0);
+  let toShop = shopShareCents === 'all' ? total : shopShareCents;
+  if (!Number.isSafeInteger(toShop) || toShop < 0 || toShop > total) {
+    throw new AppError('invalid_input', `The shop's share must be between $0 and what is held.`, 400, { shopCents: 'Must be between 0 and the amount held.' });
+  }
+  const feeBps = job.feeBps ?? 0;
+  const rows: Array<typeof moneyMoves.$inferInsert> = [];
+  for (const payment of paid) {
+    const shopPart = Math.min(toShop, payment.amountCents);
+    toShop -= shopPart;
+    const refundPart = payment.amountCents - shopPart;
+    if (shopPart > 0) {
+      const fee = feeFor(shopPart, feeBps);
+      rows.push({ jobId, paymentId: payment.id, kind: 'release', amountCents: shopPart - fee, feeCents: fee, idempotencyKey: `release-${payment.id}` });
+    }
+    if (refundPart > 0) rows.push({ jobId, paymentId: payment.id, kind: 'refund', amountCents: refundPart, idempotencyKey: `refund-${payment.id}` });
+  }
+  await tx.insert(moneyMoves).values(rows).onConflictDoNothing();
+}
+
+/** Carries out one planned movement with its key; the ledger is written once, when it is done. */
+export async function runMove(deps: PaymentDeps, moveId: string): Promise<'done' | 'pending'> {
+  const [move] = await deps.db.select().from(moneyMoves).where(eq(moneyMoves.id, moveId));
+  if (!move || move.status === 'done') return 'done';
+  const [payment] = await deps.db.select().from(payments).where(eq(payments.id, move.paymentId));
+  try {
+    let providerId: string;
+    if (move.kind === 'release') {
+      const { shop } = await awardedShop(deps.db, move.jobId);
+      if (!shop.payoutAccountId) throw new Error('the shop has no payout account');
+      if (move.amountCents === 0) {
+        providerId = `none-${move.id}`;
+      } else {
+        const transfer = await deps.payments.transfers.create(
+          { amount: move.amountCents, currency: payment.currency, destination: shop.payoutAccountId, transfer_group: move.jobId, source_transaction: payment.chargeId!, metadata: { job_id: move.jobId, payment_id: payment.id } },
+          { idempotencyKey: move.idempotencyKey },
+        );
+        providerId = transfer.id;
+      }
+    } else {
+      const refund = await deps.payments.refunds.create(
+        { payment_intent: payment.paymentIntentId!, amount: move.amountCents, metadata: { job_id: move.jobId, payment_id: payment.id } },
+        { idempotencyKey: move.idempotencyKey },
+      );
+      providerId = refund.id;
+    }
+    await deps.db.transaction(async (tx) => {
+      const [claimed] = await tx
+        .update(moneyMoves)
+        .set({ status: 'done', providerId, doneAt: new Date(), lastError: null, updatedAt: new Date() })
+        .where(and(eq(moneyMoves.id, move.id), eq(moneyMoves.status, 'pending')))
+        .returning();
+      if (!claimed) return; // someone else finished it first
+      if (move.kind === 'release') {
+        if (move.amountCents > 0) await appendLedger(tx, { jobId: move.jobId, paymentId: payment.id, kind: 'released', amountCents: move.amountCents, reference: providerId });
+        if (move.feeCents > 0) await appendLedger(tx, { jobId: move.jobId, paymentId: payment.id, kind: 'fee', amountCents: move.feeCents, reference: `fee-${move.id}` });
+      } else {
+        await appendLedger(tx, { jobId: move.jobId, paymentId: payment.id, kind: 'refunded', amountCents: move.amountCents, reference: providerId });
+      }
+      await settleJobIfEmpty(deps, tx, move.jobId);
+    });
+    return 'done';
+  } catch (error) {
+    const message = error instanceof Error ? error.message : String(error);
+    await deps.db
+      .update(moneyMoves)
+      .set({
+        attempts: sql`${moneyMoves.attempts} + 1`,
+        lastError: message.slice(0, 500),
+        nextAttemptAt: sql`now() + least(power(2, ${moneyMoves.attempts}) * interval '5 seconds', interval '10 minutes')`,
+        updatedAt: new Date(),
+      })
+      .where(and(eq(moneyMoves.id, move.id), eq(moneyMoves.status, 'pending')));
+    return 'pending';
+  }
+}
+
+/** Once nothing is held and every movement is done, the job reaches its end state and both sides get a receipt. */
+async function settleJobIfEmpty(deps: PaymentDeps, tx: Executor, jobId: string) {
+  const pending = await tx.select({ id: moneyMoves.id }).from(moneyMoves).where(and(eq(moneyMoves.jobId, jobId), eq(moneyMoves.status, 'pending')));
+  if (pending.length > 0) return;
+  const balance = await jobBalance(tx, jobId);
+  if (balance.held !== 0) return;
+  const job = (await findJob(tx, jobId, { forUpdate: true }))!;
+  const parties = await partiesOf(tx, jobId);
+  const url = `${deps.appUrl}/jobs/${jobId}`;
+  if (balance.released + balance.fee > 0 && parties.shopEmail) {
+    await enqueueMail(tx, parties.shopEmail, payoutSentMail({ name: parties.shopName!, jobTitle: job.title, amountCents: balance.released, feeCents: balance.fee, url }));
+  }
+  if (balance.refunded > 0) await enqueueMail(tx, parties.builderEmail, refundSentMail({ name: parties.builderName, jobTitle: job.title, amountCents: balance.refunded, url }));
+  const next = balance.refunded === balance.paidIn ? 'cancelled' : job.status === 'disputed' ? 'resolved' : 'completed';
+  await tx.update(jobs).set({ status: next, updatedAt: new Date() }).where(eq(jobs.id, jobId));
+}
+
+async function carryOut(deps: PaymentDeps, jobId: string) {
+  const moves = await deps.db.select().from(moneyMoves).where(and(eq(moneyMoves.jobId, jobId), eq(moneyMoves.status, 'pending')));
+  for (const move of moves) await runMove(deps, move.id);
+  deps.hub?.jobChanged(jobId, 'job_updated');
+  return moneyView(deps.db, jobId);
+}
+
+/** Everything held goes to the shop, less the platform fee. Safe to call any number of times, at once. */
+export async function releaseJob(deps: PaymentDeps, jobId: string) {
+  await deps.db.transaction((tx) => planMoves(tx, jobId, 'all'));
+  return carryOut(deps, jobId);
+}
+
+/** Everything held goes back to the builder. */
+export async function refundJob(deps: PaymentDeps, jobId: string) {
+  await deps.db.transaction((tx) => planMoves(tx, jobId, 0));
+  return carryOut(deps, jobId);
+}
+
+/** `shopCents` of what is held to the shop (less the fee on it), the rest back to the builder. */
+export async function splitJob(deps: PaymentDeps, jobId: string, shopCents: number) {
+  await deps.db.transaction((tx) => planMoves(tx, jobId, shopCents));
+  return carryOut(deps, jobId);
+}
+
+/** A builder cancelling a paid job gets everything back. */
+export async function cancelFundedJob(deps: PaymentDeps, user: User, jobId: string) {
+  const job = await findJob(deps.db, jobId);
+  if (!job || job.builderId !== user.id) throw notFound('No job with that id.');
+  if (job.status !== 'funded') throw conflict('Only a paid job that the shop has not started can be cancelled for a refund.', 'job_not_refundable');
+  return refundJob(deps, jobId);
+}
+
+/** The job's money as the page shows it: balance and whether a payout or refund is still on its way. */
+export async function moneyView(db: Executor, jobId: string) {
+  const [balance, moves, paymentRows] = await Promise.all([
+    jobBalance(db, jobId),
+    db.select().from(moneyMoves).where(eq(moneyMoves.jobId, jobId)),
+    db.select().from(payments).where(eq(payments.jobId, jobId)).orderBy(asc(payments.createdAt)),
+  ]);
+  return {
+    balance,
+    pending: moves.filter((m) => m.status === 'pending').map((m) => ({ kind: m.kind, amountCents: m.amountCents, attempts: m.attempts, lastError: m.lastError })),
+    payments: paymentRows.map((p) => ({ id: p.id, kind: p.kind, amountCents: p.amountCents, status: p.status, failureMessage: p.failureMessage, paidAt: p.paidAt?.toISOString() ?? null })),
+  };
+}
+
+/** Who may see a job's money: its builder, the awarded shop, admins. */
+export async function moneyViewFor(deps: PaymentDeps, user: User, jobId: string) {
+  const job = await findJob(deps.db, jobId);
+  if (!job) throw notFound('No job with that id.');
+  if (user.role !== 'admin' && job.builderId !== user.id) {
+    const shop = user.role === 'shop' ? await findShopByUser(deps.db, user.id) : undefined;
+    const awarded = job.awardedBidId ? (await deps.db.select({ shopId: bids.shopId }).from(bids).where(eq(bids.id, job.awardedBidId)))[0] : undefined;
+    if (!shop || awarded?.shopId !== shop.id) throw forbidden('This job’s money is not yours to see.');
+  }
+  return moneyView(deps.db, jobId);
+}
+
+/** Retries movements that failed (the payment API was away), with the same keys, until they succeed. */
+export function startMoneyWorker(deps: PaymentDeps, intervalMs = 5_000) {
+  let running = false;
+  const timer = setInterval(async () => {
+    if (running) return;
+    running = true;
+    try {
+      const due = await deps.db.select({ id: moneyMoves.id }).from(moneyMoves).where(and(eq(moneyMoves.status, 'pending'), lte(moneyMoves.nextAttemptAt, sql`now()`))).limit(20);
+      for (const { id } of due) await runMove(deps, id);
+    } catch {
+      // The database itself may be away; the next pass tries again.
+    } finally {
+      running = false;
+    }
+  }, intervalMs);
+  timer.unref();
+  return { stop: () => clearInterval(timer), runDue: async () => {
+    const due = await deps.db.select({ id: moneyMoves.id }).from(moneyMoves).where(eq(moneyMoves.status, 'pending'));
+    for (const { id } of due) await runMove(deps, id);
+  } };
+}

@@ -1,0 +1,25 @@
+import { z } from 'zod';
+import { centsSchema } from './common';
+
+export const changeOrderInputSchema = z.object({
+  description: z.string({ error: 'Describe the extra work.' }).trim().min(4, 'Describe the extra work.').max(1000, 'Use at most 1,000 characters.'),
+  amountCents: centsSchema('Price').min(1, 'Price must be more than $0.'),
+});
+export type ChangeOrderInput = z.infer<typeof changeOrderInputSchema>;
+
+export const splitSchema = z.object({ shopCents: centsSchema('The shop’s share') });
+
+export interface MoneyView {
+  balance: { paidIn: number; released: number; fee: number; refunded: number; held: number };
+  pending: Array<{ kind: 'release' | 'refund'; amountCents: number; attempts: number; lastError: string | null }>;
+  payments: Array<{ id: string; kind: 'bid' | 'change_order'; amountCents: number; status: 'pending' | 'paid' | 'failed' | 'expired'; failureMessage: string | null; paidAt: string | null }>;
+}
+
+export interface ChangeOrder {
+  id: string;
+  jobId: string;
+  description: string;
+  amountCents: number;
+  status: 'proposed' | 'approved' | 'paid' | 'declined';
+  createdAt: string;
+}
