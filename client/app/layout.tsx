@@ -1,9 +1,17 @@
+import { outboxStorageKey } from '@client/features/messages/outbox';
+import { useQueryClient } from '@tanstack/react-query';
+import { useEffect, useState } from 'react';
 import { NavLink, Outlet, ScrollRestoration, useNavigate } from 'react-router-dom';
 import { toast } from 'sonner';
 import type { Me } from '@shared/schemas/auth';
+import { CountBadge } from '@client/components/ui/count-badge';
+import { authKeys } from '@client/features/auth/api/auth-keys';
 import { useSignOut } from '@client/features/auth/api/auth-mutations';
 import { useMe } from '@client/features/auth/api/use-me';
+import { useUnreadTotal } from '@client/features/messages/api/threads';
+import { MessagesLive } from '@client/features/messages/components/messages-live';
 import { cn } from '@client/lib/cn';
+import { RealtimeProvider, useConnectionStatus } from '@client/lib/realtime';
 
 interface NavItem {
   to: string;
@@ -20,6 +28,7 @@ export const navigationByRole: Record<Me['role'] | 'anonymous', NavItem[]> = {
   builder: [
     { to: '/dashboard', label: 'Workbench' },
     { to: '/jobs', label: 'My jobs' },
+    { to: '/messages', label: 'Messages' },
     { to: '/jobs/new', label: 'Post a job' },
     { to: '/shops', label: 'Shops' },
     { to: '/calculator', label: 'Calculator' },
@@ -28,6 +37,7 @@ export const navigationByRole: Record<Me['role'] | 'anonymous', NavItem[]> = {
     { to: '/dashboard', label: 'Shop floor' },
     { to: '/board', label: 'Job board' },
     { to: '/bids', label: 'My bids' },
+    { to: '/messages', label: 'Messages' },
     { to: '/shop/profile', label: 'Shop profile' },
     { to: '/calculator', label: 'Calculator' },
   ],
@@ -46,11 +56,42 @@ function navClass({ isActive }: { isActive: boolean }) {
   );
 }
 
+/**
+ * The live connection's state, said quietly and only when it matters: at
+ * once when the browser is offline, after a short grace while reconnecting
+ * (a blip should not flash a warning).
+ */
+function ConnectionIndicator() {
+  const status = useConnectionStatus();
+  const [show, setShow] = useState(false);
+  useEffect(() => {
+    if (status === 'connected' || status === 'offline') {
+      setShow(status === 'offline');
+      return;
+    }
+    const timer = setTimeout(() => setShow(true), 2_500);
+    return () => clearTimeout(timer);
+  }, [status]);
+  const visible = show && status !== 'connected';
+  return (
+    <p role="status" className={cn('text-sm', visible && 'flex items-center gap-2 rounded-full bg-caution-soft px-3 py-1 font-semibold text-caution')} data-testid="connection-status">
+      {visible && (
+        <>
+          <span aria-hidden className="size-2 rounded-full bg-caution" />
+          {status === 'offline' ? 'Offline: messages wait and go when you are back' : 'Reconnecting …'}
+        </>
+      )}
+    </p>
+  );
+}
+
 function Account({ me }: { me: Me }) {
   const navigate = useNavigate();
   const signOut = useSignOut({
     mutationConfig: {
       onSuccess: () => {
+        // Unsent messages stay with the account, not on a computer someone else may use next.
+        window.localStorage.removeItem(outboxStorageKey(me.id));
         toast.success('You are signed out.');
         navigate('/', { replace: true });
       },
@@ -75,50 +116,60 @@ function Account({ me }: { me: Me }) {
 
 export function Layout() {
   const { data: me } = useMe();
+  const queryClient = useQueryClient();
   const items = navigationByRole[me?.role ?? 'anonymous'];
+  const talks = me?.role === 'builder' || me?.role === 'shop';
+  const unread = useUnreadTotal({ enabled: talks });
   return (
-    <div className="flex min-h-screen flex-col">
-      <a href="#main" className="sr-only focus:not-sr-only focus:absolute focus:left-2 focus:top-2 focus:rounded focus:bg-white focus:p-2">
-        Skip to the content
-      </a>
-      <header className="border-b-4 border-brass-500 bg-paper-raised">
-        <div className="mx-auto flex max-w-page flex-wrap items-center justify-between gap-3 px-4 py-3">
-          <div className="flex items-center gap-6">
-            <NavLink to={me ? '/dashboard' : '/'} className="text-xl font-extrabold tracking-tight text-slate-700">
-              Tenth<span className="text-brass-700">mark</span>
-            </NavLink>
-            <nav aria-label="Main" className="flex gap-1">
-              {items.map((item) => (
-                <NavLink key={item.to} to={item.to} end className={navClass}>
-                  {item.label}
-                </NavLink>
-              ))}
-            </nav>
-          </div>
-          {me ? (
-            <Account me={me} />
-          ) : (
-            <div className="flex gap-2">
-              <NavLink to="/signin" className={navClass}>
-                Sign in
+    <RealtimeProvider userId={me?.id} onUnauthenticated={() => void queryClient.invalidateQueries({ queryKey: authKeys.me() })}>
+      {me && <MessagesLive />}
+      <div className="flex min-h-screen flex-col">
+        <a href="#main" className="sr-only focus:not-sr-only focus:absolute focus:left-2 focus:top-2 focus:rounded focus:bg-white focus:p-2">
+          Skip to the content
+        </a>
+        <header className="border-b-4 border-brass-500 bg-paper-raised">
+          <div className="mx-auto flex max-w-page flex-wrap items-center justify-between gap-3 px-4 py-3">
+            <div className="flex items-center gap-6">
+              <NavLink to={me ? '/dashboard' : '/'} className="text-xl font-extrabold tracking-tight text-slate-700">
+                Tenth<span className="text-brass-700">mark</span>
               </NavLink>
-              <NavLink to="/signup" className={navClass}>
-                Create an account
-              </NavLink>
+              <nav aria-label="Main" className="flex flex-wrap gap-1">
+                {items.map((item) => (
+                  <NavLink key={item.to} to={item.to} end className={navClass}>
+                    {item.label}
+                    {item.to === '/messages' && talks && <CountBadge count={unread} meaning="unread" />}
+                  </NavLink>
+                ))}
+              </nav>
             </div>
-          )}
-        </div>
-      </header>
-      <ScrollRestoration />
-      <main id="main" className="mx-auto w-full max-w-page flex-1 px-4 py-8">
-        <Outlet />
-      </main>
-      <footer className="border-t border-slate-200 bg-paper-sunk">
-        <p className="mx-auto max-w-page px-4 py-4 text-sm text-ink-soft">
-          Tenthmark · figures shown are guidance; engine and piston makers' specifications, calibrated instruments, local codes and
-          licensed practice govern machine work.
-        </p>
-      </footer>
-    </div>
+            {me ? (
+              <div className="flex flex-wrap items-center gap-3">
+                <ConnectionIndicator />
+                <Account me={me} />
+              </div>
+            ) : (
+              <div className="flex gap-2">
+                <NavLink to="/signin" className={navClass}>
+                  Sign in
+                </NavLink>
+                <NavLink to="/signup" className={navClass}>
+                  Create an account
+                </NavLink>
+              </div>
+            )}
+          </div>
+        </header>
+        <ScrollRestoration />
+        <main id="main" className="mx-auto w-full max-w-page flex-1 px-4 py-8">
+          <Outlet />
+        </main>
+        <footer className="border-t border-slate-200 bg-paper-sunk">
+          <p className="mx-auto max-w-page px-4 py-4 text-sm text-ink-soft">
+            Tenthmark · figures shown are guidance; engine and piston makers' specifications, calibrated instruments, local codes and
+            licensed practice govern machine work.
+          </p>
+        </footer>
+      </div>
+    </RealtimeProvider>
   );
 }

@@ -53,6 +53,10 @@ export const router = createBrowserRouter([
               { path: '/shop/profile', lazy: () => import('./routes/shop-profile').then((m) => ({ Component: m.ShopProfileRoute })) },
             ],
           },
+          {
+            element: <RequireRole roles={['builder', 'shop']}><Outlet /></RequireRole>,
+            children: [{ path: '/messages', lazy: () => import('./routes/messages').then((m) => ({ Component: m.MessagesRoute })) }],
+          },
           { path: '*', element: <NotFoundRoute /> },
         ],
       },

@@ -34,3 +34,22 @@ export const shopKeys = {
   detail: (id: string) => [...shopKeys.details(), id] as const,
   own: () => [...shopKeys.all, 'own'] as const,
 };
+
+/** Conversations: the lists (with unread counts), each thread's history, and the newest message of a thread for previews. */
+export const threadKeys = {
+  all: ['threads'] as const,
+  lists: () => [...threadKeys.all, 'list'] as const,
+  mine: () => [...threadKeys.lists(), 'mine'] as const,
+  forJob: (jobId: string) => [...threadKeys.lists(), 'job', jobId] as const,
+  histories: () => [...threadKeys.all, 'history'] as const,
+  history: (threadId: string) => [...threadKeys.histories(), threadId] as const,
+  latests: () => [...threadKeys.all, 'latest'] as const,
+  latest: (threadId: string) => [...threadKeys.latests(), threadId] as const,
+};
+
+/** A job's money (payments, ledger balance, payouts on their way) and its change orders. */
+export const paymentKeys = {
+  all: (jobId: string) => ['payments', jobId] as const,
+  money: (jobId: string) => [...paymentKeys.all(jobId), 'money'] as const,
+  changeOrders: (jobId: string) => [...paymentKeys.all(jobId), 'change-orders'] as const,
+};

@@ -1,0 +1,118 @@
+import {
+  infiniteQueryOptions,
+  queryOptions,
+  useInfiniteQuery,
+  useMutation,
+  useQuery,
+  useQueryClient,
+  type InfiniteData,
+  type QueryClient,
+  type UseMutationOptions,
+} from '@tanstack/react-query';
+import type { HistoryPage, Message, ThreadSummary } from '@shared/schemas/messages';
+import { api, type ApiError } from '@client/lib/api-client';
+import { threadKeys } from '@client/lib/query-keys';
+import { toSearch } from '@client/lib/search-params';
+
+export const HISTORY_PAGE_SIZE = 30;
+
+export type HistoryData = InfiniteData<HistoryPage, string | null>;
+
+export const threadQueries = {
+  /** Every conversation of the signed-in person, newest first, with unread counts (the navigation badge and /messages). */
+  mine: () =>
+    queryOptions({
+      queryKey: threadKeys.mine(),
+      queryFn: () => api.get<{ threads: ThreadSummary[] }>('/api/threads').then((r) => r.threads),
+      staleTime: 30_000,
+    }),
+  /** The conversations about one job that the person is part of. */
+  forJob: (jobId: string) =>
+    queryOptions({
+      queryKey: threadKeys.forJob(jobId),
+      queryFn: () => api.get<{ threads: ThreadSummary[] }>(`/api/jobs/${jobId}/threads`).then((r) => r.threads),
+      staleTime: 30_000,
+    }),
+  /** A conversation's messages, newest page first; each page newest first. Kept current by live events, so not refetched on focus. */
+  history: (threadId: string) =>
+    infiniteQueryOptions({
+      queryKey: threadKeys.history(threadId),
+      queryFn: ({ pageParam }) =>
+        api.get<HistoryPage>(`/api/threads/${threadId}/messages${toSearch({ before: pageParam, limit: HISTORY_PAGE_SIZE })}`),
+      initialPageParam: null as string | null,
+      getNextPageParam: (last) => last.nextCursor,
+      staleTime: Infinity,
+    }),
+  /** The newest message of a conversation, for a one-line preview in a list. */
+  latest: (threadId: string) =>
+    queryOptions({
+      queryKey: threadKeys.latest(threadId),
+      queryFn: () => api.get<HistoryPage>(`/api/threads/${threadId}/messages?limit=1`).then((r) => r.messages[0] ?? null),
+      staleTime: 60_000,
+    }),
+};
+
+export const useMyThreads = (options?: { enabled?: boolean }) => useQuery({ ...threadQueries.mine(), enabled: options?.enabled ?? true });
+export const useJobThreads = (jobId: string) => useQuery(threadQueries.forJob(jobId));
+export const useThreadHistory = (threadId: string, options?: { enabled?: boolean }) =>
+  useInfiniteQuery({ ...threadQueries.history(threadId), enabled: options?.enabled ?? true });
+export const useLatestMessage = (threadId: string) => useQuery(threadQueries.latest(threadId));
+
+/** The sum of unread messages over all conversations, for the navigation. */
+export function useUnreadTotal(options?: { enabled?: boolean }): number {
+  const { data } = useMyThreads(options);
+  return (data ?? []).reduce((sum, thread) => sum + thread.unread, 0);
+}
+
+type Config<TData, TVars> = Omit<UseMutationOptions<TData, ApiError, TVars>, 'mutationFn'>;
+
+/**
+ * Opens (or finds) the conversation about a job: the builder names the shop
+ * that bid, a shop opens its own. The job's list gets the thread at once.
+ */
+export function useOpenThread(jobId: string, options?: { mutationConfig?: Config<ThreadSummary, { shopId?: string }> }) {
+  const queryClient = useQueryClient();
+  const { onSuccess, ...rest } = options?.mutationConfig ?? {};
+  return useMutation<ThreadSummary, ApiError, { shopId?: string }>({
+    ...rest,
+    mutationFn: ({ shopId }) => api.post<{ thread: ThreadSummary }>(`/api/jobs/${jobId}/threads`, shopId ? { shopId } : {}).then((r) => r.thread),
+    onSuccess: (thread, ...args) => {
+      queryClient.setQueryData<ThreadSummary[]>(threadKeys.forJob(jobId), (list) =>
+        list ? [thread, ...list.filter((t) => t.id !== thread.id)] : [thread],
+      );
+      void queryClient.invalidateQueries({ queryKey: threadKeys.lists() });
+      return onSuccess?.(thread, ...args);
+    },
+  });
+}
+
+// ---- the cache, kept current by live events ----
+
+/** Server order: newest first, ties broken by id, as the history endpoint sorts. */
+const newestFirst = (a: Message, b: Message) => (a.createdAt === b.createdAt ? b.id.localeCompare(a.id) : b.createdAt.localeCompare(a.createdAt));
+
+/** Puts a message into its conversation's history (once, by id) and its preview. */
+export function addMessageToCache(queryClient: QueryClient, message: Message) {
+  queryClient.setQueryData<HistoryData>(threadKeys.history(message.threadId), (data) => {
+    if (!data || data.pages.length === 0) return data;
+    if (data.pages.some((page) => page.messages.some((m) => m.id === message.id))) return data;
+    const [first, ...older] = data.pages;
+    return { ...data, pages: [{ ...first, messages: [message, ...first.messages].sort(newestFirst) }, ...older] };
+  });
+  queryClient.setQueryData<Message | null>(threadKeys.latest(message.threadId), (latest) =>
+    latest && newestFirst(latest, message) <= 0 ? latest : message,
+  );
+}
+
+/** The other person has read up to `messageId`: every list that shows the thread learns it. */
+export function setOtherRead(queryClient: QueryClient, threadId: string, messageId: string) {
+  queryClient.setQueriesData<ThreadSummary[]>({ queryKey: threadKeys.lists() }, (list) =>
+    list?.map((thread) => (thread.id === threadId ? { ...thread, otherLastReadMessageId: messageId } : thread)),
+  );
+}
+
+/** The messages of a loaded history, oldest first, as a conversation reads. */
+export function chronological(data: InfiniteData<HistoryPage, unknown> | undefined): Message[] {
+  if (!data) return [];
+  return data.pages.flatMap((page) => page.messages).reverse();
+}

@@ -1,0 +1,175 @@
+import { useQueryClient } from '@tanstack/react-query';
+import { createContext, createElement, useContext, useEffect, useRef, useState, type ReactNode } from 'react';
+import { io, type Socket } from 'socket.io-client';
+import { bidKeys, jobKeys, paymentKeys, threadKeys } from './query-keys';
+
+/**
+ * The live connection: one socket.io connection for the signed-in person,
+ * opened when someone signs in and closed when they sign out. The socket
+ * authenticates with the session cookie (same origin), so there is nothing
+ * to pass but the path.
+ */
+
+/** connecting: the first attempt; connected; reconnecting: it was up and is trying again; offline: the browser has no network, or the server refused the session. */
+export type ConnectionStatus = 'connecting' | 'connected' | 'reconnecting' | 'offline';
+
+/** What a socket handler answers: `{ ok: true, ... }` or `{ ok: false, error }`. */
+export type SocketAck<T extends object = object> =
+  | ({ ok: true } & T)
+  | { ok: false; error: { code: string; message: string; fields?: Record<string, string> } };
+
+interface RealtimeValue {
+  socket: Socket | null;
+  status: ConnectionStatus;
+  /** Whose connection it is; the outgoing message queue is kept per person. */
+  userId: string | null;
+}
+
+const RealtimeContext = createContext<RealtimeValue>({ socket: null, status: 'offline', userId: null });
+
+export interface RealtimeProviderProps {
+  /** The signed-in person's id; no id, no connection. */
+  userId: string | null | undefined;
+  /** The server refused the session (signed out elsewhere, suspended): the app should re-check who is signed in. */
+  onUnauthenticated?: () => void;
+  children: ReactNode;
+}
+
+export function RealtimeProvider({ userId, onUnauthenticated, children }: RealtimeProviderProps) {
+  const [socket, setSocket] = useState<Socket | null>(null);
+  const [status, setStatus] = useState<ConnectionStatus>('connecting');
+  const refused = useRef(onUnauthenticated);
+  refused.current = onUnauthenticated;
+
+  useEffect(() => {
+    if (!userId) {
+      setSocket(null);
+      setStatus('offline');
+      return;
+    }
+    const s = io({ path: '/socket.io', transports: ['websocket', 'polling'], withCredentials: true });
+    let everConnected = false;
+    setSocket(s);
+    setStatus(navigator.onLine ? 'connecting' : 'offline');
+
+    const onConnect = () => {
+      everConnected = true;
+      setStatus('connected');
+    };
+    const onDisconnect = () => setStatus(navigator.onLine ? 'reconnecting' : 'offline');
+    const onConnectError = (error: Error & { data?: { code?: string } }) => {
+      if (error.data?.code === 'unauthenticated') {
+        // socket.io does not retry a refusal by the server's middleware.
+        setStatus('offline');
+        refused.current?.();
+        return;
+      }
+      setStatus(!navigator.onLine ? 'offline' : everConnected ? 'reconnecting' : 'connecting');
+    };
+    // A socket can stay open for a long while after the network has gone (until
+    // the heartbeat notices); when the browser says it is offline, believe it,
+    // so waiting messages show as waiting, and come back as soon as it is online.
+    const wentOffline = () => {
+      s.disconnect();
+      setStatus('offline');
+    };
+    const cameOnline = () => {
+      if (!s.connected) {
+        setStatus('reconnecting');
+        s.connect();
+      }
+    };
+    s.on('connect', onConnect);
+    s.on('disconnect', onDisconnect);
+    s.on('connect_error', onConnectError);
+    window.addEventListener('offline', wentOffline);
+    window.addEventListener('online', cameOnline);
+    return () => {
+      window.removeEventListener('offline', wentOffline);
+      window.removeEventListener('online', cameOnline);
+      s.off('connect', onConnect);
+      s.off('disconnect', onDisconnect);
+      s.off('connect_error', onConnectError);
+      s.disconnect();
+    };
+  }, [userId]);
+
+  return createElement(RealtimeContext.Provider, { value: { socket, status, userId: userId ?? null } }, children);
+}
+
+/** The live connection, or null when nobody is signed in. */
+export function useSocket(): Socket | null {
+  return useContext(RealtimeContext).socket;
+}
+
+export function useConnectionStatus(): ConnectionStatus {
+  return useContext(RealtimeContext).status;
+}
+
+/** The id of the person the connection belongs to. */
+export function useRealtimeUserId(): string | null {
+  return useContext(RealtimeContext).userId;
+}
+
+/** Listens to a server event for as long as the component is mounted; the handler may change between renders. */
+export function useSocketEvent<T>(event: string, handler: (payload: T) => void) {
+  const socket = useSocket();
+  const latest = useRef(handler);
+  latest.current = handler;
+  useEffect(() => {
+    if (!socket) return;
+    const listener = (payload: T) => latest.current(payload);
+    socket.on(event, listener);
+    return () => {
+      socket.off(event, listener);
+    };
+  }, [socket, event]);
+}
+
+/**
+ * Membership of a server room named by `key` (a job, a conversation): `join`
+ * runs now if the socket is up and again after every reconnect (a room joined
+ * before a lost connection must be joined again), `leave` when the key
+ * changes or the component unmounts. A null key joins nothing.
+ */
+export function useRoom(key: string | null, join: (socket: Socket, key: string) => void, leave: (socket: Socket, key: string) => void) {
+  const socket = useSocket();
+  const handlers = useRef({ join, leave });
+  handlers.current = { join, leave };
+  useEffect(() => {
+    if (!socket || key === null) return;
+    const run = () => handlers.current.join(socket, key);
+    if (socket.connected) run();
+    socket.on('connect', run);
+    return () => {
+      socket.off('connect', run);
+      if (socket.connected) handlers.current.leave(socket, key);
+    };
+  }, [socket, key]);
+}
+
+/**
+ * Keeps an open job page current: the page joins the job's room, and every
+ * change to the job (a bid placed, revised or withdrawn, an award, a status
+ * change) refreshes the queries that show it.
+ */
+export function useWatchJob(jobId: string | undefined) {
+  const queryClient = useQueryClient();
+  useRoom(
+    jobId || null,
+    (socket, id) => socket.emit('job:watch', { jobId: id }),
+    (socket, id) => socket.emit('job:unwatch', { jobId: id }),
+  );
+  useSocketEvent<{ jobId: string; change: string }>('job:changed', (event) => {
+    if (!jobId || event.jobId !== jobId) return;
+    void queryClient.invalidateQueries({ queryKey: jobKeys.detail(jobId) });
+    void queryClient.invalidateQueries({ queryKey: bidKeys.forJob(jobId) });
+    void queryClient.invalidateQueries({ queryKey: bidKeys.mine() });
+    void queryClient.invalidateQueries({ queryKey: jobKeys.boards() });
+    void queryClient.invalidateQueries({ queryKey: jobKeys.mineAll() });
+    // An award or a cancellation closes conversations to new messages.
+    void queryClient.invalidateQueries({ queryKey: threadKeys.forJob(jobId) });
+    // A payment confirmed, a payout made or extra work proposed.
+    void queryClient.invalidateQueries({ queryKey: paymentKeys.all(jobId) });
+  });
+}
