@@ -4,6 +4,7 @@ import { chromium, type Browser } from 'playwright-core';
 import { createDb, createPool } from '../../server/db/client';
 import { seedIfEmpty } from '../../server/dev/seed';
 import { startServer, type RunningServer } from '../../server/runtime';
+import { freePort } from './ports';
 import { sendWebhooksTo, startTestStandIn, TEST_WEBHOOK_SECRET } from './payments';
 import { createTestDatabase, testConfig } from './test-env';
 
@@ -26,7 +27,14 @@ export async function startBrowserApp(): Promise<{ server: RunningServer; paymen
   await seedIfEmpty(createDb(seedPool));
   await seedPool.end();
   const payments = await startTestStandIn();
-  const config = testConfig(database.url, { PORT: '0', STRIPE_API_URL: payments.standIn.url, STRIPE_WEBHOOK_SECRET: TEST_WEBHOOK_SECRET });
+  // The app's own address goes into links the payment pages send the browser back to, so it must be the real one.
+  const port = await freePort();
+  const config = testConfig(database.url, {
+    PORT: String(port),
+    APP_URL: `http://localhost:${port}`,
+    STRIPE_API_URL: payments.standIn.url,
+    STRIPE_WEBHOOK_SECRET: TEST_WEBHOOK_SECRET,
+  });
   const server = await startServer(config, { client: { kind: 'static', dir: clientDir }, migrate: false, mailIntervalMs: 200 });
   await sendWebhooksTo(payments.standIn, server.url);
   return {

@@ -1,9 +1,11 @@
+import { useQuery } from '@tanstack/react-query';
 import type { ReactNode } from 'react';
 import { Link, useParams } from 'react-router-dom';
 import type { JobDetail } from '@shared/schemas/jobs';
 import { Card } from '@client/components/ui/card';
 import { Notice } from '@client/components/ui/notice';
 import { useMe } from '@client/features/auth/api/use-me';
+import { bidQueries } from '@client/features/bids/api/bids';
 import { BidComparison } from '@client/features/bids/components/bid-comparison';
 import { ShopBidPanel } from '@client/features/bids/components/shop-bid-panel';
 import { useJob } from '@client/features/jobs/api/jobs';
@@ -14,7 +16,10 @@ import { JobStatusBadge } from '@client/features/jobs/components/job-status-badg
 import { formatDay, plural, statusWords } from '@client/features/jobs/components/job-words';
 import { PhotoGallery } from '@client/features/jobs/components/photo-gallery';
 import { PhotoUploader } from '@client/features/jobs/components/photo-uploader';
+import { ConversationPanel, type Bidder } from '@client/features/messages/components/conversation-panel';
 import { ApiError } from '@client/lib/api-client';
+import { useWatchJob } from '@client/lib/realtime';
+import { JobMoneyPanel } from '@client/features/payments/components/job-money-panel';
 
 function Section({ title, children, action }: { title: string; children: ReactNode; action?: ReactNode }) {
   return (
@@ -83,6 +88,12 @@ export function JobDetailRoute() {
   const { jobId = '' } = useParams();
   const { data: me } = useMe();
   const jobQuery = useJob(jobId);
+  useWatchJob(jobId);
+  // The builder writes to the shops that bid: the same bids the comparison shows (one request, shared by key).
+  const ownerTalks = jobQuery.data?.viewer.isOwner === true && jobQuery.data.status !== 'draft';
+  // A shop sees only its own bids: enough to know whether it is the one doing the work.
+  const shopAfterAward = me?.role === 'shop' && Boolean(jobQuery.data?.awardedBidId);
+  const bidsQuery = useQuery({ ...bidQueries.forJob(jobId), enabled: ownerTalks || shopAfterAward });
 
   if (jobQuery.isPending) return <p className="text-ink-soft">Loading the job …</p>;
   if (jobQuery.isError) return <LoadFailed error={jobQuery.error} />;
@@ -91,18 +102,26 @@ export function JobDetailRoute() {
   const isOwner = job.viewer.isOwner;
   const photosOpen = job.status === 'draft' || job.status === 'open';
   const showBids = (isOwner || me?.role === 'admin') && job.status !== 'draft';
+  const awardedBid = bidsQuery.data?.find((bid) => bid.id === job.awardedBidId);
+  const bidders: Bidder[] = [...(bidsQuery.data ?? [])]
+    .sort((a, b) => b.updatedAt.localeCompare(a.updatedAt))
+    .filter((bid, index, all) => all.findIndex((other) => other.shop.id === bid.shop.id) === index)
+    .map((bid) => ({ shopId: bid.shop.id, name: bid.shop.name, bidStatus: bid.status }));
 
   return (
     <div className="flex flex-col gap-6">
       <Header job={job} />
       {isOwner && <JobOwnerActions job={job} />}
+      <JobMoneyPanel job={job} isAwardedShop={me?.role === 'shop' && Boolean(awardedBid)} acceptedTotalCents={awardedBid?.totalCents} />
 
       {showBids && (
         <Section title="Bids">
           <BidComparison jobId={job.id} jobStatus={job.status} canDecide={isOwner} />
         </Section>
       )}
+      {ownerTalks && <ConversationPanel side="builder" jobId={job.id} jobStatus={job.status} bidders={bidders} />}
       {me?.role === 'shop' && <ShopBidPanel job={job} />}
+      {me?.role === 'shop' && <ConversationPanel side="shop" jobId={job.id} jobStatus={job.status} />}
 
       <div className="grid items-start gap-6 lg:grid-cols-[minmax(0,1fr)_20rem]">
         <div className="flex min-w-0 flex-col gap-6">

@@ -8,7 +8,7 @@ import { BidStatusBadge, days, formatMoment } from '@client/features/bids/compon
 const jobStatusWords: Record<string, string> = {
   open: 'open for bids',
   awarded: 'awarded',
-  funded: 'paid, held in escrow',
+  funded: 'paid, held until the builder accepts the inspection record',
   in_work: 'in work',
   inspection_submitted: 'inspection sent',
   completed: 'completed',

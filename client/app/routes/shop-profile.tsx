@@ -1,11 +1,15 @@
-import { Link } from 'react-router-dom';
+import { Link, useSearchParams } from 'react-router-dom';
+import { PayoutSetup } from '@client/features/payments/components/payout-setup';
 import { PageTitle } from '@client/components/ui/card';
 import { Notice } from '@client/components/ui/notice';
 import { useOwnShop } from '@client/features/shops/api/shops';
 import { ShopProfileForm } from '@client/features/shops/components/shop-profile-form';
 
 export function ShopProfileRoute() {
-  const own = useOwnShop();
+  const [params] = useSearchParams();
+  const returned = params.get('payouts') === 'return';
+  // Back from onboarding, the account's confirmation arrives by webhook a moment later: look again until it is ready.
+  const own = useOwnShop({ refetchInterval: (data) => (returned && data && data.payouts !== 'ready' ? 2_000 : false) });
   return (
     <div className="mx-auto max-w-4xl">
       <PageTitle
@@ -31,6 +35,7 @@ export function ShopProfileRoute() {
               Changes apply to bids you place from now on; bids already sent keep their prices.
             </p>
           )}
+          {own.data && <PayoutSetup status={own.data.payouts} returned={returned} />}
           <ShopProfileForm key={own.data?.id ?? 'new'} shop={own.data} />
         </>
       )}

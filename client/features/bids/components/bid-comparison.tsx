@@ -274,7 +274,8 @@ export function BidComparison({ jobId, jobStatus, canDecide }: BidComparisonProp
     <div className="flex flex-col gap-4">
       {accepted && (
         <Notice tone="success" title={`You accepted the bid from ${accepted.shop.name}`}>
-          {formatCents(accepted.totalCents)}, {days(accepted.turnaroundDays)}. Payment into escrow comes next; the shop starts once it is held.
+          {formatCents(accepted.totalCents)}, {days(accepted.turnaroundDays)}.
+          {jobStatus === 'awarded' && ' Your payment comes next; it is held until you accept the inspection record, and the shop starts once it is in.'}
         </Notice>
       )}
       <p className="text-ink-soft" data-testid="bid-summary">

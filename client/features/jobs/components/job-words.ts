@@ -10,8 +10,8 @@ import type { JobInput, JobStatus } from '@shared/schemas/jobs';
 export const statusWords: Record<JobStatus, { label: string; tone: BadgeTone; explain: string }> = {
   draft: { label: 'Draft', tone: 'muted', explain: 'Only you can see it. Publish it when it is ready for shops.' },
   open: { label: 'Open for bids', tone: 'info', explain: 'Shops can see it on the job board and bid.' },
-  awarded: { label: 'Awarded', tone: 'success', explain: 'You accepted a bid. Payment into escrow comes next.' },
-  funded: { label: 'Paid into escrow', tone: 'success', explain: 'The price is held by Tenthmark; the shop may start.' },
+  awarded: { label: 'Awarded', tone: 'success', explain: 'You accepted a bid. Pay next: the payment is held until you accept the inspection record.' },
+  funded: { label: 'Paid and held', tone: 'success', explain: 'Your payment is held by Tenthmark until you accept the inspection record; the shop may start.' },
   in_work: { label: 'In the shop', tone: 'success', explain: 'The shop has the parts and is working on them.' },
   inspection_submitted: { label: 'Results to review', tone: 'caution', explain: 'The shop sent its measured results for you to check.' },
   completed: { label: 'Completed', tone: 'success', explain: 'You accepted the results and the shop was paid.' },

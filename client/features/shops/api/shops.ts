@@ -4,7 +4,7 @@ import { ApiError, api } from '@client/lib/api-client';
 import { shopKeys, type DirectoryFilters } from '@client/lib/query-keys';
 import { toSearch } from '@client/lib/search-params';
 
-export type OwnShop = PublicShop & { notifyMatchingJobs: boolean };
+export type OwnShop = PublicShop & { notifyMatchingJobs: boolean; payouts: 'none' | 'pending' | 'ready' };
 
 export const shopQueries = {
   list: (filters: DirectoryFilters) =>
@@ -34,7 +34,11 @@ export type { DirectoryFilters };
 
 export const useShops = (filters: DirectoryFilters) => useQuery(shopQueries.list(filters));
 export const useShop = (id: string) => useQuery(shopQueries.detail(id));
-export const useOwnShop = () => useQuery(shopQueries.own());
+export const useOwnShop = (options: { refetchInterval?: (data: OwnShop | null | undefined) => number | false } = {}) =>
+  useQuery({
+    ...shopQueries.own(),
+    refetchInterval: (query) => (options.refetchInterval ? options.refetchInterval(query.state.data as OwnShop | null | undefined) : false),
+  });
 
 export function useSaveShopProfile(options?: { mutationConfig?: Omit<UseMutationOptions<OwnShop, ApiError, ShopProfileInput>, 'mutationFn'> }) {
   const queryClient = useQueryClient();

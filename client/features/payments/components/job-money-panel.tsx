@@ -1,0 +1,240 @@
+import { zodResolver } from '@hookform/resolvers/zod';
+import { useState } from 'react';
+import { useForm } from 'react-hook-form';
+import { useSearchParams } from 'react-router-dom';
+import { toast } from 'sonner';
+import { z } from 'zod';
+import { formatCents } from '@shared/catalogue';
+import type { JobDetail } from '@shared/schemas/jobs';
+import type { ChangeOrder } from '@shared/schemas/payments';
+import { Button } from '@client/components/ui/button';
+import { Card } from '@client/components/ui/card';
+import { ConfirmDialog } from '@client/components/ui/modal-dialog';
+import { Notice } from '@client/components/ui/notice';
+import { TextAreaField } from '@client/components/ui/text-area-field';
+import { TextField } from '@client/components/ui/text-field';
+import { applyServerErrors } from '@client/lib/form-errors';
+import {
+  useApproveChangeOrder,
+  useCancelAndRefund,
+  useChangeOrders,
+  useDeclineChangeOrder,
+  useMoney,
+  useProposeChangeOrder,
+  useStartCheckout,
+} from '../api/payments';
+
+const PAID_STATES = new Set(['funded', 'in_work', 'inspection_submitted', 'completed', 'disputed', 'resolved']);
+
+const HELD_WORDS =
+  'Your payment is held by Tenthmark until you accept the shop’s inspection record; then it goes to the shop, less Tenthmark’s fee. Until the shop starts, you can cancel for a full refund.';
+
+function Row({ label, value, testId }: { label: string; value: string; testId?: string }) {
+  return (
+    <div className="flex justify-between gap-4 border-b border-slate-100 py-1.5">
+      <dt className="text-ink-soft">{label}</dt>
+      <dd className="font-semibold tabular-nums" data-testid={testId}>
+        {value}
+      </dd>
+    </div>
+  );
+}
+
+/** The builder pays, sees what is held, cancels for a refund, and answers change orders. */
+function BuilderMoney({ job, acceptedTotalCents }: { job: JobDetail; acceptedTotalCents?: number }) {
+  const [params] = useSearchParams();
+  const confirming = params.get('payment') === 'done' && job.status === 'awarded';
+  const money = useMoney(job.id, { refetchInterval: confirming ? 1_500 : false });
+  const checkout = useStartCheckout(job.id);
+  const [cancelOpen, setCancelOpen] = useState(false);
+  const cancel = useCancelAndRefund(job.id, {
+    mutationConfig: {
+      onSuccess: () => {
+        setCancelOpen(false);
+        toast.success('The job is cancelled and your payment is on its way back.');
+      },
+    },
+  });
+  const lastPayment = money.data?.payments.filter((p) => p.kind === 'bid').at(-1);
+  const declined = params.get('payment') !== 'done' && lastPayment?.status === 'pending' ? lastPayment.failureMessage : null;
+
+  return (
+    <Card>
+      <h2 className="text-xl font-bold">Payment</h2>
+      {job.status === 'awarded' && (
+        <div className="mt-3 flex flex-col gap-3">
+          {confirming ? (
+            <Notice>Payment received by the payment page; waiting for the provider to confirm it. This updates by itself.</Notice>
+          ) : (
+            <>
+              <p>
+                Pay {acceptedTotalCents !== undefined ? <strong>{formatCents(acceptedTotalCents)}</strong> : 'the accepted bid'} to let the shop start.
+              </p>
+              <p className="text-sm text-ink-soft">{HELD_WORDS}</p>
+              {declined && (
+                <Notice tone="error" title="The last payment did not go through">
+                  {declined} Try again, or use another card.
+                </Notice>
+              )}
+              {checkout.isError && <Notice tone="error">{checkout.error.message}</Notice>}
+              <div>
+                <Button busy={checkout.isPending} onClick={() => checkout.mutate()}>
+                  {declined ? 'Try the payment again' : 'Pay and hold for the work'}
+                </Button>
+              </div>
+            </>
+          )}
+        </div>
+      )}
+      {PAID_STATES.has(job.status) && money.data && <Balance money={money.data} />}
+      {job.status === 'funded' && (
+        <>
+          <p className="mt-3 text-sm text-ink-soft">{HELD_WORDS}</p>
+          <Button variant="secondary" className="mt-3" onClick={() => setCancelOpen(true)}>
+            Cancel the job and get a refund
+          </Button>
+          <ConfirmDialog
+            open={cancelOpen}
+            onClose={() => setCancelOpen(false)}
+            onConfirm={() => cancel.mutate()}
+            title="Cancel this job and refund the payment?"
+            description="The shop is told, and everything you paid goes back to your card. This cannot be undone."
+            confirmLabel="Cancel and refund"
+            cancelLabel="Keep the job"
+            tone="danger"
+            busy={cancel.isPending}
+            error={cancel.error?.message}
+          />
+        </>
+      )}
+      {PAID_STATES.has(job.status) && <ChangeOrders job={job} side="builder" />}
+    </Card>
+  );
+}
+
+function Balance({ money }: { money: NonNullable<ReturnType<typeof useMoney>['data']> }) {
+  const { balance, pending } = money;
+  return (
+    <div className="mt-3">
+      <dl>
+        <Row label="Paid in" value={formatCents(balance.paidIn)} testId="money-paid" />
+        <Row label="Held now" value={formatCents(balance.held)} testId="money-held" />
+        {balance.released > 0 && <Row label="Paid to the shop" value={formatCents(balance.released)} testId="money-released" />}
+        {balance.fee > 0 && <Row label="Tenthmark’s fee" value={formatCents(balance.fee)} />}
+        {balance.refunded > 0 && <Row label="Refunded" value={formatCents(balance.refunded)} testId="money-refunded" />}
+      </dl>
+      {pending.length > 0 && (
+        <Notice tone="caution" className="mt-3" title="A payout is on its way">
+          {pending.map((p) => `${p.kind === 'release' ? 'Payment to the shop' : 'Refund'} of ${formatCents(p.amountCents)}`).join('; ')} is waiting for the
+          payment provider and is retried by itself.
+        </Notice>
+      )}
+    </div>
+  );
+}
+
+const changeOrderForm = z.object({
+  description: z.string().trim().min(4, 'Describe the extra work.').max(1000, 'Use at most 1,000 characters.'),
+  dollars: z.string().trim().regex(/^\d{1,7}(\.\d{1,2})?$/, 'Give a price in dollars, like 180 or 180.50.'),
+});
+
+function ChangeOrders({ job, side }: { job: JobDetail; side: 'builder' | 'shop' }) {
+  const orders = useChangeOrders(job.id);
+  const approve = useApproveChangeOrder();
+  const decline = useDeclineChangeOrder(job.id, { mutationConfig: { onSuccess: () => toast.success('Change order declined; the shop is told.') } });
+  const canPropose = side === 'shop' && (job.status === 'funded' || job.status === 'in_work');
+  if (!orders.data?.length && !canPropose) return null;
+  return (
+    <section className="mt-6" aria-labelledby="change-orders-heading">
+      <h3 id="change-orders-heading" className="text-lg font-bold">
+        Extra work
+      </h3>
+      {orders.data && orders.data.length > 0 && (
+        <ul className="mt-2 flex flex-col gap-2">
+          {orders.data.map((order: ChangeOrder) => (
+            <li key={order.id} className="rounded-lg border border-slate-200 bg-white p-3" data-testid="change-order">
+              <div className="flex flex-wrap items-baseline justify-between gap-2">
+                <span>{order.description}</span>
+                <strong className="tabular-nums">{formatCents(order.amountCents)}</strong>
+              </div>
+              <p className="text-sm text-ink-soft">
+                {{ proposed: 'Waiting for the builder', approved: 'Agreed, waiting for payment', paid: 'Paid and held', declined: 'Declined' }[order.status]}
+              </p>
+              {side === 'builder' && (order.status === 'proposed' || order.status === 'approved') && (
+                <div className="mt-2 flex gap-2">
+                  <Button busy={approve.isPending} onClick={() => approve.mutate(order.id)}>
+                    Agree and pay {formatCents(order.amountCents)}
+                  </Button>
+                  {order.status === 'proposed' && (
+                    <Button variant="secondary" busy={decline.isPending} onClick={() => decline.mutate(order.id)}>
+                      Decline
+                    </Button>
+                  )}
+                </div>
+              )}
+            </li>
+          ))}
+        </ul>
+      )}
+      {approve.isError && <Notice tone="error" className="mt-2">{approve.error.message}</Notice>}
+      {canPropose && <ProposeChangeOrder jobId={job.id} />}
+    </section>
+  );
+}
+
+function ProposeChangeOrder({ jobId }: { jobId: string }) {
+  const [formError, setFormError] = useState<string>();
+  const form = useForm<z.infer<typeof changeOrderForm>>({ resolver: zodResolver(changeOrderForm), defaultValues: { description: '', dollars: '' } });
+  const propose = useProposeChangeOrder(jobId, {
+    mutationConfig: {
+      onSuccess: () => {
+        toast.success('Sent to the builder.');
+        form.reset();
+      },
+    },
+  });
+  const onSubmit = form.handleSubmit(({ description, dollars }) => {
+    setFormError(undefined);
+    const [whole, fraction = ''] = dollars.split('.');
+    const amountCents = Number(whole) * 100 + Number(fraction.padEnd(2, '0'));
+    propose.mutate({ description, amountCents }, { onError: (error) => setFormError(applyServerErrors(error, form.setError, ['description'])) });
+  });
+  return (
+    <form onSubmit={onSubmit} noValidate aria-label="Propose extra work" className="mt-4 flex flex-col gap-3">
+      <p className="text-sm text-ink-soft">Found something on teardown? Propose the extra work with its price; the builder agrees and pays before you do it.</p>
+      {formError && <Notice tone="error">{formError}</Notice>}
+      <TextAreaField label="What needs doing, and why" rows={3} error={form.formState.errors.description?.message} {...form.register('description')} />
+      <TextField label="Price in dollars" inputMode="decimal" error={form.formState.errors.dollars?.message} {...form.register('dollars')} />
+      <div>
+        <Button type="submit" busy={propose.isPending}>
+          Send to the builder
+        </Button>
+      </div>
+    </form>
+  );
+}
+
+/** The awarded shop: whether the builder has paid, what is held for it, and extra work. */
+function ShopMoney({ job }: { job: JobDetail }) {
+  const money = useMoney(job.id, { enabled: PAID_STATES.has(job.status) });
+  return (
+    <Card>
+      <h2 className="text-xl font-bold">Payment</h2>
+      {job.status === 'awarded' && <Notice className="mt-3">Waiting for the builder’s payment. Start once it shows as held here.</Notice>}
+      {money.data && <Balance money={money.data} />}
+      {PAID_STATES.has(job.status) && (
+        <p className="mt-3 text-sm text-ink-soft">
+          The payment is held by Tenthmark and goes to your payout account, less Tenthmark’s fee, when the builder accepts your inspection record.
+        </p>
+      )}
+      <ChangeOrders job={job} side="shop" />
+    </Card>
+  );
+}
+
+/** Money on the job page: only for the job's builder and the shop doing the work. */
+export function JobMoneyPanel({ job, isAwardedShop, acceptedTotalCents }: { job: JobDetail; isAwardedShop: boolean; acceptedTotalCents?: number }) {
+  if (job.viewer.isOwner && (job.status === 'awarded' || PAID_STATES.has(job.status))) return <BuilderMoney job={job} acceptedTotalCents={acceptedTotalCents} />;
+  if (isAwardedShop && (job.status === 'awarded' || PAID_STATES.has(job.status))) return <ShopMoney job={job} />;
+  return null;
+}
