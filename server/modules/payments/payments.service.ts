@@ -391,8 +391,5 @@ export function startMoneyWorker(deps: PaymentDeps, intervalMs = 5_000) {
     }
   }, intervalMs);
   timer.unref();
-  return { stop: () => clearInterval(timer), runDue: async () => {
-    const due = await deps.db.select({ id: moneyMoves.id }).from(moneyMoves).where(eq(moneyMoves.status, 'pending'));
-    for (const { id } of due) await runMove(deps, id);
-  } };
+  return { stop: () => clearInterval(timer) };
 }
