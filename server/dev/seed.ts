@@ -1,6 +1,6 @@
 import { sql } from 'drizzle-orm';
 import type { Database } from '../db/client';
-import { users } from '../db/schema';
+import { shopRates, shops, users } from '../db/schema';
 import { hashPassword } from '../lib/auth/passwords';
 
 /**
@@ -8,6 +8,22 @@ import { hashPassword } from '../lib/auth/passwords';
  * the same password so a visitor can try each role.
  */
 export const DEMO_PASSWORD = 'tenthmark-demo';
+
+/** The two demo shops' public profiles and rate cards (invented businesses, invented prices). */
+const demoShops = {
+  'bench@lanternhill.test': {
+    profile: { name: 'Lantern Hill Machine Works', country: 'United States', region: 'Ohio', city: 'Dayton', takesShipped: true, turnaroundDays: 8,
+      capabilities: ['clean', 'crack-test', 'bore', 'hone', 'plateau-hone', 'torque-plate-hone', 'deck', 'line-hone'],
+      equipmentNotes: 'Vertical boring bar, power hone with torque plates for common small-block V8s, deck surfacer, 0.0001 in dial bore gauges checked against a setting ring.' },
+    rates: { clean: 9_500, 'crack-test': 6_000, bore: 3_500, hone: 2_500, 'plateau-hone': 1_500, 'torque-plate-hone': 3_000, deck: 18_000, 'line-hone': 32_500 },
+  },
+  'desk@kessrow.test': {
+    profile: { name: 'Kessrow Bore & Deck', country: 'United States', region: 'Indiana', city: 'Muncie', takesShipped: false, turnaroundDays: 5,
+      capabilities: ['bore', 'hone', 'deck', 'sleeve', 'head-resurface', 'valve-job'],
+      equipmentNotes: 'Boring and honing for iron blocks up to eight cylinders; sleeves fitted in house; head surfacing and valve work.' },
+    rates: { bore: 3_200, hone: 2_800, deck: 16_500, sleeve: 21_000, 'head-resurface': 9_000, 'valve-job': 42_000 },
+  },
+} as const;
 
 export const demoAccounts = [
   { role: 'admin', email: 'admin@tenthmark.test', displayName: 'Perrin Oakhollow (Tenthmark staff)' },
@@ -23,7 +39,7 @@ export async function seedIfEmpty(db: Database): Promise<boolean> {
   if (count > 0) return false;
   const passwordHash = await hashPassword(DEMO_PASSWORD);
   await db.transaction(async (tx) => {
-    await tx.insert(users).values(
+    const inserted = await tx.insert(users).values(
       demoAccounts.map((account) => ({
         email: account.email,
         displayName: account.displayName,
@@ -31,7 +47,13 @@ export async function seedIfEmpty(db: Database): Promise<boolean> {
         passwordHash,
         emailVerifiedAt: new Date(),
       })),
-    );
+    ).returning();
+    for (const user of inserted) {
+      const demo = demoShops[user.email as keyof typeof demoShops];
+      if (!demo) continue;
+      const [shop] = await tx.insert(shops).values({ userId: user.id, ...demo.profile, capabilities: [...demo.profile.capabilities] }).returning();
+      await tx.insert(shopRates).values(Object.entries(demo.rates).map(([operation, priceCents]) => ({ shopId: shop.id, operation, priceCents })));
+    }
   });
   return true;
 }

@@ -4,7 +4,7 @@ import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, it } from
 import type { JobDetail, JobInput } from '../../shared/schemas/jobs';
 import { DEMO_PASSWORD, demoAccounts } from '../../server/dev/seed';
 import type { RunningServer } from '../../server/runtime';
-import { inDays, jobInput, shopProfileInput } from '../factories';
+import { inDays, jobInput, shopProfileInput, uniqueEmail } from '../factories';
 import { completeOnboardingPage } from '../setup/payments';
 import { artifactsDir, launchBrowser, startBrowserApp } from '../setup/browser';
 
@@ -41,7 +41,6 @@ afterEach(async () => {
 const url = (path: string) => `${app.server.url}${path}`;
 const demo = (email: string) => demoAccounts.find((a) => a.email === email)!;
 const builder = demoAccounts.find((a) => a.role === 'builder')!;
-const lanternHill = demo('bench@lanternhill.test');
 const kessrow = demo('desk@kessrow.test');
 
 /** A signed-in API session driven with fetch: the session cookie and the CSRF token travel with every call. */
@@ -131,8 +130,16 @@ describe('a shop in a real browser', () => {
     });
     const other = await publishJob(builderApi, { title: 'Deck only, no honing', neededBy: inDays(5), operations: [{ code: 'deck', quantity: 1 }] });
 
-    // Before it has a profile, the board says a profile is needed to bid.
-    await signIn(lanternHill, '/board');
+    // A shop that has just signed up (the demo shops come with profiles) has none yet: the board says one is needed to bid.
+    const newShop = { email: uniqueEmail('new-shop') };
+    const csrf = await fetch(url('/api/auth/csrf'));
+    const signUp = await fetch(url('/api/auth/signup'), {
+      method: 'POST',
+      headers: { 'Content-Type': 'application/json', Cookie: csrf.headers.getSetCookie()[0].split(';')[0], 'X-CSRF-Token': (await csrf.json()).csrfToken },
+      body: JSON.stringify({ displayName: 'Lantern Hill Machine Works', email: newShop.email, password: DEMO_PASSWORD, role: 'shop' }),
+    });
+    expect(signUp.status).toBe(201);
+    await signIn(newShop, '/board');
     await page.getByText('Set up your shop profile to bid').waitFor();
 
     // The profile form: a price with three decimals is refused beside its field, with what was typed kept.
@@ -168,7 +175,7 @@ describe('a shop in a real browser', () => {
     await page.setViewportSize({ width: 1280, height: 900 });
 
     // The server kept exact cents: 25.5 → 2550, $1,250 → 125000; torque-plate hone was left blank (quoted job by job).
-    const shopApi = await apiSession(lanternHill.email);
+    const shopApi = await apiSession(newShop.email);
     const { shop } = await shopApi.get<{ shop: { rateCard: Array<{ operation: string; priceCents: number }> } }>('/api/shop-profile');
     expect(shop.rateCard).toEqual([
       { operation: 'bore', priceCents: 3500 },
