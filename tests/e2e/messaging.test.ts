@@ -1,4 +1,5 @@
 import { join } from 'node:path';
+import sharp from 'sharp';
 import { request, type APIRequestContext, type Browser, type BrowserContext, type Locator, type Page } from 'playwright-core';
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
 import type { JobDetail, JobInput } from '../../shared/schemas/jobs';
@@ -129,7 +130,7 @@ describe('live conversations between a builder and a shop, in two browsers', () 
       await shopComposer.waitFor();
       await expect(shopComposer.evaluate((el) => el === document.activeElement)).resolves.toBe(true);
       await shopComposer.press('Enter');
-      await s.page.getByText('Write a message.', { exact: true }).waitFor();
+      await s.page.getByText('Write a message or add a photo.', { exact: true }).waitFor();
       await expect(shopComposer.getAttribute('aria-invalid')).resolves.toBe('true');
 
       // Near the limit a counter shows; past it the message is refused beside the field.
@@ -213,6 +214,46 @@ describe('live conversations between a builder and a shop, in two browsers', () 
       const stored = await juno.get<HistoryPage>(`/api/threads/${thread.id}/messages?limit=100`);
       expect(stored.messages.filter((m) => m.body === offline)).toHaveLength(1);
       expect(stored.messages.map((m) => m.body).reverse()).toEqual([question, reply, offline]);
+
+      // The shop adds a photo: its upload shows a progress bar, the thumbnail waits in the composer, then goes with the words.
+      // The upload is held at the network until the bar has been seen, so the check does not race a fast local server.
+      let release: () => void = () => {};
+      const held = new Promise<void>((resolve) => (release = resolve));
+      await s.page.route('**/api/threads/*/photos', async (route) => {
+        await held;
+        await route.continue();
+      });
+      const picture = await sharp({ create: { width: 1600, height: 1200, channels: 3, background: { r: 138, g: 143, b: 150 } } }).jpeg().toBuffer();
+      const chooser = s.page.waitForEvent('filechooser');
+      await s.page.getByRole('button', { name: 'Add photos' }).click();
+      await (await chooser).setFiles({ name: 'deck-first-pass.jpg', mimeType: 'image/jpeg', buffer: picture });
+      const progress = s.page.getByRole('progressbar', { name: 'Upload of deck-first-pass.jpg' });
+      await progress.waitFor({ state: 'visible' });
+      await s.page.getByTestId('conversation').screenshot({ path: join(artifactsDir, 'messages-photo-uploading.png') });
+      release();
+      await s.page.getByTestId('composer-photo-thumb').waitFor();
+      await expect(progress.count()).resolves.toBe(0);
+      await s.page.unroute('**/api/threads/*/photos');
+      const withPhoto = 'The deck after the first pass.';
+      await shopComposer.fill(withPhoto);
+      await shopComposer.press('Enter');
+      await expect(s.page.getByTestId('composer-photos').count()).resolves.toBe(0);
+
+      // The builder sees the thumbnail live, loaded, and opens it full size.
+      const photoMessage = messagesWith(b.page, withPhoto);
+      const thumb = photoMessage.getByTestId('message-photo-thumb');
+      await thumb.waitFor();
+      await poll(() => thumb.evaluate((img: HTMLImageElement) => img.complete && img.naturalWidth > 0)).toBe(true);
+      await b.page.getByTestId('conversation').screenshot({ path: join(artifactsDir, 'messages-photo-received.png') });
+      await photoMessage.getByRole('button', { name: 'Open photo 1 of 1 full size' }).click();
+      const large = b.page.getByRole('dialog').getByTestId('message-photo-large');
+      await large.waitFor();
+      await poll(() => large.evaluate((img: HTMLImageElement) => img.complete && img.naturalWidth)).toBe(1600);
+      await b.page.screenshot({ path: join(artifactsDir, 'messages-photo-full-size.png') });
+      await b.page.keyboard.press('Escape');
+      await expect(b.page.getByRole('dialog').count()).resolves.toBe(0);
+      const newest = (await juno.get<HistoryPage>(`/api/threads/${thread.id}/messages?limit=1`)).messages[0];
+      expect(newest).toMatchObject({ body: withPhoto, photos: [{ width: 1600, height: 1200 }] });
 
       expect(problems).toEqual([]);
     },

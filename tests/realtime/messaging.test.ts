@@ -1,28 +1,31 @@
 import { randomBytes } from 'node:crypto';
+import { readFileSync, rmSync } from 'node:fs';
 import { and, eq } from 'drizzle-orm';
+import sharp from 'sharp';
 import { io as connect, type Socket } from 'socket.io-client';
 import { afterAll, afterEach, beforeAll, describe, expect, inject, it } from 'vitest';
 import { createDb, createPool, type Database } from '../../server/db/client';
-import { mailOutbox, messages } from '../../server/db/schema';
+import { mailOutbox, messagePhotos, messages } from '../../server/db/schema';
 import { createOutboxWorker } from '../../server/lib/mail/outbox';
 import { createTransport } from '../../server/lib/mail/transport';
 import { sendDueDigests } from '../../server/modules/messages/digest';
 import { startServer, type RunningServer } from '../../server/runtime';
 import { bidInput, createJob, createShop, createUser } from '../factories';
-import { createTestDatabase, testConfig } from '../setup/test-env';
+import { createTestDatabase, testConfig, type TestContext } from '../setup/test-env';
 
 let database: Awaited<ReturnType<typeof createTestDatabase>>;
 let pool: ReturnType<typeof createPool>;
 let db: Database;
 let instanceA: RunningServer;
 let instanceB: RunningServer;
+let config: TestContext['config'];
 const sockets: Socket[] = [];
 
 beforeAll(async () => {
   database = await createTestDatabase();
   pool = createPool(database.url, 4);
   db = createDb(pool);
-  const config = testConfig(database.url, { PORT: '0', RATE_LIMIT_MESSAGES_PER_10S: '20' });
+  config = testConfig(database.url, { PORT: '0', RATE_LIMIT_MESSAGES_PER_10S: '20' });
   [instanceA, instanceB] = await Promise.all([startServer(config, { migrate: false }), startServer(config, { migrate: false })]);
 });
 afterEach(() => {
@@ -33,6 +36,7 @@ afterAll(async () => {
   await instanceB?.close();
   await pool?.end();
   await database?.drop();
+  if (config) rmSync(config.uploadsDir, { recursive: true, force: true });
 });
 
 /** Signs in over HTTP and returns the session cookie and a CSRF token for it. */
@@ -183,7 +187,7 @@ describe('live messaging', () => {
     const long = await emit(socket, 'message:send', { threadId, clientId: clientId(), body: 'x'.repeat(4001) });
     expect(long).toMatchObject({ ok: false, error: { code: 'invalid_input', fields: { body: 'Keep a message under 4,000 characters.' } } });
     const empty = await emit(socket, 'message:send', { threadId, clientId: clientId(), body: '   ' });
-    expect(empty.error.fields.body).toBe('Write a message.');
+    expect(empty.error.fields.body).toBe('Write a message or add a photo.');
   });
 
   it('when a job page is open and a bid is accepted, then the page hears of it; other shops’ threads become read-only', async () => {
@@ -253,5 +257,189 @@ describe('live messaging', () => {
       await new Promise((r) => setTimeout(r, 100));
     }
     expect(arrived).toHaveLength(1);
+  });
+});
+
+/** Uploads photos to a conversation as the browser does: multipart, field "photos". */
+async function uploadPhotos(server: RunningServer, auth: { cookie: string; csrf: string }, threadId: string, files: Array<{ data: Buffer; name: string; type?: string }>) {
+  const form = new FormData();
+  for (const file of files) form.append('photos', new Blob([new Uint8Array(file.data)], { type: file.type ?? 'image/jpeg' }), file.name);
+  const res = await fetch(`${server.url}/api/threads/${threadId}/photos`, { method: 'POST', headers: { Cookie: auth.cookie, 'X-CSRF-Token': auth.csrf }, body: form });
+  return { status: res.status, body: (await res.json().catch(() => ({}))) as Record<string, any> };
+}
+
+async function getImage(server: RunningServer, path: string, cookie?: string) {
+  const res = await fetch(`${server.url}${path}`, { headers: cookie ? { Cookie: cookie } : {} });
+  return { status: res.status, type: res.headers.get('content-type'), data: Buffer.from(await res.arrayBuffer()) };
+}
+
+const jpeg = (width = 640, height = 480) => sharp({ create: { width, height, channels: 3, background: { r: 120, g: 110, b: 100 } } }).jpeg().toBuffer();
+
+const photoRows = (threadId: string) => db.select().from(messagePhotos).where(eq(messagePhotos.threadId, threadId));
+
+describe('photos in messages', () => {
+  it('when the shop uploads a photo and sends it, then the builder on the other instance gets it live, can load it, and a stranger cannot', async () => {
+    const { threadId, builderAuth, shopAuth } = await conversation();
+    const builderSocket = socketFor(instanceA, builderAuth.cookie);
+    const shopSocket = socketFor(instanceB, shopAuth.cookie);
+    await Promise.all([connected(builderSocket), connected(shopSocket)]);
+    expect((await emit(builderSocket, 'thread:join', { threadId })).ok).toBe(true);
+
+    const uploaded = await uploadPhotos(instanceB, shopAuth, threadId, [{ data: await jpeg(3000, 2000), name: 'cylinder-3.jpg' }]);
+    expect(uploaded.status).toBe(201);
+    const [photo] = uploaded.body.photos;
+    expect(photo).toMatchObject({ width: 2000, height: 1333, thumbUrl: `/api/threads/${threadId}/photos/${photo.id}/thumb`, largeUrl: `/api/threads/${threadId}/photos/${photo.id}/large` });
+    // Until it is sent, only the uploader sees it.
+    expect((await getImage(instanceA, photo.thumbUrl, shopAuth.cookie)).status).toBe(200);
+    expect((await getImage(instanceA, photo.thumbUrl, builderAuth.cookie)).status).toBe(404);
+
+    const arriving = next(builderSocket, 'message:new');
+    const sent = await emit(shopSocket, 'message:send', { threadId, clientId: clientId(), body: '', photoIds: [photo.id] });
+    expect(sent).toMatchObject({ ok: true, duplicate: false, message: { body: '', photos: [photo] } });
+    const received = await arriving;
+    expect(received).toMatchObject({ id: sent.message.id, body: '', photos: [{ id: photo.id, width: 2000, height: 1333, thumbUrl: photo.thumbUrl, largeUrl: photo.largeUrl }] });
+
+    const large = await getImage(instanceA, received.photos[0].largeUrl, builderAuth.cookie);
+    expect(large.status).toBe(200);
+    expect(large.type).toBe('image/webp');
+    expect(await sharp(large.data).metadata()).toMatchObject({ format: 'webp', width: 2000, height: 1333 });
+    const thumb = await sharp((await getImage(instanceA, received.photos[0].thumbUrl, builderAuth.cookie)).data).metadata();
+    expect(Math.max(thumb.width!, thumb.height!)).toBe(480);
+
+    // The history carries the photo too.
+    const page = await fetch(`${instanceA.url}/api/threads/${threadId}/messages`, { headers: { Cookie: builderAuth.cookie } }).then((r) => r.json());
+    expect(page.messages[0].photos).toEqual([photo]);
+
+    // Someone outside the conversation is told it does not exist; nobody signed out gets it either.
+    const stranger = await session(instanceA, await createUser(db));
+    expect((await getImage(instanceA, photo.largeUrl, stranger.cookie)).status).toBe(404);
+    expect((await getImage(instanceA, photo.largeUrl)).status).toBe(401);
+    expect((await uploadPhotos(instanceA, stranger, threadId, [{ data: await jpeg(), name: 'mine.jpg' }])).status).toBe(404);
+  });
+
+  it('when words and several photos go together, then the photos keep the order they were attached in', async () => {
+    const { threadId, builderAuth } = await conversation();
+    const uploaded = await uploadPhotos(instanceA, builderAuth, threadId, [
+      { data: await jpeg(300, 200), name: 'a.jpg' },
+      { data: await jpeg(200, 300), name: 'b.jpg' },
+      { data: Buffer.from(await sharp({ create: { width: 100, height: 100, channels: 4, background: '#345' } }).png().toBuffer()), name: 'c.png', type: 'image/png' },
+    ]);
+    expect(uploaded.status).toBe(201);
+    const ids = (uploaded.body.photos as Array<{ id: string }>).map((p) => p.id);
+    const order = [ids[2], ids[0], ids[1]];
+    const sent = await post(instanceA, builderAuth, `/api/threads/${threadId}/messages`, { clientId: clientId(), body: 'Front, left side, and the deck.', photoIds: order });
+    expect(sent.status).toBe(201);
+    expect(sent.body.message.photos.map((p: { id: string }) => p.id)).toEqual(order);
+    const page = await fetch(`${instanceB.url}/api/threads/${threadId}/messages`, { headers: { Cookie: builderAuth.cookie } }).then((r) => r.json());
+    expect(page.messages[0].photos.map((p: { id: string }) => p.id)).toEqual(order);
+  });
+
+  it('when an executable is renamed .jpg, then 415 and nothing is stored', async () => {
+    const { threadId, shopAuth } = await conversation();
+    const res = await uploadPhotos(instanceB, shopAuth, threadId, [{ data: readFileSync('/bin/true'), name: 'bore-gauge.jpg' }]);
+    expect(res.status).toBe(415);
+    expect(res.body.error.code).toBe('unsupported_type');
+    expect(await photoRows(threadId)).toHaveLength(0);
+  });
+
+  it('when a message names another person’s photo, a photo from another conversation or one already sent, then 400 beside photoIds and nothing is stored', async () => {
+    const { threadId, builderAuth, shopAuth } = await conversation();
+    const builders = await uploadPhotos(instanceA, builderAuth, threadId, [{ data: await jpeg(), name: 'builder.jpg' }]);
+    expect(builders.status).toBe(201);
+    const theirs = await post(instanceB, shopAuth, `/api/threads/${threadId}/messages`, { clientId: clientId(), body: 'Look at this', photoIds: [builders.body.photos[0].id] });
+    expect(theirs.status).toBe(400);
+    expect(theirs.body.error.fields.photoIds).toBe('That photo is not one you uploaded to this conversation, or it was already sent.');
+
+    // The shop's own photo, but uploaded to its conversation about another job.
+    const otherJob = await createJob(db, (await createUser(db)).id);
+    const otherThread = await post(instanceB, shopAuth, `/api/jobs/${otherJob.id}/threads`, {});
+    expect(otherThread.status).toBe(201);
+    const other = await uploadPhotos(instanceB, shopAuth, otherThread.body.thread.id, [{ data: await jpeg(), name: 'other-job.jpg' }]);
+    expect(other.status).toBe(201);
+    const crossed = await post(instanceB, shopAuth, `/api/threads/${threadId}/messages`, { clientId: clientId(), photoIds: [other.body.photos[0].id] });
+    expect(crossed.status).toBe(400);
+    expect(crossed.body.error.fields.photoIds).toMatch(/not one you uploaded to this conversation/);
+
+    const mine = await uploadPhotos(instanceB, shopAuth, threadId, [{ data: await jpeg(), name: 'shop.jpg' }]);
+    const first = await post(instanceB, shopAuth, `/api/threads/${threadId}/messages`, { clientId: clientId(), photoIds: [mine.body.photos[0].id] });
+    expect(first.status).toBe(201);
+    const again = await post(instanceB, shopAuth, `/api/threads/${threadId}/messages`, { clientId: clientId(), body: 'Once more', photoIds: [mine.body.photos[0].id] });
+    expect(again.status).toBe(400);
+    expect(again.body.error.fields.photoIds).toMatch(/already sent/);
+
+    // The schema's own limits: five photos, the same one twice, or nothing at all.
+    const five = await post(instanceB, shopAuth, `/api/threads/${threadId}/messages`, { clientId: clientId(), photoIds: Array.from({ length: 5 }, () => crypto.randomUUID()) });
+    expect(five.body.error.fields.photoIds).toBe('A message can carry at most 4 photos.');
+    const twice = await post(instanceB, shopAuth, `/api/threads/${threadId}/messages`, { clientId: clientId(), photoIds: [mine.body.photos[0].id, mine.body.photos[0].id] });
+    expect(twice.body.error.fields.photoIds).toBe('The same photo is attached twice.');
+    const nothing = await post(instanceB, shopAuth, `/api/threads/${threadId}/messages`, { clientId: clientId(), body: ' ', photoIds: [] });
+    expect(nothing.body.error.fields.body).toBe('Write a message or add a photo.');
+
+    const stored = await db.select().from(messages).where(eq(messages.threadId, threadId));
+    expect(stored).toHaveLength(1);
+    const rows = await photoRows(threadId);
+    expect(rows.find((r) => r.id === builders.body.photos[0].id)?.messageId).toBeNull();
+    expect(rows.find((r) => r.id === mine.body.photos[0].id)?.messageId).toBe(first.body.message.id);
+
+    const tooMany = await uploadPhotos(instanceB, shopAuth, threadId, Array.from({ length: 5 }, (_, i) => ({ data: Buffer.from('x'), name: `p${i}.jpg` })));
+    expect(tooMany.status).toBe(413);
+    expect(tooMany.body.error.code).toBe('too_many_photos');
+  });
+
+  it('when a message with a photo is resent after a reconnect with the same id, then it is stored once with the photo attached once', async () => {
+    const { threadId, shopAuth } = await conversation();
+    const uploaded = await uploadPhotos(instanceB, shopAuth, threadId, [{ data: await jpeg(), name: 'crank.jpg' }]);
+    const payload = { threadId, clientId: clientId(), body: 'The crank, as it came in.', photoIds: [uploaded.body.photos[0].id] };
+    const first = socketFor(instanceB, shopAuth.cookie);
+    await connected(first);
+    const a = await emit(first, 'message:send', payload);
+    first.disconnect();
+    const second = socketFor(instanceA, shopAuth.cookie);
+    await connected(second);
+    const b = await emit(second, 'message:send', payload);
+    expect(a).toMatchObject({ ok: true, duplicate: false });
+    expect(b).toMatchObject({ ok: true, duplicate: true, message: { id: a.message.id, photos: a.message.photos } });
+    expect(b.message.photos).toHaveLength(1);
+    expect(await db.select().from(messages).where(eq(messages.threadId, threadId))).toHaveLength(1);
+    const rows = await photoRows(threadId);
+    expect(rows).toHaveLength(1);
+    expect(rows[0]).toMatchObject({ messageId: a.message.id, position: 0 });
+  });
+
+  it('when a photo carries GPS data, then the copy the other side loads has no metadata at all', async () => {
+    const { threadId, builderAuth, shopAuth } = await conversation();
+    const withGps = await sharp({ create: { width: 400, height: 200, channels: 3, background: '#777' } })
+      .jpeg()
+      .withExifMerge({
+        IFD0: { Copyright: 'marker-for-test' },
+        IFD3: { GPSLatitudeRef: 'N', GPSLatitude: '48/1 51/1 2400/100', GPSLongitudeRef: 'E', GPSLongitude: '2/1 21/1 300/100' },
+      })
+      .toBuffer();
+    const inputMeta = await sharp(withGps).metadata();
+    // The GPSInfo pointer, tag 0x8825, stored little-endian.
+    expect(inputMeta.exif?.includes(Buffer.from([0x25, 0x88]))).toBe(true);
+
+    const uploaded = await uploadPhotos(instanceB, shopAuth, threadId, [{ data: withGps, name: 'where-it-was-taken.jpg' }]);
+    expect(uploaded.status).toBe(201);
+    expect((await post(instanceB, shopAuth, `/api/threads/${threadId}/messages`, { clientId: clientId(), photoIds: [uploaded.body.photos[0].id] })).status).toBe(201);
+    for (const size of ['largeUrl', 'thumbUrl'] as const) {
+      const stored = (await getImage(instanceA, uploaded.body.photos[0][size], builderAuth.cookie)).data;
+      const meta = await sharp(stored).metadata();
+      expect(meta.exif).toBeUndefined();
+      expect(meta.xmp).toBeUndefined();
+      expect(stored.includes(Buffer.from('marker-for-test'))).toBe(false);
+    }
+  });
+
+  it('when the conversation is closed, then photos cannot be uploaded to it', async () => {
+    const { job, threadId, shopAuth, builderAuth } = await conversation();
+    const other = await createShop(db);
+    const otherAuth = await session(instanceA, other.user);
+    const otherBid = await post(instanceA, otherAuth, `/api/jobs/${job.id}/bids`, bidInput());
+    expect((await post(instanceA, builderAuth, `/api/bids/${otherBid.body.bid.id}/accept`, {})).status).toBe(200);
+    const res = await uploadPhotos(instanceB, shopAuth, threadId, [{ data: await jpeg(), name: 'late.jpg' }]);
+    expect(res.status).toBe(409);
+    expect(res.body.error.code).toBe('thread_closed');
+    expect(await photoRows(threadId)).toHaveLength(0);
   });
 });

@@ -1,4 +1,4 @@
-import type { Message } from '@shared/schemas/messages';
+import type { Message, MessagePhoto } from '@shared/schemas/messages';
 import type { SocketAck } from '@client/lib/realtime';
 
 /**
@@ -10,7 +10,9 @@ import type { SocketAck } from '@client/lib/realtime';
  * behind by a closed tab, goes out on the next connection with the same id.
  * The server stores a (person, clientId) pair once and answers a resend with
  * `duplicate: true`, which counts as delivered. Messages go out one at a
- * time, oldest first, so a conversation keeps its order.
+ * time, oldest first, so a conversation keeps its order. Photos are uploaded
+ * before Send; the entry keeps their ids, so every resend carries the same
+ * photos and the server attaches them once.
  */
 
 export type OutboxState = 'waiting' | 'sending' | 'failed';
@@ -19,6 +21,10 @@ export interface OutboxEntry {
   clientId: string;
   threadId: string;
   body: string;
+  /** Photos already uploaded to the conversation, sent by id with the message (may be empty). */
+  photoIds: string[];
+  /** The same photos, to show them while the message waits. */
+  photos: MessagePhoto[];
   /** When Send was pressed (ISO). */
   queuedAt: string;
   state: OutboxState;
@@ -38,6 +44,7 @@ export interface SendPayload {
   threadId: string;
   clientId: string;
   body: string;
+  photoIds: string[];
 }
 
 export type SendAnswer = SocketAck<{ message: Message; duplicate: boolean }>;
@@ -89,7 +96,9 @@ export class Outbox {
       if (!Array.isArray(parsed)) return [];
       // A message that was on its way when the page closed may or may not have
       // arrived; sending it again with the same id settles it either way.
-      return parsed.filter(isEntry).map((e) => ({ ...e, state: e.state === 'failed' ? 'failed' : 'waiting', faults: e.faults ?? 0 }));
+      return parsed
+        .filter(isEntry)
+        .map((e) => ({ ...e, photoIds: e.photoIds ?? [], photos: e.photos ?? [], state: e.state === 'failed' ? 'failed' : 'waiting', faults: e.faults ?? 0 }));
     } catch {
       return [];
     }
@@ -144,8 +153,17 @@ export class Outbox {
   // ---- what the page does ----
 
   /** Queues a message (the moment Send is pressed) and sends it if the connection is up. */
-  enqueue(threadId: string, body: string): OutboxEntry {
-    const entry: OutboxEntry = { clientId: newClientId(), threadId, body, queuedAt: new Date(this.now()).toISOString(), state: 'waiting', faults: 0 };
+  enqueue(threadId: string, body: string, photos: MessagePhoto[] = []): OutboxEntry {
+    const entry: OutboxEntry = {
+      clientId: newClientId(),
+      threadId,
+      body,
+      photoIds: photos.map((photo) => photo.id),
+      photos,
+      queuedAt: new Date(this.now()).toISOString(),
+      state: 'waiting',
+      faults: 0,
+    };
     this.replace([...this.entries, entry]);
     void this.flush();
     return entry;
@@ -221,7 +239,7 @@ export class Outbox {
     this.update(entry.clientId, { state: 'sending' });
     let answer: SendAnswer;
     try {
-      answer = await send({ threadId: entry.threadId, clientId: entry.clientId, body: entry.body });
+      answer = await send({ threadId: entry.threadId, clientId: entry.clientId, body: entry.body, photoIds: entry.photoIds });
     } catch {
       // No answer: the connection dropped or the server was slow. It may have the message; the same id makes a resend safe.
       this.update(entry.clientId, { state: 'waiting', retryAt: this.now() + NO_ANSWER_RETRY_MS });
@@ -239,7 +257,7 @@ export class Outbox {
     } else if (PASSING_FAULTS.has(code) && entry.faults + 1 < MAX_FAULTS) {
       this.update(entry.clientId, { state: 'waiting', faults: entry.faults + 1, retryAt: this.now() + 1_000 * 2 ** (entry.faults + 1) });
     } else {
-      this.update(entry.clientId, { state: 'failed', error: fields?.body ?? message, errorCode: code, slowedDown: false });
+      this.update(entry.clientId, { state: 'failed', error: fields?.body ?? fields?.photoIds ?? message, errorCode: code, slowedDown: false });
     }
   }
 }

@@ -1,10 +1,9 @@
-import { Router, type RequestHandler } from 'express';
-import multer from 'multer';
+import { Router } from 'express';
 import { z } from 'zod';
 import { uuidSchema } from '../../../shared/schemas/common';
 import { boardQuerySchema, jobInputSchema, myJobsQuerySchema } from '../../../shared/schemas/jobs';
 import { currentUser, requireRole, requireUser } from '../../lib/auth/guards';
-import { AppError } from '../../lib/errors';
+import { receivePhotos } from '../../lib/photo-upload';
 import type { RealtimeHub } from '../../realtime/hub';
 import { boardPage, jobsOfBuilder } from './jobs.repository';
 import {
@@ -20,28 +19,6 @@ import {
   updateJob,
   type JobDeps,
 } from './jobs.service';
-
-export const MAX_PHOTO_BYTES = 15 * 1024 * 1024;
-
-const upload = multer({
-  storage: multer.memoryStorage(),
-  limits: { fileSize: MAX_PHOTO_BYTES, files: MAX_PHOTOS_PER_JOB, fields: 5, parts: MAX_PHOTOS_PER_JOB + 5 },
-});
-
-/** multer's own errors in the API's error shape: too big is 413, the rest 400. */
-const receivePhotos: RequestHandler = (req, res, next) => {
-  upload.array('photos', MAX_PHOTOS_PER_JOB)(req, res, (error: unknown) => {
-    if (!error) return next();
-    if (error instanceof multer.MulterError) {
-      if (error.code === 'LIMIT_FILE_SIZE') return next(new AppError('too_large', `Each photo may be at most ${MAX_PHOTO_BYTES / 1024 / 1024} MB.`, 413));
-      if (error.code === 'LIMIT_FILE_COUNT' || error.code === 'LIMIT_PART_COUNT') {
-        return next(new AppError('too_many_photos', `Send at most ${MAX_PHOTOS_PER_JOB} photos at a time.`, 413));
-      }
-      return next(new AppError('invalid_input', `The upload is not valid (${error.message}). Send the files in a field named "photos".`, 400));
-    }
-    next(error);
-  });
-};
 
 const jobParams = z.object({ jobId: uuidSchema });
 const photoParams = z.object({ jobId: uuidSchema, photoId: uuidSchema, size: z.enum(['thumb', 'large'], { error: 'Ask for thumb or large.' }) });
@@ -91,7 +68,7 @@ export function jobsRouter(deps: JobDeps & { hub: RealtimeHub }) {
     res.json({ job: await jobDetail(deps, job, currentUser(req)) });
   });
 
-  router.post('/jobs/:jobId/photos', requireRole('builder'), receivePhotos, async (req, res) => {
+  router.post('/jobs/:jobId/photos', requireRole('builder'), receivePhotos(MAX_PHOTOS_PER_JOB), async (req, res) => {
     const { jobId } = jobParams.parse(req.params);
     const files = (req.files as Express.Multer.File[] | undefined) ?? [];
     const photos = await addPhotos(deps, currentUser(req), jobId, files);

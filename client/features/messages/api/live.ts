@@ -3,7 +3,7 @@ import { useEffect, useMemo, useSyncExternalStore } from 'react';
 import type { Message } from '@shared/schemas/messages';
 import { threadKeys } from '@client/lib/query-keys';
 import { useRealtimeUserId, useSocket, useSocketEvent } from '@client/lib/realtime';
-import { outboxFor, outboxStorageKey, type Outbox, type OutboxEntry, type SendAnswer } from '../outbox';
+import { outboxFor, outboxStorageKey, type Outbox, type OutboxEntry, type SendAnswer, type SendPayload } from '../outbox';
 import { addMessageToCache, setOtherRead } from './threads';
 
 /** How long to wait for the server to acknowledge a message before sending it again (same id). */
@@ -39,7 +39,7 @@ export function useMessagesLive() {
 
   useEffect(() => {
     if (!socket || !outbox || !userId) return;
-    const send = (payload: { threadId: string; clientId: string; body: string }) =>
+    const send = (payload: SendPayload) =>
       socket.timeout(SEND_TIMEOUT_MS).emitWithAck('message:send', payload) as Promise<SendAnswer>;
     let connectedBefore = socket.connected;
     const up = () => {

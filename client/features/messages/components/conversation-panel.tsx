@@ -9,7 +9,7 @@ import { cn } from '@client/lib/cn';
 import { useRealtimeUserId } from '@client/lib/realtime';
 import { useJobThreads, useLatestMessage, useOpenThread } from '../api/threads';
 import { ConversationView } from './conversation-view';
-import { messageTime, unreadWords } from './message-words';
+import { messageTime, photoCountWords, unreadWords } from './message-words';
 
 /** A shop that bid on the job, as the job page already knows it from the bids. */
 export interface Bidder {
@@ -75,7 +75,7 @@ function LatestLine({ threadId }: { threadId: string }) {
     <span className="flex min-w-0 items-baseline gap-2 text-sm">
       <span className="min-w-0 truncate text-ink" data-testid="latest-message">
         {latest.author.id === me ? 'You: ' : ''}
-        {latest.body}
+        {latest.body || photoCountWords(latest.photos?.length ?? 0)}
       </span>
       <time dateTime={latest.createdAt} className="shrink-0 text-ink-soft">
         {messageTime(latest.createdAt)}

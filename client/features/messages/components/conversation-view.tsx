@@ -1,7 +1,7 @@
 import { useQueryClient } from '@tanstack/react-query';
 import { useEffect, useId, useLayoutEffect, useRef, useState, type ReactNode, type RefObject } from 'react';
 import type { JobStatus } from '@shared/schemas/jobs';
-import type { Message, ThreadSummary } from '@shared/schemas/messages';
+import type { Message, MessagePhoto, ThreadSummary } from '@shared/schemas/messages';
 import { Button } from '@client/components/ui/button';
 import { Notice } from '@client/components/ui/notice';
 import { api } from '@client/lib/api-client';
@@ -12,6 +12,7 @@ import { useOutbox, useOutboxEntries } from '../api/live';
 import { chronological, useThreadHistory } from '../api/threads';
 import type { OutboxEntry } from '../outbox';
 import { MessageComposer } from './message-composer';
+import { MessagePhotos } from './message-photos';
 import { closedWords, fullTime, messageTime } from './message-words';
 
 export interface ConversationViewProps {
@@ -55,8 +56,8 @@ function useOnScreen(ref: RefObject<HTMLElement | null>): boolean {
 
 type ItemState = 'sent' | 'sending' | 'waiting' | 'failed';
 
-function MessageItem(props: { own: boolean; authorName: string; body: string; at: string; state: ItemState; footer?: ReactNode }) {
-  const { own, authorName, body, at, state, footer } = props;
+function MessageItem(props: { own: boolean; authorName: string; body: string; photos: MessagePhoto[]; at: string; state: ItemState; footer?: ReactNode }) {
+  const { own, authorName, body, photos, at, state, footer } = props;
   return (
     <li
       className={cn(
@@ -75,9 +76,12 @@ function MessageItem(props: { own: boolean; authorName: string; body: string; at
           {messageTime(at)}
         </time>
       </p>
-      <p className="whitespace-pre-wrap break-words text-base text-ink" data-testid="message-body">
-        {body}
-      </p>
+      {body && (
+        <p className="whitespace-pre-wrap break-words text-base text-ink" data-testid="message-body">
+          {body}
+        </p>
+      )}
+      <MessagePhotos photos={photos} authorName={own ? 'you' : authorName} />
       {footer}
     </li>
   );
@@ -266,6 +270,7 @@ export function ConversationView({ thread, side, jobStatus, focusComposer = fals
       own={m.author.id === me}
       authorName={m.author.displayName}
       body={m.body}
+      photos={m.photos ?? []}
       at={m.createdAt}
       state="sent"
       footer={
@@ -323,6 +328,7 @@ export function ConversationView({ thread, side, jobStatus, focusComposer = fals
                 own
                 authorName="You"
                 body={entry.body}
+                photos={entry.photos}
                 at={entry.queuedAt}
                 state={entry.state}
                 footer={<PendingFooter entry={entry} connected={connected} onRemove={() => outbox?.remove(entry.clientId)} onRetry={() => outbox?.retry(entry.clientId)} />}
@@ -339,12 +345,14 @@ export function ConversationView({ thread, side, jobStatus, focusComposer = fals
       </div>
       {canWrite ? (
         <MessageComposer
+          key={thread.id}
           ref={composer}
+          threadId={thread.id}
           recipientName={otherName}
           onTyping={sendTyping}
-          onSend={(body) => {
+          onSend={(body, photos) => {
             atBottom.current = true;
-            outbox?.enqueue(thread.id, body);
+            outbox?.enqueue(thread.id, body, photos);
           }}
         />
       ) : (

@@ -39,3 +39,6 @@ export function closedWords(jobStatus: JobStatus | undefined, side: 'builder' | 
 }
 
 export const unreadWords = (count: number) => `${count} new`;
+
+/** "Photo" or "3 photos", for a message without words in a one-line preview. */
+export const photoCountWords = (count: number) => (count === 1 ? 'Photo' : `${count} photos`);

@@ -1,0 +1,35 @@
+import type { RequestHandler } from 'express';
+import multer from 'multer';
+import { AppError } from './errors';
+
+/** The most one photo may weigh on the way in, before it is re-encoded. */
+export const MAX_PHOTO_BYTES = 15 * 1024 * 1024;
+
+/**
+ * Multipart photo uploads, held in memory for `processPhoto` (server/lib/images.ts),
+ * in the field "photos", at most `maxFiles` per request. multer's own errors
+ * come out in the API's error shape: too big or too many is 413, the rest 400.
+ */
+export function receivePhotos(maxFiles: number): RequestHandler {
+  const upload = multer({
+    storage: multer.memoryStorage(),
+    limits: { fileSize: MAX_PHOTO_BYTES, files: maxFiles, fields: 5, parts: maxFiles + 5 },
+  }).array('photos', maxFiles);
+
+  return (req, res, next) => {
+    upload(req, res, (error: unknown) => {
+      if (!error) return next();
+      if (error instanceof multer.MulterError) {
+        if (error.code === 'LIMIT_FILE_SIZE') return next(new AppError('too_large', `Each photo may be at most ${MAX_PHOTO_BYTES / 1024 / 1024} MB.`, 413));
+        if (error.code === 'LIMIT_FILE_COUNT' || error.code === 'LIMIT_PART_COUNT') {
+          return next(new AppError('too_many_photos', `Send at most ${maxFiles} photos at a time.`, 413));
+        }
+        return next(new AppError('invalid_input', `The upload is not valid (${error.message}). Send the files in a field named "photos".`, 400));
+      }
+      next(error);
+    });
+  };
+}
+
+/** The files multer kept, or none. */
+export const uploadedFiles = (req: { files?: unknown }): Express.Multer.File[] => (Array.isArray(req.files) ? (req.files as Express.Multer.File[]) : []);
