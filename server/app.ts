@@ -17,6 +17,7 @@ import { authRouter } from './modules/auth/auth.routes';
 import { bidsRouter } from './modules/bids/bids.routes';
 import { messagesRouter } from './modules/messages/messages.routes';
 import { paymentsRouter, paymentsWebhook } from './modules/payments/payments.routes';
+import { workRouter } from './modules/inspections/inspections.routes';
 import { createPaymentsClient, type PaymentsClient } from './lib/payments-client';
 import { RealtimeHub } from './realtime/hub';
 import { jobsRouter } from './modules/jobs/jobs.routes';
@@ -133,7 +134,9 @@ export function createApp(deps: AppDeps) {
   app.use('/api', jobsRouter({ db, appUrl: config.appUrl, storage, hub }));
   app.use('/api', bidsRouter({ db, appUrl: config.appUrl, hub, platformFeeBps: config.payments.platformFeeBps }));
   app.use('/api', paymentsRouter(paymentDeps));
-  app.use('/api', messagesRouter({ db, hub, messagesPer10s: config.rateLimits.messagesPer10s }));
+  app.use('/api', messagesRouter({ db, hub, storage, messagesPer10s: config.rateLimits.messagesPer10s }));
+  const workDeps = { ...paymentDeps, reviewWindowMs: config.reviewWindowDays * 24 * 60 * 60_000 };
+  app.use('/api', workRouter(workDeps));
   app.use('/api/admin', adminRouter({ db, appUrl: config.appUrl }));
 
   app.get('/api/openapi.json', (_req, res) => {
@@ -157,7 +160,7 @@ export function createApp(deps: AppDeps) {
   }
 
   app.use(errorHandler);
-  return Object.assign(app, { sessionStore: store, sessionMiddleware, hub, paymentDeps });
+  return Object.assign(app, { sessionStore: store, sessionMiddleware, hub, paymentDeps, workDeps });
 }
 
 export type App = ReturnType<typeof createApp>;

@@ -36,6 +36,7 @@ const schema = z
     STRIPE_API_URL: z.url().optional(),
     PAYMENTS_STAND_IN_PORT: z.coerce.number().int().min(1).max(65535).default(12111),
     PLATFORM_FEE_BPS: z.coerce.number().int().min(0).max(5000).default(800),
+    REVIEW_WINDOW_DAYS: z.coerce.number().positive().max(60).default(5),
 
     RATE_LIMIT_SIGNIN_MAX: z.coerce.number().int().positive().default(10),
     RATE_LIMIT_SIGNUP_MAX: z.coerce.number().int().positive().default(20),
@@ -91,6 +92,8 @@ export interface AppConfig {
     standInPort: number;
     platformFeeBps: number;
   };
+  /** Days a builder has to answer an inspection record before it counts as accepted. */
+  reviewWindowDays: number;
   rateLimits: { signInMax: number; signUpMax: number; calculationsPerMinute: number; messagesPer10s: number };
 }
 
@@ -144,6 +147,7 @@ export function loadConfig(source: NodeJS.ProcessEnv = process.env): AppConfig {
     maildevWebPort: env.MAILDEV_WEB_PORT,
     github,
     githubStandInPort: env.GITHUB_STAND_IN_PORT,
+    reviewWindowDays: env.REVIEW_WINDOW_DAYS,
     payments: {
       secretKey: env.STRIPE_SECRET_KEY,
       webhookSecret: env.STRIPE_WEBHOOK_SECRET,

@@ -14,6 +14,7 @@ import { calculationRequestSchemas } from '../shared/schemas/calculations';
 import { uuidSchema } from '../shared/schemas/common';
 import { boardQuerySchema, jobInputSchema, myJobsQuerySchema } from '../shared/schemas/jobs';
 import { changeOrderInputSchema, splitSchema } from '../shared/schemas/payments';
+import { inspectionDraftSchema, inspectionInputSchema, milestoneInputSchema, rejectInspectionSchema } from '../shared/schemas/inspection';
 import { historyQuerySchema, markReadSchema, openThreadSchema, sendMessageSchema } from '../shared/schemas/messages';
 import { shopDirectoryQuerySchema, shopProfileSchema } from '../shared/schemas/shops';
 
@@ -53,6 +54,7 @@ const threadId = z.object({ threadId: uuidSchema });
 const changeOrderId = z.object({ changeOrderId: uuidSchema });
 const photo = z.object({ jobId: uuidSchema, photoId: uuidSchema });
 const photoSized = photo.extend({ size: z.enum(['thumb', 'large']) });
+const threadPhotoSized = z.object({ threadId: uuidSchema, photoId: uuidSchema, size: z.enum(['thumb', 'large']) });
 
 const calculationRoutes: RouteDoc[] = Object.entries(calculationRequestSchemas).map(([name, schema]) => ({
   method: 'post',
@@ -106,8 +108,18 @@ export const routeDocs: RouteDoc[] = [
   { method: 'get', path: '/api/jobs/{jobId}/threads', summary: 'A job’s conversations the person may read', tag: 'Messages', access: 'signed-in', params: jobId },
   { method: 'post', path: '/api/jobs/{jobId}/threads', summary: 'Open (or find) the conversation between the job’s builder and a shop', tag: 'Messages', access: 'builder or shop', params: jobId, body: openThreadSchema, ok: { status: 201, description: 'The conversation' } },
   { method: 'get', path: '/api/threads/{threadId}/messages', summary: 'Message history, newest first, paged by cursor', tag: 'Messages', access: 'signed-in', params: threadId, query: historyQuerySchema },
-  { method: 'post', path: '/api/threads/{threadId}/messages', summary: 'Send a message (a repeated clientId returns the stored one); live clients use the socket', tag: 'Messages', access: 'builder or shop', params: threadId, body: sendMessageSchema, ok: { status: 201, description: 'Stored and delivered' } },
+  { method: 'post', path: '/api/threads/{threadId}/messages', summary: 'Send a message: words, up to 4 uploaded photos (photoIds), or both; a repeated clientId returns the stored one; live clients use the socket', tag: 'Messages', access: 'builder or shop', params: threadId, body: sendMessageSchema, ok: { status: 201, description: 'Stored and delivered' } },
+  { method: 'post', path: '/api/threads/{threadId}/photos', summary: 'Upload photos for a message (multipart field "photos"; JPEG, PNG or WebP; 15 MB each; 4 at a time); send their ids as the message’s photoIds', tag: 'Messages', access: 'builder or shop', params: threadId, ok: { status: 201, description: 'Stored, waiting for a message' } },
+  { method: 'get', path: '/api/threads/{threadId}/photos/{photoId}/{size}', summary: 'A photo in a conversation, re-encoded as WebP (before it is sent, only for its uploader)', tag: 'Messages', access: 'signed-in', params: threadPhotoSized, ok: { status: 200, description: 'image/webp' } },
   { method: 'post', path: '/api/threads/{threadId}/read', summary: 'Mark the conversation read up to a message', tag: 'Messages', access: 'signed-in', params: threadId, body: markReadSchema },
+  { method: 'get', path: '/api/jobs/{jobId}/milestones', summary: 'The job’s progress timeline', tag: 'Work', access: 'signed-in', params: jobId },
+  { method: 'post', path: '/api/jobs/{jobId}/milestones', summary: 'The working shop logs progress (block received starts the work)', tag: 'Work', access: 'shop', params: jobId, body: milestoneInputSchema, ok: { status: 201, description: 'Logged' } },
+  { method: 'get', path: '/api/jobs/{jobId}/inspection', summary: 'Inspection record versions with the server’s results, the shop’s draft, and the review deadline', tag: 'Work', access: 'signed-in', params: jobId },
+  { method: 'put', path: '/api/jobs/{jobId}/inspection/draft', summary: 'Keep the shop’s unfinished record', tag: 'Work', access: 'shop', params: jobId, body: inspectionDraftSchema },
+  { method: 'post', path: '/api/jobs/{jobId}/inspection', summary: 'Submit the measured record (raw readings only; the server computes and judges)', tag: 'Work', access: 'shop', params: jobId, body: inspectionInputSchema, ok: { status: 201, description: 'A new version' } },
+  { method: 'post', path: '/api/jobs/{jobId}/inspection/accept', summary: 'Accept the record: the held payment is released to the shop', tag: 'Work', access: 'builder', params: jobId },
+  { method: 'get', path: '/api/jobs/{jobId}/inspection/{version}/certificate.pdf', summary: 'The certificate of one version as a PDF', tag: 'Work', access: 'signed-in', params: jobId.extend({ version: z.coerce.number().int().min(1) }), ok: { status: 200, description: 'application/pdf' } },
+  { method: 'post', path: '/api/jobs/{jobId}/inspection/reject', summary: 'Reject the record with reasons; the shop submits a new version', tag: 'Work', access: 'builder', params: jobId, body: rejectInspectionSchema },
   { method: 'post', path: '/api/payments/webhook', summary: 'Payment provider events (signed with Stripe-Signature; raw JSON body)', tag: 'Payments', access: 'public', csrf: false },
   { method: 'post', path: '/api/shop-profile/payouts', summary: 'Start or continue the shop’s payout account onboarding; answers the provider’s link', tag: 'Payments', access: 'shop' },
   { method: 'post', path: '/api/jobs/{jobId}/checkout', summary: 'Pay the accepted bid: answers a hosted payment page address', tag: 'Payments', access: 'builder', params: jobId },

@@ -8,6 +8,8 @@ import { createOutboxWorker } from './lib/mail/outbox';
 import { createTransport } from './lib/mail/transport';
 import { startDigestWorker } from './modules/messages/digest';
 import { startMoneyWorker } from './modules/payments/payments.service';
+import { inspectionTaskHandlers } from './modules/inspections/inspections.service';
+import { createScheduler, type Scheduler } from './lib/scheduler';
 import { attachRealtime } from './realtime/socket-server';
 
 export interface RunningServer {
@@ -16,6 +18,7 @@ export interface RunningServer {
   port: number;
   io: import('socket.io').Server;
   app: ReturnType<typeof createApp>;
+  scheduler: Scheduler;
   close(): Promise<void>;
 }
 
@@ -50,6 +53,8 @@ export async function startServer(
   });
   const digests = startDigestWorker({ db, appUrl: config.appUrl, logger });
   const money = startMoneyWorker(app.paymentDeps);
+  const scheduler = createScheduler({ db, handlers: inspectionTaskHandlers(app.workDeps), logger });
+  scheduler.start(30_000);
 
   const transport = createTransport(config.smtp);
   const worker = createOutboxWorker({ db, transport, from: config.mailFrom, logger });
@@ -61,9 +66,11 @@ export async function startServer(
     url: `http://localhost:${port}`,
     io,
     app,
+    scheduler,
     async close() {
       digests.stop();
       money.stop();
+      await scheduler.stop();
       await new Promise<void>((resolve) => io.close(() => resolve()));
       await worker.stop();
       await new Promise<void>((resolve) => server.close(() => resolve()));

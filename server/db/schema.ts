@@ -338,7 +338,38 @@ export const messages = pgTable(
   (t) => [
     uniqueIndex('messages_author_client_idx').on(t.authorId, t.clientId),
     index('messages_thread_idx').on(t.threadId, t.createdAt.desc(), t.id.desc()),
-    check('messages_body_check', sql`char_length(${t.body}) BETWEEN 1 AND 4000`),
+    // May be empty when the message carries photos; the service checks that it has words or photos.
+    check('messages_body_check', sql`char_length(${t.body}) <= 4000`),
+  ],
+);
+
+/**
+ * A photo in a conversation. Uploaded first (no message yet), then attached
+ * to the sender's message in the same transaction that stores it.
+ */
+export const messagePhotos = pgTable(
+  'message_photos',
+  {
+    id: uuid().primaryKey().defaultRandom(),
+    threadId: uuid()
+      .notNull()
+      .references(() => threads.id, { onDelete: 'cascade' }),
+    uploadedBy: uuid()
+      .notNull()
+      .references(() => users.id),
+    storageKey: text().notNull(),
+    width: integer().notNull(),
+    height: integer().notNull(),
+    bytes: integer().notNull(),
+    /** Null until the photo goes out with a message. */
+    messageId: uuid().references(() => messages.id, { onDelete: 'cascade' }),
+    /** Its place among the message's photos, set when attached. */
+    position: integer(),
+    createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [
+    index('message_photos_message_idx').on(t.messageId, t.position),
+    index('message_photos_unsent_idx').on(t.threadId, t.uploadedBy).where(sql`${t.messageId} IS NULL`),
   ],
 );
 

@@ -11,3 +11,4 @@ export * from './crosshatch';
 export * from './deck';
 export * from './ring-gap';
 export * from './roughness';
+export * from './inspection-record';

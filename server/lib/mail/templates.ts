@@ -220,3 +220,41 @@ export function refundSentMail(input: { name: string; jobTitle: string; amountCe
     action: { label: 'Open the job', url: input.url },
   });
 }
+
+export function inspectionSubmittedMail(input: { name: string; shopName: string; jobTitle: string; version: number; pass: boolean; dueText: string; url: string }): RenderedMail {
+  return render({
+    template: 'inspection_submitted',
+    subject: `Inspection record ${input.version > 1 ? `version ${input.version} ` : ''}for “${input.jobTitle}”`,
+    greeting: `Hello ${input.name},`,
+    paragraphs: [
+      `${input.shopName} submitted the measured inspection record for “${input.jobTitle}”. By the job’s limits it ${input.pass ? 'passes every check' : 'fails at least one check'}.`,
+      `Accept it to release the held payment to the shop, or reject it with your reasons. With no answer by ${input.dueText}, it counts as accepted.`,
+    ],
+    action: { label: 'Review the record', url: input.url },
+  });
+}
+
+export function reviewReminderMail(input: { name: string; jobTitle: string; dueText: string; url: string }): RenderedMail {
+  return render({
+    template: 'review_reminder',
+    subject: `Reminder: the inspection record for “${input.jobTitle}” is waiting`,
+    greeting: `Hello ${input.name},`,
+    paragraphs: [`The inspection record for “${input.jobTitle}” counts as accepted on ${input.dueText} unless you answer before then.`],
+    action: { label: 'Review the record', url: input.url },
+  });
+}
+
+export function inspectionDecidedMail(input: { name: string; jobTitle: string; decision: 'accepted' | 'accepted_by_window' | 'rejected'; reasons?: string; url: string }): RenderedMail {
+  const words = {
+    accepted: 'The builder accepted your inspection record. The held payment is on its way to your payout account, less Tenthmark’s fee.',
+    accepted_by_window: 'The review window ended with no answer, so your inspection record counts as accepted. The held payment is on its way to your payout account, less Tenthmark’s fee.',
+    rejected: 'The builder did not accept your inspection record yet and asks for another look.',
+  }[input.decision];
+  return render({
+    template: `inspection_${input.decision}`,
+    subject: input.decision === 'rejected' ? `Changes asked on “${input.jobTitle}”` : `“${input.jobTitle}” is accepted`,
+    greeting: `Hello ${input.name},`,
+    paragraphs: [words, ...(input.reasons ? [`Their reasons: ${input.reasons}`] : [])],
+    action: { label: 'Open the job', url: input.url },
+  });
+}

@@ -1,0 +1,94 @@
+import { sql } from 'drizzle-orm';
+import { boolean, index, integer, jsonb, pgEnum, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core';
+import { jobs, users } from './schema';
+
+/** The shop's proof of work: progress milestones, inspection record versions and drafts, and timed tasks. */
+export const milestoneKind = pgEnum('milestone_kind', [
+  'block_received',
+  'teardown',
+  'operation_started',
+  'operation_finished',
+  'ready_for_pickup',
+  'shipped',
+  'delivered',
+  'note',
+]);
+export const inspectionStatus = pgEnum('inspection_status', ['submitted', 'accepted', 'rejected', 'superseded']);
+
+export const milestones = pgTable(
+  'milestones',
+  {
+    id: uuid().primaryKey().defaultRandom(),
+    jobId: uuid()
+      .notNull()
+      .references(() => jobs.id, { onDelete: 'cascade' }),
+    authorId: uuid()
+      .notNull()
+      .references(() => users.id),
+    kind: milestoneKind().notNull(),
+    operation: text(),
+    note: text().notNull().default(''),
+    carrier: text(),
+    trackingNumber: text(),
+    createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index('milestones_job_idx').on(t.jobId, t.createdAt)],
+);
+
+/** Each submission is a new version; raw readings and the server's own results are both kept. */
+export const inspectionRecords = pgTable(
+  'inspection_records',
+  {
+    id: uuid().primaryKey().defaultRandom(),
+    jobId: uuid()
+      .notNull()
+      .references(() => jobs.id, { onDelete: 'cascade' }),
+    version: integer().notNull(),
+    status: inspectionStatus().notNull().default('submitted'),
+    input: jsonb().notNull(),
+    results: jsonb().notNull(),
+    pass: boolean().notNull(),
+    submittedBy: uuid()
+      .notNull()
+      .references(() => users.id),
+    submittedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+    reviewDueAt: timestamp({ withTimezone: true }).notNull(),
+    decidedAt: timestamp({ withTimezone: true }),
+    decidedBy: uuid().references(() => users.id),
+    /** Who or what decided: the builder, or the review window running out. */
+    decidedHow: text(),
+    rejectReasons: text(),
+  },
+  (t) => [uniqueIndex('inspection_records_version_idx').on(t.jobId, t.version)],
+);
+
+export const inspectionDrafts = pgTable('inspection_drafts', {
+  jobId: uuid()
+    .primaryKey()
+    .references(() => jobs.id, { onDelete: 'cascade' }),
+  draft: jsonb().notNull(),
+  savedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+});
+
+/**
+ * Work to do at a time (review reminders, acceptance when the window ends).
+ * A worker leases a due task with FOR UPDATE SKIP LOCKED, so two app instances
+ * never run the same task, and a task whose worker died is leased again.
+ */
+export const scheduledTasks = pgTable(
+  'scheduled_tasks',
+  {
+    id: uuid().primaryKey().defaultRandom(),
+    kind: text().notNull(),
+    /** Makes scheduling idempotent: the same key is scheduled once. */
+    key: text().notNull(),
+    payload: jsonb().notNull(),
+    runAt: timestamp({ withTimezone: true }).notNull(),
+    leasedUntil: timestamp({ withTimezone: true }),
+    attempts: integer().notNull().default(0),
+    lastError: text(),
+    doneAt: timestamp({ withTimezone: true }),
+    createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [uniqueIndex('scheduled_tasks_key_idx').on(t.key), index('scheduled_tasks_due_idx').on(t.runAt).where(sql`${t.doneAt} IS NULL`)],
+);

@@ -1,0 +1,217 @@
+import { and, desc, eq, sql } from 'drizzle-orm';
+import { evaluateInspection } from '../../../shared/calc/inspection-record';
+import type { InspectionInput, InspectionResults, InspectionVersion } from '../../../shared/schemas/inspection';
+import type { JobInput } from '../../../shared/schemas/jobs';
+import type { Database, Executor } from '../../db/client';
+import { jobs, type User } from '../../db/schema';
+import { inspectionDrafts, inspectionRecords } from '../../db/schema-work';
+import { AppError, conflict, forbidden } from '../../lib/errors';
+import { enqueueMail } from '../../lib/mail/outbox';
+import { inspectionDecidedMail, inspectionSubmittedMail, reviewReminderMail } from '../../lib/mail/templates';
+import { scheduleTask } from '../../lib/scheduler';
+import { releaseJob, type PaymentDeps } from '../payments/payments.service';
+import { certificatePdf } from './certificate';
+import { assertCanSeeWork, assertWorkingShop, jobParties } from './job-parties';
+
+export interface InspectionDeps extends PaymentDeps {
+  reviewWindowMs: number;
+}
+
+type RecordRow = typeof inspectionRecords.$inferSelect;
+
+const toVersion = (row: RecordRow): InspectionVersion => ({
+  id: row.id,
+  version: row.version,
+  status: row.status,
+  input: row.input as InspectionInput,
+  results: row.results as InspectionResults,
+  submittedAt: row.submittedAt.toISOString(),
+  decidedAt: row.decidedAt?.toISOString() ?? null,
+  rejectReasons: row.rejectReasons,
+});
+
+const dayText = (date: Date) => date.toLocaleString('en-US', { dateStyle: 'long', timeStyle: 'short', timeZone: 'UTC' }) + ' UTC';
+
+export async function inspectionView(db: Database, user: User, jobId: string) {
+  const parties = await jobParties(db, jobId);
+  assertCanSeeWork(parties, user);
+  const rows = await db.select().from(inspectionRecords).where(eq(inspectionRecords.jobId, jobId)).orderBy(desc(inspectionRecords.version));
+  let draft: Record<string, unknown> | null = null;
+  if (parties.shop?.userId === user.id) {
+    const [row] = await db.select().from(inspectionDrafts).where(eq(inspectionDrafts.jobId, jobId));
+    draft = (row?.draft as Record<string, unknown>) ?? null;
+  }
+  const open = rows.find((r) => r.status === 'submitted');
+  return { versions: rows.map(toVersion), draft, reviewDueAt: open?.reviewDueAt.toISOString() ?? null };
+}
+
+export async function saveDraft(db: Database, user: User, jobId: string, draft: Record<string, unknown>) {
+  const parties = await jobParties(db, jobId);
+  assertWorkingShop(parties, user);
+  if (JSON.stringify(draft).length > 2_000_000) throw new AppError('too_large', 'The draft is too large.', 413);
+  const [row] = await db
+    .insert(inspectionDrafts)
+    .values({ jobId, draft })
+    .onConflictDoUpdate({ target: inspectionDrafts.jobId, set: { draft, savedAt: new Date() } })
+    .returning();
+  return { savedAt: row.savedAt.toISOString() };
+}
+
+/**
+ * The shop submits its readings. Everything is worked out again here from
+ * the raw readings (nothing computed by a browser is taken), judged against
+ * the job's spec, and stored with the readings as a new version.
+ */
+export async function submitInspection(deps: InspectionDeps, user: User, jobId: string, input: InspectionInput) {
+  return deps.db.transaction(async (tx) => {
+    const parties = await jobParties(tx, jobId, { forUpdate: true });
+    assertWorkingShop(parties, user);
+    const { job } = parties;
+    if (job.status !== 'in_work') {
+      throw conflict(
+        job.status === 'inspection_submitted' ? 'A record is already waiting for the builder.' : 'Log “block received” before the inspection record.',
+        'job_not_in_work',
+      );
+    }
+    if (input.cylinders.length !== job.cylinders) {
+      throw new AppError('invalid_input', `This job has ${job.cylinders} cylinders; the record has ${input.cylinders.length}.`, 400, {
+        cylinders: `Enter readings for all ${job.cylinders} cylinders.`,
+      });
+    }
+    const results = evaluateInspection(input, job.spec as JobInput);
+    const [{ next }] = await tx.select({ next: sql<number>`coalesce(max(${inspectionRecords.version}), 0)::int + 1` }).from(inspectionRecords).where(eq(inspectionRecords.jobId, job.id));
+    const reviewDueAt = new Date(Date.now() + deps.reviewWindowMs);
+    const [row] = await tx
+      .insert(inspectionRecords)
+      .values({ jobId: job.id, version: next, input, results, pass: results.pass, submittedBy: user.id, reviewDueAt })
+      .returning();
+    await tx.update(jobs).set({ status: 'inspection_submitted', updatedAt: new Date() }).where(eq(jobs.id, job.id));
+    await tx.delete(inspectionDrafts).where(eq(inspectionDrafts.jobId, job.id));
+    const url = `${deps.appUrl}/jobs/${job.id}`;
+    await enqueueMail(
+      tx,
+      parties.builder.email,
+      inspectionSubmittedMail({ name: parties.builder.displayName, shopName: parties.shop!.name, jobTitle: job.title, version: next, pass: results.pass, dueText: dayText(reviewDueAt), url }),
+    );
+    const reminderAt = new Date(Math.max(Date.now(), reviewDueAt.getTime() - 24 * 60 * 60_000));
+    await scheduleTask(tx, { kind: 'review-reminder', key: `review-reminder-${row.id}`, payload: { recordId: row.id }, runAt: reminderAt });
+    await scheduleTask(tx, { kind: 'review-window-ended', key: `review-window-${row.id}`, payload: { recordId: row.id }, runAt: reviewDueAt });
+    return toVersion(row);
+  });
+}
+
+/**
+ * Accepting (by the builder, or by the window running out) marks the record
+ * accepted and the job completed in one transaction, then releases the held
+ * payment; the release is keyed by payment, so it happens once.
+ */
+async function accept(deps: InspectionDeps, jobId: string, how: { by?: User; window?: { recordId: string } }) {
+  const accepted = await deps.db.transaction(async (tx) => {
+    const parties = await jobParties(tx, jobId, { forUpdate: true });
+    const [record] = await tx
+      .select()
+      .from(inspectionRecords)
+      .where(and(eq(inspectionRecords.jobId, jobId), eq(inspectionRecords.status, 'submitted')))
+      .orderBy(desc(inspectionRecords.version))
+      .limit(1);
+    if (parties.job.status !== 'inspection_submitted' || !record) {
+      if (how.window) return null; // answered in time; nothing to do
+      throw conflict('There is no inspection record waiting for an answer.', 'nothing_to_review');
+    }
+    if (how.window && record.id !== how.window.recordId) return null;
+    const [row] = await tx
+      .update(inspectionRecords)
+      .set({ status: 'accepted', decidedAt: new Date(), decidedBy: how.by?.id ?? null, decidedHow: how.by ? 'builder' : 'review window' })
+      .where(eq(inspectionRecords.id, record.id))
+      .returning();
+    await tx.update(jobs).set({ status: 'completed', updatedAt: new Date() }).where(eq(jobs.id, jobId));
+    const url = `${deps.appUrl}/jobs/${jobId}`;
+    const decision = how.by ? 'accepted' : 'accepted_by_window';
+    if (parties.shop) await enqueueMail(tx, parties.shop.email, inspectionDecidedMail({ name: parties.shop.name, jobTitle: parties.job.title, decision, url }));
+    if (!how.by) await enqueueMail(tx, parties.builder.email, inspectionDecidedMail({ name: parties.builder.displayName, jobTitle: parties.job.title, decision, url }));
+    return row;
+  });
+  if (!accepted) return null;
+  await releaseJob(deps, jobId);
+  deps.hub?.jobChanged(jobId, 'job_updated');
+  return toVersion(accepted);
+}
+
+export async function acceptInspection(deps: InspectionDeps, user: User, jobId: string) {
+  const parties = await jobParties(deps.db, jobId);
+  if (parties.builder.id !== user.id) {
+    assertCanSeeWork(parties, user);
+    throw forbidden('Only the builder who posted the job accepts its inspection record.');
+  }
+  return (await accept(deps, jobId, { by: user }))!;
+}
+
+export async function rejectInspection(deps: InspectionDeps, user: User, jobId: string, reasons: string) {
+  return deps.db.transaction(async (tx) => {
+    const parties = await jobParties(tx, jobId, { forUpdate: true });
+    if (parties.builder.id !== user.id) {
+      assertCanSeeWork(parties, user);
+      throw forbidden('Only the builder who posted the job rejects its inspection record.');
+    }
+    const [record] = await tx
+      .select()
+      .from(inspectionRecords)
+      .where(and(eq(inspectionRecords.jobId, jobId), eq(inspectionRecords.status, 'submitted')))
+      .orderBy(desc(inspectionRecords.version))
+      .limit(1);
+    if (parties.job.status !== 'inspection_submitted' || !record) throw conflict('There is no inspection record waiting for an answer.', 'nothing_to_review');
+    const [row] = await tx
+      .update(inspectionRecords)
+      .set({ status: 'rejected', decidedAt: new Date(), decidedBy: user.id, decidedHow: 'builder', rejectReasons: reasons })
+      .where(eq(inspectionRecords.id, record.id))
+      .returning();
+    await tx.update(jobs).set({ status: 'in_work', updatedAt: new Date() }).where(eq(jobs.id, jobId));
+    if (parties.shop) {
+      await enqueueMail(tx, parties.shop.email, inspectionDecidedMail({ name: parties.shop.name, jobTitle: parties.job.title, decision: 'rejected', reasons, url: `${deps.appUrl}/jobs/${jobId}` }));
+    }
+    return toVersion(row);
+  });
+}
+
+/** Scheduled-task handlers: the reminder before the review window ends, and acceptance when it does. */
+export function inspectionTaskHandlers(deps: InspectionDeps) {
+  return {
+    'review-reminder': async (payload: Record<string, unknown>) => {
+      const [record] = await deps.db.select().from(inspectionRecords).where(eq(inspectionRecords.id, String(payload.recordId)));
+      if (!record || record.status !== 'submitted') return;
+      await deps.db.transaction(async (tx: Executor) => {
+        const parties = await jobParties(tx, record.jobId);
+        await enqueueMail(tx, parties.builder.email, reviewReminderMail({ name: parties.builder.displayName, jobTitle: parties.job.title, dueText: dayText(record.reviewDueAt), url: `${deps.appUrl}/jobs/${record.jobId}` }));
+      });
+    },
+    'review-window-ended': async (payload: Record<string, unknown>, now: Date) => {
+      const [record] = await deps.db.select().from(inspectionRecords).where(eq(inspectionRecords.id, String(payload.recordId)));
+      if (!record || record.status !== 'submitted' || record.reviewDueAt > now) return;
+      await accept(deps, record.jobId, { window: { recordId: record.id } });
+    },
+  };
+}
+
+/** The PDF certificate of one version, for the builder, the shop doing the work and admins. */
+export async function certificateFor(db: Database, user: User, jobId: string, version: number): Promise<Buffer> {
+  const parties = await jobParties(db, jobId);
+  assertCanSeeWork(parties, user);
+  const [row] = await db.select().from(inspectionRecords).where(and(eq(inspectionRecords.jobId, jobId), eq(inspectionRecords.version, version)));
+  if (!row) throw new AppError('not_found', 'No inspection record with that version.', 404);
+  const [shop] = parties.job.awardedBidId
+    ? await db.execute<{ city: string; region: string }>(sql`SELECT s.city, s.region FROM bids b JOIN shops s ON s.id = b.shop_id WHERE b.id = ${parties.job.awardedBidId}`).then((r) => r.rows)
+    : [];
+  return certificatePdf({
+    jobTitle: parties.job.title,
+    jobId,
+    engineFamily: parties.job.engineFamily,
+    builderName: parties.builder.displayName,
+    shopName: parties.shop?.name ?? '',
+    shopPlace: shop ? `${shop.city}, ${shop.region}` : '',
+    version: row.version,
+    status: row.status,
+    submittedAt: row.submittedAt,
+    input: row.input as InspectionInput,
+    results: row.results as InspectionResults,
+  });
+}

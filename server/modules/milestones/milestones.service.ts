@@ -1,0 +1,53 @@
+import { asc, eq } from 'drizzle-orm';
+import type { Milestone, MilestoneInput } from '../../../shared/schemas/inspection';
+import type { Database } from '../../db/client';
+import { jobs, users, type User } from '../../db/schema';
+import { milestones } from '../../db/schema-work';
+import { AppError, conflict } from '../../lib/errors';
+import { assertCanSeeWork, assertWorkingShop, jobParties } from '../inspections/job-parties';
+
+const WORKING = new Set(['funded', 'in_work', 'inspection_submitted', 'completed']);
+
+export async function listMilestones(db: Database, user: User, jobId: string): Promise<Milestone[]> {
+  assertCanSeeWork(await jobParties(db, jobId), user);
+  const rows = await db
+    .select({ m: milestones, authorName: users.displayName })
+    .from(milestones)
+    .innerJoin(users, eq(users.id, milestones.authorId))
+    .where(eq(milestones.jobId, jobId))
+    .orderBy(asc(milestones.createdAt), asc(milestones.id));
+  return rows.map(({ m, authorName }) => ({
+    id: m.id,
+    kind: m.kind,
+    operation: m.operation,
+    note: m.note,
+    carrier: m.carrier,
+    trackingNumber: m.trackingNumber,
+    author: { id: m.authorId, displayName: authorName },
+    createdAt: m.createdAt.toISOString(),
+  }));
+}
+
+/** The working shop logs progress; "block received" starts the work (funded → in work). */
+export async function logMilestone(db: Database, user: User, jobId: string, input: MilestoneInput) {
+  return db.transaction(async (tx) => {
+    const parties = await jobParties(tx, jobId, { forUpdate: true });
+    assertWorkingShop(parties, user);
+    const { job } = parties;
+    if (!WORKING.has(job.status)) throw conflict('Progress can be logged once the job is paid for.', 'job_not_funded');
+    if (input.kind === 'block_received') {
+      if (job.status !== 'funded') throw conflict('The block was already logged as received.', 'already_received');
+      await tx.update(jobs).set({ status: 'in_work', updatedAt: new Date() }).where(eq(jobs.id, job.id));
+    } else if (job.status === 'funded') {
+      throw conflict('Log “block received” first.', 'not_received');
+    }
+    if (input.operation && !job.operations.includes(input.operation)) {
+      throw new AppError('invalid_input', 'That operation is not part of this job.', 400, { operation: 'Choose one of the job’s operations.' });
+    }
+    const [row] = await tx
+      .insert(milestones)
+      .values({ jobId, authorId: user.id, kind: input.kind, operation: input.operation ?? null, note: input.note, carrier: input.carrier ?? null, trackingNumber: input.trackingNumber ?? null })
+      .returning();
+    return row;
+  });
+}

@@ -1,0 +1,218 @@
+import { fileURLToPath } from 'node:url';
+import { and, eq } from 'drizzle-orm';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { evaluateInspection } from '../../shared/calc/inspection-record';
+import { inspectBores } from '../../shared/calc/bore';
+import type { InspectionInput } from '../../shared/schemas/inspection';
+import { jobs, mailOutbox } from '../../server/db/schema';
+import { inspectionRecords, scheduledTasks } from '../../server/db/schema-work';
+import { createScheduler } from '../../server/lib/scheduler';
+import { inspectionTaskHandlers } from '../../server/modules/inspections/inspections.service';
+import { jobBalance } from '../../server/modules/payments/ledger';
+import { createUser, jobInput } from '../factories';
+import { startMoneyApp } from '../setup/money-app';
+import { signedIn } from '../setup/test-env';
+
+let m: Awaited<ReturnType<typeof startMoneyApp>>;
+beforeAll(async () => {
+  m = await startMoneyApp();
+});
+afterAll(async () => {
+  await m?.close();
+});
+
+/** Eight cylinders honed to 4.0310 in with small, invented variations (demo numbers). */
+function record(overrides: Partial<InspectionInput> = {}, badTaperOn?: number): InspectionInput {
+  const cylinders = Array.from({ length: 8 }, (_, i) => {
+    const base = 4.031 + (i % 3) * 0.0001;
+    return {
+      top: { thrust: base + 0.0001, axial: base + 0.0001 },
+      middle: { thrust: base, axial: base + 0.0001 },
+      bottom: { thrust: i === badTaperOn ? base - 0.0009 : base, axial: base },
+      piston: 4.028,
+    };
+  });
+  return {
+    conditions: { unit: 'in', gaugeResolution: 0.0001, temperatureC: 21, torquePlate: true },
+    cylinders,
+    deck: { readings: [0.001, 0.0015, 0.001, 0.002], raUm: 0.9 },
+    finish: { mode: 'values', raUm: 0.45, rkUm: 0.6, rpkUm: 0.15, rvkUm: 1.2 },
+    crosshatch: { mode: 'measured', includedAngleDeg: 45 },
+    signedOffBy: 'Ada Quernfield',
+    notes: '',
+    ...overrides,
+  };
+}
+
+const spec = jobInput({ maxTaper: 0.0005, maxOutOfRound: 0.0005, crosshatchMinDeg: 40, crosshatchMaxDeg: 50, finishRaMaxUm: 0.6 });
+
+async function inWork() {
+  const funded = await m.fundedJob({ input: spec });
+  const received = await funded.shop.post(`/api/jobs/${funded.job.id}/milestones`, { kind: 'block_received', note: 'Arrived on a pallet, plugs in.' });
+  expect(received.status).toBe(201);
+  return funded;
+}
+
+describe('milestones', () => {
+  it('when the shop logs the block received, then the job is in work and both sides see the timeline; others cannot log', async () => {
+    const { job, builder, shop } = await m.fundedJob();
+    expect((await shop.post(`/api/jobs/${job.id}/milestones`, { kind: 'teardown', note: 'Found a crack' })).status).toBe(409);
+    expect((await shop.post(`/api/jobs/${job.id}/milestones`, { kind: 'block_received' })).status).toBe(201);
+    expect((await shop.post(`/api/jobs/${job.id}/milestones`, { kind: 'block_received' })).status).toBe(409);
+    expect((await shop.post(`/api/jobs/${job.id}/milestones`, { kind: 'operation_started', operation: 'bore' })).status).toBe(201);
+    expect((await shop.post(`/api/jobs/${job.id}/milestones`, { kind: 'shipped', carrier: 'Freight' })).body.error.fields.trackingNumber).toBeDefined();
+    const timeline = await builder.get(`/api/jobs/${job.id}/milestones`);
+    expect(timeline.body.milestones.map((x: { kind: string }) => x.kind)).toEqual(['block_received', 'operation_started']);
+    expect((await builder.get(`/api/jobs/${job.id}`)).body.job.status).toBe('in_work');
+    const stranger = await signedIn(m.server.app, await createUser(m.db));
+    expect((await stranger.get(`/api/jobs/${job.id}/milestones`)).status).toBe(403);
+    expect((await builder.post(`/api/jobs/${job.id}/milestones`, { kind: 'note', note: 'hi' })).status).toBe(403);
+  });
+});
+
+describe('inspection record', () => {
+  it('when a record is submitted with made-up computed figures, then they are ignored and the server’s own results match the calculation library', async () => {
+    const { job, builder, shop, builderUser } = await inWork();
+    const input = record({}, 2);
+    const tampered = {
+      ...input,
+      results: { pass: true, checks: [] },
+      pass: true,
+      cylinders: input.cylinders.map((c) => ({ ...c, taper: 0, outOfRound: 0, pass: true })),
+    };
+    const res = await shop.post(`/api/jobs/${job.id}/inspection`, tampered);
+    expect(res.status).toBe(201);
+    const version = res.body.version;
+    expect(version.version).toBe(1);
+    expect(version.input.results).toBeUndefined();
+    expect(version.input.cylinders[0].taper).toBeUndefined();
+    // derived: the same library the form uses, on the raw readings alone
+    expect(version.results).toEqual(JSON.parse(JSON.stringify(evaluateInspection(input, spec))));
+    expect(version.results.bores).toEqual(JSON.parse(JSON.stringify(inspectBores({ cylinders: input.cylinders, spec: { targetBore: 4.031, clearanceMin: 0.0025, clearanceMax: 0.0035, maxTaper: 0.0005, maxOutOfRound: 0.0005 } }))));
+    expect(version.results.pass).toBe(false);
+    expect(version.results.checks.find((c: { what: string }) => c.what === 'cylinder 3 taper')).toMatchObject({ pass: false });
+    const [stored] = await m.db.select().from(inspectionRecords).where(eq(inspectionRecords.jobId, job.id));
+    expect(stored.pass).toBe(false);
+    expect((await builder.get(`/api/jobs/${job.id}`)).body.job.status).toBe('inspection_submitted');
+    expect(await m.db.select().from(mailOutbox).where(and(eq(mailOutbox.toAddress, builderUser.email), eq(mailOutbox.template, 'inspection_submitted')))).toHaveLength(1);
+  });
+
+  it('when the record has the wrong number of cylinders, then 400; a second record while one waits is 409', async () => {
+    const { job, shop } = await inWork();
+    const short = record();
+    short.cylinders = short.cylinders.slice(0, 6);
+    expect((await shop.post(`/api/jobs/${job.id}/inspection`, short)).status).toBe(400);
+    expect((await shop.post(`/api/jobs/${job.id}/inspection`, record())).status).toBe(201);
+    expect((await shop.post(`/api/jobs/${job.id}/inspection`, record())).status).toBe(409);
+  });
+
+  it('when the builder rejects with reasons and the shop resubmits, then both versions are kept and readable', async () => {
+    const { job, builder, shop } = await inWork();
+    await shop.post(`/api/jobs/${job.id}/inspection`, record({}, 4));
+    const rejected = await builder.post(`/api/jobs/${job.id}/inspection/reject`, { reasons: 'Cylinder 5 is tapered; hone it again.' });
+    expect(rejected.status).toBe(200);
+    expect(rejected.body.version.status).toBe('rejected');
+    expect((await builder.get(`/api/jobs/${job.id}`)).body.job.status).toBe('in_work');
+    const second = await shop.post(`/api/jobs/${job.id}/inspection`, record());
+    expect(second.body.version.version).toBe(2);
+    const view = await builder.get(`/api/jobs/${job.id}/inspection`);
+    expect(view.body.versions.map((v: { version: number; status: string }) => [v.version, v.status])).toEqual([
+      [2, 'submitted'],
+      [1, 'rejected'],
+    ]);
+    expect(view.body.versions[1].rejectReasons).toBe('Cylinder 5 is tapered; hone it again.');
+    expect(view.body.versions[0].results.pass).toBe(true);
+    expect(view.body.reviewDueAt).toBeTruthy();
+  });
+
+  it('when 20 accepts race, then one succeeds, the payment is released exactly once and the job is completed', async () => {
+    const { job, builder, shop } = await inWork();
+    await shop.post(`/api/jobs/${job.id}/inspection`, record());
+    const answers = await Promise.all(Array.from({ length: 20 }, () => builder.post(`/api/jobs/${job.id}/inspection/accept`)));
+    expect(answers.filter((a) => a.status === 200)).toHaveLength(1);
+    expect(answers.filter((a) => a.status === 409)).toHaveLength(19);
+    expect((await m.stripe.transfers.list({ transfer_group: job.id })).data).toHaveLength(1);
+    const balance = await jobBalance(m.db, job.id);
+    // derived: 50,000 less 8 % (4,000)
+    expect(balance).toMatchObject({ paidIn: 50_000, released: 46_000, fee: 4_000, held: 0 });
+    expect((await builder.get(`/api/jobs/${job.id}`)).body.job.status).toBe('completed');
+  });
+
+  it('when nobody answers, then with two workers and a moved clock the reminder goes once and the record is accepted once', async () => {
+    const { job, shop, builderUser, shopUser } = await inWork();
+    await shop.post(`/api/jobs/${job.id}/inspection`, record());
+    const [submitted] = await m.db.select().from(inspectionRecords).where(eq(inspectionRecords.jobId, job.id));
+    const workers = [0, 1].map(() => createScheduler({ db: m.db, handlers: inspectionTaskHandlers(m.server.app.workDeps) }));
+
+    // Four days and a bit: only the reminder is due.
+    const dayFour = new Date(submitted.reviewDueAt.getTime() - 23 * 60 * 60_000);
+    await Promise.all(workers.map((w) => w.runDue(dayFour)));
+    const reminders = await m.db.select().from(mailOutbox).where(and(eq(mailOutbox.toAddress, builderUser.email), eq(mailOutbox.template, 'review_reminder')));
+    expect(reminders).toHaveLength(1);
+    expect((await m.db.select().from(jobs).where(eq(jobs.id, job.id)))[0].status).toBe('inspection_submitted');
+
+    // Past the window: accepted by itself, released once, told once.
+    const after = new Date(submitted.reviewDueAt.getTime() + 60_000);
+    await Promise.all([...workers.map((w) => w.runDue(after)), ...workers.map((w) => w.runDue(after))]);
+    expect((await m.db.select().from(jobs).where(eq(jobs.id, job.id)))[0].status).toBe('completed');
+    const [decided] = await m.db.select().from(inspectionRecords).where(eq(inspectionRecords.jobId, job.id));
+    expect(decided).toMatchObject({ status: 'accepted', decidedHow: 'review window' });
+    expect((await m.stripe.transfers.list({ transfer_group: job.id })).data).toHaveLength(1);
+    expect(await m.db.select().from(mailOutbox).where(and(eq(mailOutbox.toAddress, shopUser.email), eq(mailOutbox.template, 'inspection_accepted_by_window')))).toHaveLength(1);
+    const tasks = await m.db.select().from(scheduledTasks).where(eq(scheduledTasks.key, `review-window-${submitted.id}`));
+    expect(tasks[0].doneAt).not.toBeNull();
+    expect(tasks[0].attempts).toBe(1);
+  });
+
+  it('when the builder answered in time, then the window ending changes nothing', async () => {
+    const { job, builder, shop } = await inWork();
+    await shop.post(`/api/jobs/${job.id}/inspection`, record());
+    await builder.post(`/api/jobs/${job.id}/inspection/reject`, { reasons: 'Deck finish is too rough.' });
+    const [first] = await m.db.select().from(inspectionRecords).where(eq(inspectionRecords.jobId, job.id));
+    await createScheduler({ db: m.db, handlers: inspectionTaskHandlers(m.server.app.workDeps) }).runDue(new Date(first.reviewDueAt.getTime() + 60_000));
+    expect((await m.db.select().from(jobs).where(eq(jobs.id, job.id)))[0].status).toBe('in_work');
+    expect((await m.stripe.transfers.list({ transfer_group: job.id })).data).toHaveLength(0);
+  });
+
+  it('when the certificate is downloaded, then the PDF’s own text holds every reading, the results, the sign-off and the caution', async () => {
+    const { job, builder, shop } = await inWork();
+    const input = record({}, 6);
+    await shop.post(`/api/jobs/${job.id}/inspection`, input);
+    const res = await builder.agent.get(`/api/jobs/${job.id}/inspection/1/certificate.pdf`).buffer(true).parse((r, done) => {
+      const chunks: Buffer[] = [];
+      r.on('data', (c: Buffer) => chunks.push(c));
+      r.on('end', () => done(null, Buffer.concat(chunks)));
+    });
+    expect(res.status).toBe(200);
+    expect(res.headers['content-type']).toBe('application/pdf');
+    const { getDocument } = await import('pdfjs-dist/legacy/build/pdf.mjs');
+    const fonts = `${fileURLToPath(new URL('../../node_modules/pdfjs-dist/standard_fonts/', import.meta.url))}`;
+    const pdf = await getDocument({ data: new Uint8Array(res.body as Buffer), standardFontDataUrl: fonts }).promise;
+    let text = '';
+    for (let p = 1; p <= pdf.numPages; p += 1) {
+      const content = await (await pdf.getPage(p)).getTextContent();
+      text += content.items.map((item) => ('str' in item ? item.str : '')).join(' ') + '\n';
+    }
+    for (const cylinder of input.cylinders) {
+      for (const value of [cylinder.top.thrust, cylinder.top.axial, cylinder.middle.thrust, cylinder.bottom.thrust]) expect(text).toContain(value.toFixed(4));
+    }
+    expect(text).toContain('Ada Quernfield');
+    expect(text).toContain('FAIL');
+    expect(text).toContain('cylinder 7 taper');
+    expect(text).toMatch(/Figures are guidance/);
+    const stranger = await signedIn(m.server.app, await createUser(m.db));
+    expect((await stranger.get(`/api/jobs/${job.id}/inspection/1/certificate.pdf`)).status).toBe(403);
+    expect((await builder.get(`/api/jobs/${job.id}/inspection/9/certificate.pdf`)).status).toBe(404);
+  });
+
+  it('when someone else tries, then the shop alone submits and the builder alone decides', async () => {
+    const { job, builder, shop } = await inWork();
+    expect((await builder.post(`/api/jobs/${job.id}/inspection`, record())).status).toBe(403);
+    await shop.post(`/api/jobs/${job.id}/inspection`, record());
+    expect((await shop.post(`/api/jobs/${job.id}/inspection/accept`)).status).toBe(403);
+    const otherBuilder = await signedIn(m.server.app, await createUser(m.db));
+    expect((await otherBuilder.post(`/api/jobs/${job.id}/inspection/accept`)).status).toBe(403);
+    expect((await otherBuilder.get(`/api/jobs/${job.id}/inspection`)).status).toBe(403);
+    expect((await builder.get(`/api/jobs/${job.id}/inspection`)).body.draft).toBeNull();
+  });
+});
