@@ -1,5 +1,5 @@
 CREATE TYPE "public"."inspection_status" AS ENUM('submitted', 'accepted', 'rejected', 'superseded');--> statement-breakpoint
-CREATE TYPE "public"."milestone_kind" AS ENUM('block_received', 'teardown', 'operation_started', 'operation_finished', 'ready_for_pickup', 'shipped', 'delivered', 'note');--> statement-breakpoint
+CREATE TYPE "public"."milestone_kind" AS ENUM('block_received', 'teardown', 'operation_started', 'operation_finished', 'inspection_submitted', 'ready_for_pickup', 'shipped', 'delivered', 'note');--> statement-breakpoint
 CREATE TABLE "inspection_drafts" (
 	"job_id" uuid PRIMARY KEY NOT NULL,
 	"draft" jsonb NOT NULL,

@@ -113,6 +113,8 @@ export function createApp(deps: AppDeps) {
 
   // A roughness profile may be large; every other body stays small.
   app.use('/api/calculations/roughness', express.json({ limit: ROUGHNESS_BODY_LIMIT }));
+  // An inspection record may carry a surface trace of up to 200,000 heights.
+  app.use(/^\/api\/jobs\/[^/]+\/inspection(\/draft)?$/, express.json({ limit: '8mb' }));
   app.use('/api', express.json({ limit: '200kb' }));
 
   const { csrfSynchronisedProtection, generateToken } = csrfSync({

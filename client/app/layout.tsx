@@ -127,7 +127,7 @@ export function Layout() {
         <a href="#main" className="sr-only focus:not-sr-only focus:absolute focus:left-2 focus:top-2 focus:rounded focus:bg-white focus:p-2">
           Skip to the content
         </a>
-        <header className="border-b-4 border-brass-500 bg-paper-raised">
+        <header className="border-b-4 border-brass-500 bg-paper-raised print:hidden">
           <div className="mx-auto flex max-w-page flex-wrap items-center justify-between gap-3 px-4 py-3">
             <div className="flex items-center gap-6">
               <NavLink to={me ? '/dashboard' : '/'} className="text-xl font-extrabold tracking-tight text-slate-700">
@@ -163,7 +163,7 @@ export function Layout() {
         <main id="main" className="mx-auto w-full max-w-page flex-1 px-4 py-8">
           <Outlet />
         </main>
-        <footer className="border-t border-slate-200 bg-paper-sunk">
+        <footer className="border-t border-slate-200 bg-paper-sunk print:hidden">
           <p className="mx-auto max-w-page px-4 py-4 text-sm text-ink-soft">
             Tenthmark · figures shown are guidance; engine and piston makers' specifications, calibrated instruments, local codes and
             licensed practice govern machine work.

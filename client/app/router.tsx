@@ -43,7 +43,13 @@ export const router = createBrowserRouter([
           },
           {
             element: <RequireRole><Outlet /></RequireRole>,
-            children: [{ path: '/jobs/:jobId', lazy: () => import('./routes/job-detail').then((m) => ({ Component: m.JobDetailRoute })) }],
+            children: [
+              { path: '/jobs/:jobId', lazy: () => import('./routes/job-detail').then((m) => ({ Component: m.JobDetailRoute })) },
+              {
+                path: '/jobs/:jobId/inspection/:version/certificate',
+                lazy: () => import('./routes/inspection-certificate').then((m) => ({ Component: m.InspectionCertificateRoute })),
+              },
+            ],
           },
           {
             element: <RequireRole roles={['shop']}><Outlet /></RequireRole>,
@@ -51,6 +57,7 @@ export const router = createBrowserRouter([
               { path: '/board', lazy: () => import('./routes/board').then((m) => ({ Component: m.BoardRoute })) },
               { path: '/bids', lazy: () => import('./routes/my-bids').then((m) => ({ Component: m.MyBidsRoute })) },
               { path: '/shop/profile', lazy: () => import('./routes/shop-profile').then((m) => ({ Component: m.ShopProfileRoute })) },
+              { path: '/jobs/:jobId/inspection/new', lazy: () => import('./routes/inspection-entry').then((m) => ({ Component: m.InspectionEntryRoute })) },
             ],
           },
           {

@@ -53,3 +53,15 @@ export const paymentKeys = {
   money: (jobId: string) => [...paymentKeys.all(jobId), 'money'] as const,
   changeOrders: (jobId: string) => [...paymentKeys.all(jobId), 'change-orders'] as const,
 };
+
+/** A job's timeline of milestones (block received, operations, shipping). */
+export const milestoneKeys = {
+  all: ['milestones'] as const,
+  forJob: (jobId: string) => [...milestoneKeys.all, 'job', jobId] as const,
+};
+
+/** A job's inspection record: its versions, the shop's draft and the review deadline. */
+export const inspectionKeys = {
+  all: ['inspections'] as const,
+  forJob: (jobId: string) => [...inspectionKeys.all, 'job', jobId] as const,
+};

@@ -1,7 +1,7 @@
 import { useQueryClient } from '@tanstack/react-query';
 import { createContext, createElement, useContext, useEffect, useRef, useState, type ReactNode } from 'react';
 import { io, type Socket } from 'socket.io-client';
-import { bidKeys, jobKeys, paymentKeys, threadKeys } from './query-keys';
+import { bidKeys, inspectionKeys, jobKeys, milestoneKeys, paymentKeys, threadKeys } from './query-keys';
 
 /**
  * The live connection: one socket.io connection for the signed-in person,
@@ -171,5 +171,8 @@ export function useWatchJob(jobId: string | undefined) {
     void queryClient.invalidateQueries({ queryKey: threadKeys.forJob(jobId) });
     // A payment confirmed, a payout made or extra work proposed.
     void queryClient.invalidateQueries({ queryKey: paymentKeys.all(jobId) });
+    // Progress logged by the shop; an inspection record submitted, accepted or rejected.
+    void queryClient.invalidateQueries({ queryKey: milestoneKeys.forJob(jobId) });
+    void queryClient.invalidateQueries({ queryKey: inspectionKeys.forJob(jobId) });
   });
 }

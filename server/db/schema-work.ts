@@ -8,6 +8,7 @@ export const milestoneKind = pgEnum('milestone_kind', [
   'teardown',
   'operation_started',
   'operation_finished',
+  'inspection_submitted',
   'ready_for_pickup',
   'shipped',
   'delivered',

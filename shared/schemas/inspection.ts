@@ -87,11 +87,11 @@ export interface InspectionVersion {
   rejectReasons: string | null;
 }
 
-export const milestoneKinds = ['block_received', 'teardown', 'operation_started', 'operation_finished', 'ready_for_pickup', 'shipped', 'delivered', 'note'] as const;
+export const milestoneKinds = ['block_received', 'teardown', 'operation_started', 'operation_finished', 'inspection_submitted', 'ready_for_pickup', 'shipped', 'delivered', 'note'] as const;
 
 export const milestoneInputSchema = z
   .object({
-    kind: z.enum(milestoneKinds, { error: 'Choose what happened.' }),
+    kind: z.enum(milestoneKinds, { error: 'Choose what happened.' }).refine((kind) => kind !== 'inspection_submitted', 'Submit the inspection record itself; it is logged on its own.'),
     operation: z.string().max(40).optional(),
     note: z.string().trim().max(2000, 'Use at most 2,000 characters.').default(''),
     carrier: z.string().trim().max(60).optional(),

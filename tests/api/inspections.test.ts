@@ -205,6 +205,24 @@ describe('inspection record', () => {
     expect((await builder.get(`/api/jobs/${job.id}/inspection/9/certificate.pdf`)).status).toBe(404);
   });
 
+  it('when the shop saves drafts, then they come back only to it, stop once the record is submitted, and a long surface trace fits in the record', async () => {
+    const { job, shop, builder } = await inWork();
+    const saved = await shop.agent.put(`/api/jobs/${job.id}/inspection/draft`).set('X-CSRF-Token', shop.token).send({ draft: { cylinders: [{ top: { thrust: '4.03' } }] } });
+    expect(saved.status).toBe(200);
+    expect((await shop.get(`/api/jobs/${job.id}/inspection`)).body.draft).toEqual({ cylinders: [{ top: { thrust: '4.03' } }] });
+    // A trace of 100,000 heights (about 1 MB of JSON): a triangle wave, Ra = A/2 (derived).
+    const heightsUm = Array.from({ length: 100_000 }, (_, i) => {
+      const phase = (i % 400) / 400;
+      return phase < 0.5 ? -1 + 4 * phase : 3 - 4 * phase;
+    });
+    const submitted = await shop.post(`/api/jobs/${job.id}/inspection`, record({ finish: { mode: 'profile', heightsUm, spacingUm: 0.5 } }));
+    expect(submitted.status).toBe(201);
+    expect(submitted.body.version.results.finish.raUm).toBeCloseTo(0.5, 3);
+    const late = await shop.agent.put(`/api/jobs/${job.id}/inspection/draft`).set('X-CSRF-Token', shop.token).send({ draft: { late: true } });
+    expect(late.status).toBe(409);
+    expect((await builder.get(`/api/jobs/${job.id}/milestones`)).body.milestones.map((x: { kind: string }) => x.kind)).toEqual(['block_received', 'inspection_submitted']);
+  });
+
   it('when someone else tries, then the shop alone submits and the builder alone decides', async () => {
     const { job, builder, shop } = await inWork();
     expect((await builder.post(`/api/jobs/${job.id}/inspection`, record())).status).toBe(403);

@@ -20,6 +20,8 @@ import { ConversationPanel, type Bidder } from '@client/features/messages/compon
 import { ApiError } from '@client/lib/api-client';
 import { useWatchJob } from '@client/lib/realtime';
 import { JobMoneyPanel } from '@client/features/payments/components/job-money-panel';
+import { InspectionReview } from '@client/features/inspections/components/inspection-review';
+import { MilestonesPanel } from '@client/features/milestones/components/milestones-panel';
 
 function Section({ title, children, action }: { title: string; children: ReactNode; action?: ReactNode }) {
   return (
@@ -103,6 +105,9 @@ export function JobDetailRoute() {
   const photosOpen = job.status === 'draft' || job.status === 'open';
   const showBids = (isOwner || me?.role === 'admin') && job.status !== 'draft';
   const awardedBid = bidsQuery.data?.find((bid) => bid.id === job.awardedBidId);
+  const isAwardedShop = me?.role === 'shop' && Boolean(awardedBid);
+  // The work itself (progress, the inspection record) is for the builder, the shop doing it and administrators.
+  const workViewer = isOwner ? 'builder' : isAwardedShop ? 'shop' : me?.role === 'admin' ? 'admin' : null;
   const bidders: Bidder[] = [...(bidsQuery.data ?? [])]
     .sort((a, b) => b.updatedAt.localeCompare(a.updatedAt))
     .filter((bid, index, all) => all.findIndex((other) => other.shop.id === bid.shop.id) === index)
@@ -112,7 +117,9 @@ export function JobDetailRoute() {
     <div className="flex flex-col gap-6">
       <Header job={job} />
       {isOwner && <JobOwnerActions job={job} />}
-      <JobMoneyPanel job={job} isAwardedShop={me?.role === 'shop' && Boolean(awardedBid)} acceptedTotalCents={awardedBid?.totalCents} />
+      <JobMoneyPanel job={job} isAwardedShop={isAwardedShop} acceptedTotalCents={awardedBid?.totalCents} />
+      {workViewer && <InspectionReview job={job} viewer={workViewer} />}
+      {workViewer && <MilestonesPanel job={job} canLog={workViewer === 'shop'} />}
 
       {showBids && (
         <Section title="Bids">

@@ -4,7 +4,7 @@ import type { InspectionInput, InspectionResults, InspectionVersion } from '../.
 import type { JobInput } from '../../../shared/schemas/jobs';
 import type { Database, Executor } from '../../db/client';
 import { jobs, type User } from '../../db/schema';
-import { inspectionDrafts, inspectionRecords } from '../../db/schema-work';
+import { inspectionDrafts, inspectionRecords, milestones } from '../../db/schema-work';
 import { AppError, conflict, forbidden } from '../../lib/errors';
 import { enqueueMail } from '../../lib/mail/outbox';
 import { inspectionDecidedMail, inspectionSubmittedMail, reviewReminderMail } from '../../lib/mail/templates';
@@ -48,6 +48,8 @@ export async function inspectionView(db: Database, user: User, jobId: string) {
 export async function saveDraft(db: Database, user: User, jobId: string, draft: Record<string, unknown>) {
   const parties = await jobParties(db, jobId);
   assertWorkingShop(parties, user);
+  // Only while the record is being written: a late save after submitting must not bring a draft back.
+  if (parties.job.status !== 'in_work') throw conflict('There is no record being written for this job now.', 'job_not_in_work');
   if (JSON.stringify(draft).length > 2_000_000) throw new AppError('too_large', 'The draft is too large.', 413);
   const [row] = await db
     .insert(inspectionDrafts)
@@ -87,6 +89,7 @@ export async function submitInspection(deps: InspectionDeps, user: User, jobId: 
       .returning();
     await tx.update(jobs).set({ status: 'inspection_submitted', updatedAt: new Date() }).where(eq(jobs.id, job.id));
     await tx.delete(inspectionDrafts).where(eq(inspectionDrafts.jobId, job.id));
+    await tx.insert(milestones).values({ jobId: job.id, authorId: user.id, kind: 'inspection_submitted', note: `Version ${next}: ${results.pass ? 'within every limit' : 'outside at least one limit'}.` });
     const url = `${deps.appUrl}/jobs/${job.id}`;
     await enqueueMail(
       tx,

@@ -1,0 +1,130 @@
+import { Link, useParams } from 'react-router-dom';
+import { Button } from '@client/components/ui/button';
+import { Notice } from '@client/components/ui/notice';
+import { useInspection } from '@client/features/inspections/api/inspections';
+import { useJob } from '@client/features/jobs/api/jobs';
+
+const GUIDANCE =
+  'Figures are guidance. Engine and piston makers’ specifications, calibrated instruments, local codes and licensed practice govern machine work.';
+
+/** The printable certificate of one inspection record version (the same content as the PDF). */
+export function InspectionCertificateRoute() {
+  const { jobId = '', version = '1' } = useParams();
+  const job = useJob(jobId);
+  const inspection = useInspection(jobId);
+  if (job.isPending || inspection.isPending) return <p className="text-ink-soft">Loading the record …</p>;
+  if (job.isError || inspection.isError) return <Notice tone="error">{(job.error ?? inspection.error)?.message}</Notice>;
+  const record = inspection.data.versions.find((v) => v.version === Number(version));
+  if (!record) return <Notice tone="error">There is no version {version} of this record.</Notice>;
+  const { input, results } = record;
+  const unit = input.conditions.unit;
+  const len = (value: number | undefined) => (value === undefined ? '—' : value.toFixed(unit === 'in' ? 4 : 3));
+
+  return (
+    <article className="mx-auto max-w-5xl bg-white p-6 print:p-0" aria-labelledby="certificate-title">
+      <div className="mb-4 flex flex-wrap gap-3 print:hidden">
+        <Button onClick={() => window.print()}>Print</Button>
+        <a
+          className="inline-flex min-h-11 items-center rounded-lg px-4 font-semibold text-slate-700 ring-1 ring-slate-300 hover:bg-slate-50"
+          href={`/api/jobs/${jobId}/inspection/${record.version}/certificate.pdf`}
+        >
+          Download the PDF
+        </a>
+        <Link className="inline-flex min-h-11 items-center px-2 font-semibold text-slate-700 underline" to={`/jobs/${jobId}`}>
+          Back to the job
+        </Link>
+      </div>
+      <h1 id="certificate-title" className="text-2xl font-extrabold text-slate-700">
+        Tenthmark inspection record
+      </h1>
+      <p>
+        {job.data.title} — {job.data.engineFamily} · version {record.version} · {record.status} · submitted {new Date(record.submittedAt).toLocaleString()}
+      </p>
+      <p className="mt-2 text-lg font-bold" data-testid="certificate-result">
+        {results.pass ? 'PASS — every check within the job’s limits' : 'FAIL — see the checks below'}
+      </p>
+
+      <h2 className="mt-4 text-lg font-bold">Conditions</h2>
+      <p>
+        Units {unit === 'in' ? 'inch' : 'millimetre'} · gauge resolution {input.conditions.gaugeResolution} {unit} · {input.conditions.temperatureC} °C · torque plate{' '}
+        {input.conditions.torquePlate ? 'fitted' : 'not fitted'}
+      </p>
+
+      <h2 className="mt-4 text-lg font-bold">Bores ({unit})</h2>
+      <div className="overflow-x-auto">
+        <table className="w-full text-sm tabular-nums">
+          <caption className="sr-only">Readings and figures per cylinder</caption>
+          <thead>
+            <tr className="border-b text-left">
+              {['Cyl', 'Top thrust', 'Top axial', 'Mid thrust', 'Mid axial', 'Bottom thrust', 'Bottom axial', 'Piston', 'Mean', 'Taper', 'Out-of-round', 'Clearance', 'Result'].map((h) => (
+                <th key={h} scope="col" className="py-1 pr-2">
+                  {h}
+                </th>
+              ))}
+            </tr>
+          </thead>
+          <tbody>
+            {input.cylinders.map((c, i) => {
+              const r = results.bores.cylinders[i];
+              return (
+                <tr key={i} className="border-b border-slate-100">
+                  <th scope="row" className="py-1 pr-2">
+                    {i + 1}
+                  </th>
+                  {[c.top.thrust, c.top.axial, c.middle.thrust, c.middle.axial, c.bottom.thrust, c.bottom.axial, c.piston, r.mean, r.taper, r.outOfRound, r.clearance].map((v, j) => (
+                    <td key={j} className="py-1 pr-2">
+                      {len(v)}
+                    </td>
+                  ))}
+                  <td className={r.pass ? 'text-pass' : 'font-bold text-fail'}>{r.pass ? 'pass' : 'FAIL'}</td>
+                </tr>
+              );
+            })}
+          </tbody>
+        </table>
+      </div>
+
+      {results.deck && (
+        <>
+          <h2 className="mt-4 text-lg font-bold">Deck</h2>
+          <p>
+            Out-of-flat {len(results.deck.outOfFlat)} {unit} against {len(results.deck.limit)} {unit}: {results.deck.pass ? 'pass' : 'FAIL'}
+          </p>
+        </>
+      )}
+      {results.finish && (
+        <>
+          <h2 className="mt-4 text-lg font-bold">Bore finish (µm)</h2>
+          <p>
+            Ra {results.finish.raUm.toFixed(3)}
+            {results.finish.rkUm !== undefined && ` · Rk ${results.finish.rkUm.toFixed(3)}`}
+            {results.finish.rpkUm !== undefined && ` · Rpk ${results.finish.rpkUm.toFixed(3)}`}
+            {results.finish.rvkUm !== undefined && ` · Rvk ${results.finish.rvkUm.toFixed(3)}`}
+          </p>
+        </>
+      )}
+      {results.crosshatch && (
+        <>
+          <h2 className="mt-4 text-lg font-bold">Crosshatch</h2>
+          <p>Included angle {results.crosshatch.includedAngleDeg.toFixed(1)}°, measured across the horizontal.</p>
+        </>
+      )}
+      <h2 className="mt-4 text-lg font-bold">Checks against the job’s limits</h2>
+      {results.checks.length === 0 ? (
+        <p>No limit failed.</p>
+      ) : (
+        <ul className="list-disc pl-5">
+          {results.checks.map((check, i) => (
+            <li key={i}>
+              {check.pass ? 'pass' : 'FAIL'} — {check.what}: {Number(check.value.toFixed(6))} (allowed {check.allowed})
+            </li>
+          ))}
+        </ul>
+      )}
+      <h2 className="mt-4 text-lg font-bold">Sign-off</h2>
+      <p>Measured and signed by {input.signedOffBy}.</p>
+      {input.notes && <p>Notes: {input.notes}</p>}
+      <p className="mt-6 text-sm text-ink-soft">{GUIDANCE}</p>
+    </article>
+  );
+}

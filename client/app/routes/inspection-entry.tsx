@@ -1,0 +1,72 @@
+import { Link, useNavigate, useParams } from 'react-router-dom';
+import { PageTitle } from '@client/components/ui/card';
+import { Notice } from '@client/components/ui/notice';
+import { useInspection } from '@client/features/inspections/api/inspections';
+import { InspectionEntryForm, type InspectionEntryFormProps } from '@client/features/inspections/components/inspection-entry-form';
+import { draftSavedAt, emptyRecord, fromDraft, fromInput } from '@client/features/inspections/lib/record-form';
+import { useJob } from '@client/features/jobs/api/jobs';
+
+/**
+ * The awarded shop enters its measured inspection record for a job: a new
+ * record, the draft it left, or a new version after the builder rejected one.
+ */
+export function InspectionEntryRoute() {
+  const { jobId = '' } = useParams();
+  const navigate = useNavigate();
+  const job = useJob(jobId);
+  const inspection = useInspection(jobId);
+  const back = (
+    <Link to={`/jobs/${jobId}`} className="font-semibold text-slate-700 underline underline-offset-4">
+      ← Back to the job
+    </Link>
+  );
+
+  if (job.isPending || inspection.isPending) return <p className="text-ink-soft">Loading the inspection record …</p>;
+  if (job.isError || inspection.isError) {
+    const error = job.error ?? inspection.error;
+    return (
+      <div className="mx-auto flex max-w-lg flex-col gap-4">
+        <Notice tone="error" title="The inspection record cannot be opened">
+          {error?.message}
+        </Notice>
+        {back}
+      </div>
+    );
+  }
+
+  const detail = job.data;
+  const latest = inspection.data.versions[0];
+  if (detail.status !== 'in_work') {
+    return (
+      <div className="mx-auto flex max-w-lg flex-col gap-4">
+        <Notice title="Not waiting for an inspection record">
+          {detail.status === 'inspection_submitted'
+            ? 'Your record is with the builder. If the builder rejects it, you can enter a new version here.'
+            : detail.status === 'funded'
+              ? 'Log the block as received on the job page first; then enter the record when the work is done.'
+              : 'This job is not at the stage where the shop enters its inspection record.'}
+        </Notice>
+        {back}
+      </div>
+    );
+  }
+
+  // A kept draft wins, unless it is older than a rejection (then the rejected version's readings are the better start).
+  const rejected = latest?.status === 'rejected' ? latest : null;
+  const savedAt = draftSavedAt(inspection.data.draft);
+  const draftIsCurrent = !rejected || !savedAt || Date.parse(savedAt) > Date.parse(rejected.decidedAt ?? rejected.submittedAt);
+  const draft = draftIsCurrent ? fromDraft(inspection.data.draft, detail.spec.unit) : null;
+  const initial = draft ?? (rejected ? fromInput(rejected.input) : emptyRecord(detail.spec.unit));
+  const origin: InspectionEntryFormProps['origin'] = { draft: draft ? { savedAt } : false, rejected };
+
+  return (
+    <div className="flex flex-col gap-4">
+      {back}
+      <PageTitle
+        title={latest ? `Inspection record, version ${latest.version + 1}` : 'Inspection record'}
+        lead={`${detail.title} · ${detail.engineFamily} · ${detail.cylinders} cylinders. Enter what your gauges read; every figure is worked out and checked against the builder’s spec as you type.`}
+      />
+      <InspectionEntryForm job={detail} initial={initial} origin={origin} onSubmitted={() => navigate(`/jobs/${detail.id}`)} />
+    </div>
+  );
+}

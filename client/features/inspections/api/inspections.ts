@@ -1,0 +1,74 @@
+import { queryOptions, useMutation, useQuery, useQueryClient, type UseMutationOptions } from '@tanstack/react-query';
+import type { InspectionInput, InspectionVersion } from '@shared/schemas/inspection';
+import { api, type ApiError } from '@client/lib/api-client';
+import { inspectionKeys, jobKeys, milestoneKeys, paymentKeys } from '@client/lib/query-keys';
+
+export interface InspectionView {
+  /** Newest first. */
+  versions: InspectionVersion[];
+  /** The shop's unfinished entry; only the shop gets it. */
+  draft: Record<string, unknown> | null;
+  /** When the latest submitted version is accepted by itself if the builder does not answer. */
+  reviewDueAt: string | null;
+}
+
+export const inspectionQueries = {
+  forJob: (jobId: string) =>
+    queryOptions({ queryKey: inspectionKeys.forJob(jobId), queryFn: () => api.get<InspectionView>(`/api/jobs/${jobId}/inspection`) }),
+};
+
+export const useInspection = (jobId: string, options: { enabled?: boolean } = {}) => useQuery({ ...inspectionQueries.forJob(jobId), ...options });
+
+type Config<TData, TVars> = Omit<UseMutationOptions<TData, ApiError, TVars>, 'mutationFn'>;
+
+/** Saves the shop's unfinished entry; nothing is judged. The cache is not refreshed: the form holds the newer state. */
+export const useSaveInspectionDraft = (jobId: string, options?: { mutationConfig?: Config<{ savedAt: string }, Record<string, unknown>> }) =>
+  useMutation<{ savedAt: string }, ApiError, Record<string, unknown>>({
+    ...options?.mutationConfig,
+    mutationFn: (draft) => api.put<{ savedAt: string }>(`/api/jobs/${jobId}/inspection/draft`, { draft }),
+  });
+
+/** Submitting, accepting or rejecting changes the job's state, its money and possibly its timeline. */
+function useRefreshAfterDecision(jobId: string) {
+  const queryClient = useQueryClient();
+  return () => {
+    void queryClient.invalidateQueries({ queryKey: inspectionKeys.forJob(jobId) });
+    void queryClient.invalidateQueries({ queryKey: jobKeys.detail(jobId) });
+    void queryClient.invalidateQueries({ queryKey: jobKeys.mineAll() });
+    void queryClient.invalidateQueries({ queryKey: paymentKeys.all(jobId) });
+    void queryClient.invalidateQueries({ queryKey: milestoneKeys.forJob(jobId) });
+  };
+}
+
+function useVersionMutation<TVars>(jobId: string, run: (vars: TVars) => Promise<InspectionVersion>, config?: Config<InspectionVersion, TVars>) {
+  const refresh = useRefreshAfterDecision(jobId);
+  const { onSuccess, ...rest } = config ?? {};
+  return useMutation<InspectionVersion, ApiError, TVars>({
+    ...rest,
+    mutationFn: run,
+    onSuccess: (...args) => {
+      refresh();
+      return onSuccess?.(...args);
+    },
+  });
+}
+
+export const useSubmitInspection = (jobId: string, options?: { mutationConfig?: Config<InspectionVersion, InspectionInput> }) =>
+  useVersionMutation(
+    jobId,
+    (input: InspectionInput) => api.post<{ version: InspectionVersion }>(`/api/jobs/${jobId}/inspection`, input).then((r) => r.version),
+    options?.mutationConfig,
+  );
+
+export const useAcceptInspection = (jobId: string, options?: { mutationConfig?: Config<InspectionVersion, void> }) =>
+  useVersionMutation(jobId, () => api.post<{ version: InspectionVersion }>(`/api/jobs/${jobId}/inspection/accept`).then((r) => r.version), options?.mutationConfig);
+
+export const useRejectInspection = (jobId: string, options?: { mutationConfig?: Config<InspectionVersion, { reasons: string }> }) =>
+  useVersionMutation(
+    jobId,
+    (body: { reasons: string }) => api.post<{ version: InspectionVersion }>(`/api/jobs/${jobId}/inspection/reject`, body).then((r) => r.version),
+    options?.mutationConfig,
+  );
+
+/** The draft fetcher on its own, for a last save as the page closes (a mutation's callbacks would not run then). */
+export const putInspectionDraft = (jobId: string, draft: Record<string, unknown>) => api.put<{ savedAt: string }>(`/api/jobs/${jobId}/inspection/draft`, { draft });

@@ -1,0 +1,360 @@
+import { useMemo, useState, type ChangeEvent, type FormEvent, type KeyboardEvent, type ReactNode } from 'react';
+import { toast } from 'sonner';
+import type { LengthUnit } from '@shared/calc';
+import type { InspectionVersion } from '@shared/schemas/inspection';
+import type { JobDetail } from '@shared/schemas/jobs';
+import { Button } from '@client/components/ui/button';
+import { CheckboxField } from '@client/components/ui/checkbox-field';
+import { Notice } from '@client/components/ui/notice';
+import { SegmentedControl } from '@client/components/ui/segmented-control';
+import { TextAreaField } from '@client/components/ui/text-area-field';
+import { TextField, type TextFieldProps } from '@client/components/ui/text-field';
+import { ApiError } from '@client/lib/api-client';
+import { UNIT_WORDS } from '@client/lib/numbers';
+import { useSubmitInspection } from '../api/inspections';
+import { useDraftAutosave, type DraftStatus } from '../hooks/use-draft-autosave';
+import { evaluateLive } from '../lib/evaluate';
+import { MAX_TRACE_POINTS, readTrace } from '../lib/profile-file';
+import { type CrosshatchMode, type FinishMode, type RecordForm, checkRecord, fieldId, pathWords, toDraft } from '../lib/record-form';
+import { BoreGrid } from './bore-grid';
+import { FailingChecksLine, InspectionResultsView } from './inspection-results';
+
+const clock = new Intl.DateTimeFormat('en-GB', { hour: '2-digit', minute: '2-digit' });
+
+function DraftStatusLine({ status }: { status: DraftStatus }) {
+  const words =
+    status.kind === 'saving'
+      ? 'Saving the draft …'
+      : status.kind === 'saved'
+        ? `Saved at ${clock.format(new Date(status.at))}`
+        : status.kind === 'failed'
+          ? `The draft could not be saved (${status.message}). It is tried again with your next change.`
+          : 'The draft saves itself as you type.';
+  return (
+    <p role="status" className={status.kind === 'failed' ? 'text-sm font-semibold text-fail' : 'text-sm text-ink-soft'} data-testid="draft-status">
+      {words}
+    </p>
+  );
+}
+
+function Section({ title, children, intro }: { title: string; children: ReactNode; intro?: ReactNode }) {
+  return (
+    <fieldset className="flex min-w-0 flex-col gap-3 rounded-lg border border-slate-200 p-4">
+      <legend className="px-1 text-base font-bold text-ink">{title}</legend>
+      {intro && <p className="text-sm text-ink-soft">{intro}</p>}
+      {children}
+    </fieldset>
+  );
+}
+
+/** A decimal input for one path of the request, with that path's message. */
+function NumberInput({ path, errors, ...rest }: { path: string; errors: Record<string, string> } & Omit<TextFieldProps, 'id' | 'error'>) {
+  return <TextField id={fieldId(path)} type="text" inputMode="decimal" autoComplete="off" spellCheck={false} error={errors[path]} {...rest} />;
+}
+
+const listInWords = (items: string[]) => (items.length <= 1 ? items.join('') : `${items.slice(0, -1).join(', ')} and ${items[items.length - 1]}`);
+
+export interface InspectionEntryFormProps {
+  job: JobDetail;
+  initial: RecordForm;
+  /** Where the form came from, said once at the top: a kept draft (with when it was saved, if known), and the version the builder rejected, if any. */
+  origin: { draft: false | { savedAt: string | null }; rejected: InspectionVersion | null };
+  onSubmitted: (version: InspectionVersion) => void;
+}
+
+/**
+ * The shop's inspection record: conditions, the bore grid, deck, finish,
+ * crosshatch and sign-off, with every figure and check worked out beside it
+ * as the numbers go in. The draft saves itself; submitting sends only the raw
+ * readings (the server works every figure out again).
+ */
+export function InspectionEntryForm({ job, initial, origin, onSubmitted }: InspectionEntryFormProps) {
+  const count = job.cylinders;
+  const [form, setForm] = useState<RecordForm>(initial);
+  const [tried, setTried] = useState(false);
+  const [serverErrors, setServerErrors] = useState<Record<string, string>>({});
+  const [formError, setFormError] = useState<string>();
+  const [traceError, setTraceError] = useState<string>();
+  const draft = useDraftAutosave(job.id, form, toDraft, { savedAt: origin.draft ? origin.draft.savedAt : null });
+
+  const check = useMemo(() => checkRecord(form, count), [form, count]);
+  const live = useMemo(() => evaluateLive(form, count, job.spec, check), [form, count, job.spec, check]);
+  const errors = useMemo(() => ({ ...(tried ? check.missing : {}), ...check.errors, ...serverErrors }), [tried, check, serverErrors]);
+
+  const submit = useSubmitInspection(job.id, {
+    mutationConfig: {
+      onSuccess: (version) => {
+        toast.success(`Version ${version.version} of the inspection record is with the builder.`);
+        onSubmitted(version);
+      },
+      onError: (error) => {
+        if (error instanceof ApiError && Object.keys(error.fields).length > 0) setServerErrors(error.fields);
+        setFormError(error.message);
+      },
+    },
+  });
+
+  const update = (change: Partial<RecordForm>) => {
+    setForm((current) => ({ ...current, ...change }));
+    if (Object.keys(serverErrors).length > 0) setServerErrors({});
+  };
+  const updateCells = (changes: Record<string, string>) => setForm((current) => ({ ...current, cells: { ...current.cells, ...changes } }));
+  const text = (path: string, value: string, onValue: (text: string) => void) => ({
+    value,
+    onChange: (event: ChangeEvent<HTMLInputElement>) => onValue(event.target.value),
+    path,
+    errors,
+  });
+  const unitShort = UNIT_WORDS[form.unit].short;
+
+  const onTraceFile = async (event: ChangeEvent<HTMLInputElement>) => {
+    const file = event.target.files?.[0];
+    event.target.value = '';
+    if (!file) return;
+    setTraceError(undefined);
+    if (file.size > 8 * 1024 * 1024) {
+      setTraceError(`“${file.name}” is larger than 8 MB; a trace of ${MAX_TRACE_POINTS.toLocaleString('en-US')} heights fits well within that.`);
+      return;
+    }
+    const read = readTrace(await file.text());
+    if (!read.ok) {
+      setTraceError(`“${file.name}”: ${read.message}`);
+      return;
+    }
+    update({ profile: { fileName: file.name, heights: read.heights } });
+  };
+
+  const onSubmit = (event: FormEvent) => {
+    event.preventDefault();
+    setTried(true);
+    setFormError(undefined);
+    if (!check.input) {
+      const first = check.order[0];
+      const target = first ? document.getElementById(fieldId(first)) : null;
+      target?.focus();
+      return;
+    }
+    // No draft save may land after the record: the server drops the draft when the record is submitted.
+    draft.stop();
+    submit.mutate(check.input, { onError: () => draft.resume() });
+  };
+
+  /** Enter in a text input never sends the record by accident; buttons still work with Enter. */
+  const onFormKeyDown = (event: KeyboardEvent<HTMLFormElement>) => {
+    const target = event.target as HTMLElement;
+    if (event.key === 'Enter' && target instanceof HTMLInputElement && !['checkbox', 'radio', 'submit', 'button', 'file'].includes(target.type)) {
+      event.preventDefault();
+    }
+  };
+
+  const problems = tried && !check.input ? check.order : [];
+  const profilePoints = form.profile?.heights?.length;
+
+  return (
+    <div className="grid items-start gap-6 xl:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
+      <form noValidate aria-label="Inspection record" onSubmit={onSubmit} onKeyDown={onFormKeyDown} className="flex min-w-0 flex-col gap-5">
+        {origin.rejected && (
+          <Notice tone="caution" title={`The builder rejected version ${origin.rejected.version}`}>
+            <p className="whitespace-pre-wrap" data-testid="reject-reasons">{origin.rejected.rejectReasons}</p>
+            {!origin.draft && <p className="mt-1">Its readings are filled in below: change what was redone and submit the new version.</p>}
+          </Notice>
+        )}
+        {origin.draft && (
+          <Notice>
+            Your draft is restored{origin.draft.savedAt ? ` as it was at ${clock.format(new Date(origin.draft.savedAt))}` : ''}. Carry on where you left off.
+          </Notice>
+        )}
+
+        <Section title="Conditions" intro="How the readings were taken.">
+          <div className="flex flex-col gap-1">
+            <span aria-hidden className="text-sm font-semibold text-ink">
+              Units of the readings
+            </span>
+            <SegmentedControl
+              label="Units of the readings"
+              options={[
+                { value: 'in', label: 'Inches' },
+                { value: 'mm', label: 'Millimetres' },
+              ]}
+              value={form.unit}
+              onChange={(unit: LengthUnit) => update({ unit })}
+              className="self-start"
+            />
+            {form.unit !== job.spec.unit && (
+              <p className="text-sm text-ink-soft">The job’s limits are in {UNIT_WORDS[job.spec.unit].long}; they are converted exactly (1 in = 25.4 mm).</p>
+            )}
+          </div>
+          <div className="grid gap-3 sm:grid-cols-2">
+            <NumberInput label={`Gauge resolution (${unitShort})`} {...text('conditions.gaugeResolution', form.gaugeResolution, (v) => update({ gaugeResolution: v }))} />
+            <NumberInput label="Temperature at measurement (°C)" {...text('conditions.temperatureC', form.temperatureC, (v) => update({ temperatureC: v }))} />
+          </div>
+          <CheckboxField
+            id={fieldId('conditions.torquePlate')}
+            label="Torque plate fitted while measuring"
+            checked={form.torquePlate}
+            onChange={(event) => update({ torquePlate: event.target.checked })}
+          />
+        </Section>
+
+        <Section title={`Bores: ${count} cylinders`}>
+          <BoreGrid
+            cylinderCount={count}
+            unit={form.unit}
+            cells={form.cells}
+            errors={errors}
+            onChange={(changes) => {
+              updateCells(changes);
+              if (Object.keys(serverErrors).length > 0) setServerErrors({});
+            }}
+          />
+          <FailingChecksLine results={live.results} cylinderIndexes={live.cylinderIndexes} spec={job.spec} unit={form.unit} className="xl:hidden" />
+        </Section>
+
+        <Section title="Deck (optional)" intro="The thickest feeler leaf under a straightedge at each position: lengthwise, crosswise and on both diagonals.">
+          <TextField
+            id={fieldId('deck.readings')}
+            label={`Straightedge readings (${unitShort}), separated by spaces or commas`}
+            autoComplete="off"
+            spellCheck={false}
+            value={form.deckReadings}
+            onChange={(event) => update({ deckReadings: event.target.value })}
+            error={errors['deck.readings'] ?? Object.entries(errors).find(([path]) => path.startsWith('deck.readings.'))?.[1]}
+          />
+          <NumberInput label="Deck finish Ra (µm), optional" {...text('deck.raUm', form.deckRa, (v) => update({ deckRa: v }))} />
+        </Section>
+
+        <Section title="Bore finish (optional)">
+          <SegmentedControl<FinishMode>
+            label="Bore finish"
+            options={[
+              { value: 'none', label: 'Not measured' },
+              { value: 'values', label: 'Enter values' },
+              { value: 'profile', label: 'From a profile trace' },
+            ]}
+            value={form.finishMode}
+            onChange={(finishMode) => update({ finishMode })}
+            className="self-start"
+          />
+          {form.finishMode === 'values' && (
+            <div className="grid gap-3 sm:grid-cols-3">
+              <NumberInput label="Ra (µm)" {...text('finish.raUm', form.finish.ra, (v) => update({ finish: { ...form.finish, ra: v } }))} />
+              <NumberInput label="Rk (µm), optional" {...text('finish.rkUm', form.finish.rk, (v) => update({ finish: { ...form.finish, rk: v } }))} />
+              <NumberInput label="Rpk (µm), optional" {...text('finish.rpkUm', form.finish.rpk, (v) => update({ finish: { ...form.finish, rpk: v } }))} />
+              <NumberInput label="Rvk (µm), optional" {...text('finish.rvkUm', form.finish.rvk, (v) => update({ finish: { ...form.finish, rvk: v } }))} />
+              <NumberInput label="Mr1 (%), optional" {...text('finish.mr1', form.finish.mr1, (v) => update({ finish: { ...form.finish, mr1: v } }))} />
+              <NumberInput label="Mr2 (%), optional" {...text('finish.mr2', form.finish.mr2, (v) => update({ finish: { ...form.finish, mr2: v } }))} />
+            </div>
+          )}
+          {form.finishMode === 'profile' && (
+            <div className="flex flex-col gap-3">
+              <p className="text-sm text-ink-soft">
+                A CSV or text file of heights in micrometres at equal spacing, one per row (a header row, and a position column before the
+                heights, are fine). The file is read here in your browser; Ra, Rq, Rz and the Rk figures are worked out from it.
+              </p>
+              <div className="flex flex-col gap-1">
+                <label htmlFor={fieldId('finish.heightsUm')} className="text-sm font-semibold text-ink">
+                  Profile trace file
+                </label>
+                <input
+                  id={fieldId('finish.heightsUm')}
+                  type="file"
+                  accept=".csv,.txt,text/csv,text/plain"
+                  onChange={(event) => void onTraceFile(event)}
+                  aria-invalid={traceError || errors['finish.heightsUm'] ? true : undefined}
+                  className="text-sm"
+                />
+                {form.profile && (
+                  <p className="text-sm text-ink-soft" data-testid="trace-summary">
+                    {profilePoints
+                      ? `${profilePoints.toLocaleString('en-US')} heights from ${form.profile.fileName}.`
+                      : `${form.profile.fileName} was too long to keep in the draft: choose the file again.`}
+                  </p>
+                )}
+                {(traceError || errors['finish.heightsUm']) && <p className="text-sm font-semibold text-fail">{traceError ?? errors['finish.heightsUm']}</p>}
+              </div>
+              <NumberInput label="Sample spacing (µm)" {...text('finish.spacingUm', form.profileSpacing, (v) => update({ profileSpacing: v }))} />
+            </div>
+          )}
+        </Section>
+
+        <Section title="Crosshatch (optional)">
+          <SegmentedControl<CrosshatchMode>
+            label="Crosshatch"
+            options={[
+              { value: 'none', label: 'Not measured' },
+              { value: 'measured', label: 'Measured angle' },
+              { value: 'settings', label: 'From hone settings' },
+            ]}
+            value={form.crosshatchMode}
+            onChange={(crosshatchMode) => update({ crosshatchMode })}
+            className="self-start"
+          />
+          {form.crosshatchMode === 'measured' && (
+            <NumberInput label="Included angle (°)" {...text('crosshatch.includedAngleDeg', form.crosshatch.angle, (v) => update({ crosshatch: { ...form.crosshatch, angle: v } }))} />
+          )}
+          {form.crosshatchMode === 'settings' && (
+            <>
+              <p className="text-sm text-ink-soft">
+                The angle is worked out from the spindle and stroke speeds at the middle of the stroke, with the mean bore of the readings.
+              </p>
+              <div className="grid gap-3 sm:grid-cols-3">
+                <NumberInput label="Spindle speed (rev/min)" {...text('crosshatch.spindleRpm', form.crosshatch.spindleRpm, (v) => update({ crosshatch: { ...form.crosshatch, spindleRpm: v } }))} />
+                <NumberInput label={`Stroke length (${unitShort})`} {...text('crosshatch.strokeLength', form.crosshatch.strokeLength, (v) => update({ crosshatch: { ...form.crosshatch, strokeLength: v } }))} />
+                <NumberInput
+                  label="Strokes per minute (up and down)"
+                  {...text('crosshatch.cyclesPerMinute', form.crosshatch.cyclesPerMinute, (v) => update({ crosshatch: { ...form.crosshatch, cyclesPerMinute: v } }))}
+                />
+              </div>
+            </>
+          )}
+        </Section>
+
+        <Section title="Sign-off">
+          <TextField
+            id={fieldId('signedOffBy')}
+            label="Signed off by (your name)"
+            autoComplete="name"
+            value={form.signedOffBy}
+            onChange={(event) => update({ signedOffBy: event.target.value })}
+            error={errors.signedOffBy}
+          />
+          <TextAreaField
+            id={fieldId('notes')}
+            label="Notes for the builder (optional)"
+            rows={3}
+            value={form.notes}
+            onChange={(event) => update({ notes: event.target.value })}
+            error={errors.notes}
+          />
+        </Section>
+
+        {problems.length > 0 && (
+          <Notice tone="error" title={problems.length === 1 ? 'One field needs attention' : `${problems.length} fields need attention`}>
+            {listInWords(problems.slice(0, 5).map(pathWords))}
+            {problems.length > 5 ? ` and ${problems.length - 5} more` : ''}.
+          </Notice>
+        )}
+        {formError && <Notice tone="error">{formError}</Notice>}
+        <div className="flex flex-wrap items-center gap-4">
+          <Button type="submit" busy={submit.isPending}>
+            Submit the record
+          </Button>
+          <DraftStatusLine status={draft.status} />
+        </div>
+      </form>
+
+      <aside aria-label="Results as you type" className="flex min-w-0 flex-col gap-3 rounded-lg bg-slate-50 p-4 ring-1 ring-slate-200 xl:sticky xl:top-4">
+        <h2 className="text-sm font-bold uppercase tracking-wider text-slate-700">Results as you type</h2>
+        {live.error && <Notice tone="error">{live.error}</Notice>}
+        <InspectionResultsView
+          results={live.results}
+          cylinderIndexes={live.cylinderIndexes}
+          cylinderCount={count}
+          spec={job.spec}
+          unit={form.unit}
+          complete={live.complete}
+        />
+      </aside>
+    </div>
+  );
+}

@@ -1,0 +1,252 @@
+import type { LengthUnit } from '@shared/calc';
+import type { InspectionResults as Results } from '@shared/schemas/inspection';
+import type { JobInput } from '@shared/schemas/jobs';
+import { GuidanceCaution } from '@client/components/ui/guidance-caution';
+import { cn } from '@client/lib/cn';
+import { LENGTH_DECIMALS, formatChange, formatLength, formatNumber } from '@client/lib/numbers';
+import { type CheckRow, boreLimits, cylinderChecks, otherChecks } from '../lib/evaluate';
+
+export function PassMark({ pass, passText = 'Pass', failText = 'Fail' }: { pass: boolean | null; passText?: string; failText?: string }) {
+  if (pass === null) {
+    return <span className="inline-flex items-center rounded-full bg-paper-sunk px-2.5 py-0.5 text-sm font-bold text-ink-soft ring-1 ring-slate-200">Not judged</span>;
+  }
+  return (
+    <span
+      className={cn(
+        'inline-flex items-center gap-1 whitespace-nowrap rounded-full px-2.5 py-0.5 text-sm font-bold ring-1',
+        pass ? 'bg-pass-soft text-pass ring-pass/30' : 'bg-fail-soft text-fail ring-fail/30',
+      )}
+    >
+      <span aria-hidden>{pass ? '✓' : '✕'}</span>
+      <span>{pass ? passText : failText}</span>
+    </span>
+  );
+}
+
+function CheckItem({ row }: { row: CheckRow }) {
+  return (
+    <li className="flex flex-wrap items-baseline gap-x-3 gap-y-1" data-testid="inspection-check" data-pass={row.pass === null ? 'not-judged' : String(row.pass)}>
+      <PassMark pass={row.pass} />
+      <span className="font-semibold">{row.what}</span>
+      <span className={cn('text-sm', row.pass === false ? 'font-semibold text-fail' : 'text-ink-soft')}>{row.reason}</span>
+    </li>
+  );
+}
+
+/** Checks with their verdicts; with `collapsePasses`, the passing ones fold away behind a count so failures stand out. */
+function CheckList({ rows, label, collapsePasses = false }: { rows: CheckRow[]; label: string; collapsePasses?: boolean }) {
+  if (rows.length === 0) return null;
+  const open = collapsePasses ? rows.filter((row) => row.pass !== true) : rows;
+  const passing = collapsePasses ? rows.filter((row) => row.pass === true) : [];
+  return (
+    <div className="flex flex-col gap-1.5">
+      {open.length > 0 && (
+        <ul aria-label={label} className="flex flex-col gap-1.5">
+          {open.map((row) => (
+            <CheckItem key={row.key} row={row} />
+          ))}
+        </ul>
+      )}
+      {passing.length > 0 && (
+        <details className="text-sm">
+          <summary className="cursor-pointer font-semibold text-pass">
+            {passing.length} {passing.length === 1 ? 'check passes' : 'checks pass'}
+          </summary>
+          <ul aria-label={`${label} that pass`} className="mt-1.5 flex flex-col gap-1.5">
+            {passing.map((row) => (
+              <CheckItem key={row.key} row={row} />
+            ))}
+          </ul>
+        </details>
+      )}
+    </div>
+  );
+}
+
+const um = (value: number | undefined, decimals = 2) => (value === undefined ? undefined : `${formatNumber(value, decimals)} µm`);
+const pct = (value: number | undefined) => (value === undefined ? undefined : `${formatNumber(value, 1)} %`);
+
+/** Finish, crosshatch and deck figures as label–value pairs. */
+export function SurfaceFigures({ results, unit }: { results: Results; unit: LengthUnit }) {
+  const f = results.finish;
+  const items: Array<[string, string | undefined]> = [
+    ['Bore Ra', um(f?.raUm)],
+    ['Bore Rq', um(f?.rqUm)],
+    ['Bore Rz', um(f?.rzUm)],
+    ['Rk', um(f?.rkUm)],
+    ['Rpk', um(f?.rpkUm)],
+    ['Rvk', um(f?.rvkUm)],
+    ['Mr1', pct(f?.mr1)],
+    ['Mr2', pct(f?.mr2)],
+    ['Crosshatch included angle', results.crosshatch ? `${formatNumber(results.crosshatch.includedAngleDeg, 1)}°` : undefined],
+    [
+      'Deck out-of-flat',
+      results.deck
+        ? `${formatLength(results.deck.outOfFlat, unit)} (limit ${formatLength(results.deck.limit, unit)}${results.deck.limitSource === 'table' ? ', common practice for the block and a multi-layer steel gasket' : ''})`
+        : undefined,
+    ],
+  ];
+  const shown = items.filter((item): item is [string, string] => item[1] !== undefined);
+  if (shown.length === 0) return null;
+  return (
+    <dl className="grid grid-cols-[auto_1fr] gap-x-4 gap-y-1 text-sm" data-testid="surface-figures">
+      {shown.map(([label, value]) => (
+        <div key={label} className="contents">
+          <dt className="text-ink-soft">{label}</dt>
+          <dd className="font-semibold tabular-nums">{value}</dd>
+        </div>
+      ))}
+    </dl>
+  );
+}
+
+/**
+ * A short line of what fails so far, for narrow screens where the full
+ * results sit below the form: the shop sees a bad reading beside the grid.
+ */
+export function FailingChecksLine({
+  results,
+  cylinderIndexes,
+  spec,
+  unit,
+  className,
+}: {
+  results: Results | undefined;
+  cylinderIndexes: number[];
+  spec: JobInput;
+  unit: LengthUnit;
+  className?: string;
+}) {
+  const limits = boreLimits(spec, unit);
+  const rows = results
+    ? [...cylinderIndexes.flatMap((index, k) => cylinderChecks(results.bores.cylinders[k], index, limits, unit)), ...otherChecks(results, unit)]
+    : [];
+  const failing = rows.filter((row) => row.pass === false);
+  return (
+    <div aria-live="polite" className={className}>
+      {failing.length > 0 ? (
+        <ul className="flex flex-col gap-0.5 text-sm font-semibold text-fail">
+          {failing.map((row) => (
+            <li key={row.key}>
+              {row.what}: {row.reason}
+            </li>
+          ))}
+        </ul>
+      ) : rows.length > 0 ? (
+        <p className="text-sm font-semibold text-pass">Every check so far passes.</p>
+      ) : null}
+    </div>
+  );
+}
+
+/**
+ * The computed figures and every check with its verdict and reason: per
+ * cylinder (mean, taper, out-of-round, clearance, deviation), then the deck,
+ * finish and crosshatch. Used live beside the entry grid and on the review.
+ */
+export function InspectionResultsView({
+  results,
+  cylinderIndexes,
+  cylinderCount,
+  spec,
+  unit,
+  complete,
+}: {
+  results: Results | undefined;
+  cylinderIndexes: number[];
+  cylinderCount: number;
+  spec: JobInput;
+  unit: LengthUnit;
+  complete: boolean;
+}) {
+  const limits = boreLimits(spec, unit);
+  const byIndex = new Map(cylinderIndexes.map((index, k) => [index, results?.bores.cylinders[k]]));
+  const boreRows = cylinderIndexes.flatMap((index) => {
+    const cylinder = byIndex.get(index);
+    return cylinder ? cylinderChecks(cylinder, index, limits, unit) : [];
+  });
+  const surfaceRows = results ? otherChecks(results, unit) : [];
+  const failing = [...boreRows, ...surfaceRows].filter((row) => row.pass === false).length;
+  const decimals = LENGTH_DECIMALS[unit];
+  const figure = (value: number | undefined) => (value === undefined ? '—' : formatNumber(value, decimals));
+
+  return (
+    <div className="flex flex-col gap-4" data-testid="inspection-results">
+      <div aria-live="polite">
+        {complete && results ? (
+          <p className="flex flex-wrap items-center gap-2 font-semibold" data-testid="inspection-verdict">
+            <PassMark pass={results.pass && failing === 0} passText="Every check passes" failText={`${failing} ${failing === 1 ? 'check fails' : 'checks fail'}`} />
+          </p>
+        ) : (
+          <p className="text-sm text-ink-soft" data-testid="inspection-verdict">
+            {failing > 0 ? (
+              <span className="font-semibold text-fail">
+                {failing} {failing === 1 ? 'check fails' : 'checks fail'} so far.{' '}
+              </span>
+            ) : null}
+            Figures so far; the overall result shows when the record is complete.
+          </p>
+        )}
+      </div>
+
+      <div className="overflow-x-auto">
+        <table className="w-full min-w-[24rem] text-sm tabular-nums">
+          <caption className="sr-only">Figures per cylinder, in {unit}</caption>
+          <thead className="text-left text-ink-soft">
+            <tr>
+              <th scope="col" className="py-1 pr-2 font-semibold">Cyl.</th>
+              <th scope="col" className="py-1 pr-2 text-right font-semibold">Mean</th>
+              <th scope="col" className="py-1 pr-2 text-right font-semibold">Taper</th>
+              <th scope="col" className="py-1 pr-2 text-right font-semibold">Out-of-round</th>
+              <th scope="col" className="py-1 pr-2 text-right font-semibold">Clearance</th>
+              <th scope="col" className="py-1 pr-2 text-right font-semibold">From target</th>
+              <th scope="col" className="py-1 font-semibold">Result</th>
+            </tr>
+          </thead>
+          <tbody>
+            {Array.from({ length: cylinderCount }, (_, index) => {
+              const cylinder = byIndex.get(index);
+              if (!cylinder) {
+                return (
+                  <tr key={index} className="border-t border-slate-200">
+                    <th scope="row" className="py-1.5 pr-2 text-left">{index + 1}</th>
+                    <td colSpan={6} className="py-1.5 text-ink-faint">Still to enter</td>
+                  </tr>
+                );
+              }
+              const failed = (...names: string[]) => cylinder.failures.some((f) => names.includes(f.limit)) && 'font-bold text-fail';
+              return (
+                <tr key={index} className="border-t border-slate-200 align-top" data-testid={`result-cylinder-${index + 1}`}>
+                  <th scope="row" className="py-1.5 pr-2 text-left">{index + 1}</th>
+                  <td className="py-1.5 pr-2 text-right">{figure(cylinder.mean)}</td>
+                  <td className={cn('py-1.5 pr-2 text-right', failed('maxTaper'))}>{figure(cylinder.taper)}</td>
+                  <td className={cn('py-1.5 pr-2 text-right', failed('maxOutOfRound'))}>{figure(cylinder.outOfRound)}</td>
+                  <td className={cn('py-1.5 pr-2 text-right', failed('clearanceMin', 'clearanceMax'))}>{figure(cylinder.clearance)}</td>
+                  <td className={cn('py-1.5 pr-2 text-right', failed('targetBore'))}>{cylinder.deviation === undefined ? '—' : formatChange(cylinder.deviation, decimals)}</td>
+                  <td className="py-1.5">
+                    <PassMark pass={cylinder.pass} />
+                  </td>
+                </tr>
+              );
+            })}
+          </tbody>
+        </table>
+      </div>
+
+      <section aria-label="Checks against the job’s specification" className="flex flex-col gap-2">
+        <h4 className="text-sm font-bold uppercase tracking-wider text-slate-700">Checks</h4>
+        {boreRows.length === 0 && surfaceRows.length === 0 ? (
+          <p className="text-sm text-ink-soft">Checks appear as each cylinder’s six readings are in.</p>
+        ) : (
+          <>
+            <CheckList rows={boreRows} label="Bore checks" collapsePasses />
+            <CheckList rows={surfaceRows} label="Deck, finish and crosshatch checks" />
+          </>
+        )}
+      </section>
+
+      {results && <SurfaceFigures results={results} unit={unit} />}
+      <GuidanceCaution />
+    </div>
+  );
+}

@@ -1,0 +1,307 @@
+import { zodResolver } from '@hookform/resolvers/zod';
+import { useState } from 'react';
+import { useForm } from 'react-hook-form';
+import { Link } from 'react-router-dom';
+import { toast } from 'sonner';
+import type { z } from 'zod';
+import { boreSpecFor } from '@shared/calc';
+import { type InspectionVersion, rejectInspectionSchema } from '@shared/schemas/inspection';
+import type { JobDetail } from '@shared/schemas/jobs';
+import { Badge, type BadgeTone } from '@client/components/ui/badge';
+import { Button } from '@client/components/ui/button';
+import { Card } from '@client/components/ui/card';
+import { ConfirmDialog, ModalDialog } from '@client/components/ui/modal-dialog';
+import { Notice } from '@client/components/ui/notice';
+import { TextAreaField } from '@client/components/ui/text-area-field';
+import { applyServerErrors } from '@client/lib/form-errors';
+import { lengthToText } from '@client/lib/numbers';
+import { useAcceptInspection, useInspection, useRejectInspection } from '../api/inspections';
+import { type VersionChange, versionChanges } from '../lib/version-diff';
+import { BoreSizeChart } from './bore-size-chart';
+import { InspectionResultsView } from './inspection-results';
+
+/** Job states in which an inspection record may exist or be on its way. */
+const RECORD_STATES = new Set<JobDetail['status']>(['in_work', 'inspection_submitted', 'completed', 'disputed', 'resolved']);
+
+const versionStatus: Record<InspectionVersion['status'], { label: string; tone: BadgeTone }> = {
+  submitted: { label: 'Waiting for the builder', tone: 'caution' },
+  accepted: { label: 'Accepted', tone: 'success' },
+  rejected: { label: 'Rejected', tone: 'error' },
+  superseded: { label: 'Replaced by a later version', tone: 'muted' },
+};
+
+const when = new Intl.DateTimeFormat('en-US', { dateStyle: 'medium', timeStyle: 'short' });
+const formatWhen = (iso: string) => when.format(new Date(iso));
+
+function Changes({ changes, previous }: { changes: VersionChange[]; previous: number }) {
+  return (
+    <section aria-label={`Changes from version ${previous}`} className="flex flex-col gap-2" data-testid="version-changes">
+      <h4 className="font-bold">Changes from version {previous}</h4>
+      {changes.length === 0 ? (
+        <p className="text-sm text-ink-soft">Nothing changed: the same readings were sent again.</p>
+      ) : (
+        <div className="overflow-x-auto">
+          <table className="w-full min-w-[28rem] text-sm">
+            <thead className="text-left text-ink-soft">
+              <tr>
+                <th scope="col" className="py-1 pr-3 font-semibold">What</th>
+                <th scope="col" className="py-1 pr-3 font-semibold">Version {previous}</th>
+                <th scope="col" className="py-1 font-semibold">Version {previous + 1}</th>
+              </tr>
+            </thead>
+            <tbody>
+              {changes.map((change) => (
+                <tr key={change.key} className="border-t border-slate-200 align-top">
+                  <th scope="row" className="py-1 pr-3 text-left font-semibold">{change.what}</th>
+                  <td className="py-1 pr-3 tabular-nums text-ink-soft line-through decoration-ink-faint">{change.before}</td>
+                  <td className="py-1 tabular-nums font-semibold">{change.after}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </div>
+      )}
+    </section>
+  );
+}
+
+function Conditions({ version }: { version: InspectionVersion }) {
+  const { conditions, signedOffBy, notes } = version.input;
+  return (
+    <div className="flex flex-col gap-2">
+      <dl className="grid grid-cols-[auto_1fr] gap-x-4 gap-y-1 text-sm" data-testid="inspection-conditions">
+        <dt className="text-ink-soft">Units</dt>
+        <dd className="font-semibold">{conditions.unit === 'in' ? 'Inches' : 'Millimetres'}</dd>
+        <dt className="text-ink-soft">Gauge resolution</dt>
+        <dd className="font-semibold tabular-nums">{lengthToText(conditions.gaugeResolution, conditions.unit)} {conditions.unit}</dd>
+        <dt className="text-ink-soft">Temperature at measurement</dt>
+        <dd className="font-semibold tabular-nums">{conditions.temperatureC} °C</dd>
+        <dt className="text-ink-soft">Torque plate</dt>
+        <dd className="font-semibold">{conditions.torquePlate ? 'Fitted' : 'Not fitted'}</dd>
+        <dt className="text-ink-soft">Signed off by</dt>
+        <dd className="font-semibold">{signedOffBy}</dd>
+        <dt className="text-ink-soft">Submitted</dt>
+        <dd className="font-semibold">{formatWhen(version.submittedAt)}</dd>
+      </dl>
+      {notes && <p className="whitespace-pre-wrap text-sm">{notes}</p>}
+    </div>
+  );
+}
+
+/** One version in full: verdict and checks, the chart, surface figures, conditions and sign-off. */
+function VersionBody({ version, job }: { version: InspectionVersion; job: JobDetail }) {
+  const unit = version.input.conditions.unit;
+  const target = boreSpecFor(job.spec, unit).targetBore;
+  return (
+    <div className="flex flex-col gap-5">
+      <div className="grid gap-5 lg:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
+        <InspectionResultsView
+          results={version.results}
+          cylinderIndexes={version.input.cylinders.map((_, i) => i)}
+          cylinderCount={version.input.cylinders.length}
+          spec={job.spec}
+          unit={unit}
+          complete
+        />
+        <div className="flex min-w-0 flex-col gap-5">
+          <BoreSizeChart cylinders={version.input.cylinders} unit={unit} targetBore={target} />
+          <section aria-label="Conditions and sign-off" className="flex flex-col gap-2">
+            <h4 className="font-bold">Conditions and sign-off</h4>
+            <Conditions version={version} />
+          </section>
+        </div>
+      </div>
+    </div>
+  );
+}
+
+function BuilderDecision({ job, version, reviewDueAt }: { job: JobDetail; version: InspectionVersion; reviewDueAt: string | null }) {
+  const [acceptOpen, setAcceptOpen] = useState(false);
+  const [rejectOpen, setRejectOpen] = useState(false);
+  const accept = useAcceptInspection(job.id, {
+    mutationConfig: {
+      onSuccess: () => {
+        setAcceptOpen(false);
+        toast.success('Accepted. The held payment is on its way to the shop.');
+      },
+    },
+  });
+  return (
+    <div className="flex flex-col gap-3 rounded-lg bg-caution-soft/40 p-4 ring-1 ring-caution/30">
+      <p className="font-semibold">Check the readings and figures, then accept the work or say what needs redoing.</p>
+      {reviewDueAt && (
+        <p className="text-sm" data-testid="review-due">
+          If you do not answer, the record is accepted automatically on {formatWhen(reviewDueAt)}.
+        </p>
+      )}
+      <div className="flex flex-wrap gap-3">
+        <Button onClick={() => setAcceptOpen(true)}>Accept the record</Button>
+        <Button variant="secondary" onClick={() => setRejectOpen(true)}>
+          Reject with reasons
+        </Button>
+      </div>
+      <ConfirmDialog
+        open={acceptOpen}
+        onClose={() => setAcceptOpen(false)}
+        onConfirm={() => accept.mutate()}
+        title={`Accept version ${version.version} of the inspection record?`}
+        description="The held payment goes to the shop, less Tenthmark’s fee, and the job is completed. This cannot be undone."
+        confirmLabel="Accept and pay the shop"
+        cancelLabel="Not yet"
+        busy={accept.isPending}
+        error={accept.error?.message}
+      />
+      <RejectDialog job={job} version={version} open={rejectOpen} onClose={() => setRejectOpen(false)} />
+    </div>
+  );
+}
+
+function RejectDialog({ job, version, open, onClose }: { job: JobDetail; version: InspectionVersion; open: boolean; onClose: () => void }) {
+  const [formError, setFormError] = useState<string>();
+  const form = useForm<z.input<typeof rejectInspectionSchema>, unknown, z.output<typeof rejectInspectionSchema>>({
+    resolver: zodResolver(rejectInspectionSchema),
+    defaultValues: { reasons: '' },
+  });
+  const reject = useRejectInspection(job.id, {
+    mutationConfig: {
+      onSuccess: () => {
+        onClose();
+        form.reset();
+        toast.success('Rejected. The shop is told what to redo and will send a new version.');
+      },
+      onError: (error) => setFormError(applyServerErrors(error, form.setError, ['reasons'])),
+    },
+  });
+  const onSubmit = form.handleSubmit((values) => {
+    setFormError(undefined);
+    reject.mutate(values);
+  });
+  return (
+    <ModalDialog open={open} onClose={onClose} title={`Reject version ${version.version}?`} description="The shop sees your reasons, redoes the work and submits a new version. The payment stays held.">
+      <form onSubmit={onSubmit} noValidate className="flex flex-col gap-4" aria-label="Reject the inspection record">
+        <TextAreaField label="What needs redoing, and why" rows={4} data-autofocus error={form.formState.errors.reasons?.message} {...form.register('reasons')} />
+        {formError && <Notice tone="error">{formError}</Notice>}
+        <div className="flex flex-wrap justify-end gap-3">
+          <Button variant="secondary" onClick={onClose}>
+            Go back
+          </Button>
+          <Button type="submit" variant="danger" busy={reject.isPending}>
+            Reject and send the reasons
+          </Button>
+        </div>
+      </form>
+    </ModalDialog>
+  );
+}
+
+/**
+ * The inspection record on the job page. The builder reviews the latest
+ * version and accepts it (the held payment goes to the shop) or rejects it
+ * with reasons; the shop sees where its record stands and enters a new one
+ * when it may; everyone involved can read older versions and what changed.
+ */
+export function InspectionReview({ job, viewer }: { job: JobDetail; viewer: 'builder' | 'shop' | 'admin' }) {
+  const inspection = useInspection(job.id, { enabled: RECORD_STATES.has(job.status) });
+  if (!RECORD_STATES.has(job.status)) return null;
+
+  const canEnter = viewer === 'shop' && job.status === 'in_work';
+  const enterLink = (
+    <Link
+      to={`/jobs/${job.id}/inspection/new`}
+      className="inline-flex min-h-11 items-center justify-center rounded-lg bg-slate-700 px-4 py-2 font-semibold text-white hover:bg-slate-800"
+    >
+      Enter the inspection record
+    </Link>
+  );
+
+  let body;
+  if (inspection.isPending) body = <p className="text-ink-soft">Loading the inspection record …</p>;
+  else if (inspection.isError) body = <Notice tone="error">The inspection record could not be loaded: {inspection.error.message}</Notice>;
+  else {
+    const { versions, reviewDueAt } = inspection.data;
+    const latest = versions[0];
+    if (!latest) {
+      body = (
+        <div className="flex flex-col gap-3">
+          <p className="text-ink-soft">
+            {viewer === 'shop'
+              ? 'When the work is done, enter your measured readings; the builder reviews them and the held payment is released when they accept.'
+              : 'The shop has not sent its inspection record yet. It will appear here with every reading and figure, checked against your spec.'}
+          </p>
+          {canEnter && <div>{enterLink}</div>}
+        </div>
+      );
+    } else {
+      const previous = versions[1];
+      const older = versions.slice(1);
+      body = (
+        <div className="flex flex-col gap-5" data-testid="inspection-review">
+          <div className="flex flex-wrap items-center gap-3">
+            <h3 className="text-lg font-bold">Version {latest.version}</h3>
+            <Badge tone={versionStatus[latest.status].tone}>{versionStatus[latest.status].label}</Badge>
+            <span className="text-sm text-ink-soft">submitted {formatWhen(latest.submittedAt)}</span>
+            <Link to={`/jobs/${job.id}/inspection/${latest.version}/certificate`} className="text-sm font-semibold text-slate-700 underline underline-offset-4">
+              Certificate (print or PDF)
+            </Link>
+          </div>
+
+          {latest.status === 'rejected' && (
+            <Notice tone="error" title={viewer === 'shop' ? 'The builder rejected this version' : 'You rejected this version'}>
+              <p className="whitespace-pre-wrap" data-testid="reject-reasons">{latest.rejectReasons}</p>
+              {viewer === 'shop' && <p className="mt-1">Redo what is asked, then enter a new version; your last readings are filled in for you.</p>}
+            </Notice>
+          )}
+          {latest.status === 'accepted' && (
+            <Notice tone="success" title="Accepted">
+              Accepted{latest.decidedAt ? ` on ${formatWhen(latest.decidedAt)}` : ''}; the held payment was released to the shop.
+            </Notice>
+          )}
+          {viewer === 'builder' && job.status === 'inspection_submitted' && latest.status === 'submitted' && (
+            <BuilderDecision job={job} version={latest} reviewDueAt={reviewDueAt} />
+          )}
+          {viewer !== 'builder' && latest.status === 'submitted' && reviewDueAt && (
+            <p className="text-sm" data-testid="review-due">
+              With the builder for review; accepted automatically on {formatWhen(reviewDueAt)} if they do not answer.
+            </p>
+          )}
+          {canEnter && <div>{enterLink}</div>}
+
+          <VersionBody version={latest} job={job} />
+          {previous && <Changes changes={versionChanges(previous, latest)} previous={previous.version} />}
+
+          {older.length > 0 && (
+            <section aria-label="Earlier versions" className="flex flex-col gap-2">
+              <h3 className="text-lg font-bold">Earlier versions</h3>
+              {older.map((version, i) => {
+                const before = older[i + 1];
+                return (
+                  <details key={version.id} className="rounded-lg border border-slate-200 p-3" data-testid="older-version">
+                    <summary className="cursor-pointer font-semibold">
+                      Version {version.version} · {versionStatus[version.status].label.toLowerCase()} · submitted {formatWhen(version.submittedAt)}
+                    </summary>
+                    <div className="mt-3 flex flex-col gap-4">
+                      {version.rejectReasons && (
+                        <Notice tone="error" title="Reasons given">
+                          <p className="whitespace-pre-wrap">{version.rejectReasons}</p>
+                        </Notice>
+                      )}
+                      {before && <Changes changes={versionChanges(before, version)} previous={before.version} />}
+                      <VersionBody version={version} job={job} />
+                    </div>
+                  </details>
+                );
+              })}
+            </section>
+          )}
+        </div>
+      );
+    }
+  }
+
+  return (
+    <Card className="flex flex-col gap-4">
+      <h2 className="text-xl font-bold tracking-tight">Inspection record</h2>
+      {body}
+    </Card>
+  );
+}

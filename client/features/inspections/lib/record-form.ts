@@ -1,0 +1,302 @@
+/**
+ * The inspection entry form's state, and how it becomes the request.
+ *
+ * Inputs hold text exactly as typed (a reading of "4.0310" stays "4.0310"),
+ * so a draft restores what the shop saw. `toRawInput` turns the text into the
+ * shape `inspectionInputSchema` checks; the same schema the server uses then
+ * says what is missing or wrong, field by field.
+ */
+import type { LengthUnit } from '@shared/calc';
+import { inspectionInputSchema, type InspectionInput } from '@shared/schemas/inspection';
+import { lengthToText, numberToText, toNumber, toNumberList } from '@client/lib/numbers';
+
+export const DEPTHS = ['top', 'middle', 'bottom'] as const;
+export const DIRECTIONS = ['thrust', 'axial'] as const;
+export type Depth = (typeof DEPTHS)[number];
+export type Direction = (typeof DIRECTIONS)[number];
+
+/** The grid's columns in Tab order: top, middle, bottom; thrust then axial; then the piston. */
+export const GRID_COLUMNS = [
+  'top.thrust',
+  'top.axial',
+  'middle.thrust',
+  'middle.axial',
+  'bottom.thrust',
+  'bottom.axial',
+  'piston',
+] as const;
+export type GridColumn = (typeof GRID_COLUMNS)[number];
+
+export const cellKey = (cylinder: number, column: GridColumn) => `cylinders.${cylinder}.${column}`;
+
+/** "Cylinder 3 middle axial", "Cylinder 3 piston diameter" (cylinder is zero-based). */
+export function cellLabel(cylinder: number, column: GridColumn): string {
+  if (column === 'piston') return `Cylinder ${cylinder + 1} piston diameter`;
+  const [depth, direction] = column.split('.');
+  return `Cylinder ${cylinder + 1} ${depth} ${direction}`;
+}
+
+export type FinishMode = 'none' | 'values' | 'profile';
+export type CrosshatchMode = 'none' | 'measured' | 'settings';
+
+export interface ProfileTrace {
+  fileName: string;
+  /** Heights in micrometres; null when the file was too large to keep in a draft and must be chosen again. */
+  heights: number[] | null;
+}
+
+export interface RecordForm {
+  unit: LengthUnit;
+  gaugeResolution: string;
+  temperatureC: string;
+  torquePlate: boolean;
+  /** Grid text by schema path: "cylinders.2.middle.axial" → "4.0311". */
+  cells: Record<string, string>;
+  deckReadings: string;
+  deckRa: string;
+  finishMode: FinishMode;
+  finish: { ra: string; rk: string; rpk: string; rvk: string; mr1: string; mr2: string };
+  profile: ProfileTrace | null;
+  profileSpacing: string;
+  crosshatchMode: CrosshatchMode;
+  crosshatch: { angle: string; spindleRpm: string; strokeLength: string; cyclesPerMinute: string };
+  signedOffBy: string;
+  notes: string;
+}
+
+export function emptyRecord(unit: LengthUnit): RecordForm {
+  return {
+    unit,
+    gaugeResolution: '',
+    temperatureC: '',
+    torquePlate: false,
+    cells: {},
+    deckReadings: '',
+    deckRa: '',
+    finishMode: 'none',
+    finish: { ra: '', rk: '', rpk: '', rvk: '', mr1: '', mr2: '' },
+    profile: null,
+    profileSpacing: '',
+    crosshatchMode: 'none',
+    crosshatch: { angle: '', spindleRpm: '', strokeLength: '', cyclesPerMinute: '' },
+    signedOffBy: '',
+    notes: '',
+  };
+}
+
+const withoutUndefined = <T extends Record<string, unknown>>(value: T): T =>
+  Object.fromEntries(Object.entries(value).filter(([, v]) => v !== undefined)) as T;
+
+const isBlank = (text: string) => text.trim() === '';
+
+/** The form as the request's shape, numbers read from the text; blanks are left undefined so the schema reports them as still to enter. */
+export function toRawInput(form: RecordForm, cylinderCount: number): Record<string, unknown> {
+  const cylinders = Array.from({ length: cylinderCount }, (_, i) => {
+    const pair = (depth: Depth) => ({
+      thrust: toNumber(form.cells[cellKey(i, `${depth}.thrust` as GridColumn)]),
+      axial: toNumber(form.cells[cellKey(i, `${depth}.axial` as GridColumn)]),
+    });
+    return withoutUndefined({ top: pair('top'), middle: pair('middle'), bottom: pair('bottom'), piston: toNumber(form.cells[cellKey(i, 'piston')]) });
+  });
+
+  const deck =
+    isBlank(form.deckReadings) && isBlank(form.deckRa)
+      ? undefined
+      : withoutUndefined({ readings: toNumberList(form.deckReadings) ?? [], raUm: toNumber(form.deckRa) });
+
+  const f = form.finish;
+  const finish =
+    form.finishMode === 'values'
+      ? withoutUndefined({ mode: 'values', raUm: toNumber(f.ra), rkUm: toNumber(f.rk), rpkUm: toNumber(f.rpk), rvkUm: toNumber(f.rvk), mr1: toNumber(f.mr1), mr2: toNumber(f.mr2) })
+      : form.finishMode === 'profile'
+        ? withoutUndefined({ mode: 'profile', heightsUm: form.profile?.heights ?? undefined, spacingUm: toNumber(form.profileSpacing) })
+        : undefined;
+
+  const c = form.crosshatch;
+  const crosshatch =
+    form.crosshatchMode === 'measured'
+      ? withoutUndefined({ mode: 'measured', includedAngleDeg: toNumber(c.angle) })
+      : form.crosshatchMode === 'settings'
+        ? withoutUndefined({ mode: 'settings', spindleRpm: toNumber(c.spindleRpm), strokeLength: toNumber(c.strokeLength), cyclesPerMinute: toNumber(c.cyclesPerMinute) })
+        : undefined;
+
+  return withoutUndefined({
+    conditions: withoutUndefined({ unit: form.unit, gaugeResolution: toNumber(form.gaugeResolution), temperatureC: toNumber(form.temperatureC), torquePlate: form.torquePlate }),
+    cylinders,
+    deck,
+    finish,
+    crosshatch,
+    signedOffBy: isBlank(form.signedOffBy) ? undefined : form.signedOffBy,
+    notes: form.notes,
+  });
+}
+
+export interface RecordCheck {
+  /** The parsed request when everything is present and right. */
+  input?: InspectionInput;
+  /** The schema's message per field path, for fields holding something wrong. */
+  errors: Record<string, string>;
+  /** The schema's message per field path, for fields still empty. */
+  missing: Record<string, string>;
+  /** Paths of everything that is wrong or missing, in form order. */
+  order: string[];
+}
+
+/** Checks the form with the shared schema, splitting "still to enter" from "wrong". */
+export function checkRecord(form: RecordForm, cylinderCount: number): RecordCheck {
+  const parsed = inspectionInputSchema.safeParse(toRawInput(form, cylinderCount), { reportInput: true });
+  if (parsed.success) return { input: parsed.data, errors: {}, missing: {}, order: [] };
+  const errors: Record<string, string> = {};
+  const missing: Record<string, string> = {};
+  const order: string[] = [];
+  for (const issue of parsed.error.issues) {
+    const path = issue.path.map(String).join('.');
+    if (order.includes(path)) continue;
+    order.push(path);
+    if (issue.code === 'invalid_type' && issue.input === undefined) missing[path] = issue.message;
+    else errors[path] = issue.message;
+  }
+  return { errors, missing, order };
+}
+
+// --- drafts --------------------------------------------------------------------
+
+const DRAFT_FORMAT = 'inspection-entry/1';
+/** A trace longer than this is not kept in a draft (it would make every save large); the shop chooses the file again. */
+export const MAX_DRAFT_PROFILE_POINTS = 5_000;
+
+/** The form as a draft for the server to keep. */
+export function toDraft(form: RecordForm): Record<string, unknown> {
+  const profile = form.profile && form.profile.heights && form.profile.heights.length > MAX_DRAFT_PROFILE_POINTS ? { ...form.profile, heights: null } : form.profile;
+  return { format: DRAFT_FORMAT, savedAt: new Date().toISOString(), form: { ...form, profile } };
+}
+
+/** When the browser saved a kept draft, if it says. */
+export function draftSavedAt(draft: Record<string, unknown> | null | undefined): string | null {
+  return draft && typeof draft.savedAt === 'string' && !Number.isNaN(Date.parse(draft.savedAt)) ? draft.savedAt : null;
+}
+
+const text = (value: unknown) => (typeof value === 'string' ? value.slice(0, 20_000) : '');
+
+/** A kept draft back into the form; anything unreadable falls back to the empty form's value. */
+export function fromDraft(draft: Record<string, unknown> | null | undefined, unit: LengthUnit): RecordForm | null {
+  if (!draft || draft.format !== DRAFT_FORMAT || typeof draft.form !== 'object' || draft.form === null) return null;
+  const saved = draft.form as Partial<Record<keyof RecordForm, unknown>>;
+  const base = emptyRecord(unit);
+  const cells: Record<string, string> = {};
+  if (saved.cells && typeof saved.cells === 'object') {
+    for (const [key, value] of Object.entries(saved.cells as Record<string, unknown>)) {
+      if (/^cylinders\.\d+\.(top|middle|bottom|piston)/.test(key)) cells[key] = text(value);
+    }
+  }
+  const pick = <K extends string>(value: unknown, allowed: readonly K[], fallback: K): K => (allowed.includes(value as K) ? (value as K) : fallback);
+  const group = <T extends Record<string, string>>(value: unknown, fallback: T): T =>
+    Object.fromEntries(Object.keys(fallback).map((key) => [key, text((value as Record<string, unknown> | undefined)?.[key])])) as T;
+  const profile = saved.profile as ProfileTrace | null | undefined;
+  return {
+    unit: pick(saved.unit, ['in', 'mm'] as const, unit),
+    gaugeResolution: text(saved.gaugeResolution),
+    temperatureC: text(saved.temperatureC),
+    torquePlate: saved.torquePlate === true,
+    cells,
+    deckReadings: text(saved.deckReadings),
+    deckRa: text(saved.deckRa),
+    finishMode: pick(saved.finishMode, ['none', 'values', 'profile'] as const, 'none'),
+    finish: group(saved.finish, base.finish),
+    profile:
+      profile && typeof profile === 'object' && typeof profile.fileName === 'string'
+        ? { fileName: profile.fileName, heights: Array.isArray(profile.heights) && profile.heights.every((h) => typeof h === 'number') ? profile.heights : null }
+        : null,
+    profileSpacing: text(saved.profileSpacing),
+    crosshatchMode: pick(saved.crosshatchMode, ['none', 'measured', 'settings'] as const, 'none'),
+    crosshatch: group(saved.crosshatch, base.crosshatch),
+    signedOffBy: text(saved.signedOffBy),
+    notes: text(saved.notes),
+  };
+}
+
+/** A submitted version back into the form, for a new version after a rejection. */
+export function fromInput(input: InspectionInput): RecordForm {
+  const unit = input.conditions.unit;
+  const length = (value: number | undefined) => lengthToText(value, unit);
+  const form = emptyRecord(unit);
+  form.gaugeResolution = numberToText(input.conditions.gaugeResolution);
+  form.temperatureC = numberToText(input.conditions.temperatureC);
+  form.torquePlate = input.conditions.torquePlate;
+  input.cylinders.forEach((cylinder, i) => {
+    for (const depth of DEPTHS) {
+      for (const direction of DIRECTIONS) form.cells[cellKey(i, `${depth}.${direction}`)] = length(cylinder[depth][direction]);
+    }
+    form.cells[cellKey(i, 'piston')] = length(cylinder.piston);
+  });
+  if (input.deck) {
+    form.deckReadings = input.deck.readings.map(length).join(' ');
+    form.deckRa = numberToText(input.deck.raUm);
+  }
+  if (input.finish?.mode === 'values') {
+    const f = input.finish;
+    form.finishMode = 'values';
+    form.finish = { ra: numberToText(f.raUm), rk: numberToText(f.rkUm), rpk: numberToText(f.rpkUm), rvk: numberToText(f.rvkUm), mr1: numberToText(f.mr1), mr2: numberToText(f.mr2) };
+  } else if (input.finish?.mode === 'profile') {
+    form.finishMode = 'profile';
+    form.profile = { fileName: 'the trace sent with the last version', heights: input.finish.heightsUm };
+    form.profileSpacing = numberToText(input.finish.spacingUm);
+  }
+  if (input.crosshatch?.mode === 'measured') {
+    form.crosshatchMode = 'measured';
+    form.crosshatch.angle = numberToText(input.crosshatch.includedAngleDeg);
+  } else if (input.crosshatch?.mode === 'settings') {
+    form.crosshatchMode = 'settings';
+    form.crosshatch = {
+      angle: '',
+      spindleRpm: numberToText(input.crosshatch.spindleRpm),
+      strokeLength: length(input.crosshatch.strokeLength),
+      cyclesPerMinute: numberToText(input.crosshatch.cyclesPerMinute),
+    };
+  }
+  form.signedOffBy = input.signedOffBy;
+  form.notes = input.notes;
+  return form;
+}
+
+// --- words for paths -----------------------------------------------------------
+
+const FIELD_WORDS: Record<string, string> = {
+  'conditions.unit': 'units',
+  'conditions.gaugeResolution': 'gauge resolution',
+  'conditions.temperatureC': 'temperature',
+  'conditions.torquePlate': 'torque plate',
+  deck: 'deck',
+  'deck.readings': 'straightedge readings',
+  'deck.raUm': 'deck Ra',
+  'finish.raUm': 'bore Ra',
+  'finish.rkUm': 'Rk',
+  'finish.rpkUm': 'Rpk',
+  'finish.rvkUm': 'Rvk',
+  'finish.mr1': 'Mr1',
+  'finish.mr2': 'Mr2',
+  'finish.heightsUm': 'profile trace',
+  'finish.spacingUm': 'sample spacing',
+  'crosshatch.includedAngleDeg': 'crosshatch angle',
+  'crosshatch.spindleRpm': 'spindle speed',
+  'crosshatch.strokeLength': 'stroke length',
+  'crosshatch.cyclesPerMinute': 'strokes per minute',
+  signedOffBy: 'sign-off name',
+  notes: 'notes',
+};
+
+/** A schema path in words: "cylinders.2.middle.axial" → "cylinder 3 middle axial". */
+export function pathWords(path: string): string {
+  const cell = /^cylinders\.(\d+)\.(top|middle|bottom|piston)(?:\.(thrust|axial))?/.exec(path);
+  if (cell) return cell[2] === 'piston' ? `cylinder ${Number(cell[1]) + 1} piston diameter` : `cylinder ${Number(cell[1]) + 1} ${cell[2]} ${cell[3] ?? ''}`.trim();
+  const reading = /^deck\.readings\.(\d+)$/.exec(path);
+  if (reading) return `straightedge reading ${Number(reading[1]) + 1}`;
+  return FIELD_WORDS[path] ?? path;
+}
+
+/** The id of the input that holds a path, so a message can lead to it. */
+export function fieldId(path: string): string {
+  if (/^deck\.readings\.\d+$/.test(path)) return 'field-deck-readings';
+  if (path === 'cylinders') return 'field-cylinders-0-top-thrust';
+  return `field-${path.replace(/\./g, '-')}`;
+}

@@ -1,0 +1,85 @@
+/**
+ * What changed between two versions of an inspection record: each reading
+ * and condition as typed, and the worked-out figures, named in words.
+ */
+import type { InspectionVersion } from '@shared/schemas/inspection';
+import { formatLength, formatNumber, lengthToText, numberToText } from '@client/lib/numbers';
+import { DEPTHS, DIRECTIONS } from './record-form';
+
+export interface VersionChange {
+  key: string;
+  what: string;
+  before: string;
+  after: string;
+}
+
+type Entry = [key: string, what: string, text: string];
+
+function entries(version: InspectionVersion): Entry[] {
+  const { input, results } = version;
+  const unit = input.conditions.unit;
+  const len = (value: number | undefined) => (value === undefined ? '—' : `${lengthToText(value, unit)} ${unit}`);
+  const um = (value: number | undefined) => (value === undefined ? '—' : `${numberToText(value)} µm`);
+  const list: Entry[] = [
+    ['unit', 'Units', unit === 'in' ? 'inches' : 'millimetres'],
+    ['resolution', 'Gauge resolution', len(input.conditions.gaugeResolution)],
+    ['temperature', 'Temperature', `${numberToText(input.conditions.temperatureC)} °C`],
+    ['torque-plate', 'Torque plate', input.conditions.torquePlate ? 'fitted' : 'not fitted'],
+  ];
+  input.cylinders.forEach((cylinder, i) => {
+    for (const depth of DEPTHS) {
+      for (const direction of DIRECTIONS) list.push([`c${i}.${depth}.${direction}`, `Cylinder ${i + 1} ${depth} ${direction}`, len(cylinder[depth][direction])]);
+    }
+    list.push([`c${i}.piston`, `Cylinder ${i + 1} piston diameter`, len(cylinder.piston)]);
+  });
+  list.push(['deck', 'Straightedge readings', input.deck ? input.deck.readings.map((r) => len(r)).join(', ') : '—']);
+  list.push(['deck-ra', 'Deck Ra', um(input.deck?.raUm)]);
+  if (input.finish?.mode === 'profile') {
+    list.push(['finish', 'Bore finish', `from a trace of ${input.finish.heightsUm.length.toLocaleString('en-US')} heights at ${numberToText(input.finish.spacingUm)} µm`]);
+  } else if (input.finish?.mode === 'values') {
+    const f = input.finish;
+    list.push(['finish', 'Bore finish', 'entered values']);
+    list.push(['finish-ra', 'Bore Ra (entered)', um(f.raUm)], ['finish-rk', 'Rk (entered)', um(f.rkUm)], ['finish-rpk', 'Rpk (entered)', um(f.rpkUm)], ['finish-rvk', 'Rvk (entered)', um(f.rvkUm)]);
+  } else {
+    list.push(['finish', 'Bore finish', 'not measured']);
+  }
+  if (input.crosshatch?.mode === 'measured') {
+    list.push(['crosshatch', 'Crosshatch', `measured ${numberToText(input.crosshatch.includedAngleDeg)}°`]);
+  } else if (input.crosshatch?.mode === 'settings') {
+    const c = input.crosshatch;
+    list.push(['crosshatch', 'Crosshatch', `from hone settings: ${numberToText(c.spindleRpm)} rev/min, stroke ${len(c.strokeLength)}, ${numberToText(c.cyclesPerMinute)} strokes/min`]);
+  } else {
+    list.push(['crosshatch', 'Crosshatch', 'not measured']);
+  }
+  list.push(['signed', 'Signed off by', input.signedOffBy], ['notes', 'Notes', input.notes || '—']);
+
+  // Worked-out figures.
+  results.bores.cylinders.forEach((cylinder, i) => {
+    list.push([`f${i}.taper`, `Cylinder ${i + 1} taper (worked out)`, formatLength(cylinder.taper, unit)]);
+    list.push([`f${i}.oor`, `Cylinder ${i + 1} out-of-round (worked out)`, formatLength(cylinder.outOfRound, unit)]);
+    if (cylinder.clearance !== undefined) list.push([`f${i}.clearance`, `Cylinder ${i + 1} clearance (worked out)`, formatLength(cylinder.clearance, unit)]);
+  });
+  if (results.deck) list.push(['f.deck', 'Deck out-of-flat (worked out)', formatLength(results.deck.outOfFlat, unit)]);
+  if (results.finish) list.push(['f.ra', 'Bore Ra', `${formatNumber(results.finish.raUm, 2)} µm`]);
+  if (results.crosshatch) list.push(['f.angle', 'Crosshatch included angle', `${formatNumber(results.crosshatch.includedAngleDeg, 1)}°`]);
+  list.push(['f.result', 'Overall result', results.pass ? 'pass' : 'fail']);
+  return list;
+}
+
+/** Every reading, condition and figure that differs from the version before, in the record's order. */
+export function versionChanges(previous: InspectionVersion, next: InspectionVersion): VersionChange[] {
+  const before = new Map(entries(previous).map(([key, what, text]) => [key, { what, text }]));
+  const after = entries(next);
+  const changes: VersionChange[] = [];
+  const seen = new Set<string>();
+  for (const [key, what, text] of after) {
+    seen.add(key);
+    const old = before.get(key);
+    if (!old) changes.push({ key, what, before: '—', after: text });
+    else if (old.text !== text) changes.push({ key, what, before: old.text, after: text });
+  }
+  for (const [key, old] of before) {
+    if (!seen.has(key)) changes.push({ key, what: old.what, before: old.text, after: '—' });
+  }
+  return changes;
+}
