@@ -138,7 +138,7 @@ export function createApp(deps: AppDeps) {
   app.use('/api', paymentsRouter(paymentDeps));
   app.use('/api', messagesRouter({ db, hub, storage, messagesPer10s: config.rateLimits.messagesPer10s }));
   const workDeps = { ...paymentDeps, reviewWindowMs: config.reviewWindowDays * 24 * 60 * 60_000 };
-  app.use('/api', workRouter(workDeps));
+  app.use('/api', workRouter({ ...workDeps, storage }));
   app.use('/api/admin', adminRouter({ db, appUrl: config.appUrl }));
 
   app.get('/api/openapi.json', (_req, res) => {

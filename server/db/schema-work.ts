@@ -36,6 +36,36 @@ export const milestones = pgTable(
   (t) => [index('milestones_job_idx').on(t.jobId, t.createdAt)],
 );
 
+/**
+ * Photos on the shop's progress log. Uploaded first (milestoneId null, seen
+ * only by the uploader), then attached when the milestone is logged.
+ */
+export const milestonePhotos = pgTable(
+  'milestone_photos',
+  {
+    id: uuid().primaryKey().defaultRandom(),
+    jobId: uuid()
+      .notNull()
+      .references(() => jobs.id, { onDelete: 'cascade' }),
+    /** Null until the photo goes out with a milestone. */
+    milestoneId: uuid().references(() => milestones.id, { onDelete: 'cascade' }),
+    uploadedBy: uuid()
+      .notNull()
+      .references(() => users.id),
+    storageKey: text().notNull(),
+    width: integer().notNull(),
+    height: integer().notNull(),
+    bytes: integer().notNull(),
+    /** Its place among the milestone's photos, set when attached. */
+    position: integer(),
+    createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [
+    index('milestone_photos_milestone_idx').on(t.milestoneId, t.position),
+    index('milestone_photos_unattached_idx').on(t.jobId, t.uploadedBy).where(sql`${t.milestoneId} IS NULL`),
+  ],
+);
+
 /** Each submission is a new version; raw readings and the server's own results are both kept. */
 export const inspectionRecords = pgTable(
   'inspection_records',

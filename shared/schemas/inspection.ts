@@ -89,6 +89,9 @@ export interface InspectionVersion {
 
 export const milestoneKinds = ['block_received', 'teardown', 'operation_started', 'operation_finished', 'inspection_submitted', 'ready_for_pickup', 'shipped', 'delivered', 'note'] as const;
 
+/** The most photos one milestone may carry. */
+export const MAX_PHOTOS_PER_MILESTONE = 4;
+
 export const milestoneInputSchema = z
   .object({
     kind: z.enum(milestoneKinds, { error: 'Choose what happened.' }).refine((kind) => kind !== 'inspection_submitted', 'Submit the inspection record itself; it is logged on its own.'),
@@ -96,6 +99,12 @@ export const milestoneInputSchema = z
     note: z.string().trim().max(2000, 'Use at most 2,000 characters.').default(''),
     carrier: z.string().trim().max(60).optional(),
     trackingNumber: z.string().trim().max(60).optional(),
+    /** Photos the shop uploaded to this job first (POST /api/jobs/:jobId/milestone-photos). */
+    photoIds: z
+      .array(z.uuid({ error: 'That photo id is not valid.' }), { error: 'Send the photos as a list of ids.' })
+      .max(MAX_PHOTOS_PER_MILESTONE, `A milestone can carry at most ${MAX_PHOTOS_PER_MILESTONE} photos.`)
+      .refine((ids) => new Set(ids).size === ids.length, 'The same photo is attached twice.')
+      .optional(),
   })
   .superRefine((m, ctx) => {
     if ((m.kind === 'operation_started' || m.kind === 'operation_finished') && !m.operation) {
@@ -118,7 +127,22 @@ export interface Milestone {
   carrier: string | null;
   trackingNumber: string | null;
   author: { id: string; displayName: string };
+  /** In the order the shop attached them; empty when none. */
+  photos: MilestonePhoto[];
   createdAt: string;
+}
+
+export interface MilestonePhoto {
+  id: string;
+  width: number;
+  height: number;
+  thumbUrl: string;
+  largeUrl: string;
+}
+
+/** The answer to a milestone photo upload: the stored photos, ready to go with a milestone's photoIds. */
+export interface UploadedMilestonePhotos {
+  photos: MilestonePhoto[];
 }
 
 /** Used by the form to show live results with the same rules the server applies. */

@@ -1,11 +1,12 @@
 import { fileURLToPath } from 'node:url';
 import { and, eq } from 'drizzle-orm';
+import sharp from 'sharp';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { evaluateInspection } from '../../shared/calc/inspection-record';
 import { inspectBores } from '../../shared/calc/bore';
 import type { InspectionInput } from '../../shared/schemas/inspection';
 import { jobs, mailOutbox } from '../../server/db/schema';
-import { inspectionRecords, scheduledTasks } from '../../server/db/schema-work';
+import { inspectionRecords, milestonePhotos, scheduledTasks } from '../../server/db/schema-work';
 import { createScheduler } from '../../server/lib/scheduler';
 import { inspectionTaskHandlers } from '../../server/modules/inspections/inspections.service';
 import { jobBalance } from '../../server/modules/payments/ledger';
@@ -67,6 +68,88 @@ describe('milestones', () => {
     const stranger = await signedIn(m.server.app, await createUser(m.db));
     expect((await stranger.get(`/api/jobs/${job.id}/milestones`)).status).toBe(403);
     expect((await builder.post(`/api/jobs/${job.id}/milestones`, { kind: 'note', note: 'hi' })).status).toBe(403);
+  });
+});
+
+type Client = Awaited<ReturnType<typeof signedIn>>;
+const uploadMilestonePhotos = (client: Client, jobId: string, files: Array<{ data: Buffer; name: string }>) => {
+  let req = client.agent.post(`/api/jobs/${jobId}/milestone-photos`).set('X-CSRF-Token', client.token);
+  for (const file of files) req = req.attach('photos', file.data, file.name);
+  return req;
+};
+/** A JPEG carrying a marker and GPS position in its EXIF, which must not survive. */
+const jpegWithGps = () =>
+  sharp({ create: { width: 640, height: 480, channels: 3, background: { r: 120, g: 110, b: 100 } } })
+    .jpeg()
+    .withExifMerge({
+      IFD0: { Copyright: 'marker-for-test' },
+      IFD3: { GPSLatitudeRef: 'N', GPSLatitude: '48/1 51/1 2400/100', GPSLongitudeRef: 'E', GPSLongitude: '2/1 21/1 300/100' },
+    })
+    .toBuffer();
+
+describe('milestone photos', () => {
+  it('when the shop logs a teardown with a photo, then the builder sees it on the timeline and can load it; strangers cannot', async () => {
+    const { job, builder, shop } = await inWork();
+    // Only the working shop uploads.
+    expect((await uploadMilestonePhotos(builder, job.id, [{ data: await jpegWithGps(), name: 'x.jpg' }])).status).toBe(403);
+    const up = await uploadMilestonePhotos(shop, job.id, [{ data: await jpegWithGps(), name: 'teardown.jpg' }]);
+    expect(up.status).toBe(201);
+    expect(up.body.photos).toHaveLength(1);
+    const photo = up.body.photos[0];
+    expect(photo).toMatchObject({ width: 640, height: 480, thumbUrl: `/api/jobs/${job.id}/milestone-photos/${photo.id}/thumb` });
+    const [row] = await m.db.select().from(milestonePhotos).where(eq(milestonePhotos.id, photo.id));
+    expect(row.storageKey.startsWith(`milestones/${job.id}/`)).toBe(true);
+
+    // Before it is attached, only the uploader sees it.
+    expect((await builder.agent.get(photo.largeUrl)).status).toBe(404);
+
+    const logged = await shop.post(`/api/jobs/${job.id}/milestones`, { kind: 'teardown', note: 'Cracked main web, photo attached.', photoIds: [photo.id] });
+    expect(logged.status).toBe(201);
+    expect(logged.body.milestone.photos).toEqual([photo]);
+
+    const timeline = await builder.get(`/api/jobs/${job.id}/milestones`);
+    const teardown = timeline.body.milestones.find((x: { kind: string }) => x.kind === 'teardown');
+    expect(teardown.photos).toEqual([photo]);
+    expect(timeline.body.milestones.find((x: { kind: string }) => x.kind === 'block_received').photos).toEqual([]);
+
+    const large = await builder.agent.get(photo.largeUrl).buffer(true);
+    expect(large.status).toBe(200);
+    expect(large.headers['content-type']).toBe('image/webp');
+    const meta = await sharp(large.body as Buffer).metadata();
+    expect(meta.format).toBe('webp');
+    expect(meta.exif).toBeUndefined();
+    expect((large.body as Buffer).includes(Buffer.from('marker-for-test'))).toBe(false);
+    expect((await builder.agent.get(photo.thumbUrl)).status).toBe(200);
+
+    const stranger = await signedIn(m.server.app, await createUser(m.db));
+    expect([403, 404]).toContain((await stranger.agent.get(photo.largeUrl)).status);
+    expect([403, 404]).toContain((await uploadMilestonePhotos(stranger, job.id, [{ data: await jpegWithGps(), name: 'x.jpg' }])).status);
+
+    // The same photo cannot go on a second milestone.
+    const again = await shop.post(`/api/jobs/${job.id}/milestones`, { kind: 'note', note: 'Again', photoIds: [photo.id] });
+    expect(again.status).toBe(400);
+    expect(again.body.error.fields.photoIds).toBeDefined();
+  });
+
+  it('when a milestone names a photo from another job, or the same photo twice, then 400 with a field message and nothing is logged', async () => {
+    const first = await inWork();
+    const other = await inWork();
+    const up = await uploadMilestonePhotos(other.shop, other.job.id, [{ data: await jpegWithGps(), name: 'theirs.jpg' }]);
+    expect(up.status).toBe(201);
+    const theirs = up.body.photos[0].id as string;
+
+    const refused = await first.shop.post(`/api/jobs/${first.job.id}/milestones`, { kind: 'note', note: 'Borrowed photo', photoIds: [theirs] });
+    expect(refused.status).toBe(400);
+    expect(refused.body.error.fields.photoIds).toMatch(/not one you uploaded/);
+    // The other shop cannot use it on the first job either, nor repeat one.
+    expect((await other.shop.post(`/api/jobs/${first.job.id}/milestones`, { kind: 'note', note: 'x', photoIds: [theirs] })).status).toBe(404);
+    const twice = await other.shop.post(`/api/jobs/${other.job.id}/milestones`, { kind: 'note', note: 'x', photoIds: [theirs, theirs] });
+    expect(twice.status).toBe(400);
+
+    const timeline = await first.builder.get(`/api/jobs/${first.job.id}/milestones`);
+    expect(timeline.body.milestones.map((x: { kind: string }) => x.kind)).toEqual(['block_received']);
+    const [row] = await m.db.select().from(milestonePhotos).where(eq(milestonePhotos.id, theirs));
+    expect(row.milestoneId).toBeNull();
   });
 });
 

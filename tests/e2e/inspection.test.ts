@@ -1,4 +1,5 @@
 import { join } from 'node:path';
+import sharp from 'sharp';
 import { request, type APIRequestContext, type Browser, type BrowserContext, type Page } from 'playwright-core';
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
 import type { InspectionInput, InspectionVersion } from '../../shared/schemas/inspection';
@@ -387,9 +388,14 @@ describe('the inspection record, from block received to payment released, in a r
     await log.getByText('Say which operation.').waitFor();
     await expect(log.getByLabel('Operation').getAttribute('aria-invalid')).resolves.toBe('true');
     await log.getByLabel('Operation').selectOption('hone');
+    // A photo with the milestone: uploaded at once, then shown in the timeline.
+    const photo = await sharp({ create: { width: 640, height: 480, channels: 3, background: '#6b7280' } }).jpeg().toBuffer();
+    await log.getByTestId('milestone-photo-input').setInputFiles({ name: 'cylinder-3.jpg', mimeType: 'image/jpeg', buffer: photo });
+    await log.getByTestId('milestone-upload-photos').getByRole('img').first().waitFor();
     await log.getByRole('button', { name: 'Log it' }).click();
     const progress = shopPage.getByRole('list', { name: 'Progress on this job' });
     await progress.getByText('Hone started').waitFor();
+    await progress.getByRole('button', { name: 'Open photo 1 of 1 full size' }).waitFor();
     await log.getByLabel('What happened').selectOption('shipped');
     await log.getByLabel('Carrier').fill('Ridgeline Freight');
     await log.getByRole('button', { name: 'Log it' }).click();

@@ -5,6 +5,7 @@ import { jobs, users, type User } from '../../db/schema';
 import { milestones } from '../../db/schema-work';
 import { AppError, conflict } from '../../lib/errors';
 import { assertCanSeeWork, assertWorkingShop, jobParties } from '../inspections/job-parties';
+import { attachMilestonePhotos, photosOfMilestones } from './milestone-photos';
 
 const WORKING = new Set(['funded', 'in_work', 'inspection_submitted', 'completed']);
 
@@ -16,6 +17,10 @@ export async function listMilestones(db: Database, user: User, jobId: string): P
     .innerJoin(users, eq(users.id, milestones.authorId))
     .where(eq(milestones.jobId, jobId))
     .orderBy(asc(milestones.createdAt), asc(milestones.id));
+  const photos = await photosOfMilestones(
+    db,
+    rows.map(({ m }) => m.id),
+  );
   return rows.map(({ m, authorName }) => ({
     id: m.id,
     kind: m.kind,
@@ -24,6 +29,7 @@ export async function listMilestones(db: Database, user: User, jobId: string): P
     carrier: m.carrier,
     trackingNumber: m.trackingNumber,
     author: { id: m.authorId, displayName: authorName },
+    photos: photos.get(m.id) ?? [],
     createdAt: m.createdAt.toISOString(),
   }));
 }
@@ -48,6 +54,7 @@ export async function logMilestone(db: Database, user: User, jobId: string, inpu
       .insert(milestones)
       .values({ jobId, authorId: user.id, kind: input.kind, operation: input.operation ?? null, note: input.note, carrier: input.carrier ?? null, trackingNumber: input.trackingNumber ?? null })
       .returning();
+    if (input.photoIds?.length) await attachMilestonePhotos(tx, { jobId, userId: user.id, milestoneId: row.id, photoIds: input.photoIds });
     return row;
   });
 }

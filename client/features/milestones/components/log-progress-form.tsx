@@ -13,6 +13,7 @@ import { TextAreaField } from '@client/components/ui/text-area-field';
 import { TextField } from '@client/components/ui/text-field';
 import { applyServerErrors } from '@client/lib/form-errors';
 import { useLogMilestone } from '../api/milestones';
+import { MilestonePhotoPicker, type PendingPhoto } from './milestone-photo-picker';
 import { milestoneKindWords } from './milestone-words';
 
 type FormValues = z.input<typeof milestoneInputSchema>;
@@ -32,6 +33,8 @@ const NOTE_LABELS: Partial<Record<Kind, string>> = {
 /** The awarded shop says what happened; the builder sees it on the timeline at once. */
 export function LogProgressForm({ job }: { job: JobDetail }) {
   const [formError, setFormError] = useState<string>();
+  const [photos, setPhotos] = useState<PendingPhoto[]>([]);
+  const [photoError, setPhotoError] = useState<string>();
   const kinds = kindsFor(job.status);
   const defaults: FormValues = { kind: (job.status === 'funded' ? 'block_received' : '') as Kind, operation: '', note: '', carrier: '', trackingNumber: '' };
   const form = useForm<FormValues, unknown, MilestoneInput>({ resolver: zodResolver(milestoneInputSchema), defaultValues: defaults });
@@ -41,6 +44,8 @@ export function LogProgressForm({ job }: { job: JobDetail }) {
       onSuccess: (milestone) => {
         toast.success(`Logged: ${milestoneKindWords[milestone.kind].toLowerCase()}. The builder can see it.`);
         form.reset({ ...defaults, kind: '' as Kind });
+        setPhotos([]);
+        setPhotoError(undefined);
       },
     },
   });
@@ -49,14 +54,26 @@ export function LogProgressForm({ job }: { job: JobDetail }) {
 
   const onSubmit = form.handleSubmit((values) => {
     setFormError(undefined);
+    setPhotoError(undefined);
+    if (photos.some((p) => p.status === 'uploading')) {
+      setPhotoError('Wait for the photos to finish uploading, then log it.');
+      return;
+    }
+    const photoIds = photos.filter((p) => p.status === 'done' && p.photo).map((p) => p.photo!.id);
     // Only the fields that belong to the chosen kind are sent.
     const input: MilestoneInput = {
       kind: values.kind,
       note: values.note,
       ...(withOperation ? { operation: values.operation } : {}),
       ...(values.kind === 'shipped' ? { carrier: values.carrier, trackingNumber: values.trackingNumber } : {}),
+      ...(photoIds.length ? { photoIds } : {}),
     };
-    log.mutate(input, { onError: (error) => setFormError(applyServerErrors(error, form.setError, ['kind', 'operation', 'note', 'carrier', 'trackingNumber'])) });
+    log.mutate(input, {
+      onError: (error) => {
+        if (error.fields?.photoIds) setPhotoError(error.fields.photoIds);
+        setFormError(applyServerErrors(error, form.setError, ['kind', 'operation', 'note', 'carrier', 'trackingNumber', 'photoIds']));
+      },
+    });
   });
 
   return (
@@ -95,6 +112,7 @@ export function LogProgressForm({ job }: { job: JobDetail }) {
         error={errors.note?.message}
         {...form.register('note')}
       />
+      <MilestonePhotoPicker jobId={job.id} photos={photos} onChange={setPhotos} error={photoError} />
       <div>
         <Button type="submit" busy={log.isPending}>
           Log it

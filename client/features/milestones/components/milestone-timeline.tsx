@@ -1,4 +1,5 @@
 import type { Milestone } from '@shared/schemas/inspection';
+import { MilestonePhotos } from './milestone-photos';
 import { formatWhen, milestoneTitle } from './milestone-words';
 
 /**
@@ -34,6 +35,7 @@ export function MilestoneTimeline({ milestones }: { milestones: Milestone[] }) {
               </p>
             )}
             {m.note && <p className="mt-1 whitespace-pre-wrap text-ink">{m.note}</p>}
+            {m.photos.length > 0 && <MilestonePhotos photos={m.photos} title={milestoneTitle(m)} />}
           </div>
         </li>
       ))}
