@@ -1,7 +1,5 @@
-import { useState, type KeyboardEvent } from 'react';
 import type { MessagePhoto } from '@shared/schemas/messages';
-import { Button } from '@client/components/ui/button';
-import { ModalDialog } from '@client/components/ui/modal-dialog';
+import { PhotoThumbnails } from '@client/components/ui/photo-thumbnails';
 
 export interface MessagePhotosProps {
   photos: MessagePhoto[];
@@ -9,86 +7,9 @@ export interface MessagePhotosProps {
   authorName: string;
 }
 
-/**
- * A message's photos as thumbnails; each opens full size in a dialog where
- * the arrow keys step through the message's photos and Escape closes.
- */
+/** A message's photos as thumbnails; each opens full size. */
 export function MessagePhotos({ photos, authorName }: MessagePhotosProps) {
-  const [viewing, setViewing] = useState<number | null>(null);
-  const count = photos.length;
-  const current = viewing === null ? undefined : photos[viewing];
-  if (count === 0) return null;
-
-  const step = (by: number) => setViewing((index) => (index === null ? index : (index + by + count) % count));
-  const onKeyDown = (event: KeyboardEvent<HTMLDialogElement>) => {
-    if (count < 2) return;
-    if (event.key === 'ArrowRight') {
-      event.preventDefault();
-      step(1);
-    } else if (event.key === 'ArrowLeft') {
-      event.preventDefault();
-      step(-1);
-    }
-  };
-  const name = (index: number) => `Photo ${index + 1} of ${count} from ${authorName}`;
-
   return (
-    <>
-      <ul className="flex flex-wrap gap-2" aria-label={count === 1 ? 'Photo' : `${count} photos`}>
-        {photos.map((photo, index) => (
-          <li key={photo.id}>
-            <button
-              type="button"
-              onClick={() => setViewing(index)}
-              className="block overflow-hidden rounded-md bg-paper-sunk ring-1 ring-slate-200 hover:ring-slate-500"
-              aria-label={`Open photo ${index + 1} of ${count} full size`}
-            >
-              <img
-                src={photo.thumbUrl}
-                alt=""
-                width={photo.width}
-                height={photo.height}
-                loading="lazy"
-                className="size-28 object-cover"
-                data-testid="message-photo-thumb"
-              />
-            </button>
-          </li>
-        ))}
-      </ul>
-
-      <ModalDialog open={current !== undefined} onClose={() => setViewing(null)} title={name(viewing ?? 0)} size="xl" onKeyDown={onKeyDown}>
-        {current && (
-          <>
-            <img
-              src={current.largeUrl}
-              alt={name(viewing ?? 0)}
-              width={current.width}
-              height={current.height}
-              className="mx-auto max-h-[70vh] w-auto max-w-full rounded-lg bg-paper-sunk object-contain"
-              data-testid="message-photo-large"
-            />
-            <div className="flex flex-wrap items-center justify-between gap-3">
-              <p className="text-sm text-ink-soft">{count > 1 ? 'Left and right arrow keys step through the photos; Escape closes.' : 'Escape closes.'}</p>
-              <div className="flex gap-2">
-                {count > 1 && (
-                  <>
-                    <Button variant="secondary" onClick={() => step(-1)}>
-                      <span aria-hidden>←</span> Previous
-                    </Button>
-                    <Button variant="secondary" onClick={() => step(1)}>
-                      Next <span aria-hidden>→</span>
-                    </Button>
-                  </>
-                )}
-                <Button onClick={() => setViewing(null)} data-autofocus>
-                  Close
-                </Button>
-              </div>
-            </div>
-          </>
-        )}
-      </ModalDialog>
-    </>
+    <PhotoThumbnails photos={photos} thumbClassName="size-28" testId="message-photo" nameOf={(index, count) => `Photo ${index + 1} of ${count} from ${authorName}`} />
   );
 }
