@@ -1,3 +1,4 @@
+import { randomUUID } from 'node:crypto';
 import { fileTypeFromBuffer } from 'file-type';
 import sharp, { type Metadata } from 'sharp';
 import { AppError } from './errors';
@@ -48,4 +49,44 @@ export async function processPhoto(input: Buffer): Promise<ProcessedPhoto> {
 function tooManyPixels(width?: number, height?: number) {
   const size = width && height ? ` (${width} × ${height})` : '';
   return new AppError('too_many_pixels', `This image has too many pixels${size}. Keep photos under ${MAX_INPUT_PIXELS / 1_000_000} megapixels.`, 413);
+}
+
+export interface StoredPhoto {
+  id: string;
+  width: number;
+  height: number;
+  bytes: number;
+}
+
+/**
+ * Checks and re-encodes every file first, stores both sizes under
+ * `keyFor(id, size)`, then lets `save` record them; if anything fails, the
+ * stored files are removed again, so nothing is left half-saved.
+ */
+export async function withStoredPhotos<T>(
+  storage: { put(key: string, data: Buffer): Promise<void>; remove(key: string): Promise<void> },
+  files: Array<{ buffer: Buffer }>,
+  keyFor: (id: string, size: 'large' | 'thumb') => string,
+  save: (photos: StoredPhoto[]) => Promise<T>,
+): Promise<T> {
+  if (files.length === 0) throw new AppError('invalid_input', 'Choose at least one photo.', 400, { photos: 'Choose at least one photo.' });
+  const processed: ProcessedPhoto[] = [];
+  for (const file of files) processed.push(await processPhoto(file.buffer));
+  const stored: string[] = [];
+  try {
+    const photos: StoredPhoto[] = [];
+    for (const photo of processed) {
+      const id = randomUUID();
+      for (const size of ['large', 'thumb'] as const) {
+        const key = keyFor(id, size);
+        await storage.put(key, size === 'large' ? photo.large : photo.thumb);
+        stored.push(key);
+      }
+      photos.push({ id, width: photo.width, height: photo.height, bytes: photo.large.length });
+    }
+    return await save(photos);
+  } catch (error) {
+    await Promise.all(stored.map((key) => storage.remove(key).catch(() => {})));
+    throw error;
+  }
 }

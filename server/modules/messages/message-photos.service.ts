@@ -1,10 +1,9 @@
 import { and, eq } from 'drizzle-orm';
-import { randomUUID } from 'node:crypto';
 import type { MessagePhoto } from '../../../shared/schemas/messages';
 import type { Database } from '../../db/client';
 import { messagePhotos, type User } from '../../db/schema';
-import { AppError, conflict, forbidden, notFound } from '../../lib/errors';
-import { processPhoto, type ProcessedPhoto } from '../../lib/images';
+import { conflict, forbidden, notFound } from '../../lib/errors';
+import { withStoredPhotos } from '../../lib/images';
 import type { FileStorage } from '../../lib/storage';
 import { messagePhotoKey, toMessagePhoto, type PhotoSize } from './message-photos.repository';
 import { threadFor } from './messages.service';
@@ -29,29 +28,13 @@ export async function assertMaySendPhotos(db: Database, user: User, threadId: st
  */
 export async function addMessagePhotos(deps: MessagePhotoDeps, user: User, threadId: string, files: Array<{ buffer: Buffer }>): Promise<MessagePhoto[]> {
   await assertMaySendPhotos(deps.db, user, threadId);
-  if (files.length === 0) throw new AppError('invalid_input', 'Choose at least one photo.', 400, { photos: 'Choose at least one photo.' });
-
-  const processed: ProcessedPhoto[] = [];
-  for (const file of files) processed.push(await processPhoto(file.buffer));
-
-  const stored: string[] = [];
-  try {
-    const rows = [];
-    for (const photo of processed) {
-      const id = randomUUID();
-      for (const size of ['large', 'thumb'] as const) {
-        const key = messagePhotoKey(threadId, id, size);
-        await deps.storage.put(key, size === 'large' ? photo.large : photo.thumb);
-        stored.push(key);
-      }
-      rows.push({ id, threadId, uploadedBy: user.id, storageKey: `threads/${threadId}/${id}`, width: photo.width, height: photo.height, bytes: photo.large.length });
-    }
-    const inserted = await deps.db.insert(messagePhotos).values(rows).returning();
+  return withStoredPhotos(deps.storage, files, (id, size) => messagePhotoKey(threadId, id, size), async (photos) => {
+    const inserted = await deps.db
+      .insert(messagePhotos)
+      .values(photos.map((photo) => ({ ...photo, threadId, uploadedBy: user.id, storageKey: `threads/${threadId}/${photo.id}` })))
+      .returning();
     return inserted.map(toMessagePhoto);
-  } catch (error) {
-    await Promise.all(stored.map((key) => deps.storage.remove(key).catch(() => {})));
-    throw error;
-  }
+  });
 }
 
 /**

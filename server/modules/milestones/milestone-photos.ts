@@ -1,11 +1,10 @@
 import { and, asc, eq, inArray, isNull } from 'drizzle-orm';
-import { randomUUID } from 'node:crypto';
 import type { MilestonePhoto } from '../../../shared/schemas/inspection';
 import type { Database, Executor } from '../../db/client';
 import type { User } from '../../db/schema';
 import { milestonePhotos } from '../../db/schema-work';
 import { AppError, notFound } from '../../lib/errors';
-import { processPhoto, type ProcessedPhoto } from '../../lib/images';
+import { withStoredPhotos } from '../../lib/images';
 import type { FileStorage } from '../../lib/storage';
 import { assertCanSeeWork, assertWorkingShop, jobParties } from '../inspections/job-parties';
 
@@ -42,29 +41,13 @@ export async function assertMayUploadMilestonePhotos(db: Database, user: User, j
  */
 export async function addMilestonePhotos(deps: MilestonePhotoDeps, user: User, jobId: string, files: Array<{ buffer: Buffer }>): Promise<MilestonePhoto[]> {
   await assertMayUploadMilestonePhotos(deps.db, user, jobId);
-  if (files.length === 0) throw new AppError('invalid_input', 'Choose at least one photo.', 400, { photos: 'Choose at least one photo.' });
-
-  const processed: ProcessedPhoto[] = [];
-  for (const file of files) processed.push(await processPhoto(file.buffer));
-
-  const stored: string[] = [];
-  try {
-    const rows = [];
-    for (const photo of processed) {
-      const id = randomUUID();
-      for (const size of ['large', 'thumb'] as const) {
-        const key = milestonePhotoKey(jobId, id, size);
-        await deps.storage.put(key, size === 'large' ? photo.large : photo.thumb);
-        stored.push(key);
-      }
-      rows.push({ id, jobId, uploadedBy: user.id, storageKey: `milestones/${jobId}/${id}`, width: photo.width, height: photo.height, bytes: photo.large.length });
-    }
-    const inserted = await deps.db.insert(milestonePhotos).values(rows).returning();
+  return withStoredPhotos(deps.storage, files, (id, size) => milestonePhotoKey(jobId, id, size), async (photos) => {
+    const inserted = await deps.db
+      .insert(milestonePhotos)
+      .values(photos.map((photo) => ({ ...photo, jobId, uploadedBy: user.id, storageKey: `milestones/${jobId}/${photo.id}` })))
+      .returning();
     return inserted.map(toMilestonePhoto);
-  } catch (error) {
-    await Promise.all(stored.map((key) => deps.storage.remove(key).catch(() => {})));
-    throw error;
-  }
+  });
 }
 
 /** A photo's file, for people who may see the job's work; until it is attached, only its uploader sees it. */
