@@ -1,8 +1,9 @@
-import { useState, type KeyboardEvent } from 'react';
+import { useState } from 'react';
 import { toast } from 'sonner';
 import type { JobPhoto } from '@shared/schemas/jobs';
 import { Button } from '@client/components/ui/button';
-import { ConfirmDialog, ModalDialog } from '@client/components/ui/modal-dialog';
+import { ConfirmDialog } from '@client/components/ui/modal-dialog';
+import { PhotoViewer } from '@client/components/ui/photo-thumbnails';
 import { useRemovePhoto } from '../api/jobs';
 
 export interface PhotoGalleryProps {
@@ -29,19 +30,6 @@ export function PhotoGallery({ jobId, jobTitle, photos, canRemove }: PhotoGaller
     },
   });
   const count = photos.length;
-  const current = viewing === null ? undefined : photos[viewing];
-
-  const step = (by: number) => setViewing((index) => (index === null ? index : (index + by + count) % count));
-  const onKeyDown = (event: KeyboardEvent<HTMLDialogElement>) => {
-    if (event.key === 'ArrowRight') {
-      event.preventDefault();
-      step(1);
-    } else if (event.key === 'ArrowLeft') {
-      event.preventDefault();
-      step(-1);
-    }
-  };
-
   if (count === 0) return <p className="text-ink-soft">No photos yet.</p>;
 
   return (
@@ -73,37 +61,13 @@ export function PhotoGallery({ jobId, jobTitle, photos, canRemove }: PhotoGaller
         ))}
       </ul>
 
-      <ModalDialog open={current !== undefined} onClose={() => setViewing(null)} title={`Photo ${(viewing ?? 0) + 1} of ${count}`} size="xl" onKeyDown={onKeyDown}>
-        {current && (
-          <>
-            <img
-              src={current.largeUrl}
-              alt={`Photo ${(viewing ?? 0) + 1} of ${count} for “${jobTitle}”`}
-              width={current.width}
-              height={current.height}
-              className="mx-auto max-h-[70vh] w-auto max-w-full rounded-lg bg-paper-sunk object-contain"
-            />
-            <div className="flex flex-wrap items-center justify-between gap-3">
-              <p className="text-sm text-ink-soft">Left and right arrow keys step through the photos; Escape closes.</p>
-              <div className="flex gap-2">
-                {count > 1 && (
-                  <>
-                    <Button variant="secondary" onClick={() => step(-1)}>
-                      <span aria-hidden>←</span> Previous
-                    </Button>
-                    <Button variant="secondary" onClick={() => step(1)}>
-                      Next <span aria-hidden>→</span>
-                    </Button>
-                  </>
-                )}
-                <Button onClick={() => setViewing(null)} data-autofocus>
-                  Close
-                </Button>
-              </div>
-            </div>
-          </>
-        )}
-      </ModalDialog>
+      <PhotoViewer
+        photos={photos}
+        index={viewing}
+        onIndexChange={setViewing}
+        title={(index, total) => `Photo ${index + 1} of ${total}`}
+        alt={(index, total) => `Photo ${index + 1} of ${total} for “${jobTitle}”`}
+      />
 
       <ConfirmDialog
         open={removing !== null}
