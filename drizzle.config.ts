@@ -2,7 +2,7 @@ import { defineConfig } from 'drizzle-kit';
 
 export default defineConfig({
   dialect: 'postgresql',
-  schema: ['./server/db/schema.ts', './server/db/schema-work.ts'],
+  schema: ['./server/db/schema.ts', './server/db/schema-work.ts', './server/db/schema-disputes.ts'],
   out: './drizzle',
   casing: 'snake_case',
   strict: true,

@@ -13,6 +13,7 @@ import type { AppConfig } from './env';
 import { createPassport } from './lib/auth/passport';
 import { errorHandler, notFoundApi } from './lib/errors';
 import { adminRouter } from './modules/admin/admin.routes';
+import { disputesRouter } from './modules/disputes/disputes.routes';
 import { authRouter } from './modules/auth/auth.routes';
 import { bidsRouter } from './modules/bids/bids.routes';
 import { messagesRouter } from './modules/messages/messages.routes';
@@ -139,7 +140,8 @@ export function createApp(deps: AppDeps) {
   app.use('/api', messagesRouter({ db, hub, storage, messagesPer10s: config.rateLimits.messagesPer10s }));
   const workDeps = { ...paymentDeps, reviewWindowMs: config.reviewWindowDays * 24 * 60 * 60_000 };
   app.use('/api', workRouter({ ...workDeps, storage }));
-  app.use('/api/admin', adminRouter({ db, appUrl: config.appUrl }));
+  app.use('/api', disputesRouter(paymentDeps));
+  app.use('/api/admin', adminRouter({ db, appUrl: config.appUrl, hub, defaultFeeBps: config.payments.platformFeeBps }));
 
   app.get('/api/openapi.json', (_req, res) => {
     res.json(openApiDocument());

@@ -29,6 +29,7 @@ export const navigationByRole: Record<Me['role'] | 'anonymous', NavItem[]> = {
     { to: '/dashboard', label: 'Workbench' },
     { to: '/jobs', label: 'My jobs' },
     { to: '/messages', label: 'Messages' },
+    { to: '/money', label: 'Money' },
     { to: '/jobs/new', label: 'Post a job' },
     { to: '/shops', label: 'Shops' },
     { to: '/calculator', label: 'Calculator' },
@@ -38,14 +39,18 @@ export const navigationByRole: Record<Me['role'] | 'anonymous', NavItem[]> = {
     { to: '/board', label: 'Job board' },
     { to: '/bids', label: 'My bids' },
     { to: '/messages', label: 'Messages' },
+    { to: '/money', label: 'Money' },
     { to: '/shop/profile', label: 'Shop profile' },
     { to: '/calculator', label: 'Calculator' },
   ],
   admin: [
     { to: '/dashboard', label: 'Operations' },
+    { to: '/admin/disputes', label: 'Disputes' },
     { to: '/admin/people', label: 'People' },
-    { to: '/shops', label: 'Shops' },
-    { to: '/calculator', label: 'Calculator' },
+    { to: '/admin/shops', label: 'Shops' },
+    { to: '/admin/ledger', label: 'Ledger' },
+    { to: '/admin/settings', label: 'Fee' },
+    { to: '/admin/audit', label: 'Audit log' },
   ],
 };
 

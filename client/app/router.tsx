@@ -31,6 +31,17 @@ export const router = createBrowserRouter([
           { path: '/welcome/github', element: <GithubWelcomeRoute /> },
           { path: '/dashboard', element: <RequireRole><DashboardRoute /></RequireRole> },
           { path: '/admin/people', element: <RequireRole roles={['admin']}><AdminPeopleRoute /></RequireRole> },
+          {
+            element: <RequireRole roles={['admin']}><Outlet /></RequireRole>,
+            children: [
+              { path: '/admin/disputes', lazy: () => import('./routes/admin-disputes').then((m) => ({ Component: m.AdminDisputesRoute })) },
+              { path: '/admin/disputes/:disputeId', lazy: () => import('./routes/admin-dispute-case').then((m) => ({ Component: m.AdminDisputeCaseRoute })) },
+              { path: '/admin/shops', lazy: () => import('./routes/admin-shops').then((m) => ({ Component: m.AdminShopsRoute })) },
+              { path: '/admin/ledger', lazy: () => import('./routes/admin-ledger').then((m) => ({ Component: m.AdminLedgerRoute })) },
+              { path: '/admin/settings', lazy: () => import('./routes/admin-settings').then((m) => ({ Component: m.AdminSettingsRoute })) },
+              { path: '/admin/audit', lazy: () => import('./routes/admin-audit').then((m) => ({ Component: m.AdminAuditRoute })) },
+            ],
+          },
           { path: '/shops', lazy: () => import('./routes/shop-directory').then((m) => ({ Component: m.ShopDirectoryRoute })) },
           { path: '/shops/:shopId', lazy: () => import('./routes/shop-page').then((m) => ({ Component: m.ShopPageRoute })) },
           {
@@ -62,7 +73,10 @@ export const router = createBrowserRouter([
           },
           {
             element: <RequireRole roles={['builder', 'shop']}><Outlet /></RequireRole>,
-            children: [{ path: '/messages', lazy: () => import('./routes/messages').then((m) => ({ Component: m.MessagesRoute })) }],
+            children: [
+              { path: '/messages', lazy: () => import('./routes/messages').then((m) => ({ Component: m.MessagesRoute })) },
+              { path: '/money', lazy: () => import('./routes/money-history').then((m) => ({ Component: m.MoneyHistoryRoute })) },
+            ],
           },
           { path: '*', element: <NotFoundRoute /> },
         ],

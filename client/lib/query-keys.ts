@@ -65,3 +65,31 @@ export const inspectionKeys = {
   all: ['inspections'] as const,
   forJob: (jobId: string) => [...inspectionKeys.all, 'job', jobId] as const,
 };
+
+/** A job's dispute (opened, answered, decided) and the reviews left after it ended. */
+export const disputeKeys = {
+  all: ['disputes'] as const,
+  forJob: (jobId: string) => [...disputeKeys.all, 'job', jobId] as const,
+};
+
+export const reviewKeys = {
+  all: ['reviews'] as const,
+  forJob: (jobId: string) => [...reviewKeys.all, 'job', jobId] as const,
+};
+
+/** A signed-in builder's or shop's own money history across their jobs. */
+export const moneyHistoryKeys = {
+  all: ['money-history'] as const,
+  page: (offset: number) => [...moneyHistoryKeys.all, offset] as const,
+};
+
+/** The admin console: dispute queue and cases, shops, ledger, audit log, fee. */
+export const adminKeys = {
+  all: ['admin'] as const,
+  disputes: (status: string) => [...adminKeys.all, 'disputes', status] as const,
+  disputeCase: (id: string) => [...adminKeys.all, 'dispute', id] as const,
+  shops: (filters: Record<string, unknown>) => [...adminKeys.all, 'shops', filters] as const,
+  ledger: (filters: Record<string, unknown>) => [...adminKeys.all, 'ledger', filters] as const,
+  audit: (filters: Record<string, unknown>) => [...adminKeys.all, 'audit', filters] as const,
+  fee: () => [...adminKeys.all, 'fee'] as const,
+};

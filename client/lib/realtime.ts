@@ -1,7 +1,7 @@
 import { useQueryClient } from '@tanstack/react-query';
 import { createContext, createElement, useContext, useEffect, useRef, useState, type ReactNode } from 'react';
 import { io, type Socket } from 'socket.io-client';
-import { bidKeys, inspectionKeys, jobKeys, milestoneKeys, paymentKeys, threadKeys } from './query-keys';
+import { bidKeys, disputeKeys, inspectionKeys, jobKeys, milestoneKeys, moneyHistoryKeys, paymentKeys, reviewKeys, threadKeys } from './query-keys';
 
 /**
  * The live connection: one socket.io connection for the signed-in person,
@@ -174,5 +174,9 @@ export function useWatchJob(jobId: string | undefined) {
     // Progress logged by the shop; an inspection record submitted, accepted or rejected.
     void queryClient.invalidateQueries({ queryKey: milestoneKeys.forJob(jobId) });
     void queryClient.invalidateQueries({ queryKey: inspectionKeys.forJob(jobId) });
+    // A dispute opened, answered or decided; reviews left once the job ended.
+    void queryClient.invalidateQueries({ queryKey: disputeKeys.forJob(jobId) });
+    void queryClient.invalidateQueries({ queryKey: reviewKeys.forJob(jobId) });
+    void queryClient.invalidateQueries({ queryKey: moneyHistoryKeys.all });
   });
 }

@@ -28,6 +28,11 @@ export class RealtimeHub {
     for (const userId of participants) this.io?.to(rooms.user(userId)).emit('unread:changed', { threadId: message.threadId });
   }
 
+  /** A suspended account's live connections end now, on every instance. */
+  signOut(userId: string) {
+    this.io?.in(rooms.user(userId)).disconnectSockets(true);
+  }
+
   readMoved(threadId: string, userId: string, messageId: string) {
     this.io?.to(rooms.thread(threadId)).emit('read', { threadId, userId, messageId });
     this.io?.to(rooms.user(userId)).emit('unread:changed', { threadId });

@@ -23,3 +23,18 @@ export interface ChangeOrder {
   status: 'proposed' | 'approved' | 'paid' | 'declined';
   createdAt: string;
 }
+
+/** One line of a builder's or shop's money history: a ledger entry on one of their jobs. */
+export interface MoneyHistoryRow {
+  id: number;
+  createdAt: string;
+  jobId: string;
+  jobTitle: string;
+  kind: 'paid_in' | 'released' | 'fee' | 'refunded';
+  amountCents: number;
+}
+
+export interface MoneyHistory {
+  rows: MoneyHistoryRow[];
+  total: number;
+}

@@ -118,6 +118,9 @@ export async function agentFor(app: App) {
       if (typeof res.body?.csrfToken === 'string') token = res.body.csrfToken;
       return res;
     },
+    put(path: string, body: object = {}) {
+      return agent.put(path).set('X-CSRF-Token', token).send(body);
+    },
     get(path: string) {
       return agent.get(path);
     },

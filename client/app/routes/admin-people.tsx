@@ -1,14 +1,16 @@
 import { Card, PageTitle } from '@client/components/ui/card';
 import { AddAdminForm } from '@client/features/admin/components/add-admin-form';
 import { PeopleTable } from '@client/features/admin/components/people-table';
+import { useMe } from '@client/features/auth/api/use-me';
 
 export function AdminPeopleRoute() {
+  const { data: me } = useMe();
   return (
     <div>
-      <PageTitle title="People" lead="Every account on Tenthmark. New administrators are added here, by an administrator." />
+      <PageTitle title="People" lead="Every account on Tenthmark. Suspend an account that breaks the rules, and reinstate it later; new administrators are added here, by an administrator." />
       <div className="grid gap-6 lg:grid-cols-[2fr_1fr]">
         <Card>
-          <PeopleTable />
+          <PeopleTable currentUserId={me?.id} />
         </Card>
         <Card>
           <h2 className="mb-4 text-xl font-bold">Add an administrator</h2>

@@ -22,6 +22,8 @@ import { useWatchJob } from '@client/lib/realtime';
 import { JobMoneyPanel } from '@client/features/payments/components/job-money-panel';
 import { InspectionReview } from '@client/features/inspections/components/inspection-review';
 import { MilestonesPanel } from '@client/features/milestones/components/milestones-panel';
+import { DisputePanel } from '@client/features/disputes/components/dispute-panel';
+import { ReviewPanel } from '@client/features/reviews/components/review-panel';
 
 function Section({ title, children, action }: { title: string; children: ReactNode; action?: ReactNode }) {
   return (
@@ -119,6 +121,8 @@ export function JobDetailRoute() {
       {isOwner && <JobOwnerActions job={job} />}
       <JobMoneyPanel job={job} isAwardedShop={isAwardedShop} acceptedTotalCents={awardedBid?.totalCents} />
       {workViewer && <InspectionReview job={job} viewer={workViewer} />}
+      {workViewer && <DisputePanel job={job} viewer={workViewer} />}
+      {workViewer && (job.status === 'completed' || job.status === 'resolved') && <ReviewPanel job={job} viewer={workViewer} />}
       {workViewer && <MilestonesPanel job={job} canLog={workViewer === 'shop'} />}
 
       {showBids && (

@@ -258,3 +258,67 @@ export function inspectionDecidedMail(input: { name: string; jobTitle: string; d
     action: { label: 'Open the job', url: input.url },
   });
 }
+
+const sideWords = { builder: 'the builder', shop: 'the shop' } as const;
+
+export function disputeOpenedMail(input: { name: string; openedBy: 'builder' | 'shop'; isOpener: boolean; jobTitle: string; reason: string; url: string }): RenderedMail {
+  return render({
+    template: 'dispute_opened',
+    subject: `A dispute is open on “${input.jobTitle}”`,
+    greeting: `Hello ${input.name},`,
+    paragraphs: [
+      input.isOpener
+        ? `You opened a dispute on “${input.jobTitle}”: ${input.reason}.`
+        : `${sideWords[input.openedBy][0].toUpperCase()}${sideWords[input.openedBy].slice(1)} opened a dispute on “${input.jobTitle}”: ${input.reason}.`,
+      'The payment stays held by Tenthmark until an administrator decides. Nothing is paid out or refunded before then.',
+      input.isOpener ? 'The other side can now answer. An administrator reads both sides and the job’s record before deciding.' : 'Please answer with your side of it on the job page; an administrator reads both sides and the job’s record before deciding.',
+    ],
+    action: { label: 'Open the job', url: input.url },
+  });
+}
+
+export function disputeAnsweredMail(input: { name: string; jobTitle: string; url: string }): RenderedMail {
+  return render({
+    template: 'dispute_answered',
+    subject: `Your dispute on “${input.jobTitle}” has an answer`,
+    greeting: `Hello ${input.name},`,
+    paragraphs: [`The other side answered your dispute on “${input.jobTitle}”. An administrator will decide with both statements and the job’s record in front of them.`],
+    action: { label: 'Read the answer', url: input.url },
+  });
+}
+
+export function disputeDecidedMail(input: { name: string; jobTitle: string; outcome: 'release' | 'refund' | 'split'; shopCents: number; refundCents: number; decision: string; url: string }): RenderedMail {
+  const result =
+    input.outcome === 'release'
+      ? `The held payment of ${money(input.shopCents)} goes to the shop (less Tenthmark’s fee).`
+      : input.outcome === 'refund'
+        ? `The held payment of ${money(input.refundCents)} goes back to the builder.`
+        : `The held payment is split: ${money(input.shopCents)} to the shop (less Tenthmark’s fee) and ${money(input.refundCents)} back to the builder.`;
+  return render({
+    template: 'dispute_decided',
+    subject: `The dispute on “${input.jobTitle}” is decided`,
+    greeting: `Hello ${input.name},`,
+    paragraphs: [result, 'The administrator’s decision:', input.decision],
+    action: { label: 'Open the job', url: input.url },
+    footnote: 'Receipts for the money follow as each payment or refund is made.',
+  });
+}
+
+export function accountSuspendedMail(input: { name: string; reason: string }): RenderedMail {
+  return render({
+    template: 'account_suspended',
+    subject: 'Your Tenthmark account is suspended',
+    greeting: `Hello ${input.name},`,
+    paragraphs: [`An administrator suspended your account: ${input.reason}`, 'You have been signed out and cannot sign in until the account is reinstated. Reply to this e-mail if you think this is a mistake.'],
+  });
+}
+
+export function newReviewMail(input: { name: string; authorName: string; jobTitle: string; rating: number; url: string }): RenderedMail {
+  return render({
+    template: 'new_review',
+    subject: `${input.authorName} reviewed you for “${input.jobTitle}”`,
+    greeting: `Hello ${input.name},`,
+    paragraphs: [`${input.authorName} gave you ${input.rating} of 5 for “${input.jobTitle}”.`],
+    action: { label: 'Read the review', url: input.url },
+  });
+}

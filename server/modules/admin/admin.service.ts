@@ -1,12 +1,13 @@
 import { and, desc, eq, ilike, or, sql, type SQL } from 'drizzle-orm';
 import type { CreateAdminInput, UserSearchInput } from '../../../shared/schemas/admin';
 import type { Database } from '../../db/client';
-import { users } from '../../db/schema';
+import { users, type User } from '../../db/schema';
 import { AppError } from '../../lib/errors';
 import { enqueueMail } from '../../lib/mail/outbox';
 import { adminInviteMail } from '../../lib/mail/templates';
 import { issueToken } from '../auth/tokens';
 import { insertUser } from '../users/users.repository';
+import { recordAdminAction } from './audit';
 
 const INVITE_TTL_MS = 72 * 60 * 60_000;
 
@@ -14,7 +15,7 @@ const INVITE_TTL_MS = 72 * 60 * 60_000;
  * Admins exist only from the seed or by another admin. The new admin gets no
  * password; a single-use link lets them choose one.
  */
-export async function createAdmin(deps: { db: Database; appUrl: string }, input: CreateAdminInput, invitedBy: string) {
+export async function createAdmin(deps: { db: Database; appUrl: string }, input: CreateAdminInput, invitedBy: User) {
   return deps.db.transaction(async (tx) => {
     const user = await insertUser(tx, { email: input.email, displayName: input.displayName, role: 'admin' });
     if (!user) {
@@ -22,11 +23,12 @@ export async function createAdmin(deps: { db: Database; appUrl: string }, input:
         email: 'An account with this e-mail address already exists.',
       });
     }
+    await recordAdminAction(tx, { adminId: invitedBy.id, action: 'admin.create', targetType: 'user', targetId: user.id, details: { email: user.email } });
     const token = await issueToken(tx, user.id, 'reset_password', INVITE_TTL_MS);
     await enqueueMail(
       tx,
       user.email,
-      adminInviteMail({ displayName: user.displayName, invitedBy, url: `${deps.appUrl}/reset-password?token=${token}`, hours: 72 }),
+      adminInviteMail({ displayName: user.displayName, invitedBy: invitedBy.displayName, url: `${deps.appUrl}/reset-password?token=${token}`, hours: 72 }),
     );
     return user;
   });

@@ -6,9 +6,11 @@ import { bidLineItems, bidRevisions, bids, jobs, shops, users, type User } from 
 import { AppError, conflict, forbidden, notFound } from '../../lib/errors';
 import { enqueueMail } from '../../lib/mail/outbox';
 import { bidAcceptedMail, bidDeclinedMail, bidRevisedMail, newBidMail } from '../../lib/mail/templates';
+import { currentFee } from '../admin/platform-fee';
 import { findJob, type JobRow } from '../jobs/jobs.repository';
 import { jobForViewer } from '../jobs/jobs.service';
 import { findShopByUser, type ShopRow } from '../shops/shops.repository';
+import { shopRatings } from '../reviews/ratings';
 
 export interface BidDeps {
   db: Database;
@@ -177,7 +179,9 @@ export async function acceptBid(deps: BidDeps, user: User, bidId: string): Promi
       .set({ status: 'declined', decidedAt: now, declineReason: 'Another bid was accepted.', updatedAt: now })
       .where(and(eq(bids.jobId, job.id), ne(bids.id, bid.id), eq(bids.status, 'active')))
       .returning({ shopId: bids.shopId });
-    await tx.update(jobs).set({ status: 'awarded', awardedBidId: bid.id, feeBps: deps.platformFeeBps ?? 0, updatedAt: now }).where(eq(jobs.id, job.id));
+    // The fee in force now is fixed on the job: a later change by an administrator applies to new awards only.
+    const { feeBps } = await currentFee(tx, deps.platformFeeBps ?? 0);
+    await tx.update(jobs).set({ status: 'awarded', awardedBidId: bid.id, feeBps, updatedAt: now }).where(eq(jobs.id, job.id));
 
     const winner = await shopContact(tx, bid.shopId);
     await enqueueMail(tx, winner.email, bidAcceptedMail({ shopName: winner.name, jobTitle: job.title, totalCents: bid.totalCents, url: jobUrl(deps, job.id) }));
@@ -209,6 +213,7 @@ async function present(db: Executor, rows: BidRow[]): Promise<Bid[]> {
     db.select({ id: jobs.id, operations: jobs.operations }).from(jobs).where(inArray(jobs.id, [...new Set(rows.map((r) => r.jobId))])),
   ]);
   const shopById = new Map(shopRows.map((s) => [s.id, s]));
+  const ratings = await shopRatings(db, [...shopById.keys()]);
   const opsByJob = new Map(jobRows.map((j) => [j.id, j.operations]));
   return rows.map((row) => {
     const shop = shopById.get(row.shopId)!;
@@ -226,7 +231,7 @@ async function present(db: Executor, rows: BidRow[]): Promise<Bid[]> {
       lineItems: lines
         .filter((l) => l.bidId === row.id)
         .map(({ operation, description, quantity, unitPriceCents, amountCents }) => ({ operation, description, quantity, unitPriceCents, amountCents })),
-      shop: { id: shop.id, name: shop.name, country: shop.country, region: shop.region, city: shop.city, verified: shop.verifiedAt !== null, rating: null },
+      shop: { id: shop.id, name: shop.name, country: shop.country, region: shop.region, city: shop.city, verified: shop.verifiedAt !== null, rating: ratings.get(shop.id) ?? null },
       capabilityMatch: ops.length ? covered / ops.length : 1,
       createdAt: row.createdAt.toISOString(),
       updatedAt: row.updatedAt.toISOString(),

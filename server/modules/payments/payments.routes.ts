@@ -1,7 +1,7 @@
 import express, { Router } from 'express';
 import type Stripe from 'stripe';
 import { z } from 'zod';
-import { uuidSchema } from '../../../shared/schemas/common';
+import { queryInt, uuidSchema } from '../../../shared/schemas/common';
 import { changeOrderInputSchema, splitSchema } from '../../../shared/schemas/payments';
 import { paymentEvents } from '../../db/schema';
 import { currentUser, requireRole, requireUser } from '../../lib/auth/guards';
@@ -21,9 +21,12 @@ import {
   type PaymentDeps,
 } from './payments.service';
 import { jobForViewer } from '../jobs/jobs.service';
+import { recordAdminAction } from '../admin/audit';
+import { moneyHistory } from './money-history';
 
 const jobParams = z.object({ jobId: uuidSchema });
 const orderParams = z.object({ changeOrderId: uuidSchema });
+const historyQuery = z.object({ limit: queryInt('limit', 1, 100).default(25), offset: queryInt('offset', 0, 1_000_000).default(0) });
 
 /**
  * The provider's webhook: raw body, signature checked by the SDK, each event
@@ -119,15 +122,22 @@ export function paymentsRouter(deps: PaymentDeps) {
     res.json({ changeOrder: await declineChangeOrder(deps, currentUser(req), changeOrderId) });
   });
 
-  // Until the inspection record triggers it, an admin releases by hand; disputes use the split.
+  router.get('/me/money', requireRole('builder', 'shop'), async (req, res) => {
+    const page = historyQuery.parse(req.query);
+    res.json(await moneyHistory(deps.db, currentUser(req), page));
+  });
+
+  // Hand release and split for support cases outside a dispute (disputes are decided in the disputes module). Both are audited.
   router.post('/admin/jobs/:jobId/release', requireRole('admin'), async (req, res) => {
     const { jobId } = jobParams.parse(req.params);
+    await recordAdminAction(deps.db, { adminId: currentUser(req).id, action: 'job.release', targetType: 'job', targetId: jobId });
     res.json(await releaseJob(deps, jobId));
   });
 
   router.post('/admin/jobs/:jobId/split', requireRole('admin'), async (req, res) => {
     const { jobId } = jobParams.parse(req.params);
     const { shopCents } = splitSchema.parse(req.body);
+    await recordAdminAction(deps.db, { adminId: currentUser(req).id, action: 'job.split', targetType: 'job', targetId: jobId, details: { shopCents } });
     res.json(await splitJob(deps, jobId, shopCents));
   });
 

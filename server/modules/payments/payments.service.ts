@@ -215,7 +215,7 @@ async function awardedShop(tx: Executor, jobId: string) {
  * happens under the job's row lock and each movement has a key derived from
  * the payment, so any number of callers plan the same movements once.
  */
-async function planMoves(tx: Executor, jobId: string, shopShareCents: number | 'all'): Promise<void> {
+export async function planMoves(tx: Executor, jobId: string, shopShareCents: number | 'all'): Promise<void> {
   const job = await findJob(tx, jobId, { forUpdate: true });
   if (!job) throw notFound('No job with that id.');
   const paid = await tx.select().from(payments).where(and(eq(payments.jobId, jobId), eq(payments.status, 'paid'))).orderBy(asc(payments.paidAt));
@@ -312,11 +312,13 @@ async function settleJobIfEmpty(deps: PaymentDeps, tx: Executor, jobId: string) 
     await enqueueMail(tx, parties.shopEmail, payoutSentMail({ name: parties.shopName!, jobTitle: job.title, amountCents: balance.released, feeCents: balance.fee, url }));
   }
   if (balance.refunded > 0) await enqueueMail(tx, parties.builderEmail, refundSentMail({ name: parties.builderName, jobTitle: job.title, amountCents: balance.refunded, url }));
-  const next = balance.refunded === balance.paidIn ? 'cancelled' : job.status === 'disputed' ? 'resolved' : 'completed';
+  // A disputed job ends as resolved whatever the decision; otherwise a full refund cancels it.
+  const next = job.status === 'disputed' ? 'resolved' : balance.refunded === balance.paidIn ? 'cancelled' : 'completed';
   await tx.update(jobs).set({ status: next, updatedAt: new Date() }).where(eq(jobs.id, jobId));
 }
 
-async function carryOut(deps: PaymentDeps, jobId: string) {
+/** Runs the movements already planned for a job (now; the worker retries any the provider refused). */
+export async function carryOut(deps: PaymentDeps, jobId: string) {
   const moves = await deps.db.select().from(moneyMoves).where(and(eq(moneyMoves.jobId, jobId), eq(moneyMoves.status, 'pending')));
   for (const move of moves) await runMove(deps, move.id);
   deps.hub?.jobChanged(jobId, 'job_updated');

@@ -2,6 +2,7 @@ import { and, arrayContains, asc, eq, ilike, inArray, or, sql, type SQL } from '
 import type { PublicShop, ShopDirectoryQuery, ShopProfileInput } from '../../../shared/schemas/shops';
 import type { Executor } from '../../db/client';
 import { shopRates, shops } from '../../db/schema';
+import { shopRatings } from '../reviews/ratings';
 
 export type ShopRow = typeof shops.$inferSelect;
 
@@ -52,7 +53,7 @@ export async function upsertShop(db: Executor, userId: string, input: ShopProfil
   return row;
 }
 
-export function toPublicShop(row: ShopRow, rateCard: Array<{ operation: string; priceCents: number }>): PublicShop {
+export function toPublicShop(row: ShopRow, rateCard: Array<{ operation: string; priceCents: number }>, rating: PublicShop['rating'] = null): PublicShop {
   return {
     id: row.id,
     name: row.name,
@@ -65,8 +66,7 @@ export function toPublicShop(row: ShopRow, rateCard: Array<{ operation: string; 
     turnaroundDays: row.turnaroundDays,
     rateCard,
     verified: row.verifiedAt !== null,
-    // Reviews arrive with the reviews feature; until then no shop has a rating.
-    rating: null,
+    rating,
   };
 }
 
@@ -93,6 +93,6 @@ export async function searchShops(db: Executor, query: ShopDirectoryQuery) {
       .offset((query.page - 1) * query.pageSize),
     db.select({ total: sql<number>`count(*)::int` }).from(shops).where(where),
   ]);
-  const rates = await ratesFor(db, rows.map((r) => r.id));
-  return { shops: rows.map((row) => toPublicShop(row, rates.get(row.id) ?? [])), total, page: query.page, pageSize: query.pageSize };
+  const [rates, ratings] = await Promise.all([ratesFor(db, rows.map((r) => r.id)), shopRatings(db, rows.map((r) => r.id))]);
+  return { shops: rows.map((row) => toPublicShop(row, rates.get(row.id) ?? [], ratings.get(row.id) ?? null)), total, page: query.page, pageSize: query.pageSize };
 }

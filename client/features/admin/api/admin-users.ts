@@ -1,17 +1,10 @@
 import { keepPreviousData, queryOptions, useMutation, useQuery, useQueryClient, type UseMutationOptions } from '@tanstack/react-query';
-import type { CreateAdminInput } from '@shared/schemas/admin';
+import type { AdminUserRow, CreateAdminInput } from '@shared/schemas/admin';
 import type { Me, Role } from '@shared/schemas/auth';
 import { api, type ApiError } from '@client/lib/api-client';
+import { adminKeys } from '@client/lib/query-keys';
 
-export interface AdminUserRow {
-  id: string;
-  email: string;
-  displayName: string;
-  role: Role;
-  status: 'active' | 'suspended';
-  emailVerifiedAt: string | null;
-  createdAt: string;
-}
+export type { AdminUserRow };
 
 export interface UserFilters {
   q?: string;
@@ -50,6 +43,49 @@ export function useCreateAdmin(options?: { mutationConfig?: Omit<UseMutationOpti
     mutationFn: (input) => api.post<{ user: Me }>('/api/admin/admins', input).then((r) => r.user),
     onSuccess: (...args) => {
       void queryClient.invalidateQueries({ queryKey: adminUserKeys.lists() });
+      return onSuccess?.(...args);
+    },
+  });
+}
+
+type AccountMutationConfig<TInput> = Omit<UseMutationOptions<AdminUserRow, ApiError, TInput>, 'mutationFn'>;
+
+export interface SuspendUserInput {
+  userId: string;
+  reason: string;
+}
+
+/** After a suspension or reinstatement: the people list, and the shops and audit log that show the owner's state. */
+function useAfterAccountChange() {
+  const queryClient = useQueryClient();
+  return () => {
+    void queryClient.invalidateQueries({ queryKey: adminUserKeys.lists() });
+    void queryClient.invalidateQueries({ queryKey: adminKeys.all });
+  };
+}
+
+/** Suspends an account with a reason; its sessions stop working on their next request. */
+export function useSuspendUser(options?: { mutationConfig?: AccountMutationConfig<SuspendUserInput> }) {
+  const refresh = useAfterAccountChange();
+  const { onSuccess, ...rest } = options?.mutationConfig ?? {};
+  return useMutation<AdminUserRow, ApiError, SuspendUserInput>({
+    ...rest,
+    mutationFn: ({ userId, reason }) => api.post<{ user: AdminUserRow }>(`/api/admin/users/${encodeURIComponent(userId)}/suspend`, { reason }).then((r) => r.user),
+    onSuccess: (...args) => {
+      refresh();
+      return onSuccess?.(...args);
+    },
+  });
+}
+
+export function useReinstateUser(options?: { mutationConfig?: AccountMutationConfig<{ userId: string }> }) {
+  const refresh = useAfterAccountChange();
+  const { onSuccess, ...rest } = options?.mutationConfig ?? {};
+  return useMutation<AdminUserRow, ApiError, { userId: string }>({
+    ...rest,
+    mutationFn: ({ userId }) => api.post<{ user: AdminUserRow }>(`/api/admin/users/${encodeURIComponent(userId)}/reinstate`).then((r) => r.user),
+    onSuccess: (...args) => {
+      refresh();
       return onSuccess?.(...args);
     },
   });

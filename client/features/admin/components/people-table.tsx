@@ -1,11 +1,31 @@
 import { useDeferredValue, useState } from 'react';
+import { toast } from 'sonner';
 import type { Role } from '@shared/schemas/auth';
+import { Badge } from '@client/components/ui/badge';
+import { Button } from '@client/components/ui/button';
 import { Notice } from '@client/components/ui/notice';
-import { useAdminUsers } from '../api/admin-users';
+import { useAdminUsers, useReinstateUser, type AdminUserRow } from '../api/admin-users';
+import { SuspendUserDialog } from './suspend-user-dialog';
 
 const dateFormat = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium' });
 
-export function PeopleTable() {
+function ReinstateButton({ user }: { user: AdminUserRow }) {
+  const reinstate = useReinstateUser({
+    mutationConfig: {
+      onSuccess: (updated) => toast.success(`${updated.displayName} can sign in again.`),
+      onError: (error) => toast.error(error.message),
+    },
+  });
+  return (
+    <Button variant="secondary" className="whitespace-nowrap text-sm" busy={reinstate.isPending} onClick={() => reinstate.mutate({ userId: user.id })}>
+      Reinstate<span className="sr-only"> {user.displayName}</span>
+    </Button>
+  );
+}
+
+/** Every account, searchable; an administrator may suspend or reinstate anyone but themselves. */
+export function PeopleTable({ currentUserId }: { currentUserId?: string }) {
+  const [suspending, setSuspending] = useState<AdminUserRow | null>(null);
   const [q, setQ] = useState('');
   const [role, setRole] = useState<Role | ''>('');
   const filters = { q: useDeferredValue(q.trim()) || undefined, role: role || undefined };
@@ -50,7 +70,10 @@ export function PeopleTable() {
                   <th scope="col" className="py-2 pr-4">E-mail</th>
                   <th scope="col" className="py-2 pr-4">Role</th>
                   <th scope="col" className="py-2 pr-4">Status</th>
-                  <th scope="col" className="py-2">Joined</th>
+                  <th scope="col" className="py-2 pr-4">Joined</th>
+                  <th scope="col" className="py-2">
+                    <span className="sr-only">Suspend or reinstate</span>
+                  </th>
                 </tr>
               </thead>
               <tbody>
@@ -59,8 +82,19 @@ export function PeopleTable() {
                     <td className="py-2 pr-4 font-semibold">{user.displayName}</td>
                     <td className="py-2 pr-4">{user.email}</td>
                     <td className="py-2 pr-4 capitalize">{user.role}</td>
-                    <td className="py-2 pr-4">{user.status === 'active' ? 'Active' : 'Suspended'}</td>
-                    <td className="py-2">{dateFormat.format(new Date(user.createdAt))}</td>
+                    <td className="py-2 pr-4">{user.status === 'active' ? 'Active' : <Badge tone="error">Suspended</Badge>}</td>
+                    <td className="py-2 pr-4">{dateFormat.format(new Date(user.createdAt))}</td>
+                    <td className="py-2 text-right">
+                      {user.id === currentUserId ? (
+                        <span className="text-ink-soft">You</span>
+                      ) : user.status === 'active' ? (
+                        <Button variant="secondary" className="whitespace-nowrap text-sm" onClick={() => setSuspending(user)}>
+                          Suspend<span className="sr-only"> {user.displayName}</span>
+                        </Button>
+                      ) : (
+                        <ReinstateButton user={user} />
+                      )}
+                    </td>
                   </tr>
                 ))}
               </tbody>
@@ -68,6 +102,7 @@ export function PeopleTable() {
           </div>
         </>
       )}
+      <SuspendUserDialog user={suspending} onClose={() => setSuspending(null)} />
     </div>
   );
 }

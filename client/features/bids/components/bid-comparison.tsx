@@ -94,7 +94,11 @@ function ShopName({ bid, highlights }: { bid: Bid; highlights: ReactNode }) {
     <div className="flex flex-col gap-1">
       <div className="flex flex-wrap items-center gap-2">
         <span className="font-bold text-ink">{bid.shop.name}</span>
-        {bid.shop.verified && <Badge tone="success">✓ Verified</Badge>}
+        {bid.shop.verified && (
+          <Badge tone="success">
+            <span aria-hidden>✓</span> Verified
+          </Badge>
+        )}
       </div>
       <span className="text-sm text-ink-soft">{place(bid.shop)}</span>
       <span className="text-sm text-ink-soft">{ratingText(bid.shop.rating)}</span>

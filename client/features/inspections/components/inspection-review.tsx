@@ -140,6 +140,7 @@ function BuilderDecision({ job, version, reviewDueAt }: { job: JobDetail; versio
           Reject with reasons
         </Button>
       </div>
+      <p className="text-sm text-ink-soft">Something wrong that a new version cannot fix? Open a dispute below.</p>
       <ConfirmDialog
         open={acceptOpen}
         onClose={() => setAcceptOpen(false)}

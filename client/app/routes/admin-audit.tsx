@@ -1,0 +1,73 @@
+import { useSearchParams } from 'react-router-dom';
+import { Button } from '@client/components/ui/button';
+import { PageTitle } from '@client/components/ui/card';
+import { DebouncedTextField } from '@client/components/ui/debounced-text-field';
+import { Notice } from '@client/components/ui/notice';
+import { Pager } from '@client/components/ui/pager';
+import { useAuditLog } from '@client/features/admin/api/admin-audit';
+import { AuditTable } from '@client/features/admin/components/audit-table';
+import { toSearch } from '@client/lib/search-params';
+
+const PAGE_SIZE = 50;
+
+export function AdminAuditRoute() {
+  const [params, setParams] = useSearchParams();
+  const action = params.get('action')?.trim().slice(0, 60) ?? '';
+  const page = Math.max(1, Number.parseInt(params.get('page') ?? '1', 10) || 1);
+  const audit = useAuditLog({ action: action || undefined, limit: PAGE_SIZE, offset: (page - 1) * PAGE_SIZE });
+
+  const setAction = (text: string) => setParams(text.trim() ? { action: text.trim() } : {}, { replace: true });
+  const setPage = (next: number) => {
+    setParams((current) => {
+      const updated = new URLSearchParams(current);
+      if (next > 1) updated.set('page', String(next));
+      else updated.delete('page');
+      return updated;
+    });
+    window.scrollTo({ top: 0 });
+  };
+
+  return (
+    <div>
+      <PageTitle title="Audit log" lead="Everything an administrator has done that changes an account, a shop, the fee or a dispute, newest first." />
+      <form role="search" aria-label="Filter the audit log" onSubmit={(event) => event.preventDefault()} className="mb-6 flex flex-wrap items-end gap-4 rounded-card bg-paper-sunk p-4">
+        <DebouncedTextField
+          label="Action"
+          hint="The action’s name exactly as the table shows it. “Only this action” under an entry fills it in."
+          value={action}
+          onCommit={setAction}
+          autoComplete="off"
+          spellCheck={false}
+          maxLength={60}
+          className="min-w-64 flex-1"
+        />
+        <Button variant="secondary" onClick={() => setParams({})} disabled={!action}>
+          Show every action
+        </Button>
+      </form>
+      {audit.isPending && <p className="text-ink-soft">Loading the audit log …</p>}
+      {audit.isError && (
+        <Notice tone="error" title="The audit log could not be loaded">
+          {audit.error.message}
+        </Notice>
+      )}
+      {audit.data && (
+        <div className="flex flex-col gap-4">
+          <p className="text-sm text-ink-soft" aria-live="polite">
+            {audit.data.total === 1 ? '1 entry' : `${audit.data.total} entries`}
+            {action && ` for ${action}`}
+          </p>
+          {audit.data.entries.length === 0 ? (
+            <div className="rounded-card bg-paper-raised p-8 text-center ring-1 ring-slate-100">
+              <p className="text-lg font-bold">{action ? 'No entries for this action' : 'Nothing logged yet'}</p>
+              <p className="mt-1 text-ink-soft">{action ? 'Check the spelling, or show every action.' : 'Each change an administrator makes is logged here.'}</p>
+            </div>
+          ) : (
+            <AuditTable entries={audit.data.entries} dimmed={audit.isPlaceholderData} onlyActionHref={(name) => `/admin/audit${toSearch({ action: name })}`} />
+          )}
+          <Pager label="Audit log pages" page={page} pageSize={PAGE_SIZE} total={audit.data.total} onPage={setPage} />
+        </div>
+      )}
+    </div>
+  );
+}

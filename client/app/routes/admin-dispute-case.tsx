@@ -1,0 +1,101 @@
+import type { ReactNode } from 'react';
+import { Link, useParams } from 'react-router-dom';
+import { Card, PageTitle } from '@client/components/ui/card';
+import { Notice } from '@client/components/ui/notice';
+import { useDisputeCase } from '@client/features/admin/api/admin-disputes';
+import { formatMoment } from '@client/features/admin/components/admin-words';
+import { DisputeMoney } from '@client/features/admin/components/dispute-money';
+import { DisputeParties, DisputeStatements } from '@client/features/admin/components/dispute-parties';
+import { DisputeStatusBadge } from '@client/features/admin/components/dispute-queue-table';
+import { EvidenceTimeline } from '@client/features/admin/components/evidence-timeline';
+import { DisputeDecision, ResolveDisputeForm } from '@client/features/admin/components/resolve-dispute-form';
+import { ApiError } from '@client/lib/api-client';
+
+function Section({ title, children, className }: { title: string; children: ReactNode; className?: string }) {
+  return (
+    <Card className={className}>
+      <h2 className="mb-4 text-xl font-bold tracking-tight">{title}</h2>
+      {children}
+    </Card>
+  );
+}
+
+function BackLink() {
+  return (
+    <Link to="/admin/disputes" className="mb-4 inline-block text-sm font-semibold text-slate-700 underline underline-offset-4">
+      ← Dispute queue
+    </Link>
+  );
+}
+
+export function AdminDisputeCaseRoute() {
+  const { disputeId = '' } = useParams();
+  const caseQuery = useDisputeCase(disputeId);
+
+  if (caseQuery.isPending) {
+    return (
+      <div>
+        <BackLink />
+        <PageTitle title="Dispute" />
+        <p className="text-ink-soft">Loading the case …</p>
+      </div>
+    );
+  }
+  if (caseQuery.isError) {
+    const missing = caseQuery.error instanceof ApiError && caseQuery.error.status === 404;
+    return (
+      <div>
+        <BackLink />
+        <PageTitle title={missing ? 'No such dispute' : 'The case could not be loaded'} />
+        <Notice tone="error">{caseQuery.error.message}</Notice>
+      </div>
+    );
+  }
+
+  const data = caseQuery.data;
+  const { dispute } = data;
+  return (
+    <div>
+      <BackLink />
+      <PageTitle
+        title={`Dispute: ${data.job.title || 'Untitled job'}`}
+        lead={
+          <span className="flex flex-wrap items-center gap-3">
+            <DisputeStatusBadge status={dispute.status} />
+            <span>
+              Opened {formatMoment(dispute.openedAt)}
+              {dispute.resolution && `, decided ${formatMoment(dispute.resolution.at)}`}
+            </span>
+          </span>
+        }
+      />
+      <div className="grid items-start gap-6 lg:grid-cols-[3fr_2fr]">
+        <div className="flex min-w-0 flex-col gap-6">
+          <Section title="The case">
+            <div className="flex flex-col gap-6">
+              <DisputeParties data={data} />
+              <DisputeStatements data={data} />
+            </div>
+          </Section>
+          <Section title="Evidence">
+            <EvidenceTimeline items={data.timeline} builderName={data.builder.name} shopName={data.shop?.name ?? 'the shop'} />
+          </Section>
+        </div>
+        <div className="flex min-w-0 flex-col gap-6">
+          <Section title="Money">
+            <DisputeMoney money={data.money} />
+          </Section>
+          {dispute.status === 'open' ? (
+            <Section title="Decide">
+              <ResolveDisputeForm data={data} />
+            </Section>
+          ) : (
+            <Section title="Decision">
+              <DisputeDecision data={data} />
+            </Section>
+          )}
+        </div>
+      </div>
+    </div>
+  );
+}

@@ -1,0 +1,39 @@
+import { Card, PageTitle } from '@client/components/ui/card';
+import { Notice } from '@client/components/ui/notice';
+import { usePlatformFee } from '@client/features/admin/api/admin-settings';
+import { formatFee, formatMoment } from '@client/features/admin/components/admin-words';
+import { PlatformFeeForm } from '@client/features/admin/components/platform-fee-form';
+
+export function AdminSettingsRoute() {
+  const fee = usePlatformFee();
+  return (
+    <div>
+      <PageTitle title="Platform fee" lead="What Tenthmark keeps from each job’s payment to the shop. It is fixed on a job when its bid is accepted." />
+      {fee.isPending && <p className="text-ink-soft">Loading the fee …</p>}
+      {fee.isError && (
+        <Notice tone="error" title="The fee could not be loaded">
+          {fee.error.message}
+        </Notice>
+      )}
+      {fee.data && (
+        <div className="grid items-start gap-6 lg:grid-cols-2">
+          <Card>
+            <h2 className="text-xl font-bold">Current fee</h2>
+            <p className="mt-3 text-4xl font-extrabold tabular-nums" data-testid="current-fee">
+              {formatFee(fee.data.feeBps)}
+            </p>
+            <p className="mt-2 text-ink-soft">
+              {fee.data.updatedAt
+                ? `Last changed ${formatMoment(fee.data.updatedAt)}${fee.data.updatedBy ? ` by ${fee.data.updatedBy}` : ''}.`
+                : 'Not changed since Tenthmark started.'}
+            </p>
+          </Card>
+          <Card>
+            <h2 className="mb-4 text-xl font-bold">Change the fee</h2>
+            <PlatformFeeForm key={fee.data.feeBps} current={fee.data} />
+          </Card>
+        </div>
+      )}
+    </div>
+  );
+}

@@ -1,0 +1,52 @@
+import type { DisputeOutcome } from '@shared/schemas/disputes';
+import type { LedgerKind } from '../api/admin-ledger';
+
+const dateTime = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'short' });
+const dateOnly = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium' });
+
+/** A moment as the reader's date and time: "3 Mar 2027, 14:05". */
+export const formatMoment = (iso: string) => dateTime.format(new Date(iso));
+
+/** A moment as the reader's date only. */
+export const formatDate = (iso: string) => dateOnly.format(new Date(iso));
+
+export const plural = (count: number, one: string, many = `${one}s`) => `${count} ${count === 1 ? one : many}`;
+
+/** How long ago something started, in the largest whole unit: "3 days", "5 hours", "under an hour". */
+export function formatAge(since: string, now: Date = new Date()): string {
+  const hours = Math.floor((now.getTime() - new Date(since).getTime()) / 3_600_000);
+  if (hours < 1) return 'under an hour';
+  if (hours < 24) return plural(hours, 'hour');
+  return plural(Math.floor(hours / 24), 'day');
+}
+
+export const sideWords: Record<'builder' | 'shop', string> = { builder: 'Builder', shop: 'Shop' };
+
+export const ledgerKindWords: Record<LedgerKind, string> = {
+  paid_in: 'Paid in',
+  released: 'Paid to the shop',
+  fee: 'Fee kept',
+  refunded: 'Refunded',
+};
+
+export const outcomeWords: Record<DisputeOutcome, string> = {
+  release: 'Released in full to the shop',
+  refund: 'Refunded in full to the builder',
+  split: 'Split between the shop and the builder',
+};
+
+/** A fee in basis points as a percentage with two decimals: 750 → "7.50 %". */
+export const formatFee = (feeBps: number) => `${(feeBps / 100).toFixed(2)} %`;
+
+export const jobStatusWords: Record<string, string> = {
+  draft: 'Draft',
+  open: 'Open for bids',
+  awarded: 'Awarded',
+  funded: 'Paid and held',
+  in_work: 'In the shop',
+  inspection_submitted: 'Results to review',
+  completed: 'Completed',
+  disputed: 'In dispute',
+  resolved: 'Dispute settled',
+  cancelled: 'Cancelled',
+};

@@ -1,0 +1,96 @@
+import { sql } from 'drizzle-orm';
+import { bigserial, check, index, integer, jsonb, pgEnum, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core';
+import { jobs, users } from './schema';
+
+/** Disputes, reviews, the platform's settings and the administrators' audit log. */
+export const disputeStatus = pgEnum('dispute_status', ['open', 'resolved']);
+export const disputeOutcome = pgEnum('dispute_outcome', ['release', 'refund', 'split']);
+export const partySide = pgEnum('party_side', ['builder', 'shop']);
+
+export const disputes = pgTable(
+  'disputes',
+  {
+    id: uuid().primaryKey().defaultRandom(),
+    jobId: uuid()
+      .notNull()
+      .references(() => jobs.id, { onDelete: 'cascade' }),
+    status: disputeStatus().notNull().default('open'),
+    openedBy: uuid()
+      .notNull()
+      .references(() => users.id),
+    openedSide: partySide().notNull(),
+    reason: text().notNull(),
+    statement: text().notNull(),
+    /** The job's status when the dispute was opened. */
+    jobStatusBefore: text().notNull(),
+    responseBy: uuid().references(() => users.id),
+    response: text(),
+    respondedAt: timestamp({ withTimezone: true }),
+    outcome: disputeOutcome(),
+    /** What the decision gave the shop (before the platform fee) and the builder, in cents. */
+    shopCents: integer(),
+    refundCents: integer(),
+    decision: text(),
+    resolvedBy: uuid().references(() => users.id),
+    resolvedAt: timestamp({ withTimezone: true }),
+    openedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [
+    // One dispute at a time per job.
+    uniqueIndex('disputes_one_open_per_job_idx').on(t.jobId).where(sql`${t.status} = 'open'`),
+    index('disputes_queue_idx').on(t.status, t.openedAt),
+    check('disputes_amounts_check', sql`coalesce(${t.shopCents}, 0) >= 0 AND coalesce(${t.refundCents}, 0) >= 0`),
+  ],
+);
+
+/** One review per person per job: the builder rates the shop, the shop rates the builder. */
+export const reviews = pgTable(
+  'reviews',
+  {
+    id: uuid().primaryKey().defaultRandom(),
+    jobId: uuid()
+      .notNull()
+      .references(() => jobs.id, { onDelete: 'cascade' }),
+    authorId: uuid()
+      .notNull()
+      .references(() => users.id),
+    authorSide: partySide().notNull(),
+    /** The user the review is about (for a shop, the shop's account). */
+    subjectId: uuid()
+      .notNull()
+      .references(() => users.id),
+    rating: integer().notNull(),
+    comment: text().notNull(),
+    createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [
+    uniqueIndex('reviews_job_author_idx').on(t.jobId, t.authorId),
+    index('reviews_subject_idx').on(t.subjectId),
+    check('reviews_rating_check', sql`${t.rating} BETWEEN 1 AND 5`),
+  ],
+);
+
+/** Settings an administrator changes at run time (the platform fee). */
+export const platformSettings = pgTable('platform_settings', {
+  key: text().primaryKey(),
+  value: jsonb().notNull(),
+  updatedBy: uuid().references(() => users.id),
+  updatedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+});
+
+/** Every administrator action, append-only. */
+export const adminActions = pgTable(
+  'admin_actions',
+  {
+    id: bigserial({ mode: 'number' }).primaryKey(),
+    adminId: uuid()
+      .notNull()
+      .references(() => users.id),
+    action: text().notNull(),
+    targetType: text().notNull(),
+    targetId: text().notNull(),
+    details: jsonb().notNull().default({}),
+    createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index('admin_actions_created_idx').on(t.createdAt.desc()), index('admin_actions_action_idx').on(t.action, t.createdAt.desc())],
+);
