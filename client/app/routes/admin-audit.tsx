@@ -9,6 +9,8 @@ import { AuditTable } from '@client/features/admin/components/audit-table';
 import { toSearch } from '@client/lib/search-params';
 
 const PAGE_SIZE = 50;
+/** Actions the console records today, offered as suggestions; any other name can still be typed. */
+const KNOWN_ACTIONS = ['dispute.resolve', 'user.suspend', 'user.reinstate', 'shop.verify', 'shop.unverify', 'fee.change', 'admin.create'];
 
 export function AdminAuditRoute() {
   const [params, setParams] = useSearchParams();
@@ -33,7 +35,8 @@ export function AdminAuditRoute() {
       <form role="search" aria-label="Filter the audit log" onSubmit={(event) => event.preventDefault()} className="mb-6 flex flex-wrap items-end gap-4 rounded-card bg-paper-sunk p-4">
         <DebouncedTextField
           label="Action"
-          hint="The action’s name exactly as the table shows it. “Only this action” under an entry fills it in."
+          hint="The action’s name exactly as the table shows it, such as user.suspend. “Only this action” under an entry fills it in."
+          list="audit-actions"
           value={action}
           onCommit={setAction}
           autoComplete="off"
@@ -41,6 +44,11 @@ export function AdminAuditRoute() {
           maxLength={60}
           className="min-w-64 flex-1"
         />
+        <datalist id="audit-actions">
+          {KNOWN_ACTIONS.map((name) => (
+            <option key={name} value={name} />
+          ))}
+        </datalist>
         <Button variant="secondary" onClick={() => setParams({})} disabled={!action}>
           Show every action
         </Button>

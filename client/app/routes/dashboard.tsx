@@ -4,6 +4,7 @@ import type { Me } from '@shared/schemas/auth';
 import { Button } from '@client/components/ui/button';
 import { Card, PageTitle } from '@client/components/ui/card';
 import { Notice } from '@client/components/ui/notice';
+import { AdminOverview } from '@client/features/admin/components/admin-overview';
 import { useResendVerification } from '@client/features/auth/api/auth-mutations';
 import { useMe } from '@client/features/auth/api/use-me';
 
@@ -58,6 +59,7 @@ export function DashboardRoute() {
           </Link>
         </Card>
       )}
+      {me.role === 'admin' && <AdminOverview />}
       <Card>
         <h2 className="text-xl font-bold">Your account</h2>
         <dl className="mt-4 grid gap-x-6 gap-y-2 sm:grid-cols-[max-content_1fr]">

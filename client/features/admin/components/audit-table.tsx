@@ -20,11 +20,11 @@ function Details({ details }: { details: Record<string, unknown> }) {
   const entries = Object.entries(details ?? {});
   if (entries.length === 0) return <span className="text-ink-soft">—</span>;
   const text = entries.map(([key, value]) => `${key}: ${detailValue(key, value)}`).join('; ');
-  if (text.length <= SUMMARY_LENGTH) return <span className="break-words">{text}</span>;
+  if (text.length <= SUMMARY_LENGTH) return <span className="[overflow-wrap:anywhere]">{text}</span>;
   return (
     <details>
-      <summary className="cursor-pointer break-words">{text.slice(0, SUMMARY_LENGTH).trimEnd()} …</summary>
-      <pre className="mt-2 max-w-xl overflow-x-auto whitespace-pre-wrap break-words rounded-md bg-paper-sunk p-2 text-xs">{JSON.stringify(details, null, 2)}</pre>
+      <summary className="cursor-pointer [overflow-wrap:anywhere]">{text.slice(0, SUMMARY_LENGTH).trimEnd()} …</summary>
+      <pre className="mt-2 whitespace-pre-wrap rounded-md bg-paper-sunk p-2 text-xs [overflow-wrap:anywhere]">{JSON.stringify(details, null, 2)}</pre>
     </details>
   );
 }
@@ -39,7 +39,7 @@ function Target({ type, id }: { type: string; id: string }) {
   const page = targetPages[type];
   const words = (
     <>
-      {type} <span className="font-mono text-xs">{id.length > 12 ? `${id.slice(0, 8)}…` : id}</span>
+      {type} <span className="font-mono text-xs">{/^[0-9a-f-]{36}$/i.test(id) ? `${id.slice(0, 8)}…` : id}</span>
     </>
   );
   return page ? (
@@ -88,7 +88,7 @@ export function AuditTable({ entries, onlyActionHref, dimmed = false }: { entrie
               <td className="py-3 pr-4">
                 <Target type={entry.targetType} id={entry.targetId} />
               </td>
-              <td className="py-3">
+              <td className="max-w-md py-3">
                 <Details details={entry.details} />
               </td>
             </tr>

@@ -90,7 +90,7 @@ function InspectionSummary({ results }: { results: InspectionResults }) {
       <p>
         {results.checks.length === 0
           ? 'No limits were given to check against'
-          : `${results.checks.length - failing.length} of ${plural(results.checks.length, 'check')} ${results.checks.length - failing.length === 1 ? 'passes' : 'pass'}`}
+          : `${results.checks.length - failing.length} of ${results.checks.length === 1 ? '1 check passes' : `${results.checks.length} checks pass`}`}
         {cylinderFailures.length > 0 && <>; bores out of limits on {cylinderFailures.length === 1 ? 'cylinder' : 'cylinders'} {cylinderFailures.join(', ')}</>}
         {results.deck && <>; deck {results.deck.pass ? 'within' : 'outside'} its flatness limit</>}.
       </p>

@@ -64,6 +64,7 @@ export function PeopleTable({ currentUserId }: { currentUserId?: string }) {
           </p>
           <div className="overflow-x-auto">
             <table className="w-full text-left text-sm">
+              <caption className="sr-only">Accounts</caption>
               <thead className="border-b border-slate-200 text-ink-soft">
                 <tr>
                   <th scope="col" className="py-2 pr-4">Name</th>
@@ -85,7 +86,7 @@ export function PeopleTable({ currentUserId }: { currentUserId?: string }) {
                     <td className="py-2 pr-4">{user.status === 'active' ? 'Active' : <Badge tone="error">Suspended</Badge>}</td>
                     <td className="py-2 pr-4">{dateFormat.format(new Date(user.createdAt))}</td>
                     <td className="py-2 text-right">
-                      {user.id === currentUserId ? (
+                      {currentUserId === undefined ? null : user.id === currentUserId ? (
                         <span className="text-ink-soft">You</span>
                       ) : user.status === 'active' ? (
                         <Button variant="secondary" className="whitespace-nowrap text-sm" onClick={() => setSuspending(user)}>

@@ -49,11 +49,11 @@ const capitalise = (text: string) => text.charAt(0).toUpperCase() + text.slice(1
 export function outcomeWords(resolution: NonNullable<Dispute['resolution']>): string {
   switch (resolution.outcome) {
     case 'release':
-      return `Paid to the shop in full: ${formatCents(resolution.shopCents)}.`;
+      return `Paid to the shop in full: ${formatCents(resolution.shopCents)} (the platform fee comes out of the shop’s share).`;
     case 'refund':
       return `Refunded to the builder in full: ${formatCents(resolution.refundCents)}.`;
     case 'split':
-      return `Split: ${formatCents(resolution.shopCents)} to the shop, ${formatCents(resolution.refundCents)} back to the builder.`;
+      return `Split: ${formatCents(resolution.shopCents)} to the shop (the platform fee comes out of it), ${formatCents(resolution.refundCents)} back to the builder.`;
   }
 }
 
