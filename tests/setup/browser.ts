@@ -9,7 +9,8 @@ import { sendWebhooksTo, startTestStandIn, TEST_WEBHOOK_SECRET } from './payment
 import { createTestDatabase, testConfig } from './test-env';
 
 export const artifactsDir = fileURLToPath(new URL('../artifacts', import.meta.url));
-const clientDir = fileURLToPath(new URL('../../dist/client', import.meta.url));
+// TENTHMARK_CLIENT_DIR lets a second build (another outDir) be tested while dist/ is rebuilt.
+const clientDir = process.env.TENTHMARK_CLIENT_DIR ?? fileURLToPath(new URL('../../dist/client', import.meta.url));
 
 /** Debian's Chromium, headless; playwright-core never downloads a browser of its own. */
 export function launchBrowser(): Promise<Browser> {

@@ -22,7 +22,7 @@ export interface PaymentsControl {
   resume(): Promise<void>;
   /** Skips the backoff wait: every pending delivery is tried now. */
   retryNow(): Promise<void>;
-  /** Resolves true once nothing is left to send (held ones aside), false on timeout. */
+  /** Resolves true once nothing is left to send (held ones aside) and the data file holds it, false on timeout. */
   drain(timeoutMs?: number): Promise<boolean>;
   deliveries(): Delivery[];
   events(): StripeEvent[];
@@ -90,6 +90,8 @@ export function createControl(engine: Engine, sender: WebhookSender, faults: Api
         if (Date.now() > deadline) return false;
         await new Promise((resolve) => setTimeout(resolve, 20));
       }
+      // Delivered also means written down: wait for the data file writes the deliveries queued.
+      await engine.store.flush();
       return true;
     },
     deliveries: () => copy(Object.values(state().deliveries)),
