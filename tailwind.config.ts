@@ -15,7 +15,7 @@ export default {
       },
       colors: {
         paper: { DEFAULT: '#f3f1ec', raised: '#fbfaf7', sunk: '#e7e3da' },
-        ink: { DEFAULT: '#16232d', soft: '#3b4a55', faint: '#5d6b75' },
+        ink: { DEFAULT: '#16232d', soft: '#3b4a55', faint: '#56636d' },
         slate: {
           50: '#eef3f6',
           100: '#d8e3ea',

@@ -1,17 +1,18 @@
 import { outboxStorageKey } from '@client/features/messages/outbox';
 import { useQueryClient } from '@tanstack/react-query';
-import { useEffect, useState } from 'react';
+import { lazy, Suspense, useEffect, useState } from 'react';
 import { NavLink, Outlet, ScrollRestoration, useNavigate } from 'react-router-dom';
-import { toast } from 'sonner';
 import type { Me } from '@shared/schemas/auth';
 import { CountBadge } from '@client/components/ui/count-badge';
 import { authKeys } from '@client/features/auth/api/auth-keys';
 import { useSignOut } from '@client/features/auth/api/auth-mutations';
 import { useMe } from '@client/features/auth/api/use-me';
 import { useUnreadTotal } from '@client/features/messages/api/threads';
-import { MessagesLive } from '@client/features/messages/components/messages-live';
 import { cn } from '@client/lib/cn';
 import { RealtimeProvider, useConnectionStatus } from '@client/lib/realtime';
+
+// Live conversations matter only once someone is signed in; loaded then, beside the socket itself.
+const MessagesLive = lazy(() => import('@client/features/messages/components/messages-live').then((m) => ({ default: m.MessagesLive })));
 
 interface NavItem {
   to: string;
@@ -97,10 +98,10 @@ function Account({ me }: { me: Me }) {
       onSuccess: () => {
         // Unsent messages stay with the account, not on a computer someone else may use next.
         window.localStorage.removeItem(outboxStorageKey(me.id));
-        toast.success('You are signed out.');
+        void import('sonner').then(({ toast }) => toast.success('You are signed out.'));
         navigate('/', { replace: true });
       },
-      onError: (error) => toast.error(error.message),
+      onError: (error) => void import('sonner').then(({ toast }) => toast.error(error.message)),
     },
   });
   return (
@@ -127,7 +128,11 @@ export function Layout() {
   const unread = useUnreadTotal({ enabled: talks });
   return (
     <RealtimeProvider userId={me?.id} onUnauthenticated={() => void queryClient.invalidateQueries({ queryKey: authKeys.me() })}>
-      {me && <MessagesLive />}
+      {me && (
+        <Suspense fallback={null}>
+          <MessagesLive />
+        </Suspense>
+      )}
       <div className="flex min-h-screen flex-col">
         <a href="#main" className="sr-only focus:not-sr-only focus:absolute focus:left-2 focus:top-2 focus:rounded focus:bg-white focus:p-2">
           Skip to the content

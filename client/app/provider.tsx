@@ -1,7 +1,9 @@
 import { QueryClient, QueryClientProvider } from '@tanstack/react-query';
-import { Component, type ErrorInfo, type ReactNode } from 'react';
-import { Toaster } from 'sonner';
+import { Component, lazy, Suspense, type ErrorInfo, type ReactNode } from 'react';
 import { ApiError } from '@client/lib/api-client';
+
+// The toast library is fetched right after the first render: nothing toasts before someone acts, and a toast raised earlier still shows once it is mounted.
+const Toaster = lazy(() => import('sonner').then((m) => ({ default: m.Toaster })));
 
 export const queryClient = new QueryClient({
   defaultOptions: {
@@ -41,7 +43,9 @@ export function AppProvider({ children }: { children: ReactNode }) {
     <AppErrorBoundary>
       <QueryClientProvider client={queryClient}>
         {children}
-        <Toaster position="top-center" richColors closeButton />
+        <Suspense fallback={null}>
+          <Toaster position="top-center" richColors closeButton />
+        </Suspense>
       </QueryClientProvider>
     </AppErrorBoundary>
   );

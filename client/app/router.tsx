@@ -1,18 +1,14 @@
 import { createBrowserRouter, Outlet } from 'react-router-dom';
 import { GuestOnly, RequireRole } from './guards';
 import { Layout } from './layout';
-import { AdminPeopleRoute } from './routes/admin-people';
-import { DashboardRoute } from './routes/dashboard';
-import { ForgotPasswordRoute } from './routes/forgot-password';
-import { GithubWelcomeRoute } from './routes/github-welcome';
-import { LandingRoute } from './routes/landing';
-import { NotFoundRoute } from './routes/not-found';
-import { ResetPasswordRoute } from './routes/reset-password';
 import { RouteError } from './routes/route-error';
-import { SignInRoute } from './routes/sign-in';
-import { SignUpRoute } from './routes/sign-up';
-import { VerifyEmailRoute } from './routes/verify-email';
 
+/*
+ * Every page is its own chunk, loaded when its address is first visited; the
+ * layout, the guards and the error page stay in the entry (the error page must
+ * render even when a page's chunk fails to load). `npm run bench:client`
+ * reads the `import('./routes/…')` calls below to size each page's first load.
+ */
 export const router = createBrowserRouter([
   {
     element: <Layout />,
@@ -21,19 +17,23 @@ export const router = createBrowserRouter([
       {
         errorElement: <RouteError />,
         children: [
-          { path: '/', element: <LandingRoute /> },
+          { path: '/', lazy: () => import('./routes/landing').then((m) => ({ Component: m.LandingRoute })) },
           { path: '/calculator', lazy: () => import('./routes/calculator').then((m) => ({ Component: m.CalculatorRoute })) },
-          { path: '/signin', element: <GuestOnly><SignInRoute /></GuestOnly> },
-          { path: '/signup', element: <GuestOnly><SignUpRoute /></GuestOnly> },
-          { path: '/forgot-password', element: <ForgotPasswordRoute /> },
-          { path: '/reset-password', element: <ResetPasswordRoute /> },
-          { path: '/verify-email', element: <VerifyEmailRoute /> },
-          { path: '/welcome/github', element: <GithubWelcomeRoute /> },
-          { path: '/dashboard', element: <RequireRole><DashboardRoute /></RequireRole> },
-          { path: '/admin/people', element: <RequireRole roles={['admin']}><AdminPeopleRoute /></RequireRole> },
+          {
+            element: <GuestOnly><Outlet /></GuestOnly>,
+            children: [
+              { path: '/signin', lazy: () => import('./routes/sign-in').then((m) => ({ Component: m.SignInRoute })) },
+              { path: '/signup', lazy: () => import('./routes/sign-up').then((m) => ({ Component: m.SignUpRoute })) },
+            ],
+          },
+          { path: '/forgot-password', lazy: () => import('./routes/forgot-password').then((m) => ({ Component: m.ForgotPasswordRoute })) },
+          { path: '/reset-password', lazy: () => import('./routes/reset-password').then((m) => ({ Component: m.ResetPasswordRoute })) },
+          { path: '/verify-email', lazy: () => import('./routes/verify-email').then((m) => ({ Component: m.VerifyEmailRoute })) },
+          { path: '/welcome/github', lazy: () => import('./routes/github-welcome').then((m) => ({ Component: m.GithubWelcomeRoute })) },
           {
             element: <RequireRole roles={['admin']}><Outlet /></RequireRole>,
             children: [
+              { path: '/admin/people', lazy: () => import('./routes/admin-people').then((m) => ({ Component: m.AdminPeopleRoute })) },
               { path: '/admin/disputes', lazy: () => import('./routes/admin-disputes').then((m) => ({ Component: m.AdminDisputesRoute })) },
               { path: '/admin/disputes/:disputeId', lazy: () => import('./routes/admin-dispute-case').then((m) => ({ Component: m.AdminDisputeCaseRoute })) },
               { path: '/admin/shops', lazy: () => import('./routes/admin-shops').then((m) => ({ Component: m.AdminShopsRoute })) },
@@ -55,6 +55,7 @@ export const router = createBrowserRouter([
           {
             element: <RequireRole><Outlet /></RequireRole>,
             children: [
+              { path: '/dashboard', lazy: () => import('./routes/dashboard').then((m) => ({ Component: m.DashboardRoute })) },
               { path: '/jobs/:jobId', lazy: () => import('./routes/job-detail').then((m) => ({ Component: m.JobDetailRoute })) },
               {
                 path: '/jobs/:jobId/inspection/:version/certificate',
@@ -78,7 +79,7 @@ export const router = createBrowserRouter([
               { path: '/money', lazy: () => import('./routes/money-history').then((m) => ({ Component: m.MoneyHistoryRoute })) },
             ],
           },
-          { path: '*', element: <NotFoundRoute /> },
+          { path: '*', lazy: () => import('./routes/not-found').then((m) => ({ Component: m.NotFoundRoute })) },
         ],
       },
     ],

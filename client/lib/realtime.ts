@@ -1,6 +1,6 @@
 import { useQueryClient } from '@tanstack/react-query';
 import { createContext, createElement, useContext, useEffect, useRef, useState, type ReactNode } from 'react';
-import { io, type Socket } from 'socket.io-client';
+import type { Socket } from 'socket.io-client';
 import { bidKeys, disputeKeys, inspectionKeys, jobKeys, milestoneKeys, moneyHistoryKeys, paymentKeys, reviewKeys, threadKeys } from './query-keys';
 
 /**
@@ -47,9 +47,10 @@ export function RealtimeProvider({ userId, onUnauthenticated, children }: Realti
       setStatus('offline');
       return;
     }
-    const s = io({ path: '/socket.io', transports: ['websocket', 'polling'], withCredentials: true });
+    // socket.io-client is loaded only once someone is signed in: signed-out pages never need it.
+    let s: Socket | undefined;
+    let cancelled = false;
     let everConnected = false;
-    setSocket(s);
     setStatus(navigator.onLine ? 'connecting' : 'offline');
 
     const onConnect = () => {
@@ -70,21 +71,41 @@ export function RealtimeProvider({ userId, onUnauthenticated, children }: Realti
     // the heartbeat notices); when the browser says it is offline, believe it,
     // so waiting messages show as waiting, and come back as soon as it is online.
     const wentOffline = () => {
-      s.disconnect();
+      s?.disconnect();
       setStatus('offline');
     };
     const cameOnline = () => {
-      if (!s.connected) {
+      if (s && !s.connected) {
         setStatus('reconnecting');
         s.connect();
       }
     };
-    s.on('connect', onConnect);
-    s.on('disconnect', onDisconnect);
-    s.on('connect_error', onConnectError);
-    window.addEventListener('offline', wentOffline);
-    window.addEventListener('online', cameOnline);
+    const open = () => {
+      import('socket.io-client').then(
+        ({ io }) => {
+          if (cancelled) return;
+          s = io({ path: '/socket.io', transports: ['websocket', 'polling'], withCredentials: true });
+          s.on('connect', onConnect);
+          s.on('disconnect', onDisconnect);
+          s.on('connect_error', onConnectError);
+          window.addEventListener('offline', wentOffline);
+          window.addEventListener('online', cameOnline);
+          setSocket(s);
+        },
+        () => {
+          // The library itself could not be fetched (the network went): try again once the browser is back online.
+          if (cancelled) return;
+          setStatus('offline');
+          window.addEventListener('online', open, { once: true });
+        },
+      );
+    };
+    open();
     return () => {
+      cancelled = true;
+      window.removeEventListener('online', open);
+      setSocket(null);
+      if (!s) return;
       window.removeEventListener('offline', wentOffline);
       window.removeEventListener('online', cameOnline);
       s.off('connect', onConnect);

@@ -23,14 +23,29 @@ const demoShops = {
       equipmentNotes: 'Boring and honing for iron blocks up to eight cylinders; sleeves fitted in house; head surfacing and valve work.' },
     rates: { bore: 3_200, hone: 2_800, deck: 16_500, sleeve: 21_000, 'head-resurface': 9_000, 'valve-job': 42_000 },
   },
+  'floor@orrinvale.test': {
+    profile: { name: 'Orrinvale Engine Machining', country: 'United States', region: 'Oregon', city: 'Bend', takesShipped: true, turnaroundDays: 10,
+      capabilities: ['clean', 'crack-test', 'bore', 'hone', 'plateau-hone', 'torque-plate-hone', 'deck', 'cam-bore', 'balance'],
+      equipmentNotes: 'Climate-controlled inspection room at 20 °C; air gauging and dial bore gauges; profilometer for Ra and Rk on request.' },
+    rates: { clean: 11_000, 'crack-test': 7_500, bore: 4_000, hone: 3_000, 'plateau-hone': 2_000, 'torque-plate-hone': 3_500, deck: 21_000, 'cam-bore': 38_000, balance: 29_000 },
+  },
+  'office@saltreed.test': {
+    profile: { name: 'Saltreed Cylinder & Head', country: 'United States', region: 'Georgia', city: 'Savannah', takesShipped: true, turnaroundDays: 9,
+      capabilities: ['clean', 'bore', 'hone', 'torque-plate-hone', 'deck', 'sleeve', 'head-resurface', 'valve-job'],
+      equipmentNotes: 'Marine and industrial blocks a speciality; sleeving up to 5 in bores; head and deck surfacing.' },
+    rates: { clean: 8_500, bore: 3_000, hone: 2_400, 'torque-plate-hone': 2_900, deck: 15_000, sleeve: 19_500, 'head-resurface': 8_500, 'valve-job': 39_000 },
+  },
 } as const;
 
 export const demoAccounts = [
   { role: 'admin', email: 'admin@tenthmark.test', displayName: 'Perrin Oakhollow (Tenthmark staff)' },
   { role: 'builder', email: 'juno@builders.test', displayName: 'Juno Brackenridge' },
   { role: 'builder', email: 'teodor@builders.test', displayName: 'Teodor Halvecka' },
+  { role: 'builder', email: 'mireille@builders.test', displayName: 'Mireille Ostrander' },
   { role: 'shop', email: 'bench@lanternhill.test', displayName: 'Lantern Hill Machine Works' },
   { role: 'shop', email: 'desk@kessrow.test', displayName: 'Kessrow Bore & Deck' },
+  { role: 'shop', email: 'floor@orrinvale.test', displayName: 'Orrinvale Engine Machining' },
+  { role: 'shop', email: 'office@saltreed.test', displayName: 'Saltreed Cylinder & Head' },
 ] as const;
 
 /** Seeds the demo scenario when the database has no users; resolves to whether it seeded. */

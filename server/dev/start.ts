@@ -12,6 +12,7 @@ import { startGithubStandIn } from './github-stand-in';
 import { startMaildev } from './maildev';
 import { startPaymentsStandIn } from './payments-stand-in';
 import { ensureCluster, ensureDatabase } from './postgres';
+import { buildDemoScenario } from './demo-scenario';
 import { DEMO_PASSWORD, demoAccounts, seedIfEmpty } from './seed';
 
 const root = fileURLToPath(new URL('../..', import.meta.url));
@@ -66,6 +67,7 @@ try {
   }
 
   let paymentsNote = 'the provider (STRIPE_SECRET_KEY)';
+  let localPayments = false;
   if (config.payments.apiUrl && config.payments.secretKey === 'sk_test_tenthmark_local') {
     const standIn = await startPaymentsStandIn({
       port: config.payments.standInPort,
@@ -75,6 +77,7 @@ try {
     });
     cleanups.push(() => standIn.close());
     paymentsNote = `local stand-in on 127.0.0.1:${config.payments.standInPort}`;
+    localPayments = true;
   }
 
   let client;
@@ -100,6 +103,17 @@ try {
 
   const app = await startServer({ ...config, databaseUrl }, { client, prettyLogs: process.stdout.isTTY });
   cleanups.push(() => app.close());
+
+  if (seeded && localPayments) {
+    // The demo jobs go through the running app and the payment stand-in, like a person's would.
+    step('building the demo jobs (every state, about a minute) …');
+    const scenarioPool = createPool(databaseUrl, 2);
+    const made = await buildDemoScenario({ appUrl: app.url, db: createDb(scenarioPool), log: (line) => step(line) });
+    await scenarioPool.end();
+    step(`demo scenario ready: ${made} jobs`);
+  } else if (seeded) {
+    step('demo jobs skipped: they are built only against the local payment stand-in');
+  }
 
   console.log(`
   Tenthmark is running${dev ? ' (development, hot reload)' : ''}.

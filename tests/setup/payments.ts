@@ -1,3 +1,4 @@
+import { submitHostedPage } from '../../server/dev/payments-stand-in/page-client';
 import { mkdtempSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -19,15 +20,6 @@ export function sendWebhooksTo(standIn: Awaited<ReturnType<typeof startPaymentsS
 
 /** Fills in the stand-in's onboarding page as a shop owner would (the page's own form, submitted). */
 export async function completeOnboardingPage(url: string): Promise<void> {
-  const page = await fetch(url);
-  const html = await page.text();
-  const form = /<form[^>]*action="([^"]*)"[^>]*>([\s\S]*?)<\/form>/.exec(html);
-  if (!form) throw new Error('no form on the onboarding page');
-  const fields = new URLSearchParams();
-  for (const input of form[2].matchAll(/<input([^>]*)>/g)) {
-    const name = /name="([^"]*)"/.exec(input[1])?.[1];
-    if (name) fields.set(name, /value="([^"]*)"/.exec(input[1])?.[1] ?? '');
-  }
-  const done = await fetch(new URL(form[1].replaceAll('&amp;', '&'), url), { method: 'POST', body: fields, redirect: 'manual' });
+  const done = await submitHostedPage(url);
   if (done.status !== 303) throw new Error(`the onboarding page answered ${done.status}`);
 }

@@ -1,3 +1,4 @@
+import { postForm, readForm, submitHostedPage } from '../../../server/dev/payments-stand-in/page-client';
 import { mkdtempSync, rmSync } from 'node:fs';
 import { createServer, type IncomingHttpHeaders } from 'node:http';
 import type { AddressInfo } from 'node:net';
@@ -112,35 +113,10 @@ export async function waitFor<T>(check: () => T | undefined | false, timeoutMs =
   }
 }
 
-/** The first form's action and its fields' current values, from a plain HTML page. */
-export function readForm(html: string, index = 0): { action: string; fields: Record<string, string> } {
-  const forms = [...html.matchAll(/<form[^>]*action="([^"]*)"[^>]*>([\s\S]*?)<\/form>/g)];
-  const form = forms[index];
-  if (!form) throw new Error(`no form #${index} on the page`);
-  const fields: Record<string, string> = {};
-  for (const input of form[2].matchAll(/<input([^>]*)>/g)) {
-    const name = /name="([^"]*)"/.exec(input[1])?.[1];
-    if (name) fields[name] = /value="([^"]*)"/.exec(input[1])?.[1] ?? '';
-  }
-  return { action: form[1].replaceAll('&amp;', '&'), fields };
-}
-
-export async function postForm(url: string, fields: Record<string, string>) {
-  return fetch(url, {
-    method: 'POST',
-    headers: { 'content-type': 'application/x-www-form-urlencoded' },
-    body: new URLSearchParams(fields).toString(),
-    redirect: 'manual',
-  });
-}
+export { postForm, readForm };
 
 /** Opens the hosted payment page and submits a card; returns the answer (redirects not followed). */
-export async function payOnPage(sessionUrl: string, cardNumber: string) {
-  const page = await fetch(sessionUrl);
-  if (page.status !== 200) throw new Error(`payment page answered ${page.status}`);
-  const form = readForm(await page.text());
-  return postForm(new URL(form.action, sessionUrl).toString(), { ...form.fields, card_number: cardNumber });
-}
+export const payOnPage = (sessionUrl: string, cardNumber: string) => submitHostedPage(sessionUrl, { card_number: cardNumber });
 
 export async function createSession(stripe: Stripe, overrides: Partial<Stripe.Checkout.SessionCreateParams> = {}) {
   return stripe.checkout.sessions.create({

@@ -95,16 +95,15 @@ function listInWords(items: string[]): string {
   return `${items.slice(0, -1).join(', ')} and ${items[items.length - 1]}`;
 }
 
+/** One figure: a term and its value, and a note as a second description (a <dl> allows one <div> per group, no deeper). */
 function Row({ label, value, testId, note }: { label: ReactNode; value: ReactNode; testId?: string; note?: ReactNode }) {
   return (
-    <div className="flex flex-col gap-0.5 border-t border-slate-200 pt-2 first:border-t-0 first:pt-0">
-      <div className="flex flex-wrap items-baseline justify-between gap-x-3">
-        <dt className="text-sm text-ink-soft">{label}</dt>
-        <dd className="font-semibold tabular-nums text-ink" data-testid={testId}>
-          {value}
-        </dd>
-      </div>
-      {note && <p className="text-xs text-ink-soft">{note}</p>}
+    <div className="flex flex-wrap items-baseline justify-between gap-x-3 gap-y-0.5 border-t border-slate-200 pt-2 first:border-t-0 first:pt-0">
+      <dt className="text-sm text-ink-soft">{label}</dt>
+      <dd className="font-semibold tabular-nums text-ink" data-testid={testId}>
+        {value}
+      </dd>
+      {note && <dd className="basis-full text-xs text-ink-soft">{note}</dd>}
     </div>
   );
 }
@@ -170,49 +169,53 @@ export function JobFiguresPanel({ input, title = 'Figures as you type', classNam
 
       <div>
         <h3 className="font-bold text-ink">Bore sizes</h3>
-        <dl className="mt-1 flex flex-col gap-2">
-          {sized ? (
-            <>
-              <Row
-                label="Finished bore"
-                value={formatLength(sized.finishedBore, unit)}
-                testId="job-finished-bore"
-                note={`Piston plus the middle of its clearance range (${formatLength(sized.targetClearance, unit)}).`}
-              />
-              <Row
-                label="Bore to, before the hone"
-                value={formatLength(sized.boreTo, unit)}
-                testId="job-bore-to"
-                note={
-                  <>
-                    <CommonPracticeTag />
-                    leaves {formatLength(allowance, unit)} on the diameter for the hone; the shop sets its own allowance.
-                  </>
-                }
-              />
-            </>
-          ) : (
+        <div className="mt-1 flex flex-col gap-2">
+          {!sized && (
             <div className="text-sm text-ink-soft">
               {missing.finished.length < 3 ? <StillToEnter items={missing.finished} /> : <p>Give the piston diameter and its clearance range to see the finished bore.</p>}
             </div>
           )}
-          {oversize !== undefined ? (
-            <Row
-              label="Oversize over stock"
-              value={formatLengthChange(oversize, unit)}
-              testId="job-oversize"
-              note={
-                oversize < 0
-                  ? 'Smaller than the stock bore: check the figures.'
-                  : finalBore?.from === 'target'
-                    ? 'Target bore minus stock bore.'
-                    : 'Finished bore minus stock bore.'
-              }
-            />
-          ) : (
-            <p className="text-sm text-ink-soft">The oversize shows once the stock bore and a target bore or piston size are in.</p>
+          {(sized || oversize !== undefined) && (
+            <dl className="flex flex-col gap-2">
+              {sized && (
+                <>
+                  <Row
+                    label="Finished bore"
+                    value={formatLength(sized.finishedBore, unit)}
+                    testId="job-finished-bore"
+                    note={`Piston plus the middle of its clearance range (${formatLength(sized.targetClearance, unit)}).`}
+                  />
+                  <Row
+                    label="Bore to, before the hone"
+                    value={formatLength(sized.boreTo, unit)}
+                    testId="job-bore-to"
+                    note={
+                      <>
+                        <CommonPracticeTag />
+                        leaves {formatLength(allowance, unit)} on the diameter for the hone; the shop sets its own allowance.
+                      </>
+                    }
+                  />
+                </>
+              )}
+              {oversize !== undefined && (
+                <Row
+                  label="Oversize over stock"
+                  value={formatLengthChange(oversize, unit)}
+                  testId="job-oversize"
+                  note={
+                    oversize < 0
+                      ? 'Smaller than the stock bore: check the figures.'
+                      : finalBore?.from === 'target'
+                        ? 'Target bore minus stock bore.'
+                        : 'Finished bore minus stock bore.'
+                  }
+                />
+              )}
+            </dl>
           )}
-        </dl>
+          {oversize === undefined && <p className="text-sm text-ink-soft">The oversize shows once the stock bore and a target bore or piston size are in.</p>}
+        </div>
       </div>
       <GuidanceCaution />
     </section>

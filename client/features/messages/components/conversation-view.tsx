@@ -320,21 +320,24 @@ export function ConversationView({ thread, side, jobStatus, focusComposer = fals
               {earlier.map(renderMessage)}
             </ol>
           )}
-          <ol role="log" aria-live="polite" aria-relevant="additions" aria-label="Latest messages" className="flex flex-col gap-2">
-            {recent.map(renderMessage)}
-            {pending.map((entry) => (
-              <MessageItem
-                key={`${me}:${entry.clientId}`}
-                own
-                authorName="You"
-                body={entry.body}
-                photos={entry.photos}
-                at={entry.queuedAt}
-                state={entry.state}
-                footer={<PendingFooter entry={entry} connected={connected} onRemove={() => outbox?.remove(entry.clientId)} onRetry={() => outbox?.retry(entry.clientId)} />}
-              />
-            ))}
-          </ol>
+          {/* The live region wraps the list: a role on the <ol> itself would stop it being a list for its <li> items. */}
+          <div role="log" aria-live="polite" aria-relevant="additions" aria-label="Latest messages">
+            <ol aria-label="Latest messages" className="flex flex-col gap-2">
+              {recent.map(renderMessage)}
+              {pending.map((entry) => (
+                <MessageItem
+                  key={`${me}:${entry.clientId}`}
+                  own
+                  authorName="You"
+                  body={entry.body}
+                  photos={entry.photos}
+                  at={entry.queuedAt}
+                  state={entry.state}
+                  footer={<PendingFooter entry={entry} connected={connected} onRemove={() => outbox?.remove(entry.clientId)} onRetry={() => outbox?.retry(entry.clientId)} />}
+                />
+              ))}
+            </ol>
+          </div>
           {history.data && delivered.length === 0 && pending.length === 0 && (
             <p className="my-auto text-center text-ink-soft">{canWrite ? 'No messages yet. Write the first one below.' : 'No messages.'}</p>
           )}

@@ -1,0 +1,83 @@
+import { eq, sql } from 'drizzle-orm';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { createDb, createPool, type Database } from '../../server/db/client';
+import { jobs } from '../../server/db/schema';
+import { inspectionRecords } from '../../server/db/schema-work';
+import { buildDemoScenario } from '../../server/dev/demo-scenario';
+import { demoAccounts, seedIfEmpty } from '../../server/dev/seed';
+import { startServer, type RunningServer } from '../../server/runtime';
+import { jobBalance } from '../../server/modules/payments/ledger';
+import { sendWebhooksTo, startTestStandIn, TEST_WEBHOOK_SECRET } from '../setup/payments';
+import { freePort } from '../setup/ports';
+import { createTestDatabase, signedIn, testConfig } from '../setup/test-env';
+
+let database: Awaited<ReturnType<typeof createTestDatabase>>;
+let pool: ReturnType<typeof createPool>;
+let db: Database;
+let pay: Awaited<ReturnType<typeof startTestStandIn>>;
+let server: RunningServer;
+let made = 0;
+
+beforeAll(async () => {
+  database = await createTestDatabase();
+  pool = createPool(database.url, 4);
+  db = createDb(pool);
+  await seedIfEmpty(db);
+  pay = await startTestStandIn();
+  const port = await freePort();
+  server = await startServer(
+    testConfig(database.url, { PORT: String(port), APP_URL: `http://127.0.0.1:${port}`, STRIPE_API_URL: pay.standIn.url, STRIPE_WEBHOOK_SECRET: TEST_WEBHOOK_SECRET }),
+    { migrate: false },
+  );
+  await sendWebhooksTo(pay.standIn, server.url);
+  made = await buildDemoScenario({ appUrl: server.url, db });
+}, 180_000);
+afterAll(async () => {
+  await server?.close();
+  await pay?.standIn.close();
+  await pool?.end();
+  await database?.drop();
+});
+
+describe('the demo scenario', () => {
+  it('has jobs in every state, each built through the app', async () => {
+    expect(made).toBe(14);
+    const rows = await db.select({ status: jobs.status, n: sql<number>`count(*)::int` }).from(jobs).groupBy(jobs.status);
+    const byStatus = Object.fromEntries(rows.map((r) => [r.status, r.n]));
+    for (const status of ['draft', 'open', 'awarded', 'funded', 'in_work', 'inspection_submitted', 'completed', 'disputed', 'resolved', 'cancelled']) {
+      expect(byStatus[status], status).toBeGreaterThan(0);
+    }
+  });
+
+  it('keeps the ledger whole on every job: paid in = released + fee + refunded + held', async () => {
+    for (const job of await db.select({ id: jobs.id, status: jobs.status }).from(jobs)) {
+      const b = await jobBalance(db, job.id);
+      expect(b.paidIn, job.status).toBe(b.released + b.fee + b.refunded + b.held);
+      if (job.status === 'completed' || job.status === 'resolved') expect(b.held).toBe(0);
+      if (job.status === 'funded' || job.status === 'in_work' || job.status === 'disputed') expect(b.held).toBeGreaterThan(0);
+    }
+  });
+
+  it('gives every demo shop a rating and shows it in the directory', async () => {
+    const visitor = await signedIn(server.app, { email: demoAccounts[1].email, password: 'tenthmark-demo' });
+    const { body } = await visitor.get('/api/shops?pageSize=50');
+    expect(body.shops.length).toBeGreaterThanOrEqual(4);
+    for (const shop of body.shops) expect(shop.rating?.count, shop.name).toBeGreaterThan(0);
+    expect(body.shops.filter((s: { verified: boolean }) => s.verified).length).toBe(2);
+  });
+
+  it('stores inspection records whose results the server judged: accepted ones pass, the disputed ones fail', async () => {
+    const records = await db.select({ status: inspectionRecords.status, pass: inspectionRecords.pass, jobStatus: jobs.status }).from(inspectionRecords).innerJoin(jobs, eq(jobs.id, inspectionRecords.jobId));
+    expect(records.filter((r) => r.status === 'accepted').every((r) => r.pass)).toBe(true);
+    expect(records.filter((r) => r.jobStatus === 'disputed' || r.jobStatus === 'resolved').every((r) => !r.pass)).toBe(true);
+    expect(records.length).toBeGreaterThanOrEqual(7);
+  });
+
+  it('has an open dispute with both sides’ statements in the admin queue', async () => {
+    const admin = await signedIn(server.app, { email: 'admin@tenthmark.test', password: 'tenthmark-demo' });
+    const { body } = await admin.get('/api/admin/disputes');
+    expect(body.disputes).toHaveLength(1);
+    expect(body.disputes[0]).toMatchObject({ answered: true, status: 'open' });
+    expect(body.disputes[0].heldCents).toBeGreaterThan(0);
+  });
+});

@@ -1,0 +1,241 @@
+import AxeBuilder from '@axe-core/playwright';
+import type { Page } from 'playwright-core';
+import { describe, expect, it } from 'vitest';
+import type { InspectionInput } from '../../shared/schemas/inspection';
+import type { JobDetail } from '../../shared/schemas/jobs';
+import { DEMO_PASSWORD, demoAccounts } from '../../server/dev/seed';
+import { bidInput, inDays, jobInput } from '../factories';
+import { browserSuite } from '../setup/e2e-suite';
+
+const suite = browserSuite();
+const builderEmail = demoAccounts.find((a) => a.email === 'juno@builders.test')!.email;
+const shopEmail = demoAccounts.find((a) => a.email === 'bench@lanternhill.test')!.email;
+const adminEmail = demoAccounts.find((a) => a.role === 'admin')!.email;
+
+/** WCAG 2.0 and 2.1, levels A and AA: what the product promises. */
+const WCAG_TAGS = ['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa'];
+
+/** An 8-cylinder record (invented demo readings), valid for the job `jobInput()` makes. */
+const record: InspectionInput = {
+  conditions: { unit: 'in', gaugeResolution: 0.0001, temperatureC: 21, torquePlate: true },
+  cylinders: Array.from({ length: 8 }, () => ({ top: { thrust: 4.0311, axial: 4.0311 }, middle: { thrust: 4.031, axial: 4.0311 }, bottom: { thrust: 4.031, axial: 4.031 }, piston: 4.028 })),
+  deck: { readings: [0.001, 0.0015, 0.001, 0.002], raUm: 0.9 },
+  finish: { mode: 'values', raUm: 0.45, rkUm: 0.6, rpkUm: 0.15, rvkUm: 1.2 },
+  crosshatch: { mode: 'measured', includedAngleDeg: 45 },
+  signedOffBy: 'Ada Quernfield',
+  notes: '',
+};
+
+/** The page has drawn what it shows: its main heading is there and nothing is still loading. */
+async function settled(page: Page) {
+  await page.locator('main h1').first().waitFor();
+  await page.waitForFunction(() => !/Loading/.test(document.querySelector('main')?.textContent ?? 'Loading'));
+  // Fonts change text metrics and so the colours axe samples behind text.
+  await page.evaluate(() => document.fonts.ready);
+}
+
+/**
+ * Opens each path and runs axe over it; returns one readable line per serious
+ * or critical violation (page, rule, help text, the elements it found), so a
+ * failing run names every problem on every page at once.
+ */
+async function audit(page: Page, paths: string[]): Promise<string[]> {
+  const problems: string[] = [];
+  for (const path of paths) {
+    await page.goto(suite.url(path));
+    await settled(page);
+    const { violations } = await new AxeBuilder({ page }).withTags(WCAG_TAGS).analyze();
+    for (const violation of violations) {
+      if (violation.impact !== 'serious' && violation.impact !== 'critical') continue;
+      const targets = violation.nodes
+        .slice(0, 6)
+        .map((node) => `      ${node.target.join(' ')}${node.failureSummary ? ` — ${node.failureSummary.replace(/\s+/g, ' ').trim()}` : ''}`)
+        .join('\n');
+      const more = violation.nodes.length > 6 ? `\n      … and ${violation.nodes.length - 6} more` : '';
+      problems.push(`${path}: [${violation.impact}] ${violation.id}: ${violation.help} (${violation.helpUrl})\n${targets}${more}`);
+    }
+  }
+  return problems;
+}
+
+const report = (problems: string[]) => `\n${problems.join('\n')}\n`;
+
+/** What shows that the focused element has focus: an outline or a ring (box-shadow) that is not nothing. */
+const focusIndicator = (page: Page) =>
+  page.evaluate(() => {
+    const el = document.activeElement as HTMLElement | null;
+    if (!el || el === document.body) return { tag: 'body', outline: 'none', boxShadow: 'none' };
+    const style = getComputedStyle(el);
+    const outline = style.outlineStyle === 'none' || parseFloat(style.outlineWidth) === 0 ? 'none' : `${style.outlineStyle} ${style.outlineWidth} ${style.outlineColor}`;
+    return { tag: `${el.tagName.toLowerCase()} ${el.textContent?.trim().slice(0, 40) ?? ''}`.trim(), outline, boxShadow: style.boxShadow };
+  });
+
+/** The focused element's name as this app gives it: aria-label, the text of its <label>, or its own text. */
+const focusedName = (page: Page) =>
+  page.evaluate(() => {
+    const el = document.activeElement as HTMLElement | null;
+    if (!el || el === document.body) return '';
+    const label = el.id ? document.querySelector(`label[for="${CSS.escape(el.id)}"]`) : el.closest('label');
+    return (el.getAttribute('aria-label') ?? label?.textContent ?? el.textContent ?? '').replace(/\s+/g, ' ').trim();
+  });
+
+/** Presses Tab (only the keyboard) until the focused element's name is `name`; fails after `max` presses. */
+async function tabTo(page: Page, name: string | RegExp, max = 80) {
+  const seen: string[] = [];
+  for (let i = 0; i < max; i++) {
+    await page.keyboard.press('Tab');
+    const current = await focusedName(page);
+    if (typeof name === 'string' ? current === name : name.test(current)) return;
+    seen.push(current);
+  }
+  throw new Error(`Tab never reached “${name}” in ${max} presses; it passed: ${seen.join(' | ')}`);
+}
+
+/** A page in a context of its own with nobody signed in (the suite signs in, so its cookies are dropped). */
+async function signedOutPage() {
+  const page = await suite.pageFor(builderEmail, '/dashboard');
+  await page.context().clearCookies();
+  return page;
+}
+
+describe('accessibility (WCAG 2.1 A and AA) of every main page, in a real browser', () => {
+  it('when a visitor is signed out, then no public page has a serious or critical violation', async () => {
+    const { shops } = (await (await fetch(suite.url('/api/shops'))).json()) as { shops: Array<{ id: string }> };
+    const page = await signedOutPage();
+    const problems = await audit(page, ['/', '/signin', '/signup', '/forgot-password', '/shops', `/shops/${shops[0].id}`, '/calculator']);
+    expect(problems, report(problems)).toEqual([]);
+  }, 60_000);
+
+  it('when a builder has a paid job, an open job with a bid and a conversation, then none of their pages has a serious or critical violation', async () => {
+    const { job: funded, builder, shop } = await suite.fundedJob(builderEmail, shopEmail, { title: 'Paid bore job for the accessibility check' });
+    const { job: open } = await builder<{ job: JobDetail }>('POST', '/api/jobs', jobInput({ title: 'Open hone job for the accessibility check' }));
+    await builder('POST', `/api/jobs/${open.id}/publish`);
+    await shop('POST', `/api/jobs/${open.id}/bids`, bidInput({ note: 'Torque plate honing included.' }));
+    const { thread } = await shop<{ thread: { id: string } }>('POST', `/api/jobs/${funded.id}/threads`);
+    await shop('POST', `/api/threads/${thread.id}/messages`, { clientId: 'a11y-check-0001', body: 'The block is booked in for next Tuesday.' });
+
+    const page = await suite.pageFor(builderEmail, '/dashboard');
+    const problems = await audit(page, ['/dashboard', '/jobs', '/jobs/new', `/jobs/${funded.id}?thread=${thread.id}`, `/jobs/${open.id}`, '/messages', '/money']);
+    expect(problems, report(problems)).toEqual([]);
+  }, 90_000);
+
+  it('when a shop has a job in work, then none of its pages, the inspection entry included, has a serious or critical violation', async () => {
+    const { job, shop } = await suite.fundedJob(builderEmail, shopEmail, { title: 'Block in the shop for the accessibility check' });
+    await shop('POST', `/api/jobs/${job.id}/milestones`, { kind: 'block_received', note: 'On the bench.' });
+
+    const page = await suite.pageFor(shopEmail, '/dashboard');
+    const problems = await audit(page, ['/dashboard', '/board', '/bids', '/shop/profile', `/jobs/${job.id}`, `/jobs/${job.id}/inspection/new`]);
+    expect(problems, report(problems)).toEqual([]);
+  }, 90_000);
+
+  it('when a dispute is open, then none of the admin pages, the case included, has a serious or critical violation', async () => {
+    const { job, shop, builder } = await suite.fundedJob(builderEmail, shopEmail, { title: 'Disputed job for the accessibility check' });
+    await shop('POST', `/api/jobs/${job.id}/milestones`, { kind: 'block_received', note: 'On the bench.' });
+    await shop('POST', `/api/jobs/${job.id}/inspection`, record);
+    const { dispute } = await builder<{ dispute: { id: string } }>('POST', `/api/jobs/${job.id}/dispute`, {
+      reason: 'record_outside_limits',
+      statement: 'My own bore gauge reads cylinder four over the taper limit.',
+    });
+
+    const page = await suite.pageFor(adminEmail, '/dashboard');
+    const problems = await audit(page, [
+      '/dashboard',
+      '/admin/disputes',
+      `/admin/disputes/${dispute.id}`,
+      '/admin/people',
+      '/admin/shops',
+      '/admin/ledger',
+      '/admin/settings',
+      '/admin/audit',
+    ]);
+    expect(problems, report(problems)).toEqual([]);
+  }, 90_000);
+});
+
+describe('keyboard use, in a real browser', () => {
+  it('when a person moves by Tab, then the focused link, button or input shows a visible focus indicator', async () => {
+    const page = await signedOutPage();
+    const stops: Array<{ path: string; name: string | RegExp }> = [
+      { path: '/', name: 'Skip to the content' },
+      { path: '/', name: 'Shops' },
+      { path: '/signin', name: 'E-mail' },
+      { path: '/signin', name: 'Sign in' },
+      { path: '/shops', name: /^Search/ },
+      { path: '/calculator', name: /^Bore/ },
+    ];
+    const missing: string[] = [];
+    for (const stop of stops) {
+      await page.goto(suite.url(stop.path));
+      await settled(page);
+      await tabTo(page, stop.name);
+      const shown = await focusIndicator(page);
+      if (shown.outline === 'none' && shown.boxShadow === 'none') missing.push(`${stop.path}: ${shown.tag} has no outline and no ring when focused`);
+    }
+    expect(missing, report(missing)).toEqual([]);
+  }, 60_000);
+
+  it('when a builder signs in with the keyboard alone, then the workbench opens', async () => {
+    const page = await signedOutPage();
+    await page.goto(suite.url('/signin'));
+    await settled(page);
+    await tabTo(page, 'E-mail');
+    await page.keyboard.type(builderEmail);
+    await tabTo(page, 'Password');
+    await page.keyboard.type(DEMO_PASSWORD);
+    await page.keyboard.press('Enter');
+    await page.waitForURL(suite.url('/dashboard'));
+    await page.getByTestId('signed-in-as').waitFor();
+  }, 30_000);
+
+  it('when a builder fills the new job form with the keyboard alone, then the draft is saved and its page opens', async () => {
+    const page = await suite.pageFor(builderEmail, '/jobs/new');
+    await settled(page);
+    const typeInto = async (name: string, text: string) => {
+      await tabTo(page, name);
+      await page.keyboard.type(text);
+    };
+    await typeInto('Job title', 'Keyboard-only bore job for an inline four');
+    await typeInto('Engine', 'Inline four, 1990s');
+    // A closed drop-down list takes typed letters to choose its option.
+    await tabTo(page, 'Layout');
+    await page.keyboard.type('Inline');
+    await typeInto('Cylinders', '4');
+    // A radio group is one Tab stop; Space chooses the focused radio.
+    await tabTo(page, 'Cast iron');
+    await page.keyboard.press('Space');
+    await typeInto('Stock bore (in)', '3.500');
+    await typeInto('Stroke (in)', '3.25');
+    await typeInto('Target bore (in), optional', '3.530');
+    await tabTo(page, 'Piston type');
+    await page.keyboard.type('Forged');
+    await tabTo(page, 'Bore');
+    await page.keyboard.press('Space');
+    await tabTo(page, 'Hone');
+    await page.keyboard.press('Space');
+    await tabTo(page, 'I ship the parts to the shop');
+    await page.keyboard.press('Space');
+    await typeInto('Country', 'United States');
+    await typeInto('State, province or county', 'Ohio');
+    await typeInto('Town or city', 'Columbus');
+    // A date input takes its parts typed in the browser's order (month, day, year here).
+    const [year, month, day] = inDays(30).split('-');
+    await typeInto('Date you need the parts back', `${month}${day}${year}`);
+    await tabTo(page, 'Save draft');
+    await page.keyboard.press('Enter');
+
+    await page.waitForURL(/\/jobs\/[0-9a-f-]{36}$/).catch(async (error) => {
+      const marked = await page.locator('[aria-invalid="true"]').evaluateAll((els) => els.map((el) => `${(el as HTMLInputElement).labels?.[0]?.textContent ?? el.id} = “${(el as HTMLInputElement).value}”`));
+      throw new Error(`the draft was not saved; fields marked: ${marked.join(', ')}\n${error}`);
+    });
+    await page.getByRole('heading', { level: 1, name: 'Keyboard-only bore job for an inline four' }).waitFor();
+    const jobId = new URL(page.url()).pathname.split('/').pop()!;
+    const builder = await suite.apiAs(builderEmail);
+    const { job } = await builder<{ job: JobDetail }>('GET', `/api/jobs/${jobId}`);
+    expect(job.spec).toMatchObject({ layout: 'inline', cylinders: 4, blockMaterial: 'cast-iron', stockBore: 3.5, stroke: 3.25, targetBore: 3.53, pistonType: 'forged', logistics: 'ship', neededBy: inDays(30) });
+    expect(job.spec.operations.map((op) => [op.code, op.quantity])).toEqual([
+      ['bore', 4],
+      ['hone', 4],
+    ]);
+    expect(suite.consoleErrors).toEqual([]);
+  }, 60_000);
+});
