@@ -18,6 +18,17 @@ export default defineConfig({
     outDir: 'dist/client',
     emptyOutDir: true,
     sourcemap: true,
+    // .vite/manifest.json: which chunks each page loads (npm run bench:client reads it).
+    manifest: true,
+    rolldownOptions: {
+      output: {
+        codeSplitting: {
+          // Everything the entry imports statically goes into the entry chunk itself, as one file,
+          // instead of being cut into small shared chunks that each page would fetch separately.
+          groups: [{ name: 'index', tags: ['$initial'] }],
+        },
+      },
+    },
   },
   server: {
     host: '127.0.0.1',

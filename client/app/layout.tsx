@@ -1,4 +1,3 @@
-import { outboxStorageKey } from '@client/features/messages/outbox';
 import { useQueryClient } from '@tanstack/react-query';
 import { lazy, Suspense, useEffect, useState } from 'react';
 import { NavLink, Outlet, ScrollRestoration, useNavigate } from 'react-router-dom';
@@ -97,7 +96,8 @@ function Account({ me }: { me: Me }) {
     mutationConfig: {
       onSuccess: () => {
         // Unsent messages stay with the account, not on a computer someone else may use next.
-        window.localStorage.removeItem(outboxStorageKey(me.id));
+        // (The outbox module came with the live conversations at sign-in, so this import is already loaded.)
+        void import('@client/features/messages/outbox').then(({ outboxStorageKey }) => window.localStorage.removeItem(outboxStorageKey(me.id)));
         void import('sonner').then(({ toast }) => toast.success('You are signed out.'));
         navigate('/', { replace: true });
       },

@@ -143,6 +143,24 @@ function sizer(dir: string) {
 
 const kb = (bytes: number) => (bytes / 1024).toFixed(1);
 
+/** A chunk's source, or for a chunk of library code with no single source, the package most of it comes from (read from its source map). */
+function describe(dir: string, chunk: ManifestChunk): string {
+  if (chunk.src) return chunk.src.replace(/^.*node_modules\//, '');
+  try {
+    const { sources } = JSON.parse(readFileSync(join(dir, `${chunk.file}.map`), 'utf8')) as { sources: string[] };
+    const counts = new Map<string, number>();
+    for (const source of sources) {
+      const pkg = /node_modules\/((?:@[^/]+\/)?[^/]+)/.exec(source)?.[1];
+      if (pkg) counts.set(pkg, (counts.get(pkg) ?? 0) + 1);
+    }
+    const top = [...counts].sort((a, b) => b[1] - a[1])[0];
+    if (top) return `${top[0]} (library)`;
+  } catch {
+    // No source map: fall back to the file name.
+  }
+  return chunk.file;
+}
+
 function printSizes(dir: string) {
   const { manifest, entryKey, firstLoad, deferred, measure } = sizer(dir);
   const entry = firstLoad([entryKey]);
@@ -176,7 +194,7 @@ function printSizes(dir: string) {
     for (const key of deferred) {
       const extra = firstLoad([key]).jsFiles.filter((file) => !entry.jsFiles.includes(file));
       const gzip = extra.reduce((sum, file) => sum + measure(file).gzip, 0);
-      console.log(`  ${(manifest[key].src ?? key).padEnd(44)} ${kb(gzip).padStart(7)} KB gzip  (${extra.join(', ')})`);
+      console.log(`  ${describe(dir, manifest[key]).padEnd(44)} ${kb(gzip).padStart(7)} KB gzip  (${extra.join(', ')})`);
     }
   }
   console.log(`\nAim: at most ${AIM_KB} KB of gzipped JavaScript for the first load of / and /board`);

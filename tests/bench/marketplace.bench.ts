@@ -1,14 +1,20 @@
 /**
- * `npm run bench`: the job board and job detail under load, on a throwaway
- * PostgreSQL cluster seeded with 10,000 open jobs. Prints p50, p95, p99 and
- * requests per second for each; asserts nothing.
+ * `npm run bench`: the job board, job detail and message posting under load,
+ * on a throwaway PostgreSQL cluster seeded with 10,000 open jobs. Prints p50,
+ * p95, p99 and requests per second for each, then serves the same board query
+ * from a bare node:http + pg handler (no Express, no session, no validation)
+ * as a baseline and prints the ratio of the two; asserts nothing.
  */
 import autocannon from 'autocannon';
 import { sql } from 'drizzle-orm';
 import { mkdtempSync, rmSync } from 'node:fs';
+import { createServer, type Server } from 'node:http';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+import pg from 'pg';
+import { boardQuerySchema } from '../../shared/schemas/jobs';
 import { createDb, createPool, runMigrations } from '../../server/db/client';
+import { boardRowsQuery } from '../../server/modules/jobs/jobs.repository';
 import { ensureCluster, ensureDatabase } from '../../server/dev/postgres';
 import { loadConfig } from '../../server/env';
 import { hashPassword } from '../../server/lib/auth/passwords';
@@ -21,6 +27,8 @@ const DURATION_S = Number(process.env.BENCH_SECONDS ?? 10);
 const dir = mkdtempSync(join(tmpdir(), 'tenthmark-bench-'));
 const cluster = ensureCluster({ dir, port: await freePort(), throwaway: true });
 let server: Awaited<ReturnType<typeof startServer>> | undefined;
+let bare: Server | undefined;
+let barePool: pg.Pool | undefined;
 try {
   await ensureDatabase(cluster, 'bench');
   const url = cluster.url('bench');
@@ -44,9 +52,24 @@ try {
     FROM generate_series(1, ${JOBS}) AS g`);
   await db.execute(sql`ANALYZE`);
   const [{ id: sampleJob }] = (await db.execute<{ id: string }>(sql`SELECT id FROM jobs ORDER BY published_at DESC LIMIT 1 OFFSET 500`)).rows;
+  // A conversation between the builder and the shop on that job, for message posting.
+  const [{ id: threadId }] = (
+    await db.execute<{ id: string }>(sql`INSERT INTO threads (job_id, shop_id) SELECT ${sampleJob}, id FROM shops LIMIT 1 RETURNING id`)
+  ).rows;
+  // The exact statements the app runs for the newest-first board page, for the bare baseline.
+  const boardSql = boardRowsQuery(db, boardQuerySchema.parse({ pageSize: '20' })).toSQL();
   await pool.end();
 
-  const config = loadConfig({ NODE_ENV: 'production', LOG_LEVEL: 'silent', DATABASE_URL: url, PORT: '0', SESSION_SECRET: 'bench-session-secret-123456', RATE_LIMIT_SIGNIN_MAX: '1000' });
+  const config = loadConfig({
+    NODE_ENV: 'production',
+    LOG_LEVEL: 'silent',
+    DATABASE_URL: url,
+    PORT: '0',
+    SESSION_SECRET: 'bench-session-secret-123456',
+    RATE_LIMIT_SIGNIN_MAX: '1000',
+    // The per-person message limit would turn a load test into a test of the limiter.
+    RATE_LIMIT_MESSAGES_PER_10S: '1000000',
+  });
   server = await startServer(config, { migrate: false });
   const base = `http://127.0.0.1:${server.port}`;
 
@@ -61,28 +84,81 @@ try {
   });
   if (login.status !== 200) throw new Error(`bench sign-in failed: ${login.status}`);
   const cookie = login.headers.get('set-cookie')!.split(';')[0];
+  const { csrfToken: token } = (await login.json()) as { csrfToken: string };
+  let sent = 0;
 
-  const cases = [
+  const cases: Array<{ name: string; path: string; post?: boolean }> = [
     { name: 'board, newest, 20 a page', path: '/api/jobs?pageSize=20' },
     { name: 'board, filtered (bore, cast iron, Ohio) and sorted by needed-by', path: '/api/jobs?operation=bore&material=cast-iron&region=Ohio&sort=needed-soonest' },
     { name: 'board, page 150 of 50-row pages', path: '/api/jobs?pageSize=50&page=150' },
     { name: 'job detail', path: `/api/jobs/${sampleJob}` },
+    { name: 'post a message (stored, fanned out, unread counts)', path: `/api/threads/${threadId}/messages`, post: true },
   ];
   console.log(`\n${JOBS.toLocaleString()} open jobs; ${DURATION_S} s per case, 20 connections, one app instance\n`);
-  console.log('case'.padEnd(70), 'p50 ms'.padStart(8), 'p95 ms'.padStart(8), 'p99 ms'.padStart(8), 'req/s'.padStart(9), 'errors'.padStart(7));
-  for (const c of cases) {
-    const result = await autocannon({ url: `${base}${c.path}`, connections: 20, duration: DURATION_S, headers: { cookie } });
+  const header = () => console.log('case'.padEnd(70), 'p50 ms'.padStart(8), 'p95 ms'.padStart(8), 'p99 ms'.padStart(8), 'req/s'.padStart(9), 'errors'.padStart(7));
+  const row = (name: string, result: autocannon.Result) => {
     const p95 = (result.latency as unknown as Record<string, number>).p95 ?? result.latency.p97_5;
     console.log(
-      c.name.padEnd(70),
+      name.padEnd(70),
       String(result.latency.p50).padStart(8),
       String(p95).padStart(8),
       String(result.latency.p99).padStart(8),
       result.requests.average.toFixed(0).padStart(9),
       String(result.errors + result.non2xx).padStart(7),
     );
+  };
+  header();
+  const results = new Map<string, autocannon.Result>();
+  for (const c of cases) {
+    const result = await autocannon({
+      url: `${base}${c.path}`,
+      connections: 20,
+      duration: DURATION_S,
+      headers: { cookie, ...(c.post ? { 'x-csrf-token': token, 'content-type': 'application/json' } : {}) },
+      ...(c.post
+        ? {
+            method: 'POST' as const,
+            // Each message has its own client id, as each browser message does.
+            setupClient: (client: autocannon.Client) => {
+              const next = () => client.setBody(JSON.stringify({ clientId: `bench-${process.pid}-${(sent += 1)}`, body: 'Bench message: bores measured, record on its way.' }));
+              next();
+              client.on('response', next);
+            },
+          }
+        : {}),
+    });
+    results.set(c.name, result);
+    row(c.name, result);
   }
+
+  // The baseline: the same two statements for the newest board page, served by node:http and pg alone.
+  barePool = new pg.Pool({ connectionString: url, max: 10 });
+  const countSql = `SELECT count(*)::int AS total FROM jobs WHERE status = 'open'`;
+  bare = createServer(async (_req, res) => {
+    try {
+      const [rows, count] = await Promise.all([barePool!.query(boardSql.sql, boardSql.params as unknown[]), barePool!.query(countSql)]);
+      res.writeHead(200, { 'content-type': 'application/json' });
+      res.end(JSON.stringify({ jobs: rows.rows, total: count.rows[0].total }));
+    } catch (error) {
+      res.writeHead(500);
+      res.end(String(error));
+    }
+  });
+  await new Promise<void>((resolve) => bare!.listen(0, '127.0.0.1', resolve));
+  const barePort = (bare.address() as { port: number }).port;
+  const baseline = await autocannon({ url: `http://127.0.0.1:${barePort}/`, connections: 20, duration: DURATION_S });
+  console.log('');
+  header();
+  row('baseline: newest board page, bare node:http + pg (same SQL)', baseline);
+  const app = results.get('board, newest, 20 a page')!;
+  console.log(
+    `\nthe app serves the newest board page at ${((app.requests.average / baseline.requests.average) * 100).toFixed(0)} % of the bare baseline's requests per second` +
+      ` (ratio ${(app.requests.average / baseline.requests.average).toFixed(2)}); p50 ${app.latency.p50} ms against ${baseline.latency.p50} ms` +
+      ` (session, CSRF, validation, logging and JSON shaping are the difference).`,
+  );
 } finally {
+  await new Promise((resolve) => (bare ? bare.close(resolve) : resolve(undefined)));
+  await barePool?.end();
   await server?.close();
   cluster.stop();
   rmSync(dir, { recursive: true, force: true });

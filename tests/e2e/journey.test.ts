@@ -321,5 +321,5 @@ describe('whole journeys through the marketplace, one browser per person', () =>
     await shot(b, 'job-paid-after-decline');
 
     expect(suite.consoleErrors, suite.consoleErrors.join('\n')).toEqual([]);
-  });
+  }, 60_000);
 });

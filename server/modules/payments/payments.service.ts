@@ -175,7 +175,13 @@ export async function applyPaymentFailed(deps: PaymentDeps, intent: Stripe.Payme
   const paymentId = intent.metadata?.payment_id;
   if (!paymentId) return;
   const message = intent.last_payment_error?.message ?? 'The payment did not go through.';
-  await deps.db.update(payments).set({ failureMessage: message, updatedAt: new Date() }).where(and(eq(payments.id, paymentId), eq(payments.status, 'pending')));
+  const [updated] = await deps.db
+    .update(payments)
+    .set({ failureMessage: message, updatedAt: new Date() })
+    .where(and(eq(payments.id, paymentId), eq(payments.status, 'pending')))
+    .returning({ jobId: payments.jobId });
+  // An open job page shows the refusal without a reload, as it shows a success.
+  if (updated) deps.hub?.jobChanged(updated.jobId, 'job_updated');
 }
 
 async function partiesOf(tx: Executor, jobId: string) {
