@@ -51,7 +51,7 @@ export default defineConfig({
           include: ['tests/api/**/*.test.ts', 'tests/realtime/**/*.test.ts', 'tests/e2e/**/*.test.ts'],
           environment: 'node',
           globalSetup: ['tests/setup/global-setup.ts'],
-          testTimeout: 30_000,
+          testTimeout: 60_000,
           hookTimeout: 120_000,
         },
       },

@@ -11,7 +11,10 @@ import { cn } from '@client/lib/cn';
 import { RealtimeProvider, useConnectionStatus } from '@client/lib/realtime';
 
 // Live conversations matter only once someone is signed in; loaded then, beside the socket itself.
-const MessagesLive = lazy(() => import('@client/features/messages/components/messages-live').then((m) => ({ default: m.MessagesLive })));
+// Should the chunk fail to load, the page still works (without live updates) rather than failing whole.
+const MessagesLive = lazy(() =>
+  import('@client/features/messages/components/messages-live').then((m) => ({ default: m.MessagesLive }), () => ({ default: () => null })),
+);
 
 interface NavItem {
   to: string;

@@ -1,9 +1,17 @@
 import { QueryClient, QueryClientProvider } from '@tanstack/react-query';
-import { Component, lazy, Suspense, type ErrorInfo, type ReactNode } from 'react';
+import { Component, lazy, Suspense, type ComponentType, type ErrorInfo, type ReactNode } from 'react';
+import type { ToasterProps } from 'sonner';
 import { ApiError } from '@client/lib/api-client';
 
-// The toast library is fetched right after the first render: nothing toasts before someone acts, and a toast raised earlier still shows once it is mounted.
-const Toaster = lazy(() => import('sonner').then((m) => ({ default: m.Toaster })));
+// The toast library is fetched right after the first render: nothing toasts before someone acts, and a toast
+// raised earlier still shows once it is mounted. If it cannot be fetched, the app goes on without toasts.
+const Toaster = lazy(
+  (): Promise<{ default: ComponentType<ToasterProps> }> =>
+    import('sonner').then(
+      (m) => ({ default: m.Toaster }),
+      () => ({ default: () => null }),
+    ),
+);
 
 export const queryClient = new QueryClient({
   defaultOptions: {

@@ -15,6 +15,13 @@ export function createPool(url: string, max = 10): pg.Pool {
   const pool = new pg.Pool({ connectionString: url, max, connectionTimeoutMillis: 5_000, idleTimeoutMillis: 30_000 });
   // An idle client losing its server (database restarted) must not crash the process.
   pool.on('error', () => {});
+  // Nor may a client that is checked out for a long time, such as the socket.io adapter's LISTEN
+  // connection: pg emits 'error' on it when the server goes away, and an unheard 'error' event ends
+  // the process. The failure still reaches whoever uses the client (its queries fail; the adapter
+  // sees 'end' and reconnects).
+  pool.on('connect', (client) => {
+    client.on('error', () => {});
+  });
   return pool;
 }
 

@@ -4,6 +4,7 @@ import { prefillBidLines } from '../../shared/catalogue';
 import type { InspectionInput } from '../../shared/schemas/inspection';
 import type { JobInput } from '../../shared/schemas/jobs';
 import type { Database } from '../db/client';
+import { HttpSession } from './http-session';
 import { submitHostedPage } from './payments-stand-in/page-client';
 import { DEMO_PASSWORD } from './seed';
 
@@ -16,44 +17,6 @@ import { DEMO_PASSWORD } from './seed';
 
 const DAY = 24 * 60 * 60_000;
 const isoDay = (offsetDays: number) => new Date(Date.now() + offsetDays * DAY).toISOString().slice(0, 10);
-
-// ---------------------------------------------------------------------------
-// A signed-in HTTP session: cookie jar and CSRF token, as a browser keeps them.
-
-class DemoSession {
-  private cookies = new Map<string, string>();
-  private token = '';
-
-  private constructor(private readonly base: string) {}
-
-  static async signIn(base: string, email: string) {
-    const session = new DemoSession(base);
-    session.token = (await session.call<{ csrfToken: string }>('GET', '/api/auth/csrf')).csrfToken;
-    const answer = await session.call<{ csrfToken: string }>('POST', '/api/auth/login', { email, password: DEMO_PASSWORD });
-    session.token = answer.csrfToken;
-    return session;
-  }
-
-  async call<T>(method: 'GET' | 'POST' | 'PUT', path: string, body?: unknown): Promise<T> {
-    const headers: Record<string, string> = { cookie: [...this.cookies].map(([k, v]) => `${k}=${v}`).join('; ') };
-    if (method !== 'GET') headers['x-csrf-token'] = this.token;
-    let payload: BodyInit | undefined;
-    if (body instanceof FormData) payload = body;
-    else if (body !== undefined) {
-      headers['content-type'] = 'application/json';
-      payload = JSON.stringify(body);
-    }
-    const res = await fetch(`${this.base}${path}`, { method, headers, body: payload, redirect: 'manual' });
-    for (const cookie of res.headers.getSetCookie()) {
-      const [pair] = cookie.split(';');
-      const at = pair.indexOf('=');
-      this.cookies.set(pair.slice(0, at), pair.slice(at + 1));
-    }
-    const text = await res.text();
-    if (!res.ok) throw new Error(`demo scenario: ${method} ${path} answered ${res.status}: ${text.slice(0, 300)}`);
-    return (text ? JSON.parse(text) : {}) as T;
-  }
-}
 
 // ---------------------------------------------------------------------------
 // Invented photos and readings
@@ -214,11 +177,11 @@ export interface ScenarioOptions {
 /** Builds the demo jobs in every state; resolves to how many jobs were made. */
 export async function buildDemoScenario(options: ScenarioOptions): Promise<number> {
   const log = options.log ?? (() => {});
-  const sessions = new Map<string, DemoSession>();
+  const sessions = new Map<string, HttpSession>();
   const as = async (email: string) => {
     let session = sessions.get(email);
     if (!session) {
-      session = await DemoSession.signIn(options.appUrl, email);
+      session = await HttpSession.signIn(options.appUrl, email, DEMO_PASSWORD);
       sessions.set(email, session);
     }
     return session;

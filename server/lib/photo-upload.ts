@@ -8,7 +8,8 @@ export const MAX_PHOTO_BYTES = 15 * 1024 * 1024;
 /**
  * Multipart photo uploads, held in memory for `processPhoto` (server/lib/images.ts),
  * in the field "photos", at most `maxFiles` per request. multer's own errors
- * come out in the API's error shape: too big or too many is 413, the rest 400.
+ * come out in the API's error shape: too big or too many is 413, the rest
+ * (and a body busboy cannot read) 400.
  */
 export function receivePhotos(maxFiles: number): RequestHandler {
   const upload = multer({
@@ -26,7 +27,8 @@ export function receivePhotos(maxFiles: number): RequestHandler {
         }
         return next(new AppError('invalid_input', `The upload is not valid (${error.message}). Send the files in a field named "photos".`, 400));
       }
-      next(error);
+      // Anything else comes from reading the multipart body itself (busboy: no boundary, a cut-off or malformed part).
+      next(new AppError('invalid_input', 'The upload could not be read. Send the photos as multipart/form-data in a field named "photos".', 400));
     });
   };
 }

@@ -40,6 +40,30 @@ function failure(error: unknown) {
  * cookie as the pages (no session, no connection), joins its own user room,
  * and may join only the conversations and job pages its user may read.
  */
+/**
+ * The pool as the adapter sees it. The adapter keeps one connection checked
+ * out for LISTEN; when the database goes away it drops that connection and
+ * takes a new one without releasing the old, so the pool would wait for it
+ * for ever when the app shuts down. Here a connection that ends while checked
+ * out goes back to the pool (as broken), once.
+ */
+function adapterPool(pool: pg.Pool): pg.Pool {
+  return {
+    query: pool.query.bind(pool),
+    connect: async () => {
+      const client = await pool.connect();
+      client.once('end', () => {
+        try {
+          client.release(new Error('the LISTEN connection ended'));
+        } catch {
+          // Already released by the adapter's own close().
+        }
+      });
+      return client;
+    },
+  } as unknown as pg.Pool;
+}
+
 export function attachRealtime(options: RealtimeOptions): Server {
   const { db, hub, logger } = options;
   const io = new Server(options.server, {
@@ -47,7 +71,7 @@ export function attachRealtime(options: RealtimeOptions): Server {
     serveClient: false,
     // Same origin only: the app and the socket share one host.
     cors: { origin: false },
-    adapter: createAdapter(options.pool, { errorHandler: (err) => logger.warn({ err }, 'socket.io adapter error') }),
+    adapter: createAdapter(adapterPool(options.pool), { errorHandler: (err) => logger.warn({ err }, 'socket.io adapter error') }),
     connectionStateRecovery: { maxDisconnectionDuration: 2 * 60_000 },
   });
   io.engine.use(options.sessionMiddleware);

@@ -47,19 +47,33 @@ const cleanups: Array<() => unknown> = [];
 let cleaning: Promise<void> | undefined;
 function cleanUp(): Promise<void> {
   cleaning ??= (async () => {
-    for (const cleanup of cleanups.reverse()) {
+    for (const cleanup of cleanups.splice(0).reverse()) {
+      // Each step gets a bounded wait: after Ctrl-C the browser is gone already (the terminal signals it too)
+      // and closing it may never settle. The timer also keeps Node from exiting halfway through.
+      let timer: NodeJS.Timeout | undefined;
       try {
-        await cleanup();
+        await Promise.race([
+          Promise.resolve().then(cleanup),
+          new Promise((resolve) => {
+            timer = setTimeout(resolve, 10_000);
+          }),
+        ]);
       } catch (error) {
         console.error('[bench:client] cleanup failed:', error);
+      } finally {
+        clearTimeout(timer);
       }
     }
-    cleanups.length = 0;
   })();
   return cleaning;
 }
+// `on`, not `once`: under tsx a Ctrl-C arrives twice (from the terminal and relayed by tsx), and a second,
+// unhandled SIGINT would end the process before the cluster is stopped.
+let stopping = false;
 for (const signal of ['SIGINT', 'SIGTERM'] as const) {
-  process.once(signal, () => {
+  process.on(signal, () => {
+    if (stopping) return;
+    stopping = true;
     console.error(`\n${signal}: stopping …`);
     void cleanUp().then(() => process.exit(130));
   });
@@ -155,6 +169,8 @@ function describe(dir: string, chunk: ManifestChunk): string {
     }
     const top = [...counts].sort((a, b) => b[1] - a[1])[0];
     if (top) return `${top[0]} (library)`;
+    const own = sources.map((source) => /(?:^|\/)((?:client|shared)\/.*)$/.exec(source)?.[1]).find(Boolean);
+    if (own) return own;
   } catch {
     // No source map: fall back to the file name.
   }
@@ -194,7 +210,7 @@ function printSizes(dir: string) {
     for (const key of deferred) {
       const extra = firstLoad([key]).jsFiles.filter((file) => !entry.jsFiles.includes(file));
       const gzip = extra.reduce((sum, file) => sum + measure(file).gzip, 0);
-      console.log(`  ${describe(dir, manifest[key]).padEnd(44)} ${kb(gzip).padStart(7)} KB gzip  (${extra.join(', ')})`);
+      console.log(`  ${describe(dir, manifest[key]).padEnd(56)} ${kb(gzip).padStart(7)} KB gzip  (${extra.join(', ')})`);
     }
   }
   console.log(`\nAim: at most ${AIM_KB} KB of gzipped JavaScript for the first load of / and /board`);
@@ -273,7 +289,7 @@ async function measureLcp(dir: string) {
 
   const cases = [
     { name: 'landing page (/), signed out', path: '/', storageState: undefined, ready: 'h1' },
-    { name: 'job board (/board), demo shop', path: '/board', storageState: shopState, ready: 'text=Bench board job 1' },
+    { name: 'job board (/board), demo shop', path: '/board', storageState: shopState, ready: 'a:text-is("Bench board job 1"):visible' },
   ];
   console.log(`\nLargest contentful paint, headless Chromium, loopback, cold cache per load, ${LOADS} loads each\n`);
   console.log('page'.padEnd(36), 'median ms'.padStart(10), 'min'.padStart(7), 'max'.padStart(7), ' JS requests', ' LCP element');
@@ -288,7 +304,7 @@ async function measureLcp(dir: string) {
           if (request.resourceType() === 'script') scripts += 1;
         });
         await page.goto(`${base}${c.path}`, { waitUntil: 'load' });
-        await page.waitForSelector(c.ready, { timeout: 15_000 });
+        await page.locator(c.ready).first().waitFor({ timeout: 15_000 });
         // Let the frame that shows the content be painted and reported.
         await page.waitForTimeout(300);
         samples.push({ ...(await page.evaluate(readLcp)), scripts });

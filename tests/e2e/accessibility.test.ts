@@ -107,10 +107,16 @@ async function tabTo(page: Page, name: string | RegExp, max = 80) {
   throw new Error(`Tab never reached “${name}” in ${max} presses; it passed: ${seen.join(' | ')}`);
 }
 
-/** A page in a context of its own with nobody signed in (the suite signs in, so its cookies are dropped). */
+/** Signs out with the header's button: the session ends on the server, so no cookie still in flight brings it back. */
+async function signOut(page: Page) {
+  await page.getByRole('button', { name: 'Sign out' }).click();
+  await page.getByRole('link', { name: 'Sign in' }).waitFor();
+}
+
+/** A page in a context of its own with nobody signed in (the suite's pages start signed in). */
 async function signedOutPage() {
   const page = await suite.pageFor(builderEmail, '/dashboard');
-  await page.context().clearCookies();
+  await signOut(page);
   return page;
 }
 
@@ -208,7 +214,7 @@ describe('keyboard use, in a real browser', () => {
     const missing: string[] = [];
     for (const stop of [...signedIn, null, ...signedOut]) {
       if (!stop) {
-        await page.context().clearCookies();
+        await signOut(page);
         continue;
       }
       await page.goto(suite.url(stop.path));

@@ -48,15 +48,25 @@ export async function startMoneyApp(overrides: Record<string, string> = {}) {
     return { job, builder, builderUser, shop, shopUser };
   }
 
+  let serverClosed = false;
+  /** Stops the in-process app (its workers too), keeping the database and the stand-in, e.g. to hand over to another process. */
+  async function stopServer() {
+    if (serverClosed) return;
+    serverClosed = true;
+    await server.close();
+  }
+
   return {
     db,
+    databaseUrl: database.url,
     server,
+    stopServer,
     stripe,
     standIn: pay.standIn,
     until,
     fundedJob,
     async close() {
-      await server.close();
+      await stopServer();
       await pay.standIn.close();
       await pool.end();
       await database.drop();

@@ -20,7 +20,7 @@ import {
   startPayoutOnboarding,
   type PaymentDeps,
 } from './payments.service';
-import { jobForViewer } from '../jobs/jobs.service';
+import { assertCanSeeWork, jobParties } from '../inspections/job-parties';
 import { recordAdminAction } from '../admin/audit';
 import { moneyHistory } from './money-history';
 
@@ -101,7 +101,8 @@ export function paymentsRouter(deps: PaymentDeps) {
 
   router.get('/jobs/:jobId/change-orders', requireUser, async (req, res) => {
     const { jobId } = jobParams.parse(req.params);
-    await jobForViewer(deps.db, jobId, currentUser(req));
+    // Like the job's money: its builder, the shop doing the work and admins (not every shop that once bid).
+    assertCanSeeWork(await jobParties(deps.db, jobId), currentUser(req));
     res.json({ changeOrders: await changeOrdersFor(deps, jobId) });
   });
 

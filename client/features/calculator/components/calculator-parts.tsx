@@ -3,24 +3,29 @@
  * and anchor, the inputs/results columns, a number input, the results panel,
  * the "still to enter" hint, pass/fail marks and the short guidance note.
  */
-import type { ReactNode } from 'react';
+import { createContext, useContext, type ReactNode } from 'react';
 import { Card } from '@client/components/ui/card';
 import { TextField, type TextFieldProps } from '@client/components/ui/text-field';
 import { cn } from '@client/lib/cn';
 
+/** The title of the card a part sits in, so its results panel gets a name of its own on a page of several cards. */
+const CardTitle = createContext<string | undefined>(undefined);
+
 export function CalculatorCard({ id, title, intro, children }: { id: string; title: string; intro: ReactNode; children: ReactNode }) {
   return (
-    <div id={id} role="region" aria-labelledby={`${id}-title`} className="scroll-mt-24">
-      <Card className="flex flex-col gap-5">
-        <header>
-          <h2 id={`${id}-title`} className="text-2xl font-bold tracking-tight">
-            {title}
-          </h2>
-          <div className="mt-1 max-w-3xl text-ink-soft">{intro}</div>
-        </header>
-        {children}
-      </Card>
-    </div>
+    <CardTitle.Provider value={title}>
+      <div id={id} role="region" aria-labelledby={`${id}-title`} className="scroll-mt-24">
+        <Card className="flex flex-col gap-5">
+          <header>
+            <h2 id={`${id}-title`} className="text-2xl font-bold tracking-tight">
+              {title}
+            </h2>
+            <div className="mt-1 max-w-3xl text-ink-soft">{intro}</div>
+          </header>
+          {children}
+        </Card>
+      </div>
+    </CardTitle.Provider>
   );
 }
 
@@ -61,8 +66,9 @@ export function NumberField({ value, onValueChange, ...rest }: NumberFieldProps)
 
 /** The results column: a tinted panel that announces changes politely to screen readers. */
 export function ResultsPanel({ title = 'Results', children, className }: { title?: string; children: ReactNode; className?: string }) {
+  const card = useContext(CardTitle);
   return (
-    <section aria-label={title} className={cn('flex h-full flex-col gap-4 rounded-lg bg-slate-50 p-4 ring-1 ring-slate-200', className)}>
+    <section aria-label={card ? `${title}: ${card}` : title} className={cn('flex h-full flex-col gap-4 rounded-lg bg-slate-50 p-4 ring-1 ring-slate-200', className)}>
       <h3 className="text-sm font-bold uppercase tracking-wider text-slate-700">{title}</h3>
       {children}
     </section>

@@ -353,6 +353,7 @@ export function InspectionEntryForm({ job, initial, origin, onSubmitted }: Inspe
           spec={job.spec}
           unit={form.unit}
           complete={live.complete}
+          headingLevel={3}
         />
       </aside>
     </div>

@@ -151,6 +151,7 @@ export function InspectionResultsView({
   spec,
   unit,
   complete,
+  headingLevel = 4,
 }: {
   results: Results | undefined;
   cylinderIndexes: number[];
@@ -158,7 +159,10 @@ export function InspectionResultsView({
   spec: JobInput;
   unit: LengthUnit;
   complete: boolean;
+  /** The level of its own headings: one below the heading it sits under (h3 beside the entry grid's h2, h4 in a review version). */
+  headingLevel?: 3 | 4;
 }) {
+  const Heading = headingLevel === 3 ? 'h3' : 'h4';
   const limits = boreLimits(spec, unit);
   const byIndex = new Map(cylinderIndexes.map((index, k) => [index, results?.bores.cylinders[k]]));
   const boreRows = cylinderIndexes.flatMap((index) => {
@@ -234,7 +238,7 @@ export function InspectionResultsView({
       </div>
 
       <section aria-label="Checks against the job’s specification" className="flex flex-col gap-2">
-        <h4 className="text-sm font-bold uppercase tracking-wider text-slate-700">Checks</h4>
+        <Heading className="text-sm font-bold uppercase tracking-wider text-slate-700">Checks</Heading>
         {boreRows.length === 0 && surfaceRows.length === 0 ? (
           <p className="text-sm text-ink-soft">Checks appear as each cylinder’s six readings are in.</p>
         ) : (
