@@ -376,6 +376,8 @@ export async function moneyViewFor(deps: PaymentDeps, user: User, jobId: string)
   const job = await findJob(deps.db, jobId);
   if (!job) throw notFound('No job with that id.');
   if (user.role !== 'admin' && job.builderId !== user.id) {
+    // A draft is the builder's alone: to anyone else it does not exist.
+    if (job.status === 'draft') throw notFound('No job with that id.');
     const shop = user.role === 'shop' ? await findShopByUser(deps.db, user.id) : undefined;
     const awarded = job.awardedBidId ? (await deps.db.select({ shopId: bids.shopId }).from(bids).where(eq(bids.id, job.awardedBidId)))[0] : undefined;
     if (!shop || awarded?.shopId !== shop.id) throw forbidden('This job’s money is not yours to see.');
