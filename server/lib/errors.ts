@@ -47,13 +47,15 @@ interface HttpishError {
 }
 
 /**
- * PostgreSQL refusing text it cannot hold (a NUL byte in text or jsonb:
- * 22021 character_not_in_repertoire, 22P05 untranslatable_character). Such
- * text only ever comes from a request, so it is the caller's input at fault.
+ * PostgreSQL refusing text it cannot hold: a NUL byte in text or jsonb
+ * (22021 character_not_in_repertoire, 22P05 untranslatable_character), or
+ * half of a UTF-16 surrogate pair written into jsonb (22P02 on type json).
+ * Such text only ever comes from a request, so it is the caller's input at fault.
  */
 function isUnstorableText(error: unknown): boolean {
-  for (let err = error as { code?: unknown; cause?: unknown } | undefined, depth = 0; err && depth < 3; err = err.cause as typeof err, depth += 1) {
+  for (let err = error as { code?: unknown; message?: unknown; cause?: unknown } | undefined, depth = 0; err && depth < 3; err = err.cause as typeof err, depth += 1) {
     if (err.code === '22021' || err.code === '22P05') return true;
+    if (err.code === '22P02' && /type json/.test(String(err.message))) return true;
   }
   return false;
 }
@@ -74,7 +76,7 @@ export const errorHandler: ErrorRequestHandler = (error, req, res, _next) => {
   }
   // A path parameter that is not valid percent-encoding: Express's router marks it 400 but not `expose`.
   if (error instanceof URIError) return send(400, 'malformed_url', 'The address is not correctly encoded.');
-  if (isUnstorableText(error)) return send(400, 'invalid_input', 'Some of the text contains characters that cannot be stored (such as a NUL byte).');
+  if (isUnstorableText(error)) return send(400, 'invalid_input', 'Some of the text contains characters that cannot be stored (a NUL byte, or half of a UTF-16 pair).');
   const http = error as HttpishError;
   if (http.type === 'entity.parse.failed') return send(400, 'malformed_body', 'The request body is not valid JSON.');
   if (http.type === 'entity.too.large') return send(413, 'too_large', 'The request body is too large.');

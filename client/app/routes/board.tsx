@@ -1,6 +1,6 @@
 import { Link, useSearchParams } from 'react-router-dom';
 import { findOperation, operations } from '@shared/catalogue';
-import { boardQuerySchema, type BoardQuery, type JobSummary } from '@shared/schemas/jobs';
+import type { BoardQuery, JobSummary } from '@shared/schemas/jobs';
 import { Button } from '@client/components/ui/button';
 import { PageTitle } from '@client/components/ui/card';
 import { DebouncedTextField } from '@client/components/ui/debounced-text-field';
@@ -9,6 +9,7 @@ import { Pager } from '@client/components/ui/pager';
 import { SelectField } from '@client/components/ui/select-field';
 import { TextField } from '@client/components/ui/text-field';
 import { useBoard, type BoardFilters } from '@client/features/jobs/api/jobs';
+import { readBoardFilters } from '@client/features/jobs/board-filters';
 import { useOwnShop } from '@client/features/shops/api/shops';
 import { cn } from '@client/lib/cn';
 
@@ -16,7 +17,6 @@ type Sort = BoardQuery['sort'];
 const FILTER_KEYS = ['operation', 'material', 'cylinders', 'country', 'region', 'logistics', 'neededBefore'] as const;
 type FilterKey = (typeof FILTER_KEYS)[number];
 const PAGE_SIZES = [10, 20, 50, 100];
-const shape = boardQuerySchema.shape;
 
 const materialWords: Record<JobSummary['blockMaterial'], string> = { 'cast-iron': 'Cast iron', aluminium: 'Aluminium' };
 const logisticsWords: Record<JobSummary['logistics'], string> = { ship: 'Shipped to the shop', 'drop-off': 'Dropped off' };
@@ -27,28 +27,6 @@ const sorts: Record<Sort, { column: string; order: string; direction: 'ascending
   'needed-soonest': { column: 'Needed by', order: 'soonest first', direction: 'ascending' },
   'fewest-bids': { column: 'Bids', order: 'fewest first', direction: 'ascending' },
 };
-
-/** The board's filters from the address bar, keeping only values the API accepts, so a hand-edited address never breaks the page. */
-function readFilters(params: URLSearchParams): BoardFilters & { sort: Sort; page: number; pageSize: number } {
-  const pick = <K extends keyof typeof shape>(key: K) => {
-    const raw = params.get(key)?.trim();
-    if (!raw) return undefined;
-    const parsed = shape[key].safeParse(raw);
-    return parsed.success ? (parsed.data as BoardQuery[K]) : undefined;
-  };
-  return {
-    operation: pick('operation'),
-    material: pick('material'),
-    cylinders: pick('cylinders'),
-    country: pick('country'),
-    region: pick('region'),
-    logistics: pick('logistics'),
-    neededBefore: pick('neededBefore'),
-    sort: pick('sort') ?? 'newest',
-    page: pick('page') ?? 1,
-    pageSize: pick('pageSize') ?? 20,
-  };
-}
 
 /** A calendar date (YYYY-MM-DD) as the reader's date, without a time-zone shift. */
 function formatDay(isoDate: string) {
@@ -154,7 +132,7 @@ function JobCard({ job }: { job: JobSummary }) {
 
 export function BoardRoute() {
   const [params, setParams] = useSearchParams();
-  const filters = readFilters(params);
+  const filters = readBoardFilters(params);
   const board = useBoard(filters);
   const own = useOwnShop();
   const filtered = FILTER_KEYS.some((key) => params.get(key));
