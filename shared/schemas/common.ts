@@ -1,7 +1,8 @@
 import { z } from 'zod';
 import { operationCodes } from '../catalogue';
 
-export const uuidSchema = z.uuid({ error: 'That id is not valid.' });
+/** Lower-cased, so an id typed in capitals names the same row, storage key and live-update room as the stored one. */
+export const uuidSchema = z.uuid({ error: 'That id is not valid.' }).toLowerCase();
 
 export const operationCodeSchema = z.enum(operationCodes, { error: 'Choose an operation from the list.' });
 

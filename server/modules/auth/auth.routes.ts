@@ -39,8 +39,11 @@ export interface AuthRouterDeps {
 const logIn = (req: Request, user: User) =>
   new Promise<void>((resolve, reject) => req.login(user, (err) => (err ? reject(err) : resolve())));
 
-const emailKey = (req: Request) =>
-  `${ipKeyGenerator(req.ip ?? '')}|${String((req.body as { email?: unknown } | undefined)?.email ?? '').trim().toLowerCase()}`;
+/** Only a string counts as the e-mail: String() of a deeply nested array overflows the stack. */
+const emailKey = (req: Request) => {
+  const email = (req.body as { email?: unknown } | undefined)?.email;
+  return `${ipKeyGenerator(req.ip ?? '')}|${typeof email === 'string' ? email.trim().toLowerCase() : ''}`;
+};
 
 export function authRouter(deps: AuthRouterDeps) {
   const { db, config, passport } = deps;

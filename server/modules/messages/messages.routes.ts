@@ -59,8 +59,11 @@ export function messagesRouter(deps: { db: Database; hub: RealtimeHub; storage: 
     const { threadId } = threadParams.parse(req.params);
     const input = sendMessageSchema.parse(req.body);
     const user = currentUser(req);
-    const { totalHits } = await limiter.increment(user.id);
-    if (totalHits > deps.messagesPer10s) throw new AppError('too_many_attempts', 'You are sending messages too fast. Wait a few seconds.', 429);
+    const { totalHits, resetTime } = await limiter.increment(user.id);
+    if (totalHits > deps.messagesPer10s) {
+      res.setHeader('Retry-After', String(Math.max(1, Math.ceil(((resetTime?.getTime() ?? Date.now()) - Date.now()) / 1000))));
+      throw new AppError('too_many_attempts', 'You are sending messages too fast. Wait a few seconds.', 429);
+    }
     const { message, duplicate, access } = await sendMessage(db, user, threadId, input);
     if (!duplicate) hub.messageCreated(message, [access.builderId, access.shopUserId].filter((id) => id !== user.id));
     res.status(duplicate ? 200 : 201).json({ message, duplicate });
