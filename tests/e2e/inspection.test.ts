@@ -1,72 +1,22 @@
 import { join } from 'node:path';
 import sharp from 'sharp';
-import { request, type APIRequestContext, type Browser, type BrowserContext, type Page } from 'playwright-core';
-import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { describe, expect, it } from 'vitest';
 import type { InspectionInput, InspectionVersion } from '../../shared/schemas/inspection';
 import type { JobDetail } from '../../shared/schemas/jobs';
 import type { MoneyView } from '../../shared/schemas/payments';
-import { DEMO_PASSWORD, demoAccounts } from '../../server/dev/seed';
+import { demoAccounts } from '../../server/dev/seed';
 import { bidInput, jobInput, shopProfileInput } from '../factories';
 import { completeOnboardingPage } from '../setup/payments';
 import { payOnPage } from '../unit/payments-stand-in/helpers';
-import { artifactsDir, launchBrowser, startBrowserApp } from '../setup/browser';
+import { artifactsDir } from '../setup/browser';
+import { browserSuite } from '../setup/e2e-suite';
 
-let browser: Browser;
-let app: Awaited<ReturnType<typeof startBrowserApp>>;
-const contexts: BrowserContext[] = [];
-const apiSessions: APIRequestContext[] = [];
-const consoleErrors: string[] = [];
+const suite = browserSuite();
+const { url, apiAs, pageFor, consoleErrors } = suite;
 
 const builder = demoAccounts.find((a) => a.email === 'juno@builders.test')!;
 const lanternHill = demoAccounts.find((a) => a.email === 'bench@lanternhill.test')!;
-
-beforeAll(async () => {
-  [browser, app] = await Promise.all([launchBrowser(), startBrowserApp()]);
-});
-afterAll(async () => {
-  await Promise.all(apiSessions.map((session) => session.dispose()));
-  await browser?.close();
-  await app?.close();
-});
-afterEach(async () => {
-  await Promise.all(contexts.splice(0).map((context) => context.close()));
-});
-
-const url = (path: string) => `${app.server.url}${path}`;
-
-/** A signed-in API session outside the browser; it sends the CSRF token. */
-async function apiAs(email: string) {
-  const session = await request.newContext({ baseURL: app.server.url });
-  apiSessions.push(session);
-  let token: string = (await (await session.get('/api/auth/csrf')).json()).csrfToken;
-  const res = await session.post('/api/auth/login', { data: { email, password: DEMO_PASSWORD }, headers: { 'X-CSRF-Token': token } });
-  if (!res.ok()) throw new Error(`could not sign in: ${res.status()} ${await res.text()}`);
-  token = (await res.json()).csrfToken;
-  return async <T>(method: 'GET' | 'POST' | 'PUT', path: string, data: unknown = {}): Promise<T> => {
-    const answer = await session.fetch(path, { method, ...(method === 'GET' ? {} : { data }), headers: { 'X-CSRF-Token': token } });
-    if (!answer.ok()) throw new Error(`${method} ${path} answered ${answer.status()}: ${await answer.text()}`);
-    return answer.json() as Promise<T>;
-  };
-}
-
-/** A signed-in browser page of its own (a tablet-sized window for the shop floor, a desk for the builder). */
-async function pageFor(email: string, returnTo: string, viewport = { width: 1280, height: 900 }): Promise<Page> {
-  const context = await browser.newContext({ viewport });
-  context.setDefaultTimeout(10_000);
-  contexts.push(context);
-  const page = await context.newPage();
-  page.on('console', (msg) => {
-    if (msg.location().url.startsWith(app.payments.url)) return;
-    if (msg.type() === 'error' && !/401/.test(msg.text())) consoleErrors.push(`${email}: ${msg.text()}`);
-  });
-  page.on('pageerror', (err) => consoleErrors.push(`${email}: ${err.message}`));
-  await page.goto(url(`/signin?returnTo=${encodeURIComponent(returnTo)}`));
-  await page.getByLabel('E-mail').fill(email);
-  await page.getByLabel('Password').fill(DEMO_PASSWORD);
-  await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.waitForURL(url(returnTo));
-  return page;
-}
 
 /** The focused element's accessible name as this app gives it: aria-label, else the text of its <label>. */
 const focusedName = (page: Page) =>
@@ -137,7 +87,7 @@ describe('the inspection record, from block received to payment released, in a r
     // The builder pays on the payment page ($480.00 held).
     const builderPage = await pageFor(builder.email, `/jobs/${job.id}`);
     await builderPage.getByRole('button', { name: 'Pay and hold for the work' }).click();
-    await builderPage.waitForURL((target) => target.toString().startsWith(app.payments.url));
+    await builderPage.waitForURL((target) => target.toString().startsWith(suite.app.payments.url));
     await builderPage.getByLabel('Card number').fill('4242 4242 4242 4242');
     await builderPage.getByRole('button', { name: /^Pay / }).click();
     await builderPage.waitForURL((target) => target.toString().startsWith(url(`/jobs/${job.id}`)));
