@@ -261,7 +261,7 @@ export async function buildDemoScenario(options: ScenarioOptions): Promise<numbe
     }
   }
 
-  async function log_(shopEmail: string, jobId: string, entries: Array<Record<string, string>>) {
+  async function logMilestones(shopEmail: string, jobId: string, entries: Array<Record<string, string>>) {
     const shop = await as(shopEmail);
     for (const entry of entries) await shop.call('POST', `/api/jobs/${jobId}/milestones`, entry);
   }
@@ -274,7 +274,7 @@ export async function buildDemoScenario(options: ScenarioOptions): Promise<numbe
   };
 
   async function throughRecord(plan: JobPlan, jobId: string, shopEmail: string, seed: number, badTaper?: number) {
-    await log_(shopEmail, jobId, [
+    await logMilestones(shopEmail, jobId, [
       { kind: 'block_received', note: 'Arrived strapped to a pallet; caps and plugs bagged.' },
       { kind: 'teardown', note: 'Hot-tanked and magnafluxed: no cracks found. Old bores show a light ridge at the top.' },
       { kind: 'operation_started', operation: 'bore' },
@@ -333,7 +333,7 @@ export async function buildDemoScenario(options: ScenarioOptions): Promise<numbe
     ['builder', 'Great. Please keep the deck cut to the minimum; the heads are already milled.'],
     ['shop', 'Understood. We will measure the deck before and after and note both.'],
   ]);
-  await log_('bench@lanternhill.test', ids.inWork, [
+  await logMilestones('bench@lanternhill.test', ids.inWork, [
     { kind: 'block_received', note: 'Received by freight; caps stamped and bagged.' },
     { kind: 'teardown', note: 'Cleaned and crack-checked: sound. Cylinder six has a scuff that cleans up at .020.' },
     { kind: 'operation_started', operation: 'bore' },

@@ -1,4 +1,4 @@
-import { Link, useSearchParams } from 'react-router-dom';
+import { Link } from 'react-router-dom';
 import { ledgerKinds, ledgerQuerySchema } from '@shared/schemas/admin';
 import { Button } from '@client/components/ui/button';
 import { PageTitle } from '@client/components/ui/card';
@@ -10,7 +10,7 @@ import { TextField } from '@client/components/ui/text-field';
 import { ledgerCsvUrl, useLedger, type LedgerFilters } from '@client/features/admin/api/admin-ledger';
 import { ledgerKindWords } from '@client/features/admin/components/admin-words';
 import { LedgerTable, LedgerTotals } from '@client/features/admin/components/ledger-table';
-import { toSearch } from '@client/lib/search-params';
+import { toSearch, useSearchParamUpdater } from '@client/lib/search-params';
 
 const PAGE_SIZE = 50;
 const FILTER_KEYS = ['kind', 'jobId', 'from', 'to'] as const;
@@ -64,27 +64,11 @@ function LedgerResults({ filters, page, setPage }: { filters: LedgerFilters; pag
 }
 
 export function AdminLedgerRoute() {
-  const [params, setParams] = useSearchParams();
+  const { params, update, setFilter } = useSearchParamUpdater();
   const { filters, errors, page } = readFilters(params);
   const filtered = FILTER_KEYS.some((key) => params.get(key));
   const valid = Object.keys(errors).length === 0;
 
-  const update = (change: (next: URLSearchParams) => void, { replace = false } = {}) =>
-    setParams(
-      (current) => {
-        const next = new URLSearchParams(current);
-        change(next);
-        return next;
-      },
-      { replace },
-    );
-  /** A new filter starts again at page 1. */
-  const setFilter = (key: FilterKey, value: string, options?: { replace?: boolean }) =>
-    update((next) => {
-      if (value.trim()) next.set(key, value.trim());
-      else next.delete(key);
-      next.delete('page');
-    }, options);
   const setPage = (next: number) => {
     update((current) => (next > 1 ? current.set('page', String(next)) : current.delete('page')));
     window.scrollTo({ top: 0 });

@@ -1,4 +1,4 @@
-import { Link, useSearchParams } from 'react-router-dom';
+import { Link } from 'react-router-dom';
 import { findOperation, operations } from '@shared/catalogue';
 import type { BoardQuery, JobSummary } from '@shared/schemas/jobs';
 import { Button } from '@client/components/ui/button';
@@ -12,6 +12,7 @@ import { useBoard, type BoardFilters } from '@client/features/jobs/api/jobs';
 import { readBoardFilters } from '@client/features/jobs/board-filters';
 import { useOwnShop } from '@client/features/shops/api/shops';
 import { cn } from '@client/lib/cn';
+import { useSearchParamUpdater } from '@client/lib/search-params';
 
 type Sort = BoardQuery['sort'];
 const FILTER_KEYS = ['operation', 'material', 'cylinders', 'country', 'region', 'logistics', 'neededBefore'] as const;
@@ -131,29 +132,12 @@ function JobCard({ job }: { job: JobSummary }) {
 }
 
 export function BoardRoute() {
-  const [params, setParams] = useSearchParams();
+  const { params, update, setFilter } = useSearchParamUpdater();
   const filters = readBoardFilters(params);
   const board = useBoard(filters);
   const own = useOwnShop();
   const filtered = FILTER_KEYS.some((key) => params.get(key));
 
-  const update = (change: (next: URLSearchParams) => void, { replace = false } = {}) => {
-    setParams(
-      (current) => {
-        const next = new URLSearchParams(current);
-        change(next);
-        return next;
-      },
-      { replace },
-    );
-  };
-  /** A new filter starts again at page 1. */
-  const setFilter = (key: FilterKey, value: string, options?: { replace?: boolean }) =>
-    update((next) => {
-      if (value.trim()) next.set(key, value.trim());
-      else next.delete(key);
-      next.delete('page');
-    }, options);
   const setSort = (sort: Sort) =>
     update((next) => {
       if (sort === 'newest') next.delete('sort');

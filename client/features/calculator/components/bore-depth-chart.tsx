@@ -1,6 +1,6 @@
 import { CartesianGrid, Line, LineChart, ReferenceLine, XAxis, YAxis } from 'recharts';
 import type { CylinderReadings, LengthUnit } from '@shared/calc';
-import { niceTicks } from '../lib/chart-ticks';
+import { niceTicks } from '@client/lib/numbers';
 import { LENGTH_DECIMALS, formatLength, formatNumber } from '../lib/numbers';
 import { ChartLegend } from './calculator-parts';
 
