@@ -17,7 +17,7 @@ import { AppError, conflict, forbidden, notFound } from '../../lib/errors';
 import { enqueueMail } from '../../lib/mail/outbox';
 import { disputeAnsweredMail, disputeDecidedMail, disputeOpenedMail } from '../../lib/mail/templates';
 import { recordAdminAction } from '../admin/audit';
-import { assertCanSeeWork, jobParties, type JobParties } from '../inspections/job-parties';
+import { assertCanSeeWork, jobParties, sideOf, type JobParties } from '../inspections/job-parties';
 import { jobBalance } from '../payments/ledger';
 import { carryOut, planMoves, type PaymentDeps } from '../payments/payments.service';
 
@@ -44,9 +44,6 @@ export function toDispute(row: DisputeRow): Dispute {
         : null,
   };
 }
-
-const sideOf = (parties: JobParties, user: User): Side | null =>
-  parties.builder.id === user.id ? 'builder' : parties.shop && parties.shop.userId === user.id ? 'shop' : null;
 
 const jobUrl = (deps: { appUrl: string }, jobId: string) => `${deps.appUrl}/jobs/${jobId}`;
 

@@ -41,3 +41,9 @@ export function assertWorkingShop(parties: JobParties, user: User) {
     throw notFound('No job with that id.');
   }
 }
+
+/** Which side of the job this person is on: its builder, the shop doing the work, or neither. */
+export function sideOf(parties: JobParties, user: User): 'builder' | 'shop' | null {
+  if (parties.builder.id === user.id) return 'builder';
+  return parties.shop?.userId === user.id ? 'shop' : null;
+}

@@ -6,13 +6,10 @@ import { reviews } from '../../db/schema-disputes';
 import { conflict, forbidden } from '../../lib/errors';
 import { enqueueMail } from '../../lib/mail/outbox';
 import { newReviewMail } from '../../lib/mail/templates';
-import { assertCanSeeWork, jobParties, type JobParties } from '../inspections/job-parties';
+import { assertCanSeeWork, jobParties, sideOf, type JobParties } from '../inspections/job-parties';
 
 /** A job can be reviewed once it has ended with work done: accepted, or decided after a dispute. */
 const REVIEWABLE = new Set(['completed', 'resolved']);
-
-const sideOf = (parties: JobParties, user: User) =>
-  parties.builder.id === user.id ? ('builder' as const) : parties.shop?.userId === user.id ? ('shop' as const) : null;
 
 function authorName(parties: JobParties, side: 'builder' | 'shop') {
   return side === 'builder' ? parties.builder.displayName : (parties.shop?.name ?? '');
