@@ -5,7 +5,7 @@ import type { InspectionInput } from '../../shared/schemas/inspection';
 import { changeOrders, jobs, ledgerEntries, mailOutbox, moneyMoves, sessions, shops } from '../../server/db/schema';
 import { adminActions } from '../../server/db/schema-disputes';
 import { jobBalance } from '../../server/modules/payments/ledger';
-import { createUser, TEST_PASSWORD } from '../factories';
+import { createUser, jobInput, TEST_PASSWORD } from '../factories';
 import { startMoneyApp } from '../setup/money-app';
 import { agentFor, signedIn } from '../setup/test-env';
 
@@ -322,5 +322,29 @@ describe('the admin console', () => {
     expect((parse(all.text, { columns: true }) as unknown[]).length).toBe(feeRows.length);
     expect((await funded.builder.get('/api/admin/ledger.csv')).status).toBe(403);
     expect((await admin.get('/api/admin/ledger?from=yesterday')).status).toBe(400);
+  });
+
+  it('when a job title a builder typed starts like a formula, then the CSV cell is guarded and the amounts stay numbers', async () => {
+    const builderUser = await createUser(m.db);
+    const builder = await signedIn(m.server.app, builderUser);
+    const titles = ['=HYPERLINK("http://elsewhere.example/","Invoice")', '@SUM(1) on the deck', '-2+3 overbore', '+1 oversize pistons'];
+    const jobIds: string[] = [];
+    for (const title of titles) {
+      const created = await builder.post('/api/jobs', jobInput({ title }));
+      expect(created.status).toBe(201);
+      jobIds.push(created.body.job.id);
+    }
+    // Straight into the ledger: a provider reference that also starts like a formula, beside an app-written amount.
+    await m.db.insert(ledgerEntries).values(jobIds.map((jobId, i) => ({ jobId, kind: 'paid_in' as const, amountCents: 1500 + i, reference: i === 0 ? '=1+1' : `csv-guard-${jobId}` })));
+
+    for (const [i, jobId] of jobIds.entries()) {
+      const csv = await admin.agent.get(`/api/admin/ledger.csv?jobId=${jobId}`).buffer(true);
+      const [row] = parse(csv.text, { columns: true }) as Array<Record<string, string>>;
+      expect(row.job_title).toBe(`'${titles[i]}`);
+      expect(row.amount_cents).toBe(String(1500 + i));
+      expect(row.amount).toBe(((1500 + i) / 100).toFixed(2));
+      expect(row.reference).toBe(i === 0 ? "'=1+1" : `csv-guard-${jobId}`);
+      expect(row.job_id).toBe(jobId);
+    }
   });
 });

@@ -1,8 +1,8 @@
 import { and, count, desc, eq, gte, ilike, isNotNull, isNull, lt, or, sql, type SQL } from 'drizzle-orm';
-import { stringify } from 'csv-stringify';
 import type { AdminShopRow, AdminUserRow, LedgerPage, LedgerQuery, ShopSearchInput } from '../../../shared/schemas/admin';
 import type { Database, Executor } from '../../db/client';
 import { jobs, ledgerEntries, sessions, shops, users, type User } from '../../db/schema';
+import { csvDecimal, csvStringifier } from '../../lib/csv';
 import { conflict, notFound } from '../../lib/errors';
 import { enqueueMail } from '../../lib/mail/outbox';
 import { accountSuspendedMail } from '../../lib/mail/templates';
@@ -179,11 +179,12 @@ export async function ledgerPage(db: Database, query: LedgerQuery): Promise<Ledg
 /**
  * Every ledger row the filters match, as CSV, oldest first, streamed in pages
  * of 1,000 so a long ledger never sits in memory at once. Amounts are whole
- * cents (and dollars beside them, for people reading it in a spreadsheet).
+ * cents (and dollars beside them, for people reading it in a spreadsheet);
+ * text cells are guarded against formula injection (server/lib/csv.ts).
  */
 export async function* ledgerCsv(db: Database, query: Omit<LedgerQuery, 'limit' | 'offset'>): AsyncGenerator<string> {
   const where = ledgerWhere(query);
-  const csv = stringify({ header: true, columns: ['id', 'created_at', 'job_id', 'job_title', 'kind', 'amount_cents', 'amount', 'reference', 'payment_id'] });
+  const csv = csvStringifier({ header: true, columns: ['id', 'created_at', 'job_id', 'job_title', 'kind', 'amount_cents', 'amount', 'reference', 'payment_id'] });
   const chunks: string[] = [];
   csv.on('data', (chunk: Buffer | string) => chunks.push(chunk.toString()));
   let after = 0;
@@ -196,7 +197,7 @@ export async function* ledgerCsv(db: Database, query: Omit<LedgerQuery, 'limit' 
       .orderBy(ledgerEntries.id)
       .limit(1000);
     for (const r of page) {
-      csv.write([r.id, r.createdAt.toISOString(), r.jobId, r.jobTitle, r.kind, r.amountCents, (r.amountCents / 100).toFixed(2), r.reference, r.paymentId ?? '']);
+      csv.write([r.id, r.createdAt.toISOString(), r.jobId, r.jobTitle, r.kind, r.amountCents, csvDecimal(r.amountCents / 100, 2), r.reference, r.paymentId ?? '']);
     }
     await new Promise((resolve) => setImmediate(resolve));
     if (chunks.length) yield chunks.splice(0).join('');
