@@ -48,7 +48,9 @@ export interface AppDeps {
 export function createApp(deps: AppDeps) {
   const { config, db, pool, logger } = deps;
   const app = express();
-  app.set('trust proxy', 'loopback');
+  // Only the proxies named by TRUST_PROXY may say who the client is; by default none, so a
+  // forged X-Forwarded-For header cannot give one client many addresses.
+  app.set('trust proxy', config.trustProxy);
   app.disable('x-powered-by');
 
   app.use(

@@ -1,3 +1,4 @@
+import { isIP } from 'node:net';
 import { fileURLToPath } from 'node:url';
 import { z } from 'zod';
 
@@ -16,6 +17,28 @@ const schema = z
     SESSION_SECRET: z.string().min(16).optional(),
     UPLOADS_DIR: z.string().min(1).optional(),
     LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
+    /**
+     * Which proxies in front of the app may say who the client is (X-Forwarded-For, -Proto):
+     * unset or "false" trusts none; a number of hops; or comma-separated addresses, subnets
+     * and the names Express knows (loopback, linklocal, uniquelocal).
+     */
+    TRUST_PROXY: z
+      .string()
+      .trim()
+      .default('')
+      .transform((value, ctx): TrustProxy => {
+        if (value === '' || value === 'false' || value === 'none') return false;
+        if (value === 'true') return true;
+        if (/^\d+$/.test(value)) return Number(value);
+        const entries = value.split(',').map((entry) => entry.trim()).filter(Boolean);
+        for (const entry of entries) {
+          if (!isTrustEntry(entry)) {
+            ctx.addIssue({ code: 'custom', message: `"${entry}" is not an address, a subnet, a number of hops or one of loopback, linklocal, uniquelocal` });
+            return z.NEVER;
+          }
+        }
+        return entries;
+      }),
 
     SMTP_HOST: z.string().default('127.0.0.1'),
     SMTP_PORT: z.coerce.number().int().min(1).max(65535).default(1025),
@@ -42,6 +65,8 @@ const schema = z
     RATE_LIMIT_SIGNUP_MAX: z.coerce.number().int().positive().default(20),
     RATE_LIMIT_CALCULATIONS_PER_MINUTE: z.coerce.number().int().positive().default(120),
     RATE_LIMIT_MESSAGES_PER_10S: z.coerce.number().int().positive().default(20),
+    /** Password-reset requests from one address in an hour (each account also has its own limit of 5). */
+    RATE_LIMIT_RESET_PER_ADDRESS: z.coerce.number().int().positive().default(20),
   })
   .superRefine((value, ctx) => {
     if (value.NODE_ENV === 'production' && !value.SESSION_SECRET) {
@@ -57,6 +82,19 @@ const schema = z
   });
 
 export type RawEnv = z.infer<typeof schema>;
+
+/** Express's 'trust proxy': false (none), true (any), a number of hops, or addresses, subnets and named ranges. */
+export type TrustProxy = boolean | number | string[];
+
+function isTrustEntry(entry: string): boolean {
+  if (['loopback', 'linklocal', 'uniquelocal'].includes(entry)) return true;
+  const [address, bits, extra] = entry.split('/');
+  if (extra !== undefined || !isIP(address)) return false;
+  if (bits === undefined) return true;
+  if (isIP(bits)) return true; // a netmask, like 255.255.255.0
+  const max = isIP(address) === 4 ? 32 : 128;
+  return /^\d+$/.test(bits) && Number(bits) <= max;
+}
 
 export interface GithubConfig {
   clientId: string;
@@ -78,6 +116,8 @@ export interface AppConfig {
   pgPort: number;
   sessionSecret: string;
   logLevel: RawEnv['LOG_LEVEL'];
+  /** Express's 'trust proxy' setting; false unless TRUST_PROXY names the proxies. */
+  trustProxy: TrustProxy;
   uploadsDir: string;
   smtp: { host: string; port: number; secure: boolean; user?: string; password?: string };
   mailFrom: string;
@@ -94,7 +134,7 @@ export interface AppConfig {
   };
   /** Days a builder has to answer an inspection record before it counts as accepted. */
   reviewWindowDays: number;
-  rateLimits: { signInMax: number; signUpMax: number; calculationsPerMinute: number; messagesPer10s: number };
+  rateLimits: { signInMax: number; signUpMax: number; calculationsPerMinute: number; messagesPer10s: number; resetPerAddress: number };
 }
 
 export function loadConfig(source: NodeJS.ProcessEnv = process.env): AppConfig {
@@ -135,6 +175,7 @@ export function loadConfig(source: NodeJS.ProcessEnv = process.env): AppConfig {
     pgPort: env.TENTHMARK_PG_PORT,
     sessionSecret: env.SESSION_SECRET ?? 'tenthmark-local-development-secret',
     logLevel: env.LOG_LEVEL,
+    trustProxy: env.TRUST_PROXY,
     uploadsDir: env.UPLOADS_DIR ?? fileURLToPath(new URL('../uploads', import.meta.url)),
     smtp: {
       host: env.SMTP_HOST,
@@ -160,6 +201,7 @@ export function loadConfig(source: NodeJS.ProcessEnv = process.env): AppConfig {
       signUpMax: env.RATE_LIMIT_SIGNUP_MAX,
       calculationsPerMinute: env.RATE_LIMIT_CALCULATIONS_PER_MINUTE,
       messagesPer10s: env.RATE_LIMIT_MESSAGES_PER_10S,
+      resetPerAddress: env.RATE_LIMIT_RESET_PER_ADDRESS,
     },
   };
 }

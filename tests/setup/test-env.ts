@@ -56,6 +56,7 @@ export function testConfig(databaseUrl: string, overrides: Record<string, string
     GITHUB_STAND_IN_URL: inject('githubStandInUrl'),
     // Every test shares 127.0.0.1; the sign-in limit stays at its real value.
     RATE_LIMIT_SIGNUP_MAX: '1000',
+    RATE_LIMIT_RESET_PER_ADDRESS: '1000',
     ...overrides,
   });
 }

@@ -1,5 +1,4 @@
 import { Router, type Request } from 'express';
-import { ipKeyGenerator } from 'express-rate-limit';
 import {
   githubCompleteSchema,
   passwordResetConfirmSchema,
@@ -39,10 +38,14 @@ export interface AuthRouterDeps {
 const logIn = (req: Request, user: User) =>
   new Promise<void>((resolve, reject) => req.login(user, (err) => (err ? reject(err) : resolve())));
 
-/** Only a string counts as the e-mail: String() of a deeply nested array overflows the stack. */
+/**
+ * The account a request names, whatever address it comes from, so limits per
+ * account cannot be reset by changing address. Only a string counts as the
+ * e-mail: String() of a deeply nested array overflows the stack.
+ */
 const emailKey = (req: Request) => {
   const email = (req.body as { email?: unknown } | undefined)?.email;
-  return `${ipKeyGenerator(req.ip ?? '')}|${typeof email === 'string' ? email.trim().toLowerCase() : ''}`;
+  return `account|${typeof email === 'string' ? email.trim().toLowerCase() : ''}`;
 };
 
 export function authRouter(deps: AuthRouterDeps) {
@@ -83,6 +86,13 @@ export function authRouter(deps: AuthRouterDeps) {
     limit: 5,
     keyGenerator: emailKey,
     message: 'Too many reset requests for this address. Check your inbox, or try again in an hour.',
+  });
+  const resetPerAddress = createLimiter({
+    db,
+    name: 'reset-ip',
+    windowMs: hour,
+    limit: config.rateLimits.resetPerAddress,
+    message: 'Too many reset requests from your network. Try again in an hour.',
   });
 
   router.get('/csrf', (req, res) => {
@@ -133,7 +143,7 @@ export function authRouter(deps: AuthRouterDeps) {
     res.status(202).json({ sent: true });
   });
 
-  router.post('/password-reset/request', resetLimiter, async (req, res) => {
+  router.post('/password-reset/request', resetPerAddress, resetLimiter, async (req, res) => {
     const { email } = passwordResetRequestSchema.parse(req.body);
     await requestPasswordReset(serviceDeps, email);
     // The same answer whether or not the account exists.

@@ -13,7 +13,7 @@ import {
   insertUser,
   updateUser,
 } from '../users/users.repository';
-import { consumeToken, issueToken } from './tokens';
+import { consumeToken, issueToken, spendAllTokens } from './tokens';
 
 export const VERIFY_TTL_MS = 48 * 60 * 60_000;
 export const RESET_TTL_MS = 60 * 60_000;
@@ -76,7 +76,7 @@ const expiredLink = () =>
     token: 'This link has expired or was already used.',
   });
 
-/** Spends the reset link, sets the password, ends every session of the account. */
+/** Spends the reset link and every other one still out, sets the password, ends every session of the account. */
 export async function confirmPasswordReset(deps: AuthDeps, token: string, password: string): Promise<User> {
   const passwordHash = await hashPassword(password);
   return deps.db.transaction(async (tx) => {
@@ -86,6 +86,7 @@ export async function confirmPasswordReset(deps: AuthDeps, token: string, passwo
     const user = await findUserById(tx, userId);
     const updated = await updateUser(tx, userId, { passwordHash, emailVerifiedAt: user?.emailVerifiedAt ?? new Date() });
     if (!updated) throw expiredLink();
+    await spendAllTokens(tx, userId, 'reset_password');
     await deleteSessionsOfUser(tx, userId);
     await enqueueMail(tx, updated.email, passwordChangedMail({ displayName: updated.displayName }));
     return updated;

@@ -34,3 +34,11 @@ export async function consumeToken(db: Executor, token: string, purpose: Purpose
     .returning({ userId: userTokens.userId });
   return row?.userId;
 }
+
+/** Spends every unused token of one purpose a person still has, e.g. all reset links once the password has changed. */
+export async function spendAllTokens(db: Executor, userId: string, purpose: Purpose): Promise<void> {
+  await db
+    .update(userTokens)
+    .set({ usedAt: new Date() })
+    .where(and(eq(userTokens.userId, userId), eq(userTokens.purpose, purpose), isNull(userTokens.usedAt)));
+}
