@@ -9,6 +9,26 @@ export const engineLayouts = ['inline', 'v', 'flat', 'other'] as const;
 export const pistonTypes = ['cast', 'hypereutectic', 'forged'] as const;
 export const logisticsOptions = ['ship', 'drop-off'] as const;
 
+/** Today as YYYY-MM-DD by the UTC calendar, the same in the browser and on the server. */
+const utcDay = (date: Date) => date.toISOString().slice(0, 10);
+const isPlainDate = (value: string) => /^\d{4}-\d{2}-\d{2}$/.test(value);
+
+export const NEEDED_BY_PAST_MESSAGE = 'Pick a date in the future: the work cannot be needed by a day that has passed.';
+export const NEEDED_BY_FAR_MESSAGE = 'Pick a date within two years from today.';
+
+/**
+ * The date a builder needs the work by: in the future (today counts, by the
+ * UTC calendar, so no time zone's tomorrow is refused) and within two years.
+ */
+export const neededBySchema = isoDateSchema('Needed by')
+  .refine((value) => !isPlainDate(value) || value >= utcDay(new Date()), NEEDED_BY_PAST_MESSAGE)
+  .refine((value) => {
+    if (!isPlainDate(value)) return true;
+    const limit = new Date();
+    limit.setUTCFullYear(limit.getUTCFullYear() + 2);
+    return value <= utcDay(limit);
+  }, NEEDED_BY_FAR_MESSAGE);
+
 const optionalPositive = (label: string, max = 10_000) =>
   z
     .number({ error: `${label} must be a number.` })
@@ -63,7 +83,7 @@ export const jobFieldsSchema = z.object({
     .max(20, 'At most 20 kinds of work.'),
   logistics: z.enum(logisticsOptions, { error: 'Choose shipping or drop-off.' }),
   ...regionSchema.shape,
-  neededBy: isoDateSchema('Needed by'),
+  neededBy: neededBySchema,
   notes: z.string().trim().max(4000, 'Use at most 4,000 characters.').default(''),
 });
 

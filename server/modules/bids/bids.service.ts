@@ -1,15 +1,16 @@
-import { and, asc, desc, eq, inArray, ne, sql } from 'drizzle-orm';
+import { and, asc, desc, eq, inArray, ne, or, sql } from 'drizzle-orm';
 import { lineAmountCents } from '../../../shared/catalogue';
 import type { Bid, BidInput, BidLine, BidRevision } from '../../../shared/schemas/bids';
 import type { Database, Executor } from '../../db/client';
 import { bidLineItems, bidRevisions, bids, jobs, shops, users, type User } from '../../db/schema';
+import { assertEmailConfirmed } from '../../lib/auth/guards';
 import { AppError, conflict, forbidden, notFound } from '../../lib/errors';
 import { enqueueMail } from '../../lib/mail/outbox';
 import { bidAcceptedMail, bidDeclinedMail, bidRevisedMail, newBidMail } from '../../lib/mail/templates';
 import { currentFee } from '../admin/platform-fee';
 import { findJob, type JobRow } from '../jobs/jobs.repository';
 import { jobForViewer } from '../jobs/jobs.service';
-import { findShopByUser, type ShopRow } from '../shops/shops.repository';
+import { findShopByUser, shopIsListed, shopSuspended, type ShopRow } from '../shops/shops.repository';
 import { shopRatings } from '../reviews/ratings';
 
 export interface BidDeps {
@@ -67,6 +68,7 @@ async function shopContact(tx: Executor, shopId: string) {
 }
 
 export async function createBid(deps: BidDeps, user: User, jobId: string, input: BidInput): Promise<string> {
+  assertEmailConfirmed(user, 'bid');
   const { lines, totalCents } = priceLines(input);
   if (input.validUntil < today()) throw new AppError('invalid_input', 'A bid must be valid until today or later.', 400, { validUntil: 'Pick today or a later date.' });
   return deps.db.transaction(async (tx) => {
@@ -113,6 +115,7 @@ async function ownBid(tx: Executor, user: User, bidId: string) {
 }
 
 export async function reviseBid(deps: BidDeps, user: User, bidId: string, input: BidInput): Promise<void> {
+  assertEmailConfirmed(user, 'bid');
   const { lines, totalCents } = priceLines(input);
   if (input.validUntil < today()) throw new AppError('invalid_input', 'A bid must be valid until today or later.', 400, { validUntil: 'Pick today or a later date.' });
   await deps.db.transaction(async (tx) => {
@@ -171,6 +174,7 @@ export async function acceptBid(deps: BidDeps, user: User, bidId: string): Promi
     if (bid.status !== 'active') throw conflict('This bid is no longer active.', 'bid_not_active');
     if (bid.validUntil < today()) throw conflict('This bid has expired; ask the shop to revise it.', 'bid_expired');
     const [shop] = await tx.select({ ready: shops.payoutsReadyAt }).from(shops).where(eq(shops.id, bid.shopId));
+    if (await shopSuspended(tx, bid.shopId)) throw conflict('This shop’s account is suspended, so its bid cannot be accepted.', 'shop_suspended');
     if (!shop?.ready) throw conflict('This shop has not finished setting up its payout account, so its bid cannot be accepted yet.', 'shop_payouts_not_ready');
     const now = new Date();
     await tx.update(bids).set({ status: 'accepted', decidedAt: now, updatedAt: now }).where(eq(bids.id, bid.id));
@@ -239,7 +243,11 @@ async function present(db: Executor, rows: BidRow[]): Promise<Bid[]> {
   });
 }
 
-/** A job's bids: all of them for its builder and admins, only its own for a shop. */
+/**
+ * A job's bids: its own for a shop; for its builder every bid except those of
+ * suspended shops, which disappear, though the bid the builder accepted stays
+ * (they need to know who has their block); everything for admins.
+ */
 export async function bidsForJob(deps: BidDeps, user: User, jobId: string): Promise<Bid[]> {
   const job = await jobForViewer(deps.db, jobId, user);
   let where = eq(bids.jobId, job.id);
@@ -247,8 +255,10 @@ export async function bidsForJob(deps: BidDeps, user: User, jobId: string): Prom
     const shop = await findShopByUser(deps.db, user.id);
     if (!shop) return [];
     where = and(where, eq(bids.shopId, shop.id))!;
-  } else if (user.role === 'builder' && job.builderId !== user.id) {
-    throw forbidden('Only the builder who posted this job sees its bids.');
+  } else if (user.role === 'builder') {
+    if (job.builderId !== user.id) throw forbidden('Only the builder who posted this job sees its bids.');
+    const listedShops = deps.db.select({ id: shops.id }).from(shops).where(shopIsListed);
+    where = and(where, or(eq(bids.status, 'accepted'), inArray(bids.shopId, listedShops)))!;
   }
   const rows = await deps.db.select().from(bids).where(where).orderBy(asc(bids.totalCents), asc(bids.createdAt));
   return present(deps.db, rows);

@@ -3,11 +3,14 @@ import { randomUUID } from 'node:crypto';
 import type { JobDetail, JobInput } from '../../../shared/schemas/jobs';
 import type { Database, Executor } from '../../db/client';
 import { bids, jobPhotos, jobs, shops, users, type User } from '../../db/schema';
+import { assertEmailConfirmed } from '../../lib/auth/guards';
 import { AppError, conflict, forbidden, notFound } from '../../lib/errors';
 import { processPhoto, type ProcessedPhoto } from '../../lib/images';
 import { enqueueMail } from '../../lib/mail/outbox';
 import { jobCancelledMail, jobChangedMail, matchingJobMail } from '../../lib/mail/templates';
 import type { FileStorage } from '../../lib/storage';
+import type { PaymentsClient } from '../../lib/payments-client';
+import { closeOpenCheckouts, expireOpenCheckouts } from '../payments/open-checkouts';
 import { findShopByUser } from '../shops/shops.repository';
 import { columnsFromInput, findJob, insertJob, photosOf, photoUrl, type JobRow } from './jobs.repository';
 
@@ -17,6 +20,8 @@ export interface JobDeps {
   db: Database;
   appUrl: string;
   storage: FileStorage;
+  /** The payment API, to expire a cancelled job's open payment pages (without it they are left to the task runner). */
+  payments?: PaymentsClient;
 }
 
 const jobUrl = (deps: { appUrl: string }, id: string) => `${deps.appUrl}/jobs/${id}`;
@@ -131,6 +136,7 @@ export async function updateJob(deps: JobDeps, user: User, jobId: string, input:
 
 /** Draft to open; shops that asked for matching jobs and can do all the work are told. */
 export async function publishJob(deps: JobDeps, user: User, jobId: string): Promise<JobRow> {
+  assertEmailConfirmed(user, 'publish a job');
   return deps.db.transaction(async (tx) => {
     const job = await ownJobForUpdate(tx, jobId, user);
     if (job.status !== 'draft') throw conflict('Only a draft can be published; this job is already out.', 'job_not_draft');
@@ -152,9 +158,13 @@ export async function publishJob(deps: JobDeps, user: User, jobId: string): Prom
   });
 }
 
-/** Before payment a job can be cancelled freely; its open bids close and their shops are told. */
+/**
+ * Before payment a job can be cancelled freely; its open bids close and their
+ * shops are told. A payment page the builder still has open is expired at the
+ * provider once the cancel is saved (see open-checkouts.ts).
+ */
 export async function cancelJob(deps: JobDeps, user: User, jobId: string): Promise<JobRow> {
-  return deps.db.transaction(async (tx) => {
+  const cancelled = await deps.db.transaction(async (tx) => {
     const job = await ownJobForUpdate(tx, jobId, user);
     if (!['draft', 'open', 'awarded'].includes(job.status)) {
       throw conflict('A paid job cannot be cancelled here; ask for a refund instead.', 'job_not_cancellable');
@@ -175,11 +185,26 @@ export async function cancelJob(deps: JobDeps, user: User, jobId: string): Promi
       .where(eq(jobs.id, job.id))
       .returning();
     for (const shop of affected) await enqueueMail(tx, shop.email, jobCancelledMail({ shopName: shop.shopName, jobTitle: job.title }));
+    await closeOpenCheckouts(tx, { jobId: job.id });
     return cancelled;
   });
+  if (deps.payments) await expireOpenCheckouts({ db: deps.db, payments: deps.payments }, jobId);
+  return cancelled;
 }
 
 const photoKey = (jobId: string, id: string, size: 'large' | 'thumb') => `jobs/${jobId}/${id}-${size}.webp`;
+
+/**
+ * Refuses, before any bytes are read, anyone but the job's builder (404 for
+ * someone else's draft, 403 otherwise) and a job that no longer takes photos.
+ * addPhotos checks again under the job's row lock.
+ */
+export async function assertMayAddPhotos(db: Executor, user: User, jobId: string): Promise<void> {
+  const job = await findJob(db, jobId);
+  if (!job || (job.builderId !== user.id && job.status === 'draft')) throw notFound('No job with that id.');
+  if (job.builderId !== user.id) throw forbidden('Only the builder who posted this job can change it.');
+  if (!['draft', 'open'].includes(job.status)) throw conflict('Photos can be added only while the job is a draft or open.', 'job_not_editable');
+}
 
 /**
  * Adds photos to a job. Every file is checked and re-encoded before anything

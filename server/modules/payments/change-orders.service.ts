@@ -1,9 +1,11 @@
 import { and, asc, eq, inArray } from 'drizzle-orm';
 import type { ChangeOrder, ChangeOrderInput } from '../../../shared/schemas/payments';
 import { bids, changeOrders, payments, type User } from '../../db/schema';
+import { assertEmailConfirmed } from '../../lib/auth/guards';
 import { conflict, forbidden, notFound } from '../../lib/errors';
 import { findJob } from '../jobs/jobs.repository';
 import { findShopByUser } from '../shops/shops.repository';
+import { closeOpenCheckouts, expireOpenCheckouts } from './open-checkouts';
 import { startChangeOrderCheckout, type PaymentDeps } from './payments.service';
 
 const toView = (row: typeof changeOrders.$inferSelect): ChangeOrder => ({
@@ -41,6 +43,7 @@ async function builderChangeOrder(deps: PaymentDeps, user: User, id: string) {
 
 /** The builder agrees and pays the difference: a second checkout in the job's transfer group. */
 export async function approveChangeOrder(deps: PaymentDeps, user: User, id: string): Promise<{ url: string }> {
+  assertEmailConfirmed(user, 'pay');
   const { row, job } = await builderChangeOrder(deps, user, id);
   if (!['proposed', 'approved'].includes(row.status)) throw conflict('This change order is already settled.', 'change_order_settled');
   if (!['funded', 'in_work'].includes(job.status)) throw conflict('The job is past the point where extra work can be paid for.', 'job_not_in_work');
@@ -48,11 +51,24 @@ export async function approveChangeOrder(deps: PaymentDeps, user: User, id: stri
   return startChangeOrderCheckout(deps, job, row);
 }
 
+/**
+ * The builder says no to extra work: while it is proposed, or agreed but not
+ * yet paid (its payment page is then expired; a payment that still gets
+ * through is refunded when it arrives).
+ */
 export async function declineChangeOrder(deps: PaymentDeps, user: User, id: string): Promise<ChangeOrder> {
   const { row } = await builderChangeOrder(deps, user, id);
-  if (row.status !== 'proposed') throw conflict('Only a proposed change order can be declined.', 'change_order_settled');
-  const paid = await deps.db.select({ id: payments.id }).from(payments).where(and(eq(payments.changeOrderId, row.id), inArray(payments.status, ['paid'])));
-  if (paid.length) throw conflict('This change order is paid.', 'change_order_settled');
-  const [updated] = await deps.db.update(changeOrders).set({ status: 'declined', decidedAt: new Date(), updatedAt: new Date() }).where(eq(changeOrders.id, row.id)).returning();
+  const updated = await deps.db.transaction(async (tx) => {
+    // The job's lock first, as a payment arriving for this change order takes it.
+    await findJob(tx, row.jobId, { forUpdate: true });
+    const [current] = await tx.select().from(changeOrders).where(eq(changeOrders.id, row.id)).for('update');
+    if (!['proposed', 'approved'].includes(current.status)) throw conflict('Only a change order that is not paid can be declined.', 'change_order_settled');
+    const paid = await tx.select({ id: payments.id }).from(payments).where(and(eq(payments.changeOrderId, row.id), inArray(payments.status, ['paid'])));
+    if (paid.length) throw conflict('This change order is paid.', 'change_order_settled');
+    const [declined] = await tx.update(changeOrders).set({ status: 'declined', decidedAt: new Date(), updatedAt: new Date() }).where(eq(changeOrders.id, row.id)).returning();
+    await closeOpenCheckouts(tx, { jobId: row.jobId, changeOrderId: row.id });
+    return declined;
+  });
+  await expireOpenCheckouts(deps, row.jobId);
   return toView(updated);
 }

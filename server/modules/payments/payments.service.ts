@@ -1,15 +1,17 @@
-import { and, asc, eq, inArray, lte, sql } from 'drizzle-orm';
+import { and, asc, eq, inArray, lte, ne, sql } from 'drizzle-orm';
 import type Stripe from 'stripe';
 import type { Database, Executor } from '../../db/client';
 import { bids, changeOrders, jobs, moneyMoves, payments, shops, users, type User } from '../../db/schema';
+import { assertEmailConfirmed } from '../../lib/auth/guards';
 import { AppError, conflict, forbidden, notFound } from '../../lib/errors';
 import { enqueueMail } from '../../lib/mail/outbox';
-import { paymentReceiptMail, payoutSentMail, refundSentMail } from '../../lib/mail/templates';
+import { latePaymentRefundedMail, paymentReceiptMail, payoutSentMail, refundSentMail, type LatePaymentReason } from '../../lib/mail/templates';
 import type { PaymentsClient } from '../../lib/payments-client';
 import type { RealtimeHub } from '../../realtime/hub';
 import { findJob } from '../jobs/jobs.repository';
 import { findShopByUser } from '../shops/shops.repository';
 import { appendLedger, feeFor, jobBalance } from './ledger';
+import { closeOpenCheckouts, expireCheckoutSession, expireOpenCheckouts, scheduleCheckoutExpiry } from './open-checkouts';
 
 export interface PaymentDeps {
   db: Database;
@@ -84,11 +86,15 @@ async function checkoutFor(deps: PaymentDeps, payment: typeof payments.$inferSel
  * pressing Pay twice makes one Checkout Session.
  */
 export async function startJobCheckout(deps: PaymentDeps, user: User, jobId: string): Promise<{ url: string }> {
+  assertEmailConfirmed(user, 'pay');
   const job = await findJob(deps.db, jobId);
   if (!job || job.builderId !== user.id) throw notFound('No job with that id.');
   if (job.status !== 'awarded' || !job.awardedBidId) throw conflict('Only a job with an accepted bid waits for payment.', 'job_not_awarded');
   const [bid] = await deps.db.select().from(bids).where(eq(bids.id, job.awardedBidId));
   const payment = await deps.db.transaction(async (tx) => {
+    // Under the job's lock, as a cancel takes it: no payment starts for a job cancelled a moment ago.
+    const locked = await findJob(tx, job.id, { forUpdate: true });
+    if (locked?.status !== 'awarded' || locked.awardedBidId !== bid.id) throw conflict('Only a job with an accepted bid waits for payment.', 'job_not_awarded');
     const [existing] = await tx
       .select()
       .from(payments)
@@ -96,11 +102,32 @@ export async function startJobCheckout(deps: PaymentDeps, user: User, jobId: str
       .for('update');
     if (existing?.status === 'paid') throw conflict('This job is already paid.', 'already_paid');
     if (existing) return existing;
-    const [created] = await tx.insert(payments).values({ jobId: job.id, kind: 'bid', amountCents: bid.totalCents, currency: currencyOf(deps) }).returning();
+    const [created] = await tx.insert(payments).values({ jobId: job.id, kind: 'bid', bidId: bid.id, amountCents: bid.totalCents, currency: currencyOf(deps) }).returning();
     return created;
   });
   const session = await checkoutFor(deps, payment, `Machine work: ${job.title}`);
-  await deps.db.update(payments).set({ checkoutSessionId: session.id, updatedAt: new Date() }).where(eq(payments.id, payment.id));
+  return keepSession(deps, payment, session);
+}
+
+/**
+ * Records the payment's page. A page that replaces an older one (the provider
+ * made a new session for the same payment) retires the old one; a payment that
+ * stopped waiting while the page was being made (the job was cancelled) gets
+ * its new page expired at once instead of handed out.
+ */
+async function keepSession(deps: PaymentDeps, payment: typeof payments.$inferSelect, session: Stripe.Checkout.Session): Promise<{ url: string }> {
+  const kept = await deps.db.transaction(async (tx) => {
+    const [row] = await tx.select().from(payments).where(eq(payments.id, payment.id)).for('update');
+    if (row.status !== 'pending') return false;
+    if (row.checkoutSessionId && row.checkoutSessionId !== session.id) await scheduleCheckoutExpiry(tx, row.jobId, row.checkoutSessionId);
+    await tx.update(payments).set({ checkoutSessionId: session.id, updatedAt: new Date() }).where(eq(payments.id, payment.id));
+    return true;
+  });
+  if (!kept) {
+    await expireCheckoutSession(deps.payments, session.id).catch(() => {});
+    throw conflict('This payment is no longer needed.', 'payment_not_needed');
+  }
+  await expireOpenCheckouts(deps, payment.jobId);
   return { url: session.url! };
 }
 
@@ -111,6 +138,12 @@ export async function startChangeOrderCheckout(
   order: typeof changeOrders.$inferSelect,
 ): Promise<{ url: string }> {
   const payment = await deps.db.transaction(async (tx) => {
+    // Under the job's lock, as a decline, a cancel or the job's settlement takes it.
+    const locked = await findJob(tx, job.id, { forUpdate: true });
+    const [current] = await tx.select({ status: changeOrders.status }).from(changeOrders).where(eq(changeOrders.id, order.id));
+    if (!locked || !CHANGE_ORDER_PAYABLE.has(locked.status) || current?.status !== 'approved') {
+      throw conflict('This change order can no longer be paid.', 'change_order_settled');
+    }
     const [existing] = await tx
       .select()
       .from(payments)
@@ -125,14 +158,20 @@ export async function startChangeOrderCheckout(
     return created;
   });
   const session = await checkoutFor(deps, payment, `Extra work on ${job.title}: ${order.description}`.slice(0, 250));
-  await deps.db.update(payments).set({ checkoutSessionId: session.id, updatedAt: new Date() }).where(eq(payments.id, payment.id));
-  return { url: session.url! };
+  return keepSession(deps, payment, session);
 }
+
+/** Where a change order's checkout may be opened (the builder agrees while the work is on). */
+const CHANGE_ORDER_PAYABLE = new Set(['funded', 'in_work']);
+/** Where a change order's payment may still arrive and be held with the rest (before the job's money is decided). */
+const CHANGE_ORDER_RECEIVABLE = new Set(['funded', 'in_work', 'inspection_submitted', 'disputed']);
 
 /**
  * A Checkout Session finished. The session is read back from the API (never
  * trusted from the event alone) and, when paid, the payment, its ledger entry
- * and the job's new state are written in one transaction, once.
+ * and the job's new state are written in one transaction, once. Money that
+ * arrives when the job can no longer take it (see whyNotTaken) is entered and
+ * sent back in full instead, also once.
  */
 export async function applyCheckoutSession(deps: PaymentDeps, sessionId: string): Promise<void> {
   const session = await deps.payments.checkout.sessions.retrieve(sessionId, { expand: ['payment_intent.latest_charge'] });
@@ -140,34 +179,113 @@ export async function applyCheckoutSession(deps: PaymentDeps, sessionId: string)
   if (!paymentId) return;
   const intent = session.payment_intent as Stripe.PaymentIntent | null;
   const charge = intent && typeof intent === 'object' ? (intent.latest_charge as Stripe.Charge | null) : null;
-  let jobId: string | undefined;
+  const [known] = await deps.db.select({ jobId: payments.jobId }).from(payments).where(eq(payments.id, paymentId));
+  if (!known) return;
+  const jobId = known.jobId;
+  let lateMoveId: string | undefined;
   await deps.db.transaction(async (tx) => {
+    // The job's row lock first, as a cancel, a decline and the money's settlement take it: a payment and the change that ends its need never pass each other.
+    const job = (await findJob(tx, jobId, { forUpdate: true }))!;
     const [payment] = await tx.select().from(payments).where(eq(payments.id, paymentId)).for('update');
-    if (!payment) return;
-    jobId = payment.jobId;
     if (session.status === 'expired' && payment.status === 'pending') {
       await tx.update(payments).set({ status: 'expired', updatedAt: new Date() }).where(eq(payments.id, payment.id));
       return;
     }
-    if (session.payment_status !== 'paid' || !intent || !charge || payment.status === 'paid') return;
+    if (session.payment_status !== 'paid' || !intent || !charge) return;
+    // This money is entered already (taken, or sent back): a repeated or concurrent delivery changes nothing.
+    const [seen] = await tx.select({ id: payments.id }).from(payments).where(and(eq(payments.jobId, jobId), eq(payments.chargeId, charge.id)));
+    if (seen) return;
     if (session.amount_total !== payment.amountCents) throw new Error(`paid ${session.amount_total} for a payment of ${payment.amountCents}`);
+    const reason = await whyNotTaken(tx, job, payment);
+    if (reason) {
+      lateMoveId = await sendBackLatePayment(deps, tx, { job, payment, session, intent, charge, reason });
+      return;
+    }
     await tx
       .update(payments)
       .set({ status: 'paid', paidAt: new Date(), paymentIntentId: intent.id, chargeId: charge.id, checkoutSessionId: session.id, failureMessage: null, updatedAt: new Date() })
       .where(eq(payments.id, payment.id));
+    // Another page made for the same payment is no longer wanted.
+    if (payment.checkoutSessionId && payment.checkoutSessionId !== session.id) await scheduleCheckoutExpiry(tx, jobId, payment.checkoutSessionId);
     await appendLedger(tx, { jobId: payment.jobId, paymentId: payment.id, kind: 'paid_in', amountCents: payment.amountCents, reference: charge.id });
     if (payment.kind === 'bid') {
       await tx.update(jobs).set({ status: 'funded', updatedAt: new Date() }).where(and(eq(jobs.id, payment.jobId), eq(jobs.status, 'awarded')));
     } else if (payment.changeOrderId) {
       await tx.update(changeOrders).set({ status: 'paid', updatedAt: new Date() }).where(eq(changeOrders.id, payment.changeOrderId));
     }
-    const job = (await findJob(tx, payment.jobId))!;
     const parties = await partiesOf(tx, job.id);
     const receipt = { jobTitle: job.title, amountCents: payment.amountCents, what: payment.kind === 'bid' ? 'the accepted bid' : 'a change order', url: `${deps.appUrl}/jobs/${job.id}` };
     await enqueueMail(tx, parties.builderEmail, paymentReceiptMail({ ...receipt, name: parties.builderName, side: 'builder' }));
     if (parties.shopEmail) await enqueueMail(tx, parties.shopEmail, paymentReceiptMail({ ...receipt, name: parties.shopName!, side: 'shop' }));
   });
-  if (jobId) deps.hub?.jobChanged(jobId, 'job_updated');
+  await expireOpenCheckouts(deps, jobId);
+  if (lateMoveId) await runMove(deps, lateMoveId);
+  deps.hub?.jobChanged(jobId, 'job_updated');
+}
+
+const SETTLED = new Set(['completed', 'resolved']);
+
+/**
+ * Why a paid session cannot be taken, or null when the job is waiting for it:
+ * a bid payment while the job is awarded to that bid and the payment waits; a
+ * change order's while it is agreed and unpaid and the job's money is not yet
+ * decided. Runs under the job's and the payment's row locks.
+ */
+async function whyNotTaken(tx: Executor, job: typeof jobs.$inferSelect, payment: typeof payments.$inferSelect): Promise<LatePaymentReason | null> {
+  if (job.status === 'cancelled') return 'job_cancelled';
+  if (SETTLED.has(job.status)) return 'job_finished';
+  if (payment.kind === 'bid') {
+    if (job.status !== 'awarded' || (payment.bidId && payment.bidId !== job.awardedBidId)) return job.status === 'draft' || job.status === 'open' ? 'job_cancelled' : 'already_paid';
+    return payment.status === 'pending' ? null : 'already_paid';
+  }
+  const [order] = payment.changeOrderId ? await tx.select().from(changeOrders).where(eq(changeOrders.id, payment.changeOrderId)) : [];
+  if (!order || order.status === 'declined') return 'change_order_declined';
+  if (order.status === 'paid' || payment.status === 'paid') return 'already_paid';
+  if (!CHANGE_ORDER_RECEIVABLE.has(job.status)) return 'job_finished';
+  // Once the job's money is decided (released, refunded or split), nothing more can join it.
+  const [decided] = await tx.select({ id: moneyMoves.id }).from(moneyMoves).where(and(eq(moneyMoves.jobId, job.id), ne(moneyMoves.kind, 'late_refund'))).limit(1);
+  if (decided) return 'job_finished';
+  return payment.status === 'pending' ? null : 'change_order_declined';
+}
+
+/**
+ * Enters money that cannot be used and plans sending it back in full, in the
+ * caller's transaction: the payment in the ledger, a refund keyed by the
+ * session (so it is made once however often this runs or is retried), and a
+ * mail to the builder and the shop. The refund itself runs after the commit,
+ * and the money worker retries it while the provider is away.
+ */
+async function sendBackLatePayment(
+  deps: PaymentDeps,
+  tx: Executor,
+  late: { job: typeof jobs.$inferSelect; payment: typeof payments.$inferSelect; session: Stripe.Checkout.Session; intent: Stripe.PaymentIntent; charge: Stripe.Charge; reason: LatePaymentReason },
+): Promise<string | undefined> {
+  const { job, payment, session, intent, charge, reason } = late;
+  const amountCents = session.amount_total ?? payment.amountCents;
+  const money = { status: 'refunded' as const, paidAt: new Date(), paymentIntentId: intent.id, chargeId: charge.id, checkoutSessionId: session.id, failureMessage: null, updatedAt: new Date() };
+  let rowId = payment.id;
+  if (payment.status === 'paid' || payment.status === 'refunded') {
+    // The payment was settled by another page: this money gets a row of its own.
+    const [row] = await tx
+      .insert(payments)
+      .values({ jobId: job.id, kind: payment.kind, bidId: payment.bidId, changeOrderId: payment.changeOrderId, amountCents, currency: payment.currency, ...money })
+      .returning({ id: payments.id });
+    rowId = row.id;
+  } else {
+    await tx.update(payments).set(money).where(eq(payments.id, payment.id));
+  }
+  await appendLedger(tx, { jobId: job.id, paymentId: rowId, kind: 'paid_in', amountCents, reference: charge.id });
+  const [move] = await tx
+    .insert(moneyMoves)
+    .values({ jobId: job.id, paymentId: rowId, kind: 'late_refund', amountCents, idempotencyKey: `late-refund-${session.id}` })
+    .onConflictDoNothing()
+    .returning({ id: moneyMoves.id });
+
+  const parties = await partiesOf(tx, job.id, payment);
+  const mail = { jobTitle: job.title, amountCents, reason, what: payment.kind === 'bid' ? 'the accepted bid' : 'extra work', url: `${deps.appUrl}/jobs/${job.id}` };
+  await enqueueMail(tx, parties.builderEmail, latePaymentRefundedMail({ ...mail, name: parties.builderName, side: 'builder' }));
+  if (parties.shopEmail) await enqueueMail(tx, parties.shopEmail, latePaymentRefundedMail({ ...mail, name: parties.shopName!, side: 'shop' }));
+  return move?.id;
 }
 
 /** Remembers why a card was refused, for the builder's page. */
@@ -184,24 +302,26 @@ export async function applyPaymentFailed(deps: PaymentDeps, intent: Stripe.Payme
   if (updated) deps.hub?.jobChanged(updated.jobId, 'job_updated');
 }
 
-async function partiesOf(tx: Executor, jobId: string) {
+/**
+ * The job's builder and the shop doing the work. With a payment, the shop is
+ * the one that payment was for (its bid or change order), which a cancelled
+ * job no longer names as awarded.
+ */
+async function partiesOf(tx: Executor, jobId: string, payment?: Pick<typeof payments.$inferSelect, 'bidId' | 'changeOrderId'>) {
   const [row] = await tx
     .select({ builderEmail: users.email, builderName: users.displayName, awardedBidId: jobs.awardedBidId })
     .from(jobs)
     .innerJoin(users, eq(users.id, jobs.builderId))
     .where(eq(jobs.id, jobId));
-  let shopEmail: string | undefined;
-  let shopName: string | undefined;
-  if (row.awardedBidId) {
-    const [shop] = await tx
-      .select({ email: users.email, name: shops.name })
-      .from(bids)
-      .innerJoin(shops, eq(shops.id, bids.shopId))
-      .innerJoin(users, eq(users.id, shops.userId))
-      .where(eq(bids.id, row.awardedBidId));
-    shopEmail = shop?.email;
-    shopName = shop?.name;
-  }
+  const bidId = payment?.bidId ?? row.awardedBidId;
+  const [owner] = payment?.changeOrderId
+    ? await tx.select({ shopId: changeOrders.shopId }).from(changeOrders).where(eq(changeOrders.id, payment.changeOrderId))
+    : bidId
+      ? await tx.select({ shopId: bids.shopId }).from(bids).where(eq(bids.id, bidId))
+      : [];
+  const [shop] = owner ? await tx.select({ email: users.email, name: shops.name }).from(shops).innerJoin(users, eq(users.id, shops.userId)).where(eq(shops.id, owner.shopId)) : [];
+  const shopEmail: string | undefined = shop?.email;
+  const shopName: string | undefined = shop?.name;
   return { ...row, shopEmail, shopName };
 }
 
@@ -224,8 +344,11 @@ async function awardedShop(tx: Executor, jobId: string) {
 export async function planMoves(tx: Executor, jobId: string, shopShareCents: number | 'all'): Promise<void> {
   const job = await findJob(tx, jobId, { forUpdate: true });
   if (!job) throw notFound('No job with that id.');
+  // The job's money is being decided: pages still open for it (a change order's) are no longer wanted.
+  await closeOpenCheckouts(tx, { jobId });
   const paid = await tx.select().from(payments).where(and(eq(payments.jobId, jobId), eq(payments.status, 'paid'))).orderBy(asc(payments.paidAt));
-  const planned = await tx.select().from(moneyMoves).where(eq(moneyMoves.jobId, jobId));
+  // A late payment's refund is not part of the job's decision.
+  const planned = await tx.select().from(moneyMoves).where(and(eq(moneyMoves.jobId, jobId), ne(moneyMoves.kind, 'late_refund')));
   if (planned.length > 0) return; // already decided: the same decision is carried out, not a second one
   if (paid.length === 0) throw conflict('Nothing has been paid for this job.', 'nothing_held');
   const total = paid.reduce((sum, p) => sum + p.amountCents, 0);
@@ -287,7 +410,8 @@ export async function runMove(deps: PaymentDeps, moveId: string): Promise<'done'
       } else {
         await appendLedger(tx, { jobId: move.jobId, paymentId: payment.id, kind: 'refunded', amountCents: move.amountCents, reference: providerId });
       }
-      await settleJobIfEmpty(deps, tx, move.jobId);
+      // A late payment's refund stands apart: its people were told when it was planned, and the job's state is not its business.
+      if (move.kind !== 'late_refund') await settleJobIfEmpty(deps, tx, move.jobId);
     });
     return 'done';
   } catch (error) {
@@ -307,9 +431,14 @@ export async function runMove(deps: PaymentDeps, moveId: string): Promise<'done'
 
 /** Once nothing is held and every movement is done, the job reaches its end state and both sides get a receipt. */
 async function settleJobIfEmpty(deps: PaymentDeps, tx: Executor, jobId: string) {
-  const pending = await tx.select({ id: moneyMoves.id }).from(moneyMoves).where(and(eq(moneyMoves.jobId, jobId), eq(moneyMoves.status, 'pending')));
-  if (pending.length > 0) return;
-  const balance = await jobBalance(tx, jobId);
+  const moves = await tx.select().from(moneyMoves).where(eq(moneyMoves.jobId, jobId));
+  if (moves.some((m) => m.status === 'pending' && m.kind !== 'late_refund')) return;
+  // Late payments sent back (or on their way back) are not the job's money: leave them out of its end state and receipts.
+  const late = moves.filter((m) => m.kind === 'late_refund');
+  const lateIn = late.reduce((sum, m) => sum + m.amountCents, 0);
+  const lateBack = late.filter((m) => m.status === 'done').reduce((sum, m) => sum + m.amountCents, 0);
+  const all = await jobBalance(tx, jobId);
+  const balance = { ...all, paidIn: all.paidIn - lateIn, refunded: all.refunded - lateBack, held: all.held - (lateIn - lateBack) };
   if (balance.held !== 0) return;
   const job = (await findJob(tx, jobId, { forUpdate: true }))!;
   const parties = await partiesOf(tx, jobId);
@@ -325,6 +454,8 @@ async function settleJobIfEmpty(deps: PaymentDeps, tx: Executor, jobId: string) 
 
 /** Runs the movements already planned for a job (now; the worker retries any the provider refused). */
 export async function carryOut(deps: PaymentDeps, jobId: string) {
+  // First stop money coming in: pages closed by the decision are expired before any money goes out.
+  await expireOpenCheckouts(deps, jobId);
   const moves = await deps.db.select().from(moneyMoves).where(and(eq(moneyMoves.jobId, jobId), eq(moneyMoves.status, 'pending')));
   for (const move of moves) await runMove(deps, move.id);
   deps.hub?.jobChanged(jobId, 'job_updated');

@@ -1,7 +1,7 @@
 import { and, arrayContains, asc, eq, ilike, inArray, or, sql, type SQL } from 'drizzle-orm';
 import type { PublicShop, ShopDirectoryQuery, ShopProfileInput } from '../../../shared/schemas/shops';
 import type { Executor } from '../../db/client';
-import { shopRates, shops } from '../../db/schema';
+import { shopRates, shops, users } from '../../db/schema';
 import { shopRatings } from '../reviews/ratings';
 
 export type ShopRow = typeof shops.$inferSelect;
@@ -14,6 +14,24 @@ export async function findShopByUser(db: Executor, userId: string): Promise<Shop
 export async function findShopById(db: Executor, id: string): Promise<ShopRow | undefined> {
   const [row] = await db.select().from(shops).where(eq(shops.id, id));
   return row;
+}
+
+/**
+ * A shop shows to the public (the directory, its page, the bidder lists of
+ * jobs) only while its owner's account is active: a suspended shop disappears.
+ */
+export const shopIsListed = sql`EXISTS (SELECT 1 FROM ${users} WHERE ${users.id} = ${shops.userId} AND ${users.status} = 'active')`;
+
+/** A shop as the public sees it: undefined when there is none, or its account is suspended. */
+export async function findListedShopById(db: Executor, id: string): Promise<ShopRow | undefined> {
+  const [row] = await db.select().from(shops).where(and(eq(shops.id, id), shopIsListed));
+  return row;
+}
+
+/** Whether the account behind this shop is suspended. */
+export async function shopSuspended(db: Executor, shopId: string): Promise<boolean> {
+  const [row] = await db.select({ status: users.status }).from(shops).innerJoin(users, eq(users.id, shops.userId)).where(eq(shops.id, shopId));
+  return row?.status === 'suspended';
 }
 
 export async function ratesFor(db: Executor, shopIds: string[]) {
@@ -73,7 +91,7 @@ export function toPublicShop(row: ShopRow, rateCard: Array<{ operation: string; 
 const escapeLike = (value: string) => value.replace(/[\\%_]/g, (c) => `\\${c}`);
 
 export async function searchShops(db: Executor, query: ShopDirectoryQuery) {
-  const filters: SQL[] = [];
+  const filters: SQL[] = [shopIsListed];
   if (query.q) {
     const pattern = `%${escapeLike(query.q)}%`;
     filters.push(or(ilike(shops.name, pattern), ilike(shops.city, pattern))!);
@@ -82,7 +100,7 @@ export async function searchShops(db: Executor, query: ShopDirectoryQuery) {
   if (query.country) filters.push(sql`lower(${shops.country}) = lower(${query.country})`);
   if (query.region) filters.push(sql`lower(${shops.region}) = lower(${query.region})`);
   if (query.takesShipped !== undefined) filters.push(eq(shops.takesShipped, query.takesShipped));
-  const where = filters.length ? and(...filters) : undefined;
+  const where = and(...filters);
   const [rows, [{ total }]] = await Promise.all([
     db
       .select()

@@ -5,7 +5,7 @@ import type { Database } from '../../db/client';
 import { currentUser, requireRole } from '../../lib/auth/guards';
 import { notFound } from '../../lib/errors';
 import { shopRatings } from '../reviews/ratings';
-import { findShopById, findShopByUser, ratesFor, searchShops, toPublicShop, upsertShop, type ShopRow } from './shops.repository';
+import { findListedShopById, findShopByUser, ratesFor, searchShops, toPublicShop, upsertShop, type ShopRow } from './shops.repository';
 
 /** What a shop sees of itself: the public profile, its e-mail choice and its payout account's state. */
 function ownShop(shop: ShopRow, rateCard: Array<{ operation: string; priceCents: number }>) {
@@ -23,7 +23,7 @@ export function shopsRouter(deps: { db: Database }) {
   });
 
   router.get('/shops/:shopId', async (req, res) => {
-    const shop = await findShopById(db, uuidSchema.parse(req.params.shopId));
+    const shop = await findListedShopById(db, uuidSchema.parse(req.params.shopId));
     if (!shop) throw notFound('No shop with that id.');
     const [rates, ratings] = await Promise.all([ratesFor(db, [shop.id]), shopRatings(db, [shop.id])]);
     res.json({ shop: toPublicShop(shop, rates.get(shop.id) ?? [], ratings.get(shop.id) ?? null) });
