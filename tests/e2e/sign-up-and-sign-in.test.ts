@@ -3,7 +3,8 @@ import type { Browser, BrowserContext, Page } from 'playwright-core';
 import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, inject, it } from 'vitest';
 import { DEMO_PASSWORD, demoAccounts } from '../../server/dev/seed';
 import type { RunningServer } from '../../server/runtime';
-import { uniqueEmail } from '../factories';
+import { jobInput, uniqueEmail } from '../factories';
+import { confirmationLink } from '../setup/mail-links';
 import { artifactsDir, launchBrowser, startBrowserApp } from '../setup/browser';
 
 let browser: Browser;
@@ -71,6 +72,46 @@ describe('in a real browser', () => {
     await page.getByText('Confirmed').waitFor();
     await page.goto(url('/dashboard'));
     await page.getByText('(confirmed)').waitFor();
+    expect(consoleErrors).toEqual([]);
+  });
+
+  it('when a new builder has not confirmed the e-mail address, then the dashboard and the draft say why publishing waits, the link can be sent again, and after following it the job publishes', async () => {
+    const email = uniqueEmail('browser-builder');
+    await page.goto(url('/signup'));
+    await page.getByRole('radio', { name: /I build engines/ }).check();
+    await page.getByLabel('Your name or business name').fill('Corwen Thistlebank');
+    await page.getByLabel('E-mail').fill(email);
+    await page.getByLabel('Password').fill('engine bench password');
+    await page.getByRole('button', { name: 'Create my account' }).click();
+    await page.waitForURL(url('/dashboard'));
+
+    // The dashboard says what waits and why, and sends the link again on request.
+    const notice = page.getByRole('status').filter({ hasText: 'Please confirm your e-mail address' });
+    await expect(notice.textContent()).resolves.toContain('publishing a job and paying wait until you confirm it');
+    await notice.getByRole('button', { name: 'Send the link again' }).click();
+    await notice.getByText('A new link is on its way. Check your inbox.').waitFor();
+
+    // A draft (saving one needs no confirmation); on its page Publish waits, with the reason beside it.
+    const { id } = await page.evaluate(async (input) => {
+      const { csrfToken } = (await (await fetch('/api/auth/csrf')).json()) as { csrfToken: string };
+      const res = await fetch('/api/jobs', { method: 'POST', headers: { 'Content-Type': 'application/json', 'X-CSRF-Token': csrfToken }, body: JSON.stringify(input) });
+      return ((await res.json()) as { job: { id: string } }).job;
+    }, jobInput({ title: 'Unconfirmed builder draft' }));
+    await page.goto(url(`/jobs/${id}`));
+    const publishNotice = page.getByRole('status').filter({ hasText: 'Confirm your e-mail address to publish' });
+    await expect(publishNotice.textContent()).resolves.toContain('Shops rely on reaching you');
+    await expect(publishNotice.textContent()).resolves.toContain(email);
+    await publishNotice.getByRole('button', { name: 'Send the link again' }).waitFor();
+    await expect(page.getByRole('button', { name: 'Publish', exact: true }).isDisabled()).resolves.toBe(true);
+    await page.screenshot({ path: join(artifactsDir, 'publish-waits-for-confirmation.png'), fullPage: true });
+
+    // The link from the real mail confirms the address; then the draft publishes.
+    await page.goto(url((await confirmationLink(email)).path));
+    await page.getByText('Confirmed').waitFor();
+    await page.goto(url(`/jobs/${id}`));
+    await page.getByRole('button', { name: 'Publish', exact: true }).click();
+    await page.getByText('Published. Shops can see the job on the board now.').waitFor();
+    await expect(page.getByText('Confirm your e-mail address to publish').count()).resolves.toBe(0);
     expect(consoleErrors).toEqual([]);
   });
 

@@ -1,11 +1,8 @@
 import { Link } from 'react-router-dom';
-import { toast } from 'sonner';
 import type { Me } from '@shared/schemas/auth';
-import { Button } from '@client/components/ui/button';
 import { Card, PageTitle } from '@client/components/ui/card';
-import { Notice } from '@client/components/ui/notice';
 import { AdminOverview } from '@client/features/admin/components/admin-overview';
-import { useResendVerification } from '@client/features/auth/api/auth-mutations';
+import { ConfirmEmailNotice } from '@client/features/auth/components/confirm-email-notice';
 import { useMe } from '@client/features/auth/api/use-me';
 
 const roleWords: Record<Me['role'], { title: string; lead: string }> = {
@@ -23,22 +20,12 @@ const roleWords: Record<Me['role'], { title: string; lead: string }> = {
   },
 };
 
-function VerifyBanner() {
-  const resend = useResendVerification({
-    mutationConfig: {
-      onSuccess: () => toast.success('A new confirmation link is on its way.'),
-      onError: (error) => toast.error(error.message),
-    },
-  });
-  return (
-    <Notice tone="caution" title="Please confirm your e-mail address" className="mb-6">
-      <p>We sent you a link when you signed up. Confirming lets shops and builders reach you about jobs.</p>
-      <Button variant="secondary" className="mt-2" busy={resend.isPending} onClick={() => resend.mutate()}>
-        Send the link again
-      </Button>
-    </Notice>
-  );
-}
+/** Why the address matters for this role: what waits until it is confirmed. */
+const confirmReasons: Record<Me['role'], string> = {
+  builder: 'Shops rely on reaching you about your jobs, so publishing a job and paying wait until you confirm it.',
+  shop: 'Builders rely on reaching you about their blocks, so bidding waits until you confirm it.',
+  admin: 'Confirming lets the people you help reach you.',
+};
 
 export function DashboardRoute() {
   const { data: me } = useMe();
@@ -47,7 +34,7 @@ export function DashboardRoute() {
   return (
     <div>
       <PageTitle title={words.title} lead={words.lead} />
-      {!me.emailVerified && <VerifyBanner />}
+      {!me.emailVerified && <ConfirmEmailNotice title="Please confirm your e-mail address" reason={confirmReasons[me.role]} className="mb-6" />}
       {me.role === 'builder' && (
         <Card className="mb-6 flex flex-wrap items-center gap-4">
           <p className="flex-1 text-ink-soft">Have a block that needs machining? Describe it once; shops bid with a price and a turnaround.</p>

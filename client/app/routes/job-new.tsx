@@ -2,11 +2,13 @@ import { useNavigate } from 'react-router-dom';
 import { toast } from 'sonner';
 import { PageTitle } from '@client/components/ui/card';
 import { useCreateJob } from '@client/features/jobs/api/jobs';
+import { ConfirmEmailNotice, useNeedsEmailConfirmation } from '@client/features/auth/components/confirm-email-notice';
 import { JobForm } from '@client/features/jobs/components/job-form';
 
 /** A new job, saved as a draft that only its builder sees until it is published. */
 export function NewJobRoute() {
   const navigate = useNavigate();
+  const unconfirmed = useNeedsEmailConfirmation();
   const create = useCreateJob({
     mutationConfig: {
       onSuccess: (job) => {
@@ -21,6 +23,13 @@ export function NewJobRoute() {
         title="Post a job"
         lead="Describe the block and the work you want. It is saved as a draft: only you see it until you publish it to the job board."
       />
+      {unconfirmed && (
+        <ConfirmEmailNotice
+          title="Confirm your e-mail address before you publish"
+          reason="You can save this job as a draft now. Shops rely on reaching you about it, so publishing waits until your address is confirmed."
+          className="mb-6"
+        />
+      )}
       <JobForm
         submitLabel="Save draft"
         cancelTo="/jobs"

@@ -7,6 +7,7 @@ import type { JobDetail } from '@shared/schemas/jobs';
 import { Button } from '@client/components/ui/button';
 import { ConfirmDialog } from '@client/components/ui/modal-dialog';
 import { Notice } from '@client/components/ui/notice';
+import { ConfirmEmailNotice, useNeedsEmailConfirmation } from '@client/features/auth/components/confirm-email-notice';
 // The panel's props are fixed by the job page ({ job }), so it reads the shop's own profile (rate card, turnaround) itself.
 import { useOwnShop } from '@client/features/shops/api/shops';
 import { useBid, useJobBids, usePlaceBid, useReviseBid, useWithdrawBid } from '../api/bids';
@@ -70,6 +71,7 @@ function ActiveBid({ bidId, job }: { bidId: string; job: JobDetail }) {
   if (detail.isError) return <Notice tone="error" title="Your bid could not be loaded">{detail.error.message}</Notice>;
   const { bid, revisions } = detail.data;
   const canRevise = job.status === 'open';
+  const unconfirmed = useNeedsEmailConfirmation();
 
   return (
     <div className="flex flex-col gap-5">
@@ -100,8 +102,18 @@ function ActiveBid({ bidId, job }: { bidId: string; job: JobDetail }) {
               <p className="whitespace-pre-line">{bid.note}</p>
             </div>
           )}
+          {canRevise && unconfirmed && (
+            <ConfirmEmailNotice
+              title="Confirm your e-mail address to revise your bid"
+              reason="The builder relies on reaching you about their block, so changing a bid waits until your address is confirmed."
+            />
+          )}
           <div className="flex flex-wrap gap-3">
-            {canRevise && <Button onClick={() => setEditing(true)}>Revise bid</Button>}
+            {canRevise && (
+              <Button disabled={unconfirmed} onClick={() => setEditing(true)}>
+                Revise bid
+              </Button>
+            )}
             <Button variant="secondary" onClick={() => setConfirming(true)}>
               Withdraw bid
             </Button>
@@ -205,6 +217,7 @@ function NewBid({ job, shop }: { job: JobDetail; shop: { rateCard: Array<{ opera
 export function ShopBidPanel({ job }: { job: JobDetail }) {
   const own = useOwnShop();
   const mine = useJobBids(job.id);
+  const unconfirmed = useNeedsEmailConfirmation();
 
   if (own.isPending) {
     return (
@@ -263,7 +276,14 @@ export function ShopBidPanel({ job }: { job: JobDetail }) {
         </div>
       )}
       {job.viewer.canBid ? (
-        <NewBid job={job} shop={own.data} />
+        unconfirmed ? (
+          <ConfirmEmailNotice
+            title="Confirm your e-mail address to bid"
+            reason="A builder who accepts your bid relies on reaching you about their block, so bidding waits until your address is confirmed."
+          />
+        ) : (
+          <NewBid job={job} shop={own.data} />
+        )
       ) : (
         !earlier && <Notice>This job is no longer taking bids.</Notice>
       )}

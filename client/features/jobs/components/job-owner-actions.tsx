@@ -4,6 +4,7 @@ import { toast } from 'sonner';
 import type { JobDetail } from '@shared/schemas/jobs';
 import { Button } from '@client/components/ui/button';
 import { ConfirmDialog } from '@client/components/ui/modal-dialog';
+import { ConfirmEmailNotice, useNeedsEmailConfirmation } from '@client/features/auth/components/confirm-email-notice';
 import { useCancelJob, usePublishJob } from '../api/jobs';
 
 const cancelWords: Partial<Record<JobDetail['status'], string>> = {
@@ -15,6 +16,7 @@ const cancelWords: Partial<Record<JobDetail['status'], string>> = {
 /** Publish, edit and cancel, as the job's state allows. */
 export function JobOwnerActions({ job }: { job: JobDetail }) {
   const [confirmCancel, setConfirmCancel] = useState(false);
+  const unconfirmed = useNeedsEmailConfirmation();
   const publish = usePublishJob({
     mutationConfig: {
       onSuccess: () => toast.success('Published. Shops can see the job on the board now.'),
@@ -35,8 +37,15 @@ export function JobOwnerActions({ job }: { job: JobDetail }) {
 
   return (
     <div className="flex flex-wrap items-center gap-3">
+      {job.status === 'draft' && unconfirmed && (
+        <ConfirmEmailNotice
+          title="Confirm your e-mail address to publish"
+          reason="Shops rely on reaching you about a job they bid on, so publishing waits until your address is confirmed. Your draft is saved."
+          className="w-full"
+        />
+      )}
       {job.status === 'draft' && (
-        <Button busy={publish.isPending} onClick={() => publish.mutate(job.id)}>
+        <Button busy={publish.isPending} disabled={unconfirmed} onClick={() => publish.mutate(job.id)}>
           Publish
         </Button>
       )}

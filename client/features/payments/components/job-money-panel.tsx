@@ -13,6 +13,7 @@ import { ConfirmDialog } from '@client/components/ui/modal-dialog';
 import { Notice } from '@client/components/ui/notice';
 import { TextAreaField } from '@client/components/ui/text-area-field';
 import { TextField } from '@client/components/ui/text-field';
+import { ConfirmEmailNotice, useNeedsEmailConfirmation } from '@client/features/auth/components/confirm-email-notice';
 import { applyServerErrors } from '@client/lib/form-errors';
 import {
   useApproveChangeOrder,
@@ -46,6 +47,7 @@ function BuilderMoney({ job, acceptedTotalCents }: { job: JobDetail; acceptedTot
   const confirming = params.get('payment') === 'done' && job.status === 'awarded';
   const money = useMoney(job.id, { refetchInterval: confirming ? 1_500 : false });
   const checkout = useStartCheckout(job.id);
+  const unconfirmed = useNeedsEmailConfirmation();
   const [cancelOpen, setCancelOpen] = useState(false);
   const cancel = useCancelAndRefund(job.id, {
     mutationConfig: {
@@ -77,8 +79,14 @@ function BuilderMoney({ job, acceptedTotalCents }: { job: JobDetail; acceptedTot
                 </Notice>
               )}
               {checkout.isError && <Notice tone="error">{checkout.error.message}</Notice>}
+              {unconfirmed && (
+                <ConfirmEmailNotice
+                  title="Confirm your e-mail address to pay"
+                  reason="The shop relies on reaching you about the work you pay for, so paying waits until your address is confirmed."
+                />
+              )}
               <div>
-                <Button busy={checkout.isPending} onClick={() => checkout.mutate()}>
+                <Button busy={checkout.isPending} disabled={unconfirmed} onClick={() => checkout.mutate()}>
                   {declined ? 'Try the payment again' : 'Pay and hold for the work'}
                 </Button>
               </div>
@@ -141,6 +149,7 @@ const changeOrderForm = z.object({
 function ChangeOrders({ job, side }: { job: JobDetail; side: 'builder' | 'shop' }) {
   const orders = useChangeOrders(job.id);
   const approve = useApproveChangeOrder();
+  const unconfirmed = useNeedsEmailConfirmation() && side === 'builder';
   const decline = useDeclineChangeOrder(job.id, { mutationConfig: { onSuccess: () => toast.success('Change order declined; the shop is told.') } });
   const canPropose = side === 'shop' && (job.status === 'funded' || job.status === 'in_work');
   if (!orders.data?.length && !canPropose) return null;
@@ -162,7 +171,7 @@ function ChangeOrders({ job, side }: { job: JobDetail; side: 'builder' | 'shop' 
               </p>
               {side === 'builder' && (order.status === 'proposed' || order.status === 'approved') && (
                 <div className="mt-2 flex gap-2">
-                  <Button busy={approve.isPending} onClick={() => approve.mutate(order.id)}>
+                  <Button busy={approve.isPending} disabled={unconfirmed} onClick={() => approve.mutate(order.id)}>
                     Agree and pay {formatCents(order.amountCents)}
                   </Button>
                   {order.status === 'proposed' && (
@@ -177,6 +186,13 @@ function ChangeOrders({ job, side }: { job: JobDetail; side: 'builder' | 'shop' 
         </ul>
       )}
       {approve.isError && <Notice tone="error" className="mt-2">{approve.error.message}</Notice>}
+      {unconfirmed && orders.data?.some((order) => order.status === 'proposed' || order.status === 'approved') && (
+        <ConfirmEmailNotice
+          title="Confirm your e-mail address to pay for extra work"
+          reason="The shop relies on reaching you about the work you pay for, so paying waits until your address is confirmed."
+          className="mt-2"
+        />
+      )}
       {canPropose && <ProposeChangeOrder jobId={job.id} />}
     </section>
   );
