@@ -25,6 +25,7 @@ import { jobsRouter } from './modules/jobs/jobs.routes';
 import { shopsRouter } from './modules/shops/shops.routes';
 import { createSessionStore } from './lib/session-store';
 import { LocalDiskStorage, type FileStorage } from './lib/storage';
+import { uploadLimiter } from './lib/photo-upload';
 import { calculationsRouter, ROUGHNESS_BODY_LIMIT } from './modules/calculations/calculations.routes';
 import { healthRouter } from './modules/health/health.routes';
 import { openApiDocument } from './openapi';
@@ -135,13 +136,15 @@ export function createApp(deps: AppDeps) {
 
   app.use('/api/calculations', calculationsRouter({ db, perMinute: config.rateLimits.calculationsPerMinute }));
   const storage = deps.storage ?? new LocalDiskStorage(config.uploadsDir);
+  // One count of photo uploads per person, whichever route they go to.
+  const uploadLimit = uploadLimiter(db, config.rateLimits.uploadsPer10Min);
   app.use('/api', shopsRouter({ db }));
-  app.use('/api', jobsRouter({ db, appUrl: config.appUrl, storage, hub }));
+  app.use('/api', jobsRouter({ db, appUrl: config.appUrl, storage, hub, uploadLimit }));
   app.use('/api', bidsRouter({ db, appUrl: config.appUrl, hub, platformFeeBps: config.payments.platformFeeBps }));
   app.use('/api', paymentsRouter(paymentDeps));
-  app.use('/api', messagesRouter({ db, hub, storage, messagesPer10s: config.rateLimits.messagesPer10s }));
+  app.use('/api', messagesRouter({ db, hub, storage, messagesPer10s: config.rateLimits.messagesPer10s, uploadLimit }));
   const workDeps = { ...paymentDeps, reviewWindowMs: config.reviewWindowDays * 24 * 60 * 60_000 };
-  app.use('/api', workRouter({ ...workDeps, storage }));
+  app.use('/api', workRouter({ ...workDeps, storage, uploadLimit }));
   app.use('/api', disputesRouter(paymentDeps));
   app.use('/api/admin', adminRouter({ db, appUrl: config.appUrl, hub, defaultFeeBps: config.payments.platformFeeBps }));
 

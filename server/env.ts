@@ -65,6 +65,8 @@ const schema = z
     RATE_LIMIT_SIGNUP_MAX: z.coerce.number().int().positive().default(20),
     RATE_LIMIT_CALCULATIONS_PER_MINUTE: z.coerce.number().int().positive().default(120),
     RATE_LIMIT_MESSAGES_PER_10S: z.coerce.number().int().positive().default(20),
+    /** Photo uploads (job, conversation and milestone photos together) one person may make in ten minutes. */
+    RATE_LIMIT_UPLOADS_PER_10_MIN: z.coerce.number().int().positive().default(60),
     /** Password-reset requests from one address in an hour (each account also has its own limit of 5). */
     RATE_LIMIT_RESET_PER_ADDRESS: z.coerce.number().int().positive().default(20),
   })
@@ -134,7 +136,7 @@ export interface AppConfig {
   };
   /** Days a builder has to answer an inspection record before it counts as accepted. */
   reviewWindowDays: number;
-  rateLimits: { signInMax: number; signUpMax: number; calculationsPerMinute: number; messagesPer10s: number; resetPerAddress: number };
+  rateLimits: { signInMax: number; signUpMax: number; calculationsPerMinute: number; messagesPer10s: number; uploadsPer10Min: number; resetPerAddress: number };
 }
 
 export function loadConfig(source: NodeJS.ProcessEnv = process.env): AppConfig {
@@ -201,6 +203,7 @@ export function loadConfig(source: NodeJS.ProcessEnv = process.env): AppConfig {
       signUpMax: env.RATE_LIMIT_SIGNUP_MAX,
       calculationsPerMinute: env.RATE_LIMIT_CALCULATIONS_PER_MINUTE,
       messagesPer10s: env.RATE_LIMIT_MESSAGES_PER_10S,
+      uploadsPer10Min: env.RATE_LIMIT_UPLOADS_PER_10_MIN,
       resetPerAddress: env.RATE_LIMIT_RESET_PER_ADDRESS,
     },
   };

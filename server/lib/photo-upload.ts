@@ -1,13 +1,38 @@
 import type { RequestHandler } from 'express';
 import multer from 'multer';
+import type { Database } from '../db/client';
 import { AppError } from './errors';
+import { createLimiter } from './rate-limit';
 
 /** The most one photo may weigh on the way in, before it is re-encoded. */
 export const MAX_PHOTO_BYTES = 15 * 1024 * 1024;
 
+/** The window of the per-person upload limit (RATE_LIMIT_UPLOADS_PER_10_MIN). */
+export const UPLOAD_WINDOW_MS = 10 * 60_000;
+
+/**
+ * Photo uploads per person (job, conversation and milestone photos counted
+ * together), shared by every instance through PostgreSQL: 429 with
+ * Retry-After past the limit. Goes after the route's access check and before
+ * `receivePhotos`, so a refused upload is never read, let alone decoded.
+ */
+export function uploadLimiter(db: Database, perTenMinutes: number): RequestHandler {
+  return createLimiter({
+    db,
+    name: 'uploads',
+    windowMs: UPLOAD_WINDOW_MS,
+    limit: perTenMinutes,
+    message: 'You are uploading photos too fast. Wait a few minutes and try again.',
+    // Behind requireUser/requireRole, so there is always a person to count.
+    keyGenerator: (req) => req.user!.id,
+  });
+}
+
 /**
  * Multipart photo uploads, held in memory for `processPhoto` (server/lib/images.ts),
- * in the field "photos", at most `maxFiles` per request. multer's own errors
+ * in the field "photos", at most `maxFiles` per request. Every route puts the
+ * access check for its job or conversation and `uploadLimiter` before it, so
+ * nothing is read or decoded for someone who may not upload. multer's own errors
  * come out in the API's error shape: too big or too many is 413, the rest
  * (and a body busboy cannot read) 400.
  */

@@ -62,6 +62,7 @@ beforeAll(async () => {
     RATE_LIMIT_SIGNUP_MAX: '100000',
     RATE_LIMIT_CALCULATIONS_PER_MINUTE: '100000',
     RATE_LIMIT_MESSAGES_PER_10S: '100000',
+    RATE_LIMIT_UPLOADS_PER_10_MIN: '100000',
   });
   base = money.server.url;
   const image = (format: 'png' | 'jpeg') => sharp({ create: { width: 8, height: 6, channels: 3, background: '#a53' } })[format]().toBuffer();

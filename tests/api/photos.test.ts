@@ -27,6 +27,9 @@ async function pngClaiming(width: number, height: number): Promise<Buffer> {
   return png;
 }
 
+/** A PNG signature followed by bytes no decoder can read: sniffed as PNG, refused only when decoded (415). */
+const undecodablePng = Buffer.concat([Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]), Buffer.alloc(4096, 0x5a)]);
+
 async function ownerWithJob() {
   const builder = await createUser(ctx.db);
   const job = await createJob(ctx.db, builder.id, { status: 'draft' });
@@ -144,10 +147,57 @@ describe('job photos', () => {
     expect((await upload(b, job.id, [{ data: small, name: 'again.jpg' }])).status).toBe(201);
   });
 
+  it('when someone uploads to a job that is not theirs, then 404 or 403 before the file is decoded', async () => {
+    const { job: draft, b: owner } = await ownerWithJob();
+    const open = await createJob(ctx.db, (await createUser(ctx.db)).id);
+    const stranger = await signedIn(ctx.app, await createUser(ctx.db));
+    // The owner's own upload of these bytes reaches the decoder and is refused there.
+    expect((await upload(owner, draft.id, [{ data: undecodablePng, name: 'broken.png' }])).status).toBe(415);
+
+    const hidden = await upload(stranger, draft.id, [{ data: undecodablePng, name: 'broken.png' }]);
+    expect(hidden.status).toBe(404);
+    expect(hidden.body).toEqual({ error: { code: 'not_found', message: expect.any(String) } });
+    const notTheirs = await upload(stranger, open.id, [{ data: undecodablePng, name: 'broken.png' }]);
+    expect(notTheirs.status).toBe(403);
+    expect(notTheirs.body.error.code).toBe('forbidden');
+    expect((await upload(stranger, '00000000-0000-4000-8000-000000000000', [{ data: undecodablePng, name: 'broken.png' }])).status).toBe(404);
+  });
+
   it('when the upload has no files or the wrong field name, then 400', async () => {
     const { job, b } = await ownerWithJob();
     expect((await b.post(`/api/jobs/${job.id}/photos`)).status).toBe(400);
     const wrongField = await b.agent.post(`/api/jobs/${job.id}/photos`).set('X-CSRF-Token', b.token).attach('picture', await jpeg(), 'a.jpg');
     expect(wrongField.status).toBe(400);
+  });
+});
+
+describe('conversation and milestone photos', () => {
+  it('when someone outside the conversation or the work uploads, then 404 before the file is decoded', async () => {
+    const builder = await createUser(ctx.db);
+    const job = await createJob(ctx.db, builder.id);
+    const { user: shopUser } = await createShop(ctx.db);
+    const shop = await signedIn(ctx.app, shopUser);
+    const thread = await shop.post(`/api/jobs/${job.id}/threads`, {});
+    expect(thread.status).toBe(201);
+    const threadId: string = thread.body.thread.id;
+    const send = (client: Awaited<ReturnType<typeof signedIn>>, path: string) =>
+      client.agent.post(path).set('X-CSRF-Token', client.token).attach('photos', undecodablePng, 'broken.png');
+
+    // A party to the conversation reaches the decoder with these bytes.
+    expect((await send(shop, `/api/threads/${threadId}/photos`)).status).toBe(415);
+
+    const strangerBuilder = await signedIn(ctx.app, await createUser(ctx.db));
+    const strangerShop = await signedIn(ctx.app, (await createShop(ctx.db)).user);
+    for (const stranger of [strangerBuilder, strangerShop]) {
+      const res = await send(stranger, `/api/threads/${threadId}/photos`);
+      expect(res.status).toBe(404);
+      expect(res.body).toEqual({ error: { code: 'not_found', message: expect.any(String) } });
+    }
+    // No shop is doing this job's work yet: every shop's milestone photo is refused unread.
+    for (const client of [shop, strangerShop]) {
+      const res = await send(client, `/api/jobs/${job.id}/milestone-photos`);
+      expect(res.status).toBe(404);
+      expect(res.body).toEqual({ error: { code: 'not_found', message: expect.any(String) } });
+    }
   });
 });

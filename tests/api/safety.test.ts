@@ -10,6 +10,7 @@ import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { randomBytes } from 'node:crypto';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+import sharp from 'sharp';
 import Stripe from 'stripe';
 import supertest from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -36,6 +37,7 @@ beforeAll(async () => {
     RATE_LIMIT_SIGNUP_MAX: String(LIMIT),
     RATE_LIMIT_CALCULATIONS_PER_MINUTE: String(LIMIT),
     RATE_LIMIT_MESSAGES_PER_10S: String(LIMIT),
+    RATE_LIMIT_UPLOADS_PER_10_MIN: String(LIMIT),
   });
   const url = new URL(standIn.url);
   stripe = new Stripe('sk_test_tenthmark_local', { host: url.hostname, port: Number(url.port), protocol: 'http', telemetry: false, maxNetworkRetries: 0 });
@@ -480,6 +482,22 @@ describe('rate limits', () => {
         const thread = await shop.post(`/api/jobs/${job.id}/threads`, {});
         let n = 0;
         return () => shop.post(`/api/threads/${thread.body.thread.id}/messages`, { clientId: `limit-${tag()}-${(n += 1)}`, body: `Message ${n}` });
+      },
+    },
+    {
+      name: 'photo uploads (per person, across jobs, conversations and milestones)',
+      limit: LIMIT,
+      windowSeconds: 10 * 60,
+      setup: async () => {
+        const builder = await createUser(ctx.db);
+        const client = await signedIn(ctx.app, builder);
+        const photo = await sharp({ create: { width: 8, height: 8, channels: 3, background: '#567' } }).png().toBuffer();
+        let n = 0;
+        // Each upload goes to a new job of the same person: the limit is the person's, not the job's.
+        return async () => {
+          const job = await createJob(ctx.db, builder.id, { status: 'draft' });
+          return client.agent.post(`/api/jobs/${job.id}/photos`).set('X-CSRF-Token', client.token).attach('photos', photo, `limit-${(n += 1)}.png`);
+        };
       },
     },
     {

@@ -21,7 +21,7 @@ const jobParams = z.object({ jobId: uuidSchema });
 const milestonePhotoParams = z.object({ jobId: uuidSchema, photoId: uuidSchema, size: z.enum(['thumb', 'large'], { error: 'Ask for thumb or large.' }) });
 
 /** Milestones and the inspection record: the shop's proof of work and the builder's answer. */
-export function workRouter(deps: InspectionDeps & { storage?: FileStorage }) {
+export function workRouter(deps: InspectionDeps & { storage?: FileStorage; uploadLimit: RequestHandler }) {
   const router = Router();
   const storage = (): FileStorage => {
     if (!deps.storage) throw new AppError('unavailable', 'Photo storage is not set up.', 503);
@@ -33,7 +33,7 @@ export function workRouter(deps: InspectionDeps & { storage?: FileStorage }) {
     await assertMayUploadMilestonePhotos(deps.db, currentUser(req), jobParams.parse(req.params).jobId);
     next();
   };
-  router.post('/jobs/:jobId/milestone-photos', requireRole('shop'), mayUpload, receivePhotos(MAX_PHOTOS_PER_MILESTONE), async (req, res) => {
+  router.post('/jobs/:jobId/milestone-photos', requireRole('shop'), mayUpload, deps.uploadLimit, receivePhotos(MAX_PHOTOS_PER_MILESTONE), async (req, res) => {
     const { jobId } = jobParams.parse(req.params);
     const photos = await addMilestonePhotos({ db: deps.db, storage: storage() }, currentUser(req), jobId, uploadedFiles(req));
     res.status(201).json({ photos } satisfies UploadedMilestonePhotos);

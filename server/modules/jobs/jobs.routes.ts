@@ -1,4 +1,4 @@
-import { Router } from 'express';
+import { Router, type RequestHandler } from 'express';
 import { z } from 'zod';
 import { uuidSchema } from '../../../shared/schemas/common';
 import { boardQuerySchema, jobInputSchema, myJobsQuerySchema } from '../../../shared/schemas/jobs';
@@ -8,6 +8,7 @@ import type { RealtimeHub } from '../../realtime/hub';
 import { boardPage, jobsOfBuilder } from './jobs.repository';
 import {
   addPhotos,
+  assertMayAddPhotos,
   cancelJob,
   createJob,
   jobDetail,
@@ -23,7 +24,7 @@ import {
 const jobParams = z.object({ jobId: uuidSchema });
 const photoParams = z.object({ jobId: uuidSchema, photoId: uuidSchema, size: z.enum(['thumb', 'large'], { error: 'Ask for thumb or large.' }) });
 
-export function jobsRouter(deps: JobDeps & { hub: RealtimeHub }) {
+export function jobsRouter(deps: JobDeps & { hub: RealtimeHub; uploadLimit: RequestHandler }) {
   const router = Router();
 
   router.get('/jobs', requireRole('shop', 'admin'), async (req, res) => {
@@ -68,7 +69,12 @@ export function jobsRouter(deps: JobDeps & { hub: RealtimeHub }) {
     res.json({ job: await jobDetail(deps, job, currentUser(req)) });
   });
 
-  router.post('/jobs/:jobId/photos', requireRole('builder'), receivePhotos(MAX_PHOTOS_PER_JOB), async (req, res) => {
+  // Who may upload is settled before the body is read; the photos are decoded only after that.
+  const mayUpload: RequestHandler = async (req, _res, next) => {
+    await assertMayAddPhotos(deps.db, currentUser(req), jobParams.parse(req.params).jobId);
+    next();
+  };
+  router.post('/jobs/:jobId/photos', requireRole('builder'), mayUpload, deps.uploadLimit, receivePhotos(MAX_PHOTOS_PER_JOB), async (req, res) => {
     const { jobId } = jobParams.parse(req.params);
     const files = (req.files as Express.Multer.File[] | undefined) ?? [];
     const photos = await addPhotos(deps, currentUser(req), jobId, files);

@@ -25,7 +25,7 @@ const threadParams = z.object({ threadId: uuidSchema });
 const photoParams = z.object({ threadId: uuidSchema, photoId: uuidSchema, size: z.enum(['thumb', 'large'], { error: 'Ask for thumb or large.' }) });
 
 /** Conversations over plain HTTP: the history, photos for messages, and a way to send and mark read without a socket. */
-export function messagesRouter(deps: { db: Database; hub: RealtimeHub; storage: FileStorage; messagesPer10s: number }) {
+export function messagesRouter(deps: { db: Database; hub: RealtimeHub; storage: FileStorage; messagesPer10s: number; uploadLimit: RequestHandler }) {
   const { db, hub } = deps;
   const router = Router();
   const limiter = new PostgresRateLimitStore(db, 'messages');
@@ -74,7 +74,7 @@ export function messagesRouter(deps: { db: Database; hub: RealtimeHub; storage: 
     await assertMaySendPhotos(db, currentUser(req), threadParams.parse(req.params).threadId);
     next();
   };
-  router.post('/threads/:threadId/photos', requireRole('builder', 'shop'), mayUpload, receivePhotos(MAX_PHOTOS_PER_MESSAGE), async (req, res) => {
+  router.post('/threads/:threadId/photos', requireRole('builder', 'shop'), mayUpload, deps.uploadLimit, receivePhotos(MAX_PHOTOS_PER_MESSAGE), async (req, res) => {
     const { threadId } = threadParams.parse(req.params);
     const photos = await addMessagePhotos(deps, currentUser(req), threadId, uploadedFiles(req));
     res.status(201).json({ photos } satisfies UploadedMessagePhotos);

@@ -57,6 +57,7 @@ function ActiveBid({ bidId, job }: { bidId: string; job: JobDetail }) {
   const [editing, setEditing] = useState(false);
   const [confirming, setConfirming] = useState(false);
   const revise = useReviseBid();
+  const unconfirmed = useNeedsEmailConfirmation();
   const withdraw = useWithdrawBid({
     mutationConfig: {
       onSuccess: () => {
@@ -71,7 +72,6 @@ function ActiveBid({ bidId, job }: { bidId: string; job: JobDetail }) {
   if (detail.isError) return <Notice tone="error" title="Your bid could not be loaded">{detail.error.message}</Notice>;
   const { bid, revisions } = detail.data;
   const canRevise = job.status === 'open';
-  const unconfirmed = useNeedsEmailConfirmation();
 
   return (
     <div className="flex flex-col gap-5">
