@@ -207,18 +207,6 @@ export async function assertMayAddPhotos(db: Executor, user: User, jobId: string
 }
 
 /**
- * Refuses, before any bytes are read, anyone but the job's builder (404 for
- * someone else's draft, 403 otherwise) and a job that no longer takes photos.
- * addPhotos checks again under the job's row lock.
- */
-export async function assertMayAddPhotos(db: Executor, user: User, jobId: string): Promise<void> {
-  const job = await findJob(db, jobId);
-  if (!job || (job.builderId !== user.id && job.status === 'draft')) throw notFound('No job with that id.');
-  if (job.builderId !== user.id) throw forbidden('Only the builder who posted this job can change it.');
-  if (!['draft', 'open'].includes(job.status)) throw conflict('Photos can be added only while the job is a draft or open.', 'job_not_editable');
-}
-
-/**
  * Adds photos to a job. Every file is checked and re-encoded before anything
  * is stored; the count limit is checked under the job's row lock so two
  * uploads at once cannot pass 12 together.
