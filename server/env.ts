@@ -1,3 +1,4 @@
+import { resolve } from 'node:path';
 import { isIP } from 'node:net';
 import { fileURLToPath } from 'node:url';
 import { z } from 'zod';
@@ -14,6 +15,12 @@ const schema = z
     APP_URL: z.url().optional(),
     DATABASE_URL: z.string().min(1).default('postgres://postgres@127.0.0.1:54329/tenthmark'),
     TENTHMARK_PG_PORT: z.coerce.number().int().min(1).max(65535).default(54329),
+    /** `npm start` only: the folder of the private cluster and the payment stand-in's state (default .data/). */
+    TENTHMARK_DATA_DIR: z.string().min(1).optional(),
+    /** `npm start` only: serve this existing production build instead of building into dist/client. */
+    TENTHMARK_CLIENT_DIR: z.string().min(1).optional(),
+    /** `npm start` only: build the demo jobs on an empty database (about a minute). */
+    TENTHMARK_DEMO: z.stringbool().default(true),
     SESSION_SECRET: z.string().min(16).optional(),
     UPLOADS_DIR: z.string().min(1).optional(),
     LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
@@ -116,6 +123,12 @@ export interface AppConfig {
   appUrl: string;
   databaseUrl: string;
   pgPort: number;
+  /** `npm start`: where the private cluster lives. */
+  dataDir: string;
+  /** `npm start`: an existing build to serve instead of building one. */
+  clientDir?: string;
+  /** `npm start`: build the demo jobs on an empty database. */
+  demoScenario: boolean;
   sessionSecret: string;
   logLevel: RawEnv['LOG_LEVEL'];
   /** Express's 'trust proxy' setting; false unless TRUST_PROXY names the proxies. */
@@ -175,6 +188,9 @@ export function loadConfig(source: NodeJS.ProcessEnv = process.env): AppConfig {
     appUrl,
     databaseUrl: env.DATABASE_URL,
     pgPort: env.TENTHMARK_PG_PORT,
+    dataDir: resolve(env.TENTHMARK_DATA_DIR ?? fileURLToPath(new URL('../.data', import.meta.url))),
+    clientDir: env.TENTHMARK_CLIENT_DIR ? resolve(env.TENTHMARK_CLIENT_DIR) : undefined,
+    demoScenario: env.TENTHMARK_DEMO,
     sessionSecret: env.SESSION_SECRET ?? 'tenthmark-local-development-secret',
     logLevel: env.LOG_LEVEL,
     trustProxy: env.TRUST_PROXY,

@@ -1,5 +1,5 @@
 import { createServer, type Server } from 'node:http';
-import type { AddressInfo } from 'node:net';
+import type { AddressInfo, Socket } from 'node:net';
 import { createApp, type AppDeps } from './app';
 import { createDb, createPool, runMigrations } from './db/client';
 import type { AppConfig } from './env';
@@ -28,7 +28,14 @@ export interface RunningServer {
  */
 export async function startServer(
   config: AppConfig,
-  options: { client?: AppDeps['client']; migrate?: boolean; mailIntervalMs?: number; prettyLogs?: boolean } = {},
+  options: {
+    client?: AppDeps['client'];
+    migrate?: boolean;
+    mailIntervalMs?: number;
+    prettyLogs?: boolean;
+    /** How long close() lets running requests finish before cutting their connections. */
+    closeGraceMs?: number;
+  } = {},
 ): Promise<RunningServer> {
   const logger = createLogger(config, { pretty: options.prettyLogs });
   if (options.migrate ?? true) await runMigrations(config.databaseUrl);
@@ -41,6 +48,12 @@ export async function startServer(
     server.listen(config.port, config.host, () => resolve());
   });
   const port = (server.address() as AddressInfo).port;
+  // Every TCP connection, also those upgraded to websockets (which the HTTP server no longer tracks).
+  const sockets = new Set<Socket>();
+  server.on('connection', (socket) => {
+    sockets.add(socket);
+    socket.once('close', () => sockets.delete(socket));
+  });
 
   const io = attachRealtime({
     server,
@@ -71,10 +84,19 @@ export async function startServer(
       digests.stop();
       money.stop();
       await scheduler.stop();
+      // No new connections; idle keep-alive ones go now, socket.io clients are told goodbye, and
+      // requests still running get a moment before every connection left is cut, so that an open
+      // page, a keep-alive client or a half-sent request cannot hold shutdown up.
+      const httpClosed = new Promise<void>((resolve) => server.close(() => resolve()));
+      server.closeIdleConnections();
+      const cut = setTimeout(() => {
+        server.closeAllConnections();
+        for (const socket of sockets) socket.destroy();
+      }, options.closeGraceMs ?? 1_000);
       await new Promise<void>((resolve) => io.close(() => resolve()));
+      await httpClosed;
+      clearTimeout(cut);
       await worker.stop();
-      await new Promise<void>((resolve) => server.close(() => resolve()));
-      server.closeAllConnections();
       app.sessionStore.close();
       transport.close();
       // The session store touches a session after its response has gone out; let the last ones land.

@@ -1,9 +1,10 @@
 /**
  * `npm start` and `npm run dev`: everything Tenthmark needs on one machine.
  * A private PostgreSQL cluster under .data/, migrations, demo data, maildev,
- * the GitHub sign-in stand-in, and the app itself. Ctrl-C stops what it started.
+ * the GitHub sign-in stand-in, and the app itself. Ctrl-C stops what it started,
+ * every time: PostgreSQL is stopped (and awaited) before this process exits.
  */
-import { spawnSync } from 'node:child_process';
+import { spawn } from 'node:child_process';
 import { fileURLToPath } from 'node:url';
 import { createDb, createPool, runMigrations } from '../db/client';
 import { loadConfig } from '../env';
@@ -11,42 +12,110 @@ import { startServer } from '../runtime';
 import { startGithubStandIn } from './github-stand-in';
 import { startMaildev } from './maildev';
 import { startPaymentsStandIn } from './payments-stand-in';
-import { ensureCluster, ensureDatabase } from './postgres';
+import { ensureClusterAsync, ensureDatabase, type Cluster } from './postgres';
 import { buildDemoScenario } from './demo-scenario';
 import { DEMO_PASSWORD, demoAccounts, seedIfEmpty } from './seed';
 
 const root = fileURLToPath(new URL('../..', import.meta.url));
 const dev = process.argv.includes('--dev');
 const step = (text: string) => console.log(`[tenthmark] ${text}`);
+const sleep = (ms: number) => new Promise<void>((resolve) => setTimeout(resolve, ms));
 
+/** How long the app, the stand-ins and maildev get to close before PostgreSQL is stopped regardless. */
+const CLOSE_DEADLINE_MS = 10_000;
+
+/**
+ * Shutdown is one promise. It closes what runs in this process (newest first,
+ * until the deadline), then always stops PostgreSQL — a cluster started here or
+ * one of ours left by an earlier run — and waits for pg_ctl before exiting.
+ * Further signals never end the process early: a later one only cuts the
+ * closing short.
+ */
 const cleanups: Array<() => unknown> = [];
-let stopping = false;
-async function stopAll(code: number) {
-  if (stopping) return;
-  stopping = true;
-  step('stopping …');
-  for (const cleanup of cleanups.reverse()) {
-    try {
-      await cleanup();
-    } catch (error) {
-      console.error(error);
-    }
-  }
-  process.exit(code);
+let cluster: Cluster | undefined;
+let clusterStarting: Promise<unknown> = Promise.resolve();
+let shutdown: Promise<never> | undefined;
+let shutdownBegan = 0;
+let hurry = () => {};
+const hurried = new Promise<void>((resolve) => (hurry = resolve));
+
+class Stopping extends Error {}
+/** Between start-up steps: nothing more is started once shutdown has begun. */
+function stillStarting() {
+  if (shutdown) throw new Stopping('stopping');
 }
-process.once('SIGINT', () => void stopAll(0));
-process.once('SIGTERM', () => void stopAll(0));
+
+function stopAll(code: number): Promise<never> {
+  shutdown ??= (async () => {
+    shutdownBegan = Date.now();
+    step('stopping …');
+    const closing = (async () => {
+      for (let cleanup = cleanups.pop(); cleanup; cleanup = cleanups.pop()) {
+        try {
+          await cleanup();
+        } catch (error) {
+          console.error(error);
+        }
+      }
+    })();
+    const outcome = await Promise.race([
+      closing.then(() => 'closed' as const),
+      sleep(CLOSE_DEADLINE_MS).then(() => 'deadline' as const),
+      hurried.then(() => 'hurried' as const),
+    ]);
+    if (outcome === 'deadline') step(`still closing after ${CLOSE_DEADLINE_MS / 1000} s; stopping PostgreSQL regardless`);
+    if (outcome === 'hurried') step('not waiting for the rest to close; stopping PostgreSQL');
+    // A start of the cluster still under way finishes first, so that what it started can be stopped.
+    await clusterStarting.catch(() => {});
+    if (cluster) {
+      step('stopping PostgreSQL …');
+      try {
+        await cluster.stopAsync();
+      } catch (error) {
+        console.error(error);
+      }
+    }
+    step('stopped.');
+    process.exit(code);
+  })();
+  return shutdown;
+}
+
+function onSignal(signal: NodeJS.Signals) {
+  if (!shutdown) {
+    void stopAll(0);
+    return;
+  }
+  // npm, sh and a terminal can each pass the same Ctrl-C on: only a later signal means "hurry".
+  if (Date.now() - shutdownBegan < 1_000) return;
+  step(`${signal} again: still stopping; PostgreSQL is stopped before this exits`);
+  hurry();
+}
+for (const signal of ['SIGINT', 'SIGTERM', 'SIGHUP'] as const) process.on(signal, onSignal);
+// A crash of the app must not leave the cluster running either.
+process.on('uncaughtException', (error) => {
+  console.error(error);
+  void stopAll(1);
+});
+process.on('unhandledRejection', (error) => {
+  console.error(error);
+  void stopAll(1);
+});
 
 try {
   const config = loadConfig({ NODE_ENV: dev ? 'development' : 'production', SESSION_SECRET: 'local-machine-session-secret', ...process.env });
 
-  step('PostgreSQL: private cluster in .data/ …');
+  step(`PostgreSQL: private cluster in ${config.dataDir} …`);
   const databaseName = new URL(config.databaseUrl).pathname.slice(1) || 'tenthmark';
-  const cluster = ensureCluster({ dir: `${root}/.data`, port: config.pgPort });
-  if (cluster.startedHere) cleanups.push(() => cluster.stop());
-  await ensureDatabase(cluster, databaseName);
-  const databaseUrl = cluster.url(databaseName);
+  const starting = ensureClusterAsync({ dir: config.dataDir, port: config.pgPort }).then((started) => (cluster = started));
+  clusterStarting = starting;
+  const pgCluster = await starting;
+  if (pgCluster.adopted) step('PostgreSQL was already running on this data folder (an earlier run did not stop it); it is stopped on exit');
+  stillStarting();
+  await ensureDatabase(pgCluster, databaseName);
+  const databaseUrl = pgCluster.url(databaseName);
 
+  stillStarting();
   step('applying migrations …');
   await runMigrations(databaseUrl);
   const seedPool = createPool(databaseUrl, 2);
@@ -54,9 +123,11 @@ try {
   await seedPool.end();
   step(seeded ? 'seeded the demo scenario' : 'database already has data; kept it');
 
+  stillStarting();
   const maildev = await startMaildev({ smtpPort: config.smtp.port, webPort: config.maildevWebPort });
   cleanups.push(() => maildev.stop());
 
+  stillStarting();
   if (config.github.standIn) {
     const standIn = await startGithubStandIn({
       port: config.githubStandInPort,
@@ -71,7 +142,7 @@ try {
   if (config.payments.apiUrl && config.payments.secretKey === 'sk_test_tenthmark_local') {
     const standIn = await startPaymentsStandIn({
       port: config.payments.standInPort,
-      dataFile: `${root}/.data/payments-stand-in.json`,
+      dataFile: `${config.dataDir}/payments-stand-in.json`,
       secretKey: config.payments.secretKey,
       webhook: { url: `${config.appUrl}/api/payments/webhook`, secret: config.payments.webhookSecret },
     });
@@ -80,6 +151,7 @@ try {
     localPayments = true;
   }
 
+  stillStarting();
   let client;
   if (dev) {
     const { createServer } = await import('vite');
@@ -91,30 +163,46 @@ try {
       handler: vite.middlewares,
       indexHtml: async (url: string) => vite.transformIndexHtml(url, await readFile(`${root}/index.html`, 'utf8')),
     };
+  } else if (config.clientDir) {
+    step(`serving the existing build in ${config.clientDir} (TENTHMARK_CLIENT_DIR) …`);
+    client = { kind: 'static' as const, dir: config.clientDir };
   } else {
     step('building the browser app …');
-    const build = spawnSync(process.execPath, [`${root}/node_modules/vite/bin/vite.js`, 'build', '--logLevel', 'warn'], {
+    const build = spawn(process.execPath, [`${root}/node_modules/vite/bin/vite.js`, 'build', '--logLevel', 'warn'], {
       cwd: root,
       stdio: 'inherit',
     });
-    if (build.status !== 0) throw new Error('The browser app did not build; see the messages above.');
+    const stopBuild = () => build.kill();
+    cleanups.push(stopBuild);
+    const status = await new Promise<number | null>((resolve) => {
+      build.once('error', () => resolve(-1));
+      build.once('exit', (code) => resolve(code));
+    });
+    cleanups.splice(cleanups.indexOf(stopBuild), 1);
+    stillStarting();
+    if (status !== 0) throw new Error('The browser app did not build; see the messages above.');
     client = { kind: 'static' as const, dir: `${root}/dist/client` };
   }
 
+  stillStarting();
   const app = await startServer({ ...config, databaseUrl }, { client, prettyLogs: process.stdout.isTTY });
   cleanups.push(() => app.close());
 
-  if (seeded && localPayments) {
+  stillStarting();
+  if (seeded && localPayments && config.demoScenario) {
     // The demo jobs go through the running app and the payment stand-in, like a person's would.
     step('building the demo jobs (every state, about a minute) …');
     const scenarioPool = createPool(databaseUrl, 2);
     const made = await buildDemoScenario({ appUrl: app.url, db: createDb(scenarioPool), log: (line) => step(line) });
     await scenarioPool.end();
     step(`demo scenario ready: ${made} jobs`);
+  } else if (seeded && !config.demoScenario) {
+    step('demo jobs skipped (TENTHMARK_DEMO=off)');
   } else if (seeded) {
     step('demo jobs skipped: they are built only against the local payment stand-in');
   }
 
+  stillStarting();
   console.log(`
   Tenthmark is running${dev ? ' (development, hot reload)' : ''}.
 
@@ -122,7 +210,7 @@ try {
     Mail inbox   ${maildev.webUrl}
     GitHub       ${config.github.standIn ? `local stand-in on 127.0.0.1:${config.githubStandInPort}` : 'github.com'}
     Payments     ${paymentsNote} — test card 4242 4242 4242 4242
-    Database     ${databaseUrl}
+    Database     ${databaseUrl}${pgCluster.adopted ? ' (was already running; stopped on exit)' : ''}
 
   Demo accounts (password "${DEMO_PASSWORD}"):
 ${demoAccounts.map((a) => `    ${a.role.padEnd(8)} ${a.email.padEnd(26)} ${a.displayName}`).join('\n')}
@@ -130,6 +218,11 @@ ${demoAccounts.map((a) => `    ${a.role.padEnd(8)} ${a.email.padEnd(26)} ${a.dis
   Press Ctrl-C to stop.
 `);
 } catch (error) {
-  console.error(`\n[tenthmark] could not start: ${error instanceof Error ? error.message : String(error)}\n`);
-  await stopAll(1);
+  if (error instanceof Stopping || shutdown) {
+    // Stopped (or stopping) while starting: the shutdown under way finishes the job.
+    await shutdown;
+  } else {
+    console.error(`\n[tenthmark] could not start: ${error instanceof Error ? error.message : String(error)}\n`);
+    await stopAll(1);
+  }
 }
