@@ -9,6 +9,7 @@ import type { JobDetail, JobInput } from '../../shared/schemas/jobs';
 import { DEMO_PASSWORD, demoAccounts } from '../../server/dev/seed';
 import type { RunningServer } from '../../server/runtime';
 import { bidInput, inDays, jobInput, shopProfileInput, uniqueEmail } from '../factories';
+import { confirmationLink } from '../setup/mail-links';
 import { completeOnboardingPage } from '../setup/payments';
 import { artifactsDir, launchBrowser, startBrowserApp } from '../setup/browser';
 
@@ -85,6 +86,11 @@ async function apiAs(account: { email: string; password?: string } | { signUp: {
       : await session.post('/api/auth/login', { data: { email: account.email, password: account.password ?? DEMO_PASSWORD }, headers: { 'X-CSRF-Token': token } });
   if (!res.ok()) throw new Error(`could not sign in: ${res.status()} ${await res.text()}`);
   token = (await res.json()).csrfToken;
+  if ('signUp' in account) {
+    // Bidding needs a confirmed address: follow the link from the real sign-up mail.
+    const confirmed = await session.post('/api/auth/verify-email', { data: { token: (await confirmationLink(account.signUp.email)).token }, headers: { 'X-CSRF-Token': token } });
+    if (!confirmed.ok()) throw new Error(`could not confirm the e-mail address: ${confirmed.status()} ${await confirmed.text()}`);
+  }
   const send = async (method: 'GET' | 'POST' | 'PUT', path: string, data: unknown = {}, multipart?: Record<string, { name: string; mimeType: string; buffer: Buffer }>) => {
     const body = method === 'GET' ? {} : multipart ? { multipart } : { data };
     const answer = await session.fetch(path, { method, ...body, headers: { 'X-CSRF-Token': token } });

@@ -15,6 +15,7 @@ import type { JobDetail } from '../../shared/schemas/jobs';
 import { DEMO_PASSWORD } from '../../server/dev/seed';
 import { bidInput, jobInput, shopProfileInput, uniqueEmail } from '../factories';
 import { browserSuite } from '../setup/e2e-suite';
+import { confirmationLink } from '../setup/mail-links';
 
 const suite = browserSuite();
 
@@ -35,6 +36,12 @@ async function signUp(role: 'builder' | 'shop', displayName: string): Promise<st
   const email = uniqueEmail(`inject-${role}`);
   const res = await session.post('/api/auth/signup', { data: { displayName, email, password: DEMO_PASSWORD, role }, headers: { 'X-CSRF-Token': csrfToken } });
   if (res.status() !== 201) throw new Error(`sign-up answered ${res.status()}: ${await res.text()}`);
+  // Publishing and bidding need a confirmed address: follow the link from the real sign-up mail.
+  const confirmed = await session.post('/api/auth/verify-email', {
+    data: { token: (await confirmationLink(email)).token },
+    headers: { 'X-CSRF-Token': (await res.json()).csrfToken },
+  });
+  if (!confirmed.ok()) throw new Error(`confirming answered ${confirmed.status()}: ${await confirmed.text()}`);
   return email;
 }
 

@@ -5,6 +5,7 @@ import type { JobDetail, JobInput } from '../../shared/schemas/jobs';
 import { DEMO_PASSWORD, demoAccounts } from '../../server/dev/seed';
 import type { RunningServer } from '../../server/runtime';
 import { inDays, jobInput, shopProfileInput, uniqueEmail } from '../factories';
+import { confirmationLink } from '../setup/mail-links';
 import { completeOnboardingPage } from '../setup/payments';
 import { artifactsDir, launchBrowser, startBrowserApp } from '../setup/browser';
 
@@ -140,6 +141,11 @@ describe('a shop in a real browser', () => {
     });
     expect(signUp.status).toBe(201);
     await signIn(newShop, '/board');
+    await page.getByText('Set up your shop profile to bid').waitFor();
+    // Bidding needs a confirmed address: the shop follows the link from its sign-up mail.
+    await page.goto(url((await confirmationLink(newShop.email)).path));
+    await page.getByText('Confirmed').waitFor();
+    await page.goto(url('/board'));
     await page.getByText('Set up your shop profile to bid').waitFor();
 
     // The profile form: a price with three decimals is refused beside its field, with what was typed kept.
