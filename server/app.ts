@@ -139,7 +139,7 @@ export function createApp(deps: AppDeps) {
   // One count of photo uploads per person, whichever route they go to.
   const uploadLimit = uploadLimiter(db, config.rateLimits.uploadsPer10Min);
   app.use('/api', shopsRouter({ db }));
-  app.use('/api', jobsRouter({ db, appUrl: config.appUrl, storage, hub, uploadLimit }));
+  app.use('/api', jobsRouter({ db, appUrl: config.appUrl, storage, hub, uploadLimit, payments: paymentsClient }));
   app.use('/api', bidsRouter({ db, appUrl: config.appUrl, hub, platformFeeBps: config.payments.platformFeeBps }));
   app.use('/api', paymentsRouter(paymentDeps));
   app.use('/api', messagesRouter({ db, hub, storage, messagesPer10s: config.rateLimits.messagesPer10s, uploadLimit }));

@@ -4,6 +4,7 @@ import { auditQuerySchema, createAdminSchema, ledgerQuerySchema, platformFeeSche
 import { disputeQueueSchema, disputeResponseSchema, openDisputeSchema, resolveDisputeSchema } from '../shared/schemas/disputes';
 import { reviewInputSchema } from '../shared/schemas/reviews';
 import {
+  changePasswordSchema,
   githubCompleteSchema,
   passwordResetConfirmSchema,
   passwordResetRequestSchema,
@@ -82,6 +83,7 @@ export const routeDocs: RouteDoc[] = [
   { method: 'post', path: '/api/auth/verify-email/resend', summary: 'Send the confirmation link again', tag: 'Sign-in', access: 'signed-in', ok: { status: 202, description: 'Queued' } },
   { method: 'post', path: '/api/auth/password-reset/request', summary: 'Mail a password reset link', tag: 'Sign-in', access: 'public', body: passwordResetRequestSchema, ok: { status: 202, description: 'Queued when the account exists' } },
   { method: 'post', path: '/api/auth/password-reset/confirm', summary: 'Set a new password with the mailed token', tag: 'Sign-in', access: 'public', body: passwordResetConfirmSchema },
+  { method: 'post', path: '/api/auth/password', summary: 'Change the password (the current one proves it is you); ends every other session', tag: 'Sign-in', access: 'signed-in', body: changePasswordSchema },
   { method: 'get', path: '/api/auth/github', summary: 'Start a GitHub sign-in (redirects)', tag: 'Sign-in', access: 'public', query: z.object({ returnTo: z.string().optional() }), ok: { status: 302, description: 'To the provider' } },
   { method: 'get', path: '/api/auth/github/callback', summary: 'Where the provider sends the browser back (redirects)', tag: 'Sign-in', access: 'public', ok: { status: 302, description: 'Into the app' } },
   { method: 'get', path: '/api/auth/github/pending', summary: 'A first GitHub sign-in waiting for a role', tag: 'Sign-in', access: 'public' },
@@ -97,7 +99,7 @@ export const routeDocs: RouteDoc[] = [
   { method: 'get', path: '/api/jobs/{jobId}', summary: 'A job, for its builder, shops while open, and shops that bid', tag: 'Jobs', access: 'signed-in', params: jobId },
   { method: 'put', path: '/api/jobs/{jobId}', summary: 'Edit a draft or open job (bidders are told)', tag: 'Jobs', access: 'builder', params: jobId, body: jobInputSchema },
   { method: 'post', path: '/api/jobs/{jobId}/publish', summary: 'Publish a draft to the board', tag: 'Jobs', access: 'builder', params: jobId },
-  { method: 'post', path: '/api/jobs/{jobId}/cancel', summary: 'Cancel a job before payment', tag: 'Jobs', access: 'builder', params: jobId },
+  { method: 'post', path: '/api/jobs/{jobId}/cancel', summary: 'Cancel a job before payment (an open payment page for it is expired)', tag: 'Jobs', access: 'builder', params: jobId },
   { method: 'post', path: '/api/jobs/{jobId}/photos', summary: 'Upload photos (multipart field "photos"; JPEG, PNG or WebP; 15 MB each; 12 per job)', tag: 'Jobs', access: 'builder', params: jobId, ok: { status: 201, description: 'Stored' } },
   { method: 'get', path: '/api/jobs/{jobId}/photos/{photoId}/{size}', summary: 'A photo, re-encoded as WebP', tag: 'Jobs', access: 'signed-in', params: photoSized, ok: { status: 200, description: 'image/webp' } },
   { method: 'delete', path: '/api/jobs/{jobId}/photos/{photoId}', summary: 'Remove a photo', tag: 'Jobs', access: 'builder', params: photo, ok: { status: 204, description: 'Removed' } },
@@ -135,7 +137,7 @@ export const routeDocs: RouteDoc[] = [
   { method: 'get', path: '/api/jobs/{jobId}/change-orders', summary: 'Extra work proposed on a job', tag: 'Payments', access: 'signed-in', params: jobId },
   { method: 'post', path: '/api/jobs/{jobId}/change-orders', summary: 'The awarded shop proposes extra work with a price', tag: 'Payments', access: 'shop', params: jobId, body: changeOrderInputSchema, ok: { status: 201, description: 'Proposed' } },
   { method: 'post', path: '/api/change-orders/{changeOrderId}/approve', summary: 'Agree to extra work and pay for it: answers a hosted payment page address', tag: 'Payments', access: 'builder', params: changeOrderId },
-  { method: 'post', path: '/api/change-orders/{changeOrderId}/decline', summary: 'Decline proposed extra work', tag: 'Payments', access: 'builder', params: changeOrderId },
+  { method: 'post', path: '/api/change-orders/{changeOrderId}/decline', summary: 'Decline extra work that is not paid yet (its open payment page is expired)', tag: 'Payments', access: 'builder', params: changeOrderId },
   { method: 'post', path: '/api/admin/jobs/{jobId}/release', summary: 'Release what the job holds to the shop, less the fee (once, however often asked)', tag: 'Payments', access: 'admin', params: jobId },
   { method: 'post', path: '/api/admin/jobs/{jobId}/split', summary: 'Pay the shop a share of what is held and refund the rest', tag: 'Payments', access: 'admin', params: jobId, body: splitSchema },
   { method: 'get', path: '/api/admin/users', summary: 'Search accounts', tag: 'Admin', access: 'admin', query: userSearchSchema },

@@ -398,10 +398,12 @@ export const socketIoAttachments = pgTable('socket_io_attachments', {
 });
 
 export const paymentKind = pgEnum('payment_kind', ['bid', 'change_order']);
-export const paymentStatus = pgEnum('payment_status', ['pending', 'paid', 'failed', 'expired']);
+/** refunded: money that arrived when the job could no longer take it (cancelled, already paid, change order declined) and was sent back. */
+export const paymentStatus = pgEnum('payment_status', ['pending', 'paid', 'failed', 'expired', 'refunded']);
 export const changeOrderStatus = pgEnum('change_order_status', ['proposed', 'approved', 'paid', 'declined']);
 export const ledgerKind = pgEnum('ledger_kind', ['paid_in', 'released', 'fee', 'refunded']);
-export const moneyMoveKind = pgEnum('money_move_kind', ['release', 'refund']);
+/** late_refund: sends back a payment that arrived after the job stopped waiting for it; it is not part of the job's own decision. */
+export const moneyMoveKind = pgEnum('money_move_kind', ['release', 'refund', 'late_refund']);
 export const moneyMoveStatus = pgEnum('money_move_status', ['pending', 'done']);
 
 /** Extra work found on teardown, priced by the shop and paid by the builder through a second checkout. */
@@ -433,6 +435,8 @@ export const payments = pgTable(
       .notNull()
       .references(() => jobs.id, { onDelete: 'cascade' }),
     kind: paymentKind().notNull(),
+    /** The accepted bid a bid payment is for, so its shop is known even after the job is cancelled. */
+    bidId: uuid().references(() => bids.id),
     changeOrderId: uuid().references(() => changeOrders.id),
     amountCents: integer().notNull(),
     currency: text().notNull().default('usd'),

@@ -11,8 +11,10 @@ export const splitSchema = z.object({ shopCents: centsSchema('The shop’s share
 
 export interface MoneyView {
   balance: { paidIn: number; released: number; fee: number; refunded: number; held: number };
-  pending: Array<{ kind: 'release' | 'refund'; amountCents: number; attempts: number; lastError: string | null }>;
-  payments: Array<{ id: string; kind: 'bid' | 'change_order'; amountCents: number; status: 'pending' | 'paid' | 'failed' | 'expired'; failureMessage: string | null; paidAt: string | null }>;
+  /** late_refund: a payment that arrived when it could no longer be used, on its way back to the builder. */
+  pending: Array<{ kind: 'release' | 'refund' | 'late_refund'; amountCents: number; attempts: number; lastError: string | null }>;
+  /** refunded: the payment arrived when it could no longer be used (job cancelled, already paid, extra work declined) and was sent back in full. */
+  payments: Array<{ id: string; kind: 'bid' | 'change_order'; amountCents: number; status: 'pending' | 'paid' | 'failed' | 'expired' | 'refunded'; failureMessage: string | null; paidAt: string | null }>;
 }
 
 export interface ChangeOrder {

@@ -221,6 +221,44 @@ export function refundSentMail(input: { name: string; jobTitle: string; amountCe
   });
 }
 
+/** Why a payment that came in could not be used. */
+export type LatePaymentReason = 'job_cancelled' | 'job_finished' | 'already_paid' | 'change_order_declined';
+
+const latePaymentWhy: Record<LatePaymentReason, string> = {
+  job_cancelled: 'after the job was cancelled',
+  job_finished: 'after the job’s money was already settled',
+  already_paid: 'for something that was already paid',
+  change_order_declined: 'for extra work that had been declined',
+};
+
+export function latePaymentRefundedMail(input: {
+  name: string;
+  side: 'builder' | 'shop';
+  jobTitle: string;
+  amountCents: number;
+  what: string;
+  reason: LatePaymentReason;
+  url: string;
+}): RenderedMail {
+  const why = latePaymentWhy[input.reason];
+  return render({
+    template: 'late_payment_refunded',
+    subject: `Payment of ${money(input.amountCents)} for “${input.jobTitle}” refunded`,
+    greeting: `Hello ${input.name},`,
+    paragraphs:
+      input.side === 'builder'
+        ? [
+            `A payment of ${money(input.amountCents)} for ${input.what} on “${input.jobTitle}” reached us ${why}, so it cannot be used.`,
+            'We are sending all of it back to the card you paid with; Tenthmark keeps nothing. Banks take a few days to show a refund.',
+          ]
+        : [
+            `The builder’s payment of ${money(input.amountCents)} for ${input.what} on “${input.jobTitle}” reached us ${why}, so we are sending it back to the builder in full.`,
+            'Nothing else changes for you, and there is nothing you need to do.',
+          ],
+    action: { label: 'Open the job', url: input.url },
+  });
+}
+
 export function inspectionSubmittedMail(input: { name: string; shopName: string; jobTitle: string; version: number; pass: boolean; dueText: string; url: string }): RenderedMail {
   return render({
     template: 'inspection_submitted',

@@ -19,6 +19,7 @@ const paymentStatusWords: Record<MoneyView['payments'][number]['status'], string
   paid: 'paid',
   failed: 'failed',
   expired: 'expired',
+  refunded: 'arrived when it could no longer be used; refunded in full',
 };
 
 /** What the job's money is now: paid in, and where it went; held is what a decision moves. */

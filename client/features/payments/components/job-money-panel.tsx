@@ -59,6 +59,8 @@ function BuilderMoney({ job, acceptedTotalCents }: { job: JobDetail; acceptedTot
   });
   const lastPayment = money.data?.payments.filter((p) => p.kind === 'bid').at(-1);
   const declined = params.get('payment') !== 'done' && lastPayment?.status === 'pending' ? lastPayment.failureMessage : null;
+  // A cancelled job shows its money only when some came in (a payment made on a page left open, refunded).
+  if (job.status === 'cancelled' && !(money.data && money.data.balance.paidIn > 0)) return null;
 
   return (
     <Card>
@@ -94,7 +96,7 @@ function BuilderMoney({ job, acceptedTotalCents }: { job: JobDetail; acceptedTot
           )}
         </div>
       )}
-      {PAID_STATES.has(job.status) && money.data && <Balance money={money.data} />}
+      {(PAID_STATES.has(job.status) || job.status === 'cancelled') && money.data && <Balance money={money.data} />}
       {job.status === 'funded' && (
         <>
           <p className="mt-3 text-sm text-ink-soft">{HELD_WORDS}</p>
@@ -122,6 +124,8 @@ function BuilderMoney({ job, acceptedTotalCents }: { job: JobDetail; acceptedTot
 
 function Balance({ money }: { money: NonNullable<ReturnType<typeof useMoney>['data']> }) {
   const { balance, pending } = money;
+  const late = money.payments.filter((p) => p.status === 'refunded');
+  const lateOnItsWay = pending.some((p) => p.kind === 'late_refund');
   return (
     <div className="mt-3">
       <dl>
@@ -131,6 +135,13 @@ function Balance({ money }: { money: NonNullable<ReturnType<typeof useMoney>['da
         {balance.fee > 0 && <Row label="Tenthmark’s fee" value={formatCents(balance.fee)} />}
         {balance.refunded > 0 && <Row label="Refunded" value={formatCents(balance.refunded)} testId="money-refunded" />}
       </dl>
+      {late.length > 0 && (
+        <Notice className="mt-3" title={lateOnItsWay ? 'A payment is being refunded' : 'A payment was refunded'}>
+          {late.map((p) => `${formatCents(p.amountCents)} for ${p.kind === 'bid' ? 'the accepted bid' : 'extra work'}`).join('; ')}{' '}
+          {late.length === 1 ? 'was' : 'were'} paid when {late.length === 1 ? 'it' : 'they'} could no longer be used (the job was cancelled, it was already paid, or the
+          extra work was declined), so {late.length === 1 ? 'it goes' : 'they go'} back to the card in full. Tenthmark keeps nothing.
+        </Notice>
+      )}
       {pending.length > 0 && (
         <Notice tone="caution" className="mt-3" title="A payout is on its way">
           {pending.map((p) => `${p.kind === 'release' ? 'Payment to the shop' : 'Refund'} of ${formatCents(p.amountCents)}`).join('; ')} is waiting for the
@@ -174,11 +185,9 @@ function ChangeOrders({ job, side }: { job: JobDetail; side: 'builder' | 'shop' 
                   <Button busy={approve.isPending} disabled={unconfirmed} onClick={() => approve.mutate(order.id)}>
                     Agree and pay {formatCents(order.amountCents)}
                   </Button>
-                  {order.status === 'proposed' && (
-                    <Button variant="secondary" busy={decline.isPending} onClick={() => decline.mutate(order.id)}>
-                      Decline
-                    </Button>
-                  )}
+                  <Button variant="secondary" busy={decline.isPending} onClick={() => decline.mutate(order.id)}>
+                    Decline
+                  </Button>
                 </div>
               )}
             </li>
@@ -250,7 +259,9 @@ function ShopMoney({ job }: { job: JobDetail }) {
 
 /** Money on the job page: only for the job's builder and the shop doing the work. */
 export function JobMoneyPanel({ job, isAwardedShop, acceptedTotalCents }: { job: JobDetail; isAwardedShop: boolean; acceptedTotalCents?: number }) {
-  if (job.viewer.isOwner && (job.status === 'awarded' || PAID_STATES.has(job.status))) return <BuilderMoney job={job} acceptedTotalCents={acceptedTotalCents} />;
+  if (job.viewer.isOwner && (job.status === 'awarded' || job.status === 'cancelled' || PAID_STATES.has(job.status))) {
+    return <BuilderMoney job={job} acceptedTotalCents={acceptedTotalCents} />;
+  }
   if (isAwardedShop && (job.status === 'awarded' || PAID_STATES.has(job.status))) return <ShopMoney job={job} />;
   return null;
 }
