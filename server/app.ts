@@ -131,7 +131,7 @@ export function createApp(deps: AppDeps) {
 
   app.use(
     '/api/auth',
-    authRouter({ db, config, passport, generateCsrfToken: generateToken, sessionCookieName: SESSION_COOKIE }),
+    authRouter({ db, config, passport, generateCsrfToken: generateToken, sessionCookieName: SESSION_COOKIE, hub }),
   );
 
   app.use('/api/calculations', calculationsRouter({ db, perMinute: config.rateLimits.calculationsPerMinute }));

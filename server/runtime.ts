@@ -62,6 +62,7 @@ export async function startServer(
     pool,
     hub: app.hub,
     logger,
+    appUrl: config.appUrl,
     messagesPer10s: config.rateLimits.messagesPer10s,
   });
   const digests = startDigestWorker({ db, appUrl: config.appUrl, logger });

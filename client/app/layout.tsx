@@ -112,6 +112,9 @@ function Account({ me }: { me: Me }) {
       <span className="hidden text-sm text-ink-soft sm:inline" data-testid="signed-in-as">
         {me.displayName} · <span className="capitalize">{me.role}</span>
       </span>
+      <NavLink to="/account" className={navClass}>
+        Account
+      </NavLink>
       <button
         type="button"
         onClick={() => signOut.mutate()}

@@ -56,6 +56,7 @@ export const router = createBrowserRouter([
             element: <RequireRole><Outlet /></RequireRole>,
             children: [
               { path: '/dashboard', lazy: () => import('./routes/dashboard').then((m) => ({ Component: m.DashboardRoute })) },
+              { path: '/account', lazy: () => import('./routes/account').then((m) => ({ Component: m.AccountRoute })) },
               { path: '/jobs/:jobId', lazy: () => import('./routes/job-detail').then((m) => ({ Component: m.JobDetailRoute })) },
               {
                 path: '/jobs/:jobId/inspection/:version/certificate',

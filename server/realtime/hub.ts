@@ -1,9 +1,11 @@
 import type { Server } from 'socket.io';
 import type { Message } from '../../shared/schemas/messages';
 
-/** Room names: one per user, per job page, per conversation. */
+/** Room names: one per user, per signed-in session, per job page, per conversation; and every admin's sockets. */
 export const rooms = {
   user: (id: string) => `user:${id}`,
+  session: (sid: string) => `session:${sid}`,
+  admins: 'admins',
   job: (id: string) => `job:${id}`,
   thread: (id: string) => `thread:${id}`,
 };
@@ -28,9 +30,31 @@ export class RealtimeHub {
     for (const userId of participants) this.io?.to(rooms.user(userId)).emit('unread:changed', { threadId: message.threadId });
   }
 
-  /** A suspended account's live connections end now, on every instance. */
-  signOut(userId: string) {
-    this.io?.in(rooms.user(userId)).disconnectSockets(true);
+  /**
+   * A person's live connections end now, on every instance: a suspension, a
+   * password reset, or a password change (which keeps the session that made it).
+   */
+  signOut(userId: string, exceptSession?: string) {
+    const sockets = this.io?.in(rooms.user(userId));
+    (exceptSession ? sockets?.except(rooms.session(exceptSession)) : sockets)?.disconnectSockets(true);
+  }
+
+  /** The live connections of one signed-in session end (sign-out), on every instance; the person's other sessions go on. */
+  endSession(sid: string) {
+    this.io?.in(rooms.session(sid)).disconnectSockets(true);
+  }
+
+  /**
+   * After an award only the job's builder, the shop doing the work and admins
+   * follow it live: every other socket leaves the job's room, on every
+   * instance. The adapter publishes in order, so the award itself still
+   * reaches them first.
+   */
+  keepOnlyParties(jobId: string, partyUserIds: string[]) {
+    this.io
+      ?.in(rooms.job(jobId))
+      .except([rooms.admins, ...partyUserIds.map(rooms.user)])
+      .socketsLeave(rooms.job(jobId));
   }
 
   readMoved(threadId: string, userId: string, messageId: string) {

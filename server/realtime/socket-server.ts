@@ -11,9 +11,9 @@ import type { Database } from '../db/client';
 import type { User } from '../db/schema';
 import { AppError, zodFields } from '../lib/errors';
 import { PostgresRateLimitStore } from '../lib/rate-limit';
-import { jobForViewer } from '../modules/jobs/jobs.service';
+import { jobForLiveWatcher } from '../modules/jobs/job-live';
 import { markRead, sendMessage, threadFor } from '../modules/messages/messages.service';
-import { findUserById } from '../modules/users/users.repository';
+import { findUserById, sessionIsLive } from '../modules/users/users.repository';
 import { rooms, type RealtimeHub } from './hub';
 
 export interface RealtimeOptions {
@@ -23,6 +23,8 @@ export interface RealtimeOptions {
   pool: pg.Pool;
   hub: RealtimeHub;
   logger: Logger;
+  /** The app's public address: sockets are accepted only from pages of this origin. */
+  appUrl: string;
   /** Messages one person may send in ten seconds. */
   messagesPer10s: number;
 }
@@ -48,8 +50,17 @@ function failure(error: unknown) {
  * out goes back to the pool (as broken), once.
  */
 function adapterPool(pool: pg.Pool): pg.Pool {
+  // One publication at a time, in the order they were made: an event and the room change
+  // after it (a job's last news, then its losing bidders leaving) reach every instance in
+  // that order, instead of racing over two pool connections.
+  let queue: Promise<unknown> = Promise.resolve();
+  const query = (...args: unknown[]) => {
+    const run = queue.then(() => (pool.query as (...a: unknown[]) => Promise<unknown>)(...args));
+    queue = run.catch(() => {});
+    return run;
+  };
   return {
-    query: pool.query.bind(pool),
+    query,
     connect: async () => {
       const client = await pool.connect();
       client.once('end', () => {
@@ -66,11 +77,20 @@ function adapterPool(pool: pg.Pool): pg.Pool {
 
 export function attachRealtime(options: RealtimeOptions): Server {
   const { db, hub, logger } = options;
+  const appOrigin = new URL(options.appUrl).origin;
   const io = new Server(options.server, {
     path: '/socket.io',
     serveClient: false,
     // Same origin only: the app and the socket share one host.
     cors: { origin: false },
+    // A page of another site must not open a socket with our cookie (SameSite=Lax does not stop
+    // a cross-site WebSocket): browsers always say which page opens a WebSocket or a cross-site
+    // request, so a foreign Origin is refused. A request without one is not from another site's
+    // page (a browser leaves it off only for same-origin polling; other clients can say anything).
+    allowRequest: (req, callback) => {
+      const origin = req.headers.origin;
+      callback(null, origin === undefined || origin === appOrigin);
+    },
     adapter: createAdapter(adapterPool(options.pool), { errorHandler: (err) => logger.warn({ err }, 'socket.io adapter error') }),
     connectionStateRecovery: { maxDisconnectionDuration: 2 * 60_000 },
   });
@@ -98,11 +118,20 @@ export function attachRealtime(options: RealtimeOptions): Server {
 
   io.on('connection', (socket: Socket) => {
     const user = socket.data.user as User;
-    void socket.join(rooms.user(user.id));
+    const sid = (socket.request as unknown as { sessionID: string }).sessionID;
+    void socket.join([rooms.user(user.id), rooms.session(sid), ...(user.role === 'admin' ? [rooms.admins] : [])]);
 
-    const handle = <T>(event: string, run: (payload: T) => Promise<Record<string, unknown>>) => {
+    /** Belt and braces beside the disconnects: a socket whose session has ended is refused and closed. */
+    const checkSession = async () => {
+      if (await sessionIsLive(db, sid, user.id)) return;
+      setImmediate(() => socket.disconnect(true));
+      throw new AppError('unauthenticated', 'Your session has ended. Sign in again.', 401);
+    };
+
+    const handle = <T>(event: string, run: (payload: T) => Promise<Record<string, unknown>>, options: { sessionCheck?: boolean } = {}) => {
       socket.on(event, async (payload: T, ack?: Ack) => {
         try {
+          if (options.sessionCheck) await checkSession();
           const result = await run(payload);
           if (typeof ack === 'function') ack({ ok: true, ...result });
         } catch (error) {
@@ -117,7 +146,7 @@ export function attachRealtime(options: RealtimeOptions): Server {
       const access = await threadFor(db, threadId, user);
       await socket.join(rooms.thread(threadId));
       return { canWrite: access.canWrite };
-    });
+    }, { sessionCheck: true });
 
     handle('thread:leave', async (payload) => {
       const { threadId } = threadArg.parse(payload);
@@ -127,10 +156,10 @@ export function attachRealtime(options: RealtimeOptions): Server {
 
     handle('job:watch', async (payload) => {
       const { jobId } = jobArg.parse(payload);
-      await jobForViewer(db, jobId, user);
+      await jobForLiveWatcher(db, jobId, user);
       await socket.join(rooms.job(jobId));
       return {};
-    });
+    }, { sessionCheck: true });
 
     handle('job:unwatch', async (payload) => {
       const { jobId } = jobArg.parse(payload);
@@ -148,7 +177,7 @@ export function attachRealtime(options: RealtimeOptions): Server {
       const { message, duplicate, access } = await sendMessage(db, user, threadId, input);
       if (!duplicate) hub.messageCreated(message, [access.builderId, access.shopUserId].filter((id) => id !== user.id));
       return { message, duplicate };
-    });
+    }, { sessionCheck: true });
 
     handle('typing', async (payload) => {
       const { threadId } = threadArg.parse(payload);

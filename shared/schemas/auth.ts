@@ -47,6 +47,18 @@ export type PasswordResetConfirmInput = z.infer<typeof passwordResetConfirmSchem
 
 export const verifyEmailSchema = z.object({ token });
 
+/** A signed-in person changing their password: the current one proves it is them. */
+export const changePasswordSchema = z
+  .object({
+    currentPassword: z.string({ error: 'Enter your current password.' }).min(1, 'Enter your current password.').max(200, 'That password is too long.'),
+    newPassword: newPasswordSchema,
+  })
+  .refine((value) => value.newPassword !== value.currentPassword, {
+    path: ['newPassword'],
+    message: 'Choose a password different from your current one.',
+  });
+export type ChangePasswordInput = z.infer<typeof changePasswordSchema>;
+
 export const githubCompleteSchema = z.object({ role });
 export type GithubCompleteInput = z.infer<typeof githubCompleteSchema>;
 

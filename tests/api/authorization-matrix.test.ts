@@ -344,6 +344,12 @@ const matrix: Record<string, Row> = {
     body: (p) => ({ token: p.token, password: 'a brand new password' }),
     expect: all(200),
   },
+  'POST /api/auth/password': {
+    // A wrong current password is refused the same way whoever is signed in (a right one would end the caller's
+    // other sessions, which the other rows use; tests/realtime/session-end.test.ts changes passwords for real).
+    body: { currentPassword: 'not the password at all', newPassword: 'another long password' },
+    expect: [401, 400, 400, 400, 400, 400],
+  },
   'GET /api/auth/github': { serial: 'github', expect: all(302) },
   'GET /api/auth/github/callback': {
     serial: 'github',

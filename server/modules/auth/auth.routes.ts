@@ -1,5 +1,6 @@
 import { Router, type Request } from 'express';
 import {
+  changePasswordSchema,
   githubCompleteSchema,
   passwordResetConfirmSchema,
   passwordResetRequestSchema,
@@ -11,12 +12,14 @@ import type { Database } from '../../db/client';
 import type { User } from '../../db/schema';
 import type { AppConfig } from '../../env';
 import type { AppPassport } from '../../lib/auth/passport';
-import { requireUser } from '../../lib/auth/guards';
+import { currentUser, requireUser } from '../../lib/auth/guards';
 import { AppError, notFound } from '../../lib/errors';
 import { createLimiter } from '../../lib/rate-limit';
 import { safeReturnPath } from '../../../shared/paths';
+import type { RealtimeHub } from '../../realtime/hub';
 import { toMe } from '../users/users.repository';
 import {
+  changePassword,
   completeGithubSignUp,
   confirmPasswordReset,
   githubSignIn,
@@ -33,6 +36,8 @@ export interface AuthRouterDeps {
   passport: AppPassport;
   generateCsrfToken: (req: Request, overwrite?: boolean) => string;
   sessionCookieName: string;
+  /** Ends live connections when the session behind them ends. */
+  hub: RealtimeHub;
 }
 
 const logIn = (req: Request, user: User) =>
@@ -95,6 +100,16 @@ export function authRouter(deps: AuthRouterDeps) {
     message: 'Too many reset requests from your network. Try again in an hour.',
   });
 
+  const passwordChanges = createLimiter({
+    db,
+    name: 'password-change',
+    windowMs: fifteenMinutes,
+    limit: config.rateLimits.signInMax,
+    skipSuccessfulRequests: true,
+    keyGenerator: (req) => `user|${currentUser(req).id}`,
+    message: 'Too many wrong current passwords. Wait 15 minutes, or reset your password.',
+  });
+
   router.get('/csrf', (req, res) => {
     res.json({ csrfToken: deps.generateCsrfToken(req) });
   });
@@ -126,10 +141,20 @@ export function authRouter(deps: AuthRouterDeps) {
   });
 
   router.post('/logout', async (req, res) => {
+    // passport gives the session a new id as it signs out: the old one names the sockets to close.
+    const sid = req.sessionID;
     await new Promise<void>((resolve, reject) => req.logout((err) => (err ? reject(err) : resolve())));
     await new Promise<void>((resolve, reject) => req.session.destroy((err) => (err ? reject(err) : resolve())));
+    deps.hub.endSession(sid);
     res.clearCookie(deps.sessionCookieName, { path: '/' });
     res.status(204).end();
+  });
+
+  router.post('/password', requireUser, passwordChanges, async (req, res) => {
+    const input = changePasswordSchema.parse(req.body);
+    const user = await changePassword(serviceDeps, currentUser(req), input, req.sessionID);
+    deps.hub.signOut(user.id, req.sessionID);
+    res.json({ changed: true });
   });
 
   router.post('/verify-email', async (req, res) => {
@@ -152,7 +177,8 @@ export function authRouter(deps: AuthRouterDeps) {
 
   router.post('/password-reset/confirm', async (req, res) => {
     const { token, password } = passwordResetConfirmSchema.parse(req.body);
-    await confirmPasswordReset(serviceDeps, token, password);
+    const user = await confirmPasswordReset(serviceDeps, token, password);
+    deps.hub.signOut(user.id);
     res.json({ changed: true });
   });
 

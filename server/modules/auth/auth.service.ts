@@ -1,6 +1,6 @@
 import type { Database } from '../../db/client';
 import type { User } from '../../db/schema';
-import type { PendingGithub, Role, SignUpInput } from '../../../shared/schemas/auth';
+import type { ChangePasswordInput, PendingGithub, Role, SignUpInput } from '../../../shared/schemas/auth';
 import { AppError, badRequest, conflict } from '../../lib/errors';
 import { hashPassword, verifyPassword } from '../../lib/auth/passwords';
 import { enqueueMail } from '../../lib/mail/outbox';
@@ -88,6 +88,32 @@ export async function confirmPasswordReset(deps: AuthDeps, token: string, passwo
     if (!updated) throw expiredLink();
     await spendAllTokens(tx, userId, 'reset_password');
     await deleteSessionsOfUser(tx, userId);
+    await enqueueMail(tx, updated.email, passwordChangedMail({ displayName: updated.displayName }));
+    return updated;
+  });
+}
+
+/**
+ * A signed-in person changes their password: the current one must be right.
+ * Every reset link still out is spent and every other session of the account
+ * ends; the session that asked (`keepSid`) stays signed in.
+ */
+export async function changePassword(deps: AuthDeps, user: User, input: ChangePasswordInput, keepSid: string): Promise<User> {
+  if (!user.passwordHash) {
+    await verifyPassword(undefined, input.currentPassword);
+    throw new AppError('no_password', 'Your account signs in with GitHub and has no password yet. Use “Forgot your password?” on the sign-in page to set one.', 400, {
+      currentPassword: 'Your account has no password yet.',
+    });
+  }
+  if (!(await verifyPassword(user.passwordHash, input.currentPassword))) {
+    throw new AppError('wrong_password', 'Your current password is not right.', 400, { currentPassword: 'This is not your current password.' });
+  }
+  const passwordHash = await hashPassword(input.newPassword);
+  return deps.db.transaction(async (tx) => {
+    const updated = await updateUser(tx, user.id, { passwordHash });
+    if (!updated) throw new AppError('unauthenticated', 'You are not signed in.', 401);
+    await spendAllTokens(tx, user.id, 'reset_password');
+    await deleteSessionsOfUser(tx, user.id, keepSid);
     await enqueueMail(tx, updated.email, passwordChangedMail({ displayName: updated.displayName }));
     return updated;
   });

@@ -4,6 +4,7 @@ import { bidInputSchema, declineBidSchema } from '../../../shared/schemas/bids';
 import { uuidSchema } from '../../../shared/schemas/common';
 import { currentUser, requireRole, requireUser } from '../../lib/auth/guards';
 import type { JobChange, RealtimeHub } from '../../realtime/hub';
+import { jobPartiesById } from '../jobs/job-live';
 import { acceptBid, bidsForJob, bidsOfShop, bidWithHistory, createBid, declineBid, reviseBid, withdrawBid, type BidDeps } from './bids.service';
 
 const jobParams = z.object({ jobId: uuidSchema });
@@ -53,7 +54,10 @@ export function bidsRouter(deps: BidDeps & { hub: RealtimeHub }) {
   router.post('/bids/:bidId/accept', requireRole('builder'), async (req, res) => {
     const { bidId } = bidParams.parse(req.params);
     await acceptBid(deps, currentUser(req), bidId);
-    res.json(await answer(req, bidId, 'bid_accepted'));
+    const result = await answer(req, bidId, 'bid_accepted');
+    // The losing shops heard of the award; the work that follows is for the two sides only.
+    deps.hub.keepOnlyParties(result.bid.jobId, await jobPartiesById(deps.db, result.bid.jobId));
+    res.json(result);
   });
 
   router.post('/bids/:bidId/decline', requireRole('builder'), async (req, res) => {

@@ -42,6 +42,14 @@ export async function deleteSessionsOfUser(db: Executor, userId: string, exceptS
       AND (${exceptSid ?? null}::text IS NULL OR sid <> ${exceptSid ?? null})`);
 }
 
+/** Whether this signed-in session still exists: not signed out, ended by a password change or reset, suspended or expired. */
+export async function sessionIsLive(db: Executor, sid: string, userId: string): Promise<boolean> {
+  const result = await db.execute(sql`
+    SELECT 1 FROM sessions
+    WHERE sid = ${sid} AND expire > now() AND sess -> 'passport' ->> 'user' = ${userId}`);
+  return result.rows.length > 0;
+}
+
 /** What a person sees of their own account. */
 export function toMe(user: User) {
   return {

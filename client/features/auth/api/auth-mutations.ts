@@ -1,5 +1,6 @@
 import { useMutation, useQueryClient, type UseMutationOptions } from '@tanstack/react-query';
 import type {
+  ChangePasswordInput,
   GithubCompleteInput,
   Me,
   PasswordResetConfirmInput,
@@ -60,6 +61,13 @@ export const useConfirmPasswordReset = (options?: { mutationConfig?: MutationCon
   useMutation<unknown, ApiError, PasswordResetConfirmInput>({
     ...options?.mutationConfig,
     mutationFn: (input) => api.post('/api/auth/password-reset/confirm', input),
+  });
+
+/** Changes the signed-in person's password; their other devices are signed out, this one stays. */
+export const useChangePassword = (options?: { mutationConfig?: MutationConfig<unknown, ChangePasswordInput> }) =>
+  useMutation<unknown, ApiError, ChangePasswordInput>({
+    ...options?.mutationConfig,
+    mutationFn: (input) => api.post('/api/auth/password', input),
   });
 
 export function useVerifyEmail(options?: { mutationConfig?: MutationConfig<unknown, { token: string }> }) {

@@ -1,0 +1,59 @@
+import { zodResolver } from '@hookform/resolvers/zod';
+import { useState } from 'react';
+import { useForm } from 'react-hook-form';
+import { Link } from 'react-router-dom';
+import { toast } from 'sonner';
+import { z } from 'zod';
+import { changePasswordSchema } from '@shared/schemas/auth';
+import { Button } from '@client/components/ui/button';
+import { Notice } from '@client/components/ui/notice';
+import { TextField } from '@client/components/ui/text-field';
+import { applyServerErrors } from '@client/lib/form-errors';
+import { useChangePassword } from '../api/auth-mutations';
+
+const formSchema = changePasswordSchema
+  .and(z.object({ repeat: z.string() }))
+  .refine((v) => v.newPassword === v.repeat, { path: ['repeat'], message: 'The two new passwords differ.' });
+type FormValues = z.infer<typeof formSchema>;
+
+const empty: FormValues = { currentPassword: '', newPassword: '', repeat: '' };
+
+/** Change the password with the current one; every other signed-in device is signed out. */
+export function ChangePasswordForm() {
+  const [formError, setFormError] = useState<string>();
+  const form = useForm<FormValues>({ resolver: zodResolver(formSchema), defaultValues: empty });
+  const change = useChangePassword({
+    mutationConfig: {
+      onSuccess: () => {
+        form.reset(empty);
+        toast.success('Password changed. Your other devices are signed out.');
+      },
+    },
+  });
+  const onSubmit = form.handleSubmit(({ currentPassword, newPassword }) => {
+    setFormError(undefined);
+    change.mutate({ currentPassword, newPassword }, { onError: (error) => setFormError(applyServerErrors(error, form.setError, ['currentPassword', 'newPassword'])) });
+  });
+  const errors = form.formState.errors;
+  return (
+    <form onSubmit={onSubmit} noValidate className="flex flex-col gap-4" aria-label="Change password">
+      {formError && <Notice tone="error">{formError}</Notice>}
+      <TextField label="Current password" type="password" autoComplete="current-password" error={errors.currentPassword?.message} {...form.register('currentPassword')} />
+      <TextField
+        label="New password"
+        type="password"
+        autoComplete="new-password"
+        hint="At least 10 characters."
+        error={errors.newPassword?.message}
+        {...form.register('newPassword')}
+      />
+      <TextField label="New password again" type="password" autoComplete="new-password" error={errors.repeat?.message} {...form.register('repeat')} />
+      <p className="text-sm text-ink-soft">
+        Forgot the current one? <Link to="/forgot-password" className="underline">Reset it by e-mail</Link>.
+      </p>
+      <Button type="submit" busy={change.isPending}>
+        Change password
+      </Button>
+    </form>
+  );
+}
