@@ -1,8 +1,9 @@
 import { and, eq } from 'drizzle-orm';
 import { afterAll, afterEach, beforeAll, describe, expect, inject, it } from 'vitest';
 import { postForm, readForm } from '../../server/dev/payments-stand-in/page-client';
-import { changeOrders, jobs, ledgerEntries, mailOutbox, paymentEvents, payments as paymentRows } from '../../server/db/schema';
+import { changeOrders, jobs, ledgerEntries, mailOutbox, moneyMoves, paymentEvents, payments as paymentRows } from '../../server/db/schema';
 import { jobBalance } from '../../server/modules/payments/ledger';
+import { applyCheckoutSession } from '../../server/modules/payments/payments.service';
 import { bidInput, createJob, createShop, createUser } from '../factories';
 import { startMoneyApp } from '../setup/money-app';
 import { completeOnboardingPage, TEST_WEBHOOK_SECRET } from '../setup/payments';
@@ -210,6 +211,46 @@ describe('a payment that still arrives for a job that cannot take it is refunded
     for (const event of events) expect(await money.db.select().from(paymentEvents).where(eq(paymentEvents.id, event.id))).toHaveLength(1);
   });
 
+  it('when the provider refuses the refund at first, then the money worker makes it later with the same key, once', async () => {
+    const { job, builder } = await awardedJob(19_900);
+    const { sessionId, pay } = await openPaymentPage((await builder.post(`/api/jobs/${job.id}/checkout`)).body.url);
+    await providerAway();
+    expect((await builder.post(`/api/jobs/${job.id}/cancel`)).status).toBe(200);
+    await money.standIn.control.hold(); // the app hears of the payment only below
+    expect((await pay()).status).toBe(303);
+
+    // The app learns of the payment while the provider refuses refunds.
+    const deps = money.server.app.paymentDeps;
+    const refusing = Object.create(deps.payments, {
+      refunds: {
+        value: {
+          create: async () => {
+            throw new Error('the payment server is away');
+          },
+        },
+      },
+    }) as typeof deps.payments;
+    await applyCheckoutSession({ ...deps, payments: refusing }, sessionId);
+    expect(await expectLedgerBalanced(job.id)).toMatchObject({ paidIn: 19_900, refunded: 0, held: 19_900 });
+    const [waiting] = await money.db.select().from(moneyMoves).where(eq(moneyMoves.jobId, job.id));
+    expect(waiting).toMatchObject({ kind: 'late_refund', status: 'pending', idempotencyKey: `late-refund-${sessionId}`, amountCents: 19_900 });
+    expect(waiting.lastError).toMatch(/away/);
+    expect((await refundsOf(sessionId)).refunds).toHaveLength(0);
+
+    // The provider's own deliveries arrive meanwhile: nothing new is planned.
+    await money.standIn.control.release();
+    expect(await money.standIn.control.drain()).toBe(true);
+    expect(await money.db.select().from(moneyMoves).where(eq(moneyMoves.jobId, job.id))).toHaveLength(1);
+
+    // Time passes to the retry; the app's money worker makes the refund with the same key.
+    await money.db.update(moneyMoves).set({ nextAttemptAt: new Date(0) }).where(eq(moneyMoves.id, waiting.id));
+    await money.until('refunded by the worker', async () => (await jobBalance(money.db, job.id)).refunded === 19_900, 15_000);
+    expect((await refundsOf(sessionId)).refunds.map((r) => r.amount)).toEqual([19_900]);
+    expect(await expectLedgerBalanced(job.id)).toMatchObject({ paidIn: 19_900, refunded: 19_900, held: 0 });
+    expect(await jobStatus(job.id)).toBe('cancelled');
+    expect(await lateMails(job.id)).toHaveLength(2);
+  });
+
   it('when a second page for a payment that is already funded gets paid, then that second payment is refunded and the job stays funded with its first', async () => {
     const { job, builder, builderUser } = await money.fundedJob({ totalCents: 21_000 });
     const [payment] = await money.db.select().from(paymentRows).where(eq(paymentRows.jobId, job.id));
@@ -280,6 +321,26 @@ describe('change orders paid when they can no longer be used', () => {
     expect((await refundsOf(page.sessionId)).refunds).toHaveLength(1);
     expect(await expectLedgerBalanced(job.id)).toMatchObject({ paidIn: 71_000, refunded: 71_000, held: 0 });
     expect(await lateMails(job.id)).toHaveLength(2);
+  });
+
+  it('when a change order is paid after the job’s money was paid out, then it is refunded and the payout is not touched', async () => {
+    const { job, builderUser, shopUser, page } = await changeOrderPageOpen(4_400);
+    const admin = await signedIn(money.server.app, await createUser(money.db, { role: 'admin' }));
+    await providerAway(); // the expiry goes first and does not land; the payout then goes through
+    expect((await admin.post(`/api/admin/jobs/${job.id}/release`)).status).toBe(200);
+    await money.until('paid out', async () => (await jobStatus(job.id)) === 'completed');
+    expect((await page.pay()).status).toBe(303);
+
+    await money.until('change order refunded', async () => (await refundsOf(page.sessionId)).refunds.length > 0);
+    expect((await refundsOf(page.sessionId)).refunds.map((r) => r.amount)).toEqual([4_400]);
+    await money.until('ledger settled', async () => (await jobBalance(money.db, job.id)).refunded === 4_400);
+    // derived: 60,000 less 8 % (4,800) → 55,200 to the shop; the 4,400 back to the builder
+    expect(await expectLedgerBalanced(job.id)).toMatchObject({ paidIn: 64_400, released: 55_200, fee: 4_800, refunded: 4_400, held: 0 });
+    expect((await money.stripe.transfers.list({ transfer_group: job.id })).data.map((t) => t.amount)).toEqual([55_200]);
+    expect(await jobStatus(job.id)).toBe('completed');
+    const mails = await lateMails(job.id);
+    expect(mails.map((m) => m.toAddress).sort()).toEqual([builderUser.email, shopUser.email].sort());
+    expect(mails[0].textBody).toMatch(/already settled/);
   });
 
   it('when the builder declines an agreed change order and then pays its still-open page, then that payment is refunded and the job goes on', async () => {

@@ -118,12 +118,13 @@ export async function startJobCheckout(deps: PaymentDeps, user: User, jobId: str
 async function keepSession(deps: PaymentDeps, payment: typeof payments.$inferSelect, session: Stripe.Checkout.Session): Promise<{ url: string }> {
   const kept = await deps.db.transaction(async (tx) => {
     const [row] = await tx.select().from(payments).where(eq(payments.id, payment.id)).for('update');
-    if (row.status !== 'pending') return false;
+    if (row.status !== 'pending') return row.status === 'paid' ? ('paid' as const) : false;
     if (row.checkoutSessionId && row.checkoutSessionId !== session.id) await scheduleCheckoutExpiry(tx, row.jobId, row.checkoutSessionId);
     await tx.update(payments).set({ checkoutSessionId: session.id, updatedAt: new Date() }).where(eq(payments.id, payment.id));
     return true;
   });
-  if (!kept) {
+  if (kept !== true) {
+    if (kept === 'paid') throw conflict('This is already paid.', 'already_paid');
     await expireCheckoutSession(deps.payments, session.id).catch(() => {});
     throw conflict('This payment is no longer needed.', 'payment_not_needed');
   }
