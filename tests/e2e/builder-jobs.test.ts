@@ -146,7 +146,9 @@ describe('a builder posting a job and choosing a shop, in a real browser', () =>
     await form.getByLabel('Country').fill('United States');
     await form.getByLabel('State, province or county').fill('Ohio');
     await form.getByLabel('Town or city').fill('Columbus');
-    await form.getByLabel('Date you need the parts back').fill(inDays(30));
+    // Three years out is further ahead than the form takes.
+    const neededBy = form.getByLabel('Date you need the parts back');
+    await neededBy.fill(inDays(3 * 365));
     // 20 cylinders is no engine the form accepts, so no displacement yet.
     await expect(figures.getByText(/Still to enter: the number of cylinders/).isVisible()).resolves.toBe(true);
 
@@ -158,6 +160,11 @@ describe('a builder posting a job and choosing a shop, in a real browser', () =>
     await expect(page.locator(`[id="${describedBy}"]`).textContent()).resolves.toBe('At most 16 cylinders.');
     await expect(form.getByLabel('Job title').inputValue()).resolves.toBe('Bore, hone and deck an iron V8 block');
     expect(page.url()).toBe(url('/jobs/new'));
+    await expect(neededBy.getAttribute('aria-invalid')).resolves.toBe('true');
+    await expect(page.locator(`[id="${(await neededBy.getAttribute('aria-describedby'))!.split(' ').at(-1)}"]`).textContent()).resolves.toBe(
+      'Pick a date within two years from today.',
+    );
+    await neededBy.fill(inDays(30));
 
     // Fixing the count brings the figures, and per-cylinder work follows it.
     await cylinders.fill('8');
