@@ -1,12 +1,12 @@
-import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
-import { chmodSync, existsSync, mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { execFileSync, spawn, spawnSync, type ChildProcess } from 'node:child_process';
+import { chmodSync, copyFileSync, existsSync, mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { connect as connectTcp, createServer } from 'node:net';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { io as connectSocket, type Socket } from 'socket.io-client';
 import { afterEach, describe, expect, it } from 'vitest';
-import { ensureCluster, ensurePostgresInstalled } from '../../server/dev/postgres';
+import { ensureCluster, ensurePostgresInstalled, serverOn } from '../../server/dev/postgres';
 import { DEMO_PASSWORD, demoAccounts } from '../../server/dev/seed';
 import { isRoot } from '../../server/dev/system-packages';
 import { freePort } from '../setup/ports';
@@ -255,5 +255,30 @@ describe('npm start stops what it started', () => {
     await waitForGroupGone(run);
 
     await expectEverythingStopped(setup, run);
+  });
+
+  it("neither adopts nor stops another folder's server when that server's lock file was copied in", async () => {
+    const other = await makeSetup();
+    const setup = await makeSetup();
+    const theirs = ensureCluster({ dir: other.dataDir, port: other.ports.TENTHMARK_PG_PORT });
+    ensureCluster({ dir: setup.dataDir, port: setup.ports.TENTHMARK_PG_PORT }).stop();
+    // As `cp -a` of a folder whose server was running would leave it: their pid, their data directory.
+    const lockFile = join(setup.pgDataDir, 'postmaster.pid');
+    copyFileSync(join(other.pgDataDir, 'postmaster.pid'), lockFile);
+    if (isRoot()) execFileSync('chown', ['postgres:postgres', lockFile]);
+    expect(serverOn(setup.pgDataDir).state).toBe('stale');
+
+    const ours = ensureCluster({ dir: setup.dataDir, port: setup.ports.TENTHMARK_PG_PORT });
+    expect(ours.adopted).toBe(false);
+    expect(ours.startedHere).toBe(true);
+    const theirsNow = serverOn(other.pgDataDir);
+    const oursNow = serverOn(setup.pgDataDir);
+    expect(theirsNow.state).toBe('running');
+    expect(oursNow.state).toBe('running');
+    if (theirsNow.state === 'running' && oursNow.state === 'running') expect(oursNow.pid).not.toBe(theirsNow.pid);
+
+    ours.stop();
+    expect(serverOn(other.pgDataDir).state, 'stopping ours stopped theirs').toBe('running');
+    theirs.stop();
   });
 });
