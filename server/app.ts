@@ -25,6 +25,7 @@ import { jobsRouter } from './modules/jobs/jobs.routes';
 import { shopsRouter } from './modules/shops/shops.routes';
 import { createSessionStore } from './lib/session-store';
 import { LocalDiskStorage, type FileStorage } from './lib/storage';
+import { jsonBody } from './lib/json-body';
 import { uploadLimiter } from './lib/photo-upload';
 import { calculationsRouter, ROUGHNESS_BODY_LIMIT } from './modules/calculations/calculations.routes';
 import { healthRouter } from './modules/health/health.routes';
@@ -115,11 +116,11 @@ export function createApp(deps: AppDeps) {
   app.use(passport.initialize());
   app.use(passport.session());
 
-  // A roughness profile may be large; every other body stays small.
-  app.use('/api/calculations/roughness', express.json({ limit: ROUGHNESS_BODY_LIMIT }));
+  // A roughness profile may be large; every other body stays small. Every JSON body is also refused past 64 levels of nesting.
+  app.use('/api/calculations/roughness', jsonBody({ limit: ROUGHNESS_BODY_LIMIT }));
   // An inspection record may carry a surface trace of up to 200,000 heights.
-  app.use(/^\/api\/jobs\/[^/]+\/inspection(\/draft)?$/, express.json({ limit: '8mb' }));
-  app.use('/api', express.json({ limit: '200kb' }));
+  app.use(/^\/api\/jobs\/[^/]+\/inspection(\/draft)?$/, jsonBody({ limit: '8mb' }));
+  app.use('/api', jsonBody({ limit: '200kb' }));
 
   const { csrfSynchronisedProtection, generateToken } = csrfSync({
     getTokenFromRequest: (req) => req.get('x-csrf-token'),

@@ -203,6 +203,7 @@ const nastyNumber = fc.oneof(
 /** A marker replaced by deeply nested arrays after JSON.stringify (which could not make them itself). */
 const DEEP = (depth: number) => `__deep_nesting_${depth}__`;
 const deepText = (depth: number) => '['.repeat(depth) + ']'.repeat(depth);
+const deepObject = (depth: number) => '{"a":'.repeat(depth) + '1' + '}'.repeat(depth);
 const withDeepNesting = (text: string) => text.replace(/"__deep_nesting_(\d+)__"/g, (_m, depth: string) => deepText(Number(depth)));
 
 const protoObject = fc.constantFrom(...protoKeys).map((key) => {
@@ -687,6 +688,8 @@ describe('bad input that once caused a 500', () => {
     ['an inspection draft holds half a UTF-16 pair', 400, () => [route('PUT', '/api/jobs/:jobId/inspection/draft'), { ...base, role: 'shop', params: { jobId: fundedJob() }, body: json('{"draft":{"note":"\\ud800"}}') }]],
     ['the e-mail for a reset is a deeply nested array (the rate limiter stringified it)', 400, () => [route('POST', '/api/auth/password-reset/request'), { ...base, role: 'anonymous', body: json(`{"email":${deepText(20_000)}}`) }]],
     ['the e-mail at sign-in is a deeply nested array', 400, () => [route('POST', '/api/auth/login'), { ...base, role: 'anonymous', body: json(`{"email":${deepText(20_000)},"password":"x"}`) }]],
+    ['an inspection draft is nested 5,000 levels deep', 400, () => [route('PUT', '/api/jobs/:jobId/inspection/draft'), { ...base, role: 'shop', params: { jobId: fundedJob() }, body: json(`{"draft":${deepObject(5_000)}}`) }]],
+    ['a job is nested 5,000 levels deep', 400, () => [route('POST', '/api/jobs'), { ...base, body: json(JSON.stringify(jobInput()).replace(/}$/, `,"notes":${deepObject(5_000)}}`)) }]],
     ['a multipart body is cut off inside a part', 400, () => [route('POST', '/api/jobs/:jobId/photos'), { ...base, params: { jobId: draftJob() }, body: { kind: 'raw', contentType: 'multipart/form-data; boundary=XyZ', data: '--XyZ\r\nContent-Disposition: form-data; name="photos"; filename="a.png"\r\n\r\n\x89PNG' } }]],
     ['a multipart body has no boundary', 400, () => [route('POST', '/api/threads/:threadId/photos'), { ...base, params: { threadId: real('threadId') }, body: { kind: 'raw', contentType: 'multipart/form-data', data: 'x' } }]],
     ['a milestone photo is asked for with the job id in capitals', 200, () => [route('GET', '/api/jobs/:jobId/milestone-photos/:photoId/:size'), { ...base, role: 'shop', params: { jobId: fundedJob().toUpperCase(), photoId: real('photoId', 2), size: 'thumb' } }]],

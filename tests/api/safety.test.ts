@@ -430,6 +430,61 @@ describe('headers and the session cookie', () => {
 
 // ---------------------------------------------------------------------------
 
+describe('request bodies of any shape', () => {
+  const deepObject = (depth: number) => '{"a":'.repeat(depth) + '1' + '}'.repeat(depth);
+  const sendJson = (client: Awaited<ReturnType<typeof signedIn>>, method: 'post' | 'put', path: string, text: string) =>
+    client.agent[method](path).set('X-CSRF-Token', client.token).set('Content-Type', 'application/json').send(text);
+
+  it('when a JSON body nests deeper than 64 levels, then 400 with the error shape, on the inspection draft and on an ordinary route', async () => {
+    const { user: shopUser } = await createShop(ctx.db);
+    const shop = await signedIn(ctx.app, shopUser);
+    const builder = await signedIn(ctx.app, await createUser(ctx.db));
+    const job = await createJob(ctx.db, (await createUser(ctx.db)).id);
+    const withNotes = (notes: string) => JSON.stringify(jobInput()).replace(/}$/, `,"notes":${notes}}`);
+    for (const [client, method, path, text] of [
+      [shop, 'put', `/api/jobs/${job.id}/inspection/draft`, `{"draft":${deepObject(5_000)}}`],
+      [builder, 'post', '/api/jobs', withNotes(deepObject(5_000))],
+      [builder, 'post', '/api/jobs', `{"title":${'['.repeat(65)}${']'.repeat(65)}}`],
+    ] as const) {
+      const res = await sendJson(client, method, path, text);
+      expect(res.status, path).toBe(400);
+      expect(res.body).toEqual({ error: { code: 'too_deep', message: expect.any(String) } });
+    }
+    // Text in another UTF charset is checked once parsed.
+    const utf16 = await builder.agent
+      .post('/api/jobs')
+      .set('X-CSRF-Token', builder.token)
+      .set('Content-Type', 'application/json; charset=utf-16le')
+      // Sent as bytes, not serialised again as JSON.
+      .serialize((bytes: Buffer) => bytes as unknown as string)
+      .send(Buffer.from(withNotes(deepObject(5_000)), 'utf16le'));
+    expect(utf16.status).toBe(400);
+    expect(utf16.body).toEqual({ error: { code: 'too_deep', message: expect.any(String) } });
+    // 64 levels in all (the body is the first) is still read; the schema then says what is wrong.
+    const justInside = await sendJson(builder, 'post', '/api/jobs', withNotes(deepObject(63)));
+    expect(justInside.status).toBe(400);
+    expect(justInside.body.error.code).toBe('invalid_input');
+  });
+
+  it('when a JSON body is just over its route’s size limit, then 413 with the error shape', async () => {
+    const builder = await signedIn(ctx.app, await createUser(ctx.db));
+    const { user: shopUser } = await createShop(ctx.db);
+    const shop = await signedIn(ctx.app, shopUser);
+    const job = await createJob(ctx.db, (await createUser(ctx.db)).id);
+    const padded = (bytes: number) => {
+      const text = JSON.stringify({ ...jobInput(), notes: '' });
+      return text.replace('"notes":""', `"notes":"${'x'.repeat(bytes - text.length)}"`);
+    };
+    expect(Buffer.byteLength(padded(200 * 1024))).toBe(200 * 1024);
+    const small = await sendJson(builder, 'post', '/api/jobs', padded(200 * 1024 + 1));
+    expect(small.status).toBe(413);
+    expect(small.body).toEqual({ error: { code: 'too_large', message: expect.any(String) } });
+    const draft = await sendJson(shop, 'put', `/api/jobs/${job.id}/inspection/draft`, padded(8 * 1024 * 1024 + 1));
+    expect(draft.status).toBe(413);
+    expect(draft.body).toEqual({ error: { code: 'too_large', message: expect.any(String) } });
+  });
+});
+
 describe('rate limits', () => {
   interface Limiter {
     name: string;
