@@ -9,6 +9,7 @@ import { createTransport } from './lib/mail/transport';
 import { startDigestWorker } from './modules/messages/digest';
 import { startMoneyWorker } from './modules/payments/payments.service';
 import { inspectionTaskHandlers } from './modules/inspections/inspections.service';
+import { checkoutTaskHandlers } from './modules/payments/open-checkouts';
 import { createScheduler, type Scheduler } from './lib/scheduler';
 import { attachRealtime } from './realtime/socket-server';
 
@@ -67,7 +68,7 @@ export async function startServer(
   });
   const digests = startDigestWorker({ db, appUrl: config.appUrl, logger });
   const money = startMoneyWorker(app.paymentDeps);
-  const scheduler = createScheduler({ db, handlers: inspectionTaskHandlers(app.workDeps), logger });
+  const scheduler = createScheduler({ db, handlers: { ...inspectionTaskHandlers(app.workDeps), ...checkoutTaskHandlers(app.paymentDeps) }, logger });
   scheduler.start(30_000);
 
   const transport = createTransport(config.smtp);
