@@ -9,6 +9,7 @@ import { uuidSchema } from '../../shared/schemas/common';
 import { markReadSchema, sendMessageSchema } from '../../shared/schemas/messages';
 import type { Database } from '../db/client';
 import type { User } from '../db/schema';
+import { nestsDeeperThan, tooDeep } from '../lib/json-body';
 import { AppError, zodFields } from '../lib/errors';
 import { PostgresRateLimitStore } from '../lib/rate-limit';
 import { jobForLiveWatcher } from '../modules/jobs/job-live';
@@ -49,14 +50,27 @@ function failure(error: unknown) {
  * for ever when the app shuts down. Here a connection that ends while checked
  * out goes back to the pool (as broken), once.
  */
+const PUBLISH_ORDER_WAIT_MS = 250;
+
 function adapterPool(pool: pg.Pool): pg.Pool {
-  // One publication at a time, in the order they were made: an event and the room change
-  // after it (a job's last news, then its losing bidders leaving) reach every instance in
-  // that order, instead of racing over two pool connections.
-  let queue: Promise<unknown> = Promise.resolve();
+  // Publications go out in the order they were made, each after the one before it has
+  // finished: an event and the room change after it (a job's last news, then its losing
+  // bidders leaving) reach every instance in that order instead of racing over two pool
+  // connections. None waits longer than PUBLISH_ORDER_WAIT_MS for the one before, so a
+  // database that is away does not pile up a queue that drains for minutes once it is back.
+  let last: Promise<unknown> = Promise.resolve();
   const query = (...args: unknown[]) => {
-    const run = queue.then(() => (pool.query as (...a: unknown[]) => Promise<unknown>)(...args));
-    queue = run.catch(() => {});
+    const previous = last;
+    const turn = new Promise<void>((resolve) => {
+      const timer = setTimeout(resolve, PUBLISH_ORDER_WAIT_MS);
+      timer.unref();
+      void previous.then(() => {
+        clearTimeout(timer);
+        resolve();
+      });
+    });
+    const run = turn.then(() => (pool.query as (...a: unknown[]) => Promise<unknown>)(...args));
+    last = run.catch(() => {});
     return run;
   };
   return {
@@ -93,6 +107,8 @@ export function attachRealtime(options: RealtimeOptions): Server {
     },
     adapter: createAdapter(adapterPool(options.pool), { errorHandler: (err) => logger.warn({ err }, 'socket.io adapter error') }),
     connectionStateRecovery: { maxDisconnectionDuration: 2 * 60_000 },
+    // The largest thing a client sends is a message (4,000 characters and a few photo ids); a bigger frame closes the connection unread.
+    maxHttpBufferSize: 100_000,
   });
   io.engine.use(options.sessionMiddleware);
 
@@ -131,6 +147,8 @@ export function attachRealtime(options: RealtimeOptions): Server {
     const handle = <T>(event: string, run: (payload: T) => Promise<Record<string, unknown>>, options: { sessionCheck?: boolean } = {}) => {
       socket.on(event, async (payload: T, ack?: Ack) => {
         try {
+          // Like HTTP bodies: nothing deeper than MAX_JSON_DEPTH reaches a schema or the database.
+          if (nestsDeeperThan(payload)) throw tooDeep();
           if (options.sessionCheck) await checkSession();
           const result = await run(payload);
           if (typeof ack === 'function') ack({ ok: true, ...result });

@@ -109,6 +109,27 @@ describe('live messaging', () => {
     await expect(connected(forged)).rejects.toThrow('unauthenticated');
   });
 
+  it('when an event’s payload nests 1,000 levels deep, then it is refused without being acted on; an oversized frame closes the socket', async () => {
+    const { threadId, builderAuth } = await conversation();
+    const socket = socketFor(instanceA, builderAuth.cookie);
+    await connected(socket);
+    // 1,000 levels: socket.io's own client recurses over a payload and cannot send much deeper.
+    const deep = JSON.parse('{"a":'.repeat(1_000) + '1' + '}'.repeat(1_000)) as unknown;
+    for (const [event, payload] of [
+      ['message:send', { threadId, clientId: clientId(), body: 'Deep but otherwise valid.', extra: deep }],
+      ['thread:join', { threadId, extra: deep }],
+      ['read', deep],
+    ] as const) {
+      const answer = await emit(socket, event, payload);
+      expect(answer, event).toEqual({ ok: false, error: { code: 'too_deep', message: expect.any(String) } });
+    }
+    expect(await db.select().from(messages).where(eq(messages.threadId, threadId))).toHaveLength(0);
+    // A frame far beyond any message (4,000 characters) is not read at all: the connection closes.
+    const closed = new Promise<string>((resolve) => socket.once('disconnect', resolve));
+    socket.emit('message:send', { threadId, clientId: clientId(), body: 'x'.repeat(300_000) });
+    expect(await closed).toMatch(/transport (close|error)/);
+  });
+
   it('when a user asks to join someone else’s conversation, then it is refused', async () => {
     const { threadId } = await conversation();
     const stranger = await createUser(db);
