@@ -50,27 +50,14 @@ function failure(error: unknown) {
  * for ever when the app shuts down. Here a connection that ends while checked
  * out goes back to the pool (as broken), once.
  */
-const PUBLISH_ORDER_WAIT_MS = 250;
-
 function adapterPool(pool: pg.Pool): pg.Pool {
-  // Publications go out in the order they were made, each after the one before it has
-  // finished: an event and the room change after it (a job's last news, then its losing
-  // bidders leaving) reach every instance in that order instead of racing over two pool
-  // connections. None waits longer than PUBLISH_ORDER_WAIT_MS for the one before, so a
-  // database that is away does not pile up a queue that drains for minutes once it is back.
-  let last: Promise<unknown> = Promise.resolve();
+  // One publication at a time, in the order they were made: an event and the room change
+  // after it (a job's last news, then its losing bidders leaving) reach every instance in
+  // that order, instead of racing over two pool connections.
+  let queue: Promise<unknown> = Promise.resolve();
   const query = (...args: unknown[]) => {
-    const previous = last;
-    const turn = new Promise<void>((resolve) => {
-      const timer = setTimeout(resolve, PUBLISH_ORDER_WAIT_MS);
-      timer.unref();
-      void previous.then(() => {
-        clearTimeout(timer);
-        resolve();
-      });
-    });
-    const run = turn.then(() => (pool.query as (...a: unknown[]) => Promise<unknown>)(...args));
-    last = run.catch(() => {});
+    const run = queue.then(() => (pool.query as (...a: unknown[]) => Promise<unknown>)(...args));
+    queue = run.catch(() => {});
     return run;
   };
   return {
