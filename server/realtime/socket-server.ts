@@ -43,6 +43,9 @@ function failure(error: unknown) {
  * cookie as the pages (no session, no connection), joins its own user room,
  * and may join only the conversations and job pages its user may read.
  */
+/** The longest a publication waits for the one before it to finish. */
+const PUBLISH_ORDER_WAIT_MS = 250;
+
 /**
  * The pool as the adapter sees it. The adapter keeps one connection checked
  * out for LISTEN; when the database goes away it drops that connection and
@@ -51,13 +54,24 @@ function failure(error: unknown) {
  * out goes back to the pool (as broken), once.
  */
 function adapterPool(pool: pg.Pool): pg.Pool {
-  // One publication at a time, in the order they were made: an event and the room change
-  // after it (a job's last news, then its losing bidders leaving) reach every instance in
-  // that order, instead of racing over two pool connections.
-  let queue: Promise<unknown> = Promise.resolve();
+  // Publications go out in the order they were made, each after the one before it has
+  // finished: an event and the room change after it (a job's last news, then its losing
+  // bidders leaving) reach every instance in that order instead of racing over two pool
+  // connections. None waits longer than PUBLISH_ORDER_WAIT_MS for the one before, so a
+  // database that is away does not pile up a queue that drains for minutes once it is back.
+  let last: Promise<unknown> = Promise.resolve();
   const query = (...args: unknown[]) => {
-    const run = queue.then(() => (pool.query as (...a: unknown[]) => Promise<unknown>)(...args));
-    queue = run.catch(() => {});
+    const previous = last;
+    const turn = new Promise<void>((resolve) => {
+      const timer = setTimeout(resolve, PUBLISH_ORDER_WAIT_MS);
+      timer.unref();
+      void previous.then(() => {
+        clearTimeout(timer);
+        resolve();
+      });
+    });
+    const run = turn.then(() => (pool.query as (...a: unknown[]) => Promise<unknown>)(...args));
+    last = run.catch(() => {});
     return run;
   };
   return {
