@@ -57,7 +57,14 @@ export function RealtimeProvider({ userId, onUnauthenticated, children }: Realti
       everConnected = true;
       setStatus('connected');
     };
-    const onDisconnect = () => setStatus(navigator.onLine ? 'reconnecting' : 'offline');
+    const onDisconnect = (reason: Socket.DisconnectReason) => {
+      setStatus(navigator.onLine ? 'reconnecting' : 'offline');
+      // The server closed this socket on purpose, as it does when the session ends (signed out
+      // elsewhere, the password changed or reset, the account suspended); socket.io does not come
+      // back by itself then. Ask once: the handshake refuses a session that has ended, and the
+      // refusal tells the app the person is signed out.
+      if (reason === 'io server disconnect') s?.connect();
+    };
     const onConnectError = (error: Error & { data?: { code?: string } }) => {
       if (error.data?.code === 'unauthenticated') {
         // socket.io does not retry a refusal by the server's middleware.

@@ -6,9 +6,12 @@ const suite = browserSuite();
 const builder = demoAccounts.find((a) => a.email === 'teodor@builders.test')!;
 
 describe('changing the password in the browser', () => {
-  it('when the signed-in person changes it on the Account page, then a wrong current password is marked beside its field, and on success the other device is signed out', async () => {
+  it('when the signed-in person changes it on the Account page, then a wrong current password is marked beside its field, and on success the other devices are signed out at once', async () => {
     const otherDevice = await suite.apiAs(builder.email);
     expect(await otherDevice<{ user: { email: string } }>('GET', '/api/auth/me')).toMatchObject({ user: { email: builder.email } });
+    // Another browser, open on the dashboard with its live connection up.
+    const otherBrowser = await suite.pageFor(builder.email, '/dashboard');
+    await expect.poll(() => otherBrowser.getByTestId('signed-in-as').isVisible()).toBe(true);
 
     const page = await suite.pageFor(builder.email, '/dashboard');
     await page.getByRole('link', { name: 'Account' }).click();
@@ -32,6 +35,9 @@ describe('changing the password in the browser', () => {
     await expect.poll(() => page.getByText('Password changed. Your other devices are signed out.').isVisible()).toBe(true);
 
     await expect(otherDevice('GET', '/api/auth/me')).rejects.toThrow(/401/);
+    // The other browser hears its socket close and shows itself signed out, without a reload.
+    await expect.poll(() => otherBrowser.getByRole('link', { name: 'Sign in' }).first().isVisible(), { timeout: 10_000 }).toBe(true);
+    expect(await otherBrowser.getByTestId('signed-in-as').count()).toBe(0);
     // This browser stays signed in.
     await page.reload();
     await expect.poll(() => page.getByTestId('signed-in-as').textContent()).toContain(builder.displayName);
