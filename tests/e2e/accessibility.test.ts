@@ -155,6 +155,8 @@ describe('accessibility (WCAG 2.1 A and AA) of every main page, in a real browse
       `/jobs/${open.id}`,
       '/messages',
       '/money',
+      '/account',
+      { path: '/account', then: sentEmpty('Change password'), label: '/account (sent empty)' },
     ]);
     expect(problems, report(problems)).toEqual([]);
   }, 90_000);
