@@ -167,6 +167,8 @@ describe('sockets end with the session', () => {
     expect(await emit(stayingSocket, 'message:send', { threadId, clientId: clientId(), body: 'Still here on the other device.' })).toMatchObject({ ok: true });
     expect(await me(instanceB, staying)).toBe(200);
     expect(await me(instanceA, leaving)).toBe(401);
+    // The old cookie opens no new socket either.
+    await expect(connected(socketFor(instanceA, leaving.cookie))).rejects.toThrow('unauthenticated');
   });
 
   it('when the session row is gone, then the socket’s next message is refused, nothing is stored, and the socket is closed', async () => {
@@ -230,6 +232,7 @@ describe('sockets end with the session', () => {
     expect(await emit(hereSocket, 'message:send', { threadId, clientId: clientId(), body: 'Changed my password, still here.' })).toMatchObject({ ok: true });
     expect(await me(instanceA, here)).toBe(200);
     expect(await me(instanceB, elsewhere)).toBe(401);
+    await expect(connected(socketFor(instanceB, elsewhere.cookie))).rejects.toThrow('unauthenticated');
 
     const stale = await post(instanceB, anon, '/api/auth/password-reset/confirm', { token: outstanding, password: 'an attacker password' });
     expect(stale.status).toBe(400);
