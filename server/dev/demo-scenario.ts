@@ -1,6 +1,7 @@
 import { sql } from 'drizzle-orm';
 import sharp from 'sharp';
 import { prefillBidLines } from '../../shared/catalogue';
+import { EXPANSION_COEFFICIENTS, PISTON_MATERIAL } from '../../shared/calc/thermal';
 import type { InspectionInput } from '../../shared/schemas/inspection';
 import type { JobInput } from '../../shared/schemas/jobs';
 import type { Database } from '../db/client';
@@ -66,9 +67,14 @@ async function drawnPhoto(kind: 'deck' | 'bore', cylinders: number, hue: number)
  * rounded to the gauge's resolution (invented, plausible for a good hone job).
  * `badTaper` widens one cylinder's top so it fails a taper limit.
  */
-function readingsFor(spec: { cylinders: number; bore: number; piston: number; step: number }, seed: number, badTaper?: number): InspectionInput['cylinders'] {
+function readingsFor(
+  spec: { cylinders: number; bore: number; piston: number; step: number; boreGrowth: number; pistonGrowth: number },
+  seed: number,
+  badTaper?: number,
+): InspectionInput['cylinders'] {
   const rand = randomFrom(seed);
-  const round = (v: number) => Math.round(v / spec.step) * spec.step;
+  // Sizes are planned at 20 °C and read warm: each reading is the 20 °C size grown by its material's expansion.
+  const round = (v: number) => Math.round((v * spec.boreGrowth) / spec.step) * spec.step;
   const fix = (v: number) => Number(round(v).toFixed(spec.step < 0.001 ? 4 : 3));
   return Array.from({ length: spec.cylinders }, (_, i) => {
     const base = spec.bore + (Math.floor(rand() * 3) - 1) * spec.step;
@@ -79,17 +85,27 @@ function readingsFor(spec: { cylinders: number; bore: number; piston: number; st
       top: { thrust: fix(top + oval), axial: fix(top) },
       middle: { thrust: fix(base + oval), axial: fix(base) },
       bottom: { thrust: fix(base + oval), axial: fix(base - (rand() < 0.3 ? spec.step : 0)) },
-      piston: spec.piston,
+      piston: Number((Math.round((spec.piston * spec.pistonGrowth) / spec.step) * spec.step).toFixed(spec.step < 0.001 ? 4 : 3)),
     };
   });
 }
 
-function recordFor(job: { cylinders: number; unit: 'in' | 'mm'; bore: number; piston: number }, seed: number, signedOffBy: string, badTaper?: number): InspectionInput {
+function recordFor(
+  job: { cylinders: number; unit: 'in' | 'mm'; bore: number; piston: number; blockMaterial: JobInput['blockMaterial'] },
+  seed: number,
+  signedOffBy: string,
+  badTaper?: number,
+): InspectionInput {
   const inch = job.unit === 'in';
   const step = inch ? 0.0001 : 0.001;
+  const temperatureC = 20 + (seed % 4);
+  const growth = (material: JobInput['blockMaterial']) => 1 + EXPANSION_COEFFICIENTS[material].alpha * (temperatureC - 20);
   return {
-    conditions: { unit: job.unit, gaugeResolution: step, temperatureC: 20 + (seed % 4), torquePlate: inch },
-    cylinders: readingsFor({ cylinders: job.cylinders, bore: job.bore, piston: job.piston, step }, seed, badTaper),
+    // The inch shops read their thermometer in °F (exact: 68 °F = 20 °C, 1.8 °F per kelvin).
+    conditions: inch
+      ? { unit: job.unit, gaugeResolution: step, temperatureF: Number((temperatureC * 1.8 + 32).toFixed(1)), torquePlate: true }
+      : { unit: job.unit, gaugeResolution: step, temperatureC, torquePlate: false },
+    cylinders: readingsFor({ cylinders: job.cylinders, bore: job.bore, piston: job.piston, step, boreGrowth: growth(job.blockMaterial), pistonGrowth: growth(PISTON_MATERIAL) }, seed, badTaper),
     deck: { readings: inch ? [0.0005, 0.001, 0.0015, 0.001, 0.0005] : [0.01, 0.02, 0.015, 0.01], raUm: 1.1 },
     finish: { mode: 'values', raUm: 0.42, rkUm: 0.55, rpkUm: 0.14, rvkUm: 1.35, mr1: 8, mr2: 86 },
     crosshatch: { mode: 'measured', includedAngleDeg: 44 + (seed % 4) },
@@ -280,7 +296,7 @@ export async function buildDemoScenario(options: ScenarioOptions): Promise<numbe
       { kind: 'operation_started', operation: 'bore' },
       { kind: 'operation_finished', operation: 'bore', note: 'Bored to leave stock for the hone.' },
     ]);
-    const record = recordFor({ cylinders: plan.input.cylinders, unit: plan.input.unit, bore: plan.finishBore, piston: plan.input.pistonDiameter! }, seed, shopNames[shopEmail], badTaper);
+    const record = recordFor({ cylinders: plan.input.cylinders, unit: plan.input.unit, bore: plan.finishBore, piston: plan.input.pistonDiameter!, blockMaterial: plan.input.blockMaterial }, seed, shopNames[shopEmail], badTaper);
     await (await as(shopEmail)).call('POST', `/api/jobs/${jobId}/inspection`, record);
   }
 

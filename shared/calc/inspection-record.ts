@@ -2,13 +2,30 @@
  * Judges a shop's inspection record against the job's specification: the
  * one function both the entry form (live) and the server (authoritative) use.
  * Lengths in the job's spec are converted to the record's unit exactly.
+ *
+ * What it does, in order:
+ * 1. Corrects every bore and piston reading to 20 °C (ISO 1) with the block's
+ *    and the pistons' expansion coefficients (`thermal.ts`); the raw readings
+ *    stay in the input, the corrected ones go into `corrected`.
+ * 2. Judges every limit the job sets, per cylinder: each of the six readings
+ *    against the finished size (target ± tolerance), the piston clearance on
+ *    the thrust axis at every depth (smallest thrust reading − piston against
+ *    the minimum, largest against the maximum: the skirt bears on the thrust
+ *    faces), taper and out-of-round; then the deck, finish and crosshatch.
+ *    Without piston sizes in the record the job's piston diameter is used,
+ *    and the record says so.
+ * 3. Each check gets a verdict under the job's decision rule (`decision-rule.ts`):
+ *    conforms, fails or not proven. A limit with nothing to judge it by goes
+ *    into `notJudged`, and the record is then "not fully judged", never a pass.
  */
-import type { InspectionInput, InspectionResults, LimitCheck } from '../schemas/inspection';
+import type { CheckVerdict, CorrectedCylinder, InspectionInput, InspectionResults, LimitCheck, NotJudged, RecordVerdict } from '../schemas/inspection';
 import type { JobInput } from '../schemas/jobs';
-import { inspectBores, type BoreSpec } from './bore';
+import { DEPTHS, inspectBores, type BoreSpec, type CylinderReadings } from './bore';
 import { crosshatchAngle } from './crosshatch';
 import { deckFlatness } from './deck';
+import { DECISION_RULE_WORDS, judgeMax, judgeMin, judgeRange, verdictRank, type DecisionRule, type Verdict } from './decision-rule';
 import { roughness } from './roughness';
+import { EXPANSION_COEFFICIENTS, EXPANSION_SOURCE, PISTON_MATERIAL, REFERENCE_TEMPERATURE_C, fahrenheitToCelsius, toReferenceTemperature } from './thermal';
 import { convertLength, type LengthUnit } from './units';
 
 type JobSpecPart = Pick<
@@ -16,6 +33,7 @@ type JobSpecPart = Pick<
   | 'unit'
   | 'blockMaterial'
   | 'targetBore'
+  | 'boreSizeTolerance'
   | 'pistonDiameter'
   | 'clearanceMin'
   | 'clearanceMax'
@@ -29,12 +47,22 @@ type JobSpecPart = Pick<
   | 'finishRvkMaxUm'
   | 'crosshatchMinDeg'
   | 'crosshatchMaxDeg'
+  | 'decisionRule'
 >;
 
 const SLACK = 1e-9;
 
+/**
+ * Finished-size tolerance when the job gives none: ± 0.0005 in on every
+ * reading, common practice (no published source) — the same figure a freshly
+ * machined bore holds for taper and out-of-round, and half of a typical
+ * 0.001 in clearance band, so a bore at the edge of it still leaves the
+ * clearance in range when the target is the band's middle.
+ */
+export const DEFAULT_SIZE_TOLERANCE_IN = 0.0005;
+
 /** The job's bore limits, in the record's unit. Without a target bore, the piston plus the middle of the clearance range is the target. */
-export function boreSpecFor(spec: JobSpecPart, unit: LengthUnit): BoreSpec {
+export function boreSpecFor(spec: JobSpecPart, unit: LengthUnit): BoreSpec & { toleranceIsDefault: boolean } {
   const to = (value: number | undefined) => (value === undefined ? undefined : convertLength(value, spec.unit, unit));
   const target =
     spec.targetBore ??
@@ -43,6 +71,8 @@ export function boreSpecFor(spec: JobSpecPart, unit: LengthUnit): BoreSpec {
       : undefined);
   return {
     targetBore: to(target),
+    targetTolerance: spec.boreSizeTolerance !== undefined ? to(spec.boreSizeTolerance) : convertLength(DEFAULT_SIZE_TOLERANCE_IN, 'in', unit),
+    toleranceIsDefault: spec.boreSizeTolerance === undefined,
     clearanceMin: to(spec.clearanceMin),
     clearanceMax: to(spec.clearanceMax),
     maxTaper: to(spec.maxTaper),
@@ -50,25 +80,162 @@ export function boreSpecFor(spec: JobSpecPart, unit: LengthUnit): BoreSpec {
   };
 }
 
+/**
+ * When the job gives a target bore and also a piston with a clearance range,
+ * and the target lies outside piston + [minimum, maximum], the two disagree:
+ * the shop works to the target bore (it is what `boreSpecFor` uses).
+ */
+export function sizeDisagreement(
+  spec: Pick<JobInput, 'targetBore' | 'pistonDiameter' | 'clearanceMin' | 'clearanceMax'>,
+): { worksTo: 'target'; target: number; fromPistonMin: number; fromPistonMax: number } | undefined {
+  const { targetBore, pistonDiameter, clearanceMin, clearanceMax } = spec;
+  if (targetBore === undefined || pistonDiameter === undefined || clearanceMin === undefined || clearanceMax === undefined) return undefined;
+  const fromPistonMin = pistonDiameter + clearanceMin;
+  const fromPistonMax = pistonDiameter + clearanceMax;
+  if (targetBore >= fromPistonMin - SLACK && targetBore <= fromPistonMax + SLACK) return undefined;
+  return { worksTo: 'target', target: targetBore, fromPistonMin, fromPistonMax };
+}
+
 const fmt = (value: number, unit: LengthUnit) => `${value.toFixed(unit === 'in' ? 4 : 3)} ${unit}`;
+const fmtFine = (value: number, unit: LengthUnit) => `${value.toFixed(unit === 'in' ? 5 : 4)} ${unit}`;
+
+/** The measured temperature in °C, whichever scale it was entered in. */
+export function measuredCelsius(conditions: InspectionInput['conditions']): { celsius: number; entered: 'C' | 'F' } {
+  if (conditions.temperatureC !== undefined) return { celsius: conditions.temperatureC, entered: 'C' };
+  if (conditions.temperatureF !== undefined) return { celsius: fahrenheitToCelsius(conditions.temperatureF), entered: 'F' };
+  return { celsius: REFERENCE_TEMPERATURE_C, entered: 'C' };
+}
+
+const POSITION_WORDS = (depth: string, direction: string) => `${depth} ${direction}`;
 
 export function evaluateInspection(input: InspectionInput, spec: JobSpecPart): InspectionResults {
   const unit = input.conditions.unit;
+  const rule: DecisionRule = spec.decisionRule ?? 'simple';
+  const uncertainty = input.conditions.uncertainty ?? input.conditions.gaugeResolution;
+  const uncertaintySource = input.conditions.uncertainty !== undefined ? 'entered' : 'gauge-resolution';
   const checks: LimitCheck[] = [];
-  const bores = inspectBores({ cylinders: input.cylinders, spec: boreSpecFor(spec, unit) });
-  bores.cylinders.forEach((cylinder, index) => {
-    for (const failure of cylinder.failures) {
-      const words: Record<string, string> = {
-        targetBore: 'size off target',
-        clearanceMin: 'piston clearance below the minimum',
-        clearanceMax: 'piston clearance above the maximum',
-        maxTaper: 'taper',
-        maxOutOfRound: 'out-of-round',
-      };
-      checks.push({ what: `cylinder ${index + 1} ${words[failure.limit] ?? failure.limit}`, value: failure.value, allowed: fmt(failure.allowed, unit), pass: false });
+  const notJudged: NotJudged[] = [];
+  const statements: string[] = [];
+  const add = (check: Omit<LimitCheck, 'pass'> & { verdict: Verdict }) => checks.push({ ...check, pass: check.verdict === 'conforms' });
+
+  // 1. Temperature: every reading to 20 °C.
+  const { celsius, entered } = measuredCelsius(input.conditions);
+  const block = EXPANSION_COEFFICIENTS[spec.blockMaterial];
+  const pistonCoefficient = EXPANSION_COEFFICIENTS[PISTON_MATERIAL];
+  const boreAt20 = (value: number) => toReferenceTemperature(value, block.alpha, celsius);
+  const jobPiston = spec.pistonDiameter !== undefined ? convertLength(spec.pistonDiameter, spec.unit, unit) : undefined;
+  const corrected: CorrectedCylinder[] = input.cylinders.map((c) => {
+    const out: CorrectedCylinder = {
+      top: { thrust: boreAt20(c.top.thrust), axial: boreAt20(c.top.axial) },
+      middle: { thrust: boreAt20(c.middle.thrust), axial: boreAt20(c.middle.axial) },
+      bottom: { thrust: boreAt20(c.bottom.thrust), axial: boreAt20(c.bottom.axial) },
+    };
+    if (c.piston !== undefined) {
+      out.piston = toReferenceTemperature(c.piston, pistonCoefficient.alpha, celsius);
+      out.pistonSource = 'record';
+    } else if (jobPiston !== undefined) {
+      // The job's piston diameter is a specified size, i.e. a size at 20 °C: not corrected.
+      out.piston = jobPiston;
+      out.pistonSource = 'job';
+    }
+    return out;
+  });
+  const measuredAt = entered === 'F' ? `${Number(input.conditions.temperatureF!.toFixed(2))} °F (${Number(celsius.toFixed(2))} °C)` : `${Number(celsius.toFixed(2))} °C`;
+  statements.push(
+    Math.abs(celsius - REFERENCE_TEMPERATURE_C) < 1e-12
+      ? `Measured at ${measuredAt}, the reference temperature of ISO 1: no correction needed.`
+      : `Measured at ${measuredAt}; every reading is corrected to 20 °C (ISO 1) with L20 = Lt / (1 + α·(t − 20)): bores with ${block.words}, pistons with ${pistonCoefficient.words}. Coefficients: ${EXPANSION_SOURCE}. Clearances are judged at 20 °C.`,
+  );
+
+  const limits = boreSpecFor(spec, unit);
+  const bores = inspectBores({ cylinders: corrected as CylinderReadings[], spec: { targetBore: limits.targetBore } });
+
+  // 2. Bore limits, per cylinder.
+  const fromRecord = corrected.filter((c) => c.pistonSource === 'record').length;
+  const fromJob = corrected.filter((c) => c.pistonSource === 'job').length;
+  if (limits.clearanceMin !== undefined || limits.clearanceMax !== undefined) {
+    if (fromJob > 0 && jobPiston !== undefined) {
+      statements.push(
+        fromRecord === 0
+          ? `The record gives no piston sizes: clearances use the job’s piston diameter, ${fmt(jobPiston, unit)}.`
+          : `${fromJob} ${fromJob === 1 ? 'cylinder has' : 'cylinders have'} no piston size in the record: ${fromJob === 1 ? 'its clearance uses' : 'their clearances use'} the job’s piston diameter, ${fmt(jobPiston, unit)}.`,
+      );
+    }
+    statements.push('Piston clearance is judged on the thrust axis at every depth: the smallest thrust reading less the piston against the minimum, the largest against the maximum.');
+  }
+  const sizeAllowed =
+    limits.targetBore !== undefined && limits.targetTolerance !== undefined ? `${fmt(limits.targetBore, unit)} ± ${fmtFine(limits.targetTolerance, unit)}` : '';
+  const toleranceNote = limits.toleranceIsDefault ? `; ± ${fmtFine(limits.targetTolerance!, unit)} is the default, common practice (the job gives no size tolerance)` : '';
+
+  corrected.forEach((c, index) => {
+    const n = index + 1;
+    const figures = bores.cylinders[index];
+    if (limits.targetBore !== undefined && limits.targetTolerance !== undefined) {
+      const min = limits.targetBore - limits.targetTolerance;
+      const max = limits.targetBore + limits.targetTolerance;
+      let worst: { verdict: Verdict; value: number; where: string } | undefined;
+      for (const depth of DEPTHS) {
+        for (const direction of ['thrust', 'axial'] as const) {
+          const value = c[depth][direction];
+          const verdict = judgeRange(value, min, max, rule, uncertainty);
+          const off = Math.abs(value - limits.targetBore);
+          if (!worst || verdictRank(verdict) > verdictRank(worst.verdict) || (verdictRank(verdict) === verdictRank(worst.verdict) && off > Math.abs(worst.value - limits.targetBore) + SLACK)) {
+            worst = { verdict, value, where: POSITION_WORDS(depth, direction) };
+          }
+        }
+      }
+      add({
+        what: `cylinder ${n} size`,
+        limit: 'size',
+        cylinder: n,
+        value: worst!.value,
+        allowed: sizeAllowed,
+        verdict: worst!.verdict,
+        note: `each of the six readings judged; the one farthest from the target is ${worst!.where}${toleranceNote}`,
+      });
+    }
+    if (limits.clearanceMin !== undefined || limits.clearanceMax !== undefined) {
+      if (c.piston === undefined) {
+        notJudged.push({ what: `cylinder ${n} piston clearance`, why: 'no piston size in the record and no piston diameter in the job' });
+      } else {
+        const thrust = DEPTHS.map((depth) => ({ depth, value: c[depth].thrust }));
+        const smallest = thrust.reduce((a, b) => (b.value < a.value ? b : a));
+        const largest = thrust.reduce((a, b) => (b.value > a.value ? b : a));
+        const pistonWords = c.pistonSource === 'job' ? `the job’s piston diameter ${fmt(c.piston, unit)}` : `the measured piston, ${fmtFine(c.piston, unit)} at 20 °C`;
+        if (limits.clearanceMin !== undefined) {
+          const value = smallest.value - c.piston;
+          add({ what: `cylinder ${n} smallest piston clearance`, limit: 'clearanceMin', cylinder: n, value, allowed: `≥ ${fmt(limits.clearanceMin, unit)}`, verdict: judgeMin(value, limits.clearanceMin, rule, uncertainty), note: `${smallest.depth} thrust less ${pistonWords}` });
+        }
+        if (limits.clearanceMax !== undefined) {
+          const value = largest.value - c.piston;
+          add({ what: `cylinder ${n} largest piston clearance`, limit: 'clearanceMax', cylinder: n, value, allowed: `≤ ${fmt(limits.clearanceMax, unit)}`, verdict: judgeMax(value, limits.clearanceMax, rule, uncertainty), note: `${largest.depth} thrust less ${pistonWords}` });
+        }
+      }
+    }
+    if (limits.maxTaper !== undefined) {
+      add({ what: `cylinder ${n} taper`, limit: 'maxTaper', cylinder: n, value: figures.taper, allowed: `≤ ${fmt(limits.maxTaper, unit)}`, verdict: judgeMax(figures.taper, limits.maxTaper, rule, uncertainty) });
+    }
+    if (limits.maxOutOfRound !== undefined) {
+      add({ what: `cylinder ${n} out-of-round`, limit: 'maxOutOfRound', cylinder: n, value: figures.outOfRound, allowed: `≤ ${fmt(limits.maxOutOfRound, unit)}`, verdict: judgeMax(figures.outOfRound, limits.maxOutOfRound, rule, uncertainty) });
     }
   });
 
+  // The per-cylinder figures carry the same verdicts, so every screen that reads `bores` agrees with the checks.
+  bores.cylinders.forEach((figures, index) => {
+    const mine = checks.filter((check) => check.cylinder === index + 1);
+    figures.failures = mine
+      .filter((check) => check.verdict === 'fails')
+      .map((check) => ({
+        limit: check.limit === 'size' ? 'targetBore' : (check.limit as 'clearanceMin' | 'clearanceMax' | 'maxTaper' | 'maxOutOfRound'),
+        value: check.limit === 'size' ? check.value - limits.targetBore! : check.value,
+        allowed: check.limit === 'size' ? limits.targetTolerance! : Number(check.allowed.replace(/[^0-9.]/g, '')),
+      }));
+    figures.notChecked = notJudged.some((item) => item.what === `cylinder ${index + 1} piston clearance`) ? ['clearanceMin', 'clearanceMax'].filter((l) => (l === 'clearanceMin' ? limits.clearanceMin : limits.clearanceMax) !== undefined) as Array<'clearanceMin' | 'clearanceMax'> : [];
+    figures.pass = mine.every((check) => check.verdict === 'conforms') && figures.notChecked.length === 0;
+  });
+  bores.pass = bores.cylinders.every((figures) => figures.pass);
+
+  // 3. Deck: feeler leaves, judged by simple acceptance (the bore gauge's uncertainty is not theirs).
   let deck: InspectionResults['deck'];
   if (input.deck) {
     deck = deckFlatness({
@@ -79,10 +246,14 @@ export function evaluateInspection(input: InspectionInput, spec: JobSpecPart): I
       gasket: 'mls',
       shopLimit: spec.deckFlatnessMax !== undefined ? convertLength(spec.deckFlatnessMax, spec.unit, unit) : undefined,
     });
-    checks.push({ what: 'deck out-of-flat', value: deck.outOfFlat, allowed: `≤ ${fmt(deck.limit, unit)}`, pass: deck.pass });
-    if (spec.deckRaMaxUm !== undefined && input.deck.raUm !== undefined) {
-      checks.push({ what: 'deck Ra', value: input.deck.raUm, allowed: `≤ ${spec.deckRaMaxUm} µm`, pass: input.deck.raUm <= spec.deckRaMaxUm + SLACK });
+    add({ what: 'deck out-of-flat', limit: 'deck', value: deck.outOfFlat, allowed: `≤ ${fmt(deck.limit, unit)}`, verdict: judgeMax(deck.outOfFlat, deck.limit, 'simple', 0) });
+    if (spec.deckRaMaxUm !== undefined) {
+      if (input.deck.raUm !== undefined) add({ what: 'deck Ra', limit: 'deckRa', value: input.deck.raUm, allowed: `≤ ${spec.deckRaMaxUm} µm`, verdict: judgeMax(input.deck.raUm, spec.deckRaMaxUm, 'simple', 0) });
+      else notJudged.push({ what: 'deck Ra', why: 'the record gives no deck finish' });
     }
+  } else {
+    if (spec.deckFlatnessMax !== undefined) notJudged.push({ what: 'deck out-of-flat', why: 'the record has no straightedge readings' });
+    if (spec.deckRaMaxUm !== undefined) notJudged.push({ what: 'deck Ra', why: 'the record gives no deck finish' });
   }
 
   let finish: InspectionResults['finish'];
@@ -93,16 +264,16 @@ export function evaluateInspection(input: InspectionInput, spec: JobSpecPart): I
     const r = roughness(input.finish.heightsUm, input.finish.spacingUm);
     finish = { raUm: r.ra, rqUm: r.rq, rzUm: r.rz, rkUm: r.rk, rpkUm: r.rpk, rvkUm: r.rvk, mr1: r.mr1, mr2: r.mr2 };
   }
-  if (finish) {
-    const limits: Array<[string, number | undefined, number | undefined]> = [
-      ['bore Ra', finish.raUm, spec.finishRaMaxUm],
-      ['bore Rk', finish.rkUm, spec.finishRkMaxUm],
-      ['bore Rpk', finish.rpkUm, spec.finishRpkMaxUm],
-      ['bore Rvk', finish.rvkUm, spec.finishRvkMaxUm],
-    ];
-    for (const [what, value, max] of limits) {
-      if (value !== undefined && max !== undefined) checks.push({ what, value, allowed: `≤ ${max} µm`, pass: value <= max + SLACK });
-    }
+  const finishLimits: Array<[string, number | undefined, number | undefined]> = [
+    ['bore Ra', finish?.raUm, spec.finishRaMaxUm],
+    ['bore Rk', finish?.rkUm, spec.finishRkMaxUm],
+    ['bore Rpk', finish?.rpkUm, spec.finishRpkMaxUm],
+    ['bore Rvk', finish?.rvkUm, spec.finishRvkMaxUm],
+  ];
+  for (const [what, value, max] of finishLimits) {
+    if (max === undefined) continue;
+    if (value === undefined) notJudged.push({ what, why: finish ? `the record’s bore finish gives no ${what.slice(5)}` : 'the record has no bore finish' });
+    else add({ what, limit: 'finish', value, allowed: `≤ ${max} µm`, verdict: judgeMax(value, max, 'simple', 0) });
   }
 
   let crosshatch: InspectionResults['crosshatch'];
@@ -112,12 +283,46 @@ export function evaluateInspection(input: InspectionInput, spec: JobSpecPart): I
     const bore = bores.cylinders.reduce((sum, c) => sum + c.mean, 0) / bores.cylinders.length;
     crosshatch = { includedAngleDeg: crosshatchAngle({ bore, spindleRpm: input.crosshatch.spindleRpm, strokeLength: input.crosshatch.strokeLength, cyclesPerMinute: input.crosshatch.cyclesPerMinute }).includedAngleDeg };
   }
-  if (crosshatch && (spec.crosshatchMinDeg !== undefined || spec.crosshatchMaxDeg !== undefined)) {
-    const min = spec.crosshatchMinDeg ?? 0;
-    const max = spec.crosshatchMaxDeg ?? 180;
-    checks.push({ what: 'crosshatch included angle', value: crosshatch.includedAngleDeg, allowed: `${min}° – ${max}°`, pass: crosshatch.includedAngleDeg >= min - SLACK && crosshatch.includedAngleDeg <= max + SLACK });
+  if (spec.crosshatchMinDeg !== undefined || spec.crosshatchMaxDeg !== undefined) {
+    if (!crosshatch) notJudged.push({ what: 'crosshatch included angle', why: 'the record has no crosshatch angle' });
+    else {
+      const min = spec.crosshatchMinDeg ?? 0;
+      const max = spec.crosshatchMaxDeg ?? 180;
+      add({ what: 'crosshatch included angle', limit: 'crosshatch', value: crosshatch.includedAngleDeg, allowed: `${min}° – ${max}°`, verdict: judgeRange(crosshatch.includedAngleDeg, min, max, 'simple', 0) });
+    }
   }
 
-  const pass = bores.pass && checks.every((c) => c.pass);
-  return { bores, deck, finish, crosshatch, checks, pass };
+  // The rule, in words the record and the certificate print.
+  const words = DECISION_RULE_WORDS[rule];
+  const uncertaintyWords =
+    uncertaintySource === 'entered'
+      ? `expanded uncertainty U = ${fmtFine(uncertainty, unit)}, as the shop stated it`
+      : `U = ${fmtFine(uncertainty, unit)}, the gauge resolution: a lower bound on the uncertainty, not the whole of it`;
+  statements.unshift(
+    `Decision rule: ${words.name}. ${words.words} Bore readings: ${uncertaintyWords}. ${rule === 'guarded' ? 'The deck, finish and crosshatch carry no stated uncertainty and are judged by simple acceptance.' : ''}`.trim(),
+  );
+
+  const verdicts = checks.map((check) => check.verdict as CheckVerdict);
+  const verdict: RecordVerdict = verdicts.includes('fails') ? 'fail' : notJudged.length > 0 ? 'not-fully-judged' : verdicts.includes('not-proven') ? 'not-proven' : 'pass';
+  return {
+    bores,
+    deck,
+    finish,
+    crosshatch,
+    checks,
+    pass: verdict === 'pass',
+    verdict,
+    notJudged,
+    decisionRule: { rule, name: words.name, words: words.words, uncertainty, uncertaintySource, uncertaintyWords },
+    temperature: {
+      measuredC: celsius,
+      enteredUnit: entered,
+      referenceC: REFERENCE_TEMPERATURE_C,
+      block: { material: spec.blockMaterial, alpha: block.alpha, words: block.words },
+      piston: { material: PISTON_MATERIAL, alpha: pistonCoefficient.alpha, words: pistonCoefficient.words },
+      source: EXPANSION_SOURCE,
+    },
+    corrected,
+    statements,
+  };
 }

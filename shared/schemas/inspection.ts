@@ -1,13 +1,30 @@
 import { z } from 'zod';
 import { boreSpecSchema, cylinderReadingsSchema, lengthUnitSchema } from './calculations';
 
-/** What the shop measured and how. Computed figures are never sent: the server works them out again. */
-export const inspectionConditionsSchema = z.object({
-  unit: lengthUnitSchema,
-  gaugeResolution: z.number({ error: 'Enter the gauge’s resolution.' }).positive('The resolution must be greater than zero.').max(1, 'That resolution is too coarse.'),
-  temperatureC: z.number({ error: 'Enter the temperature at measurement.' }).min(-20, 'Below −20 °C? Check the figure.').max(60, 'Above 60 °C? Check the figure.'),
-  torquePlate: z.boolean({ error: 'Say whether a torque plate was fitted.' }),
-});
+/**
+ * What the shop measured and how. Computed figures are never sent: the server works them out again.
+ * The temperature comes in °C (`temperatureC`) or °F (`temperatureF`), exactly one of them; records
+ * stored before °F existed all carry `temperatureC`.
+ */
+export const inspectionConditionsSchema = z
+  .object({
+    unit: lengthUnitSchema,
+    gaugeResolution: z.number({ error: 'Enter the gauge’s resolution.' }).positive('The resolution must be greater than zero.').max(1, 'That resolution is too coarse.'),
+    /** Expanded measurement uncertainty U of the bore readings, in `unit`; without it the gauge resolution stands in as a lower bound. */
+    uncertainty: z.number({ error: 'The uncertainty must be a number.' }).positive('The uncertainty must be greater than zero.').max(1, 'That uncertainty is too large.').optional(),
+    temperatureC: z.number({ error: 'Enter the temperature at measurement.' }).min(-20, 'Below −20 °C? Check the figure.').max(60, 'Above 60 °C? Check the figure.').optional(),
+    temperatureF: z.number({ error: 'Enter the temperature at measurement.' }).min(-4, 'Below −4 °F? Check the figure.').max(140, 'Above 140 °F? Check the figure.').optional(),
+    torquePlate: z.boolean({ error: 'Say whether a torque plate was fitted.' }),
+  })
+  .superRefine((c, ctx) => {
+    if (c.temperatureC === undefined && c.temperatureF === undefined) {
+      ctx.addIssue({ code: 'custom', path: ['temperatureC'], message: 'Enter the temperature at measurement.' });
+    }
+    if (c.temperatureC !== undefined && c.temperatureF !== undefined) {
+      ctx.addIssue({ code: 'custom', path: ['temperatureF'], message: 'Give the temperature once, in °C or in °F.' });
+    }
+  });
+export type InspectionConditions = z.infer<typeof inspectionConditionsSchema>;
 
 export const finishInputSchema = z.discriminatedUnion('mode', [
   z.object({
@@ -59,22 +76,97 @@ export const rejectInspectionSchema = z.object({
   reasons: z.string({ error: 'Say what needs redoing.' }).trim().min(5, 'Say what needs redoing.').max(2000),
 });
 
+/** conforms, fails or not proven (ISO 14253-1's uncertainty range under guarded acceptance). */
+export type CheckVerdict = 'conforms' | 'fails' | 'not-proven';
+
+/**
+ * The record as a whole: every limit judged and conforming (pass), at least one failing (fail),
+ * none failing but at least one limit that could not be judged (not-fully-judged), or every
+ * limit judged, none failing, some not proven (not-proven).
+ */
+export type RecordVerdict = 'pass' | 'fail' | 'not-fully-judged' | 'not-proven';
+
 export interface LimitCheck {
   /** e.g. "cylinder 3 taper", "deck out-of-flat", "bore Ra". */
   what: string;
   value: number;
   allowed: string;
+  /** True only when the check conforms (kept for records stored before verdicts). */
   pass: boolean;
+  /** Absent on records stored before verdicts: read it with `checkVerdict`. */
+  verdict?: CheckVerdict;
+  /** Which limit: size, clearanceMin, clearanceMax, maxTaper, maxOutOfRound, deck, deckRa, finish, crosshatch. */
+  limit?: string;
+  /** One-based cylinder, for bore checks. */
+  cylinder?: number;
+  /** Where the value came from, in words (the worst reading's place, the piston used, a default limit). */
+  note?: string;
+}
+
+/** A limit the job sets that the record gave nothing to judge against. */
+export interface NotJudged {
+  what: string;
+  why: string;
+}
+
+/** The readings of one cylinder corrected to 20 °C, and the piston each clearance used. */
+export interface CorrectedCylinder {
+  top: { thrust: number; axial: number };
+  middle: { thrust: number; axial: number };
+  bottom: { thrust: number; axial: number };
+  /** The piston at 20 °C: the record's own reading corrected, or the job's piston diameter. */
+  piston?: number;
+  pistonSource?: 'record' | 'job';
 }
 
 export interface InspectionResults {
+  /** Bore figures worked out from the readings corrected to 20 °C (records stored before the correction: from the raw readings). */
   bores: ReturnType<typeof import('../calc/bore').inspectBores>;
   deck?: { outOfFlat: number; limit: number; pass: boolean; limitSource: string };
   finish?: { raUm: number; rqUm?: number; rzUm?: number; rkUm?: number; rpkUm?: number; rvkUm?: number; mr1?: number; mr2?: number };
   crosshatch?: { includedAngleDeg: number };
   checks: LimitCheck[];
+  /** True only when every limit was judged and every check conforms. */
   pass: boolean;
+  /** Absent on records stored before verdicts: read it with `recordVerdict`. */
+  verdict?: RecordVerdict;
+  notJudged?: NotJudged[];
+  decisionRule?: {
+    rule: 'simple' | 'guarded';
+    name: string;
+    words: string;
+    /** The expanded uncertainty used, in the record's unit. */
+    uncertainty: number;
+    uncertaintySource: 'entered' | 'gauge-resolution';
+    /** What the uncertainty is, in words (a lower bound when it is the gauge resolution). */
+    uncertaintyWords: string;
+  };
+  temperature?: {
+    measuredC: number;
+    enteredUnit: 'C' | 'F';
+    referenceC: number;
+    block: { material: 'cast-iron' | 'aluminium'; alpha: number; words: string };
+    piston: { material: 'cast-iron' | 'aluminium'; alpha: number; words: string };
+    source: string;
+  };
+  /** The readings at 20 °C, per cylinder (the raw ones stay in the input). */
+  corrected?: CorrectedCylinder[];
+  /** The record's statements in plain sentences: the rule, the uncertainty, the temperature correction, the pistons used. */
+  statements?: string[];
 }
+
+/** A check's verdict, also for records stored before verdicts existed. */
+export const checkVerdict = (check: LimitCheck): CheckVerdict => check.verdict ?? (check.pass ? 'conforms' : 'fails');
+
+/** The record's verdict, also for records stored before verdicts existed. */
+export const recordVerdict = (results: InspectionResults): RecordVerdict => results.verdict ?? (results.pass ? 'pass' : 'fail');
+
+export const RECORD_VERDICT_WORDS: Record<RecordVerdict, string> = {
+  pass: 'Pass: every limit judged, every check conforms',
+  fail: 'Fail: at least one check fails',
+  'not-fully-judged': 'Not fully judged: at least one limit could not be judged',
+  'not-proven': 'Not proven: no check fails, but at least one lies within the measurement uncertainty of its limit',
+};
 
 export interface InspectionVersion {
   id: string;

@@ -62,6 +62,8 @@ export const jobFieldsSchema = z.object({
   stockBore: z.number({ error: 'Enter the stock bore.' }).positive('The stock bore must be greater than zero.').max(10_000),
   stroke: z.number({ error: 'Enter the stroke.' }).positive('The stroke must be greater than zero.').max(10_000),
   targetBore: optionalPositive('Target bore'),
+  /** ± on every bore reading around the finished size; without it the common-practice default applies (DEFAULT_SIZE_TOLERANCE_IN). */
+  boreSizeTolerance: optionalPositive('Finished-size tolerance', 10),
   pistonDiameter: optionalPositive('Piston diameter'),
   clearanceMin: optionalNonNegative('Minimum clearance', 10),
   clearanceMax: optionalNonNegative('Maximum clearance', 10),
@@ -76,6 +78,8 @@ export const jobFieldsSchema = z.object({
   maxOutOfRound: optionalNonNegative('Maximum out-of-round', 10),
   deckFlatnessMax: optionalNonNegative('Deck out-of-flat limit', 10),
   deckRaMaxUm: optionalPositive('Largest deck Ra', 100),
+  /** How the inspection record's readings are judged against the limits; without it, simple acceptance. */
+  decisionRule: z.enum(['simple', 'guarded'], { error: 'Choose simple or guarded acceptance.' }).optional(),
   deckNotes: z.string().trim().max(1000, 'Use at most 1,000 characters.').default(''),
   operations: z
     .array(jobOperationSchema, { error: 'Choose the work you want done.' })
