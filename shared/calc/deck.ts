@@ -71,7 +71,11 @@ export interface DeckFlatnessInput {
   readings: readonly number[];
   material: DeckMaterial;
   gasket: GasketType;
-  /** A shop's own limit in `unit`; replaces the table's figure. */
+  /**
+   * A shop's own limit in `unit`; replaces the table's figure. Zero is a
+   * limit too: no leaf may pass under the straightedge anywhere (every
+   * reading 0), so a record with a gap fails it rather than being refused.
+   */
   shopLimit?: number;
   /** A shop's own table; used when no shopLimit is given. */
   table?: DeckLimitTable;
@@ -91,7 +95,7 @@ export function deckFlatness(input: DeckFlatnessInput): DeckFlatnessResult {
   const outOfFlat = deckOutOfFlat(input.readings);
   const fromShop = input.shopLimit !== undefined;
   const limit = fromShop
-    ? requirePositive(input.shopLimit, 'shopLimit', 'Shop limit')
+    ? requireNonNegative(input.shopLimit, 'shopLimit', 'Shop limit')
     : deckFlatnessLimit(input.material, input.gasket, input.unit, input.table);
   return { outOfFlat, limit, pass: outOfFlat <= limit + LIMIT_SLACK, limitSource: fromShop ? 'shop' : 'table' };
 }

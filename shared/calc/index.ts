@@ -12,3 +12,6 @@ export * from './deck';
 export * from './ring-gap';
 export * from './roughness';
 export * from './inspection-record';
+export * from './conformance';
+export * from './figures';
+export * from './check-figures';

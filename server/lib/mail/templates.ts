@@ -259,26 +259,55 @@ export function latePaymentRefundedMail(input: {
   });
 }
 
-export function inspectionSubmittedMail(input: { name: string; shopName: string; jobTitle: string; version: number; pass: boolean; dueText: string; url: string }): RenderedMail {
+export function inspectionSubmittedMail(input: { name: string; shopName: string; jobTitle: string; version: number; pass: boolean; autoAccept?: boolean; dueText: string; url: string }): RenderedMail {
   return render({
     template: 'inspection_submitted',
     subject: `Inspection record ${input.version > 1 ? `version ${input.version} ` : ''}for “${input.jobTitle}”`,
     greeting: `Hello ${input.name},`,
     paragraphs: [
       `${input.shopName} submitted the measured inspection record for “${input.jobTitle}”. By the job’s limits it ${input.pass ? 'passes every check' : 'fails at least one check'}.`,
-      `Accept it to release the held payment to the shop, or reject it with your reasons. With no answer by ${input.dueText}, it counts as accepted.`,
+      input.autoAccept === false
+        ? `Accept it to release the held payment to the shop, or reject it with your reasons. Because at least one check does not conform, it is never accepted without you: after ${input.dueText} it still waits for your answer.`
+        : `Accept it to release the held payment to the shop, or reject it with your reasons. With no answer by ${input.dueText}, it counts as accepted.`,
     ],
     action: { label: 'Review the record', url: input.url },
   });
 }
 
-export function reviewReminderMail(input: { name: string; jobTitle: string; dueText: string; url: string }): RenderedMail {
+export function reviewReminderMail(input: { name: string; jobTitle: string; dueText: string; autoAccept?: boolean; url: string }): RenderedMail {
   return render({
     template: 'review_reminder',
     subject: `Reminder: the inspection record for “${input.jobTitle}” is waiting`,
     greeting: `Hello ${input.name},`,
-    paragraphs: [`The inspection record for “${input.jobTitle}” counts as accepted on ${input.dueText} unless you answer before then.`],
+    paragraphs: [
+      input.autoAccept === false
+        ? `The review window for the inspection record for “${input.jobTitle}” ends on ${input.dueText}. At least one check does not conform, so it is not accepted without you: please accept it (naming those checks) or reject it with your reasons.`
+        : `The inspection record for “${input.jobTitle}” counts as accepted on ${input.dueText} unless you answer before then.`,
+    ],
     action: { label: 'Review the record', url: input.url },
+  });
+}
+
+/**
+ * The review window ended on a record with a check that does not conform: it
+ * was not accepted by itself. The builder, the shop and every admin are told.
+ */
+export function reviewWindowHeldMail(input: { name: string; reader: 'builder' | 'shop' | 'admin'; jobTitle: string; checks: string[]; url: string }): RenderedMail {
+  const list = input.checks.join('; ');
+  const next = {
+    builder: 'The record waits for you: accept it, confirming each of those checks, or reject it with your reasons. The payment stays held until then.',
+    shop: 'The record waits for the builder’s answer and the payment stays held. You may talk it over with the builder on the job page.',
+    admin: 'Nothing was paid out. The record waits for the builder; look in if it stays unanswered.',
+  }[input.reader];
+  return render({
+    template: 'review_window_held',
+    subject: `Not accepted by itself: the inspection record for “${input.jobTitle}”`,
+    greeting: `Hello ${input.name},`,
+    paragraphs: [
+      `The review window for the inspection record for “${input.jobTitle}” has ended. It was not accepted automatically, because these checks do not conform: ${list}.`,
+      next,
+    ],
+    action: { label: 'Open the job', url: input.url },
   });
 }
 

@@ -1,5 +1,27 @@
+import { readFileSync } from 'node:fs';
+import { createRequire } from 'node:module';
 import PDFDocument from 'pdfkit';
-import type { InspectionInput, InspectionResults } from '../../../shared/schemas/inspection';
+import { checkFigures } from '../../../shared/calc/check-figures';
+import { figureAgainstLimit, lengthDecimals } from '../../../shared/calc/figures';
+import { INSPECTION_STATUS_WORDS, methodLines, resultHeadline } from '../../../shared/inspection-words';
+import type { InspectionInput, InspectionResults, InspectionVersion } from '../../../shared/schemas/inspection';
+import type { JobInput } from '../../../shared/schemas/jobs';
+
+/**
+ * Manrope, the product's typeface, embedded in the PDF. The web font package
+ * (@fontsource/manrope) ships it cut into subsets whose Latin part has no ≤
+ * or ≥, so the PDF uses the same Manrope (version 4.504) uncut, as TrueType
+ * files from @expo-google-fonts/manrope: ≤, ±, µ, ° and − all print as text.
+ */
+const require = createRequire(import.meta.url);
+let fonts: { regular: Buffer; bold: Buffer } | undefined;
+function manrope() {
+  fonts ??= {
+    regular: readFileSync(require.resolve('@expo-google-fonts/manrope/400Regular/Manrope_400Regular.ttf')),
+    bold: readFileSync(require.resolve('@expo-google-fonts/manrope/700Bold/Manrope_700Bold.ttf')),
+  };
+  return fonts;
+}
 
 export interface CertificateData {
   jobTitle: string;
@@ -9,8 +31,10 @@ export interface CertificateData {
   shopName: string;
   shopPlace: string;
   version: number;
-  status: string;
+  status: InspectionVersion['status'];
   submittedAt: Date;
+  /** The job's limits, to print each figure against its limit with enough decimals. */
+  spec: JobInput;
   input: InspectionInput;
   results: InspectionResults;
 }
@@ -21,34 +45,54 @@ export const GUIDANCE =
 /**
  * The printable certificate of an inspection record: every reading, every
  * figure worked out from it, pass or fail against the job's limits, the
- * conditions, the shop's sign-off and the guidance caution. Built with
- * pdfkit; the standard Helvetica fonts keep the file small and its text
- * searchable.
+ * conditions, how it was judged, the shop's sign-off and the guidance
+ * caution. Built with pdfkit in Manrope (embedded, subset to the glyphs used),
+ * so its text stays searchable.
  */
+/** A check's verdict in one word; a verdict this code does not know prints as itself. */
+function checkWord(check: InspectionResults['checks'][number]): string {
+  const verdict = (check as { verdict?: string }).verdict;
+  if (verdict === undefined) return check.pass ? 'pass' : 'FAIL';
+  return ({ conforms: 'pass', fails: 'FAIL', 'not-proven': 'NOT PROVEN' } as Record<string, string>)[verdict] ?? verdict.toUpperCase();
+}
+
 export function certificatePdf(data: CertificateData): Promise<Buffer> {
   const { input, results } = data;
   const unit = input.conditions.unit;
-  const len = (value: number) => value.toFixed(unit === 'in' ? 4 : 3);
+  const decimals = lengthDecimals(unit, input.conditions.gaugeResolution);
+  const len = (value: number) => value.toFixed(decimals);
+  const font = manrope();
   const doc = new PDFDocument({ size: 'A4', margin: 48, info: { Title: `Inspection record: ${data.jobTitle}`, Author: data.shopName, Creator: 'Tenthmark' } });
   const chunks: Buffer[] = [];
+  doc.registerFont('Body', font.regular);
+  doc.registerFont('Body-Bold', font.bold);
   doc.on('data', (chunk: Buffer) => chunks.push(chunk));
   const done = new Promise<Buffer>((resolve, reject) => {
     doc.on('end', () => resolve(Buffer.concat(chunks)));
     doc.on('error', reject);
   });
 
-  const heading = (text: string) => doc.moveDown(0.8).font('Helvetica-Bold').fontSize(12).fillColor('#1d4e6b').text(text).fillColor('#16232d').font('Helvetica').fontSize(9.5);
+  const heading = (text: string) => doc.moveDown(0.8).font('Body-Bold').fontSize(12).fillColor('#1d4e6b').text(text).fillColor('#16232d').font('Body').fontSize(9.5);
   const line = (text: string) => doc.text(text);
 
-  doc.font('Helvetica-Bold').fontSize(18).fillColor('#1d4e6b').text('Tenthmark inspection record');
-  doc.font('Helvetica').fontSize(10).fillColor('#16232d');
+  doc.font('Body-Bold').fontSize(18).fillColor('#1d4e6b').text('Tenthmark inspection record');
+  doc.font('Body').fontSize(10).fillColor('#16232d');
   line(`${data.jobTitle} — ${data.engineFamily}`);
-  line(`Job ${data.jobId} · version ${data.version} · ${data.status} · submitted ${data.submittedAt.toISOString().slice(0, 16).replace('T', ' ')} UTC`);
-  line(`Builder: ${data.builderName} · Shop: ${data.shopName}, ${data.shopPlace}`);
-  doc.moveDown(0.5).font('Helvetica-Bold').fontSize(11).text(`Result: ${results.pass ? 'PASS — every check within the job’s limits' : 'FAIL — see the checks below'}`).font('Helvetica').fontSize(9.5);
+  line(`Job number ${data.jobId} · version ${data.version} · submitted ${data.submittedAt.toISOString().slice(0, 16).replace('T', ' ')} UTC`);
+  line(`Status: ${INSPECTION_STATUS_WORDS[data.status] ?? data.status}`);
+  line(`Builder: ${data.builderName} · Shop: ${[data.shopName, data.shopPlace].filter(Boolean).join(', ')}`);
+  doc.moveDown(0.5).font('Body-Bold').fontSize(11).text(`Result: ${resultHeadline(results, data.spec, unit).text}`).font('Body').fontSize(9.5);
 
   heading('Conditions');
-  line(`Units: ${unit === 'in' ? 'inch' : 'millimetre'} · gauge resolution ${input.conditions.gaugeResolution} ${unit} · temperature ${input.conditions.temperatureC} °C · torque plate ${input.conditions.torquePlate ? 'fitted' : 'not fitted'}`);
+  const conditions = input.conditions as InspectionInput['conditions'] & { temperatureC?: number; temperatureF?: number };
+  const temperature = conditions.temperatureC !== undefined ? `${conditions.temperatureC} °C` : conditions.temperatureF !== undefined ? `${conditions.temperatureF} °F` : 'not given';
+  line(`Units: ${unit === 'in' ? 'inch' : 'millimetre'} · gauge resolution ${input.conditions.gaugeResolution} ${unit} · temperature at measurement ${temperature} · torque plate ${input.conditions.torquePlate ? 'fitted' : 'not fitted'}`);
+  // How the record was judged: the decision rule, the temperature correction and the roughness filter, when the results carry them.
+  const method = methodLines(results);
+  if (method.length > 0) {
+    heading('How it was judged');
+    for (const m of method) line(`${m.label}: ${m.text}`);
+  }
 
   heading(`Bores (${unit})`);
   line('Cyl | top thrust / axial | middle thrust / axial | bottom thrust / axial | piston | mean | taper | out-of-round | clearance | result');
@@ -58,12 +102,14 @@ export function certificatePdf(data: CertificateData): Promise<Buffer> {
       `${i + 1} | ${len(c.top.thrust)} / ${len(c.top.axial)} | ${len(c.middle.thrust)} / ${len(c.middle.axial)} | ${len(c.bottom.thrust)} / ${len(c.bottom.axial)} | ${c.piston !== undefined ? len(c.piston) : '—'} | ${len(r.mean)} | ${len(r.taper)} | ${len(r.outOfRound)} | ${r.clearance !== undefined ? len(r.clearance) : '—'} | ${r.pass ? 'pass' : 'FAIL'}`,
     );
   });
-  line(`Largest taper ${len(results.bores.worst.taper)} · largest out-of-round ${len(results.bores.worst.outOfRound)} (two-point: the difference of the two directions).`);
+  line(`Largest taper ${len(results.bores.worst.taper)} · largest out-of-round ${len(results.bores.worst.outOfRound)}.`);
+  line('Taper: on the diameter, the largest minus the smallest reading over the three depths in one direction (the larger direction counts). Out-of-round: two-point, the difference of the thrust and axial diameters at one depth (the largest depth counts).');
 
   if (input.deck && results.deck) {
     heading('Deck');
     line(`Straightedge readings (${unit}): ${input.deck.readings.map(len).join(', ')}`);
-    line(`Out-of-flat ${len(results.deck.outOfFlat)} against ${len(results.deck.limit)} (${results.deck.limitSource === 'shop' ? 'the job’s limit' : 'common-practice table'}): ${results.deck.pass ? 'pass' : 'FAIL'}${input.deck.raUm !== undefined ? ` · deck Ra ${input.deck.raUm} µm` : ''}`);
+    const deck = figureAgainstLimit(results.deck.outOfFlat, results.deck.limit, decimals);
+    line(`Out-of-flat ${deck.value} against ≤ ${deck.limit} (${results.deck.limitSource === 'shop' ? 'the job’s limit' : 'common-practice table'}): ${results.deck.pass ? 'pass' : 'FAIL'}${input.deck.raUm !== undefined ? ` · deck Ra ${input.deck.raUm} µm` : ''}`);
   }
   if (results.finish) {
     heading('Bore finish (µm)');
@@ -77,11 +123,20 @@ export function certificatePdf(data: CertificateData): Promise<Buffer> {
   }
   if (results.crosshatch) {
     heading('Crosshatch');
-    line(`Included angle ${results.crosshatch.includedAngleDeg.toFixed(1)}° (measured across the horizontal${input.crosshatch?.mode === 'settings' ? '; worked out from the hone settings' : ''}).`);
+    line(
+      input.crosshatch?.mode === 'settings'
+        ? `Included angle ${results.crosshatch.includedAngleDeg.toFixed(1)}°, computed from settings (mid-stroke), not measured: ${input.crosshatch.spindleRpm} rpm, ${input.crosshatch.strokeLength} ${unit} stroke, ${input.crosshatch.cyclesPerMinute} full up-and-down cycles per minute. Across the horizontal.`
+        : `Included angle ${results.crosshatch.includedAngleDeg.toFixed(1)}°, measured across the horizontal.`,
+    );
   }
   heading('Checks against the job’s limits');
-  if (results.checks.length === 0) line('No limit failed.');
-  for (const check of results.checks) line(`${check.pass ? 'pass' : 'FAIL'} — ${check.what}: ${Number(check.value.toFixed(6))} (allowed ${check.allowed})`);
+  if (results.checks.length === 0) line(resultHeadline(results, data.spec, unit).tone === 'none' ? 'The job gave no limits, so nothing was judged.' : 'No limit failed.');
+  const ctx = { spec: data.spec, results, unit, resolution: input.conditions.gaugeResolution };
+  for (const check of results.checks) {
+    const figures = checkFigures(check, ctx);
+    line(`${checkWord(check)} — ${check.what}: ${figures.value} (allowed ${figures.allowed})`);
+  }
+  for (const item of (results as { notJudged?: Array<{ what: string; why: string }> }).notJudged ?? []) line(`NOT JUDGED — ${item.what}: ${item.why}`);
 
   heading('Sign-off');
   line(`Measured and signed by ${input.signedOffBy} for ${data.shopName}.`);

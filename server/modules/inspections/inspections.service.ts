@@ -1,13 +1,14 @@
 import { and, desc, eq, sql } from 'drizzle-orm';
+import { checksNotConforming, recordConforms } from '../../../shared/calc/conformance';
 import { evaluateInspection } from '../../../shared/calc/inspection-record';
 import type { InspectionInput, InspectionResults, InspectionVersion } from '../../../shared/schemas/inspection';
 import type { JobInput } from '../../../shared/schemas/jobs';
 import type { Database, Executor } from '../../db/client';
-import { jobs, type User } from '../../db/schema';
+import { jobs, users, type User } from '../../db/schema';
 import { inspectionDrafts, inspectionRecords, milestones } from '../../db/schema-work';
 import { AppError, conflict, forbidden } from '../../lib/errors';
 import { enqueueMail } from '../../lib/mail/outbox';
-import { inspectionDecidedMail, inspectionSubmittedMail, reviewReminderMail } from '../../lib/mail/templates';
+import { inspectionDecidedMail, inspectionSubmittedMail, reviewReminderMail, reviewWindowHeldMail } from '../../lib/mail/templates';
 import { scheduleTask } from '../../lib/scheduler';
 import { releaseJob, type PaymentDeps } from '../payments/payments.service';
 import { certificatePdf } from './certificate';
@@ -42,7 +43,10 @@ export async function inspectionView(db: Database, user: User, jobId: string) {
     draft = (row?.draft as Record<string, unknown>) ?? null;
   }
   const open = rows.find((r) => r.status === 'submitted');
-  return { versions: rows.map(toVersion), draft, reviewDueAt: open?.reviewDueAt.toISOString() ?? null };
+  // A record with a check that does not conform is never accepted by the window; once the window has ended it simply waits for the builder.
+  const autoAccept = open ? recordConforms(open.results as InspectionResults) : null;
+  const reviewWindowEnded = open ? open.reviewDueAt.getTime() <= Date.now() : false;
+  return { versions: rows.map(toVersion), draft, reviewDueAt: open?.reviewDueAt.toISOString() ?? null, autoAccept, reviewWindowEnded };
 }
 
 export async function saveDraft(db: Database, user: User, jobId: string, draft: Record<string, unknown>) {
@@ -94,7 +98,7 @@ export async function submitInspection(deps: InspectionDeps, user: User, jobId: 
     await enqueueMail(
       tx,
       parties.builder.email,
-      inspectionSubmittedMail({ name: parties.builder.displayName, shopName: parties.shop!.name, jobTitle: job.title, version: next, pass: results.pass, dueText: dayText(reviewDueAt), url }),
+      inspectionSubmittedMail({ name: parties.builder.displayName, shopName: parties.shop!.name, jobTitle: job.title, version: next, pass: results.pass, autoAccept: recordConforms(results), dueText: dayText(reviewDueAt), url }),
     );
     const reminderAt = new Date(Math.max(Date.now(), reviewDueAt.getTime() - 24 * 60 * 60_000));
     await scheduleTask(tx, { kind: 'review-reminder', key: `review-reminder-${row.id}`, payload: { recordId: row.id }, runAt: reminderAt });
@@ -176,6 +180,31 @@ export async function rejectInspection(deps: InspectionDeps, user: User, jobId: 
   });
 }
 
+/**
+ * The window ended on a record that does not conform: nothing is accepted or
+ * paid; the builder, the shop and every admin get a mail naming the checks,
+ * written in the transaction that saw the record still waiting.
+ */
+async function holdAfterWindow(deps: InspectionDeps, jobId: string, recordId: string) {
+  await deps.db.transaction(async (tx) => {
+    const parties = await jobParties(tx, jobId, { forUpdate: true });
+    const [record] = await tx.select().from(inspectionRecords).where(eq(inspectionRecords.id, recordId));
+    if (parties.job.status !== 'inspection_submitted' || !record || record.status !== 'submitted') return; // answered in time
+    const checks = checksNotConforming(record.results as InspectionResults);
+    if (checks.length === 0) checks.push('the overall result');
+    const url = `${deps.appUrl}/jobs/${jobId}`;
+    const jobTitle = parties.job.title;
+    await enqueueMail(tx, parties.builder.email, reviewWindowHeldMail({ name: parties.builder.displayName, reader: 'builder', jobTitle, checks, url }));
+    if (parties.shop) await enqueueMail(tx, parties.shop.email, reviewWindowHeldMail({ name: parties.shop.name, reader: 'shop', jobTitle, checks, url }));
+    const admins = await tx
+      .select({ email: users.email, displayName: users.displayName })
+      .from(users)
+      .where(and(eq(users.role, 'admin'), eq(users.status, 'active')));
+    for (const admin of admins) await enqueueMail(tx, admin.email, reviewWindowHeldMail({ name: admin.displayName, reader: 'admin', jobTitle, checks, url }));
+  });
+  deps.hub?.jobChanged(jobId, 'job_updated');
+}
+
 /** Scheduled-task handlers: the reminder before the review window ends, and acceptance when it does. */
 export function inspectionTaskHandlers(deps: InspectionDeps) {
   return {
@@ -184,13 +213,19 @@ export function inspectionTaskHandlers(deps: InspectionDeps) {
       if (!record || record.status !== 'submitted') return;
       await deps.db.transaction(async (tx: Executor) => {
         const parties = await jobParties(tx, record.jobId);
-        await enqueueMail(tx, parties.builder.email, reviewReminderMail({ name: parties.builder.displayName, jobTitle: parties.job.title, dueText: dayText(record.reviewDueAt), url: `${deps.appUrl}/jobs/${record.jobId}` }));
+        await enqueueMail(
+          tx,
+          parties.builder.email,
+          reviewReminderMail({ name: parties.builder.displayName, jobTitle: parties.job.title, dueText: dayText(record.reviewDueAt), autoAccept: recordConforms(record.results as InspectionResults), url: `${deps.appUrl}/jobs/${record.jobId}` }),
+        );
       });
     },
     'review-window-ended': async (payload: Record<string, unknown>, now: Date) => {
       const [record] = await deps.db.select().from(inspectionRecords).where(eq(inspectionRecords.id, String(payload.recordId)));
       if (!record || record.status !== 'submitted' || record.reviewDueAt > now) return;
-      await accept(deps, record.jobId, { window: { recordId: record.id } });
+      // Only a record whose every check conforms is accepted without the builder; any other waits, and everyone concerned is told.
+      if (recordConforms(record.results as InspectionResults)) await accept(deps, record.jobId, { window: { recordId: record.id } });
+      else await holdAfterWindow(deps, record.jobId, record.id);
     },
   };
 }
@@ -214,6 +249,7 @@ export async function certificateFor(db: Database, user: User, jobId: string, ve
     version: row.version,
     status: row.status,
     submittedAt: row.submittedAt,
+    spec: parties.job.spec as JobInput,
     input: row.input as InspectionInput,
     results: row.results as InspectionResults,
   });

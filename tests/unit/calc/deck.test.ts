@@ -103,8 +103,13 @@ describe('deckFlatness', () => {
     expect(result.pass).toBe(true);
   });
 
-  it('when the shop limit is zero or negative, then a CalculationError names it', () => {
-    expectCalculationError(() => deckFlatness({ unit: 'in', readings: [0.001], material: 'aluminium', gasket: 'mls', shopLimit: 0 }), 'shopLimit');
+  it('when the shop limit is negative, then a CalculationError names it', () => {
+    expectCalculationError(() => deckFlatness({ unit: 'in', readings: [0.001], material: 'aluminium', gasket: 'mls', shopLimit: -0.001 }), 'shopLimit');
+  });
+
+  it('when the shop limit is zero, then no leaf may pass: all-zero readings pass and any gap fails (never an error)', () => {
+    expect(deckFlatness({ unit: 'in', readings: [0, 0, 0], material: 'aluminium', gasket: 'mls', shopLimit: 0 })).toMatchObject({ pass: true, limit: 0, limitSource: 'shop' });
+    expect(deckFlatness({ unit: 'in', readings: [0, 0.0005], material: 'aluminium', gasket: 'mls', shopLimit: 0 })).toMatchObject({ pass: false, limit: 0 });
   });
 
   it('when readings are converted from inches to millimetres, then pass/fail is unchanged', () => {

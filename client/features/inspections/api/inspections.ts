@@ -8,8 +8,12 @@ export interface InspectionView {
   versions: InspectionVersion[];
   /** The shop's unfinished entry; only the shop gets it. */
   draft: Record<string, unknown> | null;
-  /** When the latest submitted version is accepted by itself if the builder does not answer. */
+  /** When the review window of the latest submitted version ends. */
   reviewDueAt: string | null;
+  /** Whether that version is accepted by itself when the window ends: only when every check conforms (null: none waiting). */
+  autoAccept?: boolean | null;
+  /** True once the window has ended on a version still waiting (one that does not conform waits for the builder). */
+  reviewWindowEnded?: boolean;
 }
 
 export const inspectionQueries = {

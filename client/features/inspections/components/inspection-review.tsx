@@ -4,13 +4,15 @@ import { useForm } from 'react-hook-form';
 import { Link } from 'react-router-dom';
 import { toast } from 'sonner';
 import type { z } from 'zod';
-import { boreSpecFor } from '@shared/calc';
+import { boreSpecFor, checksNotConforming } from '@shared/calc';
+import { INSPECTION_STATUS_WORDS } from '@shared/inspection-words';
 import { type InspectionVersion, rejectInspectionSchema } from '@shared/schemas/inspection';
 import type { JobDetail } from '@shared/schemas/jobs';
 import { Badge, type BadgeTone } from '@client/components/ui/badge';
 import { Button } from '@client/components/ui/button';
 import { Card } from '@client/components/ui/card';
-import { ConfirmDialog, ModalDialog } from '@client/components/ui/modal-dialog';
+import { CheckboxField } from '@client/components/ui/checkbox-field';
+import { ModalDialog } from '@client/components/ui/modal-dialog';
 import { Notice } from '@client/components/ui/notice';
 import { TextAreaField } from '@client/components/ui/text-area-field';
 import { applyServerErrors } from '@client/lib/form-errors';
@@ -19,15 +21,16 @@ import { useAcceptInspection, useInspection, useRejectInspection } from '../api/
 import { type VersionChange, versionChanges } from '../lib/version-diff';
 import { BoreSizeChart } from './bore-size-chart';
 import { InspectionResultsView } from './inspection-results';
+import { ReadingsAt20 } from './record-judgement';
 
 /** Job states in which an inspection record may exist or be on its way. */
 const RECORD_STATES = new Set<JobDetail['status']>(['in_work', 'inspection_submitted', 'completed', 'disputed', 'resolved']);
 
 const versionStatus: Record<InspectionVersion['status'], { label: string; tone: BadgeTone }> = {
-  submitted: { label: 'Waiting for the builder', tone: 'caution' },
-  accepted: { label: 'Accepted', tone: 'success' },
-  rejected: { label: 'Rejected', tone: 'error' },
-  superseded: { label: 'Replaced by a later version', tone: 'muted' },
+  submitted: { label: INSPECTION_STATUS_WORDS.submitted, tone: 'caution' },
+  accepted: { label: INSPECTION_STATUS_WORDS.accepted, tone: 'success' },
+  rejected: { label: INSPECTION_STATUS_WORDS.rejected, tone: 'error' },
+  superseded: { label: INSPECTION_STATUS_WORDS.superseded, tone: 'muted' },
 };
 
 const when = new Intl.DateTimeFormat('en-US', { dateStyle: 'medium', timeStyle: 'short' });
@@ -75,7 +78,13 @@ function Conditions({ version }: { version: InspectionVersion }) {
         <dt className="text-ink-soft">Gauge resolution</dt>
         <dd className="font-semibold tabular-nums">{lengthToText(conditions.gaugeResolution, conditions.unit)} {conditions.unit}</dd>
         <dt className="text-ink-soft">Temperature at measurement</dt>
-        <dd className="font-semibold tabular-nums">{conditions.temperatureC} °C</dd>
+        <dd className="font-semibold tabular-nums">{conditions.temperatureF !== undefined ? `${conditions.temperatureF} °F` : `${conditions.temperatureC} °C`}</dd>
+        {conditions.uncertainty !== undefined && (
+          <>
+            <dt className="text-ink-soft">Measurement uncertainty (U)</dt>
+            <dd className="font-semibold tabular-nums">{lengthToText(conditions.uncertainty, conditions.unit)} {conditions.unit}</dd>
+          </>
+        )}
         <dt className="text-ink-soft">Torque plate</dt>
         <dd className="font-semibold">{conditions.torquePlate ? 'Fitted' : 'Not fitted'}</dd>
         <dt className="text-ink-soft">Signed off by</dt>
@@ -109,29 +118,100 @@ function VersionBody({ version, job }: { version: InspectionVersion; job: JobDet
             <h4 className="font-bold">Conditions and sign-off</h4>
             <Conditions version={version} />
           </section>
+          <ReadingsAt20 input={version.input} results={version.results} />
         </div>
       </div>
     </div>
   );
 }
 
-function BuilderDecision({ job, version, reviewDueAt }: { job: JobDetail; version: InspectionVersion; reviewDueAt: string | null }) {
-  const [acceptOpen, setAcceptOpen] = useState(false);
-  const [rejectOpen, setRejectOpen] = useState(false);
+const capitalise = (text: string) => text.charAt(0).toUpperCase() + text.slice(1);
+
+/**
+ * Accepting pays the shop. When any check does not conform (fails, or could
+ * not be judged), each one is named and must be ticked before the Accept
+ * button works: nobody pays for a failing bore by clicking through.
+ */
+function AcceptDialog({ job, version, open, onClose }: { job: JobDetail; version: InspectionVersion; open: boolean; onClose: () => void }) {
+  const failing = checksNotConforming(version.results);
+  const [confirmed, setConfirmed] = useState<ReadonlySet<string>>(new Set());
+  const close = () => {
+    setConfirmed(new Set());
+    onClose();
+  };
   const accept = useAcceptInspection(job.id, {
     mutationConfig: {
       onSuccess: () => {
-        setAcceptOpen(false);
+        close();
         toast.success('Accepted. The held payment is on its way to the shop.');
       },
     },
   });
+  const allConfirmed = failing.every((name) => confirmed.has(name));
+  const toggle = (name: string, on: boolean) =>
+    setConfirmed((before) => {
+      const next = new Set(before);
+      if (on) next.add(name);
+      else next.delete(name);
+      return next;
+    });
+  return (
+    <ModalDialog
+      open={open}
+      onClose={close}
+      title={`Accept version ${version.version} of the inspection record?`}
+      description="The held payment goes to the shop, less Tenthmark’s fee, and the job is completed. This cannot be undone."
+      size="sm"
+    >
+      {failing.length > 0 && (
+        <fieldset className="flex flex-col gap-2 rounded-lg bg-fail-soft/50 p-3 ring-1 ring-fail/30" data-testid="accept-failing-checks">
+          <legend className="px-1 font-bold text-fail">
+            {failing.length === 1 ? 'This check does not conform' : `These ${failing.length} checks do not conform`}
+          </legend>
+          <p className="text-sm">Tick each one to say you accept the work as it is, knowing it is outside the job’s limits or not judged.</p>
+          {failing.map((name, i) => (
+            <CheckboxField
+              key={name}
+              label={`I accept: ${capitalise(name)}`}
+              checked={confirmed.has(name)}
+              onChange={(event) => toggle(name, event.currentTarget.checked)}
+              data-autofocus={i === 0 ? true : undefined}
+            />
+          ))}
+        </fieldset>
+      )}
+      {accept.error && <Notice tone="error">{accept.error.message}</Notice>}
+      <div className="flex flex-wrap justify-end gap-3">
+        <Button variant="secondary" onClick={close} data-autofocus={failing.length === 0 ? true : undefined}>
+          Not yet
+        </Button>
+        <Button busy={accept.isPending} disabled={!allConfirmed} onClick={() => accept.mutate()}>
+          Accept and pay the shop
+        </Button>
+      </div>
+      {!allConfirmed && (
+        <p className="text-right text-sm text-ink-soft" aria-live="polite">
+          Tick every check above to accept.
+        </p>
+      )}
+    </ModalDialog>
+  );
+}
+
+function BuilderDecision({ job, version, reviewDueAt, autoAccept, windowEnded }: { job: JobDetail; version: InspectionVersion; reviewDueAt: string | null; autoAccept: boolean | null; windowEnded: boolean }) {
+  const [acceptOpen, setAcceptOpen] = useState(false);
+  const [rejectOpen, setRejectOpen] = useState(false);
   return (
     <div className="flex flex-col gap-3 rounded-lg bg-caution-soft/40 p-4 ring-1 ring-caution/30">
       <p className="font-semibold">Check the readings and figures, then accept the work or say what needs redoing.</p>
-      {reviewDueAt && (
+      {reviewDueAt && autoAccept !== false && (
         <p className="text-sm" data-testid="review-due">
           If you do not answer, the record is accepted automatically on {formatWhen(reviewDueAt)}.
+        </p>
+      )}
+      {autoAccept === false && !windowEnded && (
+        <p className="text-sm" data-testid="review-due">
+          At least one check does not conform, so this record is never accepted without you; it waits for your answer.
         </p>
       )}
       <div className="flex flex-wrap gap-3">
@@ -141,17 +221,7 @@ function BuilderDecision({ job, version, reviewDueAt }: { job: JobDetail; versio
         </Button>
       </div>
       <p className="text-sm text-ink-soft">Something wrong that a new version cannot fix? Open a dispute below.</p>
-      <ConfirmDialog
-        open={acceptOpen}
-        onClose={() => setAcceptOpen(false)}
-        onConfirm={() => accept.mutate()}
-        title={`Accept version ${version.version} of the inspection record?`}
-        description="The held payment goes to the shop, less Tenthmark’s fee, and the job is completed. This cannot be undone."
-        confirmLabel="Accept and pay the shop"
-        cancelLabel="Not yet"
-        busy={accept.isPending}
-        error={accept.error?.message}
-      />
+      <AcceptDialog job={job} version={version} open={acceptOpen} onClose={() => setAcceptOpen(false)} />
       <RejectDialog job={job} version={version} open={rejectOpen} onClose={() => setRejectOpen(false)} />
     </div>
   );
@@ -219,7 +289,7 @@ export function InspectionReview({ job, viewer }: { job: JobDetail; viewer: 'bui
   if (inspection.isPending) body = <p className="text-ink-soft">Loading the inspection record …</p>;
   else if (inspection.isError) body = <Notice tone="error">The inspection record could not be loaded: {inspection.error.message}</Notice>;
   else {
-    const { versions, reviewDueAt } = inspection.data;
+    const { versions, reviewDueAt, autoAccept = null, reviewWindowEnded = false } = inspection.data;
     const latest = versions[0];
     if (!latest) {
       body = (
@@ -257,12 +327,21 @@ export function InspectionReview({ job, viewer }: { job: JobDetail; viewer: 'bui
               Accepted{latest.decidedAt ? ` on ${formatWhen(latest.decidedAt)}` : ''}; the held payment was released to the shop.
             </Notice>
           )}
-          {viewer === 'builder' && job.status === 'inspection_submitted' && latest.status === 'submitted' && (
-            <BuilderDecision job={job} version={latest} reviewDueAt={reviewDueAt} />
+          {latest.status === 'submitted' && reviewWindowEnded && autoAccept === false && (
+            <div data-testid="review-window-held"><Notice tone="caution" title="The review window has ended without acceptance">
+              {reviewDueAt ? `The window ended on ${formatWhen(reviewDueAt)}. ` : ''}
+              At least one check does not conform ({checksNotConforming(latest.results).join('; ')}), so the record was not accepted automatically. It waits for the
+              builder’s answer and the payment stays held; the builder, the shop and Tenthmark’s admins were told by e-mail.
+            </Notice></div>
           )}
-          {viewer !== 'builder' && latest.status === 'submitted' && reviewDueAt && (
+          {viewer === 'builder' && job.status === 'inspection_submitted' && latest.status === 'submitted' && (
+            <BuilderDecision job={job} version={latest} reviewDueAt={reviewDueAt} autoAccept={autoAccept} windowEnded={reviewWindowEnded} />
+          )}
+          {viewer !== 'builder' && latest.status === 'submitted' && reviewDueAt && !reviewWindowEnded && (
             <p className="text-sm" data-testid="review-due">
-              With the builder for review; accepted automatically on {formatWhen(reviewDueAt)} if they do not answer.
+              {autoAccept === false
+                ? `With the builder for review. At least one check does not conform, so it is not accepted automatically when the window ends on ${formatWhen(reviewDueAt)}.`
+                : `With the builder for review; accepted automatically on ${formatWhen(reviewDueAt)} if they do not answer.`}
             </p>
           )}
           {canEnter && <div>{enterLink}</div>}

@@ -1,0 +1,75 @@
+/**
+ * An inspection record's status and overall result in words, the same on the
+ * job page, the web certificate and the PDF certificate.
+ */
+import { recordConforms } from './calc/conformance';
+import { boreSpecFor } from './calc/inspection-record';
+import type { LengthUnit } from './calc/units';
+import type { InspectionResults, InspectionVersion } from './schemas/inspection';
+
+/** Every status a version can have, in words. */
+export const INSPECTION_STATUS_WORDS: Readonly<Record<InspectionVersion['status'], string>> = {
+  submitted: 'Waiting for the builder’s answer',
+  accepted: 'Accepted',
+  rejected: 'Rejected by the builder',
+  superseded: 'Replaced by a later version',
+};
+
+export type ResultTone = 'none' | 'pass' | 'fail' | 'open';
+
+/** True when the job gave no limit at all that the record was judged against (the deck has a common-practice table of its own). */
+export function nothingJudged(results: InspectionResults, spec: Parameters<typeof boreSpecFor>[0], unit: LengthUnit): boolean {
+  const bore = boreSpecFor(spec, unit);
+  // A size tolerance (the job's or a default) judges nothing without a target size.
+  const sizeJudged = bore.targetBore !== undefined && bore.targetTolerance !== undefined;
+  const boreLimits = sizeJudged || [bore.clearanceMin, bore.clearanceMax, bore.maxTaper, bore.maxOutOfRound].some((v) => v !== undefined);
+  const notJudged = (results as { notJudged?: unknown[] }).notJudged ?? [];
+  return results.checks.length === 0 && notJudged.length === 0 && !results.deck && !boreLimits;
+}
+
+/** The overall result line: nothing judged, conforms, or why not. */
+export function resultHeadline(results: InspectionResults, spec: Parameters<typeof boreSpecFor>[0], unit: LengthUnit): { tone: ResultTone; text: string } {
+  if (nothingJudged(results, spec, unit)) return { tone: 'none', text: 'No limits given: nothing judged' };
+  if (recordConforms(results)) return { tone: 'pass', text: 'PASS — every check within the job’s limits' };
+  const verdict = (results as { verdict?: string }).verdict;
+  if (verdict === 'not-proven') return { tone: 'open', text: 'NOT PROVEN — no check fails, but at least one is too close to its limit to prove conformance' };
+  if (verdict === 'not-fully-judged') return { tone: 'open', text: 'NOT FULLY JUDGED — no check fails, but some of the job’s limits could not be judged' };
+  return { tone: 'fail', text: 'FAIL — see the checks below' };
+}
+
+/**
+ * The lines saying how the record was judged: the decision rule, the
+ * temperature correction, the roughness filter and the record's own
+ * statements, each printed only when the results carry it (records judged
+ * before these existed carry none). Read loosely, so older stored results
+ * and newer fields both print.
+ */
+export function methodLines(results: InspectionResults): Array<{ label: string; text: string }> {
+  const r = results as InspectionResults & {
+    decisionRule?: { name?: string; words?: string; uncertaintyWords?: string };
+    temperature?: { measuredC?: number; referenceC?: number; source?: string; block?: { words?: string }; piston?: { words?: string } };
+    finish?: { filter?: unknown };
+    statements?: string[];
+  };
+  const lines: Array<{ label: string; text: string }> = [];
+  if (r.decisionRule) {
+    lines.push({ label: 'Decision rule', text: [r.decisionRule.name, r.decisionRule.words, r.decisionRule.uncertaintyWords].filter(Boolean).join(' — ') });
+  }
+  if (r.temperature) {
+    const t = r.temperature;
+    const parts = [
+      t.measuredC !== undefined && t.referenceC !== undefined ? `Measured at ${Number(t.measuredC.toFixed(1))} °C; bore figures corrected to ${t.referenceC} °C` : undefined,
+      t.block?.words,
+      t.piston?.words,
+      t.source,
+    ];
+    lines.push({ label: 'Temperature correction', text: parts.filter(Boolean).join(' · ') });
+  }
+  const filter = r.finish?.filter;
+  if (filter !== undefined && filter !== null) {
+    const words = typeof filter === 'string' ? filter : typeof filter === 'object' && 'words' in filter ? String((filter as { words: unknown }).words) : JSON.stringify(filter);
+    lines.push({ label: 'Roughness filter', text: words });
+  }
+  for (const statement of r.statements ?? []) lines.push({ label: 'Statement', text: statement });
+  return lines;
+}

@@ -1,0 +1,156 @@
+import { fileURLToPath } from 'node:url';
+import { and, eq } from 'drizzle-orm';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { InspectionInput } from '../../shared/schemas/inspection';
+import { jobs, mailOutbox } from '../../server/db/schema';
+import { inspectionRecords } from '../../server/db/schema-work';
+import { createScheduler } from '../../server/lib/scheduler';
+import { inspectionTaskHandlers } from '../../server/modules/inspections/inspections.service';
+import { createUser, jobInput } from '../factories';
+import { startMoneyApp } from '../setup/money-app';
+import type { signedIn } from '../setup/test-env';
+
+/**
+ * Issue 15: the review window accepts only a record whose every check
+ * conforms; a deck limit of 0 never blocks a submission; the certificate
+ * says what was judged, names its status in words and prints ≤ as a glyph.
+ */
+let m: Awaited<ReturnType<typeof startMoneyApp>>;
+beforeAll(async () => {
+  m = await startMoneyApp();
+});
+afterAll(async () => {
+  await m?.close();
+});
+
+/** Eight cylinders honed to 4.0310 in with small, invented variations (demo numbers); one cylinder may get 0.0009 in of taper. */
+function record(overrides: Partial<InspectionInput> = {}, badTaperOn?: number): InspectionInput {
+  const cylinders = Array.from({ length: 8 }, (_, i) => {
+    const base = 4.031 + (i % 3) * 0.0001;
+    return {
+      top: { thrust: base + 0.0001, axial: base + 0.0001 },
+      middle: { thrust: base, axial: base + 0.0001 },
+      bottom: { thrust: i === badTaperOn ? base - 0.0009 : base, axial: base },
+      piston: 4.028,
+    };
+  });
+  return {
+    conditions: { unit: 'in', gaugeResolution: 0.0001, temperatureC: 20, torquePlate: true },
+    cylinders,
+    deck: { readings: [0.001, 0.0015, 0.001, 0.002], raUm: 0.9 },
+    finish: { mode: 'values', raUm: 0.45, rkUm: 0.6, rpkUm: 0.15, rvkUm: 1.2 },
+    crosshatch: { mode: 'measured', includedAngleDeg: 45 },
+    signedOffBy: 'Ada Quernfield',
+    notes: '',
+    ...overrides,
+  };
+}
+
+const spec = jobInput({ maxTaper: 0.0005, maxOutOfRound: 0.0005, crosshatchMinDeg: 40, crosshatchMaxDeg: 50, finishRaMaxUm: 0.6 });
+
+/** The text of a version's certificate PDF, read back with pdfjs-dist. */
+async function pdfText(who: Awaited<ReturnType<typeof signedIn>>, jobId: string, version: number): Promise<string> {
+  const res = await who.agent.get(`/api/jobs/${jobId}/inspection/${version}/certificate.pdf`).buffer(true).parse((r, done) => {
+    const chunks: Buffer[] = [];
+    r.on('data', (c: Buffer) => chunks.push(c));
+    r.on('end', () => done(null, Buffer.concat(chunks)));
+  });
+  expect(res.status).toBe(200);
+  const { getDocument } = await import('pdfjs-dist/legacy/build/pdf.mjs');
+  const fonts = `${fileURLToPath(new URL('../../node_modules/pdfjs-dist/standard_fonts/', import.meta.url))}`;
+  const pdf = await getDocument({ data: new Uint8Array(res.body as Buffer), standardFontDataUrl: fonts }).promise;
+  let text = '';
+  for (let p = 1; p <= pdf.numPages; p += 1) {
+    const content = await (await pdf.getPage(p)).getTextContent();
+    text += content.items.map((item) => ('str' in item ? item.str : '')).join(' ') + '\n';
+  }
+  return text;
+}
+
+async function inWork(input = spec) {
+  const funded = await m.fundedJob({ input });
+  const received = await funded.shop.post(`/api/jobs/${funded.job.id}/milestones`, { kind: 'block_received', note: 'Arrived on a pallet, plugs in.' });
+  expect(received.status).toBe(201);
+  return funded;
+}
+
+describe('the review window and a record that does not conform', () => {
+  it('when the window ends on a record with a failing check, then it is not accepted: it waits for the builder and the builder, the shop and every admin get a mail', async () => {
+    const admins = [await createUser(m.db, { role: 'admin' }), await createUser(m.db, { role: 'admin' })];
+    const { job, shop, builder, builderUser, shopUser } = await inWork();
+    await shop.post(`/api/jobs/${job.id}/inspection`, record({}, 2));
+    const [submitted] = await m.db.select().from(inspectionRecords).where(eq(inspectionRecords.jobId, job.id));
+    expect(submitted.pass).toBe(false);
+    const before = await builder.get(`/api/jobs/${job.id}/inspection`);
+    expect(before.body.autoAccept).toBe(false);
+    const workers = [0, 1].map(() => createScheduler({ db: m.db, handlers: inspectionTaskHandlers(m.server.app.workDeps) }));
+    const after = new Date(submitted.reviewDueAt.getTime() + 60_000);
+    await Promise.all([...workers.map((w) => w.runDue(after)), ...workers.map((w) => w.runDue(after))]);
+
+    expect((await m.db.select().from(jobs).where(eq(jobs.id, job.id)))[0].status).toBe('inspection_submitted');
+    const [still] = await m.db.select().from(inspectionRecords).where(eq(inspectionRecords.jobId, job.id));
+    expect(still).toMatchObject({ status: 'submitted', decidedAt: null });
+    expect((await m.stripe.transfers.list({ transfer_group: job.id })).data).toHaveLength(0);
+    for (const person of [builderUser, shopUser, ...admins]) {
+      const mails = await m.db.select().from(mailOutbox).where(and(eq(mailOutbox.toAddress, person.email), eq(mailOutbox.template, 'review_window_held')));
+      expect(mails, person.email).toHaveLength(1);
+      expect(mails[0].textBody).toContain('cylinder 3 taper');
+    }
+    expect(await m.db.select().from(mailOutbox).where(and(eq(mailOutbox.toAddress, shopUser.email), eq(mailOutbox.template, 'inspection_accepted_by_window')))).toHaveLength(0);
+    // The builder can still answer.
+    expect((await builder.post(`/api/jobs/${job.id}/inspection/accept`)).status).toBe(200);
+  });
+
+  it('when the window ends on a clean record, then it is still accepted by itself', async () => {
+    const { job, shop, builder, builderUser } = await inWork();
+    await shop.post(`/api/jobs/${job.id}/inspection`, record());
+    expect((await builder.get(`/api/jobs/${job.id}/inspection`)).body.autoAccept).toBe(true);
+    const [submitted] = await m.db.select().from(inspectionRecords).where(eq(inspectionRecords.jobId, job.id));
+    await createScheduler({ db: m.db, handlers: inspectionTaskHandlers(m.server.app.workDeps) }).runDue(new Date(submitted.reviewDueAt.getTime() + 60_000));
+    expect((await m.db.select().from(jobs).where(eq(jobs.id, job.id)))[0].status).toBe('completed');
+    expect(await m.db.select().from(mailOutbox).where(and(eq(mailOutbox.toAddress, builderUser.email), eq(mailOutbox.template, 'review_window_held')))).toHaveLength(0);
+  });
+
+  it('when the job’s deck limit is 0, then records with deck readings are still taken: 0 means no leaf may pass, so a gap fails and a flat deck conforms', async () => {
+    for (const [readings, pass] of [
+      [[0.001, 0], false],
+      [[0, 0, 0], true],
+    ] as const) {
+      const funded = await m.fundedJob({ input: { ...spec, deckFlatnessMax: 0 } });
+      await funded.shop.post(`/api/jobs/${funded.job.id}/milestones`, { kind: 'block_received', note: 'Arrived on a pallet.' });
+      const res = await funded.shop.post(`/api/jobs/${funded.job.id}/inspection`, record({ deck: { readings: [...readings] } }));
+      expect(res.status).toBe(201);
+      expect(res.body.version.results.deck).toMatchObject({ limit: 0, limitSource: 'shop', pass });
+      expect(res.body.version.results.checks.find((c: { what: string }) => c.what === 'deck out-of-flat')).toMatchObject({ pass });
+    }
+  });
+});
+
+describe('the certificate', () => {
+  it('when a record with a failing check is downloaded, then its status is in words and ≤, ° and µ print as real glyphs', async () => {
+    const { job, builder, shop } = await inWork();
+    await shop.post(`/api/jobs/${job.id}/inspection`, record({}, 6));
+    const text = await pdfText(builder, job.id, 1);
+    expect(text).toContain('Waiting for the builder’s answer');
+    expect(text).toContain('FAIL');
+    expect(text).toContain('cylinder 7 taper');
+    expect(text).toContain('≤ 0.0005 in');
+    expect(text).toContain('45.0°');
+    expect(text).toMatch(/[µμ]m/); // pdfjs reads the micro sign back as Greek mu
+    expect(text).toContain('largest minus the smallest');
+  });
+
+  it('when the job gave no limits, then the certificate says nothing was judged (not PASS), and a decided record’s status is in words', async () => {
+    const noLimits = jobInput({ targetBore: undefined, pistonDiameter: undefined, clearanceMin: undefined, clearanceMax: undefined, maxTaper: undefined, maxOutOfRound: undefined, crosshatchMinDeg: undefined, crosshatchMaxDeg: undefined });
+    const funded = await m.fundedJob({ input: noLimits });
+    await funded.shop.post(`/api/jobs/${funded.job.id}/milestones`, { kind: 'block_received', note: 'Arrived on a pallet.' });
+    const input = record({ deck: undefined, finish: undefined });
+    input.cylinders = input.cylinders.map(({ piston: _piston, ...c }) => c);
+    expect((await funded.shop.post(`/api/jobs/${funded.job.id}/inspection`, input)).status).toBe(201);
+    const before = await pdfText(funded.builder, funded.job.id, 1);
+    expect(before).toContain('No limits given: nothing judged');
+    expect(before).not.toContain('PASS');
+    expect((await funded.builder.post(`/api/jobs/${funded.job.id}/inspection/reject`, { reasons: 'Please add the deck readings.' })).status).toBe(200);
+    expect(await pdfText(funded.builder, funded.job.id, 1)).toContain('Rejected by the builder');
+  });
+});
