@@ -261,8 +261,9 @@ export function evaluateInspection(input: InspectionInput, spec: JobSpecPart): I
     const f = input.finish;
     finish = { raUm: f.raUm, rkUm: f.rkUm, rpkUm: f.rpkUm, rvkUm: f.rvkUm, mr1: f.mr1, mr2: f.mr2 };
   } else if (input.finish?.mode === 'profile') {
-    const r = roughness(input.finish.heightsUm, input.finish.spacingUm);
-    finish = { raUm: r.ra, rqUm: r.rq, rzUm: r.rz, rkUm: r.rk, rpkUm: r.rpk, rvkUm: r.rvk, mr1: r.mr1, mr2: r.mr2 };
+    // The filter the shop chose (none when the record does not say); the results carry what was applied.
+    const r = roughness(input.finish.heightsUm, input.finish.spacingUm, input.finish.filter);
+    finish = { raUm: r.ra, rqUm: r.rq, rzUm: r.rz, rkUm: r.rk, rpkUm: r.rpk, rvkUm: r.rvk, mr1: r.mr1, mr2: r.mr2, filter: r.filter };
   }
   const finishLimits: Array<[string, number | undefined, number | undefined]> = [
     ['bore Ra', finish?.raUm, spec.finishRaMaxUm],

@@ -9,7 +9,7 @@
  * generous sanity caps that keep results finite, not engineering limits.
  */
 import { z } from 'zod';
-import { MIN_PROFILE_POINTS } from '../calc/roughness';
+import { MIN_PROFILE_POINTS, gaussianFilterProblem } from '../calc/roughness';
 import { clearanceVolume } from '../calc/engine';
 
 /** Largest length accepted, in the request's unit (a 10 m bore in millimetres). */
@@ -197,13 +197,45 @@ export const deckFlatnessRequestSchema = z.object({
 
 // --- roughness ----------------------------------------------------------------
 
-export const roughnessRequestSchema = z.object({
-  heightsUm: z
-    .array(signed('Each height', MAX_HEIGHT_UM), { error: 'Enter the profile heights as a list of numbers.' })
-    .min(MIN_PROFILE_POINTS, `A profile needs at least ${MIN_PROFILE_POINTS} heights.`)
-    .max(MAX_PROFILE_POINTS, `A profile can have at most ${withCommas(MAX_PROFILE_POINTS)} heights.`),
-  spacingUm: positive('Sample spacing', 1_000_000),
-});
+/** Longest Gaussian cut-off accepted, mm (ISO 4288's longest standard cut-off is 8 mm). */
+export const MAX_CUTOFF_MM = 25;
+
+/**
+ * How the trace becomes a roughness profile: `none` (the default: the trace is
+ * a roughness profile already) or the ISO 16610-21 Gaussian filter at a
+ * cut-off in millimetres (shared/calc/roughness.ts says what is done).
+ */
+export const roughnessFilterSchema = z.discriminatedUnion(
+  'kind',
+  [z.object({ kind: z.literal('none') }), z.object({ kind: z.literal('gaussian'), cutoffMm: positive('Cut-off', MAX_CUTOFF_MM) })],
+  { error: 'Choose no filter or the Gaussian filter with a cut-off.' },
+);
+export type RoughnessFilterInput = z.infer<typeof roughnessFilterSchema>;
+
+/** Refuses a trace too short (or too coarsely sampled) for the Gaussian cut-off asked for; `at` prefixes the path. */
+export function refineTraceForFilter(
+  value: { heightsUm?: unknown; spacingUm?: unknown; filter?: { kind?: unknown; cutoffMm?: unknown } },
+  ctx: z.RefinementCtx,
+): void {
+  // Runs even when a field above failed, so only judge complete, valid input.
+  const { heightsUm, spacingUm, filter } = value;
+  if (filter?.kind !== 'gaussian' || !Array.isArray(heightsUm)) return;
+  if (![spacingUm, filter.cutoffMm].every((n) => typeof n === 'number' && Number.isFinite(n) && n > 0)) return;
+  const problem = gaussianFilterProblem(heightsUm.length, spacingUm as number, filter.cutoffMm as number);
+  if (problem) ctx.addIssue({ code: 'custom', path: problem.field.split('.'), message: problem.message });
+}
+
+export const roughnessRequestSchema = z
+  .object({
+    heightsUm: z
+      .array(signed('Each height', MAX_HEIGHT_UM), { error: 'Enter the profile heights as a list of numbers.' })
+      .min(MIN_PROFILE_POINTS, `A profile needs at least ${MIN_PROFILE_POINTS} heights.`)
+      .max(MAX_PROFILE_POINTS, `A profile can have at most ${withCommas(MAX_PROFILE_POINTS)} heights.`),
+    spacingUm: positive('Sample spacing', 1_000_000),
+    /** Left out: no filter (`roughness` defaults to `{ kind: 'none' }`). */
+    filter: roughnessFilterSchema.optional(),
+  })
+  .superRefine(refineTraceForFilter);
 
 // --- rings --------------------------------------------------------------------
 

@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { boreSpecSchema, cylinderReadingsSchema, lengthUnitSchema } from './calculations';
+import { boreSpecSchema, cylinderReadingsSchema, lengthUnitSchema, refineTraceForFilter, roughnessFilterSchema } from './calculations';
 
 /**
  * What the shop measured and how. Computed figures are never sent: the server works them out again.
@@ -40,7 +40,9 @@ export const finishInputSchema = z.discriminatedUnion('mode', [
     mode: z.literal('profile'),
     heightsUm: z.array(z.number().finite()).min(10, 'A trace needs at least 10 heights.').max(200_000, 'A trace may have at most 200,000 heights.'),
     spacingUm: z.number({ error: 'Enter the sample spacing.' }).positive('The spacing must be greater than zero.'),
-  }),
+    /** Left out: no filter (the trace is a roughness profile already), as in records made before the choice existed. */
+    filter: roughnessFilterSchema.optional(),
+  }).superRefine(refineTraceForFilter),
 ]);
 
 export const crosshatchInputSchema = z.discriminatedUnion('mode', [
@@ -123,7 +125,8 @@ export interface InspectionResults {
   /** Bore figures worked out from the readings corrected to 20 °C (records stored before the correction: from the raw readings). */
   bores: ReturnType<typeof import('../calc/bore').inspectBores>;
   deck?: { outOfFlat: number; limit: number; pass: boolean; limitSource: string };
-  finish?: { raUm: number; rqUm?: number; rzUm?: number; rkUm?: number; rpkUm?: number; rvkUm?: number; mr1?: number; mr2?: number };
+  /** `filter`: what was applied to a trace (absent for entered values and for results stored before the choice existed). */
+  finish?: { raUm: number; rqUm?: number; rzUm?: number; rkUm?: number; rpkUm?: number; rvkUm?: number; mr1?: number; mr2?: number; filter?: import('../calc/roughness').AppliedFilter };
   crosshatch?: { includedAngleDeg: number };
   checks: LimitCheck[];
   /** True only when every limit was judged and every check conforms. */

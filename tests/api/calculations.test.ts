@@ -1,5 +1,6 @@
 import supertest from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { roughness } from '../../shared/calc/roughness';
 import { setupTestApp, type TestContext } from '../setup/test-env';
 
 let ctx: TestContext;
@@ -119,6 +120,29 @@ describe('calculation API: answers', () => {
     for (const key of ['rz', 'rpk', 'rvk', 'mr1', 'mr2']) expect(typeof res.body[key]).toBe('number');
   });
 
+  it('when a roughness request names no filter, then none is applied and the answer says so', async () => {
+    const heightsUm = Array.from({ length: 1000 }, (_, i) => Math.sin((2 * Math.PI * i) / 100) + 0.001 * i);
+    const res = await calc('roughness', { heightsUm, spacingUm: 1 });
+    expect(res.status).toBe(200);
+    expect(res.body.filter).toMatchObject({ kind: 'none', evaluatedPoints: 1000 });
+    near(res.body.filter.evaluationLengthMm, 0.999, 1e-12); // derived: (1000 − 1) × 1 µm
+    near(res.body.ra, roughness(heightsUm, 1).ra, 1e-12); // derived: the shared library unfiltered, as before the filter choice
+  });
+
+  it('when a roughness request asks for the Gaussian filter, then the tilt is removed and the filter is echoed with its lengths', async () => {
+    // A sine of λc/10 on a steep tilt, 0.25 mm cut-off at 1 µm spacing over 2 mm.
+    const heightsUm = Array.from({ length: 2000 }, (_, i) => Math.sin((2 * Math.PI * i) / 25) + 30 - 0.02 * i);
+    const res = await calc('roughness', { heightsUm, spacingUm: 1, filter: { kind: 'gaussian', cutoffMm: 0.25 } });
+    expect(res.status).toBe(200);
+    const plainSine = roughness(Array.from({ length: 2000 }, (_, i) => Math.sin((2 * Math.PI * i) / 25)), 1);
+    near(res.body.ra, plainSine.ra, 1e-4); // source: ISO 16610-21 transmission 1 − exp(−π(αλc/λ)²) ≈ 1 at λ = λc/10; derived: the least-squares line takes the tilt
+    expect(res.body.filter).toMatchObject({ kind: 'gaussian', cutoffMm: 0.25, formRemoval: 'least-squares line', samplingLengths: 7, evaluatedPoints: 1750, rkFilter: 'ISO 13565-1 valley suppression' });
+    near(res.body.filter.evaluationLengthMm, 1.75, 1e-12); // derived: 7 whole cut-offs of 0.25 mm after half a cut-off at each end
+    expect(res.body.filter.trimmedStartMm).toBeGreaterThanOrEqual(0.125);
+    expect(res.body.filter.trimmedEndMm).toBeGreaterThanOrEqual(0.124);
+    expect(res.body.filter.method).toContain('ISO 16610-21');
+  });
+
   it('when ring gap guidance is asked, then top and second ring gaps come back in the request unit', async () => {
     const res = await calc('ring-gap', { unit: 'mm', bore: 101.6, application: 'street' });
     expect(res.status).toBe(200);
@@ -149,6 +173,27 @@ describe('calculation API: bad input', () => {
     expect(res.body.error.code).toBe('invalid_input');
     expect(Object.keys(res.body.error.fields).sort()).toEqual(fields);
     for (const message of Object.values(res.body.error.fields)) expect(String(message).length).toBeGreaterThan(5);
+  });
+
+  it.each([
+    ['a trace too short for the cut-off', { heightsUm: new Array(400).fill(0.5), spacingUm: 1, filter: { kind: 'gaussian', cutoffMm: 0.25 } }, ['heightsUm']],
+    ['too few heights per cut-off', { heightsUm: new Array(4000).fill(0.5), spacingUm: 10, filter: { kind: 'gaussian', cutoffMm: 0.25 } }, ['filter.cutoffMm']],
+    ['an unknown filter', { heightsUm: new Array(4000).fill(0.5), spacingUm: 1, filter: { kind: 'sharp' } }, ['filter.kind']],
+    ['no cut-off', { heightsUm: new Array(4000).fill(0.5), spacingUm: 1, filter: { kind: 'gaussian' } }, ['filter.cutoffMm']],
+  ])('when a roughness request has %s, then 400 names %j', async (_case, body, fields) => {
+    const res = await calc('roughness', body);
+    expect(res.status).toBe(400);
+    expect(res.body.error.code).toBe('invalid_input');
+    expect(Object.keys(res.body.error.fields).sort()).toEqual(fields);
+  });
+
+  it('when a trace is too short for the Gaussian cut-off, then the 400 says how long it must be', async () => {
+    const res = await calc('roughness', { heightsUm: new Array(400).fill(0.5), spacingUm: 1, filter: { kind: 'gaussian', cutoffMm: 0.25 } });
+    expect(res.status).toBe(400);
+    // derived: half a cut-off (125 heights) at each end and one cut-off (250) = 500 heights, spanning 499 µm
+    expect(res.body.error.fields.heightsUm).toBe(
+      'A cut-off of 0.25 mm needs a trace of at least 0.499 mm (500 heights at 1 µm): half a cut-off dropped at each end and one whole cut-off evaluated. This trace is 0.399 mm. Send a longer trace or choose a shorter cut-off.',
+    );
   });
 
   it('when the body is not an object at all, then 400 rather than 500', async () => {

@@ -1,6 +1,6 @@
 /**
  * Timing for the two heaviest calculations. Run with:
- *   npx tsx tests/bench/calc.bench.ts
+ *   npm run bench:calc
  * Prints the median of several runs after a warm-up; asserts nothing.
  */
 import { type CylinderReadings, inspectBores } from '../../shared/calc/bore';
@@ -56,4 +56,11 @@ const spec = { targetBore: 4.0303, targetTolerance: 0.0003, clearanceMin: 0.0025
 
 time('roughness parameters, 100,000-point profile (plain array)', () => roughness(profileArray, 0.5));
 time('roughness parameters, 100,000-point profile (Float64Array)', () => roughness(profile, 0.5));
+// 100,000 heights at 0.5 µm span 50 mm; a 0.8 mm cut-off is 1,600 heights, its weighting reaches ±1,600.
+time('roughness parameters, 100,000-point profile, Gaussian filter 0.8 mm (with ISO 13565-1 pass)', () =>
+  roughness(profile, 0.5, { kind: 'gaussian', cutoffMm: 0.8 }),
+);
+time('roughness parameters, 100,000-point profile, Gaussian filter 2.5 mm (with ISO 13565-1 pass)', () =>
+  roughness(profile, 0.5, { kind: 'gaussian', cutoffMm: 2.5 }),
+);
 time('bore inspection, 16 cylinders with spec', () => inspectBores({ cylinders, spec }));

@@ -207,6 +207,31 @@ describe('the calculator page, as a signed-out visitor', () => {
     expect(consoleErrors).toEqual([]);
   });
 
+  it('when the Gaussian filter is chosen, then the figures are the filtered ones and the filter is named; a cut-off too long for the trace is refused beside the choice', async () => {
+    await openCalculator();
+    const rough = card('Surface roughness');
+    await rough.getByRole('button', { name: 'Load the synthetic example' }).click();
+    await rough.getByTestId('roughness-result').waitFor();
+    await expect(rough.getByTestId('roughness-filter').textContent()).resolves.toContain('None');
+
+    await rough.getByLabel('Filter', { exact: true }).selectOption('0.8');
+    await rough.getByTestId('roughness-evaluation').waitFor();
+    // derived: the shared library with the same filter on the same seeded heights (8,000 at 0.5 µm: 4 mm, so 4 cut-offs of 0.8 mm evaluated)
+    const expected = roughness(syntheticPlateauProfile(), 0.5, { kind: 'gaussian', cutoffMm: 0.8 });
+    for (const key of ['ra', 'rq', 'rz', 'rk', 'rpk', 'rvk'] as const) {
+      await expect(numberIn(rough.getByTestId(`roughness-${key}`))).resolves.toBeCloseTo(expected[key], 3);
+    }
+    await expect(rough.getByTestId('roughness-filter').textContent()).resolves.toContain('Gaussian, cut-off 0.8 mm');
+    await expect(rough.getByTestId('roughness-evaluation').textContent()).resolves.toContain('3.200 mm (4 × 0.8 mm)');
+    await expect(rough.getByTestId('roughness-filter-method').textContent()).resolves.toContain('ISO 13565-1');
+
+    // derived: an 8 mm cut-off needs half a cut-off at each end and one whole one, 16 mm; the example is 4 mm
+    await rough.getByLabel('Filter', { exact: true }).selectOption('8');
+    await rough.getByText('A cut-off of 8 mm needs a trace of at least', { exact: false }).waitFor();
+    await expect(rough.getByTestId('roughness-result').count()).resolves.toBe(0);
+    expect(consoleErrors).toEqual([]);
+  });
+
   it('when a CSV with a header is uploaded, then it is read; a file with a word among the heights shows where', async () => {
     await openCalculator();
     const rough = card('Surface roughness');

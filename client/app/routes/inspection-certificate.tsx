@@ -1,7 +1,9 @@
 import { Link, useParams } from 'react-router-dom';
+import { micrometresToMicroinches } from '@shared/calc';
 import { Button } from '@client/components/ui/button';
 import { Notice } from '@client/components/ui/notice';
 import { useInspection } from '@client/features/inspections/api/inspections';
+import { finishFilterWords } from '@client/features/inspections/components/inspection-results';
 import { useJob } from '@client/features/jobs/api/jobs';
 
 const GUIDANCE =
@@ -96,11 +98,12 @@ export function InspectionCertificateRoute() {
         <>
           <h2 className="mt-4 text-lg font-bold">Bore finish (µm)</h2>
           <p>
-            Ra {results.finish.raUm.toFixed(3)}
+            Ra {results.finish.raUm.toFixed(3)} ({micrometresToMicroinches(results.finish.raUm).toFixed(1)} µin)
             {results.finish.rkUm !== undefined && ` · Rk ${results.finish.rkUm.toFixed(3)}`}
             {results.finish.rpkUm !== undefined && ` · Rpk ${results.finish.rpkUm.toFixed(3)}`}
             {results.finish.rvkUm !== undefined && ` · Rvk ${results.finish.rvkUm.toFixed(3)}`}
           </p>
+          {results.finish.filter && <p>Filter: {finishFilterWords(results.finish.filter)}.</p>}
         </>
       )}
       {results.crosshatch && (

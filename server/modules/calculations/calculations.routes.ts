@@ -78,7 +78,8 @@ export function calculationsRouter(deps: { db: Database; perMinute: number }) {
 
   router.post('/roughness', (req, res) => {
     const input = roughnessRequestSchema.parse(req.body);
-    res.json(roughness(input.heightsUm, input.spacingUm));
+    // `filter` left out means none; the answer's `filter` says what was applied.
+    res.json(roughness(input.heightsUm, input.spacingUm, input.filter));
   });
 
   router.post('/ring-gap', (req, res) => {

@@ -1,7 +1,18 @@
 import { useDeferredValue, useId, useMemo, useState, type ChangeEvent } from 'react';
-import { MIN_PROFILE_POINTS, materialRatioCurve, micrometresToMicroinches, roughness } from '@shared/calc';
+import {
+  MIN_PROFILE_POINTS,
+  STANDARD_CUTOFFS_MM,
+  type RoughnessFilter,
+  gaussianFilterProblem,
+  materialRatioCurve,
+  microinchesToMicrometres,
+  micrometresToMicroinches,
+  roughness,
+  roughnessProfiles,
+} from '@shared/calc';
 import { roughnessRequestSchema } from '@shared/schemas/calculations';
 import { Button } from '@client/components/ui/button';
+import { SelectField } from '@client/components/ui/select-field';
 import { TextAreaField } from '@client/components/ui/text-area-field';
 import { runLiveCalculation } from '../hooks/use-live-calculation';
 import { formatNumber, toNumber } from '../lib/numbers';
@@ -30,6 +41,25 @@ function um(value: number) {
 function microinches(value: number) {
   return `${formatNumber(micrometresToMicroinches(value), 1)} µin`;
 }
+function millimetres(value: number) {
+  return `${formatNumber(value, 3)} mm`;
+}
+
+type HeightUnit = 'um' | 'uin';
+const HEIGHT_UNITS = [
+  { value: 'um', label: 'Micrometres (µm)' },
+  { value: 'uin', label: 'Microinches (µin)' },
+] as const;
+
+/** No filter, or the Gaussian filter at one of the standard cut-offs. */
+const FILTER_CHOICES = [
+  { value: 'none', label: 'None: the heights are a roughness profile already' },
+  ...STANDARD_CUTOFFS_MM.map((cutoff) => ({ value: String(cutoff), label: `Gaussian, cut-off ${cutoff} mm` })),
+];
+
+function filterFor(choice: string): RoughnessFilter {
+  return choice === 'none' ? { kind: 'none' } : { kind: 'gaussian', cutoffMm: Number(choice) };
+}
 
 export function RoughnessCalculator() {
   const fileId = useId();
@@ -38,18 +68,33 @@ export function RoughnessCalculator() {
   const [loaded, setLoaded] = useState<LoadedProfile | null>(null);
   const [fileError, setFileError] = useState<string>();
   const [reading, setReading] = useState(false);
+  const [heightUnit, setHeightUnit] = useState<HeightUnit>('um');
+  const [filterChoice, setFilterChoice] = useState<string>('none');
+  const filter = useMemo(() => filterFor(filterChoice), [filterChoice]);
 
   // The heavy work follows the heights only: parsing waits for typing to pause (deferred), and the
   // parameters and the curve are recomputed when the list of heights changes, never for the spacing.
   const deferredText = useDeferredValue(text);
   const fromText = useMemo(() => readProfileText(deferredText), [deferredText]);
-  const heights = loaded ? loaded.heights : fromText.kind === 'heights' ? fromText.heights : undefined;
+  const entered = loaded ? loaded.heights : fromText.kind === 'heights' ? fromText.heights : undefined;
+  // Heights typed or read in microinches are worked in micrometres (1 µin = 0.0254 µm exactly).
+  const heights = useMemo(() => (entered && heightUnit === 'uin' ? entered.map(microinchesToMicrometres) : entered), [entered, heightUnit]);
   const heightsCheck = useMemo(() => (heights ? runLiveCalculation(heightsSchema, heights, identity) : undefined), [heights]);
+  const spacingCheck = useMemo(() => runLiveCalculation(spacingSchema, toNumber(spacing), identity), [spacing]);
+  // Without a filter the spacing changes nothing, so only the heights trigger the work; the Gaussian filter needs the spacing too.
+  const filterSpacing = filter.kind === 'gaussian' ? spacingCheck.result : undefined;
+  const filterError =
+    filter.kind === 'gaussian' && heightsCheck?.result && filterSpacing !== undefined
+      ? gaussianFilterProblem(heightsCheck.result.length, filterSpacing, filter.cutoffMm)?.message
+      : undefined;
   const computed = useMemo(() => {
     if (!heightsCheck?.result) return undefined;
-    return { parameters: roughness(heightsCheck.result), curve: materialRatioCurve(heightsCheck.result, 201) };
-  }, [heightsCheck]);
-  const spacingCheck = useMemo(() => runLiveCalculation(spacingSchema, toNumber(spacing), identity), [spacing]);
+    if (filter.kind === 'none') return { parameters: roughness(heightsCheck.result), curve: materialRatioCurve(heightsCheck.result, 201) };
+    if (filterSpacing === undefined || gaussianFilterProblem(heightsCheck.result.length, filterSpacing, filter.cutoffMm)) return undefined;
+    // The chart shows the ISO 13565-1 profile the Rk figures come from, heights from its own mean line.
+    const profiles = roughnessProfiles(heightsCheck.result, filterSpacing, filter.cutoffMm);
+    return { parameters: roughness(heightsCheck.result, filterSpacing, filter), curve: materialRatioCurve(profiles.plateau, 201, 0) };
+  }, [heightsCheck, filter, filterSpacing]);
 
   const tooFew = heights !== undefined && heights.length < MIN_PROFILE_POINTS;
   const heightsError =
@@ -104,10 +149,12 @@ export function RoughnessCalculator() {
     setFileError(undefined);
     setText('');
     setSpacing(String(SYNTHETIC_SPACING_UM));
+    setHeightUnit('um');
     setLoaded({ kind: 'example', label: 'Synthetic example', heights: syntheticPlateauProfile(), headerSkipped: false });
   };
 
   const result = computed && spacingCheck.result !== undefined ? computed.parameters : undefined;
+  const applied = result?.filter;
 
   return (
     <CalculatorCard
@@ -116,7 +163,8 @@ export function RoughnessCalculator() {
       intro={
         <>
           Ra, Rq and Rz from a profile trace, and the plateau-honing figures Rk, Rpk, Rvk, Mr1 and Mr2 from its material-ratio curve
-          (ISO 13565-2). Heights in micrometres at equal spacing, already filtered as the instrument gives them; nothing is filtered here.
+          (ISO 13565-2). Heights at equal spacing. Choose no filter when the instrument already gives a roughness profile, or the
+          Gaussian filter (ISO 16610-21) to remove the form and waviness here; the results say which was used.
         </>
       }
     >
@@ -139,7 +187,7 @@ export function RoughnessCalculator() {
               </div>
             ) : (
               <TextAreaField
-                label="Profile heights (µm)"
+                label={`Profile heights (${heightUnit === 'uin' ? 'µin' : 'µm'})`}
                 rows={5}
                 placeholder="0.12 -0.05 0.08 -2.41 …"
                 hint={tooFew ? `${heights?.length} heights so far; a profile needs at least ${MIN_PROFILE_POINTS}.` : 'One per line, or separated by spaces or commas.'}
@@ -172,6 +220,24 @@ export function RoughnessCalculator() {
                 </p>
               )}
               {loaded?.kind === 'file' && heightsError && <p className="text-sm font-semibold text-fail">{heightsError}</p>}
+            </div>
+            <div className="flex flex-wrap items-end gap-4">
+              <SelectField
+                label="Heights in"
+                value={heightUnit}
+                onChange={(event) => setHeightUnit(event.target.value === 'uin' ? 'uin' : 'um')}
+                options={HEIGHT_UNITS}
+                className="w-56"
+              />
+              <SelectField
+                label="Filter"
+                value={filterChoice}
+                onChange={(event) => setFilterChoice(event.target.value)}
+                options={FILTER_CHOICES}
+                error={filterError}
+                hint={filter.kind === 'gaussian' ? 'Least-squares line removed, half a cut-off dropped at each end, whole cut-offs evaluated.' : undefined}
+                className="min-w-64 flex-1"
+              />
             </div>
             <div className="flex flex-wrap items-end gap-4">
               <NumberField label="Sample spacing (µm)" value={spacing} onValueChange={setSpacing} error={spacingError} className="w-48" />
@@ -223,14 +289,37 @@ export function RoughnessCalculator() {
                     { label: <><strong>Mr2</strong> material above the valleys</>, value: `${formatNumber(result.mr2, 1)} %`, testId: 'roughness-mr2' },
                     { label: 'Heights', value: formatNumber(result.points, 0) },
                     { label: 'Traced length', value: `${formatNumber(((result.points - 1) * (spacingCheck.result ?? 0)) / 1000, 3)} mm` },
+                    {
+                      label: 'Filter',
+                      value: applied?.kind === 'gaussian' ? `Gaussian, cut-off ${applied.cutoffMm} mm` : 'None (heights as sent)',
+                      testId: 'roughness-filter',
+                    },
+                    applied?.kind === 'gaussian' && {
+                      label: 'Evaluated',
+                      value: `${millimetres(applied.evaluationLengthMm)} (${applied.samplingLengths} × ${applied.cutoffMm} mm)`,
+                      testId: 'roughness-evaluation',
+                    },
+                    applied?.kind === 'gaussian' && {
+                      label: 'Dropped at the ends',
+                      value: `${millimetres(applied.trimmedStartMm)} and ${millimetres(applied.trimmedEndMm)}`,
+                    },
                   ]}
                 />
+                <p className="text-sm text-ink-soft" data-testid="roughness-filter-method">
+                  {applied?.kind === 'gaussian'
+                    ? 'Ra, Rq and Rz on the Gaussian roughness profile (form removed by a least-squares line); Rk, Rpk, Rvk, Mr1 and Mr2 on the ISO 13565-1 valley-suppressed profile.'
+                    : 'No filter: Ra and the other figures are those of the heights as sent, measured from their mean.'}
+                </p>
                 <GuidanceNote>The ring and engine makers&apos; finish figures and a calibrated profilometer govern.</GuidanceNote>
               </div>
             ) : (
               <MissingHint
                 missing={missing}
-                errors={{ ...(heightsError ? { heights: heightsError } : {}), ...(spacingError ? { spacing: spacingError } : {}) }}
+                errors={{
+                  ...(heightsError ? { heights: heightsError } : {}),
+                  ...(spacingError ? { spacing: spacingError } : {}),
+                  ...(filterError ? { filter: filterError } : {}),
+                }}
                 labels={(key) => missingWords[key] ?? key}
               />
             )}

@@ -7,6 +7,7 @@ import { Button } from '@client/components/ui/button';
 import { CheckboxField } from '@client/components/ui/checkbox-field';
 import { Notice } from '@client/components/ui/notice';
 import { SegmentedControl } from '@client/components/ui/segmented-control';
+import { SelectField } from '@client/components/ui/select-field';
 import { TextAreaField } from '@client/components/ui/text-area-field';
 import { TextField, type TextFieldProps } from '@client/components/ui/text-field';
 import { ApiError } from '@client/lib/api-client';
@@ -15,7 +16,7 @@ import { useSubmitInspection } from '../api/inspections';
 import { useDraftAutosave, type DraftStatus } from '../hooks/use-draft-autosave';
 import { evaluateLive } from '../lib/evaluate';
 import { MAX_TRACE_POINTS, readTrace } from '../lib/profile-file';
-import { type CrosshatchMode, type FinishMode, type RecordForm, checkRecord, fieldId, pathWords, toDraft } from '../lib/record-form';
+import { type CrosshatchMode, type FinishMode, type FinishUnit, PROFILE_FILTER_CHOICES, type RecordForm, checkRecord, fieldId, pathWords, toDraft } from '../lib/record-form';
 import { BoreGrid } from './bore-grid';
 import { FailingChecksLine, InspectionResultsView } from './inspection-results';
 
@@ -149,6 +150,7 @@ export function InspectionEntryForm({ job, initial, origin, onSubmitted }: Inspe
 
   const problems = tried && !check.input ? check.order : [];
   const profilePoints = form.profile?.heights?.length;
+  const finishUnitWord = form.finishUnit === 'uin' ? 'µin' : 'µm';
 
   return (
     <div className="grid items-start gap-6 xl:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
@@ -237,12 +239,22 @@ export function InspectionEntryForm({ job, initial, origin, onSubmitted }: Inspe
           />
           {form.finishMode === 'values' && (
             <div className="grid gap-3 sm:grid-cols-3">
-              <NumberInput label="Ra (µm)" {...text('finish.raUm', form.finish.ra, (v) => update({ finish: { ...form.finish, ra: v } }))} />
-              <NumberInput label="Rk (µm), optional" {...text('finish.rkUm', form.finish.rk, (v) => update({ finish: { ...form.finish, rk: v } }))} />
-              <NumberInput label="Rpk (µm), optional" {...text('finish.rpkUm', form.finish.rpk, (v) => update({ finish: { ...form.finish, rpk: v } }))} />
-              <NumberInput label="Rvk (µm), optional" {...text('finish.rvkUm', form.finish.rvk, (v) => update({ finish: { ...form.finish, rvk: v } }))} />
+              <NumberInput label={`Ra (${finishUnitWord})`} {...text('finish.raUm', form.finish.ra, (v) => update({ finish: { ...form.finish, ra: v } }))} />
+              <NumberInput label={`Rk (${finishUnitWord}), optional`} {...text('finish.rkUm', form.finish.rk, (v) => update({ finish: { ...form.finish, rk: v } }))} />
+              <NumberInput label={`Rpk (${finishUnitWord}), optional`} {...text('finish.rpkUm', form.finish.rpk, (v) => update({ finish: { ...form.finish, rpk: v } }))} />
+              <NumberInput label={`Rvk (${finishUnitWord}), optional`} {...text('finish.rvkUm', form.finish.rvk, (v) => update({ finish: { ...form.finish, rvk: v } }))} />
               <NumberInput label="Mr1 (%), optional" {...text('finish.mr1', form.finish.mr1, (v) => update({ finish: { ...form.finish, mr1: v } }))} />
               <NumberInput label="Mr2 (%), optional" {...text('finish.mr2', form.finish.mr2, (v) => update({ finish: { ...form.finish, mr2: v } }))} />
+              <SegmentedControl<FinishUnit>
+                label="Ra, Rk, Rpk and Rvk typed in"
+                options={[
+                  { value: 'um', label: 'Typed in µm' },
+                  { value: 'uin', label: 'Typed in µin' },
+                ]}
+                value={form.finishUnit}
+                onChange={(finishUnit) => update({ finishUnit })}
+                className="self-start sm:col-span-3"
+              />
             </div>
           )}
           {form.finishMode === 'profile' && (
@@ -273,6 +285,18 @@ export function InspectionEntryForm({ job, initial, origin, onSubmitted }: Inspe
                 {(traceError || errors['finish.heightsUm']) && <p className="text-sm font-semibold text-fail">{traceError ?? errors['finish.heightsUm']}</p>}
               </div>
               <NumberInput label="Sample spacing (µm)" {...text('finish.spacingUm', form.profileSpacing, (v) => update({ profileSpacing: v }))} />
+              <SelectField
+                id={fieldId('finish.filter.cutoffMm')}
+                label="Filter"
+                value={form.profileFilter}
+                onChange={(event) => update({ profileFilter: event.target.value })}
+                options={PROFILE_FILTER_CHOICES.map((choice) => ({
+                  value: choice,
+                  label: choice === 'none' ? 'None: the trace is a roughness profile already' : `Gaussian, cut-off ${choice} mm`,
+                }))}
+                error={errors['finish.filter.cutoffMm']}
+                hint="The Gaussian filter removes the form by a least-squares line, drops half a cut-off at each end and evaluates whole cut-offs."
+              />
             </div>
           )}
         </Section>

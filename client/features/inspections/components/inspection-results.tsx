@@ -1,4 +1,4 @@
-import type { LengthUnit } from '@shared/calc';
+import { type LengthUnit, micrometresToMicroinches } from '@shared/calc';
 import type { InspectionResults as Results } from '@shared/schemas/inspection';
 import type { JobInput } from '@shared/schemas/jobs';
 import { GuidanceCaution } from '@client/components/ui/guidance-caution';
@@ -63,21 +63,36 @@ function CheckList({ rows, label, collapsePasses = false }: { rows: CheckRow[]; 
   );
 }
 
-const um = (value: number | undefined, decimals = 2) => (value === undefined ? undefined : `${formatNumber(value, decimals)} µm`);
 const pct = (value: number | undefined) => (value === undefined ? undefined : `${formatNumber(value, 1)} %`);
+/** A roughness height in micrometres with microinches beside it (1 µin = 0.0254 µm exactly). */
+const umAndMicroinches = (value: number | undefined) =>
+  value === undefined ? undefined : `${formatNumber(value, 2)} µm (${formatNumber(micrometresToMicroinches(value), 1)} µin)`;
+
+/** What was done to the finish trace, in words; undefined for entered values and for results stored before the choice. */
+export function finishFilterWords(filter: NonNullable<Results['finish']>['filter']): string | undefined {
+  if (!filter) return undefined;
+  if (filter.kind === 'none') return 'None: the trace taken as a roughness profile already';
+  const mm = (value: number) => `${formatNumber(value, 3)} mm`;
+  return (
+    `Gaussian (ISO 16610-21), cut-off ${filter.cutoffMm} mm, least-squares line removed; ` +
+    `${mm(filter.evaluationLengthMm)} evaluated (${filter.samplingLengths} × ${filter.cutoffMm} mm), ` +
+    `${mm(filter.trimmedStartMm)} and ${mm(filter.trimmedEndMm)} dropped at the ends; Rk family on the ISO 13565-1 profile`
+  );
+}
 
 /** Finish, crosshatch and deck figures as label–value pairs. */
 export function SurfaceFigures({ results, unit }: { results: Results; unit: LengthUnit }) {
   const f = results.finish;
   const items: Array<[string, string | undefined]> = [
-    ['Bore Ra', um(f?.raUm)],
-    ['Bore Rq', um(f?.rqUm)],
-    ['Bore Rz', um(f?.rzUm)],
-    ['Rk', um(f?.rkUm)],
-    ['Rpk', um(f?.rpkUm)],
-    ['Rvk', um(f?.rvkUm)],
+    ['Bore Ra', umAndMicroinches(f?.raUm)],
+    ['Bore Rq', umAndMicroinches(f?.rqUm)],
+    ['Bore Rz', umAndMicroinches(f?.rzUm)],
+    ['Rk', umAndMicroinches(f?.rkUm)],
+    ['Rpk', umAndMicroinches(f?.rpkUm)],
+    ['Rvk', umAndMicroinches(f?.rvkUm)],
     ['Mr1', pct(f?.mr1)],
     ['Mr2', pct(f?.mr2)],
+    ['Finish filter', finishFilterWords(f?.filter)],
     ['Crosshatch included angle', results.crosshatch ? `${formatNumber(results.crosshatch.includedAngleDeg, 1)}°` : undefined],
     [
       'Deck out-of-flat',

@@ -6,7 +6,7 @@
  * shape `inspectionInputSchema` checks; the same schema the server uses then
  * says what is missing or wrong, field by field.
  */
-import type { LengthUnit } from '@shared/calc';
+import { type LengthUnit, STANDARD_CUTOFFS_MM, microinchesToMicrometres } from '@shared/calc';
 import { inspectionInputSchema, type InspectionInput } from '@shared/schemas/inspection';
 import { lengthToText, numberToText, toNumber, toNumberList } from '@client/lib/numbers';
 
@@ -38,6 +38,16 @@ export function cellLabel(cylinder: number, column: GridColumn): string {
 
 export type FinishMode = 'none' | 'values' | 'profile';
 export type CrosshatchMode = 'none' | 'measured' | 'settings';
+export type FinishUnit = 'um' | 'uin';
+
+/** The trace's filter choices: none, or the Gaussian filter at a standard cut-off. */
+export const PROFILE_FILTER_CHOICES = ['none', ...STANDARD_CUTOFFS_MM.map(String)] as const;
+
+/** A finish height typed in `unit`, in micrometres (1 µin = 0.0254 µm exactly). */
+function finishUm(text: string, unit: FinishUnit): number | undefined {
+  const value = toNumber(text);
+  return value === undefined || unit === 'um' ? value : microinchesToMicrometres(value);
+}
 
 export interface ProfileTrace {
   fileName: string;
@@ -56,8 +66,12 @@ export interface RecordForm {
   deckRa: string;
   finishMode: FinishMode;
   finish: { ra: string; rk: string; rpk: string; rvk: string; mr1: string; mr2: string };
+  /** The unit Ra, Rk, Rpk and Rvk are typed in; sent in micrometres. */
+  finishUnit: FinishUnit;
   profile: ProfileTrace | null;
   profileSpacing: string;
+  /** 'none', or the Gaussian cut-off in mm as text ("0.8"). */
+  profileFilter: string;
   crosshatchMode: CrosshatchMode;
   crosshatch: { angle: string; spindleRpm: string; strokeLength: string; cyclesPerMinute: string };
   signedOffBy: string;
@@ -75,8 +89,10 @@ export function emptyRecord(unit: LengthUnit): RecordForm {
     deckRa: '',
     finishMode: 'none',
     finish: { ra: '', rk: '', rpk: '', rvk: '', mr1: '', mr2: '' },
+    finishUnit: 'um',
     profile: null,
     profileSpacing: '',
+    profileFilter: 'none',
     crosshatchMode: 'none',
     crosshatch: { angle: '', spindleRpm: '', strokeLength: '', cyclesPerMinute: '' },
     signedOffBy: '',
@@ -107,9 +123,22 @@ export function toRawInput(form: RecordForm, cylinderCount: number): Record<stri
   const f = form.finish;
   const finish =
     form.finishMode === 'values'
-      ? withoutUndefined({ mode: 'values', raUm: toNumber(f.ra), rkUm: toNumber(f.rk), rpkUm: toNumber(f.rpk), rvkUm: toNumber(f.rvk), mr1: toNumber(f.mr1), mr2: toNumber(f.mr2) })
+      ? withoutUndefined({
+          mode: 'values',
+          raUm: finishUm(f.ra, form.finishUnit),
+          rkUm: finishUm(f.rk, form.finishUnit),
+          rpkUm: finishUm(f.rpk, form.finishUnit),
+          rvkUm: finishUm(f.rvk, form.finishUnit),
+          mr1: toNumber(f.mr1),
+          mr2: toNumber(f.mr2),
+        })
       : form.finishMode === 'profile'
-        ? withoutUndefined({ mode: 'profile', heightsUm: form.profile?.heights ?? undefined, spacingUm: toNumber(form.profileSpacing) })
+        ? withoutUndefined({
+            mode: 'profile',
+            heightsUm: form.profile?.heights ?? undefined,
+            spacingUm: toNumber(form.profileSpacing),
+            filter: form.profileFilter === 'none' ? { kind: 'none' } : { kind: 'gaussian', cutoffMm: Number(form.profileFilter) },
+          })
         : undefined;
 
   const c = form.crosshatch;
@@ -203,11 +232,13 @@ export function fromDraft(draft: Record<string, unknown> | null | undefined, uni
     deckRa: text(saved.deckRa),
     finishMode: pick(saved.finishMode, ['none', 'values', 'profile'] as const, 'none'),
     finish: group(saved.finish, base.finish),
+    finishUnit: pick(saved.finishUnit, ['um', 'uin'] as const, 'um'),
     profile:
       profile && typeof profile === 'object' && typeof profile.fileName === 'string'
         ? { fileName: profile.fileName, heights: Array.isArray(profile.heights) && profile.heights.every((h) => typeof h === 'number') ? profile.heights : null }
         : null,
     profileSpacing: text(saved.profileSpacing),
+    profileFilter: pick(saved.profileFilter, PROFILE_FILTER_CHOICES, 'none'),
     crosshatchMode: pick(saved.crosshatchMode, ['none', 'measured', 'settings'] as const, 'none'),
     crosshatch: group(saved.crosshatch, base.crosshatch),
     signedOffBy: text(saved.signedOffBy),
@@ -241,6 +272,8 @@ export function fromInput(input: InspectionInput): RecordForm {
     form.finishMode = 'profile';
     form.profile = { fileName: 'the trace sent with the last version', heights: input.finish.heightsUm };
     form.profileSpacing = numberToText(input.finish.spacingUm);
+    const filter = input.finish.filter;
+    form.profileFilter = filter?.kind === 'gaussian' ? String(filter.cutoffMm) : 'none';
   }
   if (input.crosshatch?.mode === 'measured') {
     form.crosshatchMode = 'measured';
@@ -277,6 +310,8 @@ const FIELD_WORDS: Record<string, string> = {
   'finish.mr2': 'Mr2',
   'finish.heightsUm': 'profile trace',
   'finish.spacingUm': 'sample spacing',
+  'finish.filter': 'trace filter',
+  'finish.filter.cutoffMm': 'cut-off',
   'crosshatch.includedAngleDeg': 'crosshatch angle',
   'crosshatch.spindleRpm': 'spindle speed',
   'crosshatch.strokeLength': 'stroke length',

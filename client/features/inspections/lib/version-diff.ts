@@ -35,7 +35,9 @@ function entries(version: InspectionVersion): Entry[] {
   list.push(['deck', 'Straightedge readings', input.deck ? input.deck.readings.map((r) => len(r)).join(', ') : '—']);
   list.push(['deck-ra', 'Deck Ra', um(input.deck?.raUm)]);
   if (input.finish?.mode === 'profile') {
-    list.push(['finish', 'Bore finish', `from a trace of ${input.finish.heightsUm.length.toLocaleString('en-US')} heights at ${numberToText(input.finish.spacingUm)} µm`]);
+    const filter = input.finish.filter;
+    const filterWords = filter?.kind === 'gaussian' ? `Gaussian filter, cut-off ${numberToText(filter.cutoffMm)} mm` : 'no filter';
+    list.push(['finish', 'Bore finish', `from a trace of ${input.finish.heightsUm.length.toLocaleString('en-US')} heights at ${numberToText(input.finish.spacingUm)} µm, ${filterWords}`]);
   } else if (input.finish?.mode === 'values') {
     const f = input.finish;
     list.push(['finish', 'Bore finish', 'entered values']);
