@@ -104,6 +104,40 @@ describe('Gaussian profile filter (ISO 16610-21)', () => {
     expect(result.filter.method.length).toBeGreaterThan(20);
   });
 
+  it('when the mean line is worked out by a direct weighted sum, then it matches the filter at the first, middle and last evaluated heights', () => {
+    // A repeatable irregular trace on a tilt; 0.25 mm cut-off at 1 µm, 2,000 heights.
+    let state = 7;
+    const random = () => ((state = (state * 16807) % 2147483647) / 2147483647) - 0.5;
+    const heights = Array.from({ length: N }, (_, j) => 3 * random() + Math.sin(j / 40) + 0.004 * j);
+    const profiles = roughnessProfiles(heights, SPACING, CUTOFF_MM);
+    // Levelled by the least-squares line (derived: slope = Σ(x − x̄)(z − z̄) / Σ(x − x̄)²).
+    const meanX = (N - 1) / 2;
+    const meanZ = heights.reduce((a, b) => a + b, 0) / N;
+    let sxz = 0;
+    let sxx = 0;
+    heights.forEach((z, x) => {
+      sxz += (x - meanX) * (z - meanZ);
+      sxx += (x - meanX) ** 2;
+    });
+    const level = heights.map((z, x) => z - meanZ - (sxz / sxx) * (x - meanX));
+    // source: ISO 16610-21 weighting s(x) = (1/(αλc))·exp(−π(x/(αλc))²), summed over the heights within ±λc and divided by the weights used
+    const meanLine = (i: number) => {
+      let sum = 0;
+      let weights = 0;
+      for (let j = Math.max(0, i - CUTOFF_UM); j <= Math.min(N - 1, i + CUTOFF_UM); j++) {
+        const w = Math.exp(-Math.PI * ((j - i) / (GAUSSIAN_ALPHA * CUTOFF_UM)) ** 2);
+        sum += w * level[j];
+        weights += w;
+      }
+      return sum / weights;
+    };
+    const last = profiles.roughness.length - 1;
+    for (const k of [0, Math.floor(last / 2), last]) {
+      const i = profiles.start + k;
+      expectNear(profiles.roughness[k], level[i] - meanLine(i), 1e-9); // derived: direct sum of the same weights (checks the FFT and its alignment)
+    }
+  });
+
   it('when a plateau carries narrow deep valleys, then the ISO 13565-1 mean line sits much nearer the plateau than the Gaussian one', () => {
     // Flat plateau at 0 with a valley 5 µm deep over 1 in 10 heights, every 20 µm (far shorter than the cut-off).
     const D = 5;
