@@ -67,9 +67,22 @@ export function methodLines(results: InspectionResults): Array<{ label: string; 
   }
   const filter = r.finish?.filter;
   if (filter !== undefined && filter !== null) {
-    const words = typeof filter === 'string' ? filter : typeof filter === 'object' && 'words' in filter ? String((filter as { words: unknown }).words) : JSON.stringify(filter);
-    lines.push({ label: 'Roughness filter', text: words });
+    lines.push({ label: 'Roughness filter', text: filterWords(filter) });
   }
   for (const statement of r.statements ?? []) lines.push({ label: 'Statement', text: statement });
   return lines;
+}
+
+/** A roughness filter in words, from whatever the results carry: its own words, a plain string, or the filter's figures. */
+function filterWords(filter: unknown): string {
+  if (typeof filter === 'string') return filter;
+  if (typeof filter !== 'object' || filter === null) return String(filter);
+  const f = filter as { words?: string; kind?: string; cutoffMm?: number; evaluationLengthMm?: number; samplingLengths?: number };
+  if (f.words) return f.words;
+  if (f.kind === 'none') return 'none: the trace taken as a roughness profile already';
+  if (f.cutoffMm !== undefined) {
+    const length = f.evaluationLengthMm !== undefined ? `, ${Number(f.evaluationLengthMm.toFixed(3))} mm evaluated${f.samplingLengths !== undefined ? ` (${f.samplingLengths} sampling lengths)` : ''}` : '';
+    return `${f.kind === 'gaussian' || f.kind === undefined ? 'Gaussian' : f.kind}, cut-off ${f.cutoffMm} mm${length}`;
+  }
+  return JSON.stringify(filter);
 }

@@ -19,13 +19,16 @@ export interface CheckFigures {
   value: string;
   /** The limit as a condition, e.g. "≤ 0.0005 in", "≥ 0.0025 in", "40.0° – 50.0°". */
   allowed: string;
+  /** False when the limit's number could not be found and `allowed` is the check's own text. */
+  matched: boolean;
 }
 
 type Bound = { kind: 'max' | 'min'; limit: number } | { kind: 'range'; min: number; max: number };
 type Scale = { suffix: string; decimals: number };
 
+/** The job's limits; only the unit is required (a spec with fewer limits simply finds fewer). */
 type SpecPart = Partial<Pick<JobInput, 'deckRaMaxUm' | 'finishRaMaxUm' | 'finishRkMaxUm' | 'finishRpkMaxUm' | 'finishRvkMaxUm' | 'crosshatchMinDeg' | 'crosshatchMaxDeg'>> &
-  Parameters<typeof boreSpecFor>[0];
+  Partial<Parameters<typeof boreSpecFor>[0]> & { unit: LengthUnit };
 
 export interface CheckContext {
   spec: SpecPart;
@@ -46,7 +49,8 @@ const FINISH_LIMITS: Record<string, keyof SpecPart> = {
 function boundOf(check: LimitCheck & { limit?: string }, ctx: CheckContext): { bound: Bound; scale: Scale } | undefined {
   const length: Scale = { suffix: ` ${ctx.unit}`, decimals: lengthDecimals(ctx.unit, ctx.resolution) };
   const micro: Scale = { suffix: ' µm', decimals: 2 };
-  const bore = boreSpecFor(ctx.spec, ctx.unit);
+  // boreSpecFor reads only the length limits and the unit, all of which may be absent here but the unit.
+  const bore = boreSpecFor(ctx.spec as Parameters<typeof boreSpecFor>[0], ctx.unit);
   const what = check.what;
   const key = check.limit ?? '';
   const max = (limit: number | undefined, scale: Scale) => (limit === undefined ? undefined : { bound: { kind: 'max' as const, limit }, scale });
@@ -76,9 +80,9 @@ export function checkFigures(check: LimitCheck, ctx: CheckContext): CheckFigures
       const decimals = lengthDecimals(ctx.unit, ctx.resolution);
       const ends = size ? [Number(size[1]) - Number(size[2]), Number(size[1]) + Number(size[2])] : [];
       const needed = Math.max(decimals, ...ends.map((end) => figureAgainstLimit(check.value, end, decimals).decimals));
-      return { value: `${figureAgainstLimit(check.value, check.value, needed).value} ${ctx.unit}`, allowed: check.allowed };
+      return { value: `${figureAgainstLimit(check.value, check.value, needed).value} ${ctx.unit}`, allowed: check.allowed, matched: size !== null };
     }
-    return { value: String(Number(check.value.toFixed(6))), allowed: check.allowed };
+    return { value: String(Number(check.value.toFixed(6))), allowed: check.allowed, matched: false };
   }
   const { bound, scale } = found;
   const withUnit = (text: string) => `${text}${scale.suffix}`;
@@ -87,8 +91,8 @@ export function checkFigures(check: LimitCheck, ctx: CheckContext): CheckFigures
     const high = figureAgainstLimit(check.value, bound.max, scale.decimals);
     const decimals = Math.max(low.decimals, high.decimals);
     const at = (n: number) => figureAgainstLimit(n, n, decimals).value;
-    return { value: withUnit(at(check.value)), allowed: `${withUnit(at(bound.min))} – ${withUnit(at(bound.max))}` };
+    return { value: withUnit(at(check.value)), allowed: `${withUnit(at(bound.min))} – ${withUnit(at(bound.max))}`, matched: true };
   }
   const pair = figureAgainstLimit(check.value, bound.limit, scale.decimals);
-  return { value: withUnit(pair.value), allowed: `${bound.kind === 'max' ? '≤' : '≥'} ${withUnit(pair.limit)}` };
+  return { value: withUnit(pair.value), allowed: `${bound.kind === 'max' ? '≤' : '≥'} ${withUnit(pair.limit)}`, matched: true };
 }

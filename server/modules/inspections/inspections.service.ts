@@ -46,7 +46,10 @@ export async function inspectionView(db: Database, user: User, jobId: string) {
   // A record with a check that does not conform is never accepted by the window; once the window has ended it simply waits for the builder.
   const autoAccept = open ? recordConforms(open.results as InspectionResults) : null;
   const reviewWindowEnded = open ? open.reviewDueAt.getTime() <= Date.now() : false;
-  return { versions: rows.map(toVersion), draft, reviewDueAt: open?.reviewDueAt.toISOString() ?? null, autoAccept, reviewWindowEnded };
+  // Who did the work, for the certificate page (the same lines as the PDF).
+  const shopPlace = await placeOfShop(db, parties.job.awardedBidId);
+  const shop = parties.shop ? { name: parties.shop.name, place: shopPlace } : null;
+  return { versions: rows.map(toVersion), draft, reviewDueAt: open?.reviewDueAt.toISOString() ?? null, autoAccept, reviewWindowEnded, shop };
 }
 
 export async function saveDraft(db: Database, user: User, jobId: string, draft: Record<string, unknown>) {
@@ -230,22 +233,27 @@ export function inspectionTaskHandlers(deps: InspectionDeps) {
   };
 }
 
+/** "City, Region" of the shop whose bid was accepted; empty before an award. */
+async function placeOfShop(db: Executor, awardedBidId: string | null): Promise<string> {
+  if (!awardedBidId) return '';
+  const { rows } = await db.execute<{ city: string; region: string }>(sql`SELECT s.city, s.region FROM bids b JOIN shops s ON s.id = b.shop_id WHERE b.id = ${awardedBidId}`);
+  return rows[0] ? `${rows[0].city}, ${rows[0].region}` : '';
+}
+
 /** The PDF certificate of one version, for the builder, the shop doing the work and admins. */
 export async function certificateFor(db: Database, user: User, jobId: string, version: number): Promise<Buffer> {
   const parties = await jobParties(db, jobId);
   assertCanSeeWork(parties, user);
   const [row] = await db.select().from(inspectionRecords).where(and(eq(inspectionRecords.jobId, jobId), eq(inspectionRecords.version, version)));
   if (!row) throw new AppError('not_found', 'No inspection record with that version.', 404);
-  const [shop] = parties.job.awardedBidId
-    ? await db.execute<{ city: string; region: string }>(sql`SELECT s.city, s.region FROM bids b JOIN shops s ON s.id = b.shop_id WHERE b.id = ${parties.job.awardedBidId}`).then((r) => r.rows)
-    : [];
+  const shopPlace = await placeOfShop(db, parties.job.awardedBidId);
   return certificatePdf({
     jobTitle: parties.job.title,
     jobId,
     engineFamily: parties.job.engineFamily,
     builderName: parties.builder.displayName,
     shopName: parties.shop?.name ?? '',
-    shopPlace: shop ? `${shop.city}, ${shop.region}` : '',
+    shopPlace,
     version: row.version,
     status: row.status,
     submittedAt: row.submittedAt,

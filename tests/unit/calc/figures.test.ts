@@ -1,5 +1,6 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
+import { checkFigures } from '../../../shared/calc/check-figures';
 import { decimalsOf, figureAgainstLimit, fixed, lengthAgainstLimit, lengthDecimals } from '../../../shared/calc/figures';
 
 describe('a figure printed beside its limit', () => {
@@ -53,5 +54,16 @@ describe('a figure printed beside its limit', () => {
         expect(pair.value).not.toBe(pair.limit);
       }),
     );
+  });
+
+  it('when a check is printed for the record view or the certificate, then its figure and limit show the verdict', () => {
+    const ctx = { spec: { unit: 'mm' as const, maxTaper: 0.0127, finishRaMaxUm: 0.6, crosshatchMinDeg: 40, crosshatchMaxDeg: 50 }, results: { deck: { outOfFlat: 0.05, limit: 0.0508, pass: true, limitSource: 'table' } }, unit: 'mm' as const };
+    // derived: 0.012704 mm over a 0.0127 mm limit needs six decimals to show it.
+    expect(checkFigures({ what: 'cylinder 3 taper', value: 0.012704, allowed: '≤ 0.013 mm', pass: false }, ctx)).toEqual({ value: '0.012704 mm', allowed: '≤ 0.012700 mm', matched: true });
+    expect(checkFigures({ what: 'bore Ra', value: 0.6004, allowed: '≤ 0.6 µm', pass: false }, ctx)).toMatchObject({ value: '0.6004 µm', allowed: '≤ 0.6000 µm' });
+    expect(checkFigures({ what: 'crosshatch included angle', value: 50.04, allowed: '40° – 50°', pass: false }, ctx)).toMatchObject({ value: '50.04°', allowed: '40.00° – 50.00°' });
+    expect(checkFigures({ what: 'deck out-of-flat', value: 0.05, allowed: '≤ 0.051 mm', pass: true }, ctx)).toMatchObject({ value: '0.050 mm', allowed: '≤ 0.051 mm' });
+    // A check it does not know keeps its own limit text.
+    expect(checkFigures({ what: 'something new', value: 1.5, allowed: 'as agreed', pass: true }, ctx)).toEqual({ value: '1.5', allowed: 'as agreed', matched: false });
   });
 });

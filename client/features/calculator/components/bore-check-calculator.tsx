@@ -202,8 +202,9 @@ export function BoreCheckCalculator({ unit }: { unit: LengthUnit }) {
       intro={
         <>
           Bore gauge readings at the top, middle and bottom of ring travel, in the thrust direction and along the crank (axial). Taper is
-          the larger change from top to bottom in either direction; out-of-round is the largest thrust–axial difference at one depth (a
-          two-point figure: for a plain oval, a roundness zone as drawing standards define it is half of this).
+          on the diameter: the largest minus the smallest reading over the three depths in one direction, wherever along the bore they
+          fall, and the larger of the two directions counts. Out-of-round is the largest thrust–axial difference at one depth (a
+          two-point figure on the diameter: for a plain oval, a roundness zone as drawing standards define it is half of this).
         </>
       }
     >

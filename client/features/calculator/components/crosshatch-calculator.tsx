@@ -123,7 +123,7 @@ export function CrosshatchCalculator({ unit }: { unit: LengthUnit }) {
               {field('bore', `Bore (${unit})`)}
               {field('spindleRpm', 'Spindle speed (rev/min)')}
               {field('strokeLength', `Stroke length of the hone (${unit})`)}
-              {field('cyclesPerMinute', 'Cycles per minute', 'Full up-and-down cycles.')}
+              {field('cyclesPerMinute', 'Cycles per minute', 'Full up-and-down cycles: one stroke up and one down count as one. Counting single strokes gives about double the angle.')}
             </FieldGrid>
             <div className="border-t border-slate-200 pt-4">
               <h3 className="mb-2 font-bold">The other way round: cycles for a target angle</h3>
@@ -144,7 +144,7 @@ export function CrosshatchCalculator({ unit }: { unit: LengthUnit }) {
             {angle.result ? (
               <div className="flex flex-col gap-3" data-testid="crosshatch-angle-result">
                 <div className="flex flex-wrap items-end justify-between gap-3">
-                  <HeadlineFigure label="Included angle" value={`${formatNumber(angle.result.includedAngleDeg, 1)}°`} />
+                  <HeadlineFigure label="Included angle, computed from settings (mid-stroke)" value={`${formatNumber(angle.result.includedAngleDeg, 1)}°`} />
                   <CrosshatchSketch includedAngleDeg={angle.result.includedAngleDeg} />
                 </div>
                 <FigureList

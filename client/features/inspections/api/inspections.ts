@@ -14,6 +14,8 @@ export interface InspectionView {
   autoAccept?: boolean | null;
   /** True once the window has ended on a version still waiting (one that does not conform waits for the builder). */
   reviewWindowEnded?: boolean;
+  /** The shop doing the work, as the certificate names it. */
+  shop?: { name: string; place: string } | null;
 }
 
 export const inspectionQueries = {

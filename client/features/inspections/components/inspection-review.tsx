@@ -114,6 +114,23 @@ function VersionBody({ version, job }: { version: InspectionVersion; job: JobDet
         />
         <div className="flex min-w-0 flex-col gap-5">
           <BoreSizeChart cylinders={version.input.cylinders} unit={unit} targetBore={target} />
+          <section aria-label="How the figures are defined" className="flex flex-col gap-1 text-sm" data-testid="figure-definitions">
+            <h4 className="font-bold">How the figures are defined</h4>
+            <p>
+              <strong>Taper</strong>: on the diameter, the largest minus the smallest reading over the three depths in one direction; the larger direction
+              counts.
+            </p>
+            <p>
+              <strong>Out-of-round</strong>: two-point, the difference of the thrust and axial diameters at one depth; the largest depth counts.
+            </p>
+            {version.input.crosshatch?.mode === 'settings' && version.results.crosshatch && (
+              <p data-testid="crosshatch-computed">
+                <strong>Crosshatch</strong>: {version.results.crosshatch.includedAngleDeg.toFixed(1)}° included angle computed from settings (mid-stroke), not
+                measured: {version.input.crosshatch.spindleRpm} rpm, {version.input.crosshatch.strokeLength} {unit} stroke, {version.input.crosshatch.cyclesPerMinute}{' '}
+                full up-and-down cycles per minute.
+              </p>
+            )}
+          </section>
           <section aria-label="Conditions and sign-off" className="flex flex-col gap-2">
             <h4 className="font-bold">Conditions and sign-off</h4>
             <Conditions version={version} />

@@ -6,7 +6,7 @@
  * are judged: each finished cylinder, the deck, the finish and the crosshatch
  * as soon as each is whole. The overall verdict waits for the full record.
  */
-import { type BoreSpec, type CylinderInspection, type LengthUnit, CalculationError, boreSpecFor, evaluateInspection } from '@shared/calc';
+import { type BoreSpec, type CylinderInspection, type LengthUnit, CalculationError, boreSpecFor, checkFigures, evaluateInspection, lengthAgainstLimit } from '@shared/calc';
 import type { InspectionInput, InspectionResults, LimitCheck } from '@shared/schemas/inspection';
 import type { JobInput } from '@shared/schemas/jobs';
 import { formatLength, formatNumber } from '@client/lib/numbers';
@@ -67,27 +67,29 @@ export const boreLimits = (spec: JobInput, unit: LengthUnit): BoreSpec => boreSp
 /** Each limit of the job judged for one cylinder, with the figure and the limit in the reason. */
 export function cylinderChecks(cylinder: CylinderInspection, index: number, limits: BoreSpec, unit: LengthUnit): CheckRow[] {
   const L = (value: number) => formatLength(value, unit);
+  // A figure beside its limit: enough decimals that the two print differently whenever the verdict depends on it.
+  const pair = (value: number, limit: number) => lengthAgainstLimit(value, limit, unit);
   const failed = (limit: string) => cylinder.failures.some((f) => f.limit === limit);
   const rows: CheckRow[] = [];
   const name = `Cylinder ${index + 1}`;
   if (limits.maxTaper !== undefined) {
     const pass = !failed('maxTaper');
+    const f = pair(cylinder.taper, limits.maxTaper);
     rows.push({
       key: `${index}-taper`,
       what: `${name} taper`,
       pass,
-      reason: pass ? `Taper ${L(cylinder.taper)}, within the ${L(limits.maxTaper)} limit.` : `Taper ${L(cylinder.taper)} is over the ${L(limits.maxTaper)} limit.`,
+      reason: pass ? `Taper ${f.value}, within the ${f.limit} limit.` : `Taper ${f.value} is over the ${f.limit} limit.`,
     });
   }
   if (limits.maxOutOfRound !== undefined) {
     const pass = !failed('maxOutOfRound');
+    const f = pair(cylinder.outOfRound, limits.maxOutOfRound);
     rows.push({
       key: `${index}-oor`,
       what: `${name} out-of-round`,
       pass,
-      reason: pass
-        ? `Out-of-round ${L(cylinder.outOfRound)}, within the ${L(limits.maxOutOfRound)} limit.`
-        : `Out-of-round ${L(cylinder.outOfRound)} is over the ${L(limits.maxOutOfRound)} limit.`,
+      reason: pass ? `Out-of-round ${f.value}, within the ${f.limit} limit.` : `Out-of-round ${f.value} is over the ${f.limit} limit.`,
     });
   }
   if (limits.clearanceMin !== undefined || limits.clearanceMax !== undefined) {
@@ -100,11 +102,16 @@ export function cylinderChecks(cylinder: CylinderInspection, index: number, limi
     if (cylinder.clearance === undefined) {
       rows.push({ key: `${index}-clearance`, what: `${name} piston clearance`, pass: null, reason: 'Not judged: no piston diameter entered.' });
     } else if (failed('clearanceMin')) {
-      rows.push({ key: `${index}-clearance`, what: `${name} piston clearance`, pass: false, reason: `Clearance ${L(cylinder.clearance)} is under the ${L(limits.clearanceMin!)} minimum.` });
+      const f = pair(cylinder.clearance, limits.clearanceMin!);
+      rows.push({ key: `${index}-clearance`, what: `${name} piston clearance`, pass: false, reason: `Clearance ${f.value} is under the ${f.limit} minimum.` });
     } else if (failed('clearanceMax')) {
-      rows.push({ key: `${index}-clearance`, what: `${name} piston clearance`, pass: false, reason: `Clearance ${L(cylinder.clearance)} is over the ${L(limits.clearanceMax!)} maximum.` });
+      const f = pair(cylinder.clearance, limits.clearanceMax!);
+      rows.push({ key: `${index}-clearance`, what: `${name} piston clearance`, pass: false, reason: `Clearance ${f.value} is over the ${f.limit} maximum.` });
     } else {
-      rows.push({ key: `${index}-clearance`, what: `${name} piston clearance`, pass: true, reason: `Clearance ${L(cylinder.clearance)}, within ${range}.` });
+      // Within the range: as many decimals as the nearer end needs to show the figure is not on it.
+      const ends = [limits.clearanceMin, limits.clearanceMax].filter((v): v is number => v !== undefined).map((end) => pair(cylinder.clearance!, end));
+      const shown = ends.reduce((longest, f) => (f.value.length > longest.length ? f.value : longest), L(cylinder.clearance));
+      rows.push({ key: `${index}-clearance`, what: `${name} piston clearance`, pass: true, reason: `Clearance ${shown}, within ${range}.` });
     }
   }
   const size = cylinder.failures.find((f) => f.limit === 'targetBore');
@@ -119,21 +126,42 @@ export function cylinderChecks(cylinder: CylinderInspection, index: number, limi
   return rows;
 }
 
-/** A figure of a non-bore check in its own unit. */
+/** A figure of a non-bore check in its own unit, when its limit cannot be found. */
 function checkFigure(check: LimitCheck, unit: LengthUnit): string {
   if (check.what === 'deck out-of-flat') return formatLength(check.value, unit);
   if (check.what.includes('angle')) return `${formatNumber(check.value, 1)}°`;
   return `${formatNumber(check.value, 2)} µm`;
 }
 
-/** The deck, finish and crosshatch checks, from the results' own list. */
-export function otherChecks(results: InspectionResults, unit: LengthUnit): CheckRow[] {
+/** The first number in a check's limit text ("≤ 0.6 µm" → 0.6, "40° – 50°" → [40, 50]); finish and angle limits are written there in full. */
+const numbersIn = (text: string) => Array.from(text.matchAll(/-?\d+(?:\.\d+)?/g), (m) => Number(m[0]));
+
+/**
+ * The deck, finish and crosshatch checks, from the results' own list, each
+ * figure printed beside its limit with enough decimals to show the verdict
+ * (shared/calc/check-figures.ts). Without the job's spec, the finish and angle
+ * limits are read back from the check's own text, where they are exact.
+ */
+export function otherChecks(results: InspectionResults, unit: LengthUnit, spec?: JobInput): CheckRow[] {
   return results.checks
     .filter((check) => !/^cylinder \d+ /.test(check.what))
-    .map((check) => ({
-      key: check.what,
-      what: capitalise(check.what),
-      pass: check.pass,
-      reason: `${checkFigure(check, unit)}; allowed ${check.allowed}.${check.pass ? '' : ' Outside the limit.'}`,
-    }));
+    .map((check) => {
+      const [first, second] = numbersIn(check.allowed);
+      const fromText = {
+        unit,
+        ...(check.what === 'deck Ra' ? { deckRaMaxUm: first } : {}),
+        ...(check.what === 'bore Ra' ? { finishRaMaxUm: first } : {}),
+        ...(check.what === 'bore Rk' ? { finishRkMaxUm: first } : {}),
+        ...(check.what === 'bore Rpk' ? { finishRpkMaxUm: first } : {}),
+        ...(check.what === 'bore Rvk' ? { finishRvkMaxUm: first } : {}),
+        ...(check.what === 'crosshatch included angle' && second !== undefined ? { crosshatchMinDeg: first, crosshatchMaxDeg: second } : {}),
+      };
+      const figures = checkFigures(check, { spec: spec ?? fromText, results, unit });
+      return {
+        key: check.what,
+        what: capitalise(check.what),
+        pass: check.pass,
+        reason: `${figures.matched ? figures.value : checkFigure(check, unit)}; allowed ${figures.allowed}.${check.pass ? '' : ' Outside the limit.'}`,
+      };
+    });
 }
