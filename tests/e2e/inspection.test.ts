@@ -138,6 +138,11 @@ describe('the inspection record, from block received to payment released, in a r
     await shopPage.keyboard.press('Tab');
     await shopPage.keyboard.type('21');
     await shopPage.keyboard.press('Tab');
+    // The temperature's scale (°C chosen), then the optional uncertainty, then the torque plate.
+    await expect(focusedName(shopPage)).resolves.toBe('°C');
+    await shopPage.keyboard.press('Tab');
+    await expect(focusedName(shopPage)).resolves.toMatch(/^Measurement uncertainty U \(in\), optional/);
+    await shopPage.keyboard.press('Tab');
     await expect(focusedName(shopPage)).resolves.toBe('Torque plate fitted while measuring');
     await shopPage.keyboard.press('Space');
     await shopPage.keyboard.press('Tab');
@@ -159,7 +164,8 @@ describe('the inspection record, from block received to payment released, in a r
     await expect(shopPage.evaluate(() => document.activeElement?.id)).resolves.toBe('field-deck-readings');
 
     // The live results flag cylinder 5's taper with the reason.
-    await results.getByText('Taper 0.0007 in is over the 0.0005 in limit.').waitFor();
+    // (the taper is judged at 20 °C; 0.0007 in read at 21 °C is 0.00070 in to five places)
+    await results.getByText('0.00070 in; allowed ≤ 0.0005 in').waitFor();
     await expect(results.getByTestId('result-cylinder-5').textContent()).resolves.toContain('Fail');
     await expect(results.getByTestId('inspection-verdict').textContent()).resolves.toContain('1 check fails so far');
 
@@ -185,8 +191,8 @@ describe('the inspection record, from block received to payment released, in a r
     await shopPage.keyboard.type(FIXED_READING);
     await shopPage.keyboard.press('Enter');
     await expect(focusedName(shopPage)).resolves.toBe('Cylinder 6 bottom thrust');
-    await results.getByText('Taper 0.0007 in is over the 0.0005 in limit.').waitFor({ state: 'detached' });
-    await expect(results.getByTestId('result-cylinder-5').textContent()).resolves.toContain('Pass');
+    await results.getByText('0.00070 in; allowed ≤ 0.0005 in').waitFor({ state: 'detached' });
+    await expect(results.getByTestId('result-cylinder-5').textContent()).resolves.toContain('Conforms');
     await expect(record.getByLabel('Cylinder 2 top thrust').inputValue()).resolves.toBe(readings[1][0]);
 
     // Deck, finish, crosshatch and sign-off, still by keyboard.
@@ -206,7 +212,7 @@ describe('the inspection record, from block received to payment released, in a r
     await shopPage.keyboard.type('45');
     await tabUntil(shopPage, (s) => s.id === 'field-signedOffBy');
     await shopPage.keyboard.type('Rosa Okafor');
-    await results.getByText('Every check passes').waitFor();
+    await results.getByText('Pass: every limit judged').waitFor();
     await expect(results.getByTestId('surface-figures').textContent()).resolves.toContain('45.0°');
 
     // The draft saves itself and comes back after a reload.
@@ -216,7 +222,7 @@ describe('the inspection record, from block received to payment released, in a r
     await expect(record.getByLabel('Cylinder 5 bottom thrust').inputValue()).resolves.toBe(FIXED_READING);
     await expect(record.getByLabel('Cylinder 8 piston diameter').inputValue()).resolves.toBe(PISTON);
     await expect(record.getByLabel('Signed off by (your name)').inputValue()).resolves.toBe('Rosa Okafor');
-    await results.getByText('Every check passes').waitFor();
+    await results.getByText('Pass: every limit judged').waitFor();
     await shopPage.screenshot({ path: join(artifactsDir, 'inspection-entry.png'), fullPage: true });
 
     // Submit with the keyboard.
@@ -239,7 +245,7 @@ describe('the inspection record, from block received to payment released, in a r
     const review = builderPage.getByTestId('inspection-review');
     await review.waitFor();
     await builderPage.getByText('Status: Results to review', { exact: true }).waitFor();
-    await expect(review.getByTestId('inspection-verdict').textContent()).resolves.toContain('Every check passes');
+    await expect(review.getByTestId('inspection-verdict').textContent()).resolves.toContain('Pass: every limit judged');
     await expect(review.getByTestId('review-due').textContent()).resolves.toMatch(/accepted automatically on /);
     await expect(review.getByTestId('inspection-conditions').textContent()).resolves.toContain('Rosa Okafor');
     await review.getByTestId('bore-size-chart').locator('svg.recharts-surface').first().waitFor();
@@ -308,6 +314,8 @@ describe('the inspection record, from block received to payment released, in a r
     const first: InspectionInput = {
       conditions: { unit: 'in', gaugeResolution: 0.0001, temperatureC: 20, torquePlate: false },
       cylinders,
+      // The job limits the crosshatch angle: without it the record would be "not fully judged".
+      crosshatch: { mode: 'measured', includedAngleDeg: 45 },
       signedOffBy: 'Rosa Okafor',
       notes: '',
     };
@@ -317,7 +325,7 @@ describe('the inspection record, from block received to payment released, in a r
     const builderPage = await pageFor(builder.email, `/jobs/${job.id}`);
     const review = builderPage.getByTestId('inspection-review');
     await expect(review.getByTestId('inspection-verdict').textContent()).resolves.toContain('1 check fails');
-    await review.getByText('Taper 0.0008 in is over the 0.0005 in limit.').waitFor();
+    await review.getByText('0.00080 in; allowed ≤ 0.0005 in').waitFor();
     await review.getByRole('button', { name: 'Reject with reasons' }).click();
     const dialog = builderPage.getByRole('dialog', { name: 'Reject version 1?' });
     await dialog.getByRole('button', { name: 'Reject and send the reasons' }).click();
@@ -364,7 +372,7 @@ describe('the inspection record, from block received to payment released, in a r
     await expect(record.getByLabel('Cylinder 8 piston diameter').inputValue()).resolves.toBe('4.0280');
     await record.getByLabel('Cylinder 3 bottom thrust').fill('4.0312');
     await record.getByLabel('Cylinder 3 bottom axial').fill('4.0311');
-    await shopPage.getByRole('complementary', { name: 'Results as you type' }).getByText('Every check passes').waitFor();
+    await shopPage.getByRole('complementary', { name: 'Results as you type' }).getByText('Pass: every limit judged').waitFor();
     await shopPage.setViewportSize({ width: 768, height: 1024 });
     await record.getByText('Every check so far passes.').waitFor();
     await shopPage.screenshot({ path: join(artifactsDir, 'inspection-entry-768.png'), fullPage: true });

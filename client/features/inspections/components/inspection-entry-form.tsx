@@ -188,8 +188,32 @@ export function InspectionEntryForm({ job, initial, origin, onSubmitted }: Inspe
           </div>
           <div className="grid gap-3 sm:grid-cols-2">
             <NumberInput label={`Gauge resolution (${unitShort})`} {...text('conditions.gaugeResolution', form.gaugeResolution, (v) => update({ gaugeResolution: v }))} />
-            <NumberInput label="Temperature at measurement (°C)" {...text('conditions.temperatureC', form.temperatureC, (v) => update({ temperatureC: v }))} />
+            <div className="flex flex-col gap-1">
+              <NumberInput
+                label={`Temperature at measurement (°${form.temperatureScale ?? 'C'})`}
+                {...text('conditions.temperatureC', form.temperatureC, (v) => update({ temperatureC: v }))}
+                errors={{ ...errors, 'conditions.temperatureC': errors['conditions.temperatureC'] ?? errors['conditions.temperatureF'] }}
+              />
+              <SegmentedControl<'C' | 'F'>
+                label="Temperature scale"
+                options={[
+                  { value: 'C', label: '°C' },
+                  { value: 'F', label: '°F' },
+                ]}
+                value={form.temperatureScale ?? 'C'}
+                onChange={(temperatureScale) => update({ temperatureScale })}
+                className="self-start"
+              />
+            </div>
+            <NumberInput
+              label={`Measurement uncertainty U (${unitShort}), optional`}
+              hint="Leave empty to use the gauge resolution, which is only a lower bound on the uncertainty."
+              {...text('conditions.uncertainty', form.uncertainty ?? '', (v) => update({ uncertainty: v }))}
+            />
           </div>
+          <p className="text-sm text-ink-soft">
+            Readings are corrected to 20 °C (ISO 1) with the block’s and the pistons’ expansion coefficients before they are judged; both values are kept.
+          </p>
           <CheckboxField
             id={fieldId('conditions.torquePlate')}
             label="Torque plate fitted while measuring"

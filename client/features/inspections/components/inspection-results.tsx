@@ -5,6 +5,7 @@ import { GuidanceCaution } from '@client/components/ui/guidance-caution';
 import { cn } from '@client/lib/cn';
 import { LENGTH_DECIMALS, formatChange, formatLength, formatNumber } from '@client/lib/numbers';
 import { type CheckRow, boreLimits, cylinderChecks, otherChecks } from '../lib/evaluate';
+import { RecordJudgement, RecordVerdictMark, VerdictMark } from './record-judgement';
 
 export function PassMark({ pass, passText = 'Pass', failText = 'Fail' }: { pass: boolean | null; passText?: string; failText?: string }) {
   if (pass === null) {
@@ -188,11 +189,28 @@ export function InspectionResultsView({
   const failing = [...boreRows, ...surfaceRows].filter((row) => row.pass === false).length;
   const decimals = LENGTH_DECIMALS[unit];
   const figure = (value: number | undefined) => (value === undefined ? '—' : formatNumber(value, decimals));
+  // Records judged with verdicts: a cylinder's verdict is its worst check's, and its clearance the thrust-axis range that was judged.
+  const checksOf = (index: number) => results?.checks.filter((check) => check.cylinder === index + 1) ?? [];
+  const cylinderVerdict = (index: number) => {
+    const verdicts = checksOf(index).map((check) => check.verdict);
+    return verdicts.includes('fails') ? 'fails' : verdicts.includes('not-proven') ? 'not-proven' : 'conforms';
+  };
+  const thrustClearance = (index: number) => {
+    if (!results?.verdict) return undefined;
+    const low = checksOf(index).find((check) => check.limit === 'clearanceMin')?.value;
+    const high = checksOf(index).find((check) => check.limit === 'clearanceMax')?.value;
+    if (low === undefined && high === undefined) return '—';
+    return [low, high].filter((v): v is number => v !== undefined).map((v) => formatNumber(v, decimals)).join(' – ');
+  };
 
   return (
     <div className="flex flex-col gap-4" data-testid="inspection-results">
       <div aria-live="polite">
-        {complete && results ? (
+        {complete && results?.verdict ? (
+          <p className="flex flex-wrap items-center gap-2 font-semibold" data-testid="inspection-verdict">
+            <RecordVerdictMark results={results} />
+          </p>
+        ) : complete && results ? (
           <p className="flex flex-wrap items-center gap-2 font-semibold" data-testid="inspection-verdict">
             <PassMark pass={results.pass && failing === 0} passText="Every check passes" failText={`${failing} ${failing === 1 ? 'check fails' : 'checks fail'}`} />
           </p>
@@ -217,7 +235,7 @@ export function InspectionResultsView({
               <th scope="col" className="py-1 pr-2 text-right font-semibold">Mean</th>
               <th scope="col" className="py-1 pr-2 text-right font-semibold">Taper</th>
               <th scope="col" className="py-1 pr-2 text-right font-semibold">Out-of-round</th>
-              <th scope="col" className="py-1 pr-2 text-right font-semibold">Clearance</th>
+              <th scope="col" className="py-1 pr-2 text-right font-semibold">{results?.verdict ? 'Clearance (thrust)' : 'Clearance'}</th>
               <th scope="col" className="py-1 pr-2 text-right font-semibold">From target</th>
               <th scope="col" className="py-1 font-semibold">Result</th>
             </tr>
@@ -240,10 +258,10 @@ export function InspectionResultsView({
                   <td className="py-1.5 pr-2 text-right">{figure(cylinder.mean)}</td>
                   <td className={cn('py-1.5 pr-2 text-right', failed('maxTaper'))}>{figure(cylinder.taper)}</td>
                   <td className={cn('py-1.5 pr-2 text-right', failed('maxOutOfRound'))}>{figure(cylinder.outOfRound)}</td>
-                  <td className={cn('py-1.5 pr-2 text-right', failed('clearanceMin', 'clearanceMax'))}>{figure(cylinder.clearance)}</td>
+                  <td className={cn('py-1.5 pr-2 text-right', failed('clearanceMin', 'clearanceMax'))}>{thrustClearance(index) ?? figure(cylinder.clearance)}</td>
                   <td className={cn('py-1.5 pr-2 text-right', failed('targetBore'))}>{cylinder.deviation === undefined ? '—' : formatChange(cylinder.deviation, decimals)}</td>
                   <td className="py-1.5">
-                    <PassMark pass={cylinder.pass} />
+                    {results?.verdict ? <VerdictMark verdict={cylinderVerdict(index)} /> : <PassMark pass={cylinder.pass} />}
                   </td>
                 </tr>
               );
@@ -254,7 +272,9 @@ export function InspectionResultsView({
 
       <section aria-label="Checks against the job’s specification" className="flex flex-col gap-2">
         <Heading className="text-sm font-bold uppercase tracking-wider text-slate-700">Checks</Heading>
-        {boreRows.length === 0 && surfaceRows.length === 0 ? (
+        {results?.verdict ? (
+          <RecordJudgement results={results} unit={unit} headingLevel={headingLevel} />
+        ) : boreRows.length === 0 && surfaceRows.length === 0 ? (
           <p className="text-sm text-ink-soft">Checks appear as each cylinder’s six readings are in.</p>
         ) : (
           <>

@@ -58,7 +58,11 @@ export interface ProfileTrace {
 export interface RecordForm {
   unit: LengthUnit;
   gaugeResolution: string;
+  /** The temperature as typed, in `temperatureScale` (°C unless the shop chose °F). */
   temperatureC: string;
+  temperatureScale?: 'C' | 'F';
+  /** Expanded uncertainty U of the bore readings, optional (the gauge resolution stands in, as a lower bound). */
+  uncertainty?: string;
   torquePlate: boolean;
   /** Grid text by schema path: "cylinders.2.middle.axial" → "4.0311". */
   cells: Record<string, string>;
@@ -83,6 +87,8 @@ export function emptyRecord(unit: LengthUnit): RecordForm {
     unit,
     gaugeResolution: '',
     temperatureC: '',
+    temperatureScale: 'C',
+    uncertainty: '',
     torquePlate: false,
     cells: {},
     deckReadings: '',
@@ -150,7 +156,13 @@ export function toRawInput(form: RecordForm, cylinderCount: number): Record<stri
         : undefined;
 
   return withoutUndefined({
-    conditions: withoutUndefined({ unit: form.unit, gaugeResolution: toNumber(form.gaugeResolution), temperatureC: toNumber(form.temperatureC), torquePlate: form.torquePlate }),
+    conditions: withoutUndefined({
+      unit: form.unit,
+      gaugeResolution: toNumber(form.gaugeResolution),
+      uncertainty: toNumber(form.uncertainty),
+      ...(form.temperatureScale === 'F' ? { temperatureF: toNumber(form.temperatureC) } : { temperatureC: toNumber(form.temperatureC) }),
+      torquePlate: form.torquePlate,
+    }),
     cylinders,
     deck,
     finish,
@@ -182,7 +194,9 @@ export function checkRecord(form: RecordForm, cylinderCount: number): RecordChec
     const path = issue.path.map(String).join('.');
     if (order.includes(path)) continue;
     order.push(path);
-    if (issue.code === 'invalid_type' && issue.input === undefined) missing[path] = issue.message;
+    // A blank temperature is reported by the conditions' own rule (°C or °F, one of them): still to enter, not wrong.
+    const blankTemperature = issue.code === 'custom' && path === 'conditions.temperatureC' && form.temperatureC.trim() === '';
+    if ((issue.code === 'invalid_type' && issue.input === undefined) || blankTemperature) missing[path] = issue.message;
     else errors[path] = issue.message;
   }
   return { errors, missing, order };
@@ -226,6 +240,8 @@ export function fromDraft(draft: Record<string, unknown> | null | undefined, uni
     unit: pick(saved.unit, ['in', 'mm'] as const, unit),
     gaugeResolution: text(saved.gaugeResolution),
     temperatureC: text(saved.temperatureC),
+    temperatureScale: pick(saved.temperatureScale, ['C', 'F'] as const, 'C'),
+    uncertainty: text(saved.uncertainty),
     torquePlate: saved.torquePlate === true,
     cells,
     deckReadings: text(saved.deckReadings),
@@ -252,7 +268,9 @@ export function fromInput(input: InspectionInput): RecordForm {
   const length = (value: number | undefined) => lengthToText(value, unit);
   const form = emptyRecord(unit);
   form.gaugeResolution = numberToText(input.conditions.gaugeResolution);
-  form.temperatureC = numberToText(input.conditions.temperatureC);
+  form.temperatureScale = input.conditions.temperatureF !== undefined ? 'F' : 'C';
+  form.temperatureC = numberToText(input.conditions.temperatureF ?? input.conditions.temperatureC);
+  form.uncertainty = numberToText(input.conditions.uncertainty);
   form.torquePlate = input.conditions.torquePlate;
   input.cylinders.forEach((cylinder, i) => {
     for (const depth of DEPTHS) {
@@ -298,6 +316,8 @@ const FIELD_WORDS: Record<string, string> = {
   'conditions.unit': 'units',
   'conditions.gaugeResolution': 'gauge resolution',
   'conditions.temperatureC': 'temperature',
+  'conditions.temperatureF': 'temperature',
+  'conditions.uncertainty': 'measurement uncertainty',
   'conditions.torquePlate': 'torque plate',
   deck: 'deck',
   'deck.readings': 'straightedge readings',

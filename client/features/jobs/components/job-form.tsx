@@ -2,7 +2,7 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { useId, useState, type ReactNode } from 'react';
 import { Controller, useForm, useWatch, type FieldErrors, type Path, type UseFormRegisterReturn } from 'react-hook-form';
 import { Link } from 'react-router-dom';
-import { type LengthUnit, convertLength } from '@shared/calc';
+import { type LengthUnit, convertLength, sizeDisagreement } from '@shared/calc';
 import {
   blockMaterials,
   engineLayouts,
@@ -26,7 +26,7 @@ import { layoutWords, logisticsWords, materialWords, pistonWords, todayIso } fro
 import { OperationsPicker } from './operations-picker';
 
 /** Fields holding a length in the job's unit: converted in place when the unit changes. */
-const LENGTH_FIELDS = ['stockBore', 'stroke', 'targetBore', 'pistonDiameter', 'clearanceMin', 'clearanceMax', 'maxTaper', 'maxOutOfRound', 'deckFlatnessMax'] as const;
+const LENGTH_FIELDS = ['stockBore', 'stroke', 'targetBore', 'boreSizeTolerance', 'pistonDiameter', 'clearanceMin', 'clearanceMax', 'maxTaper', 'maxOutOfRound', 'deckFlatnessMax'] as const;
 
 /** Every field the server may name in a 400, for putting its messages beside the inputs. */
 const FIELD_NAMES = Object.keys(jobFieldsSchema.shape) as Array<Path<JobFormValues>>;
@@ -51,6 +51,30 @@ function typedNumber(text: unknown): number | undefined {
 }
 
 const emptyToUndefined = (value: unknown) => (value === '' || value === null ? undefined : value);
+
+/**
+ * When a target bore and the piston with its clearance range call for
+ * different sizes, say so and which one the shop will work to (the target).
+ */
+function SizeDisagreementNotice({ values, unit }: { values: { targetBore?: unknown; pistonDiameter?: unknown; clearanceMin?: unknown; clearanceMax?: unknown }; unit: LengthUnit }) {
+  const finite = (value: unknown) => (typeof value === 'number' && Number.isFinite(value) ? value : undefined);
+  const clash = sizeDisagreement({
+    targetBore: finite(values.targetBore),
+    pistonDiameter: finite(values.pistonDiameter),
+    clearanceMin: finite(values.clearanceMin),
+    clearanceMax: finite(values.clearanceMax),
+  });
+  if (!clash) return null;
+  const d = unit === 'in' ? 4 : 3;
+  return (
+    <Notice tone="caution" title="The target bore and the piston disagree">
+      <span data-testid="size-disagreement">
+        The piston with its clearance range calls for a bore of {clash.fromPistonMin.toFixed(d)}–{clash.fromPistonMax.toFixed(d)} {unit}, but the target bore is{' '}
+        {clash.target.toFixed(d)} {unit}. The shop will work to the target bore, {clash.target.toFixed(d)} {unit}; the clearance is still judged against your range.
+      </span>
+    </Notice>
+  );
+}
 
 /** A converted length written back into its input without floating-point noise. */
 const tidy = (value: number) => Number(value.toPrecision(12));
@@ -256,6 +280,14 @@ export function JobForm({ initial, submitLabel, onSave, cancelTo, saveNote }: Jo
               {...number('targetBore')}
             />
             <TextField
+              label={lengthLabel('Finished-size tolerance ±', true)}
+              hint={`Allowed on every bore reading around the finished size. Left empty: ± ${unit === 'in' ? '0.0005 in' : '0.0127 mm'}, common practice (no published source).`}
+              placeholder={unit === 'in' ? '0.0005' : '0.0127'}
+              error={message('boreSizeTolerance')}
+              {...numberProps}
+              {...number('boreSizeTolerance')}
+            />
+            <TextField
               label={lengthLabel('Piston diameter', true)}
               hint="Measured at the gauge point, 90° to the pin."
               error={message('pistonDiameter')}
@@ -265,6 +297,18 @@ export function JobForm({ initial, submitLabel, onSave, cancelTo, saveNote }: Jo
             <TextField label={lengthLabel('Smallest clearance', true)} hint="Piston to wall." error={message('clearanceMin')} {...numberProps} {...number('clearanceMin')} />
             <TextField label={lengthLabel('Largest clearance', true)} error={message('clearanceMax')} {...numberProps} {...number('clearanceMax')} />
           </Grid>
+          <SizeDisagreementNotice values={values} unit={unit} />
+          <SelectField
+            label="How the shop’s readings are judged"
+            className="sm:max-w-md"
+            hint="Guarded acceptance (ISO 14253-1): a reading conforms only inside its limit by the measurement uncertainty, fails only outside it by more, and in between is “not proven”. Simple acceptance: within the limit conforms."
+            options={[
+              { value: '', label: 'Simple acceptance (the default)' },
+              { value: 'guarded', label: 'Guarded acceptance (ISO 14253-1)' },
+            ]}
+            error={message('decisionRule')}
+            {...choice('decisionRule')}
+          />
           <SelectField
             label="Piston type"
             className="sm:max-w-xs"

@@ -68,6 +68,8 @@ export function JobSpec({ spec }: { spec: JobInput }) {
             ['Target bore', length(spec.targetBore)],
             ['Piston diameter', length(spec.pistonDiameter)],
             ['Piston-to-wall clearance', range(spec.clearanceMin, spec.clearanceMax, (n) => formatLength(n, unit))],
+            ['Finished-size tolerance', spec.boreSizeTolerance !== undefined ? `± ${formatLength(spec.boreSizeTolerance, unit)}` : `± ${unit === 'in' ? '0.0005 in' : '0.0127 mm'} (common-practice default)`],
+            ['Readings judged by', spec.decisionRule === 'guarded' ? 'Guarded acceptance (ISO 14253-1)' : 'Simple acceptance'],
           ]}
         />
       </Group>
