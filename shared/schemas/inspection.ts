@@ -51,7 +51,7 @@ export const crosshatchInputSchema = z.discriminatedUnion('mode', [
     mode: z.literal('settings'),
     spindleRpm: z.number({ error: 'Enter the spindle speed.' }).positive('The spindle speed must be greater than zero.'),
     strokeLength: z.number({ error: 'Enter the stroke length.' }).positive('The stroke length must be greater than zero.'),
-    cyclesPerMinute: z.number({ error: 'Enter the strokes per minute.' }).positive('Must be greater than zero.'),
+    cyclesPerMinute: z.number({ error: 'Enter the full up-and-down cycles per minute (one stroke up and one down is one cycle).' }).positive('The cycles per minute must be greater than zero.'),
   }),
 ]);
 

@@ -137,8 +137,8 @@ describe('a builder posting a job and choosing a shop, in a real browser', () =>
     await form.getByLabel('Smallest clearance (in), optional').fill('0.0025');
     await form.getByLabel('Largest clearance (in), optional').fill('0.0035');
     await form.getByLabel('Piston type').selectOption('forged');
-    await form.getByLabel('Smallest crosshatch angle (°), optional').fill('40');
-    await form.getByLabel('Largest crosshatch angle (°), optional').fill('50');
+    await form.getByLabel('Smallest crosshatch included angle (°), optional').fill('40');
+    await form.getByLabel('Largest crosshatch included angle (°), optional').fill('50');
     await form.getByLabel('Maximum taper (in), optional').fill('0.0005');
     await form.getByLabel('Deck out-of-flat limit (in), optional').fill('0.002');
     for (const work of ['Bore', 'Hone', 'Deck']) await form.getByRole('checkbox', { name: work, exact: true }).check();

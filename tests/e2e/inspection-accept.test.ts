@@ -28,6 +28,15 @@ describe('accepting a record that does not conform', () => {
     await shop('POST', `/api/jobs/${job.id}/milestones`, { kind: 'block_received', note: 'Arrived on a pallet.' });
     await shop('POST', `/api/jobs/${job.id}/inspection`, failingRecord());
 
+    // The web certificate holds what the PDF holds: job number, status in words, builder and shop.
+    const certificate = await pageFor(builder.email, `/jobs/${job.id}/inspection/1/certificate`);
+    await expect.poll(() => certificate.getByTestId('certificate-job').textContent()).toContain(`Job number ${job.id}`);
+    expect(await certificate.getByTestId('certificate-status').textContent()).toBe('Status: Waiting for the builder’s answer');
+    expect(await certificate.getByTestId('certificate-parties').textContent()).toMatch(/^Builder: Juno Brackenridge · Shop: Lantern Hill Machine Works, .+/);
+    expect(await certificate.getByTestId('certificate-result').textContent()).toMatch(/^FAIL/);
+    expect(await certificate.getByTestId('certificate-checks').textContent()).toContain('cylinder 3 taper');
+    expect(await certificate.getByTestId('certificate-checks').textContent()).toContain('≤ 0.0005 in');
+
     const page = await pageFor(builder.email, `/jobs/${job.id}`);
     const review = page.getByTestId('inspection-review');
     await expect.poll(() => review.getByTestId('review-due').textContent()).toMatch(/never accepted without you/);

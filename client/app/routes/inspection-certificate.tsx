@@ -1,5 +1,6 @@
 import { Link, useParams } from 'react-router-dom';
-import { micrometresToMicroinches } from '@shared/calc';
+import { checkFigures, figureAgainstLimit, lengthDecimals, micrometresToMicroinches } from '@shared/calc';
+import { INSPECTION_STATUS_WORDS, methodLines, resultHeadline } from '@shared/inspection-words';
 import { Button } from '@client/components/ui/button';
 import { Notice } from '@client/components/ui/notice';
 import { useInspection } from '@client/features/inspections/api/inspections';
@@ -9,7 +10,7 @@ import { useJob } from '@client/features/jobs/api/jobs';
 const GUIDANCE =
   'Figures are guidance. Engine and piston makers’ specifications, calibrated instruments, local codes and licensed practice govern machine work.';
 
-/** The printable certificate of one inspection record version (the same content as the PDF). */
+/** The printable certificate of one inspection record version: everything the PDF holds, in the same words. */
 export function InspectionCertificateRoute() {
   const { jobId = '', version = '1' } = useParams();
   const job = useJob(jobId);
@@ -20,7 +21,17 @@ export function InspectionCertificateRoute() {
   if (!record) return <Notice tone="error">There is no version {version} of this record.</Notice>;
   const { input, results } = record;
   const unit = input.conditions.unit;
-  const len = (value: number | undefined) => (value === undefined ? '—' : value.toFixed(unit === 'in' ? 4 : 3));
+  const decimals = lengthDecimals(unit, input.conditions.gaugeResolution);
+  const len = (value: number | undefined) => (value === undefined ? '—' : value.toFixed(decimals));
+  const spec = job.data.spec;
+  const shop = inspection.data.shop;
+  const headline = resultHeadline(results, spec, unit);
+  const method = methodLines(results);
+  const notJudged = results.notJudged ?? [];
+  const temperature =
+    input.conditions.temperatureC !== undefined ? `${input.conditions.temperatureC} °C` : input.conditions.temperatureF !== undefined ? `${input.conditions.temperatureF} °F` : 'not given';
+  const verdictWord = (check: (typeof results.checks)[number]) =>
+    check.verdict === undefined ? (check.pass ? 'pass' : 'FAIL') : ({ conforms: 'pass', fails: 'FAIL', 'not-proven': 'NOT PROVEN' } as Record<string, string>)[check.verdict] ?? check.verdict.toUpperCase();
 
   return (
     <article className="mx-auto max-w-5xl bg-white p-6 print:p-0" aria-labelledby="certificate-title">
@@ -40,17 +51,36 @@ export function InspectionCertificateRoute() {
         Tenthmark inspection record
       </h1>
       <p>
-        {job.data.title} — {job.data.engineFamily} · version {record.version} · {record.status} · submitted {new Date(record.submittedAt).toLocaleString()}
+        {job.data.title} — {job.data.engineFamily}
+      </p>
+      <p data-testid="certificate-job">
+        Job number {jobId} · version {record.version} · submitted {new Date(record.submittedAt).toLocaleString()}
+      </p>
+      <p data-testid="certificate-status">Status: {INSPECTION_STATUS_WORDS[record.status] ?? record.status}</p>
+      <p data-testid="certificate-parties">
+        Builder: {job.data.builder.displayName} · Shop: {[shop?.name, shop?.place].filter(Boolean).join(', ') || '—'}
       </p>
       <p className="mt-2 text-lg font-bold" data-testid="certificate-result">
-        {results.pass ? 'PASS — every check within the job’s limits' : 'FAIL — see the checks below'}
+        {headline.text}
       </p>
 
       <h2 className="mt-4 text-lg font-bold">Conditions</h2>
       <p>
-        Units {unit === 'in' ? 'inch' : 'millimetre'} · gauge resolution {input.conditions.gaugeResolution} {unit} · {input.conditions.temperatureC} °C · torque plate{' '}
-        {input.conditions.torquePlate ? 'fitted' : 'not fitted'}
+        Units {unit === 'in' ? 'inch' : 'millimetre'} · gauge resolution {input.conditions.gaugeResolution} {unit} · temperature at measurement {temperature} · torque
+        plate {input.conditions.torquePlate ? 'fitted' : 'not fitted'}
       </p>
+      {method.length > 0 && (
+        <>
+          <h2 className="mt-4 text-lg font-bold">How it was judged</h2>
+          <ul className="list-disc pl-5" data-testid="certificate-method">
+            {method.map((m, i) => (
+              <li key={i}>
+                {m.label}: {m.text}
+              </li>
+            ))}
+          </ul>
+        </>
+      )}
 
       <h2 className="mt-4 text-lg font-bold">Bores ({unit})</h2>
       <div className="overflow-x-auto">
@@ -85,12 +115,18 @@ export function InspectionCertificateRoute() {
           </tbody>
         </table>
       </div>
+      <p className="mt-1 text-sm">
+        Taper: on the diameter, the largest minus the smallest reading over the three depths in one direction (the larger direction counts). Out-of-round:
+        two-point, the difference of the thrust and axial diameters at one depth (the largest depth counts).
+      </p>
 
       {results.deck && (
         <>
           <h2 className="mt-4 text-lg font-bold">Deck</h2>
           <p>
-            Out-of-flat {len(results.deck.outOfFlat)} {unit} against {len(results.deck.limit)} {unit}: {results.deck.pass ? 'pass' : 'FAIL'}
+            Out-of-flat {figureAgainstLimit(results.deck.outOfFlat, results.deck.limit, decimals).value} {unit} against ≤{' '}
+            {figureAgainstLimit(results.deck.outOfFlat, results.deck.limit, decimals).limit} {unit} (
+            {results.deck.limitSource === 'shop' ? 'the job’s limit' : 'common-practice table'}): {results.deck.pass ? 'pass' : 'FAIL'}
           </p>
         </>
       )}
@@ -109,23 +145,38 @@ export function InspectionCertificateRoute() {
       {results.crosshatch && (
         <>
           <h2 className="mt-4 text-lg font-bold">Crosshatch</h2>
-          <p>Included angle {results.crosshatch.includedAngleDeg.toFixed(1)}°, measured across the horizontal.</p>
+          <p>
+            {input.crosshatch?.mode === 'settings'
+              ? `Included angle ${results.crosshatch.includedAngleDeg.toFixed(1)}°, computed from settings (mid-stroke), not measured: ${input.crosshatch.spindleRpm} rpm, ${input.crosshatch.strokeLength} ${unit} stroke, ${input.crosshatch.cyclesPerMinute} full up-and-down cycles per minute. Across the horizontal.`
+              : `Included angle ${results.crosshatch.includedAngleDeg.toFixed(1)}°, measured across the horizontal.`}
+          </p>
         </>
       )}
       <h2 className="mt-4 text-lg font-bold">Checks against the job’s limits</h2>
-      {results.checks.length === 0 ? (
-        <p>No limit failed.</p>
+      {results.checks.length === 0 && notJudged.length === 0 ? (
+        <p>{headline.tone === 'none' ? 'The job gave no limits, so nothing was judged.' : 'No limit failed.'}</p>
       ) : (
-        <ul className="list-disc pl-5">
-          {results.checks.map((check, i) => (
-            <li key={i}>
-              {check.pass ? 'pass' : 'FAIL'} — {check.what}: {Number(check.value.toFixed(6))} (allowed {check.allowed})
+        <ul className="list-disc pl-5" data-testid="certificate-checks">
+          {results.checks.map((check, i) => {
+            const figures = checkFigures(check, { spec, results, unit, resolution: input.conditions.gaugeResolution });
+            return (
+              <li key={i}>
+                {verdictWord(check)} — {check.what}: {figures.value} (allowed {figures.allowed})
+              </li>
+            );
+          })}
+          {notJudged.map((item, i) => (
+            <li key={`nj-${i}`}>
+              NOT JUDGED — {item.what}: {item.why}
             </li>
           ))}
         </ul>
       )}
       <h2 className="mt-4 text-lg font-bold">Sign-off</h2>
-      <p>Measured and signed by {input.signedOffBy}.</p>
+      <p>
+        Measured and signed by {input.signedOffBy}
+        {shop ? ` for ${shop.name}` : ''}.
+      </p>
       {input.notes && <p>Notes: {input.notes}</p>}
       <p className="mt-6 text-sm text-ink-soft">{GUIDANCE}</p>
     </article>

@@ -343,13 +343,15 @@ export function InspectionEntryForm({ job, initial, origin, onSubmitted }: Inspe
           {form.crosshatchMode === 'settings' && (
             <>
               <p className="text-sm text-ink-soft">
-                The angle is worked out from the spindle and stroke speeds at the middle of the stroke, with the mean bore of the readings.
+                The angle is computed from settings (mid-stroke), not measured: from the spindle and stroke speeds at the middle of the stroke, with the
+                mean bore of the readings. Count full up-and-down cycles: one stroke up and one down is one cycle (counting single strokes gives about
+                double the angle). The record stores it as computed from settings.
               </p>
               <div className="grid gap-3 sm:grid-cols-3">
                 <NumberInput label="Spindle speed (rev/min)" {...text('crosshatch.spindleRpm', form.crosshatch.spindleRpm, (v) => update({ crosshatch: { ...form.crosshatch, spindleRpm: v } }))} />
                 <NumberInput label={`Stroke length (${unitShort})`} {...text('crosshatch.strokeLength', form.crosshatch.strokeLength, (v) => update({ crosshatch: { ...form.crosshatch, strokeLength: v } }))} />
                 <NumberInput
-                  label="Strokes per minute (up and down)"
+                  label="Full up-and-down cycles per minute"
                   {...text('crosshatch.cyclesPerMinute', form.crosshatch.cyclesPerMinute, (v) => update({ crosshatch: { ...form.crosshatch, cyclesPerMinute: v } }))}
                 />
               </div>

@@ -269,6 +269,10 @@ export function InspectionResultsView({
           </tbody>
         </table>
       </div>
+      <p className="text-xs text-ink-soft" data-testid="figure-definitions-short">
+        Taper: on the diameter, largest minus smallest reading over the three depths in one direction. Out-of-round: two-point, thrust minus axial
+        diameter at one depth.
+      </p>
 
       <section aria-label="Checks against the job’s specification" className="flex flex-col gap-2">
         <Heading className="text-sm font-bold uppercase tracking-wider text-slate-700">Checks</Heading>

@@ -335,7 +335,7 @@ const FIELD_WORDS: Record<string, string> = {
   'crosshatch.includedAngleDeg': 'crosshatch angle',
   'crosshatch.spindleRpm': 'spindle speed',
   'crosshatch.strokeLength': 'stroke length',
-  'crosshatch.cyclesPerMinute': 'strokes per minute',
+  'crosshatch.cyclesPerMinute': 'the full up-and-down cycles per minute',
   signedOffBy: 'sign-off name',
   notes: 'notes',
 };

@@ -339,8 +339,8 @@ export function JobForm({ initial, submitLabel, onSave, cancelTo, saveNote }: Jo
           intro="All optional. Leave a box empty when the shop’s usual practice will do. Finishes in micrometres (1 µm ≈ 39.4 µin)."
         >
           <Grid>
-            <TextField label="Smallest crosshatch angle (°), optional" error={message('crosshatchMinDeg')} {...numberProps} {...number('crosshatchMinDeg')} />
-            <TextField label="Largest crosshatch angle (°), optional" error={message('crosshatchMaxDeg')} {...numberProps} {...number('crosshatchMaxDeg')} />
+            <TextField label="Smallest crosshatch included angle (°), optional" error={message('crosshatchMinDeg')} {...numberProps} {...number('crosshatchMinDeg')} />
+            <TextField label="Largest crosshatch included angle (°), optional" error={message('crosshatchMaxDeg')} {...numberProps} {...number('crosshatchMaxDeg')} />
             <TextField label="Largest bore Ra (µm), optional" error={message('finishRaMaxUm')} {...numberProps} {...number('finishRaMaxUm')} />
             <TextField label="Largest Rk (µm), optional" error={message('finishRkMaxUm')} {...numberProps} {...number('finishRkMaxUm')} />
             <TextField label="Largest Rpk (µm), optional" error={message('finishRpkMaxUm')} {...numberProps} {...number('finishRpkMaxUm')} />
@@ -352,7 +352,13 @@ export function JobForm({ initial, submitLabel, onSave, cancelTo, saveNote }: Jo
 
         <FormSection title="Deck" className="lg:col-start-1">
           <Grid>
-            <TextField label={lengthLabel('Deck out-of-flat limit', true)} error={message('deckFlatnessMax')} {...numberProps} {...number('deckFlatnessMax')} />
+            <TextField
+              label={lengthLabel('Deck out-of-flat limit', true)}
+              hint="0 means no feeler leaf may pass under the straightedge anywhere. Leave it empty for the common-practice figure for the block and a multi-layer steel gasket."
+              error={message('deckFlatnessMax')}
+              {...numberProps}
+              {...number('deckFlatnessMax')}
+            />
             <TextField label="Largest deck Ra (µm), optional" error={message('deckRaMaxUm')} {...numberProps} {...number('deckRaMaxUm')} />
           </Grid>
           <TextAreaField

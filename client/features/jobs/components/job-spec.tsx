@@ -77,7 +77,7 @@ export function JobSpec({ spec }: { spec: JobInput }) {
         <Facts
           empty="None given: the shop’s usual practice applies."
           items={[
-            ['Crosshatch angle', range(spec.crosshatchMinDeg, spec.crosshatchMaxDeg, degrees)],
+            ['Crosshatch included angle', range(spec.crosshatchMinDeg, spec.crosshatchMaxDeg, degrees)],
             ['Largest bore Ra', given(spec.finishRaMaxUm) ? micrometres(spec.finishRaMaxUm) : undefined],
             ['Largest Rk', given(spec.finishRkMaxUm) ? micrometres(spec.finishRkMaxUm) : undefined],
             ['Largest Rpk', given(spec.finishRpkMaxUm) ? micrometres(spec.finishRpkMaxUm) : undefined],
