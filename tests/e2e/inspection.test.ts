@@ -384,7 +384,7 @@ describe('the inspection record, from block received to payment released, in a r
     const changes = review.getByTestId('version-changes').first();
     await expect(changes.getByRole('row', { name: /Cylinder 3 bottom thrust/ }).textContent()).resolves.toBe('Cylinder 3 bottom thrust4.0306 in4.0312 in');
     await expect(changes.getByRole('row', { name: /Cylinder 3 taper \(worked out\)/ }).textContent()).resolves.toContain('0.0008 in');
-    await expect(changes.getByRole('row', { name: /Overall result/ }).textContent()).resolves.toBe('Overall resultfailpass');
+    await expect(changes.getByRole('row', { name: /Overall result/ }).textContent()).resolves.toBe('Overall resultFail: at least one check failsPass: every limit judged, every check conforms');
     await expect(changes.getByRole('row').count()).resolves.toBeLessThan(10);
     const older = review.getByTestId('older-version');
     await expect(older.count()).resolves.toBe(1);

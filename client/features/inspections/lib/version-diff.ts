@@ -2,7 +2,7 @@
  * What changed between two versions of an inspection record: each reading
  * and condition as typed, and the worked-out figures, named in words.
  */
-import type { InspectionVersion } from '@shared/schemas/inspection';
+import { type InspectionVersion, RECORD_VERDICT_WORDS, recordVerdict } from '@shared/schemas/inspection';
 import { formatLength, formatNumber, lengthToText, numberToText } from '@client/lib/numbers';
 import { DEPTHS, DIRECTIONS } from './record-form';
 
@@ -23,7 +23,8 @@ function entries(version: InspectionVersion): Entry[] {
   const list: Entry[] = [
     ['unit', 'Units', unit === 'in' ? 'inches' : 'millimetres'],
     ['resolution', 'Gauge resolution', len(input.conditions.gaugeResolution)],
-    ['temperature', 'Temperature', `${numberToText(input.conditions.temperatureC)} °C`],
+    ['temperature', 'Temperature', input.conditions.temperatureF !== undefined ? `${numberToText(input.conditions.temperatureF)} °F` : `${numberToText(input.conditions.temperatureC)} °C`],
+    ['uncertainty', 'Measurement uncertainty', input.conditions.uncertainty !== undefined ? len(input.conditions.uncertainty) : 'gauge resolution (lower bound)'],
     ['torque-plate', 'Torque plate', input.conditions.torquePlate ? 'fitted' : 'not fitted'],
   ];
   input.cylinders.forEach((cylinder, i) => {
@@ -64,7 +65,7 @@ function entries(version: InspectionVersion): Entry[] {
   if (results.deck) list.push(['f.deck', 'Deck out-of-flat (worked out)', formatLength(results.deck.outOfFlat, unit)]);
   if (results.finish) list.push(['f.ra', 'Bore Ra', `${formatNumber(results.finish.raUm, 2)} µm`]);
   if (results.crosshatch) list.push(['f.angle', 'Crosshatch included angle', `${formatNumber(results.crosshatch.includedAngleDeg, 1)}°`]);
-  list.push(['f.result', 'Overall result', results.pass ? 'pass' : 'fail']);
+  list.push(['f.result', 'Overall result', RECORD_VERDICT_WORDS[recordVerdict(results)]]);
   return list;
 }
 
