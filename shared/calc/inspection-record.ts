@@ -228,7 +228,7 @@ export function evaluateInspection(input: InspectionInput, spec: JobSpecPart): I
       .map((check) => ({
         limit: check.limit === 'size' ? 'targetBore' : (check.limit as 'clearanceMin' | 'clearanceMax' | 'maxTaper' | 'maxOutOfRound'),
         value: check.limit === 'size' ? check.value - limits.targetBore! : check.value,
-        allowed: check.limit === 'size' ? limits.targetTolerance! : Number(check.allowed.replace(/[^0-9.]/g, '')),
+        allowed: check.limit === 'size' ? limits.targetTolerance! : limits[check.limit as 'clearanceMin' | 'clearanceMax' | 'maxTaper' | 'maxOutOfRound']!,
       }));
     figures.notChecked = notJudged.some((item) => item.what === `cylinder ${index + 1} piston clearance`) ? ['clearanceMin', 'clearanceMax'].filter((l) => (l === 'clearanceMin' ? limits.clearanceMin : limits.clearanceMax) !== undefined) as Array<'clearanceMin' | 'clearanceMax'> : [];
     figures.pass = mine.every((check) => check.verdict === 'conforms') && figures.notChecked.length === 0;

@@ -33,6 +33,8 @@ describe('evaluateInspection', () => {
     expect(failing.pass).toBe(false);
     // derived: bottom thrust 0.0008 in under the top → taper 0.0009 in and out-of-round 0.0008 in, both over 0.0005 in (0.0127 mm)
     // derived: 4.0302 in is 0.0008 in under the 4.031 in target, outside ± 0.0005 in (common practice default), so size fails too
+    // derived: 0.0025 in = 0.0635 mm exactly; the cylinder's failure keeps the unrounded limit
+    expect(failing.bores.cylinders[0].failures.find((f) => f.limit === 'clearanceMin')!.allowed).toBeCloseTo(0.0635, 12);
     expect(failing.checks.filter((c) => !c.pass).map((c) => [c.what, c.verdict, c.allowed])).toEqual([
       ['cylinder 1 size', 'fails', '102.387 mm ± 0.0127 mm'],
       // derived: bottom thrust 4.0302 − piston 4.028 = 0.0022 in, under 0.0025 in (0.0635 mm)
