@@ -138,6 +138,8 @@ export function FailingChecksLine({
     ? [...cylinderIndexes.flatMap((index, k) => cylinderChecks(results.bores.cylinders[k], index, limits, unit)), ...otherChecks(results, unit)]
     : [];
   const failing = rows.filter((row) => row.pass === false);
+  // Under guarded acceptance a check may be neither conforming nor failing: it is not "passing" either.
+  const unproven = results?.checks.filter((check) => check.verdict === 'not-proven') ?? [];
   return (
     <div aria-live="polite" className={className}>
       {failing.length > 0 ? (
@@ -148,6 +150,10 @@ export function FailingChecksLine({
             </li>
           ))}
         </ul>
+      ) : unproven.length > 0 ? (
+        <p className="text-sm font-semibold text-caution">
+          No check fails so far; {unproven.length === 1 ? 'one is' : `${unproven.length} are`} not proven ({unproven.map((check) => check.what).join(', ')}).
+        </p>
       ) : rows.length > 0 ? (
         <p className="text-sm font-semibold text-pass">Every check so far passes.</p>
       ) : null}
