@@ -26,7 +26,8 @@ export function InspectionCertificateRoute() {
   const spec = job.data.spec;
   const shop = inspection.data.shop;
   const headline = resultHeadline(results, spec, unit);
-  const method = methodLines(results);
+  // The finish section below names the roughness filter in its own words; here only the rule, the temperature and the statements.
+  const method = methodLines(results).filter((m) => m.label !== 'Roughness filter');
   const notJudged = results.notJudged ?? [];
   const temperature =
     input.conditions.temperatureC !== undefined ? `${input.conditions.temperatureC} °C` : input.conditions.temperatureF !== undefined ? `${input.conditions.temperatureF} °F` : 'not given';
