@@ -267,7 +267,7 @@ export function InspectionResultsView({
                   <td className={cn('py-1.5 pr-2 text-right', failed('clearanceMin', 'clearanceMax'))}>{thrustClearance(index) ?? figure(cylinder.clearance)}</td>
                   <td className={cn('py-1.5 pr-2 text-right', failed('targetBore'))}>{cylinder.deviation === undefined ? '—' : formatChange(cylinder.deviation, decimals)}</td>
                   <td className="py-1.5">
-                    {results?.verdict ? <VerdictMark verdict={cylinderVerdict(index)} /> : <PassMark pass={cylinder.pass} />}
+                    {results?.verdict ? <VerdictMark verdict={cylinderVerdict(index)} compact /> : <PassMark pass={cylinder.pass} />}
                   </td>
                 </tr>
               );

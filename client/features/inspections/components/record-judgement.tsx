@@ -25,12 +25,21 @@ const VERDICT_LOOK: Record<CheckVerdict, { text: string; mark: string; className
   'not-proven': { text: 'Not proven', mark: '?', className: 'bg-caution-soft text-caution ring-caution/30' },
 };
 
-export function VerdictMark({ verdict }: { verdict: CheckVerdict }) {
+/** A check's verdict as a badge; `compact` for narrow table cells. */
+export function VerdictMark({ verdict, compact = false }: { verdict: CheckVerdict; compact?: boolean }) {
   const look = VERDICT_LOOK[verdict];
   return (
-    <span className={cn('inline-flex items-center gap-1 whitespace-nowrap rounded-full px-2.5 py-0.5 text-sm font-bold ring-1', look.className)}>
+    <span
+      className={cn(
+        'inline-flex items-center whitespace-nowrap rounded-full font-bold ring-1',
+        compact ? 'px-2 py-0.5 text-sm' : 'gap-1 px-2.5 py-0.5 text-sm',
+        look.className,
+      )}
+      title={compact ? look.text : undefined}
+    >
       <span aria-hidden>{look.mark}</span>
-      <span>{look.text}</span>
+      {/* In a narrow cell the word is for screen readers (and the tooltip); the mark and colour carry it on screen. */}
+      <span className={compact ? 'sr-only' : undefined}>{look.text}</span>
     </span>
   );
 }
