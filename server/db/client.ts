@@ -1,4 +1,5 @@
-import { drizzle, type NodePgDatabase } from 'drizzle-orm/node-postgres';
+import { sql } from 'drizzle-orm';
+import { drizzle, NodePgSession, NodePgTransaction, type NodePgDatabase } from 'drizzle-orm/node-postgres';
 import { migrate } from 'drizzle-orm/node-postgres/migrator';
 import { fileURLToPath } from 'node:url';
 import pg from 'pg';
@@ -26,7 +27,47 @@ export function createPool(url: string, max = 10): pg.Pool {
 }
 
 export function createDb(pool: pg.Pool): Database {
-  return drizzle(pool, { schema, casing: 'snake_case' }) as Database;
+  const db = drizzle(pool, { schema, casing: 'snake_case' }) as Database;
+  releaseOnFailedBegin(db, pool);
+  return db;
+}
+
+type TransactionConfig = Parameters<Database['transaction']>[1];
+
+/**
+ * drizzle's pool transaction sends BEGIN before its try/finally, so when BEGIN
+ * itself fails (a pooled connection whose server went away in a restart) the
+ * connection is never given back; a few of those and the pool is empty and every
+ * request waits for ever. The same steps here with BEGIN inside: the connection
+ * always goes back, and one whose BEGIN or ROLLBACK failed is thrown away.
+ */
+function releaseOnFailedBegin(db: Database, pool: pg.Pool) {
+  // drizzle's own session fields (dialect, schema, options) and transaction class; only `transaction` is replaced.
+  type Loose = any; // eslint-disable-line @typescript-eslint/no-explicit-any
+  const session = (db as unknown as { session: Loose }).session;
+  session.transaction = async (run: (tx: Loose) => Promise<unknown>, config?: TransactionConfig) => {
+    const client = await pool.connect();
+    const tx: Loose = new NodePgTransaction(session.dialect, new NodePgSession(client, session.dialect, session.schema, session.options), session.schema);
+    try {
+      await tx.execute(sql`begin${config ? sql` ${tx.getTransactionConfigSQL(config)}` : undefined}`);
+    } catch (error) {
+      client.release(error as Error);
+      throw error;
+    }
+    let broken: Error | undefined;
+    try {
+      const result = await run(tx);
+      await tx.execute(sql`commit`);
+      return result;
+    } catch (error) {
+      await tx.execute(sql`rollback`).catch((rollbackError: Error) => {
+        broken = rollbackError;
+      });
+      throw error;
+    } finally {
+      client.release(broken);
+    }
+  };
 }
 
 export async function runMigrations(url: string): Promise<void> {
