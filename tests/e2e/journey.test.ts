@@ -226,7 +226,7 @@ describe('whole journeys through the marketplace, one browser per person', () =>
       await record.getByRole('radiogroup', { name: 'Crosshatch' }).getByRole('radio', { name: 'Measured angle' }).click();
       await record.getByLabel('Included angle (°)').fill('45');
       await record.getByLabel('Signed off by (your name)').fill('Rosa Okafor');
-      await results.getByText('Every check passes').waitFor();
+      await results.getByText('Pass: every limit judged').waitFor();
       await shot(s, 'inspection-entry');
       await record.getByRole('button', { name: 'Submit the record' }).click();
       await s.waitForURL(suite.url(jobPath));
@@ -236,7 +236,7 @@ describe('whole journeys through the marketplace, one browser per person', () =>
       const review = b.getByTestId('inspection-review');
       await review.waitFor();
       await status(b, 'Results to review');
-      await expect(text(review.getByTestId('inspection-verdict'))).resolves.toContain('Every check passes');
+      await expect(text(review.getByTestId('inspection-verdict'))).resolves.toContain('Pass: every limit judged, every check conforms');
       await shot(b, 'review');
       await review.getByRole('button', { name: 'Accept the record' }).click();
       const confirm = b.getByRole('dialog', { name: 'Accept version 1 of the inspection record?' });
