@@ -1,5 +1,6 @@
 import { eq } from 'drizzle-orm';
 import type { BidInput } from '../shared/schemas/bids';
+import type { InspectionInput } from '../shared/schemas/inspection';
 import type { JobInput } from '../shared/schemas/jobs';
 import type { ShopProfileInput } from '../shared/schemas/shops';
 import { insertJob } from '../server/modules/jobs/jobs.repository';
@@ -138,3 +139,29 @@ export function bidInput(overrides: Partial<BidInput> = {}): BidInput {
   };
 }
 
+
+/**
+ * An 8-cylinder inspection record honed to 4.0310 in with small, invented variations (demo numbers),
+ * read at `temperatureC`; `badTaperOn` gives that cylinder 0.0009 in of taper.
+ */
+export function inspectionRecordInput(overrides: Partial<InspectionInput> = {}, badTaperOn?: number, temperatureC = 21): InspectionInput {
+  const cylinders = Array.from({ length: 8 }, (_, i) => {
+    const base = 4.031 + (i % 3) * 0.0001;
+    return {
+      top: { thrust: base + 0.0001, axial: base + 0.0001 },
+      middle: { thrust: base, axial: base + 0.0001 },
+      bottom: { thrust: i === badTaperOn ? base - 0.0009 : base, axial: base },
+      piston: 4.028,
+    };
+  });
+  return {
+    conditions: { unit: 'in', gaugeResolution: 0.0001, temperatureC, torquePlate: true },
+    cylinders,
+    deck: { readings: [0.001, 0.0015, 0.001, 0.002], raUm: 0.9 },
+    finish: { mode: 'values', raUm: 0.45, rkUm: 0.6, rpkUm: 0.15, rvkUm: 1.2 },
+    crosshatch: { mode: 'measured', includedAngleDeg: 45 },
+    signedOffBy: 'Ada Quernfield',
+    notes: '',
+    ...overrides,
+  };
+}

@@ -9,7 +9,7 @@ import { inspectionRecords, milestonePhotos, scheduledTasks } from '../../server
 import { createScheduler } from '../../server/lib/scheduler';
 import { inspectionTaskHandlers } from '../../server/modules/inspections/inspections.service';
 import { jobBalance } from '../../server/modules/payments/ledger';
-import { createUser, jobInput } from '../factories';
+import { createUser, inspectionRecordInput, jobInput } from '../factories';
 import { startMoneyApp } from '../setup/money-app';
 import { signedIn } from '../setup/test-env';
 
@@ -21,28 +21,7 @@ afterAll(async () => {
   await m?.close();
 });
 
-/** Eight cylinders honed to 4.0310 in with small, invented variations (demo numbers). */
-function record(overrides: Partial<InspectionInput> = {}, badTaperOn?: number): InspectionInput {
-  const cylinders = Array.from({ length: 8 }, (_, i) => {
-    const base = 4.031 + (i % 3) * 0.0001;
-    return {
-      top: { thrust: base + 0.0001, axial: base + 0.0001 },
-      middle: { thrust: base, axial: base + 0.0001 },
-      bottom: { thrust: i === badTaperOn ? base - 0.0009 : base, axial: base },
-      piston: 4.028,
-    };
-  });
-  return {
-    conditions: { unit: 'in', gaugeResolution: 0.0001, temperatureC: 21, torquePlate: true },
-    cylinders,
-    deck: { readings: [0.001, 0.0015, 0.001, 0.002], raUm: 0.9 },
-    finish: { mode: 'values', raUm: 0.45, rkUm: 0.6, rpkUm: 0.15, rvkUm: 1.2 },
-    crosshatch: { mode: 'measured', includedAngleDeg: 45 },
-    signedOffBy: 'Ada Quernfield',
-    notes: '',
-    ...overrides,
-  };
-}
+const record = (overrides: Partial<InspectionInput> = {}, badTaperOn?: number) => inspectionRecordInput(overrides, badTaperOn);
 
 const spec = jobInput({ maxTaper: 0.0005, maxOutOfRound: 0.0005, crosshatchMinDeg: 40, crosshatchMaxDeg: 50, finishRaMaxUm: 0.6 });
 
