@@ -2,7 +2,7 @@ import { randomBytes } from 'node:crypto';
 import { readFileSync, rmSync } from 'node:fs';
 import { and, eq } from 'drizzle-orm';
 import sharp from 'sharp';
-import { io as connect, type Socket } from 'socket.io-client';
+import type { Socket } from 'socket.io-client';
 import { afterAll, afterEach, beforeAll, describe, expect, inject, it } from 'vitest';
 import { createDb, createPool, type Database } from '../../server/db/client';
 import { mailOutbox, messagePhotos, messages } from '../../server/db/schema';
@@ -11,6 +11,7 @@ import { createTransport } from '../../server/lib/mail/transport';
 import { sendDueDigests } from '../../server/modules/messages/digest';
 import { startServer, type RunningServer } from '../../server/runtime';
 import { bidInput, createJob, createShop, createUser } from '../factories';
+import { connected, emit, next, post, session, socketFor as openSocket } from '../setup/realtime';
 import { createTestDatabase, testConfig, type TestContext } from '../setup/test-env';
 
 let database: Awaited<ReturnType<typeof createTestDatabase>>;
@@ -20,6 +21,7 @@ let instanceA: RunningServer;
 let instanceB: RunningServer;
 let config: TestContext['config'];
 const sockets: Socket[] = [];
+const socketFor = (server: RunningServer, cookie?: string, origin?: string) => openSocket(sockets, server, cookie, origin);
 
 beforeAll(async () => {
   database = await createTestDatabase();
@@ -38,53 +40,6 @@ afterAll(async () => {
   await database?.drop();
   if (config) rmSync(config.uploadsDir, { recursive: true, force: true });
 });
-
-/** Signs in over HTTP and returns the session cookie and a CSRF token for it. */
-async function session(server: RunningServer, user: { email: string; password: string }) {
-  const first = await fetch(`${server.url}/api/auth/csrf`);
-  const anon = first.headers.get('set-cookie')!.split(';')[0];
-  const { csrfToken } = (await first.json()) as { csrfToken: string };
-  const login = await fetch(`${server.url}/api/auth/login`, {
-    method: 'POST',
-    headers: { 'Content-Type': 'application/json', Cookie: anon, 'X-CSRF-Token': csrfToken },
-    body: JSON.stringify({ email: user.email, password: user.password }),
-  });
-  expect(login.status).toBe(200);
-  const body = (await login.json()) as { csrfToken: string };
-  return { cookie: login.headers.get('set-cookie')!.split(';')[0], csrf: body.csrfToken };
-}
-
-async function post(server: RunningServer, auth: { cookie: string; csrf: string }, path: string, body: unknown) {
-  const res = await fetch(`${server.url}${path}`, {
-    method: 'POST',
-    headers: { 'Content-Type': 'application/json', Cookie: auth.cookie, 'X-CSRF-Token': auth.csrf },
-    body: JSON.stringify(body),
-  });
-  return { status: res.status, body: (await res.json().catch(() => ({}))) as Record<string, any> };
-}
-
-function socketFor(server: RunningServer, cookie?: string): Socket {
-  const socket = connect(server.url, { transports: ['websocket'], extraHeaders: cookie ? { cookie } : {}, reconnection: false, forceNew: true });
-  sockets.push(socket);
-  return socket;
-}
-
-const connected = (socket: Socket) =>
-  new Promise<void>((resolve, reject) => {
-    socket.once('connect', () => resolve());
-    socket.once('connect_error', reject);
-  });
-
-const emit = <T = any>(socket: Socket, event: string, payload: unknown) => socket.timeout(5_000).emitWithAck(event, payload) as Promise<T>;
-
-const next = <T = any>(socket: Socket, event: string) =>
-  new Promise<T>((resolve, reject) => {
-    const timer = setTimeout(() => reject(new Error(`no ${event} within 5 s`)), 5_000);
-    socket.once(event, (payload: T) => {
-      clearTimeout(timer);
-      resolve(payload);
-    });
-  });
 
 /** A job with a bid from one shop, and the conversation between them opened by the builder. */
 async function conversation() {

@@ -8,12 +8,13 @@
 import { randomBytes } from 'node:crypto';
 import { rmSync } from 'node:fs';
 import { and, desc, eq, sql } from 'drizzle-orm';
-import { io as connect, type Socket } from 'socket.io-client';
+import type { Socket } from 'socket.io-client';
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
 import { createDb, createPool, type Database } from '../../server/db/client';
 import { mailOutbox, messages } from '../../server/db/schema';
 import { startServer, type RunningServer } from '../../server/runtime';
 import { bidInput, createJob, createShop, createUser, TEST_PASSWORD } from '../factories';
+import { connected, emit, next, post, session, socketFor as openSocket, type Auth } from '../setup/realtime';
 import { createTestDatabase, testConfig, type TestContext } from '../setup/test-env';
 
 let database: Awaited<ReturnType<typeof createTestDatabase>>;
@@ -23,6 +24,7 @@ let instanceA: RunningServer;
 let instanceB: RunningServer;
 let config: TestContext['config'];
 const sockets: Socket[] = [];
+const socketFor = (server: RunningServer, cookie?: string, origin?: string) => openSocket(sockets, server, cookie, origin);
 
 beforeAll(async () => {
   database = await createTestDatabase();
@@ -42,54 +44,13 @@ afterAll(async () => {
   if (config) rmSync(config.uploadsDir, { recursive: true, force: true });
 });
 
-type Auth = { cookie: string; csrf: string };
-
-/** Signs in over HTTP and returns the session cookie and a CSRF token for it. */
-async function session(server: RunningServer, user: { email: string; password: string }): Promise<Auth> {
-  const first = await fetch(`${server.url}/api/auth/csrf`);
-  const anon = first.headers.get('set-cookie')!.split(';')[0];
-  const { csrfToken } = (await first.json()) as { csrfToken: string };
-  const login = await fetch(`${server.url}/api/auth/login`, {
-    method: 'POST',
-    headers: { 'Content-Type': 'application/json', Cookie: anon, 'X-CSRF-Token': csrfToken },
-    body: JSON.stringify({ email: user.email, password: user.password }),
-  });
-  expect(login.status).toBe(200);
-  const body = (await login.json()) as { csrfToken: string };
-  return { cookie: login.headers.get('set-cookie')!.split(';')[0], csrf: body.csrfToken };
-}
-
 /** A signed-out visitor's cookie and token, for the public routes. */
 async function visitor(server: RunningServer): Promise<Auth> {
   const res = await fetch(`${server.url}/api/auth/csrf`);
   return { cookie: res.headers.get('set-cookie')!.split(';')[0], csrf: ((await res.json()) as { csrfToken: string }).csrfToken };
 }
 
-async function post(server: RunningServer, auth: Auth, path: string, body: unknown = {}) {
-  const res = await fetch(`${server.url}${path}`, {
-    method: 'POST',
-    headers: { 'Content-Type': 'application/json', Cookie: auth.cookie, 'X-CSRF-Token': auth.csrf },
-    body: JSON.stringify(body),
-  });
-  return { status: res.status, body: (await res.json().catch(() => ({}))) as Record<string, any> };
-}
-
 const me = async (server: RunningServer, auth: Auth) => (await fetch(`${server.url}/api/auth/me`, { headers: { Cookie: auth.cookie } })).status;
-
-function socketFor(server: RunningServer, cookie?: string, origin?: string): Socket {
-  const headers: Record<string, string> = {};
-  if (cookie) headers.cookie = cookie;
-  if (origin) headers.origin = origin;
-  const socket = connect(server.url, { transports: ['websocket'], extraHeaders: headers, reconnection: false, forceNew: true });
-  sockets.push(socket);
-  return socket;
-}
-
-const connected = (socket: Socket) =>
-  new Promise<void>((resolve, reject) => {
-    socket.once('connect', () => resolve());
-    socket.once('connect_error', reject);
-  });
 
 /** The reason the server gave for closing the socket, within five seconds. */
 const disconnected = (socket: Socket) =>
@@ -101,23 +62,12 @@ const disconnected = (socket: Socket) =>
     });
   });
 
-const emit = <T = any>(socket: Socket, event: string, payload: unknown) => socket.timeout(5_000).emitWithAck(event, payload) as Promise<T>;
-
 /** Collects every `event` a socket hears from now on. */
 function heard<T = any>(socket: Socket, event: string): T[] {
   const seen: T[] = [];
   socket.on(event, (payload: T) => seen.push(payload));
   return seen;
 }
-
-const next = <T = any>(socket: Socket, event: string) =>
-  new Promise<T>((resolve, reject) => {
-    const timer = setTimeout(() => reject(new Error(`no ${event} within 5 s`)), 5_000);
-    socket.once(event, (payload: T) => {
-      clearTimeout(timer);
-      resolve(payload);
-    });
-  });
 
 const pause = (ms: number) => new Promise((resolve) => setTimeout(resolve, ms));
 const clientId = () => randomBytes(8).toString('hex');

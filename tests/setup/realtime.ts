@@ -1,0 +1,65 @@
+import { io as connect, type Socket } from 'socket.io-client';
+import { expect } from 'vitest';
+import type { RunningServer } from '../../server/runtime';
+
+/** A signed-in (or visiting) HTTP session: its cookie and a CSRF token for it. */
+export type Auth = { cookie: string; csrf: string };
+
+/** Signs in over HTTP and returns the session cookie and a CSRF token for it. */
+export async function session(server: RunningServer, user: { email: string; password: string }): Promise<Auth> {
+  const first = await fetch(`${server.url}/api/auth/csrf`);
+  const anon = first.headers.get('set-cookie')!.split(';')[0];
+  const { csrfToken } = (await first.json()) as { csrfToken: string };
+  const login = await fetch(`${server.url}/api/auth/login`, {
+    method: 'POST',
+    headers: { 'Content-Type': 'application/json', Cookie: anon, 'X-CSRF-Token': csrfToken },
+    body: JSON.stringify({ email: user.email, password: user.password }),
+  });
+  expect(login.status).toBe(200);
+  const body = (await login.json()) as { csrfToken: string };
+  return { cookie: login.headers.get('set-cookie')!.split(';')[0], csrf: body.csrfToken };
+}
+
+/** POSTs JSON with the session's cookie and token; the status and the parsed body (empty when none). */
+export async function post(server: RunningServer, auth: Auth, path: string, body: unknown = {}) {
+  const res = await fetch(`${server.url}${path}`, {
+    method: 'POST',
+    headers: { 'Content-Type': 'application/json', Cookie: auth.cookie, 'X-CSRF-Token': auth.csrf },
+    body: JSON.stringify(body),
+  });
+  // eslint-disable-next-line @typescript-eslint/no-explicit-any
+  return { status: res.status, body: (await res.json().catch(() => ({}))) as Record<string, any> };
+}
+
+/**
+ * A socket to `server` with the given cookie (and Origin, when a test plays another site), no
+ * automatic reconnection; it goes into `sockets` so the test file can close them after each test.
+ */
+export function socketFor(sockets: Socket[], server: RunningServer, cookie?: string, origin?: string): Socket {
+  const headers: Record<string, string> = {};
+  if (cookie) headers.cookie = cookie;
+  if (origin) headers.origin = origin;
+  const socket = connect(server.url, { transports: ['websocket'], extraHeaders: headers, reconnection: false, forceNew: true });
+  sockets.push(socket);
+  return socket;
+}
+
+export const connected = (socket: Socket) =>
+  new Promise<void>((resolve, reject) => {
+    socket.once('connect', () => resolve());
+    socket.once('connect_error', reject);
+  });
+
+// eslint-disable-next-line @typescript-eslint/no-explicit-any
+export const emit = <T = any>(socket: Socket, event: string, payload: unknown) => socket.timeout(5_000).emitWithAck(event, payload) as Promise<T>;
+
+/** The next `event` the socket hears, within five seconds. */
+// eslint-disable-next-line @typescript-eslint/no-explicit-any
+export const next = <T = any>(socket: Socket, event: string) =>
+  new Promise<T>((resolve, reject) => {
+    const timer = setTimeout(() => reject(new Error(`no ${event} within 5 s`)), 5_000);
+    socket.once(event, (payload: T) => {
+      clearTimeout(timer);
+      resolve(payload);
+    });
+  });
