@@ -120,6 +120,22 @@ describe('the certificate', () => {
     expect(text).toContain('largest minus the smallest');
   });
 
+  it('when the job asks for guarded acceptance and the record was read warm with a filtered trace, then the certificate names the rule, the temperature correction and the filter', async () => {
+    const { job, builder, shop } = await inWork(jobInput({ ...spec, decisionRule: 'guarded', blockMaterial: 'cast-iron' }));
+    // A trace of 4 mm at 1 µm spacing: a 0.8 mm cut-off has room for its whole sampling lengths.
+    const heightsUm = Array.from({ length: 4_000 }, (_, i) => 0.4 * Math.sin((2 * Math.PI * i) / 80) + 0.0005 * i);
+    const input = record({ finish: { mode: 'profile', heightsUm, spacingUm: 1, filter: { kind: 'gaussian', cutoffMm: 0.8 } } });
+    input.conditions = { ...input.conditions, temperatureC: 30 };
+    expect((await shop.post(`/api/jobs/${job.id}/inspection`, input)).status).toBe(201);
+    const text = await pdfText(builder, job.id, 1);
+    expect(text).toContain('How it was judged');
+    expect(text).toContain('Guarded acceptance (ISO 14253-1)');
+    expect(text).toContain('Measured at 30 °C; bore figures corrected to 20 °C');
+    expect(text).toContain('Roughness filter');
+    expect(text).toMatch(/Gaussian/);
+    expect(text).toMatch(/0\.8 mm/);
+  });
+
   it('when the job gave no limits, then the certificate says nothing was judged (not PASS), and a decided record’s status is in words', async () => {
     const noLimits = jobInput({ targetBore: undefined, pistonDiameter: undefined, clearanceMin: undefined, clearanceMax: undefined, maxTaper: undefined, maxOutOfRound: undefined, crosshatchMinDeg: undefined, crosshatchMaxDeg: undefined });
     const funded = await m.fundedJob({ input: noLimits });
