@@ -14,8 +14,12 @@
  * - out-of-round per depth: |thrust − axial|, a two-point figure (a pure oval
  *   has an ISO 1101 roundness zone of half this); outOfRound: the largest;
  * - clearance: mean bore − measured piston diameter (the piston measured at
- *   its gauge point, 90° to the pin). tightestClearance uses the smallest of
- *   the six readings instead, for a screen that wants the worst spot;
+ *   its gauge point, 90° to the pin), shown as the typical figure.
+ *   tightestClearance uses the smallest of the six readings instead, for a
+ *   screen that wants the worst spot. The clearance limits are judged on the
+ *   thrust axis, where the skirt bears (common practice): the smallest thrust
+ *   reading minus the piston against the minimum, the largest against the
+ *   maximum (thrustClearance), never on the mean, which axial readings move;
  * - deviation: mean − target bore (positive when the bore is over size).
  *
  * Limits are compared with a slack of 1e-9 in the caller's unit so that
@@ -73,6 +77,8 @@ export interface CylinderInspection {
   taperAxial: number;
   outOfRound: number;
   outOfRoundByDepth: Record<Depth, number>;
+  /** Thrust-axis clearance at its tightest and loosest depth: what the clearance limits are judged on. */
+  thrustClearance?: { smallest: number; largest: number };
   clearance?: number;
   tightestClearance?: number;
   deviation?: number;
@@ -152,6 +158,9 @@ export function inspectCylinder(readings: CylinderReadings, spec: BoreSpec = {},
 
   const clearance = readings.piston === undefined ? undefined : mean - readings.piston;
   const tightestClearance = readings.piston === undefined ? undefined : smallest - readings.piston;
+  const thrust = [readings.top.thrust, readings.middle.thrust, readings.bottom.thrust];
+  const thrustClearance =
+    readings.piston === undefined ? undefined : { smallest: Math.min(...thrust) - readings.piston, largest: Math.max(...thrust) - readings.piston };
   const deviation = spec.targetBore === undefined ? undefined : mean - spec.targetBore;
 
   const failures: LimitFailure[] = [];
@@ -166,12 +175,13 @@ export function inspectCylinder(readings: CylinderReadings, spec: BoreSpec = {},
   for (const limit of ['clearanceMin', 'clearanceMax'] as const) {
     const allowed = spec[limit];
     if (allowed === undefined) continue;
-    if (clearance === undefined) {
+    if (thrustClearance === undefined) {
       notChecked.push(limit);
       continue;
     }
-    const crossed = limit === 'clearanceMin' ? exceeds(allowed, clearance) : exceeds(clearance, allowed);
-    if (crossed) failures.push({ limit, value: clearance, allowed });
+    const value = limit === 'clearanceMin' ? thrustClearance.smallest : thrustClearance.largest;
+    const crossed = limit === 'clearanceMin' ? exceeds(allowed, value) : exceeds(value, allowed);
+    if (crossed) failures.push({ limit, value, allowed });
   }
   if (spec.maxTaper !== undefined && exceeds(taper, spec.maxTaper)) {
     failures.push({ limit: 'maxTaper', value: taper, allowed: spec.maxTaper });
@@ -189,7 +199,7 @@ export function inspectCylinder(readings: CylinderReadings, spec: BoreSpec = {},
     taperAxial,
     outOfRound,
     outOfRoundByDepth,
-    ...(clearance === undefined ? {} : { clearance, tightestClearance }),
+    ...(clearance === undefined ? {} : { clearance, tightestClearance, thrustClearance }),
     ...(deviation === undefined ? {} : { deviation }),
     pass: failures.length === 0,
     failures,

@@ -105,7 +105,7 @@ describe('inspectCylinder', () => {
     const byLimit = Object.fromEntries(result.failures.map((failure) => [failure.limit, failure]));
     expectNear(byLimit.targetBore.value, 0.00025, 1e-9); // derived: signed deviation 4.00225 − 4.0020
     expect(byLimit.targetBore.allowed).toBe(0.0002); // derived: echoes the spec's ± tolerance
-    expectNear(byLimit.clearanceMin.value, 0.00225, 1e-9); // derived: 4.00225 − 4.0000
+    expectNear(byLimit.clearanceMin.value, 0.001, 1e-9); // derived: the smallest thrust reading 4.0010 − piston 4.0000 (judged on the thrust axis, common practice)
     expect(byLimit.clearanceMin.allowed).toBe(0.0025); // derived: echoes the spec's minimum
     expectNear(byLimit.maxTaper.value, 0.003, 1e-9); // derived: thrust taper
     expect(byLimit.maxTaper.allowed).toBe(0.0005); // derived: echoes the spec's maximum
@@ -132,7 +132,22 @@ describe('inspectCylinder', () => {
     const result = inspectCylinder({ ...honed, piston: 4.024 }, { clearanceMin: 0.0025, clearanceMax: 0.0045 });
     expect(result.failures).toHaveLength(1); // derived: only the maximum clearance is crossed
     expect(result.failures[0].limit).toBe('clearanceMax');
-    expectNear(result.failures[0].value, 0.00605, 1e-9); // derived: 4.03005 − 4.0240
+    expectNear(result.failures[0].value, 0.0061, 1e-9); // derived: the largest thrust reading 4.0301 − piston 4.0240
+  });
+
+  it('when the bottom thrust reading leaves less than the minimum clearance, then clearanceMin fails although the mean of six would pass', () => {
+    // The skirt bears on the thrust faces (common practice), so the thrust axis is judged, at every depth.
+    const bellMouthed: CylinderReadings = {
+      top: { thrust: 4.031, axial: 4.0309 },
+      middle: { thrust: 4.0308, axial: 4.0309 },
+      bottom: { thrust: 4.0303, axial: 4.0303 },
+      piston: 4.028,
+    };
+    const result = inspectCylinder(bellMouthed, { clearanceMin: 0.0025, clearanceMax: 0.0035 }); // test input: the job's clearance range
+    expectNear(result.clearance!, 0.0027, 1e-9); // derived: mean of the six readings 4.0307 − 4.0280, inside the range
+    expect(result.failures.map((failure) => failure.limit)).toEqual(['clearanceMin']);
+    expectNear(result.failures[0].value, 0.0023, 1e-9); // derived: bottom thrust 4.0303 − 4.0280
+    expectNear(result.thrustClearance!.largest, 0.003, 1e-9); // derived: top thrust 4.0310 − 4.0280, within the maximum
   });
 
   it('when the taper equals the limit exactly, then it passes; when it is a tenth over, then it fails', () => {

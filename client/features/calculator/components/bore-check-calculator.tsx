@@ -76,9 +76,9 @@ function failureText(failure: LimitFailure, unit: LengthUnit): string {
     case 'maxOutOfRound':
       return `Out-of-round ${L(failure.value)} is over the ${L(failure.allowed)} limit.`;
     case 'clearanceMin':
-      return `Clearance ${L(failure.value)} is under the ${L(failure.allowed)} minimum.`;
+      return `Clearance on the thrust axis ${L(failure.value)} (smallest thrust reading minus piston) is under the ${L(failure.allowed)} minimum.`;
     case 'clearanceMax':
-      return `Clearance ${L(failure.value)} is over the ${L(failure.allowed)} maximum.`;
+      return `Clearance on the thrust axis ${L(failure.value)} (largest thrust reading minus piston) is over the ${L(failure.allowed)} maximum.`;
     case 'targetBore':
       return `Mean size is ${L(Math.abs(failure.value))} ${failure.value > 0 ? 'over' : 'under'} the target; ± ${L(failure.allowed)} allowed.`;
   }
@@ -349,7 +349,7 @@ export function BoreCheckCalculator({ unit }: { unit: LengthUnit }) {
                     {input.spec?.targetBore !== undefined && <th scope="col" className="py-1 pr-3 text-right font-semibold">Off target</th>}
                     <th scope="col" className="py-1 pr-3 text-right font-semibold">Taper</th>
                     <th scope="col" className="py-1 pr-3 text-right font-semibold">Out-of-round</th>
-                    <th scope="col" className="py-1 pr-3 text-right font-semibold">Clearance</th>
+                    <th scope="col" className="py-1 pr-3 text-right font-semibold">Clearance, thrust axis</th>
                     <th scope="col" className="py-1 font-semibold">Result</th>
                   </tr>
                 </thead>
@@ -371,7 +371,7 @@ export function BoreCheckCalculator({ unit }: { unit: LengthUnit }) {
                         <td className={cn('whitespace-nowrap py-1.5 pr-3 text-right', failed('maxTaper'))}>{figure(cylinder.taper)}</td>
                         <td className={cn('whitespace-nowrap py-1.5 pr-3 text-right', failed('maxOutOfRound'))}>{figure(cylinder.outOfRound)}</td>
                         <td className={cn('whitespace-nowrap py-1.5 pr-3 text-right', failed(['clearanceMin', 'clearanceMax']))}>
-                          {cylinder.clearance === undefined ? '—' : figure(cylinder.clearance)}
+                          {cylinder.thrustClearance === undefined ? '—' : `${figure(cylinder.thrustClearance.smallest)} – ${figure(cylinder.thrustClearance.largest)}`}
                         </td>
                         <td className="py-1.5">
                           {hasLimits ? <PassMark pass={cylinder.pass} passText="Pass" failText="Fail" /> : <span className="text-ink-soft">—</span>}
