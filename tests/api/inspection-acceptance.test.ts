@@ -1,4 +1,3 @@
-import { fileURLToPath } from 'node:url';
 import { and, eq } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { InspectionInput } from '../../shared/schemas/inspection';
@@ -8,7 +7,7 @@ import { createScheduler } from '../../server/lib/scheduler';
 import { inspectionTaskHandlers } from '../../server/modules/inspections/inspections.service';
 import { createUser, inspectionRecordInput, jobInput } from '../factories';
 import { startMoneyApp } from '../setup/money-app';
-import type { signedIn } from '../setup/test-env';
+import { certificateText } from '../setup/pdf';
 
 /**
  * Issue 15: the review window accepts only a record whose every check
@@ -28,24 +27,7 @@ const record = (overrides: Partial<InspectionInput> = {}, badTaperOn?: number) =
 
 const spec = jobInput({ maxTaper: 0.0005, maxOutOfRound: 0.0005, crosshatchMinDeg: 40, crosshatchMaxDeg: 50, finishRaMaxUm: 0.6 });
 
-/** The text of a version's certificate PDF, read back with pdfjs-dist. */
-async function pdfText(who: Awaited<ReturnType<typeof signedIn>>, jobId: string, version: number): Promise<string> {
-  const res = await who.agent.get(`/api/jobs/${jobId}/inspection/${version}/certificate.pdf`).buffer(true).parse((r, done) => {
-    const chunks: Buffer[] = [];
-    r.on('data', (c: Buffer) => chunks.push(c));
-    r.on('end', () => done(null, Buffer.concat(chunks)));
-  });
-  expect(res.status).toBe(200);
-  const { getDocument } = await import('pdfjs-dist/legacy/build/pdf.mjs');
-  const fonts = `${fileURLToPath(new URL('../../node_modules/pdfjs-dist/standard_fonts/', import.meta.url))}`;
-  const pdf = await getDocument({ data: new Uint8Array(res.body as Buffer), standardFontDataUrl: fonts }).promise;
-  let text = '';
-  for (let p = 1; p <= pdf.numPages; p += 1) {
-    const content = await (await pdf.getPage(p)).getTextContent();
-    text += content.items.map((item) => ('str' in item ? item.str : '')).join(' ') + '\n';
-  }
-  return text;
-}
+const pdfText = certificateText;
 
 async function inWork(input = spec) {
   const funded = await m.fundedJob({ input });
