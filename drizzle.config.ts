@@ -2,7 +2,7 @@ import { defineConfig } from 'drizzle-kit';
 
 export default defineConfig({
   dialect: 'postgresql',
-  schema: ['./server/db/schema.ts', './server/db/schema-work.ts', './server/db/schema-disputes.ts'],
+  schema: './server/db/schema/index.ts',
   out: './drizzle',
   casing: 'snake_case',
   strict: true,

@@ -417,6 +417,7 @@ export async function buildDemoScenario(options: ScenarioOptions): Promise<numbe
   step('cancelled before any bid');
 
   // Spread the jobs over the past weeks so ages and the board's order look lived-in.
+  // Raw SQL, so the schema's $onUpdate does not touch updated_at: on purpose, backdating is not a change to the job.
   for (const [key, id] of Object.entries(ids)) {
     const age = plans[key].ageDays;
     await options.db.execute(sql`

@@ -1,7 +1,7 @@
 import { sql } from 'drizzle-orm';
 import type { Logger } from 'pino';
 import type { Database, Executor } from '../db/client';
-import { scheduledTasks } from '../db/schema-work';
+import { scheduledTasks } from '../db/schema';
 
 export type TaskHandler = (payload: Record<string, unknown>, now: Date) => Promise<void>;
 

@@ -32,8 +32,7 @@ import supertest from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { InspectionInput } from '../../shared/schemas/inspection';
 import { milestoneInputSchema } from '../../shared/schemas/inspection';
-import { bids, changeOrders, jobs, payments, shops, users as usersTable, type User } from '../../server/db/schema';
-import { inspectionRecords } from '../../server/db/schema-work';
+import { bids, changeOrders, inspectionRecords, jobs, payments, shops, users as usersTable, type User } from '../../server/db/schema';
 import { submitHostedPage } from '../../server/dev/payments-stand-in/page-client';
 import { listRoutes } from '../../server/lib/routes-list';
 import { issueToken } from '../../server/modules/auth/tokens';
@@ -209,7 +208,7 @@ const w = {
       .values({ jobId, kind: 'bid', amountCents: bid.totalCents, status: 'paid', paidAt: new Date(), paymentIntentId: `pi_matrix_${ref}`, chargeId: `ch_matrix_${ref}` })
       .returning();
     await appendLedger(db(), { jobId, paymentId: payment.id, kind: 'paid_in', amountCents: payment.amountCents, reference: payment.chargeId! });
-    await db().update(jobs).set({ status: 'funded', updatedAt: new Date() }).where(eq(jobs.id, jobId));
+    await db().update(jobs).set({ status: 'funded' }).where(eq(jobs.id, jobId));
   },
   async funded(money: Money = 'fake', options: { loser?: boolean; photo?: boolean } = {}) {
     const job = await w.awarded(options);
@@ -249,7 +248,7 @@ const w = {
   async completed() {
     const job = await w.submitted();
     await db().update(inspectionRecords).set({ status: 'accepted', decidedAt: new Date(), decidedBy: people.builderA.id, decidedHow: 'builder' }).where(eq(inspectionRecords.jobId, job.jobId));
-    await db().update(jobs).set({ status: 'completed', updatedAt: new Date() }).where(eq(jobs.id, job.jobId));
+    await db().update(jobs).set({ status: 'completed' }).where(eq(jobs.id, job.jobId));
     return job;
   },
   /** The conversation between builder A and shop X about a job, with one message from A. */

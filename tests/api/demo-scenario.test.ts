@@ -1,8 +1,7 @@
 import { eq, sql } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createDb, createPool, type Database } from '../../server/db/client';
-import { jobs } from '../../server/db/schema';
-import { inspectionRecords } from '../../server/db/schema-work';
+import { inspectionRecords, jobs } from '../../server/db/schema';
 import { buildDemoScenario } from '../../server/dev/demo-scenario';
 import { demoAccounts, seedIfEmpty } from '../../server/dev/seed';
 import { startServer, type RunningServer } from '../../server/runtime';

@@ -1,8 +1,7 @@
 import { and, eq } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { InspectionInput } from '../../shared/schemas/inspection';
-import { jobs, mailOutbox } from '../../server/db/schema';
-import { inspectionRecords } from '../../server/db/schema-work';
+import { inspectionRecords, jobs, mailOutbox } from '../../server/db/schema';
 import { createScheduler } from '../../server/lib/scheduler';
 import { inspectionTaskHandlers } from '../../server/modules/inspections/inspections.service';
 import { createUser, inspectionRecordInput, jobInput } from '../factories';

@@ -8,7 +8,7 @@ import { eq } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { InspectionInput } from '../../shared/schemas/inspection';
 import type { JobInput } from '../../shared/schemas/jobs';
-import { inspectionRecords } from '../../server/db/schema-work';
+import { inspectionRecords } from '../../server/db/schema';
 import { createUser, jobInput } from '../factories';
 import { startMoneyApp } from '../setup/money-app';
 import { signedIn } from '../setup/test-env';

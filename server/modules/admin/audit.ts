@@ -1,8 +1,7 @@
 import { and, count, desc, eq } from 'drizzle-orm';
 import type { AuditRow } from '../../../shared/schemas/admin';
 import type { Executor } from '../../db/client';
-import { users } from '../../db/schema';
-import { adminActions } from '../../db/schema-disputes';
+import { adminActions, users } from '../../db/schema';
 
 /** Writes one administrator action; called inside the transaction that makes the change, so the log never misses one. */
 export async function recordAdminAction(

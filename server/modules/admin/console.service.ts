@@ -42,7 +42,7 @@ function toUserRow(u: User): AdminUserRow {
 export async function suspendUser(deps: ConsoleDeps, admin: User, userId: string, reason: string): Promise<AdminUserRow> {
   if (userId === admin.id) throw conflict('You cannot suspend your own account.', 'cannot_suspend_self');
   const user = await deps.db.transaction(async (tx) => {
-    const [row] = await tx.update(users).set({ status: 'suspended', updatedAt: new Date() }).where(eq(users.id, userId)).returning();
+    const [row] = await tx.update(users).set({ status: 'suspended' }).where(eq(users.id, userId)).returning();
     if (!row) throw notFound('No user with that id.');
     await tx.delete(sessions).where(sql`${sessions.sess} -> 'passport' ->> 'user' = ${userId}`);
     await recordAdminAction(tx, { adminId: admin.id, action: 'user.suspend', targetType: 'user', targetId: userId, details: { email: row.email, reason } });
@@ -55,7 +55,7 @@ export async function suspendUser(deps: ConsoleDeps, admin: User, userId: string
 
 export async function reinstateUser(deps: ConsoleDeps, admin: User, userId: string): Promise<AdminUserRow> {
   return deps.db.transaction(async (tx) => {
-    const [row] = await tx.update(users).set({ status: 'active', updatedAt: new Date() }).where(eq(users.id, userId)).returning();
+    const [row] = await tx.update(users).set({ status: 'active' }).where(eq(users.id, userId)).returning();
     if (!row) throw notFound('No user with that id.');
     await recordAdminAction(tx, { adminId: admin.id, action: 'user.reinstate', targetType: 'user', targetId: userId, details: { email: row.email } });
     return toUserRow(row);
@@ -109,7 +109,7 @@ export async function setShopVerified(deps: ConsoleDeps, admin: User, shopId: st
   return deps.db.transaction(async (tx) => {
     const [row] = await tx
       .update(shops)
-      .set({ verifiedAt: verified ? sql`coalesce(${shops.verifiedAt}, now())` : null, updatedAt: new Date() })
+      .set({ verifiedAt: verified ? sql`coalesce(${shops.verifiedAt}, now())` : null })
       .where(eq(shops.id, shopId))
       .returning({ id: shops.id, name: shops.name });
     if (!row) throw notFound('No shop with that id.');

@@ -1,8 +1,7 @@
 import { eq } from 'drizzle-orm';
 import type { PlatformFee } from '../../../shared/schemas/admin';
 import type { Executor } from '../../db/client';
-import { users } from '../../db/schema';
-import { platformSettings } from '../../db/schema-disputes';
+import { platformSettings, users } from '../../db/schema';
 
 const FEE_KEY = 'platform_fee_bps';
 
@@ -25,5 +24,5 @@ export async function setFee(tx: Executor, feeBps: number, adminId: string): Pro
   await tx
     .insert(platformSettings)
     .values({ key: FEE_KEY, value: feeBps, updatedBy: adminId })
-    .onConflictDoUpdate({ target: platformSettings.key, set: { value: feeBps, updatedBy: adminId, updatedAt: new Date() } });
+    .onConflictDoUpdate({ target: platformSettings.key, set: { value: feeBps, updatedBy: adminId } });
 }

@@ -135,7 +135,7 @@ export async function reviseBid(deps: BidDeps, user: User, bidId: string, input:
     });
     await tx
       .update(bids)
-      .set({ version: bid.version + 1, totalCents, turnaroundDays: input.turnaroundDays, validUntil: input.validUntil, note: input.note, jobRevision: job.revision, updatedAt: new Date() })
+      .set({ version: bid.version + 1, totalCents, turnaroundDays: input.turnaroundDays, validUntil: input.validUntil, note: input.note, jobRevision: job.revision })
       .where(eq(bids.id, bid.id));
     await writeLines(tx, bid.id, lines);
     const builder = await builderOf(tx, job);
@@ -151,7 +151,7 @@ export async function withdrawBid(deps: BidDeps, user: User, bidId: string): Pro
   await deps.db.transaction(async (tx) => {
     const { bid, job } = await ownBid(tx, user, bidId);
     if (bid.status !== 'active') throw conflict('Only an active bid can be withdrawn.', 'bid_not_active');
-    await tx.update(bids).set({ status: 'withdrawn', decidedAt: new Date(), updatedAt: new Date() }).where(eq(bids.id, bid.id));
+    await tx.update(bids).set({ status: 'withdrawn', decidedAt: new Date() }).where(eq(bids.id, bid.id));
     await tx.update(jobs).set({ bidCount: sql`greatest(${jobs.bidCount} - 1, 0)` }).where(eq(jobs.id, job.id));
   });
 }
@@ -177,15 +177,15 @@ export async function acceptBid(deps: BidDeps, user: User, bidId: string): Promi
     if (await shopSuspended(tx, bid.shopId)) throw conflict('This shop’s account is suspended, so its bid cannot be accepted.', 'shop_suspended');
     if (!shop?.ready) throw conflict('This shop has not finished setting up its payout account, so its bid cannot be accepted yet.', 'shop_payouts_not_ready');
     const now = new Date();
-    await tx.update(bids).set({ status: 'accepted', decidedAt: now, updatedAt: now }).where(eq(bids.id, bid.id));
+    await tx.update(bids).set({ status: 'accepted', decidedAt: now }).where(eq(bids.id, bid.id));
     const declined = await tx
       .update(bids)
-      .set({ status: 'declined', decidedAt: now, declineReason: 'Another bid was accepted.', updatedAt: now })
+      .set({ status: 'declined', decidedAt: now, declineReason: 'Another bid was accepted.' })
       .where(and(eq(bids.jobId, job.id), ne(bids.id, bid.id), eq(bids.status, 'active')))
       .returning({ shopId: bids.shopId });
     // The fee in force now is fixed on the job: a later change by an administrator applies to new awards only.
     const { feeBps } = await currentFee(tx, deps.platformFeeBps ?? 0);
-    await tx.update(jobs).set({ status: 'awarded', awardedBidId: bid.id, feeBps, updatedAt: now }).where(eq(jobs.id, job.id));
+    await tx.update(jobs).set({ status: 'awarded', awardedBidId: bid.id, feeBps }).where(eq(jobs.id, job.id));
 
     const winner = await shopContact(tx, bid.shopId);
     await enqueueMail(tx, winner.email, bidAcceptedMail({ shopName: winner.name, jobTitle: job.title, totalCents: bid.totalCents, url: jobUrl(deps, job.id) }));
@@ -201,7 +201,7 @@ export async function declineBid(deps: BidDeps, user: User, bidId: string, reaso
     const { bid, job } = await builderBid(tx, user, bidId);
     if (bid.status !== 'active') throw conflict('This bid is no longer active.', 'bid_not_active');
     // The bid count is bids received and not withdrawn: a declined bid still counts.
-    await tx.update(bids).set({ status: 'declined', decidedAt: new Date(), declineReason: reason || null, updatedAt: new Date() }).where(eq(bids.id, bid.id));
+    await tx.update(bids).set({ status: 'declined', decidedAt: new Date(), declineReason: reason || null }).where(eq(bids.id, bid.id));
     const shop = await shopContact(tx, bid.shopId);
     await enqueueMail(tx, shop.email, bidDeclinedMail({ shopName: shop.name, jobTitle: job.title, reason, url: `${deps.appUrl}/board` }));
   });

@@ -11,8 +11,7 @@ import {
   type ResolveDisputeInput,
 } from '../../../shared/schemas/disputes';
 import type { Database, Executor } from '../../db/client';
-import { bids, changeOrders, jobs, messages, threads, users, type User } from '../../db/schema';
-import { disputes } from '../../db/schema-disputes';
+import { bids, changeOrders, disputes, jobs, messages, threads, users, type User } from '../../db/schema';
 import { AppError, conflict, forbidden, notFound } from '../../lib/errors';
 import { enqueueMail } from '../../lib/mail/outbox';
 import { disputeAnsweredMail, disputeDecidedMail, disputeOpenedMail } from '../../lib/mail/templates';
@@ -130,7 +129,7 @@ export async function openDispute(deps: PaymentDeps, user: User, jobId: string, 
       .insert(disputes)
       .values({ jobId, openedBy: user.id, openedSide: side, reason: input.reason, statement: input.statement, jobStatusBefore: parties.job.status })
       .returning();
-    await tx.update(jobs).set({ status: 'disputed', updatedAt: new Date() }).where(eq(jobs.id, jobId));
+    await tx.update(jobs).set({ status: 'disputed' }).where(eq(jobs.id, jobId));
     const url = jobUrl(deps, jobId);
     const reason = disputeReasonWords[input.reason].toLowerCase();
     const mail = (name: string, isOpener: boolean) => disputeOpenedMail({ name, openedBy: side, isOpener, jobTitle: parties.job.title, reason, url });

@@ -4,8 +4,7 @@ import { evaluateInspection } from '../../../shared/calc/inspection-record';
 import type { InspectionInput, InspectionResults, InspectionVersion } from '../../../shared/schemas/inspection';
 import type { JobInput } from '../../../shared/schemas/jobs';
 import type { Database, Executor } from '../../db/client';
-import { jobs, users, type User } from '../../db/schema';
-import { inspectionDrafts, inspectionRecords, milestones } from '../../db/schema-work';
+import { inspectionDrafts, inspectionRecords, jobs, milestones, users, type User } from '../../db/schema';
 import { AppError, conflict, forbidden } from '../../lib/errors';
 import { enqueueMail } from '../../lib/mail/outbox';
 import { inspectionDecidedMail, inspectionSubmittedMail, reviewReminderMail, reviewWindowHeldMail } from '../../lib/mail/templates';
@@ -94,7 +93,7 @@ export async function submitInspection(deps: InspectionDeps, user: User, jobId: 
       .insert(inspectionRecords)
       .values({ jobId: job.id, version: next, input, results, pass: results.pass, submittedBy: user.id, reviewDueAt })
       .returning();
-    await tx.update(jobs).set({ status: 'inspection_submitted', updatedAt: new Date() }).where(eq(jobs.id, job.id));
+    await tx.update(jobs).set({ status: 'inspection_submitted' }).where(eq(jobs.id, job.id));
     await tx.delete(inspectionDrafts).where(eq(inspectionDrafts.jobId, job.id));
     await tx.insert(milestones).values({ jobId: job.id, authorId: user.id, kind: 'inspection_submitted', note: `Version ${next}: ${results.pass ? 'within every limit' : 'outside at least one limit'}.` });
     const url = `${deps.appUrl}/jobs/${job.id}`;
@@ -134,7 +133,7 @@ async function accept(deps: InspectionDeps, jobId: string, how: { by?: User; win
       .set({ status: 'accepted', decidedAt: new Date(), decidedBy: how.by?.id ?? null, decidedHow: how.by ? 'builder' : 'review window' })
       .where(eq(inspectionRecords.id, record.id))
       .returning();
-    await tx.update(jobs).set({ status: 'completed', updatedAt: new Date() }).where(eq(jobs.id, jobId));
+    await tx.update(jobs).set({ status: 'completed' }).where(eq(jobs.id, jobId));
     const url = `${deps.appUrl}/jobs/${jobId}`;
     const decision = how.by ? 'accepted' : 'accepted_by_window';
     if (parties.shop) await enqueueMail(tx, parties.shop.email, inspectionDecidedMail({ name: parties.shop.name, jobTitle: parties.job.title, decision, url }));
@@ -175,7 +174,7 @@ export async function rejectInspection(deps: InspectionDeps, user: User, jobId: 
       .set({ status: 'rejected', decidedAt: new Date(), decidedBy: user.id, decidedHow: 'builder', rejectReasons: reasons })
       .where(eq(inspectionRecords.id, record.id))
       .returning();
-    await tx.update(jobs).set({ status: 'in_work', updatedAt: new Date() }).where(eq(jobs.id, jobId));
+    await tx.update(jobs).set({ status: 'in_work' }).where(eq(jobs.id, jobId));
     if (parties.shop) {
       await enqueueMail(tx, parties.shop.email, inspectionDecidedMail({ name: parties.shop.name, jobTitle: parties.job.title, decision: 'rejected', reasons, url: `${deps.appUrl}/jobs/${jobId}` }));
     }

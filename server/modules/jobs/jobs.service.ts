@@ -122,7 +122,7 @@ export async function updateJob(deps: JobDeps, user: User, jobId: string, input:
     }
     const [updated] = await tx
       .update(jobs)
-      .set({ ...columnsFromInput(input), revision: job.revision + 1, updatedAt: new Date() })
+      .set({ ...columnsFromInput(input), revision: job.revision + 1 })
       .where(eq(jobs.id, job.id))
       .returning();
     if (job.status === 'open') {
@@ -142,7 +142,7 @@ export async function publishJob(deps: JobDeps, user: User, jobId: string): Prom
     if (job.status !== 'draft') throw conflict('Only a draft can be published; this job is already out.', 'job_not_draft');
     const [published] = await tx
       .update(jobs)
-      .set({ status: 'open', publishedAt: new Date(), updatedAt: new Date() })
+      .set({ status: 'open', publishedAt: new Date() })
       .where(eq(jobs.id, job.id))
       .returning();
     const matching = await tx
@@ -177,11 +177,11 @@ export async function cancelJob(deps: JobDeps, user: User, jobId: string): Promi
       .where(and(eq(bids.jobId, job.id), inArray(bids.status, ['active', 'accepted'])));
     await tx
       .update(bids)
-      .set({ status: 'declined', decidedAt: new Date(), declineReason: 'The job was cancelled.', updatedAt: new Date() })
+      .set({ status: 'declined', decidedAt: new Date(), declineReason: 'The job was cancelled.' })
       .where(and(eq(bids.jobId, job.id), inArray(bids.status, ['active', 'accepted'])));
     const [cancelled] = await tx
       .update(jobs)
-      .set({ status: 'cancelled', cancelledAt: new Date(), awardedBidId: null, updatedAt: new Date() })
+      .set({ status: 'cancelled', cancelledAt: new Date(), awardedBidId: null })
       .where(eq(jobs.id, job.id))
       .returning();
     for (const shop of affected) await enqueueMail(tx, shop.email, jobCancelledMail({ shopName: shop.shopName, jobTitle: job.title }));

@@ -1,8 +1,7 @@
 import { and, asc, eq, inArray, isNull } from 'drizzle-orm';
 import type { MilestonePhoto } from '../../../shared/schemas/inspection';
 import type { Database, Executor } from '../../db/client';
-import type { User } from '../../db/schema';
-import { milestonePhotos } from '../../db/schema-work';
+import { milestonePhotos, type User } from '../../db/schema';
 import { AppError, notFound } from '../../lib/errors';
 import { withStoredPhotos } from '../../lib/images';
 import type { FileStorage } from '../../lib/storage';

@@ -1,8 +1,7 @@
 import { asc, eq } from 'drizzle-orm';
 import type { Milestone, MilestoneInput } from '../../../shared/schemas/inspection';
 import type { Database } from '../../db/client';
-import { jobs, users, type User } from '../../db/schema';
-import { milestones } from '../../db/schema-work';
+import { jobs, milestones, users, type User } from '../../db/schema';
 import { AppError, conflict } from '../../lib/errors';
 import { assertCanSeeWork, assertWorkingShop, jobParties } from '../inspections/job-parties';
 import { attachMilestonePhotos, photosOfMilestones } from './milestone-photos';
@@ -43,7 +42,7 @@ export async function logMilestone(db: Database, user: User, jobId: string, inpu
     if (!WORKING.has(job.status)) throw conflict('Progress can be logged once the job is paid for.', 'job_not_funded');
     if (input.kind === 'block_received') {
       if (job.status !== 'funded') throw conflict('The block was already logged as received.', 'already_received');
-      await tx.update(jobs).set({ status: 'in_work', updatedAt: new Date() }).where(eq(jobs.id, job.id));
+      await tx.update(jobs).set({ status: 'in_work' }).where(eq(jobs.id, job.id));
     } else if (job.status === 'funded') {
       throw conflict('Log “block received” first.', 'not_received');
     }

@@ -47,7 +47,7 @@ export async function approveChangeOrder(deps: PaymentDeps, user: User, id: stri
   const { row, job } = await builderChangeOrder(deps, user, id);
   if (!['proposed', 'approved'].includes(row.status)) throw conflict('This change order is already settled.', 'change_order_settled');
   if (!['funded', 'in_work'].includes(job.status)) throw conflict('The job is past the point where extra work can be paid for.', 'job_not_in_work');
-  await deps.db.update(changeOrders).set({ status: 'approved', decidedAt: new Date(), updatedAt: new Date() }).where(eq(changeOrders.id, row.id));
+  await deps.db.update(changeOrders).set({ status: 'approved', decidedAt: new Date() }).where(eq(changeOrders.id, row.id));
   return startChangeOrderCheckout(deps, job, row);
 }
 
@@ -65,7 +65,7 @@ export async function declineChangeOrder(deps: PaymentDeps, user: User, id: stri
     if (!['proposed', 'approved'].includes(current.status)) throw conflict('Only a change order that is not paid can be declined.', 'change_order_settled');
     const paid = await tx.select({ id: payments.id }).from(payments).where(and(eq(payments.changeOrderId, row.id), inArray(payments.status, ['paid'])));
     if (paid.length) throw conflict('This change order is paid.', 'change_order_settled');
-    const [declined] = await tx.update(changeOrders).set({ status: 'declined', decidedAt: new Date(), updatedAt: new Date() }).where(eq(changeOrders.id, row.id)).returning();
+    const [declined] = await tx.update(changeOrders).set({ status: 'declined', decidedAt: new Date() }).where(eq(changeOrders.id, row.id)).returning();
     await closeOpenCheckouts(tx, { jobId: row.jobId, changeOrderId: row.id });
     return declined;
   });

@@ -1,7 +1,6 @@
 import { and, eq, isNull, sql } from 'drizzle-orm';
 import type { Database, Executor } from '../../db/client';
-import { payments } from '../../db/schema';
-import { scheduledTasks } from '../../db/schema-work';
+import { payments, scheduledTasks } from '../../db/schema';
 import type { PaymentsClient } from '../../lib/payments-client';
 import { scheduleTask } from '../../lib/scheduler';
 
@@ -35,7 +34,7 @@ export async function scheduleCheckoutExpiry(tx: Executor, jobId: string, sessio
 export async function closeOpenCheckouts(tx: Executor, scope: { jobId: string; changeOrderId?: string }): Promise<void> {
   const closed = await tx
     .update(payments)
-    .set({ status: 'expired', updatedAt: new Date() })
+    .set({ status: 'expired' })
     .where(and(eq(payments.jobId, scope.jobId), scope.changeOrderId ? eq(payments.changeOrderId, scope.changeOrderId) : undefined, eq(payments.status, 'pending')))
     .returning({ sessionId: payments.checkoutSessionId });
   for (const { sessionId } of closed) if (sessionId) await scheduleCheckoutExpiry(tx, scope.jobId, sessionId);

@@ -120,7 +120,7 @@ async function keepSession(deps: PaymentDeps, payment: typeof payments.$inferSel
     const [row] = await tx.select().from(payments).where(eq(payments.id, payment.id)).for('update');
     if (row.status !== 'pending') return row.status === 'paid' ? ('paid' as const) : false;
     if (row.checkoutSessionId && row.checkoutSessionId !== session.id) await scheduleCheckoutExpiry(tx, row.jobId, row.checkoutSessionId);
-    await tx.update(payments).set({ checkoutSessionId: session.id, updatedAt: new Date() }).where(eq(payments.id, payment.id));
+    await tx.update(payments).set({ checkoutSessionId: session.id }).where(eq(payments.id, payment.id));
     return true;
   });
   if (kept !== true) {
@@ -189,7 +189,7 @@ export async function applyCheckoutSession(deps: PaymentDeps, sessionId: string)
     const job = (await findJob(tx, jobId, { forUpdate: true }))!;
     const [payment] = await tx.select().from(payments).where(eq(payments.id, paymentId)).for('update');
     if (session.status === 'expired' && payment.status === 'pending') {
-      await tx.update(payments).set({ status: 'expired', updatedAt: new Date() }).where(eq(payments.id, payment.id));
+      await tx.update(payments).set({ status: 'expired' }).where(eq(payments.id, payment.id));
       return;
     }
     if (session.payment_status !== 'paid' || !intent || !charge) return;
@@ -204,15 +204,15 @@ export async function applyCheckoutSession(deps: PaymentDeps, sessionId: string)
     }
     await tx
       .update(payments)
-      .set({ status: 'paid', paidAt: new Date(), paymentIntentId: intent.id, chargeId: charge.id, checkoutSessionId: session.id, failureMessage: null, updatedAt: new Date() })
+      .set({ status: 'paid', paidAt: new Date(), paymentIntentId: intent.id, chargeId: charge.id, checkoutSessionId: session.id, failureMessage: null })
       .where(eq(payments.id, payment.id));
     // Another page made for the same payment is no longer wanted.
     if (payment.checkoutSessionId && payment.checkoutSessionId !== session.id) await scheduleCheckoutExpiry(tx, jobId, payment.checkoutSessionId);
     await appendLedger(tx, { jobId: payment.jobId, paymentId: payment.id, kind: 'paid_in', amountCents: payment.amountCents, reference: charge.id });
     if (payment.kind === 'bid') {
-      await tx.update(jobs).set({ status: 'funded', updatedAt: new Date() }).where(and(eq(jobs.id, payment.jobId), eq(jobs.status, 'awarded')));
+      await tx.update(jobs).set({ status: 'funded' }).where(and(eq(jobs.id, payment.jobId), eq(jobs.status, 'awarded')));
     } else if (payment.changeOrderId) {
-      await tx.update(changeOrders).set({ status: 'paid', updatedAt: new Date() }).where(eq(changeOrders.id, payment.changeOrderId));
+      await tx.update(changeOrders).set({ status: 'paid' }).where(eq(changeOrders.id, payment.changeOrderId));
     }
     const parties = await partiesOf(tx, job.id);
     const receipt = { jobTitle: job.title, amountCents: payment.amountCents, what: payment.kind === 'bid' ? 'the accepted bid' : 'a change order', url: `${deps.appUrl}/jobs/${job.id}` };
@@ -263,7 +263,7 @@ async function sendBackLatePayment(
 ): Promise<string | undefined> {
   const { job, payment, session, intent, charge, reason } = late;
   const amountCents = session.amount_total ?? payment.amountCents;
-  const money = { status: 'refunded' as const, paidAt: new Date(), paymentIntentId: intent.id, chargeId: charge.id, checkoutSessionId: session.id, failureMessage: null, updatedAt: new Date() };
+  const money = { status: 'refunded' as const, paidAt: new Date(), paymentIntentId: intent.id, chargeId: charge.id, checkoutSessionId: session.id, failureMessage: null };
   let rowId = payment.id;
   if (payment.status === 'paid' || payment.status === 'refunded') {
     // The payment was settled by another page: this money gets a row of its own.
@@ -296,7 +296,7 @@ export async function applyPaymentFailed(deps: PaymentDeps, intent: Stripe.Payme
   const message = intent.last_payment_error?.message ?? 'The payment did not go through.';
   const [updated] = await deps.db
     .update(payments)
-    .set({ failureMessage: message, updatedAt: new Date() })
+    .set({ failureMessage: message })
     .where(and(eq(payments.id, paymentId), eq(payments.status, 'pending')))
     .returning({ jobId: payments.jobId });
   // An open job page shows the refusal without a reload, as it shows a success.
@@ -401,7 +401,7 @@ export async function runMove(deps: PaymentDeps, moveId: string): Promise<'done'
     await deps.db.transaction(async (tx) => {
       const [claimed] = await tx
         .update(moneyMoves)
-        .set({ status: 'done', providerId, doneAt: new Date(), lastError: null, updatedAt: new Date() })
+        .set({ status: 'done', providerId, doneAt: new Date(), lastError: null })
         .where(and(eq(moneyMoves.id, move.id), eq(moneyMoves.status, 'pending')))
         .returning();
       if (!claimed) return; // someone else finished it first
@@ -423,7 +423,6 @@ export async function runMove(deps: PaymentDeps, moveId: string): Promise<'done'
         attempts: sql`${moneyMoves.attempts} + 1`,
         lastError: message.slice(0, 500),
         nextAttemptAt: sql`now() + least(power(2, ${moneyMoves.attempts}) * interval '5 seconds', interval '10 minutes')`,
-        updatedAt: new Date(),
       })
       .where(and(eq(moneyMoves.id, move.id), eq(moneyMoves.status, 'pending')));
     return 'pending';
@@ -450,7 +449,7 @@ async function settleJobIfEmpty(deps: PaymentDeps, tx: Executor, jobId: string) 
   if (balance.refunded > 0) await enqueueMail(tx, parties.builderEmail, refundSentMail({ name: parties.builderName, jobTitle: job.title, amountCents: balance.refunded, url }));
   // A disputed job ends as resolved whatever the decision; otherwise a full refund cancels it.
   const next = job.status === 'disputed' ? 'resolved' : balance.refunded === balance.paidIn ? 'cancelled' : 'completed';
-  await tx.update(jobs).set({ status: next, updatedAt: new Date() }).where(eq(jobs.id, jobId));
+  await tx.update(jobs).set({ status: next }).where(eq(jobs.id, jobId));
 }
 
 /** Runs the movements already planned for a job (now; the worker retries any the provider refused). */

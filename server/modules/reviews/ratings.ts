@@ -1,8 +1,7 @@
 import { inArray, sql } from 'drizzle-orm';
 import type { RatingSummary } from '../../../shared/schemas/reviews';
 import type { Executor } from '../../db/client';
-import { shops } from '../../db/schema';
-import { reviews } from '../../db/schema-disputes';
+import { reviews, shops } from '../../db/schema';
 
 /** Each shop's rating from the builders' reviews of it, in one query; shops without reviews are absent. */
 export async function shopRatings(db: Executor, shopIds: string[]): Promise<Map<string, RatingSummary>> {

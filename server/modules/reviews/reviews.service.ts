@@ -1,8 +1,7 @@
 import { asc, eq } from 'drizzle-orm';
 import type { JobReviews, Review, ReviewInput } from '../../../shared/schemas/reviews';
 import type { Database } from '../../db/client';
-import type { User } from '../../db/schema';
-import { reviews } from '../../db/schema-disputes';
+import { reviews, type User } from '../../db/schema';
 import { conflict, forbidden } from '../../lib/errors';
 import { enqueueMail } from '../../lib/mail/outbox';
 import { newReviewMail } from '../../lib/mail/templates';

@@ -62,7 +62,7 @@ export async function upsertShop(db: Executor, userId: string, input: ShopProfil
   const [row] = await db
     .insert(shops)
     .values({ userId, ...values })
-    .onConflictDoUpdate({ target: shops.userId, set: { ...values, updatedAt: new Date() } })
+    .onConflictDoUpdate({ target: shops.userId, set: values })
     .returning();
   await db.delete(shopRates).where(eq(shopRates.shopId, row.id));
   if (input.rateCard.length) {

@@ -28,7 +28,7 @@ export async function insertUser(db: Executor, values: NewUser): Promise<User | 
 export async function updateUser(db: Executor, id: string, values: Partial<NewUser>): Promise<User | undefined> {
   const [row] = await db
     .update(users)
-    .set({ ...values, updatedAt: new Date() })
+    .set(values)
     .where(eq(users.id, id))
     .returning();
   return row;

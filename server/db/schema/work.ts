@@ -1,8 +1,10 @@
 import { sql } from 'drizzle-orm';
 import { boolean, index, integer, jsonb, pgEnum, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core';
-import { jobs, users } from './schema';
+import { jobs } from './jobs';
+import { users } from './users-and-sessions';
 
-/** The shop's proof of work: progress milestones, inspection record versions and drafts, and timed tasks. */
+// The shop's proof of work: progress milestones and their photos, inspection record versions and drafts.
+
 export const milestoneKind = pgEnum('milestone_kind', [
   'block_received',
   'teardown',
@@ -14,6 +16,7 @@ export const milestoneKind = pgEnum('milestone_kind', [
   'delivered',
   'note',
 ]);
+
 export const inspectionStatus = pgEnum('inspection_status', ['submitted', 'accepted', 'rejected', 'superseded']);
 
 export const milestones = pgTable(
@@ -100,26 +103,3 @@ export const inspectionDrafts = pgTable('inspection_drafts', {
   draft: jsonb().notNull(),
   savedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
 });
-
-/**
- * Work to do at a time (review reminders, acceptance when the window ends).
- * A worker leases a due task with FOR UPDATE SKIP LOCKED, so two app instances
- * never run the same task, and a task whose worker died is leased again.
- */
-export const scheduledTasks = pgTable(
-  'scheduled_tasks',
-  {
-    id: uuid().primaryKey().defaultRandom(),
-    kind: text().notNull(),
-    /** Makes scheduling idempotent: the same key is scheduled once. */
-    key: text().notNull(),
-    payload: jsonb().notNull(),
-    runAt: timestamp({ withTimezone: true }).notNull(),
-    leasedUntil: timestamp({ withTimezone: true }),
-    attempts: integer().notNull().default(0),
-    lastError: text(),
-    doneAt: timestamp({ withTimezone: true }),
-    createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
-  },
-  (t) => [uniqueIndex('scheduled_tasks_key_idx').on(t.key), index('scheduled_tasks_due_idx').on(t.runAt).where(sql`${t.doneAt} IS NULL`)],
-);

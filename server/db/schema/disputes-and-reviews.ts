@@ -1,8 +1,10 @@
 import { sql } from 'drizzle-orm';
-import { bigserial, check, index, integer, jsonb, pgEnum, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core';
-import { jobs, users } from './schema';
+import { check, index, integer, pgEnum, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core';
+import { jobs } from './jobs';
+import { users } from './users-and-sessions';
 
-/** Disputes, reviews, the platform's settings and the administrators' audit log. */
+// Disputes over a job and the reviews the two sides leave each other.
+
 export const disputeStatus = pgEnum('dispute_status', ['open', 'resolved']);
 export const disputeOutcome = pgEnum('dispute_outcome', ['release', 'refund', 'split']);
 export const partySide = pgEnum('party_side', ['builder', 'shop']);
@@ -68,29 +70,4 @@ export const reviews = pgTable(
     index('reviews_subject_idx').on(t.subjectId),
     check('reviews_rating_check', sql`${t.rating} BETWEEN 1 AND 5`),
   ],
-);
-
-/** Settings an administrator changes at run time (the platform fee). */
-export const platformSettings = pgTable('platform_settings', {
-  key: text().primaryKey(),
-  value: jsonb().notNull(),
-  updatedBy: uuid().references(() => users.id),
-  updatedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
-});
-
-/** Every administrator action, append-only. */
-export const adminActions = pgTable(
-  'admin_actions',
-  {
-    id: bigserial({ mode: 'number' }).primaryKey(),
-    adminId: uuid()
-      .notNull()
-      .references(() => users.id),
-    action: text().notNull(),
-    targetType: text().notNull(),
-    targetId: text().notNull(),
-    details: jsonb().notNull().default({}),
-    createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
-  },
-  (t) => [index('admin_actions_created_idx').on(t.createdAt.desc()), index('admin_actions_action_idx').on(t.action, t.createdAt.desc())],
 );

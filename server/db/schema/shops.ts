@@ -1,0 +1,49 @@
+import { sql } from 'drizzle-orm';
+import { boolean, check, index, integer, pgTable, primaryKey, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core';
+import { timestamps } from './timestamps';
+import { users } from './users-and-sessions';
+
+// Machine shops' public profiles and their prices.
+
+/** A machine shop's public profile; one per shop account. */
+export const shops = pgTable(
+  'shops',
+  {
+    id: uuid().primaryKey().defaultRandom(),
+    userId: uuid()
+      .notNull()
+      .references(() => users.id, { onDelete: 'cascade' }),
+    name: text().notNull(),
+    country: text().notNull(),
+    region: text().notNull(),
+    city: text().notNull(),
+    takesShipped: boolean().notNull(),
+    capabilities: text().array().notNull(),
+    equipmentNotes: text().notNull().default(''),
+    turnaroundDays: integer().notNull(),
+    notifyMatchingJobs: boolean().notNull().default(false),
+    verifiedAt: timestamp({ withTimezone: true }),
+    /** The shop's connected account at the payment provider, and when it became able to receive transfers. */
+    payoutAccountId: text(),
+    payoutsReadyAt: timestamp({ withTimezone: true }),
+    ...timestamps,
+  },
+  (t) => [
+    uniqueIndex('shops_user_idx').on(t.userId),
+    index('shops_capabilities_idx').using('gin', t.capabilities),
+    index('shops_region_idx').on(t.country, t.region),
+  ],
+);
+
+/** A shop's price per operation, integer cents. */
+export const shopRates = pgTable(
+  'shop_rates',
+  {
+    shopId: uuid()
+      .notNull()
+      .references(() => shops.id, { onDelete: 'cascade' }),
+    operation: text().notNull(),
+    priceCents: integer().notNull(),
+  },
+  (t) => [primaryKey({ columns: [t.shopId, t.operation] }), check('shop_rates_price_check', sql`${t.priceCents} >= 0`)],
+);
