@@ -1,5 +1,7 @@
 import { OpenAPIRegistry, OpenApiGeneratorV31, type RouteConfig } from '@asteasolutions/zod-to-openapi';
 import { z } from 'zod';
+import { apiRoutes } from './api-routes';
+import { needsCsrf, openApiPath, successStatus, type Access, type Reply, type RouteDef } from './lib/http/routes';
 import { auditQuerySchema, createAdminSchema, ledgerQuerySchema, platformFeeSchema, shopSearchSchema, suspendUserSchema, userSearchSchema, verifyShopSchema } from '../shared/schemas/admin';
 import { disputeQueueSchema, disputeResponseSchema, openDisputeSchema, resolveDisputeSchema } from '../shared/schemas/disputes';
 import { reviewInputSchema } from '../shared/schemas/reviews';
@@ -26,7 +28,6 @@ import { shopDirectoryQuerySchema, shopProfileSchema } from '../shared/schemas/s
  * parse with. tests/api/openapi.test.ts checks it lists every route the
  * Express router has, and nothing it lacks.
  */
-type Access = 'public' | 'signed-in' | 'builder' | 'shop' | 'admin' | 'builder or shop';
 
 interface RouteDoc {
   method: 'get' | 'post' | 'put' | 'delete';
@@ -163,37 +164,79 @@ export const routeDocs: RouteDoc[] = [
   { method: 'get', path: '/api/openapi.json', summary: 'This description', tag: 'Health', access: 'public' },
 ];
 
+const errorResponse = (description: string) => ({ description, content: { 'application/json': { schema: errorSchema } } });
+
+/** The 4xx answers every route of this access may give, besides its own 400s, 404s and 409s. */
+function refusals(access: Access) {
+  return {
+    400: errorResponse('Input not valid; a message per field'),
+    ...(access !== 'public' ? { 401: errorResponse('Not signed in') } : {}),
+    ...(access !== 'public' ? { 403: errorResponse('Not allowed for this account') } : {}),
+    429: errorResponse('Too many requests'),
+  };
+}
+
+function csrfHeader(needed: boolean) {
+  return needed ? { headers: z.object({ 'x-csrf-token': z.string() }) } : {};
+}
+
+function describeAccess(access: Access, csrf: boolean): string {
+  return `Who may call it: ${access}.${csrf ? ' Send the session cookie and the X-CSRF-Token header from GET /api/auth/csrf.' : ''}`;
+}
+
+/** A success answer as OpenAPI says it: a JSON schema, a file type, a redirect or nothing. */
+function successResponse(reply: Reply) {
+  if ('json' in reply) return { description: reply.description ?? 'Done', content: { 'application/json': { schema: reply.json } } };
+  if ('file' in reply) return { description: reply.description, content: { [reply.file]: { schema: z.string().meta({ format: 'binary' }) } } };
+  return { description: reply.description };
+}
+
+function fromDeclaration(route: RouteDef<never>): RouteConfig {
+  const csrf = needsCsrf(route);
+  return {
+    method: route.method,
+    path: openApiPath(route.path),
+    summary: route.summary,
+    description: describeAccess(route.access, csrf),
+    tags: [route.tag],
+    request: {
+      ...(route.params ? { params: route.params as z.ZodObject } : {}),
+      ...(route.query ? { query: route.query as z.ZodObject } : {}),
+      ...(route.body ? { body: { content: { 'application/json': { schema: route.body } } } } : {}),
+      ...csrfHeader(csrf),
+    },
+    responses: { [successStatus(route.reply)]: successResponse(route.reply), ...refusals(route.access) },
+  };
+}
+
 function toRouteConfig(doc: RouteDoc): RouteConfig {
   const ok = doc.ok ?? { status: 200, description: 'Done' };
-  const needsCsrf = doc.method !== 'get' && doc.csrf !== false;
+  const csrf = doc.method !== 'get' && doc.csrf !== false;
   return {
     method: doc.method,
     path: doc.path,
     summary: doc.summary,
-    description: `Who may call it: ${doc.access}.${needsCsrf ? ' Send the session cookie and the X-CSRF-Token header from GET /api/auth/csrf.' : ''}`,
+    description: describeAccess(doc.access, csrf),
     tags: [doc.tag],
     request: {
       ...(doc.params ? { params: doc.params } : {}),
       ...(doc.query ? { query: doc.query } : {}),
       ...(doc.body ? { body: { content: { 'application/json': { schema: doc.body } } } } : {}),
-      ...(needsCsrf ? { headers: z.object({ 'x-csrf-token': z.string() }) } : {}),
+      ...csrfHeader(csrf),
     },
-    responses: {
-      [ok.status]: { description: ok.description },
-      400: { description: 'Input not valid; a message per field', content: { 'application/json': { schema: errorSchema } } },
-      ...(doc.access !== 'public' ? { 401: { description: 'Not signed in', content: { 'application/json': { schema: errorSchema } } } } : {}),
-      ...(['builder', 'shop', 'admin', 'signed-in', 'builder or shop'].includes(doc.access) ? { 403: { description: 'Not allowed for this account', content: { 'application/json': { schema: errorSchema } } } } : {}),
-      429: { description: 'Too many requests', content: { 'application/json': { schema: errorSchema } } },
-    },
+    responses: { [ok.status]: { description: ok.description }, ...refusals(doc.access) },
   };
 }
 
 let cached: object | undefined;
 
+/** The document for every declared route (and, until their modules are declared too, the routes still listed by hand above). */
 export function openApiDocument(): object {
   if (cached) return cached;
   const registry = new OpenAPIRegistry();
-  for (const doc of routeDocs) registry.registerPath(toRouteConfig(doc));
+  const declared = new Set(apiRoutes.map((route) => `${route.method} ${openApiPath(route.path)}`));
+  for (const route of apiRoutes) registry.registerPath(fromDeclaration(route));
+  for (const doc of routeDocs) if (!declared.has(`${doc.method} ${doc.path}`)) registry.registerPath(toRouteConfig(doc));
   cached = new OpenApiGeneratorV31(registry.definitions).generateDocument({
     openapi: '3.1.0',
     info: {
