@@ -13,8 +13,19 @@ import { AppError, forbidden, unauthorized } from '../errors';
  * docs/decisions/routes-as-data.md says why.
  */
 
-/** Who may call a route. Role guards run before any parsing; "is this job yours" is the services' business. */
-export type Access = 'public' | 'signed-in' | 'builder' | 'shop' | 'admin' | 'builder or shop';
+/**
+ * Who may call a route: anyone, anyone signed in, or the roles named
+ * ('shop', 'shop or admin'). The guard runs before any parsing: 401 signed
+ * out, 403 for another role. Whether the job or thing is the caller's is the
+ * services' business (server/modules/jobs/job-access.ts).
+ */
+export type Access = 'public' | 'signed-in' | Role | `${Role} or ${Role}`;
+
+/** The roles a route is for; null when any signed-in person (or anyone) may call it. */
+export function rolesOf(access: Access): Role[] | null {
+  if (access === 'public' || access === 'signed-in') return null;
+  return access.split(' or ') as Role[];
+}
 
 export type Method = 'get' | 'post' | 'put' | 'delete';
 
@@ -28,13 +39,6 @@ export type Reply =
   | { status: 302; description: string; redirect: true }
   /** A status with no body, sent by the router once the handler returns. */
   | { status: 202 | 204; description: string; empty: true };
-
-const ROLES_FOR: Record<Exclude<Access, 'public' | 'signed-in'>, Role[]> = {
-  builder: ['builder'],
-  shop: ['shop'],
-  admin: ['admin'],
-  'builder or shop': ['builder', 'shop'],
-};
 
 type Parsed<T> = T extends z.ZodType ? z.output<T> : undefined;
 type UserFor<A extends Access> = A extends 'public' ? Express.User | undefined : Express.User;
@@ -149,14 +153,11 @@ export interface MountOptions {
 
 function accessGuard(access: Access): RequestHandler[] {
   if (access === 'public') return [];
-  if (access === 'signed-in') {
-    return [(req, _res, next) => next(req.user ? undefined : unauthorized())];
-  }
-  const allowed = ROLES_FOR[access];
+  const allowed = rolesOf(access);
   return [
     (req, _res, next) => {
       if (!req.user) return next(unauthorized());
-      if (!allowed.includes(req.user.role)) return next(forbidden(`This is for ${allowed.map((r) => `${r}s`).join(' and ')} only.`));
+      if (allowed && !allowed.includes(req.user.role)) return next(forbidden(`This is for ${allowed.map((r) => `${r}s`).join(' and ')} only.`));
       next();
     },
   ];
