@@ -1,24 +1,16 @@
 import { describe, expect, expectTypeOf, it } from 'vitest';
-import {
-  boreSize,
-  compressionRatio,
-  crosshatchAngle,
-  crosshatchRate,
-  deckFlatness,
-  displacement,
-  inspectBores,
-  ringGap,
-  roughness,
-  type BoreInspection,
-  type BoreSize,
-  type CompressionResult,
-  type CrosshatchRateResult,
-  type CrosshatchResult,
-  type DeckFlatnessResult,
-  type DisplacementResult,
-  type LengthUnit,
-  type RingGapResult,
-  type RoughnessResult,
+import * as calc from '../../../shared/calc';
+import type {
+  BoreInspection,
+  BoreSize,
+  CompressionResult,
+  CrosshatchRateResult,
+  CrosshatchResult,
+  DeckFlatnessResult,
+  DisplacementResult,
+  LengthUnit,
+  RingGapResult,
+  RoughnessResult,
 } from '../../../shared/calc';
 import {
   boreInspectionAnswerSchema,
@@ -66,33 +58,33 @@ describe('calculation answer schemas', () => {
   const wave = Array.from({ length: 400 }, (_, i) => Math.sin(i / 7) + 0.3 * Math.sin(i / 2));
 
   it.each([
-    ['displacement', displacementAnswerSchema, displacement({ unit: 'in', bore: 4.03, stroke: 3.48, cylinders: 8 })],
+    ['displacement', displacementAnswerSchema, calc.displacement({ unit: 'in', bore: 4.03, stroke: 3.48, cylinders: 8 })],
     [
       'compression-ratio',
       compressionRatioAnswerSchema,
-      compressionRatio({ unit: 'in', bore: 4, stroke: 3.48, chamberCc: 70, pistonCc: -5, deckClearance: 0.01, gasketBore: 4.1, gasketThickness: 0.04 }),
+      calc.compressionRatio({ unit: 'in', bore: 4, stroke: 3.48, chamberCc: 70, pistonCc: -5, deckClearance: 0.01, gasketBore: 4.1, gasketThickness: 0.04 }),
     ],
-    ['crosshatch', crosshatchAnswerSchema, crosshatchAngle({ bore: 4, spindleRpm: 150, strokeLength: 4, cyclesPerMinute: 31 })],
-    ['crosshatch-rate', crosshatchRateAnswerSchema, crosshatchRate({ bore: 4, spindleRpm: 150, strokeLength: 4, includedAngleDeg: 45 })],
+    ['crosshatch', crosshatchAnswerSchema, calc.crosshatchAngle({ bore: 4, spindleRpm: 150, strokeLength: 4, cyclesPerMinute: 31 })],
+    ['crosshatch-rate', crosshatchRateAnswerSchema, calc.crosshatchRate({ bore: 4, spindleRpm: 150, strokeLength: 4, includedAngleDeg: 45 })],
     [
       'bore-inspection with pistons, a target and failures',
       boreInspectionAnswerSchema,
-      { unit: 'in', ...inspectBores({ cylinders: [measured, unmeasured], spec: { targetBore: 4.0, targetTolerance: 0.001, clearanceMin: 0.01, maxTaper: 0.0001 } }) },
+      { unit: 'in', ...calc.inspectBores({ cylinders: [measured, unmeasured], spec: { targetBore: 4.0, targetTolerance: 0.001, clearanceMin: 0.01, maxTaper: 0.0001 } }) },
     ],
-    ['bore-inspection without a spec', boreInspectionAnswerSchema, { unit: 'mm', ...inspectBores({ cylinders: [unmeasured] }) }],
-    ['bore-size', boreSizeAnswerSchema, { unit: 'in', ...boreSize({ pistonDiameter: 3.9975, clearanceMin: 0.0025, clearanceMax: 0.0035, honeAllowance: 0.0025 }) }],
-    ['deck-flatness by the table', deckFlatnessAnswerSchema, { unit: 'in', ...deckFlatness({ unit: 'in', readings: [0.001, 0.003], material: 'aluminium', gasket: 'mls' }) }],
-    ['deck-flatness by a shop limit', deckFlatnessAnswerSchema, { unit: 'mm', ...deckFlatness({ unit: 'mm', readings: [0.02], material: 'cast-iron', gasket: 'composite', shopLimit: 0.05 }) }],
-    ['roughness without spacing', roughnessAnswerSchema, roughness(wave)],
-    ['roughness with spacing, unfiltered', roughnessAnswerSchema, roughness(wave, 0.5)],
-    ['roughness, Gaussian-filtered', roughnessAnswerSchema, roughness(wave, 0.5, { kind: 'gaussian', cutoffMm: 0.08 })],
-    ['ring-gap', ringGapAnswerSchema, { unit: 'in', ...ringGap({ bore: 4.03, application: 'race' }) }],
+    ['bore-inspection without a spec', boreInspectionAnswerSchema, { unit: 'mm', ...calc.inspectBores({ cylinders: [unmeasured] }) }],
+    ['bore-size', boreSizeAnswerSchema, { unit: 'in', ...calc.boreSize({ pistonDiameter: 3.9975, clearanceMin: 0.0025, clearanceMax: 0.0035, honeAllowance: 0.0025 }) }],
+    ['deck-flatness by the table', deckFlatnessAnswerSchema, { unit: 'in', ...calc.deckFlatness({ unit: 'in', readings: [0.001, 0.003], material: 'aluminium', gasket: 'mls' }) }],
+    ['deck-flatness by a shop limit', deckFlatnessAnswerSchema, { unit: 'mm', ...calc.deckFlatness({ unit: 'mm', readings: [0.02], material: 'cast-iron', gasket: 'composite', shopLimit: 0.05 }) }],
+    ['roughness without spacing', roughnessAnswerSchema, calc.roughness(wave)],
+    ['roughness with spacing, unfiltered', roughnessAnswerSchema, calc.roughness(wave, 0.5)],
+    ['roughness, Gaussian-filtered', roughnessAnswerSchema, calc.roughness(wave, 0.5, { kind: 'gaussian', cutoffMm: 0.08 })],
+    ['ring-gap', ringGapAnswerSchema, { unit: 'in', ...calc.ringGap({ bore: 4.03, application: 'race' }) }],
   ] as const)('when the %s answer is sent as JSON, then its schema takes it whole', (_name, schema, answer) => {
     expect(responseMismatch(schema, answer)).toBeNull();
   });
 
   it('when an answer carries a field its result does not have, then the schema says so', () => {
-    const answer = { ...displacement({ unit: 'mm', bore: 100, stroke: 90, cylinders: 4 }), unit: 'mm' };
+    const answer = { ...calc.displacement({ unit: 'mm', bore: 100, stroke: 90, cylinders: 4 }), unit: 'mm' };
     expect(responseMismatch(displacementAnswerSchema, answer)).toBe('the answer has fields the schema does not declare');
   });
 });
