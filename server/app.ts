@@ -26,7 +26,7 @@ import { createSessionStore } from './lib/session-store';
 import { LocalDiskStorage, type FileStorage } from './lib/storage';
 import { jsonBody } from './lib/json-body';
 import { uploadLimiter } from './lib/photo-upload';
-import { calculationsRouter, ROUGHNESS_BODY_LIMIT } from './modules/calculations/calculations.routes';
+import { ROUGHNESS_BODY_LIMIT } from './modules/calculations/calculations.routes';
 import { openApiDocument } from './openapi';
 import { routeModules } from './api-routes';
 import { mountRoutes, type RouteDef } from './lib/http/routes';
@@ -136,7 +136,7 @@ export function createApp(deps: AppDeps) {
     authRouter({ db, config, passport, generateCsrfToken: generateToken, sessionCookieName: SESSION_COOKIE, hub }),
   );
 
-  app.use('/api/calculations', calculationsRouter({ db, perMinute: config.rateLimits.calculationsPerMinute }));
+  mount(routeModules.calculations, { db, perMinute: config.rateLimits.calculationsPerMinute });
   const storage = deps.storage ?? new LocalDiskStorage(config.uploadsDir);
   // One count of photo uploads per person, whichever route they go to.
   const uploadLimit = uploadLimiter(db, config.rateLimits.uploadsPer10Min);

@@ -15,7 +15,6 @@ import {
   verifyEmailSchema,
 } from '../shared/schemas/auth';
 import { bidInputSchema, declineBidSchema } from '../shared/schemas/bids';
-import { calculationRequestSchemas } from '../shared/schemas/calculations';
 import { uuidSchema } from '../shared/schemas/common';
 import { boardQuerySchema, jobInputSchema, myJobsQuerySchema } from '../shared/schemas/jobs';
 import { changeOrderInputSchema, splitSchema } from '../shared/schemas/payments';
@@ -63,16 +62,6 @@ const photo = z.object({ jobId: uuidSchema, photoId: uuidSchema });
 const photoSized = photo.extend({ size: z.enum(['thumb', 'large']) });
 const threadPhotoSized = z.object({ threadId: uuidSchema, photoId: uuidSchema, size: z.enum(['thumb', 'large']) });
 
-const calculationRoutes: RouteDoc[] = Object.entries(calculationRequestSchemas).map(([name, schema]) => ({
-  method: 'post',
-  path: `/api/calculations/${name}`,
-  summary: `Calculate: ${name.replace(/-/g, ' ')}`,
-  tag: 'Calculations',
-  access: 'public',
-  body: schema,
-  csrf: false,
-}));
-
 export const routeDocs: RouteDoc[] = [
   { method: 'get', path: '/api/health', summary: 'Service and database health', tag: 'Health', access: 'public' },
   { method: 'get', path: '/api/auth/csrf', summary: 'A CSRF token for this session', tag: 'Sign-in', access: 'public' },
@@ -89,7 +78,6 @@ export const routeDocs: RouteDoc[] = [
   { method: 'get', path: '/api/auth/github/callback', summary: 'Where the provider sends the browser back (redirects)', tag: 'Sign-in', access: 'public', ok: { status: 302, description: 'Into the app' } },
   { method: 'get', path: '/api/auth/github/pending', summary: 'A first GitHub sign-in waiting for a role', tag: 'Sign-in', access: 'public' },
   { method: 'post', path: '/api/auth/github/complete', summary: 'Choose a role and create the account', tag: 'Sign-in', access: 'public', body: githubCompleteSchema, ok: { status: 201, description: 'Created and signed in' } },
-  ...calculationRoutes,
   { method: 'get', path: '/api/shops', summary: 'The public shop directory', tag: 'Shops', access: 'public', query: shopDirectoryQuerySchema },
   { method: 'get', path: '/api/shops/{shopId}', summary: 'A shop’s public page', tag: 'Shops', access: 'public', params: shopId },
   { method: 'get', path: '/api/shop-profile', summary: 'The signed-in shop’s own profile', tag: 'Shops', access: 'shop' },
