@@ -1,4 +1,5 @@
 import type { RouteDef } from './lib/http/routes';
+import { authRoutes } from './modules/auth/auth.routes';
 import { healthRoutes } from './modules/health/health.routes';
 import { shopsRoutes } from './modules/shops/shops.routes';
 
@@ -9,6 +10,7 @@ import { shopsRoutes } from './modules/shops/shops.routes';
  */
 export const routeModules = {
   health: healthRoutes,
+  auth: authRoutes,
   shops: shopsRoutes,
 } satisfies Record<string, readonly RouteDef<never>[]>;
 

@@ -5,15 +5,6 @@ import { needsCsrf, openApiPath, successStatus, type Access, type Reply, type Ro
 import { auditQuerySchema, createAdminSchema, ledgerQuerySchema, platformFeeSchema, shopSearchSchema, suspendUserSchema, userSearchSchema, verifyShopSchema } from '../shared/schemas/admin';
 import { disputeQueueSchema, disputeResponseSchema, openDisputeSchema, resolveDisputeSchema } from '../shared/schemas/disputes';
 import { reviewInputSchema } from '../shared/schemas/reviews';
-import {
-  changePasswordSchema,
-  githubCompleteSchema,
-  passwordResetConfirmSchema,
-  passwordResetRequestSchema,
-  signInSchema,
-  signUpSchema,
-  verifyEmailSchema,
-} from '../shared/schemas/auth';
 import { bidInputSchema, declineBidSchema } from '../shared/schemas/bids';
 import { calculationRequestSchemas } from '../shared/schemas/calculations';
 import { uuidSchema } from '../shared/schemas/common';
@@ -75,20 +66,6 @@ const calculationRoutes: RouteDoc[] = Object.entries(calculationRequestSchemas).
 
 export const routeDocs: RouteDoc[] = [
   { method: 'get', path: '/api/health', summary: 'Service and database health', tag: 'Health', access: 'public' },
-  { method: 'get', path: '/api/auth/csrf', summary: 'A CSRF token for this session', tag: 'Sign-in', access: 'public' },
-  { method: 'get', path: '/api/auth/me', summary: 'The signed-in person', tag: 'Sign-in', access: 'signed-in' },
-  { method: 'post', path: '/api/auth/signup', summary: 'Create an account (builder or shop) and sign in', tag: 'Sign-in', access: 'public', body: signUpSchema, ok: { status: 201, description: 'Created and signed in' } },
-  { method: 'post', path: '/api/auth/login', summary: 'Sign in with e-mail and password', tag: 'Sign-in', access: 'public', body: signInSchema },
-  { method: 'post', path: '/api/auth/logout', summary: 'Sign out and end the session', tag: 'Sign-in', access: 'public', ok: { status: 204, description: 'Signed out' } },
-  { method: 'post', path: '/api/auth/verify-email', summary: 'Confirm an e-mail address with the mailed token', tag: 'Sign-in', access: 'public', body: verifyEmailSchema },
-  { method: 'post', path: '/api/auth/verify-email/resend', summary: 'Send the confirmation link again', tag: 'Sign-in', access: 'signed-in', ok: { status: 202, description: 'Queued' } },
-  { method: 'post', path: '/api/auth/password-reset/request', summary: 'Mail a password reset link', tag: 'Sign-in', access: 'public', body: passwordResetRequestSchema, ok: { status: 202, description: 'Queued when the account exists' } },
-  { method: 'post', path: '/api/auth/password-reset/confirm', summary: 'Set a new password with the mailed token', tag: 'Sign-in', access: 'public', body: passwordResetConfirmSchema },
-  { method: 'post', path: '/api/auth/password', summary: 'Change the password (the current one proves it is you); ends every other session', tag: 'Sign-in', access: 'signed-in', body: changePasswordSchema },
-  { method: 'get', path: '/api/auth/github', summary: 'Start a GitHub sign-in (redirects)', tag: 'Sign-in', access: 'public', query: z.object({ returnTo: z.string().optional() }), ok: { status: 302, description: 'To the provider' } },
-  { method: 'get', path: '/api/auth/github/callback', summary: 'Where the provider sends the browser back (redirects)', tag: 'Sign-in', access: 'public', ok: { status: 302, description: 'Into the app' } },
-  { method: 'get', path: '/api/auth/github/pending', summary: 'A first GitHub sign-in waiting for a role', tag: 'Sign-in', access: 'public' },
-  { method: 'post', path: '/api/auth/github/complete', summary: 'Choose a role and create the account', tag: 'Sign-in', access: 'public', body: githubCompleteSchema, ok: { status: 201, description: 'Created and signed in' } },
   ...calculationRoutes,
   { method: 'get', path: '/api/shops', summary: 'The public shop directory', tag: 'Shops', access: 'public', query: shopDirectoryQuerySchema },
   { method: 'get', path: '/api/shops/{shopId}', summary: 'A shop’s public page', tag: 'Shops', access: 'public', params: shopId },
