@@ -55,6 +55,16 @@ const logIn = (req: Request, user: User) =>
   new Promise<void>((resolve, reject) => req.login(user, (err) => (err ? reject(err) : resolve())));
 
 /**
+ * Signs the person in on this session (passport gives it a new id, so a
+ * planted id is worthless) and answers who they are with the new session's
+ * CSRF token.
+ */
+async function signedIn(deps: AuthRouteDeps, req: Request, user: User) {
+  await logIn(req, user);
+  return { user: toMe(user), csrfToken: deps.generateCsrfToken(req, true) };
+}
+
+/**
  * Waits for passport middleware run inside a handler: it resolves with what
  * `run` hands back, or with undefined once passport has answered the request
  * itself (the redirect to GitHub). Passport handing on to the next middleware
@@ -188,9 +198,7 @@ export const authRoutes = [
     use: signUpLimits,
     reply: { status: 201, json: signedInSchema, description: 'Created and signed in' },
     handler: async ({ deps, req, body }) => {
-      const user = await signUp(deps, body);
-      await logIn(req, user);
-      return { user: toMe(user), csrfToken: deps.generateCsrfToken(req, true) };
+      return signedIn(deps, req, await signUp(deps, body));
     },
   }),
   route({
@@ -209,9 +217,7 @@ export const authRoutes = [
           resolve(found);
         })(req, res, reject);
       });
-      // passport regenerates the session id here, so a planted id is worthless.
-      await logIn(req, user);
-      return { user: toMe(user), csrfToken: deps.generateCsrfToken(req, true) };
+      return signedIn(deps, req, user);
     },
   }),
   route({
@@ -359,9 +365,7 @@ export const authRoutes = [
     use: pendingGithubFirst,
     reply: { status: 201, json: signedInSchema, description: 'Created and signed in' },
     handler: async ({ deps, req, body }) => {
-      const user = await completeGithubSignUp(deps, pendingGithub(req), body.role);
-      await logIn(req, user);
-      return { user: toMe(user), csrfToken: deps.generateCsrfToken(req, true) };
+      return signedIn(deps, req, await completeGithubSignUp(deps, pendingGithub(req), body.role));
     },
   }),
 ];
