@@ -1,4 +1,5 @@
 import type { RouteDef } from './lib/http/routes';
+import { authRoutes } from './modules/auth/auth.routes';
 import { calculationsRoutes } from './modules/calculations/calculations.routes';
 import { healthRoutes } from './modules/health/health.routes';
 import { shopsRoutes } from './modules/shops/shops.routes';
@@ -10,6 +11,7 @@ import { shopsRoutes } from './modules/shops/shops.routes';
  */
 export const routeModules = {
   health: healthRoutes,
+  auth: authRoutes,
   calculations: calculationsRoutes,
   shops: shopsRoutes,
 } satisfies Record<string, readonly RouteDef<never>[]>;

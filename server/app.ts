@@ -14,7 +14,6 @@ import { createPassport } from './lib/auth/passport';
 import { errorHandler, notFoundApi } from './lib/errors';
 import { adminRouter } from './modules/admin/admin.routes';
 import { disputesRouter } from './modules/disputes/disputes.routes';
-import { authRouter } from './modules/auth/auth.routes';
 import { bidsRouter } from './modules/bids/bids.routes';
 import { messagesRouter } from './modules/messages/messages.routes';
 import { paymentsRouter, paymentsWebhook } from './modules/payments/payments.routes';
@@ -131,10 +130,15 @@ export function createApp(deps: AppDeps) {
   });
   app.use('/api', csrfSynchronisedProtection);
 
-  app.use(
-    '/api/auth',
-    authRouter({ db, config, passport, generateCsrfToken: generateToken, sessionCookieName: SESSION_COOKIE, hub }),
-  );
+  mount(routeModules.auth, {
+    db,
+    appUrl: config.appUrl,
+    rateLimits: config.rateLimits,
+    passport,
+    generateCsrfToken: generateToken,
+    sessionCookieName: SESSION_COOKIE,
+    hub,
+  });
 
   mount(routeModules.calculations, { db, perMinute: config.rateLimits.calculationsPerMinute });
   const storage = deps.storage ?? new LocalDiskStorage(config.uploadsDir);

@@ -5,22 +5,12 @@ import { needsCsrf, openApiPath, successStatus, type Access, type Reply, type Ro
 import { auditQuerySchema, createAdminSchema, ledgerQuerySchema, platformFeeSchema, shopSearchSchema, suspendUserSchema, userSearchSchema, verifyShopSchema } from '../shared/schemas/admin';
 import { disputeQueueSchema, disputeResponseSchema, openDisputeSchema, resolveDisputeSchema } from '../shared/schemas/disputes';
 import { reviewInputSchema } from '../shared/schemas/reviews';
-import {
-  changePasswordSchema,
-  githubCompleteSchema,
-  passwordResetConfirmSchema,
-  passwordResetRequestSchema,
-  signInSchema,
-  signUpSchema,
-  verifyEmailSchema,
-} from '../shared/schemas/auth';
 import { bidInputSchema, declineBidSchema } from '../shared/schemas/bids';
 import { uuidSchema } from '../shared/schemas/common';
 import { boardQuerySchema, jobInputSchema, myJobsQuerySchema } from '../shared/schemas/jobs';
 import { changeOrderInputSchema, splitSchema } from '../shared/schemas/payments';
 import { inspectionDraftSchema, inspectionInputSchema, milestoneInputSchema, rejectInspectionSchema } from '../shared/schemas/inspection';
 import { historyQuerySchema, markReadSchema, openThreadSchema, sendMessageSchema } from '../shared/schemas/messages';
-import { shopDirectoryQuerySchema, shopProfileSchema } from '../shared/schemas/shops';
 
 /**
  * The API's OpenAPI description, built from the same zod schemas the routes
@@ -63,25 +53,6 @@ const photoSized = photo.extend({ size: z.enum(['thumb', 'large']) });
 const threadPhotoSized = z.object({ threadId: uuidSchema, photoId: uuidSchema, size: z.enum(['thumb', 'large']) });
 
 export const routeDocs: RouteDoc[] = [
-  { method: 'get', path: '/api/health', summary: 'Service and database health', tag: 'Health', access: 'public' },
-  { method: 'get', path: '/api/auth/csrf', summary: 'A CSRF token for this session', tag: 'Sign-in', access: 'public' },
-  { method: 'get', path: '/api/auth/me', summary: 'The signed-in person', tag: 'Sign-in', access: 'signed-in' },
-  { method: 'post', path: '/api/auth/signup', summary: 'Create an account (builder or shop) and sign in', tag: 'Sign-in', access: 'public', body: signUpSchema, ok: { status: 201, description: 'Created and signed in' } },
-  { method: 'post', path: '/api/auth/login', summary: 'Sign in with e-mail and password', tag: 'Sign-in', access: 'public', body: signInSchema },
-  { method: 'post', path: '/api/auth/logout', summary: 'Sign out and end the session', tag: 'Sign-in', access: 'public', ok: { status: 204, description: 'Signed out' } },
-  { method: 'post', path: '/api/auth/verify-email', summary: 'Confirm an e-mail address with the mailed token', tag: 'Sign-in', access: 'public', body: verifyEmailSchema },
-  { method: 'post', path: '/api/auth/verify-email/resend', summary: 'Send the confirmation link again', tag: 'Sign-in', access: 'signed-in', ok: { status: 202, description: 'Queued' } },
-  { method: 'post', path: '/api/auth/password-reset/request', summary: 'Mail a password reset link', tag: 'Sign-in', access: 'public', body: passwordResetRequestSchema, ok: { status: 202, description: 'Queued when the account exists' } },
-  { method: 'post', path: '/api/auth/password-reset/confirm', summary: 'Set a new password with the mailed token', tag: 'Sign-in', access: 'public', body: passwordResetConfirmSchema },
-  { method: 'post', path: '/api/auth/password', summary: 'Change the password (the current one proves it is you); ends every other session', tag: 'Sign-in', access: 'signed-in', body: changePasswordSchema },
-  { method: 'get', path: '/api/auth/github', summary: 'Start a GitHub sign-in (redirects)', tag: 'Sign-in', access: 'public', query: z.object({ returnTo: z.string().optional() }), ok: { status: 302, description: 'To the provider' } },
-  { method: 'get', path: '/api/auth/github/callback', summary: 'Where the provider sends the browser back (redirects)', tag: 'Sign-in', access: 'public', ok: { status: 302, description: 'Into the app' } },
-  { method: 'get', path: '/api/auth/github/pending', summary: 'A first GitHub sign-in waiting for a role', tag: 'Sign-in', access: 'public' },
-  { method: 'post', path: '/api/auth/github/complete', summary: 'Choose a role and create the account', tag: 'Sign-in', access: 'public', body: githubCompleteSchema, ok: { status: 201, description: 'Created and signed in' } },
-  { method: 'get', path: '/api/shops', summary: 'The public shop directory', tag: 'Shops', access: 'public', query: shopDirectoryQuerySchema },
-  { method: 'get', path: '/api/shops/{shopId}', summary: 'A shop’s public page', tag: 'Shops', access: 'public', params: shopId },
-  { method: 'get', path: '/api/shop-profile', summary: 'The signed-in shop’s own profile', tag: 'Shops', access: 'shop' },
-  { method: 'put', path: '/api/shop-profile', summary: 'Create or replace the signed-in shop’s profile and rate card', tag: 'Shops', access: 'shop', body: shopProfileSchema },
   { method: 'get', path: '/api/jobs', summary: 'The job board: open jobs, filtered, sorted and paged', tag: 'Jobs', access: 'shop', query: boardQuerySchema },
   { method: 'get', path: '/api/jobs/mine', summary: 'The signed-in builder’s jobs', tag: 'Jobs', access: 'builder', query: myJobsQuerySchema },
   { method: 'post', path: '/api/jobs', summary: 'Create a draft job', tag: 'Jobs', access: 'builder', body: jobInputSchema, ok: { status: 201, description: 'Draft created' } },
@@ -119,7 +90,6 @@ export const routeDocs: RouteDoc[] = [
   { method: 'get', path: '/api/jobs/{jobId}/inspection/{version}/certificate.pdf', summary: 'The certificate of one version as a PDF', tag: 'Work', access: 'signed-in', params: jobId.extend({ version: z.coerce.number().int().min(1) }), ok: { status: 200, description: 'application/pdf' } },
   { method: 'post', path: '/api/jobs/{jobId}/inspection/reject', summary: 'Reject the record with reasons; the shop submits a new version', tag: 'Work', access: 'builder', params: jobId, body: rejectInspectionSchema },
   { method: 'post', path: '/api/payments/webhook', summary: 'Payment provider events (signed with Stripe-Signature; raw JSON body)', tag: 'Payments', access: 'public', csrf: false },
-  { method: 'post', path: '/api/shop-profile/payouts', summary: 'Start or continue the shop’s payout account onboarding; answers the provider’s link', tag: 'Payments', access: 'shop' },
   { method: 'post', path: '/api/jobs/{jobId}/checkout', summary: 'Pay the accepted bid: answers a hosted payment page address', tag: 'Payments', access: 'builder', params: jobId },
   { method: 'get', path: '/api/jobs/{jobId}/money', summary: 'The job’s payments, ledger balance and any payout or refund still on its way', tag: 'Payments', access: 'signed-in', params: jobId },
   { method: 'post', path: '/api/jobs/{jobId}/cancel-and-refund', summary: 'Cancel a paid job the shop has not started; the payment is refunded in full', tag: 'Payments', access: 'builder', params: jobId },
