@@ -90,6 +90,7 @@ export const routeDocs: RouteDoc[] = [
   { method: 'get', path: '/api/jobs/{jobId}/inspection/{version}/certificate.pdf', summary: 'The certificate of one version as a PDF', tag: 'Work', access: 'signed-in', params: jobId.extend({ version: z.coerce.number().int().min(1) }), ok: { status: 200, description: 'application/pdf' } },
   { method: 'post', path: '/api/jobs/{jobId}/inspection/reject', summary: 'Reject the record with reasons; the shop submits a new version', tag: 'Work', access: 'builder', params: jobId, body: rejectInspectionSchema },
   { method: 'post', path: '/api/payments/webhook', summary: 'Payment provider events (signed with Stripe-Signature; raw JSON body)', tag: 'Payments', access: 'public', csrf: false },
+  { method: 'post', path: '/api/shop-profile/payouts', summary: 'Start or continue the shop’s payout account onboarding; answers the provider’s link', tag: 'Payments', access: 'shop' },
   { method: 'post', path: '/api/jobs/{jobId}/checkout', summary: 'Pay the accepted bid: answers a hosted payment page address', tag: 'Payments', access: 'builder', params: jobId },
   { method: 'get', path: '/api/jobs/{jobId}/money', summary: 'The job’s payments, ledger balance and any payout or refund still on its way', tag: 'Payments', access: 'signed-in', params: jobId },
   { method: 'post', path: '/api/jobs/{jobId}/cancel-and-refund', summary: 'Cancel a paid job the shop has not started; the payment is refunded in full', tag: 'Payments', access: 'builder', params: jobId },
