@@ -14,7 +14,6 @@ import { createPassport } from './lib/auth/passport';
 import { errorHandler, notFoundApi } from './lib/errors';
 import { adminRouter } from './modules/admin/admin.routes';
 import { disputesRouter } from './modules/disputes/disputes.routes';
-import { authRouter } from './modules/auth/auth.routes';
 import { bidsRouter } from './modules/bids/bids.routes';
 import { messagesRouter } from './modules/messages/messages.routes';
 import { paymentsRouter, paymentsWebhook } from './modules/payments/payments.routes';
@@ -22,14 +21,14 @@ import { workRouter } from './modules/inspections/inspections.routes';
 import { createPaymentsClient, type PaymentsClient } from './lib/payments-client';
 import { RealtimeHub } from './realtime/hub';
 import { jobsRouter } from './modules/jobs/jobs.routes';
-import { shopsRouter } from './modules/shops/shops.routes';
 import { createSessionStore } from './lib/session-store';
 import { LocalDiskStorage, type FileStorage } from './lib/storage';
 import { jsonBody } from './lib/json-body';
 import { uploadLimiter } from './lib/photo-upload';
-import { calculationsRouter, ROUGHNESS_BODY_LIMIT } from './modules/calculations/calculations.routes';
-import { healthRouter } from './modules/health/health.routes';
+import { ROUGHNESS_BODY_LIMIT } from './modules/calculations/calculations.routes';
 import { openApiDocument } from './openapi';
+import { routeModules } from './api-routes';
+import { mountRoutes, type RouteDef } from './lib/http/routes';
 
 export const SESSION_COOKIE = 'tm.sid';
 
@@ -90,7 +89,8 @@ export function createApp(deps: AppDeps) {
     }),
   );
 
-  app.use('/api/health', healthRouter(pool));
+  const mount = <D>(routes: readonly RouteDef<D>[], routeDeps: D) => mountRoutes(app, routes, routeDeps, { check: config.responseCheck });
+  mount(routeModules.health, { pool });
 
   // The payment webhook reads its raw body and proves itself by signature: before the JSON parser, sessions and CSRF.
   const paymentsClient = deps.payments ?? createPaymentsClient(config.payments);
@@ -130,16 +130,21 @@ export function createApp(deps: AppDeps) {
   });
   app.use('/api', csrfSynchronisedProtection);
 
-  app.use(
-    '/api/auth',
-    authRouter({ db, config, passport, generateCsrfToken: generateToken, sessionCookieName: SESSION_COOKIE, hub }),
-  );
+  mount(routeModules.auth, {
+    db,
+    appUrl: config.appUrl,
+    rateLimits: config.rateLimits,
+    passport,
+    generateCsrfToken: generateToken,
+    sessionCookieName: SESSION_COOKIE,
+    hub,
+  });
 
-  app.use('/api/calculations', calculationsRouter({ db, perMinute: config.rateLimits.calculationsPerMinute }));
+  mount(routeModules.calculations, { db, perMinute: config.rateLimits.calculationsPerMinute });
   const storage = deps.storage ?? new LocalDiskStorage(config.uploadsDir);
   // One count of photo uploads per person, whichever route they go to.
   const uploadLimit = uploadLimiter(db, config.rateLimits.uploadsPer10Min);
-  app.use('/api', shopsRouter({ db }));
+  mount(routeModules.shops, { db });
   app.use('/api', jobsRouter({ db, appUrl: config.appUrl, storage, hub, uploadLimit, payments: paymentsClient }));
   app.use('/api', bidsRouter({ db, appUrl: config.appUrl, hub, platformFeeBps: config.payments.platformFeeBps }));
   app.use('/api', paymentsRouter(paymentDeps));

@@ -24,6 +24,8 @@ const schema = z
     SESSION_SECRET: z.string().min(16).optional(),
     UPLOADS_DIR: z.string().min(1).optional(),
     LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
+    /** Hold each JSON answer to its route's declared schema: strict (a 500), log, or off. Default: strict in tests, log in development, off in production. */
+    RESPONSE_CHECK: z.enum(['off', 'log', 'strict']).optional(),
     /**
      * Which proxies in front of the app may say who the client is (X-Forwarded-For, -Proto):
      * unset or "false" trusts none; a number of hops; or comma-separated addresses, subnets
@@ -131,6 +133,8 @@ export interface AppConfig {
   demoScenario: boolean;
   sessionSecret: string;
   logLevel: RawEnv['LOG_LEVEL'];
+  /** Whether answers are held to their declared schemas (server/lib/http/routes.ts). */
+  responseCheck: 'off' | 'log' | 'strict';
   /** Express's 'trust proxy' setting; false unless TRUST_PROXY names the proxies. */
   trustProxy: TrustProxy;
   uploadsDir: string;
@@ -193,6 +197,7 @@ export function loadConfig(source: NodeJS.ProcessEnv = process.env): AppConfig {
     demoScenario: env.TENTHMARK_DEMO,
     sessionSecret: env.SESSION_SECRET ?? 'tenthmark-local-development-secret',
     logLevel: env.LOG_LEVEL,
+    responseCheck: env.RESPONSE_CHECK ?? ({ test: 'strict', development: 'log', production: 'off' } as const)[env.NODE_ENV],
     trustProxy: env.TRUST_PROXY,
     uploadsDir: env.UPLOADS_DIR ?? fileURLToPath(new URL('../uploads', import.meta.url)),
     smtp: {

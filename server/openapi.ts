@@ -1,32 +1,22 @@
 import { OpenAPIRegistry, OpenApiGeneratorV31, type RouteConfig } from '@asteasolutions/zod-to-openapi';
 import { z } from 'zod';
+import { apiRoutes } from './api-routes';
+import { needsCsrf, openApiPath, successStatus, type Access, type Reply, type RouteDef } from './lib/http/routes';
 import { auditQuerySchema, createAdminSchema, ledgerQuerySchema, platformFeeSchema, shopSearchSchema, suspendUserSchema, userSearchSchema, verifyShopSchema } from '../shared/schemas/admin';
 import { disputeQueueSchema, disputeResponseSchema, openDisputeSchema, resolveDisputeSchema } from '../shared/schemas/disputes';
 import { reviewInputSchema } from '../shared/schemas/reviews';
-import {
-  changePasswordSchema,
-  githubCompleteSchema,
-  passwordResetConfirmSchema,
-  passwordResetRequestSchema,
-  signInSchema,
-  signUpSchema,
-  verifyEmailSchema,
-} from '../shared/schemas/auth';
 import { bidInputSchema, declineBidSchema } from '../shared/schemas/bids';
-import { calculationRequestSchemas } from '../shared/schemas/calculations';
 import { uuidSchema } from '../shared/schemas/common';
 import { boardQuerySchema, jobInputSchema, myJobsQuerySchema } from '../shared/schemas/jobs';
 import { changeOrderInputSchema, splitSchema } from '../shared/schemas/payments';
 import { inspectionDraftSchema, inspectionInputSchema, milestoneInputSchema, rejectInspectionSchema } from '../shared/schemas/inspection';
 import { historyQuerySchema, markReadSchema, openThreadSchema, sendMessageSchema } from '../shared/schemas/messages';
-import { shopDirectoryQuerySchema, shopProfileSchema } from '../shared/schemas/shops';
 
 /**
  * The API's OpenAPI description, built from the same zod schemas the routes
  * parse with. tests/api/openapi.test.ts checks it lists every route the
  * Express router has, and nothing it lacks.
  */
-type Access = 'public' | 'signed-in' | 'builder' | 'shop' | 'admin' | 'builder or shop';
 
 interface RouteDoc {
   method: 'get' | 'post' | 'put' | 'delete';
@@ -62,37 +52,7 @@ const photo = z.object({ jobId: uuidSchema, photoId: uuidSchema });
 const photoSized = photo.extend({ size: z.enum(['thumb', 'large']) });
 const threadPhotoSized = z.object({ threadId: uuidSchema, photoId: uuidSchema, size: z.enum(['thumb', 'large']) });
 
-const calculationRoutes: RouteDoc[] = Object.entries(calculationRequestSchemas).map(([name, schema]) => ({
-  method: 'post',
-  path: `/api/calculations/${name}`,
-  summary: `Calculate: ${name.replace(/-/g, ' ')}`,
-  tag: 'Calculations',
-  access: 'public',
-  body: schema,
-  csrf: false,
-}));
-
 export const routeDocs: RouteDoc[] = [
-  { method: 'get', path: '/api/health', summary: 'Service and database health', tag: 'Health', access: 'public' },
-  { method: 'get', path: '/api/auth/csrf', summary: 'A CSRF token for this session', tag: 'Sign-in', access: 'public' },
-  { method: 'get', path: '/api/auth/me', summary: 'The signed-in person', tag: 'Sign-in', access: 'signed-in' },
-  { method: 'post', path: '/api/auth/signup', summary: 'Create an account (builder or shop) and sign in', tag: 'Sign-in', access: 'public', body: signUpSchema, ok: { status: 201, description: 'Created and signed in' } },
-  { method: 'post', path: '/api/auth/login', summary: 'Sign in with e-mail and password', tag: 'Sign-in', access: 'public', body: signInSchema },
-  { method: 'post', path: '/api/auth/logout', summary: 'Sign out and end the session', tag: 'Sign-in', access: 'public', ok: { status: 204, description: 'Signed out' } },
-  { method: 'post', path: '/api/auth/verify-email', summary: 'Confirm an e-mail address with the mailed token', tag: 'Sign-in', access: 'public', body: verifyEmailSchema },
-  { method: 'post', path: '/api/auth/verify-email/resend', summary: 'Send the confirmation link again', tag: 'Sign-in', access: 'signed-in', ok: { status: 202, description: 'Queued' } },
-  { method: 'post', path: '/api/auth/password-reset/request', summary: 'Mail a password reset link', tag: 'Sign-in', access: 'public', body: passwordResetRequestSchema, ok: { status: 202, description: 'Queued when the account exists' } },
-  { method: 'post', path: '/api/auth/password-reset/confirm', summary: 'Set a new password with the mailed token', tag: 'Sign-in', access: 'public', body: passwordResetConfirmSchema },
-  { method: 'post', path: '/api/auth/password', summary: 'Change the password (the current one proves it is you); ends every other session', tag: 'Sign-in', access: 'signed-in', body: changePasswordSchema },
-  { method: 'get', path: '/api/auth/github', summary: 'Start a GitHub sign-in (redirects)', tag: 'Sign-in', access: 'public', query: z.object({ returnTo: z.string().optional() }), ok: { status: 302, description: 'To the provider' } },
-  { method: 'get', path: '/api/auth/github/callback', summary: 'Where the provider sends the browser back (redirects)', tag: 'Sign-in', access: 'public', ok: { status: 302, description: 'Into the app' } },
-  { method: 'get', path: '/api/auth/github/pending', summary: 'A first GitHub sign-in waiting for a role', tag: 'Sign-in', access: 'public' },
-  { method: 'post', path: '/api/auth/github/complete', summary: 'Choose a role and create the account', tag: 'Sign-in', access: 'public', body: githubCompleteSchema, ok: { status: 201, description: 'Created and signed in' } },
-  ...calculationRoutes,
-  { method: 'get', path: '/api/shops', summary: 'The public shop directory', tag: 'Shops', access: 'public', query: shopDirectoryQuerySchema },
-  { method: 'get', path: '/api/shops/{shopId}', summary: 'A shop’s public page', tag: 'Shops', access: 'public', params: shopId },
-  { method: 'get', path: '/api/shop-profile', summary: 'The signed-in shop’s own profile', tag: 'Shops', access: 'shop' },
-  { method: 'put', path: '/api/shop-profile', summary: 'Create or replace the signed-in shop’s profile and rate card', tag: 'Shops', access: 'shop', body: shopProfileSchema },
   { method: 'get', path: '/api/jobs', summary: 'The job board: open jobs, filtered, sorted and paged', tag: 'Jobs', access: 'shop', query: boardQuerySchema },
   { method: 'get', path: '/api/jobs/mine', summary: 'The signed-in builder’s jobs', tag: 'Jobs', access: 'builder', query: myJobsQuerySchema },
   { method: 'post', path: '/api/jobs', summary: 'Create a draft job', tag: 'Jobs', access: 'builder', body: jobInputSchema, ok: { status: 201, description: 'Draft created' } },
@@ -163,37 +123,79 @@ export const routeDocs: RouteDoc[] = [
   { method: 'get', path: '/api/openapi.json', summary: 'This description', tag: 'Health', access: 'public' },
 ];
 
+const errorResponse = (description: string) => ({ description, content: { 'application/json': { schema: errorSchema } } });
+
+/** The 4xx answers every route of this access may give, besides its own 400s, 404s and 409s. */
+function refusals(access: Access) {
+  return {
+    400: errorResponse('Input not valid; a message per field'),
+    ...(access !== 'public' ? { 401: errorResponse('Not signed in') } : {}),
+    ...(access !== 'public' ? { 403: errorResponse('Not allowed for this account') } : {}),
+    429: errorResponse('Too many requests'),
+  };
+}
+
+function csrfHeader(needed: boolean) {
+  return needed ? { headers: z.object({ 'x-csrf-token': z.string() }) } : {};
+}
+
+function describeAccess(access: Access, csrf: boolean): string {
+  return `Who may call it: ${access}.${csrf ? ' Send the session cookie and the X-CSRF-Token header from GET /api/auth/csrf.' : ''}`;
+}
+
+/** A success answer as OpenAPI says it: a JSON schema, a file type, a redirect or nothing. */
+function successResponse(reply: Reply) {
+  if ('json' in reply) return { description: reply.description ?? 'Done', content: { 'application/json': { schema: reply.json } } };
+  if ('file' in reply) return { description: reply.description, content: { [reply.file]: { schema: z.string().meta({ format: 'binary' }) } } };
+  return { description: reply.description };
+}
+
+function fromDeclaration(route: RouteDef<never>): RouteConfig {
+  const csrf = needsCsrf(route);
+  return {
+    method: route.method,
+    path: openApiPath(route.path),
+    summary: route.summary,
+    description: describeAccess(route.access, csrf),
+    tags: [route.tag],
+    request: {
+      ...(route.params ? { params: route.params as z.ZodObject } : {}),
+      ...(route.query ? { query: route.query as z.ZodObject } : {}),
+      ...(route.body ? { body: { content: { 'application/json': { schema: route.body } } } } : {}),
+      ...csrfHeader(csrf),
+    },
+    responses: { [successStatus(route.reply)]: successResponse(route.reply), ...refusals(route.access) },
+  };
+}
+
 function toRouteConfig(doc: RouteDoc): RouteConfig {
   const ok = doc.ok ?? { status: 200, description: 'Done' };
-  const needsCsrf = doc.method !== 'get' && doc.csrf !== false;
+  const csrf = doc.method !== 'get' && doc.csrf !== false;
   return {
     method: doc.method,
     path: doc.path,
     summary: doc.summary,
-    description: `Who may call it: ${doc.access}.${needsCsrf ? ' Send the session cookie and the X-CSRF-Token header from GET /api/auth/csrf.' : ''}`,
+    description: describeAccess(doc.access, csrf),
     tags: [doc.tag],
     request: {
       ...(doc.params ? { params: doc.params } : {}),
       ...(doc.query ? { query: doc.query } : {}),
       ...(doc.body ? { body: { content: { 'application/json': { schema: doc.body } } } } : {}),
-      ...(needsCsrf ? { headers: z.object({ 'x-csrf-token': z.string() }) } : {}),
+      ...csrfHeader(csrf),
     },
-    responses: {
-      [ok.status]: { description: ok.description },
-      400: { description: 'Input not valid; a message per field', content: { 'application/json': { schema: errorSchema } } },
-      ...(doc.access !== 'public' ? { 401: { description: 'Not signed in', content: { 'application/json': { schema: errorSchema } } } } : {}),
-      ...(['builder', 'shop', 'admin', 'signed-in', 'builder or shop'].includes(doc.access) ? { 403: { description: 'Not allowed for this account', content: { 'application/json': { schema: errorSchema } } } } : {}),
-      429: { description: 'Too many requests', content: { 'application/json': { schema: errorSchema } } },
-    },
+    responses: { [ok.status]: { description: ok.description }, ...refusals(doc.access) },
   };
 }
 
 let cached: object | undefined;
 
+/** The document for every declared route (and, until their modules are declared too, the routes still listed by hand above). */
 export function openApiDocument(): object {
   if (cached) return cached;
   const registry = new OpenAPIRegistry();
-  for (const doc of routeDocs) registry.registerPath(toRouteConfig(doc));
+  const declared = new Set(apiRoutes.map((route) => `${route.method} ${openApiPath(route.path)}`));
+  for (const route of apiRoutes) registry.registerPath(fromDeclaration(route));
+  for (const doc of routeDocs) if (!declared.has(`${doc.method} ${doc.path}`)) registry.registerPath(toRouteConfig(doc));
   cached = new OpenApiGeneratorV31(registry.definitions).generateDocument({
     openapi: '3.1.0',
     info: {

@@ -77,3 +77,33 @@ export type Me = z.infer<typeof meSchema>;
 /** A GitHub sign-in waiting for the person to choose a role. */
 export const pendingGithubSchema = z.object({ login: z.string(), email: z.string(), displayName: z.string() });
 export type PendingGithub = z.infer<typeof pendingGithubSchema>;
+
+// Answers of /api/auth: the JSON on the wire.
+
+/** GET /api/auth/csrf: the token to send as X-CSRF-Token with every change. */
+export const csrfTokenSchema = z.object({ csrfToken: z.string() });
+export type CsrfToken = z.infer<typeof csrfTokenSchema>;
+
+/** GET /api/auth/me. */
+export const meAnswerSchema = z.object({ user: meSchema });
+export type MeAnswer = z.infer<typeof meAnswerSchema>;
+
+/** Signed in (sign-up, sign-in, a finished GitHub sign-up): the person, and a new CSRF token for the new session. */
+export const signedInSchema = z.object({ user: meSchema, csrfToken: z.string() });
+export type SignedIn = z.infer<typeof signedInSchema>;
+
+/** A password changed or set again with a reset link. */
+export const passwordChangedSchema = z.object({ changed: z.literal(true) });
+export type PasswordChanged = z.infer<typeof passwordChangedSchema>;
+
+/** The address a confirmation link confirmed. */
+export const emailVerifiedSchema = z.object({ email: z.string(), verified: z.literal(true) });
+export type EmailVerified = z.infer<typeof emailVerifiedSchema>;
+
+/** A mail queued (a confirmation link, or a reset link whether or not the account exists). */
+export const mailQueuedSchema = z.object({ sent: z.literal(true) });
+export type MailQueued = z.infer<typeof mailQueuedSchema>;
+
+/** GET /api/auth/github/pending. */
+export const pendingGithubAnswerSchema = z.object({ pending: pendingGithubSchema });
+export type PendingGithubAnswer = z.infer<typeof pendingGithubAnswerSchema>;

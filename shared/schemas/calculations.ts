@@ -1,6 +1,7 @@
 /**
- * Request schemas for the calculation API (POST /api/calculations/<route>),
- * also used by the calculator forms. Each field has a plain-English message;
+ * Request and answer schemas for the calculation API (POST
+ * /api/calculations/<route>); the request schemas are also used by the
+ * calculator forms. Each field has a plain-English message;
  * physically impossible input (zero or negative sizes, zero speed, an empty
  * profile, NaN or infinite numbers) fails here, so the route answers 400 and
  * the library in shared/calc never sees it.
@@ -262,6 +263,152 @@ export const calculationRequestSchemas = {
 
 export type CalculationRoute = keyof typeof calculationRequestSchemas;
 
+// --- answers ------------------------------------------------------------------
+//
+// The JSON each route answers: the result of its function in shared/calc,
+// field for field (tests/unit/calc/response-schemas.test.ts holds them equal),
+// with the request's `unit` where the route echoes it.
+
+/** An answer whose lengths are in the request's unit, which it names. */
+function inRequestUnit<T extends z.ZodRawShape>(shape: T) {
+  return z.object({ unit: lengthUnitSchema, ...shape });
+}
+
+export const displacementAnswerSchema = z.object({
+  cc: z.number(),
+  litres: z.number(),
+  cubicInches: z.number(),
+});
+
+export const compressionRatioAnswerSchema = z.object({
+  ratio: z.number(),
+  sweptCc: z.number(),
+  clearanceCc: z.number(),
+  chamberCc: z.number(),
+  pistonCc: z.number(),
+  gasketCc: z.number(),
+  deckCc: z.number(),
+});
+
+const honeSpeeds = {
+  /** π · D · n, length unit per minute. */
+  peripheralSpeed: z.number(),
+  /** 2 · L · f, length unit per minute. */
+  axialSpeed: z.number(),
+};
+
+export const crosshatchAnswerSchema = z.object({
+  includedAngleDeg: z.number(),
+  scratchAngleDeg: z.number(),
+  ...honeSpeeds,
+});
+
+export const crosshatchRateAnswerSchema = z.object({
+  cyclesPerMinute: z.number(),
+  ...honeSpeeds,
+});
+
+export const boreLimitSchema = z.enum(['targetBore', 'clearanceMin', 'clearanceMax', 'maxTaper', 'maxOutOfRound']);
+
+/** One cylinder's figures and verdict (shared/calc/bore.ts `CylinderInspection`). */
+export const cylinderInspectionSchema = z.object({
+  mean: z.number(),
+  smallest: z.number(),
+  largest: z.number(),
+  taper: z.number(),
+  taperThrust: z.number(),
+  taperAxial: z.number(),
+  outOfRound: z.number(),
+  outOfRoundByDepth: z.object({ top: z.number(), middle: z.number(), bottom: z.number() }),
+  /** The clearances are there only when the piston was measured. */
+  thrustClearance: z.object({ smallest: z.number(), largest: z.number() }).optional(),
+  clearance: z.number().optional(),
+  tightestClearance: z.number().optional(),
+  /** There only when the spec gives a target bore. */
+  deviation: z.number().optional(),
+  pass: z.boolean(),
+  failures: z.array(z.object({ limit: boreLimitSchema, value: z.number(), allowed: z.number() })),
+  notChecked: z.array(boreLimitSchema),
+});
+
+export const boreInspectionAnswerSchema = inRequestUnit({
+  cylinders: z.array(cylinderInspectionSchema),
+  worst: z.object({
+    taper: z.number(),
+    outOfRound: z.number(),
+    taperCylinder: z.number().int(),
+    outOfRoundCylinder: z.number().int(),
+  }),
+  pass: z.boolean(),
+});
+
+export const boreSizeAnswerSchema = inRequestUnit({
+  finishedBore: z.number(),
+  boreTo: z.number(),
+  targetClearance: z.number(),
+});
+
+export const deckFlatnessAnswerSchema = inRequestUnit({
+  outOfFlat: z.number(),
+  limit: z.number(),
+  pass: z.boolean(),
+  limitSource: z.enum(['table', 'shop']),
+});
+
+/** The filter a roughness answer says it applied (shared/calc/roughness.ts `AppliedFilter`), lengths in mm. */
+export const appliedFilterSchema = z.discriminatedUnion('kind', [
+  z.object({
+    kind: z.literal('none'),
+    evaluatedPoints: z.number().int(),
+    /** There when the spacing was given. */
+    evaluationLengthMm: z.number().optional(),
+    method: z.string(),
+  }),
+  z.object({
+    kind: z.literal('gaussian'),
+    cutoffMm: z.number(),
+    formRemoval: z.literal('least-squares line'),
+    trimmedStartMm: z.number(),
+    trimmedEndMm: z.number(),
+    samplingLengths: z.number().int(),
+    evaluationLengthMm: z.number(),
+    evaluatedPoints: z.number().int(),
+    rkFilter: z.literal('ISO 13565-1 valley suppression'),
+    method: z.string(),
+  }),
+]);
+
+export const roughnessAnswerSchema = z.object({
+  mean: z.number(),
+  ra: z.number(),
+  rq: z.number(),
+  rz: z.number(),
+  rk: z.number(),
+  rpk: z.number(),
+  rvk: z.number(),
+  mr1: z.number(),
+  mr2: z.number(),
+  construction: z.object({
+    secantFrom: z.number(),
+    secantTo: z.number(),
+    top: z.number(),
+    bottom: z.number(),
+    a1: z.number(),
+    a2: z.number(),
+  }),
+  points: z.number().int(),
+  filter: appliedFilterSchema,
+  /** There when the spacing was given. */
+  lengthUm: z.number().optional(),
+});
+
+export const ringGapAnswerSchema = inRequestUnit({
+  topRing: z.number(),
+  secondRing: z.number(),
+  topFactor: z.number(),
+  secondFactor: z.number(),
+});
+
 export type LengthUnitInput = z.infer<typeof lengthUnitSchema>;
 export type DisplacementRequest = z.infer<typeof displacementRequestSchema>;
 export type CompressionRatioRequest = z.infer<typeof compressionRatioRequestSchema>;
@@ -274,3 +421,14 @@ export type BoreSizeRequest = z.infer<typeof boreSizeRequestSchema>;
 export type DeckFlatnessRequest = z.infer<typeof deckFlatnessRequestSchema>;
 export type RoughnessRequest = z.infer<typeof roughnessRequestSchema>;
 export type RingGapRequest = z.infer<typeof ringGapRequestSchema>;
+export type DisplacementAnswer = z.infer<typeof displacementAnswerSchema>;
+export type CompressionRatioAnswer = z.infer<typeof compressionRatioAnswerSchema>;
+export type CrosshatchAnswer = z.infer<typeof crosshatchAnswerSchema>;
+export type CrosshatchRateAnswer = z.infer<typeof crosshatchRateAnswerSchema>;
+export type CylinderInspectionAnswer = z.infer<typeof cylinderInspectionSchema>;
+export type BoreInspectionAnswer = z.infer<typeof boreInspectionAnswerSchema>;
+export type BoreSizeAnswer = z.infer<typeof boreSizeAnswerSchema>;
+export type DeckFlatnessAnswer = z.infer<typeof deckFlatnessAnswerSchema>;
+export type AppliedFilterAnswer = z.infer<typeof appliedFilterSchema>;
+export type RoughnessAnswer = z.infer<typeof roughnessAnswerSchema>;
+export type RingGapAnswer = z.infer<typeof ringGapAnswerSchema>;

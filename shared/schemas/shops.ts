@@ -51,17 +51,36 @@ export const shopDirectoryQuerySchema = z.object({
 export type ShopDirectoryQuery = z.infer<typeof shopDirectoryQuerySchema>;
 
 /** A shop as anyone may see it. */
-export interface PublicShop {
-  id: string;
-  name: string;
-  country: string;
-  region: string;
-  city: string;
-  takesShipped: boolean;
-  capabilities: string[];
-  equipmentNotes: string;
-  turnaroundDays: number;
-  rateCard: Array<{ operation: string; priceCents: number }>;
-  verified: boolean;
-  rating: { average: number; count: number } | null;
-}
+export const publicShopSchema = z.object({
+  id: z.uuid(),
+  name: z.string(),
+  country: z.string(),
+  region: z.string(),
+  city: z.string(),
+  takesShipped: z.boolean(),
+  capabilities: z.array(z.string()),
+  equipmentNotes: z.string(),
+  turnaroundDays: z.number().int(),
+  rateCard: z.array(z.object({ operation: z.string(), priceCents: z.number().int() })),
+  verified: z.boolean(),
+  rating: z.object({ average: z.number(), count: z.number().int() }).nullable(),
+});
+export type PublicShop = z.infer<typeof publicShopSchema>;
+
+/** What a shop sees of itself: the public profile, its e-mail choice and its payout account's state. */
+export const ownShopSchema = publicShopSchema.extend({
+  notifyMatchingJobs: z.boolean(),
+  payouts: z.enum(['none', 'pending', 'ready']),
+});
+export type OwnShop = z.infer<typeof ownShopSchema>;
+
+export const shopDirectoryPageSchema = z.object({
+  shops: z.array(publicShopSchema),
+  total: z.number().int(),
+  page: z.number().int(),
+  pageSize: z.number().int(),
+});
+export type ShopDirectoryPage = z.infer<typeof shopDirectoryPageSchema>;
+
+export const shopAnswerSchema = z.object({ shop: publicShopSchema });
+export const ownShopAnswerSchema = z.object({ shop: ownShopSchema });

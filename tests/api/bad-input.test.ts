@@ -29,6 +29,7 @@ import { shops } from '../../server/db/schema';
 import { loadConfig } from '../../server/env';
 import { createLogger } from '../../server/lib/logger';
 import { listRoutes, type ListedRoute } from '../../server/lib/routes-list';
+import { apiRoutes } from '../../server/api-routes';
 import { openApiDocument, routeDocs } from '../../server/openapi';
 import { bidInput, createJob, createUser, inDays, jobInput, TEST_PASSWORD } from '../factories';
 import { startMoneyApp } from '../setup/money-app';
@@ -560,7 +561,10 @@ interface RequestCase {
   signature?: string;
 }
 
-const docFor = (route: ListedRoute) => routeDocs.find((d) => d.method.toUpperCase() === route.method && d.path === route.path.replace(/:(\w+)/g, '{$1}'));
+/** A route's declaration, or its hand-kept entry in server/openapi.ts while its module is not declared yet. */
+const docFor = (route: ListedRoute) =>
+  apiRoutes.find((d) => d.method.toUpperCase() === route.method && d.path === route.path) ??
+  routeDocs.find((d) => d.method.toUpperCase() === route.method && d.path === route.path.replace(/:(\w+)/g, '{$1}'));
 
 function rolesFor(access: string | undefined): Role[] {
   switch (access) {

@@ -230,4 +230,19 @@ describe('calculation API: rate limit', () => {
       await limited.close();
     }
   });
+
+  it('when one address spreads its calculations over several routes, then they count against one limit', async () => {
+    const limited = await setupTestApp({ RATE_LIMIT_CALCULATIONS_PER_MINUTE: '3' });
+    try {
+      const post = (route: string, body: object) => supertest(limited.app).post(`/api/calculations/${route}`).send(body);
+      expect((await post('ring-gap', { unit: 'in', bore: 4, application: 'race' })).status).toBe(200);
+      expect((await post('displacement', { unit: 'in', bore: 4, stroke: 3.48, cylinders: 8 })).status).toBe(200);
+      expect((await post('bore-size', { unit: 'in', pistonDiameter: 4.028, clearanceMin: 0.0025, clearanceMax: 0.0035, honeAllowance: 0.003 })).status).toBe(200);
+      const res = await post('crosshatch', { unit: 'in', bore: 4, spindleRpm: 150, strokeLength: 4, cyclesPerMinute: 31 });
+      expect(res.status).toBe(429);
+      expect(res.body.error.code).toBe('too_many_attempts');
+    } finally {
+      await limited.close();
+    }
+  });
 });

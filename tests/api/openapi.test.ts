@@ -1,5 +1,9 @@
+import { Validator } from '@seriousme/openapi-schema-validator';
 import supertest from 'supertest';
+import { z } from 'zod';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { apiRoutes } from '../../server/api-routes';
+import { openApiPath, responseMismatch, successStatus } from '../../server/lib/http/routes';
 import { listRoutes } from '../../server/lib/routes-list';
 import { setupTestApp, type TestContext } from '../setup/test-env';
 
@@ -41,5 +45,42 @@ describe('GET /api/openapi.json', () => {
       expect.arrayContaining(['operation', 'material', 'cylinders', 'region', 'logistics', 'neededBefore', 'sort', 'page', 'pageSize']),
     );
     expect(res.body.paths['/api/calculations/displacement'].post.requestBody).toBeDefined();
+  });
+});
+
+describe('the OpenAPI document built from the route declarations', () => {
+  it('when checked with a general-purpose OpenAPI 3.1 validator, then it is valid', async () => {
+    const res = await supertest(ctx.app).get('/api/openapi.json');
+    const validator = new Validator();
+    const result = await validator.validate(res.body);
+    expect(result.errors ?? []).toEqual([]);
+    expect(result.valid).toBe(true);
+    expect(validator.version).toBe('3.1');
+  });
+
+  it('when a declared route succeeds, then the document says with what: a JSON schema, a file type, or a status with no body', async () => {
+    const res = await supertest(ctx.app).get('/api/openapi.json');
+    const paths = res.body.paths as Record<string, Record<string, { responses: Record<string, { content?: Record<string, { schema?: object }> }> }>>;
+    const problems: string[] = [];
+    for (const route of apiRoutes) {
+      const operation = paths[openApiPath(route.path)]?.[route.method];
+      const success = operation?.responses[String(successStatus(route.reply))];
+      const content = success?.content ?? {};
+      if ('json' in route.reply && !content['application/json']?.schema) problems.push(`${route.method} ${route.path}: no JSON schema`);
+      if ('file' in route.reply && !content[route.reply.file]?.schema) problems.push(`${route.method} ${route.path}: no ${route.reply.file} content`);
+      if (('empty' in route.reply || 'redirect' in route.reply) && Object.keys(content).length) problems.push(`${route.method} ${route.path}: a body where none is sent`);
+    }
+    expect(problems).toEqual([]);
+    const shopPage = paths['/api/shops/{shopId}'].get.responses['200'].content!['application/json'].schema as { properties: Record<string, unknown> };
+    expect(Object.keys(shopPage.properties)).toEqual(['shop']);
+  });
+});
+
+describe('answers held to their declarations', () => {
+  it('when an answer carries a field its schema does not declare, or lacks one it requires, then the check names it', () => {
+    const schema = z.object({ id: z.string(), when: z.iso.datetime() });
+    expect(responseMismatch(schema, { id: 'a', when: new Date('2026-12-05T10:00:00Z') })).toBeNull();
+    expect(responseMismatch(schema, { id: 'a', when: new Date(), secret: 'x' })).toMatch(/does not declare/);
+    expect(responseMismatch(schema, { id: 'a' })).toMatch(/^when:/);
   });
 });

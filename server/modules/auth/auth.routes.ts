@@ -1,9 +1,17 @@
-import { Router, type Request } from 'express';
+import type { Request, Response } from 'express';
+import { z } from 'zod';
 import {
   changePasswordSchema,
+  csrfTokenSchema,
+  emailVerifiedSchema,
   githubCompleteSchema,
+  mailQueuedSchema,
+  meAnswerSchema,
+  passwordChangedSchema,
   passwordResetConfirmSchema,
   passwordResetRequestSchema,
+  pendingGithubAnswerSchema,
+  signedInSchema,
   signInSchema,
   signUpSchema,
   verifyEmailSchema,
@@ -12,8 +20,9 @@ import type { Database } from '../../db/client';
 import type { User } from '../../db/schema';
 import type { AppConfig } from '../../env';
 import type { AppPassport } from '../../lib/auth/passport';
-import { currentUser, requireUser } from '../../lib/auth/guards';
+import { currentUser } from '../../lib/auth/guards';
 import { AppError, notFound } from '../../lib/errors';
+import { routesFor } from '../../lib/http/routes';
 import { createLimiter } from '../../lib/rate-limit';
 import { safeReturnPath } from '../../../shared/paths';
 import type { RealtimeHub } from '../../realtime/hub';
@@ -30,9 +39,11 @@ import {
   type GithubProfile,
 } from './auth.service';
 
-export interface AuthRouterDeps {
+export interface AuthRouteDeps {
   db: Database;
-  config: AppConfig;
+  /** Where the links in the mail point. */
+  appUrl: string;
+  rateLimits: AppConfig['rateLimits'];
   passport: AppPassport;
   generateCsrfToken: (req: Request, overwrite?: boolean) => string;
   sessionCookieName: string;
@@ -44,6 +55,29 @@ const logIn = (req: Request, user: User) =>
   new Promise<void>((resolve, reject) => req.login(user, (err) => (err ? reject(err) : resolve())));
 
 /**
+ * Signs the person in on this session (passport gives it a new id, so a
+ * planted id is worthless) and answers who they are with the new session's
+ * CSRF token.
+ */
+async function signedIn(deps: AuthRouteDeps, req: Request, user: User) {
+  await logIn(req, user);
+  return { user: toMe(user), csrfToken: deps.generateCsrfToken(req, true) };
+}
+
+/**
+ * Waits for passport middleware run inside a handler: it resolves with what
+ * `run` hands back, or with undefined once passport has answered the request
+ * itself (the redirect to GitHub). Passport handing on to the next middleware
+ * rejects, with its error when it has one.
+ */
+function untilAnswered<T>(res: Response, run: (done: (value: T) => void, next: (error?: unknown) => void) => void): Promise<T | undefined> {
+  return new Promise((resolve, reject) => {
+    res.once('finish', () => resolve(undefined));
+    run(resolve, (error) => reject(error ?? new Error('Passport handed on without answering.')));
+  });
+}
+
+/**
  * The account a request names, whatever address it comes from, so limits per
  * account cannot be reset by changing address. Only a string counts as the
  * e-mail: String() of a deeply nested array overflows the stack.
@@ -53,176 +87,285 @@ const emailKey = (req: Request) => {
   return `account|${typeof email === 'string' ? email.trim().toLowerCase() : ''}`;
 };
 
-export function authRouter(deps: AuthRouterDeps) {
-  const { db, config, passport } = deps;
-  const serviceDeps = { db, appUrl: config.appUrl };
-  const router = Router();
+const fifteenMinutes = 15 * 60_000;
+const hour = 60 * 60_000;
 
-  const fifteenMinutes = 15 * 60_000;
-  const hour = 60 * 60_000;
-  const signInPerAccount = createLimiter({
-    db,
-    name: 'signin-account',
-    windowMs: fifteenMinutes,
-    limit: config.rateLimits.signInMax,
-    skipSuccessfulRequests: true,
-    keyGenerator: emailKey,
-    message: 'Too many failed sign-in attempts for this account. Wait 15 minutes, or reset your password.',
-  });
-  const signInPerAddress = createLimiter({
+/** Failed sign-ins, per address and per account. */
+const signInLimits = ({ db, rateLimits }: AuthRouteDeps) => [
+  createLimiter({
     db,
     name: 'signin-ip',
     windowMs: fifteenMinutes,
-    limit: config.rateLimits.signInMax * 5,
+    limit: rateLimits.signInMax * 5,
     skipSuccessfulRequests: true,
     message: 'Too many failed sign-in attempts from your network. Wait 15 minutes and try again.',
-  });
-  const signUpLimiter = createLimiter({
+  }),
+  createLimiter({
+    db,
+    name: 'signin-account',
+    windowMs: fifteenMinutes,
+    limit: rateLimits.signInMax,
+    skipSuccessfulRequests: true,
+    keyGenerator: emailKey,
+    message: 'Too many failed sign-in attempts for this account. Wait 15 minutes, or reset your password.',
+  }),
+];
+
+/** New accounts per address. */
+const signUpLimits = ({ db, rateLimits }: AuthRouteDeps) => [
+  createLimiter({
     db,
     name: 'signup-ip',
     windowMs: hour,
-    limit: config.rateLimits.signUpMax,
+    limit: rateLimits.signUpMax,
     message: 'Too many new accounts from your network. Try again in an hour.',
-  });
-  const resetLimiter = createLimiter({
+  }),
+];
+
+/** Reset requests, per address and per account. */
+const resetLimits = ({ db, rateLimits }: AuthRouteDeps) => [
+  createLimiter({
+    db,
+    name: 'reset-ip',
+    windowMs: hour,
+    limit: rateLimits.resetPerAddress,
+    message: 'Too many reset requests from your network. Try again in an hour.',
+  }),
+  createLimiter({
     db,
     name: 'reset-account',
     windowMs: hour,
     limit: 5,
     keyGenerator: emailKey,
     message: 'Too many reset requests for this address. Check your inbox, or try again in an hour.',
-  });
-  const resetPerAddress = createLimiter({
-    db,
-    name: 'reset-ip',
-    windowMs: hour,
-    limit: config.rateLimits.resetPerAddress,
-    message: 'Too many reset requests from your network. Try again in an hour.',
-  });
+  }),
+];
 
-  const passwordChanges = createLimiter({
+/** Wrong current passwords, per person. */
+const passwordChangeLimits = ({ db, rateLimits }: AuthRouteDeps) => [
+  createLimiter({
     db,
     name: 'password-change',
     windowMs: fifteenMinutes,
-    limit: config.rateLimits.signInMax,
+    limit: rateLimits.signInMax,
     skipSuccessfulRequests: true,
     keyGenerator: (req) => `user|${currentUser(req).id}`,
     message: 'Too many wrong current passwords. Wait 15 minutes, or reset your password.',
-  });
+  }),
+];
 
-  router.get('/csrf', (req, res) => {
-    res.json({ csrfToken: deps.generateCsrfToken(req) });
-  });
+/** The GitHub sign-in waiting in this session for the person to choose a role. */
+function pendingGithub(req: Request) {
+  const pending = req.session.pendingGithub;
+  if (!pending) throw notFound('There is no GitHub sign-in waiting. Start again from the sign-in page.');
+  return pending;
+}
 
-  router.get('/me', (req, res) => {
-    if (!req.user) throw new AppError('unauthenticated', 'You are not signed in.', 401);
-    res.json({ user: toMe(req.user) });
-  });
+/** No GitHub sign-in waiting is a 404 before the body is read, so a bad body without one is a 404 too. */
+const pendingGithubFirst = () => [
+  (req: Request, _res: Response, next: () => void) => {
+    pendingGithub(req);
+    next();
+  },
+];
 
-  router.post('/signup', signUpLimiter, async (req, res) => {
-    const input = signUpSchema.parse(req.body);
-    const user = await signUp(serviceDeps, input);
-    await logIn(req, user);
-    res.status(201).json({ user: toMe(user), csrfToken: deps.generateCsrfToken(req, true) });
-  });
+const route = routesFor<AuthRouteDeps>('Sign-in');
 
-  router.post('/login', signInPerAddress, signInPerAccount, async (req, res, next) => {
-    signInSchema.parse(req.body);
-    const user = await new Promise<User>((resolve, reject) => {
-      passport.authenticate('local', { session: false }, (err: unknown, found: User | false) => {
-        if (err) return reject(err);
-        if (!found) return reject(new AppError('wrong_credentials', 'That e-mail and password do not match an account.', 401));
-        resolve(found);
-      })(req, res, next);
-    });
-    // passport regenerates the session id here, so a planted id is worthless.
-    await logIn(req, user);
-    res.json({ user: toMe(user), csrfToken: deps.generateCsrfToken(req, true) });
-  });
-
-  router.post('/logout', async (req, res) => {
-    // passport gives the session a new id as it signs out: the old one names the sockets to close.
-    const sid = req.sessionID;
-    await new Promise<void>((resolve, reject) => req.logout((err) => (err ? reject(err) : resolve())));
-    await new Promise<void>((resolve, reject) => req.session.destroy((err) => (err ? reject(err) : resolve())));
-    deps.hub.endSession(sid);
-    res.clearCookie(deps.sessionCookieName, { path: '/' });
-    res.status(204).end();
-  });
-
-  router.post('/password', requireUser, passwordChanges, async (req, res) => {
-    const input = changePasswordSchema.parse(req.body);
-    const user = await changePassword(serviceDeps, currentUser(req), input, req.sessionID);
-    deps.hub.signOut(user.id, req.sessionID);
-    res.json({ changed: true });
-  });
-
-  router.post('/verify-email', async (req, res) => {
-    const { token } = verifyEmailSchema.parse(req.body);
-    const user = await verifyEmail(serviceDeps, token);
-    res.json({ email: user.email, verified: true });
-  });
-
-  router.post('/verify-email/resend', requireUser, async (req, res) => {
-    await resendVerification(serviceDeps, req.user!);
-    res.status(202).json({ sent: true });
-  });
-
-  router.post('/password-reset/request', resetPerAddress, resetLimiter, async (req, res) => {
-    const { email } = passwordResetRequestSchema.parse(req.body);
-    await requestPasswordReset(serviceDeps, email);
-    // The same answer whether or not the account exists.
-    res.status(202).json({ sent: true });
-  });
-
-  router.post('/password-reset/confirm', async (req, res) => {
-    const { token, password } = passwordResetConfirmSchema.parse(req.body);
-    const user = await confirmPasswordReset(serviceDeps, token, password);
-    deps.hub.signOut(user.id);
-    res.json({ changed: true });
-  });
-
+/** Accounts and sessions: sign-up, sign-in (password or GitHub), sign-out, e-mail confirmation and passwords. */
+export const authRoutes = [
+  route({
+    method: 'get',
+    path: '/api/auth/csrf',
+    summary: 'A CSRF token for this session',
+    access: 'public',
+    reply: { json: csrfTokenSchema, description: 'The token to send as X-CSRF-Token' },
+    handler: ({ deps, req }) => ({ csrfToken: deps.generateCsrfToken(req) }),
+  }),
+  route({
+    method: 'get',
+    path: '/api/auth/me',
+    summary: 'The signed-in person',
+    access: 'signed-in',
+    reply: { json: meAnswerSchema, description: 'The person as they see themselves' },
+    handler: ({ user }) => ({ user: toMe(user) }),
+  }),
+  route({
+    method: 'post',
+    path: '/api/auth/signup',
+    summary: 'Create an account (builder or shop) and sign in',
+    access: 'public',
+    body: signUpSchema,
+    use: signUpLimits,
+    reply: { status: 201, json: signedInSchema, description: 'Created and signed in' },
+    handler: async ({ deps, req, body }) => {
+      return signedIn(deps, req, await signUp(deps, body));
+    },
+  }),
+  route({
+    method: 'post',
+    path: '/api/auth/login',
+    summary: 'Sign in with e-mail and password',
+    access: 'public',
+    body: signInSchema,
+    use: signInLimits,
+    reply: { json: signedInSchema, description: 'Signed in' },
+    handler: async ({ deps, req, res }) => {
+      const user = await new Promise<User>((resolve, reject) => {
+        deps.passport.authenticate('local', { session: false }, (err: unknown, found: User | false) => {
+          if (err) return reject(err);
+          if (!found) return reject(new AppError('wrong_credentials', 'That e-mail and password do not match an account.', 401));
+          resolve(found);
+        })(req, res, reject);
+      });
+      return signedIn(deps, req, user);
+    },
+  }),
+  route({
+    method: 'post',
+    path: '/api/auth/logout',
+    summary: 'Sign out and end the session',
+    access: 'public',
+    reply: { status: 204, empty: true, description: 'Signed out' },
+    handler: async ({ deps, req, res }) => {
+      // passport gives the session a new id as it signs out: the old one names the sockets to close.
+      const sid = req.sessionID;
+      await new Promise<void>((resolve, reject) => req.logout((err) => (err ? reject(err) : resolve())));
+      await new Promise<void>((resolve, reject) => req.session.destroy((err) => (err ? reject(err) : resolve())));
+      deps.hub.endSession(sid);
+      res.clearCookie(deps.sessionCookieName, { path: '/' });
+    },
+  }),
+  route({
+    method: 'post',
+    path: '/api/auth/password',
+    summary: 'Change the password (the current one proves it is you); ends every other session',
+    access: 'signed-in',
+    body: changePasswordSchema,
+    use: passwordChangeLimits,
+    reply: { json: passwordChangedSchema, description: 'Changed' },
+    handler: async ({ deps, req, user, body }) => {
+      const changed = await changePassword(deps, user, body, req.sessionID);
+      deps.hub.signOut(changed.id, req.sessionID);
+      return { changed: true as const };
+    },
+  }),
+  route({
+    method: 'post',
+    path: '/api/auth/verify-email',
+    summary: 'Confirm an e-mail address with the mailed token',
+    access: 'public',
+    body: verifyEmailSchema,
+    reply: { json: emailVerifiedSchema, description: 'Confirmed' },
+    handler: async ({ deps, body }) => {
+      const user = await verifyEmail(deps, body.token);
+      return { email: user.email, verified: true as const };
+    },
+  }),
+  route({
+    method: 'post',
+    path: '/api/auth/verify-email/resend',
+    summary: 'Send the confirmation link again',
+    access: 'signed-in',
+    reply: { status: 202, json: mailQueuedSchema, description: 'Queued' },
+    handler: async ({ deps, user }) => {
+      await resendVerification(deps, user);
+      return { sent: true as const };
+    },
+  }),
+  route({
+    method: 'post',
+    path: '/api/auth/password-reset/request',
+    summary: 'Mail a password reset link',
+    access: 'public',
+    body: passwordResetRequestSchema,
+    use: resetLimits,
+    reply: { status: 202, json: mailQueuedSchema, description: 'Queued when the account exists' },
+    handler: async ({ deps, body }) => {
+      await requestPasswordReset(deps, body.email);
+      // The same answer whether or not the account exists.
+      return { sent: true as const };
+    },
+  }),
+  route({
+    method: 'post',
+    path: '/api/auth/password-reset/confirm',
+    summary: 'Set a new password with the mailed token',
+    access: 'public',
+    body: passwordResetConfirmSchema,
+    reply: { json: passwordChangedSchema, description: 'Changed; every session of the account ends' },
+    handler: async ({ deps, body }) => {
+      const user = await confirmPasswordReset(deps, body.token, body.password);
+      deps.hub.signOut(user.id);
+      return { changed: true as const };
+    },
+  }),
   // GitHub sign-in: the stand-in provider locally, GitHub itself when configured.
-  router.get('/github', (req, res, next) => {
-    req.session.returnTo = safeReturnPath(req.query.returnTo);
-    passport.authenticate('github')(req, res, next);
-  });
-
-  router.get('/github/callback', (req, res, next) => {
-    const fail = (code: string) => res.redirect(`/signin?error=${encodeURIComponent(code)}`);
-    passport.authenticate('github', { session: false }, (err: unknown, profile: GithubProfile | false) => {
+  route({
+    method: 'get',
+    path: '/api/auth/github',
+    summary: 'Start a GitHub sign-in (redirects)',
+    access: 'public',
+    // A returnTo that is not one plain string (given twice, say) falls back to the dashboard like any other unsafe one;
+    // the document shows it as the string it should be (the OpenAPI generator cannot describe a catch).
+    query: z.object({ returnTo: z.string().optional().catch(undefined).meta({ type: 'string' }) }),
+    reply: { status: 302, redirect: true, description: 'To the provider' },
+    handler: async ({ deps, req, res, query }) => {
+      req.session.returnTo = safeReturnPath(query.returnTo);
+      await untilAnswered(res, (_done, next) => deps.passport.authenticate('github')(req, res, next));
+    },
+  }),
+  route({
+    method: 'get',
+    path: '/api/auth/github/callback',
+    summary: 'Where the provider sends the browser back (redirects)',
+    access: 'public',
+    reply: { status: 302, redirect: true, description: 'Into the app' },
+    handler: async ({ deps, req, res }) => {
+      const fail = (code: string) => res.redirect(`/signin?error=${encodeURIComponent(code)}`);
+      const outcome = await untilAnswered<{ err: unknown; profile: GithubProfile | false }>(res, (done, next) =>
+        deps.passport.authenticate('github', { session: false }, (err: unknown, profile: GithubProfile | false) => done({ err, profile }))(req, res, next),
+      );
+      // Passport answered: without a code it sends the browser to the provider first.
+      if (!outcome) return;
+      const { err, profile } = outcome;
       if (err || !profile) {
         req.log?.warn({ err }, 'GitHub sign-in failed');
         return fail('github_failed');
       }
-      githubSignIn(serviceDeps, profile)
-        .then(async (outcome) => {
+      await githubSignIn(deps, profile)
+        .then(async (signIn) => {
           const returnTo = req.session.returnTo ?? '/dashboard';
-          if (outcome.kind === 'signed-in') {
-            await logIn(req, outcome.user);
+          if (signIn.kind === 'signed-in') {
+            await logIn(req, signIn.user);
             return res.redirect(returnTo);
           }
-          req.session.pendingGithub = outcome.pending;
+          req.session.pendingGithub = signIn.pending;
           res.redirect('/welcome/github');
         })
         .catch((error: unknown) => fail(error instanceof AppError ? error.code : 'github_failed'));
-    })(req, res, next);
-  });
-
-  router.get('/github/pending', (req, res) => {
-    const pending = req.session.pendingGithub;
-    if (!pending) throw notFound('There is no GitHub sign-in waiting. Start again from the sign-in page.');
-    res.json({ pending: { login: pending.login, email: pending.email, displayName: pending.displayName } });
-  });
-
-  router.post('/github/complete', async (req, res) => {
-    const pending = req.session.pendingGithub;
-    if (!pending) throw notFound('There is no GitHub sign-in waiting. Start again from the sign-in page.');
-    const { role } = githubCompleteSchema.parse(req.body);
-    const user = await completeGithubSignUp(serviceDeps, pending, role);
-    await logIn(req, user);
-    res.status(201).json({ user: toMe(user), csrfToken: deps.generateCsrfToken(req, true) });
-  });
-
-  return router;
-}
+    },
+  }),
+  route({
+    method: 'get',
+    path: '/api/auth/github/pending',
+    summary: 'A first GitHub sign-in waiting for a role',
+    access: 'public',
+    reply: { json: pendingGithubAnswerSchema, description: 'Who GitHub says the person is' },
+    handler: ({ req }) => {
+      const pending = pendingGithub(req);
+      return { pending: { login: pending.login, email: pending.email, displayName: pending.displayName } };
+    },
+  }),
+  route({
+    method: 'post',
+    path: '/api/auth/github/complete',
+    summary: 'Choose a role and create the account',
+    access: 'public',
+    body: githubCompleteSchema,
+    use: pendingGithubFirst,
+    reply: { status: 201, json: signedInSchema, description: 'Created and signed in' },
+    handler: async ({ deps, req, body }) => {
+      return signedIn(deps, req, await completeGithubSignUp(deps, pendingGithub(req), body.role));
+    },
+  }),
+];

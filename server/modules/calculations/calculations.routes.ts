@@ -1,4 +1,3 @@
-import { Router } from 'express';
 import {
   compressionRatio,
   crosshatchAngle,
@@ -11,21 +10,49 @@ import {
   roughness,
 } from '../../../shared/calc';
 import {
+  boreInspectionAnswerSchema,
   boreInspectionRequestSchema,
+  boreSizeAnswerSchema,
   boreSizeRequestSchema,
+  compressionRatioAnswerSchema,
   compressionRatioRequestSchema,
+  crosshatchAnswerSchema,
+  crosshatchRateAnswerSchema,
   crosshatchRateRequestSchema,
   crosshatchRequestSchema,
+  deckFlatnessAnswerSchema,
   deckFlatnessRequestSchema,
+  displacementAnswerSchema,
   displacementRequestSchema,
+  ringGapAnswerSchema,
   ringGapRequestSchema,
+  roughnessAnswerSchema,
   roughnessRequestSchema,
 } from '../../../shared/schemas/calculations';
 import type { Database } from '../../db/client';
+import { routesFor } from '../../lib/http/routes';
 import { createLimiter } from '../../lib/rate-limit';
 
 /** A 500,000-point profile written as JSON numbers is a few megabytes. */
 export const ROUGHNESS_BODY_LIMIT = '12mb';
+
+type CalculationDeps = { db: Database; perMinute: number };
+
+/** One count per address across every calculation (the same function on each route, so one limiter). */
+const perAddressLimit = (deps: CalculationDeps) => [
+  createLimiter({
+    db: deps.db,
+    name: 'calculations-ip',
+    windowMs: 60_000,
+    limit: deps.perMinute,
+    message: 'Too many calculations from your network in the last minute. Wait a moment and try again.',
+  }),
+];
+
+const route = routesFor<CalculationDeps>('Calculations');
+
+/** The parts every calculation route shares: a public POST with no CSRF token, behind the per-address limit. */
+const calculation = { method: 'post', access: 'public', csrf: false, use: perAddressLimit } as const;
 
 /**
  * The calculation API: JSON in, JSON out, open to signed-out visitors and to
@@ -33,59 +60,78 @@ export const ROUGHNESS_BODY_LIMIT = '12mb';
  * session and no CSRF token; they are rate limited per address instead.
  * Lengths come back in the request's unit.
  */
-export function calculationsRouter(deps: { db: Database; perMinute: number }) {
-  const router = Router();
-  router.use(
-    createLimiter({
-      db: deps.db,
-      name: 'calculations-ip',
-      windowMs: 60_000,
-      limit: deps.perMinute,
-      message: 'Too many calculations from your network in the last minute. Wait a moment and try again.',
-    }),
-  );
-
-  router.post('/displacement', (req, res) => {
-    res.json(displacement(displacementRequestSchema.parse(req.body)));
-  });
-
-  router.post('/compression-ratio', (req, res) => {
-    res.json(compressionRatio(compressionRatioRequestSchema.parse(req.body)));
-  });
-
-  router.post('/crosshatch', (req, res) => {
-    res.json(crosshatchAngle(crosshatchRequestSchema.parse(req.body)));
-  });
-
-  router.post('/crosshatch-rate', (req, res) => {
-    res.json(crosshatchRate(crosshatchRateRequestSchema.parse(req.body)));
-  });
-
-  router.post('/bore-inspection', (req, res) => {
-    const input = boreInspectionRequestSchema.parse(req.body);
-    res.json({ unit: input.unit, ...inspectBores(input) });
-  });
-
-  router.post('/bore-size', (req, res) => {
-    const input = boreSizeRequestSchema.parse(req.body);
-    res.json({ unit: input.unit, ...boreSize(input) });
-  });
-
-  router.post('/deck-flatness', (req, res) => {
-    const input = deckFlatnessRequestSchema.parse(req.body);
-    res.json({ unit: input.unit, ...deckFlatness(input) });
-  });
-
-  router.post('/roughness', (req, res) => {
-    const input = roughnessRequestSchema.parse(req.body);
+export const calculationsRoutes = [
+  route({
+    ...calculation,
+    path: '/api/calculations/displacement',
+    summary: 'Calculate: displacement',
+    body: displacementRequestSchema,
+    reply: { json: displacementAnswerSchema },
+    handler: ({ body }) => displacement(body),
+  }),
+  route({
+    ...calculation,
+    path: '/api/calculations/compression-ratio',
+    summary: 'Calculate: compression ratio',
+    body: compressionRatioRequestSchema,
+    reply: { json: compressionRatioAnswerSchema },
+    handler: ({ body }) => compressionRatio(body),
+  }),
+  route({
+    ...calculation,
+    path: '/api/calculations/crosshatch',
+    summary: 'Calculate: crosshatch',
+    body: crosshatchRequestSchema,
+    reply: { json: crosshatchAnswerSchema },
+    handler: ({ body }) => crosshatchAngle(body),
+  }),
+  route({
+    ...calculation,
+    path: '/api/calculations/crosshatch-rate',
+    summary: 'Calculate: crosshatch rate',
+    body: crosshatchRateRequestSchema,
+    reply: { json: crosshatchRateAnswerSchema },
+    handler: ({ body }) => crosshatchRate(body),
+  }),
+  route({
+    ...calculation,
+    path: '/api/calculations/bore-inspection',
+    summary: 'Calculate: bore inspection',
+    body: boreInspectionRequestSchema,
+    reply: { json: boreInspectionAnswerSchema },
+    handler: ({ body }) => ({ unit: body.unit, ...inspectBores(body) }),
+  }),
+  route({
+    ...calculation,
+    path: '/api/calculations/bore-size',
+    summary: 'Calculate: bore size',
+    body: boreSizeRequestSchema,
+    reply: { json: boreSizeAnswerSchema },
+    handler: ({ body }) => ({ unit: body.unit, ...boreSize(body) }),
+  }),
+  route({
+    ...calculation,
+    path: '/api/calculations/deck-flatness',
+    summary: 'Calculate: deck flatness',
+    body: deckFlatnessRequestSchema,
+    reply: { json: deckFlatnessAnswerSchema },
+    handler: ({ body }) => ({ unit: body.unit, ...deckFlatness(body) }),
+  }),
+  route({
+    ...calculation,
+    path: '/api/calculations/roughness',
+    summary: 'Calculate: roughness',
+    body: roughnessRequestSchema,
+    reply: { json: roughnessAnswerSchema },
     // `filter` left out means none; the answer's `filter` says what was applied.
-    res.json(roughness(input.heightsUm, input.spacingUm, input.filter));
-  });
-
-  router.post('/ring-gap', (req, res) => {
-    const input = ringGapRequestSchema.parse(req.body);
-    res.json({ unit: input.unit, ...ringGap(input) });
-  });
-
-  return router;
-}
+    handler: ({ body }) => roughness(body.heightsUm, body.spacingUm, body.filter),
+  }),
+  route({
+    ...calculation,
+    path: '/api/calculations/ring-gap',
+    summary: 'Calculate: ring gap',
+    body: ringGapRequestSchema,
+    reply: { json: ringGapAnswerSchema },
+    handler: ({ body }) => ({ unit: body.unit, ...ringGap(body) }),
+  }),
+];

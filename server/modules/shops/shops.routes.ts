@@ -1,47 +1,69 @@
-import { Router } from 'express';
 import { uuidSchema } from '../../../shared/schemas/common';
-import { shopDirectoryQuerySchema, shopProfileSchema } from '../../../shared/schemas/shops';
+import { ownShopAnswerSchema, shopAnswerSchema, shopDirectoryPageSchema, shopDirectoryQuerySchema, shopProfileSchema, type OwnShop } from '../../../shared/schemas/shops';
+import { z } from 'zod';
 import type { Database } from '../../db/client';
-import { currentUser, requireRole } from '../../lib/auth/guards';
+import { routesFor } from '../../lib/http/routes';
 import { notFound } from '../../lib/errors';
 import { shopRatings } from '../reviews/ratings';
 import { findListedShopById, findShopByUser, ratesFor, searchShops, toPublicShop, upsertShop, type ShopRow } from './shops.repository';
 
 /** What a shop sees of itself: the public profile, its e-mail choice and its payout account's state. */
-function ownShop(shop: ShopRow, rateCard: Array<{ operation: string; priceCents: number }>) {
+function ownShop(shop: ShopRow, rateCard: Array<{ operation: string; priceCents: number }>): OwnShop {
   const payouts = shop.payoutsReadyAt ? 'ready' : shop.payoutAccountId ? 'pending' : 'none';
   return { ...toPublicShop(shop, rateCard), notifyMatchingJobs: shop.notifyMatchingJobs, payouts };
 }
 
+const route = routesFor<{ db: Database }>('Shops');
+
 /** The public shop directory and a shop's own profile. */
-export function shopsRouter(deps: { db: Database }) {
-  const { db } = deps;
-  const router = Router();
-
-  router.get('/shops', async (req, res) => {
-    res.json(await searchShops(db, shopDirectoryQuerySchema.parse(req.query)));
-  });
-
-  router.get('/shops/:shopId', async (req, res) => {
-    const shop = await findListedShopById(db, uuidSchema.parse(req.params.shopId));
-    if (!shop) throw notFound('No shop with that id.');
-    const [rates, ratings] = await Promise.all([ratesFor(db, [shop.id]), shopRatings(db, [shop.id])]);
-    res.json({ shop: toPublicShop(shop, rates.get(shop.id) ?? [], ratings.get(shop.id) ?? null) });
-  });
-
-  router.get('/shop-profile', requireRole('shop'), async (req, res) => {
-    const shop = await findShopByUser(db, currentUser(req).id);
-    if (!shop) throw notFound('You have not set up your shop profile yet.');
-    const rates = await ratesFor(db, [shop.id]);
-    res.json({ shop: ownShop(shop, rates.get(shop.id) ?? []) });
-  });
-
-  router.put('/shop-profile', requireRole('shop'), async (req, res) => {
-    const input = shopProfileSchema.parse(req.body);
-    const shop = await db.transaction((tx) => upsertShop(tx, currentUser(req).id, input));
-    const rates = await ratesFor(db, [shop.id]);
-    res.json({ shop: ownShop(shop, rates.get(shop.id) ?? []) });
-  });
-
-  return router;
-}
+export const shopsRoutes = [
+  route({
+    method: 'get',
+    path: '/api/shops',
+    summary: 'The public shop directory',
+    access: 'public',
+    query: shopDirectoryQuerySchema,
+    reply: { json: shopDirectoryPageSchema },
+    handler: ({ deps, query }) => searchShops(deps.db, query),
+  }),
+  route({
+    method: 'get',
+    path: '/api/shops/:shopId',
+    summary: 'A shop’s public page',
+    access: 'public',
+    params: z.object({ shopId: uuidSchema }),
+    reply: { json: shopAnswerSchema },
+    handler: async ({ deps: { db }, params }) => {
+      const shop = await findListedShopById(db, params.shopId);
+      if (!shop) throw notFound('No shop with that id.');
+      const [rates, ratings] = await Promise.all([ratesFor(db, [shop.id]), shopRatings(db, [shop.id])]);
+      return { shop: toPublicShop(shop, rates.get(shop.id) ?? [], ratings.get(shop.id) ?? null) };
+    },
+  }),
+  route({
+    method: 'get',
+    path: '/api/shop-profile',
+    summary: 'The signed-in shop’s own profile',
+    access: 'shop',
+    reply: { json: ownShopAnswerSchema },
+    handler: async ({ deps: { db }, user }) => {
+      const shop = await findShopByUser(db, user.id);
+      if (!shop) throw notFound('You have not set up your shop profile yet.');
+      const rates = await ratesFor(db, [shop.id]);
+      return { shop: ownShop(shop, rates.get(shop.id) ?? []) };
+    },
+  }),
+  route({
+    method: 'put',
+    path: '/api/shop-profile',
+    summary: 'Create or replace the signed-in shop’s profile and rate card',
+    access: 'shop',
+    body: shopProfileSchema,
+    reply: { json: ownShopAnswerSchema },
+    handler: async ({ deps: { db }, user, body }) => {
+      const shop = await db.transaction((tx) => upsertShop(tx, user.id, body));
+      const rates = await ratesFor(db, [shop.id]);
+      return { shop: ownShop(shop, rates.get(shop.id) ?? []) };
+    },
+  }),
+];

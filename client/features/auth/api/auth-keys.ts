@@ -1,5 +1,5 @@
 import { queryOptions } from '@tanstack/react-query';
-import type { Me, PendingGithub } from '@shared/schemas/auth';
+import type { Me, MeAnswer, PendingGithubAnswer } from '@shared/schemas/auth';
 import { ApiError, api } from '@client/lib/api-client';
 
 export const authKeys = {
@@ -11,7 +11,7 @@ export const authKeys = {
 /** The signed-in person, or null when signed out (a 401 is an answer, not an error). */
 export async function getMe(): Promise<Me | null> {
   try {
-    const { user } = await api.get<{ user: Me }>('/api/auth/me');
+    const { user } = await api.get<MeAnswer>('/api/auth/me');
     return user;
   } catch (error) {
     if (error instanceof ApiError && error.status === 401) return null;
@@ -24,7 +24,7 @@ export const authQueries = {
   pendingGithub: () =>
     queryOptions({
       queryKey: authKeys.pendingGithub(),
-      queryFn: () => api.get<{ pending: PendingGithub }>('/api/auth/github/pending').then((r) => r.pending),
+      queryFn: () => api.get<PendingGithubAnswer>('/api/auth/github/pending').then((r) => r.pending),
       retry: false,
     }),
 };

@@ -5,6 +5,7 @@ import type {
   Me,
   PasswordResetConfirmInput,
   PasswordResetRequestInput,
+  SignedIn,
   SignInInput,
   SignUpInput,
 } from '@shared/schemas/auth';
@@ -19,7 +20,7 @@ function useSignedInMutation<TVars>(path: string, mutationConfig?: MutationConfi
   const { onSuccess, ...rest } = mutationConfig ?? {};
   return useMutation<Me, ApiError, TVars>({
     ...rest,
-    mutationFn: (input) => api.post<{ user: Me }>(path, input).then((r) => r.user),
+    mutationFn: (input) => api.post<SignedIn>(path, input).then((r) => r.user),
     onSuccess: (user, ...args) => {
       queryClient.setQueryData(authKeys.me(), user);
       return onSuccess?.(user, ...args);

@@ -1,16 +1,16 @@
 import { keepPreviousData, queryOptions, useMutation, useQuery, useQueryClient, type UseMutationOptions } from '@tanstack/react-query';
-import type { PublicShop, ShopDirectoryQuery, ShopProfileInput } from '@shared/schemas/shops';
+import type { OwnShop, PublicShop, ShopDirectoryPage, ShopDirectoryQuery, ShopProfileInput } from '@shared/schemas/shops';
 import { ApiError, api } from '@client/lib/api-client';
 import { shopKeys, type DirectoryFilters } from '@client/lib/query-keys';
 import { toSearch } from '@client/lib/search-params';
 
-export type OwnShop = PublicShop & { notifyMatchingJobs: boolean; payouts: 'none' | 'pending' | 'ready' };
+export type { OwnShop };
 
 export const shopQueries = {
   list: (filters: DirectoryFilters) =>
     queryOptions({
       queryKey: shopKeys.list(filters),
-      queryFn: () => api.get<{ shops: PublicShop[]; total: number; page: number; pageSize: number }>(`/api/shops${toSearch(filters)}`),
+      queryFn: () => api.get<ShopDirectoryPage>(`/api/shops${toSearch(filters)}`),
       placeholderData: keepPreviousData,
     }),
   detail: (id: string) =>
