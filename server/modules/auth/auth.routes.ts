@@ -22,6 +22,7 @@ import {
   changePassword,
   completeGithubSignUp,
   confirmPasswordReset,
+  endLiveSession,
   githubSignIn,
   requestPasswordReset,
   resendVerification,
@@ -55,7 +56,7 @@ const emailKey = (req: Request) => {
 
 export function authRouter(deps: AuthRouterDeps) {
   const { db, config, passport } = deps;
-  const serviceDeps = { db, appUrl: config.appUrl };
+  const serviceDeps = { db, appUrl: config.appUrl, hub: deps.hub };
   const router = Router();
 
   const fifteenMinutes = 15 * 60_000;
@@ -145,15 +146,14 @@ export function authRouter(deps: AuthRouterDeps) {
     const sid = req.sessionID;
     await new Promise<void>((resolve, reject) => req.logout((err) => (err ? reject(err) : resolve())));
     await new Promise<void>((resolve, reject) => req.session.destroy((err) => (err ? reject(err) : resolve())));
-    deps.hub.endSession(sid);
+    endLiveSession(serviceDeps, sid);
     res.clearCookie(deps.sessionCookieName, { path: '/' });
     res.status(204).end();
   });
 
   router.post('/password', requireUser, passwordChanges, async (req, res) => {
     const input = changePasswordSchema.parse(req.body);
-    const user = await changePassword(serviceDeps, currentUser(req), input, req.sessionID);
-    deps.hub.signOut(user.id, req.sessionID);
+    await changePassword(serviceDeps, currentUser(req), input, req.sessionID);
     res.json({ changed: true });
   });
 
@@ -177,8 +177,7 @@ export function authRouter(deps: AuthRouterDeps) {
 
   router.post('/password-reset/confirm', async (req, res) => {
     const { token, password } = passwordResetConfirmSchema.parse(req.body);
-    const user = await confirmPasswordReset(serviceDeps, token, password);
-    deps.hub.signOut(user.id);
+    await confirmPasswordReset(serviceDeps, token, password);
     res.json({ changed: true });
   });
 

@@ -12,7 +12,7 @@ import { inspectionDecidedMail, inspectionSubmittedMail, reviewReminderMail, rev
 import { scheduleTask } from '../../lib/scheduler';
 import { releaseJob, type PaymentDeps } from '../payments/payments.service';
 import { certificatePdf } from './certificate';
-import { mustBeJobsBuilder, mustBeWorkingShop, mustSeeWork, partiesOf } from '../jobs/job-access';
+import { mustBeJobsBuilder, mustBeWorkingShop, mustSeeWork, partiesOf, sideOf } from '../jobs/job-access';
 
 export interface InspectionDeps extends PaymentDeps {
   reviewWindowMs: number;
@@ -38,7 +38,7 @@ export async function inspectionView(db: Database, user: User, jobId: string) {
   mustSeeWork(parties, user);
   const rows = await db.select().from(inspectionRecords).where(eq(inspectionRecords.jobId, jobId)).orderBy(desc(inspectionRecords.version));
   let draft: Record<string, unknown> | null = null;
-  if (parties.shop?.userId === user.id) {
+  if (sideOf(parties, user) === 'shop') {
     const [row] = await db.select().from(inspectionDrafts).where(eq(inspectionDrafts.jobId, jobId));
     draft = (row?.draft as Record<string, unknown>) ?? null;
   }

@@ -5,7 +5,7 @@ import { bids, messages, shops, threadReads, threads, users, type User } from '.
 import { AppError, conflict, forbidden, notFound } from '../../lib/errors';
 import { PostgresRateLimitStore } from '../../lib/rate-limit';
 import type { RealtimeHub } from '../../realtime/hub';
-import { awardedShopId, jobForViewer, mustReadThread, mustSeeDraft } from '../jobs/job-access';
+import { awardedShopId, jobForViewer, mustOwnJob, mustReadThread, mustSeeDraft } from '../jobs/job-access';
 import { findJob, type JobRow } from '../jobs/jobs.repository';
 import { findShopByUser } from '../shops/shops.repository';
 import { attachPhotos, photosOfMessages } from './message-photos.repository';
@@ -92,7 +92,7 @@ export async function openThread(db: Database, user: User, jobId: string, shopId
     if (job.status !== 'open' && !bid) throw forbidden('This job is not taking questions.');
     targetShopId = shop.id;
   } else if (user.role === 'builder') {
-    if (job.builderId !== user.id) throw forbidden('Only the builder who posted this job can write about it.');
+    mustOwnJob(job, user, 'Only the builder who posted this job can write about it.');
     if (!shopId) throw new AppError('invalid_input', 'Say which shop to write to.', 400, { shopId: 'Choose a shop.' });
     const [bid] = await db.select({ id: bids.id }).from(bids).where(and(eq(bids.jobId, job.id), eq(bids.shopId, shopId))).limit(1);
     const [existing] = await db.select().from(threads).where(and(eq(threads.jobId, job.id), eq(threads.shopId, shopId)));
