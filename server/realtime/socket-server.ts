@@ -11,9 +11,8 @@ import type { Database } from '../db/client';
 import type { User } from '../db/schema';
 import { nestsDeeperThan, tooDeep } from '../lib/json-body';
 import { AppError, zodFields } from '../lib/errors';
-import { PostgresRateLimitStore } from '../lib/rate-limit';
-import { jobForLiveWatcher } from '../modules/jobs/job-live';
-import { markRead, sendMessage, threadFor } from '../modules/messages/messages.service';
+import { jobForLiveWatcher } from '../modules/jobs/job-access';
+import { markRead, messageRateLimit, sendMessage, threadFor } from '../modules/messages/messages.service';
 import { findUserById, sessionIsLive } from '../modules/users/users.repository';
 import { rooms, type RealtimeHub } from './hub';
 
@@ -127,8 +126,7 @@ export function attachRealtime(options: RealtimeOptions): Server {
     );
   });
 
-  const limiter = new PostgresRateLimitStore(db, 'messages');
-  limiter.init({ windowMs: 10_000 } as never);
+  const messageDeps = { db, hub, rateLimit: messageRateLimit(db, options.messagesPer10s) };
 
   const threadArg = z.object({ threadId: uuidSchema });
   const jobArg = z.object({ jobId: uuidSchema });
@@ -189,12 +187,7 @@ export function attachRealtime(options: RealtimeOptions): Server {
     handle('message:send', async (payload) => {
       const { threadId } = threadArg.parse(payload);
       const input = sendMessageSchema.parse(payload);
-      const { totalHits } = await limiter.increment(user.id);
-      if (totalHits > options.messagesPer10s) {
-        throw new AppError('too_many_attempts', 'You are sending messages too fast. Wait a few seconds.', 429);
-      }
-      const { message, duplicate, access } = await sendMessage(db, user, threadId, input);
-      if (!duplicate) hub.messageCreated(message, [access.builderId, access.shopUserId].filter((id) => id !== user.id));
+      const { message, duplicate } = await sendMessage(messageDeps, user, threadId, input);
       return { message, duplicate };
     }, { sessionCheck: true });
 
@@ -208,8 +201,7 @@ export function attachRealtime(options: RealtimeOptions): Server {
     handle('read', async (payload) => {
       const { threadId } = threadArg.parse(payload);
       const { messageId } = markReadSchema.parse(payload);
-      await markRead(db, user, threadId, messageId);
-      hub.readMoved(threadId, user.id, messageId);
+      await markRead(messageDeps, user, threadId, messageId);
       return {};
     });
   });

@@ -220,7 +220,7 @@ const w = {
   /** Funded, and shop X has logged the block received. */
   async inWork(money: Money = 'fake') {
     const job = await w.funded(money);
-    await logMilestone(db(), people.shopX, job.jobId, milestoneInputSchema.parse({ kind: 'block_received' }));
+    await logMilestone({ db: db() }, people.shopX, job.jobId, milestoneInputSchema.parse({ kind: 'block_received' }));
     return job;
   },
   /** Shop X's inspection record waits for builder A. */
@@ -256,7 +256,7 @@ const w = {
   /** The conversation between builder A and shop X about a job, with one message from A. */
   async thread(jobId: string) {
     const thread = await openThread(db(), people.shopX, jobId);
-    const { message } = await sendMessage(db(), people.builderA, thread.id, { clientId: `m-${hex()}`, body: 'Is the block there yet?' });
+    const { message } = await sendMessage({ db: db() }, people.builderA, thread.id, { clientId: `m-${hex()}`, body: 'Is the block there yet?' });
     return { threadId: thread.id, messageId: message.id };
   },
   /** An account nobody in the cast owns, for the routes that act on one by e-mail, token or id. */
@@ -542,7 +542,7 @@ const matrix: Record<string, Row> = {
     state: async () => {
       const { threadId } = await w.thread((await w.funded()).jobId);
       const photoId = await uploadPhoto(clients.shopX, `/api/threads/${threadId}/photos`);
-      await sendMessage(db(), people.shopX, threadId, { clientId: `m-${hex()}`, body: '', photoIds: [photoId] });
+      await sendMessage({ db: db() }, people.shopX, threadId, { clientId: `m-${hex()}`, body: '', photoIds: [photoId] });
       return { threadId, photoId, size: 'large' };
     },
     expect: [401, 200, 404, 200, 404, 200],
@@ -567,7 +567,7 @@ const matrix: Record<string, Row> = {
     state: async () => {
       const { jobId } = await w.inWork();
       const photoId = await uploadPhoto(clients.shopX, `/api/jobs/${jobId}/milestone-photos`);
-      await logMilestone(db(), people.shopX, jobId, milestoneInputSchema.parse({ kind: 'teardown', note: 'Main web cracked.', photoIds: [photoId] }));
+      await logMilestone({ db: db() }, people.shopX, jobId, milestoneInputSchema.parse({ kind: 'teardown', note: 'Main web cracked.', photoIds: [photoId] }));
       return { jobId, photoId, size: 'thumb' };
     },
     expect: [401, 200, 403, 200, 403, 200],

@@ -2,7 +2,7 @@ import { and, eq } from 'drizzle-orm';
 import Stripe from 'stripe';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createDb, createPool, type Database } from '../../server/db/client';
-import { jobs, ledgerEntries, mailOutbox, moneyMoves, paymentEvents, payments as paymentRows, shops } from '../../server/db/schema';
+import { adminActions, jobs, ledgerEntries, mailOutbox, moneyMoves, paymentEvents, payments as paymentRows, shops } from '../../server/db/schema';
 import { jobBalance } from '../../server/modules/payments/ledger';
 import { startServer, type RunningServer } from '../../server/runtime';
 import { bidInput, createJob, createShop, createUser } from '../factories';
@@ -250,6 +250,27 @@ describe('payments through the official SDK and the stand-in', () => {
     const balance = await expectLedgerBalanced(job.id);
     // derived: shop share 6,000 less 8 % fee (480) → 5,520 transferred; 4,000 refunded
     expect(balance).toMatchObject({ released: 5_520, fee: 480, refunded: 4_000, held: 0 });
+  });
+
+  it('when an admin release or split is refused, then no audit row is left; a decision made is audited once, with the money plan', async () => {
+    const { job, builder } = await awardedJob(12_000);
+    const admin = await signedIn(server.app, await createUser(db, { role: 'admin' }));
+    const auditOf = () => db.select().from(adminActions).where(and(eq(adminActions.targetType, 'job'), eq(adminActions.targetId, job.id)));
+    // Nothing is held yet: the money plan fails, and the audit row written in its transaction goes with it.
+    const early = await admin.post(`/api/admin/jobs/${job.id}/release`);
+    expect(early.status).toBe(409);
+    expect(early.body.error.code).toBe('nothing_held');
+    await payWith(builder, job.id, '4242424242424242');
+    await until('funded', async () => (await jobStatus(job.id)) === 'funded');
+    expect((await admin.post(`/api/admin/jobs/${job.id}/split`, { shopCents: 12_001 })).status).toBe(400);
+    expect(await auditOf()).toEqual([]);
+    expect(await db.select().from(moneyMoves).where(eq(moneyMoves.jobId, job.id))).toEqual([]);
+
+    expect((await admin.post(`/api/admin/jobs/${job.id}/split`, { shopCents: 5_000 })).status).toBe(200);
+    const audit = await auditOf();
+    expect(audit).toHaveLength(1);
+    expect(audit[0]).toMatchObject({ action: 'job.split', details: { shopCents: 5_000 } });
+    expect((await db.select().from(moneyMoves).where(eq(moneyMoves.jobId, job.id))).length).toBeGreaterThan(0);
   });
 
   it('when the shop proposes extra work and the builder pays for it, then the release includes it', async () => {

@@ -31,6 +31,7 @@ import {
   changePassword,
   completeGithubSignUp,
   confirmPasswordReset,
+  endLiveSession,
   githubSignIn,
   requestPasswordReset,
   resendVerification,
@@ -231,7 +232,7 @@ export const authRoutes = [
       const sid = req.sessionID;
       await new Promise<void>((resolve, reject) => req.logout((err) => (err ? reject(err) : resolve())));
       await new Promise<void>((resolve, reject) => req.session.destroy((err) => (err ? reject(err) : resolve())));
-      deps.hub.endSession(sid);
+      endLiveSession(deps, sid);
       res.clearCookie(deps.sessionCookieName, { path: '/' });
     },
   }),
@@ -244,8 +245,7 @@ export const authRoutes = [
     use: passwordChangeLimits,
     reply: { json: passwordChangedSchema, description: 'Changed' },
     handler: async ({ deps, req, user, body }) => {
-      const changed = await changePassword(deps, user, body, req.sessionID);
-      deps.hub.signOut(changed.id, req.sessionID);
+      await changePassword(deps, user, body, req.sessionID);
       return { changed: true as const };
     },
   }),
@@ -294,8 +294,7 @@ export const authRoutes = [
     body: passwordResetConfirmSchema,
     reply: { json: passwordChangedSchema, description: 'Changed; every session of the account ends' },
     handler: async ({ deps, body }) => {
-      const user = await confirmPasswordReset(deps, body.token, body.password);
-      deps.hub.signOut(user.id);
+      await confirmPasswordReset(deps, body.token, body.password);
       return { changed: true as const };
     },
   }),

@@ -13,6 +13,7 @@ import {
   insertUser,
   updateUser,
 } from '../users/users.repository';
+import type { RealtimeHub } from '../../realtime/hub';
 import { consumeToken, issueToken, spendAllTokens } from './tokens';
 
 export const VERIFY_TTL_MS = 48 * 60 * 60_000;
@@ -21,12 +22,19 @@ export const RESET_TTL_MS = 60 * 60_000;
 export interface AuthDeps {
   db: Database;
   appUrl: string;
+  /** Closes the live connections of sessions that end (absent in scripts without live clients). */
+  hub?: RealtimeHub;
 }
 
 async function sendVerification(deps: AuthDeps, tx: Parameters<Parameters<Database['transaction']>[0]>[0], user: User) {
   const token = await issueToken(tx, user.id, 'verify_email', VERIFY_TTL_MS);
   const url = `${deps.appUrl}/verify-email?token=${token}`;
   await enqueueMail(tx, user.email, verifyEmailMail({ displayName: user.displayName, url, hours: VERIFY_TTL_MS / 3_600_000 }));
+}
+
+/** Someone signed out: the live connections of that session end, on every instance; their other sessions go on. */
+export function endLiveSession(deps: AuthDeps, sid: string): void {
+  deps.hub?.endSession(sid);
 }
 
 /** Creates the account and queues the verification mail in one transaction. */
@@ -79,7 +87,7 @@ const expiredLink = () =>
 /** Spends the reset link and every other one still out, sets the password, ends every session of the account. */
 export async function confirmPasswordReset(deps: AuthDeps, token: string, password: string): Promise<User> {
   const passwordHash = await hashPassword(password);
-  return deps.db.transaction(async (tx) => {
+  const changed = await deps.db.transaction(async (tx) => {
     const userId = await consumeToken(tx, token, 'reset_password');
     if (!userId) throw expiredLink();
     // Following the link proves the person reads that mailbox.
@@ -91,6 +99,8 @@ export async function confirmPasswordReset(deps: AuthDeps, token: string, passwo
     await enqueueMail(tx, updated.email, passwordChangedMail({ displayName: updated.displayName }));
     return updated;
   });
+  deps.hub?.signOut(changed.id);
+  return changed;
 }
 
 /**
@@ -109,7 +119,7 @@ export async function changePassword(deps: AuthDeps, user: User, input: ChangePa
     throw new AppError('wrong_password', 'Your current password is not right.', 400, { currentPassword: 'This is not your current password.' });
   }
   const passwordHash = await hashPassword(input.newPassword);
-  return deps.db.transaction(async (tx) => {
+  const changed = await deps.db.transaction(async (tx) => {
     const updated = await updateUser(tx, user.id, { passwordHash });
     if (!updated) throw new AppError('unauthenticated', 'You are not signed in.', 401);
     await spendAllTokens(tx, user.id, 'reset_password');
@@ -117,6 +127,8 @@ export async function changePassword(deps: AuthDeps, user: User, input: ChangePa
     await enqueueMail(tx, updated.email, passwordChangedMail({ displayName: updated.displayName }));
     return updated;
   });
+  deps.hub?.signOut(changed.id, keepSid);
+  return changed;
 }
 
 export async function verifyEmail(deps: AuthDeps, token: string): Promise<User> {

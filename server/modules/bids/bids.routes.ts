@@ -3,21 +3,15 @@ import { z } from 'zod';
 import { bidInputSchema, declineBidSchema } from '../../../shared/schemas/bids';
 import { uuidSchema } from '../../../shared/schemas/common';
 import { currentUser, requireRole, requireUser } from '../../lib/auth/guards';
-import type { JobChange, RealtimeHub } from '../../realtime/hub';
-import { jobPartiesById } from '../jobs/job-live';
 import { acceptBid, bidsForJob, bidsOfShop, bidWithHistory, createBid, declineBid, reviseBid, withdrawBid, type BidDeps } from './bids.service';
 
 const jobParams = z.object({ jobId: uuidSchema });
 const bidParams = z.object({ bidId: uuidSchema });
 
-export function bidsRouter(deps: BidDeps & { hub: RealtimeHub }) {
+export function bidsRouter(deps: BidDeps) {
   const router = Router();
-  /** The answer for the person who asked, and a nudge to every open page of the job. */
-  const answer = async (req: Request, bidId: string, change: JobChange) => {
-    const result = await bidWithHistory(deps, currentUser(req), bidId);
-    deps.hub.jobChanged(result.bid.jobId, change);
-    return result;
-  };
+  /** The bid as the person who changed it now sees it. */
+  const answer = (req: Request, bidId: string) => bidWithHistory(deps, currentUser(req), bidId);
 
   router.get('/jobs/:jobId/bids', requireUser, async (req, res) => {
     const { jobId } = jobParams.parse(req.params);
@@ -27,7 +21,7 @@ export function bidsRouter(deps: BidDeps & { hub: RealtimeHub }) {
   router.post('/jobs/:jobId/bids', requireRole('shop'), async (req, res) => {
     const { jobId } = jobParams.parse(req.params);
     const bidId = await createBid(deps, currentUser(req), jobId, bidInputSchema.parse(req.body));
-    res.status(201).json(await answer(req, bidId, 'bid_placed'));
+    res.status(201).json(await answer(req, bidId));
   });
 
   router.get('/bids/mine', requireRole('shop'), async (req, res) => {
@@ -42,29 +36,26 @@ export function bidsRouter(deps: BidDeps & { hub: RealtimeHub }) {
   router.put('/bids/:bidId', requireRole('shop'), async (req, res) => {
     const { bidId } = bidParams.parse(req.params);
     await reviseBid(deps, currentUser(req), bidId, bidInputSchema.parse(req.body));
-    res.json(await answer(req, bidId, 'bid_revised'));
+    res.json(await answer(req, bidId));
   });
 
   router.post('/bids/:bidId/withdraw', requireRole('shop'), async (req, res) => {
     const { bidId } = bidParams.parse(req.params);
     await withdrawBid(deps, currentUser(req), bidId);
-    res.json(await answer(req, bidId, 'bid_withdrawn'));
+    res.json(await answer(req, bidId));
   });
 
   router.post('/bids/:bidId/accept', requireRole('builder'), async (req, res) => {
     const { bidId } = bidParams.parse(req.params);
     await acceptBid(deps, currentUser(req), bidId);
-    const result = await answer(req, bidId, 'bid_accepted');
-    // The losing shops heard of the award; the work that follows is for the two sides only.
-    deps.hub.keepOnlyParties(result.bid.jobId, await jobPartiesById(deps.db, result.bid.jobId));
-    res.json(result);
+    res.json(await answer(req, bidId));
   });
 
   router.post('/bids/:bidId/decline', requireRole('builder'), async (req, res) => {
     const { bidId } = bidParams.parse(req.params);
     const { reason } = declineBidSchema.parse(req.body);
     await declineBid(deps, currentUser(req), bidId, reason);
-    res.json(await answer(req, bidId, 'bid_declined'));
+    res.json(await answer(req, bidId));
   });
 
   return router;

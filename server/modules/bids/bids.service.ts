@@ -4,12 +4,13 @@ import type { Bid, BidInput, BidLine, BidRevision } from '../../../shared/schema
 import type { Database, Executor } from '../../db/client';
 import { bidLineItems, bidRevisions, bids, jobs, shops, users, type User } from '../../db/schema';
 import { assertEmailConfirmed } from '../../lib/auth/guards';
-import { AppError, conflict, forbidden, notFound } from '../../lib/errors';
+import { AppError, conflict, notFound } from '../../lib/errors';
 import { enqueueMail } from '../../lib/mail/outbox';
 import { bidAcceptedMail, bidDeclinedMail, bidRevisedMail, newBidMail } from '../../lib/mail/templates';
+import type { RealtimeHub } from '../../realtime/hub';
 import { currentFee } from '../admin/platform-fee';
 import { findJob, type JobRow } from '../jobs/jobs.repository';
-import { jobForViewer } from '../jobs/jobs.service';
+import { jobForViewer, mustBeBidsShop, mustBeBuilder, mustListBids, mustSeeBid, partyUserIdsById } from '../jobs/job-access';
 import { findShopByUser, shopIsListed, shopSuspended, type ShopRow } from '../shops/shops.repository';
 import { shopRatings } from '../reviews/ratings';
 
@@ -18,6 +19,8 @@ export interface BidDeps {
   appUrl: string;
   /** The platform's fee, fixed on the job when a bid is accepted. */
   platformFeeBps?: number;
+  /** Open pages of the job hear of each bid change (absent in scripts without live clients). */
+  hub?: RealtimeHub;
 }
 
 type BidRow = typeof bids.$inferSelect;
@@ -71,7 +74,7 @@ export async function createBid(deps: BidDeps, user: User, jobId: string, input:
   assertEmailConfirmed(user, 'bid');
   const { lines, totalCents } = priceLines(input);
   if (input.validUntil < today()) throw new AppError('invalid_input', 'A bid must be valid until today or later.', 400, { validUntil: 'Pick today or a later date.' });
-  return deps.db.transaction(async (tx) => {
+  const bidId = await deps.db.transaction(async (tx) => {
     const shop = await requireShop(tx, user);
     const job = await findJob(tx, jobId, { forUpdate: true });
     if (!job || job.status === 'draft') throw notFound('No job with that id.');
@@ -95,6 +98,8 @@ export async function createBid(deps: BidDeps, user: User, jobId: string, input:
     );
     return bid.id;
   });
+  deps.hub?.jobChanged(jobId, 'bid_placed');
+  return bidId;
 }
 
 /** Locks the bid's job, then the bid, always in that order, so bid changes never deadlock each other. */
@@ -110,7 +115,7 @@ async function lockBidAndJob(tx: Executor, bidId: string): Promise<{ bid: BidRow
 async function ownBid(tx: Executor, user: User, bidId: string) {
   const shop = await requireShop(tx, user);
   const locked = await lockBidAndJob(tx, bidId);
-  if (locked.bid.shopId !== shop.id) throw notFound('No bid with that id.');
+  mustBeBidsShop(locked.bid, shop.id);
   return { ...locked, shop };
 }
 
@@ -118,7 +123,7 @@ export async function reviseBid(deps: BidDeps, user: User, bidId: string, input:
   assertEmailConfirmed(user, 'bid');
   const { lines, totalCents } = priceLines(input);
   if (input.validUntil < today()) throw new AppError('invalid_input', 'A bid must be valid until today or later.', 400, { validUntil: 'Pick today or a later date.' });
-  await deps.db.transaction(async (tx) => {
+  const jobId = await deps.db.transaction(async (tx) => {
     const { bid, job, shop } = await ownBid(tx, user, bidId);
     if (bid.status !== 'active') throw conflict('Only an active bid can be revised.', 'bid_not_active');
     if (job.status !== 'open') throw conflict('This job is no longer taking bids.', 'job_not_open');
@@ -144,21 +149,25 @@ export async function reviseBid(deps: BidDeps, user: User, bidId: string, input:
       builder.email,
       bidRevisedMail({ builderName: builder.displayName, shopName: shop.name, jobTitle: job.title, totalCents, turnaroundDays: input.turnaroundDays, url: jobUrl(deps, job.id) }),
     );
+    return job.id;
   });
+  deps.hub?.jobChanged(jobId, 'bid_revised');
 }
 
 export async function withdrawBid(deps: BidDeps, user: User, bidId: string): Promise<void> {
-  await deps.db.transaction(async (tx) => {
+  const jobId = await deps.db.transaction(async (tx) => {
     const { bid, job } = await ownBid(tx, user, bidId);
     if (bid.status !== 'active') throw conflict('Only an active bid can be withdrawn.', 'bid_not_active');
     await tx.update(bids).set({ status: 'withdrawn', decidedAt: new Date() }).where(eq(bids.id, bid.id));
     await tx.update(jobs).set({ bidCount: sql`greatest(${jobs.bidCount} - 1, 0)` }).where(eq(jobs.id, job.id));
+    return job.id;
   });
+  deps.hub?.jobChanged(jobId, 'bid_withdrawn');
 }
 
 async function builderBid(tx: Executor, user: User, bidId: string) {
   const locked = await lockBidAndJob(tx, bidId);
-  if (locked.job.builderId !== user.id) throw notFound('No bid with that id.');
+  mustBeBuilder(locked.job, user, 'No bid with that id.');
   return locked;
 }
 
@@ -168,7 +177,7 @@ async function builderBid(tx: Executor, user: User, bidId: string) {
  * racing accepts wait; the first wins and the rest find the job awarded (409).
  */
 export async function acceptBid(deps: BidDeps, user: User, bidId: string): Promise<void> {
-  await deps.db.transaction(async (tx) => {
+  const jobId = await deps.db.transaction(async (tx) => {
     const { bid, job } = await builderBid(tx, user, bidId);
     if (job.status !== 'open') throw conflict('This job already has an accepted bid, or is closed.', 'job_not_open');
     if (bid.status !== 'active') throw conflict('This bid is no longer active.', 'bid_not_active');
@@ -193,18 +202,24 @@ export async function acceptBid(deps: BidDeps, user: User, bidId: string): Promi
       const loser = await shopContact(tx, shopId);
       await enqueueMail(tx, loser.email, bidDeclinedMail({ shopName: loser.name, jobTitle: job.title, url: `${deps.appUrl}/board` }));
     }
+    return job.id;
   });
+  deps.hub?.jobChanged(jobId, 'bid_accepted');
+  // The losing shops heard of the award; the work that follows is for the two sides only.
+  deps.hub?.keepOnlyParties(jobId, await partyUserIdsById(deps.db, jobId));
 }
 
 export async function declineBid(deps: BidDeps, user: User, bidId: string, reason: string): Promise<void> {
-  await deps.db.transaction(async (tx) => {
+  const jobId = await deps.db.transaction(async (tx) => {
     const { bid, job } = await builderBid(tx, user, bidId);
     if (bid.status !== 'active') throw conflict('This bid is no longer active.', 'bid_not_active');
     // The bid count is bids received and not withdrawn: a declined bid still counts.
     await tx.update(bids).set({ status: 'declined', decidedAt: new Date(), declineReason: reason || null }).where(eq(bids.id, bid.id));
     const shop = await shopContact(tx, bid.shopId);
     await enqueueMail(tx, shop.email, bidDeclinedMail({ shopName: shop.name, jobTitle: job.title, reason, url: `${deps.appUrl}/board` }));
+    return job.id;
   });
+  deps.hub?.jobChanged(jobId, 'bid_declined');
 }
 
 /** Bids as their readers see them, with lines, shop and how well the shop's capabilities cover the job. */
@@ -251,12 +266,12 @@ async function present(db: Executor, rows: BidRow[]): Promise<Bid[]> {
 export async function bidsForJob(deps: BidDeps, user: User, jobId: string): Promise<Bid[]> {
   const job = await jobForViewer(deps.db, jobId, user);
   let where = eq(bids.jobId, job.id);
+  mustListBids(job, user);
   if (user.role === 'shop') {
     const shop = await findShopByUser(deps.db, user.id);
     if (!shop) return [];
     where = and(where, eq(bids.shopId, shop.id))!;
   } else if (user.role === 'builder') {
-    if (job.builderId !== user.id) throw forbidden('Only the builder who posted this job sees its bids.');
     const listedShops = deps.db.select({ id: shops.id }).from(shops).where(shopIsListed);
     where = and(where, or(eq(bids.status, 'accepted'), inArray(bids.shopId, listedShops)))!;
   }
@@ -267,12 +282,7 @@ export async function bidsForJob(deps: BidDeps, user: User, jobId: string): Prom
 export async function bidWithHistory(deps: BidDeps, user: User, bidId: string): Promise<{ bid: Bid; revisions: BidRevision[] }> {
   const [row] = await deps.db.select().from(bids).where(eq(bids.id, bidId));
   if (!row) throw notFound('No bid with that id.');
-  if (user.role !== 'admin') {
-    const shop = user.role === 'shop' ? await findShopByUser(deps.db, user.id) : undefined;
-    const job = await findJob(deps.db, row.jobId);
-    const mine = shop?.id === row.shopId || job?.builderId === user.id;
-    if (!mine) throw notFound('No bid with that id.');
-  }
+  await mustSeeBid(deps.db, user, row);
   const [bid] = await present(deps.db, [row]);
   const revisions = await deps.db.select().from(bidRevisions).where(eq(bidRevisions.bidId, row.id)).orderBy(desc(bidRevisions.version));
   return {

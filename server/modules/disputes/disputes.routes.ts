@@ -2,17 +2,15 @@ import { Router } from 'express';
 import { z } from 'zod';
 import { uuidSchema } from '../../../shared/schemas/common';
 import { disputeQueueSchema, disputeResponseSchema, openDisputeSchema, resolveDisputeSchema } from '../../../shared/schemas/disputes';
-import { reviewInputSchema } from '../../../shared/schemas/reviews';
 import { currentUser, requireRole, requireUser } from '../../lib/auth/guards';
 import type { PaymentDeps } from '../payments/payments.service';
-import { leaveReview, reviewsFor } from '../reviews/reviews.service';
 import { answerDispute, disputeQueue, disputeViewFor, openDispute, resolveDispute } from './disputes.service';
 import { disputeCase } from './evidence';
 
 const jobParams = z.object({ jobId: uuidSchema });
 const disputeParams = z.object({ disputeId: uuidSchema });
 
-/** Disputes (opened and answered by the two sides, decided by an admin) and the reviews left after a job ends. */
+/** Disputes: opened and answered by the two sides, decided by an admin. */
 export function disputesRouter(deps: PaymentDeps) {
   const router = Router();
 
@@ -31,17 +29,6 @@ export function disputesRouter(deps: PaymentDeps) {
     const { jobId } = jobParams.parse(req.params);
     const { statement } = disputeResponseSchema.parse(req.body);
     res.json({ dispute: await answerDispute(deps, currentUser(req), jobId, statement) });
-  });
-
-  router.get('/jobs/:jobId/reviews', requireUser, async (req, res) => {
-    const { jobId } = jobParams.parse(req.params);
-    res.json(await reviewsFor(deps.db, currentUser(req), jobId));
-  });
-
-  router.post('/jobs/:jobId/reviews', requireRole('builder', 'shop'), async (req, res) => {
-    const { jobId } = jobParams.parse(req.params);
-    const review = await leaveReview(deps, currentUser(req), jobId, reviewInputSchema.parse(req.body));
-    res.status(201).json({ review });
   });
 
   router.get('/admin/disputes', requireRole('admin'), async (req, res) => {

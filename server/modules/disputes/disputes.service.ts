@@ -16,7 +16,7 @@ import { AppError, conflict, forbidden, notFound } from '../../lib/errors';
 import { enqueueMail } from '../../lib/mail/outbox';
 import { disputeAnsweredMail, disputeDecidedMail, disputeOpenedMail } from '../../lib/mail/templates';
 import { recordAdminAction } from '../admin/audit';
-import { assertCanSeeWork, jobParties, sideOf, type JobParties } from '../inspections/job-parties';
+import { mustSeeWork, partiesOf, sideOf, type JobParties } from '../jobs/job-access';
 import { jobBalance } from '../payments/ledger';
 import { carryOut, planMoves, type PaymentDeps } from '../payments/payments.service';
 
@@ -92,8 +92,8 @@ async function latestDispute(db: Executor, jobId: string): Promise<DisputeRow | 
 
 /** The job's dispute as its builder, its shop or an admin sees it, with what the viewer may do. */
 export async function disputeViewFor(db: Database, user: User, jobId: string, now = new Date()): Promise<DisputeView> {
-  const parties = await jobParties(db, jobId);
-  assertCanSeeWork(parties, user);
+  const parties = await partiesOf(db, jobId);
+  mustSeeWork(parties, user);
   const row = await latestDispute(db, jobId);
   const side = sideOf(parties, user);
   const open = row?.status === 'open';
@@ -112,10 +112,10 @@ async function adminEmails(db: Executor) {
 /** A party opens a dispute: the job becomes disputed, the held payment stays held, both sides and the admins are told. */
 export async function openDispute(deps: PaymentDeps, user: User, jobId: string, input: OpenDisputeInput, now = new Date()): Promise<Dispute> {
   const dispute = await deps.db.transaction(async (tx) => {
-    const parties = await jobParties(tx, jobId, { forUpdate: true });
+    const parties = await partiesOf(tx, jobId, { forUpdate: true });
     const side = sideOf(parties, user);
     if (!side) {
-      assertCanSeeWork(parties, user);
+      mustSeeWork(parties, user);
       throw forbidden('Only the builder and the shop doing the work can open a dispute.');
     }
     const [open] = await tx.select({ id: disputes.id }).from(disputes).where(and(eq(disputes.jobId, jobId), eq(disputes.status, 'open')));
@@ -147,10 +147,10 @@ export async function openDispute(deps: PaymentDeps, user: User, jobId: string, 
 /** The other side answers, once. */
 export async function answerDispute(deps: PaymentDeps, user: User, jobId: string, statement: string): Promise<Dispute> {
   const row = await deps.db.transaction(async (tx) => {
-    const parties = await jobParties(tx, jobId, { forUpdate: true });
+    const parties = await partiesOf(tx, jobId, { forUpdate: true });
     const side = sideOf(parties, user);
     if (!side) {
-      assertCanSeeWork(parties, user);
+      mustSeeWork(parties, user);
       throw forbidden('Only the builder and the shop doing the work can answer a dispute.');
     }
     const [open] = await tx.select().from(disputes).where(and(eq(disputes.jobId, jobId), eq(disputes.status, 'open'))).for('update');
@@ -177,7 +177,7 @@ export async function resolveDispute(deps: PaymentDeps, admin: User, disputeId: 
     const [dispute] = await tx.select().from(disputes).where(eq(disputes.id, disputeId)).for('update');
     if (!dispute) throw notFound('No dispute with that id.');
     if (dispute.status !== 'open') throw conflict('This dispute has already been decided.', 'already_resolved');
-    const parties = await jobParties(tx, dispute.jobId, { forUpdate: true });
+    const parties = await partiesOf(tx, dispute.jobId, { forUpdate: true });
     const { held } = await jobBalance(tx, dispute.jobId);
     if (held <= 0) throw conflict('Nothing is held for this job.', 'nothing_held');
     const shopCents = input.outcome === 'release' ? held : input.outcome === 'refund' ? 0 : input.shopCents!;

@@ -4,7 +4,7 @@ import type { InspectionResults } from '../../../shared/schemas/inspection';
 import type { Database } from '../../db/client';
 import { bids, changeOrders, inspectionRecords, ledgerEntries, messages, milestones, threads } from '../../db/schema';
 import { photosOf, photoUrl } from '../jobs/jobs.repository';
-import { jobParties } from '../inspections/job-parties';
+import { partiesOf } from '../jobs/job-access';
 import { photosOfMessages } from '../messages/message-photos.repository';
 import { photosOfMilestones } from '../milestones/milestone-photos';
 import { moneyView } from '../payments/payments.service';
@@ -19,7 +19,7 @@ import { findDispute, toDispute } from './disputes.service';
 export async function disputeCase(db: Database, disputeId: string): Promise<DisputeCase> {
   const row = await findDispute(db, disputeId);
   const dispute = toDispute(row);
-  const parties = await jobParties(db, row.jobId);
+  const parties = await partiesOf(db, row.jobId);
   const { job, builder, shop } = parties;
   const sideOfAuthor = (authorId: string) => (authorId === builder.id ? 'builder' : 'shop') as 'builder' | 'shop';
 

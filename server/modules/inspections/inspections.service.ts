@@ -5,13 +5,13 @@ import type { InspectionInput, InspectionResults, InspectionVersion } from '../.
 import type { JobInput } from '../../../shared/schemas/jobs';
 import type { Database, Executor } from '../../db/client';
 import { inspectionDrafts, inspectionRecords, jobs, milestones, users, type User } from '../../db/schema';
-import { AppError, conflict, forbidden } from '../../lib/errors';
+import { AppError, conflict } from '../../lib/errors';
 import { enqueueMail } from '../../lib/mail/outbox';
 import { inspectionDecidedMail, inspectionSubmittedMail, reviewReminderMail, reviewWindowHeldMail } from '../../lib/mail/templates';
 import { scheduleTask } from '../../lib/scheduler';
 import { releaseJob, type PaymentDeps } from '../payments/payments.service';
 import { certificatePdf } from './certificate';
-import { assertCanSeeWork, assertWorkingShop, jobParties } from './job-parties';
+import { mustBeJobsBuilder, mustBeWorkingShop, mustSeeWork, partiesOf, sideOf } from '../jobs/job-access';
 
 export interface InspectionDeps extends PaymentDeps {
   reviewWindowMs: number;
@@ -33,11 +33,11 @@ const toVersion = (row: RecordRow): InspectionVersion => ({
 const dayText = (date: Date) => date.toLocaleString('en-US', { dateStyle: 'long', timeStyle: 'short', timeZone: 'UTC' }) + ' UTC';
 
 export async function inspectionView(db: Database, user: User, jobId: string) {
-  const parties = await jobParties(db, jobId);
-  assertCanSeeWork(parties, user);
+  const parties = await partiesOf(db, jobId);
+  mustSeeWork(parties, user);
   const rows = await db.select().from(inspectionRecords).where(eq(inspectionRecords.jobId, jobId)).orderBy(desc(inspectionRecords.version));
   let draft: Record<string, unknown> | null = null;
-  if (parties.shop?.userId === user.id) {
+  if (sideOf(parties, user) === 'shop') {
     const [row] = await db.select().from(inspectionDrafts).where(eq(inspectionDrafts.jobId, jobId));
     draft = (row?.draft as Record<string, unknown>) ?? null;
   }
@@ -52,8 +52,8 @@ export async function inspectionView(db: Database, user: User, jobId: string) {
 }
 
 export async function saveDraft(db: Database, user: User, jobId: string, draft: Record<string, unknown>) {
-  const parties = await jobParties(db, jobId);
-  assertWorkingShop(parties, user);
+  const parties = await partiesOf(db, jobId);
+  mustBeWorkingShop(parties, user);
   // Only while the record is being written: a late save after submitting must not bring a draft back.
   if (parties.job.status !== 'in_work') throw conflict('There is no record being written for this job now.', 'job_not_in_work');
   if (JSON.stringify(draft).length > 2_000_000) throw new AppError('too_large', 'The draft is too large.', 413);
@@ -71,9 +71,9 @@ export async function saveDraft(db: Database, user: User, jobId: string, draft: 
  * the job's spec, and stored with the readings as a new version.
  */
 export async function submitInspection(deps: InspectionDeps, user: User, jobId: string, input: InspectionInput) {
-  return deps.db.transaction(async (tx) => {
-    const parties = await jobParties(tx, jobId, { forUpdate: true });
-    assertWorkingShop(parties, user);
+  const version = await deps.db.transaction(async (tx) => {
+    const parties = await partiesOf(tx, jobId, { forUpdate: true });
+    mustBeWorkingShop(parties, user);
     const { job } = parties;
     if (job.status !== 'in_work') {
       throw conflict(
@@ -107,6 +107,8 @@ export async function submitInspection(deps: InspectionDeps, user: User, jobId: 
     await scheduleTask(tx, { kind: 'review-window-ended', key: `review-window-${row.id}`, payload: { recordId: row.id }, runAt: reviewDueAt });
     return toVersion(row);
   });
+  deps.hub?.jobChanged(jobId, 'job_updated');
+  return version;
 }
 
 /**
@@ -116,7 +118,7 @@ export async function submitInspection(deps: InspectionDeps, user: User, jobId: 
  */
 async function accept(deps: InspectionDeps, jobId: string, how: { by?: User; window?: { recordId: string } }) {
   const accepted = await deps.db.transaction(async (tx) => {
-    const parties = await jobParties(tx, jobId, { forUpdate: true });
+    const parties = await partiesOf(tx, jobId, { forUpdate: true });
     const [record] = await tx
       .select()
       .from(inspectionRecords)
@@ -147,21 +149,14 @@ async function accept(deps: InspectionDeps, jobId: string, how: { by?: User; win
 }
 
 export async function acceptInspection(deps: InspectionDeps, user: User, jobId: string) {
-  const parties = await jobParties(deps.db, jobId);
-  if (parties.builder.id !== user.id) {
-    assertCanSeeWork(parties, user);
-    throw forbidden('Only the builder who posted the job accepts its inspection record.');
-  }
+  mustBeJobsBuilder(await partiesOf(deps.db, jobId), user, 'Only the builder who posted the job accepts its inspection record.');
   return (await accept(deps, jobId, { by: user }))!;
 }
 
 export async function rejectInspection(deps: InspectionDeps, user: User, jobId: string, reasons: string) {
-  return deps.db.transaction(async (tx) => {
-    const parties = await jobParties(tx, jobId, { forUpdate: true });
-    if (parties.builder.id !== user.id) {
-      assertCanSeeWork(parties, user);
-      throw forbidden('Only the builder who posted the job rejects its inspection record.');
-    }
+  const version = await deps.db.transaction(async (tx) => {
+    const parties = await partiesOf(tx, jobId, { forUpdate: true });
+    mustBeJobsBuilder(parties, user, 'Only the builder who posted the job rejects its inspection record.');
     const [record] = await tx
       .select()
       .from(inspectionRecords)
@@ -180,6 +175,8 @@ export async function rejectInspection(deps: InspectionDeps, user: User, jobId: 
     }
     return toVersion(row);
   });
+  deps.hub?.jobChanged(jobId, 'job_updated');
+  return version;
 }
 
 /**
@@ -189,7 +186,7 @@ export async function rejectInspection(deps: InspectionDeps, user: User, jobId: 
  */
 async function holdAfterWindow(deps: InspectionDeps, jobId: string, recordId: string) {
   await deps.db.transaction(async (tx) => {
-    const parties = await jobParties(tx, jobId, { forUpdate: true });
+    const parties = await partiesOf(tx, jobId, { forUpdate: true });
     const [record] = await tx.select().from(inspectionRecords).where(eq(inspectionRecords.id, recordId));
     if (parties.job.status !== 'inspection_submitted' || !record || record.status !== 'submitted') return; // answered in time
     const checks = checksNotConforming(record.results as InspectionResults);
@@ -214,7 +211,7 @@ export function inspectionTaskHandlers(deps: InspectionDeps) {
       const [record] = await deps.db.select().from(inspectionRecords).where(eq(inspectionRecords.id, String(payload.recordId)));
       if (!record || record.status !== 'submitted') return;
       await deps.db.transaction(async (tx: Executor) => {
-        const parties = await jobParties(tx, record.jobId);
+        const parties = await partiesOf(tx, record.jobId);
         await enqueueMail(
           tx,
           parties.builder.email,
@@ -241,8 +238,8 @@ async function placeOfShop(db: Executor, awardedBidId: string | null): Promise<s
 
 /** The PDF certificate of one version, for the builder, the shop doing the work and admins. */
 export async function certificateFor(db: Database, user: User, jobId: string, version: number): Promise<Buffer> {
-  const parties = await jobParties(db, jobId);
-  assertCanSeeWork(parties, user);
+  const parties = await partiesOf(db, jobId);
+  mustSeeWork(parties, user);
   const [row] = await db.select().from(inspectionRecords).where(and(eq(inspectionRecords.jobId, jobId), eq(inspectionRecords.version, version)));
   if (!row) throw new AppError('not_found', 'No inspection record with that version.', 404);
   const shopPlace = await placeOfShop(db, parties.job.awardedBidId);

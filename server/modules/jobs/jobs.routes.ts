@@ -4,7 +4,6 @@ import { uuidSchema } from '../../../shared/schemas/common';
 import { boardQuerySchema, jobInputSchema, myJobsQuerySchema } from '../../../shared/schemas/jobs';
 import { currentUser, requireRole, requireUser } from '../../lib/auth/guards';
 import { receivePhotos } from '../../lib/photo-upload';
-import type { RealtimeHub } from '../../realtime/hub';
 import { boardPage, jobsOfBuilder } from './jobs.repository';
 import {
   addPhotos,
@@ -12,7 +11,7 @@ import {
   cancelJob,
   createJob,
   jobDetail,
-  jobForViewer,
+  jobDetailFor,
   MAX_PHOTOS_PER_JOB,
   publishJob,
   readPhoto,
@@ -24,7 +23,7 @@ import {
 const jobParams = z.object({ jobId: uuidSchema });
 const photoParams = z.object({ jobId: uuidSchema, photoId: uuidSchema, size: z.enum(['thumb', 'large'], { error: 'Ask for thumb or large.' }) });
 
-export function jobsRouter(deps: JobDeps & { hub: RealtimeHub; uploadLimit: RequestHandler }) {
+export function jobsRouter(deps: JobDeps & { uploadLimit: RequestHandler }) {
   const router = Router();
 
   router.get('/jobs', requireRole('shop', 'admin'), async (req, res) => {
@@ -43,29 +42,24 @@ export function jobsRouter(deps: JobDeps & { hub: RealtimeHub; uploadLimit: Requ
 
   router.get('/jobs/:jobId', requireUser, async (req, res) => {
     const { jobId } = jobParams.parse(req.params);
-    const user = currentUser(req);
-    const job = await jobForViewer(deps.db, jobId, user);
-    res.json({ job: await jobDetail(deps, job, user) });
+    res.json({ job: await jobDetailFor(deps, currentUser(req), jobId) });
   });
 
   router.put('/jobs/:jobId', requireRole('builder'), async (req, res) => {
     const { jobId } = jobParams.parse(req.params);
     const job = await updateJob(deps, currentUser(req), jobId, jobInputSchema.parse(req.body));
-    deps.hub.jobChanged(jobId, 'job_updated');
     res.json({ job: await jobDetail(deps, job, currentUser(req)) });
   });
 
   router.post('/jobs/:jobId/publish', requireRole('builder'), async (req, res) => {
     const { jobId } = jobParams.parse(req.params);
     const job = await publishJob(deps, currentUser(req), jobId);
-    deps.hub.jobChanged(jobId, 'job_published');
     res.json({ job: await jobDetail(deps, job, currentUser(req)) });
   });
 
   router.post('/jobs/:jobId/cancel', requireRole('builder'), async (req, res) => {
     const { jobId } = jobParams.parse(req.params);
     const job = await cancelJob(deps, currentUser(req), jobId);
-    deps.hub.jobChanged(jobId, 'job_cancelled');
     res.json({ job: await jobDetail(deps, job, currentUser(req)) });
   });
 
@@ -78,7 +72,6 @@ export function jobsRouter(deps: JobDeps & { hub: RealtimeHub; uploadLimit: Requ
     const { jobId } = jobParams.parse(req.params);
     const files = (req.files as Express.Multer.File[] | undefined) ?? [];
     const photos = await addPhotos(deps, currentUser(req), jobId, files);
-    deps.hub.jobChanged(jobId, 'photos_changed');
     res.status(201).json({ photos });
   });
 
@@ -91,7 +84,6 @@ export function jobsRouter(deps: JobDeps & { hub: RealtimeHub; uploadLimit: Requ
   router.delete('/jobs/:jobId/photos/:photoId', requireRole('builder'), async (req, res) => {
     const { jobId, photoId } = photoParams.omit({ size: true }).parse(req.params);
     await removePhoto(deps, currentUser(req), jobId, photoId);
-    deps.hub.jobChanged(jobId, 'photos_changed');
     res.status(204).end();
   });
 

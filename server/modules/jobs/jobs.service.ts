@@ -4,14 +4,16 @@ import type { JobDetail, JobInput } from '../../../shared/schemas/jobs';
 import type { Database, Executor } from '../../db/client';
 import { bids, jobPhotos, jobs, shops, users, type User } from '../../db/schema';
 import { assertEmailConfirmed } from '../../lib/auth/guards';
-import { AppError, conflict, forbidden, notFound } from '../../lib/errors';
+import { AppError, conflict, notFound } from '../../lib/errors';
 import { processPhoto, type ProcessedPhoto } from '../../lib/images';
 import { enqueueMail } from '../../lib/mail/outbox';
 import { jobCancelledMail, jobChangedMail, matchingJobMail } from '../../lib/mail/templates';
 import type { FileStorage } from '../../lib/storage';
 import type { PaymentsClient } from '../../lib/payments-client';
+import type { RealtimeHub } from '../../realtime/hub';
 import { closeOpenCheckouts, expireOpenCheckouts } from '../payments/open-checkouts';
 import { findShopByUser } from '../shops/shops.repository';
+import { jobForViewer, mustOwnJob } from './job-access';
 import { columnsFromInput, findJob, insertJob, photosOf, photoUrl, type JobRow } from './jobs.repository';
 
 export const MAX_PHOTOS_PER_JOB = 12;
@@ -22,41 +24,24 @@ export interface JobDeps {
   storage: FileStorage;
   /** The payment API, to expire a cancelled job's open payment pages (without it they are left to the task runner). */
   payments?: PaymentsClient;
+  /** Open pages of the job hear of each change (absent in scripts without live clients). */
+  hub?: RealtimeHub;
 }
 
 const jobUrl = (deps: { appUrl: string }, id: string) => `${deps.appUrl}/jobs/${id}`;
 
-/**
- * Who may see a job: its builder and admins always; shops while it is open,
- * and afterwards only shops that bid on it. A draft is nobody else's business,
- * so to others it does not exist (404).
- */
-export async function jobForViewer(db: Executor, jobId: string, user: User): Promise<JobRow> {
-  const job = await findJob(db, jobId);
-  if (!job) throw notFound('No job with that id.');
-  if (user.role === 'admin' || job.builderId === user.id) return job;
-  if (job.status === 'draft') throw notFound('No job with that id.');
-  if (user.role === 'shop') {
-    if (job.status === 'open') return job;
-    const shop = await findShopByUser(db, user.id);
-    if (shop) {
-      const [bid] = await db.select({ id: bids.id }).from(bids).where(and(eq(bids.jobId, job.id), eq(bids.shopId, shop.id))).limit(1);
-      if (bid) return job;
-    }
-  }
-  throw forbidden('This job is not yours to see.');
-}
-
 /** The job with its row lock, for a change by its builder. */
 async function ownJobForUpdate(tx: Executor, jobId: string, user: User): Promise<JobRow> {
-  const job = await findJob(tx, jobId, { forUpdate: true });
-  if (!job || (job.builderId !== user.id && job.status === 'draft')) throw notFound('No job with that id.');
-  if (job.builderId !== user.id) throw forbidden('Only the builder who posted this job can change it.');
-  return job;
+  return mustOwnJob(await findJob(tx, jobId, { forUpdate: true }), user);
 }
 
 export async function createJob(deps: JobDeps, user: User, input: JobInput): Promise<JobRow> {
   return insertJob(deps.db, user.id, input);
+}
+
+/** The job page's data, for whoever may see the job. */
+export async function jobDetailFor(deps: JobDeps, user: User, jobId: string): Promise<JobDetail> {
+  return jobDetail(deps, await jobForViewer(deps.db, jobId, user), user);
 }
 
 export async function jobDetail(deps: JobDeps, job: JobRow, user: User): Promise<JobDetail> {
@@ -115,7 +100,7 @@ async function activeBidders(tx: Executor, jobId: string) {
 
 /** A draft changes quietly; an open job's bidders are told by e-mail. */
 export async function updateJob(deps: JobDeps, user: User, jobId: string, input: JobInput): Promise<JobRow> {
-  return deps.db.transaction(async (tx) => {
+  const updated = await deps.db.transaction(async (tx) => {
     const job = await ownJobForUpdate(tx, jobId, user);
     if (job.status !== 'draft' && job.status !== 'open') {
       throw conflict('This job can no longer be edited: a bid was already accepted.', 'job_not_editable');
@@ -132,12 +117,14 @@ export async function updateJob(deps: JobDeps, user: User, jobId: string, input:
     }
     return updated;
   });
+  deps.hub?.jobChanged(jobId, 'job_updated');
+  return updated;
 }
 
 /** Draft to open; shops that asked for matching jobs and can do all the work are told. */
 export async function publishJob(deps: JobDeps, user: User, jobId: string): Promise<JobRow> {
   assertEmailConfirmed(user, 'publish a job');
-  return deps.db.transaction(async (tx) => {
+  const published = await deps.db.transaction(async (tx) => {
     const job = await ownJobForUpdate(tx, jobId, user);
     if (job.status !== 'draft') throw conflict('Only a draft can be published; this job is already out.', 'job_not_draft');
     const [published] = await tx
@@ -156,6 +143,8 @@ export async function publishJob(deps: JobDeps, user: User, jobId: string): Prom
     }
     return published;
   });
+  deps.hub?.jobChanged(jobId, 'job_published');
+  return published;
 }
 
 /**
@@ -189,6 +178,7 @@ export async function cancelJob(deps: JobDeps, user: User, jobId: string): Promi
     return cancelled;
   });
   if (deps.payments) await expireOpenCheckouts({ db: deps.db, payments: deps.payments }, jobId);
+  deps.hub?.jobChanged(jobId, 'job_cancelled');
   return cancelled;
 }
 
@@ -200,9 +190,7 @@ const photoKey = (jobId: string, id: string, size: 'large' | 'thumb') => `jobs/$
  * addPhotos checks again under the job's row lock.
  */
 export async function assertMayAddPhotos(db: Executor, user: User, jobId: string): Promise<void> {
-  const job = await findJob(db, jobId);
-  if (!job || (job.builderId !== user.id && job.status === 'draft')) throw notFound('No job with that id.');
-  if (job.builderId !== user.id) throw forbidden('Only the builder who posted this job can change it.');
+  const job = mustOwnJob(await findJob(db, jobId), user);
   if (!['draft', 'open'].includes(job.status)) throw conflict('Photos can be added only while the job is a draft or open.', 'job_not_editable');
 }
 
@@ -218,7 +206,7 @@ export async function addPhotos(deps: JobDeps, user: User, jobId: string, files:
 
   const stored: string[] = [];
   try {
-    return await deps.db.transaction(async (tx) => {
+    const photos = await deps.db.transaction(async (tx) => {
       const job = await ownJobForUpdate(tx, jobId, user);
       if (!['draft', 'open'].includes(job.status)) throw conflict('Photos can be added only while the job is a draft or open.', 'job_not_editable');
       const [{ count }] = await tx.select({ count: sql<number>`count(*)::int` }).from(jobPhotos).where(eq(jobPhotos.jobId, job.id));
@@ -238,6 +226,8 @@ export async function addPhotos(deps: JobDeps, user: User, jobId: string, files:
       const inserted = await tx.insert(jobPhotos).values(rows).returning();
       return inserted.map((p) => ({ id: p.id, width: p.width, height: p.height, thumbUrl: photoUrl(job.id, p.id, 'thumb'), largeUrl: photoUrl(job.id, p.id, 'large') }));
     });
+    deps.hub?.jobChanged(jobId, 'photos_changed');
+    return photos;
   } catch (error) {
     await Promise.all(stored.map((key) => deps.storage.remove(key).catch(() => {})));
     throw error;
@@ -261,4 +251,5 @@ export async function removePhoto(deps: JobDeps, user: User, jobId: string, phot
     if (!photo) throw notFound('No such photo.');
   });
   await Promise.all((['large', 'thumb'] as const).map((size) => deps.storage.remove(photoKey(jobId, photoId, size))));
+  deps.hub?.jobChanged(jobId, 'photos_changed');
 }

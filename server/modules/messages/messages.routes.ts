@@ -11,14 +11,11 @@ import {
 } from '../../../shared/schemas/messages';
 import type { Database } from '../../db/client';
 import { currentUser, requireRole, requireUser } from '../../lib/auth/guards';
-import { AppError } from '../../lib/errors';
 import { receivePhotos, uploadedFiles } from '../../lib/photo-upload';
-import { PostgresRateLimitStore } from '../../lib/rate-limit';
 import type { FileStorage } from '../../lib/storage';
 import type { RealtimeHub } from '../../realtime/hub';
-import { jobForViewer } from '../jobs/jobs.service';
 import { addMessagePhotos, assertMaySendPhotos, readMessagePhoto } from './message-photos.service';
-import { history, markRead, myThreads, openThread, sendMessage } from './messages.service';
+import { history, markRead, messageRateLimit, myThreads, openThread, sendMessage, threadsOfJob } from './messages.service';
 
 const jobParams = z.object({ jobId: uuidSchema });
 const threadParams = z.object({ threadId: uuidSchema });
@@ -26,10 +23,9 @@ const photoParams = z.object({ threadId: uuidSchema, photoId: uuidSchema, size: 
 
 /** Conversations over plain HTTP: the history, photos for messages, and a way to send and mark read without a socket. */
 export function messagesRouter(deps: { db: Database; hub: RealtimeHub; storage: FileStorage; messagesPer10s: number; uploadLimit: RequestHandler }) {
-  const { db, hub } = deps;
+  const { db } = deps;
   const router = Router();
-  const limiter = new PostgresRateLimitStore(db, 'messages');
-  limiter.init({ windowMs: 10_000 } as never);
+  const messageDeps = { db, hub: deps.hub, rateLimit: messageRateLimit(db, deps.messagesPer10s) };
 
   router.get('/threads', requireUser, async (req, res) => {
     res.json({ threads: await myThreads(db, currentUser(req)) });
@@ -37,8 +33,7 @@ export function messagesRouter(deps: { db: Database; hub: RealtimeHub; storage: 
 
   router.get('/jobs/:jobId/threads', requireUser, async (req, res) => {
     const { jobId } = jobParams.parse(req.params);
-    await jobForViewer(db, jobId, currentUser(req));
-    res.json({ threads: await myThreads(db, currentUser(req), jobId) });
+    res.json({ threads: await threadsOfJob(db, currentUser(req), jobId) });
   });
 
   router.post('/jobs/:jobId/threads', requireRole('builder', 'shop'), async (req, res) => {
@@ -58,14 +53,8 @@ export function messagesRouter(deps: { db: Database; hub: RealtimeHub; storage: 
   router.post('/threads/:threadId/messages', requireRole('builder', 'shop'), async (req, res) => {
     const { threadId } = threadParams.parse(req.params);
     const input = sendMessageSchema.parse(req.body);
-    const user = currentUser(req);
-    const { totalHits, resetTime } = await limiter.increment(user.id);
-    if (totalHits > deps.messagesPer10s) {
-      res.setHeader('Retry-After', String(Math.max(1, Math.ceil(((resetTime?.getTime() ?? Date.now()) - Date.now()) / 1000))));
-      throw new AppError('too_many_attempts', 'You are sending messages too fast. Wait a few seconds.', 429);
-    }
-    const { message, duplicate, access } = await sendMessage(db, user, threadId, input);
-    if (!duplicate) hub.messageCreated(message, [access.builderId, access.shopUserId].filter((id) => id !== user.id));
+    const onTooFast = (seconds: number) => res.setHeader('Retry-After', String(seconds));
+    const { message, duplicate } = await sendMessage(messageDeps, currentUser(req), threadId, input, { onTooFast });
     res.status(duplicate ? 200 : 201).json({ message, duplicate });
   });
 
@@ -89,8 +78,7 @@ export function messagesRouter(deps: { db: Database; hub: RealtimeHub; storage: 
   router.post('/threads/:threadId/read', requireUser, async (req, res) => {
     const { threadId } = threadParams.parse(req.params);
     const { messageId } = markReadSchema.parse(req.body);
-    await markRead(db, currentUser(req), threadId, messageId);
-    hub.readMoved(threadId, currentUser(req).id, messageId);
+    await markRead(messageDeps, currentUser(req), threadId, messageId);
     res.json({ messageId });
   });
 

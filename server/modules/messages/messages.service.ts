@@ -1,8 +1,11 @@
 import { and, desc, eq, lt, or, sql } from 'drizzle-orm';
 import type { HistoryPage, Message, MessagePhoto, SendMessageInput, ThreadSummary } from '../../../shared/schemas/messages';
 import type { Database, Executor } from '../../db/client';
-import { bids, jobs, messages, shops, threadReads, threads, users, type User } from '../../db/schema';
+import { bids, messages, shops, threadReads, threads, users, type User } from '../../db/schema';
 import { AppError, conflict, forbidden, notFound } from '../../lib/errors';
+import { PostgresRateLimitStore } from '../../lib/rate-limit';
+import type { RealtimeHub } from '../../realtime/hub';
+import { awardedShopId, jobForViewer, mustOwnJob, mustReadThread, mustSeeDraft } from '../jobs/job-access';
 import { findJob, type JobRow } from '../jobs/jobs.repository';
 import { findShopByUser } from '../shops/shops.repository';
 import { attachPhotos, photosOfMessages } from './message-photos.repository';
@@ -18,6 +21,32 @@ export interface ThreadAccess {
   canWrite: boolean;
 }
 
+export interface MessageDeps {
+  db: Database;
+  /** Tells open pages of the conversation (absent in scripts without live clients). */
+  hub?: RealtimeHub;
+  /** Counts a message against its sender's rate (see messageRateLimit). */
+  rateLimit?: MessageRateLimit;
+}
+
+type MessageRateLimit = (userId: string, onTooFast?: (retryAfterSeconds: number) => void) => Promise<void>;
+
+/**
+ * How many messages one person may send in ten seconds, counted in PostgreSQL
+ * so REST and sockets on every instance share one count. Past it: 429, after
+ * telling the caller how many seconds to wait.
+ */
+export function messageRateLimit(db: Database, perTenSeconds: number): MessageRateLimit {
+  const store = new PostgresRateLimitStore(db, 'messages');
+  store.init({ windowMs: 10_000 } as never);
+  return async (userId, onTooFast) => {
+    const { totalHits, resetTime } = await store.increment(userId);
+    if (totalHits <= perTenSeconds) return;
+    onTooFast?.(Math.max(1, Math.ceil(((resetTime?.getTime() ?? Date.now()) - Date.now()) / 1000)));
+    throw new AppError('too_many_attempts', 'You are sending messages too fast. Wait a few seconds.', 429);
+  };
+}
+
 const CLOSED_STATUSES = new Set(['cancelled', 'resolved']);
 
 /**
@@ -27,8 +56,7 @@ const CLOSED_STATUSES = new Set(['cancelled', 'resolved']);
 async function writable(db: Executor, job: JobRow, thread: ThreadRow): Promise<boolean> {
   if (CLOSED_STATUSES.has(job.status)) return false;
   if (!job.awardedBidId) return true;
-  const [awarded] = await db.select({ shopId: bids.shopId }).from(bids).where(eq(bids.id, job.awardedBidId));
-  return awarded?.shopId === thread.shopId;
+  return (await awardedShopId(db, job)) === thread.shopId;
 }
 
 /** The thread if this person may read it: the job's builder, the thread's shop, or an admin (read only). */
@@ -38,8 +66,7 @@ export async function threadFor(db: Executor, threadId: string, user: User): Pro
   const job = await findJob(db, thread.jobId);
   const [shop] = await db.select({ userId: shops.userId }).from(shops).where(eq(shops.id, thread.shopId));
   if (!job || !shop) throw notFound('No conversation with that id.');
-  const isParty = user.id === job.builderId || user.id === shop.userId;
-  if (!isParty && user.role !== 'admin') throw notFound('No conversation with that id.');
+  const isParty = mustReadThread(job, shop.userId, user);
   return {
     thread,
     job,
@@ -55,8 +82,7 @@ export async function threadFor(db: Executor, threadId: string, user: User): Pro
  * may open one with a shop that bid.
  */
 export async function openThread(db: Database, user: User, jobId: string, shopId?: string): Promise<ThreadRow> {
-  const job = await findJob(db, jobId);
-  if (!job || (job.status === 'draft' && job.builderId !== user.id)) throw notFound('No job with that id.');
+  const job = mustSeeDraft(await findJob(db, jobId), user);
   let targetShopId: string;
   if (user.role === 'shop') {
     const shop = await findShopByUser(db, user.id);
@@ -66,7 +92,7 @@ export async function openThread(db: Database, user: User, jobId: string, shopId
     if (job.status !== 'open' && !bid) throw forbidden('This job is not taking questions.');
     targetShopId = shop.id;
   } else if (user.role === 'builder') {
-    if (job.builderId !== user.id) throw forbidden('Only the builder who posted this job can write about it.');
+    mustOwnJob(job, user, 'Only the builder who posted this job can write about it.');
     if (!shopId) throw new AppError('invalid_input', 'Say which shop to write to.', 400, { shopId: 'Choose a shop.' });
     const [bid] = await db.select({ id: bids.id }).from(bids).where(and(eq(bids.jobId, job.id), eq(bids.shopId, shopId))).limit(1);
     const [existing] = await db.select().from(threads).where(and(eq(threads.jobId, job.id), eq(threads.shopId, shopId)));
@@ -144,18 +170,21 @@ export async function history(db: Database, user: User, threadId: string, before
  * whole message.
  */
 export async function sendMessage(
-  db: Database,
+  deps: MessageDeps,
   user: User,
   threadId: string,
   input: Pick<SendMessageInput, 'clientId' | 'body'> & { photoIds?: string[] },
+  options: { onTooFast?: (retryAfterSeconds: number) => void } = {},
 ): Promise<{ message: Message; duplicate: boolean; access: ThreadAccess }> {
+  const { db } = deps;
+  await deps.rateLimit?.(user.id, options.onTooFast);
   // The shared schema says the same; callers that skip it (scripts, benches) meet it here, since the table allows ''.
   if (!input.body && !input.photoIds?.length) {
     throw new AppError('invalid_input', 'Write a message or add a photo.', 400, { body: 'Write a message or add a photo.' });
   }
   const access = await threadFor(db, threadId, user);
   if (!access.canWrite) throw conflict('This conversation is closed to new messages.', 'thread_closed');
-  return db.transaction(async (tx) => {
+  const sent = await db.transaction(async (tx) => {
     const [inserted] = await tx
       .insert(messages)
       .values({ threadId, authorId: user.id, clientId: input.clientId, body: input.body })
@@ -176,6 +205,9 @@ export async function sendMessage(
     const photos = await photosOfMessages(tx, [row.id]);
     return { message: toMessage(row, photos.get(row.id)), duplicate: !id, access };
   });
+  // Every open page of the conversation gets the message; the other side's unread count moves.
+  if (!sent.duplicate) deps.hub?.messageCreated(sent.message, [access.builderId, access.shopUserId].filter((id) => id !== user.id));
+  return sent;
 }
 
 async function markReadTx(tx: Executor, threadId: string, userId: string, messageId: string, at: Date) {
@@ -190,12 +222,20 @@ async function markReadTx(tx: Executor, threadId: string, userId: string, messag
     });
 }
 
-export async function markRead(db: Database, user: User, threadId: string, messageId: string): Promise<{ messageId: string; access: ThreadAccess }> {
+export async function markRead(deps: MessageDeps, user: User, threadId: string, messageId: string): Promise<{ messageId: string; access: ThreadAccess }> {
+  const { db } = deps;
   const access = await threadFor(db, threadId, user);
   const [message] = await db.select().from(messages).where(and(eq(messages.id, messageId), eq(messages.threadId, threadId)));
   if (!message) throw notFound('No such message in this conversation.');
   await markReadTx(db, threadId, user.id, message.id, message.createdAt);
+  deps.hub?.readMoved(threadId, user.id, messageId);
   return { messageId: message.id, access };
+}
+
+/** A job's conversations, for whoever may see the job. */
+export async function threadsOfJob(db: Database, user: User, jobId: string): Promise<ThreadSummary[]> {
+  await jobForViewer(db, jobId, user);
+  return myThreads(db, user, jobId);
 }
 
 /** Threads the person is part of, newest first, with unread counts. */

@@ -5,7 +5,7 @@ import { milestonePhotos, type User } from '../../db/schema';
 import { AppError, notFound } from '../../lib/errors';
 import { withStoredPhotos } from '../../lib/images';
 import type { FileStorage } from '../../lib/storage';
-import { assertCanSeeWork, assertWorkingShop, jobParties } from '../inspections/job-parties';
+import { mustSeeWork, mustBeWorkingShop, partiesOf } from '../jobs/job-access';
 
 export interface MilestonePhotoDeps {
   db: Database;
@@ -30,7 +30,7 @@ const toMilestonePhoto = (row: Pick<MilestonePhotoRow, 'id' | 'jobId' | 'width' 
 
 /** Refuses, before any bytes are read, anyone but the shop doing the work. */
 export async function assertMayUploadMilestonePhotos(db: Database, user: User, jobId: string): Promise<void> {
-  assertWorkingShop(await jobParties(db, jobId), user);
+  mustBeWorkingShop(await partiesOf(db, jobId), user);
 }
 
 /**
@@ -51,7 +51,7 @@ export async function addMilestonePhotos(deps: MilestonePhotoDeps, user: User, j
 
 /** A photo's file, for people who may see the job's work; until it is attached, only its uploader sees it. */
 export async function readMilestonePhoto(deps: MilestonePhotoDeps, user: User, jobId: string, photoId: string, size: PhotoSize): Promise<Buffer> {
-  assertCanSeeWork(await jobParties(deps.db, jobId), user);
+  mustSeeWork(await partiesOf(deps.db, jobId), user);
   const [photo] = await deps.db
     .select()
     .from(milestonePhotos)

@@ -3,13 +3,20 @@ import type { Milestone, MilestoneInput } from '../../../shared/schemas/inspecti
 import type { Database } from '../../db/client';
 import { jobs, milestones, users, type User } from '../../db/schema';
 import { AppError, conflict } from '../../lib/errors';
-import { assertCanSeeWork, assertWorkingShop, jobParties } from '../inspections/job-parties';
+import type { RealtimeHub } from '../../realtime/hub';
+import { mustSeeWork, mustBeWorkingShop, partiesOf } from '../jobs/job-access';
 import { attachMilestonePhotos, photosOfMilestones } from './milestone-photos';
+
+export interface MilestoneDeps {
+  db: Database;
+  /** Open pages of the job hear of new progress (absent in scripts without live clients). */
+  hub?: RealtimeHub;
+}
 
 const WORKING = new Set(['funded', 'in_work', 'inspection_submitted', 'completed']);
 
 export async function listMilestones(db: Database, user: User, jobId: string): Promise<Milestone[]> {
-  assertCanSeeWork(await jobParties(db, jobId), user);
+  mustSeeWork(await partiesOf(db, jobId), user);
   const rows = await db
     .select({ m: milestones, authorName: users.displayName })
     .from(milestones)
@@ -34,10 +41,10 @@ export async function listMilestones(db: Database, user: User, jobId: string): P
 }
 
 /** The working shop logs progress; "block received" starts the work (funded → in work). */
-export async function logMilestone(db: Database, user: User, jobId: string, input: MilestoneInput) {
-  return db.transaction(async (tx) => {
-    const parties = await jobParties(tx, jobId, { forUpdate: true });
-    assertWorkingShop(parties, user);
+export async function logMilestone(deps: MilestoneDeps, user: User, jobId: string, input: MilestoneInput): Promise<Milestone> {
+  await deps.db.transaction(async (tx) => {
+    const parties = await partiesOf(tx, jobId, { forUpdate: true });
+    mustBeWorkingShop(parties, user);
     const { job } = parties;
     if (!WORKING.has(job.status)) throw conflict('Progress can be logged once the job is paid for.', 'job_not_funded');
     if (input.kind === 'block_received') {
@@ -54,6 +61,8 @@ export async function logMilestone(db: Database, user: User, jobId: string, inpu
       .values({ jobId, authorId: user.id, kind: input.kind, operation: input.operation ?? null, note: input.note, carrier: input.carrier ?? null, trackingNumber: input.trackingNumber ?? null })
       .returning();
     if (input.photoIds?.length) await attachMilestonePhotos(tx, { jobId, userId: user.id, milestoneId: row.id, photoIds: input.photoIds });
-    return row;
   });
+  deps.hub?.jobChanged(jobId, 'job_updated');
+  const all = await listMilestones(deps.db, user, jobId);
+  return all[all.length - 1];
 }

@@ -1,8 +1,9 @@
 import { and, asc, eq, inArray } from 'drizzle-orm';
 import type { ChangeOrder, ChangeOrderInput } from '../../../shared/schemas/payments';
-import { bids, changeOrders, payments, type User } from '../../db/schema';
+import { changeOrders, payments, type User } from '../../db/schema';
 import { assertEmailConfirmed } from '../../lib/auth/guards';
-import { conflict, forbidden, notFound } from '../../lib/errors';
+import { conflict, notFound } from '../../lib/errors';
+import { mustBeAwardedShop, mustBeBuilder, workPartiesFor } from '../jobs/job-access';
 import { findJob } from '../jobs/jobs.repository';
 import { findShopByUser } from '../shops/shops.repository';
 import { closeOpenCheckouts, expireOpenCheckouts } from './open-checkouts';
@@ -22,22 +23,23 @@ export async function proposeChangeOrder(deps: PaymentDeps, user: User, jobId: s
   const job = await findJob(deps.db, jobId);
   const shop = await findShopByUser(deps.db, user.id);
   if (!job || !shop) throw notFound('No job with that id.');
-  const [awarded] = job.awardedBidId ? await deps.db.select({ shopId: bids.shopId }).from(bids).where(eq(bids.id, job.awardedBidId)) : [];
-  if (awarded?.shopId !== shop.id) throw forbidden('Only the shop doing the work proposes extra work.');
+  await mustBeAwardedShop(deps.db, job, shop.id, 'Only the shop doing the work proposes extra work.');
   if (!['funded', 'in_work'].includes(job.status)) throw conflict('Extra work can be proposed once the job is paid for and before the inspection.', 'job_not_in_work');
   const [row] = await deps.db.insert(changeOrders).values({ jobId, shopId: shop.id, description: input.description, amountCents: input.amountCents }).returning();
+  deps.hub?.jobChanged(jobId, 'job_updated');
   return toView(row);
 }
 
-export async function changeOrdersFor(deps: PaymentDeps, jobId: string): Promise<ChangeOrder[]> {
+/** Like the job's money: its builder, the shop doing the work and admins (not every shop that once bid). */
+export async function changeOrdersFor(deps: PaymentDeps, user: User, jobId: string): Promise<ChangeOrder[]> {
+  await workPartiesFor(deps.db, jobId, user);
   const rows = await deps.db.select().from(changeOrders).where(eq(changeOrders.jobId, jobId)).orderBy(asc(changeOrders.createdAt));
   return rows.map(toView);
 }
 
 async function builderChangeOrder(deps: PaymentDeps, user: User, id: string) {
   const [row] = await deps.db.select().from(changeOrders).where(eq(changeOrders.id, id));
-  const job = row ? await findJob(deps.db, row.jobId) : undefined;
-  if (!row || !job || job.builderId !== user.id) throw notFound('No change order with that id.');
+  const job = mustBeBuilder(row ? await findJob(deps.db, row.jobId) : undefined, user, 'No change order with that id.');
   return { row, job };
 }
 

@@ -1,15 +1,17 @@
 import { and, asc, eq, inArray, lte, ne, sql } from 'drizzle-orm';
 import type Stripe from 'stripe';
 import type { Database, Executor } from '../../db/client';
-import { bids, changeOrders, jobs, moneyMoves, payments, shops, users, type User } from '../../db/schema';
+import { bids, changeOrders, jobs, moneyMoves, payments, shops, type User } from '../../db/schema';
 import { assertEmailConfirmed } from '../../lib/auth/guards';
-import { AppError, conflict, forbidden, notFound } from '../../lib/errors';
+import { AppError, conflict, notFound } from '../../lib/errors';
 import { enqueueMail } from '../../lib/mail/outbox';
 import { latePaymentRefundedMail, paymentReceiptMail, payoutSentMail, refundSentMail, type LatePaymentReason } from '../../lib/mail/templates';
 import type { PaymentsClient } from '../../lib/payments-client';
 import type { RealtimeHub } from '../../realtime/hub';
+import { mustBeBuilder, mustSeeMoney, partiesOf } from '../jobs/job-access';
 import { findJob } from '../jobs/jobs.repository';
 import { findShopByUser } from '../shops/shops.repository';
+import { recordAdminAction } from '../admin/audit';
 import { appendLedger, feeFor, jobBalance } from './ledger';
 import { closeOpenCheckouts, expireCheckoutSession, expireOpenCheckouts, scheduleCheckoutExpiry } from './open-checkouts';
 
@@ -87,8 +89,7 @@ async function checkoutFor(deps: PaymentDeps, payment: typeof payments.$inferSel
  */
 export async function startJobCheckout(deps: PaymentDeps, user: User, jobId: string): Promise<{ url: string }> {
   assertEmailConfirmed(user, 'pay');
-  const job = await findJob(deps.db, jobId);
-  if (!job || job.builderId !== user.id) throw notFound('No job with that id.');
+  const job = mustBeBuilder(await findJob(deps.db, jobId), user);
   if (job.status !== 'awarded' || !job.awardedBidId) throw conflict('Only a job with an accepted bid waits for payment.', 'job_not_awarded');
   const [bid] = await deps.db.select().from(bids).where(eq(bids.id, job.awardedBidId));
   const payment = await deps.db.transaction(async (tx) => {
@@ -214,7 +215,7 @@ export async function applyCheckoutSession(deps: PaymentDeps, sessionId: string)
     } else if (payment.changeOrderId) {
       await tx.update(changeOrders).set({ status: 'paid' }).where(eq(changeOrders.id, payment.changeOrderId));
     }
-    const parties = await partiesOf(tx, job.id);
+    const parties = await mailPartiesOf(tx, job.id);
     const receipt = { jobTitle: job.title, amountCents: payment.amountCents, what: payment.kind === 'bid' ? 'the accepted bid' : 'a change order', url: `${deps.appUrl}/jobs/${job.id}` };
     await enqueueMail(tx, parties.builderEmail, paymentReceiptMail({ ...receipt, name: parties.builderName, side: 'builder' }));
     if (parties.shopEmail) await enqueueMail(tx, parties.shopEmail, paymentReceiptMail({ ...receipt, name: parties.shopName!, side: 'shop' }));
@@ -282,7 +283,7 @@ async function sendBackLatePayment(
     .onConflictDoNothing()
     .returning({ id: moneyMoves.id });
 
-  const parties = await partiesOf(tx, job.id, payment);
+  const parties = await mailPartiesOf(tx, job.id, payment);
   const mail = { jobTitle: job.title, amountCents, reason, what: payment.kind === 'bid' ? 'the accepted bid' : 'extra work', url: `${deps.appUrl}/jobs/${job.id}` };
   await enqueueMail(tx, parties.builderEmail, latePaymentRefundedMail({ ...mail, name: parties.builderName, side: 'builder' }));
   if (parties.shopEmail) await enqueueMail(tx, parties.shopEmail, latePaymentRefundedMail({ ...mail, name: parties.shopName!, side: 'shop' }));
@@ -303,27 +304,10 @@ export async function applyPaymentFailed(deps: PaymentDeps, intent: Stripe.Payme
   if (updated) deps.hub?.jobChanged(updated.jobId, 'job_updated');
 }
 
-/**
- * The job's builder and the shop doing the work. With a payment, the shop is
- * the one that payment was for (its bid or change order), which a cancelled
- * job no longer names as awarded.
- */
-async function partiesOf(tx: Executor, jobId: string, payment?: Pick<typeof payments.$inferSelect, 'bidId' | 'changeOrderId'>) {
-  const [row] = await tx
-    .select({ builderEmail: users.email, builderName: users.displayName, awardedBidId: jobs.awardedBidId })
-    .from(jobs)
-    .innerJoin(users, eq(users.id, jobs.builderId))
-    .where(eq(jobs.id, jobId));
-  const bidId = payment?.bidId ?? row.awardedBidId;
-  const [owner] = payment?.changeOrderId
-    ? await tx.select({ shopId: changeOrders.shopId }).from(changeOrders).where(eq(changeOrders.id, payment.changeOrderId))
-    : bidId
-      ? await tx.select({ shopId: bids.shopId }).from(bids).where(eq(bids.id, bidId))
-      : [];
-  const [shop] = owner ? await tx.select({ email: users.email, name: shops.name }).from(shops).innerJoin(users, eq(users.id, shops.userId)).where(eq(shops.id, owner.shopId)) : [];
-  const shopEmail: string | undefined = shop?.email;
-  const shopName: string | undefined = shop?.name;
-  return { ...row, shopEmail, shopName };
+/** Whom a job's money mails go to: its builder and the shop doing the work (with a payment, the shop it was for). */
+async function mailPartiesOf(tx: Executor, jobId: string, payment?: Pick<typeof payments.$inferSelect, 'bidId' | 'changeOrderId'>) {
+  const { builder, shop } = await partiesOf(tx, jobId, { payment });
+  return { builderEmail: builder.email, builderName: builder.displayName, shopEmail: shop?.email, shopName: shop?.name };
 }
 
 // ---------------------------------------------------------------------------
@@ -441,7 +425,7 @@ async function settleJobIfEmpty(deps: PaymentDeps, tx: Executor, jobId: string) 
   const balance = { ...all, paidIn: all.paidIn - lateIn, refunded: all.refunded - lateBack, held: all.held - (lateIn - lateBack) };
   if (balance.held !== 0) return;
   const job = (await findJob(tx, jobId, { forUpdate: true }))!;
-  const parties = await partiesOf(tx, jobId);
+  const parties = await mailPartiesOf(tx, jobId);
   const url = `${deps.appUrl}/jobs/${jobId}`;
   if (balance.released + balance.fee > 0 && parties.shopEmail) {
     await enqueueMail(tx, parties.shopEmail, payoutSentMail({ name: parties.shopName!, jobTitle: job.title, amountCents: balance.released, feeCents: balance.fee, url }));
@@ -462,28 +446,37 @@ export async function carryOut(deps: PaymentDeps, jobId: string) {
   return moneyView(deps.db, jobId);
 }
 
-/** Everything held goes to the shop, less the platform fee. Safe to call any number of times, at once. */
-export async function releaseJob(deps: PaymentDeps, jobId: string) {
-  await deps.db.transaction((tx) => planMoves(tx, jobId, 'all'));
+/**
+ * Plans the job's money and carries it out. An admin's hand decision is
+ * audited in the transaction that plans it, so the log has the decision
+ * exactly when the plan exists.
+ */
+async function decideMoney(deps: PaymentDeps, jobId: string, shopShareCents: number | 'all', audit?: { admin: User; action: string; details?: Record<string, unknown> }) {
+  await deps.db.transaction(async (tx) => {
+    await planMoves(tx, jobId, shopShareCents);
+    if (audit) await recordAdminAction(tx, { adminId: audit.admin.id, action: audit.action, targetType: 'job', targetId: jobId, details: audit.details });
+  });
   return carryOut(deps, jobId);
+}
+
+/** Everything held goes to the shop, less the platform fee. Safe to call any number of times, at once. With an admin, a hand release (audited). */
+export async function releaseJob(deps: PaymentDeps, jobId: string, admin?: User) {
+  return decideMoney(deps, jobId, 'all', admin && { admin, action: 'job.release' });
 }
 
 /** Everything held goes back to the builder. */
 export async function refundJob(deps: PaymentDeps, jobId: string) {
-  await deps.db.transaction((tx) => planMoves(tx, jobId, 0));
-  return carryOut(deps, jobId);
+  return decideMoney(deps, jobId, 0);
 }
 
-/** `shopCents` of what is held to the shop (less the fee on it), the rest back to the builder. */
-export async function splitJob(deps: PaymentDeps, jobId: string, shopCents: number) {
-  await deps.db.transaction((tx) => planMoves(tx, jobId, shopCents));
-  return carryOut(deps, jobId);
+/** An admin's hand split: `shopCents` of what is held to the shop (less the fee on it), the rest back to the builder (audited). */
+export async function splitJob(deps: PaymentDeps, admin: User, jobId: string, shopCents: number) {
+  return decideMoney(deps, jobId, shopCents, { admin, action: 'job.split', details: { shopCents } });
 }
 
 /** A builder cancelling a paid job gets everything back. */
 export async function cancelFundedJob(deps: PaymentDeps, user: User, jobId: string) {
-  const job = await findJob(deps.db, jobId);
-  if (!job || job.builderId !== user.id) throw notFound('No job with that id.');
+  const job = mustBeBuilder(await findJob(deps.db, jobId), user);
   if (job.status !== 'funded') throw conflict('Only a paid job that the shop has not started can be cancelled for a refund.', 'job_not_refundable');
   return refundJob(deps, jobId);
 }
@@ -502,17 +495,9 @@ export async function moneyView(db: Executor, jobId: string) {
   };
 }
 
-/** Who may see a job's money: its builder, the awarded shop, admins. */
+/** The job's money for its builder, the shop doing the work or an admin (see mustSeeMoney). */
 export async function moneyViewFor(deps: PaymentDeps, user: User, jobId: string) {
-  const job = await findJob(deps.db, jobId);
-  if (!job) throw notFound('No job with that id.');
-  if (user.role !== 'admin' && job.builderId !== user.id) {
-    // A draft is the builder's alone: to anyone else it does not exist.
-    if (job.status === 'draft') throw notFound('No job with that id.');
-    const shop = user.role === 'shop' ? await findShopByUser(deps.db, user.id) : undefined;
-    const awarded = job.awardedBidId ? (await deps.db.select({ shopId: bids.shopId }).from(bids).where(eq(bids.id, job.awardedBidId)))[0] : undefined;
-    if (!shop || awarded?.shopId !== shop.id) throw forbidden('This job’s money is not yours to see.');
-  }
+  await mustSeeMoney(deps.db, jobId, user);
   return moneyView(deps.db, jobId);
 }
 

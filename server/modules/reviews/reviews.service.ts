@@ -5,7 +5,7 @@ import { reviews, type User } from '../../db/schema';
 import { conflict, forbidden } from '../../lib/errors';
 import { enqueueMail } from '../../lib/mail/outbox';
 import { newReviewMail } from '../../lib/mail/templates';
-import { assertCanSeeWork, jobParties, sideOf, type JobParties } from '../inspections/job-parties';
+import { mustSeeWork, partiesOf, sideOf, type JobParties } from '../jobs/job-access';
 
 /** A job can be reviewed once it has ended with work done: accepted, or decided after a dispute. */
 const REVIEWABLE = new Set(['completed', 'resolved']);
@@ -15,8 +15,8 @@ function authorName(parties: JobParties, side: 'builder' | 'shop') {
 }
 
 export async function reviewsFor(db: Database, user: User, jobId: string): Promise<JobReviews> {
-  const parties = await jobParties(db, jobId);
-  assertCanSeeWork(parties, user);
+  const parties = await partiesOf(db, jobId);
+  mustSeeWork(parties, user);
   const rows = await db.select().from(reviews).where(eq(reviews.jobId, jobId)).orderBy(asc(reviews.createdAt));
   const side = sideOf(parties, user);
   return {
@@ -28,10 +28,10 @@ export async function reviewsFor(db: Database, user: User, jobId: string): Promi
 /** The builder rates the shop and the shop rates the builder, once each, after the job has ended. */
 export async function leaveReview(deps: { db: Database; appUrl: string }, user: User, jobId: string, input: ReviewInput): Promise<Review> {
   return deps.db.transaction(async (tx) => {
-    const parties = await jobParties(tx, jobId);
+    const parties = await partiesOf(tx, jobId);
     const side = sideOf(parties, user);
     if (!side) {
-      assertCanSeeWork(parties, user);
+      mustSeeWork(parties, user);
       throw forbidden('Only the builder and the shop that did the work can review each other.');
     }
     if (!REVIEWABLE.has(parties.job.status)) throw conflict('Reviews open once the job is completed.', 'job_not_finished');
