@@ -1,7 +1,7 @@
 import { and, desc, eq, lt, or, sql } from 'drizzle-orm';
 import type { HistoryPage, Message, MessagePhoto, SendMessageInput, ThreadSummary } from '../../../shared/schemas/messages';
 import type { Database, Executor } from '../../db/client';
-import { bids, jobs, messages, shops, threadReads, threads, users, type User } from '../../db/schema';
+import { bids, messages, shops, threadReads, threads, users, type User } from '../../db/schema';
 import { AppError, conflict, forbidden, notFound } from '../../lib/errors';
 import { findJob, type JobRow } from '../jobs/jobs.repository';
 import { findShopByUser } from '../shops/shops.repository';
