@@ -1,6 +1,6 @@
 import { fileURLToPath } from 'node:url';
 import { ESLint } from 'eslint';
-import { describe, expect, it } from 'vitest';
+import { beforeAll, describe, expect, it } from 'vitest';
 
 /**
  * The import direction is held by eslint.config.js, not by habit: each case lints a one-line
@@ -47,6 +47,9 @@ const allowed: Array<[string, string, string]> = [
 ];
 
 describe('import boundaries (eslint.config.js)', () => {
+  // The first lint loads the config, the plugins and the tsconfig paths: seconds on a busy machine.
+  beforeAll(() => boundaryErrors('client/app/routes/probe.tsx', "import { operations as probe } from '@shared/catalogue';"), 60_000);
+
   it.each(refused)('refuse %s', async (_case, filePath, source) => {
     expect(await boundaryErrors(filePath, source)).toHaveLength(1);
   });
