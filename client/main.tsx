@@ -1,7 +1,7 @@
 import { StrictMode } from 'react';
 import { createRoot } from 'react-dom/client';
 import { RouterProvider } from 'react-router-dom';
-import { authQueries } from '@client/features/auth/api/auth-keys';
+import { authQueries } from '@client/features/auth';
 import { AppProvider, queryClient } from './app/provider';
 import { router } from './app/router';
 import './styles.css';

@@ -3,7 +3,7 @@ import { Navigate, useLocation, useSearchParams } from 'react-router-dom';
 import { safeReturnPath } from '@shared/paths';
 import type { Role } from '@shared/schemas/auth';
 import { Notice } from '@client/components/ui/notice';
-import { useMe } from '@client/features/auth/api/use-me';
+import { useMe } from '@client/features/auth';
 
 /** Signed-out visitors go to sign-in (and come back); the wrong role sees why it cannot enter. */
 export function RequireRole({ roles, children }: { roles?: Role[]; children: ReactNode }) {

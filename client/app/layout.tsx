@@ -3,10 +3,8 @@ import { lazy, Suspense, useEffect, useState } from 'react';
 import { NavLink, Outlet, ScrollRestoration, useNavigate } from 'react-router-dom';
 import type { Me } from '@shared/schemas/auth';
 import { CountBadge } from '@client/components/ui/count-badge';
-import { authKeys } from '@client/features/auth/api/auth-keys';
-import { useSignOut } from '@client/features/auth/api/auth-mutations';
-import { useMe } from '@client/features/auth/api/use-me';
-import { useUnreadTotal } from '@client/features/messages/api/threads';
+import { authKeys, useSignOut, useMe } from '@client/features/auth';
+import { useUnreadTotal } from '@client/features/messages';
 import { cn } from '@client/lib/cn';
 import { RealtimeProvider, useConnectionStatus } from '@client/lib/realtime';
 

@@ -140,8 +140,8 @@ export function serverOn(dataDir: string): ServerState {
   }
   if (!samePath(lines[1] ?? '', dataDir)) return { state: 'stale', pid, why: `its lock file names another data directory (${lines[1]})` };
   if (existsSync(`/proc/${pid}`)) {
-    let command = '';
-    let cwd = '';
+    let command: string;
+    let cwd: string;
     try {
       command = readFileSync(`/proc/${pid}/cmdline`, 'utf8').split('\0')[0] ?? '';
       cwd = readlinkSync(`/proc/${pid}/cwd`);

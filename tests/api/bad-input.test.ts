@@ -317,7 +317,8 @@ function mutate(value: unknown, evil: unknown, pick: number, how: 'replace' | 'r
   const parent = path.slice(0, -1).reduce<any>((node, step) => node[step], copy);
   const last = path[path.length - 1];
   if (how === 'replace') parent[last] = evil;
-  else if (how === 'remove') Array.isArray(parent) ? parent.splice(Number(last), 1) : delete parent[last];
+  else if (how === 'remove' && Array.isArray(parent)) parent.splice(Number(last), 1);
+  else if (how === 'remove') delete parent[last];
   else Object.defineProperty(parent, key, { value: evil, enumerable: true, configurable: true, writable: true });
   return copy;
 }

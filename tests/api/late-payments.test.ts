@@ -252,7 +252,7 @@ describe('a payment that still arrives for a job that cannot take it is refunded
   });
 
   it('when a second page for a payment that is already funded gets paid, then that second payment is refunded and the job stays funded with its first', async () => {
-    const { job, builder, builderUser } = await money.fundedJob({ totalCents: 21_000 });
+    const { job, builderUser } = await money.fundedJob({ totalCents: 21_000 });
     const [payment] = await money.db.select().from(paymentRows).where(eq(paymentRows.jobId, job.id));
     // A second Checkout Session for the same payment (as a lapsed idempotency record would make).
     const second = await money.stripe.checkout.sessions.create({

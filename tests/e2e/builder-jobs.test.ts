@@ -7,7 +7,6 @@ import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, it } from
 import { CC_PER_CUBIC_INCH } from '../../shared/calc';
 import type { JobDetail, JobInput } from '../../shared/schemas/jobs';
 import { DEMO_PASSWORD, demoAccounts } from '../../server/dev/seed';
-import type { RunningServer } from '../../server/runtime';
 import { bidInput, inDays, jobInput, shopProfileInput, uniqueEmail } from '../factories';
 import { confirmationLink } from '../setup/mail-links';
 import { completeOnboardingPage } from '../setup/payments';

@@ -27,7 +27,6 @@ export async function post(server: RunningServer, auth: Auth, path: string, body
     headers: { 'Content-Type': 'application/json', Cookie: auth.cookie, 'X-CSRF-Token': auth.csrf },
     body: JSON.stringify(body),
   });
-  // eslint-disable-next-line @typescript-eslint/no-explicit-any
   return { status: res.status, body: (await res.json().catch(() => ({}))) as Record<string, any> };
 }
 
@@ -50,11 +49,9 @@ export const connected = (socket: Socket) =>
     socket.once('connect_error', reject);
   });
 
-// eslint-disable-next-line @typescript-eslint/no-explicit-any
 export const emit = <T = any>(socket: Socket, event: string, payload: unknown) => socket.timeout(5_000).emitWithAck(event, payload) as Promise<T>;
 
 /** The next `event` the socket hears, within five seconds. */
-// eslint-disable-next-line @typescript-eslint/no-explicit-any
 export const next = <T = any>(socket: Socket, event: string) =>
   new Promise<T>((resolve, reject) => {
     const timer = setTimeout(() => reject(new Error(`no ${event} within 5 s`)), 5_000);

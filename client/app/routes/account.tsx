@@ -1,7 +1,6 @@
 import { Link } from 'react-router-dom';
 import { Card, PageTitle } from '@client/components/ui/card';
-import { useMe } from '@client/features/auth/api/use-me';
-import { ChangePasswordForm } from '@client/features/auth/components/change-password-form';
+import { useMe, ChangePasswordForm } from '@client/features/auth';
 
 /** The signed-in person's own account: who they are signed in as, and their password. */
 export function AccountRoute() {

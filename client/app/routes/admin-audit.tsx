@@ -4,8 +4,7 @@ import { PageTitle } from '@client/components/ui/card';
 import { DebouncedTextField } from '@client/components/ui/debounced-text-field';
 import { Notice } from '@client/components/ui/notice';
 import { Pager } from '@client/components/ui/pager';
-import { useAuditLog } from '@client/features/admin/api/admin-audit';
-import { AuditTable } from '@client/features/admin/components/audit-table';
+import { useAuditLog, AuditTable } from '@client/features/admin';
 import { toSearch } from '@client/lib/search-params';
 
 const PAGE_SIZE = 50;

@@ -2,13 +2,7 @@ import type { ReactNode } from 'react';
 import { Link, useParams } from 'react-router-dom';
 import { Card, PageTitle } from '@client/components/ui/card';
 import { Notice } from '@client/components/ui/notice';
-import { useDisputeCase } from '@client/features/admin/api/admin-disputes';
-import { formatMoment } from '@client/features/admin/components/admin-words';
-import { DisputeMoney } from '@client/features/admin/components/dispute-money';
-import { DisputeParties, DisputeStatements } from '@client/features/admin/components/dispute-parties';
-import { DisputeStatusBadge } from '@client/features/admin/components/dispute-queue-table';
-import { EvidenceTimeline } from '@client/features/admin/components/evidence-timeline';
-import { DisputeDecision, ResolveDisputeForm } from '@client/features/admin/components/resolve-dispute-form';
+import { useDisputeCase, formatMoment, DisputeMoney, DisputeParties, DisputeStatements, DisputeStatusBadge, EvidenceTimeline, DisputeDecision, ResolveDisputeForm } from '@client/features/admin';
 import { ApiError } from '@client/lib/api-client';
 
 function Section({ title, children, className }: { title: string; children: ReactNode; className?: string }) {

@@ -2,8 +2,7 @@ import { useSearchParams } from 'react-router-dom';
 import { PageTitle } from '@client/components/ui/card';
 import { Notice } from '@client/components/ui/notice';
 import { SegmentedControl } from '@client/components/ui/segmented-control';
-import { useDisputeQueue, type DisputeQueueStatus } from '@client/features/admin/api/admin-disputes';
-import { DisputeQueueTable } from '@client/features/admin/components/dispute-queue-table';
+import { useDisputeQueue, type DisputeQueueStatus, DisputeQueueTable } from '@client/features/admin';
 
 const statusOptions = [
   { value: 'open', label: 'Open' },

@@ -7,9 +7,7 @@ import { Notice } from '@client/components/ui/notice';
 import { Pager } from '@client/components/ui/pager';
 import { SelectField } from '@client/components/ui/select-field';
 import { TextField } from '@client/components/ui/text-field';
-import { ledgerCsvUrl, useLedger, type LedgerFilters } from '@client/features/admin/api/admin-ledger';
-import { ledgerKindWords } from '@client/features/admin/components/admin-words';
-import { LedgerTable, LedgerTotals } from '@client/features/admin/components/ledger-table';
+import { ledgerCsvUrl, useLedger, type LedgerFilters, ledgerKindWords, LedgerTable, LedgerTotals } from '@client/features/admin';
 import { toSearch, useSearchParamUpdater } from '@client/lib/search-params';
 
 const PAGE_SIZE = 50;

@@ -1,7 +1,6 @@
 import { Card, PageTitle } from '@client/components/ui/card';
-import { AddAdminForm } from '@client/features/admin/components/add-admin-form';
-import { PeopleTable } from '@client/features/admin/components/people-table';
-import { useMe } from '@client/features/auth/api/use-me';
+import { AddAdminForm, PeopleTable } from '@client/features/admin';
+import { useMe } from '@client/features/auth';
 
 export function AdminPeopleRoute() {
   const { data: me } = useMe();

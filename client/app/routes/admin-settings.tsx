@@ -1,8 +1,6 @@
 import { Card, PageTitle } from '@client/components/ui/card';
 import { Notice } from '@client/components/ui/notice';
-import { usePlatformFee } from '@client/features/admin/api/admin-settings';
-import { formatFee, formatMoment } from '@client/features/admin/components/admin-words';
-import { PlatformFeeForm } from '@client/features/admin/components/platform-fee-form';
+import { usePlatformFee, formatFee, formatMoment, PlatformFeeForm } from '@client/features/admin';
 
 export function AdminSettingsRoute() {
   const fee = usePlatformFee();

@@ -4,8 +4,7 @@ import { DebouncedTextField } from '@client/components/ui/debounced-text-field';
 import { Notice } from '@client/components/ui/notice';
 import { Pager } from '@client/components/ui/pager';
 import { SelectField } from '@client/components/ui/select-field';
-import { useAdminShops } from '@client/features/admin/api/admin-shops';
-import { AdminShopsTable } from '@client/features/admin/components/admin-shops-table';
+import { useAdminShops, AdminShopsTable } from '@client/features/admin';
 
 const PAGE_SIZE = 50;
 

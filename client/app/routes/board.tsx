@@ -8,15 +8,13 @@ import { Notice } from '@client/components/ui/notice';
 import { Pager } from '@client/components/ui/pager';
 import { SelectField } from '@client/components/ui/select-field';
 import { TextField } from '@client/components/ui/text-field';
-import { useBoard, type BoardFilters } from '@client/features/jobs/api/jobs';
-import { readBoardFilters } from '@client/features/jobs/board-filters';
-import { useOwnShop } from '@client/features/shops/api/shops';
+import { useBoard, readBoardFilters } from '@client/features/jobs';
+import { useOwnShop } from '@client/features/shops';
 import { cn } from '@client/lib/cn';
 import { useSearchParamUpdater } from '@client/lib/search-params';
 
 type Sort = BoardQuery['sort'];
 const FILTER_KEYS = ['operation', 'material', 'cylinders', 'country', 'region', 'logistics', 'neededBefore'] as const;
-type FilterKey = (typeof FILTER_KEYS)[number];
 const PAGE_SIZES = [10, 20, 50, 100];
 
 const materialWords: Record<JobSummary['blockMaterial'], string> = { 'cast-iron': 'Cast iron', aluminium: 'Aluminium' };

@@ -1,9 +1,8 @@
 import { Link } from 'react-router-dom';
 import type { Me } from '@shared/schemas/auth';
 import { Card, PageTitle } from '@client/components/ui/card';
-import { AdminOverview } from '@client/features/admin/components/admin-overview';
-import { ConfirmEmailNotice } from '@client/features/auth/components/confirm-email-notice';
-import { useMe } from '@client/features/auth/api/use-me';
+import { AdminOverview } from '@client/features/admin';
+import { ConfirmEmailNotice, useMe } from '@client/features/auth';
 
 const roleWords: Record<Me['role'], { title: string; lead: string }> = {
   builder: {

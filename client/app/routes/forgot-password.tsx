@@ -7,7 +7,7 @@ import { Button } from '@client/components/ui/button';
 import { Card, PageTitle } from '@client/components/ui/card';
 import { Notice } from '@client/components/ui/notice';
 import { TextField } from '@client/components/ui/text-field';
-import { useRequestPasswordReset } from '@client/features/auth/api/auth-mutations';
+import { useRequestPasswordReset } from '@client/features/auth';
 import { applyServerErrors } from '@client/lib/form-errors';
 
 export function ForgotPasswordRoute() {

@@ -7,9 +7,7 @@ import { githubCompleteSchema, type GithubCompleteInput } from '@shared/schemas/
 import { Button } from '@client/components/ui/button';
 import { Card, PageTitle } from '@client/components/ui/card';
 import { Notice } from '@client/components/ui/notice';
-import { authQueries } from '@client/features/auth/api/auth-keys';
-import { useCompleteGithub } from '@client/features/auth/api/auth-mutations';
-import { RolePicker } from '@client/features/auth/components/role-picker';
+import { authQueries, useCompleteGithub, RolePicker } from '@client/features/auth';
 import { applyServerErrors } from '@client/lib/form-errors';
 
 /** A first GitHub sign-in: the person chooses builder or shop before the account exists. */

@@ -3,9 +3,8 @@ import { checkFigures, figureAgainstLimit, lengthDecimals, micrometresToMicroinc
 import { INSPECTION_STATUS_WORDS, methodLines, resultHeadline } from '@shared/inspection-words';
 import { Button } from '@client/components/ui/button';
 import { Notice } from '@client/components/ui/notice';
-import { useInspection } from '@client/features/inspections/api/inspections';
-import { finishFilterWords } from '@client/features/inspections/components/inspection-results';
-import { useJob } from '@client/features/jobs/api/jobs';
+import { useInspection, finishFilterWords } from '@client/features/inspections';
+import { useJob } from '@client/features/jobs';
 
 const GUIDANCE =
   'Figures are guidance. Engine and piston makers’ specifications, calibrated instruments, local codes and licensed practice govern machine work.';

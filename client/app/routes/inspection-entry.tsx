@@ -1,10 +1,8 @@
 import { Link, useNavigate, useParams } from 'react-router-dom';
 import { PageTitle } from '@client/components/ui/card';
 import { Notice } from '@client/components/ui/notice';
-import { useInspection } from '@client/features/inspections/api/inspections';
-import { InspectionEntryForm, type InspectionEntryFormProps } from '@client/features/inspections/components/inspection-entry-form';
-import { draftSavedAt, emptyRecord, fromDraft, fromInput } from '@client/features/inspections/lib/record-form';
-import { useJob } from '@client/features/jobs/api/jobs';
+import { useInspection, InspectionEntryForm, type InspectionEntryFormProps, draftSavedAt, emptyRecord, fromDraft, fromInput } from '@client/features/inspections';
+import { useJob } from '@client/features/jobs';
 
 /**
  * The awarded shop enters its measured inspection record for a job: a new

@@ -4,26 +4,17 @@ import { Link, useParams } from 'react-router-dom';
 import type { JobDetail } from '@shared/schemas/jobs';
 import { Card } from '@client/components/ui/card';
 import { Notice } from '@client/components/ui/notice';
-import { useMe } from '@client/features/auth/api/use-me';
-import { bidQueries } from '@client/features/bids/api/bids';
-import { BidComparison } from '@client/features/bids/components/bid-comparison';
-import { ShopBidPanel } from '@client/features/bids/components/shop-bid-panel';
-import { useJob } from '@client/features/jobs/api/jobs';
-import { JobFiguresPanel } from '@client/features/jobs/components/job-figures';
-import { JobOwnerActions } from '@client/features/jobs/components/job-owner-actions';
-import { JobLogistics, JobOperations, JobSpec } from '@client/features/jobs/components/job-spec';
-import { JobStatusBadge } from '@client/features/jobs/components/job-status-badge';
-import { formatDay, plural, statusWords } from '@client/features/jobs/components/job-words';
-import { PhotoGallery } from '@client/features/jobs/components/photo-gallery';
-import { PhotoUploader } from '@client/features/jobs/components/photo-uploader';
-import { ConversationPanel, type Bidder } from '@client/features/messages/components/conversation-panel';
+import { useMe } from '@client/features/auth';
+import { bidQueries, BidComparison, ShopBidPanel } from '@client/features/bids';
+import { useJob, JobFiguresPanel, JobOwnerActions, JobLogistics, JobOperations, JobSpec, JobStatusBadge, formatDay, plural, statusWords, PhotoGallery, PhotoUploader } from '@client/features/jobs';
+import { ConversationPanel, type Bidder } from '@client/features/messages';
 import { ApiError } from '@client/lib/api-client';
 import { useWatchJob } from '@client/lib/realtime';
-import { JobMoneyPanel } from '@client/features/payments/components/job-money-panel';
-import { InspectionReview } from '@client/features/inspections/components/inspection-review';
-import { MilestonesPanel } from '@client/features/milestones/components/milestones-panel';
-import { DisputePanel } from '@client/features/disputes/components/dispute-panel';
-import { ReviewPanel } from '@client/features/reviews/components/review-panel';
+import { JobMoneyPanel } from '@client/features/payments';
+import { InspectionReview } from '@client/features/inspections';
+import { MilestonesPanel } from '@client/features/milestones';
+import { DisputePanel } from '@client/features/disputes';
+import { ReviewPanel } from '@client/features/reviews';
 
 function Section({ title, children, action }: { title: string; children: ReactNode; action?: ReactNode }) {
   return (

@@ -2,9 +2,7 @@ import { Link, useNavigate, useParams } from 'react-router-dom';
 import { toast } from 'sonner';
 import { PageTitle } from '@client/components/ui/card';
 import { Notice } from '@client/components/ui/notice';
-import { useJob, useUpdateJob } from '@client/features/jobs/api/jobs';
-import { JobForm } from '@client/features/jobs/components/job-form';
-import { plural } from '@client/features/jobs/components/job-words';
+import { useJob, useUpdateJob, JobForm, plural } from '@client/features/jobs';
 
 /** Changes to a draft or an open job; shops that bid on an open job are told by e-mail. */
 export function EditJobRoute() {

@@ -1,9 +1,8 @@
 import { useNavigate } from 'react-router-dom';
 import { toast } from 'sonner';
 import { PageTitle } from '@client/components/ui/card';
-import { useCreateJob } from '@client/features/jobs/api/jobs';
-import { ConfirmEmailNotice, useNeedsEmailConfirmation } from '@client/features/auth/components/confirm-email-notice';
-import { JobForm } from '@client/features/jobs/components/job-form';
+import { useCreateJob, JobForm } from '@client/features/jobs';
+import { ConfirmEmailNotice, useNeedsEmailConfirmation } from '@client/features/auth';
 
 /** A new job, saved as a draft that only its builder sees until it is published. */
 export function NewJobRoute() {

@@ -1,5 +1,5 @@
 import { PageTitle } from '@client/components/ui/card';
-import { ConversationList } from '@client/features/messages/components/conversation-list';
+import { ConversationList } from '@client/features/messages';
 
 /** Every conversation of the signed-in builder or shop, newest first, with what is unread. */
 export function MessagesRoute() {

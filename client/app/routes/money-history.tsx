@@ -5,7 +5,7 @@ import type { MoneyHistory, MoneyHistoryRow } from '@shared/schemas/payments';
 import { PageTitle } from '@client/components/ui/card';
 import { Notice } from '@client/components/ui/notice';
 import { Pager } from '@client/components/ui/pager';
-import { useMe } from '@client/features/auth/api/use-me';
+import { useMe } from '@client/features/auth';
 import { api } from '@client/lib/api-client';
 import { moneyHistoryKeys } from '@client/lib/query-keys';
 

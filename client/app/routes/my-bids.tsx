@@ -2,8 +2,7 @@ import { Link } from 'react-router-dom';
 import { formatCents } from '@shared/catalogue';
 import { PageTitle } from '@client/components/ui/card';
 import { Notice } from '@client/components/ui/notice';
-import { useMyBids } from '@client/features/bids/api/bids';
-import { BidStatusBadge, days, formatMoment } from '@client/features/bids/components/bid-summary';
+import { useMyBids, BidStatusBadge, days, formatMoment } from '@client/features/bids';
 
 const jobStatusWords: Record<string, string> = {
   open: 'open for bids',

@@ -7,8 +7,7 @@ import { DebouncedTextField } from '@client/components/ui/debounced-text-field';
 import { Notice } from '@client/components/ui/notice';
 import { Pager } from '@client/components/ui/pager';
 import { SelectField } from '@client/components/ui/select-field';
-import { useShops, type DirectoryFilters } from '@client/features/shops/api/shops';
-import { ShopCard } from '@client/features/shops/components/shop-card';
+import { useShops, type DirectoryFilters, ShopCard } from '@client/features/shops';
 
 const PAGE_SIZE = 12;
 const FILTER_KEYS = ['q', 'operation', 'country', 'region', 'takesShipped'] as const;

@@ -1,10 +1,7 @@
 import { Link, useParams } from 'react-router-dom';
 import { Card } from '@client/components/ui/card';
 import { Notice } from '@client/components/ui/notice';
-import { useShop } from '@client/features/shops/api/shops';
-import { operationsByPart } from '@client/features/shops/components/operation-words';
-import { RateCardTable } from '@client/features/shops/components/rate-card-table';
-import { placeOf, RatingText, VerifiedBadge } from '@client/features/shops/components/shop-card';
+import { useShop, operationsByPart, RateCardTable, placeOf, RatingText, VerifiedBadge } from '@client/features/shops';
 import { ApiError } from '@client/lib/api-client';
 
 export function ShopPageRoute() {

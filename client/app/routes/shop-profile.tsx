@@ -1,9 +1,8 @@
 import { Link, useSearchParams } from 'react-router-dom';
-import { PayoutSetup } from '@client/features/payments/components/payout-setup';
+import { PayoutSetup } from '@client/features/payments';
 import { PageTitle } from '@client/components/ui/card';
 import { Notice } from '@client/components/ui/notice';
-import { useOwnShop } from '@client/features/shops/api/shops';
-import { ShopProfileForm } from '@client/features/shops/components/shop-profile-form';
+import { useOwnShop, ShopProfileForm } from '@client/features/shops';
 
 export function ShopProfileRoute() {
   const [params] = useSearchParams();

@@ -2,8 +2,7 @@ import { Link, useNavigate, useSearchParams } from 'react-router-dom';
 import { safeReturnPath } from '@shared/paths';
 import { Card, PageTitle } from '@client/components/ui/card';
 import { Notice } from '@client/components/ui/notice';
-import { GithubButton } from '@client/features/auth/components/github-button';
-import { SignInForm } from '@client/features/auth/components/sign-in-form';
+import { GithubButton, SignInForm } from '@client/features/auth';
 
 const githubErrors: Record<string, string> = {
   github_failed: 'The GitHub sign-in did not complete. Try again, or use your e-mail and password.',

@@ -1,7 +1,6 @@
 import { Link, useNavigate } from 'react-router-dom';
 import { Card, PageTitle } from '@client/components/ui/card';
-import { GithubButton } from '@client/features/auth/components/github-button';
-import { SignUpForm } from '@client/features/auth/components/sign-up-form';
+import { GithubButton, SignUpForm } from '@client/features/auth';
 
 export function SignUpRoute() {
   const navigate = useNavigate();

@@ -2,7 +2,7 @@ import { useEffect, useRef } from 'react';
 import { Link, useSearchParams } from 'react-router-dom';
 import { Card, PageTitle } from '@client/components/ui/card';
 import { Notice } from '@client/components/ui/notice';
-import { useVerifyEmail } from '@client/features/auth/api/auth-mutations';
+import { useVerifyEmail } from '@client/features/auth';
 
 export function VerifyEmailRoute() {
   const [params] = useSearchParams();

@@ -40,7 +40,7 @@ export function useDraftAutosave<T>(jobId: string, value: T, toDraft: (value: T)
       });
     }, delay);
     return () => clearTimeout(timer);
-    // Only a new value starts a save; `save.mutate` is read when the timer fires.
+    // eslint-disable-next-line react-hooks/exhaustive-deps -- only a new value starts a save; `save.mutate` is read when the timer fires.
   }, [value, delay]);
 
   // Leaving the page within the debounce still keeps the last keystrokes.

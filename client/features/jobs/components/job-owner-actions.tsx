@@ -4,7 +4,7 @@ import { toast } from 'sonner';
 import type { JobDetail } from '@shared/schemas/jobs';
 import { Button } from '@client/components/ui/button';
 import { ConfirmDialog } from '@client/components/ui/modal-dialog';
-import { ConfirmEmailNotice, useNeedsEmailConfirmation } from '@client/features/auth/components/confirm-email-notice';
+import { ConfirmEmailNotice, useNeedsEmailConfirmation } from '@client/features/auth';
 import { useCancelJob, usePublishJob } from '../api/jobs';
 
 const cancelWords: Partial<Record<JobDetail['status'], string>> = {

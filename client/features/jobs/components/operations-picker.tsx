@@ -66,7 +66,7 @@ export function OperationsPicker({ value, onChange, cylinders, error, quantityEr
       onChange(next);
       setTexts((t) => ({ ...t, ...Object.fromEntries(next.map((op) => [op.code, String(op.quantity)])) }));
     }
-    // Only a change of cylinder count should move the quantities.
+    // eslint-disable-next-line react-hooks/exhaustive-deps -- only a change of cylinder count should move the quantities.
   }, [cylinderCount]);
 
   const toggle = (op: Operation, checked: boolean) => {

@@ -13,7 +13,7 @@ import { ConfirmDialog } from '@client/components/ui/modal-dialog';
 import { Notice } from '@client/components/ui/notice';
 import { TextAreaField } from '@client/components/ui/text-area-field';
 import { TextField } from '@client/components/ui/text-field';
-import { ConfirmEmailNotice, useNeedsEmailConfirmation } from '@client/features/auth/components/confirm-email-notice';
+import { ConfirmEmailNotice, useNeedsEmailConfirmation } from '@client/features/auth';
 import { applyServerErrors } from '@client/lib/form-errors';
 import {
   useApproveChangeOrder,

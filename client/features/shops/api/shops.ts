@@ -1,5 +1,5 @@
 import { keepPreviousData, queryOptions, useMutation, useQuery, useQueryClient, type UseMutationOptions } from '@tanstack/react-query';
-import type { OwnShop, PublicShop, ShopDirectoryPage, ShopDirectoryQuery, ShopProfileInput } from '@shared/schemas/shops';
+import type { OwnShop, PublicShop, ShopDirectoryPage, ShopProfileInput } from '@shared/schemas/shops';
 import { ApiError, api } from '@client/lib/api-client';
 import { shopKeys, type DirectoryFilters } from '@client/lib/query-keys';
 import { toSearch } from '@client/lib/search-params';

@@ -1,0 +1,11 @@
+// The auth feature's public face: what routes, the layout and other features may use.
+// Anything not exported here is internal to the feature (eslint.config.js enforces it).
+export { authKeys, authQueries } from './api/auth-keys';
+export { useCompleteGithub, useConfirmPasswordReset, useRequestPasswordReset, useSignOut, useVerifyEmail } from './api/auth-mutations';
+export { useMe } from './api/use-me';
+export { ChangePasswordForm } from './components/change-password-form';
+export { ConfirmEmailNotice, useNeedsEmailConfirmation } from './components/confirm-email-notice';
+export { GithubButton } from './components/github-button';
+export { RolePicker } from './components/role-picker';
+export { SignInForm } from './components/sign-in-form';
+export { SignUpForm } from './components/sign-up-form';

@@ -1,0 +1,6 @@
+// The messages feature's public face: what routes, the layout and other features may use.
+// Anything not exported here is internal to the feature (eslint.config.js enforces it).
+export { useUnreadTotal } from './api/threads';
+export { ConversationList } from './components/conversation-list';
+export { ConversationPanel } from './components/conversation-panel';
+export type { Bidder } from './components/conversation-panel';
