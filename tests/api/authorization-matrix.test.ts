@@ -48,6 +48,7 @@ import type { ShopRow } from '../../server/modules/shops/shops.repository';
 import { bidInput, createJob, createShop, createUser, jobInput, shopProfileInput, uniqueEmail } from '../factories';
 import { completeOnboardingPage } from '../setup/payments';
 import { startMoneyApp } from '../setup/money-app';
+import { agentFor, signedIn, type ApiClient } from '../setup/test-env';
 
 // ---------------------------------------------------------------------------
 // The callers
@@ -71,10 +72,7 @@ const all = (status: number): Statuses => [status, status, status, status, statu
 const adminOnly = (ok: number): Statuses => [401, 403, 403, 403, 403, ok];
 
 type TestUser = User & { password: string };
-interface Client {
-  agent: supertest.Agent;
-  token: string;
-}
+type Client = ApiClient;
 /** Who is asking: the caller (null while building a state shared by all six), their account and their session. */
 interface Turn {
   caller: Caller | null;
@@ -120,21 +118,10 @@ const app = () => m.server.app;
 const db = () => app().paymentDeps.db;
 const bidDeps = () => ({ db: db(), appUrl: app().paymentDeps.appUrl, platformFeeBps: 800 });
 
-async function newClient(): Promise<Client> {
-  // The address, not "localhost": no name lookup on the thread pool the password hashing uses.
-  const agent = supertest.agent(`http://127.0.0.1:${m.server.port}`);
-  const res = await agent.get('/api/auth/csrf');
-  if (res.status !== 200) throw new Error(`no CSRF token: ${res.status}`);
-  return { agent, token: res.body.csrfToken };
-}
-
-async function signIn(user: TestUser): Promise<Client> {
-  const client = await newClient();
-  const res = await client.agent.post('/api/auth/login').set('X-CSRF-Token', client.token).send({ email: user.email, password: user.password });
-  if (res.status !== 200) throw new Error(`sign-in failed for ${user.email}: ${res.status} ${JSON.stringify(res.body)}`);
-  client.token = res.body.csrfToken;
-  return client;
-}
+// The address, not "localhost": no name lookup on the thread pool the password hashing uses.
+const address = () => `http://127.0.0.1:${m.server.port}`;
+const newClient = () => agentFor(address());
+const signIn = (user: TestUser) => signedIn(address(), user);
 
 async function uploadPhoto(client: Client, path: string): Promise<string> {
   const res = await client.agent.post(path).set('X-CSRF-Token', client.token).attach('photos', jpeg, 'photo.jpg');

@@ -32,6 +32,7 @@ import { listRoutes, type ListedRoute } from '../../server/lib/routes-list';
 import { openApiDocument, routeDocs } from '../../server/openapi';
 import { bidInput, createJob, createUser, inDays, jobInput, TEST_PASSWORD } from '../factories';
 import { startMoneyApp } from '../setup/money-app';
+import { agentFor, signedIn } from '../setup/test-env';
 
 const SEED = Number(process.env.BAD_INPUT_SEED ?? 20_260_517);
 const RUNS = Number(process.env.BAD_INPUT_RUNS ?? 18);
@@ -127,21 +128,14 @@ afterAll(async () => {
 
 /** A signed-in session: its cookie and CSRF token, sent by hand so no answer can change them. */
 async function signIn(email: string): Promise<Caller> {
-  const anon = await anonymous();
-  const res = await supertest(base).post('/api/auth/login').set('Cookie', anon.cookie!).set('X-CSRF-Token', anon.token!).send({ email, password: TEST_PASSWORD });
-  expect(res.status).toBe(200);
-  return { cookie: sessionCookie(res.headers['set-cookie']) ?? anon.cookie, token: res.body.csrfToken };
+  const client = await signedIn(base, { email, password: TEST_PASSWORD });
+  return { cookie: client.cookie, token: client.token };
 }
 
 /** A signed-out session with a CSRF token of its own. */
 async function anonymous(): Promise<Caller> {
-  const res = await supertest(base).get('/api/auth/csrf');
-  return { cookie: sessionCookie(res.headers['set-cookie']), token: res.body.csrfToken };
-}
-
-function sessionCookie(header: string[] | string | undefined): string | undefined {
-  const all = Array.isArray(header) ? header : header ? [header] : [];
-  return all.find((c) => c.startsWith('tm.sid='))?.split(';')[0];
+  const client = await agentFor(base);
+  return { cookie: client.cookie, token: client.token };
 }
 
 // ---------------------------------------------------------------------------

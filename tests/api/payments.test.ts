@@ -6,8 +6,7 @@ import { jobs, ledgerEntries, mailOutbox, moneyMoves, paymentEvents, payments as
 import { jobBalance } from '../../server/modules/payments/ledger';
 import { startServer, type RunningServer } from '../../server/runtime';
 import { bidInput, createJob, createShop, createUser } from '../factories';
-import { postForm, readForm } from '../unit/payments-stand-in/helpers';
-import { sendWebhooksTo, startTestStandIn, TEST_WEBHOOK_SECRET } from '../setup/payments';
+import { postForm, readForm, sendWebhooksTo, startTestStandIn, TEST_WEBHOOK_SECRET } from '../setup/payments';
 import { createTestDatabase, signedIn, testConfig } from '../setup/test-env';
 
 type StandIn = Awaited<ReturnType<typeof startTestStandIn>>;

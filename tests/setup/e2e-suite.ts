@@ -3,9 +3,8 @@ import { afterAll, afterEach, beforeAll, expect } from 'vitest';
 import type { JobDetail, JobInput } from '../../shared/schemas/jobs';
 import { DEMO_PASSWORD } from '../../server/dev/seed';
 import { bidInput, jobInput, shopProfileInput } from '../factories';
-import { payOnPage } from '../unit/payments-stand-in/helpers';
 import { launchBrowser, startBrowserApp } from './browser';
-import { completeOnboardingPage } from './payments';
+import { completeOnboardingPage, payOnPage } from './payments';
 
 export type Api = <T>(method: 'GET' | 'POST' | 'PUT', path: string, data?: unknown) => Promise<T>;
 
