@@ -30,7 +30,8 @@ import { loadConfig } from '../../server/env';
 import { createLogger } from '../../server/lib/logger';
 import { listRoutes, type ListedRoute } from '../../server/lib/routes-list';
 import { openApiDocument, routeDocs } from '../../server/openapi';
-import { bidInput, createJob, createUser, inDays, jobInput, TEST_PASSWORD } from '../factories';
+import { createUser, inDays, jobInput, TEST_PASSWORD } from '../factories';
+import { apiOf, jobInState } from '../setup/job-states';
 import { startMoneyApp } from '../setup/money-app';
 import { agentFor, signedIn } from '../setup/test-env';
 
@@ -74,7 +75,7 @@ beforeAll(async () => {
   bombPng.writeUInt32BE(crc32(bombPng.subarray(12, 29)), 29);
 
   // A funded job in work (the shop logged the block's arrival), plus a draft, an open and an awarded job of the same builder.
-  const funded = await money.fundedJob();
+  const funded = await money.jobIn('inWork');
   const { builderUser, shopUser, builder, shop } = funded;
   const admin = await createUser(money.db, { role: 'admin' });
   const victim = await createUser(money.db, { role: 'builder' });
@@ -83,14 +84,10 @@ beforeAll(async () => {
   callers.admin = await signIn(admin.email);
 
   const [shopRow] = await money.db.select().from(shops).where(eq(shops.userId, shopUser.id));
-  const draft = await createJob(money.db, builderUser.id, { status: 'draft' });
-  const open = await createJob(money.db, builderUser.id);
-  const awarded = await createJob(money.db, builderUser.id);
-  const openBid = await shop.post(`/api/jobs/${open.id}/bids`, bidInput());
-  const awardedBid = await shop.post(`/api/jobs/${awarded.id}/bids`, bidInput());
-  expect(openBid.status).toBe(201);
-  expect((await builder.post(`/api/bids/${awardedBid.body.bid.id}/accept`)).status).toBe(200);
-  expect((await shop.post(`/api/jobs/${funded.job.id}/milestones`, { kind: 'block_received' })).status).toBe(201);
+  const people = { builder: apiOf(builder), shop: apiOf(shop) };
+  const { job: draft } = await jobInState('draft', people);
+  const { job: open, bid: openBid } = await jobInState('bid', people);
+  const { job: awarded, bid: awardedBid } = await jobInState('awarded', people);
   const thread = await builder.post(`/api/jobs/${funded.job.id}/threads`, { shopId: shopRow.id });
   expect(thread.status).toBe(201);
   const threadId: string = thread.body.thread.id;
@@ -106,7 +103,7 @@ beforeAll(async () => {
 
   Object.assign(realIds, {
     jobId: [funded.job.id, draft.id, open.id, awarded.id],
-    bidId: [openBid.body.bid.id, awardedBid.body.bid.id],
+    bidId: [openBid!.id, awardedBid!.id],
     shopId: [shopRow.id],
     threadId: [threadId],
     photoId: [jobPhoto.body.photos[0].id, threadPhoto.body.photos[0].id, milestonePhoto.body.photos[0].id],

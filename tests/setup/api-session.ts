@@ -39,6 +39,12 @@ export async function agentFor(target: App | string) {
     put(path: string, body: object = {}) {
       return agent.put(path).set('X-CSRF-Token', token).send(body);
     },
+    /** Sends files as multipart field `field` (e.g. photos), with the current token. */
+    upload(path: string, field: string, files: Array<{ buffer: Buffer; name: string; mimeType?: string }>) {
+      let req = agent.post(path).set('X-CSRF-Token', token);
+      for (const file of files) req = req.attach(field, file.buffer, { filename: file.name, contentType: file.mimeType });
+      return req;
+    },
     get(path: string) {
       return agent.get(path);
     },
