@@ -30,7 +30,6 @@ import { join } from 'node:path';
 import sharp from 'sharp';
 import supertest from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { InspectionInput } from '../../shared/schemas/inspection';
 import { milestoneInputSchema } from '../../shared/schemas/inspection';
 import { bids, changeOrders, jobs, payments, shops, users as usersTable, type User } from '../../server/db/schema';
 import { inspectionRecords } from '../../server/db/schema-work';
@@ -45,7 +44,7 @@ import { logMilestone } from '../../server/modules/milestones/milestones.service
 import { appendLedger } from '../../server/modules/payments/ledger';
 import { startJobCheckout, startPayoutOnboarding } from '../../server/modules/payments/payments.service';
 import type { ShopRow } from '../../server/modules/shops/shops.repository';
-import { bidInput, createJob, createShop, createUser, jobInput, shopProfileInput, uniqueEmail } from '../factories';
+import { bidInput, createJob, createShop, createUser, jobInput, shopProfileInput, uniformRecordInput, uniqueEmail } from '../factories';
 import { completeOnboardingPage } from '../setup/payments';
 import { startMoneyApp } from '../setup/money-app';
 import { agentFor, signedIn, type ApiClient } from '../setup/test-env';
@@ -130,22 +129,7 @@ async function uploadPhoto(client: Client, path: string): Promise<string> {
 }
 
 /** Eight cylinders honed to 4.0310 in, within the factory job's limits. */
-function record(): InspectionInput {
-  return {
-    conditions: { unit: 'in', gaugeResolution: 0.0001, temperatureC: 21, torquePlate: true },
-    cylinders: Array.from({ length: 8 }, () => ({
-      top: { thrust: 4.0311, axial: 4.0311 },
-      middle: { thrust: 4.031, axial: 4.0311 },
-      bottom: { thrust: 4.031, axial: 4.031 },
-      piston: 4.028,
-    })),
-    deck: { readings: [0.001, 0.0015, 0.001, 0.002], raUm: 0.9 },
-    finish: { mode: 'values', raUm: 0.45, rkUm: 0.6, rpkUm: 0.15, rvkUm: 1.2 },
-    crosshatch: { mode: 'measured', includedAngleDeg: 45 },
-    signedOffBy: 'Ada Quernfield',
-    notes: '',
-  };
-}
+const record = uniformRecordInput;
 
 const statement = 'Cylinder four measures well over the taper limit on my own gauge.';
 const shopStatement = 'The builder has not answered the change order for the cracked cylinder.';
