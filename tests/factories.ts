@@ -165,3 +165,21 @@ export function inspectionRecordInput(overrides: Partial<InspectionInput> = {}, 
     ...overrides,
   };
 }
+
+/** Eight cylinders honed alike to 4.0310 in with 4.0280 in pistons (demo numbers), within the factory job's limits. */
+export function uniformRecordInput(): InspectionInput {
+  return {
+    conditions: { unit: 'in', gaugeResolution: 0.0001, temperatureC: 21, torquePlate: true },
+    cylinders: Array.from({ length: 8 }, () => ({
+      top: { thrust: 4.0311, axial: 4.0311 },
+      middle: { thrust: 4.031, axial: 4.0311 },
+      bottom: { thrust: 4.031, axial: 4.031 },
+      piston: 4.028,
+    })),
+    deck: { readings: [0.001, 0.0015, 0.001, 0.002], raUm: 0.9 },
+    finish: { mode: 'values', raUm: 0.45, rkUm: 0.6, rpkUm: 0.15, rvkUm: 1.2 },
+    crosshatch: { mode: 'measured', includedAngleDeg: 45 },
+    signedOffBy: 'Ada Quernfield',
+    notes: '',
+  };
+}

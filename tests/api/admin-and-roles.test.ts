@@ -2,8 +2,8 @@ import { and, eq } from 'drizzle-orm';
 import supertest from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { mailOutbox } from '../../server/db/schema';
-import { createUser, TEST_PASSWORD, uniqueEmail } from '../factories';
-import { agentFor, setupTestApp, type TestContext } from '../setup/test-env';
+import { createUser, uniqueEmail } from '../factories';
+import { agentFor, setupTestApp, signedIn, type TestContext } from '../setup/test-env';
 
 let ctx: TestContext;
 beforeAll(async () => {
@@ -13,12 +13,9 @@ afterAll(async () => {
   await ctx?.close();
 });
 
-async function signedIn(role: 'builder' | 'shop' | 'admin') {
+async function signedInAs(role: 'builder' | 'shop' | 'admin') {
   const user = await createUser(ctx.db, { role });
-  const client = await agentFor(ctx.app);
-  const res = await client.post('/api/auth/login', { email: user.email, password: TEST_PASSWORD });
-  expect(res.status).toBe(200);
-  return { user, client };
+  return { user, client: await signedIn(ctx.app, user) };
 }
 
 describe('role guard on the admin routes', () => {
@@ -29,7 +26,7 @@ describe('role guard on the admin routes', () => {
   });
 
   it.each(['builder', 'shop'] as const)('when a %s asks, then 403 and nothing is created', async (role) => {
-    const { client } = await signedIn(role);
+    const { client } = await signedInAs(role);
     expect((await client.get('/api/admin/users')).status).toBe(403);
     const email = uniqueEmail('would-be-admin');
     const res = await client.post('/api/admin/admins', { displayName: 'Would Be', email });
@@ -39,7 +36,7 @@ describe('role guard on the admin routes', () => {
   });
 
   it('when an admin makes another admin, then the new admin gets a link to choose a password and can then sign in', async () => {
-    const { client } = await signedIn('admin');
+    const { client } = await signedInAs('admin');
     const email = uniqueEmail('new-admin');
     const res = await client.post('/api/admin/admins', { displayName: 'Nell Sparrowgate', email });
     expect(res.status).toBe(201);
@@ -59,7 +56,7 @@ describe('role guard on the admin routes', () => {
   });
 
   it('when an admin searches users, then matches come back with a total, and bad paging is a 400', async () => {
-    const { client } = await signedIn('admin');
+    const { client } = await signedInAs('admin');
     const shop = await createUser(ctx.db, { role: 'shop', displayName: 'Quillon Gauge Room' });
     const res = await client.get('/api/admin/users?q=quillon&role=shop');
     expect(res.status).toBe(200);
@@ -73,7 +70,7 @@ describe('role guard on the admin routes', () => {
   });
 
   it('when a user is suspended while signed in, then their next request is treated as signed out', async () => {
-    const { user, client } = await signedIn('builder');
+    const { user, client } = await signedInAs('builder');
     await client.get('/api/auth/me').expect(200);
     const { users } = await import('../../server/db/schema');
     await ctx.db.update(users).set({ status: 'suspended' }).where(eq(users.id, user.id));

@@ -30,7 +30,6 @@ import { join } from 'node:path';
 import sharp from 'sharp';
 import supertest from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { InspectionInput } from '../../shared/schemas/inspection';
 import { milestoneInputSchema } from '../../shared/schemas/inspection';
 import { bids, changeOrders, inspectionRecords, jobs, payments, shops, users as usersTable, type User } from '../../server/db/schema';
 import { submitHostedPage } from '../../server/dev/payments-stand-in/page-client';
@@ -46,9 +45,10 @@ import { logMilestone } from '../../server/modules/milestones/milestones.service
 import { appendLedger } from '../../server/modules/payments/ledger';
 import { startJobCheckout, startPayoutOnboarding } from '../../server/modules/payments/payments.service';
 import type { ShopRow } from '../../server/modules/shops/shops.repository';
-import { bidInput, createJob, createShop, createUser, jobInput, shopProfileInput, uniqueEmail } from '../factories';
+import { bidInput, createJob, createShop, createUser, jobInput, shopProfileInput, uniformRecordInput, uniqueEmail } from '../factories';
 import { completeOnboardingPage } from '../setup/payments';
 import { startMoneyApp } from '../setup/money-app';
+import { agentFor, signedIn, type ApiClient } from '../setup/test-env';
 
 // ---------------------------------------------------------------------------
 // The callers
@@ -72,10 +72,7 @@ const all = (status: number): Statuses => [status, status, status, status, statu
 const adminOnly = (ok: number): Statuses => [401, 403, 403, 403, 403, ok];
 
 type TestUser = User & { password: string };
-interface Client {
-  agent: supertest.Agent;
-  token: string;
-}
+type Client = ApiClient;
 /** Who is asking: the caller (null while building a state shared by all six), their account and their session. */
 interface Turn {
   caller: Caller | null;
@@ -121,21 +118,10 @@ const app = () => m.server.app;
 const db = () => app().paymentDeps.db;
 const bidDeps = () => ({ db: db(), appUrl: app().paymentDeps.appUrl, platformFeeBps: 800 });
 
-async function newClient(): Promise<Client> {
-  // The address, not "localhost": no name lookup on the thread pool the password hashing uses.
-  const agent = supertest.agent(`http://127.0.0.1:${m.server.port}`);
-  const res = await agent.get('/api/auth/csrf');
-  if (res.status !== 200) throw new Error(`no CSRF token: ${res.status}`);
-  return { agent, token: res.body.csrfToken };
-}
-
-async function signIn(user: TestUser): Promise<Client> {
-  const client = await newClient();
-  const res = await client.agent.post('/api/auth/login').set('X-CSRF-Token', client.token).send({ email: user.email, password: user.password });
-  if (res.status !== 200) throw new Error(`sign-in failed for ${user.email}: ${res.status} ${JSON.stringify(res.body)}`);
-  client.token = res.body.csrfToken;
-  return client;
-}
+// The address, not "localhost": no name lookup on the thread pool the password hashing uses.
+const address = () => `http://127.0.0.1:${m.server.port}`;
+const newClient = () => agentFor(address());
+const signIn = (user: TestUser) => signedIn(address(), user);
 
 async function uploadPhoto(client: Client, path: string): Promise<string> {
   const res = await client.agent.post(path).set('X-CSRF-Token', client.token).attach('photos', jpeg, 'photo.jpg');
@@ -144,22 +130,7 @@ async function uploadPhoto(client: Client, path: string): Promise<string> {
 }
 
 /** Eight cylinders honed to 4.0310 in, within the factory job's limits. */
-function record(): InspectionInput {
-  return {
-    conditions: { unit: 'in', gaugeResolution: 0.0001, temperatureC: 21, torquePlate: true },
-    cylinders: Array.from({ length: 8 }, () => ({
-      top: { thrust: 4.0311, axial: 4.0311 },
-      middle: { thrust: 4.031, axial: 4.0311 },
-      bottom: { thrust: 4.031, axial: 4.031 },
-      piston: 4.028,
-    })),
-    deck: { readings: [0.001, 0.0015, 0.001, 0.002], raUm: 0.9 },
-    finish: { mode: 'values', raUm: 0.45, rkUm: 0.6, rpkUm: 0.15, rvkUm: 1.2 },
-    crosshatch: { mode: 'measured', includedAngleDeg: 45 },
-    signedOffBy: 'Ada Quernfield',
-    notes: '',
-  };
-}
+const record = uniformRecordInput;
 
 const statement = 'Cylinder four measures well over the taper limit on my own gauge.';
 const shopStatement = 'The builder has not answered the change order for the cracked cylinder.';

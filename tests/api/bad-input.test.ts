@@ -31,8 +31,10 @@ import { createLogger } from '../../server/lib/logger';
 import { listRoutes, type ListedRoute } from '../../server/lib/routes-list';
 import { apiRoutes } from '../../server/api-routes';
 import { openApiDocument, routeDocs } from '../../server/openapi';
-import { bidInput, createJob, createUser, inDays, jobInput, TEST_PASSWORD } from '../factories';
+import { createUser, inDays, jobInput, TEST_PASSWORD } from '../factories';
+import { apiOf, jobInState } from '../setup/job-states';
 import { startMoneyApp } from '../setup/money-app';
+import { agentFor, signedIn } from '../setup/test-env';
 
 const SEED = Number(process.env.BAD_INPUT_SEED ?? 20_260_517);
 const RUNS = Number(process.env.BAD_INPUT_RUNS ?? 18);
@@ -74,7 +76,7 @@ beforeAll(async () => {
   bombPng.writeUInt32BE(crc32(bombPng.subarray(12, 29)), 29);
 
   // A funded job in work (the shop logged the block's arrival), plus a draft, an open and an awarded job of the same builder.
-  const funded = await money.fundedJob();
+  const funded = await money.jobIn('inWork');
   const { builderUser, shopUser, builder, shop } = funded;
   const admin = await createUser(money.db, { role: 'admin' });
   const victim = await createUser(money.db, { role: 'builder' });
@@ -83,14 +85,10 @@ beforeAll(async () => {
   callers.admin = await signIn(admin.email);
 
   const [shopRow] = await money.db.select().from(shops).where(eq(shops.userId, shopUser.id));
-  const draft = await createJob(money.db, builderUser.id, { status: 'draft' });
-  const open = await createJob(money.db, builderUser.id);
-  const awarded = await createJob(money.db, builderUser.id);
-  const openBid = await shop.post(`/api/jobs/${open.id}/bids`, bidInput());
-  const awardedBid = await shop.post(`/api/jobs/${awarded.id}/bids`, bidInput());
-  expect(openBid.status).toBe(201);
-  expect((await builder.post(`/api/bids/${awardedBid.body.bid.id}/accept`)).status).toBe(200);
-  expect((await shop.post(`/api/jobs/${funded.job.id}/milestones`, { kind: 'block_received' })).status).toBe(201);
+  const people = { builder: apiOf(builder), shop: apiOf(shop) };
+  const { job: draft } = await jobInState('draft', people);
+  const { job: open, bid: openBid } = await jobInState('bid', people);
+  const { job: awarded, bid: awardedBid } = await jobInState('awarded', people);
   const thread = await builder.post(`/api/jobs/${funded.job.id}/threads`, { shopId: shopRow.id });
   expect(thread.status).toBe(201);
   const threadId: string = thread.body.thread.id;
@@ -106,7 +104,7 @@ beforeAll(async () => {
 
   Object.assign(realIds, {
     jobId: [funded.job.id, draft.id, open.id, awarded.id],
-    bidId: [openBid.body.bid.id, awardedBid.body.bid.id],
+    bidId: [openBid!.id, awardedBid!.id],
     shopId: [shopRow.id],
     threadId: [threadId],
     photoId: [jobPhoto.body.photos[0].id, threadPhoto.body.photos[0].id, milestonePhoto.body.photos[0].id],
@@ -128,21 +126,14 @@ afterAll(async () => {
 
 /** A signed-in session: its cookie and CSRF token, sent by hand so no answer can change them. */
 async function signIn(email: string): Promise<Caller> {
-  const anon = await anonymous();
-  const res = await supertest(base).post('/api/auth/login').set('Cookie', anon.cookie!).set('X-CSRF-Token', anon.token!).send({ email, password: TEST_PASSWORD });
-  expect(res.status).toBe(200);
-  return { cookie: sessionCookie(res.headers['set-cookie']) ?? anon.cookie, token: res.body.csrfToken };
+  const client = await signedIn(base, { email, password: TEST_PASSWORD });
+  return { cookie: client.cookie, token: client.token };
 }
 
 /** A signed-out session with a CSRF token of its own. */
 async function anonymous(): Promise<Caller> {
-  const res = await supertest(base).get('/api/auth/csrf');
-  return { cookie: sessionCookie(res.headers['set-cookie']), token: res.body.csrfToken };
-}
-
-function sessionCookie(header: string[] | string | undefined): string | undefined {
-  const all = Array.isArray(header) ? header : header ? [header] : [];
-  return all.find((c) => c.startsWith('tm.sid='))?.split(';')[0];
+  const client = await agentFor(base);
+  return { cookie: client.cookie, token: client.token };
 }
 
 // ---------------------------------------------------------------------------

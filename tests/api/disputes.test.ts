@@ -1,7 +1,6 @@
 import { parse } from 'csv-parse/sync';
 import { and, eq, sql } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { InspectionInput } from '../../shared/schemas/inspection';
 import { adminActions, changeOrders, jobs, ledgerEntries, mailOutbox, moneyMoves, sessions, shops } from '../../server/db/schema';
 import { jobBalance } from '../../server/modules/payments/ledger';
 import { createUser, jobInput, TEST_PASSWORD } from '../factories';
@@ -20,26 +19,8 @@ afterAll(async () => {
   await m?.close();
 });
 
-/** Eight cylinders honed to 4.0310 in with small, invented variations (demo numbers). */
-function record(): InspectionInput {
-  return {
-    conditions: { unit: 'in', gaugeResolution: 0.0001, temperatureC: 21, torquePlate: true },
-    cylinders: Array.from({ length: 8 }, () => ({ top: { thrust: 4.0311, axial: 4.0311 }, middle: { thrust: 4.031, axial: 4.0311 }, bottom: { thrust: 4.031, axial: 4.031 }, piston: 4.028 })),
-    deck: { readings: [0.001, 0.0015, 0.001, 0.002], raUm: 0.9 },
-    finish: { mode: 'values', raUm: 0.45, rkUm: 0.6, rpkUm: 0.15, rvkUm: 1.2 },
-    crosshatch: { mode: 'measured', includedAngleDeg: 45 },
-    signedOffBy: 'Ada Quernfield',
-    notes: '',
-  };
-}
-
 /** A funded job whose shop has submitted an inspection record that waits for the builder. */
-async function recordWaiting(totalCents = 80_000) {
-  const funded = await m.fundedJob({ totalCents });
-  expect((await funded.shop.post(`/api/jobs/${funded.job.id}/milestones`, { kind: 'block_received' })).status).toBe(201);
-  expect((await funded.shop.post(`/api/jobs/${funded.job.id}/inspection`, record())).status).toBe(201);
-  return funded;
-}
+const recordWaiting = (totalCents = 80_000) => m.jobIn('submitted', { totalCents });
 
 const statement = 'Cylinder four measures well over the taper limit on my own gauge.';
 const decision = 'Both sides agree the work was done; the taper on one bore needs a second pass, so part is refunded.';

@@ -28,12 +28,7 @@ const spec = jobInput({ maxTaper: 0.0005, maxOutOfRound: 0.0005, crosshatchMinDe
 
 const pdfText = certificateText;
 
-async function inWork(input = spec) {
-  const funded = await m.fundedJob({ input });
-  const received = await funded.shop.post(`/api/jobs/${funded.job.id}/milestones`, { kind: 'block_received', note: 'Arrived on a pallet, plugs in.' });
-  expect(received.status).toBe(201);
-  return funded;
-}
+const inWork = (input = spec) => m.jobIn('inWork', { input, receivedNote: 'Arrived on a pallet, plugs in.' });
 
 describe('the review window and a record that does not conform', () => {
   it('when the window ends on a record with a failing check, then it is not accepted: it waits for the builder and the builder, the shop and every admin get a mail', async () => {
@@ -77,8 +72,7 @@ describe('the review window and a record that does not conform', () => {
       [[0.001, 0], false],
       [[0, 0, 0], true],
     ] as const) {
-      const funded = await m.fundedJob({ input: { ...spec, deckFlatnessMax: 0 } });
-      await funded.shop.post(`/api/jobs/${funded.job.id}/milestones`, { kind: 'block_received', note: 'Arrived on a pallet.' });
+      const funded = await m.jobIn('inWork', { input: { ...spec, deckFlatnessMax: 0 }, receivedNote: 'Arrived on a pallet.' });
       const res = await funded.shop.post(`/api/jobs/${funded.job.id}/inspection`, record({ deck: { readings: [...readings] } }));
       expect(res.status).toBe(201);
       expect(res.body.version.results.deck).toMatchObject({ limit: 0, limitSource: 'shop', pass });
@@ -119,8 +113,7 @@ describe('the certificate', () => {
 
   it('when the job gave no limits, then the certificate says nothing was judged (not PASS), and a decided record’s status is in words', async () => {
     const noLimits = jobInput({ targetBore: undefined, pistonDiameter: undefined, clearanceMin: undefined, clearanceMax: undefined, maxTaper: undefined, maxOutOfRound: undefined, crosshatchMinDeg: undefined, crosshatchMaxDeg: undefined });
-    const funded = await m.fundedJob({ input: noLimits });
-    await funded.shop.post(`/api/jobs/${funded.job.id}/milestones`, { kind: 'block_received', note: 'Arrived on a pallet.' });
+    const funded = await m.jobIn('inWork', { input: noLimits, straightIntoDatabase: true, receivedNote: 'Arrived on a pallet.' });
     const input = record({ deck: undefined, finish: undefined });
     input.cylinders = input.cylinders.map(({ piston: _piston, ...c }) => c);
     expect((await funded.shop.post(`/api/jobs/${funded.job.id}/inspection`, input)).status).toBe(201);

@@ -32,11 +32,7 @@ const record = (cylinders: InspectionInput['cylinders'], conditions: Partial<Ins
 /** The job of issue 15: 4.028 in pistons, 0.0025–0.0035 in clearance, no target bore and no size tolerance. */
 const issueJob: Partial<JobInput> = { targetBore: undefined, pistonDiameter: 4.028, clearanceMin: 0.0025, clearanceMax: 0.0035, crosshatchMinDeg: undefined, crosshatchMaxDeg: undefined };
 
-async function inWork(input: Partial<JobInput>) {
-  const funded = await m.fundedJob({ input: jobInput(input) });
-  expect((await funded.shop.post(`/api/jobs/${funded.job.id}/milestones`, { kind: 'block_received', note: 'On a pallet.' })).status).toBe(201);
-  return funded;
-}
+const inWork = (input: Partial<JobInput>) => m.jobIn('inWork', { input: jobInput(input), receivedNote: 'On a pallet.' });
 
 describe('stored inspection verdicts', () => {
   it('when bores 0.0093 in over the piston size come with no piston sizes, then the stored record fails size and clearance, judged with the job’s piston', async () => {

@@ -24,12 +24,7 @@ const record = (overrides: Partial<InspectionInput> = {}, badTaperOn?: number) =
 
 const spec = jobInput({ maxTaper: 0.0005, maxOutOfRound: 0.0005, crosshatchMinDeg: 40, crosshatchMaxDeg: 50, finishRaMaxUm: 0.6 });
 
-async function inWork() {
-  const funded = await m.fundedJob({ input: spec });
-  const received = await funded.shop.post(`/api/jobs/${funded.job.id}/milestones`, { kind: 'block_received', note: 'Arrived on a pallet, plugs in.' });
-  expect(received.status).toBe(201);
-  return funded;
-}
+const inWork = () => m.jobIn('inWork', { input: spec, receivedNote: 'Arrived on a pallet, plugs in.' });
 
 describe('milestones', () => {
   it('when the shop logs the block received, then the job is in work and both sides see the timeline; others cannot log', async () => {

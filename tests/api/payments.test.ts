@@ -6,8 +6,8 @@ import { adminActions, jobs, ledgerEntries, mailOutbox, moneyMoves, paymentEvent
 import { jobBalance } from '../../server/modules/payments/ledger';
 import { startServer, type RunningServer } from '../../server/runtime';
 import { bidInput, createJob, createShop, createUser } from '../factories';
-import { postForm, readForm } from '../unit/payments-stand-in/helpers';
-import { sendWebhooksTo, startTestStandIn, TEST_WEBHOOK_SECRET } from '../setup/payments';
+import { until } from '../setup/job-states';
+import { postForm, readForm, sendWebhooksTo, startTestStandIn, TEST_WEBHOOK_SECRET } from '../setup/payments';
 import { createTestDatabase, signedIn, testConfig } from '../setup/test-env';
 
 type StandIn = Awaited<ReturnType<typeof startTestStandIn>>;
@@ -82,16 +82,6 @@ async function payWith(builder: Awaited<ReturnType<typeof signedIn>>, jobId: str
   const page = await fetch(checkout.body.url);
   const form = readForm(await page.text());
   return postForm(new URL(form.action, checkout.body.url).toString(), { ...form.fields, card_number: card });
-}
-
-async function until<T>(what: string, check: () => Promise<T | undefined | false>, timeoutMs = 8_000): Promise<T> {
-  const deadline = Date.now() + timeoutMs;
-  for (;;) {
-    const value = await check();
-    if (value) return value;
-    if (Date.now() > deadline) throw new Error(`timed out waiting for ${what}`);
-    await new Promise((r) => setTimeout(r, 50));
-  }
 }
 
 const jobStatus = async (id: string) => (await db.select({ status: jobs.status }).from(jobs).where(eq(jobs.id, id)))[0].status;

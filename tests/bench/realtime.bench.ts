@@ -16,6 +16,7 @@ import { loadConfig } from '../../server/env';
 import { hashPassword } from '../../server/lib/auth/passwords';
 import { startServer, type RunningServer } from '../../server/runtime';
 import { freePort } from '../setup/ports';
+import { signedIn } from '../setup/api-session';
 
 const THREADS = Number(process.env.BENCH_THREADS ?? 20);
 const LISTENERS_PER_THREAD = Number(process.env.BENCH_LISTENERS ?? 15);
@@ -71,17 +72,7 @@ try {
   async function cookieFor(email: string): Promise<string> {
     const known = cookies.get(email);
     if (known) return known;
-    const base = servers[0].url;
-    const first = await fetch(`${base}/api/auth/csrf`);
-    const anon = first.headers.get('set-cookie')!.split(';')[0];
-    const { csrfToken } = (await first.json()) as { csrfToken: string };
-    const login = await fetch(`${base}/api/auth/login`, {
-      method: 'POST',
-      headers: { 'Content-Type': 'application/json', Cookie: anon, 'X-CSRF-Token': csrfToken },
-      body: JSON.stringify({ email, password: PASSWORD }),
-    });
-    if (login.status !== 200) throw new Error(`sign-in for ${email} answered ${login.status}`);
-    const cookie = login.headers.get('set-cookie')!.split(';')[0];
+    const cookie = (await signedIn(servers[0].url, { email, password: PASSWORD })).cookie!;
     cookies.set(email, cookie);
     return cookie;
   }

@@ -1,24 +1,22 @@
 import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { request, type APIRequestContext, type Browser, type BrowserContext, type Locator, type Page } from 'playwright-core';
+import type { Locator, Page } from 'playwright-core';
 import sharp from 'sharp';
-import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, it } from 'vitest';
+import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import { CC_PER_CUBIC_INCH } from '../../shared/calc';
 import type { JobDetail, JobInput } from '../../shared/schemas/jobs';
-import { DEMO_PASSWORD, demoAccounts } from '../../server/dev/seed';
-import { bidInput, inDays, jobInput, shopProfileInput, uniqueEmail } from '../factories';
-import { confirmationLink } from '../setup/mail-links';
+import { demoAccounts } from '../../server/dev/seed';
+import { bidInput, inDays, shopProfileInput, uniqueEmail } from '../factories';
 import { completeOnboardingPage } from '../setup/payments';
-import { artifactsDir, launchBrowser, startBrowserApp } from '../setup/browser';
+import { artifactsDir } from '../setup/browser';
+import { browserSuite } from '../setup/e2e-suite';
+import { jobInState } from '../setup/job-states';
 
-let browser: Browser;
-let app: Awaited<ReturnType<typeof startBrowserApp>>;
-let context: BrowserContext;
+const suite = browserSuite();
+const { url, consoleErrors } = suite;
 let page: Page;
 let photoDir: string;
-const consoleErrors: string[] = [];
-const apiSessions: APIRequestContext[] = [];
 
 const builder = demoAccounts.find((a) => a.email === 'juno@builders.test')!;
 const otherBuilder = demoAccounts.find((a) => a.email === 'teodor@builders.test')!;
@@ -33,70 +31,31 @@ async function makeDeckPhoto(path: string, shade: string) {
 }
 
 beforeAll(async () => {
-  [browser, app] = await Promise.all([launchBrowser(), startBrowserApp()]);
   photoDir = mkdtempSync(join(tmpdir(), 'tenthmark-e2e-photos-'));
   await Promise.all([makeDeckPhoto(join(photoDir, 'deck-left.jpg'), '#9aa0a6'), makeDeckPhoto(join(photoDir, 'deck-right.jpg'), '#b5b0a4')]);
 });
-afterAll(async () => {
-  await Promise.all(apiSessions.map((session) => session.dispose()));
-  await browser?.close();
-  await app?.close();
+afterAll(() => {
   if (photoDir) rmSync(photoDir, { recursive: true, force: true });
 });
 beforeEach(async () => {
-  context = await browser.newContext({ viewport: { width: 768, height: 1024 } }); // a shop-floor tablet
-  context.setDefaultTimeout(10_000);
-  page = await context.newPage();
+  page = await suite.newPage({ width: 768, height: 1024 }); // a shop-floor tablet
   consoleErrors.length = 0;
-  page.on('console', (msg) => {
-    // A 401 from /api/auth/me is how a signed-out visitor is recognised; the payment page (not ours) answers a decline with 402.
-    if (msg.location().url.startsWith(app.payments.url)) return;
-    if (msg.type() === 'error' && !/401/.test(msg.text())) consoleErrors.push(msg.text());
-  });
-  page.on('pageerror', (err) => consoleErrors.push(err.message));
-});
-afterEach(async () => {
-  await context?.close();
 });
 
-const url = (path: string) => `${app.server.url}${path}`;
 /** The number in a figure such as "5,733 cc". */
 const numberIn = async (locator: Locator) => Number(/-?[\d,]+(?:\.\d+)?/.exec((await locator.textContent()) ?? '')![0].replace(/,/g, ''));
 
-async function signIn(email: string, returnTo: string) {
-  await page.goto(url(`/signin?returnTo=${encodeURIComponent(returnTo)}`));
-  await page.getByLabel('E-mail').fill(email);
-  await page.getByLabel('Password').fill(DEMO_PASSWORD);
-  await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.waitForURL(url(returnTo));
-}
+const signIn = (email: string, returnTo: string) => suite.signIn(page, email, returnTo);
 
 /**
  * A signed-in API session outside the browser, for the other side of the
  * marketplace (shops bidding) and for setting up jobs; it sends the CSRF token.
  */
 async function apiAs(account: { email: string; password?: string } | { signUp: { displayName: string; email: string; role: 'shop' | 'builder' } }) {
-  const session = await request.newContext({ baseURL: app.server.url });
-  apiSessions.push(session);
-  let token: string = (await (await session.get('/api/auth/csrf')).json()).csrfToken;
-  const res =
-    'signUp' in account
-      ? await session.post('/api/auth/signup', { data: { ...account.signUp, password: 'a long enough test password' }, headers: { 'X-CSRF-Token': token } })
-      : await session.post('/api/auth/login', { data: { email: account.email, password: account.password ?? DEMO_PASSWORD }, headers: { 'X-CSRF-Token': token } });
-  if (!res.ok()) throw new Error(`could not sign in: ${res.status()} ${await res.text()}`);
-  token = (await res.json()).csrfToken;
-  if ('signUp' in account) {
-    // Bidding needs a confirmed address: follow the link from the real sign-up mail.
-    const confirmed = await session.post('/api/auth/verify-email', { data: { token: (await confirmationLink(account.signUp.email)).token }, headers: { 'X-CSRF-Token': token } });
-    if (!confirmed.ok()) throw new Error(`could not confirm the e-mail address: ${confirmed.status()} ${await confirmed.text()}`);
-  }
-  const send = async (method: 'GET' | 'POST' | 'PUT', path: string, data: unknown = {}, multipart?: Record<string, { name: string; mimeType: string; buffer: Buffer }>) => {
-    const body = method === 'GET' ? {} : multipart ? { multipart } : { data };
-    const answer = await session.fetch(path, { method, ...body, headers: { 'X-CSRF-Token': token } });
-    if (!answer.ok()) throw new Error(`${method} ${path} answered ${answer.status()}: ${await answer.text()}`);
-    return answer.json();
-  };
-  return { send };
+  const api = await suite.apiAs('signUp' in account ? account : { email: account.email, password: account.password });
+  // eslint-disable-next-line @typescript-eslint/no-explicit-any
+  const send = (method: 'GET' | 'POST' | 'PUT', path: string, data: unknown = {}) => api<any>(method, path, data);
+  return { send, api };
 }
 
 /** A shop with a profile places a bid on the job, through the API. */
@@ -108,8 +67,8 @@ async function shopBids(shop: Awaited<ReturnType<typeof apiAs>>, jobId: string, 
 /** A job of the demo builder's, made through the API, optionally published. */
 async function builderJob(input: Partial<JobInput>, publish: boolean, photo?: string): Promise<JobDetail> {
   const juno = await apiAs(builder);
-  const { job } = (await juno.send('POST', '/api/jobs', jobInput(input))) as { job: JobDetail };
-  if (photo) await juno.send('POST', `/api/jobs/${job.id}/photos`, undefined, { photos: { name: 'deck.jpg', mimeType: 'image/jpeg', buffer: readFileSync(photo) } });
+  const { job } = await jobInState('draft', { builder: juno.api }, { input });
+  if (photo) await juno.api.upload(`/api/jobs/${job.id}/photos`, 'photos', [{ name: 'deck.jpg', mimeType: 'image/jpeg', buffer: readFileSync(photo) }]);
   if (publish) await juno.send('POST', `/api/jobs/${job.id}/publish`);
   return job;
 }
@@ -252,15 +211,11 @@ describe('a builder posting a job and choosing a shop, in a real browser', () =>
     const { url: onboarding } = await lantern.send('POST', '/api/shop-profile/payouts');
     await completeOnboardingPage(onboarding);
     await expect.poll(async () => (await lantern.send('GET', '/api/shop-profile')).shop.payouts, { timeout: 8_000 }).toBe('ready');
-    const shopContext = await browser.newContext({ viewport: { width: 1280, height: 900 } });
+    const shopContext = await suite.browser.newContext({ viewport: { width: 1280, height: 900 } });
     shopContext.setDefaultTimeout(10_000);
     const shopPage = await shopContext.newPage();
     try {
-      await shopPage.goto(url('/signin?returnTo=%2Fboard'));
-      await shopPage.getByLabel('E-mail').fill(lanternHill.email);
-      await shopPage.getByLabel('Password').fill(DEMO_PASSWORD);
-      await shopPage.getByRole('button', { name: 'Sign in' }).click();
-      await shopPage.waitForURL(url('/board'));
+      await suite.signIn(shopPage, lanternHill.email, '/board');
       await shopPage.getByRole('link', { name: 'Bore, hone and deck an iron V8 block' }).first().click();
       await shopPage.waitForURL(url(`/jobs/${jobId}`));
       const bidForm = shopPage.getByRole('form', { name: 'Your bid', exact: true });
@@ -324,7 +279,7 @@ describe('a builder posting a job and choosing a shop, in a real browser', () =>
     // Paying: the builder leaves for the payment page (the local stand-in), is declined once, then pays.
     await page.getByText('held by Tenthmark until you accept the shop’s inspection record', { exact: false }).first().waitFor();
     await page.getByRole('button', { name: 'Pay and hold for the work' }).click();
-    await page.waitForURL((target) => target.toString().startsWith(app.payments.url));
+    await page.waitForURL((target) => target.toString().startsWith(suite.app.payments.url));
     await page.getByLabel('Card number').fill('4000 0000 0000 0002');
     await page.getByRole('button', { name: /^Pay / }).click();
     await expect(page.getByRole('alert').textContent()).resolves.toMatch(/declined/i);

@@ -1,40 +1,20 @@
 import { join } from 'node:path';
-import type { Browser, BrowserContext, Locator, Page } from 'playwright-core';
-import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, it } from 'vitest';
+import type { Locator, Page } from 'playwright-core';
+import { beforeEach, describe, expect, it } from 'vitest';
 import { CC_PER_CUBIC_INCH, roughness } from '../../shared/calc';
-import type { RunningServer } from '../../server/runtime';
 import { syntheticPlateauProfile } from '../../client/features/calculator/lib/synthetic-profile';
-import { artifactsDir, launchBrowser, startBrowserApp } from '../setup/browser';
+import { artifactsDir } from '../setup/browser';
+import { browserSuite } from '../setup/e2e-suite';
 
-let browser: Browser;
-let app: { server: RunningServer; close: () => Promise<void> };
-let context: BrowserContext;
+const suite = browserSuite();
+const { url, consoleErrors } = suite;
 let page: Page;
-const consoleErrors: string[] = [];
 
-beforeAll(async () => {
-  [browser, app] = await Promise.all([launchBrowser(), startBrowserApp()]);
-});
-afterAll(async () => {
-  await browser?.close();
-  await app?.close();
-});
 beforeEach(async () => {
-  context = await browser.newContext({ viewport: { width: 768, height: 1024 } }); // a shop-floor tablet
-  context.setDefaultTimeout(10_000);
-  page = await context.newPage();
+  page = await suite.newPage({ width: 768, height: 1024 }); // a shop-floor tablet
   consoleErrors.length = 0;
-  page.on('console', (msg) => {
-    // A 401 from /api/auth/me is how a signed-out visitor is recognised.
-    if (msg.type() === 'error' && !/401/.test(msg.text())) consoleErrors.push(msg.text());
-  });
-  page.on('pageerror', (err) => consoleErrors.push(err.message));
-});
-afterEach(async () => {
-  await context?.close();
 });
 
-const url = (path: string) => `${app.server.url}${path}`;
 const card = (name: string) => page.getByRole('region', { name, exact: true });
 /** The number in a figure such as "5,733.0 cc" or "9.01 : 1". */
 const numberIn = async (locator: Locator) => Number(/-?[\d,]+(?:\.\d+)?/.exec((await locator.textContent()) ?? '')![0].replace(/,/g, ''));
@@ -256,7 +236,7 @@ describe('the calculator page, as a signed-out visitor', () => {
   });
 
   it('when every calculator is filled in on a wide screen, then the page lays out results beside the inputs', async () => {
-    const wide = await browser.newContext({ viewport: { width: 1280, height: 900 } });
+    const wide = await suite.browser.newContext({ viewport: { width: 1280, height: 900 } });
     wide.setDefaultTimeout(10_000);
     page = await wide.newPage();
     page.on('pageerror', (err) => consoleErrors.push(err.message));

@@ -7,8 +7,7 @@ import type { JobDetail } from '../../shared/schemas/jobs';
 import type { MoneyView } from '../../shared/schemas/payments';
 import { demoAccounts } from '../../server/dev/seed';
 import { bidInput, jobInput, shopProfileInput } from '../factories';
-import { completeOnboardingPage } from '../setup/payments';
-import { payOnPage } from '../unit/payments-stand-in/helpers';
+import { completeOnboardingPage, payOnPage } from '../setup/payments';
 import { artifactsDir } from '../setup/browser';
 import { browserSuite } from '../setup/e2e-suite';
 

@@ -1,98 +1,41 @@
 import { join } from 'node:path';
 import sharp from 'sharp';
-import { request, type APIRequestContext, type Browser, type BrowserContext, type Locator, type Page } from 'playwright-core';
-import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
-import type { JobDetail, JobInput } from '../../shared/schemas/jobs';
+import type { BrowserContext, Locator, Page } from 'playwright-core';
+import { afterEach, describe, expect, it } from 'vitest';
+import type { JobInput } from '../../shared/schemas/jobs';
 import type { HistoryPage, ThreadSummary } from '../../shared/schemas/messages';
-import { DEMO_PASSWORD, demoAccounts } from '../../server/dev/seed';
-import type { RunningServer } from '../../server/runtime';
-import { bidInput, jobInput, shopProfileInput } from '../factories';
-import { artifactsDir, launchBrowser, startBrowserApp } from '../setup/browser';
+import { demoAccounts } from '../../server/dev/seed';
+import { bidInput } from '../factories';
+import { artifactsDir } from '../setup/browser';
+import { browserSuite, type Api } from '../setup/e2e-suite';
 
-let browser: Browser;
-let app: { server: RunningServer; close: () => Promise<void> };
-const contexts: BrowserContext[] = [];
-const apiSessions: APIRequestContext[] = [];
-const problems: string[] = [];
+// A low message limit, so the test that writes faster than the limit reaches it for sure: with
+// the usual 20 in 10 seconds, a slow machine typed 23 notes over more than 10 seconds and never hit it.
+// Requests made while the test holds the context offline fail by design.
+const suite = browserSuite({ env: { RATE_LIMIT_MESSAGES_PER_10S: '6' }, ignoreConsole: (msg) => /ERR_INTERNET_DISCONNECTED|net::ERR_/.test(msg.text()) });
+const { url, signIn, watch, consoleErrors: problems } = suite;
+afterEach(() => {
+  problems.length = 0;
+});
 
 const builder = demoAccounts.find((a) => a.email === 'juno@builders.test')!;
 const lanternHill = demoAccounts.find((a) => a.email === 'bench@lanternhill.test')!;
 const kessrow = demoAccounts.find((a) => a.email === 'desk@kessrow.test')!;
 const SHOP_NAME = 'Lantern Hill Machine Works';
 
-beforeAll(async () => {
-  // A low message limit, so the test that writes faster than the limit reaches it for sure: with
-  // the usual 20 in 10 seconds, a slow machine typed 23 notes over more than 10 seconds and never hit it.
-  [browser, app] = await Promise.all([launchBrowser(), startBrowserApp({ RATE_LIMIT_MESSAGES_PER_10S: '6' })]);
-});
-afterAll(async () => {
-  await Promise.all(apiSessions.map((session) => session.dispose()));
-  await browser?.close();
-  await app?.close();
-});
-afterEach(async () => {
-  await Promise.all(contexts.splice(0).map((context) => context.close()));
-  problems.length = 0;
-});
-
-const url = (path: string) => `${app.server.url}${path}`;
-
 /** A browser context of its own (cookies, storage, network) for one person, with page errors collected. */
 async function personPage(viewport: { width: number; height: number }): Promise<{ context: BrowserContext; page: Page }> {
-  const context = await browser.newContext({ viewport });
-  context.setDefaultTimeout(10_000);
-  contexts.push(context);
-  const page = await context.newPage();
-  watch(page);
-  return { context, page };
+  const page = await suite.newPage(viewport);
+  return { context: page.context(), page };
 }
 
-function watch(page: Page) {
-  page.on('pageerror', (err) => problems.push(err.message));
-  page.on('console', (msg) => {
-    // Requests made while the test holds the context offline fail by design.
-    if (msg.type() === 'error' && !/401|ERR_INTERNET_DISCONNECTED|net::ERR_/.test(msg.text())) problems.push(msg.text());
-  });
-}
+/** The calls of a signed-in API session, for setting up the job and the bid and for checking what the server stored. */
+const calls = (api: Api) => ({ send: (method: 'POST' | 'PUT', path: string, data: unknown = {}) => api(method, path, data), get: <T>(path: string) => api<T>('GET', path) });
 
-async function signIn(page: Page, email: string, returnTo: string) {
-  await page.goto(url(`/signin?returnTo=${encodeURIComponent(returnTo)}`));
-  await page.getByLabel('E-mail').fill(email);
-  await page.getByLabel('Password').fill(DEMO_PASSWORD);
-  await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.waitForURL(url(returnTo));
-}
-
-/** A signed-in API session outside the browser, for setting up the job and the bid and for checking what the server stored. */
-async function apiAs(account: { email: string }) {
-  const session = await request.newContext({ baseURL: app.server.url });
-  apiSessions.push(session);
-  let token: string = (await (await session.get('/api/auth/csrf')).json()).csrfToken;
-  const res = await session.post('/api/auth/login', { data: { email: account.email, password: DEMO_PASSWORD }, headers: { 'X-CSRF-Token': token } });
-  if (!res.ok()) throw new Error(`could not sign in: ${res.status()} ${await res.text()}`);
-  token = (await res.json()).csrfToken;
-  const send = async (method: 'POST' | 'PUT', path: string, data: unknown = {}) => {
-    const answer = await session.fetch(path, { method, data, headers: { 'X-CSRF-Token': token } });
-    if (!answer.ok()) throw new Error(`${method} ${path} answered ${answer.status()}: ${await answer.text()}`);
-    return answer.json();
-  };
-  const get = async <T>(path: string): Promise<T> => {
-    const answer = await session.get(path);
-    if (!answer.ok()) throw new Error(`GET ${path} answered ${answer.status()}: ${await answer.text()}`);
-    return (await answer.json()) as T;
-  };
-  return { send, get };
-}
-
-/** The demo builder posts and publishes a job; Lantern Hill saves its profile and bids on it. */
+/** The demo builder posts and publishes a job; Lantern Hill (or `bidder`) saves its profile and bids on it. */
 async function jobWithBid(input: Partial<JobInput>, bidder: { email: string; name: string } = { email: lanternHill.email, name: SHOP_NAME }) {
-  const juno = await apiAs(builder);
-  const { job } = (await juno.send('POST', '/api/jobs', jobInput(input))) as { job: JobDetail };
-  await juno.send('POST', `/api/jobs/${job.id}/publish`);
-  const shop = await apiAs(bidder);
-  await shop.send('PUT', '/api/shop-profile', shopProfileInput({ name: bidder.name }));
-  const { bid } = (await shop.send('POST', `/api/jobs/${job.id}/bids`, bidInput())) as { bid: { id: string } };
-  return { job, juno, shop, bidId: bid.id };
+  const { job, bid, builder: juno, shop } = await suite.jobIn('bid', builder.email, bidder.email, { input, shopProfile: { name: bidder.name } });
+  return { job, juno: calls(juno), shop: calls(shop), bidId: bid!.id };
 }
 
 const messagesWith = (page: Page, text: string) => page.getByTestId('message').filter({ has: page.getByTestId('message-body').getByText(text, { exact: true }) });

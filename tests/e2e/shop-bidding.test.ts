@@ -1,93 +1,46 @@
 import { join } from 'node:path';
-import type { Browser, BrowserContext, Page } from 'playwright-core';
-import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, it } from 'vitest';
-import type { JobDetail, JobInput } from '../../shared/schemas/jobs';
+import type { Page } from 'playwright-core';
+import { beforeEach, describe, expect, it } from 'vitest';
+import type { JobInput } from '../../shared/schemas/jobs';
 import { DEMO_PASSWORD, demoAccounts } from '../../server/dev/seed';
-import type { RunningServer } from '../../server/runtime';
-import { inDays, jobInput, shopProfileInput, uniqueEmail } from '../factories';
+import { inDays, shopProfileInput, uniqueEmail } from '../factories';
 import { confirmationLink } from '../setup/mail-links';
 import { completeOnboardingPage } from '../setup/payments';
-import { artifactsDir, launchBrowser, startBrowserApp } from '../setup/browser';
+import { artifactsDir } from '../setup/browser';
+import { browserSuite } from '../setup/e2e-suite';
+import { jobInState } from '../setup/job-states';
 
-let browser: Browser;
-let app: { server: RunningServer; close: () => Promise<void> };
-let context: BrowserContext;
+// 404 from /api/shop-profile marks a shop without a profile yet.
+const suite = browserSuite({ ignoreConsole: (msg) => /404/.test(msg.text()) && msg.location().url.includes('/api/shop-profile') });
+const { url, consoleErrors } = suite;
 let page: Page;
-const consoleErrors: string[] = [];
 
-beforeAll(async () => {
-  [browser, app] = await Promise.all([launchBrowser(), startBrowserApp()]);
-});
-afterAll(async () => {
-  await browser?.close();
-  await app?.close();
-});
 beforeEach(async () => {
-  context = await browser.newContext({ viewport: { width: 1280, height: 900 } });
-  context.setDefaultTimeout(10_000);
-  page = await context.newPage();
+  page = await suite.newPage();
   consoleErrors.length = 0;
-  page.on('console', (msg) => {
-    // 401 from /api/auth/me marks a signed-out visitor; 404 from /api/shop-profile a shop without a profile yet.
-    if (msg.type() !== 'error' || /401/.test(msg.text())) return;
-    if (/404/.test(msg.text()) && msg.location().url.includes('/api/shop-profile')) return;
-    consoleErrors.push(msg.text());
-  });
-  page.on('pageerror', (err) => consoleErrors.push(err.message));
-});
-afterEach(async () => {
-  await context?.close();
 });
 
-const url = (path: string) => `${app.server.url}${path}`;
 const demo = (email: string) => demoAccounts.find((a) => a.email === email)!;
 const builder = demoAccounts.find((a) => a.role === 'builder')!;
 const kessrow = demo('desk@kessrow.test');
 
-/** A signed-in API session driven with fetch: the session cookie and the CSRF token travel with every call. */
+/** A signed-in API session (tests/setup/api-session.ts): the session cookie and the CSRF token travel with every call. */
 async function apiSession(email: string) {
-  let cookie = '';
-  let csrfToken = '';
-  const keepCookie = (res: Response) => {
-    const fresh = res.headers.getSetCookie().map((c) => c.split(';')[0]);
-    if (fresh.length) cookie = fresh.join('; ');
-  };
-  const call = async <T>(method: string, path: string, body?: unknown): Promise<T> => {
-    const res = await fetch(url(path), {
-      method,
-      headers: { Cookie: cookie, Accept: 'application/json', ...(method === 'GET' ? {} : { 'X-CSRF-Token': csrfToken, 'Content-Type': 'application/json' }) },
-      body: body === undefined ? undefined : JSON.stringify(body),
-    });
-    keepCookie(res);
-    const data = (await res.json().catch(() => undefined)) as T & { csrfToken?: string };
-    if (!res.ok) throw new Error(`${method} ${path} answered ${res.status}: ${JSON.stringify(data)}`);
-    // Sign-in rotates the token; later calls must carry the new one.
-    if (data && typeof data.csrfToken === 'string') csrfToken = data.csrfToken;
-    return data;
-  };
-  await call('GET', '/api/auth/csrf');
-  await call('POST', '/api/auth/login', { email, password: DEMO_PASSWORD });
+  const api = await suite.apiAs(email);
   return {
-    get: <T>(path: string) => call<T>('GET', path),
-    post: <T>(path: string, body: unknown = {}) => call<T>('POST', path, body),
-    put: <T>(path: string, body: unknown) => call<T>('PUT', path, body),
+    api,
+    get: <T>(path: string) => api<T>('GET', path),
+    post: <T>(path: string, body: unknown = {}) => api<T>('POST', path, body),
+    put: <T>(path: string, body: unknown) => api<T>('PUT', path, body),
   };
 }
 
 /** An open job on the board, posted and published by the demo builder through the API. */
 async function publishJob(session: Awaited<ReturnType<typeof apiSession>>, overrides: Partial<JobInput>) {
-  const { job } = await session.post<{ job: JobDetail }>('/api/jobs', jobInput(overrides));
-  await session.post(`/api/jobs/${job.id}/publish`);
-  return job;
+  return (await jobInState('open', { builder: session.api }, { input: overrides })).job;
 }
 
-async function signIn(account: { email: string }, returnTo: string) {
-  await page.goto(url(`/signin?returnTo=${encodeURIComponent(returnTo)}`));
-  await page.getByLabel('E-mail').fill(account.email);
-  await page.getByLabel('Password').fill(DEMO_PASSWORD);
-  await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.waitForURL(url(returnTo));
-}
+const signIn = (account: { email: string }, returnTo: string) => suite.signIn(page, account.email, returnTo);
 
 const rowTitles = () => page.locator('table tbody tr th[scope="row"]').allTextContents();
 

@@ -1,41 +1,20 @@
 import { join } from 'node:path';
-import type { Browser, BrowserContext, Page } from 'playwright-core';
-import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, inject, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { beforeEach, describe, expect, inject, it } from 'vitest';
 import { DEMO_PASSWORD, demoAccounts } from '../../server/dev/seed';
-import type { RunningServer } from '../../server/runtime';
 import { jobInput, uniqueEmail } from '../factories';
 import { confirmationLink } from '../setup/mail-links';
-import { artifactsDir, launchBrowser, startBrowserApp } from '../setup/browser';
+import { artifactsDir } from '../setup/browser';
+import { browserSuite } from '../setup/e2e-suite';
 
-let browser: Browser;
-let app: { server: RunningServer; close: () => Promise<void> };
-let context: BrowserContext;
+const suite = browserSuite();
+const { url, consoleErrors } = suite;
 let page: Page;
-const consoleErrors: string[] = [];
 
-beforeAll(async () => {
-  [browser, app] = await Promise.all([launchBrowser(), startBrowserApp()]);
-});
-afterAll(async () => {
-  await browser?.close();
-  await app?.close();
-});
 beforeEach(async () => {
-  context = await browser.newContext({ viewport: { width: 768, height: 1024 } }); // a shop-floor tablet
-  context.setDefaultTimeout(10_000);
-  page = await context.newPage();
+  page = await suite.newPage({ width: 768, height: 1024 }); // a shop-floor tablet
   consoleErrors.length = 0;
-  page.on('console', (msg) => {
-    // A 401 from /api/auth/me is how a signed-out visitor is recognised.
-    if (msg.type() === 'error' && !/401/.test(msg.text())) consoleErrors.push(msg.text());
-  });
-  page.on('pageerror', (err) => consoleErrors.push(err.message));
 });
-afterEach(async () => {
-  await context?.close();
-});
-
-const url = (path: string) => `${app.server.url}${path}`;
 
 async function waitForMail(to: string, subject: string) {
   const deadline = Date.now() + 10_000;
@@ -152,11 +131,7 @@ describe('in a real browser', () => {
 
   it('when the demo admin adds an administrator, then the newcomer shows in the people list; a builder cannot open that page', async () => {
     const admin = demoAccounts.find((a) => a.role === 'admin')!;
-    await page.goto(url('/signin?returnTo=%2Fadmin%2Fpeople'));
-    await page.getByLabel('E-mail').fill(admin.email);
-    await page.getByLabel('Password').fill(DEMO_PASSWORD);
-    await page.getByRole('button', { name: 'Sign in' }).click();
-    await page.waitForURL(url('/admin/people'));
+    await suite.signIn(page, admin.email, '/admin/people');
     await page.getByText(/^\d+ accounts$/).waitFor();
 
     const email = uniqueEmail('staff');
@@ -169,7 +144,7 @@ describe('in a real browser', () => {
     await page.screenshot({ path: join(artifactsDir, 'admin-people.png'), fullPage: true });
     await waitForMail(email, 'You have a Tenthmark staff account');
 
-    const builderContext = await browser.newContext();
+    const builderContext = await suite.browser.newContext();
     const builderPage = await builderContext.newPage();
     const builder = demoAccounts.find((a) => a.role === 'builder')!;
     await builderPage.goto(url('/signin?returnTo=%2Fadmin%2Fpeople'));

@@ -14,7 +14,7 @@ import { createDb, createPool, type Database } from '../../server/db/client';
 import { mailOutbox, messages } from '../../server/db/schema';
 import { startServer, type RunningServer } from '../../server/runtime';
 import { bidInput, createJob, createShop, createUser, TEST_PASSWORD } from '../factories';
-import { connected, emit, next, post, session, socketFor as openSocket, type Auth } from '../setup/realtime';
+import { connected, emit, next, post, session, socketFor as openSocket, visitor, type Auth } from '../setup/realtime';
 import { createTestDatabase, testConfig, type TestContext } from '../setup/test-env';
 
 let database: Awaited<ReturnType<typeof createTestDatabase>>;
@@ -43,12 +43,6 @@ afterAll(async () => {
   await database?.drop();
   if (config) rmSync(config.uploadsDir, { recursive: true, force: true });
 });
-
-/** A signed-out visitor's cookie and token, for the public routes. */
-async function visitor(server: RunningServer): Promise<Auth> {
-  const res = await fetch(`${server.url}/api/auth/csrf`);
-  return { cookie: res.headers.get('set-cookie')!.split(';')[0], csrf: ((await res.json()) as { csrfToken: string }).csrfToken };
-}
 
 const me = async (server: RunningServer, auth: Auth) => (await fetch(`${server.url}/api/auth/me`, { headers: { Cookie: auth.cookie } })).status;
 

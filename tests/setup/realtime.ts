@@ -1,23 +1,20 @@
 import { io as connect, type Socket } from 'socket.io-client';
-import { expect } from 'vitest';
 import type { RunningServer } from '../../server/runtime';
+import { agentFor, signedIn } from './api-session';
 
 /** A signed-in (or visiting) HTTP session: its cookie and a CSRF token for it. */
 export type Auth = { cookie: string; csrf: string };
 
-/** Signs in over HTTP and returns the session cookie and a CSRF token for it. */
+/** Signs in over HTTP (the shared API-session helper) and returns the session cookie and a CSRF token for it. */
 export async function session(server: RunningServer, user: { email: string; password: string }): Promise<Auth> {
-  const first = await fetch(`${server.url}/api/auth/csrf`);
-  const anon = first.headers.get('set-cookie')!.split(';')[0];
-  const { csrfToken } = (await first.json()) as { csrfToken: string };
-  const login = await fetch(`${server.url}/api/auth/login`, {
-    method: 'POST',
-    headers: { 'Content-Type': 'application/json', Cookie: anon, 'X-CSRF-Token': csrfToken },
-    body: JSON.stringify({ email: user.email, password: user.password }),
-  });
-  expect(login.status).toBe(200);
-  const body = (await login.json()) as { csrfToken: string };
-  return { cookie: login.headers.get('set-cookie')!.split(';')[0], csrf: body.csrfToken };
+  const client = await signedIn(server.url, user);
+  return { cookie: client.cookie!, csrf: client.token };
+}
+
+/** A signed-out visitor's cookie and token, for the public routes. */
+export async function visitor(server: RunningServer): Promise<Auth> {
+  const client = await agentFor(server.url);
+  return { cookie: client.cookie!, csrf: client.token };
 }
 
 /** POSTs JSON with the session's cookie and token; the status and the parsed body (empty when none). */

@@ -3,7 +3,6 @@ import { rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import pg from 'pg';
-import supertest from 'supertest';
 import { inject } from 'vitest';
 import { createApp, type App } from '../../server/app';
 import { createDb, createPool, type Database } from '../../server/db/client';
@@ -100,38 +99,4 @@ export async function setupTestApp(overrides: Record<string, string> = {}): Prom
   };
 }
 
-/** A supertest agent that keeps cookies and sends the CSRF token it was given. */
-export async function agentFor(app: App) {
-  const agent = supertest.agent(app);
-  const res = await agent.get('/api/auth/csrf').expect(200);
-  let token: string = res.body.csrfToken;
-  return {
-    agent,
-    get token() {
-      return token;
-    },
-    set token(value: string) {
-      token = value;
-    },
-    /** Posts with the current token and keeps the new one when the answer rotates it (sign-in, sign-up). */
-    async post(path: string, body: object = {}) {
-      const res = await agent.post(path).set('X-CSRF-Token', token).send(body);
-      if (typeof res.body?.csrfToken === 'string') token = res.body.csrfToken;
-      return res;
-    },
-    put(path: string, body: object = {}) {
-      return agent.put(path).set('X-CSRF-Token', token).send(body);
-    },
-    get(path: string) {
-      return agent.get(path);
-    },
-  };
-}
-
-/** An agent signed in as this person (made by the factories, so the password is known). */
-export async function signedIn(app: App, user: { email: string; password: string }) {
-  const client = await agentFor(app);
-  const res = await client.post('/api/auth/login', { email: user.email, password: user.password });
-  if (res.status !== 200) throw new Error(`sign-in failed for ${user.email}: ${res.status} ${JSON.stringify(res.body)}`);
-  return client;
-}
+export { agentFor, signedIn, type ApiClient } from './api-session';

@@ -1,6 +1,6 @@
 import Stripe from 'stripe';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
-import { createSession, postForm, readForm, sdkFor, startHarness, startReceiver, WEBHOOK_SECRET, type Harness, type Receiver } from './helpers';
+import { createSession, postForm, readForm, sdkFor, startHarness, startReceiver, WEBHOOK_SECRET, type Harness, type Receiver } from '../../setup/payments';
 
 let harness: Harness;
 let receiver: Receiver;

@@ -1,7 +1,7 @@
 import Stripe from 'stripe';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { DEFAULT_SECRET_KEY } from '../../../server/dev/payments-stand-in';
-import { paidSession, readyAccount, startHarness, type Harness } from './helpers';
+import { paidSession, readyAccount, startHarness, type Harness } from '../../setup/payments';
 
 let harness: Harness;
 

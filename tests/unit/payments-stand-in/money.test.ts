@@ -12,7 +12,7 @@ import {
   WEBHOOK_SECRET,
   type Harness,
   type Receiver,
-} from './helpers';
+} from '../../setup/payments';
 
 let harness: Harness;
 let receiver: Receiver;
