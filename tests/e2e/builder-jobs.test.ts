@@ -53,7 +53,6 @@ const signIn = (email: string, returnTo: string) => suite.signIn(page, email, re
  */
 async function apiAs(account: { email: string; password?: string } | { signUp: { displayName: string; email: string; role: 'shop' | 'builder' } }) {
   const api = await suite.apiAs('signUp' in account ? account : { email: account.email, password: account.password });
-  // eslint-disable-next-line @typescript-eslint/no-explicit-any
   const send = (method: 'GET' | 'POST' | 'PUT', path: string, data: unknown = {}) => api<any>(method, path, data);
   return { send, api };
 }

@@ -10,7 +10,6 @@ import { completeOnboardingPage, payOnPage } from './payments';
  * One person's signed-in API session as the job-state steps drive it: the
  * answer's body, or an error naming the request when it is not a success.
  */
-// eslint-disable-next-line @typescript-eslint/no-explicit-any
 export type Api = <T = any>(method: 'GET' | 'POST' | 'PUT', path: string, data?: unknown) => Promise<T>;
 
 /** The same calls through a supertest session (tests/setup/api-session.ts). */

@@ -3,7 +3,7 @@ import { dirname } from 'node:path';
 import Stripe from 'stripe';
 import { afterEach, describe, expect, it } from 'vitest';
 import { DEFAULT_SECRET_KEY } from '../../../server/dev/payments-stand-in';
-import { createSession, paidSession, payOnPage, readyAccount, startHarness, startReceiver, waitFor, WEBHOOK_SECRET, type Harness, type Receiver } from '../../setup/payments';
+import { createSession, paidSession, payOnPage, readyAccount, startHarness, startReceiver, waitFor, WEBHOOK_SECRET } from '../../setup/payments';
 
 const cleanups: Array<() => Promise<void>> = [];
 afterEach(async () => {
