@@ -3,7 +3,7 @@ import type { Browser, BrowserContext, Locator, Page } from 'playwright-core';
 import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import { CC_PER_CUBIC_INCH, roughness } from '../../shared/calc';
 import type { RunningServer } from '../../server/runtime';
-import { syntheticPlateauProfile } from '../../client/features/calculator/lib/synthetic-profile';
+import { syntheticPlateauProfile } from '../../client/features/calculations/lib/synthetic-profile';
 import { artifactsDir, launchBrowser, startBrowserApp } from '../setup/browser';
 
 let browser: Browser;

@@ -1,16 +1,16 @@
 import { PageTitle } from '@client/components/ui/card';
 import { Notice } from '@client/components/ui/notice';
-import { BoreCheckCalculator } from '@client/features/calculator/components/bore-check-calculator';
-import { BoreSizeCalculator } from '@client/features/calculator/components/bore-size-calculator';
-import { CompressionCalculator } from '@client/features/calculator/components/compression-calculator';
-import { CrosshatchCalculator } from '@client/features/calculator/components/crosshatch-calculator';
-import { DeckFlatnessCalculator } from '@client/features/calculator/components/deck-flatness-calculator';
-import { DisplacementCalculator } from '@client/features/calculator/components/displacement-calculator';
-import { RingGapCalculator } from '@client/features/calculator/components/ring-gap-calculator';
-import { RoughnessCalculator } from '@client/features/calculator/components/roughness-calculator';
-import { UnitSwitch } from '@client/features/calculator/components/unit-switch';
-import { usePageUnit } from '@client/features/calculator/hooks/use-page-unit';
-import { CALCULATOR_SECTIONS } from '@client/features/calculator/sections';
+import { BoreCheckCalculator } from '@client/features/calculations/components/bore-check-calculator';
+import { BoreSizeCalculator } from '@client/features/calculations/components/bore-size-calculator';
+import { CompressionCalculator } from '@client/features/calculations/components/compression-calculator';
+import { CrosshatchCalculator } from '@client/features/calculations/components/crosshatch-calculator';
+import { DeckFlatnessCalculator } from '@client/features/calculations/components/deck-flatness-calculator';
+import { DisplacementCalculator } from '@client/features/calculations/components/displacement-calculator';
+import { RingGapCalculator } from '@client/features/calculations/components/ring-gap-calculator';
+import { RoughnessCalculator } from '@client/features/calculations/components/roughness-calculator';
+import { UnitSwitch } from '@client/features/calculations/components/unit-switch';
+import { usePageUnit } from '@client/features/calculations/hooks/use-page-unit';
+import { CALCULATOR_SECTIONS } from '@client/features/calculations/sections';
 
 /**
  * The public calculator page: every calculation of the shared library as a

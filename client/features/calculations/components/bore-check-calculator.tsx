@@ -14,7 +14,7 @@ import { SelectField } from '@client/components/ui/select-field';
 import { cn } from '@client/lib/cn';
 import { useLiveCalculation } from '../hooks/use-live-calculation';
 import { type FieldKind, useUnitForm } from '../hooks/use-unit-form';
-import { LENGTH_DECIMALS, formatChange, formatLength, formatNumber, toNumber } from '../lib/numbers';
+import { LENGTH_DECIMALS, formatChange, formatLength, formatNumber, toNumber } from '@client/lib/numbers';
 import { BoreDepthChart } from './bore-depth-chart';
 import { CalculatorCard, CommonPractice, FieldGrid, GuidanceNote, MissingHint, NumberField, PassMark, ResultsPanel } from './calculator-parts';
 

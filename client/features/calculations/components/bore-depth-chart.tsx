@@ -1,7 +1,7 @@
 import { CartesianGrid, Line, LineChart, ReferenceLine, XAxis, YAxis } from 'recharts';
 import type { CylinderReadings, LengthUnit } from '@shared/calc';
 import { niceTicks } from '@client/lib/numbers';
-import { LENGTH_DECIMALS, formatLength, formatNumber } from '../lib/numbers';
+import { LENGTH_DECIMALS, formatLength, formatNumber } from '@client/lib/numbers';
 import { ChartLegend } from './calculator-parts';
 
 const DEPTH_WORDS = { top: 'Top', middle: 'Middle', bottom: 'Bottom' } as const;

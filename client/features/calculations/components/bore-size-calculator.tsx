@@ -4,7 +4,7 @@ import { type BoreSizeRequest, boreSizeRequestSchema } from '@shared/schemas/cal
 import { useLiveCalculation } from '../hooks/use-live-calculation';
 import { type FieldKind, useUnitForm } from '../hooks/use-unit-form';
 import { oversizeSchema } from '../lib/form-schemas';
-import { LENGTH_DECIMALS, formatLength, formatNumber, toNumber } from '../lib/numbers';
+import { LENGTH_DECIMALS, formatLength, formatNumber, toNumber } from '@client/lib/numbers';
 import {
   CalculatorCard,
   CardColumns,

@@ -4,7 +4,7 @@ import { type CompressionRatioRequest, compressionRatioRequestSchema } from '@sh
 import { runLiveCalculation, useLiveCalculation } from '../hooks/use-live-calculation';
 import { type FieldKind, useUnitForm } from '../hooks/use-unit-form';
 import { machiningChangeSchema } from '../lib/form-schemas';
-import { formatChange, formatLength, formatNumber, isBlank, toNumber } from '../lib/numbers';
+import { formatChange, formatLength, formatNumber, isBlank, toNumber } from '@client/lib/numbers';
 import {
   CalculatorCard,
   CardColumns,

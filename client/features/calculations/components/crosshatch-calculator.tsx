@@ -15,7 +15,7 @@ import {
 } from '@shared/schemas/calculations';
 import { useLiveCalculation } from '../hooks/use-live-calculation';
 import { type FieldKind, useUnitForm } from '../hooks/use-unit-form';
-import { formatNumber, toNumber } from '../lib/numbers';
+import { formatNumber, toNumber } from '@client/lib/numbers';
 import {
   CalculatorCard,
   CardColumns,

@@ -15,7 +15,7 @@ import { SelectField } from '@client/components/ui/select-field';
 import { TextAreaField } from '@client/components/ui/text-area-field';
 import { useLiveCalculation } from '../hooks/use-live-calculation';
 import { type FieldKind, useUnitForm } from '../hooks/use-unit-form';
-import { formatLength, formatNumber, toNumber, toNumberList } from '../lib/numbers';
+import { formatLength, formatNumber, toNumber, toNumberList } from '@client/lib/numbers';
 import {
   CalculatorCard,
   CardColumns,

@@ -3,7 +3,7 @@ import { type DisplacementResult, type LengthUnit, displacement } from '@shared/
 import { displacementRequestSchema } from '@shared/schemas/calculations';
 import { useLiveCalculation } from '../hooks/use-live-calculation';
 import { type FieldKind, useUnitForm } from '../hooks/use-unit-form';
-import { formatNumber, toNumber } from '../lib/numbers';
+import { formatNumber, toNumber } from '@client/lib/numbers';
 import { CalculatorCard, CardColumns, FieldGrid, FigureList, HeadlineFigure, MissingHint, NumberField, ResultsPanel } from './calculator-parts';
 
 const initial = { bore: '', stroke: '', cylinders: '' };

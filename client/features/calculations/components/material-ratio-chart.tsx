@@ -1,8 +1,7 @@
 import { memo } from 'react';
 import { CartesianGrid, Line, LineChart, ReferenceArea, ReferenceLine, XAxis, YAxis } from 'recharts';
 import type { CurvePoint, MaterialRatioParameters } from '@shared/calc';
-import { niceTicks } from '@client/lib/numbers';
-import { formatNumber } from '../lib/numbers';
+import { formatNumber, niceTicks } from '@client/lib/numbers';
 import { ChartLegend } from './calculator-parts';
 
 const CURVE = '#1d4e6b'; // slate-700

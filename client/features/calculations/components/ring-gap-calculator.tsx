@@ -4,7 +4,7 @@ import { type RingGapRequest, ringGapRequestSchema } from '@shared/schemas/calcu
 import { SelectField } from '@client/components/ui/select-field';
 import { useLiveCalculation } from '../hooks/use-live-calculation';
 import { type FieldKind, useUnitForm } from '../hooks/use-unit-form';
-import { formatLength, formatNumber, toNumber } from '../lib/numbers';
+import { formatLength, formatNumber, toNumber } from '@client/lib/numbers';
 import {
   CalculatorCard,
   CardColumns,

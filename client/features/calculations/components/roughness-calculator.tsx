@@ -15,7 +15,7 @@ import { Button } from '@client/components/ui/button';
 import { SelectField } from '@client/components/ui/select-field';
 import { TextAreaField } from '@client/components/ui/text-area-field';
 import { runLiveCalculation } from '../hooks/use-live-calculation';
-import { formatNumber, toNumber } from '../lib/numbers';
+import { formatNumber, toNumber } from '@client/lib/numbers';
 import { readProfileText } from '../lib/profile-text';
 import { SYNTHETIC_SPACING_UM, syntheticPlateauProfile } from '../lib/synthetic-profile';
 import { CalculatorCard, CardColumns, FigureList, GuidanceNote, MissingHint, NumberField, ResultsPanel } from './calculator-parts';
