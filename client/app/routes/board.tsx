@@ -12,6 +12,7 @@ import { useBoard, type BoardFilters } from '@client/features/jobs/api/jobs';
 import { readBoardFilters } from '@client/features/jobs/board-filters';
 import { useOwnShop } from '@client/features/shops/api/shops';
 import { cn } from '@client/lib/cn';
+import { formatDay } from '@client/lib/dates';
 import { useSearchParamUpdater } from '@client/lib/search-params';
 
 type Sort = BoardQuery['sort'];
@@ -30,11 +31,6 @@ const sorts: Record<Sort, { column: string; order: string; direction: 'ascending
 };
 
 /** A calendar date (YYYY-MM-DD) as the reader's date, without a time-zone shift. */
-function formatDay(isoDate: string) {
-  const [year, month, day] = isoDate.slice(0, 10).split('-').map(Number);
-  return new Date(year, month - 1, day).toLocaleDateString(undefined, { day: 'numeric', month: 'short', year: 'numeric' });
-}
-
 function formatPosted(timestamp: string | null) {
   if (!timestamp) return '—';
   return new Date(timestamp).toLocaleDateString(undefined, { day: 'numeric', month: 'short' });

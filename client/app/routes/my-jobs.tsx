@@ -4,9 +4,10 @@ import { jobStatuses, type JobStatus, type JobSummary } from '@shared/schemas/jo
 import { Card, PageTitle } from '@client/components/ui/card';
 import { Notice } from '@client/components/ui/notice';
 import { SelectField } from '@client/components/ui/select-field';
+import { formatDay } from '@client/lib/dates';
 import { useMyJobs } from '@client/features/jobs/api/jobs';
 import { JobStatusBadge } from '@client/features/jobs/components/job-status-badge';
-import { formatDay, plural, statusWords } from '@client/features/jobs/components/job-words';
+import { plural, statusWords } from '@client/features/jobs/components/job-words';
 
 const isStatus = (value: string | null): value is JobStatus => (jobStatuses as readonly string[]).includes(value ?? '');
 

@@ -1,6 +1,7 @@
 import { formatCents } from '@shared/catalogue';
 import type { BidLine, BidStatus } from '@shared/schemas/bids';
 import { Badge, type BadgeTone } from '@client/components/ui/badge';
+import { formatDay } from '@client/lib/dates';
 
 export const bidStatusWords: Record<BidStatus, { label: string; tone: BadgeTone }> = {
   active: { label: 'Active', tone: 'info' },
@@ -15,11 +16,6 @@ export function BidStatusBadge({ status }: { status: BidStatus }) {
 }
 
 /** A calendar date (YYYY-MM-DD) as the reader's date, without a time-zone shift. */
-export function formatDay(isoDate: string) {
-  const [year, month, day] = isoDate.slice(0, 10).split('-').map(Number);
-  return new Date(year, month - 1, day).toLocaleDateString(undefined, { day: 'numeric', month: 'short', year: 'numeric' });
-}
-
 export function formatMoment(timestamp: string) {
   return new Date(timestamp).toLocaleString(undefined, { day: 'numeric', month: 'short', year: 'numeric', hour: 'numeric', minute: '2-digit' });
 }
