@@ -1,7 +1,6 @@
 import { formatCents } from '@shared/catalogue';
 import type { BidLine, BidStatus } from '@shared/schemas/bids';
 import { Badge, type BadgeTone } from '@client/components/ui/badge';
-import { formatDay } from '@client/lib/dates';
 
 export const bidStatusWords: Record<BidStatus, { label: string; tone: BadgeTone }> = {
   active: { label: 'Active', tone: 'info' },
