@@ -15,9 +15,9 @@ import { Button } from '@client/components/ui/button';
 import { SelectField } from '@client/components/ui/select-field';
 import { DEPTHS, type Depth, cellKey, cellPathWords } from '@client/lib/bore-readings';
 import { cn } from '@client/lib/cn';
+import { LENGTH_DECIMALS, UNIT_WORDS, formatChange, formatLength, formatNumber, toNumber } from '@client/lib/numbers';
 import { useLiveCalculation } from '../hooks/use-live-calculation';
 import { type FieldKind, useUnitForm } from '../hooks/use-unit-form';
-import { LENGTH_DECIMALS, UNIT_WORDS, formatChange, formatLength, formatNumber, toNumber } from '@client/lib/numbers';
 import { CalculatorCard, CommonPractice, FieldGrid, GuidanceNote, MissingHint, NumberField, PassMark, ResultsPanel } from './calculator-parts';
 
 export const MAX_GRID_CYLINDERS = 16;

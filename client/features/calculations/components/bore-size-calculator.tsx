@@ -1,10 +1,10 @@
 import { useMemo, type ReactNode } from 'react';
 import { type BoreSize, type LengthUnit, type OversizeChoice, OVERSIZE_STEPS, boreSize, chooseOversize, convertLength } from '@shared/calc';
 import { type BoreSizeRequest, boreSizeRequestSchema } from '@shared/schemas/calculations';
+import { LENGTH_DECIMALS, formatLength, formatNumber, toNumber } from '@client/lib/numbers';
 import { useLiveCalculation } from '../hooks/use-live-calculation';
 import { type FieldKind, useUnitForm } from '../hooks/use-unit-form';
 import { oversizeSchema } from '../lib/form-schemas';
-import { LENGTH_DECIMALS, formatLength, formatNumber, toNumber } from '@client/lib/numbers';
 import {
   CalculatorCard,
   CardColumns,

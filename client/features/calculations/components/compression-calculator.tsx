@@ -1,10 +1,10 @@
 import { useMemo } from 'react';
 import { CalculationError, type CompressionResult, type LengthUnit, type MachiningEffect, compressionRatio, machiningEffect } from '@shared/calc';
 import { type CompressionRatioRequest, compressionRatioRequestSchema } from '@shared/schemas/calculations';
+import { formatChange, formatLength, formatNumber, isBlank, toNumber } from '@client/lib/numbers';
 import { runLiveCalculation, useLiveCalculation } from '../hooks/use-live-calculation';
 import { type FieldKind, useUnitForm } from '../hooks/use-unit-form';
 import { machiningChangeSchema } from '../lib/form-schemas';
-import { formatChange, formatLength, formatNumber, isBlank, toNumber } from '@client/lib/numbers';
 import {
   CalculatorCard,
   CardColumns,

@@ -13,9 +13,9 @@ import {
   crosshatchRateRequestSchema,
   crosshatchRequestSchema,
 } from '@shared/schemas/calculations';
+import { formatNumber, toNumber } from '@client/lib/numbers';
 import { useLiveCalculation } from '../hooks/use-live-calculation';
 import { type FieldKind, useUnitForm } from '../hooks/use-unit-form';
-import { formatNumber, toNumber } from '@client/lib/numbers';
 import {
   CalculatorCard,
   CardColumns,

@@ -13,9 +13,9 @@ import {
 import { type DeckFlatnessRequest, deckFlatnessRequestSchema } from '@shared/schemas/calculations';
 import { SelectField } from '@client/components/ui/select-field';
 import { TextAreaField } from '@client/components/ui/text-area-field';
+import { formatLength, formatNumber, toNumber, toNumberList } from '@client/lib/numbers';
 import { useLiveCalculation } from '../hooks/use-live-calculation';
 import { type FieldKind, useUnitForm } from '../hooks/use-unit-form';
-import { formatLength, formatNumber, toNumber, toNumberList } from '@client/lib/numbers';
 import {
   CalculatorCard,
   CardColumns,

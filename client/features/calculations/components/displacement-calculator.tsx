@@ -1,9 +1,9 @@
 import { useMemo } from 'react';
 import { type DisplacementResult, type LengthUnit, displacement } from '@shared/calc';
 import { displacementRequestSchema } from '@shared/schemas/calculations';
+import { formatNumber, toNumber } from '@client/lib/numbers';
 import { useLiveCalculation } from '../hooks/use-live-calculation';
 import { type FieldKind, useUnitForm } from '../hooks/use-unit-form';
-import { formatNumber, toNumber } from '@client/lib/numbers';
 import { CalculatorCard, CardColumns, FieldGrid, FigureList, HeadlineFigure, MissingHint, NumberField, ResultsPanel } from './calculator-parts';
 
 const initial = { bore: '', stroke: '', cylinders: '' };

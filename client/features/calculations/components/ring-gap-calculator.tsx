@@ -2,9 +2,9 @@ import { useMemo } from 'react';
 import { type LengthUnit, RING_APPLICATIONS, type RingGapResult, ringGap } from '@shared/calc';
 import { type RingGapRequest, ringGapRequestSchema } from '@shared/schemas/calculations';
 import { SelectField } from '@client/components/ui/select-field';
+import { formatLength, formatNumber, toNumber } from '@client/lib/numbers';
 import { useLiveCalculation } from '../hooks/use-live-calculation';
 import { type FieldKind, useUnitForm } from '../hooks/use-unit-form';
-import { formatLength, formatNumber, toNumber } from '@client/lib/numbers';
 import {
   CalculatorCard,
   CardColumns,
