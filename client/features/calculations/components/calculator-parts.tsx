@@ -184,3 +184,26 @@ export function CommonPractice({ children }: { children?: ReactNode }) {
 export function VisuallyHidden({ children }: { children: ReactNode }) {
   return <span className="sr-only">{children}</span>;
 }
+
+/** The layout most calculators share: a card with the inputs beside the results panel. */
+export function CalculatorLayout({
+  id,
+  title,
+  intro,
+  inputs,
+  results,
+  wide,
+}: {
+  id: string;
+  title: string;
+  intro: ReactNode;
+  inputs: ReactNode;
+  results: ReactNode;
+  wide?: boolean;
+}) {
+  return (
+    <CalculatorCard id={id} title={title} intro={intro}>
+      <CardColumns wide={wide} inputs={inputs} results={<ResultsPanel>{results}</ResultsPanel>} />
+    </CalculatorCard>
+  );
+}

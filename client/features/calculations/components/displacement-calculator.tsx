@@ -4,7 +4,7 @@ import { displacementRequestSchema } from '@shared/schemas/calculations';
 import { formatNumber, toNumber } from '@client/lib/numbers';
 import { useLiveCalculation } from '../hooks/use-live-calculation';
 import { type FieldKind, useUnitForm } from '../hooks/use-unit-form';
-import { CalculatorCard, CardColumns, FieldGrid, FigureList, HeadlineFigure, MissingHint, NumberField, ResultsPanel } from './calculator-parts';
+import { CalculatorLayout, FieldGrid, FigureList, HeadlineFigure, MissingHint, NumberField } from './calculator-parts';
 
 const initial = { bore: '', stroke: '', cylinders: '' };
 const kindOf = (key: string): FieldKind => (key === 'cylinders' ? 'other' : 'length');
@@ -21,44 +21,41 @@ export function DisplacementCalculator({ unit }: { unit: LengthUnit }) {
   const { result, errors, missing, formError } = useLiveCalculation(displacementRequestSchema, input, compute);
 
   return (
-    <CalculatorCard
+    <CalculatorLayout
       id="displacement"
       title="Displacement"
       intro="The volume all the pistons sweep between bottom and top dead centre: π/4 × bore² × stroke × cylinders."
-    >
-      <CardColumns
-        inputs={
-          <FieldGrid>
-            <NumberField label={`Bore (${unit})`} value={values.bore} onValueChange={(t) => setValue('bore', t)} error={errors.bore} />
-            <NumberField label={`Stroke (${unit})`} value={values.stroke} onValueChange={(t) => setValue('stroke', t)} error={errors.stroke} />
-            <NumberField
-              label="Cylinders"
-              inputMode="numeric"
-              value={values.cylinders}
-              onValueChange={(t) => setValue('cylinders', t)}
-              error={errors.cylinders}
-            />
-          </FieldGrid>
-        }
-        results={
-          <ResultsPanel>
-            {result ? (
-              <div className="flex flex-col gap-3" data-testid="displacement-result">
-                <HeadlineFigure label="Total swept volume" value={`${formatNumber(result.cc, 1)} cc`} testId="displacement-cc" />
-                <FigureList
-                  items={[
-                    { label: 'Litres', value: `${formatNumber(result.litres, 3)} L` },
-                    { label: 'Cubic inches', value: `${formatNumber(result.cubicInches, 1)} in³` },
-                    { label: 'Per cylinder', value: `${formatNumber(result.cc / (input.cylinders ?? 1), 1)} cc` },
-                  ]}
-                />
-              </div>
-            ) : (
-              <MissingHint missing={missing} errors={errors} labels={(key) => labels[key] ?? key} formError={formError} />
-            )}
-          </ResultsPanel>
-        }
-      />
-    </CalculatorCard>
+      inputs={
+        <FieldGrid>
+          <NumberField label={`Bore (${unit})`} value={values.bore} onValueChange={(t) => setValue('bore', t)} error={errors.bore} />
+          <NumberField label={`Stroke (${unit})`} value={values.stroke} onValueChange={(t) => setValue('stroke', t)} error={errors.stroke} />
+          <NumberField
+            label="Cylinders"
+            inputMode="numeric"
+            value={values.cylinders}
+            onValueChange={(t) => setValue('cylinders', t)}
+            error={errors.cylinders}
+          />
+        </FieldGrid>
+      }
+      results={
+        <>
+          {result ? (
+            <div className="flex flex-col gap-3" data-testid="displacement-result">
+              <HeadlineFigure label="Total swept volume" value={`${formatNumber(result.cc, 1)} cc`} testId="displacement-cc" />
+              <FigureList
+                items={[
+                  { label: 'Litres', value: `${formatNumber(result.litres, 3)} L` },
+                  { label: 'Cubic inches', value: `${formatNumber(result.cubicInches, 1)} in³` },
+                  { label: 'Per cylinder', value: `${formatNumber(result.cc / (input.cylinders ?? 1), 1)} cc` },
+                ]}
+              />
+            </div>
+          ) : (
+            <MissingHint missing={missing} errors={errors} labels={(key) => labels[key] ?? key} formError={formError} />
+          )}
+        </>
+      }
+    />
   );
 }
