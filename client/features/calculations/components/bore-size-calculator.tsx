@@ -5,16 +5,7 @@ import { LENGTH_DECIMALS, formatLength, formatNumber, toNumber } from '@client/l
 import { useLiveCalculation } from '../hooks/use-live-calculation';
 import { type FieldKind, useUnitForm } from '../hooks/use-unit-form';
 import { oversizeSchema } from '../lib/form-schemas';
-import {
-  CalculatorLayout,
-  CommonPractice,
-  FieldGrid,
-  FigureList,
-  GuidanceNote,
-  HeadlineFigure,
-  MissingHint,
-  NumberField,
-} from './calculator-parts';
+import { CalculatorLayout, CommonPractice, FieldGrid, FigureList, GuidanceNote, HeadlineFigure, MissingHint, NumberField } from './calculator-parts';
 
 /**
  * Honing allowance left after boring, on the diameter: 0.002–0.003 in

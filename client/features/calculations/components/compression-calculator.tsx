@@ -5,15 +5,7 @@ import { formatChange, formatLength, formatNumber, isBlank, toNumber } from '@cl
 import { runLiveCalculation, useLiveCalculation } from '../hooks/use-live-calculation';
 import { type FieldKind, useUnitForm } from '../hooks/use-unit-form';
 import { machiningChangeSchema } from '../lib/form-schemas';
-import {
-  CalculatorLayout,
-  FieldGrid,
-  FigureList,
-  GuidanceNote,
-  HeadlineFigure,
-  MissingHint,
-  NumberField,
-} from './calculator-parts';
+import { CalculatorLayout, FieldGrid, FigureList, GuidanceNote, HeadlineFigure, MissingHint, NumberField } from './calculator-parts';
 
 const initial = {
   bore: '',

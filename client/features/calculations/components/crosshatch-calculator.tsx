@@ -16,16 +16,7 @@ import {
 import { formatNumber, toNumber } from '@client/lib/numbers';
 import { useLiveCalculation } from '../hooks/use-live-calculation';
 import { type FieldKind, useUnitForm } from '../hooks/use-unit-form';
-import {
-  CalculatorLayout,
-  CommonPractice,
-  FieldGrid,
-  FigureList,
-  GuidanceNote,
-  HeadlineFigure,
-  MissingHint,
-  NumberField,
-} from './calculator-parts';
+import { CalculatorLayout, CommonPractice, FieldGrid, FigureList, GuidanceNote, HeadlineFigure, MissingHint, NumberField } from './calculator-parts';
 
 const initial = {
   bore: '',

@@ -16,17 +16,7 @@ import { TextAreaField } from '@client/components/ui/text-area-field';
 import { formatLength, formatNumber, toNumber, toNumberList } from '@client/lib/numbers';
 import { useLiveCalculation } from '../hooks/use-live-calculation';
 import { type FieldKind, useUnitForm } from '../hooks/use-unit-form';
-import {
-  CalculatorLayout,
-  CommonPractice,
-  FieldGrid,
-  FigureList,
-  GuidanceNote,
-  HeadlineFigure,
-  MissingHint,
-  NumberField,
-  PassMark,
-} from './calculator-parts';
+import { CalculatorLayout, CommonPractice, FieldGrid, FigureList, GuidanceNote, HeadlineFigure, MissingHint, NumberField, PassMark } from './calculator-parts';
 
 const MATERIAL_WORDS: Record<DeckFlatnessRequest['material'], string> = { 'cast-iron': 'Cast iron', aluminium: 'Aluminium' };
 const GASKET_WORDS: Record<DeckFlatnessRequest['gasket'], string> = { mls: 'Multi-layer steel (MLS)', composite: 'Composite' };

@@ -5,16 +5,7 @@ import { SelectField } from '@client/components/ui/select-field';
 import { formatLength, formatNumber, toNumber } from '@client/lib/numbers';
 import { useLiveCalculation } from '../hooks/use-live-calculation';
 import { type FieldKind, useUnitForm } from '../hooks/use-unit-form';
-import {
-  CalculatorLayout,
-  CommonPractice,
-  FieldGrid,
-  FigureList,
-  GuidanceNote,
-  HeadlineFigure,
-  MissingHint,
-  NumberField,
-} from './calculator-parts';
+import { CalculatorLayout, CommonPractice, FieldGrid, FigureList, GuidanceNote, HeadlineFigure, MissingHint, NumberField } from './calculator-parts';
 
 const APPLICATION_WORDS: Record<RingGapRequest['application'], string> = {
   street: 'Street',
