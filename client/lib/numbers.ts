@@ -1,23 +1,29 @@
 /**
  * Numbers as people type them and as the screen shows them, for any feature
- * that takes measured figures (the inspection record; the calculator keeps
- * its own copy for now).
+ * that takes measured figures (the inspection record and the calculators).
  *
  * Inputs hold the text exactly as typed: an empty or half-typed field ("",
  * "-", ".") reads as `undefined` (still to enter, not a mistake); anything
  * else that is not a plain decimal reads as NaN, so a zod schema gives its
  * "must be a number" message.
  */
-import type { LengthUnit } from '@shared/calc';
+import { type LengthUnit, convertLength } from '@shared/calc';
 
 const DECIMAL = /^[-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?$/;
 const HALF_TYPED = /^(?:[-+]?\.?|[-+]?(?:\d+\.?\d*|\.\d+)[eE][-+]?)$/;
+/** A number inside free text, for lists of readings. */
+const NUMBER_IN_TEXT = /[-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?/g;
 
 /** The typed text as a number: undefined when empty or half-typed, NaN when not a number. */
 export function toNumber(text: string | undefined): number | undefined {
   const trimmed = (text ?? '').trim();
   if (trimmed === '' || HALF_TYPED.test(trimmed)) return undefined;
   return DECIMAL.test(trimmed) ? Number(trimmed) : Number.NaN;
+}
+
+/** True when the text holds nothing yet (empty or only a sign or a point). */
+export function isBlank(text: string | undefined): boolean {
+  return toNumber(text) === undefined;
 }
 
 /** True when the text is one plain decimal number. */
@@ -77,12 +83,38 @@ export function numberToText(value: number | undefined): string {
   return String(Number(value.toPrecision(12)));
 }
 
-/** A length written back into an input: exact, padded to the unit's usual decimals (4.031 in → "4.0310", 101.6 mm → "101.600"). */
-export function lengthToText(value: number | undefined, unit: LengthUnit): string {
-  const text = numberToText(value);
-  if (text === '') return text;
+/**
+ * A length written back into an input: exact (12 significant figures, which
+ * drops only floating-point noise such as 3.9999999999999996), never in
+ * exponent form, and with at least the unit's usual decimals, so
+ * 4.031 in → "4.0310" and 101.6 mm → "101.600".
+ */
+export function formatTyped(value: number, unit: LengthUnit): string {
+  const tidy = Number(value.toPrecision(12));
+  let text = tidy.toFixed(12).replace(/0+$/, '').replace(/\.$/, '');
+  if (text === '-0') text = '0';
   const [whole, fraction = ''] = text.split('.');
   return `${whole}.${fraction.padEnd(LENGTH_DECIMALS[unit], '0')}`;
+}
+
+/** A length written back into an input (see formatTyped); empty when there is none. */
+export function lengthToText(value: number | undefined, unit: LengthUnit): string {
+  if (value === undefined || !Number.isFinite(value)) return '';
+  return formatTyped(value, unit);
+}
+
+/** The typed length converted to the other unit; text that is not a number is left as it is. */
+export function convertTypedLength(text: string, from: LengthUnit, to: LengthUnit): string {
+  if (from === to) return text;
+  const value = toNumber(text);
+  if (value === undefined || Number.isNaN(value)) return text;
+  return formatTyped(convertLength(value, from, to), to);
+}
+
+/** Every number inside a free-text list converted, separators and anything else kept as typed. */
+export function convertTypedLengthList(text: string, from: LengthUnit, to: LengthUnit): string {
+  if (from === to) return text;
+  return text.replace(NUMBER_IN_TEXT, (token) => formatTyped(convertLength(Number(token), from, to), to));
 }
 
 /**

@@ -1,3 +1,4 @@
+import type { QueryKey } from '@tanstack/react-query';
 import type { BoardQuery, JobStatus } from '@shared/schemas/jobs';
 import type { ShopDirectoryQuery } from '@shared/schemas/shops';
 
@@ -93,3 +94,28 @@ export const adminKeys = {
   audit: (filters: Record<string, unknown>) => [...adminKeys.all, 'audit', filters] as const,
   fee: () => [...adminKeys.all, 'fee'] as const,
 };
+
+/**
+ * Every query a change to one job can make stale: the job and the lists it
+ * shows in, its bids, its conversations (an award or a cancellation closes
+ * them), its money and change orders, its milestones and inspection record,
+ * its dispute and reviews, and the money history. Mutations that change a job
+ * and the live-update handler both refresh this list; only the queries on
+ * screen fetch again.
+ */
+export function jobChangeKeys(jobId: string): QueryKey[] {
+  return [
+    jobKeys.detail(jobId),
+    jobKeys.boards(),
+    jobKeys.mineAll(),
+    bidKeys.forJob(jobId),
+    bidKeys.mine(),
+    threadKeys.forJob(jobId),
+    paymentKeys.all(jobId),
+    milestoneKeys.forJob(jobId),
+    inspectionKeys.forJob(jobId),
+    disputeKeys.forJob(jobId),
+    reviewKeys.forJob(jobId),
+    moneyHistoryKeys.all,
+  ];
+}

@@ -1,7 +1,7 @@
 import { useQueryClient } from '@tanstack/react-query';
 import { createContext, createElement, useContext, useEffect, useRef, useState, type ReactNode } from 'react';
 import type { Socket } from 'socket.io-client';
-import { bidKeys, disputeKeys, inspectionKeys, jobKeys, milestoneKeys, moneyHistoryKeys, paymentKeys, reviewKeys, threadKeys } from './query-keys';
+import { jobChangeKeys } from './query-keys';
 
 /**
  * The live connection: one socket.io connection for the signed-in person,
@@ -190,21 +190,6 @@ export function useWatchJob(jobId: string | undefined) {
   );
   useSocketEvent<{ jobId: string; change: string }>('job:changed', (event) => {
     if (!jobId || event.jobId !== jobId) return;
-    void queryClient.invalidateQueries({ queryKey: jobKeys.detail(jobId) });
-    void queryClient.invalidateQueries({ queryKey: bidKeys.forJob(jobId) });
-    void queryClient.invalidateQueries({ queryKey: bidKeys.mine() });
-    void queryClient.invalidateQueries({ queryKey: jobKeys.boards() });
-    void queryClient.invalidateQueries({ queryKey: jobKeys.mineAll() });
-    // An award or a cancellation closes conversations to new messages.
-    void queryClient.invalidateQueries({ queryKey: threadKeys.forJob(jobId) });
-    // A payment confirmed, a payout made or extra work proposed.
-    void queryClient.invalidateQueries({ queryKey: paymentKeys.all(jobId) });
-    // Progress logged by the shop; an inspection record submitted, accepted or rejected.
-    void queryClient.invalidateQueries({ queryKey: milestoneKeys.forJob(jobId) });
-    void queryClient.invalidateQueries({ queryKey: inspectionKeys.forJob(jobId) });
-    // A dispute opened, answered or decided; reviews left once the job ended.
-    void queryClient.invalidateQueries({ queryKey: disputeKeys.forJob(jobId) });
-    void queryClient.invalidateQueries({ queryKey: reviewKeys.forJob(jobId) });
-    void queryClient.invalidateQueries({ queryKey: moneyHistoryKeys.all });
+    for (const queryKey of jobChangeKeys(jobId)) void queryClient.invalidateQueries({ queryKey });
   });
 }

@@ -2,7 +2,7 @@ import { join } from 'node:path';
 import type { Locator, Page } from 'playwright-core';
 import { beforeEach, describe, expect, it } from 'vitest';
 import { CC_PER_CUBIC_INCH, roughness } from '../../shared/calc';
-import { syntheticPlateauProfile } from '../../client/features/calculator/lib/synthetic-profile';
+import { syntheticPlateauProfile } from '../../client/features/calculations/lib/synthetic-profile';
 import { artifactsDir } from '../setup/browser';
 import { browserSuite } from '../setup/e2e-suite';
 

@@ -11,6 +11,7 @@ import { TextField } from '@client/components/ui/text-field';
 import { useBoard, readBoardFilters } from '@client/features/jobs';
 import { useOwnShop } from '@client/features/shops';
 import { cn } from '@client/lib/cn';
+import { formatDay } from '@client/lib/dates';
 import { useSearchParamUpdater } from '@client/lib/search-params';
 
 type Sort = BoardQuery['sort'];
@@ -28,11 +29,6 @@ const sorts: Record<Sort, { column: string; order: string; direction: 'ascending
 };
 
 /** A calendar date (YYYY-MM-DD) as the reader's date, without a time-zone shift. */
-function formatDay(isoDate: string) {
-  const [year, month, day] = isoDate.slice(0, 10).split('-').map(Number);
-  return new Date(year, month - 1, day).toLocaleDateString(undefined, { day: 'numeric', month: 'short', year: 'numeric' });
-}
-
 function formatPosted(timestamp: string | null) {
   if (!timestamp) return '—';
   return new Date(timestamp).toLocaleDateString(undefined, { day: 'numeric', month: 'short' });

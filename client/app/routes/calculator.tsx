@@ -1,6 +1,6 @@
 import { PageTitle } from '@client/components/ui/card';
 import { Notice } from '@client/components/ui/notice';
-import { BoreCheckCalculator, BoreSizeCalculator, CompressionCalculator, CrosshatchCalculator, DeckFlatnessCalculator, DisplacementCalculator, RingGapCalculator, RoughnessCalculator, UnitSwitch, usePageUnit, CALCULATOR_SECTIONS } from '@client/features/calculator';
+import { BoreCheckCalculator, BoreSizeCalculator, CompressionCalculator, CrosshatchCalculator, DeckFlatnessCalculator, DisplacementCalculator, RingGapCalculator, RoughnessCalculator, UnitSwitch, usePageUnit, CALCULATOR_SECTIONS } from '@client/features/calculations';
 
 /**
  * The public calculator page: every calculation of the shared library as a

@@ -4,7 +4,8 @@ import { jobStatuses, type JobStatus, type JobSummary } from '@shared/schemas/jo
 import { Card, PageTitle } from '@client/components/ui/card';
 import { Notice } from '@client/components/ui/notice';
 import { SelectField } from '@client/components/ui/select-field';
-import { useMyJobs, JobStatusBadge, formatDay, plural, statusWords } from '@client/features/jobs';
+import { formatDay } from '@client/lib/dates';
+import { useMyJobs, JobStatusBadge, plural, statusWords } from '@client/features/jobs';
 
 const isStatus = (value: string | null): value is JobStatus => (jobStatuses as readonly string[]).includes(value ?? '');
 

@@ -7,6 +7,6 @@ export { JobForm } from './components/job-form';
 export { JobOwnerActions } from './components/job-owner-actions';
 export { JobLogistics, JobOperations, JobSpec } from './components/job-spec';
 export { JobStatusBadge } from './components/job-status-badge';
-export { formatDay, plural, statusWords } from './components/job-words';
+export { plural, statusWords } from './components/job-words';
 export { PhotoGallery } from './components/photo-gallery';
 export { PhotoUploader } from './components/photo-uploader';

@@ -1,8 +1,9 @@
-import { keepPreviousData, queryOptions, useMutation, useQuery, useQueryClient, type UseMutationOptions } from '@tanstack/react-query';
+import { keepPreviousData, queryOptions, useQuery, useQueryClient } from '@tanstack/react-query';
 import type { Dispute, DisputeCase, DisputeQueueRow, ResolveDisputeInput } from '@shared/schemas/disputes';
 import type { MoneyView } from '@shared/schemas/payments';
-import { api, type ApiError } from '@client/lib/api-client';
-import { adminKeys, disputeKeys, jobKeys, paymentKeys } from '@client/lib/query-keys';
+import { api } from '@client/lib/api-client';
+import { type MutationOptions, useApiMutation } from '@client/lib/mutation';
+import { adminKeys, jobChangeKeys } from '@client/lib/query-keys';
 
 export type DisputeQueueStatus = 'open' | 'resolved' | 'all';
 
@@ -34,30 +35,23 @@ export interface ResolveDisputeResult {
  * answer at once; the queue, ledger, audit log and the job's own pages are
  * refreshed after.
  */
-export function useResolveDispute(
-  disputeId: string,
-  options?: { mutationConfig?: Omit<UseMutationOptions<ResolveDisputeResult, ApiError, ResolveDisputeInput>, 'mutationFn'> },
-) {
+export function useResolveDispute(disputeId: string, options?: MutationOptions<ResolveDisputeResult, ResolveDisputeInput>) {
   const queryClient = useQueryClient();
-  const { onSuccess, onError, ...rest } = options?.mutationConfig ?? {};
-  return useMutation<ResolveDisputeResult, ApiError, ResolveDisputeInput>({
-    ...rest,
-    onError: (...args) => {
-      // Someone else decided first: show the case as it now stands.
-      if (args[0].code === 'already_resolved') void queryClient.invalidateQueries({ queryKey: adminKeys.disputeCase(disputeId) });
-      return onError?.(...args);
+  const { onError, ...rest } = options?.mutationConfig ?? {};
+  return useApiMutation(
+    (input: ResolveDisputeInput) => api.post<ResolveDisputeResult>(`/api/admin/disputes/${encodeURIComponent(disputeId)}/resolve`, input),
+    {
+      update: (client, result) =>
+        client.setQueryData<DisputeCase>(adminKeys.disputeCase(disputeId), (current) => (current ? { ...current, dispute: result.dispute, money: result.money } : current)),
+      refreshes: (result) => [adminKeys.all, ...jobChangeKeys(result.dispute.jobId)],
     },
-    mutationFn: (input) => api.post<ResolveDisputeResult>(`/api/admin/disputes/${encodeURIComponent(disputeId)}/resolve`, input),
-    onSuccess: (...args) => {
-      const [result] = args;
-      queryClient.setQueryData<DisputeCase>(adminKeys.disputeCase(disputeId), (current) =>
-        current ? { ...current, dispute: result.dispute, money: result.money } : current,
-      );
-      void queryClient.invalidateQueries({ queryKey: adminKeys.all });
-      void queryClient.invalidateQueries({ queryKey: disputeKeys.forJob(result.dispute.jobId) });
-      void queryClient.invalidateQueries({ queryKey: paymentKeys.all(result.dispute.jobId) });
-      void queryClient.invalidateQueries({ queryKey: jobKeys.detail(result.dispute.jobId) });
-      return onSuccess?.(...args);
+    {
+      ...rest,
+      onError: (...args) => {
+        // Someone else decided first: show the case as it now stands.
+        if (args[0].code === 'already_resolved') void queryClient.invalidateQueries({ queryKey: adminKeys.disputeCase(disputeId) });
+        return onError?.(...args);
+      },
     },
-  });
+  );
 }

@@ -1,6 +1,7 @@
-import { queryOptions, useMutation, useQuery, useQueryClient, type UseMutationOptions } from '@tanstack/react-query';
+import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { PlatformFee } from '@shared/schemas/admin';
-import { api, type ApiError } from '@client/lib/api-client';
+import { api } from '@client/lib/api-client';
+import { type MutationOptions, useApiMutation } from '@client/lib/mutation';
 import { adminKeys } from '@client/lib/query-keys';
 
 export const platformFeeQueries = {
@@ -14,16 +15,9 @@ export const platformFeeQueries = {
 export const usePlatformFee = () => useQuery(platformFeeQueries.current());
 
 /** Sets the fee for bids accepted from now on; jobs already accepted keep theirs. */
-export function useSetPlatformFee(options?: { mutationConfig?: Omit<UseMutationOptions<PlatformFee, ApiError, { feeBps: number }>, 'mutationFn'> }) {
-  const queryClient = useQueryClient();
-  const { onSuccess, ...rest } = options?.mutationConfig ?? {};
-  return useMutation<PlatformFee, ApiError, { feeBps: number }>({
-    ...rest,
-    mutationFn: (input) => api.put<PlatformFee>('/api/admin/fee', input),
-    onSuccess: (...args) => {
-      queryClient.setQueryData(adminKeys.fee(), args[0]);
-      void queryClient.invalidateQueries({ queryKey: adminKeys.all });
-      return onSuccess?.(...args);
-    },
-  });
-}
+export const useSetPlatformFee = (options?: MutationOptions<PlatformFee, { feeBps: number }>) =>
+  useApiMutation(
+    (input: { feeBps: number }) => api.put<PlatformFee>('/api/admin/fee', input),
+    { update: (queryClient, fee) => queryClient.setQueryData(adminKeys.fee(), fee), refreshes: () => [adminKeys.all] },
+    options?.mutationConfig,
+  );

@@ -1,6 +1,7 @@
-import { keepPreviousData, queryOptions, useMutation, useQuery, useQueryClient, type UseMutationOptions } from '@tanstack/react-query';
+import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import type { AdminShopRow } from '@shared/schemas/admin';
-import { api, type ApiError } from '@client/lib/api-client';
+import { api } from '@client/lib/api-client';
+import { type MutationOptions, useApiMutation } from '@client/lib/mutation';
 import { adminKeys, shopKeys } from '@client/lib/query-keys';
 import { toSearch } from '@client/lib/search-params';
 
@@ -33,19 +34,10 @@ export interface SetVerificationInput {
 }
 
 /** Marks a shop verified or takes the mark away; the directory and shop pages show it, so they refresh too. */
-export function useSetShopVerification(options?: {
-  mutationConfig?: Omit<UseMutationOptions<AdminShopRow, ApiError, SetVerificationInput>, 'mutationFn'>;
-}) {
-  const queryClient = useQueryClient();
-  const { onSuccess, ...rest } = options?.mutationConfig ?? {};
-  return useMutation<AdminShopRow, ApiError, SetVerificationInput>({
-    ...rest,
-    mutationFn: ({ shopId, verified }) =>
+export const useSetShopVerification = (options?: MutationOptions<AdminShopRow, SetVerificationInput>) =>
+  useApiMutation(
+    ({ shopId, verified }: SetVerificationInput) =>
       api.post<{ shop: AdminShopRow }>(`/api/admin/shops/${encodeURIComponent(shopId)}/verification`, { verified }).then((r) => r.shop),
-    onSuccess: (...args) => {
-      void queryClient.invalidateQueries({ queryKey: adminKeys.all });
-      void queryClient.invalidateQueries({ queryKey: shopKeys.all });
-      return onSuccess?.(...args);
-    },
-  });
-}
+    { refreshes: () => [adminKeys.all, shopKeys.all] },
+    options?.mutationConfig,
+  );

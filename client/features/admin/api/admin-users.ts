@@ -1,7 +1,8 @@
-import { keepPreviousData, queryOptions, useMutation, useQuery, useQueryClient, type UseMutationOptions } from '@tanstack/react-query';
+import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import type { AdminUserRow, CreateAdminInput } from '@shared/schemas/admin';
 import type { Me, Role } from '@shared/schemas/auth';
-import { api, type ApiError } from '@client/lib/api-client';
+import { api } from '@client/lib/api-client';
+import { type MutationOptions, useApiMutation } from '@client/lib/mutation';
 import { adminKeys } from '@client/lib/query-keys';
 
 export type { AdminUserRow };
@@ -35,20 +36,12 @@ export const adminUserQueries = {
 
 export const useAdminUsers = (filters: UserFilters) => useQuery(adminUserQueries.list(filters));
 
-export function useCreateAdmin(options?: { mutationConfig?: Omit<UseMutationOptions<Me, ApiError, CreateAdminInput>, 'mutationFn'> }) {
-  const queryClient = useQueryClient();
-  const { onSuccess, ...rest } = options?.mutationConfig ?? {};
-  return useMutation<Me, ApiError, CreateAdminInput>({
-    ...rest,
-    mutationFn: (input) => api.post<{ user: Me }>('/api/admin/admins', input).then((r) => r.user),
-    onSuccess: (...args) => {
-      void queryClient.invalidateQueries({ queryKey: adminUserKeys.lists() });
-      return onSuccess?.(...args);
-    },
-  });
-}
-
-type AccountMutationConfig<TInput> = Omit<UseMutationOptions<AdminUserRow, ApiError, TInput>, 'mutationFn'>;
+export const useCreateAdmin = (options?: MutationOptions<Me, CreateAdminInput>) =>
+  useApiMutation(
+    (input: CreateAdminInput) => api.post<{ user: Me }>('/api/admin/admins', input).then((r) => r.user),
+    { refreshes: () => [adminUserKeys.lists()] },
+    options?.mutationConfig,
+  );
 
 export interface SuspendUserInput {
   userId: string;
@@ -56,37 +49,19 @@ export interface SuspendUserInput {
 }
 
 /** After a suspension or reinstatement: the people list, and the shops and audit log that show the owner's state. */
-function useAfterAccountChange() {
-  const queryClient = useQueryClient();
-  return () => {
-    void queryClient.invalidateQueries({ queryKey: adminUserKeys.lists() });
-    void queryClient.invalidateQueries({ queryKey: adminKeys.all });
-  };
-}
+const afterAccountChange = { refreshes: () => [adminUserKeys.lists(), adminKeys.all] };
 
 /** Suspends an account with a reason; its sessions stop working on their next request. */
-export function useSuspendUser(options?: { mutationConfig?: AccountMutationConfig<SuspendUserInput> }) {
-  const refresh = useAfterAccountChange();
-  const { onSuccess, ...rest } = options?.mutationConfig ?? {};
-  return useMutation<AdminUserRow, ApiError, SuspendUserInput>({
-    ...rest,
-    mutationFn: ({ userId, reason }) => api.post<{ user: AdminUserRow }>(`/api/admin/users/${encodeURIComponent(userId)}/suspend`, { reason }).then((r) => r.user),
-    onSuccess: (...args) => {
-      refresh();
-      return onSuccess?.(...args);
-    },
-  });
-}
+export const useSuspendUser = (options?: MutationOptions<AdminUserRow, SuspendUserInput>) =>
+  useApiMutation(
+    ({ userId, reason }: SuspendUserInput) => api.post<{ user: AdminUserRow }>(`/api/admin/users/${encodeURIComponent(userId)}/suspend`, { reason }).then((r) => r.user),
+    afterAccountChange,
+    options?.mutationConfig,
+  );
 
-export function useReinstateUser(options?: { mutationConfig?: AccountMutationConfig<{ userId: string }> }) {
-  const refresh = useAfterAccountChange();
-  const { onSuccess, ...rest } = options?.mutationConfig ?? {};
-  return useMutation<AdminUserRow, ApiError, { userId: string }>({
-    ...rest,
-    mutationFn: ({ userId }) => api.post<{ user: AdminUserRow }>(`/api/admin/users/${encodeURIComponent(userId)}/reinstate`).then((r) => r.user),
-    onSuccess: (...args) => {
-      refresh();
-      return onSuccess?.(...args);
-    },
-  });
-}
+export const useReinstateUser = (options?: MutationOptions<AdminUserRow, { userId: string }>) =>
+  useApiMutation(
+    ({ userId }: { userId: string }) => api.post<{ user: AdminUserRow }>(`/api/admin/users/${encodeURIComponent(userId)}/reinstate`).then((r) => r.user),
+    afterAccountChange,
+    options?.mutationConfig,
+  );

@@ -1,7 +1,8 @@
-import { queryOptions, useMutation, useQuery, useQueryClient, type UseMutationOptions } from '@tanstack/react-query';
+import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { Bid, BidInput, BidRevision } from '@shared/schemas/bids';
-import { api, type ApiError } from '@client/lib/api-client';
-import { bidKeys, jobKeys } from '@client/lib/query-keys';
+import { api } from '@client/lib/api-client';
+import { type MutationConfig, useApiMutation } from '@client/lib/mutation';
+import { bidKeys, jobChangeKeys } from '@client/lib/query-keys';
 
 export type BidWithHistory = { bid: Bid; revisions: BidRevision[] };
 export type MyBid = Bid & { jobTitle: string; jobStatus: string };
@@ -16,25 +17,15 @@ export const useJobBids = (jobId: string) => useQuery(bidQueries.forJob(jobId));
 export const useMyBids = () => useQuery(bidQueries.mine());
 export const useBid = (id: string | null | undefined) => useQuery({ ...bidQueries.detail(id ?? ''), enabled: Boolean(id) });
 
-type Config<TVars> = Omit<UseMutationOptions<BidWithHistory, ApiError, TVars>, 'mutationFn'>;
+type Config<TVars> = MutationConfig<BidWithHistory, TVars>;
 
-/** Every bid change refreshes the job (status, bid count) and the bid lists. */
-function useBidMutation<TVars>(run: (vars: TVars) => Promise<BidWithHistory>, config?: Config<TVars>) {
-  const queryClient = useQueryClient();
-  const { onSuccess, ...rest } = config ?? {};
-  return useMutation<BidWithHistory, ApiError, TVars>({
-    ...rest,
-    mutationFn: run,
-    onSuccess: (result, ...args) => {
-      queryClient.setQueryData(bidKeys.detail(result.bid.id), result);
-      void queryClient.invalidateQueries({ queryKey: bidKeys.forJob(result.bid.jobId) });
-      void queryClient.invalidateQueries({ queryKey: bidKeys.mine() });
-      void queryClient.invalidateQueries({ queryKey: jobKeys.detail(result.bid.jobId) });
-      void queryClient.invalidateQueries({ queryKey: jobKeys.boards() });
-      return onSuccess?.(result, ...args);
-    },
-  });
-}
+/** Every bid change changes its job (status, bid count): the bid goes into the cache, and everything that shows the job refreshes. */
+const useBidMutation = <TVars>(run: (vars: TVars) => Promise<BidWithHistory>, config?: Config<TVars>) =>
+  useApiMutation(
+    run,
+    { update: (queryClient, result) => queryClient.setQueryData(bidKeys.detail(result.bid.id), result), refreshes: (result) => jobChangeKeys(result.bid.jobId) },
+    config,
+  );
 
 export const usePlaceBid = (jobId: string, options?: { mutationConfig?: Config<BidInput> }) =>
   useBidMutation((input: BidInput) => api.post<BidWithHistory>(`/api/jobs/${jobId}/bids`, input), options?.mutationConfig);

@@ -9,6 +9,7 @@ import { ConfirmDialog } from '@client/components/ui/modal-dialog';
 import { Notice } from '@client/components/ui/notice';
 import { TextAreaField } from '@client/components/ui/text-area-field';
 import { cn } from '@client/lib/cn';
+import { formatDay, todayIso } from '@client/lib/dates';
 import { useAcceptBid, useDeclineBid, useJobBids } from '../api/bids';
 
 export interface BidComparisonProps {
@@ -16,17 +17,6 @@ export interface BidComparisonProps {
   jobStatus: JobStatus;
   /** The job's owner decides; an administrator only looks. */
   canDecide: boolean;
-}
-
-/** A calendar date (YYYY-MM-DD) read as a local day, so it never shifts by a time zone. */
-function formatDay(isoDate: string): string {
-  const [y, m, d] = isoDate.slice(0, 10).split('-').map(Number);
-  return new Intl.DateTimeFormat('en-US', { day: 'numeric', month: 'short', year: 'numeric' }).format(new Date(y, m - 1, d));
-}
-
-function todayIso(): string {
-  const now = new Date();
-  return `${now.getFullYear()}-${String(now.getMonth() + 1).padStart(2, '0')}-${String(now.getDate()).padStart(2, '0')}`;
 }
 
 const days = (n: number) => `${n} working ${n === 1 ? 'day' : 'days'}`;

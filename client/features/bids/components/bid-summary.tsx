@@ -15,11 +15,6 @@ export function BidStatusBadge({ status }: { status: BidStatus }) {
 }
 
 /** A calendar date (YYYY-MM-DD) as the reader's date, without a time-zone shift. */
-export function formatDay(isoDate: string) {
-  const [year, month, day] = isoDate.slice(0, 10).split('-').map(Number);
-  return new Date(year, month - 1, day).toLocaleDateString(undefined, { day: 'numeric', month: 'short', year: 'numeric' });
-}
-
 export function formatMoment(timestamp: string) {
   return new Date(timestamp).toLocaleString(undefined, { day: 'numeric', month: 'short', year: 'numeric', hour: 'numeric', minute: '2-digit' });
 }

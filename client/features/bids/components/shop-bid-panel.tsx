@@ -7,12 +7,13 @@ import type { JobDetail } from '@shared/schemas/jobs';
 import { Button } from '@client/components/ui/button';
 import { ConfirmDialog } from '@client/components/ui/modal-dialog';
 import { Notice } from '@client/components/ui/notice';
+import { formatDay } from '@client/lib/dates';
 import { ConfirmEmailNotice, useNeedsEmailConfirmation } from '@client/features/auth';
 // The panel's props are fixed by the job page ({ job }), so it reads the shop's own profile (rate card, turnaround) itself.
 import { useOwnShop } from '@client/features/shops';
 import { useBid, useJobBids, usePlaceBid, useReviseBid, useWithdrawBid } from '../api/bids';
 import { BidForm, localDate, newBidValues, revisedBidValues } from './bid-form';
-import { BidLinesTable, BidStatusBadge, days, formatDay, formatMoment } from './bid-summary';
+import { BidLinesTable, BidStatusBadge, days, formatMoment } from './bid-summary';
 
 function Panel({ children, title }: { children: ReactNode; title: string }) {
   const headingId = useId();

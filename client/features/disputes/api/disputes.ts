@@ -1,7 +1,8 @@
-import { queryOptions, useMutation, useQuery, useQueryClient, type UseMutationOptions } from '@tanstack/react-query';
+import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { Dispute, DisputeResponseInput, DisputeView, OpenDisputeInput } from '@shared/schemas/disputes';
-import { api, type ApiError } from '@client/lib/api-client';
-import { disputeKeys, jobKeys, paymentKeys } from '@client/lib/query-keys';
+import { api } from '@client/lib/api-client';
+import { type MutationConfig, type MutationOptions, useApiMutation } from '@client/lib/mutation';
+import { disputeKeys, jobChangeKeys } from '@client/lib/query-keys';
 
 export const disputeQueries = {
   forJob: (jobId: string) => queryOptions({ queryKey: disputeKeys.forJob(jobId), queryFn: () => api.get<DisputeView>(`/api/jobs/${jobId}/dispute`) }),
@@ -9,34 +10,12 @@ export const disputeQueries = {
 
 export const useJobDispute = (jobId: string, options: { enabled?: boolean } = {}) => useQuery({ ...disputeQueries.forJob(jobId), ...options });
 
-type Config<TData, TVars> = Omit<UseMutationOptions<TData, ApiError, TVars>, 'mutationFn'>;
-
-/** Opening or answering a dispute changes the job's status and keeps its money held: refresh all three. */
-export function useRefreshAfterDispute(jobId: string) {
-  const queryClient = useQueryClient();
-  return () => {
-    void queryClient.invalidateQueries({ queryKey: disputeKeys.forJob(jobId) });
-    void queryClient.invalidateQueries({ queryKey: jobKeys.detail(jobId) });
-    void queryClient.invalidateQueries({ queryKey: jobKeys.mineAll() });
-    void queryClient.invalidateQueries({ queryKey: paymentKeys.all(jobId) });
-  };
-}
-
-function useDisputeMutation<TVars>(jobId: string, run: (vars: TVars) => Promise<Dispute>, config?: Config<Dispute, TVars>) {
-  const refresh = useRefreshAfterDispute(jobId);
-  const { onSuccess, ...rest } = config ?? {};
-  return useMutation<Dispute, ApiError, TVars>({
-    ...rest,
-    mutationFn: run,
-    onSuccess: (...args) => {
-      refresh();
-      return onSuccess?.(...args);
-    },
-  });
-}
+/** Opening or answering a dispute changes the job's status and keeps its money held. */
+const useDisputeMutation = <TVars>(jobId: string, run: (vars: TVars) => Promise<Dispute>, config?: MutationConfig<Dispute, TVars>) =>
+  useApiMutation(run, { refreshes: () => jobChangeKeys(jobId) }, config);
 
 /** The builder or the awarded shop opens a dispute; the job becomes 'disputed' and its payment stays held. */
-export const useOpenDispute = (jobId: string, options?: { mutationConfig?: Config<Dispute, OpenDisputeInput> }) =>
+export const useOpenDispute = (jobId: string, options?: MutationOptions<Dispute, OpenDisputeInput>) =>
   useDisputeMutation(
     jobId,
     (input: OpenDisputeInput) => api.post<{ dispute: Dispute }>(`/api/jobs/${jobId}/dispute`, input).then((r) => r.dispute),
@@ -44,7 +23,7 @@ export const useOpenDispute = (jobId: string, options?: { mutationConfig?: Confi
   );
 
 /** The other side answers, once. */
-export const useRespondToDispute = (jobId: string, options?: { mutationConfig?: Config<Dispute, DisputeResponseInput> }) =>
+export const useRespondToDispute = (jobId: string, options?: MutationOptions<Dispute, DisputeResponseInput>) =>
   useDisputeMutation(
     jobId,
     (input: DisputeResponseInput) => api.post<{ dispute: Dispute }>(`/api/jobs/${jobId}/dispute/response`, input).then((r) => r.dispute),

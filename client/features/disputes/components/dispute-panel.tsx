@@ -21,9 +21,10 @@ import { ConfirmDialog } from '@client/components/ui/modal-dialog';
 import { Notice } from '@client/components/ui/notice';
 import { TextAreaField } from '@client/components/ui/text-area-field';
 import { ApiError } from '@client/lib/api-client';
+import { useRefreshJob } from '@client/lib/mutation';
 import { cn } from '@client/lib/cn';
 import { applyServerErrors } from '@client/lib/form-errors';
-import { useJobDispute, useOpenDispute, useRefreshAfterDispute, useRespondToDispute } from '../api/disputes';
+import { useJobDispute, useOpenDispute, useRespondToDispute } from '../api/disputes';
 
 type Side = 'builder' | 'shop';
 export type DisputeViewer = Side | 'admin';
@@ -59,7 +60,7 @@ export function outcomeWords(resolution: NonNullable<Dispute['resolution']>): st
 
 /** A 409 means the job moved on (someone else acted first): show the page as it is now. */
 function useRefreshOnConflict(jobId: string) {
-  const refresh = useRefreshAfterDispute(jobId);
+  const refresh = useRefreshJob(jobId);
   return (error: unknown) => {
     if (error instanceof ApiError && error.status === 409) refresh();
   };

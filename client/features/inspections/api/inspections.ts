@@ -1,7 +1,8 @@
-import { queryOptions, useMutation, useQuery, useQueryClient, type UseMutationOptions } from '@tanstack/react-query';
+import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { InspectionInput, InspectionVersion } from '@shared/schemas/inspection';
-import { api, type ApiError } from '@client/lib/api-client';
-import { inspectionKeys, jobKeys, milestoneKeys, paymentKeys } from '@client/lib/query-keys';
+import { api } from '@client/lib/api-client';
+import { type MutationConfig, type MutationOptions, useApiMutation } from '@client/lib/mutation';
+import { inspectionKeys, jobChangeKeys } from '@client/lib/query-keys';
 
 export interface InspectionView {
   /** Newest first. */
@@ -25,51 +26,25 @@ export const inspectionQueries = {
 
 export const useInspection = (jobId: string, options: { enabled?: boolean } = {}) => useQuery({ ...inspectionQueries.forJob(jobId), ...options });
 
-type Config<TData, TVars> = Omit<UseMutationOptions<TData, ApiError, TVars>, 'mutationFn'>;
-
 /** Saves the shop's unfinished entry; nothing is judged. The cache is not refreshed: the form holds the newer state. */
-export const useSaveInspectionDraft = (jobId: string, options?: { mutationConfig?: Config<{ savedAt: string }, Record<string, unknown>> }) =>
-  useMutation<{ savedAt: string }, ApiError, Record<string, unknown>>({
-    ...options?.mutationConfig,
-    mutationFn: (draft) => api.put<{ savedAt: string }>(`/api/jobs/${jobId}/inspection/draft`, { draft }),
-  });
+export const useSaveInspectionDraft = (jobId: string, options?: MutationOptions<{ savedAt: string }, Record<string, unknown>>) =>
+  useApiMutation((draft: Record<string, unknown>) => putInspectionDraft(jobId, draft), {}, options?.mutationConfig);
 
 /** Submitting, accepting or rejecting changes the job's state, its money and possibly its timeline. */
-function useRefreshAfterDecision(jobId: string) {
-  const queryClient = useQueryClient();
-  return () => {
-    void queryClient.invalidateQueries({ queryKey: inspectionKeys.forJob(jobId) });
-    void queryClient.invalidateQueries({ queryKey: jobKeys.detail(jobId) });
-    void queryClient.invalidateQueries({ queryKey: jobKeys.mineAll() });
-    void queryClient.invalidateQueries({ queryKey: paymentKeys.all(jobId) });
-    void queryClient.invalidateQueries({ queryKey: milestoneKeys.forJob(jobId) });
-  };
-}
+const useVersionMutation = <TVars>(jobId: string, run: (vars: TVars) => Promise<InspectionVersion>, config?: MutationConfig<InspectionVersion, TVars>) =>
+  useApiMutation(run, { refreshes: () => jobChangeKeys(jobId) }, config);
 
-function useVersionMutation<TVars>(jobId: string, run: (vars: TVars) => Promise<InspectionVersion>, config?: Config<InspectionVersion, TVars>) {
-  const refresh = useRefreshAfterDecision(jobId);
-  const { onSuccess, ...rest } = config ?? {};
-  return useMutation<InspectionVersion, ApiError, TVars>({
-    ...rest,
-    mutationFn: run,
-    onSuccess: (...args) => {
-      refresh();
-      return onSuccess?.(...args);
-    },
-  });
-}
-
-export const useSubmitInspection = (jobId: string, options?: { mutationConfig?: Config<InspectionVersion, InspectionInput> }) =>
+export const useSubmitInspection = (jobId: string, options?: MutationOptions<InspectionVersion, InspectionInput>) =>
   useVersionMutation(
     jobId,
     (input: InspectionInput) => api.post<{ version: InspectionVersion }>(`/api/jobs/${jobId}/inspection`, input).then((r) => r.version),
     options?.mutationConfig,
   );
 
-export const useAcceptInspection = (jobId: string, options?: { mutationConfig?: Config<InspectionVersion, void> }) =>
+export const useAcceptInspection = (jobId: string, options?: MutationOptions<InspectionVersion, void>) =>
   useVersionMutation(jobId, () => api.post<{ version: InspectionVersion }>(`/api/jobs/${jobId}/inspection/accept`).then((r) => r.version), options?.mutationConfig);
 
-export const useRejectInspection = (jobId: string, options?: { mutationConfig?: Config<InspectionVersion, { reasons: string }> }) =>
+export const useRejectInspection = (jobId: string, options?: MutationOptions<InspectionVersion, { reasons: string }>) =>
   useVersionMutation(
     jobId,
     (body: { reasons: string }) => api.post<{ version: InspectionVersion }>(`/api/jobs/${jobId}/inspection/reject`, body).then((r) => r.version),

@@ -3,6 +3,7 @@ import { toast } from 'sonner';
 import type { LengthUnit } from '@shared/calc';
 import type { InspectionVersion } from '@shared/schemas/inspection';
 import type { JobDetail } from '@shared/schemas/jobs';
+import { BoreReadingGrid } from '@client/components/bore-readings/bore-reading-grid';
 import { Button } from '@client/components/ui/button';
 import { CheckboxField } from '@client/components/ui/checkbox-field';
 import { Notice } from '@client/components/ui/notice';
@@ -17,7 +18,6 @@ import { useDraftAutosave, type DraftStatus } from '../hooks/use-draft-autosave'
 import { evaluateLive } from '../lib/evaluate';
 import { MAX_TRACE_POINTS, readTrace } from '../lib/profile-file';
 import { type CrosshatchMode, type FinishMode, type FinishUnit, PROFILE_FILTER_CHOICES, type RecordForm, checkRecord, fieldId, pathWords, toDraft } from '../lib/record-form';
-import { BoreGrid } from './bore-grid';
 import { FailingChecksLine, InspectionResultsView } from './inspection-results';
 
 const clock = new Intl.DateTimeFormat('en-GB', { hour: '2-digit', minute: '2-digit' });
@@ -223,11 +223,22 @@ export function InspectionEntryForm({ job, initial, origin, onSubmitted }: Inspe
         </Section>
 
         <Section title={`Bores: ${count} cylinders`}>
-          <BoreGrid
+          <BoreReadingGrid
             cylinderCount={count}
             unit={form.unit}
             cells={form.cells}
             errors={errors}
+            inputId={fieldId}
+            pasteRows
+            pistonNote="(diameter)"
+            tableClassName="min-w-[34rem]"
+            help={
+              <>
+                Readings in {UNIT_WORDS[form.unit].long}. Tab moves along a cylinder (top, middle, bottom; thrust then axial; then the piston); Enter
+                moves to the same reading of the next cylinder. Paste rows copied from a spreadsheet into any cell to fill the grid from there: one
+                row per cylinder, top thrust, top axial, middle thrust, middle axial, bottom thrust, bottom axial and, optionally, the piston.
+              </>
+            }
             onChange={(changes) => {
               updateCells(changes);
               if (Object.keys(serverErrors).length > 0) setServerErrors({});

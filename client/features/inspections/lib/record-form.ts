@@ -8,33 +8,8 @@
  */
 import { type LengthUnit, STANDARD_CUTOFFS_MM, microinchesToMicrometres } from '@shared/calc';
 import { inspectionInputSchema, type InspectionInput } from '@shared/schemas/inspection';
+import { DEPTHS, DIRECTIONS, type Depth, type GridColumn, cellKey, cellPathWords } from '@client/lib/bore-readings';
 import { lengthToText, numberToText, toNumber, toNumberList } from '@client/lib/numbers';
-
-export const DEPTHS = ['top', 'middle', 'bottom'] as const;
-export const DIRECTIONS = ['thrust', 'axial'] as const;
-export type Depth = (typeof DEPTHS)[number];
-export type Direction = (typeof DIRECTIONS)[number];
-
-/** The grid's columns in Tab order: top, middle, bottom; thrust then axial; then the piston. */
-export const GRID_COLUMNS = [
-  'top.thrust',
-  'top.axial',
-  'middle.thrust',
-  'middle.axial',
-  'bottom.thrust',
-  'bottom.axial',
-  'piston',
-] as const;
-export type GridColumn = (typeof GRID_COLUMNS)[number];
-
-export const cellKey = (cylinder: number, column: GridColumn) => `cylinders.${cylinder}.${column}`;
-
-/** "Cylinder 3 middle axial", "Cylinder 3 piston diameter" (cylinder is zero-based). */
-export function cellLabel(cylinder: number, column: GridColumn): string {
-  if (column === 'piston') return `Cylinder ${cylinder + 1} piston diameter`;
-  const [depth, direction] = column.split('.');
-  return `Cylinder ${cylinder + 1} ${depth} ${direction}`;
-}
 
 export type FinishMode = 'none' | 'values' | 'profile';
 export type CrosshatchMode = 'none' | 'measured' | 'settings';
@@ -342,8 +317,8 @@ const FIELD_WORDS: Record<string, string> = {
 
 /** A schema path in words: "cylinders.2.middle.axial" → "cylinder 3 middle axial". */
 export function pathWords(path: string): string {
-  const cell = /^cylinders\.(\d+)\.(top|middle|bottom|piston)(?:\.(thrust|axial))?/.exec(path);
-  if (cell) return cell[2] === 'piston' ? `cylinder ${Number(cell[1]) + 1} piston diameter` : `cylinder ${Number(cell[1]) + 1} ${cell[2]} ${cell[3] ?? ''}`.trim();
+  const cell = cellPathWords(path);
+  if (cell) return cell;
   const reading = /^deck\.readings\.(\d+)$/.exec(path);
   if (reading) return `straightedge reading ${Number(reading[1]) + 1}`;
   return FIELD_WORDS[path] ?? path;

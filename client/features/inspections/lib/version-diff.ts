@@ -3,8 +3,8 @@
  * and condition as typed, and the worked-out figures, named in words.
  */
 import { type InspectionVersion, RECORD_VERDICT_WORDS, recordVerdict } from '@shared/schemas/inspection';
+import { DEPTHS, DIRECTIONS } from '@client/lib/bore-readings';
 import { formatLength, formatNumber, lengthToText, numberToText } from '@client/lib/numbers';
-import { DEPTHS, DIRECTIONS } from './record-form';
 
 export interface VersionChange {
   key: string;

@@ -20,9 +20,10 @@ import { SelectField } from '@client/components/ui/select-field';
 import { TextAreaField } from '@client/components/ui/text-area-field';
 import { TextField } from '@client/components/ui/text-field';
 import { cn } from '@client/lib/cn';
+import { todayIso } from '@client/lib/dates';
 import { applyServerErrors } from '@client/lib/form-errors';
 import { JobFiguresPanel } from './job-figures';
-import { layoutWords, logisticsWords, materialWords, pistonWords, todayIso } from './job-words';
+import { layoutWords, logisticsWords, materialWords, pistonWords } from './job-words';
 import { OperationsPicker } from './operations-picker';
 
 /** Fields holding a length in the job's unit: converted in place when the unit changes. */

@@ -2,7 +2,8 @@ import type { ReactNode } from 'react';
 import type { LengthUnit } from '@shared/calc';
 import { findOperation } from '@shared/catalogue';
 import type { JobDetail, JobInput } from '@shared/schemas/jobs';
-import { formatDay, formatLength, layoutWords, materialWords, pistonWords, quantityText, unitWords } from './job-words';
+import { formatDay } from '@client/lib/dates';
+import { formatLength, layoutWords, materialWords, pistonWords, quantityText, unitWords } from './job-words';
 
 type Item = [label: string, value: ReactNode] | false | undefined;
 

@@ -45,19 +45,6 @@ export function formatNumber(value: number, decimals: number): string {
   return new Intl.NumberFormat('en-US', { minimumFractionDigits: decimals, maximumFractionDigits: decimals }).format(value);
 }
 
-/** A calendar date (YYYY-MM-DD) read as a local day, so it never shifts by a time zone. */
-export function formatDay(isoDate: string): string {
-  const [y, m, d] = isoDate.slice(0, 10).split('-').map(Number);
-  if (!y || !m || !d) return isoDate;
-  return new Intl.DateTimeFormat('en-US', { day: 'numeric', month: 'short', year: 'numeric' }).format(new Date(y, m - 1, d));
-}
-
-/** Today as YYYY-MM-DD in the viewer's own time zone. */
-export function todayIso(): string {
-  const now = new Date();
-  return `${now.getFullYear()}-${String(now.getMonth() + 1).padStart(2, '0')}-${String(now.getDate()).padStart(2, '0')}`;
-}
-
 export const plural = (count: number, one: string, many = `${one}s`) => `${count} ${count === 1 ? one : many}`;
 
 const countWords: Record<string, [string, string]> = {

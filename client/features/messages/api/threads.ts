@@ -1,16 +1,7 @@
-import {
-  infiniteQueryOptions,
-  queryOptions,
-  useInfiniteQuery,
-  useMutation,
-  useQuery,
-  useQueryClient,
-  type InfiniteData,
-  type QueryClient,
-  type UseMutationOptions,
-} from '@tanstack/react-query';
+import { infiniteQueryOptions, queryOptions, useInfiniteQuery, useQuery, type InfiniteData, type QueryClient } from '@tanstack/react-query';
 import type { HistoryPage, Message, ThreadSummary } from '@shared/schemas/messages';
-import { api, type ApiError } from '@client/lib/api-client';
+import { api } from '@client/lib/api-client';
+import { type MutationOptions, useApiMutation } from '@client/lib/mutation';
 import { threadKeys } from '@client/lib/query-keys';
 import { toSearch } from '@client/lib/search-params';
 
@@ -64,27 +55,20 @@ export function useUnreadTotal(options?: { enabled?: boolean }): number {
   return (data ?? []).reduce((sum, thread) => sum + thread.unread, 0);
 }
 
-type Config<TData, TVars> = Omit<UseMutationOptions<TData, ApiError, TVars>, 'mutationFn'>;
-
 /**
  * Opens (or finds) the conversation about a job: the builder names the shop
  * that bid, a shop opens its own. The job's list gets the thread at once.
  */
-export function useOpenThread(jobId: string, options?: { mutationConfig?: Config<ThreadSummary, { shopId?: string }> }) {
-  const queryClient = useQueryClient();
-  const { onSuccess, ...rest } = options?.mutationConfig ?? {};
-  return useMutation<ThreadSummary, ApiError, { shopId?: string }>({
-    ...rest,
-    mutationFn: ({ shopId }) => api.post<{ thread: ThreadSummary }>(`/api/jobs/${jobId}/threads`, shopId ? { shopId } : {}).then((r) => r.thread),
-    onSuccess: (thread, ...args) => {
-      queryClient.setQueryData<ThreadSummary[]>(threadKeys.forJob(jobId), (list) =>
-        list ? [thread, ...list.filter((t) => t.id !== thread.id)] : [thread],
-      );
-      void queryClient.invalidateQueries({ queryKey: threadKeys.lists() });
-      return onSuccess?.(thread, ...args);
+export const useOpenThread = (jobId: string, options?: MutationOptions<ThreadSummary, { shopId?: string }>) =>
+  useApiMutation(
+    ({ shopId }: { shopId?: string }) => api.post<{ thread: ThreadSummary }>(`/api/jobs/${jobId}/threads`, shopId ? { shopId } : {}).then((r) => r.thread),
+    {
+      update: (queryClient, thread) =>
+        queryClient.setQueryData<ThreadSummary[]>(threadKeys.forJob(jobId), (list) => (list ? [thread, ...list.filter((t) => t.id !== thread.id)] : [thread])),
+      refreshes: () => [threadKeys.lists()],
     },
-  });
-}
+    options?.mutationConfig,
+  );
 
 // ---- the cache, kept current by live events ----
 

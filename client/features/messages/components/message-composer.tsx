@@ -2,10 +2,13 @@ import { forwardRef, useEffect, useId, useRef, useState, type FormEvent, type Ke
 import { MAX_MESSAGE_LENGTH, MAX_PHOTOS_PER_MESSAGE, messageContentSchema, type MessagePhoto } from '@shared/schemas/messages';
 import { Button } from '@client/components/ui/button';
 import { FieldFrame, inputBorder, useFieldIds } from '@client/components/ui/field-frame';
+import { PendingPhotoTile, type PendingUpload, megabytes } from '@client/components/ui/pending-photo-tile';
 import { ApiError } from '@client/lib/api-client';
 import { cn } from '@client/lib/cn';
 import { ACCEPTED_PHOTO_TYPES, MAX_PHOTO_BYTES, uploadMessagePhoto } from '../api/photos';
 import { COUNTER_FROM, remainingWords } from './message-words';
+
+type Attachment = PendingUpload<MessagePhoto>;
 
 export interface MessageComposerProps {
   /** The conversation the photos are uploaded to. */
@@ -17,18 +20,6 @@ export interface MessageComposerProps {
   /** Called as the person types (the caller throttles what it tells the server). */
   onTyping?: () => void;
 }
-
-interface Attachment {
-  key: number;
-  name: string;
-  status: 'uploading' | 'done' | 'failed';
-  progress: number;
-  photo?: MessagePhoto;
-  error?: string;
-  controller: AbortController;
-}
-
-const megabytes = (bytes: number) => `${(bytes / 1024 / 1024).toFixed(1)} MB`;
 
 /**
  * Where a message is written: Enter sends, Shift+Enter starts a new line; a
@@ -147,42 +138,13 @@ export const MessageComposer = forwardRef<HTMLTextAreaElement, MessageComposerPr
       {attachments.length > 0 && (
         <ul className="flex flex-wrap gap-2" aria-label="Photos to send" data-testid="composer-photos">
           {attachments.map((attachment) => (
-            <li key={attachment.key} className="flex w-32 flex-col gap-1 rounded-lg bg-white p-1.5 ring-1 ring-slate-200" data-status={attachment.status}>
-              {attachment.status === 'done' && attachment.photo ? (
-                <img
-                  src={attachment.photo.thumbUrl}
-                  alt={`Photo to send: ${attachment.name}`}
-                  width={attachment.photo.width}
-                  height={attachment.photo.height}
-                  className="size-[7.25rem] rounded-md bg-paper-sunk object-cover"
-                  data-testid="composer-photo-thumb"
-                />
-              ) : (
-                <div className="flex size-[7.25rem] flex-col justify-end gap-1 rounded-md bg-paper-sunk p-1.5">
-                  <span className="truncate text-xs font-semibold text-ink" title={attachment.name}>
-                    {attachment.name}
-                  </span>
-                  {attachment.status === 'uploading' ? (
-                    <>
-                      <span className="text-xs text-ink-soft">Uploading, {Math.round(attachment.progress * 100)}%</span>
-                      <progress
-                        value={attachment.progress}
-                        max={1}
-                        aria-label={`Upload of ${attachment.name}`}
-                        className="block h-2 w-full appearance-none overflow-hidden rounded-full bg-slate-100 [&::-moz-progress-bar]:bg-slate-700 [&::-webkit-progress-bar]:bg-slate-100 [&::-webkit-progress-value]:bg-slate-700"
-                      />
-                    </>
-                  ) : (
-                    <span className="text-xs font-semibold text-fail" role="alert">
-                      {attachment.error}
-                    </span>
-                  )}
-                </div>
-              )}
-              <Button variant="quiet" className="min-h-8 px-1 py-0.5 text-sm" onClick={() => removeAttachment(attachment)} aria-label={`Remove ${attachment.name}`}>
-                Remove
-              </Button>
-            </li>
+            <PendingPhotoTile
+              key={attachment.key}
+              upload={attachment}
+              alt={`Photo to send: ${attachment.name}`}
+              imageTestId="composer-photo-thumb"
+              onRemove={() => removeAttachment(attachment)}
+            />
           ))}
         </ul>
       )}

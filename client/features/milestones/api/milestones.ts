@@ -1,7 +1,8 @@
-import { queryOptions, useMutation, useQuery, useQueryClient, type UseMutationOptions } from '@tanstack/react-query';
+import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { Milestone, MilestoneInput } from '@shared/schemas/inspection';
-import { api, type ApiError } from '@client/lib/api-client';
-import { jobKeys, milestoneKeys } from '@client/lib/query-keys';
+import { api } from '@client/lib/api-client';
+import { type MutationOptions, useApiMutation } from '@client/lib/mutation';
+import { jobChangeKeys, milestoneKeys } from '@client/lib/query-keys';
 
 export const milestoneQueries = {
   /** The job's timeline, oldest first. */
@@ -14,20 +15,10 @@ export const milestoneQueries = {
 
 export const useMilestones = (jobId: string, options: { enabled?: boolean } = {}) => useQuery({ ...milestoneQueries.forJob(jobId), ...options });
 
-type Config<TData, TVars> = Omit<UseMutationOptions<TData, ApiError, TVars>, 'mutationFn'>;
-
 /** The awarded shop logs progress; "block received" also moves the job into the shop's hands, so the job refreshes too. */
-export function useLogMilestone(jobId: string, options?: { mutationConfig?: Config<Milestone, MilestoneInput> }) {
-  const queryClient = useQueryClient();
-  const { onSuccess, ...rest } = options?.mutationConfig ?? {};
-  return useMutation<Milestone, ApiError, MilestoneInput>({
-    ...rest,
-    mutationFn: (input) => api.post<{ milestone: Milestone }>(`/api/jobs/${jobId}/milestones`, input).then((r) => r.milestone),
-    onSuccess: (...args) => {
-      void queryClient.invalidateQueries({ queryKey: milestoneKeys.forJob(jobId) });
-      void queryClient.invalidateQueries({ queryKey: jobKeys.detail(jobId) });
-      void queryClient.invalidateQueries({ queryKey: jobKeys.mineAll() });
-      return onSuccess?.(...args);
-    },
-  });
-}
+export const useLogMilestone = (jobId: string, options?: MutationOptions<Milestone, MilestoneInput>) =>
+  useApiMutation(
+    (input: MilestoneInput) => api.post<{ milestone: Milestone }>(`/api/jobs/${jobId}/milestones`, input).then((r) => r.milestone),
+    { refreshes: () => jobChangeKeys(jobId) },
+    options?.mutationConfig,
+  );

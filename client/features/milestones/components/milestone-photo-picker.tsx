@@ -1,20 +1,11 @@
 import { useEffect, useId, useRef, useState } from 'react';
 import { MAX_PHOTOS_PER_MILESTONE, type MilestonePhoto } from '@shared/schemas/inspection';
 import { Button } from '@client/components/ui/button';
+import { PendingPhotoTile, type PendingUpload, megabytes } from '@client/components/ui/pending-photo-tile';
 import { ApiError } from '@client/lib/api-client';
 import { ACCEPTED_PHOTO_TYPES, MAX_PHOTO_BYTES, uploadMilestonePhoto } from '../api/milestone-photos';
 
-export interface PendingPhoto {
-  key: number;
-  name: string;
-  status: 'uploading' | 'done' | 'failed';
-  progress: number;
-  photo?: MilestonePhoto;
-  error?: string;
-  controller: AbortController;
-}
-
-const megabytes = (bytes: number) => `${(bytes / 1024 / 1024).toFixed(1)} MB`;
+export type PendingPhoto = PendingUpload<MilestonePhoto>;
 
 /**
  * Photos for the milestone being logged: checked here (type and size), each
@@ -73,41 +64,7 @@ export function MilestonePhotoPicker({ jobId, photos, onChange, error }: { jobId
       {photos.length > 0 && (
         <ul className="flex flex-wrap gap-2" aria-label="Photos for this milestone" data-testid="milestone-upload-photos">
           {photos.map((pending) => (
-            <li key={pending.key} className="flex w-32 flex-col gap-1 rounded-lg bg-white p-1.5 ring-1 ring-slate-200" data-status={pending.status}>
-              {pending.status === 'done' && pending.photo ? (
-                <img
-                  src={pending.photo.thumbUrl}
-                  alt={`Photo to log: ${pending.name}`}
-                  width={pending.photo.width}
-                  height={pending.photo.height}
-                  className="size-[7.25rem] rounded-md bg-paper-sunk object-cover"
-                />
-              ) : (
-                <div className="flex size-[7.25rem] flex-col justify-end gap-1 rounded-md bg-paper-sunk p-1.5">
-                  <span className="truncate text-xs font-semibold text-ink" title={pending.name}>
-                    {pending.name}
-                  </span>
-                  {pending.status === 'uploading' ? (
-                    <>
-                      <span className="text-xs text-ink-soft">Uploading, {Math.round(pending.progress * 100)}%</span>
-                      <progress
-                        value={pending.progress}
-                        max={1}
-                        aria-label={`Upload of ${pending.name}`}
-                        className="block h-2 w-full appearance-none overflow-hidden rounded-full bg-slate-100 [&::-moz-progress-bar]:bg-slate-700 [&::-webkit-progress-bar]:bg-slate-100 [&::-webkit-progress-value]:bg-slate-700"
-                      />
-                    </>
-                  ) : (
-                    <span className="text-xs font-semibold text-fail" role="alert">
-                      {pending.error}
-                    </span>
-                  )}
-                </div>
-              )}
-              <Button variant="quiet" className="min-h-8 px-1 py-0.5 text-sm" onClick={() => remove(pending)} aria-label={`Remove ${pending.name}`}>
-                Remove
-              </Button>
-            </li>
+            <PendingPhotoTile key={pending.key} upload={pending} alt={`Photo to log: ${pending.name}`} onRemove={() => remove(pending)} />
           ))}
         </ul>
       )}

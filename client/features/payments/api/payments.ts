@@ -1,7 +1,8 @@
-import { queryOptions, useMutation, useQuery, useQueryClient, type UseMutationOptions } from '@tanstack/react-query';
+import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { ChangeOrder, ChangeOrderInput, MoneyView } from '@shared/schemas/payments';
-import { api, type ApiError } from '@client/lib/api-client';
-import { jobKeys, paymentKeys, shopKeys } from '@client/lib/query-keys';
+import { api } from '@client/lib/api-client';
+import { type MutationOptions, useApiMutation } from '@client/lib/mutation';
+import { jobChangeKeys, paymentKeys, shopKeys } from '@client/lib/query-keys';
 
 export const paymentQueries = {
   money: (jobId: string) => queryOptions({ queryKey: paymentKeys.money(jobId), queryFn: () => api.get<MoneyView>(`/api/jobs/${jobId}/money`) }),
@@ -16,68 +17,35 @@ export const useMoney = (jobId: string, options: { enabled?: boolean; refetchInt
   useQuery({ ...paymentQueries.money(jobId), ...options });
 export const useChangeOrders = (jobId: string, enabled = true) => useQuery({ ...paymentQueries.changeOrders(jobId), enabled });
 
-type Config<TData, TVars> = Omit<UseMutationOptions<TData, ApiError, TVars>, 'mutationFn'>;
-
 /** Leaves for the payment provider's page (or the local stand-in's). */
 const goTo = (result: { url: string }) => {
   window.location.assign(result.url);
 };
 
-export const useStartCheckout = (jobId: string, options?: { mutationConfig?: Config<{ url: string }, void> }) =>
-  useMutation<{ url: string }, ApiError, void>({ onSuccess: goTo, ...options?.mutationConfig, mutationFn: () => api.post(`/api/jobs/${jobId}/checkout`) });
+export const useStartCheckout = (jobId: string, options?: MutationOptions<{ url: string }, void>) =>
+  useApiMutation(() => api.post<{ url: string }>(`/api/jobs/${jobId}/checkout`), {}, { onSuccess: goTo, ...options?.mutationConfig });
 
-export const useStartPayouts = (options?: { mutationConfig?: Config<{ url: string }, void> }) =>
-  useMutation<{ url: string }, ApiError, void>({ onSuccess: goTo, ...options?.mutationConfig, mutationFn: () => api.post('/api/shop-profile/payouts') });
+export const useStartPayouts = (options?: MutationOptions<{ url: string }, void>) =>
+  useApiMutation(() => api.post<{ url: string }>('/api/shop-profile/payouts'), {}, { onSuccess: goTo, ...options?.mutationConfig });
 
-export const useApproveChangeOrder = (options?: { mutationConfig?: Config<{ url: string }, string> }) =>
-  useMutation<{ url: string }, ApiError, string>({ onSuccess: goTo, ...options?.mutationConfig, mutationFn: (id) => api.post(`/api/change-orders/${id}/approve`) });
+export const useApproveChangeOrder = (options?: MutationOptions<{ url: string }, string>) =>
+  useApiMutation((id: string) => api.post<{ url: string }>(`/api/change-orders/${id}/approve`), {}, { onSuccess: goTo, ...options?.mutationConfig });
 
-function useRefreshJobMoney(jobId: string) {
-  const queryClient = useQueryClient();
-  return () => {
-    void queryClient.invalidateQueries({ queryKey: paymentKeys.all(jobId) });
-    void queryClient.invalidateQueries({ queryKey: jobKeys.detail(jobId) });
-    void queryClient.invalidateQueries({ queryKey: jobKeys.mineAll() });
-  };
-}
+export const useProposeChangeOrder = (jobId: string, options?: MutationOptions<ChangeOrder, ChangeOrderInput>) =>
+  useApiMutation(
+    (input: ChangeOrderInput) => api.post<{ changeOrder: ChangeOrder }>(`/api/jobs/${jobId}/change-orders`, input).then((r) => r.changeOrder),
+    { refreshes: () => jobChangeKeys(jobId) },
+    options?.mutationConfig,
+  );
 
-export function useProposeChangeOrder(jobId: string, options?: { mutationConfig?: Config<ChangeOrder, ChangeOrderInput> }) {
-  const refresh = useRefreshJobMoney(jobId);
-  const { onSuccess, ...rest } = options?.mutationConfig ?? {};
-  return useMutation<ChangeOrder, ApiError, ChangeOrderInput>({
-    ...rest,
-    mutationFn: (input) => api.post<{ changeOrder: ChangeOrder }>(`/api/jobs/${jobId}/change-orders`, input).then((r) => r.changeOrder),
-    onSuccess: (...args) => {
-      refresh();
-      return onSuccess?.(...args);
-    },
-  });
-}
+export const useDeclineChangeOrder = (jobId: string, options?: MutationOptions<ChangeOrder, string>) =>
+  useApiMutation(
+    (id: string) => api.post<{ changeOrder: ChangeOrder }>(`/api/change-orders/${id}/decline`).then((r) => r.changeOrder),
+    { refreshes: () => jobChangeKeys(jobId) },
+    options?.mutationConfig,
+  );
 
-export function useDeclineChangeOrder(jobId: string, options?: { mutationConfig?: Config<ChangeOrder, string> }) {
-  const refresh = useRefreshJobMoney(jobId);
-  const { onSuccess, ...rest } = options?.mutationConfig ?? {};
-  return useMutation<ChangeOrder, ApiError, string>({
-    ...rest,
-    mutationFn: (id) => api.post<{ changeOrder: ChangeOrder }>(`/api/change-orders/${id}/decline`).then((r) => r.changeOrder),
-    onSuccess: (...args) => {
-      refresh();
-      return onSuccess?.(...args);
-    },
-  });
-}
-
-export function useCancelAndRefund(jobId: string, options?: { mutationConfig?: Config<MoneyView, void> }) {
-  const refresh = useRefreshJobMoney(jobId);
-  const { onSuccess, ...rest } = options?.mutationConfig ?? {};
-  return useMutation<MoneyView, ApiError, void>({
-    ...rest,
-    mutationFn: () => api.post<MoneyView>(`/api/jobs/${jobId}/cancel-and-refund`),
-    onSuccess: (...args) => {
-      refresh();
-      return onSuccess?.(...args);
-    },
-  });
-}
+export const useCancelAndRefund = (jobId: string, options?: MutationOptions<MoneyView, void>) =>
+  useApiMutation(() => api.post<MoneyView>(`/api/jobs/${jobId}/cancel-and-refund`), { refreshes: () => jobChangeKeys(jobId) }, options?.mutationConfig);
 
 export { shopKeys };

@@ -1,6 +1,7 @@
-import { queryOptions, useMutation, useQuery, useQueryClient, type UseMutationOptions } from '@tanstack/react-query';
+import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { JobReviews, Review, ReviewInput } from '@shared/schemas/reviews';
-import { api, type ApiError } from '@client/lib/api-client';
+import { api } from '@client/lib/api-client';
+import { type MutationOptions, useApiMutation } from '@client/lib/mutation';
 import { bidKeys, reviewKeys, shopKeys } from '@client/lib/query-keys';
 
 export const reviewQueries = {
@@ -9,23 +10,13 @@ export const reviewQueries = {
 
 export const useJobReviews = (jobId: string, options: { enabled?: boolean } = {}) => useQuery({ ...reviewQueries.forJob(jobId), ...options });
 
-type Config<TData, TVars> = Omit<UseMutationOptions<TData, ApiError, TVars>, 'mutationFn'>;
-
 /**
  * The builder reviews the shop, or the shop the builder. A new review changes
  * the shop's rating, which shop pages and bid comparisons show.
  */
-export function useSubmitReview(jobId: string, options?: { mutationConfig?: Config<Review, ReviewInput> }) {
-  const queryClient = useQueryClient();
-  const { onSuccess, ...rest } = options?.mutationConfig ?? {};
-  return useMutation<Review, ApiError, ReviewInput>({
-    ...rest,
-    mutationFn: (input) => api.post<{ review: Review }>(`/api/jobs/${jobId}/reviews`, input).then((r) => r.review),
-    onSuccess: (...args) => {
-      void queryClient.invalidateQueries({ queryKey: reviewKeys.forJob(jobId) });
-      void queryClient.invalidateQueries({ queryKey: shopKeys.all });
-      void queryClient.invalidateQueries({ queryKey: bidKeys.forJob(jobId) });
-      return onSuccess?.(...args);
-    },
-  });
-}
+export const useSubmitReview = (jobId: string, options?: MutationOptions<Review, ReviewInput>) =>
+  useApiMutation(
+    (input: ReviewInput) => api.post<{ review: Review }>(`/api/jobs/${jobId}/reviews`, input).then((r) => r.review),
+    { refreshes: () => [reviewKeys.forJob(jobId), shopKeys.all, bidKeys.forJob(jobId)] },
+    options?.mutationConfig,
+  );

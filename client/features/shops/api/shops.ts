@@ -1,6 +1,7 @@
-import { keepPreviousData, queryOptions, useMutation, useQuery, useQueryClient, type UseMutationOptions } from '@tanstack/react-query';
+import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import type { OwnShop, PublicShop, ShopDirectoryPage, ShopProfileInput } from '@shared/schemas/shops';
 import { ApiError, api } from '@client/lib/api-client';
+import { type MutationOptions, useApiMutation } from '@client/lib/mutation';
 import { shopKeys, type DirectoryFilters } from '@client/lib/query-keys';
 import { toSearch } from '@client/lib/search-params';
 
@@ -40,17 +41,9 @@ export const useOwnShop = (options: { refetchInterval?: (data: OwnShop | null | 
     refetchInterval: (query) => (options.refetchInterval ? options.refetchInterval(query.state.data as OwnShop | null | undefined) : false),
   });
 
-export function useSaveShopProfile(options?: { mutationConfig?: Omit<UseMutationOptions<OwnShop, ApiError, ShopProfileInput>, 'mutationFn'> }) {
-  const queryClient = useQueryClient();
-  const { onSuccess, ...rest } = options?.mutationConfig ?? {};
-  return useMutation<OwnShop, ApiError, ShopProfileInput>({
-    ...rest,
-    mutationFn: (input) => api.put<{ shop: OwnShop }>('/api/shop-profile', input).then((r) => r.shop),
-    onSuccess: (shop, ...args) => {
-      queryClient.setQueryData(shopKeys.own(), shop);
-      void queryClient.invalidateQueries({ queryKey: shopKeys.lists() });
-      void queryClient.invalidateQueries({ queryKey: shopKeys.detail(shop.id) });
-      return onSuccess?.(shop, ...args);
-    },
-  });
-}
+export const useSaveShopProfile = (options?: MutationOptions<OwnShop, ShopProfileInput>) =>
+  useApiMutation(
+    (input: ShopProfileInput) => api.put<{ shop: OwnShop }>('/api/shop-profile', input).then((r) => r.shop),
+    { update: (queryClient, shop) => queryClient.setQueryData(shopKeys.own(), shop), refreshes: (shop) => [shopKeys.lists(), shopKeys.detail(shop.id)] },
+    options?.mutationConfig,
+  );

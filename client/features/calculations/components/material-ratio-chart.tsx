@@ -1,9 +1,8 @@
 import { memo } from 'react';
 import { CartesianGrid, Line, LineChart, ReferenceArea, ReferenceLine, XAxis, YAxis } from 'recharts';
 import type { CurvePoint, MaterialRatioParameters } from '@shared/calc';
-import { niceTicks } from '@client/lib/numbers';
-import { formatNumber } from '../lib/numbers';
-import { ChartLegend } from './calculator-parts';
+import { ChartLegend } from '@client/components/ui/chart-legend';
+import { formatNumber, niceTicks } from '@client/lib/numbers';
 
 const CURVE = '#1d4e6b'; // slate-700
 const SECANT = '#a3261b'; // fail red, for the construction line

@@ -13,21 +13,10 @@ import {
   crosshatchRateRequestSchema,
   crosshatchRequestSchema,
 } from '@shared/schemas/calculations';
+import { formatNumber, toNumber } from '@client/lib/numbers';
 import { useLiveCalculation } from '../hooks/use-live-calculation';
 import { type FieldKind, useUnitForm } from '../hooks/use-unit-form';
-import { formatNumber, toNumber } from '../lib/numbers';
-import {
-  CalculatorCard,
-  CardColumns,
-  CommonPractice,
-  FieldGrid,
-  FigureList,
-  GuidanceNote,
-  HeadlineFigure,
-  MissingHint,
-  NumberField,
-  ResultsPanel,
-} from './calculator-parts';
+import { CalculatorLayout, CommonPractice, FieldGrid, FigureList, GuidanceNote, HeadlineFigure, MissingHint, NumberField } from './calculator-parts';
 
 const initial = {
   bore: '',
@@ -104,7 +93,7 @@ export function CrosshatchCalculator({ unit }: { unit: LengthUnit }) {
   );
 
   return (
-    <CalculatorCard
+    <CalculatorLayout
       id="crosshatch"
       title="Crosshatch"
       intro={
@@ -115,70 +104,67 @@ export function CrosshatchCalculator({ unit }: { unit: LengthUnit }) {
           mid-stroke value; the stones slow down at each end.
         </>
       }
-    >
-      <CardColumns
-        inputs={
-          <>
+      inputs={
+        <>
+          <FieldGrid>
+            {field('bore', `Bore (${unit})`)}
+            {field('spindleRpm', 'Spindle speed (rev/min)')}
+            {field('strokeLength', `Stroke length of the hone (${unit})`)}
+            {field('cyclesPerMinute', 'Cycles per minute', 'Full up-and-down cycles: one stroke up and one down count as one. Counting single strokes gives about double the angle.')}
+          </FieldGrid>
+          <div className="border-t border-slate-200 pt-4">
+            <h3 className="mb-2 font-bold">The other way round: cycles for a target angle</h3>
             <FieldGrid>
-              {field('bore', `Bore (${unit})`)}
-              {field('spindleRpm', 'Spindle speed (rev/min)')}
-              {field('strokeLength', `Stroke length of the hone (${unit})`)}
-              {field('cyclesPerMinute', 'Cycles per minute', 'Full up-and-down cycles: one stroke up and one down count as one. Counting single strokes gives about double the angle.')}
+              {field(
+                'includedAngleDeg',
+                'Target included angle (°)',
+                <CommonPractice>
+                  starts at {general}°. {castIron.min}–{castIron.max}° is usual for cast iron, {race.min}–{race.max}° for some race work.
+                </CommonPractice>,
+              )}
             </FieldGrid>
-            <div className="border-t border-slate-200 pt-4">
-              <h3 className="mb-2 font-bold">The other way round: cycles for a target angle</h3>
-              <FieldGrid>
-                {field(
-                  'includedAngleDeg',
-                  'Target included angle (°)',
-                  <CommonPractice>
-                    starts at {general}°. {castIron.min}–{castIron.max}° is usual for cast iron, {race.min}–{race.max}° for some race work.
-                  </CommonPractice>,
-                )}
-              </FieldGrid>
+          </div>
+        </>
+      }
+      results={
+        <>
+          {angle.result ? (
+            <div className="flex flex-col gap-3" data-testid="crosshatch-angle-result">
+              <div className="flex flex-wrap items-end justify-between gap-3">
+                <HeadlineFigure label="Included angle, computed from settings (mid-stroke)" value={`${formatNumber(angle.result.includedAngleDeg, 1)}°`} />
+                <CrosshatchSketch includedAngleDeg={angle.result.includedAngleDeg} />
+              </div>
+              <FigureList
+                items={[
+                  { label: 'Each scratch from the horizontal', value: `${formatNumber(angle.result.scratchAngleDeg, 1)}°` },
+                  { label: 'Stone speed around the bore', value: speedText(angle.result.peripheralSpeed, unit) },
+                  { label: 'Mean speed up and down', value: speedText(angle.result.axialSpeed, unit) },
+                ]}
+              />
+              <p className="text-sm">
+                <CommonPractice>{formatNumber(angle.result.includedAngleDeg, 1)}° is {rangeNote(angle.result.includedAngleDeg)}</CommonPractice>
+              </p>
+              <GuidanceNote>The ring and engine makers&apos; finish requirements govern; check the pattern on the bore itself.</GuidanceNote>
             </div>
-          </>
-        }
-        results={
-          <ResultsPanel>
-            {angle.result ? (
-              <div className="flex flex-col gap-3" data-testid="crosshatch-angle-result">
-                <div className="flex flex-wrap items-end justify-between gap-3">
-                  <HeadlineFigure label="Included angle, computed from settings (mid-stroke)" value={`${formatNumber(angle.result.includedAngleDeg, 1)}°`} />
-                  <CrosshatchSketch includedAngleDeg={angle.result.includedAngleDeg} />
-                </div>
-                <FigureList
-                  items={[
-                    { label: 'Each scratch from the horizontal', value: `${formatNumber(angle.result.scratchAngleDeg, 1)}°` },
-                    { label: 'Stone speed around the bore', value: speedText(angle.result.peripheralSpeed, unit) },
-                    { label: 'Mean speed up and down', value: speedText(angle.result.axialSpeed, unit) },
-                  ]}
+          ) : (
+            <MissingHint missing={angle.missing} errors={angle.errors} labels={(key) => labels[key] ?? key} formError={angle.formError} />
+          )}
+          <div className="flex flex-col gap-2 border-t border-slate-200 pt-3">
+            <h4 className="font-bold">For the target angle</h4>
+            {rate.result ? (
+              <div data-testid="crosshatch-rate-result">
+                <HeadlineFigure
+                  label="Cycles per minute"
+                  value={formatNumber(rate.result.cyclesPerMinute, 1)}
+                  note={`Full up-and-down cycles at ${formatNumber(rateInput.spindleRpm ?? 0, 0)} rev/min.`}
                 />
-                <p className="text-sm">
-                  <CommonPractice>{formatNumber(angle.result.includedAngleDeg, 1)}° is {rangeNote(angle.result.includedAngleDeg)}</CommonPractice>
-                </p>
-                <GuidanceNote>The ring and engine makers&apos; finish requirements govern; check the pattern on the bore itself.</GuidanceNote>
               </div>
             ) : (
-              <MissingHint missing={angle.missing} errors={angle.errors} labels={(key) => labels[key] ?? key} formError={angle.formError} />
+              <MissingHint missing={rate.missing} errors={rate.errors} labels={(key) => labels[key] ?? key} formError={rate.formError} />
             )}
-            <div className="flex flex-col gap-2 border-t border-slate-200 pt-3">
-              <h4 className="font-bold">For the target angle</h4>
-              {rate.result ? (
-                <div data-testid="crosshatch-rate-result">
-                  <HeadlineFigure
-                    label="Cycles per minute"
-                    value={formatNumber(rate.result.cyclesPerMinute, 1)}
-                    note={`Full up-and-down cycles at ${formatNumber(rateInput.spindleRpm ?? 0, 0)} rev/min.`}
-                  />
-                </div>
-              ) : (
-                <MissingHint missing={rate.missing} errors={rate.errors} labels={(key) => labels[key] ?? key} formError={rate.formError} />
-              )}
-            </div>
-          </ResultsPanel>
-        }
-      />
-    </CalculatorCard>
+          </div>
+        </>
+      }
+    />
   );
 }

@@ -1,41 +1,55 @@
-import { useState, type ClipboardEvent, type KeyboardEvent } from 'react';
+import { useId, useState, type ClipboardEvent, type KeyboardEvent, type ReactNode } from 'react';
 import type { LengthUnit } from '@shared/calc';
+import { DEPTHS, DIRECTIONS, GRID_COLUMNS, cellKey, cellLabel, cellPathWords } from '@client/lib/bore-readings';
 import { cn } from '@client/lib/cn';
-import { UNIT_WORDS, splitRows } from '@client/lib/numbers';
-import { DEPTHS, DIRECTIONS, GRID_COLUMNS, type GridColumn, cellKey, cellLabel, fieldId, pathWords } from '../lib/record-form';
+import { splitRows } from '@client/lib/numbers';
 
-export interface BoreGridProps {
+export interface BoreReadingGridProps {
   cylinderCount: number;
   unit: LengthUnit;
+  /** The typed text by cell key (the schema path, see cellKey). */
   cells: Record<string, string>;
-  /** Messages by schema path, shown under the grid and tied to their cells. */
+  /** Messages by schema path; the grid shows those of its cells under the table and ties them to the cells. */
   errors: Record<string, string>;
   onChange: (changes: Record<string, string>) => void;
+  /** The help above the grid; the table is described by it. */
+  help: ReactNode;
+  /** The small words under "Piston" in the heading. */
+  pistonNote: string;
+  /** The id of a cell's input (its message gets the same id plus "-error"); by default one made for this grid. */
+  inputId?: (path: string) => string;
+  /** Fill the grid from a block of rows pasted from a spreadsheet, and say what was filled. */
+  pasteRows?: boolean;
+  /** Extra classes for the table, such as its least width. */
+  tableClassName?: string;
 }
 
 const capitalise = (text: string) => text.charAt(0).toUpperCase() + text.slice(1);
 
 /**
- * The bore readings as a keyboard-first grid, one row per cylinder. Tab runs
+ * Bore readings as a keyboard-first grid, one row per cylinder. Tab runs
  * along a cylinder (top, middle, bottom; thrust then axial; then the piston),
  * Enter and the down arrow go to the same reading of the next cylinder (from
- * the last cylinder, to the top of the next column), the up arrow back. A
- * block pasted from a spreadsheet fills the grid from the cell it lands in.
+ * the last cylinder, Enter goes to the top of the next column), the up arrow
+ * back. With `pasteRows`, a block pasted from a spreadsheet fills the grid
+ * from the cell it lands in.
  */
-export function BoreGrid({ cylinderCount, unit, cells, errors, onChange }: BoreGridProps) {
+export function BoreReadingGrid({ cylinderCount, unit, cells, errors, onChange, help, pistonNote, inputId, pasteRows = false, tableClassName }: BoreReadingGridProps) {
+  const gridId = useId();
+  const idOf = inputId ?? ((path: string) => `${gridId}${path.replace(/\./g, '-')}`);
+  const helpId = `${gridId}help`;
   const [pasteNote, setPasteNote] = useState('');
 
   const focusCell = (row: number, column: number) => {
-    const target = document.getElementById(fieldId(cellKey(row, GRID_COLUMNS[column]))) as HTMLInputElement | null;
-    if (!target) return false;
+    const target = document.getElementById(idOf(cellKey(row, GRID_COLUMNS[column]))) as HTMLInputElement | null;
+    if (!target) return;
     target.focus();
     target.select();
-    return true;
   };
 
   const onKeyDown = (event: KeyboardEvent<HTMLInputElement>, row: number, column: number) => {
     if (event.key === 'Enter' || event.key === 'ArrowDown') {
-      // Never submit the form from the grid.
+      // Never submit a form from the grid.
       event.preventDefault();
       if (row + 1 < cylinderCount) focusCell(row + 1, column);
       else if (event.key === 'Enter' && column + 1 < GRID_COLUMNS.length) focusCell(0, column + 1);
@@ -75,18 +89,18 @@ export function BoreGrid({ cylinderCount, unit, cells, errors, onChange }: BoreG
     const error = errors[key];
     return (
       <input
-        id={fieldId(key)}
+        id={idOf(key)}
         type="text"
         inputMode="decimal"
         autoComplete="off"
         spellCheck={false}
-        aria-label={cellLabel(row, GRID_COLUMNS[column] as GridColumn)}
+        aria-label={cellLabel(row, GRID_COLUMNS[column])}
         aria-invalid={error ? true : undefined}
-        aria-describedby={error ? `${fieldId(key)}-error` : undefined}
+        aria-describedby={error ? `${idOf(key)}-error` : undefined}
         value={cells[key] ?? ''}
         onChange={(event) => onChange({ [key]: event.target.value })}
         onKeyDown={(event) => onKeyDown(event, row, column)}
-        onPaste={(event) => onPaste(event, row, column)}
+        onPaste={pasteRows ? (event) => onPaste(event, row, column) : undefined}
         className={cn(
           'w-full min-w-0 rounded-md border px-2 py-2 text-sm tabular-nums text-ink',
           error ? 'border-fail bg-fail-soft' : 'border-slate-300 bg-white focus:border-slate-600',
@@ -97,13 +111,11 @@ export function BoreGrid({ cylinderCount, unit, cells, errors, onChange }: BoreG
 
   return (
     <div className="flex flex-col gap-2">
-      <p className="text-sm text-ink-soft" id="bore-grid-help">
-        Readings in {UNIT_WORDS[unit].long}. Tab moves along a cylinder (top, middle, bottom; thrust then axial; then the piston); Enter moves to
-        the same reading of the next cylinder. Paste rows copied from a spreadsheet into any cell to fill the grid from there: one row per
-        cylinder, top thrust, top axial, middle thrust, middle axial, bottom thrust, bottom axial and, optionally, the piston.
+      <p className="text-sm text-ink-soft" id={helpId}>
+        {help}
       </p>
       <div className="overflow-x-auto">
-        <table className="w-full min-w-[34rem] table-fixed border-separate border-spacing-1 text-sm" aria-describedby="bore-grid-help">
+        <table className={cn('w-full table-fixed border-separate border-spacing-1 text-sm', tableClassName)} aria-describedby={helpId}>
           <caption className="sr-only">Bore readings in {unit}, one row per cylinder</caption>
           <colgroup>
             <col className="w-10" />
@@ -119,7 +131,7 @@ export function BoreGrid({ cylinderCount, unit, cells, errors, onChange }: BoreG
                 </th>
               ))}
               <th scope="col" rowSpan={2} className="align-bottom font-semibold text-ink">
-                Piston <span className="block text-xs font-normal text-ink-soft">(diameter)</span>
+                Piston <span className="block text-xs font-normal text-ink-soft">{pistonNote}</span>
               </th>
             </tr>
             <tr>
@@ -146,14 +158,16 @@ export function BoreGrid({ cylinderCount, unit, cells, errors, onChange }: BoreG
           </tbody>
         </table>
       </div>
-      <p aria-live="polite" className="text-sm text-ink-soft" data-testid="paste-note">
-        {pasteNote}
-      </p>
+      {pasteRows && (
+        <p aria-live="polite" className="text-sm text-ink-soft" data-testid="paste-note">
+          {pasteNote}
+        </p>
+      )}
       {gridErrors.length > 0 && (
         <ul className="flex flex-col gap-0.5 text-sm font-semibold text-fail">
           {gridErrors.map(([path, message]) => (
-            <li key={path} id={`${fieldId(path)}-error`}>
-              {capitalise(pathWords(path))}: {message}
+            <li key={path} id={`${idOf(path)}-error`}>
+              {capitalise(cellPathWords(path) ?? path)}: {message}
             </li>
           ))}
         </ul>

@@ -1,6 +1,6 @@
 import { useCallback, useState } from 'react';
 import type { LengthUnit } from '@shared/calc';
-import { convertTypedLength, convertTypedLengthList } from '../lib/numbers';
+import { convertTypedLength, convertTypedLengthList } from '@client/lib/numbers';
 
 /** How a field follows the page's unit switch: a single length, a list of lengths, or not at all. */
 export type FieldKind = 'length' | 'length-list' | 'other';

@@ -1,4 +1,4 @@
-import { useId, useMemo, type KeyboardEvent, type ReactNode } from 'react';
+import { useMemo, type ReactNode } from 'react';
 import {
   type BoreInspection,
   type BoreLimit,
@@ -9,18 +9,18 @@ import {
   inspectBores,
 } from '@shared/calc';
 import { type BoreInspectionRequest, boreInspectionRequestSchema } from '@shared/schemas/calculations';
+import { BoreDepthChart } from '@client/components/bore-readings/bore-depth-chart';
+import { BoreReadingGrid } from '@client/components/bore-readings/bore-reading-grid';
 import { Button } from '@client/components/ui/button';
 import { SelectField } from '@client/components/ui/select-field';
+import { DEPTHS, type Depth, cellKey, cellPathWords } from '@client/lib/bore-readings';
 import { cn } from '@client/lib/cn';
+import { LENGTH_DECIMALS, UNIT_WORDS, formatChange, formatLength, formatNumber, toNumber } from '@client/lib/numbers';
 import { useLiveCalculation } from '../hooks/use-live-calculation';
 import { type FieldKind, useUnitForm } from '../hooks/use-unit-form';
-import { LENGTH_DECIMALS, formatChange, formatLength, formatNumber, toNumber } from '../lib/numbers';
-import { BoreDepthChart } from './bore-depth-chart';
 import { CalculatorCard, CommonPractice, FieldGrid, GuidanceNote, MissingHint, NumberField, PassMark, ResultsPanel } from './calculator-parts';
 
 export const MAX_GRID_CYLINDERS = 16;
-const DEPTHS = ['top', 'middle', 'bottom'] as const;
-const DIRECTIONS = ['thrust', 'axial'] as const;
 const SPEC_KEYS = ['targetBore', 'targetTolerance', 'clearanceMin', 'clearanceMax', 'maxTaper', 'maxOutOfRound'] as const;
 type SpecKey = (typeof SPEC_KEYS)[number];
 
@@ -45,29 +45,17 @@ const initial: Record<string, string> = {
 };
 const kindOf = (key: string): FieldKind => (key === 'count' || key === 'chart' ? 'other' : 'length');
 
-const cellKey = (index: number, depth: string, direction: string) => `c${index}.${depth}.${direction}`;
-const pistonKey = (index: number) => `c${index}.piston`;
-/** The form key of a schema path: "cylinders.2.top.thrust" → "c2.top.thrust", "spec.maxTaper" → "maxTaper". */
-function formKey(path: string): string {
-  const cell = /^cylinders\.(\d+)\.(.+)$/.exec(path);
-  if (cell) return `c${cell[1]}.${cell[2]}`;
-  return path.replace(/^spec\./, '');
-}
-function cellWords(path: string): string {
-  const cell = /^cylinders\.(\d+)\.(top|middle|bottom|piston)(?:\.(thrust|axial))?$/.exec(path);
-  if (cell) return cell[2] === 'piston' ? `cylinder ${Number(cell[1]) + 1} piston diameter` : `cylinder ${Number(cell[1]) + 1} ${cell[2]} ${cell[3]}`;
-  const spec: Record<string, string> = {
-    'spec.targetBore': 'the target bore',
-    'spec.targetTolerance': 'the tolerance',
-    'spec.clearanceMin': 'the least clearance',
-    'spec.clearanceMax': 'the most clearance',
-    'spec.maxTaper': 'the taper limit',
-    'spec.maxOutOfRound': 'the out-of-round limit',
-  };
-  return spec[path] ?? path;
-}
-const capitalise = (text: string) => text.charAt(0).toUpperCase() + text.slice(1);
-
+/** The form key of a schema path: cells keep theirs ("cylinders.2.top.thrust"), "spec.maxTaper" → "maxTaper". */
+const formKey = (path: string) => path.replace(/^spec\./, '');
+const SPEC_WORDS: Record<string, string> = {
+  'spec.targetBore': 'the target bore',
+  'spec.targetTolerance': 'the tolerance',
+  'spec.clearanceMin': 'the least clearance',
+  'spec.clearanceMax': 'the most clearance',
+  'spec.maxTaper': 'the taper limit',
+  'spec.maxOutOfRound': 'the out-of-round limit',
+};
+const pathWords = (path: string) => cellPathWords(path) ?? SPEC_WORDS[path] ?? path;
 function failureText(failure: LimitFailure, unit: LengthUnit): string {
   const L = (value: number) => formatLength(value, unit);
   switch (failure.limit) {
@@ -108,46 +96,25 @@ function exampleValues(count: number): Record<string, string> {
     const oval = 0.0001 * ((i + 1) % 3);
     DEPTHS.forEach((depth, d) => {
       const atDepth = base + taper * (1 - d / 2) - taper / 2;
-      values[cellKey(i, depth, 'thrust')] = (atDepth + oval).toFixed(4);
-      values[cellKey(i, depth, 'axial')] = atDepth.toFixed(4);
+      values[cellKey(i, `${depth}.thrust`)] = (atDepth + oval).toFixed(4);
+      values[cellKey(i, `${depth}.axial`)] = atDepth.toFixed(4);
     });
-    values[pistonKey(i)] = '4.0270';
+    values[cellKey(i, 'piston')] = '4.0270';
   }
   return values;
 }
 
 const computeInspection = (data: BoreInspectionRequest): BoreInspection => inspectBores(data);
 
-/** Enter or the down arrow moves to the next row's cell in the same column (or the next cell); the up arrow goes back up. */
-function onGridKey(event: KeyboardEvent<HTMLInputElement>) {
-  const input = event.currentTarget;
-  const table = input.closest('table');
-  if (!table) return;
-  const column = input.dataset.column;
-  const row = Number(input.dataset.row);
-  let target: HTMLInputElement | null = null;
-  if (event.key === 'ArrowDown' || event.key === 'Enter') {
-    target = table.querySelector(`input[data-row="${row + 1}"][data-column="${column}"]`);
-  } else if (event.key === 'ArrowUp') {
-    target = table.querySelector(`input[data-row="${row - 1}"][data-column="${column}"]`);
-  }
-  if (target) {
-    event.preventDefault();
-    target.focus();
-    target.select();
-  }
-}
-
 export function BoreCheckCalculator({ unit }: { unit: LengthUnit }) {
-  const id = useId();
   const { values, setValue, setValues } = useUnitForm(unit, initial, kindOf);
   const count = Math.min(MAX_GRID_CYLINDERS, Math.max(1, Number(values.count) || 1));
   const chartIndex = Math.min(count, Math.max(1, Number(values.chart) || 1)) - 1;
 
   const input = useMemo(() => {
     const cylinders = Array.from({ length: count }, (_, i) => {
-      const pair = (depth: string) => ({ thrust: toNumber(values[cellKey(i, depth, 'thrust')]), axial: toNumber(values[cellKey(i, depth, 'axial')]) });
-      return { top: pair('top'), middle: pair('middle'), bottom: pair('bottom'), piston: toNumber(values[pistonKey(i)]) };
+      const pair = (depth: Depth) => ({ thrust: toNumber(values[cellKey(i, `${depth}.thrust`)]), axial: toNumber(values[cellKey(i, `${depth}.axial`)]) });
+      return { top: pair('top'), middle: pair('middle'), bottom: pair('bottom'), piston: toNumber(values[cellKey(i, 'piston')]) };
     });
     const spec = Object.fromEntries(SPEC_KEYS.map((key) => [key, toNumber(values[key])]));
     const hasSpec = Object.values(spec).some((value) => value !== undefined);
@@ -155,7 +122,7 @@ export function BoreCheckCalculator({ unit }: { unit: LengthUnit }) {
   }, [unit, values, count]);
 
   const { result, errors: schemaErrors, missing, formError } = useLiveCalculation(boreInspectionRequestSchema, input, computeInspection);
-  const errors = useMemo(() => Object.fromEntries(Object.entries(schemaErrors).map(([path, message]) => [formKey(path), { path, message }])), [schemaErrors]);
+  const errors = useMemo(() => Object.fromEntries(Object.entries(schemaErrors).map(([path, message]) => [formKey(path), message])), [schemaErrors]);
   const hasLimits = input.spec !== undefined && SPEC_KEYS.some((key) => key !== 'targetTolerance' && input.spec?.[key] !== undefined);
 
   const hint = (inches: number) => formatLength(convertLength(inches, 'in', unit), unit);
@@ -164,34 +131,10 @@ export function BoreCheckCalculator({ unit }: { unit: LengthUnit }) {
       label={`${label} (${unit})`}
       value={values[key] ?? ''}
       onValueChange={(text) => setValue(key, text)}
-      error={errors[key]?.message}
+      error={errors[key]}
       hint={hintText}
     />
   );
-
-  const cellInput = (i: number, column: string, key: string, label: string) => {
-    const error = errors[key];
-    return (
-      <input
-        type="text"
-        inputMode="decimal"
-        autoComplete="off"
-        spellCheck={false}
-        aria-label={label}
-        aria-invalid={error ? true : undefined}
-        aria-describedby={error ? `${id}-error-${key}` : undefined}
-        data-row={i}
-        data-column={column}
-        value={values[key] ?? ''}
-        onChange={(event) => setValue(key, event.target.value)}
-        onKeyDown={onGridKey}
-        className={cn(
-          'w-full min-w-0 rounded-md border px-2 py-2 text-sm tabular-nums text-ink',
-          error ? 'border-fail bg-fail-soft' : 'border-slate-300 bg-white focus:border-slate-600',
-        )}
-      />
-    );
-  };
 
   const chartReadings: CylinderReadings | undefined = result ? (input.cylinders[chartIndex] as CylinderReadings) : undefined;
 
@@ -233,70 +176,21 @@ export function BoreCheckCalculator({ unit }: { unit: LengthUnit }) {
               Clear all
             </Button>
           </div>
-          <p className="text-sm text-ink-soft">
-            Readings in {unit === 'in' ? 'inches' : 'millimetres'}. Tab moves along a cylinder (top, middle, bottom; thrust then axial);
-            Enter or the arrow keys move between cylinders. The example readings are made up.
-          </p>
-          <div className="overflow-x-auto">
-            <table className="w-full min-w-[36rem] table-fixed border-separate border-spacing-1 text-sm">
-              <caption className="sr-only">Bore readings in {unit}, one row per cylinder</caption>
-              <colgroup>
-                <col className="w-10" />
-              </colgroup>
-              <thead className="text-ink-soft">
-                <tr>
-                  <th scope="col" rowSpan={2} className="text-left font-semibold">
-                    Cyl.
-                  </th>
-                  {DEPTHS.map((depth) => (
-                    <th key={depth} scope="colgroup" colSpan={2} className="border-b border-slate-200 pb-0.5 font-semibold capitalize text-ink">
-                      {depth}
-                    </th>
-                  ))}
-                  <th scope="col" rowSpan={2} className="align-bottom font-semibold text-ink">
-                    Piston <span className="block text-xs font-normal text-ink-soft">(optional)</span>
-                  </th>
-                </tr>
-                <tr>
-                  {DEPTHS.flatMap((depth) =>
-                    DIRECTIONS.map((direction) => (
-                      <th key={`${depth}-${direction}`} scope="col" className="font-normal capitalize">
-                        {direction}
-                      </th>
-                    )),
-                  )}
-                </tr>
-              </thead>
-              <tbody>
-                {Array.from({ length: count }, (_, i) => (
-                  <tr key={i}>
-                    <th scope="row" className="text-left font-bold text-ink">
-                      {i + 1}
-                    </th>
-                    {DEPTHS.flatMap((depth) =>
-                      DIRECTIONS.map((direction) => (
-                        <td key={`${depth}-${direction}`}>
-                          {cellInput(i, `${depth}.${direction}`, cellKey(i, depth, direction), `Cylinder ${i + 1} ${depth} ${direction}`)}
-                        </td>
-                      )),
-                    )}
-                    <td>{cellInput(i, 'piston', pistonKey(i), `Cylinder ${i + 1} piston diameter`)}</td>
-                  </tr>
-                ))}
-              </tbody>
-            </table>
-          </div>
-          {Object.entries(errors).some(([key]) => key.startsWith('c')) && (
-            <ul className="flex flex-col gap-0.5 text-sm font-semibold text-fail">
-              {Object.entries(errors)
-                .filter(([key]) => /^c\d/.test(key))
-                .map(([key, { path, message }]) => (
-                  <li key={key} id={`${id}-error-${key}`}>
-                    {capitalise(cellWords(path))}: {message}
-                  </li>
-                ))}
-            </ul>
-          )}
+          <BoreReadingGrid
+            cylinderCount={count}
+            unit={unit}
+            cells={values}
+            errors={errors}
+            onChange={(changes) => setValues(changes, unit)}
+            pistonNote="(optional)"
+            tableClassName="min-w-[36rem]"
+            help={
+              <>
+                Readings in {UNIT_WORDS[unit].long}. Tab moves along a cylinder (top, middle, bottom; thrust then axial); Enter or the arrow keys
+                move between cylinders. The example readings are made up.
+              </>
+            }
+          />
         </div>
 
         <fieldset className="flex min-w-0 flex-col gap-3 rounded-lg border border-slate-200 p-4">
@@ -398,7 +292,20 @@ export function BoreCheckCalculator({ unit }: { unit: LengthUnit }) {
             </div>
             <div className="grid gap-4 lg:grid-cols-[minmax(0,2fr)_minmax(0,1fr)]">
               {chartReadings && (
-                <BoreDepthChart readings={chartReadings} unit={unit} cylinderNumber={chartIndex + 1} targetBore={input.spec?.targetBore} />
+                <BoreDepthChart
+                  readings={chartReadings}
+                  unit={unit}
+                  cylinderNumber={chartIndex + 1}
+                  targetBore={input.spec?.targetBore}
+                  testId="bore-depth-chart"
+                  className="gap-2"
+                  caption={
+                    <>
+                      Cylinder {chartIndex + 1}: diameter at each depth, thrust and axial. A straight vertical line is a bore without taper; a gap
+                      between the two lines at a depth is out-of-round.
+                    </>
+                  }
+                />
               )}
               <div className="flex flex-col gap-3">
                 <SelectField
@@ -416,7 +323,7 @@ export function BoreCheckCalculator({ unit }: { unit: LengthUnit }) {
             missing={missing}
             errors={schemaErrors}
             formError={formError}
-            labels={cellWords}
+            labels={pathWords}
             limit={3}
           />
         )}

@@ -1,21 +1,11 @@
 import { useMemo } from 'react';
 import { CalculationError, type CompressionResult, type LengthUnit, type MachiningEffect, compressionRatio, machiningEffect } from '@shared/calc';
 import { type CompressionRatioRequest, compressionRatioRequestSchema } from '@shared/schemas/calculations';
+import { formatChange, formatLength, formatNumber, isBlank, toNumber } from '@client/lib/numbers';
 import { runLiveCalculation, useLiveCalculation } from '../hooks/use-live-calculation';
 import { type FieldKind, useUnitForm } from '../hooks/use-unit-form';
 import { machiningChangeSchema } from '../lib/form-schemas';
-import { formatChange, formatLength, formatNumber, isBlank, toNumber } from '../lib/numbers';
-import {
-  CalculatorCard,
-  CardColumns,
-  FieldGrid,
-  FigureList,
-  GuidanceNote,
-  HeadlineFigure,
-  MissingHint,
-  NumberField,
-  ResultsPanel,
-} from './calculator-parts';
+import { CalculatorLayout, FieldGrid, FigureList, GuidanceNote, HeadlineFigure, MissingHint, NumberField } from './calculator-parts';
 
 const initial = {
   bore: '',
@@ -151,7 +141,7 @@ export function CompressionCalculator({ unit }: { unit: LengthUnit }) {
   );
 
   return (
-    <CalculatorCard
+    <CalculatorLayout
       id="compression"
       title="Compression ratio"
       intro={
@@ -160,84 +150,81 @@ export function CompressionCalculator({ unit }: { unit: LengthUnit }) {
           gasket, the space above a piston below the deck and the piston&apos;s own dish or dome.
         </>
       }
-    >
-      <CardColumns
-        inputs={
-          <>
+      inputs={
+        <>
+          <FieldGrid>
+            {field('bore', `Bore (${unit})`)}
+            {field('stroke', `Stroke (${unit})`)}
+            {field('chamberCc', 'Chamber volume (cc)', 'Measured in the head.')}
+            {field('pistonCc', 'Piston volume (cc)', 'Dish or valve reliefs positive, dome negative.')}
+            {field('deckClearance', `Deck clearance (${unit})`, 'Piston below the deck at top dead centre positive, above it negative.')}
+            {field('gasketBore', `Gasket bore (${unit})`)}
+            {field('gasketThickness', `Gasket thickness (${unit})`, 'Compressed, as installed.')}
+          </FieldGrid>
+          <fieldset className="rounded-lg border border-slate-200 p-4">
+            <legend className="px-1 text-sm font-bold text-ink">Optional: overbore and deck cut</legend>
+            <p className="mb-3 text-sm text-ink-soft">
+              Assumes new pistons with the same dish or dome, the same gasket, head, stroke and rods. A deck cut lowers the deck, so
+              the deck clearance falls by the cut.
+            </p>
             <FieldGrid>
-              {field('bore', `Bore (${unit})`)}
-              {field('stroke', `Stroke (${unit})`)}
-              {field('chamberCc', 'Chamber volume (cc)', 'Measured in the head.')}
-              {field('pistonCc', 'Piston volume (cc)', 'Dish or valve reliefs positive, dome negative.')}
-              {field('deckClearance', `Deck clearance (${unit})`, 'Piston below the deck at top dead centre positive, above it negative.')}
-              {field('gasketBore', `Gasket bore (${unit})`)}
-              {field('gasketThickness', `Gasket thickness (${unit})`, 'Compressed, as installed.')}
+              {field('overbore', `Overbore on the diameter (${unit})`)}
+              {field('deckCut', `Deck cut (${unit})`)}
+              {field('cylinders', 'Cylinders', 'Needed for the displacement.')}
             </FieldGrid>
-            <fieldset className="rounded-lg border border-slate-200 p-4">
-              <legend className="px-1 text-sm font-bold text-ink">Optional: overbore and deck cut</legend>
-              <p className="mb-3 text-sm text-ink-soft">
-                Assumes new pistons with the same dish or dome, the same gasket, head, stroke and rods. A deck cut lowers the deck, so
-                the deck clearance falls by the cut.
-              </p>
-              <FieldGrid>
-                {field('overbore', `Overbore on the diameter (${unit})`)}
-                {field('deckCut', `Deck cut (${unit})`)}
-                {field('cylinders', 'Cylinders', 'Needed for the displacement.')}
-              </FieldGrid>
-            </fieldset>
-          </>
-        }
-        results={
-          <ResultsPanel>
-            {ratio.result ? (
-              <div className="flex flex-col gap-3" data-testid="compression-result">
-                <HeadlineFigure label="Compression ratio" value={ratioText(ratio.result.ratio)} testId="compression-ratio" />
-                <FigureList
-                  items={[
-                    { label: 'Swept volume, one cylinder', value: `${formatNumber(ratio.result.sweptCc, 1)} cc` },
-                    { label: 'Clearance volume', value: `${formatNumber(ratio.result.clearanceCc, 2)} cc` },
-                    { label: <span className="pl-4">chamber</span>, value: `${formatNumber(ratio.result.chamberCc, 2)} cc` },
-                    { label: <span className="pl-4">gasket</span>, value: `${formatNumber(ratio.result.gasketCc, 2)} cc` },
-                    { label: <span className="pl-4">above the piston to the deck</span>, value: `${formatNumber(ratio.result.deckCc, 2)} cc` },
-                    { label: <span className="pl-4">piston dish or dome</span>, value: `${formatNumber(ratio.result.pistonCc, 2)} cc` },
-                  ]}
-                />
-              </div>
-            ) : (
-              <MissingHint missing={ratio.missing} errors={ratio.errors} labels={(key) => labels[key] ?? key} formError={ratio.formError} />
-            )}
+          </fieldset>
+        </>
+      }
+      results={
+        <>
+          {ratio.result ? (
+            <div className="flex flex-col gap-3" data-testid="compression-result">
+              <HeadlineFigure label="Compression ratio" value={ratioText(ratio.result.ratio)} testId="compression-ratio" />
+              <FigureList
+                items={[
+                  { label: 'Swept volume, one cylinder', value: `${formatNumber(ratio.result.sweptCc, 1)} cc` },
+                  { label: 'Clearance volume', value: `${formatNumber(ratio.result.clearanceCc, 2)} cc` },
+                  { label: <span className="pl-4">chamber</span>, value: `${formatNumber(ratio.result.chamberCc, 2)} cc` },
+                  { label: <span className="pl-4">gasket</span>, value: `${formatNumber(ratio.result.gasketCc, 2)} cc` },
+                  { label: <span className="pl-4">above the piston to the deck</span>, value: `${formatNumber(ratio.result.deckCc, 2)} cc` },
+                  { label: <span className="pl-4">piston dish or dome</span>, value: `${formatNumber(ratio.result.pistonCc, 2)} cc` },
+                ]}
+              />
+            </div>
+          ) : (
+            <MissingHint missing={ratio.missing} errors={ratio.errors} labels={(key) => labels[key] ?? key} formError={ratio.formError} />
+          )}
 
-            {wantsEffect && (
-              <div className="flex flex-col gap-2 border-t border-slate-200 pt-3">
-                <h4 className="font-bold">After the overbore and deck cut</h4>
-                {effect.value ? (
-                  <>
-                    <EffectTable effect={effect.value} unit={unit} />
-                    {effect.value.boreExceedsGasket && (
-                      <p className="text-sm font-semibold text-fail">The new bore is larger than the gasket bore: a larger gasket is needed.</p>
-                    )}
-                    {effect.value.after.deckClearance < 0 && (
-                      <p className="text-sm font-semibold text-caution">
-                        The piston will stand {formatLength(-effect.value.after.deckClearance, unit)} above the deck: check the
-                        piston-to-head clearance.
-                      </p>
-                    )}
-                  </>
-                ) : effect.error ? (
-                  <p className="text-sm font-semibold text-fail">{effect.error}</p>
-                ) : ratio.result ? (
-                  <MissingHint missing={change.missing} errors={change.errors} labels={(key) => labels[key] ?? key} />
-                ) : (
-                  <p className="text-sm text-ink-soft">Complete the figures above first.</p>
-                )}
-              </div>
-            )}
-            {ratio.result && (
-              <GuidanceNote>Pump-fuel limits, cam timing and the makers&apos; figures decide what ratio an engine can live with.</GuidanceNote>
-            )}
-          </ResultsPanel>
-        }
-      />
-    </CalculatorCard>
+          {wantsEffect && (
+            <div className="flex flex-col gap-2 border-t border-slate-200 pt-3">
+              <h4 className="font-bold">After the overbore and deck cut</h4>
+              {effect.value ? (
+                <>
+                  <EffectTable effect={effect.value} unit={unit} />
+                  {effect.value.boreExceedsGasket && (
+                    <p className="text-sm font-semibold text-fail">The new bore is larger than the gasket bore: a larger gasket is needed.</p>
+                  )}
+                  {effect.value.after.deckClearance < 0 && (
+                    <p className="text-sm font-semibold text-caution">
+                      The piston will stand {formatLength(-effect.value.after.deckClearance, unit)} above the deck: check the
+                      piston-to-head clearance.
+                    </p>
+                  )}
+                </>
+              ) : effect.error ? (
+                <p className="text-sm font-semibold text-fail">{effect.error}</p>
+              ) : ratio.result ? (
+                <MissingHint missing={change.missing} errors={change.errors} labels={(key) => labels[key] ?? key} />
+              ) : (
+                <p className="text-sm text-ink-soft">Complete the figures above first.</p>
+              )}
+            </div>
+          )}
+          {ratio.result && (
+            <GuidanceNote>Pump-fuel limits, cam timing and the makers&apos; figures decide what ratio an engine can live with.</GuidanceNote>
+          )}
+        </>
+      }
+    />
   );
 }
