@@ -1,37 +1,24 @@
 import { queryOptions, useMutation, useQuery, useQueryClient, type UseMutationOptions } from '@tanstack/react-query';
-import type { InspectionInput, InspectionVersion } from '@shared/schemas/inspection';
+import type { DraftSaved, InspectionInput, InspectionVersion, InspectionVersionAnswer, InspectionView, RejectInspectionInput } from '@shared/schemas/inspection';
 import { api, type ApiError } from '@client/lib/api-client';
 import { inspectionKeys, jobKeys, milestoneKeys, paymentKeys } from '@client/lib/query-keys';
-
-export interface InspectionView {
-  /** Newest first. */
-  versions: InspectionVersion[];
-  /** The shop's unfinished entry; only the shop gets it. */
-  draft: Record<string, unknown> | null;
-  /** When the review window of the latest submitted version ends. */
-  reviewDueAt: string | null;
-  /** Whether that version is accepted by itself when the window ends: only when every check conforms (null: none waiting). */
-  autoAccept?: boolean | null;
-  /** True once the window has ended on a version still waiting (one that does not conform waits for the builder). */
-  reviewWindowEnded?: boolean;
-  /** The shop doing the work, as the certificate names it. */
-  shop?: { name: string; place: string } | null;
-}
 
 export const inspectionQueries = {
   forJob: (jobId: string) =>
     queryOptions({ queryKey: inspectionKeys.forJob(jobId), queryFn: () => api.get<InspectionView>(`/api/jobs/${jobId}/inspection`) }),
 };
 
+export type { InspectionView };
+
 export const useInspection = (jobId: string, options: { enabled?: boolean } = {}) => useQuery({ ...inspectionQueries.forJob(jobId), ...options });
 
 type Config<TData, TVars> = Omit<UseMutationOptions<TData, ApiError, TVars>, 'mutationFn'>;
 
 /** Saves the shop's unfinished entry; nothing is judged. The cache is not refreshed: the form holds the newer state. */
-export const useSaveInspectionDraft = (jobId: string, options?: { mutationConfig?: Config<{ savedAt: string }, Record<string, unknown>> }) =>
-  useMutation<{ savedAt: string }, ApiError, Record<string, unknown>>({
+export const useSaveInspectionDraft = (jobId: string, options?: { mutationConfig?: Config<DraftSaved, Record<string, unknown>> }) =>
+  useMutation<DraftSaved, ApiError, Record<string, unknown>>({
     ...options?.mutationConfig,
-    mutationFn: (draft) => api.put<{ savedAt: string }>(`/api/jobs/${jobId}/inspection/draft`, { draft }),
+    mutationFn: (draft) => api.put<DraftSaved>(`/api/jobs/${jobId}/inspection/draft`, { draft }),
   });
 
 /** Submitting, accepting or rejecting changes the job's state, its money and possibly its timeline. */
@@ -62,19 +49,19 @@ function useVersionMutation<TVars>(jobId: string, run: (vars: TVars) => Promise<
 export const useSubmitInspection = (jobId: string, options?: { mutationConfig?: Config<InspectionVersion, InspectionInput> }) =>
   useVersionMutation(
     jobId,
-    (input: InspectionInput) => api.post<{ version: InspectionVersion }>(`/api/jobs/${jobId}/inspection`, input).then((r) => r.version),
+    (input: InspectionInput) => api.post<InspectionVersionAnswer>(`/api/jobs/${jobId}/inspection`, input).then((r) => r.version),
     options?.mutationConfig,
   );
 
 export const useAcceptInspection = (jobId: string, options?: { mutationConfig?: Config<InspectionVersion, void> }) =>
-  useVersionMutation(jobId, () => api.post<{ version: InspectionVersion }>(`/api/jobs/${jobId}/inspection/accept`).then((r) => r.version), options?.mutationConfig);
+  useVersionMutation(jobId, () => api.post<InspectionVersionAnswer>(`/api/jobs/${jobId}/inspection/accept`).then((r) => r.version), options?.mutationConfig);
 
-export const useRejectInspection = (jobId: string, options?: { mutationConfig?: Config<InspectionVersion, { reasons: string }> }) =>
+export const useRejectInspection = (jobId: string, options?: { mutationConfig?: Config<InspectionVersion, RejectInspectionInput> }) =>
   useVersionMutation(
     jobId,
-    (body: { reasons: string }) => api.post<{ version: InspectionVersion }>(`/api/jobs/${jobId}/inspection/reject`, body).then((r) => r.version),
+    (body: RejectInspectionInput) => api.post<InspectionVersionAnswer>(`/api/jobs/${jobId}/inspection/reject`, body).then((r) => r.version),
     options?.mutationConfig,
   );
 
 /** The draft fetcher on its own, for a last save as the page closes (a mutation's callbacks would not run then). */
-export const putInspectionDraft = (jobId: string, draft: Record<string, unknown>) => api.put<{ savedAt: string }>(`/api/jobs/${jobId}/inspection/draft`, { draft });
+export const putInspectionDraft = (jobId: string, draft: Record<string, unknown>) => api.put<DraftSaved>(`/api/jobs/${jobId}/inspection/draft`, { draft });
