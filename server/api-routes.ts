@@ -2,6 +2,7 @@ import type { RouteDef } from './lib/http/routes';
 import { authRoutes } from './modules/auth/auth.routes';
 import { calculationsRoutes } from './modules/calculations/calculations.routes';
 import { healthRoutes } from './modules/health/health.routes';
+import { inspectionsRoutes } from './modules/inspections/inspections.routes';
 import { shopsRoutes } from './modules/shops/shops.routes';
 
 /**
@@ -14,6 +15,7 @@ export const routeModules = {
   auth: authRoutes,
   calculations: calculationsRoutes,
   shops: shopsRoutes,
+  inspections: inspectionsRoutes,
 } satisfies Record<string, readonly RouteDef<never>[]>;
 
 export const apiRoutes: readonly RouteDef<never>[] = Object.values(routeModules).flat();

@@ -17,7 +17,6 @@ import { disputesRouter } from './modules/disputes/disputes.routes';
 import { bidsRouter } from './modules/bids/bids.routes';
 import { messagesRouter } from './modules/messages/messages.routes';
 import { paymentsRouter, paymentsWebhook } from './modules/payments/payments.routes';
-import { inspectionsRouter } from './modules/inspections/inspections.routes';
 import { milestonesRouter } from './modules/milestones/milestones.routes';
 import { reviewsRouter } from './modules/reviews/reviews.routes';
 import { createPaymentsClient, type PaymentsClient } from './lib/payments-client';
@@ -153,7 +152,7 @@ export function createApp(deps: AppDeps) {
   app.use('/api', messagesRouter({ db, hub, storage, messagesPer10s: config.rateLimits.messagesPer10s, uploadLimit }));
   const workDeps = { ...paymentDeps, reviewWindowMs: config.reviewWindowDays * 24 * 60 * 60_000 };
   app.use('/api', milestonesRouter({ db, hub, storage, uploadLimit }));
-  app.use('/api', inspectionsRouter(workDeps));
+  mount(routeModules.inspections, workDeps);
   app.use('/api', disputesRouter(paymentDeps));
   app.use('/api', reviewsRouter(paymentDeps));
   app.use('/api/admin', adminRouter({ db, appUrl: config.appUrl, hub, defaultFeeBps: config.payments.platformFeeBps }));

@@ -9,7 +9,7 @@ import { bidInputSchema, declineBidSchema } from '../shared/schemas/bids';
 import { uuidSchema } from '../shared/schemas/common';
 import { boardQuerySchema, jobInputSchema, myJobsQuerySchema } from '../shared/schemas/jobs';
 import { changeOrderInputSchema, splitSchema } from '../shared/schemas/payments';
-import { inspectionDraftSchema, inspectionInputSchema, milestoneInputSchema, rejectInspectionSchema } from '../shared/schemas/inspection';
+import { milestoneInputSchema } from '../shared/schemas/inspection';
 import { historyQuerySchema, markReadSchema, openThreadSchema, sendMessageSchema } from '../shared/schemas/messages';
 
 /**
@@ -83,12 +83,6 @@ export const routeDocs: RouteDoc[] = [
   { method: 'post', path: '/api/jobs/{jobId}/milestones', summary: 'The working shop logs progress (block received starts the work)', tag: 'Work', access: 'shop', params: jobId, body: milestoneInputSchema, ok: { status: 201, description: 'Logged' } },
   { method: 'post', path: '/api/jobs/{jobId}/milestone-photos', summary: 'The working shop uploads photos for a milestone (multipart field "photos"; JPEG, PNG or WebP; 15 MB each; 4 at a time); send their ids as the milestone’s photoIds', tag: 'Work', access: 'shop', params: jobId, ok: { status: 201, description: 'Stored, waiting for a milestone' } },
   { method: 'get', path: '/api/jobs/{jobId}/milestone-photos/{photoId}/{size}', summary: 'A milestone photo, re-encoded as WebP (before it is attached, only for its uploader)', tag: 'Work', access: 'signed-in', params: photoSized, ok: { status: 200, description: 'image/webp' } },
-  { method: 'get', path: '/api/jobs/{jobId}/inspection', summary: 'Inspection record versions with the server’s results, the shop’s draft, and the review deadline', tag: 'Work', access: 'signed-in', params: jobId },
-  { method: 'put', path: '/api/jobs/{jobId}/inspection/draft', summary: 'Keep the shop’s unfinished record', tag: 'Work', access: 'shop', params: jobId, body: inspectionDraftSchema },
-  { method: 'post', path: '/api/jobs/{jobId}/inspection', summary: 'Submit the measured record (raw readings only; the server computes and judges)', tag: 'Work', access: 'shop', params: jobId, body: inspectionInputSchema, ok: { status: 201, description: 'A new version' } },
-  { method: 'post', path: '/api/jobs/{jobId}/inspection/accept', summary: 'Accept the record: the held payment is released to the shop', tag: 'Work', access: 'builder', params: jobId },
-  { method: 'get', path: '/api/jobs/{jobId}/inspection/{version}/certificate.pdf', summary: 'The certificate of one version as a PDF', tag: 'Work', access: 'signed-in', params: jobId.extend({ version: z.coerce.number().int().min(1) }), ok: { status: 200, description: 'application/pdf' } },
-  { method: 'post', path: '/api/jobs/{jobId}/inspection/reject', summary: 'Reject the record with reasons; the shop submits a new version', tag: 'Work', access: 'builder', params: jobId, body: rejectInspectionSchema },
   { method: 'post', path: '/api/payments/webhook', summary: 'Payment provider events (signed with Stripe-Signature; raw JSON body)', tag: 'Payments', access: 'public', csrf: false },
   { method: 'post', path: '/api/shop-profile/payouts', summary: 'Start or continue the shop’s payout account onboarding; answers the provider’s link', tag: 'Payments', access: 'shop' },
   { method: 'post', path: '/api/jobs/{jobId}/checkout', summary: 'Pay the accepted bid: answers a hosted payment page address', tag: 'Payments', access: 'builder', params: jobId },

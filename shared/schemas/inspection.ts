@@ -1,5 +1,13 @@
 import { z } from 'zod';
-import { boreSpecSchema, cylinderReadingsSchema, lengthUnitSchema, refineTraceForFilter, roughnessFilterSchema } from './calculations';
+import {
+  appliedFilterSchema,
+  boreInspectionAnswerSchema,
+  boreSpecSchema,
+  cylinderReadingsSchema,
+  lengthUnitSchema,
+  refineTraceForFilter,
+  roughnessFilterSchema,
+} from './calculations';
 
 /**
  * What the shop measured and how. Computed figures are never sent: the server works them out again.
@@ -77,86 +85,118 @@ export const inspectionDraftSchema = z.object({ draft: z.record(z.string(), z.un
 export const rejectInspectionSchema = z.object({
   reasons: z.string({ error: 'Say what needs redoing.' }).trim().min(5, 'Say what needs redoing.').max(2000),
 });
+export type RejectInspectionInput = z.input<typeof rejectInspectionSchema>;
 
 /** conforms, fails or not proven (ISO 14253-1's uncertainty range under guarded acceptance). */
-export type CheckVerdict = 'conforms' | 'fails' | 'not-proven';
+export const checkVerdictSchema = z.enum(['conforms', 'fails', 'not-proven']);
+export type CheckVerdict = z.infer<typeof checkVerdictSchema>;
 
 /**
  * The record as a whole: every limit judged and conforming (pass), at least one failing (fail),
  * none failing but at least one limit that could not be judged (not-fully-judged), or every
  * limit judged, none failing, some not proven (not-proven).
  */
-export type RecordVerdict = 'pass' | 'fail' | 'not-fully-judged' | 'not-proven';
+export const recordVerdictSchema = z.enum(['pass', 'fail', 'not-fully-judged', 'not-proven']);
+export type RecordVerdict = z.infer<typeof recordVerdictSchema>;
 
-export interface LimitCheck {
+// --- answers ------------------------------------------------------------------
+//
+// What the inspection routes answer, as it goes over the wire. A stored record
+// keeps the shape it was written with: records stored before verdicts (or the
+// temperature correction, the decision rule, the trace filter) lack those keys,
+// so they are optional here and read with `checkVerdict`/`recordVerdict`.
+
+export const limitCheckSchema = z.object({
   /** e.g. "cylinder 3 taper", "deck out-of-flat", "bore Ra". */
-  what: string;
-  value: number;
-  allowed: string;
+  what: z.string(),
+  value: z.number(),
+  allowed: z.string(),
   /** True only when the check conforms (kept for records stored before verdicts). */
-  pass: boolean;
+  pass: z.boolean(),
   /** Absent on records stored before verdicts: read it with `checkVerdict`. */
-  verdict?: CheckVerdict;
+  verdict: checkVerdictSchema.optional(),
   /** Which limit: size, clearanceMin, clearanceMax, maxTaper, maxOutOfRound, deck, deckRa, finish, crosshatch. */
-  limit?: string;
+  limit: z.string().optional(),
   /** One-based cylinder, for bore checks. */
-  cylinder?: number;
+  cylinder: z.number().int().optional(),
   /** Where the value came from, in words (the worst reading's place, the piston used, a default limit). */
-  note?: string;
-}
+  note: z.string().optional(),
+});
+export type LimitCheck = z.infer<typeof limitCheckSchema>;
 
 /** A limit the job sets that the record gave nothing to judge against. */
-export interface NotJudged {
-  what: string;
-  why: string;
-}
+export const notJudgedSchema = z.object({ what: z.string(), why: z.string() });
+export type NotJudged = z.infer<typeof notJudgedSchema>;
+
+const directionPairSchema = z.object({ thrust: z.number(), axial: z.number() });
 
 /** The readings of one cylinder corrected to 20 °C, and the piston each clearance used. */
-export interface CorrectedCylinder {
-  top: { thrust: number; axial: number };
-  middle: { thrust: number; axial: number };
-  bottom: { thrust: number; axial: number };
+export const correctedCylinderSchema = z.object({
+  top: directionPairSchema,
+  middle: directionPairSchema,
+  bottom: directionPairSchema,
   /** The piston at 20 °C: the record's own reading corrected, or the job's piston diameter. */
-  piston?: number;
-  pistonSource?: 'record' | 'job';
-}
+  piston: z.number().optional(),
+  pistonSource: z.enum(['record', 'job']).optional(),
+});
+export type CorrectedCylinder = z.infer<typeof correctedCylinderSchema>;
 
-export interface InspectionResults {
+const expansionSchema = z.object({ material: z.enum(['cast-iron', 'aluminium']), alpha: z.number(), words: z.string() });
+
+export const inspectionResultsSchema = z.object({
   /** Bore figures worked out from the readings corrected to 20 °C (records stored before the correction: from the raw readings). */
-  bores: ReturnType<typeof import('../calc/bore').inspectBores>;
-  deck?: { outOfFlat: number; limit: number; pass: boolean; limitSource: string };
+  bores: boreInspectionAnswerSchema.omit({ unit: true }),
+  /** The deck calculation's answer in the record's unit; `limitSource` is read as text, as records have always stored it. */
+  deck: z.object({ outOfFlat: z.number(), limit: z.number(), pass: z.boolean(), limitSource: z.string() }).optional(),
   /** `filter`: what was applied to a trace (absent for entered values and for results stored before the choice existed). */
-  finish?: { raUm: number; rqUm?: number; rzUm?: number; rkUm?: number; rpkUm?: number; rvkUm?: number; mr1?: number; mr2?: number; filter?: import('../calc/roughness').AppliedFilter };
-  crosshatch?: { includedAngleDeg: number };
-  checks: LimitCheck[];
+  finish: z
+    .object({
+      raUm: z.number(),
+      rqUm: z.number().optional(),
+      rzUm: z.number().optional(),
+      rkUm: z.number().optional(),
+      rpkUm: z.number().optional(),
+      rvkUm: z.number().optional(),
+      mr1: z.number().optional(),
+      mr2: z.number().optional(),
+      filter: appliedFilterSchema.optional(),
+    })
+    .optional(),
+  crosshatch: z.object({ includedAngleDeg: z.number() }).optional(),
+  checks: z.array(limitCheckSchema),
   /** True only when every limit was judged and every check conforms. */
-  pass: boolean;
+  pass: z.boolean(),
   /** Absent on records stored before verdicts: read it with `recordVerdict`. */
-  verdict?: RecordVerdict;
-  notJudged?: NotJudged[];
-  decisionRule?: {
-    rule: 'simple' | 'guarded';
-    name: string;
-    words: string;
-    /** The expanded uncertainty used, in the record's unit. */
-    uncertainty: number;
-    uncertaintySource: 'entered' | 'gauge-resolution';
-    /** What the uncertainty is, in words (a lower bound when it is the gauge resolution). */
-    uncertaintyWords: string;
-  };
-  temperature?: {
-    measuredC: number;
-    enteredUnit: 'C' | 'F';
-    referenceC: number;
-    block: { material: 'cast-iron' | 'aluminium'; alpha: number; words: string };
-    piston: { material: 'cast-iron' | 'aluminium'; alpha: number; words: string };
-    source: string;
-  };
+  verdict: recordVerdictSchema.optional(),
+  notJudged: z.array(notJudgedSchema).optional(),
+  decisionRule: z
+    .object({
+      rule: z.enum(['simple', 'guarded']),
+      name: z.string(),
+      words: z.string(),
+      /** The expanded uncertainty used, in the record's unit. */
+      uncertainty: z.number(),
+      uncertaintySource: z.enum(['entered', 'gauge-resolution']),
+      /** What the uncertainty is, in words (a lower bound when it is the gauge resolution). */
+      uncertaintyWords: z.string(),
+    })
+    .optional(),
+  temperature: z
+    .object({
+      measuredC: z.number(),
+      enteredUnit: z.enum(['C', 'F']),
+      referenceC: z.number(),
+      block: expansionSchema,
+      piston: expansionSchema,
+      source: z.string(),
+    })
+    .optional(),
   /** The readings at 20 °C, per cylinder (the raw ones stay in the input). */
-  corrected?: CorrectedCylinder[];
+  corrected: z.array(correctedCylinderSchema).optional(),
   /** The record's statements in plain sentences: the rule, the uncertainty, the temperature correction, the pistons used. */
-  statements?: string[];
-}
+  statements: z.array(z.string()).optional(),
+});
+export type InspectionResults = z.infer<typeof inspectionResultsSchema>;
 
 /** A check's verdict, also for records stored before verdicts existed. */
 export const checkVerdict = (check: LimitCheck): CheckVerdict => check.verdict ?? (check.pass ? 'conforms' : 'fails');
@@ -171,16 +211,44 @@ export const RECORD_VERDICT_WORDS: Record<RecordVerdict, string> = {
   'not-proven': 'Not proven: no check fails, but at least one lies within the measurement uncertainty of its limit',
 };
 
-export interface InspectionVersion {
-  id: string;
-  version: number;
-  status: 'submitted' | 'accepted' | 'rejected' | 'superseded';
-  input: InspectionInput;
-  results: InspectionResults;
-  submittedAt: string;
-  decidedAt: string | null;
-  rejectReasons: string | null;
-}
+/** The readings as stored: the input schema without its trimming and default (a stored record always has both). */
+const storedInputSchema = inspectionInputSchema.extend({ signedOffBy: z.string(), notes: z.string() });
+
+export const inspectionVersionSchema = z.object({
+  id: z.uuid(),
+  version: z.number().int(),
+  status: z.enum(['submitted', 'accepted', 'rejected', 'superseded']),
+  input: storedInputSchema,
+  results: inspectionResultsSchema,
+  submittedAt: z.iso.datetime(),
+  decidedAt: z.iso.datetime().nullable(),
+  rejectReasons: z.string().nullable(),
+});
+export type InspectionVersion = z.infer<typeof inspectionVersionSchema>;
+
+/** GET /api/jobs/:jobId/inspection */
+export const inspectionViewSchema = z.object({
+  /** Newest first. */
+  versions: z.array(inspectionVersionSchema),
+  /** The shop's unfinished entry; only the shop gets it. */
+  draft: z.record(z.string(), z.unknown()).nullable(),
+  /** When the review window of the latest submitted version ends. */
+  reviewDueAt: z.iso.datetime().nullable(),
+  /** Whether that version is accepted by itself when the window ends: only when every check conforms (null: none waiting). */
+  autoAccept: z.boolean().nullable(),
+  /** True once the window has ended on a version still waiting (one that does not conform waits for the builder). */
+  reviewWindowEnded: z.boolean(),
+  /** The shop doing the work, as the certificate names it. */
+  shop: z.object({ name: z.string(), place: z.string() }).nullable(),
+});
+export type InspectionView = z.infer<typeof inspectionViewSchema>;
+
+/** The answer to submitting, accepting or rejecting: the version as it now stands. */
+export const inspectionVersionAnswerSchema = z.object({ version: inspectionVersionSchema });
+export type InspectionVersionAnswer = z.infer<typeof inspectionVersionAnswerSchema>;
+
+export const draftSavedSchema = z.object({ savedAt: z.iso.datetime() });
+export type DraftSaved = z.infer<typeof draftSavedSchema>;
 
 export const milestoneKinds = ['block_received', 'teardown', 'operation_started', 'operation_finished', 'inspection_submitted', 'ready_for_pickup', 'shipped', 'delivered', 'note'] as const;
 

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { boreSpecFor, evaluateInspection, sizeDisagreement } from '../../shared/calc/inspection-record';
-import type { InspectionInput } from '../../shared/schemas/inspection';
+import { responseMismatch } from '../../server/lib/http/routes';
+import { inspectionResultsSchema, type InspectionInput } from '../../shared/schemas/inspection';
 import { jobInput } from '../factories';
 
 const pair = (thrust: number, axial: number) => ({ thrust, axial });
@@ -167,5 +168,33 @@ describe('evaluateInspection: every limit judged or visibly not judged (issue 15
     // derived: 4.028 + [0.0025, 0.0035] = 4.0305–4.0315; a 4.030 target lies outside it.
     expect(sizeDisagreement({ ...issueJob, targetBore: 4.03 })).toMatchObject({ worksTo: 'target', target: 4.03 });
     expect(sizeDisagreement({ ...issueJob, targetBore: 4.031 })).toBeUndefined();
+  });
+});
+
+describe('the inspection results schema', () => {
+  const cylinder = { top: pair(4.0311, 4.031), middle: pair(4.031, 4.0311), bottom: pair(4.0309, 4.031), piston: 4.028 };
+
+  it('when a record with every part is judged (°F, guarded rule, deck, a filtered trace, hone settings), then the results are exactly what the schema declares', () => {
+    const heightsUm = Array.from({ length: 5000 }, (_, i) => Math.sin(i / 7) * 0.4 + Math.sin(i / 290) * 2);
+    const input: InspectionInput = {
+      conditions: { unit: 'in', gaugeResolution: 0.0001, uncertainty: 0.0001, temperatureF: 77, torquePlate: true },
+      cylinders: [cylinder, { ...cylinder, piston: undefined }],
+      deck: { readings: [0.001, 0.0015], raUm: 1.2 },
+      finish: { mode: 'profile', heightsUm, spacingUm: 1, filter: { kind: 'gaussian', cutoffMm: 0.8 } },
+      crosshatch: { mode: 'settings', spindleRpm: 200, strokeLength: 4, cyclesPerMinute: 130 },
+      signedOffBy: 'Test Shop',
+      notes: '',
+    };
+    const spec = jobInput({ cylinders: 2, decisionRule: 'guarded', maxTaper: 0.0005, maxOutOfRound: 0.0005, pistonDiameter: 4.028, clearanceMin: 0.0025, clearanceMax: 0.0035, deckFlatnessMax: 0.002, deckRaMaxUm: 1.6, finishRaMaxUm: 0.8, finishRkMaxUm: 1 });
+    const results = evaluateInspection(input, spec);
+    expect(results.finish?.filter?.kind).toBe('gaussian');
+    expect(results.corrected?.[1].pistonSource).toBe('job');
+    expect(responseMismatch(inspectionResultsSchema, results)).toBeNull();
+  });
+
+  it('when a record was stored before verdicts and the temperature correction existed, then its results still match the schema, and a field it never had does not', () => {
+    const old = { bores: { cylinders: [], worst: { taper: 0, outOfRound: 0, taperCylinder: 0, outOfRoundCylinder: 0 }, pass: true }, checks: [{ what: 'deck out-of-flat', value: 0.001, allowed: '≤ 0.0020 in', pass: true }], pass: true };
+    expect(responseMismatch(inspectionResultsSchema, old)).toBeNull();
+    expect(responseMismatch(inspectionResultsSchema, { ...old, grade: 'A' })).toMatch(/fields the schema does not declare/);
   });
 });

@@ -1,52 +1,83 @@
-import { Router } from 'express';
 import { z } from 'zod';
 import { uuidSchema } from '../../../shared/schemas/common';
-import { inspectionDraftSchema, inspectionInputSchema, rejectInspectionSchema } from '../../../shared/schemas/inspection';
-import { currentUser, requireRole, requireUser } from '../../lib/auth/guards';
+import {
+  draftSavedSchema,
+  inspectionDraftSchema,
+  inspectionInputSchema,
+  inspectionVersionAnswerSchema,
+  inspectionViewSchema,
+  rejectInspectionSchema,
+} from '../../../shared/schemas/inspection';
+import { routesFor } from '../../lib/http/routes';
 import { acceptInspection, certificateFor, inspectionView, rejectInspection, saveDraft, submitInspection, type InspectionDeps } from './inspections.service';
 
 const jobParams = z.object({ jobId: uuidSchema });
 
+const route = routesFor<InspectionDeps>('Work');
+
 /** The inspection record: the shop's readings and the builder's answer. */
-export function inspectionsRouter(deps: InspectionDeps) {
-  const router = Router();
-  router.get('/jobs/:jobId/inspection', requireUser, async (req, res) => {
-    const { jobId } = jobParams.parse(req.params);
-    res.json(await inspectionView(deps.db, currentUser(req), jobId));
-  });
-
-  router.put('/jobs/:jobId/inspection/draft', requireRole('shop'), async (req, res) => {
-    const { jobId } = jobParams.parse(req.params);
-    const { draft } = inspectionDraftSchema.parse(req.body);
-    res.json(await saveDraft(deps.db, currentUser(req), jobId, draft));
-  });
-
-  router.post('/jobs/:jobId/inspection', requireRole('shop'), async (req, res) => {
-    const { jobId } = jobParams.parse(req.params);
+export const inspectionsRoutes = [
+  route({
+    method: 'get',
+    path: '/api/jobs/:jobId/inspection',
+    summary: 'Inspection record versions with the server’s results, the shop’s draft, and the review deadline',
+    access: 'signed-in',
+    params: jobParams,
+    reply: { json: inspectionViewSchema },
+    handler: ({ deps, user, params }) => inspectionView(deps.db, user, params.jobId),
+  }),
+  route({
+    method: 'put',
+    path: '/api/jobs/:jobId/inspection/draft',
+    summary: 'Keep the shop’s unfinished record',
+    access: 'shop',
+    params: jobParams,
+    body: inspectionDraftSchema,
+    reply: { json: draftSavedSchema, description: 'Kept' },
+    handler: ({ deps, user, params, body }) => saveDraft(deps.db, user, params.jobId, body.draft),
+  }),
+  route({
+    method: 'post',
+    path: '/api/jobs/:jobId/inspection',
+    summary: 'Submit the measured record (raw readings only; the server computes and judges)',
+    access: 'shop',
+    params: jobParams,
     // Only the raw readings are read; any computed figures a client sends are not part of the schema and are dropped.
-    const version = await submitInspection(deps, currentUser(req), jobId, inspectionInputSchema.parse(req.body));
-    res.status(201).json({ version });
-  });
-
-  router.post('/jobs/:jobId/inspection/accept', requireRole('builder'), async (req, res) => {
-    const { jobId } = jobParams.parse(req.params);
-    res.json({ version: await acceptInspection(deps, currentUser(req), jobId) });
-  });
-
-  router.post('/jobs/:jobId/inspection/reject', requireRole('builder'), async (req, res) => {
-    const { jobId } = jobParams.parse(req.params);
-    const { reasons } = rejectInspectionSchema.parse(req.body);
-    const version = await rejectInspection(deps, currentUser(req), jobId, reasons);
-    res.json({ version });
-  });
-
-  router.get('/jobs/:jobId/inspection/:version/certificate.pdf', requireUser, async (req, res) => {
-    const { jobId, version } = jobParams.extend({ version: z.coerce.number().int().min(1).max(1000) }).parse(req.params);
-    const pdf = await certificateFor(deps.db, currentUser(req), jobId, version);
-    res
-      .set({ 'Content-Type': 'application/pdf', 'Content-Disposition': `attachment; filename="inspection-record-v${version}.pdf"`, 'Cache-Control': 'private, no-store' })
-      .send(pdf);
-  });
-
-  return router;
-}
+    body: inspectionInputSchema,
+    reply: { status: 201, json: inspectionVersionAnswerSchema, description: 'A new version' },
+    handler: async ({ deps, user, params, body }) => ({ version: await submitInspection(deps, user, params.jobId, body) }),
+  }),
+  route({
+    method: 'post',
+    path: '/api/jobs/:jobId/inspection/accept',
+    summary: 'Accept the record: the held payment is released to the shop',
+    access: 'builder',
+    params: jobParams,
+    reply: { json: inspectionVersionAnswerSchema, description: 'Accepted' },
+    handler: async ({ deps, user, params }) => ({ version: await acceptInspection(deps, user, params.jobId) }),
+  }),
+  route({
+    method: 'post',
+    path: '/api/jobs/:jobId/inspection/reject',
+    summary: 'Reject the record with reasons; the shop submits a new version',
+    access: 'builder',
+    params: jobParams,
+    body: rejectInspectionSchema,
+    reply: { json: inspectionVersionAnswerSchema, description: 'Rejected' },
+    handler: async ({ deps, user, params, body }) => ({ version: await rejectInspection(deps, user, params.jobId, body.reasons) }),
+  }),
+  route({
+    method: 'get',
+    path: '/api/jobs/:jobId/inspection/:version/certificate.pdf',
+    summary: 'The certificate of one version as a PDF',
+    access: 'signed-in',
+    params: jobParams.extend({ version: z.coerce.number().int().min(1).max(1000) }),
+    reply: { file: 'application/pdf', description: 'The certificate' },
+    handler: async ({ deps, user, params: { jobId, version }, res }) => {
+      const pdf = await certificateFor(deps.db, user, jobId, version);
+      res
+        .set({ 'Content-Type': 'application/pdf', 'Content-Disposition': `attachment; filename="inspection-record-v${version}.pdf"`, 'Cache-Control': 'private, no-store' })
+        .send(pdf);
+    },
+  }),
+];

@@ -1,33 +1,20 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { InspectionInput, InspectionVersion } from '@shared/schemas/inspection';
+import type { DraftSaved, InspectionInput, InspectionVersion, InspectionVersionAnswer, InspectionView, RejectInspectionInput } from '@shared/schemas/inspection';
 import { api } from '@client/lib/api-client';
 import { type MutationConfig, type MutationOptions, useApiMutation } from '@client/lib/mutation';
 import { inspectionKeys, jobChangeKeys } from '@client/lib/query-keys';
-
-export interface InspectionView {
-  /** Newest first. */
-  versions: InspectionVersion[];
-  /** The shop's unfinished entry; only the shop gets it. */
-  draft: Record<string, unknown> | null;
-  /** When the review window of the latest submitted version ends. */
-  reviewDueAt: string | null;
-  /** Whether that version is accepted by itself when the window ends: only when every check conforms (null: none waiting). */
-  autoAccept?: boolean | null;
-  /** True once the window has ended on a version still waiting (one that does not conform waits for the builder). */
-  reviewWindowEnded?: boolean;
-  /** The shop doing the work, as the certificate names it. */
-  shop?: { name: string; place: string } | null;
-}
 
 export const inspectionQueries = {
   forJob: (jobId: string) =>
     queryOptions({ queryKey: inspectionKeys.forJob(jobId), queryFn: () => api.get<InspectionView>(`/api/jobs/${jobId}/inspection`) }),
 };
 
+export type { InspectionView };
+
 export const useInspection = (jobId: string, options: { enabled?: boolean } = {}) => useQuery({ ...inspectionQueries.forJob(jobId), ...options });
 
 /** Saves the shop's unfinished entry; nothing is judged. The cache is not refreshed: the form holds the newer state. */
-export const useSaveInspectionDraft = (jobId: string, options?: MutationOptions<{ savedAt: string }, Record<string, unknown>>) =>
+export const useSaveInspectionDraft = (jobId: string, options?: MutationOptions<DraftSaved, Record<string, unknown>>) =>
   useApiMutation((draft: Record<string, unknown>) => putInspectionDraft(jobId, draft), {}, options?.mutationConfig);
 
 /** Submitting, accepting or rejecting changes the job's state, its money and possibly its timeline. */
@@ -37,19 +24,19 @@ const useVersionMutation = <TVars>(jobId: string, run: (vars: TVars) => Promise<
 export const useSubmitInspection = (jobId: string, options?: MutationOptions<InspectionVersion, InspectionInput>) =>
   useVersionMutation(
     jobId,
-    (input: InspectionInput) => api.post<{ version: InspectionVersion }>(`/api/jobs/${jobId}/inspection`, input).then((r) => r.version),
+    (input: InspectionInput) => api.post<InspectionVersionAnswer>(`/api/jobs/${jobId}/inspection`, input).then((r) => r.version),
     options?.mutationConfig,
   );
 
 export const useAcceptInspection = (jobId: string, options?: MutationOptions<InspectionVersion, void>) =>
-  useVersionMutation(jobId, () => api.post<{ version: InspectionVersion }>(`/api/jobs/${jobId}/inspection/accept`).then((r) => r.version), options?.mutationConfig);
+  useVersionMutation(jobId, () => api.post<InspectionVersionAnswer>(`/api/jobs/${jobId}/inspection/accept`).then((r) => r.version), options?.mutationConfig);
 
-export const useRejectInspection = (jobId: string, options?: MutationOptions<InspectionVersion, { reasons: string }>) =>
+export const useRejectInspection = (jobId: string, options?: MutationOptions<InspectionVersion, RejectInspectionInput>) =>
   useVersionMutation(
     jobId,
-    (body: { reasons: string }) => api.post<{ version: InspectionVersion }>(`/api/jobs/${jobId}/inspection/reject`, body).then((r) => r.version),
+    (body: RejectInspectionInput) => api.post<InspectionVersionAnswer>(`/api/jobs/${jobId}/inspection/reject`, body).then((r) => r.version),
     options?.mutationConfig,
   );
 
 /** The draft fetcher on its own, for a last save as the page closes (a mutation's callbacks would not run then). */
-export const putInspectionDraft = (jobId: string, draft: Record<string, unknown>) => api.put<{ savedAt: string }>(`/api/jobs/${jobId}/inspection/draft`, { draft });
+export const putInspectionDraft = (jobId: string, draft: Record<string, unknown>) => api.put<DraftSaved>(`/api/jobs/${jobId}/inspection/draft`, { draft });
