@@ -1,16 +1,8 @@
 import { keepPreviousData, queryOptions, useMutation, useQuery, useQueryClient, type UseMutationOptions } from '@tanstack/react-query';
-import type { BoardQuery, JobDetail, JobInput, JobPhoto, JobStatus, JobSummary } from '@shared/schemas/jobs';
+import type { BoardPage, JobDetail, JobInput, JobPhoto, JobStatus, JobSummary } from '@shared/schemas/jobs';
 import { api, type ApiError } from '@client/lib/api-client';
 import { jobKeys, type BoardFilters } from '@client/lib/query-keys';
 import { toSearch } from '@client/lib/search-params';
-
-export interface BoardPage {
-  jobs: JobSummary[];
-  total: number;
-  page: number;
-  pageSize: number;
-  sort: BoardQuery['sort'];
-}
 
 export const jobQueries = {
   board: (filters: BoardFilters) =>
@@ -67,5 +59,5 @@ export function useRemovePhoto(jobId: string, options?: { mutationConfig?: Confi
   });
 }
 
-export type { BoardFilters, JobPhoto };
+export type { BoardFilters, BoardPage, JobPhoto };
 export { jobKeys };
