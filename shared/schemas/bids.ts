@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { centsSchema, isoDateSchema, operationCodeSchema } from './common';
+import { centsSchema, isoDateSchema, operationCodeSchema, uuidSchema } from './common';
 import { publicShopSchema } from './shops';
 
 export const bidStatuses = ['active', 'withdrawn', 'accepted', 'declined'] as const;
@@ -21,6 +21,9 @@ export const bidInputSchema = z.object({
 });
 export type BidInput = z.infer<typeof bidInputSchema>;
 export type BidFormValues = z.input<typeof bidInputSchema>;
+
+/** The path parameter of every route about one bid: /api/bids/:bidId/... */
+export const bidParamsSchema = z.object({ bidId: uuidSchema });
 
 export const declineBidSchema = z.object({
   reason: z.string().trim().max(500, 'Use at most 500 characters.').default(''),

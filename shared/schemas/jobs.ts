@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { isoDateSchema, operationCodeSchema, queryInt, regionSchema } from './common';
+import { isoDateSchema, operationCodeSchema, queryInt, regionSchema, uuidSchema } from './common';
 
 export const jobStatuses = ['draft', 'open', 'awarded', 'funded', 'in_work', 'inspection_submitted', 'completed', 'disputed', 'resolved', 'cancelled'] as const;
 export type JobStatus = (typeof jobStatuses)[number];
@@ -135,6 +135,9 @@ export const boardQuerySchema = z.object({
   pageSize: queryInt('Page size', 1, 100).default(20),
 });
 export type BoardQuery = z.infer<typeof boardQuerySchema>;
+
+/** The path parameter of every route about one job: /api/jobs/:jobId/... */
+export const jobParamsSchema = z.object({ jobId: uuidSchema });
 
 export const myJobsQuerySchema = z.object({
   status: z.enum(jobStatuses, { error: 'Unknown status.' }).optional(),

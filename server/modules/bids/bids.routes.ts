@@ -1,11 +1,14 @@
-import { z } from 'zod';
-import { bidInputSchema, bidListAnswerSchema, bidWithHistorySchema, declineBidSchema, shopBidListAnswerSchema } from '../../../shared/schemas/bids';
-import { uuidSchema } from '../../../shared/schemas/common';
+import { bidInputSchema, bidListAnswerSchema, bidParamsSchema, bidWithHistorySchema, declineBidSchema, shopBidListAnswerSchema } from '../../../shared/schemas/bids';
+import { jobParamsSchema } from '../../../shared/schemas/jobs';
+import type { User } from '../../db/schema';
 import { routesFor } from '../../lib/http/routes';
 import { acceptBid, bidsForJob, bidsOfShop, bidWithHistory, createBid, declineBid, reviseBid, withdrawBid, type BidDeps } from './bids.service';
 
-const jobParams = z.object({ jobId: uuidSchema });
-const bidParams = z.object({ bidId: uuidSchema });
+/** The bid once a change to it is done, as the person who made the change now sees it. */
+const answerBid = async (deps: BidDeps, user: User, bidId: string, change: Promise<void>) => {
+  await change;
+  return bidWithHistory(deps, user, bidId);
+};
 
 const route = routesFor<BidDeps>('Bids');
 
@@ -16,7 +19,7 @@ export const bidsRoutes = [
     path: '/api/jobs/:jobId/bids',
     summary: 'A job’s bids: all for its builder, its own for a shop',
     access: 'signed-in',
-    params: jobParams,
+    params: jobParamsSchema,
     reply: { json: bidListAnswerSchema },
     handler: async ({ deps, user, params }) => ({ bids: await bidsForJob(deps, user, params.jobId) }),
   }),
@@ -25,7 +28,7 @@ export const bidsRoutes = [
     path: '/api/jobs/:jobId/bids',
     summary: 'Bid on an open job (the total is worked out by the server)',
     access: 'shop',
-    params: jobParams,
+    params: jobParamsSchema,
     body: bidInputSchema,
     reply: { status: 201, description: 'Bid placed', json: bidWithHistorySchema },
     handler: async ({ deps, user, params, body }) => bidWithHistory(deps, user, await createBid(deps, user, params.jobId, body)),
@@ -43,7 +46,7 @@ export const bidsRoutes = [
     path: '/api/bids/:bidId',
     summary: 'A bid with its earlier versions',
     access: 'signed-in',
-    params: bidParams,
+    params: bidParamsSchema,
     reply: { json: bidWithHistorySchema },
     handler: ({ deps, user, params }) => bidWithHistory(deps, user, params.bidId),
   }),
@@ -52,49 +55,37 @@ export const bidsRoutes = [
     path: '/api/bids/:bidId',
     summary: 'Revise an active bid (the old version is kept)',
     access: 'shop',
-    params: bidParams,
+    params: bidParamsSchema,
     body: bidInputSchema,
     reply: { json: bidWithHistorySchema },
-    handler: async ({ deps, user, params, body }) => {
-      await reviseBid(deps, user, params.bidId, body);
-      return bidWithHistory(deps, user, params.bidId);
-    },
+    handler: ({ deps, user, params, body }) => answerBid(deps, user, params.bidId, reviseBid(deps, user, params.bidId, body)),
   }),
   route({
     method: 'post',
     path: '/api/bids/:bidId/withdraw',
     summary: 'Withdraw an active bid',
     access: 'shop',
-    params: bidParams,
+    params: bidParamsSchema,
     reply: { json: bidWithHistorySchema },
-    handler: async ({ deps, user, params }) => {
-      await withdrawBid(deps, user, params.bidId);
-      return bidWithHistory(deps, user, params.bidId);
-    },
+    handler: ({ deps, user, params }) => answerBid(deps, user, params.bidId, withdrawBid(deps, user, params.bidId)),
   }),
   route({
     method: 'post',
     path: '/api/bids/:bidId/accept',
     summary: 'Accept a bid: the job is awarded and every other bid declined',
     access: 'builder',
-    params: bidParams,
+    params: bidParamsSchema,
     reply: { json: bidWithHistorySchema },
-    handler: async ({ deps, user, params }) => {
-      await acceptBid(deps, user, params.bidId);
-      return bidWithHistory(deps, user, params.bidId);
-    },
+    handler: ({ deps, user, params }) => answerBid(deps, user, params.bidId, acceptBid(deps, user, params.bidId)),
   }),
   route({
     method: 'post',
     path: '/api/bids/:bidId/decline',
     summary: 'Decline a bid',
     access: 'builder',
-    params: bidParams,
+    params: bidParamsSchema,
     body: declineBidSchema,
     reply: { json: bidWithHistorySchema },
-    handler: async ({ deps, user, params, body }) => {
-      await declineBid(deps, user, params.bidId, body.reason);
-      return bidWithHistory(deps, user, params.bidId);
-    },
+    handler: ({ deps, user, params, body }) => answerBid(deps, user, params.bidId, declineBid(deps, user, params.bidId, body.reason)),
   }),
 ];

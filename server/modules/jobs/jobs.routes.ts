@@ -7,13 +7,15 @@ import {
   jobAnswerSchema,
   jobInputSchema,
   jobListAnswerSchema,
+  jobParamsSchema,
   jobPhotosAnswerSchema,
   myJobsQuerySchema,
 } from '../../../shared/schemas/jobs';
 import { currentUser } from '../../lib/auth/guards';
 import { routesFor } from '../../lib/http/routes';
 import { receivePhotos } from '../../lib/photo-upload';
-import { boardPage, jobsOfBuilder } from './jobs.repository';
+import type { User } from '../../db/schema';
+import { boardPage, jobsOfBuilder, type JobRow } from './jobs.repository';
 import {
   addPhotos,
   assertMayAddPhotos,
@@ -31,8 +33,7 @@ import {
 
 type JobRouteDeps = JobDeps & { uploadLimit: RequestHandler };
 
-const jobParams = z.object({ jobId: uuidSchema });
-const photoParams = jobParams.extend({ photoId: uuidSchema });
+const photoParams = jobParamsSchema.extend({ photoId: uuidSchema });
 const sizedPhotoParams = photoParams.extend({ size: z.enum(['thumb', 'large'], { error: 'Ask for thumb or large.' }) });
 
 /**
@@ -41,12 +42,15 @@ const sizedPhotoParams = photoParams.extend({ size: z.enum(['thumb', 'large'], {
  */
 const photoUpload = (deps: JobRouteDeps): RequestHandler[] => [
   async (req, _res, next) => {
-    await assertMayAddPhotos(deps.db, currentUser(req), jobParams.parse(req.params).jobId);
+    await assertMayAddPhotos(deps.db, currentUser(req), jobParamsSchema.parse(req.params).jobId);
     next();
   },
   deps.uploadLimit,
   receivePhotos(MAX_PHOTOS_PER_JOB),
 ];
+
+/** The job a change left, as the person who made the change now sees it. */
+const answerJob = async (deps: JobDeps, user: User, change: Promise<JobRow>) => ({ job: await jobDetail(deps, await change, user) });
 
 const route = routesFor<JobRouteDeps>('Jobs');
 
@@ -77,17 +81,14 @@ export const jobsRoutes = [
     access: 'builder',
     body: jobInputSchema,
     reply: { status: 201, description: 'Draft created', json: jobAnswerSchema },
-    handler: async ({ deps, user, body }) => {
-      const job = await createJob(deps, user, body);
-      return { job: await jobDetail(deps, job, user) };
-    },
+    handler: ({ deps, user, body }) => answerJob(deps, user, createJob(deps, user, body)),
   }),
   route({
     method: 'get',
     path: '/api/jobs/:jobId',
     summary: 'A job, for its builder, shops while open, and shops that bid',
     access: 'signed-in',
-    params: jobParams,
+    params: jobParamsSchema,
     reply: { json: jobAnswerSchema },
     handler: async ({ deps, user, params }) => ({ job: await jobDetailFor(deps, user, params.jobId) }),
   }),
@@ -96,44 +97,35 @@ export const jobsRoutes = [
     path: '/api/jobs/:jobId',
     summary: 'Edit a draft or open job (bidders are told)',
     access: 'builder',
-    params: jobParams,
+    params: jobParamsSchema,
     body: jobInputSchema,
     reply: { json: jobAnswerSchema },
-    handler: async ({ deps, user, params, body }) => {
-      const job = await updateJob(deps, user, params.jobId, body);
-      return { job: await jobDetail(deps, job, user) };
-    },
+    handler: ({ deps, user, params, body }) => answerJob(deps, user, updateJob(deps, user, params.jobId, body)),
   }),
   route({
     method: 'post',
     path: '/api/jobs/:jobId/publish',
     summary: 'Publish a draft to the board',
     access: 'builder',
-    params: jobParams,
+    params: jobParamsSchema,
     reply: { json: jobAnswerSchema },
-    handler: async ({ deps, user, params }) => {
-      const job = await publishJob(deps, user, params.jobId);
-      return { job: await jobDetail(deps, job, user) };
-    },
+    handler: ({ deps, user, params }) => answerJob(deps, user, publishJob(deps, user, params.jobId)),
   }),
   route({
     method: 'post',
     path: '/api/jobs/:jobId/cancel',
     summary: 'Cancel a job before payment (an open payment page for it is expired)',
     access: 'builder',
-    params: jobParams,
+    params: jobParamsSchema,
     reply: { json: jobAnswerSchema },
-    handler: async ({ deps, user, params }) => {
-      const job = await cancelJob(deps, user, params.jobId);
-      return { job: await jobDetail(deps, job, user) };
-    },
+    handler: ({ deps, user, params }) => answerJob(deps, user, cancelJob(deps, user, params.jobId)),
   }),
   route({
     method: 'post',
     path: '/api/jobs/:jobId/photos',
     summary: 'Upload photos (multipart field "photos"; JPEG, PNG or WebP; 15 MB each; 12 per job)',
     access: 'builder',
-    params: jobParams,
+    params: jobParamsSchema,
     use: photoUpload,
     reply: { status: 201, description: 'Stored', json: jobPhotosAnswerSchema },
     handler: async ({ deps, req, user, params }) => {
