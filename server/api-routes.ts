@@ -1,8 +1,10 @@
 import type { RouteDef } from './lib/http/routes';
 import { authRoutes } from './modules/auth/auth.routes';
+import { bidsRoutes } from './modules/bids/bids.routes';
 import { calculationsRoutes } from './modules/calculations/calculations.routes';
 import { healthRoutes } from './modules/health/health.routes';
 import { inspectionsRoutes } from './modules/inspections/inspections.routes';
+import { jobsRoutes } from './modules/jobs/jobs.routes';
 import { shopsRoutes } from './modules/shops/shops.routes';
 
 /**
@@ -15,6 +17,8 @@ export const routeModules = {
   auth: authRoutes,
   calculations: calculationsRoutes,
   shops: shopsRoutes,
+  jobs: jobsRoutes,
+  bids: bidsRoutes,
   inspections: inspectionsRoutes,
 } satisfies Record<string, readonly RouteDef<never>[]>;
 

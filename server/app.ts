@@ -14,14 +14,12 @@ import { createPassport } from './lib/auth/passport';
 import { errorHandler, notFoundApi } from './lib/errors';
 import { adminRouter } from './modules/admin/admin.routes';
 import { disputesRouter } from './modules/disputes/disputes.routes';
-import { bidsRouter } from './modules/bids/bids.routes';
 import { messagesRouter } from './modules/messages/messages.routes';
 import { paymentsRouter, paymentsWebhook } from './modules/payments/payments.routes';
 import { milestonesRouter } from './modules/milestones/milestones.routes';
 import { reviewsRouter } from './modules/reviews/reviews.routes';
 import { createPaymentsClient, type PaymentsClient } from './lib/payments-client';
 import { RealtimeHub } from './realtime/hub';
-import { jobsRouter } from './modules/jobs/jobs.routes';
 import { createSessionStore } from './lib/session-store';
 import { LocalDiskStorage, type FileStorage } from './lib/storage';
 import { jsonBody } from './lib/json-body';
@@ -146,8 +144,8 @@ export function createApp(deps: AppDeps) {
   // One count of photo uploads per person, whichever route they go to.
   const uploadLimit = uploadLimiter(db, config.rateLimits.uploadsPer10Min);
   mount(routeModules.shops, { db });
-  app.use('/api', jobsRouter({ db, appUrl: config.appUrl, storage, hub, uploadLimit, payments: paymentsClient }));
-  app.use('/api', bidsRouter({ db, appUrl: config.appUrl, hub, platformFeeBps: config.payments.platformFeeBps }));
+  mount(routeModules.jobs, { db, appUrl: config.appUrl, storage, hub, uploadLimit, payments: paymentsClient });
+  mount(routeModules.bids, { db, appUrl: config.appUrl, hub, platformFeeBps: config.payments.platformFeeBps });
   app.use('/api', paymentsRouter(paymentDeps));
   app.use('/api', messagesRouter({ db, hub, storage, messagesPer10s: config.rateLimits.messagesPer10s, uploadLimit }));
   const workDeps = { ...paymentDeps, reviewWindowMs: config.reviewWindowDays * 24 * 60 * 60_000 };

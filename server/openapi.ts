@@ -5,9 +5,7 @@ import { needsCsrf, openApiPath, successStatus, type Access, type Reply, type Ro
 import { auditQuerySchema, createAdminSchema, ledgerQuerySchema, platformFeeSchema, shopSearchSchema, suspendUserSchema, userSearchSchema, verifyShopSchema } from '../shared/schemas/admin';
 import { disputeQueueSchema, disputeResponseSchema, openDisputeSchema, resolveDisputeSchema } from '../shared/schemas/disputes';
 import { reviewInputSchema } from '../shared/schemas/reviews';
-import { bidInputSchema, declineBidSchema } from '../shared/schemas/bids';
 import { uuidSchema } from '../shared/schemas/common';
-import { boardQuerySchema, jobInputSchema, myJobsQuerySchema } from '../shared/schemas/jobs';
 import { changeOrderInputSchema, splitSchema } from '../shared/schemas/payments';
 import { milestoneInputSchema } from '../shared/schemas/inspection';
 import { historyQuerySchema, markReadSchema, openThreadSchema, sendMessageSchema } from '../shared/schemas/messages';
@@ -41,7 +39,6 @@ const errorSchema = z.object({
 });
 
 const jobId = z.object({ jobId: uuidSchema });
-const bidId = z.object({ bidId: uuidSchema });
 const shopId = z.object({ shopId: uuidSchema });
 const threadId = z.object({ threadId: uuidSchema });
 const changeOrderId = z.object({ changeOrderId: uuidSchema });
@@ -53,24 +50,6 @@ const photoSized = photo.extend({ size: z.enum(['thumb', 'large']) });
 const threadPhotoSized = z.object({ threadId: uuidSchema, photoId: uuidSchema, size: z.enum(['thumb', 'large']) });
 
 export const routeDocs: RouteDoc[] = [
-  { method: 'get', path: '/api/jobs', summary: 'The job board: open jobs, filtered, sorted and paged', tag: 'Jobs', access: 'shop', query: boardQuerySchema },
-  { method: 'get', path: '/api/jobs/mine', summary: 'The signed-in builder’s jobs', tag: 'Jobs', access: 'builder', query: myJobsQuerySchema },
-  { method: 'post', path: '/api/jobs', summary: 'Create a draft job', tag: 'Jobs', access: 'builder', body: jobInputSchema, ok: { status: 201, description: 'Draft created' } },
-  { method: 'get', path: '/api/jobs/{jobId}', summary: 'A job, for its builder, shops while open, and shops that bid', tag: 'Jobs', access: 'signed-in', params: jobId },
-  { method: 'put', path: '/api/jobs/{jobId}', summary: 'Edit a draft or open job (bidders are told)', tag: 'Jobs', access: 'builder', params: jobId, body: jobInputSchema },
-  { method: 'post', path: '/api/jobs/{jobId}/publish', summary: 'Publish a draft to the board', tag: 'Jobs', access: 'builder', params: jobId },
-  { method: 'post', path: '/api/jobs/{jobId}/cancel', summary: 'Cancel a job before payment (an open payment page for it is expired)', tag: 'Jobs', access: 'builder', params: jobId },
-  { method: 'post', path: '/api/jobs/{jobId}/photos', summary: 'Upload photos (multipart field "photos"; JPEG, PNG or WebP; 15 MB each; 12 per job)', tag: 'Jobs', access: 'builder', params: jobId, ok: { status: 201, description: 'Stored' } },
-  { method: 'get', path: '/api/jobs/{jobId}/photos/{photoId}/{size}', summary: 'A photo, re-encoded as WebP', tag: 'Jobs', access: 'signed-in', params: photoSized, ok: { status: 200, description: 'image/webp' } },
-  { method: 'delete', path: '/api/jobs/{jobId}/photos/{photoId}', summary: 'Remove a photo', tag: 'Jobs', access: 'builder', params: photo, ok: { status: 204, description: 'Removed' } },
-  { method: 'get', path: '/api/jobs/{jobId}/bids', summary: 'A job’s bids: all for its builder, its own for a shop', tag: 'Bids', access: 'signed-in', params: jobId },
-  { method: 'post', path: '/api/jobs/{jobId}/bids', summary: 'Bid on an open job (the total is worked out by the server)', tag: 'Bids', access: 'shop', params: jobId, body: bidInputSchema, ok: { status: 201, description: 'Bid placed' } },
-  { method: 'get', path: '/api/bids/mine', summary: 'The signed-in shop’s bids', tag: 'Bids', access: 'shop' },
-  { method: 'get', path: '/api/bids/{bidId}', summary: 'A bid with its earlier versions', tag: 'Bids', access: 'signed-in', params: bidId },
-  { method: 'put', path: '/api/bids/{bidId}', summary: 'Revise an active bid (the old version is kept)', tag: 'Bids', access: 'shop', params: bidId, body: bidInputSchema },
-  { method: 'post', path: '/api/bids/{bidId}/withdraw', summary: 'Withdraw an active bid', tag: 'Bids', access: 'shop', params: bidId },
-  { method: 'post', path: '/api/bids/{bidId}/accept', summary: 'Accept a bid: the job is awarded and every other bid declined', tag: 'Bids', access: 'builder', params: bidId },
-  { method: 'post', path: '/api/bids/{bidId}/decline', summary: 'Decline a bid', tag: 'Bids', access: 'builder', params: bidId, body: declineBidSchema },
   { method: 'get', path: '/api/threads', summary: 'The signed-in person’s conversations with unread counts', tag: 'Messages', access: 'signed-in' },
   { method: 'get', path: '/api/jobs/{jobId}/threads', summary: 'A job’s conversations the person may read', tag: 'Messages', access: 'signed-in', params: jobId },
   { method: 'post', path: '/api/jobs/{jobId}/threads', summary: 'Open (or find) the conversation between the job’s builder and a shop', tag: 'Messages', access: 'builder or shop', params: jobId, body: openThreadSchema, ok: { status: 201, description: 'The conversation' } },

@@ -1,5 +1,6 @@
 import { z } from 'zod';
-import { centsSchema, isoDateSchema, operationCodeSchema } from './common';
+import { centsSchema, isoDateSchema, operationCodeSchema, uuidSchema } from './common';
+import { publicShopSchema } from './shops';
 
 export const bidStatuses = ['active', 'withdrawn', 'accepted', 'declined'] as const;
 export type BidStatus = (typeof bidStatuses)[number];
@@ -21,41 +22,58 @@ export const bidInputSchema = z.object({
 export type BidInput = z.infer<typeof bidInputSchema>;
 export type BidFormValues = z.input<typeof bidInputSchema>;
 
+/** The path parameter of every route about one bid: /api/bids/:bidId/... */
+export const bidParamsSchema = z.object({ bidId: uuidSchema });
+
 export const declineBidSchema = z.object({
   reason: z.string().trim().max(500, 'Use at most 500 characters.').default(''),
 });
 
-export interface BidLine {
-  operation: string | null;
-  description: string;
-  quantity: number;
-  unitPriceCents: number;
-  amountCents: number;
-}
+// ---------------------------------------------------------------------------
+// Answers: what the API sends about bids. Other modules' answers that carry a
+// bid or its lines reuse these.
 
-export interface Bid {
-  id: string;
-  jobId: string;
-  status: BidStatus;
-  version: number;
-  totalCents: number;
-  turnaroundDays: number;
-  validUntil: string;
-  note: string;
-  lineItems: BidLine[];
-  shop: { id: string; name: string; country: string; region: string; city: string; verified: boolean; rating: { average: number; count: number } | null };
+/** A line of a bid, with its amount worked out by the server. */
+export const bidLineSchema = z.object({
+  operation: z.string().nullable(),
+  description: z.string(),
+  quantity: z.number().int(),
+  unitPriceCents: z.number().int(),
+  amountCents: z.number().int(),
+});
+export type BidLine = z.infer<typeof bidLineSchema>;
+
+/** A bid as its job's builder, its shop and admins see it. */
+export const bidSchema = z.object({
+  id: z.uuid(),
+  jobId: z.uuid(),
+  status: z.enum(bidStatuses),
+  version: z.number().int(),
+  totalCents: z.number().int(),
+  turnaroundDays: z.number().int(),
+  validUntil: z.iso.date(),
+  note: z.string(),
+  lineItems: z.array(bidLineSchema),
+  /** The bidding shop as its public page shows it. */
+  shop: publicShopSchema.pick({ id: true, name: true, country: true, region: true, city: true, verified: true, rating: true }),
   /** Share of the job's operations the shop lists as capabilities, 0 to 1. */
-  capabilityMatch: number;
-  createdAt: string;
-  updatedAt: string;
-}
+  capabilityMatch: z.number().min(0).max(1),
+  createdAt: z.iso.datetime(),
+  updatedAt: z.iso.datetime(),
+});
+export type Bid = z.infer<typeof bidSchema>;
 
-export interface BidRevision {
-  version: number;
-  totalCents: number;
-  turnaroundDays: number;
-  validUntil: string;
-  note: string;
-  lineItems: BidLine[];
-  createdAt: string;
-}
+/** An earlier version of a bid, kept when the shop revised it. */
+export const bidRevisionSchema = bidSchema.pick({ version: true, totalCents: true, turnaroundDays: true, validUntil: true, note: true, lineItems: true, createdAt: true });
+export type BidRevision = z.infer<typeof bidRevisionSchema>;
+
+/** A bid with its earlier versions, newest first: the answer to reading or changing one bid. */
+export const bidWithHistorySchema = z.object({ bid: bidSchema, revisions: z.array(bidRevisionSchema) });
+export type BidWithHistory = z.infer<typeof bidWithHistorySchema>;
+
+/** A bid in its shop's own list, with the title and status of the job it is for. */
+export const shopBidSchema = bidSchema.extend({ jobTitle: z.string(), jobStatus: z.string() });
+export type ShopBid = z.infer<typeof shopBidSchema>;
+
+export const bidListAnswerSchema = z.object({ bids: z.array(bidSchema) });
+export const shopBidListAnswerSchema = z.object({ bids: z.array(shopBidSchema) });

@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { isoDateSchema, operationCodeSchema, queryInt, regionSchema } from './common';
+import { isoDateSchema, operationCodeSchema, queryInt, regionSchema, uuidSchema } from './common';
 
 export const jobStatuses = ['draft', 'open', 'awarded', 'funded', 'in_work', 'inspection_submitted', 'completed', 'disputed', 'resolved', 'cancelled'] as const;
 export type JobStatus = (typeof jobStatuses)[number];
@@ -136,43 +136,88 @@ export const boardQuerySchema = z.object({
 });
 export type BoardQuery = z.infer<typeof boardQuerySchema>;
 
+/** The path parameter of every route about one job: /api/jobs/:jobId/... */
+export const jobParamsSchema = z.object({ jobId: uuidSchema });
+
 export const myJobsQuerySchema = z.object({
   status: z.enum(jobStatuses, { error: 'Unknown status.' }).optional(),
 });
 
-export interface JobPhoto {
-  id: string;
-  width: number;
-  height: number;
-  thumbUrl: string;
-  largeUrl: string;
-}
+// ---------------------------------------------------------------------------
+// Answers: what the API sends about jobs. Other modules' answers that carry a
+// job, its summary or its photos reuse these.
 
-export interface JobSummary {
-  id: string;
-  title: string;
-  status: JobStatus;
-  engineFamily: string;
-  cylinders: number;
-  blockMaterial: (typeof blockMaterials)[number];
-  operations: string[];
-  logistics: (typeof logisticsOptions)[number];
-  country: string;
-  region: string;
-  city: string;
-  neededBy: string;
-  bidCount: number;
-  publishedAt: string | null;
-  createdAt: string;
-  thumbUrl: string | null;
-}
+/** A photo of a job: its size after re-encoding and the addresses of its two sizes. */
+export const jobPhotoSchema = z.object({
+  id: z.uuid(),
+  width: z.number().int(),
+  height: z.number().int(),
+  thumbUrl: z.string(),
+  largeUrl: z.string(),
+});
+export type JobPhoto = z.infer<typeof jobPhotoSchema>;
 
-export interface JobDetail extends JobSummary {
-  builder: { id: string; displayName: string };
-  spec: JobInput;
-  photos: JobPhoto[];
-  awardedBidId: string | null;
-  updatedAt: string;
+/** A job as lists show it: the job board, a builder's own jobs. */
+export const jobSummarySchema = z.object({
+  id: z.uuid(),
+  title: z.string(),
+  status: z.enum(jobStatuses),
+  engineFamily: z.string(),
+  cylinders: z.number().int(),
+  blockMaterial: z.enum(blockMaterials),
+  operations: z.array(z.string()),
+  logistics: z.enum(logisticsOptions),
+  country: z.string(),
+  region: z.string(),
+  city: z.string(),
+  neededBy: z.iso.date(),
+  bidCount: z.number().int(),
+  publishedAt: z.iso.datetime().nullable(),
+  createdAt: z.iso.datetime(),
+  /** The first photo's small size, if the job has photos. */
+  thumbUrl: z.string().nullable(),
+});
+export type JobSummary = z.infer<typeof jobSummarySchema>;
+
+/**
+ * The specification as stored when the builder last saved it: the input's
+ * fields, without the trimming, defaults and "needed by a day still to come"
+ * rule that apply only on the way in.
+ */
+export const jobSpecSchema = jobFieldsSchema.extend({
+  title: z.string(),
+  engineFamily: z.string(),
+  country: z.string(),
+  region: z.string(),
+  city: z.string(),
+  neededBy: z.iso.date(),
+  deckNotes: z.string(),
+  notes: z.string(),
+});
+export type JobSpec = z.infer<typeof jobSpecSchema>;
+
+/** A job as its page shows it, to its builder, to shops and to admins alike; `viewer` says what the one asking may do. */
+export const jobDetailSchema = jobSummarySchema.extend({
+  builder: z.object({ id: z.uuid(), displayName: z.string() }),
+  spec: jobSpecSchema,
+  photos: z.array(jobPhotoSchema),
+  awardedBidId: z.uuid().nullable(),
+  updatedAt: z.iso.datetime(),
   /** What the person asking may do with it. */
-  viewer: { isOwner: boolean; canBid: boolean; myBidId: string | null };
-}
+  viewer: z.object({ isOwner: z.boolean(), canBid: z.boolean(), myBidId: z.uuid().nullable() }),
+});
+export type JobDetail = z.infer<typeof jobDetailSchema>;
+
+/** One page of the job board. */
+export const boardPageSchema = z.object({
+  jobs: z.array(jobSummarySchema),
+  total: z.number().int(),
+  page: z.number().int(),
+  pageSize: z.number().int(),
+  sort: z.enum(boardSorts),
+});
+export type BoardPage = z.infer<typeof boardPageSchema>;
+
+export const jobAnswerSchema = z.object({ job: jobDetailSchema });
+export const jobListAnswerSchema = z.object({ jobs: z.array(jobSummarySchema) });
+export const jobPhotosAnswerSchema = z.object({ photos: z.array(jobPhotoSchema) });

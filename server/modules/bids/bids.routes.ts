@@ -1,62 +1,91 @@
-import { Router, type Request } from 'express';
-import { z } from 'zod';
-import { bidInputSchema, declineBidSchema } from '../../../shared/schemas/bids';
-import { uuidSchema } from '../../../shared/schemas/common';
-import { currentUser, requireRole, requireUser } from '../../lib/auth/guards';
+import { bidInputSchema, bidListAnswerSchema, bidParamsSchema, bidWithHistorySchema, declineBidSchema, shopBidListAnswerSchema } from '../../../shared/schemas/bids';
+import { jobParamsSchema } from '../../../shared/schemas/jobs';
+import type { User } from '../../db/schema';
+import { routesFor } from '../../lib/http/routes';
 import { acceptBid, bidsForJob, bidsOfShop, bidWithHistory, createBid, declineBid, reviseBid, withdrawBid, type BidDeps } from './bids.service';
 
-const jobParams = z.object({ jobId: uuidSchema });
-const bidParams = z.object({ bidId: uuidSchema });
+/** The bid once a change to it is done, as the person who made the change now sees it. */
+const answerBid = async (deps: BidDeps, user: User, bidId: string, change: Promise<void>) => {
+  await change;
+  return bidWithHistory(deps, user, bidId);
+};
 
-export function bidsRouter(deps: BidDeps) {
-  const router = Router();
-  /** The bid as the person who changed it now sees it. */
-  const answer = (req: Request, bidId: string) => bidWithHistory(deps, currentUser(req), bidId);
+const route = routesFor<BidDeps>('Bids');
 
-  router.get('/jobs/:jobId/bids', requireUser, async (req, res) => {
-    const { jobId } = jobParams.parse(req.params);
-    res.json({ bids: await bidsForJob(deps, currentUser(req), jobId) });
-  });
-
-  router.post('/jobs/:jobId/bids', requireRole('shop'), async (req, res) => {
-    const { jobId } = jobParams.parse(req.params);
-    const bidId = await createBid(deps, currentUser(req), jobId, bidInputSchema.parse(req.body));
-    res.status(201).json(await answer(req, bidId));
-  });
-
-  router.get('/bids/mine', requireRole('shop'), async (req, res) => {
-    res.json({ bids: await bidsOfShop(deps, currentUser(req)) });
-  });
-
-  router.get('/bids/:bidId', requireUser, async (req, res) => {
-    const { bidId } = bidParams.parse(req.params);
-    res.json(await bidWithHistory(deps, currentUser(req), bidId));
-  });
-
-  router.put('/bids/:bidId', requireRole('shop'), async (req, res) => {
-    const { bidId } = bidParams.parse(req.params);
-    await reviseBid(deps, currentUser(req), bidId, bidInputSchema.parse(req.body));
-    res.json(await answer(req, bidId));
-  });
-
-  router.post('/bids/:bidId/withdraw', requireRole('shop'), async (req, res) => {
-    const { bidId } = bidParams.parse(req.params);
-    await withdrawBid(deps, currentUser(req), bidId);
-    res.json(await answer(req, bidId));
-  });
-
-  router.post('/bids/:bidId/accept', requireRole('builder'), async (req, res) => {
-    const { bidId } = bidParams.parse(req.params);
-    await acceptBid(deps, currentUser(req), bidId);
-    res.json(await answer(req, bidId));
-  });
-
-  router.post('/bids/:bidId/decline', requireRole('builder'), async (req, res) => {
-    const { bidId } = bidParams.parse(req.params);
-    const { reason } = declineBidSchema.parse(req.body);
-    await declineBid(deps, currentUser(req), bidId, reason);
-    res.json(await answer(req, bidId));
-  });
-
-  return router;
-}
+/** Bids on a job: placed and revised by shops, accepted or declined by the job's builder. Each change answers the bid as its changer now sees it. */
+export const bidsRoutes = [
+  route({
+    method: 'get',
+    path: '/api/jobs/:jobId/bids',
+    summary: 'A job’s bids: all for its builder, its own for a shop',
+    access: 'signed-in',
+    params: jobParamsSchema,
+    reply: { json: bidListAnswerSchema },
+    handler: async ({ deps, user, params }) => ({ bids: await bidsForJob(deps, user, params.jobId) }),
+  }),
+  route({
+    method: 'post',
+    path: '/api/jobs/:jobId/bids',
+    summary: 'Bid on an open job (the total is worked out by the server)',
+    access: 'shop',
+    params: jobParamsSchema,
+    body: bidInputSchema,
+    reply: { status: 201, description: 'Bid placed', json: bidWithHistorySchema },
+    handler: async ({ deps, user, params, body }) => bidWithHistory(deps, user, await createBid(deps, user, params.jobId, body)),
+  }),
+  route({
+    method: 'get',
+    path: '/api/bids/mine',
+    summary: 'The signed-in shop’s bids',
+    access: 'shop',
+    reply: { json: shopBidListAnswerSchema },
+    handler: async ({ deps, user }) => ({ bids: await bidsOfShop(deps, user) }),
+  }),
+  route({
+    method: 'get',
+    path: '/api/bids/:bidId',
+    summary: 'A bid with its earlier versions',
+    access: 'signed-in',
+    params: bidParamsSchema,
+    reply: { json: bidWithHistorySchema },
+    handler: ({ deps, user, params }) => bidWithHistory(deps, user, params.bidId),
+  }),
+  route({
+    method: 'put',
+    path: '/api/bids/:bidId',
+    summary: 'Revise an active bid (the old version is kept)',
+    access: 'shop',
+    params: bidParamsSchema,
+    body: bidInputSchema,
+    reply: { json: bidWithHistorySchema },
+    handler: ({ deps, user, params, body }) => answerBid(deps, user, params.bidId, reviseBid(deps, user, params.bidId, body)),
+  }),
+  route({
+    method: 'post',
+    path: '/api/bids/:bidId/withdraw',
+    summary: 'Withdraw an active bid',
+    access: 'shop',
+    params: bidParamsSchema,
+    reply: { json: bidWithHistorySchema },
+    handler: ({ deps, user, params }) => answerBid(deps, user, params.bidId, withdrawBid(deps, user, params.bidId)),
+  }),
+  route({
+    method: 'post',
+    path: '/api/bids/:bidId/accept',
+    summary: 'Accept a bid: the job is awarded and every other bid declined',
+    access: 'builder',
+    params: bidParamsSchema,
+    reply: { json: bidWithHistorySchema },
+    handler: ({ deps, user, params }) => answerBid(deps, user, params.bidId, acceptBid(deps, user, params.bidId)),
+  }),
+  route({
+    method: 'post',
+    path: '/api/bids/:bidId/decline',
+    summary: 'Decline a bid',
+    access: 'builder',
+    params: bidParamsSchema,
+    body: declineBidSchema,
+    reply: { json: bidWithHistorySchema },
+    handler: ({ deps, user, params, body }) => answerBid(deps, user, params.bidId, declineBid(deps, user, params.bidId, body.reason)),
+  }),
+];

@@ -1,10 +1,21 @@
-import { Router, type RequestHandler } from 'express';
+import type { RequestHandler } from 'express';
 import { z } from 'zod';
 import { uuidSchema } from '../../../shared/schemas/common';
-import { boardQuerySchema, jobInputSchema, myJobsQuerySchema } from '../../../shared/schemas/jobs';
-import { currentUser, requireRole, requireUser } from '../../lib/auth/guards';
+import {
+  boardPageSchema,
+  boardQuerySchema,
+  jobAnswerSchema,
+  jobInputSchema,
+  jobListAnswerSchema,
+  jobParamsSchema,
+  jobPhotosAnswerSchema,
+  myJobsQuerySchema,
+} from '../../../shared/schemas/jobs';
+import { currentUser } from '../../lib/auth/guards';
+import { routesFor } from '../../lib/http/routes';
 import { receivePhotos } from '../../lib/photo-upload';
-import { boardPage, jobsOfBuilder } from './jobs.repository';
+import type { User } from '../../db/schema';
+import { boardPage, jobsOfBuilder, type JobRow } from './jobs.repository';
 import {
   addPhotos,
   assertMayAddPhotos,
@@ -20,72 +31,127 @@ import {
   type JobDeps,
 } from './jobs.service';
 
-const jobParams = z.object({ jobId: uuidSchema });
-const photoParams = z.object({ jobId: uuidSchema, photoId: uuidSchema, size: z.enum(['thumb', 'large'], { error: 'Ask for thumb or large.' }) });
+type JobRouteDeps = JobDeps & { uploadLimit: RequestHandler };
 
-export function jobsRouter(deps: JobDeps & { uploadLimit: RequestHandler }) {
-  const router = Router();
+const photoParams = jobParamsSchema.extend({ photoId: uuidSchema });
+const sizedPhotoParams = photoParams.extend({ size: z.enum(['thumb', 'large'], { error: 'Ask for thumb or large.' }) });
 
-  router.get('/jobs', requireRole('shop', 'admin'), async (req, res) => {
-    res.json(await boardPage(deps.db, boardQuerySchema.parse(req.query)));
-  });
-
-  router.get('/jobs/mine', requireRole('builder'), async (req, res) => {
-    const { status } = myJobsQuerySchema.parse(req.query);
-    res.json({ jobs: await jobsOfBuilder(deps.db, currentUser(req).id, status) });
-  });
-
-  router.post('/jobs', requireRole('builder'), async (req, res) => {
-    const job = await createJob(deps, currentUser(req), jobInputSchema.parse(req.body));
-    res.status(201).json({ job: await jobDetail(deps, job, currentUser(req)) });
-  });
-
-  router.get('/jobs/:jobId', requireUser, async (req, res) => {
-    const { jobId } = jobParams.parse(req.params);
-    res.json({ job: await jobDetailFor(deps, currentUser(req), jobId) });
-  });
-
-  router.put('/jobs/:jobId', requireRole('builder'), async (req, res) => {
-    const { jobId } = jobParams.parse(req.params);
-    const job = await updateJob(deps, currentUser(req), jobId, jobInputSchema.parse(req.body));
-    res.json({ job: await jobDetail(deps, job, currentUser(req)) });
-  });
-
-  router.post('/jobs/:jobId/publish', requireRole('builder'), async (req, res) => {
-    const { jobId } = jobParams.parse(req.params);
-    const job = await publishJob(deps, currentUser(req), jobId);
-    res.json({ job: await jobDetail(deps, job, currentUser(req)) });
-  });
-
-  router.post('/jobs/:jobId/cancel', requireRole('builder'), async (req, res) => {
-    const { jobId } = jobParams.parse(req.params);
-    const job = await cancelJob(deps, currentUser(req), jobId);
-    res.json({ job: await jobDetail(deps, job, currentUser(req)) });
-  });
-
-  // Who may upload is settled before the body is read; the photos are decoded only after that.
-  const mayUpload: RequestHandler = async (req, _res, next) => {
-    await assertMayAddPhotos(deps.db, currentUser(req), jobParams.parse(req.params).jobId);
+/**
+ * Who may upload is settled before the body is read (the person's upload
+ * count next, then the photos are decoded), so a refused upload is never read.
+ */
+const photoUpload = (deps: JobRouteDeps): RequestHandler[] => [
+  async (req, _res, next) => {
+    await assertMayAddPhotos(deps.db, currentUser(req), jobParamsSchema.parse(req.params).jobId);
     next();
-  };
-  router.post('/jobs/:jobId/photos', requireRole('builder'), mayUpload, deps.uploadLimit, receivePhotos(MAX_PHOTOS_PER_JOB), async (req, res) => {
-    const { jobId } = jobParams.parse(req.params);
-    const files = (req.files as Express.Multer.File[] | undefined) ?? [];
-    const photos = await addPhotos(deps, currentUser(req), jobId, files);
-    res.status(201).json({ photos });
-  });
+  },
+  deps.uploadLimit,
+  receivePhotos(MAX_PHOTOS_PER_JOB),
+];
 
-  router.get('/jobs/:jobId/photos/:photoId/:size', requireUser, async (req, res) => {
-    const { jobId, photoId, size } = photoParams.parse(req.params);
-    const data = await readPhoto(deps, currentUser(req), jobId, photoId, size);
-    res.set({ 'Content-Type': 'image/webp', 'Cache-Control': 'private, max-age=3600', 'X-Content-Type-Options': 'nosniff' }).send(data);
-  });
+/** The job a change left, as the person who made the change now sees it. */
+const answerJob = async (deps: JobDeps, user: User, change: Promise<JobRow>) => ({ job: await jobDetail(deps, await change, user) });
 
-  router.delete('/jobs/:jobId/photos/:photoId', requireRole('builder'), async (req, res) => {
-    const { jobId, photoId } = photoParams.omit({ size: true }).parse(req.params);
-    await removePhoto(deps, currentUser(req), jobId, photoId);
-    res.status(204).end();
-  });
+const route = routesFor<JobRouteDeps>('Jobs');
 
-  return router;
-}
+/** The job board, a builder's jobs, and a job's life from draft to cancelled, with its photos. */
+export const jobsRoutes = [
+  route({
+    method: 'get',
+    path: '/api/jobs',
+    summary: 'The job board: open jobs, filtered, sorted and paged',
+    access: 'shop or admin',
+    query: boardQuerySchema,
+    reply: { json: boardPageSchema },
+    handler: ({ deps, query }) => boardPage(deps.db, query),
+  }),
+  route({
+    method: 'get',
+    path: '/api/jobs/mine',
+    summary: 'The signed-in builder’s jobs',
+    access: 'builder',
+    query: myJobsQuerySchema,
+    reply: { json: jobListAnswerSchema },
+    handler: async ({ deps, user, query }) => ({ jobs: await jobsOfBuilder(deps.db, user.id, query.status) }),
+  }),
+  route({
+    method: 'post',
+    path: '/api/jobs',
+    summary: 'Create a draft job',
+    access: 'builder',
+    body: jobInputSchema,
+    reply: { status: 201, description: 'Draft created', json: jobAnswerSchema },
+    handler: ({ deps, user, body }) => answerJob(deps, user, createJob(deps, user, body)),
+  }),
+  route({
+    method: 'get',
+    path: '/api/jobs/:jobId',
+    summary: 'A job, for its builder, shops while open, and shops that bid',
+    access: 'signed-in',
+    params: jobParamsSchema,
+    reply: { json: jobAnswerSchema },
+    handler: async ({ deps, user, params }) => ({ job: await jobDetailFor(deps, user, params.jobId) }),
+  }),
+  route({
+    method: 'put',
+    path: '/api/jobs/:jobId',
+    summary: 'Edit a draft or open job (bidders are told)',
+    access: 'builder',
+    params: jobParamsSchema,
+    body: jobInputSchema,
+    reply: { json: jobAnswerSchema },
+    handler: ({ deps, user, params, body }) => answerJob(deps, user, updateJob(deps, user, params.jobId, body)),
+  }),
+  route({
+    method: 'post',
+    path: '/api/jobs/:jobId/publish',
+    summary: 'Publish a draft to the board',
+    access: 'builder',
+    params: jobParamsSchema,
+    reply: { json: jobAnswerSchema },
+    handler: ({ deps, user, params }) => answerJob(deps, user, publishJob(deps, user, params.jobId)),
+  }),
+  route({
+    method: 'post',
+    path: '/api/jobs/:jobId/cancel',
+    summary: 'Cancel a job before payment (an open payment page for it is expired)',
+    access: 'builder',
+    params: jobParamsSchema,
+    reply: { json: jobAnswerSchema },
+    handler: ({ deps, user, params }) => answerJob(deps, user, cancelJob(deps, user, params.jobId)),
+  }),
+  route({
+    method: 'post',
+    path: '/api/jobs/:jobId/photos',
+    summary: 'Upload photos (multipart field "photos"; JPEG, PNG or WebP; 15 MB each; 12 per job)',
+    access: 'builder',
+    params: jobParamsSchema,
+    use: photoUpload,
+    reply: { status: 201, description: 'Stored', json: jobPhotosAnswerSchema },
+    handler: async ({ deps, req, user, params }) => {
+      const files = (req.files as Express.Multer.File[] | undefined) ?? [];
+      return { photos: await addPhotos(deps, user, params.jobId, files) };
+    },
+  }),
+  route({
+    method: 'get',
+    path: '/api/jobs/:jobId/photos/:photoId/:size',
+    summary: 'A photo, re-encoded as WebP',
+    access: 'signed-in',
+    params: sizedPhotoParams,
+    reply: { file: 'image/webp', description: 'image/webp' },
+    handler: async ({ deps, res, user, params }) => {
+      const data = await readPhoto(deps, user, params.jobId, params.photoId, params.size);
+      res.set({ 'Content-Type': 'image/webp', 'Cache-Control': 'private, max-age=3600', 'X-Content-Type-Options': 'nosniff' }).send(data);
+    },
+  }),
+  route({
+    method: 'delete',
+    path: '/api/jobs/:jobId/photos/:photoId',
+    summary: 'Remove a photo',
+    access: 'builder',
+    params: photoParams,
+    reply: { status: 204, empty: true, description: 'Removed' },
+    handler: ({ deps, user, params }) => removePhoto(deps, user, params.jobId, params.photoId),
+  }),
+];

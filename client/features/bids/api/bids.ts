@@ -1,15 +1,14 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { Bid, BidInput, BidRevision } from '@shared/schemas/bids';
+import type { Bid, BidInput, BidWithHistory, ShopBid } from '@shared/schemas/bids';
 import { api } from '@client/lib/api-client';
 import { type MutationConfig, useApiMutation } from '@client/lib/mutation';
 import { bidKeys, jobChangeKeys } from '@client/lib/query-keys';
 
-export type BidWithHistory = { bid: Bid; revisions: BidRevision[] };
-export type MyBid = Bid & { jobTitle: string; jobStatus: string };
+export type { BidWithHistory, ShopBid as MyBid };
 
 export const bidQueries = {
   forJob: (jobId: string) => queryOptions({ queryKey: bidKeys.forJob(jobId), queryFn: () => api.get<{ bids: Bid[] }>(`/api/jobs/${jobId}/bids`).then((r) => r.bids) }),
-  mine: () => queryOptions({ queryKey: bidKeys.mine(), queryFn: () => api.get<{ bids: MyBid[] }>('/api/bids/mine').then((r) => r.bids) }),
+  mine: () => queryOptions({ queryKey: bidKeys.mine(), queryFn: () => api.get<{ bids: ShopBid[] }>('/api/bids/mine').then((r) => r.bids) }),
   detail: (id: string) => queryOptions({ queryKey: bidKeys.detail(id), queryFn: () => api.get<BidWithHistory>(`/api/bids/${id}`) }),
 };
 

@@ -1,17 +1,9 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
-import type { BoardQuery, JobDetail, JobInput, JobPhoto, JobStatus, JobSummary } from '@shared/schemas/jobs';
+import type { BoardPage, JobDetail, JobInput, JobPhoto, JobStatus, JobSummary } from '@shared/schemas/jobs';
 import { api } from '@client/lib/api-client';
 import { type MutationConfig, type MutationOptions, useApiMutation } from '@client/lib/mutation';
 import { type BoardFilters, jobChangeKeys, jobKeys } from '@client/lib/query-keys';
 import { toSearch } from '@client/lib/search-params';
-
-export interface BoardPage {
-  jobs: JobSummary[];
-  total: number;
-  page: number;
-  pageSize: number;
-  sort: BoardQuery['sort'];
-}
 
 export const jobQueries = {
   board: (filters: BoardFilters) =>
@@ -44,5 +36,5 @@ export const useCancelJob = (options?: MutationOptions<JobDetail, string>) =>
 export const useRemovePhoto = (jobId: string, options?: MutationOptions<void, string>) =>
   useApiMutation((photoId: string) => api.delete<void>(`/api/jobs/${jobId}/photos/${photoId}`), { refreshes: () => [jobKeys.detail(jobId)] }, options?.mutationConfig);
 
-export type { BoardFilters, JobPhoto };
+export type { BoardFilters, BoardPage, JobPhoto };
 export { jobKeys };
