@@ -1,7 +1,10 @@
 import type { RouteDef } from './lib/http/routes';
 import { authRoutes } from './modules/auth/auth.routes';
 import { calculationsRoutes } from './modules/calculations/calculations.routes';
+import { disputesRoutes } from './modules/disputes/disputes.routes';
 import { healthRoutes } from './modules/health/health.routes';
+import { paymentsRoutes, paymentsWebhookRoutes } from './modules/payments/payments.routes';
+import { reviewsRoutes } from './modules/reviews/reviews.routes';
 import { shopsRoutes } from './modules/shops/shops.routes';
 
 /**
@@ -11,9 +14,13 @@ import { shopsRoutes } from './modules/shops/shops.routes';
  */
 export const routeModules = {
   health: healthRoutes,
+  paymentsWebhook: paymentsWebhookRoutes,
   auth: authRoutes,
   calculations: calculationsRoutes,
   shops: shopsRoutes,
+  payments: paymentsRoutes,
+  disputes: disputesRoutes,
+  reviews: reviewsRoutes,
 } satisfies Record<string, readonly RouteDef<never>[]>;
 
 export const apiRoutes: readonly RouteDef<never>[] = Object.values(routeModules).flat();

@@ -13,13 +13,11 @@ import type { AppConfig } from './env';
 import { createPassport } from './lib/auth/passport';
 import { errorHandler, notFoundApi } from './lib/errors';
 import { adminRouter } from './modules/admin/admin.routes';
-import { disputesRouter } from './modules/disputes/disputes.routes';
+import { adminDisputesRouter } from './modules/disputes/disputes.routes';
 import { bidsRouter } from './modules/bids/bids.routes';
 import { messagesRouter } from './modules/messages/messages.routes';
-import { paymentsRouter, paymentsWebhook } from './modules/payments/payments.routes';
 import { inspectionsRouter } from './modules/inspections/inspections.routes';
 import { milestonesRouter } from './modules/milestones/milestones.routes';
-import { reviewsRouter } from './modules/reviews/reviews.routes';
 import { createPaymentsClient, type PaymentsClient } from './lib/payments-client';
 import { RealtimeHub } from './realtime/hub';
 import { jobsRouter } from './modules/jobs/jobs.routes';
@@ -98,7 +96,7 @@ export function createApp(deps: AppDeps) {
   const paymentsClient = deps.payments ?? createPaymentsClient(config.payments);
   const hub = new RealtimeHub();
   const paymentDeps = { db, payments: paymentsClient, appUrl: config.appUrl, hub };
-  app.use('/api', paymentsWebhook({ ...paymentDeps, webhookSecret: config.payments.webhookSecret }));
+  mount(routeModules.paymentsWebhook, { ...paymentDeps, webhookSecret: config.payments.webhookSecret });
 
   const store = createSessionStore(pool);
   const secure = config.appUrl.startsWith('https://');
@@ -149,13 +147,14 @@ export function createApp(deps: AppDeps) {
   mount(routeModules.shops, { db });
   app.use('/api', jobsRouter({ db, appUrl: config.appUrl, storage, hub, uploadLimit, payments: paymentsClient }));
   app.use('/api', bidsRouter({ db, appUrl: config.appUrl, hub, platformFeeBps: config.payments.platformFeeBps }));
-  app.use('/api', paymentsRouter(paymentDeps));
+  mount(routeModules.payments, paymentDeps);
   app.use('/api', messagesRouter({ db, hub, storage, messagesPer10s: config.rateLimits.messagesPer10s, uploadLimit }));
   const workDeps = { ...paymentDeps, reviewWindowMs: config.reviewWindowDays * 24 * 60 * 60_000 };
   app.use('/api', milestonesRouter({ db, hub, storage, uploadLimit }));
   app.use('/api', inspectionsRouter(workDeps));
-  app.use('/api', disputesRouter(paymentDeps));
-  app.use('/api', reviewsRouter(paymentDeps));
+  mount(routeModules.disputes, paymentDeps);
+  app.use('/api', adminDisputesRouter(paymentDeps));
+  mount(routeModules.reviews, paymentDeps);
   app.use('/api/admin', adminRouter({ db, appUrl: config.appUrl, hub, defaultFeeBps: config.payments.platformFeeBps }));
 
   app.get('/api/openapi.json', (_req, res) => {
