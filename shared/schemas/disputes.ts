@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { centsSchema } from './common';
-import type { ChangeOrder, MoneyView } from './payments';
+import { moneyViewSchema, type ChangeOrder, type LedgerEntryKind, type MoneyView } from './payments';
 import type { InspectionResults } from './inspection';
 
 /**
@@ -105,6 +105,12 @@ export const disputeQueueRowSchema = z.object({
 });
 export type DisputeQueueRow = z.infer<typeof disputeQueueRowSchema>;
 
+export const disputeQueueAnswerSchema = z.object({ disputes: z.array(disputeQueueRowSchema) });
+
+/** What an administrator's decision answers: the resolved dispute and the job's money after it. */
+export const disputeDecisionSchema = z.object({ dispute: disputeSchema, money: moneyViewSchema });
+export type DisputeDecision = z.infer<typeof disputeDecisionSchema>;
+
 export type EvidenceItem =
   | { kind: 'dispute_opened'; at: string; by: 'builder' | 'shop'; reason: DisputeReason; statement: string }
   | { kind: 'dispute_answered'; at: string; by: 'builder' | 'shop'; statement: string }
@@ -112,7 +118,7 @@ export type EvidenceItem =
   | { kind: 'milestone'; at: string; milestone: string; operation: string | null; note: string; carrier: string | null; trackingNumber: string | null; photos: EvidencePhoto[] }
   | { kind: 'inspection'; at: string; version: number; status: string; pass: boolean; results: InspectionResults; decidedAt: string | null; rejectReasons: string | null }
   | { kind: 'change_order'; at: string; description: string; amountCents: number; status: ChangeOrder['status'] }
-  | { kind: 'money'; at: string; entry: 'paid_in' | 'released' | 'fee' | 'refunded'; amountCents: number; reference: string }
+  | { kind: 'money'; at: string; entry: LedgerEntryKind; amountCents: number; reference: string }
   | { kind: 'job_photo'; at: string; photos: EvidencePhoto[] };
 
 export interface EvidencePhoto {

@@ -1,5 +1,5 @@
 import { queryOptions, useMutation, useQuery, useQueryClient, type UseMutationOptions } from '@tanstack/react-query';
-import type { Dispute, DisputeResponseInput, DisputeView, OpenDisputeInput } from '@shared/schemas/disputes';
+import type { Dispute, DisputeAnswer, DisputeResponseInput, DisputeView, OpenDisputeInput } from '@shared/schemas/disputes';
 import { api, type ApiError } from '@client/lib/api-client';
 import { disputeKeys, jobKeys, paymentKeys } from '@client/lib/query-keys';
 
@@ -39,7 +39,7 @@ function useDisputeMutation<TVars>(jobId: string, run: (vars: TVars) => Promise<
 export const useOpenDispute = (jobId: string, options?: { mutationConfig?: Config<Dispute, OpenDisputeInput> }) =>
   useDisputeMutation(
     jobId,
-    (input: OpenDisputeInput) => api.post<{ dispute: Dispute }>(`/api/jobs/${jobId}/dispute`, input).then((r) => r.dispute),
+    (input: OpenDisputeInput) => api.post<DisputeAnswer>(`/api/jobs/${jobId}/dispute`, input).then((r) => r.dispute),
     options?.mutationConfig,
   );
 
@@ -47,6 +47,6 @@ export const useOpenDispute = (jobId: string, options?: { mutationConfig?: Confi
 export const useRespondToDispute = (jobId: string, options?: { mutationConfig?: Config<Dispute, DisputeResponseInput> }) =>
   useDisputeMutation(
     jobId,
-    (input: DisputeResponseInput) => api.post<{ dispute: Dispute }>(`/api/jobs/${jobId}/dispute/response`, input).then((r) => r.dispute),
+    (input: DisputeResponseInput) => api.post<DisputeAnswer>(`/api/jobs/${jobId}/dispute/response`, input).then((r) => r.dispute),
     options?.mutationConfig,
   );

@@ -1,5 +1,5 @@
 import { queryOptions, useMutation, useQuery, useQueryClient, type UseMutationOptions } from '@tanstack/react-query';
-import type { ChangeOrder, ChangeOrderInput, MoneyView } from '@shared/schemas/payments';
+import type { ChangeOrder, ChangeOrderAnswer, ChangeOrderInput, ChangeOrderList, MoneyView, ProviderLink } from '@shared/schemas/payments';
 import { api, type ApiError } from '@client/lib/api-client';
 import { jobKeys, paymentKeys, shopKeys } from '@client/lib/query-keys';
 
@@ -8,7 +8,7 @@ export const paymentQueries = {
   changeOrders: (jobId: string) =>
     queryOptions({
       queryKey: paymentKeys.changeOrders(jobId),
-      queryFn: () => api.get<{ changeOrders: ChangeOrder[] }>(`/api/jobs/${jobId}/change-orders`).then((r) => r.changeOrders),
+      queryFn: () => api.get<ChangeOrderList>(`/api/jobs/${jobId}/change-orders`).then((r) => r.changeOrders),
     }),
 };
 
@@ -19,18 +19,18 @@ export const useChangeOrders = (jobId: string, enabled = true) => useQuery({ ...
 type Config<TData, TVars> = Omit<UseMutationOptions<TData, ApiError, TVars>, 'mutationFn'>;
 
 /** Leaves for the payment provider's page (or the local stand-in's). */
-const goTo = (result: { url: string }) => {
+const goTo = (result: ProviderLink) => {
   window.location.assign(result.url);
 };
 
-export const useStartCheckout = (jobId: string, options?: { mutationConfig?: Config<{ url: string }, void> }) =>
-  useMutation<{ url: string }, ApiError, void>({ onSuccess: goTo, ...options?.mutationConfig, mutationFn: () => api.post(`/api/jobs/${jobId}/checkout`) });
+export const useStartCheckout = (jobId: string, options?: { mutationConfig?: Config<ProviderLink, void> }) =>
+  useMutation<ProviderLink, ApiError, void>({ onSuccess: goTo, ...options?.mutationConfig, mutationFn: () => api.post(`/api/jobs/${jobId}/checkout`) });
 
-export const useStartPayouts = (options?: { mutationConfig?: Config<{ url: string }, void> }) =>
-  useMutation<{ url: string }, ApiError, void>({ onSuccess: goTo, ...options?.mutationConfig, mutationFn: () => api.post('/api/shop-profile/payouts') });
+export const useStartPayouts = (options?: { mutationConfig?: Config<ProviderLink, void> }) =>
+  useMutation<ProviderLink, ApiError, void>({ onSuccess: goTo, ...options?.mutationConfig, mutationFn: () => api.post('/api/shop-profile/payouts') });
 
-export const useApproveChangeOrder = (options?: { mutationConfig?: Config<{ url: string }, string> }) =>
-  useMutation<{ url: string }, ApiError, string>({ onSuccess: goTo, ...options?.mutationConfig, mutationFn: (id) => api.post(`/api/change-orders/${id}/approve`) });
+export const useApproveChangeOrder = (options?: { mutationConfig?: Config<ProviderLink, string> }) =>
+  useMutation<ProviderLink, ApiError, string>({ onSuccess: goTo, ...options?.mutationConfig, mutationFn: (id) => api.post(`/api/change-orders/${id}/approve`) });
 
 function useRefreshJobMoney(jobId: string) {
   const queryClient = useQueryClient();
@@ -46,7 +46,7 @@ export function useProposeChangeOrder(jobId: string, options?: { mutationConfig?
   const { onSuccess, ...rest } = options?.mutationConfig ?? {};
   return useMutation<ChangeOrder, ApiError, ChangeOrderInput>({
     ...rest,
-    mutationFn: (input) => api.post<{ changeOrder: ChangeOrder }>(`/api/jobs/${jobId}/change-orders`, input).then((r) => r.changeOrder),
+    mutationFn: (input) => api.post<ChangeOrderAnswer>(`/api/jobs/${jobId}/change-orders`, input).then((r) => r.changeOrder),
     onSuccess: (...args) => {
       refresh();
       return onSuccess?.(...args);
@@ -59,7 +59,7 @@ export function useDeclineChangeOrder(jobId: string, options?: { mutationConfig?
   const { onSuccess, ...rest } = options?.mutationConfig ?? {};
   return useMutation<ChangeOrder, ApiError, string>({
     ...rest,
-    mutationFn: (id) => api.post<{ changeOrder: ChangeOrder }>(`/api/change-orders/${id}/decline`).then((r) => r.changeOrder),
+    mutationFn: (id) => api.post<ChangeOrderAnswer>(`/api/change-orders/${id}/decline`).then((r) => r.changeOrder),
     onSuccess: (...args) => {
       refresh();
       return onSuccess?.(...args);

@@ -1,5 +1,5 @@
 import { queryOptions, useMutation, useQuery, useQueryClient, type UseMutationOptions } from '@tanstack/react-query';
-import type { JobReviews, Review, ReviewInput } from '@shared/schemas/reviews';
+import type { JobReviews, Review, ReviewAnswer, ReviewInput } from '@shared/schemas/reviews';
 import { api, type ApiError } from '@client/lib/api-client';
 import { bidKeys, reviewKeys, shopKeys } from '@client/lib/query-keys';
 
@@ -20,7 +20,7 @@ export function useSubmitReview(jobId: string, options?: { mutationConfig?: Conf
   const { onSuccess, ...rest } = options?.mutationConfig ?? {};
   return useMutation<Review, ApiError, ReviewInput>({
     ...rest,
-    mutationFn: (input) => api.post<{ review: Review }>(`/api/jobs/${jobId}/reviews`, input).then((r) => r.review),
+    mutationFn: (input) => api.post<ReviewAnswer>(`/api/jobs/${jobId}/reviews`, input).then((r) => r.review),
     onSuccess: (...args) => {
       void queryClient.invalidateQueries({ queryKey: reviewKeys.forJob(jobId) });
       void queryClient.invalidateQueries({ queryKey: shopKeys.all });
