@@ -2,9 +2,12 @@ import type { RouteDef } from './lib/http/routes';
 import { authRoutes } from './modules/auth/auth.routes';
 import { bidsRoutes } from './modules/bids/bids.routes';
 import { calculationsRoutes } from './modules/calculations/calculations.routes';
+import { disputesRoutes } from './modules/disputes/disputes.routes';
 import { healthRoutes } from './modules/health/health.routes';
 import { inspectionsRoutes } from './modules/inspections/inspections.routes';
 import { jobsRoutes } from './modules/jobs/jobs.routes';
+import { paymentsRoutes, paymentsWebhookRoutes } from './modules/payments/payments.routes';
+import { reviewsRoutes } from './modules/reviews/reviews.routes';
 import { shopsRoutes } from './modules/shops/shops.routes';
 
 /**
@@ -14,12 +17,16 @@ import { shopsRoutes } from './modules/shops/shops.routes';
  */
 export const routeModules = {
   health: healthRoutes,
+  paymentsWebhook: paymentsWebhookRoutes,
   auth: authRoutes,
   calculations: calculationsRoutes,
   shops: shopsRoutes,
   jobs: jobsRoutes,
   bids: bidsRoutes,
+  payments: paymentsRoutes,
   inspections: inspectionsRoutes,
+  disputes: disputesRoutes,
+  reviews: reviewsRoutes,
 } satisfies Record<string, readonly RouteDef<never>[]>;
 
 export const apiRoutes: readonly RouteDef<never>[] = Object.values(routeModules).flat();

@@ -13,11 +13,9 @@ import type { AppConfig } from './env';
 import { createPassport } from './lib/auth/passport';
 import { errorHandler, notFoundApi } from './lib/errors';
 import { adminRouter } from './modules/admin/admin.routes';
-import { disputesRouter } from './modules/disputes/disputes.routes';
+import { adminDisputesRouter } from './modules/disputes/disputes.routes';
 import { messagesRouter } from './modules/messages/messages.routes';
-import { paymentsRouter, paymentsWebhook } from './modules/payments/payments.routes';
 import { milestonesRouter } from './modules/milestones/milestones.routes';
-import { reviewsRouter } from './modules/reviews/reviews.routes';
 import { createPaymentsClient, type PaymentsClient } from './lib/payments-client';
 import { RealtimeHub } from './realtime/hub';
 import { createSessionStore } from './lib/session-store';
@@ -95,7 +93,7 @@ export function createApp(deps: AppDeps) {
   const paymentsClient = deps.payments ?? createPaymentsClient(config.payments);
   const hub = new RealtimeHub();
   const paymentDeps = { db, payments: paymentsClient, appUrl: config.appUrl, hub };
-  app.use('/api', paymentsWebhook({ ...paymentDeps, webhookSecret: config.payments.webhookSecret }));
+  mount(routeModules.paymentsWebhook, { ...paymentDeps, webhookSecret: config.payments.webhookSecret });
 
   const store = createSessionStore(pool);
   const secure = config.appUrl.startsWith('https://');
@@ -146,13 +144,14 @@ export function createApp(deps: AppDeps) {
   mount(routeModules.shops, { db });
   mount(routeModules.jobs, { db, appUrl: config.appUrl, storage, hub, uploadLimit, payments: paymentsClient });
   mount(routeModules.bids, { db, appUrl: config.appUrl, hub, platformFeeBps: config.payments.platformFeeBps });
-  app.use('/api', paymentsRouter(paymentDeps));
+  mount(routeModules.payments, paymentDeps);
   app.use('/api', messagesRouter({ db, hub, storage, messagesPer10s: config.rateLimits.messagesPer10s, uploadLimit }));
   const workDeps = { ...paymentDeps, reviewWindowMs: config.reviewWindowDays * 24 * 60 * 60_000 };
   app.use('/api', milestonesRouter({ db, hub, storage, uploadLimit }));
   mount(routeModules.inspections, workDeps);
-  app.use('/api', disputesRouter(paymentDeps));
-  app.use('/api', reviewsRouter(paymentDeps));
+  mount(routeModules.disputes, paymentDeps);
+  app.use('/api', adminDisputesRouter(paymentDeps));
+  mount(routeModules.reviews, paymentDeps);
   app.use('/api/admin', adminRouter({ db, appUrl: config.appUrl, hub, defaultFeeBps: config.payments.platformFeeBps }));
 
   app.get('/api/openapi.json', (_req, res) => {

@@ -3,10 +3,8 @@ import { z } from 'zod';
 import { apiRoutes } from './api-routes';
 import { needsCsrf, openApiPath, successStatus, type Access, type Reply, type RouteDef } from './lib/http/routes';
 import { auditQuerySchema, createAdminSchema, ledgerQuerySchema, platformFeeSchema, shopSearchSchema, suspendUserSchema, userSearchSchema, verifyShopSchema } from '../shared/schemas/admin';
-import { disputeQueueSchema, disputeResponseSchema, openDisputeSchema, resolveDisputeSchema } from '../shared/schemas/disputes';
-import { reviewInputSchema } from '../shared/schemas/reviews';
+import { disputeQueueSchema, resolveDisputeSchema } from '../shared/schemas/disputes';
 import { uuidSchema } from '../shared/schemas/common';
-import { changeOrderInputSchema, splitSchema } from '../shared/schemas/payments';
 import { milestoneInputSchema } from '../shared/schemas/inspection';
 import { historyQuerySchema, markReadSchema, openThreadSchema, sendMessageSchema } from '../shared/schemas/messages';
 
@@ -41,10 +39,8 @@ const errorSchema = z.object({
 const jobId = z.object({ jobId: uuidSchema });
 const shopId = z.object({ shopId: uuidSchema });
 const threadId = z.object({ threadId: uuidSchema });
-const changeOrderId = z.object({ changeOrderId: uuidSchema });
 const disputeId = z.object({ disputeId: uuidSchema });
 const userId = z.object({ userId: uuidSchema });
-const historyQuery = z.object({ limit: z.coerce.number().int().min(1).max(100).optional(), offset: z.coerce.number().int().min(0).optional() });
 const photo = z.object({ jobId: uuidSchema, photoId: uuidSchema });
 const photoSized = photo.extend({ size: z.enum(['thumb', 'large']) });
 const threadPhotoSized = z.object({ threadId: uuidSchema, photoId: uuidSchema, size: z.enum(['thumb', 'large']) });
@@ -62,25 +58,8 @@ export const routeDocs: RouteDoc[] = [
   { method: 'post', path: '/api/jobs/{jobId}/milestones', summary: 'The working shop logs progress (block received starts the work)', tag: 'Work', access: 'shop', params: jobId, body: milestoneInputSchema, ok: { status: 201, description: 'Logged' } },
   { method: 'post', path: '/api/jobs/{jobId}/milestone-photos', summary: 'The working shop uploads photos for a milestone (multipart field "photos"; JPEG, PNG or WebP; 15 MB each; 4 at a time); send their ids as the milestone’s photoIds', tag: 'Work', access: 'shop', params: jobId, ok: { status: 201, description: 'Stored, waiting for a milestone' } },
   { method: 'get', path: '/api/jobs/{jobId}/milestone-photos/{photoId}/{size}', summary: 'A milestone photo, re-encoded as WebP (before it is attached, only for its uploader)', tag: 'Work', access: 'signed-in', params: photoSized, ok: { status: 200, description: 'image/webp' } },
-  { method: 'post', path: '/api/payments/webhook', summary: 'Payment provider events (signed with Stripe-Signature; raw JSON body)', tag: 'Payments', access: 'public', csrf: false },
-  { method: 'post', path: '/api/shop-profile/payouts', summary: 'Start or continue the shop’s payout account onboarding; answers the provider’s link', tag: 'Payments', access: 'shop' },
-  { method: 'post', path: '/api/jobs/{jobId}/checkout', summary: 'Pay the accepted bid: answers a hosted payment page address', tag: 'Payments', access: 'builder', params: jobId },
-  { method: 'get', path: '/api/jobs/{jobId}/money', summary: 'The job’s payments, ledger balance and any payout or refund still on its way', tag: 'Payments', access: 'signed-in', params: jobId },
-  { method: 'post', path: '/api/jobs/{jobId}/cancel-and-refund', summary: 'Cancel a paid job the shop has not started; the payment is refunded in full', tag: 'Payments', access: 'builder', params: jobId },
-  { method: 'get', path: '/api/jobs/{jobId}/change-orders', summary: 'Extra work proposed on a job', tag: 'Payments', access: 'signed-in', params: jobId },
-  { method: 'post', path: '/api/jobs/{jobId}/change-orders', summary: 'The awarded shop proposes extra work with a price', tag: 'Payments', access: 'shop', params: jobId, body: changeOrderInputSchema, ok: { status: 201, description: 'Proposed' } },
-  { method: 'post', path: '/api/change-orders/{changeOrderId}/approve', summary: 'Agree to extra work and pay for it: answers a hosted payment page address', tag: 'Payments', access: 'builder', params: changeOrderId },
-  { method: 'post', path: '/api/change-orders/{changeOrderId}/decline', summary: 'Decline extra work that is not paid yet (its open payment page is expired)', tag: 'Payments', access: 'builder', params: changeOrderId },
-  { method: 'post', path: '/api/admin/jobs/{jobId}/release', summary: 'Release what the job holds to the shop, less the fee (once, however often asked)', tag: 'Payments', access: 'admin', params: jobId },
-  { method: 'post', path: '/api/admin/jobs/{jobId}/split', summary: 'Pay the shop a share of what is held and refund the rest', tag: 'Payments', access: 'admin', params: jobId, body: splitSchema },
   { method: 'get', path: '/api/admin/users', summary: 'Search accounts', tag: 'Admin', access: 'admin', query: userSearchSchema },
   { method: 'post', path: '/api/admin/admins', summary: 'Make another administrator', tag: 'Admin', access: 'admin', body: createAdminSchema, ok: { status: 201, description: 'Created; a link to choose a password is mailed' } },
-  { method: 'get', path: '/api/me/money', summary: 'The signed-in builder’s or shop’s money history across their jobs', tag: 'Payments', access: 'builder or shop', query: historyQuery },
-  { method: 'get', path: '/api/jobs/{jobId}/dispute', summary: 'The job’s dispute, and whether the viewer may open or answer one', tag: 'Disputes', access: 'signed-in', params: jobId },
-  { method: 'post', path: '/api/jobs/{jobId}/dispute', summary: 'Open a dispute; the held payment stays held until an administrator decides', tag: 'Disputes', access: 'builder or shop', params: jobId, body: openDisputeSchema, ok: { status: 201, description: 'Opened; both sides are told by e-mail' } },
-  { method: 'post', path: '/api/jobs/{jobId}/dispute/response', summary: 'The other side answers the dispute (once)', tag: 'Disputes', access: 'builder or shop', params: jobId, body: disputeResponseSchema },
-  { method: 'get', path: '/api/jobs/{jobId}/reviews', summary: 'Reviews left on a finished job, and whether the viewer may still leave one', tag: 'Reviews', access: 'signed-in', params: jobId },
-  { method: 'post', path: '/api/jobs/{jobId}/reviews', summary: 'Rate the other side of a finished job, 1 to 5 with a comment (once)', tag: 'Reviews', access: 'builder or shop', params: jobId, body: reviewInputSchema, ok: { status: 201, description: 'Stored' } },
   { method: 'get', path: '/api/admin/disputes', summary: 'The dispute queue with age and amount held', tag: 'Admin', access: 'admin', query: disputeQueueSchema },
   { method: 'get', path: '/api/admin/disputes/{disputeId}', summary: 'A dispute with its evidence: messages, milestones, inspection versions, photos, change orders and money, in one timeline', tag: 'Admin', access: 'admin', params: disputeId },
   { method: 'post', path: '/api/admin/disputes/{disputeId}/resolve', summary: 'Decide a dispute: release, refund or split, with a written decision mailed to both sides', tag: 'Admin', access: 'admin', params: disputeId, body: resolveDisputeSchema },

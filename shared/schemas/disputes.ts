@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { centsSchema } from './common';
-import type { ChangeOrder, MoneyView } from './payments';
+import { moneyViewSchema, type ChangeOrder, type LedgerEntryKind, type MoneyView } from './payments';
 import type { InspectionResults } from './inspection';
 
 /**
@@ -58,40 +58,58 @@ export const disputeQueueSchema = z.object({
   status: z.enum(['open', 'resolved', 'all'], { error: 'Choose open, resolved or all.' }).default('open'),
 });
 
-export interface Dispute {
-  id: string;
-  jobId: string;
-  status: 'open' | 'resolved';
-  openedBy: 'builder' | 'shop';
-  reason: DisputeReason;
-  statement: string;
-  openedAt: string;
-  response: { by: 'builder' | 'shop'; statement: string; at: string } | null;
-  resolution: { outcome: DisputeOutcome; shopCents: number; refundCents: number; decision: string; at: string } | null;
-}
+const sideSchema = z.enum(['builder', 'shop']);
+
+/** A dispute as both sides and administrators see it. */
+export const disputeSchema = z.object({
+  id: z.uuid(),
+  jobId: z.uuid(),
+  status: z.enum(['open', 'resolved']),
+  openedBy: sideSchema,
+  reason: z.enum(disputeReasons),
+  statement: z.string(),
+  openedAt: z.iso.datetime(),
+  response: z.object({ by: sideSchema, statement: z.string(), at: z.iso.datetime() }).nullable(),
+  resolution: z
+    .object({ outcome: z.enum(disputeOutcomes), shopCents: z.number().int(), refundCents: z.number().int(), decision: z.string(), at: z.iso.datetime() })
+    .nullable(),
+});
+export type Dispute = z.infer<typeof disputeSchema>;
+
+export const disputeAnswerSchema = z.object({ dispute: disputeSchema });
+export type DisputeAnswer = z.infer<typeof disputeAnswerSchema>;
 
 /** What a party sees on the job page: the dispute (if any) and what they may do. */
-export interface DisputeView {
-  dispute: Dispute | null;
+export const disputeViewSchema = z.object({
+  dispute: disputeSchema.nullable(),
   /** Reasons the viewer may open a dispute with now; empty when they may not. */
-  canOpenWith: DisputeReason[];
-  canRespond: boolean;
-}
+  canOpenWith: z.array(z.enum(disputeReasons)),
+  canRespond: z.boolean(),
+});
+export type DisputeView = z.infer<typeof disputeViewSchema>;
 
-export interface DisputeQueueRow {
-  id: string;
-  jobId: string;
-  jobTitle: string;
-  builderName: string;
-  shopName: string;
-  openedBy: 'builder' | 'shop';
-  reason: DisputeReason;
-  status: 'open' | 'resolved';
-  openedAt: string;
+/** A line of the administrators' dispute queue. */
+export const disputeQueueRowSchema = z.object({
+  id: z.uuid(),
+  jobId: z.uuid(),
+  jobTitle: z.string(),
+  builderName: z.string(),
+  shopName: z.string(),
+  openedBy: sideSchema,
+  reason: z.enum(disputeReasons),
+  status: z.enum(['open', 'resolved']),
+  openedAt: z.iso.datetime(),
   /** Paid in and not yet paid out or refunded, in cents. */
-  heldCents: number;
-  answered: boolean;
-}
+  heldCents: z.number().int(),
+  answered: z.boolean(),
+});
+export type DisputeQueueRow = z.infer<typeof disputeQueueRowSchema>;
+
+export const disputeQueueAnswerSchema = z.object({ disputes: z.array(disputeQueueRowSchema) });
+
+/** What an administrator's decision answers: the resolved dispute and the job's money after it. */
+export const disputeDecisionSchema = z.object({ dispute: disputeSchema, money: moneyViewSchema });
+export type DisputeDecision = z.infer<typeof disputeDecisionSchema>;
 
 export type EvidenceItem =
   | { kind: 'dispute_opened'; at: string; by: 'builder' | 'shop'; reason: DisputeReason; statement: string }
@@ -100,7 +118,7 @@ export type EvidenceItem =
   | { kind: 'milestone'; at: string; milestone: string; operation: string | null; note: string; carrier: string | null; trackingNumber: string | null; photos: EvidencePhoto[] }
   | { kind: 'inspection'; at: string; version: number; status: string; pass: boolean; results: InspectionResults; decidedAt: string | null; rejectReasons: string | null }
   | { kind: 'change_order'; at: string; description: string; amountCents: number; status: ChangeOrder['status'] }
-  | { kind: 'money'; at: string; entry: 'paid_in' | 'released' | 'fee' | 'refunded'; amountCents: number; reference: string }
+  | { kind: 'money'; at: string; entry: LedgerEntryKind; amountCents: number; reference: string }
   | { kind: 'job_photo'; at: string; photos: EvidencePhoto[] };
 
 export interface EvidencePhoto {

@@ -1,5 +1,6 @@
 import { z } from 'zod';
-import { centsSchema } from './common';
+import { ledgerKinds } from './admin';
+import { centsSchema, queryInt } from './common';
 
 export const changeOrderInputSchema = z.object({
   description: z.string({ error: 'Describe the extra work.' }).trim().min(4, 'Describe the extra work.').max(1000, 'Use at most 1,000 characters.'),
@@ -9,34 +10,87 @@ export type ChangeOrderInput = z.infer<typeof changeOrderInputSchema>;
 
 export const splitSchema = z.object({ shopCents: centsSchema('The shop’s share') });
 
-export interface MoneyView {
-  balance: { paidIn: number; released: number; fee: number; refunded: number; held: number };
+/** A page of the payment provider (or its local stand-in) the browser is sent to: a checkout or the payout onboarding. */
+export const providerLinkSchema = z.object({ url: z.url() });
+export type ProviderLink = z.infer<typeof providerLinkSchema>;
+
+/** What the webhook answers the provider: received, and whether the event had been applied before. */
+export const webhookReceiptSchema = z.object({ received: z.literal(true), duplicate: z.literal(true).optional() });
+
+/** The kinds of ledger entry: money paid in, released to the shop, the platform's fee, refunded to the builder. */
+export const ledgerEntryKindSchema = z.enum(ledgerKinds);
+export type LedgerEntryKind = z.infer<typeof ledgerEntryKindSchema>;
+
+/** A job's ledger summed up, in cents; `held` is what is paid in and not yet paid out or refunded. */
+export const jobBalanceSchema = z.object({
+  paidIn: z.number().int(),
+  released: z.number().int(),
+  fee: z.number().int(),
+  refunded: z.number().int(),
+  held: z.number().int(),
+});
+
+/** A payout or refund planned and not yet taken by the provider (the worker retries it). */
+export const pendingMoveSchema = z.object({
   /** late_refund: a payment that arrived when it could no longer be used, on its way back to the builder. */
-  pending: Array<{ kind: 'release' | 'refund' | 'late_refund'; amountCents: number; attempts: number; lastError: string | null }>;
+  kind: z.enum(['release', 'refund', 'late_refund']),
+  amountCents: z.number().int(),
+  attempts: z.number().int(),
+  lastError: z.string().nullable(),
+});
+
+/** A payment for the job: the accepted bid or extra work. */
+export const jobPaymentSchema = z.object({
+  id: z.uuid(),
+  kind: z.enum(['bid', 'change_order']),
+  amountCents: z.number().int(),
   /** refunded: the payment arrived when it could no longer be used (job cancelled, already paid, extra work declined) and was sent back in full. */
-  payments: Array<{ id: string; kind: 'bid' | 'change_order'; amountCents: number; status: 'pending' | 'paid' | 'failed' | 'expired' | 'refunded'; failureMessage: string | null; paidAt: string | null }>;
-}
+  status: z.enum(['pending', 'paid', 'failed', 'expired', 'refunded']),
+  failureMessage: z.string().nullable(),
+  paidAt: z.iso.datetime().nullable(),
+});
 
-export interface ChangeOrder {
-  id: string;
-  jobId: string;
-  description: string;
-  amountCents: number;
-  status: 'proposed' | 'approved' | 'paid' | 'declined';
-  createdAt: string;
-}
+/** A job's money as its page shows it: the balance, movements still on their way, and its payments. */
+export const moneyViewSchema = z.object({
+  balance: jobBalanceSchema,
+  pending: z.array(pendingMoveSchema),
+  payments: z.array(jobPaymentSchema),
+});
+export type MoneyView = z.infer<typeof moneyViewSchema>;
 
-/** One line of a builder's or shop's money history: a ledger entry on one of their jobs. */
-export interface MoneyHistoryRow {
-  id: number;
-  createdAt: string;
-  jobId: string;
-  jobTitle: string;
-  kind: 'paid_in' | 'released' | 'fee' | 'refunded';
-  amountCents: number;
-}
+/** Extra work the awarded shop proposed, with its price. */
+export const changeOrderSchema = z.object({
+  id: z.uuid(),
+  jobId: z.uuid(),
+  description: z.string(),
+  amountCents: z.number().int(),
+  status: z.enum(['proposed', 'approved', 'paid', 'declined']),
+  createdAt: z.iso.datetime(),
+});
+export type ChangeOrder = z.infer<typeof changeOrderSchema>;
 
-export interface MoneyHistory {
-  rows: MoneyHistoryRow[];
-  total: number;
-}
+export const changeOrderListSchema = z.object({ changeOrders: z.array(changeOrderSchema) });
+export type ChangeOrderList = z.infer<typeof changeOrderListSchema>;
+export const changeOrderAnswerSchema = z.object({ changeOrder: changeOrderSchema });
+export type ChangeOrderAnswer = z.infer<typeof changeOrderAnswerSchema>;
+
+/**
+ * One ledger entry on a job, with the job's title: a line of a builder's or
+ * shop's money history (the admin ledger's rows add the provider reference
+ * and the payment).
+ */
+export const moneyHistoryRowSchema = z.object({
+  id: z.number().int(),
+  createdAt: z.iso.datetime(),
+  jobId: z.uuid(),
+  jobTitle: z.string(),
+  kind: ledgerEntryKindSchema,
+  amountCents: z.number().int(),
+});
+export type MoneyHistoryRow = z.infer<typeof moneyHistoryRowSchema>;
+
+export const moneyHistorySchema = z.object({ rows: z.array(moneyHistoryRowSchema), total: z.number().int() });
+export type MoneyHistory = z.infer<typeof moneyHistorySchema>;
+
+/** Which page of the money history: newest first. */
+export const moneyHistoryQuerySchema = z.object({ limit: queryInt('limit', 1, 100).default(25), offset: queryInt('offset', 0, 1_000_000).default(0) });

@@ -10,25 +10,28 @@ export const reviewInputSchema = z.object({
 });
 export type ReviewInput = z.infer<typeof reviewInputSchema>;
 
-export interface Review {
-  id: string;
-  jobId: string;
+export const reviewSchema = z.object({
+  id: z.uuid(),
+  jobId: z.uuid(),
   /** Who wrote it: the job's builder about the shop, or the shop about the builder. */
-  by: 'builder' | 'shop';
-  authorName: string;
-  rating: number;
-  comment: string;
-  createdAt: string;
-}
+  by: z.enum(['builder', 'shop']),
+  authorName: z.string(),
+  rating: z.number().int(),
+  comment: z.string(),
+  createdAt: z.iso.datetime(),
+});
+export type Review = z.infer<typeof reviewSchema>;
+
+export const reviewAnswerSchema = z.object({ review: reviewSchema });
+export type ReviewAnswer = z.infer<typeof reviewAnswerSchema>;
 
 /** The reviews on one job, and whether the viewer may still write theirs. */
-export interface JobReviews {
-  reviews: Review[];
-  canReview: boolean;
-}
+export const jobReviewsSchema = z.object({
+  reviews: z.array(reviewSchema),
+  canReview: z.boolean(),
+});
+export type JobReviews = z.infer<typeof jobReviewsSchema>;
 
 /** A person's or shop's standing from the reviews they received. */
-export interface RatingSummary {
-  average: number;
-  count: number;
-}
+export const ratingSummarySchema = z.object({ average: z.number(), count: z.number().int() });
+export type RatingSummary = z.infer<typeof ratingSummarySchema>;

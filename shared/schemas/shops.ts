@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { centsSchema, operationCodeSchema, queryInt, regionSchema } from './common';
+import { ratingSummarySchema } from './reviews';
 
 export const rateCardEntrySchema = z.object({
   operation: operationCodeSchema,
@@ -63,7 +64,7 @@ export const publicShopSchema = z.object({
   turnaroundDays: z.number().int(),
   rateCard: z.array(z.object({ operation: z.string(), priceCents: z.number().int() })),
   verified: z.boolean(),
-  rating: z.object({ average: z.number(), count: z.number().int() }).nullable(),
+  rating: ratingSummarySchema.nullable(),
 });
 export type PublicShop = z.infer<typeof publicShopSchema>;
 

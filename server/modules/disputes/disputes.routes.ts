@@ -1,8 +1,16 @@
 import { Router } from 'express';
 import { z } from 'zod';
 import { uuidSchema } from '../../../shared/schemas/common';
-import { disputeQueueSchema, disputeResponseSchema, openDisputeSchema, resolveDisputeSchema } from '../../../shared/schemas/disputes';
-import { currentUser, requireRole, requireUser } from '../../lib/auth/guards';
+import {
+  disputeAnswerSchema,
+  disputeQueueSchema,
+  disputeResponseSchema,
+  disputeViewSchema,
+  openDisputeSchema,
+  resolveDisputeSchema,
+} from '../../../shared/schemas/disputes';
+import { currentUser, requireRole } from '../../lib/auth/guards';
+import { routesFor } from '../../lib/http/routes';
 import type { PaymentDeps } from '../payments/payments.service';
 import { answerDispute, disputeQueue, disputeViewFor, openDispute, resolveDispute } from './disputes.service';
 import { disputeCase } from './evidence';
@@ -10,26 +18,44 @@ import { disputeCase } from './evidence';
 const jobParams = z.object({ jobId: uuidSchema });
 const disputeParams = z.object({ disputeId: uuidSchema });
 
-/** Disputes: opened and answered by the two sides, decided by an admin. */
-export function disputesRouter(deps: PaymentDeps) {
+const route = routesFor<PaymentDeps>('Disputes');
+
+/** Disputes as the two sides open and answer them. */
+export const disputesRoutes = [
+  route({
+    method: 'get',
+    path: '/api/jobs/:jobId/dispute',
+    summary: 'The job’s dispute, and whether the viewer may open or answer one',
+    access: 'signed-in',
+    params: jobParams,
+    reply: { json: disputeViewSchema },
+    handler: ({ deps, user, params }) => disputeViewFor(deps.db, user, params.jobId),
+  }),
+  route({
+    method: 'post',
+    path: '/api/jobs/:jobId/dispute',
+    summary: 'Open a dispute; the held payment stays held until an administrator decides',
+    access: 'builder or shop',
+    params: jobParams,
+    body: openDisputeSchema,
+    reply: { status: 201, json: disputeAnswerSchema, description: 'Opened; both sides are told by e-mail' },
+    handler: async ({ deps, user, params, body }) => ({ dispute: await openDispute(deps, user, params.jobId, body) }),
+  }),
+  route({
+    method: 'post',
+    path: '/api/jobs/:jobId/dispute/response',
+    summary: 'The other side answers the dispute (once)',
+    access: 'builder or shop',
+    params: jobParams,
+    body: disputeResponseSchema,
+    reply: { json: disputeAnswerSchema },
+    handler: async ({ deps, user, params, body }) => ({ dispute: await answerDispute(deps, user, params.jobId, body.statement) }),
+  }),
+];
+
+/** Disputes as an administrator decides them (still a plain router: the admin routes are declared with the admin module). */
+export function adminDisputesRouter(deps: PaymentDeps) {
   const router = Router();
-
-  router.get('/jobs/:jobId/dispute', requireUser, async (req, res) => {
-    const { jobId } = jobParams.parse(req.params);
-    res.json(await disputeViewFor(deps.db, currentUser(req), jobId));
-  });
-
-  router.post('/jobs/:jobId/dispute', requireRole('builder', 'shop'), async (req, res) => {
-    const { jobId } = jobParams.parse(req.params);
-    const dispute = await openDispute(deps, currentUser(req), jobId, openDisputeSchema.parse(req.body));
-    res.status(201).json({ dispute });
-  });
-
-  router.post('/jobs/:jobId/dispute/response', requireRole('builder', 'shop'), async (req, res) => {
-    const { jobId } = jobParams.parse(req.params);
-    const { statement } = disputeResponseSchema.parse(req.body);
-    res.json({ dispute: await answerDispute(deps, currentUser(req), jobId, statement) });
-  });
 
   router.get('/admin/disputes', requireRole('admin'), async (req, res) => {
     const { status } = disputeQueueSchema.parse(req.query);

@@ -1,9 +1,19 @@
-import express, { Router } from 'express';
+import express from 'express';
 import type Stripe from 'stripe';
 import { z } from 'zod';
-import { queryInt, uuidSchema } from '../../../shared/schemas/common';
-import { changeOrderInputSchema, splitSchema } from '../../../shared/schemas/payments';
-import { currentUser, requireRole, requireUser } from '../../lib/auth/guards';
+import { uuidSchema } from '../../../shared/schemas/common';
+import {
+  changeOrderAnswerSchema,
+  changeOrderInputSchema,
+  changeOrderListSchema,
+  moneyHistoryQuerySchema,
+  moneyHistorySchema,
+  moneyViewSchema,
+  providerLinkSchema,
+  splitSchema,
+  webhookReceiptSchema,
+} from '../../../shared/schemas/payments';
+import { routesFor } from '../../lib/http/routes';
 import { AppError } from '../../lib/errors';
 import { approveChangeOrder, changeOrdersFor, declineChangeOrder, proposeChangeOrder } from './change-orders.service';
 import { applyPaymentEvent } from './payment-events';
@@ -20,87 +30,140 @@ import { moneyHistory } from './money-history';
 
 const jobParams = z.object({ jobId: uuidSchema });
 const orderParams = z.object({ changeOrderId: uuidSchema });
-const historyQuery = z.object({ limit: queryInt('limit', 1, 100).default(25), offset: queryInt('offset', 0, 1_000_000).default(0) });
+
+const webhookRoute = routesFor<PaymentDeps & { webhookSecret: string }>('Payments');
 
 /**
  * The provider's webhook: raw body, signature checked by the SDK, then the
  * event goes to applyPaymentEvent (stored by id, applied once). A failure
- * answers 500 so the provider delivers again.
+ * answers 500 so the provider delivers again. Mounted before the session,
+ * the JSON parser and the CSRF check.
  */
-export function paymentsWebhook(deps: PaymentDeps & { webhookSecret: string }) {
-  const router = Router();
-  router.post('/payments/webhook', express.raw({ type: () => true, limit: '1mb' }), async (req, res) => {
-    let event: Stripe.Event;
-    try {
-      event = deps.payments.webhooks.constructEvent(req.body as Buffer, req.get('stripe-signature') ?? '', deps.webhookSecret);
-    } catch {
-      throw new AppError('bad_signature', 'The webhook signature does not match.', 400);
-    }
-    const { duplicate } = await applyPaymentEvent(deps, event);
-    res.json(duplicate ? { received: true, duplicate: true } : { received: true });
-  });
-  return router;
-}
+export const paymentsWebhookRoutes = [
+  webhookRoute({
+    method: 'post',
+    path: '/api/payments/webhook',
+    summary: 'Payment provider events (signed with Stripe-Signature; raw JSON body)',
+    access: 'public',
+    csrf: false,
+    use: () => [express.raw({ type: () => true, limit: '1mb' })],
+    reply: { json: webhookReceiptSchema, description: 'Received (duplicate: the event had been applied before)' },
+    handler: async ({ deps, req }) => {
+      let event: Stripe.Event;
+      try {
+        event = deps.payments.webhooks.constructEvent(req.body as Buffer, req.get('stripe-signature') ?? '', deps.webhookSecret);
+      } catch {
+        throw new AppError('bad_signature', 'The webhook signature does not match.', 400);
+      }
+      const { duplicate } = await applyPaymentEvent(deps, event);
+      return duplicate ? { received: true as const, duplicate: true as const } : { received: true as const };
+    },
+  }),
+];
 
-export function paymentsRouter(deps: PaymentDeps) {
-  const router = Router();
+const route = routesFor<PaymentDeps>('Payments');
 
-  router.post('/shop-profile/payouts', requireRole('shop'), async (req, res) => {
-    res.json(await startPayoutOnboarding(deps, currentUser(req)));
-  });
-
-  router.post('/jobs/:jobId/checkout', requireRole('builder'), async (req, res) => {
-    const { jobId } = jobParams.parse(req.params);
-    res.json(await startJobCheckout(deps, currentUser(req), jobId));
-  });
-
-  router.get('/jobs/:jobId/money', requireUser, async (req, res) => {
-    const { jobId } = jobParams.parse(req.params);
-    res.json(await moneyViewFor(deps, currentUser(req), jobId));
-  });
-
-  router.post('/jobs/:jobId/cancel-and-refund', requireRole('builder'), async (req, res) => {
-    const { jobId } = jobParams.parse(req.params);
-    res.json(await cancelFundedJob(deps, currentUser(req), jobId));
-  });
-
-  router.get('/jobs/:jobId/change-orders', requireUser, async (req, res) => {
-    const { jobId } = jobParams.parse(req.params);
-    res.json({ changeOrders: await changeOrdersFor(deps, currentUser(req), jobId) });
-  });
-
-  router.post('/jobs/:jobId/change-orders', requireRole('shop'), async (req, res) => {
-    const { jobId } = jobParams.parse(req.params);
-    const order = await proposeChangeOrder(deps, currentUser(req), jobId, changeOrderInputSchema.parse(req.body));
-    res.status(201).json({ changeOrder: order });
-  });
-
-  router.post('/change-orders/:changeOrderId/approve', requireRole('builder'), async (req, res) => {
-    const { changeOrderId } = orderParams.parse(req.params);
-    res.json(await approveChangeOrder(deps, currentUser(req), changeOrderId));
-  });
-
-  router.post('/change-orders/:changeOrderId/decline', requireRole('builder'), async (req, res) => {
-    const { changeOrderId } = orderParams.parse(req.params);
-    res.json({ changeOrder: await declineChangeOrder(deps, currentUser(req), changeOrderId) });
-  });
-
-  router.get('/me/money', requireRole('builder', 'shop'), async (req, res) => {
-    const page = historyQuery.parse(req.query);
-    res.json(await moneyHistory(deps.db, currentUser(req), page));
-  });
-
+/** Paying for jobs and extra work, payouts, refunds, and everyone's money history. */
+export const paymentsRoutes = [
+  route({
+    method: 'post',
+    path: '/api/shop-profile/payouts',
+    summary: 'Start or continue the shop’s payout account onboarding; answers the provider’s link',
+    access: 'shop',
+    reply: { json: providerLinkSchema, description: 'The onboarding page to send the shop to' },
+    handler: ({ deps, user }) => startPayoutOnboarding(deps, user),
+  }),
+  route({
+    method: 'post',
+    path: '/api/jobs/:jobId/checkout',
+    summary: 'Pay the accepted bid: answers a hosted payment page address',
+    access: 'builder',
+    params: jobParams,
+    reply: { json: providerLinkSchema, description: 'The payment page to send the builder to' },
+    handler: ({ deps, user, params }) => startJobCheckout(deps, user, params.jobId),
+  }),
+  route({
+    method: 'get',
+    path: '/api/jobs/:jobId/money',
+    summary: 'The job’s payments, ledger balance and any payout or refund still on its way',
+    access: 'signed-in',
+    params: jobParams,
+    reply: { json: moneyViewSchema },
+    handler: ({ deps, user, params }) => moneyViewFor(deps, user, params.jobId),
+  }),
+  route({
+    method: 'post',
+    path: '/api/jobs/:jobId/cancel-and-refund',
+    summary: 'Cancel a paid job the shop has not started; the payment is refunded in full',
+    access: 'builder',
+    params: jobParams,
+    reply: { json: moneyViewSchema, description: 'The job’s money after the refund' },
+    handler: ({ deps, user, params }) => cancelFundedJob(deps, user, params.jobId),
+  }),
+  route({
+    method: 'get',
+    path: '/api/jobs/:jobId/change-orders',
+    summary: 'Extra work proposed on a job',
+    access: 'signed-in',
+    params: jobParams,
+    reply: { json: changeOrderListSchema },
+    handler: async ({ deps, user, params }) => ({ changeOrders: await changeOrdersFor(deps, user, params.jobId) }),
+  }),
+  route({
+    method: 'post',
+    path: '/api/jobs/:jobId/change-orders',
+    summary: 'The awarded shop proposes extra work with a price',
+    access: 'shop',
+    params: jobParams,
+    body: changeOrderInputSchema,
+    reply: { status: 201, json: changeOrderAnswerSchema, description: 'Proposed' },
+    handler: async ({ deps, user, params, body }) => ({ changeOrder: await proposeChangeOrder(deps, user, params.jobId, body) }),
+  }),
+  route({
+    method: 'post',
+    path: '/api/change-orders/:changeOrderId/approve',
+    summary: 'Agree to extra work and pay for it: answers a hosted payment page address',
+    access: 'builder',
+    params: orderParams,
+    reply: { json: providerLinkSchema, description: 'The payment page to send the builder to' },
+    handler: ({ deps, user, params }) => approveChangeOrder(deps, user, params.changeOrderId),
+  }),
+  route({
+    method: 'post',
+    path: '/api/change-orders/:changeOrderId/decline',
+    summary: 'Decline extra work that is not paid yet (its open payment page is expired)',
+    access: 'builder',
+    params: orderParams,
+    reply: { json: changeOrderAnswerSchema },
+    handler: async ({ deps, user, params }) => ({ changeOrder: await declineChangeOrder(deps, user, params.changeOrderId) }),
+  }),
+  route({
+    method: 'get',
+    path: '/api/me/money',
+    summary: 'The signed-in builder’s or shop’s money history across their jobs',
+    access: 'builder or shop',
+    query: moneyHistoryQuerySchema,
+    reply: { json: moneyHistorySchema },
+    handler: ({ deps, user, query }) => moneyHistory(deps.db, user, query),
+  }),
   // Hand release and split for support cases outside a dispute (disputes are decided in the disputes module). Both are audited in the money's transaction.
-  router.post('/admin/jobs/:jobId/release', requireRole('admin'), async (req, res) => {
-    const { jobId } = jobParams.parse(req.params);
-    res.json(await releaseJob(deps, jobId, currentUser(req)));
-  });
-
-  router.post('/admin/jobs/:jobId/split', requireRole('admin'), async (req, res) => {
-    const { jobId } = jobParams.parse(req.params);
-    const { shopCents } = splitSchema.parse(req.body);
-    res.json(await splitJob(deps, currentUser(req), jobId, shopCents));
-  });
-
-  return router;
-}
+  route({
+    method: 'post',
+    path: '/api/admin/jobs/:jobId/release',
+    summary: 'Release what the job holds to the shop, less the fee (once, however often asked)',
+    access: 'admin',
+    params: jobParams,
+    reply: { json: moneyViewSchema, description: 'The job’s money after the release' },
+    handler: ({ deps, user, params }) => releaseJob(deps, params.jobId, user),
+  }),
+  route({
+    method: 'post',
+    path: '/api/admin/jobs/:jobId/split',
+    summary: 'Pay the shop a share of what is held and refund the rest',
+    access: 'admin',
+    params: jobParams,
+    body: splitSchema,
+    reply: { json: moneyViewSchema, description: 'The job’s money after the split' },
+    handler: ({ deps, user, params, body }) => splitJob(deps, user, params.jobId, body.shopCents),
+  }),
+];

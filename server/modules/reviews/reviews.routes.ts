@@ -1,27 +1,33 @@
-import { Router } from 'express';
 import { z } from 'zod';
 import { uuidSchema } from '../../../shared/schemas/common';
-import { reviewInputSchema } from '../../../shared/schemas/reviews';
-import { currentUser, requireRole, requireUser } from '../../lib/auth/guards';
+import { jobReviewsSchema, reviewAnswerSchema, reviewInputSchema } from '../../../shared/schemas/reviews';
+import { routesFor } from '../../lib/http/routes';
 import type { PaymentDeps } from '../payments/payments.service';
 import { leaveReview, reviewsFor } from './reviews.service';
 
 const jobParams = z.object({ jobId: uuidSchema });
 
+const route = routesFor<PaymentDeps>('Reviews');
+
 /** The reviews the two sides leave each other after a job ends. */
-export function reviewsRouter(deps: PaymentDeps) {
-  const router = Router();
-
-  router.get('/jobs/:jobId/reviews', requireUser, async (req, res) => {
-    const { jobId } = jobParams.parse(req.params);
-    res.json(await reviewsFor(deps.db, currentUser(req), jobId));
-  });
-
-  router.post('/jobs/:jobId/reviews', requireRole('builder', 'shop'), async (req, res) => {
-    const { jobId } = jobParams.parse(req.params);
-    const review = await leaveReview(deps, currentUser(req), jobId, reviewInputSchema.parse(req.body));
-    res.status(201).json({ review });
-  });
-
-  return router;
-}
+export const reviewsRoutes = [
+  route({
+    method: 'get',
+    path: '/api/jobs/:jobId/reviews',
+    summary: 'Reviews left on a finished job, and whether the viewer may still leave one',
+    access: 'signed-in',
+    params: jobParams,
+    reply: { json: jobReviewsSchema },
+    handler: ({ deps, user, params }) => reviewsFor(deps.db, user, params.jobId),
+  }),
+  route({
+    method: 'post',
+    path: '/api/jobs/:jobId/reviews',
+    summary: 'Rate the other side of a finished job, 1 to 5 with a comment (once)',
+    access: 'builder or shop',
+    params: jobParams,
+    body: reviewInputSchema,
+    reply: { status: 201, json: reviewAnswerSchema, description: 'Stored' },
+    handler: async ({ deps, user, params, body }) => ({ review: await leaveReview(deps, user, params.jobId, body) }),
+  }),
+];

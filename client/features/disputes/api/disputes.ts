@@ -1,5 +1,5 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { Dispute, DisputeResponseInput, DisputeView, OpenDisputeInput } from '@shared/schemas/disputes';
+import type { Dispute, DisputeAnswer, DisputeResponseInput, DisputeView, OpenDisputeInput } from '@shared/schemas/disputes';
 import { api } from '@client/lib/api-client';
 import { type MutationConfig, type MutationOptions, useApiMutation } from '@client/lib/mutation';
 import { disputeKeys, jobChangeKeys } from '@client/lib/query-keys';
@@ -18,7 +18,7 @@ const useDisputeMutation = <TVars>(jobId: string, run: (vars: TVars) => Promise<
 export const useOpenDispute = (jobId: string, options?: MutationOptions<Dispute, OpenDisputeInput>) =>
   useDisputeMutation(
     jobId,
-    (input: OpenDisputeInput) => api.post<{ dispute: Dispute }>(`/api/jobs/${jobId}/dispute`, input).then((r) => r.dispute),
+    (input: OpenDisputeInput) => api.post<DisputeAnswer>(`/api/jobs/${jobId}/dispute`, input).then((r) => r.dispute),
     options?.mutationConfig,
   );
 
@@ -26,6 +26,6 @@ export const useOpenDispute = (jobId: string, options?: MutationOptions<Dispute,
 export const useRespondToDispute = (jobId: string, options?: MutationOptions<Dispute, DisputeResponseInput>) =>
   useDisputeMutation(
     jobId,
-    (input: DisputeResponseInput) => api.post<{ dispute: Dispute }>(`/api/jobs/${jobId}/dispute/response`, input).then((r) => r.dispute),
+    (input: DisputeResponseInput) => api.post<DisputeAnswer>(`/api/jobs/${jobId}/dispute/response`, input).then((r) => r.dispute),
     options?.mutationConfig,
   );

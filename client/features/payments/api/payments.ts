@@ -1,5 +1,5 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { ChangeOrder, ChangeOrderInput, MoneyView } from '@shared/schemas/payments';
+import type { ChangeOrder, ChangeOrderAnswer, ChangeOrderInput, ChangeOrderList, MoneyView, ProviderLink } from '@shared/schemas/payments';
 import { api } from '@client/lib/api-client';
 import { type MutationOptions, useApiMutation } from '@client/lib/mutation';
 import { jobChangeKeys, paymentKeys, shopKeys } from '@client/lib/query-keys';
@@ -9,7 +9,7 @@ export const paymentQueries = {
   changeOrders: (jobId: string) =>
     queryOptions({
       queryKey: paymentKeys.changeOrders(jobId),
-      queryFn: () => api.get<{ changeOrders: ChangeOrder[] }>(`/api/jobs/${jobId}/change-orders`).then((r) => r.changeOrders),
+      queryFn: () => api.get<ChangeOrderList>(`/api/jobs/${jobId}/change-orders`).then((r) => r.changeOrders),
     }),
 };
 
@@ -18,29 +18,29 @@ export const useMoney = (jobId: string, options: { enabled?: boolean; refetchInt
 export const useChangeOrders = (jobId: string, enabled = true) => useQuery({ ...paymentQueries.changeOrders(jobId), enabled });
 
 /** Leaves for the payment provider's page (or the local stand-in's). */
-const goTo = (result: { url: string }) => {
+const goTo = (result: ProviderLink) => {
   window.location.assign(result.url);
 };
 
-export const useStartCheckout = (jobId: string, options?: MutationOptions<{ url: string }, void>) =>
-  useApiMutation(() => api.post<{ url: string }>(`/api/jobs/${jobId}/checkout`), {}, { onSuccess: goTo, ...options?.mutationConfig });
+export const useStartCheckout = (jobId: string, options?: MutationOptions<ProviderLink, void>) =>
+  useApiMutation(() => api.post<ProviderLink>(`/api/jobs/${jobId}/checkout`), {}, { onSuccess: goTo, ...options?.mutationConfig });
 
-export const useStartPayouts = (options?: MutationOptions<{ url: string }, void>) =>
-  useApiMutation(() => api.post<{ url: string }>('/api/shop-profile/payouts'), {}, { onSuccess: goTo, ...options?.mutationConfig });
+export const useStartPayouts = (options?: MutationOptions<ProviderLink, void>) =>
+  useApiMutation(() => api.post<ProviderLink>('/api/shop-profile/payouts'), {}, { onSuccess: goTo, ...options?.mutationConfig });
 
-export const useApproveChangeOrder = (options?: MutationOptions<{ url: string }, string>) =>
-  useApiMutation((id: string) => api.post<{ url: string }>(`/api/change-orders/${id}/approve`), {}, { onSuccess: goTo, ...options?.mutationConfig });
+export const useApproveChangeOrder = (options?: MutationOptions<ProviderLink, string>) =>
+  useApiMutation((id: string) => api.post<ProviderLink>(`/api/change-orders/${id}/approve`), {}, { onSuccess: goTo, ...options?.mutationConfig });
 
 export const useProposeChangeOrder = (jobId: string, options?: MutationOptions<ChangeOrder, ChangeOrderInput>) =>
   useApiMutation(
-    (input: ChangeOrderInput) => api.post<{ changeOrder: ChangeOrder }>(`/api/jobs/${jobId}/change-orders`, input).then((r) => r.changeOrder),
+    (input: ChangeOrderInput) => api.post<ChangeOrderAnswer>(`/api/jobs/${jobId}/change-orders`, input).then((r) => r.changeOrder),
     { refreshes: () => jobChangeKeys(jobId) },
     options?.mutationConfig,
   );
 
 export const useDeclineChangeOrder = (jobId: string, options?: MutationOptions<ChangeOrder, string>) =>
   useApiMutation(
-    (id: string) => api.post<{ changeOrder: ChangeOrder }>(`/api/change-orders/${id}/decline`).then((r) => r.changeOrder),
+    (id: string) => api.post<ChangeOrderAnswer>(`/api/change-orders/${id}/decline`).then((r) => r.changeOrder),
     { refreshes: () => jobChangeKeys(jobId) },
     options?.mutationConfig,
   );

@@ -1,5 +1,5 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { JobReviews, Review, ReviewInput } from '@shared/schemas/reviews';
+import type { JobReviews, Review, ReviewAnswer, ReviewInput } from '@shared/schemas/reviews';
 import { api } from '@client/lib/api-client';
 import { type MutationOptions, useApiMutation } from '@client/lib/mutation';
 import { bidKeys, reviewKeys, shopKeys } from '@client/lib/query-keys';
@@ -16,7 +16,7 @@ export const useJobReviews = (jobId: string, options: { enabled?: boolean } = {}
  */
 export const useSubmitReview = (jobId: string, options?: MutationOptions<Review, ReviewInput>) =>
   useApiMutation(
-    (input: ReviewInput) => api.post<{ review: Review }>(`/api/jobs/${jobId}/reviews`, input).then((r) => r.review),
+    (input: ReviewInput) => api.post<ReviewAnswer>(`/api/jobs/${jobId}/reviews`, input).then((r) => r.review),
     { refreshes: () => [reviewKeys.forJob(jobId), shopKeys.all, bidKeys.forJob(jobId)] },
     options?.mutationConfig,
   );
