@@ -1,7 +1,9 @@
 import type { RouteDef } from './lib/http/routes';
+import { adminRoutes } from './modules/admin/admin.routes';
 import { authRoutes } from './modules/auth/auth.routes';
 import { calculationsRoutes } from './modules/calculations/calculations.routes';
 import { healthRoutes } from './modules/health/health.routes';
+import { openApiRoutes } from './modules/health/openapi.routes';
 import { shopsRoutes } from './modules/shops/shops.routes';
 
 /**
@@ -14,6 +16,8 @@ export const routeModules = {
   auth: authRoutes,
   calculations: calculationsRoutes,
   shops: shopsRoutes,
+  admin: adminRoutes,
+  openapi: openApiRoutes,
 } satisfies Record<string, readonly RouteDef<never>[]>;
 
 export const apiRoutes: readonly RouteDef<never>[] = Object.values(routeModules).flat();

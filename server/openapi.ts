@@ -2,8 +2,7 @@ import { OpenAPIRegistry, OpenApiGeneratorV31, type RouteConfig } from '@asteaso
 import { z } from 'zod';
 import { apiRoutes } from './api-routes';
 import { needsCsrf, openApiPath, successStatus, type Access, type Reply, type RouteDef } from './lib/http/routes';
-import { auditQuerySchema, createAdminSchema, ledgerQuerySchema, platformFeeSchema, shopSearchSchema, suspendUserSchema, userSearchSchema, verifyShopSchema } from '../shared/schemas/admin';
-import { disputeQueueSchema, disputeResponseSchema, openDisputeSchema, resolveDisputeSchema } from '../shared/schemas/disputes';
+import { disputeResponseSchema, openDisputeSchema } from '../shared/schemas/disputes';
 import { reviewInputSchema } from '../shared/schemas/reviews';
 import { bidInputSchema, declineBidSchema } from '../shared/schemas/bids';
 import { uuidSchema } from '../shared/schemas/common';
@@ -42,11 +41,8 @@ const errorSchema = z.object({
 
 const jobId = z.object({ jobId: uuidSchema });
 const bidId = z.object({ bidId: uuidSchema });
-const shopId = z.object({ shopId: uuidSchema });
 const threadId = z.object({ threadId: uuidSchema });
 const changeOrderId = z.object({ changeOrderId: uuidSchema });
-const disputeId = z.object({ disputeId: uuidSchema });
-const userId = z.object({ userId: uuidSchema });
 const historyQuery = z.object({ limit: z.coerce.number().int().min(1).max(100).optional(), offset: z.coerce.number().int().min(0).optional() });
 const photo = z.object({ jobId: uuidSchema, photoId: uuidSchema });
 const photoSized = photo.extend({ size: z.enum(['thumb', 'large']) });
@@ -100,27 +96,12 @@ export const routeDocs: RouteDoc[] = [
   { method: 'post', path: '/api/change-orders/{changeOrderId}/decline', summary: 'Decline extra work that is not paid yet (its open payment page is expired)', tag: 'Payments', access: 'builder', params: changeOrderId },
   { method: 'post', path: '/api/admin/jobs/{jobId}/release', summary: 'Release what the job holds to the shop, less the fee (once, however often asked)', tag: 'Payments', access: 'admin', params: jobId },
   { method: 'post', path: '/api/admin/jobs/{jobId}/split', summary: 'Pay the shop a share of what is held and refund the rest', tag: 'Payments', access: 'admin', params: jobId, body: splitSchema },
-  { method: 'get', path: '/api/admin/users', summary: 'Search accounts', tag: 'Admin', access: 'admin', query: userSearchSchema },
-  { method: 'post', path: '/api/admin/admins', summary: 'Make another administrator', tag: 'Admin', access: 'admin', body: createAdminSchema, ok: { status: 201, description: 'Created; a link to choose a password is mailed' } },
   { method: 'get', path: '/api/me/money', summary: 'The signed-in builder’s or shop’s money history across their jobs', tag: 'Payments', access: 'builder or shop', query: historyQuery },
   { method: 'get', path: '/api/jobs/{jobId}/dispute', summary: 'The job’s dispute, and whether the viewer may open or answer one', tag: 'Disputes', access: 'signed-in', params: jobId },
   { method: 'post', path: '/api/jobs/{jobId}/dispute', summary: 'Open a dispute; the held payment stays held until an administrator decides', tag: 'Disputes', access: 'builder or shop', params: jobId, body: openDisputeSchema, ok: { status: 201, description: 'Opened; both sides are told by e-mail' } },
   { method: 'post', path: '/api/jobs/{jobId}/dispute/response', summary: 'The other side answers the dispute (once)', tag: 'Disputes', access: 'builder or shop', params: jobId, body: disputeResponseSchema },
   { method: 'get', path: '/api/jobs/{jobId}/reviews', summary: 'Reviews left on a finished job, and whether the viewer may still leave one', tag: 'Reviews', access: 'signed-in', params: jobId },
   { method: 'post', path: '/api/jobs/{jobId}/reviews', summary: 'Rate the other side of a finished job, 1 to 5 with a comment (once)', tag: 'Reviews', access: 'builder or shop', params: jobId, body: reviewInputSchema, ok: { status: 201, description: 'Stored' } },
-  { method: 'get', path: '/api/admin/disputes', summary: 'The dispute queue with age and amount held', tag: 'Admin', access: 'admin', query: disputeQueueSchema },
-  { method: 'get', path: '/api/admin/disputes/{disputeId}', summary: 'A dispute with its evidence: messages, milestones, inspection versions, photos, change orders and money, in one timeline', tag: 'Admin', access: 'admin', params: disputeId },
-  { method: 'post', path: '/api/admin/disputes/{disputeId}/resolve', summary: 'Decide a dispute: release, refund or split, with a written decision mailed to both sides', tag: 'Admin', access: 'admin', params: disputeId, body: resolveDisputeSchema },
-  { method: 'post', path: '/api/admin/users/{userId}/suspend', summary: 'Suspend an account: its sessions end at once and it cannot sign in', tag: 'Admin', access: 'admin', params: userId, body: suspendUserSchema },
-  { method: 'post', path: '/api/admin/users/{userId}/reinstate', summary: 'Reinstate a suspended account', tag: 'Admin', access: 'admin', params: userId },
-  { method: 'get', path: '/api/admin/shops', summary: 'Search shops', tag: 'Admin', access: 'admin', query: shopSearchSchema },
-  { method: 'post', path: '/api/admin/shops/{shopId}/verification', summary: 'Verify a shop (a badge on its page and bids) or take it away', tag: 'Admin', access: 'admin', params: shopId, body: verifyShopSchema },
-  { method: 'get', path: '/api/admin/fee', summary: 'The platform fee for new awards', tag: 'Admin', access: 'admin' },
-  { method: 'put', path: '/api/admin/fee', summary: 'Change the platform fee (applies to bids accepted from now on)', tag: 'Admin', access: 'admin', body: platformFeeSchema },
-  { method: 'get', path: '/api/admin/ledger', summary: 'Ledger entries with filters and totals', tag: 'Admin', access: 'admin', query: ledgerQuerySchema },
-  { method: 'get', path: '/api/admin/ledger.csv', summary: 'The filtered ledger as CSV', tag: 'Admin', access: 'admin', query: ledgerQuerySchema.omit({ limit: true, offset: true }), ok: { status: 200, description: 'text/csv' } },
-  { method: 'get', path: '/api/admin/audit', summary: 'The audit log of administrator actions', tag: 'Admin', access: 'admin', query: auditQuerySchema },
-  { method: 'get', path: '/api/openapi.json', summary: 'This description', tag: 'Health', access: 'public' },
 ];
 
 const errorResponse = (description: string) => ({ description, content: { 'application/json': { schema: errorSchema } } });

@@ -1,16 +1,14 @@
 import { Router } from 'express';
 import { z } from 'zod';
 import { uuidSchema } from '../../../shared/schemas/common';
-import { disputeQueueSchema, disputeResponseSchema, openDisputeSchema, resolveDisputeSchema } from '../../../shared/schemas/disputes';
+import { disputeResponseSchema, openDisputeSchema } from '../../../shared/schemas/disputes';
 import { currentUser, requireRole, requireUser } from '../../lib/auth/guards';
 import type { PaymentDeps } from '../payments/payments.service';
-import { answerDispute, disputeQueue, disputeViewFor, openDispute, resolveDispute } from './disputes.service';
-import { disputeCase } from './evidence';
+import { answerDispute, disputeViewFor, openDispute } from './disputes.service';
 
 const jobParams = z.object({ jobId: uuidSchema });
-const disputeParams = z.object({ disputeId: uuidSchema });
 
-/** Disputes: opened and answered by the two sides, decided by an admin. */
+/** Disputes: opened and answered by the two sides (an admin decides them: server/modules/admin/admin.routes.ts). */
 export function disputesRouter(deps: PaymentDeps) {
   const router = Router();
 
@@ -29,21 +27,6 @@ export function disputesRouter(deps: PaymentDeps) {
     const { jobId } = jobParams.parse(req.params);
     const { statement } = disputeResponseSchema.parse(req.body);
     res.json({ dispute: await answerDispute(deps, currentUser(req), jobId, statement) });
-  });
-
-  router.get('/admin/disputes', requireRole('admin'), async (req, res) => {
-    const { status } = disputeQueueSchema.parse(req.query);
-    res.json({ disputes: await disputeQueue(deps.db, status) });
-  });
-
-  router.get('/admin/disputes/:disputeId', requireRole('admin'), async (req, res) => {
-    const { disputeId } = disputeParams.parse(req.params);
-    res.json(await disputeCase(deps.db, disputeId));
-  });
-
-  router.post('/admin/disputes/:disputeId/resolve', requireRole('admin'), async (req, res) => {
-    const { disputeId } = disputeParams.parse(req.params);
-    res.json(await resolveDispute(deps, currentUser(req), disputeId, resolveDisputeSchema.parse(req.body)));
   });
 
   return router;

@@ -1,5 +1,5 @@
 import { queryOptions, useMutation, useQuery, useQueryClient, type UseMutationOptions } from '@tanstack/react-query';
-import type { PlatformFee } from '@shared/schemas/admin';
+import type { PlatformFee, PlatformFeeInput } from '@shared/schemas/admin';
 import { api, type ApiError } from '@client/lib/api-client';
 import { adminKeys } from '@client/lib/query-keys';
 
@@ -14,10 +14,10 @@ export const platformFeeQueries = {
 export const usePlatformFee = () => useQuery(platformFeeQueries.current());
 
 /** Sets the fee for bids accepted from now on; jobs already accepted keep theirs. */
-export function useSetPlatformFee(options?: { mutationConfig?: Omit<UseMutationOptions<PlatformFee, ApiError, { feeBps: number }>, 'mutationFn'> }) {
+export function useSetPlatformFee(options?: { mutationConfig?: Omit<UseMutationOptions<PlatformFee, ApiError, PlatformFeeInput>, 'mutationFn'> }) {
   const queryClient = useQueryClient();
   const { onSuccess, ...rest } = options?.mutationConfig ?? {};
-  return useMutation<PlatformFee, ApiError, { feeBps: number }>({
+  return useMutation<PlatformFee, ApiError, PlatformFeeInput>({
     ...rest,
     mutationFn: (input) => api.put<PlatformFee>('/api/admin/fee', input),
     onSuccess: (...args) => {

@@ -1,20 +1,11 @@
 import { keepPreviousData, queryOptions, useMutation, useQuery, useQueryClient, type UseMutationOptions } from '@tanstack/react-query';
-import type { AdminShopRow } from '@shared/schemas/admin';
+import type { AdminShopAnswer, AdminShopPage, AdminShopRow, ShopSearchInput, VerifyShopInput } from '@shared/schemas/admin';
 import { api, type ApiError } from '@client/lib/api-client';
 import { adminKeys, shopKeys } from '@client/lib/query-keys';
 import { toSearch } from '@client/lib/search-params';
 
-export interface AdminShopFilters {
-  q?: string;
-  verified?: 'yes' | 'no';
-  limit: number;
-  offset: number;
-}
-
-export interface AdminShopPage {
-  shops: AdminShopRow[];
-  total: number;
-}
+export type AdminShopFilters = ShopSearchInput;
+export type { AdminShopPage };
 
 export const adminShopQueries = {
   list: (filters: AdminShopFilters) =>
@@ -27,10 +18,7 @@ export const adminShopQueries = {
 
 export const useAdminShops = (filters: AdminShopFilters) => useQuery(adminShopQueries.list(filters));
 
-export interface SetVerificationInput {
-  shopId: string;
-  verified: boolean;
-}
+export type SetVerificationInput = { shopId: string } & VerifyShopInput;
 
 /** Marks a shop verified or takes the mark away; the directory and shop pages show it, so they refresh too. */
 export function useSetShopVerification(options?: {
@@ -41,7 +29,7 @@ export function useSetShopVerification(options?: {
   return useMutation<AdminShopRow, ApiError, SetVerificationInput>({
     ...rest,
     mutationFn: ({ shopId, verified }) =>
-      api.post<{ shop: AdminShopRow }>(`/api/admin/shops/${encodeURIComponent(shopId)}/verification`, { verified }).then((r) => r.shop),
+      api.post<AdminShopAnswer>(`/api/admin/shops/${encodeURIComponent(shopId)}/verification`, { verified }).then((r) => r.shop),
     onSuccess: (...args) => {
       void queryClient.invalidateQueries({ queryKey: adminKeys.all });
       void queryClient.invalidateQueries({ queryKey: shopKeys.all });

@@ -1,15 +1,12 @@
 import { keepPreviousData, queryOptions, useMutation, useQuery, useQueryClient, type UseMutationOptions } from '@tanstack/react-query';
-import type { AdminUserRow, CreateAdminInput } from '@shared/schemas/admin';
-import type { Me, Role } from '@shared/schemas/auth';
+import type { AdminUserAnswer, AdminUserPage, AdminUserRow, CreateAdminInput, SuspendUserInput as SuspendUserBody, UserSearchInput } from '@shared/schemas/admin';
+import type { Me, MeAnswer } from '@shared/schemas/auth';
 import { api, type ApiError } from '@client/lib/api-client';
 import { adminKeys } from '@client/lib/query-keys';
 
 export type { AdminUserRow };
 
-export interface UserFilters {
-  q?: string;
-  role?: Role;
-}
+export type UserFilters = Pick<UserSearchInput, 'q' | 'role'>;
 
 export const adminUserKeys = {
   all: ['admin-users'] as const,
@@ -28,7 +25,7 @@ export const adminUserQueries = {
   list: (filters: UserFilters) =>
     queryOptions({
       queryKey: adminUserKeys.list(filters),
-      queryFn: () => api.get<{ users: AdminUserRow[]; total: number }>(`/api/admin/users?${toQuery(filters)}`),
+      queryFn: () => api.get<AdminUserPage>(`/api/admin/users?${toQuery(filters)}`),
       placeholderData: keepPreviousData,
     }),
 };
@@ -40,7 +37,7 @@ export function useCreateAdmin(options?: { mutationConfig?: Omit<UseMutationOpti
   const { onSuccess, ...rest } = options?.mutationConfig ?? {};
   return useMutation<Me, ApiError, CreateAdminInput>({
     ...rest,
-    mutationFn: (input) => api.post<{ user: Me }>('/api/admin/admins', input).then((r) => r.user),
+    mutationFn: (input) => api.post<MeAnswer>('/api/admin/admins', input).then((r) => r.user),
     onSuccess: (...args) => {
       void queryClient.invalidateQueries({ queryKey: adminUserKeys.lists() });
       return onSuccess?.(...args);
@@ -50,10 +47,7 @@ export function useCreateAdmin(options?: { mutationConfig?: Omit<UseMutationOpti
 
 type AccountMutationConfig<TInput> = Omit<UseMutationOptions<AdminUserRow, ApiError, TInput>, 'mutationFn'>;
 
-export interface SuspendUserInput {
-  userId: string;
-  reason: string;
-}
+export type SuspendUserInput = { userId: string } & SuspendUserBody;
 
 /** After a suspension or reinstatement: the people list, and the shops and audit log that show the owner's state. */
 function useAfterAccountChange() {
@@ -70,7 +64,7 @@ export function useSuspendUser(options?: { mutationConfig?: AccountMutationConfi
   const { onSuccess, ...rest } = options?.mutationConfig ?? {};
   return useMutation<AdminUserRow, ApiError, SuspendUserInput>({
     ...rest,
-    mutationFn: ({ userId, reason }) => api.post<{ user: AdminUserRow }>(`/api/admin/users/${encodeURIComponent(userId)}/suspend`, { reason }).then((r) => r.user),
+    mutationFn: ({ userId, reason }) => api.post<AdminUserAnswer>(`/api/admin/users/${encodeURIComponent(userId)}/suspend`, { reason }).then((r) => r.user),
     onSuccess: (...args) => {
       refresh();
       return onSuccess?.(...args);
@@ -83,7 +77,7 @@ export function useReinstateUser(options?: { mutationConfig?: AccountMutationCon
   const { onSuccess, ...rest } = options?.mutationConfig ?? {};
   return useMutation<AdminUserRow, ApiError, { userId: string }>({
     ...rest,
-    mutationFn: ({ userId }) => api.post<{ user: AdminUserRow }>(`/api/admin/users/${encodeURIComponent(userId)}/reinstate`).then((r) => r.user),
+    mutationFn: ({ userId }) => api.post<AdminUserAnswer>(`/api/admin/users/${encodeURIComponent(userId)}/reinstate`).then((r) => r.user),
     onSuccess: (...args) => {
       refresh();
       return onSuccess?.(...args);
