@@ -1,4 +1,5 @@
 import type { RouteDef } from './lib/http/routes';
+import { adminRoutes } from './modules/admin/admin.routes';
 import { authRoutes } from './modules/auth/auth.routes';
 import { bidsRoutes } from './modules/bids/bids.routes';
 import { calculationsRoutes } from './modules/calculations/calculations.routes';
@@ -8,6 +9,7 @@ import { inspectionsRoutes } from './modules/inspections/inspections.routes';
 import { jobsRoutes } from './modules/jobs/jobs.routes';
 import { paymentsRoutes, paymentsWebhookRoutes } from './modules/payments/payments.routes';
 import { reviewsRoutes } from './modules/reviews/reviews.routes';
+import { openApiRoutes } from './modules/health/openapi.routes';
 import { shopsRoutes } from './modules/shops/shops.routes';
 
 /**
@@ -27,6 +29,8 @@ export const routeModules = {
   inspections: inspectionsRoutes,
   disputes: disputesRoutes,
   reviews: reviewsRoutes,
+  admin: adminRoutes,
+  openapi: openApiRoutes,
 } satisfies Record<string, readonly RouteDef<never>[]>;
 
 export const apiRoutes: readonly RouteDef<never>[] = Object.values(routeModules).flat();

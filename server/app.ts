@@ -10,10 +10,9 @@ import type { Logger } from 'pino';
 import { pinoHttp } from 'pino-http';
 import type { Database } from './db/client';
 import type { AppConfig } from './env';
+import { requireRole } from './lib/auth/guards';
 import { createPassport } from './lib/auth/passport';
 import { errorHandler, notFoundApi } from './lib/errors';
-import { adminRouter } from './modules/admin/admin.routes';
-import { adminDisputesRouter } from './modules/disputes/disputes.routes';
 import { messagesRouter } from './modules/messages/messages.routes';
 import { milestonesRouter } from './modules/milestones/milestones.routes';
 import { createPaymentsClient, type PaymentsClient } from './lib/payments-client';
@@ -150,13 +149,11 @@ export function createApp(deps: AppDeps) {
   app.use('/api', milestonesRouter({ db, hub, storage, uploadLimit }));
   mount(routeModules.inspections, workDeps);
   mount(routeModules.disputes, paymentDeps);
-  app.use('/api', adminDisputesRouter(paymentDeps));
   mount(routeModules.reviews, paymentDeps);
-  app.use('/api/admin', adminRouter({ db, appUrl: config.appUrl, hub, defaultFeeBps: config.payments.platformFeeBps }));
-
-  app.get('/api/openapi.json', (_req, res) => {
-    res.json(openApiDocument());
-  });
+  mount(routeModules.admin, { ...paymentDeps, defaultFeeBps: config.payments.platformFeeBps });
+  // Any other address under /api/admin is refused as before to all but admins (admins get the 404 below).
+  app.use('/api/admin', requireRole('admin'));
+  mount(routeModules.openapi, { document: openApiDocument });
 
   app.use('/api', notFoundApi);
 

@@ -2,8 +2,6 @@ import { OpenAPIRegistry, OpenApiGeneratorV31, type RouteConfig } from '@asteaso
 import { z } from 'zod';
 import { apiRoutes } from './api-routes';
 import { needsCsrf, openApiPath, successStatus, type Access, type Reply, type RouteDef } from './lib/http/routes';
-import { auditQuerySchema, createAdminSchema, ledgerQuerySchema, platformFeeSchema, shopSearchSchema, suspendUserSchema, userSearchSchema, verifyShopSchema } from '../shared/schemas/admin';
-import { disputeQueueSchema, resolveDisputeSchema } from '../shared/schemas/disputes';
 import { uuidSchema } from '../shared/schemas/common';
 import { milestoneInputSchema } from '../shared/schemas/inspection';
 import { historyQuerySchema, markReadSchema, openThreadSchema, sendMessageSchema } from '../shared/schemas/messages';
@@ -37,10 +35,7 @@ const errorSchema = z.object({
 });
 
 const jobId = z.object({ jobId: uuidSchema });
-const shopId = z.object({ shopId: uuidSchema });
 const threadId = z.object({ threadId: uuidSchema });
-const disputeId = z.object({ disputeId: uuidSchema });
-const userId = z.object({ userId: uuidSchema });
 const photo = z.object({ jobId: uuidSchema, photoId: uuidSchema });
 const photoSized = photo.extend({ size: z.enum(['thumb', 'large']) });
 const threadPhotoSized = z.object({ threadId: uuidSchema, photoId: uuidSchema, size: z.enum(['thumb', 'large']) });
@@ -58,21 +53,6 @@ export const routeDocs: RouteDoc[] = [
   { method: 'post', path: '/api/jobs/{jobId}/milestones', summary: 'The working shop logs progress (block received starts the work)', tag: 'Work', access: 'shop', params: jobId, body: milestoneInputSchema, ok: { status: 201, description: 'Logged' } },
   { method: 'post', path: '/api/jobs/{jobId}/milestone-photos', summary: 'The working shop uploads photos for a milestone (multipart field "photos"; JPEG, PNG or WebP; 15 MB each; 4 at a time); send their ids as the milestone’s photoIds', tag: 'Work', access: 'shop', params: jobId, ok: { status: 201, description: 'Stored, waiting for a milestone' } },
   { method: 'get', path: '/api/jobs/{jobId}/milestone-photos/{photoId}/{size}', summary: 'A milestone photo, re-encoded as WebP (before it is attached, only for its uploader)', tag: 'Work', access: 'signed-in', params: photoSized, ok: { status: 200, description: 'image/webp' } },
-  { method: 'get', path: '/api/admin/users', summary: 'Search accounts', tag: 'Admin', access: 'admin', query: userSearchSchema },
-  { method: 'post', path: '/api/admin/admins', summary: 'Make another administrator', tag: 'Admin', access: 'admin', body: createAdminSchema, ok: { status: 201, description: 'Created; a link to choose a password is mailed' } },
-  { method: 'get', path: '/api/admin/disputes', summary: 'The dispute queue with age and amount held', tag: 'Admin', access: 'admin', query: disputeQueueSchema },
-  { method: 'get', path: '/api/admin/disputes/{disputeId}', summary: 'A dispute with its evidence: messages, milestones, inspection versions, photos, change orders and money, in one timeline', tag: 'Admin', access: 'admin', params: disputeId },
-  { method: 'post', path: '/api/admin/disputes/{disputeId}/resolve', summary: 'Decide a dispute: release, refund or split, with a written decision mailed to both sides', tag: 'Admin', access: 'admin', params: disputeId, body: resolveDisputeSchema },
-  { method: 'post', path: '/api/admin/users/{userId}/suspend', summary: 'Suspend an account: its sessions end at once and it cannot sign in', tag: 'Admin', access: 'admin', params: userId, body: suspendUserSchema },
-  { method: 'post', path: '/api/admin/users/{userId}/reinstate', summary: 'Reinstate a suspended account', tag: 'Admin', access: 'admin', params: userId },
-  { method: 'get', path: '/api/admin/shops', summary: 'Search shops', tag: 'Admin', access: 'admin', query: shopSearchSchema },
-  { method: 'post', path: '/api/admin/shops/{shopId}/verification', summary: 'Verify a shop (a badge on its page and bids) or take it away', tag: 'Admin', access: 'admin', params: shopId, body: verifyShopSchema },
-  { method: 'get', path: '/api/admin/fee', summary: 'The platform fee for new awards', tag: 'Admin', access: 'admin' },
-  { method: 'put', path: '/api/admin/fee', summary: 'Change the platform fee (applies to bids accepted from now on)', tag: 'Admin', access: 'admin', body: platformFeeSchema },
-  { method: 'get', path: '/api/admin/ledger', summary: 'Ledger entries with filters and totals', tag: 'Admin', access: 'admin', query: ledgerQuerySchema },
-  { method: 'get', path: '/api/admin/ledger.csv', summary: 'The filtered ledger as CSV', tag: 'Admin', access: 'admin', query: ledgerQuerySchema.omit({ limit: true, offset: true }), ok: { status: 200, description: 'text/csv' } },
-  { method: 'get', path: '/api/admin/audit', summary: 'The audit log of administrator actions', tag: 'Admin', access: 'admin', query: auditQuerySchema },
-  { method: 'get', path: '/api/openapi.json', summary: 'This description', tag: 'Health', access: 'public' },
 ];
 
 const errorResponse = (description: string) => ({ description, content: { 'application/json': { schema: errorSchema } } });

@@ -1,22 +1,11 @@
-import { Router } from 'express';
 import { z } from 'zod';
 import { uuidSchema } from '../../../shared/schemas/common';
-import {
-  disputeAnswerSchema,
-  disputeQueueSchema,
-  disputeResponseSchema,
-  disputeViewSchema,
-  openDisputeSchema,
-  resolveDisputeSchema,
-} from '../../../shared/schemas/disputes';
-import { currentUser, requireRole } from '../../lib/auth/guards';
+import { disputeAnswerSchema, disputeResponseSchema, disputeViewSchema, openDisputeSchema } from '../../../shared/schemas/disputes';
 import { routesFor } from '../../lib/http/routes';
 import type { PaymentDeps } from '../payments/payments.service';
-import { answerDispute, disputeQueue, disputeViewFor, openDispute, resolveDispute } from './disputes.service';
-import { disputeCase } from './evidence';
+import { answerDispute, disputeViewFor, openDispute } from './disputes.service';
 
 const jobParams = z.object({ jobId: uuidSchema });
-const disputeParams = z.object({ disputeId: uuidSchema });
 
 const route = routesFor<PaymentDeps>('Disputes');
 
@@ -52,25 +41,3 @@ export const disputesRoutes = [
     handler: async ({ deps, user, params, body }) => ({ dispute: await answerDispute(deps, user, params.jobId, body.statement) }),
   }),
 ];
-
-/** Disputes as an administrator decides them (still a plain router: the admin routes are declared with the admin module). */
-export function adminDisputesRouter(deps: PaymentDeps) {
-  const router = Router();
-
-  router.get('/admin/disputes', requireRole('admin'), async (req, res) => {
-    const { status } = disputeQueueSchema.parse(req.query);
-    res.json({ disputes: await disputeQueue(deps.db, status) });
-  });
-
-  router.get('/admin/disputes/:disputeId', requireRole('admin'), async (req, res) => {
-    const { disputeId } = disputeParams.parse(req.params);
-    res.json(await disputeCase(deps.db, disputeId));
-  });
-
-  router.post('/admin/disputes/:disputeId/resolve', requireRole('admin'), async (req, res) => {
-    const { disputeId } = disputeParams.parse(req.params);
-    res.json(await resolveDispute(deps, currentUser(req), disputeId, resolveDisputeSchema.parse(req.body)));
-  });
-
-  return router;
-}

@@ -1,19 +1,11 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
-import type { AuditRow } from '@shared/schemas/admin';
+import type { AuditPage, AuditQuery } from '@shared/schemas/admin';
 import { api } from '@client/lib/api-client';
 import { adminKeys } from '@client/lib/query-keys';
 import { toSearch } from '@client/lib/search-params';
 
-export interface AuditFilters {
-  action?: string;
-  limit: number;
-  offset: number;
-}
-
-export interface AuditPage {
-  entries: AuditRow[];
-  total: number;
-}
+export type AuditFilters = AuditQuery;
+export type { AuditPage };
 
 export const adminAuditQueries = {
   page: (filters: AuditFilters) =>

@@ -1,17 +1,18 @@
 import { keepPreviousData, queryOptions, useQuery, useQueryClient } from '@tanstack/react-query';
-import type { Dispute, DisputeCase, DisputeQueueRow, ResolveDisputeInput } from '@shared/schemas/disputes';
-import type { MoneyView } from '@shared/schemas/payments';
+import type { z } from 'zod';
+import type { DisputeCase, DisputeDecided, DisputeQueueAnswer } from '@shared/schemas/admin';
+import type { disputeQueueSchema, ResolveDisputeInput } from '@shared/schemas/disputes';
 import { api } from '@client/lib/api-client';
 import { type MutationOptions, useApiMutation } from '@client/lib/mutation';
 import { adminKeys, jobChangeKeys } from '@client/lib/query-keys';
 
-export type DisputeQueueStatus = 'open' | 'resolved' | 'all';
+export type DisputeQueueStatus = z.infer<typeof disputeQueueSchema>['status'];
 
 export const adminDisputeQueries = {
   queue: (status: DisputeQueueStatus) =>
     queryOptions({
       queryKey: adminKeys.disputes(status),
-      queryFn: () => api.get<{ disputes: DisputeQueueRow[] }>(`/api/admin/disputes?status=${status}`).then((r) => r.disputes),
+      queryFn: () => api.get<DisputeQueueAnswer>(`/api/admin/disputes?status=${status}`).then((r) => r.disputes),
       placeholderData: keepPreviousData,
     }),
   case: (disputeId: string) =>
@@ -25,10 +26,7 @@ export const useDisputeQueue = (status: DisputeQueueStatus) => useQuery(adminDis
 
 export const useDisputeCase = (disputeId: string) => useQuery(adminDisputeQueries.case(disputeId));
 
-export interface ResolveDisputeResult {
-  dispute: Dispute;
-  money: MoneyView;
-}
+export type ResolveDisputeResult = DisputeDecided;
 
 /**
  * Carries out the administrator's decision. The case is updated from the

@@ -1,23 +1,15 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
-import type { LedgerPage, ledgerKinds } from '@shared/schemas/admin';
+import type { LedgerKind, LedgerPage, LedgerQuery } from '@shared/schemas/admin';
 import { api } from '@client/lib/api-client';
 import { adminKeys } from '@client/lib/query-keys';
 import { toSearch } from '@client/lib/search-params';
 
-export type LedgerKind = (typeof ledgerKinds)[number];
+export type { LedgerKind };
 
 /** What narrows the ledger; the CSV download takes the same. */
-export interface LedgerFilters {
-  kind?: LedgerKind;
-  jobId?: string;
-  from?: string;
-  to?: string;
-}
+export type LedgerFilters = Omit<LedgerQuery, 'limit' | 'offset'>;
 
-export interface LedgerPageRequest extends LedgerFilters {
-  limit: number;
-  offset: number;
-}
+export type LedgerPageRequest = LedgerQuery;
 
 export const adminLedgerQueries = {
   page: (request: LedgerPageRequest) =>

@@ -1,5 +1,5 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { PlatformFee } from '@shared/schemas/admin';
+import type { PlatformFee, PlatformFeeInput } from '@shared/schemas/admin';
 import { api } from '@client/lib/api-client';
 import { type MutationOptions, useApiMutation } from '@client/lib/mutation';
 import { adminKeys } from '@client/lib/query-keys';
@@ -15,9 +15,9 @@ export const platformFeeQueries = {
 export const usePlatformFee = () => useQuery(platformFeeQueries.current());
 
 /** Sets the fee for bids accepted from now on; jobs already accepted keep theirs. */
-export const useSetPlatformFee = (options?: MutationOptions<PlatformFee, { feeBps: number }>) =>
+export const useSetPlatformFee = (options?: MutationOptions<PlatformFee, PlatformFeeInput>) =>
   useApiMutation(
-    (input: { feeBps: number }) => api.put<PlatformFee>('/api/admin/fee', input),
+    (input: PlatformFeeInput) => api.put<PlatformFee>('/api/admin/fee', input),
     { update: (queryClient, fee) => queryClient.setQueryData(adminKeys.fee(), fee), refreshes: () => [adminKeys.all] },
     options?.mutationConfig,
   );

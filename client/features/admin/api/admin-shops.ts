@@ -1,21 +1,12 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
-import type { AdminShopRow } from '@shared/schemas/admin';
+import type { AdminShopAnswer, AdminShopPage, AdminShopRow, ShopSearchInput, VerifyShopInput } from '@shared/schemas/admin';
 import { api } from '@client/lib/api-client';
 import { type MutationOptions, useApiMutation } from '@client/lib/mutation';
 import { adminKeys, shopKeys } from '@client/lib/query-keys';
 import { toSearch } from '@client/lib/search-params';
 
-export interface AdminShopFilters {
-  q?: string;
-  verified?: 'yes' | 'no';
-  limit: number;
-  offset: number;
-}
-
-export interface AdminShopPage {
-  shops: AdminShopRow[];
-  total: number;
-}
+export type AdminShopFilters = ShopSearchInput;
+export type { AdminShopPage };
 
 export const adminShopQueries = {
   list: (filters: AdminShopFilters) =>
@@ -28,16 +19,13 @@ export const adminShopQueries = {
 
 export const useAdminShops = (filters: AdminShopFilters) => useQuery(adminShopQueries.list(filters));
 
-export interface SetVerificationInput {
-  shopId: string;
-  verified: boolean;
-}
+export type SetVerificationInput = { shopId: string } & VerifyShopInput;
 
 /** Marks a shop verified or takes the mark away; the directory and shop pages show it, so they refresh too. */
 export const useSetShopVerification = (options?: MutationOptions<AdminShopRow, SetVerificationInput>) =>
   useApiMutation(
     ({ shopId, verified }: SetVerificationInput) =>
-      api.post<{ shop: AdminShopRow }>(`/api/admin/shops/${encodeURIComponent(shopId)}/verification`, { verified }).then((r) => r.shop),
+      api.post<AdminShopAnswer>(`/api/admin/shops/${encodeURIComponent(shopId)}/verification`, { verified }).then((r) => r.shop),
     { refreshes: () => [adminKeys.all, shopKeys.all] },
     options?.mutationConfig,
   );

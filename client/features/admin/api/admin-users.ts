@@ -1,16 +1,13 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
-import type { AdminUserRow, CreateAdminInput } from '@shared/schemas/admin';
-import type { Me, Role } from '@shared/schemas/auth';
+import type { AdminUserAnswer, AdminUserPage, AdminUserRow, CreateAdminInput, SuspendUserInput as SuspendUserBody, UserSearchInput } from '@shared/schemas/admin';
+import type { Me, MeAnswer } from '@shared/schemas/auth';
 import { api } from '@client/lib/api-client';
 import { type MutationOptions, useApiMutation } from '@client/lib/mutation';
 import { adminKeys } from '@client/lib/query-keys';
 
 export type { AdminUserRow };
 
-export interface UserFilters {
-  q?: string;
-  role?: Role;
-}
+export type UserFilters = Pick<UserSearchInput, 'q' | 'role'>;
 
 export const adminUserKeys = {
   all: ['admin-users'] as const,
@@ -29,7 +26,7 @@ export const adminUserQueries = {
   list: (filters: UserFilters) =>
     queryOptions({
       queryKey: adminUserKeys.list(filters),
-      queryFn: () => api.get<{ users: AdminUserRow[]; total: number }>(`/api/admin/users?${toQuery(filters)}`),
+      queryFn: () => api.get<AdminUserPage>(`/api/admin/users?${toQuery(filters)}`),
       placeholderData: keepPreviousData,
     }),
 };
@@ -38,15 +35,12 @@ export const useAdminUsers = (filters: UserFilters) => useQuery(adminUserQueries
 
 export const useCreateAdmin = (options?: MutationOptions<Me, CreateAdminInput>) =>
   useApiMutation(
-    (input: CreateAdminInput) => api.post<{ user: Me }>('/api/admin/admins', input).then((r) => r.user),
+    (input: CreateAdminInput) => api.post<MeAnswer>('/api/admin/admins', input).then((r) => r.user),
     { refreshes: () => [adminUserKeys.lists()] },
     options?.mutationConfig,
   );
 
-export interface SuspendUserInput {
-  userId: string;
-  reason: string;
-}
+export type SuspendUserInput = { userId: string } & SuspendUserBody;
 
 /** After a suspension or reinstatement: the people list, and the shops and audit log that show the owner's state. */
 const afterAccountChange = { refreshes: () => [adminUserKeys.lists(), adminKeys.all] };
@@ -54,14 +48,14 @@ const afterAccountChange = { refreshes: () => [adminUserKeys.lists(), adminKeys.
 /** Suspends an account with a reason; its sessions stop working on their next request. */
 export const useSuspendUser = (options?: MutationOptions<AdminUserRow, SuspendUserInput>) =>
   useApiMutation(
-    ({ userId, reason }: SuspendUserInput) => api.post<{ user: AdminUserRow }>(`/api/admin/users/${encodeURIComponent(userId)}/suspend`, { reason }).then((r) => r.user),
+    ({ userId, reason }: SuspendUserInput) => api.post<AdminUserAnswer>(`/api/admin/users/${encodeURIComponent(userId)}/suspend`, { reason }).then((r) => r.user),
     afterAccountChange,
     options?.mutationConfig,
   );
 
 export const useReinstateUser = (options?: MutationOptions<AdminUserRow, { userId: string }>) =>
   useApiMutation(
-    ({ userId }: { userId: string }) => api.post<{ user: AdminUserRow }>(`/api/admin/users/${encodeURIComponent(userId)}/reinstate`).then((r) => r.user),
+    ({ userId }: { userId: string }) => api.post<AdminUserAnswer>(`/api/admin/users/${encodeURIComponent(userId)}/reinstate`).then((r) => r.user),
     afterAccountChange,
     options?.mutationConfig,
   );
