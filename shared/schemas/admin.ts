@@ -2,6 +2,7 @@ import { z } from 'zod';
 import { roles } from './auth';
 import { boreInspectionAnswerSchema, appliedFilterSchema } from './calculations';
 import { disputeOutcomes, disputeReasons } from './disputes';
+import { ledgerEntryKindSchema, ledgerKinds } from './payments';
 import { publicShopSchema } from './shops';
 
 export const createAdminSchema = z.object({
@@ -48,7 +49,7 @@ export const platformFeeSchema = z.object({
 });
 export type PlatformFeeInput = z.infer<typeof platformFeeSchema>;
 
-export const ledgerKinds = ['paid_in', 'released', 'fee', 'refunded'] as const;
+export { ledgerKinds };
 
 export const ledgerQuerySchema = z.object({
   kind: z.enum(ledgerKinds, { error: 'Choose paid in, released, fee or refunded.' }).optional(),
@@ -122,15 +123,14 @@ export const platformFeeSettingSchema = z.object({
 });
 export type PlatformFee = z.infer<typeof platformFeeSettingSchema>;
 
-export const ledgerKindSchema = z.enum(ledgerKinds);
-export type LedgerKind = z.infer<typeof ledgerKindSchema>;
+export type LedgerKind = z.infer<typeof ledgerEntryKindSchema>;
 
 export const ledgerRowSchema = z.object({
   id: z.number().int(),
   createdAt: z.iso.datetime(),
   jobId: z.uuid(),
   jobTitle: z.string(),
-  kind: ledgerKindSchema,
+  kind: ledgerEntryKindSchema,
   amountCents: z.number().int(),
   reference: z.string(),
   paymentId: z.string().nullable(),
@@ -331,7 +331,7 @@ export const evidenceItemSchema = z.discriminatedUnion('kind', [
     status: z.enum(['proposed', 'approved', 'paid', 'declined']),
   }),
   /** A ledger entry on the job. */
-  z.object({ kind: z.literal('money'), at: z.iso.datetime(), entry: ledgerKindSchema, amountCents: z.number().int(), reference: z.string() }),
+  z.object({ kind: z.literal('money'), at: z.iso.datetime(), entry: ledgerEntryKindSchema, amountCents: z.number().int(), reference: z.string() }),
   z.object({ kind: z.literal('job_photo'), at: z.iso.datetime(), photos: z.array(evidencePhotoSchema) }),
 ]);
 export type EvidenceItem = z.infer<typeof evidenceItemSchema>;

@@ -1,5 +1,4 @@
 import { z } from 'zod';
-import { ledgerKinds } from './admin';
 import { centsSchema, queryInt } from './common';
 
 export const changeOrderInputSchema = z.object({
@@ -18,6 +17,8 @@ export type ProviderLink = z.infer<typeof providerLinkSchema>;
 export const webhookReceiptSchema = z.object({ received: z.literal(true), duplicate: z.literal(true).optional() });
 
 /** The kinds of ledger entry: money paid in, released to the shop, the platform's fee, refunded to the builder. */
+/** What a ledger entry records: money in, to the shop, the platform's fee, back to the builder. */
+export const ledgerKinds = ['paid_in', 'released', 'fee', 'refunded'] as const;
 export const ledgerEntryKindSchema = z.enum(ledgerKinds);
 export type LedgerEntryKind = z.infer<typeof ledgerEntryKindSchema>;
 
