@@ -2,6 +2,8 @@ import type { RouteDef } from './lib/http/routes';
 import { authRoutes } from './modules/auth/auth.routes';
 import { calculationsRoutes } from './modules/calculations/calculations.routes';
 import { healthRoutes } from './modules/health/health.routes';
+import { messagesRoutes } from './modules/messages/messages.routes';
+import { milestonesRoutes } from './modules/milestones/milestones.routes';
 import { shopsRoutes } from './modules/shops/shops.routes';
 
 /**
@@ -14,6 +16,8 @@ export const routeModules = {
   auth: authRoutes,
   calculations: calculationsRoutes,
   shops: shopsRoutes,
+  messages: messagesRoutes,
+  milestones: milestonesRoutes,
 } satisfies Record<string, readonly RouteDef<never>[]>;
 
 export const apiRoutes: readonly RouteDef<never>[] = Object.values(routeModules).flat();

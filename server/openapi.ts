@@ -9,8 +9,7 @@ import { bidInputSchema, declineBidSchema } from '../shared/schemas/bids';
 import { uuidSchema } from '../shared/schemas/common';
 import { boardQuerySchema, jobInputSchema, myJobsQuerySchema } from '../shared/schemas/jobs';
 import { changeOrderInputSchema, splitSchema } from '../shared/schemas/payments';
-import { inspectionDraftSchema, inspectionInputSchema, milestoneInputSchema, rejectInspectionSchema } from '../shared/schemas/inspection';
-import { historyQuerySchema, markReadSchema, openThreadSchema, sendMessageSchema } from '../shared/schemas/messages';
+import { inspectionDraftSchema, inspectionInputSchema, rejectInspectionSchema } from '../shared/schemas/inspection';
 
 /**
  * The API's OpenAPI description, built from the same zod schemas the routes
@@ -43,14 +42,12 @@ const errorSchema = z.object({
 const jobId = z.object({ jobId: uuidSchema });
 const bidId = z.object({ bidId: uuidSchema });
 const shopId = z.object({ shopId: uuidSchema });
-const threadId = z.object({ threadId: uuidSchema });
 const changeOrderId = z.object({ changeOrderId: uuidSchema });
 const disputeId = z.object({ disputeId: uuidSchema });
 const userId = z.object({ userId: uuidSchema });
 const historyQuery = z.object({ limit: z.coerce.number().int().min(1).max(100).optional(), offset: z.coerce.number().int().min(0).optional() });
 const photo = z.object({ jobId: uuidSchema, photoId: uuidSchema });
 const photoSized = photo.extend({ size: z.enum(['thumb', 'large']) });
-const threadPhotoSized = z.object({ threadId: uuidSchema, photoId: uuidSchema, size: z.enum(['thumb', 'large']) });
 
 export const routeDocs: RouteDoc[] = [
   { method: 'get', path: '/api/jobs', summary: 'The job board: open jobs, filtered, sorted and paged', tag: 'Jobs', access: 'shop', query: boardQuerySchema },
@@ -71,18 +68,6 @@ export const routeDocs: RouteDoc[] = [
   { method: 'post', path: '/api/bids/{bidId}/withdraw', summary: 'Withdraw an active bid', tag: 'Bids', access: 'shop', params: bidId },
   { method: 'post', path: '/api/bids/{bidId}/accept', summary: 'Accept a bid: the job is awarded and every other bid declined', tag: 'Bids', access: 'builder', params: bidId },
   { method: 'post', path: '/api/bids/{bidId}/decline', summary: 'Decline a bid', tag: 'Bids', access: 'builder', params: bidId, body: declineBidSchema },
-  { method: 'get', path: '/api/threads', summary: 'The signed-in person’s conversations with unread counts', tag: 'Messages', access: 'signed-in' },
-  { method: 'get', path: '/api/jobs/{jobId}/threads', summary: 'A job’s conversations the person may read', tag: 'Messages', access: 'signed-in', params: jobId },
-  { method: 'post', path: '/api/jobs/{jobId}/threads', summary: 'Open (or find) the conversation between the job’s builder and a shop', tag: 'Messages', access: 'builder or shop', params: jobId, body: openThreadSchema, ok: { status: 201, description: 'The conversation' } },
-  { method: 'get', path: '/api/threads/{threadId}/messages', summary: 'Message history, newest first, paged by cursor', tag: 'Messages', access: 'signed-in', params: threadId, query: historyQuerySchema },
-  { method: 'post', path: '/api/threads/{threadId}/messages', summary: 'Send a message: words, up to 4 uploaded photos (photoIds), or both; a repeated clientId returns the stored one; live clients use the socket', tag: 'Messages', access: 'builder or shop', params: threadId, body: sendMessageSchema, ok: { status: 201, description: 'Stored and delivered' } },
-  { method: 'post', path: '/api/threads/{threadId}/photos', summary: 'Upload photos for a message (multipart field "photos"; JPEG, PNG or WebP; 15 MB each; 4 at a time); send their ids as the message’s photoIds', tag: 'Messages', access: 'builder or shop', params: threadId, ok: { status: 201, description: 'Stored, waiting for a message' } },
-  { method: 'get', path: '/api/threads/{threadId}/photos/{photoId}/{size}', summary: 'A photo in a conversation, re-encoded as WebP (before it is sent, only for its uploader)', tag: 'Messages', access: 'signed-in', params: threadPhotoSized, ok: { status: 200, description: 'image/webp' } },
-  { method: 'post', path: '/api/threads/{threadId}/read', summary: 'Mark the conversation read up to a message', tag: 'Messages', access: 'signed-in', params: threadId, body: markReadSchema },
-  { method: 'get', path: '/api/jobs/{jobId}/milestones', summary: 'The job’s progress timeline', tag: 'Work', access: 'signed-in', params: jobId },
-  { method: 'post', path: '/api/jobs/{jobId}/milestones', summary: 'The working shop logs progress (block received starts the work)', tag: 'Work', access: 'shop', params: jobId, body: milestoneInputSchema, ok: { status: 201, description: 'Logged' } },
-  { method: 'post', path: '/api/jobs/{jobId}/milestone-photos', summary: 'The working shop uploads photos for a milestone (multipart field "photos"; JPEG, PNG or WebP; 15 MB each; 4 at a time); send their ids as the milestone’s photoIds', tag: 'Work', access: 'shop', params: jobId, ok: { status: 201, description: 'Stored, waiting for a milestone' } },
-  { method: 'get', path: '/api/jobs/{jobId}/milestone-photos/{photoId}/{size}', summary: 'A milestone photo, re-encoded as WebP (before it is attached, only for its uploader)', tag: 'Work', access: 'signed-in', params: photoSized, ok: { status: 200, description: 'image/webp' } },
   { method: 'get', path: '/api/jobs/{jobId}/inspection', summary: 'Inspection record versions with the server’s results, the shop’s draft, and the review deadline', tag: 'Work', access: 'signed-in', params: jobId },
   { method: 'put', path: '/api/jobs/{jobId}/inspection/draft', summary: 'Keep the shop’s unfinished record', tag: 'Work', access: 'shop', params: jobId, body: inspectionDraftSchema },
   { method: 'post', path: '/api/jobs/{jobId}/inspection', summary: 'Submit the measured record (raw readings only; the server computes and judges)', tag: 'Work', access: 'shop', params: jobId, body: inspectionInputSchema, ok: { status: 201, description: 'A new version' } },
