@@ -1,7 +1,7 @@
 import { z } from 'zod';
 import { roles } from './auth';
 import { uuidSchema } from './common';
-import { storedPhotoSchema, uploadedPhotosSchema } from './photos';
+import { storedPhotoSchema, type StoredPhoto, type UploadedPhotos } from './photos';
 
 export const MAX_MESSAGE_LENGTH = 4000;
 
@@ -57,12 +57,10 @@ export const markReadSchema = z.object({ messageId: uuidSchema });
 // --- answers ------------------------------------------------------------------
 
 /** A photo in a conversation, re-encoded as WebP; only people who may read the conversation can load it. */
-export const messagePhotoSchema = storedPhotoSchema;
-export type MessagePhoto = z.infer<typeof messagePhotoSchema>;
+export type MessagePhoto = StoredPhoto;
 
 /** The answer to a photo upload: the stored photos, in the order sent, ready to go with a message. */
-export const uploadedMessagePhotosSchema = uploadedPhotosSchema;
-export type UploadedMessagePhotos = z.infer<typeof uploadedMessagePhotosSchema>;
+export type UploadedMessagePhotos = UploadedPhotos;
 
 export const messageSchema = z.object({
   id: z.uuid(),
@@ -72,7 +70,7 @@ export const messageSchema = z.object({
   /** May be empty when the message carries photos. */
   body: z.string(),
   /** In the order the sender attached them; empty for words only. */
-  photos: z.array(messagePhotoSchema),
+  photos: z.array(storedPhotoSchema),
   createdAt: z.iso.datetime(),
 });
 export type Message = z.infer<typeof messageSchema>;

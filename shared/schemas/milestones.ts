@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { milestoneKinds } from './inspection';
-import { storedPhotoSchema, uploadedPhotosSchema } from './photos';
+import { storedPhotoSchema, type StoredPhoto, type UploadedPhotos } from './photos';
 
 /**
  * What the milestone routes answer. The shop's input (`milestoneInputSchema`,
@@ -8,12 +8,10 @@ import { storedPhotoSchema, uploadedPhotosSchema } from './photos';
  */
 
 /** A milestone photo, re-encoded as WebP; before it is attached, only its uploader can load it. */
-export const milestonePhotoSchema = storedPhotoSchema;
-export type MilestonePhoto = z.infer<typeof milestonePhotoSchema>;
+export type MilestonePhoto = StoredPhoto;
 
 /** The answer to a milestone photo upload: the stored photos, ready to go with a milestone's photoIds. */
-export const uploadedMilestonePhotosSchema = uploadedPhotosSchema;
-export type UploadedMilestonePhotos = z.infer<typeof uploadedMilestonePhotosSchema>;
+export type UploadedMilestonePhotos = UploadedPhotos;
 
 export const milestoneSchema = z.object({
   id: z.uuid(),
@@ -24,7 +22,7 @@ export const milestoneSchema = z.object({
   trackingNumber: z.string().nullable(),
   author: z.object({ id: z.uuid(), displayName: z.string() }),
   /** In the order the shop attached them; empty when none. */
-  photos: z.array(milestonePhotoSchema),
+  photos: z.array(storedPhotoSchema),
   createdAt: z.iso.datetime(),
 });
 export type Milestone = z.infer<typeof milestoneSchema>;

@@ -1,5 +1,8 @@
 import { z } from 'zod';
 
+/** Which stored size of a photo to load (a path parameter). */
+export const photoSizeSchema = z.enum(['thumb', 'large'], { error: 'Ask for thumb or large.' });
+
 /**
  * A stored photo as the API answers it: re-encoded as WebP in two sizes, each
  * at an address that only people who may see it can load. The same shape for

@@ -1,6 +1,7 @@
 import type { RequestHandler } from 'express';
 import { z } from 'zod';
 import { uuidSchema } from '../../../shared/schemas/common';
+import { photoSizeSchema, uploadedPhotosSchema } from '../../../shared/schemas/photos';
 import {
   historyPageSchema,
   historyQuerySchema,
@@ -12,11 +13,10 @@ import {
   sentMessageSchema,
   threadAnswerSchema,
   threadListSchema,
-  uploadedMessagePhotosSchema,
 } from '../../../shared/schemas/messages';
 import { currentUser } from '../../lib/auth/guards';
 import { routesFor } from '../../lib/http/routes';
-import { receivePhotos, uploadedFiles } from '../../lib/photo-upload';
+import { photoUploadSteps, uploadedFiles } from '../../lib/photo-upload';
 import { addMessagePhotos, assertMaySendPhotos, readMessagePhoto, type MessagePhotoDeps } from './message-photos.service';
 import { history, markRead, myThreads, openThread, sendMessage, threadsOfJob, type MessageDeps } from './messages.service';
 
@@ -25,21 +25,11 @@ export type MessagesRouteDeps = MessageDeps & MessagePhotoDeps & { uploadLimit: 
 
 const jobParams = z.object({ jobId: uuidSchema });
 const threadParams = z.object({ threadId: uuidSchema });
-const photoParams = z.object({ threadId: uuidSchema, photoId: uuidSchema, size: z.enum(['thumb', 'large'], { error: 'Ask for thumb or large.' }) });
+const photoParams = z.object({ threadId: uuidSchema, photoId: uuidSchema, size: photoSizeSchema });
 
-/**
- * Photos go up first (the browser shows each one's progress), then out with a
- * message's photoIds. Someone who could not send here is refused before the
- * upload counts against them or a byte is read.
- */
-const photoUpload = (deps: MessagesRouteDeps): RequestHandler[] => [
-  async (req, _res, next) => {
-    await assertMaySendPhotos(deps.db, currentUser(req), threadParams.parse(req.params).threadId);
-    next();
-  },
-  deps.uploadLimit,
-  receivePhotos(MAX_PHOTOS_PER_MESSAGE),
-];
+/** Photos go up first (the browser shows each one's progress), then out with a message's photoIds. */
+const photoUpload = (deps: MessagesRouteDeps) =>
+  photoUploadSteps((req) => assertMaySendPhotos(deps.db, currentUser(req), threadParams.parse(req.params).threadId), deps.uploadLimit, MAX_PHOTOS_PER_MESSAGE);
 
 const route = routesFor<MessagesRouteDeps>('Messages');
 
@@ -108,7 +98,7 @@ export const messagesRoutes = [
     access: 'builder or shop',
     params: threadParams,
     use: photoUpload,
-    reply: { status: 201, json: uploadedMessagePhotosSchema, description: 'Stored, waiting for a message' },
+    reply: { status: 201, json: uploadedPhotosSchema, description: 'Stored, waiting for a message' },
     handler: async ({ deps, req, user, params }) => ({ photos: await addMessagePhotos(deps, user, params.threadId, uploadedFiles(req)) }),
   }),
   route({

@@ -2,11 +2,12 @@ import type { RequestHandler } from 'express';
 import { z } from 'zod';
 import { uuidSchema } from '../../../shared/schemas/common';
 import { MAX_PHOTOS_PER_MILESTONE, milestoneInputSchema } from '../../../shared/schemas/inspection';
-import { milestoneAnswerSchema, milestoneListSchema, uploadedMilestonePhotosSchema } from '../../../shared/schemas/milestones';
+import { milestoneAnswerSchema, milestoneListSchema } from '../../../shared/schemas/milestones';
+import { photoSizeSchema, uploadedPhotosSchema } from '../../../shared/schemas/photos';
 import { currentUser } from '../../lib/auth/guards';
 import { AppError } from '../../lib/errors';
 import { routesFor } from '../../lib/http/routes';
-import { receivePhotos, uploadedFiles } from '../../lib/photo-upload';
+import { photoUploadSteps, uploadedFiles } from '../../lib/photo-upload';
 import type { FileStorage } from '../../lib/storage';
 import { addMilestonePhotos, assertMayUploadMilestonePhotos, readMilestonePhoto } from './milestone-photos';
 import { listMilestones, logMilestone, type MilestoneDeps } from './milestones.service';
@@ -14,26 +15,16 @@ import { listMilestones, logMilestone, type MilestoneDeps } from './milestones.s
 export type MilestonesRouteDeps = MilestoneDeps & { storage?: FileStorage; uploadLimit: RequestHandler };
 
 const jobParams = z.object({ jobId: uuidSchema });
-const milestonePhotoParams = z.object({ jobId: uuidSchema, photoId: uuidSchema, size: z.enum(['thumb', 'large'], { error: 'Ask for thumb or large.' }) });
+const milestonePhotoParams = z.object({ jobId: uuidSchema, photoId: uuidSchema, size: photoSizeSchema });
 
 function photoDeps(deps: MilestonesRouteDeps) {
   if (!deps.storage) throw new AppError('unavailable', 'Photo storage is not set up.', 503);
   return { db: deps.db, storage: deps.storage };
 }
 
-/**
- * Photos go up first (the browser shows each one's progress), then out with a
- * milestone's photoIds. Anyone but the working shop is refused before the
- * upload counts against them or a byte is read.
- */
-const photoUpload = (deps: MilestonesRouteDeps): RequestHandler[] => [
-  async (req, _res, next) => {
-    await assertMayUploadMilestonePhotos(deps.db, currentUser(req), jobParams.parse(req.params).jobId);
-    next();
-  },
-  deps.uploadLimit,
-  receivePhotos(MAX_PHOTOS_PER_MILESTONE),
-];
+/** Photos go up first (the browser shows each one's progress), then out with a milestone's photoIds. */
+const photoUpload = (deps: MilestonesRouteDeps) =>
+  photoUploadSteps((req) => assertMayUploadMilestonePhotos(deps.db, currentUser(req), jobParams.parse(req.params).jobId), deps.uploadLimit, MAX_PHOTOS_PER_MILESTONE);
 
 const route = routesFor<MilestonesRouteDeps>('Work');
 
@@ -46,7 +37,7 @@ export const milestonesRoutes = [
     access: 'shop',
     params: jobParams,
     use: photoUpload,
-    reply: { status: 201, json: uploadedMilestonePhotosSchema, description: 'Stored, waiting for a milestone' },
+    reply: { status: 201, json: uploadedPhotosSchema, description: 'Stored, waiting for a milestone' },
     handler: async ({ deps, req, user, params }) => ({ photos: await addMilestonePhotos(photoDeps(deps), user, params.jobId, uploadedFiles(req)) }),
   }),
   route({

@@ -9,7 +9,7 @@ import {
   type QueryClient,
   type UseMutationOptions,
 } from '@tanstack/react-query';
-import type { HistoryPage, Message, ThreadSummary } from '@shared/schemas/messages';
+import type { HistoryPage, Message, ThreadAnswer, ThreadList, ThreadSummary } from '@shared/schemas/messages';
 import { api, type ApiError } from '@client/lib/api-client';
 import { threadKeys } from '@client/lib/query-keys';
 import { toSearch } from '@client/lib/search-params';
@@ -23,14 +23,14 @@ export const threadQueries = {
   mine: () =>
     queryOptions({
       queryKey: threadKeys.mine(),
-      queryFn: () => api.get<{ threads: ThreadSummary[] }>('/api/threads').then((r) => r.threads),
+      queryFn: () => api.get<ThreadList>('/api/threads').then((r) => r.threads),
       staleTime: 30_000,
     }),
   /** The conversations about one job that the person is part of. */
   forJob: (jobId: string) =>
     queryOptions({
       queryKey: threadKeys.forJob(jobId),
-      queryFn: () => api.get<{ threads: ThreadSummary[] }>(`/api/jobs/${jobId}/threads`).then((r) => r.threads),
+      queryFn: () => api.get<ThreadList>(`/api/jobs/${jobId}/threads`).then((r) => r.threads),
       staleTime: 30_000,
     }),
   /** A conversation's messages, newest page first; each page newest first. Kept current by live events, so not refetched on focus. */
@@ -75,7 +75,7 @@ export function useOpenThread(jobId: string, options?: { mutationConfig?: Config
   const { onSuccess, ...rest } = options?.mutationConfig ?? {};
   return useMutation<ThreadSummary, ApiError, { shopId?: string }>({
     ...rest,
-    mutationFn: ({ shopId }) => api.post<{ thread: ThreadSummary }>(`/api/jobs/${jobId}/threads`, shopId ? { shopId } : {}).then((r) => r.thread),
+    mutationFn: ({ shopId }) => api.post<ThreadAnswer>(`/api/jobs/${jobId}/threads`, shopId ? { shopId } : {}).then((r) => r.thread),
     onSuccess: (thread, ...args) => {
       queryClient.setQueryData<ThreadSummary[]>(threadKeys.forJob(jobId), (list) =>
         list ? [thread, ...list.filter((t) => t.id !== thread.id)] : [thread],

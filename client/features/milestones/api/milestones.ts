@@ -1,5 +1,6 @@
 import { queryOptions, useMutation, useQuery, useQueryClient, type UseMutationOptions } from '@tanstack/react-query';
-import type { Milestone, MilestoneInput } from '@shared/schemas/inspection';
+import type { MilestoneInput } from '@shared/schemas/inspection';
+import type { Milestone, MilestoneAnswer, MilestoneList } from '@shared/schemas/milestones';
 import { api, type ApiError } from '@client/lib/api-client';
 import { jobKeys, milestoneKeys } from '@client/lib/query-keys';
 
@@ -8,7 +9,7 @@ export const milestoneQueries = {
   forJob: (jobId: string) =>
     queryOptions({
       queryKey: milestoneKeys.forJob(jobId),
-      queryFn: () => api.get<{ milestones: Milestone[] }>(`/api/jobs/${jobId}/milestones`).then((r) => r.milestones),
+      queryFn: () => api.get<MilestoneList>(`/api/jobs/${jobId}/milestones`).then((r) => r.milestones),
     }),
 };
 
@@ -22,7 +23,7 @@ export function useLogMilestone(jobId: string, options?: { mutationConfig?: Conf
   const { onSuccess, ...rest } = options?.mutationConfig ?? {};
   return useMutation<Milestone, ApiError, MilestoneInput>({
     ...rest,
-    mutationFn: (input) => api.post<{ milestone: Milestone }>(`/api/jobs/${jobId}/milestones`, input).then((r) => r.milestone),
+    mutationFn: (input) => api.post<MilestoneAnswer>(`/api/jobs/${jobId}/milestones`, input).then((r) => r.milestone),
     onSuccess: (...args) => {
       void queryClient.invalidateQueries({ queryKey: milestoneKeys.forJob(jobId) });
       void queryClient.invalidateQueries({ queryKey: jobKeys.detail(jobId) });

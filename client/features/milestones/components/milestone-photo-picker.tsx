@@ -1,5 +1,6 @@
 import { useEffect, useId, useRef, useState } from 'react';
-import { MAX_PHOTOS_PER_MILESTONE, type MilestonePhoto } from '@shared/schemas/inspection';
+import { MAX_PHOTOS_PER_MILESTONE } from '@shared/schemas/inspection';
+import type { MilestonePhoto } from '@shared/schemas/milestones';
 import { Button } from '@client/components/ui/button';
 import { ApiError } from '@client/lib/api-client';
 import { ACCEPTED_PHOTO_TYPES, MAX_PHOTO_BYTES, uploadMilestonePhoto } from '../api/milestone-photos';
