@@ -10,6 +10,8 @@ import { jobsRoutes } from './modules/jobs/jobs.routes';
 import { paymentsRoutes, paymentsWebhookRoutes } from './modules/payments/payments.routes';
 import { reviewsRoutes } from './modules/reviews/reviews.routes';
 import { openApiRoutes } from './modules/health/openapi.routes';
+import { messagesRoutes } from './modules/messages/messages.routes';
+import { milestonesRoutes } from './modules/milestones/milestones.routes';
 import { shopsRoutes } from './modules/shops/shops.routes';
 
 /**
@@ -26,6 +28,8 @@ export const routeModules = {
   jobs: jobsRoutes,
   bids: bidsRoutes,
   payments: paymentsRoutes,
+  messages: messagesRoutes,
+  milestones: milestonesRoutes,
   inspections: inspectionsRoutes,
   disputes: disputesRoutes,
   reviews: reviewsRoutes,

@@ -1,6 +1,7 @@
 import { useQueryClient } from '@tanstack/react-query';
 import { createContext, createElement, useContext, useEffect, useRef, useState, type ReactNode } from 'react';
 import type { Socket } from 'socket.io-client';
+import type { ClientToServerEvents, ServerToClientEvents } from '@shared/realtime-events';
 import { jobChangeKeys } from './query-keys';
 
 /**
@@ -13,13 +14,13 @@ import { jobChangeKeys } from './query-keys';
 /** connecting: the first attempt; connected; reconnecting: it was up and is trying again; offline: the browser has no network, or the server refused the session. */
 export type ConnectionStatus = 'connecting' | 'connected' | 'reconnecting' | 'offline';
 
-/** What a socket handler answers: `{ ok: true, ... }` or `{ ok: false, error }`. */
-export type SocketAck<T extends object = object> =
-  | ({ ok: true } & T)
-  | { ok: false; error: { code: string; message: string; fields?: Record<string, string> } };
+export type { SocketAck } from '@shared/realtime-events';
+
+/** The browser's socket, typed with the events declared in shared/realtime-events.ts. */
+export type AppSocket = Socket<ServerToClientEvents, ClientToServerEvents>;
 
 interface RealtimeValue {
-  socket: Socket | null;
+  socket: AppSocket | null;
   status: ConnectionStatus;
   /** Whose connection it is; the outgoing message queue is kept per person. */
   userId: string | null;
@@ -36,7 +37,7 @@ export interface RealtimeProviderProps {
 }
 
 export function RealtimeProvider({ userId, onUnauthenticated, children }: RealtimeProviderProps) {
-  const [socket, setSocket] = useState<Socket | null>(null);
+  const [socket, setSocket] = useState<AppSocket | null>(null);
   const [status, setStatus] = useState<ConnectionStatus>('connecting');
   const refused = useRef(onUnauthenticated);
   refused.current = onUnauthenticated;
@@ -48,7 +49,7 @@ export function RealtimeProvider({ userId, onUnauthenticated, children }: Realti
       return;
     }
     // socket.io-client is loaded only once someone is signed in: signed-out pages never need it.
-    let s: Socket | undefined;
+    let s: AppSocket | undefined;
     let cancelled = false;
     let everConnected = false;
     setStatus(navigator.onLine ? 'connecting' : 'offline');
@@ -126,7 +127,7 @@ export function RealtimeProvider({ userId, onUnauthenticated, children }: Realti
 }
 
 /** The live connection, or null when nobody is signed in. */
-export function useSocket(): Socket | null {
+export function useSocket(): AppSocket | null {
   return useContext(RealtimeContext).socket;
 }
 
@@ -140,13 +141,14 @@ export function useRealtimeUserId(): string | null {
 }
 
 /** Listens to a server event for as long as the component is mounted; the handler may change between renders. */
-export function useSocketEvent<T>(event: string, handler: (payload: T) => void) {
+export function useSocketEvent<E extends keyof ServerToClientEvents>(event: E, handler: (payload: Parameters<ServerToClientEvents[E]>[0]) => void) {
   const socket = useSocket();
   const latest = useRef(handler);
   latest.current = handler;
   useEffect(() => {
     if (!socket) return;
-    const listener = (payload: T) => latest.current(payload);
+    // TypeScript cannot resolve socket.io's listener type for an event not yet known; each call names one.
+    const listener = ((payload: Parameters<ServerToClientEvents[E]>[0]) => latest.current(payload)) as Parameters<typeof socket.on<E>>[1];
     socket.on(event, listener);
     return () => {
       socket.off(event, listener);
@@ -160,7 +162,7 @@ export function useSocketEvent<T>(event: string, handler: (payload: T) => void) 
  * before a lost connection must be joined again), `leave` when the key
  * changes or the component unmounts. A null key joins nothing.
  */
-export function useRoom(key: string | null, join: (socket: Socket, key: string) => void, leave: (socket: Socket, key: string) => void) {
+export function useRoom(key: string | null, join: (socket: AppSocket, key: string) => void, leave: (socket: AppSocket, key: string) => void) {
   const socket = useSocket();
   const handlers = useRef({ join, leave });
   handlers.current = { join, leave };
@@ -188,7 +190,7 @@ export function useWatchJob(jobId: string | undefined) {
     (socket, id) => socket.emit('job:watch', { jobId: id }),
     (socket, id) => socket.emit('job:unwatch', { jobId: id }),
   );
-  useSocketEvent<{ jobId: string; change: string }>('job:changed', (event) => {
+  useSocketEvent('job:changed', (event) => {
     if (!jobId || event.jobId !== jobId) return;
     for (const queryKey of jobChangeKeys(jobId)) void queryClient.invalidateQueries({ queryKey });
   });

@@ -1,4 +1,4 @@
-import type { RequestHandler } from 'express';
+import type { Request, RequestHandler } from 'express';
 import multer from 'multer';
 import type { Database } from '../db/client';
 import { AppError } from './errors';
@@ -60,3 +60,19 @@ export function receivePhotos(maxFiles: number): RequestHandler {
 
 /** The files multer kept, or none. */
 export const uploadedFiles = (req: { files?: unknown }): Express.Multer.File[] => (Array.isArray(req.files) ? (req.files as Express.Multer.File[]) : []);
+
+/**
+ * What runs before a photo upload's handler, in order: the route's own check
+ * that this person may upload here (so a refusal neither counts against them
+ * nor reads a byte), the per-person upload limit, then the files themselves.
+ */
+export function photoUploadSteps(mayUpload: (req: Request) => Promise<void>, uploadLimit: RequestHandler, maxFiles: number): RequestHandler[] {
+  return [
+    async (req, _res, next) => {
+      await mayUpload(req);
+      next();
+    },
+    uploadLimit,
+    receivePhotos(maxFiles),
+  ];
+}

@@ -1,5 +1,10 @@
 import type { Server } from 'socket.io';
+import type { ClientToServerEvents, JobChange, ServerToClientEvents } from '../../shared/realtime-events';
 import type { Message } from '../../shared/schemas/messages';
+
+/** The app's socket.io server, typed with the events declared in shared/realtime-events.ts. */
+export type RealtimeServer = Server<ClientToServerEvents, ServerToClientEvents>;
+
 
 /** Room names: one per user, per signed-in session, per job page, per conversation; and every admin's sockets. */
 export const rooms = {
@@ -10,8 +15,6 @@ export const rooms = {
   thread: (id: string) => `thread:${id}`,
 };
 
-export type JobChange = 'bid_placed' | 'bid_revised' | 'bid_withdrawn' | 'bid_accepted' | 'bid_declined' | 'job_updated' | 'job_published' | 'job_cancelled' | 'photos_changed';
-
 /**
  * What the rest of the server tells live clients. The socket server fills in
  * `io` once it is attached; before that (API tests without sockets) every
@@ -19,7 +22,7 @@ export type JobChange = 'bid_placed' | 'bid_revised' | 'bid_withdrawn' | 'bid_ac
  * reaches sockets connected to every instance.
  */
 export class RealtimeHub {
-  io: Server | undefined;
+  io: RealtimeServer | undefined;
 
   jobChanged(jobId: string, change: JobChange) {
     this.io?.to(rooms.job(jobId)).emit('job:changed', { jobId, change });

@@ -3,8 +3,9 @@ import type { RequestHandler } from 'express';
 import type { Server as HttpServer } from 'node:http';
 import type pg from 'pg';
 import type { Logger } from 'pino';
-import { Server, type Socket } from 'socket.io';
+import { Server } from 'socket.io';
 import { z } from 'zod';
+import type { ClientToServerEvents, ServerToClientEvents, SocketAck } from '../../shared/realtime-events';
 import { uuidSchema } from '../../shared/schemas/common';
 import { markReadSchema, sendMessageSchema } from '../../shared/schemas/messages';
 import type { Database } from '../db/client';
@@ -14,7 +15,7 @@ import { AppError, zodFields } from '../lib/errors';
 import { jobForLiveWatcher } from '../modules/jobs/job-access';
 import { markRead, messageRateLimit, sendMessage, threadFor } from '../modules/messages/messages.service';
 import { findUserById, sessionIsLive } from '../modules/users/users.repository';
-import { rooms, type RealtimeHub } from './hub';
+import { rooms, type RealtimeHub, type RealtimeServer } from './hub';
 
 export interface RealtimeOptions {
   server: HttpServer;
@@ -29,9 +30,10 @@ export interface RealtimeOptions {
   messagesPer10s: number;
 }
 
-type Ack = (answer: { ok: true; [key: string]: unknown } | { ok: false; error: { code: string; message: string; fields?: Record<string, string> } }) => void;
+/** What an event's acknowledgement carries besides `ok: true`, as shared/realtime-events.ts declares it. */
+type AckOf<E extends keyof ClientToServerEvents> = Parameters<ClientToServerEvents[E]>[1] extends ((answer: SocketAck<infer T>) => void) | undefined ? T : never;
 
-function failure(error: unknown) {
+function failure(error: unknown): SocketAck {
   if (error instanceof AppError) return { ok: false as const, error: { code: error.code, message: error.message, ...(error.fields ? { fields: error.fields } : {}) } };
   if (error instanceof z.ZodError) return { ok: false as const, error: { code: 'invalid_input', message: 'Some of the values are not valid.', fields: zodFields(error) } };
   return { ok: false as const, error: { code: 'internal', message: 'Something went wrong on our side.' } };
@@ -89,10 +91,10 @@ function adapterPool(pool: pg.Pool): pg.Pool {
   } as unknown as pg.Pool;
 }
 
-export function attachRealtime(options: RealtimeOptions): Server {
+export function attachRealtime(options: RealtimeOptions): RealtimeServer {
   const { db, hub, logger } = options;
   const appOrigin = new URL(options.appUrl).origin;
-  const io = new Server(options.server, {
+  const io = new Server<ClientToServerEvents, ServerToClientEvents>(options.server, {
     path: '/socket.io',
     serveClient: false,
     // Same origin only: the app and the socket share one host.
@@ -131,7 +133,7 @@ export function attachRealtime(options: RealtimeOptions): Server {
   const threadArg = z.object({ threadId: uuidSchema });
   const jobArg = z.object({ jobId: uuidSchema });
 
-  io.on('connection', (socket: Socket) => {
+  io.on('connection', (socket) => {
     const user = socket.data.user as User;
     const sid = (socket.request as unknown as { sessionID: string }).sessionID;
     void socket.join([rooms.user(user.id), rooms.session(sid), ...(user.role === 'admin' ? [rooms.admins] : [])]);
@@ -143,8 +145,9 @@ export function attachRealtime(options: RealtimeOptions): Server {
       throw new AppError('unauthenticated', 'Your session has ended. Sign in again.', 401);
     };
 
-    const handle = <T>(event: string, run: (payload: T) => Promise<Record<string, unknown>>, options: { sessionCheck?: boolean } = {}) => {
-      socket.on(event, async (payload: T, ack?: Ack) => {
+    /** The payload is whatever the client sent: each handler parses it with a schema before use. */
+    const handle = <E extends keyof ClientToServerEvents>(event: E, run: (payload: unknown) => Promise<AckOf<E>>, options: { sessionCheck?: boolean } = {}) => {
+      const listener = async (payload: unknown, ack?: (answer: SocketAck<AckOf<E>>) => void) => {
         try {
           // Like HTTP bodies: nothing deeper than MAX_JSON_DEPTH reaches a schema or the database.
           if (nestsDeeperThan(payload)) throw tooDeep();
@@ -155,7 +158,9 @@ export function attachRealtime(options: RealtimeOptions): Server {
           if (!(error instanceof AppError) && !(error instanceof z.ZodError)) logger.error({ err: error, event }, 'socket handler failed');
           if (typeof ack === 'function') ack(failure(error));
         }
-      });
+      };
+      // TypeScript cannot resolve socket.io's listener type for an event not yet known; each call of handle names one.
+      socket.on(event, listener as Parameters<typeof socket.on<E>>[1]);
     };
 
     handle('thread:join', async (payload) => {

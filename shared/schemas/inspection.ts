@@ -282,31 +282,7 @@ export const milestoneInputSchema = z
   });
 export type MilestoneInput = z.infer<typeof milestoneInputSchema>;
 
-export interface Milestone {
-  id: string;
-  kind: (typeof milestoneKinds)[number];
-  operation: string | null;
-  note: string;
-  carrier: string | null;
-  trackingNumber: string | null;
-  author: { id: string; displayName: string };
-  /** In the order the shop attached them; empty when none. */
-  photos: MilestonePhoto[];
-  createdAt: string;
-}
-
-export interface MilestonePhoto {
-  id: string;
-  width: number;
-  height: number;
-  thumbUrl: string;
-  largeUrl: string;
-}
-
-/** The answer to a milestone photo upload: the stored photos, ready to go with a milestone's photoIds. */
-export interface UploadedMilestonePhotos {
-  photos: MilestonePhoto[];
-}
+// A milestone as the API answers it: shared/schemas/milestones.ts.
 
 /** Used by the form to show live results with the same rules the server applies. */
 export type { BoreSpecInput } from './calculations';

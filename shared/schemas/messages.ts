@@ -1,5 +1,7 @@
 import { z } from 'zod';
+import { roles } from './auth';
 import { uuidSchema } from './common';
+import { storedPhotoSchema, type StoredPhoto, type UploadedPhotos } from './photos';
 
 export const MAX_MESSAGE_LENGTH = 4000;
 
@@ -52,47 +54,59 @@ export const historyQuerySchema = z.object({
 export const openThreadSchema = z.object({ shopId: uuidSchema.optional() });
 export const markReadSchema = z.object({ messageId: uuidSchema });
 
+// --- answers ------------------------------------------------------------------
+
 /** A photo in a conversation, re-encoded as WebP; only people who may read the conversation can load it. */
-export interface MessagePhoto {
-  id: string;
-  width: number;
-  height: number;
-  thumbUrl: string;
-  largeUrl: string;
-}
+export type MessagePhoto = StoredPhoto;
 
 /** The answer to a photo upload: the stored photos, in the order sent, ready to go with a message. */
-export interface UploadedMessagePhotos {
-  photos: MessagePhoto[];
-}
+export type UploadedMessagePhotos = UploadedPhotos;
 
-export interface Message {
-  id: string;
-  threadId: string;
-  clientId: string;
-  author: { id: string; displayName: string; role: 'builder' | 'shop' | 'admin' };
+export const messageSchema = z.object({
+  id: z.uuid(),
+  threadId: z.uuid(),
+  clientId: z.string(),
+  author: z.object({ id: z.uuid(), displayName: z.string(), role: z.enum(roles) }),
   /** May be empty when the message carries photos. */
-  body: string;
+  body: z.string(),
   /** In the order the sender attached them; empty for words only. */
-  photos: MessagePhoto[];
-  createdAt: string;
-}
+  photos: z.array(storedPhotoSchema),
+  createdAt: z.iso.datetime(),
+});
+export type Message = z.infer<typeof messageSchema>;
 
-export interface ThreadSummary {
-  id: string;
-  jobId: string;
-  jobTitle: string;
-  shop: { id: string; name: string };
-  builder: { id: string; displayName: string };
-  lastMessageAt: string | null;
-  unread: number;
-  canWrite: boolean;
+export const threadSummarySchema = z.object({
+  id: z.uuid(),
+  jobId: z.uuid(),
+  jobTitle: z.string(),
+  shop: z.object({ id: z.uuid(), name: z.string() }),
+  builder: z.object({ id: z.uuid(), displayName: z.string() }),
+  lastMessageAt: z.iso.datetime().nullable(),
+  unread: z.number().int(),
+  canWrite: z.boolean(),
   /** Where the other person has read up to, for read receipts. */
-  otherLastReadMessageId: string | null;
-}
+  otherLastReadMessageId: z.uuid().nullable(),
+});
+export type ThreadSummary = z.infer<typeof threadSummarySchema>;
 
-export interface HistoryPage {
-  messages: Message[];
+export const threadListSchema = z.object({ threads: z.array(threadSummarySchema) });
+export type ThreadList = z.infer<typeof threadListSchema>;
+
+export const threadAnswerSchema = z.object({ thread: threadSummarySchema });
+export type ThreadAnswer = z.infer<typeof threadAnswerSchema>;
+
+export const historyPageSchema = z.object({
+  /** Newest first. */
+  messages: z.array(messageSchema),
   /** Pass as `before` for the next, older page; null when there is none. */
-  nextCursor: string | null;
-}
+  nextCursor: z.string().nullable(),
+});
+export type HistoryPage = z.infer<typeof historyPageSchema>;
+
+/** A message sent, over HTTP or the socket: the stored one, and whether its clientId had been sent before. */
+export const sentMessageSchema = z.object({ message: messageSchema, duplicate: z.boolean() });
+export type SentMessage = z.infer<typeof sentMessageSchema>;
+
+/** Where the reader's read receipt now stands. */
+export const markedReadSchema = z.object({ messageId: z.uuid() });
+export type MarkedRead = z.infer<typeof markedReadSchema>;

@@ -30,7 +30,8 @@ import { loadConfig } from '../../server/env';
 import { createLogger } from '../../server/lib/logger';
 import { listRoutes, type ListedRoute } from '../../server/lib/routes-list';
 import { apiRoutes } from '../../server/api-routes';
-import { openApiDocument, routeDocs } from '../../server/openapi';
+import { rolesOf, type Access } from '../../server/lib/http/routes';
+import { openApiDocument } from '../../server/openapi';
 import { createUser, inDays, jobInput, TEST_PASSWORD } from '../factories';
 import { apiOf, jobInState } from '../setup/job-states';
 import { startMoneyApp } from '../setup/money-app';
@@ -553,24 +554,13 @@ interface RequestCase {
   signature?: string;
 }
 
-/** A route's declaration, or its hand-kept entry in server/openapi.ts while its module is not declared yet. */
-const docFor = (route: ListedRoute) =>
-  apiRoutes.find((d) => d.method.toUpperCase() === route.method && d.path === route.path) ??
-  routeDocs.find((d) => d.method.toUpperCase() === route.method && d.path === route.path.replace(/:(\w+)/g, '{$1}'));
+/** A route's declaration. */
+const docFor = (route: ListedRoute) => apiRoutes.find((d) => d.method.toUpperCase() === route.method && d.path === route.path);
 
-function rolesFor(access: string | undefined): Role[] {
-  switch (access) {
-    case 'public':
-      return ['anonymous'];
-    case 'builder':
-    case 'shop':
-    case 'admin':
-      return [access];
-    case 'builder or shop':
-      return ['builder', 'shop'];
-    default:
-      return ['builder', 'shop', 'admin'];
-  }
+/** Callers the route lets through its guard, so the input reaches the schemas and the services. */
+function rolesFor(access: Access | undefined): Role[] {
+  if (access === 'public') return ['anonymous'];
+  return (access && rolesOf(access)) || ['builder', 'shop', 'admin'];
 }
 
 /**

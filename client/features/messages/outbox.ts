@@ -1,4 +1,4 @@
-import type { Message, MessagePhoto } from '@shared/schemas/messages';
+import type { Message, MessagePhoto, SentMessage } from '@shared/schemas/messages';
 import type { SocketAck } from '@client/lib/realtime';
 
 /**
@@ -47,7 +47,7 @@ export interface SendPayload {
   photoIds: string[];
 }
 
-export type SendAnswer = SocketAck<{ message: Message; duplicate: boolean }>;
+export type SendAnswer = SocketAck<SentMessage>;
 
 /** Something that delivers one message and resolves with the server's answer, or rejects when no answer came (connection lost, timed out). */
 export type SendMessage = (payload: SendPayload) => Promise<SendAnswer>;

@@ -193,8 +193,11 @@ export function mountRoutes<D>(router: Router, routes: readonly RouteDef<D>[], d
       const params = route.params ? route.params.parse(req.params) : undefined;
       const query = route.query ? route.query.parse(req.query) : undefined;
       const body = route.body ? route.body.parse(req.body) : undefined;
-      const result = await route.handler({ deps, req, res, user: req.user as Express.User, params, query, body });
       const { reply } = route;
+      // The declared status goes first, so a handler may set another for an answer of the same shape
+      // (503 from the health check; 200 for a message whose clientId was sent before).
+      if ('json' in reply) res.status(successStatus(reply));
+      const result = await route.handler({ deps, req, res, user: req.user as Express.User, params, query, body });
       if ('json' in reply) {
         if (options.check !== 'off') {
           const mismatch = responseMismatch(reply.json, result);
@@ -204,8 +207,7 @@ export function mountRoutes<D>(router: Router, routes: readonly RouteDef<D>[], d
             req.log?.warn(message);
           }
         }
-        // A handler may have set another status for an answer of the same shape (503 from the health check).
-        res.status(res.statusCode === 200 ? successStatus(reply) : res.statusCode).json(result);
+        res.json(result);
       } else if ('empty' in reply) {
         res.status(reply.status).end();
       }

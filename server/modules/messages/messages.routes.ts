@@ -1,86 +1,129 @@
-import { Router, type RequestHandler } from 'express';
+import type { RequestHandler } from 'express';
 import { z } from 'zod';
 import { uuidSchema } from '../../../shared/schemas/common';
+import { photoSizeSchema, uploadedPhotosSchema } from '../../../shared/schemas/photos';
 import {
+  historyPageSchema,
   historyQuerySchema,
+  markedReadSchema,
   markReadSchema,
   MAX_PHOTOS_PER_MESSAGE,
   openThreadSchema,
   sendMessageSchema,
-  type UploadedMessagePhotos,
+  sentMessageSchema,
+  threadAnswerSchema,
+  threadListSchema,
 } from '../../../shared/schemas/messages';
-import type { Database } from '../../db/client';
-import { currentUser, requireRole, requireUser } from '../../lib/auth/guards';
-import { receivePhotos, uploadedFiles } from '../../lib/photo-upload';
-import type { FileStorage } from '../../lib/storage';
-import type { RealtimeHub } from '../../realtime/hub';
-import { addMessagePhotos, assertMaySendPhotos, readMessagePhoto } from './message-photos.service';
-import { history, markRead, messageRateLimit, myThreads, openThread, sendMessage, threadsOfJob } from './messages.service';
+import { currentUser } from '../../lib/auth/guards';
+import { routesFor } from '../../lib/http/routes';
+import { photoUploadSteps, uploadedFiles } from '../../lib/photo-upload';
+import { addMessagePhotos, assertMaySendPhotos, readMessagePhoto, type MessagePhotoDeps } from './message-photos.service';
+import { history, markRead, myThreads, openThread, sendMessage, threadsOfJob, type MessageDeps } from './messages.service';
+
+/** The service's deps (with the message rate limit, built once per app and shared by every route here) and photo storage. */
+export type MessagesRouteDeps = MessageDeps & MessagePhotoDeps & { uploadLimit: RequestHandler };
 
 const jobParams = z.object({ jobId: uuidSchema });
 const threadParams = z.object({ threadId: uuidSchema });
-const photoParams = z.object({ threadId: uuidSchema, photoId: uuidSchema, size: z.enum(['thumb', 'large'], { error: 'Ask for thumb or large.' }) });
+const photoParams = z.object({ threadId: uuidSchema, photoId: uuidSchema, size: photoSizeSchema });
+
+/** Photos go up first (the browser shows each one's progress), then out with a message's photoIds. */
+const photoUpload = (deps: MessagesRouteDeps) =>
+  photoUploadSteps((req) => assertMaySendPhotos(deps.db, currentUser(req), threadParams.parse(req.params).threadId), deps.uploadLimit, MAX_PHOTOS_PER_MESSAGE);
+
+const route = routesFor<MessagesRouteDeps>('Messages');
 
 /** Conversations over plain HTTP: the history, photos for messages, and a way to send and mark read without a socket. */
-export function messagesRouter(deps: { db: Database; hub: RealtimeHub; storage: FileStorage; messagesPer10s: number; uploadLimit: RequestHandler }) {
-  const { db } = deps;
-  const router = Router();
-  const messageDeps = { db, hub: deps.hub, rateLimit: messageRateLimit(db, deps.messagesPer10s) };
-
-  router.get('/threads', requireUser, async (req, res) => {
-    res.json({ threads: await myThreads(db, currentUser(req)) });
-  });
-
-  router.get('/jobs/:jobId/threads', requireUser, async (req, res) => {
-    const { jobId } = jobParams.parse(req.params);
-    res.json({ threads: await threadsOfJob(db, currentUser(req), jobId) });
-  });
-
-  router.post('/jobs/:jobId/threads', requireRole('builder', 'shop'), async (req, res) => {
-    const { jobId } = jobParams.parse(req.params);
-    const { shopId } = openThreadSchema.parse(req.body);
-    const thread = await openThread(db, currentUser(req), jobId, shopId);
-    const [summary] = (await myThreads(db, currentUser(req), jobId)).filter((t) => t.id === thread.id);
-    res.status(201).json({ thread: summary });
-  });
-
-  router.get('/threads/:threadId/messages', requireUser, async (req, res) => {
-    const { threadId } = threadParams.parse(req.params);
-    const { before, limit } = historyQuerySchema.parse(req.query);
-    res.json(await history(db, currentUser(req), threadId, before, limit));
-  });
-
-  router.post('/threads/:threadId/messages', requireRole('builder', 'shop'), async (req, res) => {
-    const { threadId } = threadParams.parse(req.params);
-    const input = sendMessageSchema.parse(req.body);
-    const onTooFast = (seconds: number) => res.setHeader('Retry-After', String(seconds));
-    const { message, duplicate } = await sendMessage(messageDeps, currentUser(req), threadId, input, { onTooFast });
-    res.status(duplicate ? 200 : 201).json({ message, duplicate });
-  });
-
-  // Photos go up first (the browser shows each one's progress), then out with a message's photoIds.
-  const mayUpload: RequestHandler = async (req, _res, next) => {
-    await assertMaySendPhotos(db, currentUser(req), threadParams.parse(req.params).threadId);
-    next();
-  };
-  router.post('/threads/:threadId/photos', requireRole('builder', 'shop'), mayUpload, deps.uploadLimit, receivePhotos(MAX_PHOTOS_PER_MESSAGE), async (req, res) => {
-    const { threadId } = threadParams.parse(req.params);
-    const photos = await addMessagePhotos(deps, currentUser(req), threadId, uploadedFiles(req));
-    res.status(201).json({ photos } satisfies UploadedMessagePhotos);
-  });
-
-  router.get('/threads/:threadId/photos/:photoId/:size', requireUser, async (req, res) => {
-    const { threadId, photoId, size } = photoParams.parse(req.params);
-    const data = await readMessagePhoto(deps, currentUser(req), threadId, photoId, size);
-    res.set({ 'Content-Type': 'image/webp', 'Cache-Control': 'private, max-age=3600', 'X-Content-Type-Options': 'nosniff' }).send(data);
-  });
-
-  router.post('/threads/:threadId/read', requireUser, async (req, res) => {
-    const { threadId } = threadParams.parse(req.params);
-    const { messageId } = markReadSchema.parse(req.body);
-    await markRead(messageDeps, currentUser(req), threadId, messageId);
-    res.json({ messageId });
-  });
-
-  return router;
-}
+export const messagesRoutes = [
+  route({
+    method: 'get',
+    path: '/api/threads',
+    summary: 'The signed-in person’s conversations with unread counts',
+    access: 'signed-in',
+    reply: { json: threadListSchema },
+    handler: async ({ deps, user }) => ({ threads: await myThreads(deps.db, user) }),
+  }),
+  route({
+    method: 'get',
+    path: '/api/jobs/:jobId/threads',
+    summary: 'A job’s conversations the person may read',
+    access: 'signed-in',
+    params: jobParams,
+    reply: { json: threadListSchema },
+    handler: async ({ deps, user, params }) => ({ threads: await threadsOfJob(deps.db, user, params.jobId) }),
+  }),
+  route({
+    method: 'post',
+    path: '/api/jobs/:jobId/threads',
+    summary: 'Open (or find) the conversation between the job’s builder and a shop',
+    access: 'builder or shop',
+    params: jobParams,
+    body: openThreadSchema,
+    reply: { status: 201, json: threadAnswerSchema, description: 'The conversation' },
+    handler: async ({ deps: { db }, user, params, body }) => {
+      const thread = await openThread(db, user, params.jobId, body.shopId);
+      const [summary] = (await myThreads(db, user, params.jobId)).filter((t) => t.id === thread.id);
+      return { thread: summary };
+    },
+  }),
+  route({
+    method: 'get',
+    path: '/api/threads/:threadId/messages',
+    summary: 'Message history, newest first, paged by cursor',
+    access: 'signed-in',
+    params: threadParams,
+    query: historyQuerySchema,
+    reply: { json: historyPageSchema },
+    handler: ({ deps, user, params, query }) => history(deps.db, user, params.threadId, query.before, query.limit),
+  }),
+  route({
+    method: 'post',
+    path: '/api/threads/:threadId/messages',
+    summary: 'Send a message: words, up to 4 uploaded photos (photoIds), or both; a repeated clientId returns the stored one; live clients use the socket',
+    access: 'builder or shop',
+    params: threadParams,
+    body: sendMessageSchema,
+    reply: { status: 201, json: sentMessageSchema, description: 'Stored and delivered (200 with duplicate true: the message its clientId stored before)' },
+    handler: async ({ deps, res, user, params, body }) => {
+      const onTooFast = (seconds: number) => res.setHeader('Retry-After', String(seconds));
+      const { message, duplicate } = await sendMessage(deps, user, params.threadId, body, { onTooFast });
+      if (duplicate) res.status(200);
+      return { message, duplicate };
+    },
+  }),
+  route({
+    method: 'post',
+    path: '/api/threads/:threadId/photos',
+    summary: 'Upload photos for a message (multipart field "photos"; JPEG, PNG or WebP; 15 MB each; 4 at a time); send their ids as the message’s photoIds',
+    access: 'builder or shop',
+    params: threadParams,
+    use: photoUpload,
+    reply: { status: 201, json: uploadedPhotosSchema, description: 'Stored, waiting for a message' },
+    handler: async ({ deps, req, user, params }) => ({ photos: await addMessagePhotos(deps, user, params.threadId, uploadedFiles(req)) }),
+  }),
+  route({
+    method: 'get',
+    path: '/api/threads/:threadId/photos/:photoId/:size',
+    summary: 'A photo in a conversation, re-encoded as WebP (before it is sent, only for its uploader)',
+    access: 'signed-in',
+    params: photoParams,
+    reply: { file: 'image/webp', description: 'The photo as WebP' },
+    handler: async ({ deps, res, user, params }) => {
+      const data = await readMessagePhoto(deps, user, params.threadId, params.photoId, params.size);
+      res.set({ 'Content-Type': 'image/webp', 'Cache-Control': 'private, max-age=3600', 'X-Content-Type-Options': 'nosniff' }).send(data);
+    },
+  }),
+  route({
+    method: 'post',
+    path: '/api/threads/:threadId/read',
+    summary: 'Mark the conversation read up to a message',
+    access: 'signed-in',
+    params: threadParams,
+    body: markReadSchema,
+    reply: { json: markedReadSchema },
+    handler: async ({ deps, user, params, body }) => {
+      await markRead(deps, user, params.threadId, body.messageId);
+      return { messageId: body.messageId };
+    },
+  }),
+];

@@ -1,5 +1,5 @@
 import { and, asc, eq, inArray, isNull } from 'drizzle-orm';
-import type { MilestonePhoto } from '../../../shared/schemas/inspection';
+import type { MilestonePhoto } from '../../../shared/schemas/milestones';
 import type { Database, Executor } from '../../db/client';
 import { milestonePhotos, type User } from '../../db/schema';
 import { AppError, notFound } from '../../lib/errors';

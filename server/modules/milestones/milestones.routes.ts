@@ -1,51 +1,74 @@
-import { Router, type RequestHandler } from 'express';
+import type { RequestHandler } from 'express';
 import { z } from 'zod';
 import { uuidSchema } from '../../../shared/schemas/common';
-import { MAX_PHOTOS_PER_MILESTONE, milestoneInputSchema, type UploadedMilestonePhotos } from '../../../shared/schemas/inspection';
-import { currentUser, requireRole, requireUser } from '../../lib/auth/guards';
+import { MAX_PHOTOS_PER_MILESTONE, milestoneInputSchema } from '../../../shared/schemas/inspection';
+import { milestoneAnswerSchema, milestoneListSchema } from '../../../shared/schemas/milestones';
+import { photoSizeSchema, uploadedPhotosSchema } from '../../../shared/schemas/photos';
+import { currentUser } from '../../lib/auth/guards';
 import { AppError } from '../../lib/errors';
-import { receivePhotos, uploadedFiles } from '../../lib/photo-upload';
+import { routesFor } from '../../lib/http/routes';
+import { photoUploadSteps, uploadedFiles } from '../../lib/photo-upload';
 import type { FileStorage } from '../../lib/storage';
 import { addMilestonePhotos, assertMayUploadMilestonePhotos, readMilestonePhoto } from './milestone-photos';
 import { listMilestones, logMilestone, type MilestoneDeps } from './milestones.service';
 
+export type MilestonesRouteDeps = MilestoneDeps & { storage?: FileStorage; uploadLimit: RequestHandler };
+
 const jobParams = z.object({ jobId: uuidSchema });
-const milestonePhotoParams = z.object({ jobId: uuidSchema, photoId: uuidSchema, size: z.enum(['thumb', 'large'], { error: 'Ask for thumb or large.' }) });
+const milestonePhotoParams = z.object({ jobId: uuidSchema, photoId: uuidSchema, size: photoSizeSchema });
+
+function photoDeps(deps: MilestonesRouteDeps) {
+  if (!deps.storage) throw new AppError('unavailable', 'Photo storage is not set up.', 503);
+  return { db: deps.db, storage: deps.storage };
+}
+
+/** Photos go up first (the browser shows each one's progress), then out with a milestone's photoIds. */
+const photoUpload = (deps: MilestonesRouteDeps) =>
+  photoUploadSteps((req) => assertMayUploadMilestonePhotos(deps.db, currentUser(req), jobParams.parse(req.params).jobId), deps.uploadLimit, MAX_PHOTOS_PER_MILESTONE);
+
+const route = routesFor<MilestonesRouteDeps>('Work');
 
 /** Milestones: the shop's log of progress on the job, with photos. */
-export function milestonesRouter(deps: MilestoneDeps & { storage?: FileStorage; uploadLimit: RequestHandler }) {
-  const router = Router();
-  const storage = (): FileStorage => {
-    if (!deps.storage) throw new AppError('unavailable', 'Photo storage is not set up.', 503);
-    return deps.storage;
-  };
-
-  // Photos go up first (the browser shows each one's progress), then out with a milestone's photoIds.
-  const mayUpload: RequestHandler = async (req, _res, next) => {
-    await assertMayUploadMilestonePhotos(deps.db, currentUser(req), jobParams.parse(req.params).jobId);
-    next();
-  };
-  router.post('/jobs/:jobId/milestone-photos', requireRole('shop'), mayUpload, deps.uploadLimit, receivePhotos(MAX_PHOTOS_PER_MILESTONE), async (req, res) => {
-    const { jobId } = jobParams.parse(req.params);
-    const photos = await addMilestonePhotos({ db: deps.db, storage: storage() }, currentUser(req), jobId, uploadedFiles(req));
-    res.status(201).json({ photos } satisfies UploadedMilestonePhotos);
-  });
-
-  router.get('/jobs/:jobId/milestone-photos/:photoId/:size', requireUser, async (req, res) => {
-    const { jobId, photoId, size } = milestonePhotoParams.parse(req.params);
-    const data = await readMilestonePhoto({ db: deps.db, storage: storage() }, currentUser(req), jobId, photoId, size);
-    res.set({ 'Content-Type': 'image/webp', 'Cache-Control': 'private, max-age=3600', 'X-Content-Type-Options': 'nosniff' }).send(data);
-  });
-
-  router.get('/jobs/:jobId/milestones', requireUser, async (req, res) => {
-    const { jobId } = jobParams.parse(req.params);
-    res.json({ milestones: await listMilestones(deps.db, currentUser(req), jobId) });
-  });
-
-  router.post('/jobs/:jobId/milestones', requireRole('shop'), async (req, res) => {
-    const { jobId } = jobParams.parse(req.params);
-    res.status(201).json({ milestone: await logMilestone(deps, currentUser(req), jobId, milestoneInputSchema.parse(req.body)) });
-  });
-
-  return router;
-}
+export const milestonesRoutes = [
+  route({
+    method: 'post',
+    path: '/api/jobs/:jobId/milestone-photos',
+    summary: 'The working shop uploads photos for a milestone (multipart field "photos"; JPEG, PNG or WebP; 15 MB each; 4 at a time); send their ids as the milestone’s photoIds',
+    access: 'shop',
+    params: jobParams,
+    use: photoUpload,
+    reply: { status: 201, json: uploadedPhotosSchema, description: 'Stored, waiting for a milestone' },
+    handler: async ({ deps, req, user, params }) => ({ photos: await addMilestonePhotos(photoDeps(deps), user, params.jobId, uploadedFiles(req)) }),
+  }),
+  route({
+    method: 'get',
+    path: '/api/jobs/:jobId/milestone-photos/:photoId/:size',
+    summary: 'A milestone photo, re-encoded as WebP (before it is attached, only for its uploader)',
+    access: 'signed-in',
+    params: milestonePhotoParams,
+    reply: { file: 'image/webp', description: 'The photo as WebP' },
+    handler: async ({ deps, res, user, params }) => {
+      const data = await readMilestonePhoto(photoDeps(deps), user, params.jobId, params.photoId, params.size);
+      res.set({ 'Content-Type': 'image/webp', 'Cache-Control': 'private, max-age=3600', 'X-Content-Type-Options': 'nosniff' }).send(data);
+    },
+  }),
+  route({
+    method: 'get',
+    path: '/api/jobs/:jobId/milestones',
+    summary: 'The job’s progress timeline',
+    access: 'signed-in',
+    params: jobParams,
+    reply: { json: milestoneListSchema },
+    handler: async ({ deps, user, params }) => ({ milestones: await listMilestones(deps.db, user, params.jobId) }),
+  }),
+  route({
+    method: 'post',
+    path: '/api/jobs/:jobId/milestones',
+    summary: 'The working shop logs progress (block received starts the work)',
+    access: 'shop',
+    params: jobParams,
+    body: milestoneInputSchema,
+    reply: { status: 201, json: milestoneAnswerSchema, description: 'Logged' },
+    handler: async ({ deps, user, params, body }) => ({ milestone: await logMilestone(deps, user, params.jobId, body) }),
+  }),
+];

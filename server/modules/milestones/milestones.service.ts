@@ -1,5 +1,6 @@
 import { asc, eq } from 'drizzle-orm';
-import type { Milestone, MilestoneInput } from '../../../shared/schemas/inspection';
+import type { MilestoneInput } from '../../../shared/schemas/inspection';
+import type { Milestone } from '../../../shared/schemas/milestones';
 import type { Database } from '../../db/client';
 import { jobs, milestones, users, type User } from '../../db/schema';
 import { AppError, conflict } from '../../lib/errors';

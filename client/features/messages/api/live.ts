@@ -1,9 +1,8 @@
 import { useQueryClient } from '@tanstack/react-query';
 import { useEffect, useMemo, useSyncExternalStore } from 'react';
-import type { Message } from '@shared/schemas/messages';
 import { threadKeys } from '@client/lib/query-keys';
 import { useRealtimeUserId, useSocket, useSocketEvent } from '@client/lib/realtime';
-import { outboxFor, outboxStorageKey, type Outbox, type OutboxEntry, type SendAnswer, type SendPayload } from '../outbox';
+import { outboxFor, outboxStorageKey, type Outbox, type OutboxEntry, type SendPayload } from '../outbox';
 import { addMessageToCache, setOtherRead } from './threads';
 
 /** How long to wait for the server to acknowledge a message before sending it again (same id). */
@@ -40,7 +39,7 @@ export function useMessagesLive() {
   useEffect(() => {
     if (!socket || !outbox || !userId) return;
     const send = (payload: SendPayload) =>
-      socket.timeout(SEND_TIMEOUT_MS).emitWithAck('message:send', payload) as Promise<SendAnswer>;
+      socket.timeout(SEND_TIMEOUT_MS).emitWithAck('message:send', payload);
     let connectedBefore = socket.connected;
     const up = () => {
       outbox.setSender(send);
@@ -74,19 +73,19 @@ export function useMessagesLive() {
     };
   }, [socket, outbox, userId, queryClient]);
 
-  useSocketEvent<Message>('message:new', (message) => {
+  useSocketEvent('message:new', (message) => {
     addMessageToCache(queryClient, message);
     // Our own message, back through the room before the answer came: it is stored, stop sending it.
     if (message.author.id === userId) outbox?.confirm(message);
     void queryClient.invalidateQueries({ queryKey: threadKeys.lists() });
   });
 
-  useSocketEvent<{ threadId: string }>('unread:changed', ({ threadId }) => {
+  useSocketEvent('unread:changed', ({ threadId }) => {
     void queryClient.invalidateQueries({ queryKey: threadKeys.lists() });
     void queryClient.invalidateQueries({ queryKey: threadKeys.latest(threadId) });
   });
 
-  useSocketEvent<{ threadId: string; userId: string; messageId: string }>('read', (event) => {
+  useSocketEvent('read', (event) => {
     if (event.userId !== userId) setOtherRead(queryClient, event.threadId, event.messageId);
   });
 }

@@ -1,5 +1,5 @@
 import { infiniteQueryOptions, queryOptions, useInfiniteQuery, useQuery, type InfiniteData, type QueryClient } from '@tanstack/react-query';
-import type { HistoryPage, Message, ThreadSummary } from '@shared/schemas/messages';
+import type { HistoryPage, Message, ThreadAnswer, ThreadList, ThreadSummary } from '@shared/schemas/messages';
 import { api } from '@client/lib/api-client';
 import { type MutationOptions, useApiMutation } from '@client/lib/mutation';
 import { threadKeys } from '@client/lib/query-keys';
@@ -14,14 +14,14 @@ export const threadQueries = {
   mine: () =>
     queryOptions({
       queryKey: threadKeys.mine(),
-      queryFn: () => api.get<{ threads: ThreadSummary[] }>('/api/threads').then((r) => r.threads),
+      queryFn: () => api.get<ThreadList>('/api/threads').then((r) => r.threads),
       staleTime: 30_000,
     }),
   /** The conversations about one job that the person is part of. */
   forJob: (jobId: string) =>
     queryOptions({
       queryKey: threadKeys.forJob(jobId),
-      queryFn: () => api.get<{ threads: ThreadSummary[] }>(`/api/jobs/${jobId}/threads`).then((r) => r.threads),
+      queryFn: () => api.get<ThreadList>(`/api/jobs/${jobId}/threads`).then((r) => r.threads),
       staleTime: 30_000,
     }),
   /** A conversation's messages, newest page first; each page newest first. Kept current by live events, so not refetched on focus. */
@@ -61,7 +61,7 @@ export function useUnreadTotal(options?: { enabled?: boolean }): number {
  */
 export const useOpenThread = (jobId: string, options?: MutationOptions<ThreadSummary, { shopId?: string }>) =>
   useApiMutation(
-    ({ shopId }: { shopId?: string }) => api.post<{ thread: ThreadSummary }>(`/api/jobs/${jobId}/threads`, shopId ? { shopId } : {}).then((r) => r.thread),
+    ({ shopId }: { shopId?: string }) => api.post<ThreadAnswer>(`/api/jobs/${jobId}/threads`, shopId ? { shopId } : {}).then((r) => r.thread),
     {
       update: (queryClient, thread) =>
         queryClient.setQueryData<ThreadSummary[]>(threadKeys.forJob(jobId), (list) => (list ? [thread, ...list.filter((t) => t.id !== thread.id)] : [thread])),

@@ -184,7 +184,7 @@ export function ConversationView({ thread, side, jobStatus, focusComposer = fals
   // ---- typing, both ways ----
   const [typing, setTyping] = useState<{ userId: string; name: string } | null>(null);
   const typingTimer = useRef<ReturnType<typeof setTimeout> | undefined>(undefined);
-  useSocketEvent<{ threadId: string; userId: string; displayName: string }>('typing', (event) => {
+  useSocketEvent('typing', (event) => {
     if (event.threadId !== thread.id || event.userId === me) return;
     setTyping({ userId: event.userId, name: event.displayName });
     clearTimeout(typingTimer.current);

@@ -1,4 +1,4 @@
-import type { MilestonePhoto, UploadedMilestonePhotos } from '@shared/schemas/inspection';
+import type { MilestonePhoto, UploadedMilestonePhotos } from '@shared/schemas/milestones';
 import { uploadWithProgress } from '@client/lib/upload';
 
 /** The server's limits (server/lib/photo-upload.ts, server/lib/images.ts): checked here first so nobody waits for a refusal. */

@@ -1,5 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { Milestone, MilestoneInput } from '@shared/schemas/inspection';
+import type { MilestoneInput } from '@shared/schemas/inspection';
+import type { Milestone, MilestoneAnswer, MilestoneList } from '@shared/schemas/milestones';
 import { api } from '@client/lib/api-client';
 import { type MutationOptions, useApiMutation } from '@client/lib/mutation';
 import { jobChangeKeys, milestoneKeys } from '@client/lib/query-keys';
@@ -9,7 +10,7 @@ export const milestoneQueries = {
   forJob: (jobId: string) =>
     queryOptions({
       queryKey: milestoneKeys.forJob(jobId),
-      queryFn: () => api.get<{ milestones: Milestone[] }>(`/api/jobs/${jobId}/milestones`).then((r) => r.milestones),
+      queryFn: () => api.get<MilestoneList>(`/api/jobs/${jobId}/milestones`).then((r) => r.milestones),
     }),
 };
 
@@ -18,7 +19,7 @@ export const useMilestones = (jobId: string, options: { enabled?: boolean } = {}
 /** The awarded shop logs progress; "block received" also moves the job into the shop's hands, so the job refreshes too. */
 export const useLogMilestone = (jobId: string, options?: MutationOptions<Milestone, MilestoneInput>) =>
   useApiMutation(
-    (input: MilestoneInput) => api.post<{ milestone: Milestone }>(`/api/jobs/${jobId}/milestones`, input).then((r) => r.milestone),
+    (input: MilestoneInput) => api.post<MilestoneAnswer>(`/api/jobs/${jobId}/milestones`, input).then((r) => r.milestone),
     { refreshes: () => jobChangeKeys(jobId) },
     options?.mutationConfig,
   );

@@ -1,5 +1,6 @@
 import { useEffect, useId, useRef, useState } from 'react';
-import { MAX_PHOTOS_PER_MILESTONE, type MilestonePhoto } from '@shared/schemas/inspection';
+import { MAX_PHOTOS_PER_MILESTONE } from '@shared/schemas/inspection';
+import type { MilestonePhoto } from '@shared/schemas/milestones';
 import { Button } from '@client/components/ui/button';
 import { PendingPhotoTile, type PendingUpload, megabytes } from '@client/components/ui/pending-photo-tile';
 import { ApiError } from '@client/lib/api-client';

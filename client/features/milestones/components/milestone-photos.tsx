@@ -1,4 +1,4 @@
-import type { MilestonePhoto } from '@shared/schemas/inspection';
+import type { MilestonePhoto } from '@shared/schemas/milestones';
 import { PhotoThumbnails } from '@client/components/ui/photo-thumbnails';
 
 /** A milestone's photos as thumbnails; each opens full size. */

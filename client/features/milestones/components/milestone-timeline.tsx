@@ -1,4 +1,4 @@
-import type { Milestone } from '@shared/schemas/inspection';
+import type { Milestone } from '@shared/schemas/milestones';
 import { MilestonePhotos } from './milestone-photos';
 import { formatWhen, milestoneTitle } from './milestone-words';
 

@@ -1,5 +1,5 @@
 import { findOperation } from '@shared/catalogue';
-import type { Milestone } from '@shared/schemas/inspection';
+import type { Milestone } from '@shared/schemas/milestones';
 
 type Kind = Milestone['kind'];
 
