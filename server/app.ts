@@ -84,7 +84,14 @@ export function createApp(deps: AppDeps) {
     }),
   );
 
-  const mount = <D>(routes: readonly RouteDef<D>[], routeDeps: D) => mountRoutes(app, routes, routeDeps, { check: config.responseCheck });
+  // Every route whose declaration needs it gets this check first (server/lib/http/routes.ts); a route declared
+  // `csrf: false` (the calculations, which change nothing stored and use no session; the signed webhook) does not.
+  const { csrfSynchronisedProtection, generateToken } = csrfSync({
+    getTokenFromRequest: (req) => req.get('x-csrf-token'),
+    errorConfig: { statusCode: 403, code: 'EBADCSRFTOKEN', message: 'invalid csrf token' },
+  });
+  const mount = <D>(routes: readonly RouteDef<D>[], routeDeps: D) =>
+    mountRoutes(app, routes, routeDeps, { check: config.responseCheck, csrf: csrfSynchronisedProtection });
   mount(routeModules.health, { pool });
 
   // The payment webhook reads its raw body and proves itself by signature: before the JSON parser, sessions and CSRF.
@@ -117,13 +124,6 @@ export function createApp(deps: AppDeps) {
   app.use(/^\/api\/jobs\/[^/]+\/inspection(\/draft)?$/, jsonBody({ limit: '8mb' }));
   app.use('/api', jsonBody({ limit: '200kb' }));
 
-  const { csrfSynchronisedProtection, generateToken } = csrfSync({
-    getTokenFromRequest: (req) => req.get('x-csrf-token'),
-    // Calculations change nothing stored and use no session: scripts may call them without a token.
-    skipCsrfProtection: (req) => req.originalUrl.startsWith('/api/calculations/'),
-    errorConfig: { statusCode: 403, code: 'EBADCSRFTOKEN', message: 'invalid csrf token' },
-  });
-  app.use('/api', csrfSynchronisedProtection);
 
   mount(routeModules.auth, {
     db,

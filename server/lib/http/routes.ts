@@ -149,6 +149,12 @@ export type ResponseCheck = 'off' | 'log' | 'strict';
 
 export interface MountOptions {
   check: ResponseCheck;
+  /**
+   * The CSRF check, run first on every route that needs it (`needsCsrf`). A
+   * route list with such a route cannot be mounted without one, so a
+   * state-changing route never goes unguarded by accident.
+   */
+  csrf?: RequestHandler;
 }
 
 function accessGuard(access: Access): RequestHandler[] {
@@ -189,7 +195,9 @@ export function mountRoutes<D>(router: Router, routes: readonly RouteDef<D>[], d
       if (!middleware.has(route.use)) middleware.set(route.use, route.use(deps));
       extra = middleware.get(route.use) ?? [];
     }
-    router[route.method](route.path, ...accessGuard(route.access), ...extra, async (req: Request, res: Response) => {
+    if (needsCsrf(route) && !options.csrf) throw new Error(`${route.method.toUpperCase()} ${route.path} needs the CSRF check, and none was given to mount it with.`);
+    const csrf = needsCsrf(route) && options.csrf ? [options.csrf] : [];
+    router[route.method](route.path, ...csrf, ...accessGuard(route.access), ...extra, async (req: Request, res: Response) => {
       const params = route.params ? route.params.parse(req.params) : undefined;
       const query = route.query ? route.query.parse(req.query) : undefined;
       const body = route.body ? route.body.parse(req.body) : undefined;
