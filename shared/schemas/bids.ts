@@ -77,3 +77,5 @@ export type ShopBid = z.infer<typeof shopBidSchema>;
 
 export const bidListAnswerSchema = z.object({ bids: z.array(bidSchema) });
 export const shopBidListAnswerSchema = z.object({ bids: z.array(shopBidSchema) });
+export type BidListAnswer = z.infer<typeof bidListAnswerSchema>;
+export type ShopBidListAnswer = z.infer<typeof shopBidListAnswerSchema>;

@@ -220,4 +220,6 @@ export type BoardPage = z.infer<typeof boardPageSchema>;
 
 export const jobAnswerSchema = z.object({ job: jobDetailSchema });
 export const jobListAnswerSchema = z.object({ jobs: z.array(jobSummarySchema) });
+export type JobAnswer = z.infer<typeof jobAnswerSchema>;
+export type JobListAnswer = z.infer<typeof jobListAnswerSchema>;
 export const jobPhotosAnswerSchema = z.object({ photos: z.array(jobPhotoSchema) });

@@ -85,3 +85,5 @@ export type ShopDirectoryPage = z.infer<typeof shopDirectoryPageSchema>;
 
 export const shopAnswerSchema = z.object({ shop: publicShopSchema });
 export const ownShopAnswerSchema = z.object({ shop: ownShopSchema });
+export type ShopAnswer = z.infer<typeof shopAnswerSchema>;
+export type OwnShopAnswer = z.infer<typeof ownShopAnswerSchema>;

@@ -1,5 +1,5 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { Bid, BidInput, BidWithHistory, ShopBid } from '@shared/schemas/bids';
+import type { BidInput, BidListAnswer, BidWithHistory, ShopBid, ShopBidListAnswer } from '@shared/schemas/bids';
 import { api } from '@client/lib/api-client';
 import { type MutationConfig, useApiMutation } from '@client/lib/mutation';
 import { bidKeys, jobChangeKeys } from '@client/lib/query-keys';
@@ -7,8 +7,8 @@ import { bidKeys, jobChangeKeys } from '@client/lib/query-keys';
 export type { BidWithHistory, ShopBid as MyBid };
 
 export const bidQueries = {
-  forJob: (jobId: string) => queryOptions({ queryKey: bidKeys.forJob(jobId), queryFn: () => api.get<{ bids: Bid[] }>(`/api/jobs/${jobId}/bids`).then((r) => r.bids) }),
-  mine: () => queryOptions({ queryKey: bidKeys.mine(), queryFn: () => api.get<{ bids: ShopBid[] }>('/api/bids/mine').then((r) => r.bids) }),
+  forJob: (jobId: string) => queryOptions({ queryKey: bidKeys.forJob(jobId), queryFn: () => api.get<BidListAnswer>(`/api/jobs/${jobId}/bids`).then((r) => r.bids) }),
+  mine: () => queryOptions({ queryKey: bidKeys.mine(), queryFn: () => api.get<ShopBidListAnswer>('/api/bids/mine').then((r) => r.bids) }),
   detail: (id: string) => queryOptions({ queryKey: bidKeys.detail(id), queryFn: () => api.get<BidWithHistory>(`/api/bids/${id}`) }),
 };
 

@@ -1,5 +1,5 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
-import type { BoardPage, JobDetail, JobInput, JobPhoto, JobStatus, JobSummary } from '@shared/schemas/jobs';
+import type { BoardPage, JobAnswer, JobDetail, JobInput, JobListAnswer, JobPhoto, JobStatus } from '@shared/schemas/jobs';
 import { api } from '@client/lib/api-client';
 import { type MutationConfig, type MutationOptions, useApiMutation } from '@client/lib/mutation';
 import { type BoardFilters, jobChangeKeys, jobKeys } from '@client/lib/query-keys';
@@ -9,8 +9,8 @@ export const jobQueries = {
   board: (filters: BoardFilters) =>
     queryOptions({ queryKey: jobKeys.board(filters), queryFn: () => api.get<BoardPage>(`/api/jobs${toSearch(filters)}`), placeholderData: keepPreviousData }),
   mine: (status?: JobStatus) =>
-    queryOptions({ queryKey: jobKeys.mine(status), queryFn: () => api.get<{ jobs: JobSummary[] }>(`/api/jobs/mine${toSearch({ status })}`).then((r) => r.jobs) }),
-  detail: (id: string) => queryOptions({ queryKey: jobKeys.detail(id), queryFn: () => api.get<{ job: JobDetail }>(`/api/jobs/${id}`).then((r) => r.job) }),
+    queryOptions({ queryKey: jobKeys.mine(status), queryFn: () => api.get<JobListAnswer>(`/api/jobs/mine${toSearch({ status })}`).then((r) => r.jobs) }),
+  detail: (id: string) => queryOptions({ queryKey: jobKeys.detail(id), queryFn: () => api.get<JobAnswer>(`/api/jobs/${id}`).then((r) => r.job) }),
 };
 
 export const useBoard = (filters: BoardFilters) => useQuery(jobQueries.board(filters));
@@ -22,16 +22,16 @@ const useJobMutation = <TVars>(run: (vars: TVars) => Promise<JobDetail>, config?
   useApiMutation(run, { update: (queryClient, job) => queryClient.setQueryData(jobKeys.detail(job.id), job), refreshes: (job) => jobChangeKeys(job.id) }, config);
 
 export const useCreateJob = (options?: MutationOptions<JobDetail, JobInput>) =>
-  useJobMutation((input: JobInput) => api.post<{ job: JobDetail }>('/api/jobs', input).then((r) => r.job), options?.mutationConfig);
+  useJobMutation((input: JobInput) => api.post<JobAnswer>('/api/jobs', input).then((r) => r.job), options?.mutationConfig);
 
 export const useUpdateJob = (options?: MutationOptions<JobDetail, { id: string; input: JobInput }>) =>
-  useJobMutation(({ id, input }: { id: string; input: JobInput }) => api.put<{ job: JobDetail }>(`/api/jobs/${id}`, input).then((r) => r.job), options?.mutationConfig);
+  useJobMutation(({ id, input }: { id: string; input: JobInput }) => api.put<JobAnswer>(`/api/jobs/${id}`, input).then((r) => r.job), options?.mutationConfig);
 
 export const usePublishJob = (options?: MutationOptions<JobDetail, string>) =>
-  useJobMutation((id: string) => api.post<{ job: JobDetail }>(`/api/jobs/${id}/publish`).then((r) => r.job), options?.mutationConfig);
+  useJobMutation((id: string) => api.post<JobAnswer>(`/api/jobs/${id}/publish`).then((r) => r.job), options?.mutationConfig);
 
 export const useCancelJob = (options?: MutationOptions<JobDetail, string>) =>
-  useJobMutation((id: string) => api.post<{ job: JobDetail }>(`/api/jobs/${id}/cancel`).then((r) => r.job), options?.mutationConfig);
+  useJobMutation((id: string) => api.post<JobAnswer>(`/api/jobs/${id}/cancel`).then((r) => r.job), options?.mutationConfig);
 
 export const useRemovePhoto = (jobId: string, options?: MutationOptions<void, string>) =>
   useApiMutation((photoId: string) => api.delete<void>(`/api/jobs/${jobId}/photos/${photoId}`), { refreshes: () => [jobKeys.detail(jobId)] }, options?.mutationConfig);

@@ -1,5 +1,5 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
-import type { OwnShop, PublicShop, ShopDirectoryPage, ShopProfileInput } from '@shared/schemas/shops';
+import type { OwnShop, OwnShopAnswer, ShopAnswer, ShopDirectoryPage, ShopProfileInput } from '@shared/schemas/shops';
 import { ApiError, api } from '@client/lib/api-client';
 import { type MutationOptions, useApiMutation } from '@client/lib/mutation';
 import { shopKeys, type DirectoryFilters } from '@client/lib/query-keys';
@@ -15,14 +15,14 @@ export const shopQueries = {
       placeholderData: keepPreviousData,
     }),
   detail: (id: string) =>
-    queryOptions({ queryKey: shopKeys.detail(id), queryFn: () => api.get<{ shop: PublicShop }>(`/api/shops/${id}`).then((r) => r.shop) }),
+    queryOptions({ queryKey: shopKeys.detail(id), queryFn: () => api.get<ShopAnswer>(`/api/shops/${id}`).then((r) => r.shop) }),
   /** The signed-in shop's profile, or null before it is set up. */
   own: () =>
     queryOptions({
       queryKey: shopKeys.own(),
       queryFn: async () => {
         try {
-          return (await api.get<{ shop: OwnShop }>('/api/shop-profile')).shop;
+          return (await api.get<OwnShopAnswer>('/api/shop-profile')).shop;
         } catch (error) {
           if (error instanceof ApiError && error.status === 404) return null;
           throw error;
@@ -43,7 +43,7 @@ export const useOwnShop = (options: { refetchInterval?: (data: OwnShop | null | 
 
 export const useSaveShopProfile = (options?: MutationOptions<OwnShop, ShopProfileInput>) =>
   useApiMutation(
-    (input: ShopProfileInput) => api.put<{ shop: OwnShop }>('/api/shop-profile', input).then((r) => r.shop),
+    (input: ShopProfileInput) => api.put<OwnShopAnswer>('/api/shop-profile', input).then((r) => r.shop),
     { update: (queryClient, shop) => queryClient.setQueryData(shopKeys.own(), shop), refreshes: (shop) => [shopKeys.lists(), shopKeys.detail(shop.id)] },
     options?.mutationConfig,
   );
