@@ -3,6 +3,7 @@
  * state-changing request, and turns error answers into ApiError with the
  * server's code, message and per-field messages.
  */
+import type { CsrfToken } from '@shared/schemas/auth';
 export class ApiError extends Error {
   constructor(
     readonly status: number,
@@ -27,7 +28,7 @@ async function fetchCsrfToken(): Promise<string> {
   csrfRequest ??= fetch('/api/auth/csrf', { credentials: 'same-origin', headers: { Accept: 'application/json' } })
     .then(async (res) => {
       if (!res.ok) throw await toApiError(res);
-      const body = (await res.json()) as { csrfToken: string };
+      const body = (await res.json()) as CsrfToken;
       csrfToken = body.csrfToken;
       return body.csrfToken;
     })
