@@ -45,6 +45,7 @@ import { appendLedger } from '../../server/modules/payments/ledger';
 import { startJobCheckout, startPayoutOnboarding } from '../../server/modules/payments/payments.service';
 import type { ShopRow } from '../../server/modules/shops/shops.repository';
 import { bidInput, createJob, createShop, createUser, jobInput, shopProfileInput, uniformRecordInput, uniqueEmail } from '../factories';
+import { approveOnGithub, githubIdentity, newGithubLogin } from '../setup/github';
 import { completeOnboardingPage } from '../setup/payments';
 import { startMoneyApp } from '../setup/money-app';
 import { agentFor, signedIn, type ApiClient } from '../setup/test-env';
@@ -145,6 +146,12 @@ const w = {
   bid(jobId: string, shop: 'shopX' | 'shopY' = 'shopX') {
     return createBid(bidDeps(), people[shop], jobId, bidInput());
   },
+  /** A's open job with a bid from shop X, not yet accepted. */
+  async openWithBid() {
+    const jobId = await w.job();
+    await w.bid(jobId);
+    return { jobId };
+  },
   async award(jobId: string, bidId: string) {
     await acceptBid(bidDeps(), people.builderA, bidId);
     return { jobId, bidId };
@@ -238,20 +245,7 @@ const w = {
     const start = await client.agent.get('/api/auth/github');
     if (start.status !== 302) throw new Error(`GitHub sign-in did not start: ${start.status}`);
     const authorize = new URL(start.headers.location);
-    const login = `gh-${hex()}`;
-    const approve = await fetch(authorize.origin + authorize.pathname, {
-      method: 'POST',
-      redirect: 'manual',
-      headers: { 'Content-Type': 'application/x-www-form-urlencoded' },
-      body: new URLSearchParams({
-        client_id: authorize.searchParams.get('client_id')!,
-        redirect_uri: authorize.searchParams.get('redirect_uri')!,
-        state: authorize.searchParams.get('state')!,
-        login,
-        name: `Person ${login}`,
-        email: `${login}@example.test`,
-      }),
-    });
+    const approve = await approveOnGithub(authorize, githubIdentity(newGithubLogin()));
     if (approve.status !== 302) throw new Error(`the GitHub stand-in answered ${approve.status}`);
     return new URL(approve.headers.get('location')!);
   },
@@ -381,22 +375,14 @@ const matrix: Record<string, Row> = {
     ],
   },
   'PUT /api/jobs/:jobId': {
-    state: async () => {
-      const jobId = await w.job();
-      await w.bid(jobId);
-      return { jobId };
-    },
+    state: () => w.openWithBid(),
     body: () => jobInput({ title: 'Bore, hone and deck a V8 block' }),
     expect: [401, 200, 403, 403, 403, 403],
     variants: [{ label: 'draft', state: async () => ({ jobId: await w.job('draft') }), expect: [401, 200, 404, 403, 403, 403] }],
   },
   'POST /api/jobs/:jobId/publish': { state: async () => ({ jobId: await w.job('draft') }), expect: [401, 200, 404, 403, 403, 403] },
   'POST /api/jobs/:jobId/cancel': {
-    state: async () => {
-      const jobId = await w.job();
-      await w.bid(jobId);
-      return { jobId };
-    },
+    state: () => w.openWithBid(),
     expect: [401, 200, 403, 403, 403, 403],
   },
   'POST /api/jobs/:jobId/photos': {
@@ -437,11 +423,7 @@ const matrix: Record<string, Row> = {
     variants: [
       {
         label: 'open, shop X bid',
-        state: async () => {
-          const jobId = await w.job();
-          await w.bid(jobId);
-          return { jobId };
-        },
+        state: () => w.openWithBid(),
         expect: [401, 200, 403, 200, 200, 200],
       },
       { label: 'draft', state: async () => ({ jobId: await w.job('draft') }), expect: [401, 200, 404, 404, 404, 200] },
@@ -490,11 +472,7 @@ const matrix: Record<string, Row> = {
     variants: [
       {
         label: 'open, shop X bid',
-        state: async () => {
-          const jobId = await w.job();
-          await w.bid(jobId);
-          return { jobId };
-        },
+        state: () => w.openWithBid(),
         // On an open job any shop may ask a question.
         expect: [401, 201, 403, 201, 201, 403],
       },

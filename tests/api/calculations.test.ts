@@ -2,6 +2,7 @@ import supertest from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { roughness } from '../../shared/calc/roughness';
 import { setupTestApp, type TestContext } from '../setup/test-env';
+import { circleTrack } from '../unit/calc/expectations';
 
 let ctx: TestContext;
 beforeAll(async () => {
@@ -26,16 +27,7 @@ describe('calculation API: answers', () => {
   });
 
   it('when compression ratio is asked for the worked example, then 9.01', async () => {
-    const res = await calc('compression-ratio', {
-      unit: 'in',
-      bore: 4,
-      stroke: 3.48,
-      chamberCc: 70,
-      pistonCc: 5,
-      deckClearance: 0.05,
-      gasketBore: 4,
-      gasketThickness: 0.02,
-    });
+    const res = await calc('compression-ratio', circleTrack);
     expect(res.status).toBe(200);
     expect(Math.abs(res.body.ratio - 9.01)).toBeLessThan(0.01); // source: Circle Track, "Compression Ratio Rules" (worked example, 9.01)
     near(res.body.ratio, (res.body.sweptCc + res.body.clearanceCc) / res.body.clearanceCc); // derived: CR = (Vs + Vc) / Vc

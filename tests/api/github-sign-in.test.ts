@@ -1,6 +1,6 @@
-import { randomBytes } from 'node:crypto';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createUser } from '../factories';
+import { approveOnGithub, githubIdentity, newGithubLogin } from '../setup/github';
 import { agentFor, setupTestApp, type TestContext } from '../setup/test-env';
 
 let ctx: TestContext;
@@ -29,19 +29,7 @@ async function roundTrip(client: Client, identity: { login: string; name?: strin
   const page = await fetch(authorize);
   expect(page.status).toBe(200);
 
-  const approve = await fetch(authorize.origin + authorize.pathname, {
-    method: 'POST',
-    redirect: 'manual',
-    headers: { 'Content-Type': 'application/x-www-form-urlencoded' },
-    body: new URLSearchParams({
-      client_id: authorize.searchParams.get('client_id')!,
-      redirect_uri: authorize.searchParams.get('redirect_uri')!,
-      state: state!,
-      login: identity.login,
-      ...(identity.name ? { name: identity.name } : {}),
-      ...(identity.email ? { email: identity.email } : {}),
-    }),
-  });
+  const approve = await approveOnGithub(authorize, identity);
   expect(approve.status).toBe(302);
   const back = new URL(approve.headers.get('location')!);
   expect(back.pathname).toBe('/api/auth/github/callback');
@@ -50,10 +38,7 @@ async function roundTrip(client: Client, identity: { login: string; name?: strin
   return client.get(back.pathname + back.search);
 }
 
-const newIdentity = () => {
-  const login = `gh-${randomBytes(4).toString('hex')}`;
-  return { login, name: `Person ${login}`, email: `${login}@example.test` };
-};
+const newIdentity = () => githubIdentity(newGithubLogin());
 
 describe('GitHub sign-in through the local stand-in', () => {
   it('when a new GitHub user signs in, then they choose a role, get an account with a verified e-mail, and come back signed in', async () => {
@@ -99,7 +84,7 @@ describe('GitHub sign-in through the local stand-in', () => {
   it('when the GitHub e-mail belongs to a password account, then no account is made and the person is told to use their password', async () => {
     const existing = await createUser(ctx.db);
     const client = await agentFor(ctx.app);
-    const res = await roundTrip(client, { login: `gh-${randomBytes(4).toString('hex')}`, name: 'Double', email: existing.email });
+    const res = await roundTrip(client, { login: newGithubLogin(), name: 'Double', email: existing.email });
     expect(res.status).toBe(302);
     expect(res.headers.location).toBe('/signin?error=email_taken');
     await client.get('/api/auth/github/pending').expect(404);

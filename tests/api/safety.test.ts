@@ -20,6 +20,7 @@ import { mailOutbox, payments } from '../../server/db/schema';
 import { createLogger } from '../../server/lib/logger';
 import { submitHostedPage } from '../../server/dev/payments-stand-in/page-client';
 import { bidInput, createJob, createShop, createUser, jobInput, TEST_PASSWORD, uniqueEmail } from '../factories';
+import { approveOnGithub, githubIdentity } from '../setup/github';
 import { startTestStandIn } from '../setup/payments';
 import { agentFor, setupTestApp, signedIn, testConfig, type TestContext } from '../setup/test-env';
 
@@ -195,19 +196,7 @@ async function githubRoundTrip(client: Client, login: string, rawQuery: string) 
   const start = await client.get(`/api/auth/github${rawQuery ? `?${rawQuery}` : ''}`);
   expect(start.status).toBe(302);
   const authorize = new URL(start.headers.location);
-  const approve = await fetch(authorize.origin + authorize.pathname, {
-    method: 'POST',
-    redirect: 'manual',
-    headers: { 'Content-Type': 'application/x-www-form-urlencoded' },
-    body: new URLSearchParams({
-      client_id: authorize.searchParams.get('client_id')!,
-      redirect_uri: authorize.searchParams.get('redirect_uri')!,
-      state: authorize.searchParams.get('state')!,
-      login,
-      name: `Person ${login}`,
-      email: `${login}@example.test`,
-    }),
-  });
+  const approve = await approveOnGithub(authorize, githubIdentity(login));
   const back = new URL(approve.headers.get('location')!);
   return client.get(back.pathname + back.search);
 }

@@ -22,14 +22,12 @@ import { gzipSync } from 'node:zlib';
 import { eq } from 'drizzle-orm';
 import { chromium, type Browser } from 'playwright-core';
 import { build } from 'vite';
-import { createDb, createPool, runMigrations } from '../../server/db/client';
+import { createDb, createPool } from '../../server/db/client';
 import { users } from '../../server/db/schema';
 import { DEMO_PASSWORD, seedIfEmpty } from '../../server/dev/seed';
-import { ensureCluster, ensureDatabase, type Cluster } from '../../server/dev/postgres';
-import { loadConfig } from '../../server/env';
 import { startServer, type RunningServer } from '../../server/runtime';
 import { createJob } from '../factories';
-import { freePort } from '../setup/ports';
+import { benchCluster, benchConfig, migratedBenchDatabase } from './bench-app';
 
 const root = fileURLToPath(new URL('../..', import.meta.url));
 const AIM_KB = 150;
@@ -247,11 +245,9 @@ async function measureLcp(dir: string) {
   const work = mkdtempSync(join(tmpdir(), 'tenthmark-client-bench-'));
   cleanups.push(() => rmSync(work, { recursive: true, force: true }));
   console.log('\nstarting a throwaway PostgreSQL cluster and the app on the production build …');
-  const cluster: Cluster = ensureCluster({ dir: work, port: await freePort(), throwaway: true });
+  const cluster = await benchCluster(work);
   cleanups.push(() => cluster.stop());
-  await ensureDatabase(cluster, 'bench');
-  const url = cluster.url('bench');
-  await runMigrations(url);
+  const url = await migratedBenchDatabase(cluster);
   const pool = createPool(url, 2);
   try {
     const db = createDb(pool);
@@ -264,14 +260,7 @@ async function measureLcp(dir: string) {
     await pool.end();
   }
 
-  const config = loadConfig({
-    NODE_ENV: 'production',
-    LOG_LEVEL: 'silent',
-    DATABASE_URL: url,
-    PORT: '0',
-    SESSION_SECRET: 'bench-session-secret-123456',
-    RATE_LIMIT_SIGNIN_MAX: '1000',
-  });
+  const config = benchConfig(url, { RATE_LIMIT_SIGNIN_MAX: '1000' });
   const server: RunningServer = await startServer(config, { client: { kind: 'static', dir }, migrate: false });
   cleanups.push(() => server.close());
   const base = `http://127.0.0.1:${server.port}`;

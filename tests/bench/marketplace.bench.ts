@@ -13,26 +13,22 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import pg from 'pg';
 import { boardQuerySchema } from '../../shared/schemas/jobs';
-import { createDb, createPool, runMigrations } from '../../server/db/client';
+import { createDb, createPool } from '../../server/db/client';
 import { boardRowsQuery } from '../../server/modules/jobs/jobs.repository';
-import { ensureCluster, ensureDatabase } from '../../server/dev/postgres';
-import { loadConfig } from '../../server/env';
 import { hashPassword } from '../../server/lib/auth/passwords';
 import { startServer } from '../../server/runtime';
-import { freePort } from '../setup/ports';
+import { benchCluster, benchConfig, migratedBenchDatabase } from './bench-app';
 
 const JOBS = 10_000;
 const DURATION_S = Number(process.env.BENCH_SECONDS ?? 10);
 
 const dir = mkdtempSync(join(tmpdir(), 'tenthmark-bench-'));
-const cluster = ensureCluster({ dir, port: await freePort(), throwaway: true });
+const cluster = await benchCluster(dir);
 let server: Awaited<ReturnType<typeof startServer>> | undefined;
 let bare: Server | undefined;
 let barePool: pg.Pool | undefined;
 try {
-  await ensureDatabase(cluster, 'bench');
-  const url = cluster.url('bench');
-  await runMigrations(url);
+  const url = await migratedBenchDatabase(cluster);
   const pool = createPool(url, 2);
   const db = createDb(pool);
   const hash = await hashPassword('bench password 1');
@@ -60,12 +56,7 @@ try {
   const boardSql = boardRowsQuery(db, boardQuerySchema.parse({ pageSize: '20' })).toSQL();
   await pool.end();
 
-  const config = loadConfig({
-    NODE_ENV: 'production',
-    LOG_LEVEL: 'silent',
-    DATABASE_URL: url,
-    PORT: '0',
-    SESSION_SECRET: 'bench-session-secret-123456',
+  const config = benchConfig(url, {
     RATE_LIMIT_SIGNIN_MAX: '1000',
     // The per-person message limit would turn a load test into a test of the limiter.
     RATE_LIMIT_MESSAGES_PER_10S: '1000000',

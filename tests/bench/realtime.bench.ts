@@ -10,13 +10,11 @@ import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { io as connect, type Socket } from 'socket.io-client';
-import { createDb, createPool, runMigrations } from '../../server/db/client';
-import { ensureCluster, ensureDatabase } from '../../server/dev/postgres';
-import { loadConfig } from '../../server/env';
+import { createDb, createPool } from '../../server/db/client';
 import { hashPassword } from '../../server/lib/auth/passwords';
 import { startServer, type RunningServer } from '../../server/runtime';
-import { freePort } from '../setup/ports';
 import { signedIn } from '../setup/api-session';
+import { benchCluster, benchConfig, migratedBenchDatabase } from './bench-app';
 
 const THREADS = Number(process.env.BENCH_THREADS ?? 20);
 const LISTENERS_PER_THREAD = Number(process.env.BENCH_LISTENERS ?? 15);
@@ -24,13 +22,11 @@ const MESSAGES_PER_THREAD = Number(process.env.BENCH_MESSAGES ?? 10);
 const PASSWORD = 'bench password 1';
 
 const dir = mkdtempSync(join(tmpdir(), 'tenthmark-rt-bench-'));
-const cluster = ensureCluster({ dir, port: await freePort(), throwaway: true });
+const cluster = await benchCluster(dir);
 const servers: RunningServer[] = [];
 const sockets: Socket[] = [];
 try {
-  await ensureDatabase(cluster, 'bench');
-  const url = cluster.url('bench');
-  await runMigrations(url);
+  const url = await migratedBenchDatabase(cluster);
   const pool = createPool(url, 2);
   const db = createDb(pool);
   const hash = await hashPassword(PASSWORD);
@@ -57,15 +53,7 @@ try {
   ).rows;
   await pool.end();
 
-  const config = loadConfig({
-    NODE_ENV: 'production',
-    LOG_LEVEL: 'silent',
-    DATABASE_URL: url,
-    PORT: '0',
-    SESSION_SECRET: 'bench-session-secret-123456',
-    RATE_LIMIT_SIGNIN_MAX: '100000',
-    RATE_LIMIT_MESSAGES_PER_10S: '100000',
-  });
+  const config = benchConfig(url, { RATE_LIMIT_SIGNIN_MAX: '100000', RATE_LIMIT_MESSAGES_PER_10S: '100000' });
   servers.push(await startServer(config, { migrate: false }), await startServer(config, { migrate: false }));
 
   const cookies = new Map<string, string>();

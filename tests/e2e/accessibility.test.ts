@@ -4,7 +4,7 @@ import { describe, expect, it } from 'vitest';
 import type { InspectionInput } from '../../shared/schemas/inspection';
 import type { JobDetail } from '../../shared/schemas/jobs';
 import { DEMO_PASSWORD, demoAccounts } from '../../server/dev/seed';
-import { bidInput, inDays, jobInput } from '../factories';
+import { bidInput, inDays, jobInput, uniformRecordInput } from '../factories';
 import { browserSuite } from '../setup/e2e-suite';
 
 const suite = browserSuite();
@@ -16,15 +16,7 @@ const adminEmail = demoAccounts.find((a) => a.role === 'admin')!.email;
 const WCAG_TAGS = ['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa'];
 
 /** An 8-cylinder record (invented demo readings), valid for the job `jobInput()` makes. */
-const record: InspectionInput = {
-  conditions: { unit: 'in', gaugeResolution: 0.0001, temperatureC: 21, torquePlate: true },
-  cylinders: Array.from({ length: 8 }, () => ({ top: { thrust: 4.0311, axial: 4.0311 }, middle: { thrust: 4.031, axial: 4.0311 }, bottom: { thrust: 4.031, axial: 4.031 }, piston: 4.028 })),
-  deck: { readings: [0.001, 0.0015, 0.001, 0.002], raUm: 0.9 },
-  finish: { mode: 'values', raUm: 0.45, rkUm: 0.6, rpkUm: 0.15, rvkUm: 1.2 },
-  crosshatch: { mode: 'measured', includedAngleDeg: 45 },
-  signedOffBy: 'Ada Quernfield',
-  notes: '',
-};
+const record: InspectionInput = uniformRecordInput();
 
 /** The page has drawn what it shows: its main heading is there and nothing is still loading. */
 async function settled(page: Page) {

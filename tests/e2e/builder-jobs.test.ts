@@ -1,45 +1,29 @@
-import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import type { Locator, Page } from 'playwright-core';
-import sharp from 'sharp';
-import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
+import { beforeEach, describe, expect, it } from 'vitest';
 import { CC_PER_CUBIC_INCH } from '../../shared/calc';
 import type { JobDetail, JobInput } from '../../shared/schemas/jobs';
 import { demoAccounts } from '../../server/dev/seed';
 import { bidInput, inDays, shopProfileInput, uniqueEmail } from '../factories';
 import { completeOnboardingPage } from '../setup/payments';
 import { artifactsDir } from '../setup/browser';
+import { deckPhotos } from '../setup/deck-photos';
 import { browserSuite } from '../setup/e2e-suite';
+import { fillIronV8Job } from '../setup/job-form';
 import { jobInState } from '../setup/job-states';
 
 const suite = browserSuite();
 const { url, consoleErrors } = suite;
 let page: Page;
-let photoDir: string;
-
 const builder = demoAccounts.find((a) => a.email === 'juno@builders.test')!;
 const otherBuilder = demoAccounts.find((a) => a.email === 'teodor@builders.test')!;
 const lanternHill = demoAccounts.find((a) => a.email === 'bench@lanternhill.test')!;
 const kessrow = demoAccounts.find((a) => a.email === 'desk@kessrow.test')!;
 
-/** A photo of an invented block deck: grey casting with eight dark bores, made here so the test needs no files. */
-async function makeDeckPhoto(path: string, shade: string) {
-  const bores = Array.from({ length: 4 }, (_, i) => `<circle cx="${260 + i * 360}" cy="420" r="150" fill="#2a2d31"/><circle cx="${260 + i * 360}" cy="800" r="150" fill="#2a2d31"/>`).join('');
-  const svg = `<svg xmlns="http://www.w3.org/2000/svg" width="1600" height="1200"><rect width="1600" height="1200" fill="${shade}"/>${bores}</svg>`;
-  await sharp(Buffer.from(svg)).jpeg({ quality: 85 }).toFile(path);
-}
-
-beforeAll(async () => {
-  photoDir = mkdtempSync(join(tmpdir(), 'tenthmark-e2e-photos-'));
-  await Promise.all([makeDeckPhoto(join(photoDir, 'deck-left.jpg'), '#9aa0a6'), makeDeckPhoto(join(photoDir, 'deck-right.jpg'), '#b5b0a4')]);
-});
-afterAll(() => {
-  if (photoDir) rmSync(photoDir, { recursive: true, force: true });
-});
+const photos = deckPhotos('tenthmark-e2e-photos-');
 beforeEach(async () => {
-  page = await suite.newPage({ width: 768, height: 1024 }); // a shop-floor tablet
-  consoleErrors.length = 0;
+  page = await suite.newTabletPage();
 });
 
 /** The number in a figure such as "5,733 cc". */
@@ -83,26 +67,7 @@ describe('a builder posting a job and choosing a shop, in a real browser', () =>
     );
 
     // The block, with a cylinder count the schema refuses.
-    await form.getByLabel('Job title').fill('Bore, hone and deck an iron V8 block');
-    await form.getByLabel('Engine', { exact: true }).fill('Small-block V8, late 1970s');
-    await form.getByLabel('Layout').selectOption('v');
-    await form.getByLabel('Cylinders', { exact: true }).fill('20');
-    await form.getByRole('radio', { name: 'Cast iron' }).check();
-    await form.getByLabel('Stock bore (in)').fill('4.000');
-    await form.getByLabel('Stroke (in)').fill('3.48');
-    await form.getByLabel('Piston diameter (in), optional').fill('4.028');
-    await form.getByLabel('Smallest clearance (in), optional').fill('0.0025');
-    await form.getByLabel('Largest clearance (in), optional').fill('0.0035');
-    await form.getByLabel('Piston type').selectOption('forged');
-    await form.getByLabel('Smallest crosshatch included angle (°), optional').fill('40');
-    await form.getByLabel('Largest crosshatch included angle (°), optional').fill('50');
-    await form.getByLabel('Maximum taper (in), optional').fill('0.0005');
-    await form.getByLabel('Deck out-of-flat limit (in), optional').fill('0.002');
-    for (const work of ['Bore', 'Hone', 'Deck']) await form.getByRole('checkbox', { name: work, exact: true }).check();
-    await form.getByRole('radio', { name: 'I ship the parts to the shop' }).check();
-    await form.getByLabel('Country').fill('United States');
-    await form.getByLabel('State, province or county').fill('Ohio');
-    await form.getByLabel('Town or city').fill('Columbus');
+    await fillIronV8Job(form, { title: 'Bore, hone and deck an iron V8 block', cylinders: '20' });
     // Three years out is further ahead than the form takes.
     const neededBy = form.getByLabel('Date you need the parts back');
     await neededBy.fill(inDays(3 * 365));
@@ -165,7 +130,7 @@ describe('a builder posting a job and choosing a shop, in a real browser', () =>
     await page.getByText('“notes.txt” is not a JPEG, PNG or WebP photo.').waitFor();
 
     // Two photos, each with its own progress bar, then two thumbnails.
-    await chooser.setInputFiles([join(photoDir, 'deck-left.jpg'), join(photoDir, 'deck-right.jpg')]);
+    await chooser.setInputFiles([photos.left, photos.right]);
     await page.getByRole('progressbar', { name: 'Upload of deck-left.jpg' }).waitFor();
     await page.getByRole('progressbar', { name: 'Upload of deck-right.jpg' }).waitFor();
     await expect(page.locator('progress').count()).resolves.toBe(2);
@@ -332,7 +297,7 @@ describe('a builder posting a job and choosing a shop, in a real browser', () =>
   });
 
   it('when a job has a photo, then My jobs shows it as the thumbnail beside the title', async () => {
-    const job = await builderJob({ title: 'A job with a photo of its deck' }, false, join(photoDir, 'deck-left.jpg'));
+    const job = await builderJob({ title: 'A job with a photo of its deck' }, false, photos.left);
     await signIn(builder.email, '/jobs');
     const row = page.getByTestId('my-job').filter({ hasText: job.title });
     await row.waitFor();

@@ -11,8 +11,7 @@ const { url, consoleErrors } = suite;
 let page: Page;
 
 beforeEach(async () => {
-  page = await suite.newPage({ width: 768, height: 1024 }); // a shop-floor tablet
-  consoleErrors.length = 0;
+  page = await suite.newTabletPage();
 });
 
 const card = (name: string) => page.getByRole('region', { name, exact: true });

@@ -5,6 +5,7 @@ import type { InspectionInput } from '../../shared/schemas/inspection';
 import type { MoneyView } from '../../shared/schemas/payments';
 import { formatCents } from '../../shared/catalogue';
 import { demoAccounts } from '../../server/dev/seed';
+import { uniformRecordInput } from '../factories';
 import { artifactsDir } from '../setup/browser';
 import { browserSuite } from '../setup/e2e-suite';
 
@@ -14,15 +15,7 @@ const shopEmail = demoAccounts.find((a) => a.email === 'bench@lanternhill.test')
 const adminEmail = demoAccounts.find((a) => a.role === 'admin')!.email;
 
 /** An 8-cylinder record (invented demo readings) that the builder will dispute. */
-const record: InspectionInput = {
-  conditions: { unit: 'in', gaugeResolution: 0.0001, temperatureC: 21, torquePlate: true },
-  cylinders: Array.from({ length: 8 }, () => ({ top: { thrust: 4.0311, axial: 4.0311 }, middle: { thrust: 4.031, axial: 4.0311 }, bottom: { thrust: 4.031, axial: 4.031 }, piston: 4.028 })),
-  deck: { readings: [0.001, 0.0015, 0.001, 0.002], raUm: 0.9 },
-  finish: { mode: 'values', raUm: 0.45, rkUm: 0.6, rpkUm: 0.15, rvkUm: 1.2 },
-  crosshatch: { mode: 'measured', includedAngleDeg: 45 },
-  signedOffBy: 'Ada Quernfield',
-  notes: '',
-};
+const record: InspectionInput = uniformRecordInput();
 
 const shot = (page: Page, name: string) => page.screenshot({ path: join(artifactsDir, `dispute-${name}.png`), fullPage: true });
 

@@ -9,13 +9,28 @@ import { demoAccounts } from '../../server/dev/seed';
 import { bidInput, jobInput, shopProfileInput } from '../factories';
 import { completeOnboardingPage, payOnPage } from '../setup/payments';
 import { artifactsDir } from '../setup/browser';
-import { browserSuite } from '../setup/e2e-suite';
+import { browserSuite, type Api } from '../setup/e2e-suite';
 
 const suite = browserSuite();
 const { url, apiAs, pageFor, consoleErrors } = suite;
 
 const builder = demoAccounts.find((a) => a.email === 'juno@builders.test')!;
 const lanternHill = demoAccounts.find((a) => a.email === 'bench@lanternhill.test')!;
+
+/**
+ * Lantern Hill (a demo shop with a profile) sets up payouts on the stand-in's page, waits
+ * for them to be ready and bids on `jobId`; the builder accepts. Lantern Hill's API session.
+ */
+async function lanternHillAwarded(juno: Api, jobId: string) {
+  const lantern = await apiAs(lanternHill.email);
+  await lantern('PUT', '/api/shop-profile', shopProfileInput({ name: 'Lantern Hill Machine Works', city: 'Dayton', capabilities: ['clean', 'bore', 'hone', 'deck'] }));
+  const { url: onboarding } = await lantern<{ url: string }>('POST', '/api/shop-profile/payouts');
+  await completeOnboardingPage(onboarding);
+  await expect.poll(async () => (await lantern<{ shop: { payouts: string } }>('GET', '/api/shop-profile')).shop.payouts, { timeout: 8_000 }).toBe('ready');
+  const { bid } = await lantern<{ bid: { id: string } }>('POST', `/api/jobs/${jobId}/bids`, bidInput());
+  await juno('POST', `/api/bids/${bid.id}/accept`);
+  return lantern;
+}
 
 /** The focused element's accessible name as this app gives it: aria-label, else the text of its <label>. */
 const focusedName = (page: Page) =>
@@ -75,13 +90,7 @@ describe('the inspection record, from block received to payment released, in a r
     await juno('POST', `/api/jobs/${job.id}/publish`);
 
     // A demo shop with a profile sets up payouts and bids; the builder accepts.
-    const lantern = await apiAs(lanternHill.email);
-    await lantern('PUT', '/api/shop-profile', shopProfileInput({ name: 'Lantern Hill Machine Works', city: 'Dayton', capabilities: ['clean', 'bore', 'hone', 'deck'] }));
-    const { url: onboarding } = await lantern<{ url: string }>('POST', '/api/shop-profile/payouts');
-    await completeOnboardingPage(onboarding);
-    await expect.poll(async () => (await lantern<{ shop: { payouts: string } }>('GET', '/api/shop-profile')).shop.payouts, { timeout: 8_000 }).toBe('ready');
-    const { bid } = await lantern<{ bid: { id: string } }>('POST', `/api/jobs/${job.id}/bids`, bidInput());
-    await juno('POST', `/api/bids/${bid.id}/accept`);
+    const lantern = await lanternHillAwarded(juno, job.id);
 
     // The builder pays on the payment page ($480.00 held).
     const builderPage = await pageFor(builder.email, `/jobs/${job.id}`);
@@ -289,13 +298,7 @@ describe('the inspection record, from block received to payment released, in a r
     const juno = await apiAs(builder.email);
     const { job } = await juno<{ job: JobDetail }>('POST', '/api/jobs', jobInput({ title: 'Bore and hone an iron V8, second look', cylinders: 8, maxTaper: 0.0005, maxOutOfRound: 0.0005 }));
     await juno('POST', `/api/jobs/${job.id}/publish`);
-    const lantern = await apiAs(lanternHill.email);
-    await lantern('PUT', '/api/shop-profile', shopProfileInput({ name: 'Lantern Hill Machine Works', city: 'Dayton', capabilities: ['clean', 'bore', 'hone', 'deck'] }));
-    const { url: onboarding } = await lantern<{ url: string }>('POST', '/api/shop-profile/payouts');
-    await completeOnboardingPage(onboarding);
-    await expect.poll(async () => (await lantern<{ shop: { payouts: string } }>('GET', '/api/shop-profile')).shop.payouts, { timeout: 8_000 }).toBe('ready');
-    const { bid } = await lantern<{ bid: { id: string } }>('POST', `/api/jobs/${job.id}/bids`, bidInput());
-    await juno('POST', `/api/bids/${bid.id}/accept`);
+    const lantern = await lanternHillAwarded(juno, job.id);
     // Paid through the API and the payment page's own form.
     const { url: checkout } = await juno<{ url: string }>('POST', `/api/jobs/${job.id}/checkout`);
     expect((await payOnPage(checkout, '4242424242424242')).status).toBeLessThan(400);

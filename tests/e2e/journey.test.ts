@@ -1,16 +1,15 @@
-import { mkdtempSync, rmSync } from 'node:fs';
-import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Locator, Page } from 'playwright-core';
-import sharp from 'sharp';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { formatCents } from '../../shared/catalogue';
 import type { JobDetail } from '../../shared/schemas/jobs';
 import type { MoneyView } from '../../shared/schemas/payments';
 import { demoAccounts } from '../../server/dev/seed';
 import { bidInput, inDays, jobInput } from '../factories';
 import { artifactsDir } from '../setup/browser';
+import { deckPhotos } from '../setup/deck-photos';
 import { browserSuite } from '../setup/e2e-suite';
+import { fillIronV8Job } from '../setup/job-form';
 import { completeOnboardingPage } from '../setup/payments';
 
 /*
@@ -25,22 +24,7 @@ const shop = demoAccounts.find((a) => a.email === 'bench@lanternhill.test')!;
 const admin = demoAccounts.find((a) => a.role === 'admin')!;
 const SHOP_NAME = 'Lantern Hill Machine Works';
 
-let photoDir: string;
-
-/** A photo of an invented block deck (grey casting, eight dark bores), made here so the test needs no files. */
-async function makeDeckPhoto(path: string, shade: string) {
-  const bores = Array.from({ length: 4 }, (_, i) => `<circle cx="${260 + i * 360}" cy="420" r="150" fill="#2a2d31"/><circle cx="${260 + i * 360}" cy="800" r="150" fill="#2a2d31"/>`).join('');
-  const svg = `<svg xmlns="http://www.w3.org/2000/svg" width="1600" height="1200"><rect width="1600" height="1200" fill="${shade}"/>${bores}</svg>`;
-  await sharp(Buffer.from(svg)).jpeg({ quality: 85 }).toFile(path);
-}
-
-beforeAll(async () => {
-  photoDir = mkdtempSync(join(tmpdir(), 'tenthmark-journey-photos-'));
-  await Promise.all([makeDeckPhoto(join(photoDir, 'deck-left.jpg'), '#9aa0a6'), makeDeckPhoto(join(photoDir, 'deck-right.jpg'), '#b5b0a4')]);
-});
-afterAll(() => {
-  if (photoDir) rmSync(photoDir, { recursive: true, force: true });
-});
+const photos = deckPhotos('tenthmark-journey-photos-');
 
 const shot = (page: Page, name: string) => page.screenshot({ path: join(artifactsDir, `journey-${name}.png`), fullPage: true });
 const poll = <T>(read: () => Promise<T>) => expect.poll(read, { timeout: 10_000, interval: 100 });
@@ -73,27 +57,7 @@ describe('whole journeys through the marketplace, one browser per person', () =>
       const b = await suite.pageFor(builder.email, '/jobs/new');
       await b.getByRole('heading', { level: 1, name: 'Post a job' }).waitFor();
       const form = b.getByRole('form', { name: 'Job details' });
-      await form.getByLabel('Job title').fill(title);
-      await form.getByLabel('Engine', { exact: true }).fill('Small-block V8, late 1970s');
-      await form.getByLabel('Layout').selectOption('v');
-      await form.getByLabel('Cylinders', { exact: true }).fill('8');
-      await form.getByRole('radio', { name: 'Cast iron' }).check();
-      await form.getByLabel('Stock bore (in)').fill('4.000');
-      await form.getByLabel('Stroke (in)').fill('3.48');
-      await form.getByLabel('Piston diameter (in), optional').fill('4.028');
-      await form.getByLabel('Smallest clearance (in), optional').fill('0.0025');
-      await form.getByLabel('Largest clearance (in), optional').fill('0.0035');
-      await form.getByLabel('Piston type').selectOption('forged');
-      await form.getByLabel('Smallest crosshatch included angle (°), optional').fill('40');
-      await form.getByLabel('Largest crosshatch included angle (°), optional').fill('50');
-      await form.getByLabel('Maximum taper (in), optional').fill('0.0005');
-      await form.getByLabel('Maximum out-of-round (in), optional').fill('0.0005');
-      await form.getByLabel('Deck out-of-flat limit (in), optional').fill('0.002');
-      for (const work of ['Bore', 'Hone', 'Deck']) await form.getByRole('checkbox', { name: work, exact: true }).check();
-      await form.getByRole('radio', { name: 'I ship the parts to the shop' }).check();
-      await form.getByLabel('Country').fill('United States');
-      await form.getByLabel('State, province or county').fill('Ohio');
-      await form.getByLabel('Town or city').fill('Columbus');
+      await fillIronV8Job(form, { title, cylinders: '8', maxOutOfRound: '0.0005' });
       await form.getByLabel('Date you need the parts back').fill(inDays(30));
       await form.getByRole('button', { name: 'Save draft' }).click();
       await b.waitForURL(/\/jobs\/[0-9a-f-]{36}$/);
@@ -103,7 +67,7 @@ describe('whole journeys through the marketplace, one browser per person', () =>
       await status(b, 'Draft');
 
       // Two photos, then two loaded thumbnails.
-      await b.getByLabel('Choose photos').setInputFiles([join(photoDir, 'deck-left.jpg'), join(photoDir, 'deck-right.jpg')]);
+      await b.getByLabel('Choose photos').setInputFiles([photos.left, photos.right]);
       await b.getByRole('button', { name: 'Open photo 2 of 2 full size' }).waitFor();
       await poll(() => b.getByTestId('job-photo-thumb').count()).toBe(2);
       await b.waitForFunction(() => [...document.querySelectorAll<HTMLImageElement>('[data-testid="job-photo-thumb"]')].every((img) => img.complete && img.naturalWidth > 0));

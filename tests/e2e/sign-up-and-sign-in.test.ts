@@ -12,8 +12,7 @@ const { url, consoleErrors } = suite;
 let page: Page;
 
 beforeEach(async () => {
-  page = await suite.newPage({ width: 768, height: 1024 }); // a shop-floor tablet
-  consoleErrors.length = 0;
+  page = await suite.newTabletPage();
 });
 
 async function waitForMail(to: string, subject: string) {

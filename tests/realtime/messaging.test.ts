@@ -1,55 +1,28 @@
 import { randomBytes } from 'node:crypto';
-import { readFileSync, rmSync } from 'node:fs';
+import { readFileSync } from 'node:fs';
 import { and, eq } from 'drizzle-orm';
 import sharp from 'sharp';
-import type { Socket } from 'socket.io-client';
-import { afterAll, afterEach, beforeAll, describe, expect, inject, it } from 'vitest';
-import { createDb, createPool, type Database } from '../../server/db/client';
+import { describe, expect, inject, it } from 'vitest';
 import { mailOutbox, messagePhotos, messages } from '../../server/db/schema';
 import { createOutboxWorker } from '../../server/lib/mail/outbox';
 import { createTransport } from '../../server/lib/mail/transport';
 import { sendDueDigests } from '../../server/modules/messages/digest';
-import { startServer, type RunningServer } from '../../server/runtime';
+import type { RunningServer } from '../../server/runtime';
 import { bidInput, createJob, createShop, createUser } from '../factories';
-import { connected, emit, next, post, session, socketFor as openSocket } from '../setup/realtime';
-import { createTestDatabase, testConfig, type TestContext } from '../setup/test-env';
+import { connected, emit, next, post, session, twoInstances } from '../setup/realtime';
 
-let database: Awaited<ReturnType<typeof createTestDatabase>>;
-let pool: ReturnType<typeof createPool>;
-let db: Database;
-let instanceA: RunningServer;
-let instanceB: RunningServer;
-let config: TestContext['config'];
-const sockets: Socket[] = [];
-const socketFor = (server: RunningServer, cookie?: string, origin?: string) => openSocket(sockets, server, cookie, origin);
-
-beforeAll(async () => {
-  database = await createTestDatabase();
-  pool = createPool(database.url, 4);
-  db = createDb(pool);
-  config = testConfig(database.url, { PORT: '0', RATE_LIMIT_MESSAGES_PER_10S: '20' });
-  [instanceA, instanceB] = await Promise.all([startServer(config, { migrate: false }), startServer(config, { migrate: false })]);
-});
-afterEach(() => {
-  for (const socket of sockets.splice(0)) socket.disconnect();
-});
-afterAll(async () => {
-  await instanceA?.close();
-  await instanceB?.close();
-  await pool?.end();
-  await database?.drop();
-  if (config) rmSync(config.uploadsDir, { recursive: true, force: true });
-});
+const live = twoInstances({ RATE_LIMIT_MESSAGES_PER_10S: '20' });
+const socketFor = live.socketFor;
 
 /** A job with a bid from one shop, and the conversation between them opened by the builder. */
 async function conversation() {
-  const builder = await createUser(db);
-  const job = await createJob(db, builder.id);
-  const { user: shopUser, shop } = await createShop(db);
-  const builderAuth = await session(instanceA, builder);
-  const shopAuth = await session(instanceB, shopUser);
-  expect((await post(instanceB, shopAuth, `/api/jobs/${job.id}/bids`, bidInput())).status).toBe(201);
-  const opened = await post(instanceA, builderAuth, `/api/jobs/${job.id}/threads`, { shopId: shop.id });
+  const builder = await createUser(live.db);
+  const job = await createJob(live.db, builder.id);
+  const { user: shopUser, shop } = await createShop(live.db);
+  const builderAuth = await session(live.instanceA, builder);
+  const shopAuth = await session(live.instanceB, shopUser);
+  expect((await post(live.instanceB, shopAuth, `/api/jobs/${job.id}/bids`, bidInput())).status).toBe(201);
+  const opened = await post(live.instanceA, builderAuth, `/api/jobs/${job.id}/threads`, { shopId: shop.id });
   expect(opened.status).toBe(201);
   return { builder, shopUser, job, threadId: opened.body.thread.id as string, builderAuth, shopAuth };
 }
@@ -58,15 +31,15 @@ const clientId = () => randomBytes(8).toString('hex');
 
 describe('live messaging', () => {
   it('when a socket has no session, then the connection is refused', async () => {
-    const socket = socketFor(instanceA);
+    const socket = socketFor(live.instanceA);
     await expect(connected(socket)).rejects.toThrow('unauthenticated');
-    const forged = socketFor(instanceA, 'tm.sid=s%3Anot-a-real-session.signature');
+    const forged = socketFor(live.instanceA, 'tm.sid=s%3Anot-a-real-session.signature');
     await expect(connected(forged)).rejects.toThrow('unauthenticated');
   });
 
   it('when an event’s payload nests 1,000 levels deep, then it is refused without being acted on; an oversized frame closes the socket', async () => {
     const { threadId, builderAuth } = await conversation();
-    const socket = socketFor(instanceA, builderAuth.cookie);
+    const socket = socketFor(live.instanceA, builderAuth.cookie);
     await connected(socket);
     // 1,000 levels: socket.io's own client recurses over a payload and cannot send much deeper.
     const deep = JSON.parse('{"a":'.repeat(1_000) + '1' + '}'.repeat(1_000)) as unknown;
@@ -78,7 +51,7 @@ describe('live messaging', () => {
       const answer = await emit(socket, event, payload);
       expect(answer, event).toEqual({ ok: false, error: { code: 'too_deep', message: expect.any(String) } });
     }
-    expect(await db.select().from(messages).where(eq(messages.threadId, threadId))).toHaveLength(0);
+    expect(await live.db.select().from(messages).where(eq(messages.threadId, threadId))).toHaveLength(0);
     // A frame far beyond any message (4,000 characters) is not read at all: the connection closes.
     const closed = new Promise<string>((resolve) => socket.once('disconnect', resolve));
     socket.emit('message:send', { threadId, clientId: clientId(), body: 'x'.repeat(300_000) });
@@ -87,20 +60,20 @@ describe('live messaging', () => {
 
   it('when a user asks to join someone else’s conversation, then it is refused', async () => {
     const { threadId } = await conversation();
-    const stranger = await createUser(db);
-    const socket = socketFor(instanceA, (await session(instanceA, stranger)).cookie);
+    const stranger = await createUser(live.db);
+    const socket = socketFor(live.instanceA, (await session(live.instanceA, stranger)).cookie);
     await connected(socket);
     const answer = await emit(socket, 'thread:join', { threadId });
     expect(answer).toMatchObject({ ok: false, error: { code: 'not_found' } });
     const send = await emit(socket, 'message:send', { threadId, clientId: clientId(), body: 'hello?' });
     expect(send.ok).toBe(false);
-    expect(await db.select().from(messages).where(eq(messages.threadId, threadId))).toHaveLength(0);
+    expect(await live.db.select().from(messages).where(eq(messages.threadId, threadId))).toHaveLength(0);
   });
 
   it('when the shop sends through instance B, then the builder connected to instance A gets it live, and it is stored', async () => {
     const { threadId, builderAuth, shopAuth, builder } = await conversation();
-    const builderSocket = socketFor(instanceA, builderAuth.cookie);
-    const shopSocket = socketFor(instanceB, shopAuth.cookie);
+    const builderSocket = socketFor(live.instanceA, builderAuth.cookie);
+    const shopSocket = socketFor(live.instanceB, shopAuth.cookie);
     await Promise.all([connected(builderSocket), connected(shopSocket)]);
     expect(await emit(builderSocket, 'thread:join', { threadId })).toMatchObject({ ok: true, canWrite: true });
     expect((await emit(shopSocket, 'thread:join', { threadId })).ok).toBe(true);
@@ -116,49 +89,49 @@ describe('live messaging', () => {
     expect(received).toMatchObject({ id: sent.message.id, threadId, body: 'Cylinder 3 has a crack at the top.', author: { role: 'shop' } });
     expect(await unread).toEqual({ threadId });
 
-    const stored = await db.select().from(messages).where(eq(messages.threadId, threadId));
+    const stored = await live.db.select().from(messages).where(eq(messages.threadId, threadId));
     expect(stored.map((m) => m.body)).toEqual(['Cylinder 3 has a crack at the top.']);
 
     // The builder's unread count, then a read receipt that reaches the shop.
-    const threads = await fetch(`${instanceA.url}/api/threads`, { headers: { Cookie: builderAuth.cookie } }).then((r) => r.json());
+    const threads = await fetch(`${live.instanceA.url}/api/threads`, { headers: { Cookie: builderAuth.cookie } }).then((r) => r.json());
     expect(threads.threads.find((t: { id: string }) => t.id === threadId).unread).toBe(1);
     const receipt = next(shopSocket, 'read');
     expect((await emit(builderSocket, 'read', { threadId, messageId: sent.message.id })).ok).toBe(true);
     expect(await receipt).toEqual({ threadId, userId: builder.id, messageId: sent.message.id });
-    const after = await fetch(`${instanceA.url}/api/threads`, { headers: { Cookie: builderAuth.cookie } }).then((r) => r.json());
+    const after = await fetch(`${live.instanceA.url}/api/threads`, { headers: { Cookie: builderAuth.cookie } }).then((r) => r.json());
     expect(after.threads.find((t: { id: string }) => t.id === threadId).unread).toBe(0);
   });
 
   it('when a message is resent after a reconnect with the same id, then it is stored once', async () => {
     const { threadId, shopAuth } = await conversation();
     const id = clientId();
-    const first = socketFor(instanceB, shopAuth.cookie);
+    const first = socketFor(live.instanceB, shopAuth.cookie);
     await connected(first);
     const a = await emit(first, 'message:send', { threadId, clientId: id, body: 'Block arrived.' });
     first.disconnect();
-    const second = socketFor(instanceA, shopAuth.cookie);
+    const second = socketFor(live.instanceA, shopAuth.cookie);
     await connected(second);
     const b = await emit(second, 'message:send', { threadId, clientId: id, body: 'Block arrived.' });
     expect(a).toMatchObject({ ok: true, duplicate: false });
     expect(b).toMatchObject({ ok: true, duplicate: true, message: { id: a.message.id } });
-    expect(await db.select().from(messages).where(eq(messages.threadId, threadId))).toHaveLength(1);
+    expect(await live.db.select().from(messages).where(eq(messages.threadId, threadId))).toHaveLength(1);
   });
 
   it('when someone floods a conversation, then messages past the limit are refused with 429', async () => {
     const { threadId, builderAuth } = await conversation();
-    const socket = socketFor(instanceA, builderAuth.cookie);
+    const socket = socketFor(live.instanceA, builderAuth.cookie);
     await connected(socket);
     const answers = await Promise.all(Array.from({ length: 30 }, (_, i) => emit(socket, 'message:send', { threadId, clientId: clientId(), body: `flood ${i}` })));
     const refused = answers.filter((a) => !a.ok);
     expect(answers.filter((a) => a.ok)).toHaveLength(20);
     expect(refused).toHaveLength(10);
     expect(refused[0].error.code).toBe('too_many_attempts');
-    expect(await db.select().from(messages).where(eq(messages.threadId, threadId))).toHaveLength(20);
+    expect(await live.db.select().from(messages).where(eq(messages.threadId, threadId))).toHaveLength(20);
   });
 
   it('when a message is too long or empty, then the sender is told why and nothing is stored', async () => {
     const { threadId, shopAuth } = await conversation();
-    const socket = socketFor(instanceB, shopAuth.cookie);
+    const socket = socketFor(live.instanceB, shopAuth.cookie);
     await connected(socket);
     const long = await emit(socket, 'message:send', { threadId, clientId: clientId(), body: 'x'.repeat(4001) });
     expect(long).toMatchObject({ ok: false, error: { code: 'invalid_input', fields: { body: 'Keep a message under 4,000 characters.' } } });
@@ -168,25 +141,25 @@ describe('live messaging', () => {
 
   it('when a job page is open and a bid is accepted, then the page hears of it; other shops’ threads become read-only', async () => {
     const { job, threadId, builderAuth, shopAuth } = await conversation();
-    const other = await createShop(db);
-    const otherAuth = await session(instanceA, other.user);
-    const otherBid = await post(instanceA, otherAuth, `/api/jobs/${job.id}/bids`, bidInput());
-    const otherThread = await post(instanceA, builderAuth, `/api/jobs/${job.id}/threads`, { shopId: other.shop.id });
+    const other = await createShop(live.db);
+    const otherAuth = await session(live.instanceA, other.user);
+    const otherBid = await post(live.instanceA, otherAuth, `/api/jobs/${job.id}/bids`, bidInput());
+    const otherThread = await post(live.instanceA, builderAuth, `/api/jobs/${job.id}/threads`, { shopId: other.shop.id });
 
-    const watcher = socketFor(instanceB, shopAuth.cookie);
+    const watcher = socketFor(live.instanceB, shopAuth.cookie);
     await connected(watcher);
     expect((await emit(watcher, 'job:watch', { jobId: job.id })).ok).toBe(true);
     const change = next(watcher, 'job:changed');
-    expect((await post(instanceA, builderAuth, `/api/bids/${otherBid.body.bid.id}/accept`, {})).status).toBe(200);
+    expect((await post(live.instanceA, builderAuth, `/api/bids/${otherBid.body.bid.id}/accept`, {})).status).toBe(200);
     expect(await change).toEqual({ jobId: job.id, change: 'bid_accepted' });
 
     // The losing shop's conversation is closed; the winner's goes on.
-    const loser = await post(instanceB, shopAuth, `/api/threads/${threadId}/messages`, { clientId: clientId(), body: 'Still there?' });
+    const loser = await post(live.instanceB, shopAuth, `/api/threads/${threadId}/messages`, { clientId: clientId(), body: 'Still there?' });
     expect(loser.status).toBe(409);
-    const winner = await post(instanceA, otherAuth, `/api/threads/${otherThread.body.thread.id}/messages`, { clientId: clientId(), body: 'Ship it Monday.' });
+    const winner = await post(live.instanceA, otherAuth, `/api/threads/${otherThread.body.thread.id}/messages`, { clientId: clientId(), body: 'Ship it Monday.' });
     expect(winner.status).toBe(201);
 
-    const stranger = socketFor(instanceA, (await session(instanceA, await createUser(db))).cookie);
+    const stranger = socketFor(live.instanceA, (await session(live.instanceA, await createUser(live.db))).cookie);
     await connected(stranger);
     expect((await emit(stranger, 'job:watch', { jobId: job.id })).ok).toBe(false);
   });
@@ -194,12 +167,12 @@ describe('live messaging', () => {
   it('when the history is paged, then every message comes back once, newest first', async () => {
     const { threadId, builderAuth } = await conversation();
     for (let i = 0; i < 7; i += 1) {
-      expect((await post(instanceA, builderAuth, `/api/threads/${threadId}/messages`, { clientId: clientId(), body: `note ${i}` })).status).toBe(201);
+      expect((await post(live.instanceA, builderAuth, `/api/threads/${threadId}/messages`, { clientId: clientId(), body: `note ${i}` })).status).toBe(201);
     }
     const seen: string[] = [];
     let cursor: string | null = null;
     do {
-      const url = `${instanceA.url}/api/threads/${threadId}/messages?limit=3${cursor ? `&before=${cursor}` : ''}`;
+      const url = `${live.instanceA.url}/api/threads/${threadId}/messages?limit=3${cursor ? `&before=${cursor}` : ''}`;
       const page = (await fetch(url, { headers: { Cookie: builderAuth.cookie } }).then((r) => r.json())) as { messages: Array<{ body: string }>; nextCursor: string | null };
       seen.push(...page.messages.map((m) => m.body));
       cursor = page.nextCursor;
@@ -210,19 +183,19 @@ describe('live messaging', () => {
   it('when messages wait unread for ten minutes, then one digest per conversation arrives in maildev, once', async () => {
     const { threadId, shopAuth, builder } = await conversation();
     for (const body of ['First question', 'Second question', 'Third question']) {
-      expect((await post(instanceB, shopAuth, `/api/threads/${threadId}/messages`, { clientId: clientId(), body })).status).toBe(201);
+      expect((await post(live.instanceB, shopAuth, `/api/threads/${threadId}/messages`, { clientId: clientId(), body })).status).toBe(201);
     }
-    expect(await sendDueDigests({ db, appUrl: 'http://localhost' }, new Date())).toBe(0); // not ten minutes yet
+    expect(await sendDueDigests({ db: live.db, appUrl: 'http://localhost' }, new Date())).toBe(0); // not ten minutes yet
     const later = new Date(Date.now() + 11 * 60_000);
-    expect(await sendDueDigests({ db, appUrl: 'http://localhost' }, later)).toBeGreaterThanOrEqual(1);
-    expect(await sendDueDigests({ db, appUrl: 'http://localhost' }, new Date(later.getTime() + 60_000))).toBe(0);
+    expect(await sendDueDigests({ db: live.db, appUrl: 'http://localhost' }, later)).toBeGreaterThanOrEqual(1);
+    expect(await sendDueDigests({ db: live.db, appUrl: 'http://localhost' }, new Date(later.getTime() + 60_000))).toBe(0);
 
-    const queued = await db.select().from(mailOutbox).where(and(eq(mailOutbox.toAddress, builder.email), eq(mailOutbox.template, 'unread_digest')));
+    const queued = await live.db.select().from(mailOutbox).where(and(eq(mailOutbox.toAddress, builder.email), eq(mailOutbox.template, 'unread_digest')));
     expect(queued).toHaveLength(1);
     expect(queued[0].subject).toContain('3 messages');
 
     const transport = createTransport({ host: '127.0.0.1', port: inject('smtpPort'), secure: false });
-    await createOutboxWorker({ db, transport, from: 'Tenthmark <no-reply@tenthmark.test>' }).processDue();
+    await createOutboxWorker({ db: live.db, transport, from: 'Tenthmark <no-reply@tenthmark.test>' }).processDue();
     transport.close();
     const deadline = Date.now() + 5_000;
     let arrived: Array<{ subject: string; to: Array<{ address: string }> }> = [];
@@ -251,23 +224,23 @@ async function getImage(server: RunningServer, path: string, cookie?: string) {
 
 const jpeg = (width = 640, height = 480) => sharp({ create: { width, height, channels: 3, background: { r: 120, g: 110, b: 100 } } }).jpeg().toBuffer();
 
-const photoRows = (threadId: string) => db.select().from(messagePhotos).where(eq(messagePhotos.threadId, threadId));
+const photoRows = (threadId: string) => live.db.select().from(messagePhotos).where(eq(messagePhotos.threadId, threadId));
 
 describe('photos in messages', () => {
   it('when the shop uploads a photo and sends it, then the builder on the other instance gets it live, can load it, and a stranger cannot', async () => {
     const { threadId, builderAuth, shopAuth } = await conversation();
-    const builderSocket = socketFor(instanceA, builderAuth.cookie);
-    const shopSocket = socketFor(instanceB, shopAuth.cookie);
+    const builderSocket = socketFor(live.instanceA, builderAuth.cookie);
+    const shopSocket = socketFor(live.instanceB, shopAuth.cookie);
     await Promise.all([connected(builderSocket), connected(shopSocket)]);
     expect((await emit(builderSocket, 'thread:join', { threadId })).ok).toBe(true);
 
-    const uploaded = await uploadPhotos(instanceB, shopAuth, threadId, [{ data: await jpeg(3000, 2000), name: 'cylinder-3.jpg' }]);
+    const uploaded = await uploadPhotos(live.instanceB, shopAuth, threadId, [{ data: await jpeg(3000, 2000), name: 'cylinder-3.jpg' }]);
     expect(uploaded.status).toBe(201);
     const [photo] = uploaded.body.photos;
     expect(photo).toMatchObject({ width: 2000, height: 1333, thumbUrl: `/api/threads/${threadId}/photos/${photo.id}/thumb`, largeUrl: `/api/threads/${threadId}/photos/${photo.id}/large` });
     // Until it is sent, only the uploader sees it.
-    expect((await getImage(instanceA, photo.thumbUrl, shopAuth.cookie)).status).toBe(200);
-    expect((await getImage(instanceA, photo.thumbUrl, builderAuth.cookie)).status).toBe(404);
+    expect((await getImage(live.instanceA, photo.thumbUrl, shopAuth.cookie)).status).toBe(200);
+    expect((await getImage(live.instanceA, photo.thumbUrl, builderAuth.cookie)).status).toBe(404);
 
     const arriving = next(builderSocket, 'message:new');
     const sent = await emit(shopSocket, 'message:send', { threadId, clientId: clientId(), body: '', photoIds: [photo.id] });
@@ -275,27 +248,27 @@ describe('photos in messages', () => {
     const received = await arriving;
     expect(received).toMatchObject({ id: sent.message.id, body: '', photos: [{ id: photo.id, width: 2000, height: 1333, thumbUrl: photo.thumbUrl, largeUrl: photo.largeUrl }] });
 
-    const large = await getImage(instanceA, received.photos[0].largeUrl, builderAuth.cookie);
+    const large = await getImage(live.instanceA, received.photos[0].largeUrl, builderAuth.cookie);
     expect(large.status).toBe(200);
     expect(large.type).toBe('image/webp');
     expect(await sharp(large.data).metadata()).toMatchObject({ format: 'webp', width: 2000, height: 1333 });
-    const thumb = await sharp((await getImage(instanceA, received.photos[0].thumbUrl, builderAuth.cookie)).data).metadata();
+    const thumb = await sharp((await getImage(live.instanceA, received.photos[0].thumbUrl, builderAuth.cookie)).data).metadata();
     expect(Math.max(thumb.width!, thumb.height!)).toBe(480);
 
     // The history carries the photo too.
-    const page = await fetch(`${instanceA.url}/api/threads/${threadId}/messages`, { headers: { Cookie: builderAuth.cookie } }).then((r) => r.json());
+    const page = await fetch(`${live.instanceA.url}/api/threads/${threadId}/messages`, { headers: { Cookie: builderAuth.cookie } }).then((r) => r.json());
     expect(page.messages[0].photos).toEqual([photo]);
 
     // Someone outside the conversation is told it does not exist; nobody signed out gets it either.
-    const stranger = await session(instanceA, await createUser(db));
-    expect((await getImage(instanceA, photo.largeUrl, stranger.cookie)).status).toBe(404);
-    expect((await getImage(instanceA, photo.largeUrl)).status).toBe(401);
-    expect((await uploadPhotos(instanceA, stranger, threadId, [{ data: await jpeg(), name: 'mine.jpg' }])).status).toBe(404);
+    const stranger = await session(live.instanceA, await createUser(live.db));
+    expect((await getImage(live.instanceA, photo.largeUrl, stranger.cookie)).status).toBe(404);
+    expect((await getImage(live.instanceA, photo.largeUrl)).status).toBe(401);
+    expect((await uploadPhotos(live.instanceA, stranger, threadId, [{ data: await jpeg(), name: 'mine.jpg' }])).status).toBe(404);
   });
 
   it('when words and several photos go together, then the photos keep the order they were attached in', async () => {
     const { threadId, builderAuth } = await conversation();
-    const uploaded = await uploadPhotos(instanceA, builderAuth, threadId, [
+    const uploaded = await uploadPhotos(live.instanceA, builderAuth, threadId, [
       { data: await jpeg(300, 200), name: 'a.jpg' },
       { data: await jpeg(200, 300), name: 'b.jpg' },
       { data: Buffer.from(await sharp({ create: { width: 100, height: 100, channels: 4, background: '#345' } }).png().toBuffer()), name: 'c.png', type: 'image/png' },
@@ -303,16 +276,16 @@ describe('photos in messages', () => {
     expect(uploaded.status).toBe(201);
     const ids = (uploaded.body.photos as Array<{ id: string }>).map((p) => p.id);
     const order = [ids[2], ids[0], ids[1]];
-    const sent = await post(instanceA, builderAuth, `/api/threads/${threadId}/messages`, { clientId: clientId(), body: 'Front, left side, and the deck.', photoIds: order });
+    const sent = await post(live.instanceA, builderAuth, `/api/threads/${threadId}/messages`, { clientId: clientId(), body: 'Front, left side, and the deck.', photoIds: order });
     expect(sent.status).toBe(201);
     expect(sent.body.message.photos.map((p: { id: string }) => p.id)).toEqual(order);
-    const page = await fetch(`${instanceB.url}/api/threads/${threadId}/messages`, { headers: { Cookie: builderAuth.cookie } }).then((r) => r.json());
+    const page = await fetch(`${live.instanceB.url}/api/threads/${threadId}/messages`, { headers: { Cookie: builderAuth.cookie } }).then((r) => r.json());
     expect(page.messages[0].photos.map((p: { id: string }) => p.id)).toEqual(order);
   });
 
   it('when an executable is renamed .jpg, then 415 and nothing is stored', async () => {
     const { threadId, shopAuth } = await conversation();
-    const res = await uploadPhotos(instanceB, shopAuth, threadId, [{ data: readFileSync('/bin/true'), name: 'bore-gauge.jpg' }]);
+    const res = await uploadPhotos(live.instanceB, shopAuth, threadId, [{ data: readFileSync('/bin/true'), name: 'bore-gauge.jpg' }]);
     expect(res.status).toBe(415);
     expect(res.body.error.code).toBe('unsupported_type');
     expect(await photoRows(threadId)).toHaveLength(0);
@@ -320,63 +293,63 @@ describe('photos in messages', () => {
 
   it('when a message names another person’s photo, a photo from another conversation or one already sent, then 400 beside photoIds and nothing is stored', async () => {
     const { threadId, builderAuth, shopAuth } = await conversation();
-    const builders = await uploadPhotos(instanceA, builderAuth, threadId, [{ data: await jpeg(), name: 'builder.jpg' }]);
+    const builders = await uploadPhotos(live.instanceA, builderAuth, threadId, [{ data: await jpeg(), name: 'builder.jpg' }]);
     expect(builders.status).toBe(201);
-    const theirs = await post(instanceB, shopAuth, `/api/threads/${threadId}/messages`, { clientId: clientId(), body: 'Look at this', photoIds: [builders.body.photos[0].id] });
+    const theirs = await post(live.instanceB, shopAuth, `/api/threads/${threadId}/messages`, { clientId: clientId(), body: 'Look at this', photoIds: [builders.body.photos[0].id] });
     expect(theirs.status).toBe(400);
     expect(theirs.body.error.fields.photoIds).toBe('That photo is not one you uploaded to this conversation, or it was already sent.');
 
     // The shop's own photo, but uploaded to its conversation about another job.
-    const otherJob = await createJob(db, (await createUser(db)).id);
-    const otherThread = await post(instanceB, shopAuth, `/api/jobs/${otherJob.id}/threads`, {});
+    const otherJob = await createJob(live.db, (await createUser(live.db)).id);
+    const otherThread = await post(live.instanceB, shopAuth, `/api/jobs/${otherJob.id}/threads`, {});
     expect(otherThread.status).toBe(201);
-    const other = await uploadPhotos(instanceB, shopAuth, otherThread.body.thread.id, [{ data: await jpeg(), name: 'other-job.jpg' }]);
+    const other = await uploadPhotos(live.instanceB, shopAuth, otherThread.body.thread.id, [{ data: await jpeg(), name: 'other-job.jpg' }]);
     expect(other.status).toBe(201);
-    const crossed = await post(instanceB, shopAuth, `/api/threads/${threadId}/messages`, { clientId: clientId(), photoIds: [other.body.photos[0].id] });
+    const crossed = await post(live.instanceB, shopAuth, `/api/threads/${threadId}/messages`, { clientId: clientId(), photoIds: [other.body.photos[0].id] });
     expect(crossed.status).toBe(400);
     expect(crossed.body.error.fields.photoIds).toMatch(/not one you uploaded to this conversation/);
 
-    const mine = await uploadPhotos(instanceB, shopAuth, threadId, [{ data: await jpeg(), name: 'shop.jpg' }]);
-    const first = await post(instanceB, shopAuth, `/api/threads/${threadId}/messages`, { clientId: clientId(), photoIds: [mine.body.photos[0].id] });
+    const mine = await uploadPhotos(live.instanceB, shopAuth, threadId, [{ data: await jpeg(), name: 'shop.jpg' }]);
+    const first = await post(live.instanceB, shopAuth, `/api/threads/${threadId}/messages`, { clientId: clientId(), photoIds: [mine.body.photos[0].id] });
     expect(first.status).toBe(201);
-    const again = await post(instanceB, shopAuth, `/api/threads/${threadId}/messages`, { clientId: clientId(), body: 'Once more', photoIds: [mine.body.photos[0].id] });
+    const again = await post(live.instanceB, shopAuth, `/api/threads/${threadId}/messages`, { clientId: clientId(), body: 'Once more', photoIds: [mine.body.photos[0].id] });
     expect(again.status).toBe(400);
     expect(again.body.error.fields.photoIds).toMatch(/already sent/);
 
     // The schema's own limits: five photos, the same one twice, or nothing at all.
-    const five = await post(instanceB, shopAuth, `/api/threads/${threadId}/messages`, { clientId: clientId(), photoIds: Array.from({ length: 5 }, () => crypto.randomUUID()) });
+    const five = await post(live.instanceB, shopAuth, `/api/threads/${threadId}/messages`, { clientId: clientId(), photoIds: Array.from({ length: 5 }, () => crypto.randomUUID()) });
     expect(five.body.error.fields.photoIds).toBe('A message can carry at most 4 photos.');
-    const twice = await post(instanceB, shopAuth, `/api/threads/${threadId}/messages`, { clientId: clientId(), photoIds: [mine.body.photos[0].id, mine.body.photos[0].id] });
+    const twice = await post(live.instanceB, shopAuth, `/api/threads/${threadId}/messages`, { clientId: clientId(), photoIds: [mine.body.photos[0].id, mine.body.photos[0].id] });
     expect(twice.body.error.fields.photoIds).toBe('The same photo is attached twice.');
-    const nothing = await post(instanceB, shopAuth, `/api/threads/${threadId}/messages`, { clientId: clientId(), body: ' ', photoIds: [] });
+    const nothing = await post(live.instanceB, shopAuth, `/api/threads/${threadId}/messages`, { clientId: clientId(), body: ' ', photoIds: [] });
     expect(nothing.body.error.fields.body).toBe('Write a message or add a photo.');
 
-    const stored = await db.select().from(messages).where(eq(messages.threadId, threadId));
+    const stored = await live.db.select().from(messages).where(eq(messages.threadId, threadId));
     expect(stored).toHaveLength(1);
     const rows = await photoRows(threadId);
     expect(rows.find((r) => r.id === builders.body.photos[0].id)?.messageId).toBeNull();
     expect(rows.find((r) => r.id === mine.body.photos[0].id)?.messageId).toBe(first.body.message.id);
 
-    const tooMany = await uploadPhotos(instanceB, shopAuth, threadId, Array.from({ length: 5 }, (_, i) => ({ data: Buffer.from('x'), name: `p${i}.jpg` })));
+    const tooMany = await uploadPhotos(live.instanceB, shopAuth, threadId, Array.from({ length: 5 }, (_, i) => ({ data: Buffer.from('x'), name: `p${i}.jpg` })));
     expect(tooMany.status).toBe(413);
     expect(tooMany.body.error.code).toBe('too_many_photos');
   });
 
   it('when a message with a photo is resent after a reconnect with the same id, then it is stored once with the photo attached once', async () => {
     const { threadId, shopAuth } = await conversation();
-    const uploaded = await uploadPhotos(instanceB, shopAuth, threadId, [{ data: await jpeg(), name: 'crank.jpg' }]);
+    const uploaded = await uploadPhotos(live.instanceB, shopAuth, threadId, [{ data: await jpeg(), name: 'crank.jpg' }]);
     const payload = { threadId, clientId: clientId(), body: 'The crank, as it came in.', photoIds: [uploaded.body.photos[0].id] };
-    const first = socketFor(instanceB, shopAuth.cookie);
+    const first = socketFor(live.instanceB, shopAuth.cookie);
     await connected(first);
     const a = await emit(first, 'message:send', payload);
     first.disconnect();
-    const second = socketFor(instanceA, shopAuth.cookie);
+    const second = socketFor(live.instanceA, shopAuth.cookie);
     await connected(second);
     const b = await emit(second, 'message:send', payload);
     expect(a).toMatchObject({ ok: true, duplicate: false });
     expect(b).toMatchObject({ ok: true, duplicate: true, message: { id: a.message.id, photos: a.message.photos } });
     expect(b.message.photos).toHaveLength(1);
-    expect(await db.select().from(messages).where(eq(messages.threadId, threadId))).toHaveLength(1);
+    expect(await live.db.select().from(messages).where(eq(messages.threadId, threadId))).toHaveLength(1);
     const rows = await photoRows(threadId);
     expect(rows).toHaveLength(1);
     expect(rows[0]).toMatchObject({ messageId: a.message.id, position: 0 });
@@ -395,11 +368,11 @@ describe('photos in messages', () => {
     // The GPSInfo pointer, tag 0x8825, stored little-endian.
     expect(inputMeta.exif?.includes(Buffer.from([0x25, 0x88]))).toBe(true);
 
-    const uploaded = await uploadPhotos(instanceB, shopAuth, threadId, [{ data: withGps, name: 'where-it-was-taken.jpg' }]);
+    const uploaded = await uploadPhotos(live.instanceB, shopAuth, threadId, [{ data: withGps, name: 'where-it-was-taken.jpg' }]);
     expect(uploaded.status).toBe(201);
-    expect((await post(instanceB, shopAuth, `/api/threads/${threadId}/messages`, { clientId: clientId(), photoIds: [uploaded.body.photos[0].id] })).status).toBe(201);
+    expect((await post(live.instanceB, shopAuth, `/api/threads/${threadId}/messages`, { clientId: clientId(), photoIds: [uploaded.body.photos[0].id] })).status).toBe(201);
     for (const size of ['largeUrl', 'thumbUrl'] as const) {
-      const stored = (await getImage(instanceA, uploaded.body.photos[0][size], builderAuth.cookie)).data;
+      const stored = (await getImage(live.instanceA, uploaded.body.photos[0][size], builderAuth.cookie)).data;
       const meta = await sharp(stored).metadata();
       expect(meta.exif).toBeUndefined();
       expect(meta.xmp).toBeUndefined();
@@ -409,11 +382,11 @@ describe('photos in messages', () => {
 
   it('when the conversation is closed, then photos cannot be uploaded to it', async () => {
     const { job, threadId, shopAuth, builderAuth } = await conversation();
-    const other = await createShop(db);
-    const otherAuth = await session(instanceA, other.user);
-    const otherBid = await post(instanceA, otherAuth, `/api/jobs/${job.id}/bids`, bidInput());
-    expect((await post(instanceA, builderAuth, `/api/bids/${otherBid.body.bid.id}/accept`, {})).status).toBe(200);
-    const res = await uploadPhotos(instanceB, shopAuth, threadId, [{ data: await jpeg(), name: 'late.jpg' }]);
+    const other = await createShop(live.db);
+    const otherAuth = await session(live.instanceA, other.user);
+    const otherBid = await post(live.instanceA, otherAuth, `/api/jobs/${job.id}/bids`, bidInput());
+    expect((await post(live.instanceA, builderAuth, `/api/bids/${otherBid.body.bid.id}/accept`, {})).status).toBe(200);
+    const res = await uploadPhotos(live.instanceB, shopAuth, threadId, [{ data: await jpeg(), name: 'late.jpg' }]);
     expect(res.status).toBe(409);
     expect(res.body.error.code).toBe('thread_closed');
     expect(await photoRows(threadId)).toHaveLength(0);

@@ -6,43 +6,16 @@
  * after the award; a page of another site cannot open a socket at all.
  */
 import { randomBytes } from 'node:crypto';
-import { rmSync } from 'node:fs';
 import { and, desc, eq, sql } from 'drizzle-orm';
 import type { Socket } from 'socket.io-client';
-import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
-import { createDb, createPool, type Database } from '../../server/db/client';
+import { describe, expect, it } from 'vitest';
 import { mailOutbox, messages } from '../../server/db/schema';
-import { startServer, type RunningServer } from '../../server/runtime';
+import type { RunningServer } from '../../server/runtime';
 import { bidInput, createJob, createShop, createUser, TEST_PASSWORD } from '../factories';
-import { connected, emit, next, post, session, socketFor as openSocket, visitor, type Auth } from '../setup/realtime';
-import { createTestDatabase, testConfig, type TestContext } from '../setup/test-env';
+import { connected, emit, next, post, session, twoInstances, visitor, type Auth } from '../setup/realtime';
 
-let database: Awaited<ReturnType<typeof createTestDatabase>>;
-let pool: ReturnType<typeof createPool>;
-let db: Database;
-let instanceA: RunningServer;
-let instanceB: RunningServer;
-let config: TestContext['config'];
-const sockets: Socket[] = [];
-const socketFor = (server: RunningServer, cookie?: string, origin?: string) => openSocket(sockets, server, cookie, origin);
-
-beforeAll(async () => {
-  database = await createTestDatabase();
-  pool = createPool(database.url, 4);
-  db = createDb(pool);
-  config = testConfig(database.url, { PORT: '0' });
-  [instanceA, instanceB] = await Promise.all([startServer(config, { migrate: false }), startServer(config, { migrate: false })]);
-});
-afterEach(() => {
-  for (const socket of sockets.splice(0)) socket.disconnect();
-});
-afterAll(async () => {
-  await instanceA?.close();
-  await instanceB?.close();
-  await pool?.end();
-  await database?.drop();
-  if (config) rmSync(config.uploadsDir, { recursive: true, force: true });
-});
+const live = twoInstances();
+const socketFor = live.socketFor;
 
 const me = async (server: RunningServer, auth: Auth) => (await fetch(`${server.url}/api/auth/me`, { headers: { Cookie: auth.cookie } })).status;
 
@@ -68,18 +41,18 @@ const clientId = () => randomBytes(8).toString('hex');
 
 /** A job with a bid from one shop and the conversation the shop opened; the builder signed in. */
 async function conversation() {
-  const builder = await createUser(db);
-  const job = await createJob(db, builder.id);
-  const { user: shopUser } = await createShop(db);
-  const shopAuth = await session(instanceB, shopUser);
-  const opened = await post(instanceB, shopAuth, `/api/jobs/${job.id}/threads`);
+  const builder = await createUser(live.db);
+  const job = await createJob(live.db, builder.id);
+  const { user: shopUser } = await createShop(live.db);
+  const shopAuth = await session(live.instanceB, shopUser);
+  const opened = await post(live.instanceB, shopAuth, `/api/jobs/${job.id}/threads`);
   expect(opened.status).toBe(201);
   return { builder, shopUser, job, threadId: opened.body.thread.id as string, shopAuth };
 }
 
 /** The token of the newest reset mail queued for an address. */
 async function latestResetToken(email: string) {
-  const [mail] = await db
+  const [mail] = await live.db
     .select()
     .from(mailOutbox)
     .where(and(eq(mailOutbox.toAddress, email), eq(mailOutbox.template, 'reset_password')))
@@ -91,16 +64,16 @@ async function latestResetToken(email: string) {
 describe('sockets end with the session', () => {
   it('when a person signs out, then that session’s socket is closed on the other instance, and their other session stays connected', async () => {
     const { builder, threadId } = await conversation();
-    const leaving = await session(instanceA, builder);
-    const staying = await session(instanceB, builder);
-    const leavingSocket = socketFor(instanceB, leaving.cookie);
-    const stayingSocket = socketFor(instanceA, staying.cookie);
+    const leaving = await session(live.instanceA, builder);
+    const staying = await session(live.instanceB, builder);
+    const leavingSocket = socketFor(live.instanceB, leaving.cookie);
+    const stayingSocket = socketFor(live.instanceA, staying.cookie);
     await Promise.all([connected(leavingSocket), connected(stayingSocket)]);
     expect((await emit(leavingSocket, 'thread:join', { threadId })).ok).toBe(true);
 
     const closed = disconnected(leavingSocket);
     const stayingClosed = heard(stayingSocket, 'disconnect');
-    const out = await fetch(`${instanceA.url}/api/auth/logout`, { method: 'POST', headers: { Cookie: leaving.cookie, 'X-CSRF-Token': leaving.csrf } });
+    const out = await fetch(`${live.instanceA.url}/api/auth/logout`, { method: 'POST', headers: { Cookie: leaving.cookie, 'X-CSRF-Token': leaving.csrf } });
     expect(out.status).toBe(204);
     expect(await closed).toBe('io server disconnect');
 
@@ -109,86 +82,86 @@ describe('sockets end with the session', () => {
     expect(stayingClosed).toEqual([]);
     expect(stayingSocket.connected).toBe(true);
     expect(await emit(stayingSocket, 'message:send', { threadId, clientId: clientId(), body: 'Still here on the other device.' })).toMatchObject({ ok: true });
-    expect(await me(instanceB, staying)).toBe(200);
-    expect(await me(instanceA, leaving)).toBe(401);
+    expect(await me(live.instanceB, staying)).toBe(200);
+    expect(await me(live.instanceA, leaving)).toBe(401);
     // The old cookie opens no new socket either.
-    await expect(connected(socketFor(instanceA, leaving.cookie))).rejects.toThrow('unauthenticated');
+    await expect(connected(socketFor(live.instanceA, leaving.cookie))).rejects.toThrow('unauthenticated');
   });
 
   it('when the session row is gone, then the socket’s next message is refused, nothing is stored, and the socket is closed', async () => {
     const { shopUser, threadId, shopAuth } = await conversation();
-    const socket = socketFor(instanceA, shopAuth.cookie);
+    const socket = socketFor(live.instanceA, shopAuth.cookie);
     await connected(socket);
     // Ended behind the app's back (expired, or deleted by hand): no disconnect was sent.
-    await db.execute(sql`DELETE FROM sessions WHERE sess -> 'passport' ->> 'user' = ${shopUser.id}`);
+    await live.db.execute(sql`DELETE FROM sessions WHERE sess -> 'passport' ->> 'user' = ${shopUser.id}`);
 
     const closed = disconnected(socket);
     const answer = await emit(socket, 'message:send', { threadId, clientId: clientId(), body: 'From a session that has ended.' });
     expect(answer).toMatchObject({ ok: false, error: { code: 'unauthenticated' } });
     expect(await closed).toBe('io server disconnect');
-    expect(await db.select().from(messages).where(eq(messages.threadId, threadId))).toHaveLength(0);
+    expect(await live.db.select().from(messages).where(eq(messages.threadId, threadId))).toHaveLength(0);
   });
 
   it('when the password is reset by mail, then every socket of that person is closed, on both instances', async () => {
     const { builder } = await conversation();
-    const [one, two] = [await session(instanceA, builder), await session(instanceB, builder)];
-    const socketOne = socketFor(instanceA, one.cookie);
-    const socketTwo = socketFor(instanceB, two.cookie);
+    const [one, two] = [await session(live.instanceA, builder), await session(live.instanceB, builder)];
+    const socketOne = socketFor(live.instanceA, one.cookie);
+    const socketTwo = socketFor(live.instanceB, two.cookie);
     await Promise.all([connected(socketOne), connected(socketTwo)]);
     const closed = Promise.all([disconnected(socketOne), disconnected(socketTwo)]);
 
-    const anon = await visitor(instanceB);
-    expect((await post(instanceB, anon, '/api/auth/password-reset/request', { email: builder.email })).status).toBe(202);
+    const anon = await visitor(live.instanceB);
+    expect((await post(live.instanceB, anon, '/api/auth/password-reset/request', { email: builder.email })).status).toBe(202);
     const token = await latestResetToken(builder.email);
-    expect((await post(instanceB, anon, '/api/auth/password-reset/confirm', { token, password: 'a reset new password' })).status).toBe(200);
+    expect((await post(live.instanceB, anon, '/api/auth/password-reset/confirm', { token, password: 'a reset new password' })).status).toBe(200);
 
     expect(await closed).toEqual(['io server disconnect', 'io server disconnect']);
-    expect(await me(instanceA, one)).toBe(401);
+    expect(await me(live.instanceA, one)).toBe(401);
   });
 
   it('when the password is changed, then the other sessions and their sockets end, this one goes on, and an outstanding reset link dies', async () => {
     const { shopUser, threadId } = await conversation();
-    const here = await session(instanceA, shopUser);
-    const elsewhere = await session(instanceB, shopUser);
-    const hereSocket = socketFor(instanceB, here.cookie);
-    const elsewhereSocket = socketFor(instanceA, elsewhere.cookie);
+    const here = await session(live.instanceA, shopUser);
+    const elsewhere = await session(live.instanceB, shopUser);
+    const hereSocket = socketFor(live.instanceB, here.cookie);
+    const elsewhereSocket = socketFor(live.instanceA, elsewhere.cookie);
     await Promise.all([connected(hereSocket), connected(elsewhereSocket)]);
-    const anon = await visitor(instanceA);
-    expect((await post(instanceA, anon, '/api/auth/password-reset/request', { email: shopUser.email })).status).toBe(202);
+    const anon = await visitor(live.instanceA);
+    expect((await post(live.instanceA, anon, '/api/auth/password-reset/request', { email: shopUser.email })).status).toBe(202);
     const outstanding = await latestResetToken(shopUser.email);
 
-    const wrong = await post(instanceA, here, '/api/auth/password', { currentPassword: 'not my password', newPassword: 'a changed password' });
+    const wrong = await post(live.instanceA, here, '/api/auth/password', { currentPassword: 'not my password', newPassword: 'a changed password' });
     expect(wrong.status).toBe(400);
     expect(wrong.body.error).toMatchObject({ code: 'wrong_password', fields: { currentPassword: expect.any(String) } });
-    const weak = await post(instanceA, here, '/api/auth/password', { currentPassword: TEST_PASSWORD, newPassword: 'short' });
+    const weak = await post(live.instanceA, here, '/api/auth/password', { currentPassword: TEST_PASSWORD, newPassword: 'short' });
     expect(weak.status).toBe(400);
     expect(weak.body.error.fields.newPassword).toBe('Use at least 10 characters.');
     expect(elsewhereSocket.connected).toBe(true);
 
     const closed = disconnected(elsewhereSocket);
     const hereClosed = heard(hereSocket, 'disconnect');
-    const changed = await post(instanceA, here, '/api/auth/password', { currentPassword: TEST_PASSWORD, newPassword: 'a changed password' });
+    const changed = await post(live.instanceA, here, '/api/auth/password', { currentPassword: TEST_PASSWORD, newPassword: 'a changed password' });
     expect(changed).toEqual({ status: 200, body: { changed: true } });
     expect(await closed).toBe('io server disconnect');
 
     await pause(300);
     expect(hereClosed).toEqual([]);
     expect(await emit(hereSocket, 'message:send', { threadId, clientId: clientId(), body: 'Changed my password, still here.' })).toMatchObject({ ok: true });
-    expect(await me(instanceA, here)).toBe(200);
-    expect(await me(instanceB, elsewhere)).toBe(401);
-    await expect(connected(socketFor(instanceB, elsewhere.cookie))).rejects.toThrow('unauthenticated');
+    expect(await me(live.instanceA, here)).toBe(200);
+    expect(await me(live.instanceB, elsewhere)).toBe(401);
+    await expect(connected(socketFor(live.instanceB, elsewhere.cookie))).rejects.toThrow('unauthenticated');
 
-    const stale = await post(instanceB, anon, '/api/auth/password-reset/confirm', { token: outstanding, password: 'an attacker password' });
+    const stale = await post(live.instanceB, anon, '/api/auth/password-reset/confirm', { token: outstanding, password: 'an attacker password' });
     expect(stale.status).toBe(400);
     expect(stale.body.error.code).toBe('link_expired');
-    expect((await session(instanceB, { email: shopUser.email, password: 'a changed password' })).cookie).toBeTruthy();
-    const mails = await db.select().from(mailOutbox).where(and(eq(mailOutbox.toAddress, shopUser.email), eq(mailOutbox.template, 'password_changed')));
+    expect((await session(live.instanceB, { email: shopUser.email, password: 'a changed password' })).cookie).toBeTruthy();
+    const mails = await live.db.select().from(mailOutbox).where(and(eq(mailOutbox.toAddress, shopUser.email), eq(mailOutbox.template, 'password_changed')));
     expect(mails).toHaveLength(1);
   });
 
   it('when nobody is signed in, then changing a password is 401', async () => {
-    const anon = await visitor(instanceA);
-    const res = await post(instanceA, anon, '/api/auth/password', { currentPassword: TEST_PASSWORD, newPassword: 'a changed password' });
+    const anon = await visitor(live.instanceA);
+    const res = await post(live.instanceA, anon, '/api/auth/password', { currentPassword: TEST_PASSWORD, newPassword: 'a changed password' });
     expect(res.status).toBe(401);
     expect(res.body.error.code).toBe('unauthenticated');
   });
@@ -196,35 +169,35 @@ describe('sockets end with the session', () => {
 
 describe('a job’s live room after the award', () => {
   it('when a bid is accepted, then the losing bidder hears the award and nothing after it; the winner goes on hearing', async () => {
-    const builder = await createUser(db);
-    const job = await createJob(db, builder.id);
-    const loser = await createShop(db);
-    const winner = await createShop(db);
-    const looker = await createShop(db);
-    const builderAuth = await session(instanceA, builder);
-    const loserAuth = await session(instanceB, loser.user);
-    const winnerAuth = await session(instanceA, winner.user);
-    expect((await post(instanceB, loserAuth, `/api/jobs/${job.id}/bids`, bidInput())).status).toBe(201);
-    const winning = await post(instanceA, winnerAuth, `/api/jobs/${job.id}/bids`, bidInput());
+    const builder = await createUser(live.db);
+    const job = await createJob(live.db, builder.id);
+    const loser = await createShop(live.db);
+    const winner = await createShop(live.db);
+    const looker = await createShop(live.db);
+    const builderAuth = await session(live.instanceA, builder);
+    const loserAuth = await session(live.instanceB, loser.user);
+    const winnerAuth = await session(live.instanceA, winner.user);
+    expect((await post(live.instanceB, loserAuth, `/api/jobs/${job.id}/bids`, bidInput())).status).toBe(201);
+    const winning = await post(live.instanceA, winnerAuth, `/api/jobs/${job.id}/bids`, bidInput());
     expect(winning.status).toBe(201);
 
     // The losing bidder on instance B, the winner and a shop that only looked on instance A.
-    const lookerAuth = await session(instanceA, looker.user);
-    const loserSocket = socketFor(instanceB, loserAuth.cookie);
-    const winnerSocket = socketFor(instanceA, winnerAuth.cookie);
-    const lookerSocket = socketFor(instanceA, lookerAuth.cookie);
+    const lookerAuth = await session(live.instanceA, looker.user);
+    const loserSocket = socketFor(live.instanceB, loserAuth.cookie);
+    const winnerSocket = socketFor(live.instanceA, winnerAuth.cookie);
+    const lookerSocket = socketFor(live.instanceA, lookerAuth.cookie);
     await Promise.all([connected(loserSocket), connected(winnerSocket), connected(lookerSocket)]);
     for (const socket of [loserSocket, winnerSocket, lookerSocket]) expect((await emit(socket, 'job:watch', { jobId: job.id })).ok).toBe(true);
     const loserHeard = heard(loserSocket, 'job:changed');
     const lookerHeard = heard(lookerSocket, 'job:changed');
 
     const awarded = next(winnerSocket, 'job:changed');
-    expect((await post(instanceA, builderAuth, `/api/bids/${winning.body.bid.id}/accept`)).status).toBe(200);
+    expect((await post(live.instanceA, builderAuth, `/api/bids/${winning.body.bid.id}/accept`)).status).toBe(200);
     expect(await awarded).toEqual({ jobId: job.id, change: 'bid_accepted' });
 
     // The next change to the job reaches the winner only.
     const cancelled = next(winnerSocket, 'job:changed');
-    expect((await post(instanceA, builderAuth, `/api/jobs/${job.id}/cancel`)).status).toBe(200);
+    expect((await post(live.instanceA, builderAuth, `/api/jobs/${job.id}/cancel`)).status).toBe(200);
     expect(await cancelled).toEqual({ jobId: job.id, change: 'job_cancelled' });
     await pause(300);
     expect(loserHeard).toEqual([{ jobId: job.id, change: 'bid_accepted' }]);
@@ -232,20 +205,20 @@ describe('a job’s live room after the award', () => {
 
     // Nor can the losing bidder join again, though it may still read the job and its own bid.
     expect(await emit(loserSocket, 'job:watch', { jobId: job.id })).toMatchObject({ ok: false, error: { code: 'forbidden' } });
-    expect((await fetch(`${instanceB.url}/api/jobs/${job.id}`, { headers: { Cookie: loserAuth.cookie } })).status).toBe(200);
+    expect((await fetch(`${live.instanceB.url}/api/jobs/${job.id}`, { headers: { Cookie: loserAuth.cookie } })).status).toBe(200);
   });
 });
 
 describe('socket origin', () => {
   it('when a page of another site opens a socket with the cookie, then it is refused; the app’s own origin connects', async () => {
-    const user = await createUser(db);
-    const auth = await session(instanceA, user);
-    const foreign = socketFor(instanceA, auth.cookie, 'https://elsewhere.example');
+    const user = await createUser(live.db);
+    const auth = await session(live.instanceA, user);
+    const foreign = socketFor(live.instanceA, auth.cookie, 'https://elsewhere.example');
     await expect(connected(foreign)).rejects.toThrow();
-    const lookalike = socketFor(instanceB, auth.cookie, `${new URL(config.appUrl).origin}.elsewhere.example`);
+    const lookalike = socketFor(live.instanceB, auth.cookie, `${new URL(live.config.appUrl).origin}.elsewhere.example`);
     await expect(connected(lookalike)).rejects.toThrow();
 
-    const own = socketFor(instanceA, auth.cookie, new URL(config.appUrl).origin);
+    const own = socketFor(live.instanceA, auth.cookie, new URL(live.config.appUrl).origin);
     await connected(own);
     expect(own.connected).toBe(true);
   });

@@ -77,6 +77,13 @@ export function browserSuite(options: BrowserSuiteOptions = {}) {
     return watch(await context.newPage(), who);
   }
 
+  /** A signed-out page the size of a shop-floor tablet (768 × 1024), for a test of its own: the console errors so far are forgotten. */
+  async function newTabletPage(): Promise<Page> {
+    const page = await newPage({ width: 768, height: 1024 });
+    consoleErrors.length = 0;
+    return page;
+  }
+
   /** Collects the page's errors and console errors into `consoleErrors`, under `who`. */
   function watch(page: Page, who = 'visitor'): Page {
     page.on('console', (msg) => {
@@ -122,6 +129,7 @@ export function browserSuite(options: BrowserSuiteOptions = {}) {
     url,
     apiAs,
     newPage,
+    newTabletPage,
     watch,
     signIn,
     pageFor,

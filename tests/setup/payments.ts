@@ -4,6 +4,7 @@ import type { AddressInfo } from 'node:net';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import Stripe from 'stripe';
+import { afterEach, beforeEach } from 'vitest';
 import {
   DEFAULT_SECRET_KEY,
   startPaymentsStandIn,
@@ -129,6 +130,44 @@ export async function startHarness(options: Partial<PaymentsStandInOptions> = {}
     },
   };
   return harness;
+}
+
+/** A stand-in whose webhooks go to a receiver of its own (answering with `respond`); `close` stops both. */
+export async function startHarnessWithReceiver(respond?: Parameters<typeof startReceiver>[0]) {
+  const receiver = await startReceiver(respond);
+  const harness = await startHarness({ webhook: { url: receiver.url, secret: WEBHOOK_SECRET } });
+  const close = async () => {
+    await harness.cleanup();
+    await receiver.close();
+  };
+  return { receiver, harness, close };
+}
+
+/**
+ * For a test file: a fresh stand-in and receiver before each test, closed after it.
+ * Read `.harness` and `.receiver` inside the tests (they change from test to test).
+ */
+export function harnessWithReceiverEachTest(): { readonly harness: Harness; readonly receiver: Receiver } {
+  let current: Awaited<ReturnType<typeof startHarnessWithReceiver>> | undefined;
+  beforeEach(async () => {
+    current = await startHarnessWithReceiver();
+  });
+  afterEach(async () => {
+    await current?.close();
+    current = undefined;
+  });
+  const running = () => {
+    if (!current) throw new Error('the payments harness runs only inside a test');
+    return current;
+  };
+  return {
+    get harness() {
+      return running().harness;
+    },
+    get receiver() {
+      return running().receiver;
+    },
+  };
 }
 
 export async function waitFor<T>(check: () => T | undefined | false, timeoutMs = 5_000, what = 'condition'): Promise<T> {

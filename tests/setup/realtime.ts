@@ -1,6 +1,10 @@
+import { rmSync } from 'node:fs';
 import { io as connect, type Socket } from 'socket.io-client';
-import type { RunningServer } from '../../server/runtime';
+import { afterAll, afterEach, beforeAll } from 'vitest';
+import { createDb, createPool, type Database } from '../../server/db/client';
+import { startServer, type RunningServer } from '../../server/runtime';
 import { agentFor, signedIn } from './api-session';
+import { createTestDatabase, testConfig, type TestContext } from './test-env';
 
 /** A signed-in (or visiting) HTTP session: its cookie and a CSRF token for it. */
 export type Auth = { cookie: string; csrf: string };
@@ -57,3 +61,55 @@ export const next = <T = any>(socket: Socket, event: string) =>
       resolve(payload);
     });
   });
+
+/**
+ * For a realtime test file: a database of its own and two app instances on it (as behind
+ * a load balancer, the adapter carrying events between them), started before the file's
+ * tests and stopped after them; `env` adds to the test configuration. Sockets opened with
+ * `socketFor` are closed after each test. Read the fields inside the tests.
+ */
+export function twoInstances(env: Record<string, string> = {}) {
+  let database: Awaited<ReturnType<typeof createTestDatabase>> | undefined;
+  let pool: ReturnType<typeof createPool> | undefined;
+  let db: Database | undefined;
+  let instances: RunningServer[] = [];
+  let config: TestContext['config'] | undefined;
+  const sockets: Socket[] = [];
+
+  beforeAll(async () => {
+    database = await createTestDatabase();
+    pool = createPool(database.url, 4);
+    db = createDb(pool);
+    config = testConfig(database.url, { PORT: '0', ...env });
+    instances = await Promise.all([startServer(config, { migrate: false }), startServer(config, { migrate: false })]);
+  });
+  afterEach(() => {
+    for (const socket of sockets.splice(0)) socket.disconnect();
+  });
+  afterAll(async () => {
+    for (const instance of instances) await instance.close();
+    await pool?.end();
+    await database?.drop();
+    if (config) rmSync(config.uploadsDir, { recursive: true, force: true });
+  });
+
+  const started = <T>(value: T | undefined): T => {
+    if (value === undefined) throw new Error('the realtime instances run only inside the tests');
+    return value;
+  };
+  return {
+    get db() {
+      return started(db);
+    },
+    get instanceA() {
+      return started(instances[0]);
+    },
+    get instanceB() {
+      return started(instances[1]);
+    },
+    get config() {
+      return started(config);
+    },
+    socketFor: (server: RunningServer, cookie?: string, origin?: string) => socketFor(sockets, server, cookie, origin),
+  };
+}

@@ -7,24 +7,8 @@ import {
   inspectBores,
   inspectCylinder,
 } from '../../../shared/calc/bore';
-import { CalculationError } from '../../../shared/calc/errors';
 import { inchesToMm } from '../../../shared/calc/units';
-
-function expectNear(actual: number | undefined, expected: number, rel = 1e-12) {
-  expect(actual).toBeTypeOf('number');
-  expect(Math.abs((actual as number) - expected)).toBeLessThanOrEqual(rel * Math.max(1, Math.abs(expected)));
-}
-
-function expectCalculationError(run: () => unknown, field: string) {
-  let caught: unknown;
-  try {
-    run();
-  } catch (error) {
-    caught = error;
-  }
-  expect(caught).toBeInstanceOf(CalculationError);
-  expect((caught as CalculationError).field).toBe(field);
-}
+import { expectCalculationError, expectRelativelyNear } from './expectations';
 
 /** A worn cylinder, inches: larger at the top, oval at the top. */
 const worn: CylinderReadings = {
@@ -56,31 +40,31 @@ describe('directionTaper', () => {
     { direction: 'thrust', expected: 0.003 }, // derived: 4.0040 − 4.0010 (largest − smallest over the depths)
     { direction: 'axial', expected: 0.0022 }, // derived: 4.0030 − 4.0008 (largest − smallest over the depths)
   ] as const)('when the $direction readings run from top to bottom, then the taper is $expected', ({ direction, expected }) => {
-    expectNear(directionTaper(worn, direction), expected, 1e-9); // derived: see the row's label
+    expectRelativelyNear(directionTaper(worn, direction), expected, 1e-9); // derived: see the row's label
   });
 
   it('when the middle reading is the largest, then taper still uses largest − smallest, not top − bottom', () => {
     const barrel = { ...worn, top: { thrust: 4.001, axial: 4.001 }, middle: { thrust: 4.003, axial: 4.001 }, bottom: { thrust: 4.0015, axial: 4.001 } };
-    expectNear(directionTaper(barrel, 'thrust'), 0.002, 1e-9); // derived: 4.003 − 4.001; top − bottom would give 0.0005
+    expectRelativelyNear(directionTaper(barrel, 'thrust'), 0.002, 1e-9); // derived: 4.003 − 4.001; top − bottom would give 0.0005
   });
 });
 
 describe('inspectCylinder', () => {
   it('when a worn cylinder is measured, then mean, taper, out-of-round, clearance and deviation follow the definitions', () => {
     const result = inspectCylinder(worn, { targetBore: 4.002 });
-    expectNear(result.mean, 4.00225, 1e-12); // derived: (4.0040 + 4.0030 + 4.0025 + 4.0022 + 4.0010 + 4.0008) / 6
-    expectNear(result.taperThrust, 0.003, 1e-9); // derived: 4.0040 − 4.0010
-    expectNear(result.taperAxial, 0.0022, 1e-9); // derived: 4.0030 − 4.0008
-    expectNear(result.taper, 0.003, 1e-9); // derived: max(0.0030, 0.0022)
-    expectNear(result.outOfRoundByDepth.top, 0.001, 1e-9); // derived: |4.0040 − 4.0030|
-    expectNear(result.outOfRoundByDepth.middle, 0.0003, 1e-9); // derived: |4.0025 − 4.0022|
-    expectNear(result.outOfRoundByDepth.bottom, 0.0002, 1e-9); // derived: |4.0010 − 4.0008|
-    expectNear(result.outOfRound, 0.001, 1e-9); // derived: max over the depths
-    expectNear(result.clearance, 0.00225, 1e-9); // derived: mean bore 4.00225 − piston 4.0000
-    expectNear(result.tightestClearance, 0.0008, 1e-9); // derived: smallest reading 4.0008 − piston 4.0000
-    expectNear(result.deviation, 0.00025, 1e-9); // derived: mean 4.00225 − target 4.0020
-    expectNear(result.smallest, 4.0008); // derived: min of the six readings
-    expectNear(result.largest, 4.004); // derived: max of the six readings
+    expectRelativelyNear(result.mean, 4.00225, 1e-12); // derived: (4.0040 + 4.0030 + 4.0025 + 4.0022 + 4.0010 + 4.0008) / 6
+    expectRelativelyNear(result.taperThrust, 0.003, 1e-9); // derived: 4.0040 − 4.0010
+    expectRelativelyNear(result.taperAxial, 0.0022, 1e-9); // derived: 4.0030 − 4.0008
+    expectRelativelyNear(result.taper, 0.003, 1e-9); // derived: max(0.0030, 0.0022)
+    expectRelativelyNear(result.outOfRoundByDepth.top, 0.001, 1e-9); // derived: |4.0040 − 4.0030|
+    expectRelativelyNear(result.outOfRoundByDepth.middle, 0.0003, 1e-9); // derived: |4.0025 − 4.0022|
+    expectRelativelyNear(result.outOfRoundByDepth.bottom, 0.0002, 1e-9); // derived: |4.0010 − 4.0008|
+    expectRelativelyNear(result.outOfRound, 0.001, 1e-9); // derived: max over the depths
+    expectRelativelyNear(result.clearance, 0.00225, 1e-9); // derived: mean bore 4.00225 − piston 4.0000
+    expectRelativelyNear(result.tightestClearance, 0.0008, 1e-9); // derived: smallest reading 4.0008 − piston 4.0000
+    expectRelativelyNear(result.deviation, 0.00025, 1e-9); // derived: mean 4.00225 − target 4.0020
+    expectRelativelyNear(result.smallest, 4.0008); // derived: min of the six readings
+    expectRelativelyNear(result.largest, 4.004); // derived: max of the six readings
   });
 
   it('when no spec is given, then nothing fails and no deviation is reported', () => {
@@ -103,13 +87,13 @@ describe('inspectCylinder', () => {
     expect(result.pass).toBe(false);
     expect(result.failures.map((failure) => failure.limit)).toEqual(['targetBore', 'clearanceMin', 'maxTaper', 'maxOutOfRound']);
     const byLimit = Object.fromEntries(result.failures.map((failure) => [failure.limit, failure]));
-    expectNear(byLimit.targetBore.value, 0.00025, 1e-9); // derived: signed deviation 4.00225 − 4.0020
+    expectRelativelyNear(byLimit.targetBore.value, 0.00025, 1e-9); // derived: signed deviation 4.00225 − 4.0020
     expect(byLimit.targetBore.allowed).toBe(0.0002); // derived: echoes the spec's ± tolerance
-    expectNear(byLimit.clearanceMin.value, 0.001, 1e-9); // derived: the smallest thrust reading 4.0010 − piston 4.0000 (judged on the thrust axis, common practice)
+    expectRelativelyNear(byLimit.clearanceMin.value, 0.001, 1e-9); // derived: the smallest thrust reading 4.0010 − piston 4.0000 (judged on the thrust axis, common practice)
     expect(byLimit.clearanceMin.allowed).toBe(0.0025); // derived: echoes the spec's minimum
-    expectNear(byLimit.maxTaper.value, 0.003, 1e-9); // derived: thrust taper
+    expectRelativelyNear(byLimit.maxTaper.value, 0.003, 1e-9); // derived: thrust taper
     expect(byLimit.maxTaper.allowed).toBe(0.0005); // derived: echoes the spec's maximum
-    expectNear(byLimit.maxOutOfRound.value, 0.001, 1e-9); // derived: top out-of-round
+    expectRelativelyNear(byLimit.maxOutOfRound.value, 0.001, 1e-9); // derived: top out-of-round
     expect(byLimit.maxOutOfRound.allowed).toBe(0.0005); // derived: echoes the spec's maximum
   });
 
@@ -125,14 +109,14 @@ describe('inspectCylinder', () => {
     const result = inspectCylinder(honed, spec);
     expect(result.failures).toEqual([]);
     expect(result.pass).toBe(true);
-    expectNear(result.clearance, 0.00355, 1e-9); // derived: mean 4.03005 − piston 4.0265
+    expectRelativelyNear(result.clearance, 0.00355, 1e-9); // derived: mean 4.03005 − piston 4.0265
   });
 
   it('when the clearance is above the maximum, then only clearanceMax fails', () => {
     const result = inspectCylinder({ ...honed, piston: 4.024 }, { clearanceMin: 0.0025, clearanceMax: 0.0045 });
     expect(result.failures).toHaveLength(1); // derived: only the maximum clearance is crossed
     expect(result.failures[0].limit).toBe('clearanceMax');
-    expectNear(result.failures[0].value, 0.0061, 1e-9); // derived: the largest thrust reading 4.0301 − piston 4.0240
+    expectRelativelyNear(result.failures[0].value, 0.0061, 1e-9); // derived: the largest thrust reading 4.0301 − piston 4.0240
   });
 
   it('when the bottom thrust reading leaves less than the minimum clearance, then clearanceMin fails although the mean of six would pass', () => {
@@ -144,10 +128,10 @@ describe('inspectCylinder', () => {
       piston: 4.028,
     };
     const result = inspectCylinder(bellMouthed, { clearanceMin: 0.0025, clearanceMax: 0.0035 }); // test input: the job's clearance range
-    expectNear(result.clearance!, 0.0027, 1e-9); // derived: mean of the six readings 4.0307 − 4.0280, inside the range
+    expectRelativelyNear(result.clearance!, 0.0027, 1e-9); // derived: mean of the six readings 4.0307 − 4.0280, inside the range
     expect(result.failures.map((failure) => failure.limit)).toEqual(['clearanceMin']);
-    expectNear(result.failures[0].value, 0.0023, 1e-9); // derived: bottom thrust 4.0303 − 4.0280
-    expectNear(result.thrustClearance!.largest, 0.003, 1e-9); // derived: top thrust 4.0310 − 4.0280, within the maximum
+    expectRelativelyNear(result.failures[0].value, 0.0023, 1e-9); // derived: bottom thrust 4.0303 − 4.0280
+    expectRelativelyNear(result.thrustClearance!.largest, 0.003, 1e-9); // derived: top thrust 4.0310 − 4.0280, within the maximum
   });
 
   it('when the taper equals the limit exactly, then it passes; when it is a tenth over, then it fails', () => {
@@ -159,7 +143,7 @@ describe('inspectCylinder', () => {
 
   it('when the bore is under size by more than the tolerance, then the deviation is negative and it fails', () => {
     const result = inspectCylinder(honed, { targetBore: 4.031, targetTolerance: 0.0005 });
-    expectNear(result.failures[0].value, -0.00095, 1e-9); // derived: 4.03005 − 4.0310
+    expectRelativelyNear(result.failures[0].value, -0.00095, 1e-9); // derived: 4.03005 − 4.0310
     expect(result.failures[0].limit).toBe('targetBore');
   });
 
@@ -191,8 +175,8 @@ describe('inspectBores', () => {
     expect(result.cylinders[0].pass).toBe(true);
     expect(result.cylinders[1].pass).toBe(false);
     expect(result.pass).toBe(false);
-    expectNear(result.worst.taper, 0.003, 1e-9); // derived: worn cylinder's thrust taper
-    expectNear(result.worst.outOfRound, 0.001, 1e-9); // derived: worn cylinder's top out-of-round
+    expectRelativelyNear(result.worst.taper, 0.003, 1e-9); // derived: worn cylinder's thrust taper
+    expectRelativelyNear(result.worst.outOfRound, 0.001, 1e-9); // derived: worn cylinder's top out-of-round
     expect(result.worst.taperCylinder).toBe(1); // derived: the worn cylinder is the second (index 1)
     expect(result.worst.outOfRoundCylinder).toBe(1); // derived: the worn cylinder is the second (index 1)
   });
@@ -255,7 +239,7 @@ describe('inspectBores', () => {
         const b = inspectBores({ cylinders: cylinders.map((c) => scaleReadings(c, inchesToMm)), spec: mmSpec });
         a.cylinders.forEach((ca, i) => {
           const cb = b.cylinders[i];
-          expectNear(cb.mean, inchesToMm(ca.mean), 1e-12); // derived: 1 in = 25.4 mm exactly
+          expectRelativelyNear(cb.mean, inchesToMm(ca.mean), 1e-12); // derived: 1 in = 25.4 mm exactly
           expect(Math.abs(cb.taper - inchesToMm(ca.taper))).toBeLessThan(1e-9); // derived: 1 in = 25.4 mm exactly
           expect(Math.abs(cb.outOfRound - inchesToMm(ca.outOfRound))).toBeLessThan(1e-9); // derived: 1 in = 25.4 mm exactly
           expect(Math.abs((cb.clearance as number) - inchesToMm(ca.clearance as number))).toBeLessThan(1e-9); // derived: 1 in = 25.4 mm exactly

@@ -1,23 +1,10 @@
 import { describe, it, expect } from 'vitest';
 import fc from 'fast-check';
 import { TYPICAL_INCLUDED_ANGLES, crosshatchAngle, crosshatchRate } from '../../../shared/calc/crosshatch';
-import { CalculationError } from '../../../shared/calc/errors';
 import { inchesToMm } from '../../../shared/calc/units';
+import { expectCalculationError, expectWithin } from './expectations';
 
-function expectNear(actual: number, expected: number, abs = 1e-9) {
-  expect(Math.abs(actual - expected)).toBeLessThanOrEqual(abs);
-}
-
-function expectCalculationError(run: () => unknown, field: string) {
-  let caught: unknown;
-  try {
-    run();
-  } catch (error) {
-    caught = error;
-  }
-  expect(caught).toBeInstanceOf(CalculationError);
-  expect((caught as CalculationError).field).toBe(field);
-}
+const expectNear = (actual: number, expected: number, abs = 1e-9) => expectWithin(actual, expected, abs);
 
 describe('crosshatchAngle', () => {
   it('when a 4 in bore turns at 150 rev/min and a 4 in stroke runs 31 cycles/min, then the included angle is 14.99°', () => {

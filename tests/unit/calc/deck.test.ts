@@ -7,23 +7,10 @@ import {
   deckFlatnessLimit,
   deckOutOfFlat,
 } from '../../../shared/calc/deck';
-import { CalculationError } from '../../../shared/calc/errors';
 import { inchesToMm } from '../../../shared/calc/units';
+import { expectCalculationError, expectWithin } from './expectations';
 
-function expectNear(actual: number, expected: number, abs = 1e-12) {
-  expect(Math.abs(actual - expected)).toBeLessThanOrEqual(abs);
-}
-
-function expectCalculationError(run: () => unknown, field: string) {
-  let caught: unknown;
-  try {
-    run();
-  } catch (error) {
-    caught = error;
-  }
-  expect(caught).toBeInstanceOf(CalculationError);
-  expect((caught as CalculationError).field).toBe(field);
-}
+const expectNear = (actual: number, expected: number, abs = 1e-12) => expectWithin(actual, expected, abs);
 
 describe('deckOutOfFlat', () => {
   it('when six straightedge positions are read, then out-of-flat is the largest leaf', () => {

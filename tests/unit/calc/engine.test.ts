@@ -10,35 +10,7 @@ import {
 } from '../../../shared/calc/engine';
 import { CalculationError } from '../../../shared/calc/errors';
 import { inchesToMm } from '../../../shared/calc/units';
-
-/** |actual − expected| within `rel` of expected (or of 1 for values below 1). */
-function expectNear(actual: number, expected: number, rel = 1e-12) {
-  expect(Math.abs(actual - expected)).toBeLessThanOrEqual(rel * Math.max(1, Math.abs(expected)));
-}
-
-/** Runs `run` and checks it throws a CalculationError naming `field`. */
-function expectCalculationError(run: () => unknown, field: string) {
-  let caught: unknown;
-  try {
-    run();
-  } catch (error) {
-    caught = error;
-  }
-  expect(caught).toBeInstanceOf(CalculationError);
-  expect((caught as CalculationError).field).toBe(field);
-}
-
-/** The Circle Track worked example: 4.000 in bore, 3.48 in stroke, 70 cc chamber, 5 cc dish, 0.050 in deck, 0.020 in gasket at 4.000 in. */
-const circleTrack: CompressionInput = {
-  unit: 'in',
-  bore: 4,
-  stroke: 3.48,
-  chamberCc: 70,
-  pistonCc: 5,
-  deckClearance: 0.05,
-  gasketBore: 4,
-  gasketThickness: 0.02,
-};
+import { circleTrack, expectCalculationError, expectRelativelyNear } from './expectations';
 
 function toMillimetres(input: CompressionInput): CompressionInput {
   return {
@@ -55,11 +27,11 @@ function toMillimetres(input: CompressionInput): CompressionInput {
 describe('cylinderVolumeCc', () => {
   it('when the cylinder holds one cubic inch, then it is 16.387064 cc', () => {
     // A 1 in diameter cylinder 4/π in tall holds π/4 · 1 · 4/π = 1 in³.
-    expectNear(cylinderVolumeCc(1, 4 / Math.PI, 'in'), 16.387064); // derived: π/4 · d² · h with d = 1, h = 4/π; 1 in³ = 16.387064 cc
+    expectRelativelyNear(cylinderVolumeCc(1, 4 / Math.PI, 'in'), 16.387064); // derived: π/4 · d² · h with d = 1, h = 4/π; 1 in³ = 16.387064 cc
   });
 
   it('when lengths are in millimetres, then cubic millimetres become cc', () => {
-    expectNear(cylinderVolumeCc(10, 40 / Math.PI, 'mm'), 1); // derived: π/4 · 10² · 40/π = 1000 mm³ = 1 cc
+    expectRelativelyNear(cylinderVolumeCc(10, 40 / Math.PI, 'mm'), 1); // derived: π/4 · 10² · 40/π = 1000 mm³ = 1 cc
   });
 });
 
@@ -68,14 +40,14 @@ describe('displacement', () => {
     const result = displacement({ unit: 'mm', bore: 100, stroke: 50, cylinders: 4 });
     expect(Math.abs(result.cc - 1570)).toBeLessThan(1); // source: Wikipedia, "Engine displacement", Definition section (worked example, rounded to 1,570 cc)
     expect(Math.abs(result.litres - 1.57)).toBeLessThan(0.001); // source: Wikipedia, "Engine displacement", Definition section (worked example, 1.57 litres)
-    expectNear(result.cc, 1570.7963267948965); // derived: π/4 · 100² · 50 · 4 mm³ / 1000
+    expectRelativelyNear(result.cc, 1570.7963267948965); // derived: π/4 · 100² · 50 · 4 mm³ / 1000
   });
 
   it('when the bore is 4.000 in, the stroke 3.48 in and there are eight cylinders, then the three units agree', () => {
     const result = displacement({ unit: 'in', bore: 4, stroke: 3.48, cylinders: 8 });
-    expectNear(result.cubicInches, 349.8477579037594); // derived: π/4 · 4² · 3.48 · 8
-    expectNear(result.cc, 5732.97759902541); // derived: 349.8477579 in³ × 16.387064
-    expectNear(result.litres, 5.73297759902541); // derived: cc / 1000
+    expectRelativelyNear(result.cubicInches, 349.8477579037594); // derived: π/4 · 4² · 3.48 · 8
+    expectRelativelyNear(result.cc, 5732.97759902541); // derived: 349.8477579 in³ × 16.387064
+    expectRelativelyNear(result.litres, 5.73297759902541); // derived: cc / 1000
   });
 
   it.each([
@@ -97,7 +69,7 @@ describe('displacement', () => {
         (bore, stroke, cylinders) => {
           const inches = displacement({ unit: 'in', bore, stroke, cylinders });
           const mm = displacement({ unit: 'mm', bore: inchesToMm(bore), stroke: inchesToMm(stroke), cylinders });
-          expectNear(mm.cc, inches.cc, 1e-12); // derived: 1 in = 25.4 mm exactly, so in³ and mm³ describe the same volume
+          expectRelativelyNear(mm.cc, inches.cc, 1e-12); // derived: 1 in = 25.4 mm exactly, so in³ and mm³ describe the same volume
         },
       ),
     );
@@ -112,22 +84,22 @@ describe('compressionRatio', () => {
 
   it('when given the Circle Track inputs, then each volume follows from π/4 · d² · h', () => {
     const result = compressionRatio(circleTrack);
-    expectNear(result.sweptCc, 716.6221998781763); // derived: π/4 · 4² · 3.48 in³ × 16.387064
-    expectNear(result.gasketCc, 4.1185183901044615); // derived: π/4 · 4² · 0.020 in³ × 16.387064
-    expectNear(result.deckCc, 10.296295975261152); // derived: π/4 · 4² · 0.050 in³ × 16.387064
-    expectNear(result.clearanceCc, 89.4148143653656); // derived: 70 + 5 + 4.1185 + 10.2963
-    expectNear(result.ratio, 9.014580189697922); // derived: (716.6222 + 89.4148) / 89.4148
+    expectRelativelyNear(result.sweptCc, 716.6221998781763); // derived: π/4 · 4² · 3.48 in³ × 16.387064
+    expectRelativelyNear(result.gasketCc, 4.1185183901044615); // derived: π/4 · 4² · 0.020 in³ × 16.387064
+    expectRelativelyNear(result.deckCc, 10.296295975261152); // derived: π/4 · 4² · 0.050 in³ × 16.387064
+    expectRelativelyNear(result.clearanceCc, 89.4148143653656); // derived: 70 + 5 + 4.1185 + 10.2963
+    expectRelativelyNear(result.ratio, 9.014580189697922); // derived: (716.6222 + 89.4148) / 89.4148
   });
 
   it('when the piston has a 5 cc dome instead of a 5 cc dish, then the clearance falls by 10 cc and the ratio rises', () => {
     const result = compressionRatio({ ...circleTrack, pistonCc: -5 });
-    expectNear(result.clearanceCc, 79.4148143653656); // derived: 70 − 5 + 4.1185 + 10.2963
-    expectNear(result.ratio, 10.023784864385576); // derived: (716.6222 + 79.4148) / 79.4148
+    expectRelativelyNear(result.clearanceCc, 79.4148143653656); // derived: 70 − 5 + 4.1185 + 10.2963
+    expectRelativelyNear(result.ratio, 10.023784864385576); // derived: (716.6222 + 79.4148) / 79.4148
   });
 
   it('when the piston stands above the deck, then the deck volume is negative', () => {
     const result = compressionRatio({ ...circleTrack, deckClearance: -0.005 });
-    expectNear(result.deckCc, -1.0296295975261152); // derived: π/4 · 4² · (−0.005) in³ × 16.387064
+    expectRelativelyNear(result.deckCc, -1.0296295975261152); // derived: π/4 · 4² · (−0.005) in³ × 16.387064
     expect(result.ratio).toBeGreaterThan(9.0146); // derived: smaller clearance than the 9.0146 example gives a higher ratio
   });
 
@@ -171,8 +143,8 @@ describe('compressionRatio', () => {
           const inches: CompressionInput = { unit: 'in', gasketBore: values.bore + 0.03, ...values };
           const a = compressionRatio(inches);
           const b = compressionRatio(toMillimetres(inches));
-          expectNear(b.ratio, a.ratio, 1e-10); // derived: 1 in = 25.4 mm exactly; the ratio is unitless
-          expectNear(b.clearanceCc, a.clearanceCc, 1e-10); // derived: 1 in³ = 16.387064 cc exactly
+          expectRelativelyNear(b.ratio, a.ratio, 1e-10); // derived: 1 in = 25.4 mm exactly; the ratio is unitless
+          expectRelativelyNear(b.clearanceCc, a.clearanceCc, 1e-10); // derived: 1 in³ = 16.387064 cc exactly
         },
       ),
     );
@@ -184,21 +156,21 @@ describe('machiningEffect', () => {
 
   it('when the bore is taken 0.030 in over, then displacement and ratio rise as π/4 · d² says', () => {
     const result = machiningEffect(engine, { overbore: 0.03 });
-    expectNear(result.after.bore, 4.03); // derived: 4.000 + 0.030
-    expectNear(result.after.displacement.cc, 5819.294743000736); // derived: π/4 · 4.030² · 3.48 · 8 in³ × 16.387064
-    expectNear(result.after.compression.clearanceCc, 89.56983797164314); // derived: 70 + 5 + 4.1185 + π/4 · 4.030² · 0.050 × 16.387064
-    expectNear(result.after.compression.ratio, 9.121169573907043); // derived: (727.4118 + 89.5698) / 89.5698
-    expectNear(result.before.compression.ratio, 9.014580189697922); // derived: the unchanged example
-    expectNear(result.change.cc, 5819.294743000736 - 5732.97759902541); // derived: after − before
+    expectRelativelyNear(result.after.bore, 4.03); // derived: 4.000 + 0.030
+    expectRelativelyNear(result.after.displacement.cc, 5819.294743000736); // derived: π/4 · 4.030² · 3.48 · 8 in³ × 16.387064
+    expectRelativelyNear(result.after.compression.clearanceCc, 89.56983797164314); // derived: 70 + 5 + 4.1185 + π/4 · 4.030² · 0.050 × 16.387064
+    expectRelativelyNear(result.after.compression.ratio, 9.121169573907043); // derived: (727.4118 + 89.5698) / 89.5698
+    expectRelativelyNear(result.before.compression.ratio, 9.014580189697922); // derived: the unchanged example
+    expectRelativelyNear(result.change.cc, 5819.294743000736 - 5732.97759902541); // derived: after − before
     expect(result.boreExceedsGasket).toBe(true); // derived: 4.030 > 4.000 gasket bore
   });
 
   it('when the deck is cut 0.010 in, then the deck clearance falls by 0.010 in and the ratio rises', () => {
     const result = machiningEffect(engine, { deckCut: 0.01 });
-    expectNear(result.after.deckClearance, 0.04); // derived: 0.050 − 0.010
-    expectNear(result.after.compression.clearanceCc, 87.35555517031338); // derived: 89.4148 − π/4 · 4² · 0.010 × 16.387064
-    expectNear(result.after.compression.ratio, 9.203510337505252); // derived: (716.6222 + 87.3556) / 87.3556
-    expectNear(result.change.cc, 0); // derived: a deck cut does not change bore or stroke
+    expectRelativelyNear(result.after.deckClearance, 0.04); // derived: 0.050 − 0.010
+    expectRelativelyNear(result.after.compression.clearanceCc, 87.35555517031338); // derived: 89.4148 − π/4 · 4² · 0.010 × 16.387064
+    expectRelativelyNear(result.after.compression.ratio, 9.203510337505252); // derived: (716.6222 + 87.3556) / 87.3556
+    expectRelativelyNear(result.change.cc, 0); // derived: a deck cut does not change bore or stroke
     expect(result.boreExceedsGasket).toBe(false); // derived: 4.000 is not larger than the 4.000 gasket bore
   });
 
@@ -228,8 +200,8 @@ describe('machiningEffect', () => {
             { ...toMillimetres(engine), cylinders: 8 },
             { overbore: inchesToMm(overbore), deckCut: inchesToMm(deckCut) },
           );
-          expectNear(b.after.compression.ratio, a.after.compression.ratio, 1e-10); // derived: 1 in = 25.4 mm exactly
-          expectNear(b.after.displacement.cc, a.after.displacement.cc, 1e-10); // derived: 1 in³ = 16.387064 cc exactly
+          expectRelativelyNear(b.after.compression.ratio, a.after.compression.ratio, 1e-10); // derived: 1 in = 25.4 mm exactly
+          expectRelativelyNear(b.after.displacement.cc, a.after.displacement.cc, 1e-10); // derived: 1 in³ = 16.387064 cc exactly
         },
       ),
     );

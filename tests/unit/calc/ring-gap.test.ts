@@ -3,10 +3,9 @@ import fc from 'fast-check';
 import { CalculationError } from '../../../shared/calc/errors';
 import { RING_GAP_FACTORS, ringGap } from '../../../shared/calc/ring-gap';
 import { inchesToMm } from '../../../shared/calc/units';
+import { expectWithin } from './expectations';
 
-function expectNear(actual: number, expected: number, abs = 1e-12) {
-  expect(Math.abs(actual - expected)).toBeLessThanOrEqual(abs);
-}
+const expectNear = (actual: number, expected: number, abs = 1e-12) => expectWithin(actual, expected, abs);
 
 describe('ringGap', () => {
   it.each([

@@ -11,15 +11,12 @@ import { roughnessRequestSchema } from '../../../shared/schemas/calculations';
 import { evaluateInspection } from '../../../shared/calc/inspection-record';
 import { finishInputSchema, inspectionInputSchema } from '../../../shared/schemas/inspection';
 import { jobInput } from '../../factories';
+import { expectWithin } from './expectations';
 
 // Labels, as in shared/references.md ("Roughness filtering"):
 // ISO 16610-21 Gaussian profile filter: weighting s(x) = (1/(αλc))·exp(−π(x/(αλc))²), α = √(ln 2/π);
 // a sine of wavelength λ passes into the mean line with amplitude ratio a1/a0 = exp(−π(αλc/λ)²),
 // so the roughness profile keeps 1 − exp(−π(αλc/λ)²) of it.
-
-function expectNear(actual: number, expected: number, abs: number) {
-  expect(Math.abs(actual - expected)).toBeLessThanOrEqual(abs);
-}
 
 /** Share of a sine's amplitude left in the roughness profile. derived: 1 − exp(−π(αλc/λ)²) from the weighting function. */
 function roughnessTransmission(wavelength: number, cutoff: number): number {
@@ -40,8 +37,8 @@ const gaussian = { kind: 'gaussian', cutoffMm: CUTOFF_MM } as const;
 
 describe('Gaussian profile filter (ISO 16610-21)', () => {
   it('α is √(ln 2 / π) ≈ 0.4697', () => {
-    expectNear(GAUSSIAN_ALPHA, Math.sqrt(Math.LN2 / Math.PI), 1e-15); // source: ISO 16610-21, α = √(ln 2/π)
-    expectNear(GAUSSIAN_ALPHA, 0.4697, 1e-4); // source: shared/references.md "Roughness filtering" (α ≈ 0.4697)
+    expectWithin(GAUSSIAN_ALPHA, Math.sqrt(Math.LN2 / Math.PI), 1e-15); // source: ISO 16610-21, α = √(ln 2/π)
+    expectWithin(GAUSSIAN_ALPHA, 0.4697, 1e-4); // source: shared/references.md "Roughness filtering" (α ≈ 0.4697)
   });
 
   it('when a sine has the wavelength of the cut-off, then the roughness profile keeps 50 % of its amplitude', () => {
@@ -49,8 +46,8 @@ describe('Gaussian profile filter (ISO 16610-21)', () => {
     const result = roughness(sine(N, SPACING, CUTOFF_UM, A), SPACING, gaussian);
     const kept = result.ra / ((2 * A) / Math.PI); // derived: Ra of a sine of amplitude a over whole periods = 2a/π
     expect(roughnessTransmission(CUTOFF_UM, CUTOFF_UM)).toBeCloseTo(0.5, 12); // derived: 1 − exp(−π·α²) = 1 − exp(−ln 2) = ½
-    expectNear(kept, 0.5, 2e-3); // source: ISO 16610-21 — the mean line transmits 50 % at λc, so the roughness profile keeps 50 %
-    expectNear(result.rq / (A / Math.SQRT2), 0.5, 2e-3); // source: ISO 16610-21 (same 50 % point); derived: Rq of a sine = a/√2
+    expectWithin(kept, 0.5, 2e-3); // source: ISO 16610-21 — the mean line transmits 50 % at λc, so the roughness profile keeps 50 %
+    expectWithin(result.rq / (A / Math.SQRT2), 0.5, 2e-3); // source: ISO 16610-21 (same 50 % point); derived: Rq of a sine = a/√2
   });
 
   it('when a sine is ten times shorter than the cut-off, then the roughness profile keeps it all (> 99 %)', () => {
@@ -61,7 +58,7 @@ describe('Gaussian profile filter (ISO 16610-21)', () => {
     const result = roughness(wave, SPACING, gaussian);
     // Reference amplitude: Ra of the same sampled sine unfiltered (25 heights a period sample |sin| a little above 2/π).
     const kept = result.ra / roughness(wave, SPACING).ra;
-    expectNear(kept, expected, 1e-4); // source: ISO 16610-21 transmission a1/a0 = exp(−π(αλc/λ)²) at λ = λc/10
+    expectWithin(kept, expected, 1e-4); // source: ISO 16610-21 transmission a1/a0 = exp(−π(αλc/λ)²) at λ = λc/10
     expect(kept).toBeGreaterThan(0.99);
   });
 
@@ -69,8 +66,8 @@ describe('Gaussian profile filter (ISO 16610-21)', () => {
     const A = 3;
     const result = roughness(sine(N, SPACING, 2 * CUTOFF_UM, A), SPACING, gaussian);
     const expected = roughnessTransmission(2 * CUTOFF_UM, CUTOFF_UM); // derived: 1 − exp(−π α²/4) = 1 − 2^(−1/4)
-    expectNear(expected, 1 - 2 ** -0.25, 1e-12);
-    expectNear(result.ra / ((2 * A) / Math.PI), expected, 3e-3); // source: ISO 16610-21 transmission formula at λ = 2λc
+    expectWithin(expected, 1 - 2 ** -0.25, 1e-12);
+    expectWithin(result.ra / ((2 * A) / Math.PI), expected, 3e-3); // source: ISO 16610-21 transmission formula at λ = 2λc
   });
 
   it('when a straight tilted line carries a sine, then the tilt is removed and the result is that of the sine alone', () => {
@@ -80,9 +77,9 @@ describe('Gaussian profile filter (ISO 16610-21)', () => {
     const alone = roughness(wave, SPACING, gaussian);
     const withTilt = roughness(tilted, SPACING, gaussian);
     for (const key of ['ra', 'rq', 'rz', 'rk', 'rpk', 'rvk', 'mr1', 'mr2'] as const) {
-      expectNear(withTilt[key], alone[key], 1e-9 * (1 + Math.abs(alone[key]))); // derived: a least-squares line is removed exactly (form removal, ISO 16610-21 / ISO 4287 primary profile levelling)
+      expectWithin(withTilt[key], alone[key], 1e-9 * (1 + Math.abs(alone[key]))); // derived: a least-squares line is removed exactly (form removal, ISO 16610-21 / ISO 4287 primary profile levelling)
     }
-    expectNear(withTilt.ra, roughness(wave, SPACING).ra, 1e-4 * A); // derived: the λc/10 sine passes whole (source: ISO 16610-21 transmission 1 − 2⁻¹⁰⁰), so Ra is the unfiltered sine's
+    expectWithin(withTilt.ra, roughness(wave, SPACING).ra, 1e-4 * A); // derived: the λc/10 sine passes whole (source: ISO 16610-21 transmission 1 − 2⁻¹⁰⁰), so Ra is the unfiltered sine's
     expect(roughness(tilted, SPACING).ra).toBeGreaterThan(4); // derived: unfiltered, the tilt's ±10 µm ramp dominates Ra (ramp Ra = 10/2)
   });
 
@@ -93,12 +90,12 @@ describe('Gaussian profile filter (ISO 16610-21)', () => {
     expect(result.filter.cutoffMm).toBe(CUTOFF_MM);
     // derived: 2000 heights = 8 cut-offs of 250; half a cut-off (125 heights) dropped at each end leaves 7 whole cut-offs
     expect(result.filter.samplingLengths).toBe(7);
-    expectNear(result.filter.evaluationLengthMm, 7 * CUTOFF_MM, 1e-12);
+    expectWithin(result.filter.evaluationLengthMm, 7 * CUTOFF_MM, 1e-12);
     expect(result.filter.evaluatedPoints).toBe(7 * CUTOFF_UM);
     expect(result.filter.trimmedStartMm).toBeGreaterThanOrEqual(CUTOFF_MM / 2);
     expect(result.filter.trimmedEndMm).toBeGreaterThanOrEqual(CUTOFF_MM / 2 - SPACING / 1000);
     // derived: dropped + evaluated = the traced length (n − 1)·spacing, each evaluated height standing for one spacing
-    expectNear(result.filter.trimmedStartMm + result.filter.evaluationLengthMm - SPACING / 1000 + result.filter.trimmedEndMm, ((N - 1) * SPACING) / 1000, 1e-12);
+    expectWithin(result.filter.trimmedStartMm + result.filter.evaluationLengthMm - SPACING / 1000 + result.filter.trimmedEndMm, ((N - 1) * SPACING) / 1000, 1e-12);
     expect(result.filter.formRemoval).toBe('least-squares line');
     expect(result.filter.rkFilter).toBe('ISO 13565-1 valley suppression');
     expect(result.filter.method.length).toBeGreaterThan(20);
@@ -134,7 +131,7 @@ describe('Gaussian profile filter (ISO 16610-21)', () => {
     const last = profiles.roughness.length - 1;
     for (const k of [0, Math.floor(last / 2), last]) {
       const i = profiles.start + k;
-      expectNear(profiles.roughness[k], level[i] - meanLine(i), 1e-9); // derived: direct sum of the same weights (checks the FFT and its alignment)
+      expectWithin(profiles.roughness[k], level[i] - meanLine(i), 1e-9); // derived: direct sum of the same weights (checks the FFT and its alignment)
     }
   });
 
@@ -146,9 +143,9 @@ describe('Gaussian profile filter (ISO 16610-21)', () => {
     const profiles = roughnessProfiles(heights, SPACING, CUTOFF_MM);
     const plateauIndex = 10 + 20 * Math.floor(profiles.roughness.length / 40); // a plateau height in the middle
     // A plain Gaussian mean line averages the valleys in: it runs f·D below the plateau.
-    expectNear(profiles.roughness[plateauIndex], f * D, 1e-3); // derived: mean of the periodic profile = −f·D (source: ISO 16610-21: a period ≪ λc leaves only the mean in the mean line)
+    expectWithin(profiles.roughness[plateauIndex], f * D, 1e-3); // derived: mean of the periodic profile = −f·D (source: ISO 16610-21: a period ≪ λc leaves only the mean in the mean line)
     // ISO 13565-1: heights below the first mean line (−f·D) are set to it, filtered again: −(1 − f)·0 − f·f·D.
-    expectNear(profiles.plateau[plateauIndex], f * f * D, 1e-3); // source: ISO 13565-1:1996 §4 (valley suppression, two filter passes); derived: second mean line = −f²·D
+    expectWithin(profiles.plateau[plateauIndex], f * f * D, 1e-3); // source: ISO 13565-1:1996 §4 (valley suppression, two filter passes); derived: second mean line = −f²·D
   });
 
   it('when the filter is Gaussian, then Rk, Rpk and Rvk come from the valley-suppressed profile', () => {
@@ -158,9 +155,9 @@ describe('Gaussian profile filter (ISO 16610-21)', () => {
     const fromPlateau = roughness(profiles.plateau);
     // derived: Rk, Rpk, Rvk, Mr1, Mr2 do not depend on where the zero of heights lies, so the ISO 13565-2 step on the
     // evaluated valley-suppressed profile gives the same figures
-    for (const key of ['rk', 'rpk', 'rvk', 'mr1', 'mr2'] as const) expectNear(result[key], fromPlateau[key], 1e-9);
+    for (const key of ['rk', 'rpk', 'rvk', 'mr1', 'mr2'] as const) expectWithin(result[key], fromPlateau[key], 1e-9);
     const fromGaussian = roughness(profiles.roughness);
-    expectNear(result.ra, fromGaussian.ra, 0.01); // derived: Ra is taken on the Gaussian roughness profile (its own mean line)
+    expectWithin(result.ra, fromGaussian.ra, 0.01); // derived: Ra is taken on the Gaussian roughness profile (its own mean line)
   });
 });
 
@@ -233,10 +230,10 @@ describe('filter choice and refusals', () => {
     const spec = jobInput({ finishRaMaxUm: 0.5 });
     const filtered = evaluateInspection(record(gaussian), spec).finish!;
     expect(filtered.filter).toMatchObject({ kind: 'gaussian', cutoffMm: CUTOFF_MM, samplingLengths: 7 });
-    expectNear(filtered.raUm, roughness(heightsUm, SPACING, gaussian).ra, 1e-12); // derived: the same library call
-    expectNear(filtered.raUm, roughness(sine(N, SPACING, CUTOFF_UM / 10, 0.5), SPACING).ra, 1e-4); // source: ISO 16610-21 transmission ≈ 1 at λc/10; derived: the tilt removed
+    expectWithin(filtered.raUm, roughness(heightsUm, SPACING, gaussian).ra, 1e-12); // derived: the same library call
+    expectWithin(filtered.raUm, roughness(sine(N, SPACING, CUTOFF_UM / 10, 0.5), SPACING).ra, 1e-4); // source: ISO 16610-21 transmission ≈ 1 at λc/10; derived: the tilt removed
     const unfiltered = evaluateInspection(record(), spec).finish!;
     expect(unfiltered.filter?.kind).toBe('none'); // a record that does not say is worked unfiltered, as before
-    expectNear(unfiltered.raUm, roughness(heightsUm, SPACING).ra, 1e-12); // derived: the same library call, no filter
+    expectWithin(unfiltered.raUm, roughness(heightsUm, SPACING).ra, 1e-12); // derived: the same library call, no filter
   });
 });

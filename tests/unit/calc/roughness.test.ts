@@ -1,6 +1,5 @@
 import { describe, it, expect } from 'vitest';
 import fc from 'fast-check';
-import { CalculationError } from '../../../shared/calc/errors';
 import {
   MIN_PROFILE_POINTS,
   amplitudeParameters,
@@ -8,21 +7,7 @@ import {
   materialRatioParameters,
   roughness,
 } from '../../../shared/calc/roughness';
-
-function expectNear(actual: number, expected: number, abs: number) {
-  expect(Math.abs(actual - expected)).toBeLessThanOrEqual(abs);
-}
-
-function expectCalculationError(run: () => unknown, field: string) {
-  let caught: unknown;
-  try {
-    run();
-  } catch (error) {
-    caught = error;
-  }
-  expect(caught).toBeInstanceOf(CalculationError);
-  expect((caught as CalculationError).field).toBe(field);
-}
+import { expectCalculationError, expectWithin } from './expectations';
 
 /** A·sin(2πj/P): whole periods when n is a multiple of P; peaks sampled exactly when P is a multiple of 4. */
 function sine(n: number, period: number, amplitude: number): number[] {
@@ -59,32 +44,32 @@ describe('amplitudeParameters', () => {
 
   it('when the profile is a sine of amplitude A over whole periods, then Ra = 2A/π, Rq = A/√2 and Rz = 2A', () => {
     const result = amplitudeParameters(sineProfile);
-    expectNear(result.ra, (2 * A) / Math.PI, 1e-5 * A); // derived: Ra = (1/l)∫|A sin x| dx = 2A/π (sampling error ~ 1e-6)
-    expectNear(result.rq, A / Math.SQRT2, 1e-12 * A); // derived: Rq = √((1/l)∫A² sin² x dx) = A/√2 (exact for whole periods)
-    expectNear(result.rz, 2 * A, 1e-12 * A); // derived: each segment holds whole periods with the peak and trough sampled: Rz = A − (−A)
-    expectNear(result.mean, 0, 1e-12 * A); // derived: a sine over whole periods has zero mean
+    expectWithin(result.ra, (2 * A) / Math.PI, 1e-5 * A); // derived: Ra = (1/l)∫|A sin x| dx = 2A/π (sampling error ~ 1e-6)
+    expectWithin(result.rq, A / Math.SQRT2, 1e-12 * A); // derived: Rq = √((1/l)∫A² sin² x dx) = A/√2 (exact for whole periods)
+    expectWithin(result.rz, 2 * A, 1e-12 * A); // derived: each segment holds whole periods with the peak and trough sampled: Rz = A − (−A)
+    expectWithin(result.mean, 0, 1e-12 * A); // derived: a sine over whole periods has zero mean
   });
 
   it('when the profile is a triangle wave of amplitude A, then Ra = A/2 and Rq = A/√3', () => {
     const result = amplitudeParameters(triangleProfile);
-    expectNear(result.ra, A / 2, 1e-5 * A); // derived: Ra of a linear ramp from −A to A = A/2
-    expectNear(result.rq, A / Math.sqrt(3), 1e-5 * A); // derived: Rq of a linear ramp from −A to A = A/√3
+    expectWithin(result.ra, A / 2, 1e-5 * A); // derived: Ra of a linear ramp from −A to A = A/2
+    expectWithin(result.rq, A / Math.sqrt(3), 1e-5 * A); // derived: Rq of a linear ramp from −A to A = A/√3
   });
 
   it('when the profile is shifted up by a constant, then Ra, Rq and Rz are unchanged', () => {
     const shifted = sineProfile.map((z) => z + 12.5);
     const a = amplitudeParameters(sineProfile);
     const b = amplitudeParameters(shifted);
-    expectNear(b.ra, a.ra, 1e-9); // derived: parameters are measured from the mean line
-    expectNear(b.rq, a.rq, 1e-9); // derived: parameters are measured from the mean line
-    expectNear(b.rz, a.rz, 1e-9); // derived: peak-to-valley ignores an offset
-    expectNear(b.mean, a.mean + 12.5, 1e-9); // derived: the mean line moves with the offset
+    expectWithin(b.ra, a.ra, 1e-9); // derived: parameters are measured from the mean line
+    expectWithin(b.rq, a.rq, 1e-9); // derived: parameters are measured from the mean line
+    expectWithin(b.rz, a.rz, 1e-9); // derived: peak-to-valley ignores an offset
+    expectWithin(b.mean, a.mean + 12.5, 1e-9); // derived: the mean line moves with the offset
   });
 
   it('when the five segments have different peak-to-valley heights, then Rz is their mean', () => {
     // Ten samples, two per segment: heights of segment k are 0 and k + 1.
     const profile = [0, 1, 0, 2, 0, 3, 0, 4, 0, 5];
-    expectNear(amplitudeParameters(profile).rz, 3, 1e-12); // derived: (1 + 2 + 3 + 4 + 5) / 5
+    expectWithin(amplitudeParameters(profile).rz, 3, 1e-12); // derived: (1 + 2 + 3 + 4 + 5) / 5
   });
 });
 
@@ -92,38 +77,38 @@ describe('materialRatioParameters', () => {
   it('when the profile is a triangle wave of amplitude A, then Rk = 2A, Rpk = Rvk = 0, Mr1 = 0 % and Mr2 = 100 %', () => {
     const A = 3;
     const result = materialRatioParameters(triangle(100_000, 1000, A));
-    expectNear(result.rk, 2 * A, 1e-3 * A); // derived: the material-ratio curve is a straight line from A to −A
-    expectNear(result.rpk, 0, 1e-3 * A); // derived: no material above the core band
-    expectNear(result.rvk, 0, 1e-3 * A); // derived: no material below the core band
-    expectNear(result.mr1, 0, 0.1); // derived: the curve meets the band's top at 0 %
-    expectNear(result.mr2, 100, 0.1); // derived: the curve meets the band's bottom at 100 %
+    expectWithin(result.rk, 2 * A, 1e-3 * A); // derived: the material-ratio curve is a straight line from A to −A
+    expectWithin(result.rpk, 0, 1e-3 * A); // derived: no material above the core band
+    expectWithin(result.rvk, 0, 1e-3 * A); // derived: no material below the core band
+    expectWithin(result.mr1, 0, 0.1); // derived: the curve meets the band's top at 0 %
+    expectWithin(result.mr2, 100, 0.1); // derived: the curve meets the band's bottom at 100 %
     expect(Number.isNaN(result.rpk) || Number.isNaN(result.rvk)).toBe(false);
   });
 
   it('when peaks and valleys sit outside a straight core, then Rk, Rpk, Rvk, Mr1 and Mr2 follow the equal-area construction', () => {
     const result = materialRatioParameters(plateauProfile());
-    expectNear(result.rk, 2, 1e-9); // derived: core line z = 1 − 0.02·Mr runs from 1 at 0 % to −1 at 100 %
-    expectNear(result.mr1, 10, 1e-9); // derived: 10 of 100 samples lie above the band's top
-    expectNear(result.mr2, 90, 1e-9); // derived: 10 of 100 samples lie below the band's bottom
-    expectNear(result.construction.a1, 20, 1e-9); // derived: A1 = 10 samples × (3 − 1) µm × 1 %
-    expectNear(result.construction.a2, 30, 1e-9); // derived: A2 = 10 samples × (−1 − (−4)) µm × 1 %
-    expectNear(result.rpk, 4, 1e-9); // derived: Rpk = 2·A1/Mr1 = 2·20/10
-    expectNear(result.rvk, 6, 1e-9); // derived: Rvk = 2·A2/(100 − Mr2) = 2·30/10
-    expectNear(result.construction.secantFrom, 10.5, 1e-9); // derived: first core sample at (10 + ½)/100; ties keep the first secant
-    expectNear(result.construction.secantTo, 50.5, 1e-9); // derived: 40 samples further on
+    expectWithin(result.rk, 2, 1e-9); // derived: core line z = 1 − 0.02·Mr runs from 1 at 0 % to −1 at 100 %
+    expectWithin(result.mr1, 10, 1e-9); // derived: 10 of 100 samples lie above the band's top
+    expectWithin(result.mr2, 90, 1e-9); // derived: 10 of 100 samples lie below the band's bottom
+    expectWithin(result.construction.a1, 20, 1e-9); // derived: A1 = 10 samples × (3 − 1) µm × 1 %
+    expectWithin(result.construction.a2, 30, 1e-9); // derived: A2 = 10 samples × (−1 − (−4)) µm × 1 %
+    expectWithin(result.rpk, 4, 1e-9); // derived: Rpk = 2·A1/Mr1 = 2·20/10
+    expectWithin(result.rvk, 6, 1e-9); // derived: Rvk = 2·A2/(100 − Mr2) = 2·30/10
+    expectWithin(result.construction.secantFrom, 10.5, 1e-9); // derived: first core sample at (10 + ½)/100; ties keep the first secant
+    expectWithin(result.construction.secantTo, 50.5, 1e-9); // derived: 40 samples further on
     // Heights are from the mean line: mean = (10·3 + 0 + 10·(−4)) / 100 = −0.1, so the band is 1.1 to −0.9.
-    expectNear(result.construction.top, 1.1, 1e-9); // derived: 1 − (−0.1)
-    expectNear(result.construction.bottom, -0.9, 1e-9); // derived: −1 − (−0.1)
+    expectWithin(result.construction.top, 1.1, 1e-9); // derived: 1 − (−0.1)
+    expectWithin(result.construction.bottom, -0.9, 1e-9); // derived: −1 − (−0.1)
   });
 
   it('when half the profile is a plateau and half a deep valley, then Rk and Rpk are 0 and Rvk is twice the mean valley depth', () => {
     const profile = Array.from({ length: 100 }, (_, i) => (i % 2 === 0 ? 1 : -1));
     const result = materialRatioParameters(profile);
-    expectNear(result.rk, 0, 1e-12); // derived: the flattest 40 % secant lies on the plateau, gradient 0
-    expectNear(result.rpk, 0, 1e-12); // derived: Mr1 = 0 ⇒ Rpk = 0
-    expectNear(result.mr1, 0, 1e-12); // derived: nothing above the plateau
-    expectNear(result.mr2, 50, 1e-12); // derived: half the samples lie below the band
-    expectNear(result.rvk, 4, 1e-12); // derived: A2 = 50 × 2 µm × 1 % = 100; Rvk = 2·100/50
+    expectWithin(result.rk, 0, 1e-12); // derived: the flattest 40 % secant lies on the plateau, gradient 0
+    expectWithin(result.rpk, 0, 1e-12); // derived: Mr1 = 0 ⇒ Rpk = 0
+    expectWithin(result.mr1, 0, 1e-12); // derived: nothing above the plateau
+    expectWithin(result.mr2, 50, 1e-12); // derived: half the samples lie below the band
+    expectWithin(result.rvk, 4, 1e-12); // derived: A2 = 50 × 2 µm × 1 % = 100; Rvk = 2·100/50
   });
 
   it('when the profile is flat, then every parameter is 0, Mr1 = 0 % and Mr2 = 100 %, with no NaN', () => {
@@ -187,10 +172,10 @@ describe('roughness', () => {
         const b = roughness(heights.map((z) => z * factor));
         const tolerance = (value: number) => 1e-9 * factor * (Math.abs(value) + 100);
         for (const key of ['ra', 'rq', 'rz', 'rk', 'rpk', 'rvk'] as const) {
-          expectNear(b[key], factor * a[key], tolerance(a[key])); // derived: each is a height, linear in z
+          expectWithin(b[key], factor * a[key], tolerance(a[key])); // derived: each is a height, linear in z
         }
-        expectNear(b.mr1, a.mr1, 1e-9); // derived: a material ratio is a share of samples, unchanged by scaling
-        expectNear(b.mr2, a.mr2, 1e-9); // derived: a material ratio is a share of samples, unchanged by scaling
+        expectWithin(b.mr1, a.mr1, 1e-9); // derived: a material ratio is a share of samples, unchanged by scaling
+        expectWithin(b.mr2, a.mr2, 1e-9); // derived: a material ratio is a share of samples, unchanged by scaling
       }),
     );
   });
@@ -225,9 +210,9 @@ describe('materialRatioCurve', () => {
   it('when a curve of 5 points is asked for, then it runs from the highest height at 0 % to the lowest at 100 %', () => {
     const curve = materialRatioCurve(plateauProfile(), 5);
     expect(curve.map((point) => point.mr)).toEqual([0, 25, 50, 75, 100]); // derived: evenly spaced ratios
-    expectNear(curve[0].height, 3.1, 1e-12); // derived: peak 3 − mean (−0.1)
-    expectNear(curve[4].height, -3.9, 1e-12); // derived: valley −4 − mean (−0.1)
-    expectNear(curve[2].height, 1 - 0.02 * 50.5 + 0.1, 1e-12); // derived: sample 50 of the core line, from the mean line
+    expectWithin(curve[0].height, 3.1, 1e-12); // derived: peak 3 − mean (−0.1)
+    expectWithin(curve[4].height, -3.9, 1e-12); // derived: valley −4 − mean (−0.1)
+    expectWithin(curve[2].height, 1 - 0.02 * 50.5 + 0.1, 1e-12); // derived: sample 50 of the core line, from the mean line
   });
 
   it('when any profile is drawn, then the curve never rises', () => {

@@ -1,25 +1,11 @@
 import { describe, it, expect } from 'vitest';
 import fc from 'fast-check';
 import type { CylinderReadings } from '../../../shared/calc/bore';
-import { CalculationError } from '../../../shared/calc/errors';
 import { OVERSIZE_STEPS, boreSize, chooseOversize } from '../../../shared/calc/sizing';
 import { inchesToMm } from '../../../shared/calc/units';
+import { expectCalculationError, expectWithin } from './expectations';
 
-function expectNear(actual: number | null | undefined, expected: number, abs = 1e-9) {
-  expect(actual).toBeTypeOf('number');
-  expect(Math.abs((actual as number) - expected)).toBeLessThanOrEqual(abs);
-}
-
-function expectCalculationError(run: () => unknown, field: string) {
-  let caught: unknown;
-  try {
-    run();
-  } catch (error) {
-    caught = error;
-  }
-  expect(caught).toBeInstanceOf(CalculationError);
-  expect((caught as CalculationError).field).toBe(field);
-}
+const expectNear = (actual: number | null | undefined, expected: number, abs = 1e-9) => expectWithin(actual, expected, abs);
 
 /** Six equal readings except the top thrust one. */
 function cylinder(all: number, topThrust = all): CylinderReadings {

@@ -3,7 +3,7 @@ import { dirname } from 'node:path';
 import Stripe from 'stripe';
 import { afterEach, describe, expect, it } from 'vitest';
 import { DEFAULT_SECRET_KEY } from '../../../server/dev/payments-stand-in';
-import { createSession, paidSession, payOnPage, readyAccount, startHarness, startReceiver, waitFor, WEBHOOK_SECRET } from '../../setup/payments';
+import { createSession, paidSession, payOnPage, readyAccount, startHarnessWithReceiver, startReceiver, waitFor, WEBHOOK_SECRET } from '../../setup/payments';
 
 const cleanups: Array<() => Promise<void>> = [];
 afterEach(async () => {
@@ -11,9 +11,8 @@ afterEach(async () => {
 });
 
 async function setUp(respond?: Parameters<typeof startReceiver>[0]) {
-  const receiver = await startReceiver(respond);
-  const harness = await startHarness({ webhook: { url: receiver.url, secret: WEBHOOK_SECRET } });
-  cleanups.push(() => receiver.close(), () => harness.cleanup());
+  const { receiver, harness, close } = await startHarnessWithReceiver(respond);
+  cleanups.push(close);
   return { receiver, harness };
 }
 
