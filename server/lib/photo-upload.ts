@@ -1,4 +1,4 @@
-import type { Request, RequestHandler } from 'express';
+import type { Request, RequestHandler, Response } from 'express';
 import multer from 'multer';
 import type { Database } from '../db/client';
 import { AppError } from './errors';
@@ -75,4 +75,9 @@ export function photoUploadSteps(mayUpload: (req: Request) => Promise<void>, upl
     uploadLimit,
     receivePhotos(maxFiles),
   ];
+}
+
+/** Sends a stored photo's WebP bytes, cached only by the person's own browser (every photo is someone's to see). */
+export function sendPhoto(res: Response, webp: Buffer): void {
+  res.set({ 'Content-Type': 'image/webp', 'Cache-Control': 'private, max-age=3600', 'X-Content-Type-Options': 'nosniff' }).send(webp);
 }

@@ -6,8 +6,8 @@ import type { Logger } from 'pino';
 import { Server } from 'socket.io';
 import { z } from 'zod';
 import type { ClientToServerEvents, ServerToClientEvents, SocketAck } from '../../shared/realtime-events';
-import { uuidSchema } from '../../shared/schemas/common';
-import { markReadSchema, sendMessageSchema } from '../../shared/schemas/messages';
+import { jobParamsSchema } from '../../shared/schemas/jobs';
+import { markReadSchema, sendMessageSchema, threadParamsSchema } from '../../shared/schemas/messages';
 import type { Database } from '../db/client';
 import type { User } from '../db/schema';
 import { nestsDeeperThan, tooDeep } from '../lib/json-body';
@@ -130,9 +130,6 @@ export function attachRealtime(options: RealtimeOptions): RealtimeServer {
 
   const messageDeps = { db, hub, rateLimit: messageRateLimit(db, options.messagesPer10s) };
 
-  const threadArg = z.object({ threadId: uuidSchema });
-  const jobArg = z.object({ jobId: uuidSchema });
-
   io.on('connection', (socket) => {
     const user = socket.data.user as User;
     const sid = (socket.request as unknown as { sessionID: string }).sessionID;
@@ -164,47 +161,47 @@ export function attachRealtime(options: RealtimeOptions): RealtimeServer {
     };
 
     handle('thread:join', async (payload) => {
-      const { threadId } = threadArg.parse(payload);
+      const { threadId } = threadParamsSchema.parse(payload);
       const access = await threadFor(db, threadId, user);
       await socket.join(rooms.thread(threadId));
       return { canWrite: access.canWrite };
     }, { sessionCheck: true });
 
     handle('thread:leave', async (payload) => {
-      const { threadId } = threadArg.parse(payload);
+      const { threadId } = threadParamsSchema.parse(payload);
       await socket.leave(rooms.thread(threadId));
       return {};
     });
 
     handle('job:watch', async (payload) => {
-      const { jobId } = jobArg.parse(payload);
+      const { jobId } = jobParamsSchema.parse(payload);
       await jobForLiveWatcher(db, jobId, user);
       await socket.join(rooms.job(jobId));
       return {};
     }, { sessionCheck: true });
 
     handle('job:unwatch', async (payload) => {
-      const { jobId } = jobArg.parse(payload);
+      const { jobId } = jobParamsSchema.parse(payload);
       await socket.leave(rooms.job(jobId));
       return {};
     });
 
     handle('message:send', async (payload) => {
-      const { threadId } = threadArg.parse(payload);
+      const { threadId } = threadParamsSchema.parse(payload);
       const input = sendMessageSchema.parse(payload);
       const { message, duplicate } = await sendMessage(messageDeps, user, threadId, input);
       return { message, duplicate };
     }, { sessionCheck: true });
 
     handle('typing', async (payload) => {
-      const { threadId } = threadArg.parse(payload);
+      const { threadId } = threadParamsSchema.parse(payload);
       if (!socket.rooms.has(rooms.thread(threadId))) throw new AppError('forbidden', 'Join the conversation first.', 403);
       socket.to(rooms.thread(threadId)).emit('typing', { threadId, userId: user.id, displayName: user.displayName });
       return {};
     });
 
     handle('read', async (payload) => {
-      const { threadId } = threadArg.parse(payload);
+      const { threadId } = threadParamsSchema.parse(payload);
       const { messageId } = markReadSchema.parse(payload);
       await markRead(messageDeps, user, threadId, messageId);
       return {};

@@ -1,8 +1,6 @@
 import { z } from 'zod';
 import { roles } from './auth';
-import { boreInspectionAnswerSchema, appliedFilterSchema } from './calculations';
-import { disputeOutcomes, disputeReasons } from './disputes';
-import { ledgerEntryKindSchema, ledgerKinds } from './payments';
+import { ledgerEntryKindSchema, ledgerKinds, moneyHistoryRowSchema } from './payments';
 import { publicShopSchema } from './shops';
 
 export const createAdminSchema = z.object({
@@ -125,16 +123,8 @@ export type PlatformFee = z.infer<typeof platformFeeSettingSchema>;
 
 export type LedgerKind = z.infer<typeof ledgerEntryKindSchema>;
 
-export const ledgerRowSchema = z.object({
-  id: z.number().int(),
-  createdAt: z.iso.datetime(),
-  jobId: z.uuid(),
-  jobTitle: z.string(),
-  kind: ledgerEntryKindSchema,
-  amountCents: z.number().int(),
-  reference: z.string(),
-  paymentId: z.string().nullable(),
-});
+/** A line of the platform ledger: a money-history row with its provider reference and payment. */
+export const ledgerRowSchema = moneyHistoryRowSchema.extend({ reference: z.string(), paymentId: z.string().nullable() });
 export type LedgerRow = z.infer<typeof ledgerRowSchema>;
 
 export const ledgerPageSchema = z.object({
@@ -161,201 +151,7 @@ export type AuditPage = z.infer<typeof auditPageSchema>;
 
 // --- disputes as the console sees them ------------------------------------------
 //
-// The queue, the case with its evidence timeline, and a decision's answer.
-// The evidence items describe shapes other domains own (a dispute, a photo, a
-// job's money, an inspection's results): they are written here until those
-// domains have answer schemas of their own, then these become references.
+// The queue, the case with its evidence timeline and a decision's answer are the
+// disputes schemas' (shared/schemas/disputes.ts); the console's names for them:
 
-const sideSchema = z.enum(['builder', 'shop']);
-const disputeStatusSchema = z.enum(['open', 'resolved']);
-
-export const disputeQueueRowSchema = z.object({
-  id: z.uuid(),
-  jobId: z.uuid(),
-  jobTitle: z.string(),
-  builderName: z.string(),
-  shopName: z.string(),
-  openedBy: sideSchema,
-  reason: z.enum(disputeReasons),
-  status: disputeStatusSchema,
-  openedAt: z.iso.datetime(),
-  /** Paid in and not yet paid out or refunded, in cents. */
-  heldCents: z.number().int(),
-  answered: z.boolean(),
-});
-
-export type DisputeQueueRow = z.infer<typeof disputeQueueRowSchema>;
-
-export const disputeQueueAnswerSchema = z.object({ disputes: z.array(disputeQueueRowSchema) });
-export type DisputeQueueAnswer = z.infer<typeof disputeQueueAnswerSchema>;
-
-/** The dispute itself (shared/schemas/disputes.ts `Dispute`). */
-export const evidenceDisputeSchema = z.object({
-  id: z.uuid(),
-  jobId: z.uuid(),
-  status: disputeStatusSchema,
-  openedBy: sideSchema,
-  reason: z.enum(disputeReasons),
-  statement: z.string(),
-  openedAt: z.iso.datetime(),
-  response: z.object({ by: sideSchema, statement: z.string(), at: z.iso.datetime() }).nullable(),
-  resolution: z
-    .object({ outcome: z.enum(disputeOutcomes), shopCents: z.number().int(), refundCents: z.number().int(), decision: z.string(), at: z.iso.datetime() })
-    .nullable(),
-});
-
-/** A photo of the job, a message or a milestone, re-encoded as WebP. */
-export const evidencePhotoSchema = z.object({
-  id: z.uuid(),
-  width: z.number().int(),
-  height: z.number().int(),
-  thumbUrl: z.string(),
-  largeUrl: z.string(),
-});
-
-/** The job's money: ledger balance, movements still on their way, payments (shared/schemas/payments.ts `MoneyView`). */
-export const evidenceMoneySchema = z.object({
-  balance: z.object({ paidIn: z.number().int(), released: z.number().int(), fee: z.number().int(), refunded: z.number().int(), held: z.number().int() }),
-  pending: z.array(
-    z.object({ kind: z.enum(['release', 'refund', 'late_refund']), amountCents: z.number().int(), attempts: z.number().int(), lastError: z.string().nullable() }),
-  ),
-  payments: z.array(
-    z.object({
-      id: z.uuid(),
-      kind: z.enum(['bid', 'change_order']),
-      amountCents: z.number().int(),
-      status: z.enum(['pending', 'paid', 'failed', 'expired', 'refunded']),
-      failureMessage: z.string().nullable(),
-      paidAt: z.iso.datetime().nullable(),
-    }),
-  ),
-});
-
-const checkVerdictSchema = z.enum(['conforms', 'fails', 'not-proven']);
-const materialSchema = z.enum(['cast-iron', 'aluminium']);
-const thrustAxial = z.object({ thrust: z.number(), axial: z.number() });
-
-/** What the server worked out from an inspection record (shared/schemas/inspection.ts `InspectionResults`). */
-export const evidenceInspectionResultsSchema = z.object({
-  bores: boreInspectionAnswerSchema.omit({ unit: true }),
-  deck: z.object({ outOfFlat: z.number(), limit: z.number(), pass: z.boolean(), limitSource: z.string() }).optional(),
-  finish: z
-    .object({
-      raUm: z.number(),
-      rqUm: z.number().optional(),
-      rzUm: z.number().optional(),
-      rkUm: z.number().optional(),
-      rpkUm: z.number().optional(),
-      rvkUm: z.number().optional(),
-      mr1: z.number().optional(),
-      mr2: z.number().optional(),
-      filter: appliedFilterSchema.optional(),
-    })
-    .optional(),
-  crosshatch: z.object({ includedAngleDeg: z.number() }).optional(),
-  checks: z.array(
-    z.object({
-      what: z.string(),
-      value: z.number(),
-      allowed: z.string(),
-      pass: z.boolean(),
-      verdict: checkVerdictSchema.optional(),
-      limit: z.string().optional(),
-      cylinder: z.number().int().optional(),
-      note: z.string().optional(),
-    }),
-  ),
-  pass: z.boolean(),
-  verdict: z.enum(['pass', 'fail', 'not-fully-judged', 'not-proven']).optional(),
-  notJudged: z.array(z.object({ what: z.string(), why: z.string() })).optional(),
-  decisionRule: z
-    .object({
-      rule: z.enum(['simple', 'guarded']),
-      name: z.string(),
-      words: z.string(),
-      uncertainty: z.number(),
-      uncertaintySource: z.enum(['entered', 'gauge-resolution']),
-      uncertaintyWords: z.string(),
-    })
-    .optional(),
-  temperature: z
-    .object({
-      measuredC: z.number(),
-      enteredUnit: z.enum(['C', 'F']),
-      referenceC: z.number(),
-      block: z.object({ material: materialSchema, alpha: z.number(), words: z.string() }),
-      piston: z.object({ material: materialSchema, alpha: z.number(), words: z.string() }),
-      source: z.string(),
-    })
-    .optional(),
-  corrected: z
-    .array(z.object({ top: thrustAxial, middle: thrustAxial, bottom: thrustAxial, piston: z.number().optional(), pistonSource: z.enum(['record', 'job']).optional() }))
-    .optional(),
-  statements: z.array(z.string()).optional(),
-});
-
-/** One thing that happened on a disputed job, by its kind. */
-export const evidenceItemSchema = z.discriminatedUnion('kind', [
-  z.object({ kind: z.literal('dispute_opened'), at: z.iso.datetime(), by: sideSchema, reason: z.enum(disputeReasons), statement: z.string() }),
-  z.object({ kind: z.literal('dispute_answered'), at: z.iso.datetime(), by: sideSchema, statement: z.string() }),
-  /** A message between the builder and the shop doing the work (shared/schemas/messages.ts `Message`, as evidence). */
-  z.object({ kind: z.literal('message'), at: z.iso.datetime(), by: sideSchema, authorName: z.string(), body: z.string(), photos: z.array(evidencePhotoSchema) }),
-  /** A progress entry of the shop's (shared/schemas/inspection.ts `Milestone`, as evidence). */
-  z.object({
-    kind: z.literal('milestone'),
-    at: z.iso.datetime(),
-    milestone: z.string(),
-    operation: z.string().nullable(),
-    note: z.string(),
-    carrier: z.string().nullable(),
-    trackingNumber: z.string().nullable(),
-    photos: z.array(evidencePhotoSchema),
-  }),
-  /** One inspection record version (shared/schemas/inspection.ts `InspectionVersion`, without its input). */
-  z.object({
-    kind: z.literal('inspection'),
-    at: z.iso.datetime(),
-    version: z.number().int(),
-    status: z.string(),
-    pass: z.boolean(),
-    results: evidenceInspectionResultsSchema,
-    decidedAt: z.iso.datetime().nullable(),
-    rejectReasons: z.string().nullable(),
-  }),
-  /** Extra work proposed (shared/schemas/payments.ts `ChangeOrder`, as evidence). */
-  z.object({
-    kind: z.literal('change_order'),
-    at: z.iso.datetime(),
-    description: z.string(),
-    amountCents: z.number().int(),
-    status: z.enum(['proposed', 'approved', 'paid', 'declined']),
-  }),
-  /** A ledger entry on the job. */
-  z.object({ kind: z.literal('money'), at: z.iso.datetime(), entry: ledgerEntryKindSchema, amountCents: z.number().int(), reference: z.string() }),
-  z.object({ kind: z.literal('job_photo'), at: z.iso.datetime(), photos: z.array(evidencePhotoSchema) }),
-]);
-export type EvidenceItem = z.infer<typeof evidenceItemSchema>;
-
-/** A dispute with everything that happened on its job, for the administrator who decides it. */
-export const disputeCaseSchema = z.object({
-  dispute: evidenceDisputeSchema,
-  job: z.object({
-    id: z.uuid(),
-    title: z.string(),
-    status: z.string(),
-    engineFamily: z.string(),
-    cylinders: z.number().int(),
-    acceptedTotalCents: z.number().int().nullable(),
-    feeBps: z.number().int().nullable(),
-  }),
-  builder: z.object({ id: z.uuid(), name: z.string(), email: z.string() }),
-  shop: z.object({ id: z.uuid(), userId: z.uuid(), name: z.string(), email: z.string() }).nullable(),
-  money: evidenceMoneySchema,
-  /** Everything that happened on the job, oldest first. */
-  timeline: z.array(evidenceItemSchema),
-});
-export type DisputeCase = z.infer<typeof disputeCaseSchema>;
-
-/** A decided dispute and the job's money after the decision was carried out. */
-export const disputeDecidedSchema = z.object({ dispute: evidenceDisputeSchema, money: evidenceMoneySchema });
-export type DisputeDecided = z.infer<typeof disputeDecidedSchema>;
+export type { DisputeCase, DisputeQueueAnswer, DisputeDecision as DisputeDecided } from './disputes';

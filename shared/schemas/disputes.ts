@@ -1,7 +1,10 @@
 import { z } from 'zod';
 import { centsSchema } from './common';
-import { moneyViewSchema, type ChangeOrder, type LedgerEntryKind, type MoneyView } from './payments';
-import type { InspectionResults } from './inspection';
+import { inspectionVersionSchema } from './inspection';
+import { messageSchema } from './messages';
+import { milestoneSchema } from './milestones';
+import { changeOrderSchema, ledgerEntryKindSchema, moneyViewSchema } from './payments';
+import { storedPhotoSchema } from './photos';
 
 /**
  * Why a dispute is opened. The builder disputes instead of accepting an
@@ -89,16 +92,10 @@ export const disputeViewSchema = z.object({
 export type DisputeView = z.infer<typeof disputeViewSchema>;
 
 /** A line of the administrators' dispute queue. */
-export const disputeQueueRowSchema = z.object({
-  id: z.uuid(),
-  jobId: z.uuid(),
+export const disputeQueueRowSchema = disputeSchema.pick({ id: true, jobId: true, openedBy: true, reason: true, status: true, openedAt: true }).extend({
   jobTitle: z.string(),
   builderName: z.string(),
   shopName: z.string(),
-  openedBy: sideSchema,
-  reason: z.enum(disputeReasons),
-  status: z.enum(['open', 'resolved']),
-  openedAt: z.iso.datetime(),
   /** Paid in and not yet paid out or refunded, in cents. */
   heldCents: z.number().int(),
   answered: z.boolean(),
@@ -106,35 +103,58 @@ export const disputeQueueRowSchema = z.object({
 export type DisputeQueueRow = z.infer<typeof disputeQueueRowSchema>;
 
 export const disputeQueueAnswerSchema = z.object({ disputes: z.array(disputeQueueRowSchema) });
+export type DisputeQueueAnswer = z.infer<typeof disputeQueueAnswerSchema>;
 
 /** What an administrator's decision answers: the resolved dispute and the job's money after it. */
 export const disputeDecisionSchema = z.object({ dispute: disputeSchema, money: moneyViewSchema });
 export type DisputeDecision = z.infer<typeof disputeDecisionSchema>;
 
-export type EvidenceItem =
-  | { kind: 'dispute_opened'; at: string; by: 'builder' | 'shop'; reason: DisputeReason; statement: string }
-  | { kind: 'dispute_answered'; at: string; by: 'builder' | 'shop'; statement: string }
-  | { kind: 'message'; at: string; by: 'builder' | 'shop'; authorName: string; body: string; photos: EvidencePhoto[] }
-  | { kind: 'milestone'; at: string; milestone: string; operation: string | null; note: string; carrier: string | null; trackingNumber: string | null; photos: EvidencePhoto[] }
-  | { kind: 'inspection'; at: string; version: number; status: string; pass: boolean; results: InspectionResults; decidedAt: string | null; rejectReasons: string | null }
-  | { kind: 'change_order'; at: string; description: string; amountCents: number; status: ChangeOrder['status'] }
-  | { kind: 'money'; at: string; entry: LedgerEntryKind; amountCents: number; reference: string }
-  | { kind: 'job_photo'; at: string; photos: EvidencePhoto[] };
+// --- the evidence an administrator decides on -----------------------------------
+//
+// Each item is a thing another domain owns (a message, a milestone, an
+// inspection version, a change order, a ledger entry, photos), taken from that
+// domain's answer schema and stamped with its kind and moment.
 
-export interface EvidencePhoto {
-  id: string;
-  width: number;
-  height: number;
-  thumbUrl: string;
-  largeUrl: string;
-}
+const happened = <K extends string>(kind: K) => ({ kind: z.literal(kind), at: z.iso.datetime() });
 
-export interface DisputeCase {
-  dispute: Dispute;
-  job: { id: string; title: string; status: string; engineFamily: string; cylinders: number; acceptedTotalCents: number | null; feeBps: number | null };
-  builder: { id: string; name: string; email: string };
-  shop: { id: string; userId: string; name: string; email: string } | null;
-  money: MoneyView;
+/** One thing that happened on a disputed job, by its kind. */
+export const evidenceItemSchema = z.discriminatedUnion('kind', [
+  z.object({ ...happened('dispute_opened'), by: sideSchema, reason: z.enum(disputeReasons), statement: z.string() }),
+  z.object({ ...happened('dispute_answered'), by: sideSchema, statement: z.string() }),
+  /** A message between the builder and the shop doing the work. */
+  messageSchema.pick({ body: true, photos: true }).extend({ ...happened('message'), by: sideSchema, authorName: z.string() }),
+  /** A progress entry of the shop's; `milestone` is its kind. */
+  milestoneSchema
+    .pick({ operation: true, note: true, carrier: true, trackingNumber: true, photos: true })
+    .extend({ ...happened('milestone'), milestone: milestoneSchema.shape.kind }),
+  /** One inspection record version, without its input; `pass` is its results' `pass`. */
+  inspectionVersionSchema
+    .pick({ version: true, status: true, results: true, decidedAt: true, rejectReasons: true })
+    .extend({ ...happened('inspection'), pass: z.boolean() }),
+  /** Extra work proposed. */
+  changeOrderSchema.pick({ description: true, amountCents: true, status: true }).extend(happened('change_order')),
+  /** A ledger entry on the job. */
+  z.object({ ...happened('money'), entry: ledgerEntryKindSchema, amountCents: z.number().int(), reference: z.string() }),
+  z.object({ ...happened('job_photo'), photos: z.array(storedPhotoSchema) }),
+]);
+export type EvidenceItem = z.infer<typeof evidenceItemSchema>;
+
+/** A dispute with everything that happened on its job, for the administrator who decides it. */
+export const disputeCaseSchema = z.object({
+  dispute: disputeSchema,
+  job: z.object({
+    id: z.uuid(),
+    title: z.string(),
+    status: z.string(),
+    engineFamily: z.string(),
+    cylinders: z.number().int(),
+    acceptedTotalCents: z.number().int().nullable(),
+    feeBps: z.number().int().nullable(),
+  }),
+  builder: z.object({ id: z.uuid(), name: z.string(), email: z.string() }),
+  shop: z.object({ id: z.uuid(), userId: z.uuid(), name: z.string(), email: z.string() }).nullable(),
+  money: moneyViewSchema,
   /** Everything that happened on the job, oldest first. */
-  timeline: EvidenceItem[];
-}
+  timeline: z.array(evidenceItemSchema),
+});
+export type DisputeCase = z.infer<typeof disputeCaseSchema>;

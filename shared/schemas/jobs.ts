@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { isoDateSchema, operationCodeSchema, queryInt, regionSchema, uuidSchema } from './common';
+import { photoFileParamsSchema } from './photos';
 
 export const jobStatuses = ['draft', 'open', 'awarded', 'funded', 'in_work', 'inspection_submitted', 'completed', 'disputed', 'resolved', 'cancelled'] as const;
 export type JobStatus = (typeof jobStatuses)[number];
@@ -138,6 +139,9 @@ export type BoardQuery = z.infer<typeof boardQuerySchema>;
 
 /** The path parameter of every route about one job: /api/jobs/:jobId/... */
 export const jobParamsSchema = z.object({ jobId: uuidSchema });
+
+/** A job's photo file, or a milestone photo's: /api/jobs/:jobId/(milestone-)photos/:photoId/:size */
+export const jobPhotoFileParamsSchema = jobParamsSchema.extend(photoFileParamsSchema.shape);
 
 export const myJobsQuerySchema = z.object({
   status: z.enum(jobStatuses, { error: 'Unknown status.' }).optional(),

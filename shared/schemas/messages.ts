@@ -51,6 +51,9 @@ export const historyQuerySchema = z.object({
   limit: z.coerce.number({ error: 'Give a whole number.' }).int('Give a whole number.').min(1, 'At least 1.').max(100, 'At most 100.').default(30),
 });
 
+/** A conversation named in a path (/api/threads/:threadId) or a socket event's payload. */
+export const threadParamsSchema = z.object({ threadId: uuidSchema });
+
 export const openThreadSchema = z.object({ shopId: uuidSchema.optional() });
 export const markReadSchema = z.object({ messageId: uuidSchema });
 

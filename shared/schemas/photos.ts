@@ -1,7 +1,11 @@
 import { z } from 'zod';
+import { uuidSchema } from './common';
 
 /** Which stored size of a photo to load (a path parameter). */
 export const photoSizeSchema = z.enum(['thumb', 'large'], { error: 'Ask for thumb or large.' });
+
+/** The path parameters that name one stored size of a photo (`…/:photoId/:size`), after those of what it belongs to. */
+export const photoFileParamsSchema = z.object({ photoId: uuidSchema, size: photoSizeSchema });
 
 /**
  * A stored photo as the API answers it: re-encoded as WebP in two sizes, each

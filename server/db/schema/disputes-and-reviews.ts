@@ -1,6 +1,7 @@
 import { sql } from 'drizzle-orm';
 import { check, index, integer, pgEnum, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core';
-import { jobs } from './jobs';
+import { mustReference, stampedNow, uuidPrimaryKey } from './columns';
+import { jobIdColumn } from './jobs';
 import { users } from './users-and-sessions';
 
 // Disputes over a job and the reviews the two sides leave each other.
@@ -12,14 +13,10 @@ export const partySide = pgEnum('party_side', ['builder', 'shop']);
 export const disputes = pgTable(
   'disputes',
   {
-    id: uuid().primaryKey().defaultRandom(),
-    jobId: uuid()
-      .notNull()
-      .references(() => jobs.id, { onDelete: 'cascade' }),
+    id: uuidPrimaryKey(),
+    jobId: jobIdColumn(),
     status: disputeStatus().notNull().default('open'),
-    openedBy: uuid()
-      .notNull()
-      .references(() => users.id),
+    openedBy: mustReference(() => users.id),
     openedSide: partySide().notNull(),
     reason: text().notNull(),
     statement: text().notNull(),
@@ -35,7 +32,7 @@ export const disputes = pgTable(
     decision: text(),
     resolvedBy: uuid().references(() => users.id),
     resolvedAt: timestamp({ withTimezone: true }),
-    openedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+    openedAt: stampedNow(),
   },
   (t) => [
     // One dispute at a time per job.
@@ -49,21 +46,15 @@ export const disputes = pgTable(
 export const reviews = pgTable(
   'reviews',
   {
-    id: uuid().primaryKey().defaultRandom(),
-    jobId: uuid()
-      .notNull()
-      .references(() => jobs.id, { onDelete: 'cascade' }),
-    authorId: uuid()
-      .notNull()
-      .references(() => users.id),
+    id: uuidPrimaryKey(),
+    jobId: jobIdColumn(),
+    authorId: mustReference(() => users.id),
     authorSide: partySide().notNull(),
     /** The user the review is about (for a shop, the shop's account). */
-    subjectId: uuid()
-      .notNull()
-      .references(() => users.id),
+    subjectId: mustReference(() => users.id),
     rating: integer().notNull(),
     comment: text().notNull(),
-    createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+    createdAt: stampedNow(),
   },
   (t) => [
     uniqueIndex('reviews_job_author_idx').on(t.jobId, t.authorId),

@@ -1,7 +1,7 @@
 import { sql } from 'drizzle-orm';
 import { check, date, index, integer, jsonb, pgEnum, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core';
+import { mustReference, stampedNow, timestamps, uuidPrimaryKey } from './columns';
 import { shops } from './shops';
-import { timestamps } from './timestamps';
 import { users } from './users-and-sessions';
 
 // Jobs as builders post them, their photos, and the bids shops make on them.
@@ -28,10 +28,8 @@ export const bidStatus = pgEnum('bid_status', ['active', 'withdrawn', 'accepted'
 export const jobs = pgTable(
   'jobs',
   {
-    id: uuid().primaryKey().defaultRandom(),
-    builderId: uuid()
-      .notNull()
-      .references(() => users.id),
+    id: uuidPrimaryKey(),
+    builderId: mustReference(() => users.id),
     status: jobStatus().notNull().default('draft'),
     title: text().notNull(),
     engineFamily: text().notNull(),
@@ -67,22 +65,26 @@ export const jobs = pgTable(
   ],
 );
 
+/** The job a row belongs to, deleted with it (photos, bids, threads, the work record, money, disputes, reviews). */
+export const jobIdColumn = () => mustReference(() => jobs.id, { onDelete: 'cascade' });
+
+/** An uploaded photo's file, the same in the job, message and milestone photo tables: who sent it, where it is kept, its size. */
+export const photoFileColumns = () => ({
+  uploadedBy: mustReference(() => users.id),
+  storageKey: text().notNull(),
+  width: integer().notNull(),
+  height: integer().notNull(),
+  bytes: integer().notNull(),
+});
+
 export const jobPhotos = pgTable(
   'job_photos',
   {
-    id: uuid().primaryKey().defaultRandom(),
-    jobId: uuid()
-      .notNull()
-      .references(() => jobs.id, { onDelete: 'cascade' }),
-    uploadedBy: uuid()
-      .notNull()
-      .references(() => users.id),
-    storageKey: text().notNull(),
-    width: integer().notNull(),
-    height: integer().notNull(),
-    bytes: integer().notNull(),
+    id: uuidPrimaryKey(),
+    jobId: jobIdColumn(),
+    ...photoFileColumns(),
     position: integer().notNull(),
-    createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+    createdAt: stampedNow(),
   },
   (t) => [index('job_photos_job_idx').on(t.jobId, t.position)],
 );
@@ -90,13 +92,9 @@ export const jobPhotos = pgTable(
 export const bids = pgTable(
   'bids',
   {
-    id: uuid().primaryKey().defaultRandom(),
-    jobId: uuid()
-      .notNull()
-      .references(() => jobs.id, { onDelete: 'cascade' }),
-    shopId: uuid()
-      .notNull()
-      .references(() => shops.id),
+    id: uuidPrimaryKey(),
+    jobId: jobIdColumn(),
+    shopId: mustReference(() => shops.id),
     status: bidStatus().notNull().default('active'),
     version: integer().notNull().default(1),
     totalCents: integer().notNull(),
@@ -122,10 +120,8 @@ export const bids = pgTable(
 export const bidLineItems = pgTable(
   'bid_line_items',
   {
-    id: uuid().primaryKey().defaultRandom(),
-    bidId: uuid()
-      .notNull()
-      .references(() => bids.id, { onDelete: 'cascade' }),
+    id: uuidPrimaryKey(),
+    bidId: mustReference(() => bids.id, { onDelete: 'cascade' }),
     position: integer().notNull(),
     operation: text(),
     description: text().notNull(),
@@ -143,17 +139,15 @@ export const bidLineItems = pgTable(
 export const bidRevisions = pgTable(
   'bid_revisions',
   {
-    id: uuid().primaryKey().defaultRandom(),
-    bidId: uuid()
-      .notNull()
-      .references(() => bids.id, { onDelete: 'cascade' }),
+    id: uuidPrimaryKey(),
+    bidId: mustReference(() => bids.id, { onDelete: 'cascade' }),
     version: integer().notNull(),
     totalCents: integer().notNull(),
     turnaroundDays: integer().notNull(),
     validUntil: date({ mode: 'string' }).notNull(),
     note: text().notNull(),
     lineItems: jsonb().notNull(),
-    createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+    createdAt: stampedNow(),
   },
   (t) => [uniqueIndex('bid_revisions_version_idx').on(t.bidId, t.version)],
 );

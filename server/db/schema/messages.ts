@@ -1,6 +1,7 @@
 import { sql } from 'drizzle-orm';
 import { check, index, integer, pgTable, primaryKey, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core';
-import { jobs } from './jobs';
+import { mustReference, stampedNow, uuidPrimaryKey } from './columns';
+import { jobIdColumn, photoFileColumns } from './jobs';
 import { shops } from './shops';
 import { users } from './users-and-sessions';
 
@@ -10,15 +11,11 @@ import { users } from './users-and-sessions';
 export const threads = pgTable(
   'threads',
   {
-    id: uuid().primaryKey().defaultRandom(),
-    jobId: uuid()
-      .notNull()
-      .references(() => jobs.id, { onDelete: 'cascade' }),
-    shopId: uuid()
-      .notNull()
-      .references(() => shops.id),
+    id: uuidPrimaryKey(),
+    jobId: jobIdColumn(),
+    shopId: mustReference(() => shops.id),
     lastMessageAt: timestamp({ withTimezone: true }),
-    createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+    createdAt: stampedNow(),
   },
   (t) => [uniqueIndex('threads_job_shop_idx').on(t.jobId, t.shopId), index('threads_shop_idx').on(t.shopId, t.lastMessageAt)],
 );
@@ -26,13 +23,9 @@ export const threads = pgTable(
 export const messages = pgTable(
   'messages',
   {
-    id: uuid().primaryKey().defaultRandom(),
-    threadId: uuid()
-      .notNull()
-      .references(() => threads.id, { onDelete: 'cascade' }),
-    authorId: uuid()
-      .notNull()
-      .references(() => users.id),
+    id: uuidPrimaryKey(),
+    threadId: mustReference(() => threads.id, { onDelete: 'cascade' }),
+    authorId: mustReference(() => users.id),
     /** The id the sender's browser made up, so a resend after a reconnect is stored once. */
     clientId: text().notNull(),
     body: text().notNull(),
@@ -54,22 +47,14 @@ export const messages = pgTable(
 export const messagePhotos = pgTable(
   'message_photos',
   {
-    id: uuid().primaryKey().defaultRandom(),
-    threadId: uuid()
-      .notNull()
-      .references(() => threads.id, { onDelete: 'cascade' }),
-    uploadedBy: uuid()
-      .notNull()
-      .references(() => users.id),
-    storageKey: text().notNull(),
-    width: integer().notNull(),
-    height: integer().notNull(),
-    bytes: integer().notNull(),
+    id: uuidPrimaryKey(),
+    threadId: mustReference(() => threads.id, { onDelete: 'cascade' }),
+    ...photoFileColumns(),
     /** Null until the photo goes out with a message. */
     messageId: uuid().references(() => messages.id, { onDelete: 'cascade' }),
     /** Its place among the message's photos, set when attached. */
     position: integer(),
-    createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+    createdAt: stampedNow(),
   },
   (t) => [
     index('message_photos_message_idx').on(t.messageId, t.position),
@@ -81,12 +66,8 @@ export const messagePhotos = pgTable(
 export const threadReads = pgTable(
   'thread_reads',
   {
-    threadId: uuid()
-      .notNull()
-      .references(() => threads.id, { onDelete: 'cascade' }),
-    userId: uuid()
-      .notNull()
-      .references(() => users.id, { onDelete: 'cascade' }),
+    threadId: mustReference(() => threads.id, { onDelete: 'cascade' }),
+    userId: mustReference(() => users.id, { onDelete: 'cascade' }),
     lastReadAt: timestamp({ withTimezone: true }),
     lastReadMessageId: uuid(),
     digestedThrough: timestamp({ withTimezone: true }),

@@ -1,8 +1,8 @@
 import { sql } from 'drizzle-orm';
 import { bigserial, check, index, integer, jsonb, pgEnum, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core';
-import { bids, jobs } from './jobs';
+import { mustReference, stampedNow, timestamps, uuidPrimaryKey } from './columns';
+import { bids, jobIdColumn, jobs } from './jobs';
 import { shops } from './shops';
-import { timestamps } from './timestamps';
 
 // Money on a job: checkouts (payments), change orders, transfers and refunds, the ledger and provider events.
 
@@ -21,13 +21,9 @@ export const moneyMoveStatus = pgEnum('money_move_status', ['pending', 'done']);
 export const changeOrders = pgTable(
   'change_orders',
   {
-    id: uuid().primaryKey().defaultRandom(),
-    jobId: uuid()
-      .notNull()
-      .references(() => jobs.id, { onDelete: 'cascade' }),
-    shopId: uuid()
-      .notNull()
-      .references(() => shops.id),
+    id: uuidPrimaryKey(),
+    jobId: jobIdColumn(),
+    shopId: mustReference(() => shops.id),
     description: text().notNull(),
     amountCents: integer().notNull(),
     status: changeOrderStatus().notNull().default('proposed'),
@@ -41,10 +37,8 @@ export const changeOrders = pgTable(
 export const payments = pgTable(
   'payments',
   {
-    id: uuid().primaryKey().defaultRandom(),
-    jobId: uuid()
-      .notNull()
-      .references(() => jobs.id, { onDelete: 'cascade' }),
+    id: uuidPrimaryKey(),
+    jobId: jobIdColumn(),
     kind: paymentKind().notNull(),
     /** The accepted bid a bid payment is for, so its shop is known even after the job is cancelled. */
     bidId: uuid().references(() => bids.id),
@@ -75,13 +69,9 @@ export const payments = pgTable(
 export const moneyMoves = pgTable(
   'money_moves',
   {
-    id: uuid().primaryKey().defaultRandom(),
-    jobId: uuid()
-      .notNull()
-      .references(() => jobs.id, { onDelete: 'cascade' }),
-    paymentId: uuid()
-      .notNull()
-      .references(() => payments.id),
+    id: uuidPrimaryKey(),
+    jobId: jobIdColumn(),
+    paymentId: mustReference(() => payments.id),
     kind: moneyMoveKind().notNull(),
     /** What goes to the shop (release) or back to the builder (refund). */
     amountCents: integer().notNull(),
@@ -92,7 +82,7 @@ export const moneyMoves = pgTable(
     providerId: text(),
     attempts: integer().notNull().default(0),
     lastError: text(),
-    nextAttemptAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+    nextAttemptAt: stampedNow(),
     doneAt: timestamp({ withTimezone: true }),
     ...timestamps,
   },
@@ -108,15 +98,13 @@ export const ledgerEntries = pgTable(
   'ledger_entries',
   {
     id: bigserial({ mode: 'number' }).primaryKey(),
-    jobId: uuid()
-      .notNull()
-      .references(() => jobs.id),
+    jobId: mustReference(() => jobs.id),
     paymentId: uuid().references(() => payments.id),
     kind: ledgerKind().notNull(),
     amountCents: integer().notNull(),
     /** The provider's id for the movement (charge, transfer, refund), so the same movement is never entered twice. */
     reference: text().notNull(),
-    createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+    createdAt: stampedNow(),
   },
   (t) => [
     index('ledger_job_idx').on(t.jobId, t.id),
@@ -130,6 +118,6 @@ export const paymentEvents = pgTable('payment_events', {
   id: text().primaryKey(),
   type: text().notNull(),
   payload: jsonb().notNull(),
-  receivedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+  receivedAt: stampedNow(),
   appliedAt: timestamp({ withTimezone: true }),
 });

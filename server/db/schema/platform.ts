@@ -1,5 +1,6 @@
 import { sql } from 'drizzle-orm';
 import { bigserial, check, customType, index, integer, jsonb, pgEnum, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core';
+import { mustReference, stampedNow, updatedNow, uuidPrimaryKey } from './columns';
 import { users } from './users-and-sessions';
 
 // The platform's own machinery: run-time settings, the administrators' audit log, the mail outbox, timed tasks, rate limits and the socket.io adapter's attachments.
@@ -9,10 +10,7 @@ export const platformSettings = pgTable('platform_settings', {
   key: text().primaryKey(),
   value: jsonb().notNull(),
   updatedBy: uuid().references(() => users.id),
-  updatedAt: timestamp({ withTimezone: true })
-    .notNull()
-    .defaultNow()
-    .$onUpdate(() => new Date()),
+  updatedAt: updatedNow(),
 });
 
 /** Every administrator action, append-only. */
@@ -20,14 +18,12 @@ export const adminActions = pgTable(
   'admin_actions',
   {
     id: bigserial({ mode: 'number' }).primaryKey(),
-    adminId: uuid()
-      .notNull()
-      .references(() => users.id),
+    adminId: mustReference(() => users.id),
     action: text().notNull(),
     targetType: text().notNull(),
     targetId: text().notNull(),
     details: jsonb().notNull().default({}),
-    createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+    createdAt: stampedNow(),
   },
   (t) => [index('admin_actions_created_idx').on(t.createdAt.desc()), index('admin_actions_action_idx').on(t.action, t.createdAt.desc())],
 );
@@ -38,7 +34,7 @@ export const mailStatus = pgEnum('mail_status', ['pending', 'sent', 'failed']);
 export const mailOutbox = pgTable(
   'mail_outbox',
   {
-    id: uuid().primaryKey().defaultRandom(),
+    id: uuidPrimaryKey(),
     toAddress: text().notNull(),
     subject: text().notNull(),
     textBody: text().notNull(),
@@ -46,10 +42,10 @@ export const mailOutbox = pgTable(
     template: text().notNull(),
     status: mailStatus().notNull().default('pending'),
     attempts: integer().notNull().default(0),
-    nextAttemptAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+    nextAttemptAt: stampedNow(),
     lastError: text(),
     sentAt: timestamp({ withTimezone: true }),
-    createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+    createdAt: stampedNow(),
   },
   (t) => [
     index('mail_outbox_due_idx').on(t.nextAttemptAt).where(sql`${t.status} = 'pending'`),
@@ -65,7 +61,7 @@ export const mailOutbox = pgTable(
 export const scheduledTasks = pgTable(
   'scheduled_tasks',
   {
-    id: uuid().primaryKey().defaultRandom(),
+    id: uuidPrimaryKey(),
     kind: text().notNull(),
     /** Makes scheduling idempotent: the same key is scheduled once. */
     key: text().notNull(),
@@ -75,7 +71,7 @@ export const scheduledTasks = pgTable(
     attempts: integer().notNull().default(0),
     lastError: text(),
     doneAt: timestamp({ withTimezone: true }),
-    createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+    createdAt: stampedNow(),
   },
   (t) => [uniqueIndex('scheduled_tasks_key_idx').on(t.key), index('scheduled_tasks_due_idx').on(t.runAt).where(sql`${t.doneAt} IS NULL`)],
 );

@@ -1,6 +1,6 @@
 import { sql } from 'drizzle-orm';
-import { boolean, check, index, integer, pgTable, primaryKey, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core';
-import { timestamps } from './timestamps';
+import { boolean, check, index, integer, pgTable, primaryKey, text, timestamp, uniqueIndex } from 'drizzle-orm/pg-core';
+import { mustReference, timestamps, uuidPrimaryKey } from './columns';
 import { users } from './users-and-sessions';
 
 // Machine shops' public profiles and their prices.
@@ -9,10 +9,8 @@ import { users } from './users-and-sessions';
 export const shops = pgTable(
   'shops',
   {
-    id: uuid().primaryKey().defaultRandom(),
-    userId: uuid()
-      .notNull()
-      .references(() => users.id, { onDelete: 'cascade' }),
+    id: uuidPrimaryKey(),
+    userId: mustReference(() => users.id, { onDelete: 'cascade' }),
     name: text().notNull(),
     country: text().notNull(),
     region: text().notNull(),
@@ -39,9 +37,7 @@ export const shops = pgTable(
 export const shopRates = pgTable(
   'shop_rates',
   {
-    shopId: uuid()
-      .notNull()
-      .references(() => shops.id, { onDelete: 'cascade' }),
+    shopId: mustReference(() => shops.id, { onDelete: 'cascade' }),
     operation: text().notNull(),
     priceCents: integer().notNull(),
   },

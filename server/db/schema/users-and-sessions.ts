@@ -1,6 +1,6 @@
 import { sql } from 'drizzle-orm';
-import { index, json, pgEnum, pgTable, text, timestamp, uniqueIndex, uuid, varchar } from 'drizzle-orm/pg-core';
-import { timestamps } from './timestamps';
+import { index, json, pgEnum, pgTable, text, timestamp, uniqueIndex, varchar } from 'drizzle-orm/pg-core';
+import { mustReference, stampedNow, timestamps, uuidPrimaryKey } from './columns';
 
 // People and their ways in: accounts, single-use e-mail links and signed-in sessions.
 
@@ -11,7 +11,7 @@ export const tokenPurpose = pgEnum('token_purpose', ['verify_email', 'reset_pass
 export const users = pgTable(
   'users',
   {
-    id: uuid().primaryKey().defaultRandom(),
+    id: uuidPrimaryKey(),
     email: text().notNull(),
     displayName: text().notNull(),
     role: userRole().notNull(),
@@ -31,15 +31,13 @@ export const users = pgTable(
 export const userTokens = pgTable(
   'user_tokens',
   {
-    id: uuid().primaryKey().defaultRandom(),
-    userId: uuid()
-      .notNull()
-      .references(() => users.id, { onDelete: 'cascade' }),
+    id: uuidPrimaryKey(),
+    userId: mustReference(() => users.id, { onDelete: 'cascade' }),
     purpose: tokenPurpose().notNull(),
     tokenHash: text().notNull(),
     expiresAt: timestamp({ withTimezone: true }).notNull(),
     usedAt: timestamp({ withTimezone: true }),
-    createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+    createdAt: stampedNow(),
   },
   (t) => [uniqueIndex('user_tokens_hash_idx').on(t.tokenHash), index('user_tokens_user_idx').on(t.userId)],
 );

@@ -1,6 +1,7 @@
 import { sql } from 'drizzle-orm';
 import { boolean, index, integer, jsonb, pgEnum, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core';
-import { jobs } from './jobs';
+import { mustReference, stampedNow, uuidPrimaryKey } from './columns';
+import { jobIdColumn, jobs, photoFileColumns } from './jobs';
 import { users } from './users-and-sessions';
 
 // The shop's proof of work: progress milestones and their photos, inspection record versions and drafts.
@@ -22,19 +23,15 @@ export const inspectionStatus = pgEnum('inspection_status', ['submitted', 'accep
 export const milestones = pgTable(
   'milestones',
   {
-    id: uuid().primaryKey().defaultRandom(),
-    jobId: uuid()
-      .notNull()
-      .references(() => jobs.id, { onDelete: 'cascade' }),
-    authorId: uuid()
-      .notNull()
-      .references(() => users.id),
+    id: uuidPrimaryKey(),
+    jobId: jobIdColumn(),
+    authorId: mustReference(() => users.id),
     kind: milestoneKind().notNull(),
     operation: text(),
     note: text().notNull().default(''),
     carrier: text(),
     trackingNumber: text(),
-    createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+    createdAt: stampedNow(),
   },
   (t) => [index('milestones_job_idx').on(t.jobId, t.createdAt)],
 );
@@ -46,22 +43,14 @@ export const milestones = pgTable(
 export const milestonePhotos = pgTable(
   'milestone_photos',
   {
-    id: uuid().primaryKey().defaultRandom(),
-    jobId: uuid()
-      .notNull()
-      .references(() => jobs.id, { onDelete: 'cascade' }),
+    id: uuidPrimaryKey(),
+    jobId: jobIdColumn(),
     /** Null until the photo goes out with a milestone. */
     milestoneId: uuid().references(() => milestones.id, { onDelete: 'cascade' }),
-    uploadedBy: uuid()
-      .notNull()
-      .references(() => users.id),
-    storageKey: text().notNull(),
-    width: integer().notNull(),
-    height: integer().notNull(),
-    bytes: integer().notNull(),
+    ...photoFileColumns(),
     /** Its place among the milestone's photos, set when attached. */
     position: integer(),
-    createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+    createdAt: stampedNow(),
   },
   (t) => [
     index('milestone_photos_milestone_idx').on(t.milestoneId, t.position),
@@ -73,19 +62,15 @@ export const milestonePhotos = pgTable(
 export const inspectionRecords = pgTable(
   'inspection_records',
   {
-    id: uuid().primaryKey().defaultRandom(),
-    jobId: uuid()
-      .notNull()
-      .references(() => jobs.id, { onDelete: 'cascade' }),
+    id: uuidPrimaryKey(),
+    jobId: jobIdColumn(),
     version: integer().notNull(),
     status: inspectionStatus().notNull().default('submitted'),
     input: jsonb().notNull(),
     results: jsonb().notNull(),
     pass: boolean().notNull(),
-    submittedBy: uuid()
-      .notNull()
-      .references(() => users.id),
-    submittedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+    submittedBy: mustReference(() => users.id),
+    submittedAt: stampedNow(),
     reviewDueAt: timestamp({ withTimezone: true }).notNull(),
     decidedAt: timestamp({ withTimezone: true }),
     decidedBy: uuid().references(() => users.id),
@@ -101,5 +86,5 @@ export const inspectionDrafts = pgTable('inspection_drafts', {
     .primaryKey()
     .references(() => jobs.id, { onDelete: 'cascade' }),
   draft: jsonb().notNull(),
-  savedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+  savedAt: stampedNow(),
 });

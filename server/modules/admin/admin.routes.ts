@@ -7,9 +7,6 @@ import {
   auditPageSchema,
   auditQuerySchema,
   createAdminSchema,
-  disputeCaseSchema,
-  disputeDecidedSchema,
-  disputeQueueAnswerSchema,
   ledgerPageSchema,
   ledgerQuerySchema,
   platformFeeSchema,
@@ -21,7 +18,7 @@ import {
 } from '../../../shared/schemas/admin';
 import { meAnswerSchema } from '../../../shared/schemas/auth';
 import { uuidSchema } from '../../../shared/schemas/common';
-import { disputeQueueSchema, resolveDisputeSchema } from '../../../shared/schemas/disputes';
+import { disputeCaseSchema, disputeDecisionSchema, disputeQueueAnswerSchema, disputeQueueSchema, resolveDisputeSchema } from '../../../shared/schemas/disputes';
 import { routesFor } from '../../lib/http/routes';
 import { disputeQueue, resolveDispute } from '../disputes/disputes.service';
 import { disputeCase } from '../disputes/evidence';
@@ -85,7 +82,7 @@ export const adminRoutes = [
     access: 'admin',
     params: disputeParams,
     body: resolveDisputeSchema,
-    reply: { json: disputeDecidedSchema },
+    reply: { json: disputeDecisionSchema },
     handler: ({ deps, user, params, body }) => resolveDispute(deps, user, params.disputeId, body),
   }),
   route({

@@ -70,10 +70,37 @@ async function shopContact(tx: Executor, shopId: string) {
   return row;
 }
 
-export async function createBid(deps: BidDeps, user: User, jobId: string, input: BidInput): Promise<string> {
+/** The shop's input for a bid placed or revised: its sender may bid, its lines priced, its date not past. */
+function checkedBid(user: User, input: BidInput) {
   assertEmailConfirmed(user, 'bid');
-  const { lines, totalCents } = priceLines(input);
+  const priced = priceLines(input);
   if (input.validUntil < today()) throw new AppError('invalid_input', 'A bid must be valid until today or later.', 400, { validUntil: 'Pick today or a later date.' });
+  return priced;
+}
+
+/** What a bid row takes from the shop's input: the priced total, the terms, and the job revision it answers. */
+const bidTerms = (input: BidInput, totalCents: number, job: JobRow) => ({
+  totalCents,
+  turnaroundDays: input.turnaroundDays,
+  validUntil: input.validUntil,
+  note: input.note,
+  jobRevision: job.revision,
+});
+
+/** Tells the job's builder, in the bid's transaction, of a bid placed or revised. */
+async function tellBuilder(
+  tx: Executor,
+  deps: BidDeps,
+  job: JobRow,
+  mail: typeof newBidMail,
+  bid: { shopName: string; totalCents: number; turnaroundDays: number },
+) {
+  const builder = await builderOf(tx, job);
+  await enqueueMail(tx, builder.email, mail({ builderName: builder.displayName, jobTitle: job.title, url: jobUrl(deps, job.id), ...bid }));
+}
+
+export async function createBid(deps: BidDeps, user: User, jobId: string, input: BidInput): Promise<string> {
+  const { lines, totalCents } = checkedBid(user, input);
   const bidId = await deps.db.transaction(async (tx) => {
     const shop = await requireShop(tx, user);
     const job = await findJob(tx, jobId, { forUpdate: true });
@@ -86,16 +113,11 @@ export async function createBid(deps: BidDeps, user: User, jobId: string, input:
     if (existing) throw conflict('Your shop already has a bid on this job; revise it instead.', 'bid_exists');
     const [bid] = await tx
       .insert(bids)
-      .values({ jobId: job.id, shopId: shop.id, totalCents, turnaroundDays: input.turnaroundDays, validUntil: input.validUntil, note: input.note, jobRevision: job.revision })
+      .values({ jobId: job.id, shopId: shop.id, ...bidTerms(input, totalCents, job) })
       .returning();
     await writeLines(tx, bid.id, lines);
     await tx.update(jobs).set({ bidCount: sql`${jobs.bidCount} + 1` }).where(eq(jobs.id, job.id));
-    const builder = await builderOf(tx, job);
-    await enqueueMail(
-      tx,
-      builder.email,
-      newBidMail({ builderName: builder.displayName, shopName: shop.name, jobTitle: job.title, totalCents, turnaroundDays: input.turnaroundDays, url: jobUrl(deps, job.id) }),
-    );
+    await tellBuilder(tx, deps, job, newBidMail, { shopName: shop.name, totalCents, turnaroundDays: input.turnaroundDays });
     return bid.id;
   });
   deps.hub?.jobChanged(jobId, 'bid_placed');
@@ -120,9 +142,7 @@ async function ownBid(tx: Executor, user: User, bidId: string) {
 }
 
 export async function reviseBid(deps: BidDeps, user: User, bidId: string, input: BidInput): Promise<void> {
-  assertEmailConfirmed(user, 'bid');
-  const { lines, totalCents } = priceLines(input);
-  if (input.validUntil < today()) throw new AppError('invalid_input', 'A bid must be valid until today or later.', 400, { validUntil: 'Pick today or a later date.' });
+  const { lines, totalCents } = checkedBid(user, input);
   const jobId = await deps.db.transaction(async (tx) => {
     const { bid, job, shop } = await ownBid(tx, user, bidId);
     if (bid.status !== 'active') throw conflict('Only an active bid can be revised.', 'bid_not_active');
@@ -140,15 +160,10 @@ export async function reviseBid(deps: BidDeps, user: User, bidId: string, input:
     });
     await tx
       .update(bids)
-      .set({ version: bid.version + 1, totalCents, turnaroundDays: input.turnaroundDays, validUntil: input.validUntil, note: input.note, jobRevision: job.revision })
+      .set({ version: bid.version + 1, ...bidTerms(input, totalCents, job) })
       .where(eq(bids.id, bid.id));
     await writeLines(tx, bid.id, lines);
-    const builder = await builderOf(tx, job);
-    await enqueueMail(
-      tx,
-      builder.email,
-      bidRevisedMail({ builderName: builder.displayName, shopName: shop.name, jobTitle: job.title, totalCents, turnaroundDays: input.turnaroundDays, url: jobUrl(deps, job.id) }),
-    );
+    await tellBuilder(tx, deps, job, bidRevisedMail, { shopName: shop.name, totalCents, turnaroundDays: input.turnaroundDays });
     return job.id;
   });
   deps.hub?.jobChanged(jobId, 'bid_revised');

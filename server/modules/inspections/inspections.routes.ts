@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { uuidSchema } from '../../../shared/schemas/common';
+import { jobParamsSchema } from '../../../shared/schemas/jobs';
 import {
   draftSavedSchema,
   inspectionDraftSchema,
@@ -11,8 +11,6 @@ import {
 import { routesFor } from '../../lib/http/routes';
 import { acceptInspection, certificateFor, inspectionView, rejectInspection, saveDraft, submitInspection, type InspectionDeps } from './inspections.service';
 
-const jobParams = z.object({ jobId: uuidSchema });
-
 const route = routesFor<InspectionDeps>('Work');
 
 /** The inspection record: the shop's readings and the builder's answer. */
@@ -22,7 +20,7 @@ export const inspectionsRoutes = [
     path: '/api/jobs/:jobId/inspection',
     summary: 'Inspection record versions with the server’s results, the shop’s draft, and the review deadline',
     access: 'signed-in',
-    params: jobParams,
+    params: jobParamsSchema,
     reply: { json: inspectionViewSchema },
     handler: ({ deps, user, params }) => inspectionView(deps.db, user, params.jobId),
   }),
@@ -31,7 +29,7 @@ export const inspectionsRoutes = [
     path: '/api/jobs/:jobId/inspection/draft',
     summary: 'Keep the shop’s unfinished record',
     access: 'shop',
-    params: jobParams,
+    params: jobParamsSchema,
     body: inspectionDraftSchema,
     reply: { json: draftSavedSchema, description: 'Kept' },
     handler: ({ deps, user, params, body }) => saveDraft(deps.db, user, params.jobId, body.draft),
@@ -41,7 +39,7 @@ export const inspectionsRoutes = [
     path: '/api/jobs/:jobId/inspection',
     summary: 'Submit the measured record (raw readings only; the server computes and judges)',
     access: 'shop',
-    params: jobParams,
+    params: jobParamsSchema,
     // Only the raw readings are read; any computed figures a client sends are not part of the schema and are dropped.
     body: inspectionInputSchema,
     reply: { status: 201, json: inspectionVersionAnswerSchema, description: 'A new version' },
@@ -52,7 +50,7 @@ export const inspectionsRoutes = [
     path: '/api/jobs/:jobId/inspection/accept',
     summary: 'Accept the record: the held payment is released to the shop',
     access: 'builder',
-    params: jobParams,
+    params: jobParamsSchema,
     reply: { json: inspectionVersionAnswerSchema, description: 'Accepted' },
     handler: async ({ deps, user, params }) => ({ version: await acceptInspection(deps, user, params.jobId) }),
   }),
@@ -61,7 +59,7 @@ export const inspectionsRoutes = [
     path: '/api/jobs/:jobId/inspection/reject',
     summary: 'Reject the record with reasons; the shop submits a new version',
     access: 'builder',
-    params: jobParams,
+    params: jobParamsSchema,
     body: rejectInspectionSchema,
     reply: { json: inspectionVersionAnswerSchema, description: 'Rejected' },
     handler: async ({ deps, user, params, body }) => ({ version: await rejectInspection(deps, user, params.jobId, body.reasons) }),
@@ -71,7 +69,7 @@ export const inspectionsRoutes = [
     path: '/api/jobs/:jobId/inspection/:version/certificate.pdf',
     summary: 'The certificate of one version as a PDF',
     access: 'signed-in',
-    params: jobParams.extend({ version: z.coerce.number().int().min(1).max(1000) }),
+    params: jobParamsSchema.extend({ version: z.coerce.number().int().min(1).max(1000) }),
     reply: { file: 'application/pdf', description: 'The certificate' },
     handler: async ({ deps, user, params: { jobId, version }, res }) => {
       const pdf = await certificateFor(deps.db, user, jobId, version);

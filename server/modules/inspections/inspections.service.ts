@@ -111,6 +111,19 @@ export async function submitInspection(deps: InspectionDeps, user: User, jobId: 
   return version;
 }
 
+/** The newest version still waiting for the builder's answer, if any. */
+async function waitingRecord(tx: Executor, jobId: string) {
+  const [record] = await tx
+    .select()
+    .from(inspectionRecords)
+    .where(and(eq(inspectionRecords.jobId, jobId), eq(inspectionRecords.status, 'submitted')))
+    .orderBy(desc(inspectionRecords.version))
+    .limit(1);
+  return record;
+}
+
+const nothingToReview = () => conflict('There is no inspection record waiting for an answer.', 'nothing_to_review');
+
 /**
  * Accepting (by the builder, or by the window running out) marks the record
  * accepted and the job completed in one transaction, then releases the held
@@ -119,15 +132,10 @@ export async function submitInspection(deps: InspectionDeps, user: User, jobId: 
 async function accept(deps: InspectionDeps, jobId: string, how: { by?: User; window?: { recordId: string } }) {
   const accepted = await deps.db.transaction(async (tx) => {
     const parties = await partiesOf(tx, jobId, { forUpdate: true });
-    const [record] = await tx
-      .select()
-      .from(inspectionRecords)
-      .where(and(eq(inspectionRecords.jobId, jobId), eq(inspectionRecords.status, 'submitted')))
-      .orderBy(desc(inspectionRecords.version))
-      .limit(1);
+    const record = await waitingRecord(tx, jobId);
     if (parties.job.status !== 'inspection_submitted' || !record) {
       if (how.window) return null; // answered in time; nothing to do
-      throw conflict('There is no inspection record waiting for an answer.', 'nothing_to_review');
+      throw nothingToReview();
     }
     if (how.window && record.id !== how.window.recordId) return null;
     const [row] = await tx
@@ -157,13 +165,8 @@ export async function rejectInspection(deps: InspectionDeps, user: User, jobId: 
   const version = await deps.db.transaction(async (tx) => {
     const parties = await partiesOf(tx, jobId, { forUpdate: true });
     mustBeJobsBuilder(parties, user, 'Only the builder who posted the job rejects its inspection record.');
-    const [record] = await tx
-      .select()
-      .from(inspectionRecords)
-      .where(and(eq(inspectionRecords.jobId, jobId), eq(inspectionRecords.status, 'submitted')))
-      .orderBy(desc(inspectionRecords.version))
-      .limit(1);
-    if (parties.job.status !== 'inspection_submitted' || !record) throw conflict('There is no inspection record waiting for an answer.', 'nothing_to_review');
+    const record = await waitingRecord(tx, jobId);
+    if (parties.job.status !== 'inspection_submitted' || !record) throw nothingToReview();
     const [row] = await tx
       .update(inspectionRecords)
       .set({ status: 'rejected', decidedAt: new Date(), decidedBy: user.id, decidedHow: 'builder', rejectReasons: reasons })

@@ -1,5 +1,4 @@
 import type { RequestHandler } from 'express';
-import { z } from 'zod';
 import { uuidSchema } from '../../../shared/schemas/common';
 import {
   boardPageSchema,
@@ -8,12 +7,13 @@ import {
   jobInputSchema,
   jobListAnswerSchema,
   jobParamsSchema,
+  jobPhotoFileParamsSchema,
   jobPhotosAnswerSchema,
   myJobsQuerySchema,
 } from '../../../shared/schemas/jobs';
 import { currentUser } from '../../lib/auth/guards';
 import { routesFor } from '../../lib/http/routes';
-import { receivePhotos } from '../../lib/photo-upload';
+import { photoUploadSteps, sendPhoto, uploadedFiles } from '../../lib/photo-upload';
 import type { User } from '../../db/schema';
 import { boardPage, jobsOfBuilder, type JobRow } from './jobs.repository';
 import {
@@ -34,20 +34,10 @@ import {
 type JobRouteDeps = JobDeps & { uploadLimit: RequestHandler };
 
 const photoParams = jobParamsSchema.extend({ photoId: uuidSchema });
-const sizedPhotoParams = photoParams.extend({ size: z.enum(['thumb', 'large'], { error: 'Ask for thumb or large.' }) });
 
-/**
- * Who may upload is settled before the body is read (the person's upload
- * count next, then the photos are decoded), so a refused upload is never read.
- */
-const photoUpload = (deps: JobRouteDeps): RequestHandler[] => [
-  async (req, _res, next) => {
-    await assertMayAddPhotos(deps.db, currentUser(req), jobParamsSchema.parse(req.params).jobId);
-    next();
-  },
-  deps.uploadLimit,
-  receivePhotos(MAX_PHOTOS_PER_JOB),
-];
+/** Who may upload is settled before the body is read, so a refused upload is never read. */
+const photoUpload = (deps: JobRouteDeps) =>
+  photoUploadSteps((req) => assertMayAddPhotos(deps.db, currentUser(req), jobParamsSchema.parse(req.params).jobId), deps.uploadLimit, MAX_PHOTOS_PER_JOB);
 
 /** The job a change left, as the person who made the change now sees it. */
 const answerJob = async (deps: JobDeps, user: User, change: Promise<JobRow>) => ({ job: await jobDetail(deps, await change, user) });
@@ -128,22 +118,16 @@ export const jobsRoutes = [
     params: jobParamsSchema,
     use: photoUpload,
     reply: { status: 201, description: 'Stored', json: jobPhotosAnswerSchema },
-    handler: async ({ deps, req, user, params }) => {
-      const files = (req.files as Express.Multer.File[] | undefined) ?? [];
-      return { photos: await addPhotos(deps, user, params.jobId, files) };
-    },
+    handler: async ({ deps, req, user, params }) => ({ photos: await addPhotos(deps, user, params.jobId, uploadedFiles(req)) }),
   }),
   route({
     method: 'get',
     path: '/api/jobs/:jobId/photos/:photoId/:size',
     summary: 'A photo, re-encoded as WebP',
     access: 'signed-in',
-    params: sizedPhotoParams,
+    params: jobPhotoFileParamsSchema,
     reply: { file: 'image/webp', description: 'image/webp' },
-    handler: async ({ deps, res, user, params }) => {
-      const data = await readPhoto(deps, user, params.jobId, params.photoId, params.size);
-      res.set({ 'Content-Type': 'image/webp', 'Cache-Control': 'private, max-age=3600', 'X-Content-Type-Options': 'nosniff' }).send(data);
-    },
+    handler: async ({ deps, res, user, params }) => sendPhoto(res, await readPhoto(deps, user, params.jobId, params.photoId, params.size)),
   }),
   route({
     method: 'delete',

@@ -1,7 +1,6 @@
 import type { RequestHandler } from 'express';
-import { z } from 'zod';
-import { uuidSchema } from '../../../shared/schemas/common';
-import { photoSizeSchema, uploadedPhotosSchema } from '../../../shared/schemas/photos';
+import { jobParamsSchema } from '../../../shared/schemas/jobs';
+import { photoFileParamsSchema, uploadedPhotosSchema } from '../../../shared/schemas/photos';
 import {
   historyPageSchema,
   historyQuerySchema,
@@ -13,23 +12,22 @@ import {
   sentMessageSchema,
   threadAnswerSchema,
   threadListSchema,
+  threadParamsSchema,
 } from '../../../shared/schemas/messages';
 import { currentUser } from '../../lib/auth/guards';
 import { routesFor } from '../../lib/http/routes';
-import { photoUploadSteps, uploadedFiles } from '../../lib/photo-upload';
+import { photoUploadSteps, sendPhoto, uploadedFiles } from '../../lib/photo-upload';
 import { addMessagePhotos, assertMaySendPhotos, readMessagePhoto, type MessagePhotoDeps } from './message-photos.service';
 import { history, markRead, myThreads, openThread, sendMessage, threadsOfJob, type MessageDeps } from './messages.service';
 
 /** The service's deps (with the message rate limit, built once per app and shared by every route here) and photo storage. */
 export type MessagesRouteDeps = MessageDeps & MessagePhotoDeps & { uploadLimit: RequestHandler };
 
-const jobParams = z.object({ jobId: uuidSchema });
-const threadParams = z.object({ threadId: uuidSchema });
-const photoParams = z.object({ threadId: uuidSchema, photoId: uuidSchema, size: photoSizeSchema });
+const photoParams = threadParamsSchema.extend(photoFileParamsSchema.shape);
 
 /** Photos go up first (the browser shows each one's progress), then out with a message's photoIds. */
 const photoUpload = (deps: MessagesRouteDeps) =>
-  photoUploadSteps((req) => assertMaySendPhotos(deps.db, currentUser(req), threadParams.parse(req.params).threadId), deps.uploadLimit, MAX_PHOTOS_PER_MESSAGE);
+  photoUploadSteps((req) => assertMaySendPhotos(deps.db, currentUser(req), threadParamsSchema.parse(req.params).threadId), deps.uploadLimit, MAX_PHOTOS_PER_MESSAGE);
 
 const route = routesFor<MessagesRouteDeps>('Messages');
 
@@ -48,7 +46,7 @@ export const messagesRoutes = [
     path: '/api/jobs/:jobId/threads',
     summary: 'A job’s conversations the person may read',
     access: 'signed-in',
-    params: jobParams,
+    params: jobParamsSchema,
     reply: { json: threadListSchema },
     handler: async ({ deps, user, params }) => ({ threads: await threadsOfJob(deps.db, user, params.jobId) }),
   }),
@@ -57,7 +55,7 @@ export const messagesRoutes = [
     path: '/api/jobs/:jobId/threads',
     summary: 'Open (or find) the conversation between the job’s builder and a shop',
     access: 'builder or shop',
-    params: jobParams,
+    params: jobParamsSchema,
     body: openThreadSchema,
     reply: { status: 201, json: threadAnswerSchema, description: 'The conversation' },
     handler: async ({ deps: { db }, user, params, body }) => {
@@ -71,7 +69,7 @@ export const messagesRoutes = [
     path: '/api/threads/:threadId/messages',
     summary: 'Message history, newest first, paged by cursor',
     access: 'signed-in',
-    params: threadParams,
+    params: threadParamsSchema,
     query: historyQuerySchema,
     reply: { json: historyPageSchema },
     handler: ({ deps, user, params, query }) => history(deps.db, user, params.threadId, query.before, query.limit),
@@ -81,7 +79,7 @@ export const messagesRoutes = [
     path: '/api/threads/:threadId/messages',
     summary: 'Send a message: words, up to 4 uploaded photos (photoIds), or both; a repeated clientId returns the stored one; live clients use the socket',
     access: 'builder or shop',
-    params: threadParams,
+    params: threadParamsSchema,
     body: sendMessageSchema,
     reply: { status: 201, json: sentMessageSchema, description: 'Stored and delivered (200 with duplicate true: the message its clientId stored before)' },
     handler: async ({ deps, res, user, params, body }) => {
@@ -96,7 +94,7 @@ export const messagesRoutes = [
     path: '/api/threads/:threadId/photos',
     summary: 'Upload photos for a message (multipart field "photos"; JPEG, PNG or WebP; 15 MB each; 4 at a time); send their ids as the message’s photoIds',
     access: 'builder or shop',
-    params: threadParams,
+    params: threadParamsSchema,
     use: photoUpload,
     reply: { status: 201, json: uploadedPhotosSchema, description: 'Stored, waiting for a message' },
     handler: async ({ deps, req, user, params }) => ({ photos: await addMessagePhotos(deps, user, params.threadId, uploadedFiles(req)) }),
@@ -108,17 +106,14 @@ export const messagesRoutes = [
     access: 'signed-in',
     params: photoParams,
     reply: { file: 'image/webp', description: 'The photo as WebP' },
-    handler: async ({ deps, res, user, params }) => {
-      const data = await readMessagePhoto(deps, user, params.threadId, params.photoId, params.size);
-      res.set({ 'Content-Type': 'image/webp', 'Cache-Control': 'private, max-age=3600', 'X-Content-Type-Options': 'nosniff' }).send(data);
-    },
+    handler: async ({ deps, res, user, params }) => sendPhoto(res, await readMessagePhoto(deps, user, params.threadId, params.photoId, params.size)),
   }),
   route({
     method: 'post',
     path: '/api/threads/:threadId/read',
     summary: 'Mark the conversation read up to a message',
     access: 'signed-in',
-    params: threadParams,
+    params: threadParamsSchema,
     body: markReadSchema,
     reply: { json: markedReadSchema },
     handler: async ({ deps, user, params, body }) => {

@@ -1,21 +1,18 @@
 import type { RequestHandler } from 'express';
-import { z } from 'zod';
-import { uuidSchema } from '../../../shared/schemas/common';
 import { MAX_PHOTOS_PER_MILESTONE, milestoneInputSchema } from '../../../shared/schemas/inspection';
+import { jobParamsSchema, jobPhotoFileParamsSchema } from '../../../shared/schemas/jobs';
 import { milestoneAnswerSchema, milestoneListSchema } from '../../../shared/schemas/milestones';
-import { photoSizeSchema, uploadedPhotosSchema } from '../../../shared/schemas/photos';
+import { uploadedPhotosSchema } from '../../../shared/schemas/photos';
 import { currentUser } from '../../lib/auth/guards';
 import { AppError } from '../../lib/errors';
 import { routesFor } from '../../lib/http/routes';
-import { photoUploadSteps, uploadedFiles } from '../../lib/photo-upload';
+import { photoUploadSteps, sendPhoto, uploadedFiles } from '../../lib/photo-upload';
 import type { FileStorage } from '../../lib/storage';
 import { addMilestonePhotos, assertMayUploadMilestonePhotos, readMilestonePhoto } from './milestone-photos';
 import { listMilestones, logMilestone, type MilestoneDeps } from './milestones.service';
 
 export type MilestonesRouteDeps = MilestoneDeps & { storage?: FileStorage; uploadLimit: RequestHandler };
 
-const jobParams = z.object({ jobId: uuidSchema });
-const milestonePhotoParams = z.object({ jobId: uuidSchema, photoId: uuidSchema, size: photoSizeSchema });
 
 function photoDeps(deps: MilestonesRouteDeps) {
   if (!deps.storage) throw new AppError('unavailable', 'Photo storage is not set up.', 503);
@@ -24,7 +21,7 @@ function photoDeps(deps: MilestonesRouteDeps) {
 
 /** Photos go up first (the browser shows each one's progress), then out with a milestone's photoIds. */
 const photoUpload = (deps: MilestonesRouteDeps) =>
-  photoUploadSteps((req) => assertMayUploadMilestonePhotos(deps.db, currentUser(req), jobParams.parse(req.params).jobId), deps.uploadLimit, MAX_PHOTOS_PER_MILESTONE);
+  photoUploadSteps((req) => assertMayUploadMilestonePhotos(deps.db, currentUser(req), jobParamsSchema.parse(req.params).jobId), deps.uploadLimit, MAX_PHOTOS_PER_MILESTONE);
 
 const route = routesFor<MilestonesRouteDeps>('Work');
 
@@ -35,7 +32,7 @@ export const milestonesRoutes = [
     path: '/api/jobs/:jobId/milestone-photos',
     summary: 'The working shop uploads photos for a milestone (multipart field "photos"; JPEG, PNG or WebP; 15 MB each; 4 at a time); send their ids as the milestone’s photoIds',
     access: 'shop',
-    params: jobParams,
+    params: jobParamsSchema,
     use: photoUpload,
     reply: { status: 201, json: uploadedPhotosSchema, description: 'Stored, waiting for a milestone' },
     handler: async ({ deps, req, user, params }) => ({ photos: await addMilestonePhotos(photoDeps(deps), user, params.jobId, uploadedFiles(req)) }),
@@ -45,19 +42,16 @@ export const milestonesRoutes = [
     path: '/api/jobs/:jobId/milestone-photos/:photoId/:size',
     summary: 'A milestone photo, re-encoded as WebP (before it is attached, only for its uploader)',
     access: 'signed-in',
-    params: milestonePhotoParams,
+    params: jobPhotoFileParamsSchema,
     reply: { file: 'image/webp', description: 'The photo as WebP' },
-    handler: async ({ deps, res, user, params }) => {
-      const data = await readMilestonePhoto(photoDeps(deps), user, params.jobId, params.photoId, params.size);
-      res.set({ 'Content-Type': 'image/webp', 'Cache-Control': 'private, max-age=3600', 'X-Content-Type-Options': 'nosniff' }).send(data);
-    },
+    handler: async ({ deps, res, user, params }) => sendPhoto(res, await readMilestonePhoto(photoDeps(deps), user, params.jobId, params.photoId, params.size)),
   }),
   route({
     method: 'get',
     path: '/api/jobs/:jobId/milestones',
     summary: 'The job’s progress timeline',
     access: 'signed-in',
-    params: jobParams,
+    params: jobParamsSchema,
     reply: { json: milestoneListSchema },
     handler: async ({ deps, user, params }) => ({ milestones: await listMilestones(deps.db, user, params.jobId) }),
   }),
@@ -66,7 +60,7 @@ export const milestonesRoutes = [
     path: '/api/jobs/:jobId/milestones',
     summary: 'The working shop logs progress (block received starts the work)',
     access: 'shop',
-    params: jobParams,
+    params: jobParamsSchema,
     body: milestoneInputSchema,
     reply: { status: 201, json: milestoneAnswerSchema, description: 'Logged' },
     handler: async ({ deps, user, params, body }) => ({ milestone: await logMilestone(deps, user, params.jobId, body) }),

@@ -2,6 +2,7 @@ import express from 'express';
 import type Stripe from 'stripe';
 import { z } from 'zod';
 import { uuidSchema } from '../../../shared/schemas/common';
+import { jobParamsSchema } from '../../../shared/schemas/jobs';
 import {
   changeOrderAnswerSchema,
   changeOrderInputSchema,
@@ -28,7 +29,6 @@ import {
 } from './payments.service';
 import { moneyHistory } from './money-history';
 
-const jobParams = z.object({ jobId: uuidSchema });
 const orderParams = z.object({ changeOrderId: uuidSchema });
 
 const webhookRoute = routesFor<PaymentDeps & { webhookSecret: string }>('Payments');
@@ -78,7 +78,7 @@ export const paymentsRoutes = [
     path: '/api/jobs/:jobId/checkout',
     summary: 'Pay the accepted bid: answers a hosted payment page address',
     access: 'builder',
-    params: jobParams,
+    params: jobParamsSchema,
     reply: { json: providerLinkSchema, description: 'The payment page to send the builder to' },
     handler: ({ deps, user, params }) => startJobCheckout(deps, user, params.jobId),
   }),
@@ -87,7 +87,7 @@ export const paymentsRoutes = [
     path: '/api/jobs/:jobId/money',
     summary: 'The job’s payments, ledger balance and any payout or refund still on its way',
     access: 'signed-in',
-    params: jobParams,
+    params: jobParamsSchema,
     reply: { json: moneyViewSchema },
     handler: ({ deps, user, params }) => moneyViewFor(deps, user, params.jobId),
   }),
@@ -96,7 +96,7 @@ export const paymentsRoutes = [
     path: '/api/jobs/:jobId/cancel-and-refund',
     summary: 'Cancel a paid job the shop has not started; the payment is refunded in full',
     access: 'builder',
-    params: jobParams,
+    params: jobParamsSchema,
     reply: { json: moneyViewSchema, description: 'The job’s money after the refund' },
     handler: ({ deps, user, params }) => cancelFundedJob(deps, user, params.jobId),
   }),
@@ -105,7 +105,7 @@ export const paymentsRoutes = [
     path: '/api/jobs/:jobId/change-orders',
     summary: 'Extra work proposed on a job',
     access: 'signed-in',
-    params: jobParams,
+    params: jobParamsSchema,
     reply: { json: changeOrderListSchema },
     handler: async ({ deps, user, params }) => ({ changeOrders: await changeOrdersFor(deps, user, params.jobId) }),
   }),
@@ -114,7 +114,7 @@ export const paymentsRoutes = [
     path: '/api/jobs/:jobId/change-orders',
     summary: 'The awarded shop proposes extra work with a price',
     access: 'shop',
-    params: jobParams,
+    params: jobParamsSchema,
     body: changeOrderInputSchema,
     reply: { status: 201, json: changeOrderAnswerSchema, description: 'Proposed' },
     handler: async ({ deps, user, params, body }) => ({ changeOrder: await proposeChangeOrder(deps, user, params.jobId, body) }),
@@ -152,7 +152,7 @@ export const paymentsRoutes = [
     path: '/api/admin/jobs/:jobId/release',
     summary: 'Release what the job holds to the shop, less the fee (once, however often asked)',
     access: 'admin',
-    params: jobParams,
+    params: jobParamsSchema,
     reply: { json: moneyViewSchema, description: 'The job’s money after the release' },
     handler: ({ deps, user, params }) => releaseJob(deps, params.jobId, user),
   }),
@@ -161,7 +161,7 @@ export const paymentsRoutes = [
     path: '/api/admin/jobs/:jobId/split',
     summary: 'Pay the shop a share of what is held and refund the rest',
     access: 'admin',
-    params: jobParams,
+    params: jobParamsSchema,
     body: splitSchema,
     reply: { json: moneyViewSchema, description: 'The job’s money after the split' },
     handler: ({ deps, user, params, body }) => splitJob(deps, user, params.jobId, body.shopCents),

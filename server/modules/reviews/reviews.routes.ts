@@ -1,11 +1,8 @@
-import { z } from 'zod';
-import { uuidSchema } from '../../../shared/schemas/common';
+import { jobParamsSchema } from '../../../shared/schemas/jobs';
 import { jobReviewsSchema, reviewAnswerSchema, reviewInputSchema } from '../../../shared/schemas/reviews';
 import { routesFor } from '../../lib/http/routes';
 import type { PaymentDeps } from '../payments/payments.service';
 import { leaveReview, reviewsFor } from './reviews.service';
-
-const jobParams = z.object({ jobId: uuidSchema });
 
 const route = routesFor<PaymentDeps>('Reviews');
 
@@ -16,7 +13,7 @@ export const reviewsRoutes = [
     path: '/api/jobs/:jobId/reviews',
     summary: 'Reviews left on a finished job, and whether the viewer may still leave one',
     access: 'signed-in',
-    params: jobParams,
+    params: jobParamsSchema,
     reply: { json: jobReviewsSchema },
     handler: ({ deps, user, params }) => reviewsFor(deps.db, user, params.jobId),
   }),
@@ -25,7 +22,7 @@ export const reviewsRoutes = [
     path: '/api/jobs/:jobId/reviews',
     summary: 'Rate the other side of a finished job, 1 to 5 with a comment (once)',
     access: 'builder or shop',
-    params: jobParams,
+    params: jobParamsSchema,
     body: reviewInputSchema,
     reply: { status: 201, json: reviewAnswerSchema, description: 'Stored' },
     handler: async ({ deps, user, params, body }) => ({ review: await leaveReview(deps, user, params.jobId, body) }),
