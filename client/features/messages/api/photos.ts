@@ -1,10 +1,6 @@
 import type { MessagePhoto, UploadedMessagePhotos } from '@shared/schemas/messages';
 import { uploadWithProgress } from '@client/lib/upload';
 
-/** The server's limits (server/lib/photo-upload.ts, server/lib/images.ts): checked here first so nobody waits for a refusal. */
-export const MAX_PHOTO_BYTES = 15 * 1024 * 1024;
-export const ACCEPTED_PHOTO_TYPES = ['image/jpeg', 'image/png', 'image/webp'];
-
 /**
  * Uploads one photo to a conversation, reporting progress; the answer is the
  * stored photo, whose id goes out with the message. Until then only the
