@@ -1,32 +1,22 @@
-import { useSearchParams } from 'react-router-dom';
 import { Button } from '@client/components/ui/button';
 import { PageTitle } from '@client/components/ui/card';
 import { DebouncedTextField } from '@client/components/ui/debounced-text-field';
 import { Notice } from '@client/components/ui/notice';
 import { Pager } from '@client/components/ui/pager';
 import { useAuditLog, AuditTable } from '@client/features/admin';
-import { toSearch } from '@client/lib/search-params';
+import { toSearch, useSearchParamUpdater } from '@client/lib/search-params';
 
 const PAGE_SIZE = 50;
 /** Actions the console records today, offered as suggestions; any other name can still be typed. */
 const KNOWN_ACTIONS = ['dispute.resolve', 'user.suspend', 'user.reinstate', 'shop.verify', 'shop.unverify', 'fee.change', 'admin.create'];
 
 export function AdminAuditRoute() {
-  const [params, setParams] = useSearchParams();
+  const { params, setParams, setPage } = useSearchParamUpdater();
   const action = params.get('action')?.trim().slice(0, 60) ?? '';
   const page = Math.max(1, Number.parseInt(params.get('page') ?? '1', 10) || 1);
   const audit = useAuditLog({ action: action || undefined, limit: PAGE_SIZE, offset: (page - 1) * PAGE_SIZE });
 
   const setAction = (text: string) => setParams(text.trim() ? { action: text.trim() } : {}, { replace: true });
-  const setPage = (next: number) => {
-    setParams((current) => {
-      const updated = new URLSearchParams(current);
-      if (next > 1) updated.set('page', String(next));
-      else updated.delete('page');
-      return updated;
-    });
-    window.scrollTo({ top: 0 });
-  };
 
   return (
     <div>

@@ -62,20 +62,10 @@ function LedgerResults({ filters, page, setPage }: { filters: LedgerFilters; pag
 }
 
 export function AdminLedgerRoute() {
-  const { params, update, setFilter } = useSearchParamUpdater();
+  const { params, setFilter, filtered, clearFilters, setPage } = useSearchParamUpdater(FILTER_KEYS);
   const { filters, errors, page } = readFilters(params);
-  const filtered = FILTER_KEYS.some((key) => params.get(key));
   const valid = Object.keys(errors).length === 0;
 
-  const setPage = (next: number) => {
-    update((current) => (next > 1 ? current.set('page', String(next)) : current.delete('page')));
-    window.scrollTo({ top: 0 });
-  };
-  const clearFilters = () =>
-    update((next) => {
-      for (const key of FILTER_KEYS) next.delete(key);
-      next.delete('page');
-    });
 
   return (
     <div>

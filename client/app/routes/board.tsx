@@ -126,11 +126,10 @@ function JobCard({ job }: { job: JobSummary }) {
 }
 
 export function BoardRoute() {
-  const { params, update, setFilter } = useSearchParamUpdater();
+  const { params, update, setFilter, filtered, clearFilters, setPage } = useSearchParamUpdater(FILTER_KEYS);
   const filters = readBoardFilters(params);
   const board = useBoard(filters);
   const own = useOwnShop();
-  const filtered = FILTER_KEYS.some((key) => params.get(key));
 
   const setSort = (sort: Sort) =>
     update((next) => {
@@ -138,19 +137,10 @@ export function BoardRoute() {
       else next.set('sort', sort);
       next.delete('page');
     });
-  const setPage = (page: number) => {
-    update((next) => (page > 1 ? next.set('page', String(page)) : next.delete('page')));
-    window.scrollTo({ top: 0 });
-  };
   const setPageSize = (size: string) =>
     update((next) => {
       if (size === '20') next.delete('pageSize');
       else next.set('pageSize', size);
-      next.delete('page');
-    });
-  const clearFilters = () =>
-    update((next) => {
-      for (const key of FILTER_KEYS) next.delete(key);
       next.delete('page');
     });
 

@@ -1,4 +1,3 @@
-import { useSearchParams } from 'react-router-dom';
 import { operations } from '@shared/catalogue';
 import { shopDirectoryQuerySchema } from '@shared/schemas/shops';
 import { Button } from '@client/components/ui/button';
@@ -8,6 +7,7 @@ import { Notice } from '@client/components/ui/notice';
 import { Pager } from '@client/components/ui/pager';
 import { SelectField } from '@client/components/ui/select-field';
 import { useShops, type DirectoryFilters, ShopCard } from '@client/features/shops';
+import { useSearchParamUpdater } from '@client/lib/search-params';
 
 const PAGE_SIZE = 12;
 const FILTER_KEYS = ['q', 'operation', 'country', 'region', 'takesShipped'] as const;
@@ -34,33 +34,10 @@ function readFilters(params: URLSearchParams): DirectoryFilters {
 }
 
 export function ShopDirectoryRoute() {
-  const [params, setParams] = useSearchParams();
+  // A new filter value starts again at page 1; typing replaces the history entry instead of adding one per pause.
+  const { params, setParams, setFilter, filtered, setPage } = useSearchParamUpdater(FILTER_KEYS);
   const filters = readFilters(params);
   const shops = useShops(filters);
-  const filtered = FILTER_KEYS.some((key) => params.get(key));
-
-  /** A new filter value starts again at page 1; typing replaces the history entry instead of adding one per pause. */
-  const setFilter = (key: (typeof FILTER_KEYS)[number], value: string, { replace = false } = {}) => {
-    setParams(
-      (current) => {
-        const next = new URLSearchParams(current);
-        if (value.trim()) next.set(key, value.trim());
-        else next.delete(key);
-        next.delete('page');
-        return next;
-      },
-      { replace },
-    );
-  };
-  const setPage = (page: number) => {
-    setParams((current) => {
-      const next = new URLSearchParams(current);
-      if (page > 1) next.set('page', String(page));
-      else next.delete('page');
-      return next;
-    });
-    window.scrollTo({ top: 0 });
-  };
 
   return (
     <div>
