@@ -1,5 +1,6 @@
 import { Button } from '@client/components/ui/button';
 import { PageTitle } from '@client/components/ui/card';
+import { FilterForm } from '@client/components/ui/filter-form';
 import { DebouncedTextField } from '@client/components/ui/debounced-text-field';
 import { Notice } from '@client/components/ui/notice';
 import { Pager } from '@client/components/ui/pager';
@@ -21,7 +22,7 @@ export function AdminAuditRoute() {
   return (
     <div>
       <PageTitle title="Audit log" lead="Everything an administrator has done that changes an account, a shop, the fee or a dispute, newest first." />
-      <form role="search" aria-label="Filter the audit log" onSubmit={(event) => event.preventDefault()} className="mb-6 flex flex-wrap items-end gap-4 rounded-card bg-paper-sunk p-4">
+      <FilterForm label="Filter the audit log" className="flex flex-wrap items-end">
         <DebouncedTextField
           label="Action"
           hint="The action’s name exactly as the table shows it, such as user.suspend. “Only this action” under an entry fills it in."
@@ -41,7 +42,7 @@ export function AdminAuditRoute() {
         <Button variant="secondary" onClick={() => setParams({})} disabled={!action}>
           Show every action
         </Button>
-      </form>
+      </FilterForm>
       {audit.isPending && <p className="text-ink-soft">Loading the audit log …</p>}
       {audit.isError && (
         <Notice tone="error" title="The audit log could not be loaded">

@@ -3,6 +3,7 @@ import { findOperation, operations } from '@shared/catalogue';
 import type { BoardQuery, JobSummary } from '@shared/schemas/jobs';
 import { Button } from '@client/components/ui/button';
 import { PageTitle } from '@client/components/ui/card';
+import { ClearFiltersButton, FilterForm } from '@client/components/ui/filter-form';
 import { DebouncedTextField } from '@client/components/ui/debounced-text-field';
 import { Notice } from '@client/components/ui/notice';
 import { Pager } from '@client/components/ui/pager';
@@ -157,12 +158,7 @@ export function BoardRoute() {
         </Notice>
       )}
 
-      <form
-        role="search"
-        aria-label="Filter jobs"
-        onSubmit={(event) => event.preventDefault()}
-        className="mb-6 grid gap-4 rounded-card bg-paper-sunk p-4 sm:grid-cols-2 lg:grid-cols-4"
-      >
+      <FilterForm label="Filter jobs" className="grid sm:grid-cols-2 lg:grid-cols-4">
         <SelectField
           label="Work"
           value={filters.operation ?? ''}
@@ -199,12 +195,8 @@ export function BoardRoute() {
           value={filters.neededBefore ?? ''}
           onChange={(event) => setFilter('neededBefore', event.target.value, { replace: true })}
         />
-        <div className="flex items-end">
-          <Button variant="secondary" onClick={clearFilters} disabled={!filtered} className="w-full">
-            Clear filters
-          </Button>
-        </div>
-      </form>
+        <ClearFiltersButton filtered={filtered} onClear={clearFilters} />
+      </FilterForm>
 
       {board.isError && (
         <Notice tone="error" title="The board could not be loaded">

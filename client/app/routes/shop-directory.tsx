@@ -2,6 +2,7 @@ import { operations } from '@shared/catalogue';
 import { shopDirectoryQuerySchema } from '@shared/schemas/shops';
 import { Button } from '@client/components/ui/button';
 import { PageTitle } from '@client/components/ui/card';
+import { FilterForm } from '@client/components/ui/filter-form';
 import { DebouncedTextField } from '@client/components/ui/debounced-text-field';
 import { Notice } from '@client/components/ui/notice';
 import { Pager } from '@client/components/ui/pager';
@@ -45,12 +46,7 @@ export function ShopDirectoryRoute() {
         title="Machine shops"
         lead="Shops that bore, hone, deck and grind for engine builders. Open a shop to see its equipment and usual prices."
       />
-      <form
-        role="search"
-        aria-label="Filter shops"
-        onSubmit={(event) => event.preventDefault()}
-        className="mb-6 grid gap-4 rounded-card bg-paper-sunk p-4 sm:grid-cols-2 md:grid-cols-3 lg:grid-cols-5"
-      >
+      <FilterForm label="Filter shops" className="grid sm:grid-cols-2 md:grid-cols-3 lg:grid-cols-5">
         <DebouncedTextField
           label="Name or town"
           type="search"
@@ -80,7 +76,7 @@ export function ShopDirectoryRoute() {
             { value: 'false', label: 'Drop-off only' },
           ]}
         />
-      </form>
+      </FilterForm>
 
       {shops.isError && (
         <Notice tone="error" title="The shops could not be loaded">
