@@ -1,6 +1,6 @@
 import { useEffect, useRef, useState } from 'react';
 import type { PendingUpload } from '@client/components/ui/pending-photo-tile';
-import { photoRefusal, uploadFailure } from '@client/lib/upload';
+import { photoRefusal, uploadFailure, type PhotoTarget } from '@client/lib/upload';
 
 type PhotoShape = { thumbUrl: string; width: number; height: number };
 
@@ -11,21 +11,11 @@ type PhotoShape = { thumbUrl: string; width: number; height: number };
  * still on their way. The list itself stays with the caller (`uploads`,
  * `setUploads`), so a form can send and clear it.
  */
-export function usePendingUploads<TPhoto extends PhotoShape>({
-  uploads,
-  setUploads,
-  max,
-  limit,
-  upload,
-}: {
-  uploads: PendingUpload<TPhoto>[];
-  setUploads: (update: (all: PendingUpload<TPhoto>[]) => PendingUpload<TPhoto>[]) => void;
-  /** How many photos it can carry. */
-  max: number;
-  /** What the refusal says when there is no room left: "a message can carry at most 6 photos". */
-  limit: string;
-  upload: (file: File, onProgress: (fraction: number) => void, signal: AbortSignal) => Promise<TPhoto>;
-}) {
+export function usePendingUploads<TPhoto extends PhotoShape>(
+  uploads: PendingUpload<TPhoto>[],
+  setUploads: (update: (all: PendingUpload<TPhoto>[]) => PendingUpload<TPhoto>[]) => void,
+  { max, carrier, upload }: PhotoTarget<TPhoto>,
+) {
   type Pending = PendingUpload<TPhoto>;
   const [notice, setNotice] = useState<string>();
   const nextKey = useRef(0);
@@ -43,7 +33,7 @@ export function usePendingUploads<TPhoto extends PhotoShape>({
     const fresh: Array<{ pending: Pending; file: File }> = [];
     let room = max - counted;
     for (const file of files) {
-      const refusal = photoRefusal(file, room, limit);
+      const refusal = photoRefusal(file, room, `a ${carrier} can carry at most ${max} photos`);
       if (refusal) refused.push(refusal);
       else {
         room -= 1;

@@ -61,3 +61,21 @@ export function uploadWithProgress<T>(options: {
       }),
   );
 }
+
+/** Where the photos of something not yet sent (a message, a milestone) are uploaded, and how many it carries. */
+export interface PhotoTarget<TPhoto> {
+  max: number;
+  /** What carries them, for the refusal: "a message can carry at most 6 photos". */
+  carrier: string;
+  /** Uploads one photo, reporting progress; the answer is the stored photo, whose id goes out with the message or milestone. */
+  upload: (file: File, onProgress: (fraction: number) => void, signal: AbortSignal) => Promise<TPhoto>;
+}
+
+export function photoTarget<TPhoto>(url: string, max: number, carrier: string): PhotoTarget<TPhoto> {
+  return {
+    max,
+    carrier,
+    upload: (file, onProgress, signal) =>
+      uploadWithProgress<{ photos: TPhoto[] }>({ url, field: 'photos', files: [file], onProgress, signal }).then((answer) => answer.photos[0]),
+  };
+}

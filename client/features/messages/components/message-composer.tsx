@@ -5,7 +5,7 @@ import { FieldFrame, inputBorder, useFieldIds } from '@client/components/ui/fiel
 import { AddPhotosButton, PendingPhotoList, type PendingUpload } from '@client/components/ui/pending-photo-tile';
 import { usePendingUploads } from '@client/hooks/use-pending-uploads';
 import { cn } from '@client/lib/cn';
-import { uploadMessagePhoto } from '../api/photos';
+import { messagePhotoTarget } from '../api/photos';
 import { COUNTER_FROM, remainingWords } from './message-words';
 
 type Attachment = PendingUpload<MessagePhoto>;
@@ -41,13 +41,7 @@ export const MessageComposer = forwardRef<HTMLTextAreaElement, MessageComposerPr
   // The hint (or, near the limit, the counter) sits beside the Send button rather than under the field.
   const ids = useFieldIds({ error, extra: hintId });
 
-  const photos = usePendingUploads({
-    uploads: attachments,
-    setUploads: setAttachments,
-    max: MAX_PHOTOS_PER_MESSAGE,
-    limit: `a message can carry at most ${MAX_PHOTOS_PER_MESSAGE} photos`,
-    upload: (file, onProgress, signal) => uploadMessagePhoto(threadId, file, onProgress, signal),
-  });
+  const photos = usePendingUploads(attachments, setAttachments, messagePhotoTarget(threadId));
   const addPhotos = (files: File[]) => {
     photos.add(files);
     if (files.length > 0 && error) setError(undefined);

@@ -2,7 +2,7 @@ import { MAX_PHOTOS_PER_MILESTONE } from '@shared/schemas/inspection';
 import type { MilestonePhoto } from '@shared/schemas/milestones';
 import { AddPhotosButton, PendingPhotoList, type PendingUpload } from '@client/components/ui/pending-photo-tile';
 import { usePendingUploads } from '@client/hooks/use-pending-uploads';
-import { uploadMilestonePhoto } from '../api/milestone-photos';
+import { milestonePhotoTarget } from '../api/milestone-photos';
 
 export type PendingPhoto = PendingUpload<MilestonePhoto>;
 
@@ -11,13 +11,7 @@ export type PendingPhoto = PendingUpload<MilestonePhoto>;
  * uploaded at once with its own progress bar, removable before logging.
  */
 export function MilestonePhotoPicker({ jobId, photos, onChange, error }: { jobId: string; photos: PendingPhoto[]; onChange: (update: (all: PendingPhoto[]) => PendingPhoto[]) => void; error?: string }) {
-  const pending = usePendingUploads({
-    uploads: photos,
-    setUploads: onChange,
-    max: MAX_PHOTOS_PER_MILESTONE,
-    limit: `a milestone can carry at most ${MAX_PHOTOS_PER_MILESTONE} photos`,
-    upload: (file, onProgress, signal) => uploadMilestonePhoto(jobId, file, onProgress, signal),
-  });
+  const pending = usePendingUploads(photos, onChange, milestonePhotoTarget(jobId));
 
   return (
     <div className="flex flex-col gap-2">
