@@ -1,4 +1,4 @@
-import type { FieldValues, Path, UseFormSetError } from 'react-hook-form';
+import { get, type FieldValues, type Path, type UseFormReturn, type UseFormSetError } from 'react-hook-form';
 import { ApiError } from './api-client';
 
 /**
@@ -16,3 +16,14 @@ export function applyServerErrors<T extends FieldValues>(error: unknown, setErro
   }
   return placed && error.status === 400 ? 'Please correct the marked fields.' : error.message;
 }
+
+/**
+ * The props that tie an input to a react-hook-form field: its registration and
+ * its message. `const field = fieldProps(form)`, then `<TextField {...field('email')} />`.
+ */
+export function fieldProps<T extends FieldValues>(form: UseFormReturn<T>) {
+  return (name: Path<T>) => ({ ...form.register(name), error: (get(form.formState.errors, name) as { message?: string } | undefined)?.message });
+}
+
+/** What `fieldProps` gives one field. */
+export type FieldProps = ReturnType<ReturnType<typeof fieldProps>>;

@@ -1,5 +1,26 @@
 import { ApiError, getCsrfToken } from './api-client';
 
+/** The server's photo limits (server/lib/photo-upload.ts, server/lib/images.ts): checked here first so nobody waits for a refusal. */
+export const MAX_PHOTO_BYTES = 15 * 1024 * 1024;
+export const ACCEPTED_PHOTO_TYPES = ['image/jpeg', 'image/png', 'image/webp'];
+
+/** Megabytes with one decimal, for size limits and refusals. */
+export const megabytes = (bytes: number) => `${(bytes / 1024 / 1024).toFixed(1)} MB`;
+
+/**
+ * Why a chosen photo cannot be added, or undefined when it can. `room` is how
+ * many more photos fit; `limit` says what holds them, e.g. "a job can have at most 12 photos".
+ */
+export function photoRefusal(file: File, room: number, limit: string): string | undefined {
+  if (!ACCEPTED_PHOTO_TYPES.includes(file.type)) return `“${file.name}” is not a JPEG, PNG or WebP photo.`;
+  if (file.size > MAX_PHOTO_BYTES) return `“${file.name}” is ${megabytes(file.size)}; each photo may be at most 15 MB.`;
+  if (room <= 0) return `“${file.name}” was left out: ${limit}.`;
+  return undefined;
+}
+
+/** The message of a failed upload, for the person who started it. */
+export const uploadFailure = (failure: unknown) => (failure instanceof ApiError ? failure.message : 'The upload failed. Try again.');
+
 /**
  * Uploads files as multipart form data with progress, which fetch cannot
  * report: XMLHttpRequest's upload events give bytes sent so far.
@@ -39,4 +60,22 @@ export function uploadWithProgress<T>(options: {
         xhr.send(form);
       }),
   );
+}
+
+/** Where the photos of something not yet sent (a message, a milestone) are uploaded, and how many it carries. */
+export interface PhotoTarget<TPhoto> {
+  max: number;
+  /** What carries them, for the refusal: "a message can carry at most 6 photos". */
+  carrier: string;
+  /** Uploads one photo, reporting progress; the answer is the stored photo, whose id goes out with the message or milestone. */
+  upload: (file: File, onProgress: (fraction: number) => void, signal: AbortSignal) => Promise<TPhoto>;
+}
+
+export function photoTarget<TPhoto>(url: string, max: number, carrier: string): PhotoTarget<TPhoto> {
+  return {
+    max,
+    carrier,
+    upload: (file, onProgress, signal) =>
+      uploadWithProgress<{ photos: TPhoto[] }>({ url, field: 'photos', files: [file], onProgress, signal }).then((answer) => answer.photos[0]),
+  };
 }

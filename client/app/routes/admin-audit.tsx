@@ -1,37 +1,28 @@
-import { useSearchParams } from 'react-router-dom';
 import { Button } from '@client/components/ui/button';
 import { PageTitle } from '@client/components/ui/card';
+import { FilterForm } from '@client/components/ui/filter-form';
 import { DebouncedTextField } from '@client/components/ui/debounced-text-field';
 import { Notice } from '@client/components/ui/notice';
 import { Pager } from '@client/components/ui/pager';
 import { useAuditLog, AuditTable } from '@client/features/admin';
-import { toSearch } from '@client/lib/search-params';
+import { toSearch, useSearchParamUpdater } from '@client/lib/search-params';
 
 const PAGE_SIZE = 50;
 /** Actions the console records today, offered as suggestions; any other name can still be typed. */
 const KNOWN_ACTIONS = ['dispute.resolve', 'user.suspend', 'user.reinstate', 'shop.verify', 'shop.unverify', 'fee.change', 'admin.create'];
 
 export function AdminAuditRoute() {
-  const [params, setParams] = useSearchParams();
+  const { params, setParams, setPage } = useSearchParamUpdater();
   const action = params.get('action')?.trim().slice(0, 60) ?? '';
   const page = Math.max(1, Number.parseInt(params.get('page') ?? '1', 10) || 1);
   const audit = useAuditLog({ action: action || undefined, limit: PAGE_SIZE, offset: (page - 1) * PAGE_SIZE });
 
   const setAction = (text: string) => setParams(text.trim() ? { action: text.trim() } : {}, { replace: true });
-  const setPage = (next: number) => {
-    setParams((current) => {
-      const updated = new URLSearchParams(current);
-      if (next > 1) updated.set('page', String(next));
-      else updated.delete('page');
-      return updated;
-    });
-    window.scrollTo({ top: 0 });
-  };
 
   return (
     <div>
       <PageTitle title="Audit log" lead="Everything an administrator has done that changes an account, a shop, the fee or a dispute, newest first." />
-      <form role="search" aria-label="Filter the audit log" onSubmit={(event) => event.preventDefault()} className="mb-6 flex flex-wrap items-end gap-4 rounded-card bg-paper-sunk p-4">
+      <FilterForm label="Filter the audit log" className="flex flex-wrap items-end">
         <DebouncedTextField
           label="Action"
           hint="The action’s name exactly as the table shows it, such as user.suspend. “Only this action” under an entry fills it in."
@@ -51,7 +42,7 @@ export function AdminAuditRoute() {
         <Button variant="secondary" onClick={() => setParams({})} disabled={!action}>
           Show every action
         </Button>
-      </form>
+      </FilterForm>
       {audit.isPending && <p className="text-ink-soft">Loading the audit log …</p>}
       {audit.isError && (
         <Notice tone="error" title="The audit log could not be loaded">

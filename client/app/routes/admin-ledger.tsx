@@ -1,7 +1,7 @@
 import { Link } from 'react-router-dom';
 import { ledgerKinds, ledgerQuerySchema } from '@shared/schemas/admin';
-import { Button } from '@client/components/ui/button';
 import { PageTitle } from '@client/components/ui/card';
+import { ClearFiltersButton, FilterForm } from '@client/components/ui/filter-form';
 import { DebouncedTextField } from '@client/components/ui/debounced-text-field';
 import { Notice } from '@client/components/ui/notice';
 import { Pager } from '@client/components/ui/pager';
@@ -62,25 +62,14 @@ function LedgerResults({ filters, page, setPage }: { filters: LedgerFilters; pag
 }
 
 export function AdminLedgerRoute() {
-  const { params, update, setFilter } = useSearchParamUpdater();
+  const { params, setFilter, filtered, clearFilters, setPage } = useSearchParamUpdater(FILTER_KEYS);
   const { filters, errors, page } = readFilters(params);
-  const filtered = FILTER_KEYS.some((key) => params.get(key));
   const valid = Object.keys(errors).length === 0;
-
-  const setPage = (next: number) => {
-    update((current) => (next > 1 ? current.set('page', String(next)) : current.delete('page')));
-    window.scrollTo({ top: 0 });
-  };
-  const clearFilters = () =>
-    update((next) => {
-      for (const key of FILTER_KEYS) next.delete(key);
-      next.delete('page');
-    });
 
   return (
     <div>
       <PageTitle title="Ledger" lead="Every movement of money on Tenthmark: payments in, payouts to shops, fees kept and refunds. Entries are never changed or removed." />
-      <form role="search" aria-label="Filter the ledger" onSubmit={(event) => event.preventDefault()} className="mb-6 grid gap-4 rounded-card bg-paper-sunk p-4 sm:grid-cols-2 lg:grid-cols-5">
+      <FilterForm label="Filter the ledger" className="grid sm:grid-cols-2 lg:grid-cols-5">
         <SelectField
           label="Kind"
           value={filters.kind ?? ''}
@@ -97,12 +86,8 @@ export function AdminLedgerRoute() {
         />
         <TextField label="From" type="date" value={params.get('from') ?? ''} error={errors.from} onChange={(event) => setFilter('from', event.target.value, { replace: true })} />
         <TextField label="To" type="date" value={params.get('to') ?? ''} error={errors.to} onChange={(event) => setFilter('to', event.target.value, { replace: true })} />
-        <div className="flex items-end">
-          <Button variant="secondary" onClick={clearFilters} disabled={!filtered} className="w-full">
-            Clear filters
-          </Button>
-        </div>
-      </form>
+        <ClearFiltersButton filtered={filtered} onClear={clearFilters} />
+      </FilterForm>
       <div className="mb-4 flex flex-wrap items-center justify-between gap-3">
         <p className="text-sm text-ink-soft">The download holds every entry these filters match, not only this page.</p>
         {valid ? (

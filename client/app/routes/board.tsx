@@ -3,6 +3,7 @@ import { findOperation, operations } from '@shared/catalogue';
 import type { BoardQuery, JobSummary } from '@shared/schemas/jobs';
 import { Button } from '@client/components/ui/button';
 import { PageTitle } from '@client/components/ui/card';
+import { ClearFiltersButton, FilterForm } from '@client/components/ui/filter-form';
 import { DebouncedTextField } from '@client/components/ui/debounced-text-field';
 import { Notice } from '@client/components/ui/notice';
 import { Pager } from '@client/components/ui/pager';
@@ -126,11 +127,10 @@ function JobCard({ job }: { job: JobSummary }) {
 }
 
 export function BoardRoute() {
-  const { params, update, setFilter } = useSearchParamUpdater();
+  const { params, update, setFilter, filtered, clearFilters, setPage } = useSearchParamUpdater(FILTER_KEYS);
   const filters = readBoardFilters(params);
   const board = useBoard(filters);
   const own = useOwnShop();
-  const filtered = FILTER_KEYS.some((key) => params.get(key));
 
   const setSort = (sort: Sort) =>
     update((next) => {
@@ -138,19 +138,10 @@ export function BoardRoute() {
       else next.set('sort', sort);
       next.delete('page');
     });
-  const setPage = (page: number) => {
-    update((next) => (page > 1 ? next.set('page', String(page)) : next.delete('page')));
-    window.scrollTo({ top: 0 });
-  };
   const setPageSize = (size: string) =>
     update((next) => {
       if (size === '20') next.delete('pageSize');
       else next.set('pageSize', size);
-      next.delete('page');
-    });
-  const clearFilters = () =>
-    update((next) => {
-      for (const key of FILTER_KEYS) next.delete(key);
       next.delete('page');
     });
 
@@ -167,12 +158,7 @@ export function BoardRoute() {
         </Notice>
       )}
 
-      <form
-        role="search"
-        aria-label="Filter jobs"
-        onSubmit={(event) => event.preventDefault()}
-        className="mb-6 grid gap-4 rounded-card bg-paper-sunk p-4 sm:grid-cols-2 lg:grid-cols-4"
-      >
+      <FilterForm label="Filter jobs" className="grid sm:grid-cols-2 lg:grid-cols-4">
         <SelectField
           label="Work"
           value={filters.operation ?? ''}
@@ -209,12 +195,8 @@ export function BoardRoute() {
           value={filters.neededBefore ?? ''}
           onChange={(event) => setFilter('neededBefore', event.target.value, { replace: true })}
         />
-        <div className="flex items-end">
-          <Button variant="secondary" onClick={clearFilters} disabled={!filtered} className="w-full">
-            Clear filters
-          </Button>
-        </div>
-      </form>
+        <ClearFiltersButton filtered={filtered} onClear={clearFilters} />
+      </FilterForm>
 
       {board.isError && (
         <Notice tone="error" title="The board could not be loaded">

@@ -1,5 +1,5 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
-import { Link, useSearchParams } from 'react-router-dom';
+import { Link } from 'react-router-dom';
 import { formatCents } from '@shared/catalogue';
 import type { MoneyHistory, MoneyHistoryRow } from '@shared/schemas/payments';
 import { PageTitle } from '@client/components/ui/card';
@@ -8,6 +8,7 @@ import { Pager } from '@client/components/ui/pager';
 import { useMe } from '@client/features/auth';
 import { api } from '@client/lib/api-client';
 import { moneyHistoryKeys } from '@client/lib/query-keys';
+import { useSearchParamUpdater } from '@client/lib/search-params';
 
 const PAGE_SIZE = 25;
 
@@ -45,18 +46,10 @@ function readPage(params: URLSearchParams): number {
 export function MoneyHistoryRoute() {
   const { data: me } = useMe();
   const side: Side = me?.role === 'shop' ? 'shop' : 'builder';
-  const [params, setParams] = useSearchParams();
+  const { params, setPage } = useSearchParamUpdater();
   const page = readPage(params);
   const history = useQuery(moneyHistoryQuery((page - 1) * PAGE_SIZE));
 
-  const setPage = (next: number) => {
-    setParams((current) => {
-      const copy = new URLSearchParams(current);
-      if (next > 1) copy.set('page', String(next));
-      else copy.delete('page');
-      return copy;
-    });
-  };
 
   return (
     <div>
@@ -118,7 +111,7 @@ export function MoneyHistoryRoute() {
               </table>
             </div>
           )}
-          <Pager className="mt-6" label="Money history pages" page={page} pageSize={PAGE_SIZE} total={history.data.total} onPage={setPage} />
+          <Pager className="mt-6" label="Money history pages" page={page} pageSize={PAGE_SIZE} total={history.data.total} onPage={(next) => setPage(next, { scrollToTop: false })} />
         </>
       )}
     </div>

@@ -8,9 +8,8 @@ import { newPasswordSchema } from '@shared/schemas/auth';
 import { Button } from '@client/components/ui/button';
 import { Card, PageTitle } from '@client/components/ui/card';
 import { Notice } from '@client/components/ui/notice';
-import { TextField } from '@client/components/ui/text-field';
-import { useConfirmPasswordReset } from '@client/features/auth';
-import { applyServerErrors } from '@client/lib/form-errors';
+import { NewPasswordFields, useConfirmPasswordReset } from '@client/features/auth';
+import { applyServerErrors, fieldProps } from '@client/lib/form-errors';
 
 const formSchema = z
   .object({ password: newPasswordSchema, repeat: z.string() })
@@ -35,6 +34,7 @@ export function ResetPasswordRoute() {
     setFormError(undefined);
     confirm.mutate({ token, password }, { onError: (error) => setFormError(applyServerErrors(error, form.setError, ['password'])) });
   });
+  const field = fieldProps(form);
   return (
     <div className="mx-auto max-w-md">
       <PageTitle title="Choose a new password" />
@@ -50,21 +50,7 @@ export function ResetPasswordRoute() {
                 {formError} <Link to="/forgot-password" className="underline">Ask for a new link</Link>.
               </Notice>
             )}
-            <TextField
-              label="New password"
-              type="password"
-              autoComplete="new-password"
-              hint="At least 10 characters."
-              error={form.formState.errors.password?.message}
-              {...form.register('password')}
-            />
-            <TextField
-              label="New password again"
-              type="password"
-              autoComplete="new-password"
-              error={form.formState.errors.repeat?.message}
-              {...form.register('repeat')}
-            />
+            <NewPasswordFields password={field('password')} repeat={field('repeat')} />
             <Button type="submit" busy={confirm.isPending}>
               Save the new password
             </Button>

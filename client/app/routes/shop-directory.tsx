@@ -1,13 +1,14 @@
-import { useSearchParams } from 'react-router-dom';
 import { operations } from '@shared/catalogue';
 import { shopDirectoryQuerySchema } from '@shared/schemas/shops';
 import { Button } from '@client/components/ui/button';
 import { PageTitle } from '@client/components/ui/card';
+import { FilterForm } from '@client/components/ui/filter-form';
 import { DebouncedTextField } from '@client/components/ui/debounced-text-field';
 import { Notice } from '@client/components/ui/notice';
 import { Pager } from '@client/components/ui/pager';
 import { SelectField } from '@client/components/ui/select-field';
 import { useShops, type DirectoryFilters, ShopCard } from '@client/features/shops';
+import { useSearchParamUpdater } from '@client/lib/search-params';
 
 const PAGE_SIZE = 12;
 const FILTER_KEYS = ['q', 'operation', 'country', 'region', 'takesShipped'] as const;
@@ -34,33 +35,10 @@ function readFilters(params: URLSearchParams): DirectoryFilters {
 }
 
 export function ShopDirectoryRoute() {
-  const [params, setParams] = useSearchParams();
+  // A new filter value starts again at page 1; typing replaces the history entry instead of adding one per pause.
+  const { params, setParams, setFilter, filtered, setPage } = useSearchParamUpdater(FILTER_KEYS);
   const filters = readFilters(params);
   const shops = useShops(filters);
-  const filtered = FILTER_KEYS.some((key) => params.get(key));
-
-  /** A new filter value starts again at page 1; typing replaces the history entry instead of adding one per pause. */
-  const setFilter = (key: (typeof FILTER_KEYS)[number], value: string, { replace = false } = {}) => {
-    setParams(
-      (current) => {
-        const next = new URLSearchParams(current);
-        if (value.trim()) next.set(key, value.trim());
-        else next.delete(key);
-        next.delete('page');
-        return next;
-      },
-      { replace },
-    );
-  };
-  const setPage = (page: number) => {
-    setParams((current) => {
-      const next = new URLSearchParams(current);
-      if (page > 1) next.set('page', String(page));
-      else next.delete('page');
-      return next;
-    });
-    window.scrollTo({ top: 0 });
-  };
 
   return (
     <div>
@@ -68,12 +46,7 @@ export function ShopDirectoryRoute() {
         title="Machine shops"
         lead="Shops that bore, hone, deck and grind for engine builders. Open a shop to see its equipment and usual prices."
       />
-      <form
-        role="search"
-        aria-label="Filter shops"
-        onSubmit={(event) => event.preventDefault()}
-        className="mb-6 grid gap-4 rounded-card bg-paper-sunk p-4 sm:grid-cols-2 md:grid-cols-3 lg:grid-cols-5"
-      >
+      <FilterForm label="Filter shops" className="grid sm:grid-cols-2 md:grid-cols-3 lg:grid-cols-5">
         <DebouncedTextField
           label="Name or town"
           type="search"
@@ -103,7 +76,7 @@ export function ShopDirectoryRoute() {
             { value: 'false', label: 'Drop-off only' },
           ]}
         />
-      </form>
+      </FilterForm>
 
       {shops.isError && (
         <Notice tone="error" title="The shops could not be loaded">

@@ -1,3 +1,5 @@
+import { useId, useRef, type ReactNode } from 'react';
+import { ACCEPTED_PHOTO_TYPES } from '@client/lib/upload';
 import { Button } from './button';
 
 /** A photo on its way up: chosen, uploading with its progress, uploaded, or refused with a reason. */
@@ -10,9 +12,6 @@ export interface PendingUpload<TPhoto extends { thumbUrl: string; width: number;
   error?: string;
   controller: AbortController;
 }
-
-/** Megabytes with one decimal, for size limits and refusals. */
-export const megabytes = (bytes: number) => `${(bytes / 1024 / 1024).toFixed(1)} MB`;
 
 /**
  * One photo in a list of photos being added (to a message, to a milestone):
@@ -57,5 +56,88 @@ export function PendingPhotoTile({ upload, alt, onRemove, imageTestId }: { uploa
         Remove
       </Button>
     </li>
+  );
+}
+
+/**
+ * The photos being added, as removable tiles, and below them why a chosen
+ * file was refused (or the form's own complaint about the photos).
+ */
+export function PendingPhotoList<TUpload extends PendingUpload>({
+  uploads,
+  label,
+  testId,
+  alt,
+  imageTestId,
+  onRemove,
+  notice,
+}: {
+  uploads: TUpload[];
+  label: string;
+  testId: string;
+  alt: (name: string) => string;
+  imageTestId?: string;
+  onRemove: (upload: TUpload) => void;
+  notice?: string;
+}) {
+  return (
+    <>
+      {uploads.length > 0 && (
+        <ul className="flex flex-wrap gap-2" aria-label={label} data-testid={testId}>
+          {uploads.map((upload) => (
+            <PendingPhotoTile key={upload.key} upload={upload} alt={alt(upload.name)} imageTestId={imageTestId} onRemove={() => onRemove(upload)} />
+          ))}
+        </ul>
+      )}
+      {notice && (
+        <p className="text-sm font-semibold text-fail" role="alert">
+          {notice}
+        </p>
+      )}
+    </>
+  );
+}
+
+/**
+ * "Add photos": a button that opens the file chooser (the input itself stays
+ * hidden and out of the tab order), with the limits as its description.
+ */
+export function AddPhotosButton({
+  inputTestId,
+  disabled,
+  onFiles,
+  hint,
+  hintClassName,
+}: {
+  inputTestId: string;
+  disabled: boolean;
+  onFiles: (files: File[]) => void;
+  hint: ReactNode;
+  hintClassName: string;
+}) {
+  const fileInput = useRef<HTMLInputElement>(null);
+  const hintId = useId();
+  return (
+    <>
+      <input
+        ref={fileInput}
+        type="file"
+        multiple
+        accept={ACCEPTED_PHOTO_TYPES.join(',')}
+        hidden
+        tabIndex={-1}
+        data-testid={inputTestId}
+        onChange={(event) => {
+          onFiles([...(event.target.files ?? [])]);
+          event.target.value = '';
+        }}
+      />
+      <Button variant="secondary" disabled={disabled} aria-describedby={hintId} onClick={() => fileInput.current?.click()}>
+        Add photos
+      </Button>
+      <span id={hintId} className={hintClassName}>
+        {hint}
+      </span>
+    </>
   );
 }

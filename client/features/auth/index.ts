@@ -6,6 +6,7 @@ export { useMe } from './api/use-me';
 export { ChangePasswordForm } from './components/change-password-form';
 export { ConfirmEmailNotice, useNeedsEmailConfirmation } from './components/confirm-email-notice';
 export { GithubButton } from './components/github-button';
+export { NewPasswordFields } from './components/new-password-fields';
 export { RolePicker } from './components/role-picker';
 export { SignInForm } from './components/sign-in-form';
 export { SignUpForm } from './components/sign-up-form';

@@ -8,8 +8,9 @@ import { changePasswordSchema } from '@shared/schemas/auth';
 import { Button } from '@client/components/ui/button';
 import { Notice } from '@client/components/ui/notice';
 import { TextField } from '@client/components/ui/text-field';
-import { applyServerErrors } from '@client/lib/form-errors';
+import { applyServerErrors, fieldProps } from '@client/lib/form-errors';
 import { useChangePassword } from '../api/auth-mutations';
+import { NewPasswordFields } from './new-password-fields';
 
 const formSchema = changePasswordSchema
   .and(z.object({ repeat: z.string() }))
@@ -34,20 +35,12 @@ export function ChangePasswordForm() {
     setFormError(undefined);
     change.mutate({ currentPassword, newPassword }, { onError: (error) => setFormError(applyServerErrors(error, form.setError, ['currentPassword', 'newPassword'])) });
   });
-  const errors = form.formState.errors;
+  const field = fieldProps(form);
   return (
     <form onSubmit={onSubmit} noValidate className="flex flex-col gap-4" aria-label="Change password">
       {formError && <Notice tone="error">{formError}</Notice>}
-      <TextField label="Current password" type="password" autoComplete="current-password" error={errors.currentPassword?.message} {...form.register('currentPassword')} />
-      <TextField
-        label="New password"
-        type="password"
-        autoComplete="new-password"
-        hint="At least 10 characters."
-        error={errors.newPassword?.message}
-        {...form.register('newPassword')}
-      />
-      <TextField label="New password again" type="password" autoComplete="new-password" error={errors.repeat?.message} {...form.register('repeat')} />
+      <TextField label="Current password" type="password" autoComplete="current-password" {...field('currentPassword')} />
+      <NewPasswordFields password={field('newPassword')} repeat={field('repeat')} />
       <p className="text-sm text-ink-soft">
         Forgot the current one? <Link to="/forgot-password" className="underline">Reset it by e-mail</Link>.
       </p>

@@ -6,14 +6,14 @@ import { signInSchema, type SignInInput } from '@shared/schemas/auth';
 import { Button } from '@client/components/ui/button';
 import { Notice } from '@client/components/ui/notice';
 import { TextField } from '@client/components/ui/text-field';
-import { applyServerErrors } from '@client/lib/form-errors';
+import { applyServerErrors, fieldProps } from '@client/lib/form-errors';
 import { useSignIn } from '../api/auth-mutations';
 
 export function SignInForm({ onSignedIn }: { onSignedIn: () => void }) {
   const [formError, setFormError] = useState<string>();
   const form = useForm<SignInInput>({ resolver: zodResolver(signInSchema), defaultValues: { email: '', password: '' } });
   const signIn = useSignIn({ mutationConfig: { onSuccess: onSignedIn } });
-  const { errors } = form.formState;
+  const field = fieldProps(form);
 
   const onSubmit = form.handleSubmit((values) => {
     setFormError(undefined);
@@ -23,14 +23,8 @@ export function SignInForm({ onSignedIn }: { onSignedIn: () => void }) {
   return (
     <form onSubmit={onSubmit} noValidate className="flex flex-col gap-4" aria-label="Sign in">
       {formError && <Notice tone="error">{formError}</Notice>}
-      <TextField label="E-mail" type="email" autoComplete="email" error={errors.email?.message} {...form.register('email')} />
-      <TextField
-        label="Password"
-        type="password"
-        autoComplete="current-password"
-        error={errors.password?.message}
-        {...form.register('password')}
-      />
+      <TextField label="E-mail" type="email" autoComplete="email" {...field('email')} />
+      <TextField label="Password" type="password" autoComplete="current-password" {...field('password')} />
       <Button type="submit" busy={signIn.isPending}>
         Sign in
       </Button>

@@ -5,7 +5,7 @@ import { signUpSchema, type SignUpInput } from '@shared/schemas/auth';
 import { Button } from '@client/components/ui/button';
 import { Notice } from '@client/components/ui/notice';
 import { TextField } from '@client/components/ui/text-field';
-import { applyServerErrors } from '@client/lib/form-errors';
+import { applyServerErrors, fieldProps } from '@client/lib/form-errors';
 import { useSignUp } from '../api/auth-mutations';
 import { RolePicker } from './role-picker';
 
@@ -16,7 +16,7 @@ export function SignUpForm({ onSignedUp }: { onSignedUp: () => void }) {
     defaultValues: { displayName: '', email: '', password: '', role: undefined },
   });
   const signUp = useSignUp({ mutationConfig: { onSuccess: onSignedUp } });
-  const { errors } = form.formState;
+  const field = fieldProps(form);
 
   const onSubmit = form.handleSubmit((values) => {
     setFormError(undefined);
@@ -28,22 +28,10 @@ export function SignUpForm({ onSignedUp }: { onSignedUp: () => void }) {
   return (
     <form onSubmit={onSubmit} noValidate className="flex flex-col gap-4" aria-label="Create an account">
       {formError && <Notice tone="error">{formError}</Notice>}
-      <RolePicker error={errors.role?.message} {...form.register('role')} />
-      <TextField
-        label="Your name or business name"
-        autoComplete="name"
-        error={errors.displayName?.message}
-        {...form.register('displayName')}
-      />
-      <TextField label="E-mail" type="email" autoComplete="email" error={errors.email?.message} {...form.register('email')} />
-      <TextField
-        label="Password"
-        type="password"
-        autoComplete="new-password"
-        hint="At least 10 characters. A short sentence works well."
-        error={errors.password?.message}
-        {...form.register('password')}
-      />
+      <RolePicker {...field('role')} />
+      <TextField label="Your name or business name" autoComplete="name" {...field('displayName')} />
+      <TextField label="E-mail" type="email" autoComplete="email" {...field('email')} />
+      <TextField label="Password" type="password" autoComplete="new-password" hint="At least 10 characters. A short sentence works well." {...field('password')} />
       <Button type="submit" busy={signUp.isPending}>
         Create my account
       </Button>

@@ -2,15 +2,12 @@ import { useQueryClient } from '@tanstack/react-query';
 import { useId, useRef, useState, type DragEvent } from 'react';
 import type { JobPhoto } from '@shared/schemas/jobs';
 import { Button } from '@client/components/ui/button';
-import { ApiError } from '@client/lib/api-client';
 import { cn } from '@client/lib/cn';
 import { jobKeys } from '@client/lib/query-keys';
-import { uploadWithProgress } from '@client/lib/upload';
+import { ACCEPTED_PHOTO_TYPES, photoRefusal, uploadFailure, uploadWithProgress } from '@client/lib/upload';
 
-/** The server's limits (server/modules/jobs): checked here first so nobody waits for a refusal. */
-export const MAX_PHOTO_BYTES = 15 * 1024 * 1024;
+/** The server's limit (server/modules/jobs): checked here first so nobody waits for a refusal. */
 export const MAX_PHOTOS_PER_JOB = 12;
-const ACCEPTED = ['image/jpeg', 'image/png', 'image/webp'];
 
 type Status = 'waiting' | 'uploading' | 'done' | 'failed' | 'refused';
 
@@ -21,8 +18,6 @@ interface Item {
   status: Status;
   message?: string;
 }
-
-const megabytes = (bytes: number) => `${(bytes / 1024 / 1024).toFixed(1)} MB`;
 
 /**
  * Pick or drop photos of the parts. Each file is checked here (type, size,
@@ -56,7 +51,7 @@ export function PhotoUploader({ jobId, existingCount }: { jobId: string; existin
       update(key, { status: 'done', progress: 1 });
       await queryClient.invalidateQueries({ queryKey: jobKeys.detail(jobId) });
     } catch (error) {
-      update(key, { status: 'failed', message: error instanceof ApiError ? error.message : 'The upload failed. Try again.' });
+      update(key, { status: 'failed', message: uploadFailure(error) });
     }
   };
 
@@ -64,19 +59,9 @@ export function PhotoUploader({ jobId, existingCount }: { jobId: string; existin
     if (files.length === 0) return;
     let space = room;
     const fresh: Array<{ item: Item; file?: File }> = files.map((file) => {
-      const key = nextKey.current++;
-      const base = { key, name: file.name, progress: 0 };
-      if (!ACCEPTED.includes(file.type)) {
-        return { item: { ...base, status: 'refused', message: `“${file.name}” is not a JPEG, PNG or WebP photo.` } };
-      }
-      if (file.size > MAX_PHOTO_BYTES) {
-        return { item: { ...base, status: 'refused', message: `“${file.name}” is ${megabytes(file.size)}; each photo may be at most 15 MB.` } };
-      }
-      if (space <= 0) {
-        return {
-          item: { ...base, status: 'refused', message: `“${file.name}” was left out: a job can have at most ${MAX_PHOTOS_PER_JOB} photos.` },
-        };
-      }
+      const base = { key: nextKey.current++, name: file.name, progress: 0 };
+      const refusal = photoRefusal(file, space, `a job can have at most ${MAX_PHOTOS_PER_JOB} photos`);
+      if (refusal) return { item: { ...base, status: 'refused', message: refusal } };
       space -= 1;
       return { item: { ...base, status: 'waiting' }, file };
     });
@@ -116,7 +101,7 @@ export function PhotoUploader({ jobId, existingCount }: { jobId: string; existin
             id={inputId}
             type="file"
             multiple
-            accept={ACCEPTED.join(',')}
+            accept={ACCEPTED_PHOTO_TYPES.join(',')}
             disabled={full}
             aria-describedby={hintId}
             className="peer sr-only"

@@ -1,17 +1,8 @@
-import type { MessagePhoto, UploadedMessagePhotos } from '@shared/schemas/messages';
-import { uploadWithProgress } from '@client/lib/upload';
-
-/** The server's limits (server/lib/photo-upload.ts, server/lib/images.ts): checked here first so nobody waits for a refusal. */
-export const MAX_PHOTO_BYTES = 15 * 1024 * 1024;
-export const ACCEPTED_PHOTO_TYPES = ['image/jpeg', 'image/png', 'image/webp'];
+import { MAX_PHOTOS_PER_MESSAGE, type MessagePhoto } from '@shared/schemas/messages';
+import { photoTarget } from '@client/lib/upload';
 
 /**
- * Uploads one photo to a conversation, reporting progress; the answer is the
- * stored photo, whose id goes out with the message. Until then only the
- * uploader can see it.
+ * Photos for a message are uploaded to its conversation one by one, before
+ * the message is sent; until then only the uploader can see them.
  */
-export function uploadMessagePhoto(threadId: string, file: File, onProgress: (fraction: number) => void, signal?: AbortSignal): Promise<MessagePhoto> {
-  return uploadWithProgress<UploadedMessagePhotos>({ url: `/api/threads/${threadId}/photos`, field: 'photos', files: [file], onProgress, signal }).then(
-    (answer) => answer.photos[0],
-  );
-}
+export const messagePhotoTarget = (threadId: string) => photoTarget<MessagePhoto>(`/api/threads/${threadId}/photos`, MAX_PHOTOS_PER_MESSAGE, 'message');

@@ -1,16 +1,9 @@
-import type { MilestonePhoto, UploadedMilestonePhotos } from '@shared/schemas/milestones';
-import { uploadWithProgress } from '@client/lib/upload';
-
-/** The server's limits (server/lib/photo-upload.ts, server/lib/images.ts): checked here first so nobody waits for a refusal. */
-export const MAX_PHOTO_BYTES = 15 * 1024 * 1024;
-export const ACCEPTED_PHOTO_TYPES = ['image/jpeg', 'image/png', 'image/webp'];
+import { MAX_PHOTOS_PER_MILESTONE } from '@shared/schemas/inspection';
+import type { MilestonePhoto } from '@shared/schemas/milestones';
+import { photoTarget } from '@client/lib/upload';
 
 /**
- * Uploads one photo for a milestone not yet logged, reporting progress; the
- * stored photo's id goes out with the milestone. Until then only the shop sees it.
+ * Photos for a milestone not yet logged are uploaded one by one; their ids go
+ * out with the milestone. Until then only the shop sees them.
  */
-export function uploadMilestonePhoto(jobId: string, file: File, onProgress: (fraction: number) => void, signal?: AbortSignal): Promise<MilestonePhoto> {
-  return uploadWithProgress<UploadedMilestonePhotos>({ url: `/api/jobs/${jobId}/milestone-photos`, field: 'photos', files: [file], onProgress, signal }).then(
-    (answer) => answer.photos[0],
-  );
-}
+export const milestonePhotoTarget = (jobId: string) => photoTarget<MilestonePhoto>(`/api/jobs/${jobId}/milestone-photos`, MAX_PHOTOS_PER_MILESTONE, 'milestone');
