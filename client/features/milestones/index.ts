@@ -1,3 +1,4 @@
 // The milestones feature's public face: what routes, the layout and other features may use.
 // Anything not exported here is internal to the feature (eslint.config.js enforces it).
 export { MilestonesPanel } from './components/milestones-panel';
+export { milestoneKindWords, milestoneTitle } from './components/milestone-words';

@@ -1,11 +1,13 @@
 import { useId, useState } from 'react';
-import { findOperation, formatCents } from '@shared/catalogue';
+import { formatCents } from '@shared/catalogue';
 import { disputeReasonWords, type EvidenceItem } from '@shared/schemas/disputes';
 import type { InspectionResults } from '@shared/schemas/inspection';
+import { INSPECTION_STATUS_WORDS } from '@shared/inspection-words';
 import { Badge, type BadgeTone } from '@client/components/ui/badge';
 import { CheckboxField } from '@client/components/ui/checkbox-field';
 import { PhotoThumbnails } from '@client/components/ui/photo-thumbnails';
 import { cn } from '@client/lib/cn';
+import { milestoneTitle } from '@client/features/milestones';
 import { formatMoment, ledgerKindWords, plural, sideWords } from './admin-words';
 
 /** The kinds an administrator can show or hide; both dispute statements count as one. */
@@ -33,25 +35,6 @@ const filterLabels: Record<Group, string> = {
 
 const groupOf = (item: EvidenceItem): Group => (item.kind === 'dispute_opened' || item.kind === 'dispute_answered' ? 'dispute' : item.kind);
 
-const milestoneWords: Record<string, string> = {
-  block_received: 'Block received',
-  teardown: 'Teardown and incoming inspection',
-  operation_started: 'Operation started',
-  operation_finished: 'Operation finished',
-  inspection_submitted: 'Inspection record submitted',
-  ready_for_pickup: 'Ready for pickup',
-  shipped: 'Shipped',
-  delivered: 'Delivered',
-  note: 'Note',
-};
-
-const inspectionStatusWords: Record<string, string> = {
-  submitted: 'Waiting for the builder',
-  accepted: 'Accepted by the builder',
-  rejected: 'Sent back by the builder',
-  superseded: 'Replaced by a later version',
-};
-
 const changeOrderStatusWords: Record<string, string> = {
   proposed: 'Proposed, not answered',
   approved: 'Approved, not paid yet',
@@ -60,14 +43,6 @@ const changeOrderStatusWords: Record<string, string> = {
 };
 
 const figure = new Intl.NumberFormat(undefined, { maximumFractionDigits: 4 });
-
-function milestoneTitle(item: Extract<EvidenceItem, { kind: 'milestone' }>) {
-  if ((item.milestone === 'operation_started' || item.milestone === 'operation_finished') && item.operation) {
-    const name = findOperation(item.operation)?.name ?? item.operation;
-    return `${name} ${item.milestone === 'operation_started' ? 'started' : 'finished'}`;
-  }
-  return milestoneWords[item.milestone] ?? item.milestone;
-}
 
 function PassFail({ pass }: { pass: boolean }) {
   return (
@@ -146,7 +121,7 @@ function ItemBody({ item, builderName, shopName }: { item: EvidenceItem; builder
     case 'milestone':
       return (
         <>
-          <p className="font-semibold">{milestoneTitle(item)}</p>
+          <p className="font-semibold">{milestoneTitle({ kind: item.milestone, operation: item.operation })}</p>
           {item.note && <p className="whitespace-pre-wrap break-words">{item.note}</p>}
           {(item.carrier || item.trackingNumber) && (
             <p className="text-sm">
@@ -161,7 +136,7 @@ function ItemBody({ item, builderName, shopName }: { item: EvidenceItem; builder
           )}
           <PhotoThumbnails
             photos={item.photos}
-            nameOf={(index, count) => `Photo ${index + 1} of ${count}: ${milestoneTitle(item)}`}
+            nameOf={(index, count) => `Photo ${index + 1} of ${count}: ${milestoneTitle({ kind: item.milestone, operation: item.operation })}`}
             thumbClassName="size-20"
             testId="evidence-photo"
           />
@@ -173,7 +148,7 @@ function ItemBody({ item, builderName, shopName }: { item: EvidenceItem; builder
           <p className="flex flex-wrap items-center gap-2">
             <span className="font-semibold">Version {item.version}</span>
             <PassFail pass={item.pass} />
-            <span className="text-ink-soft">{inspectionStatusWords[item.status] ?? item.status}</span>
+            <span className="text-ink-soft">{INSPECTION_STATUS_WORDS[item.status] ?? item.status}</span>
             {item.decidedAt && <span className="text-sm text-ink-soft">on {formatMoment(item.decidedAt)}</span>}
           </p>
           <InspectionSummary results={item.results} />
