@@ -40,11 +40,17 @@ export function FieldFrame(props: {
           {props.hint}
         </p>
       )}
-      {props.errorId && (
-        <p id={props.errorId} className="text-sm font-semibold text-fail">
-          {props.error}
-        </p>
-      )}
+      <FieldError id={props.errorId} error={props.error} />
     </div>
+  );
+}
+
+/** A field's error message, with the id its control's aria-describedby points at; nothing without an error. */
+export function FieldError({ id, error }: { id?: string; error?: string }) {
+  if (!id || !error) return null;
+  return (
+    <p id={id} className="text-sm font-semibold text-fail">
+      {error}
+    </p>
   );
 }

@@ -1,4 +1,5 @@
 import { forwardRef, useId, type InputHTMLAttributes } from 'react';
+import { FieldError } from '@client/components/ui/field-frame';
 
 const choices = [
   { value: 'builder', title: 'I build engines', text: 'Post machining jobs, compare bids, pay when the measurements check out.' },
@@ -28,11 +29,7 @@ export const RolePicker = forwardRef<HTMLInputElement, InputHTMLAttributes<HTMLI
           </label>
         ))}
       </div>
-      {error && (
-        <p id={`${id}-error`} className="text-sm font-semibold text-fail">
-          {error}
-        </p>
-      )}
+      <FieldError id={`${id}-error`} error={error} />
     </fieldset>
   );
 });

@@ -7,6 +7,7 @@
  */
 import { useId, type ReactNode } from 'react';
 import { type LengthUnit, boreSize, convertLength, displacement, type BoreSize, type DisplacementResult } from '@shared/calc';
+import { GuidanceCaution } from '@client/components/ui/guidance-caution';
 import { cn } from '@client/lib/cn';
 import { formatLength, formatLengthChange, formatNumber } from './job-words';
 
@@ -117,16 +118,6 @@ function CommonPracticeTag() {
     <span className="mr-1 rounded bg-brass-50 px-1.5 py-0.5 text-xs font-bold uppercase tracking-wide text-brass-800 ring-1 ring-brass-200">
       Common practice
     </span>
-  );
-}
-
-/** The guidance caution shown wherever these figures are. */
-export function GuidanceCaution({ className }: { className?: string }) {
-  return (
-    <p className={cn('border-l-4 border-caution pl-3 text-sm text-caution', className)} data-testid="guidance-caution">
-      <strong>Guidance only.</strong> These figures are guidance. Engine and piston makers&apos; specifications, calibrated instruments, local
-      codes and licensed practice govern.
-    </p>
   );
 }
 

@@ -13,6 +13,7 @@ import {
   type JobFormValues,
   type JobInput,
 } from '@shared/schemas/jobs';
+import { FieldError } from '@client/components/ui/field-frame';
 import { Button } from '@client/components/ui/button';
 import { Notice } from '@client/components/ui/notice';
 import { SegmentedControl } from '@client/components/ui/segmented-control';
@@ -147,11 +148,7 @@ function ChoiceGroup({
           </label>
         ))}
       </div>
-      {error && (
-        <p id={`${id}-error`} className="text-sm font-semibold text-fail">
-          {error}
-        </p>
-      )}
+      <FieldError id={`${id}-error`} error={error} />
     </fieldset>
   );
 }
