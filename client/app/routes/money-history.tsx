@@ -9,6 +9,7 @@ import { useMe } from '@client/features/auth';
 import { api } from '@client/lib/api-client';
 import { moneyHistoryKeys } from '@client/lib/query-keys';
 import { useSearchParamUpdater } from '@client/lib/search-params';
+import { TableHead } from '@client/components/ui/table-head';
 
 const PAGE_SIZE = 25;
 
@@ -84,14 +85,7 @@ export function MoneyHistoryRoute() {
             >
               <table className="w-full min-w-[36rem] text-left text-sm">
                 <caption className="sr-only">Money on your jobs, newest first</caption>
-                <thead className="border-b border-slate-200 text-ink-soft">
-                  <tr>
-                    <th scope="col" className="py-3 pr-4 font-semibold">Date</th>
-                    <th scope="col" className="py-3 pr-4 font-semibold">Job</th>
-                    <th scope="col" className="py-3 pr-4 font-semibold">What happened</th>
-                    <th scope="col" className="py-3 text-right font-semibold">Amount</th>
-                  </tr>
-                </thead>
+                <TableHead columns={['Date', 'Job', 'What happened', { label: 'Amount', align: 'right' }]} />
                 <tbody>
                   {history.data.rows.map((row) => (
                     <tr key={row.id} className="border-b border-slate-100 align-top" data-testid="money-row">

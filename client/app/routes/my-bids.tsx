@@ -3,6 +3,7 @@ import { formatCents } from '@shared/catalogue';
 import { PageTitle } from '@client/components/ui/card';
 import { Notice } from '@client/components/ui/notice';
 import { useMyBids, BidStatusBadge, days, formatMoment } from '@client/features/bids';
+import { TableHead } from '@client/components/ui/table-head';
 
 const jobStatusWords: Record<string, string> = {
   open: 'open for bids',
@@ -42,15 +43,7 @@ export function MyBidsRoute() {
       {bids.data && bids.data.length > 0 && (
         <div role="region" aria-label="Your bids" tabIndex={0} className="relative overflow-x-auto rounded-card bg-paper-raised px-4 shadow-card ring-1 ring-slate-100">
           <table className="w-full min-w-[40rem] text-left text-sm">
-            <thead className="border-b border-slate-200 text-ink-soft">
-              <tr>
-                <th scope="col" className="py-3 pr-4 font-semibold">Job</th>
-                <th scope="col" className="py-3 pr-4 font-semibold">Status</th>
-                <th scope="col" className="py-3 pr-4 text-right font-semibold">Total</th>
-                <th scope="col" className="py-3 pr-4 font-semibold">Turnaround</th>
-                <th scope="col" className="py-3 font-semibold">Updated</th>
-              </tr>
-            </thead>
+            <TableHead columns={['Job', 'Status', { label: 'Total', align: 'right' }, 'Turnaround', 'Updated']} />
             <tbody>
               {bids.data.map((bid) => (
                 <tr key={bid.id} className="border-b border-slate-100 align-top">

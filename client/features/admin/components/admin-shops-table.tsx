@@ -5,6 +5,7 @@ import { Badge } from '@client/components/ui/badge';
 import { Button } from '@client/components/ui/button';
 import { cn } from '@client/lib/cn';
 import { useSetShopVerification } from '../api/admin-shops';
+import { TableHead } from '@client/components/ui/table-head';
 
 const rating = new Intl.NumberFormat(undefined, { minimumFractionDigits: 1, maximumFractionDigits: 1 });
 
@@ -39,20 +40,7 @@ export function AdminShopsTable({ shops, dimmed = false }: { shops: AdminShopRow
     >
       <table className="w-full min-w-[56rem] text-left text-sm">
         <caption className="sr-only">Shops</caption>
-        <thead className="border-b border-slate-200 text-ink-soft">
-          <tr>
-            <th scope="col" className="py-3 pr-4 font-semibold">Shop</th>
-            <th scope="col" className="py-3 pr-4 font-semibold">Owner’s e-mail</th>
-            <th scope="col" className="py-3 pr-4 font-semibold">Place</th>
-            <th scope="col" className="py-3 pr-4 font-semibold">Payouts</th>
-            <th scope="col" className="py-3 pr-4 font-semibold">Rating</th>
-            <th scope="col" className="py-3 pr-4 font-semibold">Verified</th>
-            <th scope="col" className="py-3 pr-4 font-semibold">Owner’s account</th>
-            <th scope="col" className="py-3 font-semibold">
-              <span className="sr-only">Change verification</span>
-            </th>
-          </tr>
-        </thead>
+        <TableHead columns={['Shop', 'Owner’s e-mail', 'Place', 'Payouts', 'Rating', 'Verified', 'Owner’s account', { label: 'Change verification', srOnly: true }]} />
         <tbody>
           {shops.map((shop) => (
             <tr key={shop.id} className="border-b border-slate-100 align-top">

@@ -3,6 +3,7 @@ import { formatCents } from '@shared/catalogue';
 import type { AuditRow } from '@shared/schemas/admin';
 import { cn } from '@client/lib/cn';
 import { formatFee, formatMoment } from './admin-words';
+import { TableHead } from '@client/components/ui/table-head';
 
 const SUMMARY_LENGTH = 140;
 
@@ -63,15 +64,7 @@ export function AuditTable({ entries, onlyActionHref, dimmed = false }: { entrie
     >
       <table className="w-full min-w-[52rem] text-left text-sm">
         <caption className="sr-only">Audit log entries</caption>
-        <thead className="border-b border-slate-200 text-ink-soft">
-          <tr>
-            <th scope="col" className="py-3 pr-4 font-semibold">When</th>
-            <th scope="col" className="py-3 pr-4 font-semibold">Administrator</th>
-            <th scope="col" className="py-3 pr-4 font-semibold">Action</th>
-            <th scope="col" className="py-3 pr-4 font-semibold">Target</th>
-            <th scope="col" className="py-3 font-semibold">Details</th>
-          </tr>
-        </thead>
+        <TableHead columns={['When', 'Administrator', 'Action', 'Target', 'Details']} />
         <tbody>
           {entries.map((entry) => (
             <tr key={entry.id} className="border-b border-slate-100 align-top">

@@ -4,6 +4,7 @@ import { disputeReasonWords, type DisputeQueueRow } from '@shared/schemas/disput
 import { Badge } from '@client/components/ui/badge';
 import { cn } from '@client/lib/cn';
 import { formatAge, formatMoment, sideWords } from './admin-words';
+import { TableHead } from '@client/components/ui/table-head';
 
 export function DisputeStatusBadge({ status }: { status: 'open' | 'resolved' }) {
   return status === 'open' ? <Badge tone="caution">Open</Badge> : <Badge tone="muted">Decided</Badge>;
@@ -21,19 +22,7 @@ export function DisputeQueueTable({ disputes, caption, dimmed = false }: { dispu
     >
       <table className="w-full min-w-[56rem] text-left text-sm">
         <caption className="sr-only">{caption}</caption>
-        <thead className="border-b border-slate-200 text-ink-soft">
-          <tr>
-            <th scope="col" className="py-3 pr-4 font-semibold">Job</th>
-            <th scope="col" className="py-3 pr-4 font-semibold">Builder</th>
-            <th scope="col" className="py-3 pr-4 font-semibold">Shop</th>
-            <th scope="col" className="py-3 pr-4 font-semibold">Opened by</th>
-            <th scope="col" className="py-3 pr-4 font-semibold">Reason</th>
-            <th scope="col" className="py-3 pr-4 font-semibold">Age</th>
-            <th scope="col" className="py-3 pr-4 text-right font-semibold">Held</th>
-            <th scope="col" className="py-3 pr-4 font-semibold">Answered</th>
-            <th scope="col" className="py-3 font-semibold">Status</th>
-          </tr>
-        </thead>
+        <TableHead columns={['Job', 'Builder', 'Shop', 'Opened by', 'Reason', 'Age', { label: 'Held', align: 'right' }, 'Answered', 'Status']} />
         <tbody>
           {disputes.map((row) => (
             <tr key={row.id} className="border-b border-slate-100 align-top">

@@ -3,6 +3,7 @@ import { formatCents } from '@shared/catalogue';
 import { ledgerKinds, type LedgerPage, type LedgerRow } from '@shared/schemas/admin';
 import { cn } from '@client/lib/cn';
 import { formatMoment, ledgerKindWords, plural } from './admin-words';
+import { TableHead } from '@client/components/ui/table-head';
 
 const kindTone: Record<LedgerRow['kind'], string> = {
   paid_in: 'text-ink',
@@ -43,15 +44,7 @@ export function LedgerTable({ rows, onlyJobHref, dimmed = false }: { rows: Ledge
     >
       <table className="w-full min-w-[48rem] text-left text-sm">
         <caption className="sr-only">Ledger entries</caption>
-        <thead className="border-b border-slate-200 text-ink-soft">
-          <tr>
-            <th scope="col" className="py-3 pr-4 font-semibold">When</th>
-            <th scope="col" className="py-3 pr-4 font-semibold">Job</th>
-            <th scope="col" className="py-3 pr-4 font-semibold">Kind</th>
-            <th scope="col" className="py-3 pr-4 text-right font-semibold">Amount</th>
-            <th scope="col" className="py-3 font-semibold">Reference</th>
-          </tr>
-        </thead>
+        <TableHead columns={['When', 'Job', 'Kind', { label: 'Amount', align: 'right' }, 'Reference']} />
         <tbody>
           {rows.map((row) => (
             <tr key={row.id} className="border-b border-slate-100 align-top">

@@ -1,6 +1,7 @@
 import { formatCents } from '@shared/catalogue';
 import type { BidLine, BidStatus } from '@shared/schemas/bids';
 import { Badge, type BadgeTone } from '@client/components/ui/badge';
+import { TableHead } from '@client/components/ui/table-head';
 
 export const bidStatusWords: Record<BidStatus, { label: string; tone: BadgeTone }> = {
   active: { label: 'Active', tone: 'info' },
@@ -27,14 +28,7 @@ export function BidLinesTable({ lines, totalCents, caption }: { lines: BidLine[]
     <div className="relative overflow-x-auto">
       <table className="w-full min-w-[28rem] text-left text-sm">
         <caption className="sr-only">{caption}</caption>
-        <thead className="border-b border-slate-200 text-ink-soft">
-          <tr>
-            <th scope="col" className="py-2 pr-3 font-semibold">Line</th>
-            <th scope="col" className="py-2 pr-3 text-right font-semibold">Quantity</th>
-            <th scope="col" className="py-2 pr-3 text-right font-semibold">Unit price</th>
-            <th scope="col" className="py-2 text-right font-semibold">Amount</th>
-          </tr>
-        </thead>
+        <TableHead dense columns={['Line', { label: 'Quantity', align: 'right' }, { label: 'Unit price', align: 'right' }, { label: 'Amount', align: 'right' }]} />
         <tbody>
           {lines.map((line, index) => (
             <tr key={index} className="border-b border-slate-100">
