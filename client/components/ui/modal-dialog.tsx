@@ -130,6 +130,8 @@ export interface ConfirmDialogProps {
   tone?: 'primary' | 'danger';
   busy?: boolean;
   error?: string;
+  /** The request the confirm runs: while it is under way the button is busy, and its error shows in the dialog. */
+  mutation?: { isPending: boolean; error: { message: string } | null };
   /** Optional inputs (a reason) between the question and the buttons. */
   children?: ReactNode;
 }
@@ -144,8 +146,9 @@ export function ConfirmDialog({
   confirmLabel,
   cancelLabel = 'Go back',
   tone = 'primary',
-  busy = false,
-  error,
+  mutation,
+  busy = mutation?.isPending ?? false,
+  error = mutation?.error?.message,
   children,
 }: ConfirmDialogProps) {
   return (

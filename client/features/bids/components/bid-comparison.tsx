@@ -365,8 +365,7 @@ export function BidComparison({ jobId, jobStatus, canDecide }: BidComparisonProp
         confirmLabel="Decline bid"
         cancelLabel="Go back"
         tone="danger"
-        busy={decline.isPending}
-        error={decline.error?.message}
+        mutation={decline}
       >
         <TextAreaField
           label="Reason, optional"

@@ -159,8 +159,7 @@ function ActiveBid({ bidId, job }: { bidId: string; job: JobDetail }) {
         confirmLabel="Withdraw my bid"
         cancelLabel="Keep my bid"
         tone="danger"
-        busy={withdraw.isPending}
-        error={withdraw.error?.message}
+        mutation={withdraw}
       />
     </div>
   );

@@ -75,8 +75,7 @@ export function JobOwnerActions({ job }: { job: JobDetail }) {
         confirmLabel="Cancel the job"
         cancelLabel="Keep the job"
         tone="danger"
-        busy={cancel.isPending}
-        error={cancel.error?.message}
+        mutation={cancel}
       />
     </div>
   );

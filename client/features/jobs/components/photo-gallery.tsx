@@ -81,8 +81,7 @@ export function PhotoGallery({ jobId, jobTitle, photos, canRemove }: PhotoGaller
         confirmLabel="Remove photo"
         cancelLabel="Keep it"
         tone="danger"
-        busy={remove.isPending}
-        error={remove.error?.message}
+        mutation={remove}
       />
     </>
   );

@@ -112,8 +112,7 @@ function BuilderMoney({ job, acceptedTotalCents }: { job: JobDetail; acceptedTot
             confirmLabel="Cancel and refund"
             cancelLabel="Keep the job"
             tone="danger"
-            busy={cancel.isPending}
-            error={cancel.error?.message}
+            mutation={cancel}
           />
         </>
       )}
