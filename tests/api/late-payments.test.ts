@@ -68,7 +68,11 @@ async function openPaymentPage(url: string) {
 }
 
 /** The provider is away for the next few requests (the SDK's own retries included). */
-const providerAway = () => money.standIn.control.failNextRequests(3, 503);
+/**
+ * The provider refuses the next page expiry: its three tries (the SDK's two retries) answer 503. Only expiry
+ * requests count, so the money worker's own calls in the meantime neither use up the failures nor fail.
+ */
+const expiryRefused = () => money.standIn.control.failNextRequests(3, 503, '/expire');
 
 /** Posts one stored event to the app's webhook again, freshly signed, as a provider's repeat delivery does. */
 async function redeliver(event: unknown) {
@@ -131,7 +135,7 @@ describe('open payment pages close when the job no longer needs the payment', ()
   it('when the provider is away at the cancel, then the page is expired later by the task runner, once it is back', async () => {
     const { job, builder } = await awardedJob(32_000);
     const { sessionId } = await openPaymentPage((await builder.post(`/api/jobs/${job.id}/checkout`)).body.url);
-    await providerAway();
+    await expiryRefused();
     expect((await builder.post(`/api/jobs/${job.id}/cancel`)).status).toBe(200);
     expect((await money.stripe.checkout.sessions.retrieve(sessionId)).status).toBe('open');
 
@@ -145,7 +149,7 @@ describe('a payment that still arrives for a job that cannot take it is refunded
   it('when the builder pays on a page left open after cancelling, then one full refund, a balanced ledger, the job stays cancelled and both sides are told', async () => {
     const { job, builder, builderUser, shopUser } = await awardedJob(45_500);
     const { sessionId, pay } = await openPaymentPage((await builder.post(`/api/jobs/${job.id}/checkout`)).body.url);
-    await providerAway(); // the expiry does not land: the page stays open
+    await expiryRefused(); // the expiry does not land: the page stays open
     expect((await builder.post(`/api/jobs/${job.id}/cancel`)).status).toBe(200);
     expect((await pay()).status).toBe(303);
 
@@ -190,7 +194,7 @@ describe('a payment that still arrives for a job that cannot take it is refunded
   it('when the paid events arrive at once, several times each, before anything was applied, then still one refund', async () => {
     const { job, builder } = await awardedJob(27_300);
     const { sessionId, pay } = await openPaymentPage((await builder.post(`/api/jobs/${job.id}/checkout`)).body.url);
-    await providerAway();
+    await expiryRefused();
     expect((await builder.post(`/api/jobs/${job.id}/cancel`)).status).toBe(200);
     await money.standIn.control.hold();
     expect((await pay()).status).toBe(303);
@@ -214,7 +218,7 @@ describe('a payment that still arrives for a job that cannot take it is refunded
   it('when the provider refuses the refund at first, then the money worker makes it later with the same key, once', async () => {
     const { job, builder } = await awardedJob(19_900);
     const { sessionId, pay } = await openPaymentPage((await builder.post(`/api/jobs/${job.id}/checkout`)).body.url);
-    await providerAway();
+    await expiryRefused();
     expect((await builder.post(`/api/jobs/${job.id}/cancel`)).status).toBe(200);
     await money.standIn.control.hold(); // the app hears of the payment only below
     expect((await pay()).status).toBe(303);
@@ -304,7 +308,7 @@ describe('change orders paid when they can no longer be used', () => {
 
   it('when a change order is paid after its job was cancelled and refunded, then it is refunded once too and the ledger adds up', async () => {
     const { job, builder, builderUser, shopUser, page } = await changeOrderPageOpen(11_000);
-    await providerAway(); // the expiry goes first and does not land; the refund of the job's payment then goes through
+    await expiryRefused(); // the expiry goes first and does not land; the refund of the job's payment then goes through
     expect((await builder.post(`/api/jobs/${job.id}/cancel-and-refund`)).status).toBe(200);
     await money.until('job refunded', async () => (await jobStatus(job.id)) === 'cancelled');
     expect((await page.pay()).status).toBe(303);
@@ -326,7 +330,7 @@ describe('change orders paid when they can no longer be used', () => {
   it('when a change order is paid after the job’s money was paid out, then it is refunded and the payout is not touched', async () => {
     const { job, builderUser, shopUser, page } = await changeOrderPageOpen(4_400);
     const admin = await signedIn(money.server.app, await createUser(money.db, { role: 'admin' }));
-    await providerAway(); // the expiry goes first and does not land; the payout then goes through
+    await expiryRefused(); // the expiry goes first and does not land; the payout then goes through
     expect((await admin.post(`/api/admin/jobs/${job.id}/release`)).status).toBe(200);
     await money.until('paid out', async () => (await jobStatus(job.id)) === 'completed');
     expect((await page.pay()).status).toBe(303);
@@ -345,7 +349,7 @@ describe('change orders paid when they can no longer be used', () => {
 
   it('when the builder declines an agreed change order and then pays its still-open page, then that payment is refunded and the job goes on', async () => {
     const { job, builder, builderUser, shopUser, changeOrderId, page } = await changeOrderPageOpen(7_500);
-    await providerAway();
+    await expiryRefused();
     const declined = await builder.post(`/api/change-orders/${changeOrderId}/decline`);
     expect(declined.status).toBe(200);
     expect(declined.body.changeOrder.status).toBe('declined');

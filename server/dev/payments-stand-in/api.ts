@@ -176,7 +176,7 @@ export function apiRouter(engine: Engine, sender: WebhookSender, faults: ApiFaul
         error: { type: 'authentication_error', message: `Invalid API Key provided: ${key.slice(0, 8)}${'*'.repeat(8)}${key.slice(-4)}` },
       });
     }
-    if (faults.failNext > 0) {
+    if (faults.failNext > 0 && (!faults.failPath || req.path.includes(faults.failPath))) {
       faults.failNext -= 1;
       return send(faults.failStatus, {
         error: { type: faults.failStatus === 429 ? 'rate_limit_error' : 'api_error', message: 'A failure the test controls asked for.' },

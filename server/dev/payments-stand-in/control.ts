@@ -32,8 +32,13 @@ export interface PaymentsControl {
   completeOnboarding(accountId: string): Promise<void>;
   /** Makes pending balance available now. */
   settleFunds(): Promise<void>;
-  /** The next `count` API requests answer with `status` (500 by default) and change nothing. */
-  failNextRequests(count: number, status?: number): Promise<void>;
+  /**
+   * The next `count` API requests answer with `status` (500 by default) and
+   * change nothing; with `path`, only requests whose path contains it count
+   * and fail (others go through), so a test can refuse one kind of call while
+   * the app's background work makes others.
+   */
+  failNextRequests(count: number, status?: number, path?: string): Promise<void>;
   /** Every API request waits this long before it runs (0 to stop). */
   setLatency(ms: number): void;
 }
@@ -41,6 +46,8 @@ export interface PaymentsControl {
 export interface ApiFaults {
   failNext: number;
   failStatus: number;
+  /** Only requests whose path contains this fail (all when unset). */
+  failPath?: string;
   latencyMs: number;
 }
 
@@ -108,9 +115,10 @@ export function createControl(engine: Engine, sender: WebhookSender, faults: Api
       engine.settleFunds();
       await saveAndKick();
     },
-    async failNextRequests(count, status = 500) {
+    async failNextRequests(count, status = 500, path) {
       faults.failNext = count;
       faults.failStatus = status;
+      faults.failPath = path || undefined;
     },
     setLatency(ms) {
       faults.latencyMs = Math.max(0, ms);
@@ -193,7 +201,8 @@ export function controlRouter(control: PaymentsControl, isAuthorised: (req: Requ
     ok(res);
   });
   router.post('/fail-next', async (req, res) => {
-    await control.failNextRequests(num(body(req).count, 1), num(body(req).status, 500));
+    const path = body(req).path;
+    await control.failNextRequests(num(body(req).count, 1), num(body(req).status, 500), typeof path === 'string' ? path : undefined);
     ok(res);
   });
   router.post('/latency', (req, res) => {
