@@ -3,6 +3,7 @@ import { adminRoutes } from './modules/admin/admin.routes';
 import { authRoutes } from './modules/auth/auth.routes';
 import { bidsRoutes } from './modules/bids/bids.routes';
 import { calculationsRoutes } from './modules/calculations/calculations.routes';
+import { catalogueRoutes } from './modules/catalogue/catalogue.routes';
 import { disputesRoutes } from './modules/disputes/disputes.routes';
 import { healthRoutes } from './modules/health/health.routes';
 import { inspectionsRoutes } from './modules/inspections/inspections.routes';
@@ -24,6 +25,7 @@ export const routeModules = {
   paymentsWebhook: paymentsWebhookRoutes,
   auth: authRoutes,
   calculations: calculationsRoutes,
+  catalogue: catalogueRoutes,
   shops: shopsRoutes,
   jobs: jobsRoutes,
   bids: bidsRoutes,

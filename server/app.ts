@@ -136,6 +136,7 @@ export function createApp(deps: AppDeps) {
   });
 
   mount(routeModules.calculations, { db, perMinute: config.rateLimits.calculationsPerMinute });
+  mount(routeModules.catalogue, {});
   const storage = deps.storage ?? new LocalDiskStorage(config.uploadsDir);
   // One count of photo uploads per person, whichever route they go to.
   const uploadLimit = uploadLimiter(db, config.rateLimits.uploadsPer10Min);
