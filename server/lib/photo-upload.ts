@@ -23,7 +23,7 @@ export function uploadLimiter(db: Database, perTenMinutes: number): RequestHandl
     windowMs: UPLOAD_WINDOW_MS,
     limit: perTenMinutes,
     message: 'You are uploading photos too fast. Wait a few minutes and try again.',
-    // Behind requireUser/requireRole, so there is always a person to count.
+    // Behind the route's access guard, so there is always a person to count.
     keyGenerator: (req) => req.user!.id,
   });
 }

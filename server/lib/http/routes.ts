@@ -2,7 +2,8 @@ import type { Request, RequestHandler, Response, Router } from 'express';
 import { isDeepStrictEqual } from 'node:util';
 import type { z } from 'zod';
 import type { Role } from '../../../shared/schemas/auth';
-import { AppError, forbidden, unauthorized } from '../errors';
+import { requireRole, requireUser } from '../auth/guards';
+import { AppError } from '../errors';
 
 /**
  * Routes as data. Each API route is declared once, in its module, as a
@@ -157,16 +158,11 @@ export interface MountOptions {
   csrf?: RequestHandler;
 }
 
+/** The guard of a route's access, from server/lib/auth/guards.ts (401 signed out, 403 for another role). */
 function accessGuard(access: Access): RequestHandler[] {
   if (access === 'public') return [];
   const allowed = rolesOf(access);
-  return [
-    (req, _res, next) => {
-      if (!req.user) return next(unauthorized());
-      if (allowed && !allowed.includes(req.user.role)) return next(forbidden(`This is for ${allowed.map((r) => `${r}s`).join(' and ')} only.`));
-      next();
-    },
-  ];
+  return [allowed ? requireRole(...allowed) : requireUser];
 }
 
 /**
