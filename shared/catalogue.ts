@@ -41,6 +41,68 @@ export function findOperation(code: string): Operation | undefined {
 }
 
 /**
+ * What a builder sends the shop. A rotating assembly is the crankshaft with
+ * its rods and pistons, sent together to be balanced.
+ */
+export const partsSent = ['block', 'heads', 'crankshaft', 'rods', 'pistons', 'rotating-assembly'] as const;
+export type PartSent = (typeof partsSent)[number];
+
+export const PART_SENT_WORDS: Record<PartSent, string> = {
+  block: 'Block',
+  heads: 'Cylinder heads',
+  crankshaft: 'Crankshaft',
+  rods: 'Connecting rods',
+  pistons: 'Pistons',
+  'rotating-assembly': 'Rotating assembly (crankshaft, rods and pistons)',
+};
+
+/** Work on a cylinder bore: these need the bore specification (stock bore, stroke, finished size, pistons). */
+export const boreOperationCodes: readonly OperationCode[] = ['bore', 'hone', 'plateau-hone', 'torque-plate-hone', 'sleeve'];
+
+/** Cleaning and crack testing apply to whatever is sent. */
+const anyPart: ReadonlySet<string> = new Set(['clean', 'crack-test']);
+
+/**
+ * Whether the parts sent include what an operation works on: a block for
+ * block work, heads for head work, a crankshaft (alone or in an assembly) for
+ * a grind, and a whole rotating assembly for a balance.
+ */
+export function partsAllow(code: string, parts: readonly PartSent[]): boolean {
+  if (anyPart.has(code)) return parts.length > 0;
+  const has = (part: PartSent) => parts.includes(part);
+  const assembly = has('rotating-assembly');
+  switch (findOperation(code)?.part) {
+    case 'block':
+      return has('block');
+    case 'head':
+      return has('heads');
+    case 'crank':
+      return has('crankshaft') || assembly;
+    case 'rotating':
+      return assembly || (has('crankshaft') && has('rods') && has('pistons'));
+    default:
+      return false;
+  }
+}
+
+/** What to send for an operation, in words, for the message when it is missing. */
+export function partsNeededWords(code: string): string {
+  switch (findOperation(code)?.part) {
+    case 'head':
+      return 'the cylinder heads';
+    case 'crank':
+      return 'the crankshaft';
+    case 'rotating':
+      return 'the rotating assembly';
+    default:
+      return anyPart.has(code) ? 'a part' : 'the block';
+  }
+}
+
+/** Jobs posted before the parts were named sent a block. */
+export const partsOfJob = (spec: { parts?: readonly PartSent[] }): readonly PartSent[] => spec.parts ?? ['block'];
+
+/**
  * How many units of an operation a job needs: the cylinder count for work
  * priced per cylinder, the number of parts (heads, say) for per-part work,
  * and one for per-job work.

@@ -99,13 +99,13 @@ function recordFor(
   const inch = job.unit === 'in';
   const step = inch ? 0.0001 : 0.001;
   const temperatureC = 20 + (seed % 4);
-  const growth = (material: JobInput['blockMaterial']) => 1 + EXPANSION_COEFFICIENTS[material].alpha * (temperatureC - 20);
+  const growth = (material: NonNullable<JobInput['blockMaterial']>) => 1 + EXPANSION_COEFFICIENTS[material].alpha * (temperatureC - 20);
   return {
     // The inch shops read their thermometer in °F (exact: 68 °F = 20 °C, 1.8 °F per kelvin).
     conditions: inch
       ? { unit: job.unit, gaugeResolution: step, temperatureF: Number((temperatureC * 1.8 + 32).toFixed(1)), torquePlate: true }
       : { unit: job.unit, gaugeResolution: step, temperatureC, torquePlate: false },
-    cylinders: readingsFor({ cylinders: job.cylinders, bore: job.bore, piston: job.piston, step, boreGrowth: growth(job.blockMaterial), pistonGrowth: growth(PISTON_MATERIAL) }, seed, badTaper),
+    cylinders: readingsFor({ cylinders: job.cylinders, bore: job.bore, piston: job.piston, step, boreGrowth: growth(job.blockMaterial ?? 'cast-iron'), pistonGrowth: growth(PISTON_MATERIAL) }, seed, badTaper),
     deck: { readings: inch ? [0.0005, 0.001, 0.0015, 0.001, 0.0005] : [0.01, 0.02, 0.015, 0.01], raUm: 1.1 },
     finish: { mode: 'values', raUm: 0.42, rkUm: 0.55, rpkUm: 0.14, rvkUm: 1.35, mr1: 8, mr2: 86 },
     crosshatch: { mode: 'measured', includedAngleDeg: 44 + (seed % 4) },

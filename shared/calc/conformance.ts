@@ -41,7 +41,7 @@ export function checksNotConforming(results: InspectionResults): string[] {
   };
   for (const check of results.checks as JudgedCheck[]) if (!checkConforms(check)) add(check.what);
   for (const item of (results as JudgedResults).notJudged ?? []) add(`${item.what} (not judged)`);
-  results.bores.cylinders.forEach((cylinder, index) => {
+  results.bores?.cylinders.forEach((cylinder, index) => {
     // A size with no tolerance is reported, not a limit; a clearance limit with no piston measured is a limit left unjudged.
     for (const limit of (cylinder.notChecked ?? []).filter((l) => l !== 'targetBore')) add(`cylinder ${index + 1} ${BORE_LIMIT_WORDS[limit] ?? limit} (not judged)`);
     if (!cylinder.pass && !names.some((name) => name.startsWith(`cylinder ${index + 1} `))) add(`cylinder ${index + 1}`);
@@ -53,5 +53,5 @@ export function checksNotConforming(results: InspectionResults): string[] {
 export function recordConforms(results: InspectionResults): boolean {
   const overall = (results as JudgedResults).verdict;
   if (overall !== undefined && !(typeof overall === 'string' && CONFORMING_VERDICTS.has(overall))) return false;
-  return results.pass === true && results.bores.pass === true && checksNotConforming(results).length === 0;
+  return results.pass === true && (results.bores === undefined || results.bores.pass === true) && checksNotConforming(results).length === 0;
 }

@@ -19,14 +19,18 @@
  *    into `notJudged`, and the record is then "not fully judged", never a pass.
  */
 import type { CheckVerdict, CorrectedCylinder, InspectionInput, InspectionResults, LimitCheck, NotJudged, RecordVerdict } from '../schemas/inspection';
+import type { SectionFigure } from '../schemas/inspection-sections';
 import type { JobInput } from '../schemas/jobs';
 import { DEPTHS, inspectBores, type BoreSpec, type CylinderReadings } from './bore';
 import { crosshatchAngle } from './crosshatch';
 import { deckFlatness } from './deck';
 import { DECISION_RULE_WORDS, judgeMax, judgeMin, judgeRange, verdictRank, type DecisionRule, type Verdict } from './decision-rule';
 import { roughness } from './roughness';
+import { formatFineLength as fmtFine, formatLength as fmt, judgeOwnSections, sectionResults } from './record-sections';
 import { EXPANSION_COEFFICIENTS, EXPANSION_SOURCE, PISTON_MATERIAL, REFERENCE_TEMPERATURE_C, fahrenheitToCelsius, toReferenceTemperature } from './thermal';
 import { convertLength, type LengthUnit } from './units';
+import { boreOperationCodes } from '../catalogue';
+import { limitFor } from '../operation-limits';
 
 type JobSpecPart = Pick<
   JobInput,
@@ -48,7 +52,8 @@ type JobSpecPart = Pick<
   | 'crosshatchMinDeg'
   | 'crosshatchMaxDeg'
   | 'decisionRule'
->;
+> &
+  Partial<Pick<JobInput, 'limits' | 'operations'>>;
 
 const SLACK = 1e-9;
 
@@ -96,8 +101,6 @@ export function sizeDisagreement(
   return { worksTo: 'target', target: targetBore, fromPistonMin, fromPistonMax };
 }
 
-const fmt = (value: number, unit: LengthUnit) => `${value.toFixed(unit === 'in' ? 4 : 3)} ${unit}`;
-const fmtFine = (value: number, unit: LengthUnit) => `${value.toFixed(unit === 'in' ? 5 : 4)} ${unit}`;
 
 /** The measured temperature in °C, whichever scale it was entered in. */
 export function measuredCelsius(conditions: InspectionInput['conditions']): { celsius: number; entered: 'C' | 'F' } {
@@ -117,14 +120,17 @@ export function evaluateInspection(input: InspectionInput, spec: JobSpecPart): I
   const notJudged: NotJudged[] = [];
   const statements: string[] = [];
   const add = (check: Omit<LimitCheck, 'pass'> & { verdict: Verdict }) => checks.push({ ...check, pass: check.verdict === 'conforms' });
+  /** Everything below that reads a bore or judges a bore limit is tagged with its part of the record. */
+  const tagged = (section: string) => (check: Omit<LimitCheck, 'pass'> & { verdict: Verdict }) => add({ section, ...check });
+  const material = spec.blockMaterial ?? 'cast-iron';
 
   // 1. Temperature: every reading to 20 °C.
   const { celsius, entered } = measuredCelsius(input.conditions);
-  const block = EXPANSION_COEFFICIENTS[spec.blockMaterial];
+  const block = EXPANSION_COEFFICIENTS[material];
   const pistonCoefficient = EXPANSION_COEFFICIENTS[PISTON_MATERIAL];
   const boreAt20 = (value: number) => toReferenceTemperature(value, block.alpha, celsius);
   const jobPiston = spec.pistonDiameter !== undefined ? convertLength(spec.pistonDiameter, spec.unit, unit) : undefined;
-  const corrected: CorrectedCylinder[] = input.cylinders.map((c) => {
+  const corrected: CorrectedCylinder[] = (input.cylinders ?? []).map((c) => {
     const out: CorrectedCylinder = {
       top: { thrust: boreAt20(c.top.thrust), axial: boreAt20(c.top.axial) },
       middle: { thrust: boreAt20(c.middle.thrust), axial: boreAt20(c.middle.axial) },
@@ -144,11 +150,15 @@ export function evaluateInspection(input: InspectionInput, spec: JobSpecPart): I
   statements.push(
     Math.abs(celsius - REFERENCE_TEMPERATURE_C) < 1e-12
       ? `Measured at ${measuredAt}, the reference temperature of ISO 1: no correction needed.`
-      : `Measured at ${measuredAt}; every reading is corrected to 20 °C (ISO 1) with L20 = Lt / (1 + α·(t − 20)): bores with ${block.words}, pistons with ${pistonCoefficient.words}. Coefficients: ${EXPANSION_SOURCE}. Clearances are judged at 20 °C.`,
+      : input.cylinders
+        ? `Measured at ${measuredAt}; every reading is corrected to 20 °C (ISO 1) with L20 = Lt / (1 + α·(t − 20)): bores with ${block.words}, pistons with ${pistonCoefficient.words}. Coefficients: ${EXPANSION_SOURCE}. Clearances are judged at 20 °C.`
+        : `Measured at ${measuredAt}; every diameter is corrected to 20 °C (ISO 1) with L20 = Lt / (1 + α·(t − 20)). Coefficients: ${EXPANSION_SOURCE}.`,
   );
 
   const limits = boreSpecFor(spec, unit);
-  const bores = inspectBores({ cylinders: corrected as CylinderReadings[], spec: { targetBore: limits.targetBore } });
+  const bores = input.cylinders ? inspectBores({ cylinders: corrected as CylinderReadings[], spec: { targetBore: limits.targetBore } }) : undefined;
+  const boreWork = (spec.operations ?? []).some((op) => boreOperationCodes.includes(op.code));
+  if (!input.cylinders && boreWork) notJudged.push({ section: 'bores', what: 'bore readings', why: 'the record has no bore grid' });
 
   // 2. Bore limits, per cylinder.
   const fromRecord = corrected.filter((c) => c.pistonSource === 'record').length;
@@ -169,7 +179,7 @@ export function evaluateInspection(input: InspectionInput, spec: JobSpecPart): I
 
   corrected.forEach((c, index) => {
     const n = index + 1;
-    const figures = bores.cylinders[index];
+    const figures = bores!.cylinders[index];
     if (limits.targetBore !== undefined && limits.targetTolerance !== undefined) {
       const min = limits.targetBore - limits.targetTolerance;
       const max = limits.targetBore + limits.targetTolerance;
@@ -184,7 +194,7 @@ export function evaluateInspection(input: InspectionInput, spec: JobSpecPart): I
           }
         }
       }
-      add({
+      tagged('bores')({
         what: `cylinder ${n} size`,
         limit: 'size',
         cylinder: n,
@@ -196,7 +206,7 @@ export function evaluateInspection(input: InspectionInput, spec: JobSpecPart): I
     }
     if (limits.clearanceMin !== undefined || limits.clearanceMax !== undefined) {
       if (c.piston === undefined) {
-        notJudged.push({ what: `cylinder ${n} piston clearance`, why: 'no piston size in the record and no piston diameter in the job' });
+        notJudged.push({ section: 'bores', what: `cylinder ${n} piston clearance`, why: 'no piston size in the record and no piston diameter in the job' });
       } else {
         const thrust = DEPTHS.map((depth) => ({ depth, value: c[depth].thrust }));
         const smallest = thrust.reduce((a, b) => (b.value < a.value ? b : a));
@@ -204,24 +214,24 @@ export function evaluateInspection(input: InspectionInput, spec: JobSpecPart): I
         const pistonWords = c.pistonSource === 'job' ? `the job’s piston diameter ${fmt(c.piston, unit)}` : `the measured piston, ${fmtFine(c.piston, unit)} at 20 °C`;
         if (limits.clearanceMin !== undefined) {
           const value = smallest.value - c.piston;
-          add({ what: `cylinder ${n} smallest piston clearance`, limit: 'clearanceMin', cylinder: n, value, allowed: `≥ ${fmt(limits.clearanceMin, unit)}`, verdict: judgeMin(value, limits.clearanceMin, rule, uncertainty), note: `${smallest.depth} thrust less ${pistonWords}` });
+          tagged('bores')({ what: `cylinder ${n} smallest piston clearance`, limit: 'clearanceMin', cylinder: n, value, allowed: `≥ ${fmt(limits.clearanceMin, unit)}`, verdict: judgeMin(value, limits.clearanceMin, rule, uncertainty), note: `${smallest.depth} thrust less ${pistonWords}` });
         }
         if (limits.clearanceMax !== undefined) {
           const value = largest.value - c.piston;
-          add({ what: `cylinder ${n} largest piston clearance`, limit: 'clearanceMax', cylinder: n, value, allowed: `≤ ${fmt(limits.clearanceMax, unit)}`, verdict: judgeMax(value, limits.clearanceMax, rule, uncertainty), note: `${largest.depth} thrust less ${pistonWords}` });
+          tagged('bores')({ what: `cylinder ${n} largest piston clearance`, limit: 'clearanceMax', cylinder: n, value, allowed: `≤ ${fmt(limits.clearanceMax, unit)}`, verdict: judgeMax(value, limits.clearanceMax, rule, uncertainty), note: `${largest.depth} thrust less ${pistonWords}` });
         }
       }
     }
     if (limits.maxTaper !== undefined) {
-      add({ what: `cylinder ${n} taper`, limit: 'maxTaper', cylinder: n, value: figures.taper, allowed: `≤ ${fmt(limits.maxTaper, unit)}`, verdict: judgeMax(figures.taper, limits.maxTaper, rule, uncertainty) });
+      tagged('bores')({ what: `cylinder ${n} taper`, limit: 'maxTaper', cylinder: n, value: figures.taper, allowed: `≤ ${fmt(limits.maxTaper, unit)}`, verdict: judgeMax(figures.taper, limits.maxTaper, rule, uncertainty) });
     }
     if (limits.maxOutOfRound !== undefined) {
-      add({ what: `cylinder ${n} out-of-round`, limit: 'maxOutOfRound', cylinder: n, value: figures.outOfRound, allowed: `≤ ${fmt(limits.maxOutOfRound, unit)}`, verdict: judgeMax(figures.outOfRound, limits.maxOutOfRound, rule, uncertainty) });
+      tagged('bores')({ what: `cylinder ${n} out-of-round`, limit: 'maxOutOfRound', cylinder: n, value: figures.outOfRound, allowed: `≤ ${fmt(limits.maxOutOfRound, unit)}`, verdict: judgeMax(figures.outOfRound, limits.maxOutOfRound, rule, uncertainty) });
     }
   });
 
   // The per-cylinder figures carry the same verdicts, so every screen that reads `bores` agrees with the checks.
-  bores.cylinders.forEach((figures, index) => {
+  bores?.cylinders.forEach((figures, index) => {
     const mine = checks.filter((check) => check.cylinder === index + 1);
     figures.failures = mine
       .filter((check) => check.verdict === 'fails')
@@ -233,28 +243,34 @@ export function evaluateInspection(input: InspectionInput, spec: JobSpecPart): I
     figures.notChecked = notJudged.some((item) => item.what === `cylinder ${index + 1} piston clearance`) ? ['clearanceMin', 'clearanceMax'].filter((l) => (l === 'clearanceMin' ? limits.clearanceMin : limits.clearanceMax) !== undefined) as Array<'clearanceMin' | 'clearanceMax'> : [];
     figures.pass = mine.every((check) => check.verdict === 'conforms') && figures.notChecked.length === 0;
   });
-  bores.pass = bores.cylinders.every((figures) => figures.pass);
+  if (bores) bores.pass = bores.cylinders.every((figures) => figures.pass);
 
-  // 3. Deck: feeler leaves, judged by simple acceptance (the bore gauge's uncertainty is not theirs).
+  // 3. Deck: feeler leaves and heights, judged by simple acceptance (the bore gauge's uncertainty is not theirs).
   let deck: InspectionResults['deck'];
-  if (input.deck) {
+  const deckAdd = tagged('deck');
+  const deckOrdered = (spec.operations ?? []).some((op) => op.code === 'deck');
+  const straightedge = [...(input.deck?.readings ?? []).map((value, i) => ({ position: `reading ${i + 1}`, value })), ...(input.deck?.straightedge ?? [])];
+  if (straightedge.length > 0) {
     deck = deckFlatness({
       unit,
-      readings: input.deck.readings,
-      material: spec.blockMaterial,
+      readings: straightedge.map((r) => r.value),
+      material,
       // Without the builder's own limit, the stricter multi-layer steel figure from the common-practice table applies.
       gasket: 'mls',
       shopLimit: spec.deckFlatnessMax !== undefined ? convertLength(spec.deckFlatnessMax, spec.unit, unit) : undefined,
     });
-    add({ what: 'deck out-of-flat', limit: 'deck', value: deck.outOfFlat, allowed: `≤ ${fmt(deck.limit, unit)}`, verdict: judgeMax(deck.outOfFlat, deck.limit, 'simple', 0) });
-    if (spec.deckRaMaxUm !== undefined) {
-      if (input.deck.raUm !== undefined) add({ what: 'deck Ra', limit: 'deckRa', value: input.deck.raUm, allowed: `≤ ${spec.deckRaMaxUm} µm`, verdict: judgeMax(input.deck.raUm, spec.deckRaMaxUm, 'simple', 0) });
-      else notJudged.push({ what: 'deck Ra', why: 'the record gives no deck finish' });
-    }
-  } else {
-    if (spec.deckFlatnessMax !== undefined) notJudged.push({ what: 'deck out-of-flat', why: 'the record has no straightedge readings' });
-    if (spec.deckRaMaxUm !== undefined) notJudged.push({ what: 'deck Ra', why: 'the record gives no deck finish' });
+    const worst = straightedge.reduce((a, b) => (b.value > a.value ? b : a));
+    deckAdd({ what: 'deck out-of-flat', limit: 'deck', value: deck.outOfFlat, allowed: `≤ ${fmt(deck.limit, unit)}`, verdict: judgeMax(deck.outOfFlat, deck.limit, 'simple', 0), note: input.deck?.straightedge ? `the largest straightedge reading, ${worst.position}` : undefined });
+  } else if (spec.deckFlatnessMax !== undefined || deckOrdered) {
+    notJudged.push({ section: 'deck', what: 'deck out-of-flat', why: 'the record has no straightedge readings' });
   }
+  if (spec.deckRaMaxUm !== undefined) {
+    if (input.deck?.raUm !== undefined) deckAdd({ what: 'deck Ra', limit: 'deckRa', value: input.deck.raUm, allowed: `≤ ${spec.deckRaMaxUm} µm`, verdict: judgeMax(input.deck.raUm, spec.deckRaMaxUm, 'simple', 0) });
+    else notJudged.push({ section: 'deck', what: 'deck Ra', why: 'the record gives no deck finish' });
+  }
+  const deckFigures: SectionFigure[] = deckOrdered ? judgeDeckHeights(input.deck?.heights, spec, unit, { add: deckAdd, notJudged: (item) => notJudged.push(item) }) : [];
+  if (deck) deckFigures.unshift({ label: 'Out-of-flat', value: deck.outOfFlat, unit });
+  if (input.deck?.raUm !== undefined) deckFigures.push({ label: 'Deck Ra', value: input.deck.raUm, unit: 'µm' });
 
   let finish: InspectionResults['finish'];
   if (input.finish?.mode === 'values') {
@@ -273,25 +289,33 @@ export function evaluateInspection(input: InspectionInput, spec: JobSpecPart): I
   ];
   for (const [what, value, max] of finishLimits) {
     if (max === undefined) continue;
-    if (value === undefined) notJudged.push({ what, why: finish ? `the record’s bore finish gives no ${what.slice(5)}` : 'the record has no bore finish' });
-    else add({ what, limit: 'finish', value, allowed: `≤ ${max} µm`, verdict: judgeMax(value, max, 'simple', 0) });
+    if (value === undefined) notJudged.push({ section: 'finish', what, why: finish ? `the record’s bore finish gives no ${what.slice(5)}` : 'the record has no bore finish' });
+    else add({ section: 'finish', what, limit: 'finish', value, allowed: `≤ ${max} µm`, verdict: judgeMax(value, max, 'simple', 0) });
   }
 
   let crosshatch: InspectionResults['crosshatch'];
   if (input.crosshatch?.mode === 'measured') {
     crosshatch = { includedAngleDeg: input.crosshatch.includedAngleDeg };
-  } else if (input.crosshatch?.mode === 'settings') {
+  } else if (input.crosshatch?.mode === 'settings' && bores) {
     const bore = bores.cylinders.reduce((sum, c) => sum + c.mean, 0) / bores.cylinders.length;
     crosshatch = { includedAngleDeg: crosshatchAngle({ bore, spindleRpm: input.crosshatch.spindleRpm, strokeLength: input.crosshatch.strokeLength, cyclesPerMinute: input.crosshatch.cyclesPerMinute }).includedAngleDeg };
   }
   if (spec.crosshatchMinDeg !== undefined || spec.crosshatchMaxDeg !== undefined) {
-    if (!crosshatch) notJudged.push({ what: 'crosshatch included angle', why: 'the record has no crosshatch angle' });
+    if (!crosshatch) notJudged.push({ section: 'crosshatch', what: 'crosshatch included angle', why: 'the record has no crosshatch angle' });
     else {
       const min = spec.crosshatchMinDeg ?? 0;
       const max = spec.crosshatchMaxDeg ?? 180;
-      add({ what: 'crosshatch included angle', limit: 'crosshatch', value: crosshatch.includedAngleDeg, allowed: `${min}° – ${max}°`, verdict: judgeRange(crosshatch.includedAngleDeg, min, max, 'simple', 0) });
+      add({ section: 'crosshatch', what: 'crosshatch included angle', limit: 'crosshatch', value: crosshatch.includedAngleDeg, allowed: `${min}° – ${max}°`, verdict: judgeRange(crosshatch.includedAngleDeg, min, max, 'simple', 0) });
     }
   }
+
+  // 4. The other kinds of work, each from its own section of the record.
+  const sectionSpec = { unit: spec.unit, blockMaterial: spec.blockMaterial, limits: spec.limits, operations: spec.operations ?? [] };
+  const figures = judgeOwnSections(input.sections, { unit, rule, uncertainty, celsius, spec: sectionSpec, add, notJudged: (item) => notJudged.push(item) });
+  figures.set('deck', deckFigures);
+  const stones = input.sections?.hone?.stones;
+  for (const code of ['hone', 'plateau-hone', 'torque-plate-hone'] as const) figures.set(code, [{ label: 'Hone stones', value: stones ?? 'not given' }]);
+  const sections = sectionResults(sectionSpec, checks, notJudged, figures);
 
   // The rule, in words the record and the certificate print.
   const words = DECISION_RULE_WORDS[rule];
@@ -300,7 +324,7 @@ export function evaluateInspection(input: InspectionInput, spec: JobSpecPart): I
       ? `expanded uncertainty U = ${fmtFine(uncertainty, unit)}, as the shop stated it`
       : `U = ${fmtFine(uncertainty, unit)}, the gauge resolution: a lower bound on the uncertainty, not the whole of it`;
   statements.unshift(
-    `Decision rule: ${words.name}. ${words.words} Bore readings: ${uncertaintyWords}. ${rule === 'guarded' ? 'The deck, finish and crosshatch carry no stated uncertainty and are judged by simple acceptance.' : ''}`.trim(),
+    `Decision rule: ${words.name}. ${words.words} Bore and other diameter readings: ${uncertaintyWords}. ${rule === 'guarded' ? 'Feeler, height, finish, angle, mass and unbalance readings carry no stated uncertainty and are judged by simple acceptance.' : ''}`.trim(),
   );
 
   const verdicts = checks.map((check) => check.verdict as CheckVerdict);
@@ -308,6 +332,7 @@ export function evaluateInspection(input: InspectionInput, spec: JobSpecPart): I
   return {
     bores,
     deck,
+    sections,
     finish,
     crosshatch,
     checks,
@@ -319,11 +344,57 @@ export function evaluateInspection(input: InspectionInput, spec: JobSpecPart): I
       measuredC: celsius,
       enteredUnit: entered,
       referenceC: REFERENCE_TEMPERATURE_C,
-      block: { material: spec.blockMaterial, alpha: block.alpha, words: block.words },
+      block: { material, alpha: block.alpha, words: block.words },
       piston: { material: PISTON_MATERIAL, alpha: pistonCoefficient.alpha, words: pistonCoefficient.words },
       source: EXPANSION_SOURCE,
     },
     corrected,
     statements,
   };
+}
+
+/**
+ * Deck height at the four corners (crank centreline to deck): the difference
+ * front to rear on each side and side to side (bank to bank on a V) at each
+ * end, and each corner against the job's target height when it gives one.
+ */
+function judgeDeckHeights(
+  heights: NonNullable<InspectionInput['deck']>['heights'],
+  spec: JobSpecPart,
+  unit: LengthUnit,
+  out: { add: (check: Omit<LimitCheck, 'pass'> & { verdict: Verdict }) => void; notJudged: (item: NotJudged) => void },
+) {
+  const target = limitFor(spec.limits, 'deck', 'heightTarget', spec.unit);
+  if (!heights) {
+    if (target || spec.limits?.deck?.maxEndToEnd !== undefined || spec.limits?.deck?.maxBankToBank !== undefined) {
+      out.notJudged({ section: 'deck', what: 'deck height', why: 'the record gives no deck heights' });
+    }
+    return [];
+  }
+  const inUnit = (found: { value: number; isDefault: boolean; source?: string }) => ({ value: convertLength(found.value, spec.unit, unit), note: found.isDefault ? `the default, ${found.source}` : undefined });
+  const { frontLeft, frontRight, rearLeft, rearRight } = heights;
+  const endToEnd = Math.max(Math.abs(frontLeft - rearLeft), Math.abs(frontRight - rearRight));
+  const bankToBank = Math.max(Math.abs(frontLeft - frontRight), Math.abs(rearLeft - rearRight));
+  const e2e = inUnit(limitFor(spec.limits, 'deck', 'maxEndToEnd', spec.unit)!);
+  const b2b = inUnit(limitFor(spec.limits, 'deck', 'maxBankToBank', spec.unit)!);
+  out.add({ what: 'deck height, front to rear', value: endToEnd, allowed: `≤ ${fmt(e2e.value, unit)}`, verdict: judgeMax(endToEnd, e2e.value, 'simple', 0), note: e2e.note });
+  out.add({ what: 'deck height, side to side', value: bankToBank, allowed: `≤ ${fmt(b2b.value, unit)}`, verdict: judgeMax(bankToBank, b2b.value, 'simple', 0), note: b2b.note });
+  if (target) {
+    const height = convertLength(target.value, spec.unit, unit);
+    const tolerance = inUnit(limitFor(spec.limits, 'deck', 'heightTolerance', spec.unit)!);
+    const corners = [
+      { where: 'front left', value: frontLeft },
+      { where: 'front right', value: frontRight },
+      { where: 'rear left', value: rearLeft },
+      { where: 'rear right', value: rearRight },
+    ];
+    const worst = corners.reduce((a, b) => (Math.abs(b.value - height) > Math.abs(a.value - height) ? b : a));
+    out.add({ what: 'deck height', value: worst.value, allowed: `${fmt(height, unit)} ± ${fmtFine(tolerance.value, unit)}`, verdict: judgeRange(worst.value, height - tolerance.value, height + tolerance.value, 'simple', 0), note: [`each corner judged; the farthest from the target is ${worst.where}`, tolerance.note].filter(Boolean).join('; ') });
+  }
+  return [
+    { label: 'Deck height, front left / front right', value: `${fmt(frontLeft, unit)} / ${fmt(frontRight, unit)}` },
+    { label: 'Deck height, rear left / rear right', value: `${fmt(rearLeft, unit)} / ${fmt(rearRight, unit)}` },
+    { label: 'Front-to-rear difference', value: Number(endToEnd.toFixed(6)), unit },
+    { label: 'Side-to-side difference', value: Number(bankToBank.toFixed(6)), unit },
+  ];
 }

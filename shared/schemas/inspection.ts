@@ -8,6 +8,7 @@ import {
   refineTraceForFilter,
   roughnessFilterSchema,
 } from './calculations';
+import { deckSectionSchema, inspectionSectionsSchema, sectionResultSchema } from './inspection-sections';
 
 /**
  * What the shop measured and how. Computed figures are never sent: the server works them out again.
@@ -22,7 +23,8 @@ export const inspectionConditionsSchema = z
     uncertainty: z.number({ error: 'The uncertainty must be a number.' }).positive('The uncertainty must be greater than zero.').max(1, 'That uncertainty is too large.').optional(),
     temperatureC: z.number({ error: 'Enter the temperature at measurement.' }).min(-20, 'Below −20 °C? Check the figure.').max(60, 'Above 60 °C? Check the figure.').optional(),
     temperatureF: z.number({ error: 'Enter the temperature at measurement.' }).min(-4, 'Below −4 °F? Check the figure.').max(140, 'Above 140 °F? Check the figure.').optional(),
-    torquePlate: z.boolean({ error: 'Say whether a torque plate was fitted.' }),
+    /** Whether a torque plate was fitted while the bores were measured; left out for work without bores. */
+    torquePlate: z.boolean({ error: 'Say whether a torque plate was fitted.' }).optional(),
   })
   .superRefine((c, ctx) => {
     if (c.temperatureC === undefined && c.temperatureF === undefined) {
@@ -65,13 +67,11 @@ export const crosshatchInputSchema = z.discriminatedUnion('mode', [
 
 export const inspectionInputSchema = z.object({
   conditions: inspectionConditionsSchema,
-  cylinders: z.array(cylinderReadingsSchema, { error: 'Enter the bore readings.' }).min(1).max(16),
-  deck: z
-    .object({
-      readings: z.array(z.number().min(0, 'A feeler reading cannot be negative.').max(1)).min(1, 'Enter at least one straightedge reading.').max(40),
-      raUm: z.number().positive().max(100).optional(),
-    })
-    .optional(),
+  /** The bore grid: needed when the job orders work on the bores. */
+  cylinders: z.array(cylinderReadingsSchema, { error: 'Enter the bore readings.' }).min(1).max(16).optional(),
+  deck: deckSectionSchema.optional(),
+  /** The other kinds of work's sections (shared/schemas/inspection-sections.ts). */
+  sections: inspectionSectionsSchema.optional(),
   finish: finishInputSchema.optional(),
   crosshatch: crosshatchInputSchema.optional(),
   signedOffBy: z.string({ error: 'Sign the record with your name.' }).trim().min(2, 'Sign the record with your name.').max(80),
@@ -121,11 +121,15 @@ export const limitCheckSchema = z.object({
   cylinder: z.number().int().optional(),
   /** Where the value came from, in words (the worst reading's place, the piston used, a default limit). */
   note: z.string().optional(),
+  /** The value in words where it is not a number (a crack test's result); `value` is then 0. */
+  valueText: z.string().optional(),
+  /** Which part of the record: an operation code ('line-hone', 'deck', …) or 'bores', 'finish', 'crosshatch' for the bore grid's shared checks. Absent on records stored before sections. */
+  section: z.string().optional(),
 });
 export type LimitCheck = z.infer<typeof limitCheckSchema>;
 
 /** A limit the job sets that the record gave nothing to judge against. */
-export const notJudgedSchema = z.object({ what: z.string(), why: z.string() });
+export const notJudgedSchema = z.object({ what: z.string(), why: z.string(), section: z.string().optional() });
 export type NotJudged = z.infer<typeof notJudgedSchema>;
 
 const directionPairSchema = z.object({ thrust: z.number(), axial: z.number() });
@@ -144,10 +148,12 @@ export type CorrectedCylinder = z.infer<typeof correctedCylinderSchema>;
 const expansionSchema = z.object({ material: z.enum(['cast-iron', 'aluminium']), alpha: z.number(), words: z.string() });
 
 export const inspectionResultsSchema = z.object({
-  /** Bore figures worked out from the readings corrected to 20 °C (records stored before the correction: from the raw readings). */
-  bores: boreInspectionAnswerSchema.omit({ unit: true }),
+  /** Bore figures worked out from the readings corrected to 20 °C (records stored before the correction: from the raw readings); absent when the record has no bore grid. */
+  bores: boreInspectionAnswerSchema.omit({ unit: true }).optional(),
   /** The deck calculation's answer in the record's unit; `limitSource` is read as text, as records have always stored it. */
   deck: z.object({ outOfFlat: z.number(), limit: z.number(), pass: z.boolean(), limitSource: z.string() }).optional(),
+  /** One per operation the job orders, in the catalogue's order; absent on records stored before sections. */
+  sections: z.array(sectionResultSchema).optional(),
   /** `filter`: what was applied to a trace (absent for entered values and for results stored before the choice existed). */
   finish: z
     .object({

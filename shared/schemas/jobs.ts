@@ -1,4 +1,6 @@
 import { z } from 'zod';
+import { boreOperationCodes, findOperation, partsAllow, partsNeededWords, partsOfJob, partsSent } from '../catalogue';
+import { BALANCE_GRADE_CHOICES, limitGroupOperation, limitGroups, operationLimitFields, type LimitField, type OperationLimits } from '../operation-limits';
 import { isoDateSchema, operationCodeSchema, queryInt, regionSchema, uuidSchema } from './common';
 import { photoFileParamsSchema } from './photos';
 
@@ -44,6 +46,39 @@ const optionalNonNegative = (label: string, max = 10_000) =>
     .max(max, `${label} must be at most ${max}.`)
     .optional();
 
+/** One limit's number, by its kind: lengths and finishes not negative, a speed in whole rev/min, a grade from the standard's list. */
+function limitNumberSchema(field: LimitField) {
+  const number = z.number({ error: `${field.label} must be a number.` });
+  switch (field.kind) {
+    case 'grade':
+      return number.refine((g) => (BALANCE_GRADE_CHOICES as readonly number[]).includes(g), `Choose a grade from the list: G ${BALANCE_GRADE_CHOICES.join(', G ')}.`).optional();
+    case 'speed':
+      return number.int('Use whole rev/min.').positive(`${field.label} must be greater than zero.`).max(30_000, `${field.label} must be at most 30,000.`).optional();
+    case 'roughness':
+      return number.positive(`${field.label} must be greater than zero.`).max(100, `${field.label} must be at most 100.`).optional();
+    case 'force':
+      return number.positive(`${field.label} must be greater than zero.`).max(5_000, `${field.label} must be at most 5,000.`).optional();
+    default:
+      return number.min(0, `${field.label} cannot be negative.`).max(1_000, `${field.label} must be at most 1,000.`).optional();
+  }
+}
+
+/** The limits per kind of work, one object per group of `operationLimitFields`, every field optional. */
+export const operationLimitsSchema = z
+  .object(
+    Object.fromEntries(
+      limitGroups.map((group) => [
+        group,
+        z
+          .object(Object.fromEntries(Object.entries(operationLimitFields[group] as Record<string, LimitField>).map(([key, field]) => [key, limitNumberSchema(field)])))
+          .strict()
+          .optional(),
+      ]),
+    ),
+    { error: 'Send the limits as an object per kind of work.' },
+  )
+  .strict() as unknown as z.ZodType<OperationLimits>;
+
 export const jobOperationSchema = z.object({
   code: operationCodeSchema,
   quantity: z.number({ error: 'Enter how many.' }).int('Use a whole number.').min(1, 'At least one.').max(64, 'At most 64.'),
@@ -58,17 +93,26 @@ export const jobFieldsSchema = z.object({
   engineFamily: z.string({ error: 'Describe the engine.' }).trim().min(2, 'Describe the engine, e.g. “small-block V8, 1970s”.').max(120, 'Use at most 120 characters.'),
   layout: z.enum(engineLayouts, { error: 'Choose inline, V, flat or other.' }),
   cylinders: z.number({ error: 'Enter the number of cylinders.' }).int('Use a whole number.').min(1, 'At least one cylinder.').max(16, 'At most 16 cylinders.'),
-  blockMaterial: z.enum(blockMaterials, { error: 'Choose cast iron or aluminium.' }),
+  /** What the builder sends the shop; absent on jobs posted before parts were named (a block). */
+  parts: z
+    .array(z.enum(partsSent, { error: 'Choose what you send from the list.' }), { error: 'Say which parts you send.' })
+    .min(1, 'Say which parts you send.')
+    .max(partsSent.length)
+    .refine((parts) => new Set(parts).size === parts.length, 'Each part once, please.')
+    .optional(),
+  /** The block's material (or the heads' when only heads are sent); needed when a block or heads are sent. */
+  blockMaterial: z.enum(blockMaterials, { error: 'Choose cast iron or aluminium.' }).optional(),
   unit: z.enum(['in', 'mm'], { error: 'Choose inches or millimetres.' }),
-  stockBore: z.number({ error: 'Enter the stock bore.' }).positive('The stock bore must be greater than zero.').max(10_000),
-  stroke: z.number({ error: 'Enter the stroke.' }).positive('The stroke must be greater than zero.').max(10_000),
+  /** The bore specification (stock bore, stroke, finished size, pistons) is needed only for work on the cylinder bores. */
+  stockBore: optionalPositive('The stock bore'),
+  stroke: optionalPositive('The stroke'),
   targetBore: optionalPositive('Target bore'),
   /** ± on every bore reading around the finished size; without it the common-practice default applies (DEFAULT_SIZE_TOLERANCE_IN). */
   boreSizeTolerance: optionalPositive('Finished-size tolerance', 10),
   pistonDiameter: optionalPositive('Piston diameter'),
   clearanceMin: optionalNonNegative('Minimum clearance', 10),
   clearanceMax: optionalNonNegative('Maximum clearance', 10),
-  pistonType: z.enum(pistonTypes, { error: 'Choose cast, hypereutectic or forged.' }),
+  pistonType: z.enum(pistonTypes, { error: 'Choose cast, hypereutectic or forged.' }).optional(),
   crosshatchMinDeg: optionalPositive('Smallest crosshatch included angle', 179),
   crosshatchMaxDeg: optionalPositive('Largest crosshatch included angle', 179),
   finishRaMaxUm: optionalPositive('Largest bore Ra', 100),
@@ -82,6 +126,8 @@ export const jobFieldsSchema = z.object({
   /** How the inspection record's readings are judged against the limits; without it, simple acceptance. */
   decisionRule: z.enum(['simple', 'guarded'], { error: 'Choose simple or guarded acceptance.' }).optional(),
   deckNotes: z.string().trim().max(1000, 'Use at most 1,000 characters.').default(''),
+  /** Limits for the work beyond the bores, by kind of work (shared/operation-limits.ts); empty fields take the defaults shown there. */
+  limits: operationLimitsSchema.optional(),
   operations: z
     .array(jobOperationSchema, { error: 'Choose the work you want done.' })
     .min(1, 'Choose at least one kind of work.')
@@ -96,8 +142,42 @@ type JobFields = z.infer<typeof jobFieldsSchema>;
 
 /** Rules across fields, shared by create and edit. */
 function checkJob(job: Partial<JobFields>, ctx: z.RefinementCtx) {
-  if (job.targetBore === undefined && job.pistonDiameter === undefined) {
-    ctx.addIssue({ code: 'custom', path: ['targetBore'], message: 'Give a target bore, or the piston diameter with a clearance range.' });
+  const codes = (job.operations ?? []).map((op) => op.code);
+  const parts = partsOfJob(job);
+  codes.forEach((code, index) => {
+    if (!partsAllow(code, parts)) {
+      ctx.addIssue({ code: 'custom', path: ['operations', index, 'code'], message: `${findOperation(code)?.name ?? 'That work'} needs ${partsNeededWords(code)}: add it to the parts you send, or leave this work out.` });
+    }
+  });
+  if (codes.some((code) => boreOperationCodes.includes(code))) {
+    if (job.stockBore === undefined) ctx.addIssue({ code: 'custom', path: ['stockBore'], message: 'Enter the stock bore: the bore work needs it.' });
+    if (job.stroke === undefined) ctx.addIssue({ code: 'custom', path: ['stroke'], message: 'Enter the stroke: the bore work needs it.' });
+    if (job.pistonType === undefined) ctx.addIssue({ code: 'custom', path: ['pistonType'], message: 'Choose cast, hypereutectic or forged.' });
+    if (job.targetBore === undefined && job.pistonDiameter === undefined) {
+      ctx.addIssue({ code: 'custom', path: ['targetBore'], message: 'Give a target bore, or the piston diameter with a clearance range.' });
+    }
+  }
+  if ((parts.includes('block') || parts.includes('heads')) && job.blockMaterial === undefined) {
+    ctx.addIssue({ code: 'custom', path: ['blockMaterial'], message: 'Choose cast iron or aluminium.' });
+  }
+  if (codes.includes('balance') && job.limits?.balance?.serviceRpm === undefined) {
+    ctx.addIssue({ code: 'custom', path: ['limits', 'balance', 'serviceRpm'], message: 'Give the highest service speed: the permissible unbalance depends on it.' });
+  }
+  for (const group of limitGroups) {
+    const set = job.limits?.[group] as Record<string, number | undefined> | undefined;
+    if (!set) continue;
+    if (!codes.includes(limitGroupOperation[group])) {
+      ctx.addIssue({ code: 'custom', path: ['limits', group], message: `These limits are for ${findOperation(limitGroupOperation[group])!.name.toLowerCase()}, which the job does not ask for.` });
+      continue;
+    }
+    for (const [key, value] of Object.entries(set)) {
+      if (value === undefined || !key.endsWith('Min')) continue;
+      const maxKey = `${key.slice(0, -3)}Max`;
+      const max = set[maxKey];
+      if (max !== undefined && value > max) {
+        ctx.addIssue({ code: 'custom', path: ['limits', group, maxKey], message: 'The largest cannot be smaller than the smallest.' });
+      }
+    }
   }
   if (job.pistonDiameter !== undefined && (job.clearanceMin === undefined || job.clearanceMax === undefined)) {
     ctx.addIssue({ code: 'custom', path: ['clearanceMax'], message: 'With a piston diameter, give the clearance range too.' });
@@ -108,12 +188,9 @@ function checkJob(job: Partial<JobFields>, ctx: z.RefinementCtx) {
   if (job.crosshatchMinDeg !== undefined && job.crosshatchMaxDeg !== undefined && job.crosshatchMinDeg > job.crosshatchMaxDeg) {
     ctx.addIssue({ code: 'custom', path: ['crosshatchMaxDeg'], message: 'The largest angle cannot be smaller than the smallest.' });
   }
-  if (job.operations) {
-    const codes = job.operations.map((op) => op.code);
-    codes.forEach((code, index) => {
-      if (codes.indexOf(code) !== index) ctx.addIssue({ code: 'custom', path: ['operations', index, 'code'], message: 'Each kind of work once, please.' });
-    });
-  }
+  codes.forEach((code, index) => {
+    if (codes.indexOf(code) !== index) ctx.addIssue({ code: 'custom', path: ['operations', index, 'code'], message: 'Each kind of work once, please.' });
+  });
 }
 
 export const jobInputSchema = jobFieldsSchema.superRefine(checkJob);
@@ -168,7 +245,8 @@ export const jobSummarySchema = z.object({
   status: z.enum(jobStatuses),
   engineFamily: z.string(),
   cylinders: z.number().int(),
-  blockMaterial: z.enum(blockMaterials),
+  /** Null for a job that sends no block or heads. */
+  blockMaterial: z.enum(blockMaterials).nullable(),
   operations: z.array(z.string()),
   logistics: z.enum(logisticsOptions),
   country: z.string(),

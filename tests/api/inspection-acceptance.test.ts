@@ -115,7 +115,7 @@ describe('the certificate', () => {
     const noLimits = jobInput({ targetBore: undefined, pistonDiameter: undefined, clearanceMin: undefined, clearanceMax: undefined, maxTaper: undefined, maxOutOfRound: undefined, crosshatchMinDeg: undefined, crosshatchMaxDeg: undefined });
     const funded = await m.jobIn('inWork', { input: noLimits, straightIntoDatabase: true, receivedNote: 'Arrived on a pallet.' });
     const input = record({ deck: undefined, finish: undefined });
-    input.cylinders = input.cylinders.map(({ piston: _piston, ...c }) => c);
+    input.cylinders = input.cylinders!.map(({ piston: _piston, ...c }) => c);
     expect((await funded.shop.post(`/api/jobs/${funded.job.id}/inspection`, input)).status).toBe(201);
     const before = await pdfText(funded.builder, funded.job.id, 1);
     expect(before).toContain('No limits given: nothing judged');

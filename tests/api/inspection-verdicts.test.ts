@@ -82,7 +82,7 @@ describe('stored inspection verdicts', () => {
     const [stored] = await m.db.select().from(inspectionRecords).where(eq(inspectionRecords.jobId, job.id));
     const kept = stored.input as InspectionInput;
     expect(kept.conditions).toEqual({ unit: 'in', gaugeResolution: 0.0001, temperatureF: 86, torquePlate: true });
-    expect(kept.cylinders[0]).toMatchObject({ top: { thrust: 4.0315 }, piston: 4.0289 });
+    expect(kept.cylinders![0]).toMatchObject({ top: { thrust: 4.0315 }, piston: 4.0289 });
     const results = stored.results as { temperature: { measuredC: number; block: { alpha: number } }; corrected: Array<{ top: { thrust: number }; piston: number }> };
     expect(results.temperature.measuredC).toBeCloseTo(30, 12);
     expect(results.temperature.block.alpha).toBe(10.8e-6);

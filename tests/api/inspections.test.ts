@@ -133,7 +133,7 @@ describe('inspection record', () => {
       ...input,
       results: { pass: true, checks: [] },
       pass: true,
-      cylinders: input.cylinders.map((c) => ({ ...c, taper: 0, outOfRound: 0, pass: true })),
+      cylinders: input.cylinders!.map((c) => ({ ...c, taper: 0, outOfRound: 0, pass: true })),
     };
     const res = await shop.post(`/api/jobs/${job.id}/inspection`, tampered);
     expect(res.status).toBe(201);
@@ -156,7 +156,7 @@ describe('inspection record', () => {
   it('when the record has the wrong number of cylinders, then 400; a second record while one waits is 409', async () => {
     const { job, shop } = await inWork();
     const short = record();
-    short.cylinders = short.cylinders.slice(0, 6);
+    short.cylinders = short.cylinders!.slice(0, 6);
     expect((await shop.post(`/api/jobs/${job.id}/inspection`, short)).status).toBe(400);
     expect((await shop.post(`/api/jobs/${job.id}/inspection`, record())).status).toBe(201);
     expect((await shop.post(`/api/jobs/${job.id}/inspection`, record())).status).toBe(409);
@@ -236,7 +236,7 @@ describe('inspection record', () => {
     await shop.post(`/api/jobs/${job.id}/inspection`, input);
     // The download answers 200 with application/pdf (checked inside certificateText).
     const text = await certificateText(builder, job.id, 1);
-    for (const cylinder of input.cylinders) {
+    for (const cylinder of input.cylinders!) {
       for (const value of [cylinder.top.thrust, cylinder.top.axial, cylinder.middle.thrust, cylinder.bottom.thrust]) expect(text).toContain(value.toFixed(4));
     }
     expect(text).toContain('Ada Quernfield');

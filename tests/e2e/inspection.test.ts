@@ -243,9 +243,9 @@ describe('the inspection record, from block received to payment released, in a r
     const { versions } = await lantern<{ versions: InspectionVersion[] }>('GET', `/api/jobs/${job.id}/inspection`);
     expect(versions).toHaveLength(1);
     expect(versions[0].input.cylinders).toHaveLength(8);
-    expect(versions[0].input.cylinders[4].bottom.thrust).toBe(Number(FIXED_READING));
-    expect(versions[0].input.cylinders[1].top.thrust).toBe(Number(readings[1][0]));
-    expect(versions[0].input.cylinders.every((c) => c.piston === Number(PISTON))).toBe(true);
+    expect(versions[0].input.cylinders![4].bottom.thrust).toBe(Number(FIXED_READING));
+    expect(versions[0].input.cylinders![1].top.thrust).toBe(Number(readings[1][0]));
+    expect(versions[0].input.cylinders!.every((c) => c.piston === Number(PISTON))).toBe(true);
     expect(versions[0].input.conditions).toEqual({ unit: 'in', gaugeResolution: 0.0001, temperatureC: 21, torquePlate: true });
     expect(versions[0].results.pass).toBe(true);
 

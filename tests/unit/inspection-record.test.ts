@@ -27,15 +27,15 @@ describe('evaluateInspection', () => {
     const result = evaluateInspection(input, spec);
     expect(result.pass).toBe(true);
     // derived: taper 0.0001 in = 0.00254 mm
-    expect(result.bores.worst.taper).toBeCloseTo(0.00254, 9);
+    expect(result.bores!.worst.taper).toBeCloseTo(0.00254, 9);
 
     const tapered = { ...cylinder, bottom: pair(mm(4.0302), mm(4.031)) };
-    const failing = evaluateInspection({ ...input, cylinders: [tapered, ...input.cylinders.slice(1)] }, spec);
+    const failing = evaluateInspection({ ...input, cylinders: [tapered, ...input.cylinders!.slice(1)] }, spec);
     expect(failing.pass).toBe(false);
     // derived: bottom thrust 0.0008 in under the top → taper 0.0009 in and out-of-round 0.0008 in, both over 0.0005 in (0.0127 mm)
     // derived: 4.0302 in is 0.0008 in under the 4.031 in target, outside ± 0.0005 in (common practice default), so size fails too
     // derived: 0.0025 in = 0.0635 mm exactly; the cylinder's failure keeps the unrounded limit
-    expect(failing.bores.cylinders[0].failures.find((f) => f.limit === 'clearanceMin')!.allowed).toBeCloseTo(0.0635, 12);
+    expect(failing.bores!.cylinders[0].failures.find((f) => f.limit === 'clearanceMin')!.allowed).toBeCloseTo(0.0635, 12);
     expect(failing.checks.filter((c) => !c.pass).map((c) => [c.what, c.verdict, c.allowed])).toEqual([
       ['cylinder 1 size', 'fails', '102.387 mm ± 0.0127 mm'],
       // derived: bottom thrust 4.0302 − piston 4.028 = 0.0022 in, under 0.0025 in (0.0635 mm)
@@ -97,7 +97,7 @@ describe('evaluateInspection: every limit judged or visibly not judged (issue 15
     const cylinder = { top: pair(4.0308, 4.0308), middle: pair(4.0308, 4.0308), bottom: pair(4.0303, 4.0307), piston: 4.028 };
     const job = { ...issueJob, boreSizeTolerance: 0.001 };
     const result = evaluateInspection(record([cylinder, ...Array.from({ length: 7 }, () => round(4.031, 4.028))]), job);
-    expect(result.bores.cylinders[0].mean - 4.028).toBeCloseTo(0.0027, 9);
+    expect(result.bores!.cylinders[0].mean - 4.028).toBeCloseTo(0.0027, 9);
     const failing = result.checks.filter((c) => c.verdict === 'fails');
     expect(failing.map((c) => [c.cylinder, c.limit])).toEqual([[1, 'clearanceMin']]);
     expect(failing[0].value).toBeCloseTo(0.0023, 9);
@@ -161,7 +161,7 @@ describe('evaluateInspection: every limit judged or visibly not judged (issue 15
     const result = evaluateInspection(record(Array.from({ length: 8 }, () => round(4.031, 4.028))), job);
     expect(result.verdict).toBe('not-fully-judged');
     expect(result.pass).toBe(false);
-    expect(result.notJudged).toEqual([{ what: 'bore Ra', why: expect.stringMatching(/no bore finish/) }]);
+    expect(result.notJudged).toEqual([{ section: 'finish', what: 'bore Ra', why: expect.stringMatching(/no bore finish/) }]);
   });
 
   it('when a target bore and the piston with its clearance disagree, then the disagreement says the shop works to the target', () => {

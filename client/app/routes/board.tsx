@@ -19,7 +19,7 @@ type Sort = BoardQuery['sort'];
 const FILTER_KEYS = ['operation', 'material', 'cylinders', 'country', 'region', 'logistics', 'neededBefore'] as const;
 const PAGE_SIZES = [10, 20, 50, 100];
 
-const materialWords: Record<JobSummary['blockMaterial'], string> = { 'cast-iron': 'Cast iron', aluminium: 'Aluminium' };
+const materialWords: Record<NonNullable<JobSummary['blockMaterial']>, string> = { 'cast-iron': 'Cast iron', aluminium: 'Aluminium' };
 const logisticsWords: Record<JobSummary['logistics'], string> = { ship: 'Shipped to the shop', 'drop-off': 'Dropped off' };
 
 /** How each sort reads, and which way its column runs (for aria-sort). */
@@ -71,7 +71,7 @@ function JobRow({ job }: { job: JobSummary }) {
       </th>
       <td className="py-3 pr-3">{job.engineFamily}</td>
       <td className="py-3 pr-3 text-right tabular-nums">{job.cylinders}</td>
-      <td className="py-3 pr-3 whitespace-nowrap">{materialWords[job.blockMaterial]}</td>
+      <td className="py-3 pr-3 whitespace-nowrap">{job.blockMaterial ? materialWords[job.blockMaterial] : '—'}</td>
       <td className="py-3 pr-3">{job.operations.map((code) => findOperation(code)?.name ?? code).join(', ')}</td>
       <td className="py-3 pr-3">
         {[job.city, job.region].filter(Boolean).join(', ')}
@@ -106,7 +106,8 @@ function JobCard({ job }: { job: JobSummary }) {
           </Link>
         </h2>
         <p className="text-sm text-ink-soft">
-          {job.engineFamily} · {job.cylinders} {job.cylinders === 1 ? 'cylinder' : 'cylinders'} · {materialWords[job.blockMaterial].toLowerCase()}
+          {job.engineFamily} · {job.cylinders} {job.cylinders === 1 ? 'cylinder' : 'cylinders'}
+          {job.blockMaterial && ` · ${materialWords[job.blockMaterial].toLowerCase()}`}
         </p>
         <p className="text-sm">{job.operations.map((code) => findOperation(code)?.name ?? code).join(', ')}</p>
         <dl className="grid grid-cols-[max-content_1fr] gap-x-3 gap-y-0.5 text-sm">

@@ -96,8 +96,8 @@ export function InspectionCertificateRoute() {
             </tr>
           </thead>
           <tbody>
-            {input.cylinders.map((c, i) => {
-              const r = results.bores.cylinders[i];
+            {(input.cylinders ?? []).map((c, i) => {
+              const r = results.bores!.cylinders[i];
               return (
                 <tr key={i} className="border-b border-slate-100">
                   <th scope="row" className="py-1 pr-2">

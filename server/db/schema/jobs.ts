@@ -34,7 +34,8 @@ export const jobs = pgTable(
     title: text().notNull(),
     engineFamily: text().notNull(),
     cylinders: integer().notNull(),
-    blockMaterial: text().notNull(),
+    /** Null when the job sends neither a block nor heads (a crank grind, a balance). */
+    blockMaterial: text(),
     operations: text().array().notNull(),
     logistics: text().notNull(),
     country: text().notNull(),

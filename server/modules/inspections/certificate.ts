@@ -94,20 +94,24 @@ export function certificatePdf(data: CertificateData): Promise<Buffer> {
     for (const m of method) line(`${m.label}: ${m.text}`);
   }
 
+  if (input.cylinders && results.bores) {
+  const bores = results.bores;
   heading(`Bores (${unit})`);
   line('Cyl | top thrust / axial | middle thrust / axial | bottom thrust / axial | piston | mean | taper | out-of-round | clearance | result');
   input.cylinders.forEach((c, i) => {
-    const r = results.bores.cylinders[i];
+    const r = bores.cylinders[i];
     line(
       `${i + 1} | ${len(c.top.thrust)} / ${len(c.top.axial)} | ${len(c.middle.thrust)} / ${len(c.middle.axial)} | ${len(c.bottom.thrust)} / ${len(c.bottom.axial)} | ${c.piston !== undefined ? len(c.piston) : '—'} | ${len(r.mean)} | ${len(r.taper)} | ${len(r.outOfRound)} | ${r.clearance !== undefined ? len(r.clearance) : '—'} | ${r.pass ? 'pass' : 'FAIL'}`,
     );
   });
-  line(`Largest taper ${len(results.bores.worst.taper)} · largest out-of-round ${len(results.bores.worst.outOfRound)}.`);
+  line(`Largest taper ${len(bores.worst.taper)} · largest out-of-round ${len(bores.worst.outOfRound)}.`);
   line('Taper: on the diameter, the largest minus the smallest reading over the three depths in one direction (the larger direction counts). Out-of-round: two-point, the difference of the thrust and axial diameters at one depth (the largest depth counts).');
+  }
 
   if (input.deck && results.deck) {
     heading('Deck');
-    line(`Straightedge readings (${unit}): ${input.deck.readings.map(len).join(', ')}`);
+    const readings = [...(input.deck.readings ?? []).map(len), ...(input.deck.straightedge ?? []).map((r) => `${r.position} ${len(r.value)}`)];
+    line(`Straightedge readings (${unit}): ${readings.join(', ')}`);
     const deck = figureAgainstLimit(results.deck.outOfFlat, results.deck.limit, decimals);
     line(`Out-of-flat ${deck.value} against ≤ ${deck.limit} (${results.deck.limitSource === 'shop' ? 'the job’s limit' : 'common-practice table'}): ${results.deck.pass ? 'pass' : 'FAIL'}${input.deck.raUm !== undefined ? ` · deck Ra ${input.deck.raUm} µm` : ''}`);
   }

@@ -1,7 +1,9 @@
 import { and, desc, eq, sql } from 'drizzle-orm';
 import { checksNotConforming, recordConforms } from '../../../shared/calc/conformance';
 import { evaluateInspection } from '../../../shared/calc/inspection-record';
+import { boreOperationCodes, findOperation, type OperationCode } from '../../../shared/catalogue';
 import type { InspectionInput, InspectionResults, InspectionVersion } from '../../../shared/schemas/inspection';
+import type { InspectionSections } from '../../../shared/schemas/inspection-sections';
 import type { JobInput } from '../../../shared/schemas/jobs';
 import type { Database, Executor } from '../../db/client';
 import { inspectionDrafts, inspectionRecords, jobs, milestones, users, type User } from '../../db/schema';
@@ -11,6 +13,7 @@ import { inspectionDecidedMail, inspectionSubmittedMail, reviewReminderMail, rev
 import { scheduleTask } from '../../lib/scheduler';
 import { releaseJob, type PaymentDeps } from '../payments/payments.service';
 import { certificatePdf } from './certificate';
+import { attachMilestonePhotos } from '../milestones/milestone-photos';
 import { mustBeJobsBuilder, mustBeWorkingShop, mustSeeWork, partiesOf, sideOf } from '../jobs/job-access';
 
 export interface InspectionDeps extends PaymentDeps {
@@ -51,6 +54,51 @@ export async function inspectionView(db: Database, user: User, jobId: string) {
   return { versions: rows.map(toVersion), draft, reviewDueAt: open?.reviewDueAt.toISOString() ?? null, autoAccept, reviewWindowEnded, shop };
 }
 
+/** The section of the record each kind of work has, in the input's `sections`. */
+const SECTION_KEYS: Partial<Record<OperationCode, keyof InspectionSections>> = {
+  clean: 'clean',
+  'crack-test': 'crackTest',
+  'line-hone': 'lineHone',
+  'cam-bore': 'camBore',
+  sleeve: 'sleeve',
+  'head-resurface': 'headResurface',
+  'valve-job': 'valveJob',
+  'crank-grind': 'crankGrind',
+  balance: 'balance',
+};
+
+/**
+ * A record answers the job it is for: the bore grid when the job orders bore
+ * work (one row per cylinder), no section for work the job does not order, and
+ * no record at all while a crack test has found a crack: that stops the work
+ * until the builder agrees what to do, through extra work the shop proposes.
+ */
+function mustCoverTheJob(input: InspectionInput, spec: JobInput, cylinders: number) {
+  const ordered = new Set<string>(spec.operations.map((op) => op.code));
+  if (input.sections?.crackTest?.result === 'crack-found') {
+    throw new AppError(
+      'crack_found',
+      'The crack test found a crack, so the record stops here. Propose extra work to the builder (what the repair or replacement takes and costs) and finish the record once it is agreed and done.',
+      409,
+      { 'sections.crackTest.result': 'A crack was found: propose extra work to the builder first.' },
+    );
+  }
+  const boreWork = spec.operations.some((op) => boreOperationCodes.includes(op.code));
+  if (boreWork && !input.cylinders) {
+    throw new AppError('invalid_input', 'This job orders work on the bores: enter the bore readings.', 400, { cylinders: `Enter readings for all ${cylinders} cylinders.` });
+  }
+  if (input.cylinders && input.cylinders.length !== cylinders) {
+    throw new AppError('invalid_input', `This job has ${cylinders} cylinders; the record has ${input.cylinders.length}.`, 400, {
+      cylinders: `Enter readings for all ${cylinders} cylinders.`,
+    });
+  }
+  for (const [code, key] of Object.entries(SECTION_KEYS)) {
+    if (input.sections?.[key] !== undefined && !ordered.has(code)) {
+      throw new AppError('invalid_input', `This job does not ask for ${findOperation(code)!.name.toLowerCase()}; leave that section out.`, 400, { [`sections.${key}`]: 'The job does not ask for this work.' });
+    }
+  }
+}
+
 export async function saveDraft(db: Database, user: User, jobId: string, draft: Record<string, unknown>) {
   const parties = await partiesOf(db, jobId);
   mustBeWorkingShop(parties, user);
@@ -81,12 +129,9 @@ export async function submitInspection(deps: InspectionDeps, user: User, jobId: 
         'job_not_in_work',
       );
     }
-    if (input.cylinders.length !== job.cylinders) {
-      throw new AppError('invalid_input', `This job has ${job.cylinders} cylinders; the record has ${input.cylinders.length}.`, 400, {
-        cylinders: `Enter readings for all ${job.cylinders} cylinders.`,
-      });
-    }
-    const results = evaluateInspection(input, job.spec as JobInput);
+    const spec = job.spec as JobInput;
+    mustCoverTheJob(input, spec, job.cylinders);
+    const results = evaluateInspection(input, spec);
     const [{ next }] = await tx.select({ next: sql<number>`coalesce(max(${inspectionRecords.version}), 0)::int + 1` }).from(inspectionRecords).where(eq(inspectionRecords.jobId, job.id));
     const reviewDueAt = new Date(Date.now() + deps.reviewWindowMs);
     const [row] = await tx
@@ -95,7 +140,13 @@ export async function submitInspection(deps: InspectionDeps, user: User, jobId: 
       .returning();
     await tx.update(jobs).set({ status: 'inspection_submitted' }).where(eq(jobs.id, job.id));
     await tx.delete(inspectionDrafts).where(eq(inspectionDrafts.jobId, job.id));
-    await tx.insert(milestones).values({ jobId: job.id, authorId: user.id, kind: 'inspection_submitted', note: `Version ${next}: ${results.pass ? 'within every limit' : 'outside at least one limit'}.` });
+    const [milestone] = await tx
+      .insert(milestones)
+      .values({ jobId: job.id, authorId: user.id, kind: 'inspection_submitted', note: `Version ${next}: ${results.pass ? 'within every limit' : 'outside at least one limit'}.` })
+      .returning({ id: milestones.id });
+    // The cleaning and crack-test photos go out with the record's own milestone, checked like any milestone photo.
+    const photoIds = [...(input.sections?.clean?.photoIds ?? []), ...(input.sections?.crackTest?.photoIds ?? [])];
+    if (photoIds.length > 0) await attachMilestonePhotos(tx, { jobId: job.id, userId: user.id, milestoneId: milestone.id, photoIds });
     const url = `${deps.appUrl}/jobs/${job.id}`;
     await enqueueMail(
       tx,

@@ -59,7 +59,7 @@ function Statement({ text }: { text: string }) {
 /** The verdict, how many checks pass, and each failing check with its figure and limit. */
 function InspectionSummary({ results }: { results: InspectionResults }) {
   const failing = results.checks.filter((check) => !check.pass);
-  const cylinderFailures = results.bores.cylinders.flatMap((cylinder, index) => (cylinder.pass ? [] : [index + 1]));
+  const cylinderFailures = (results.bores?.cylinders ?? []).flatMap((cylinder, index) => (cylinder.pass ? [] : [index + 1]));
   return (
     <div className="flex flex-col gap-1.5 text-sm">
       <p>

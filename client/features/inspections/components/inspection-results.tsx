@@ -135,7 +135,7 @@ export function FailingChecksLine({
 }) {
   const limits = boreLimits(spec, unit);
   const rows = results
-    ? [...cylinderIndexes.flatMap((index, k) => cylinderChecks(results.bores.cylinders[k], index, limits, unit)), ...otherChecks(results, unit)]
+    ? [...cylinderIndexes.flatMap((index, k) => cylinderChecks(results.bores!.cylinders[k], index, limits, unit)), ...otherChecks(results, unit)]
     : [];
   const failing = rows.filter((row) => row.pass === false);
   // Under guarded acceptance a check may be neither conforming nor failing: it is not "passing" either.
@@ -186,7 +186,7 @@ export function InspectionResultsView({
 }) {
   const Heading = headingLevel === 3 ? 'h3' : 'h4';
   const limits = boreLimits(spec, unit);
-  const byIndex = new Map(cylinderIndexes.map((index, k) => [index, results?.bores.cylinders[k]]));
+  const byIndex = new Map(cylinderIndexes.map((index, k) => [index, results?.bores?.cylinders[k]]));
   const boreRows = cylinderIndexes.flatMap((index) => {
     const cylinder = byIndex.get(index);
     return cylinder ? cylinderChecks(cylinder, index, limits, unit) : [];

@@ -106,14 +106,14 @@ function VersionBody({ version, job }: { version: InspectionVersion; job: JobDet
       <div className="grid gap-5 lg:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
         <InspectionResultsView
           results={version.results}
-          cylinderIndexes={version.input.cylinders.map((_, i) => i)}
-          cylinderCount={version.input.cylinders.length}
+          cylinderIndexes={(version.input.cylinders ?? []).map((_, i) => i)}
+          cylinderCount={version.input.cylinders?.length ?? 0}
           spec={job.spec}
           unit={unit}
           complete
         />
         <div className="flex min-w-0 flex-col gap-5">
-          <BoreSizeChart cylinders={version.input.cylinders} unit={unit} targetBore={target} />
+          <BoreSizeChart cylinders={version.input.cylinders ?? []} unit={unit} targetBore={target} />
           <section aria-label="How the figures are defined" className="flex flex-col gap-1 text-sm" data-testid="figure-definitions">
             <h4 className="font-bold">How the figures are defined</h4>
             <p>

@@ -202,7 +202,7 @@ export function ReadingsAt20({ input, results }: { input: InspectionInput; resul
               </tr>
             </thead>
             <tbody>
-              {input.cylinders.map((raw, i) => {
+              {(input.cylinders ?? []).map((raw, i) => {
                 const at20 = corrected[i];
                 if (!at20) return null;
                 return [

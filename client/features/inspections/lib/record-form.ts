@@ -246,15 +246,15 @@ export function fromInput(input: InspectionInput): RecordForm {
   form.temperatureScale = input.conditions.temperatureF !== undefined ? 'F' : 'C';
   form.temperatureC = numberToText(input.conditions.temperatureF ?? input.conditions.temperatureC);
   form.uncertainty = numberToText(input.conditions.uncertainty);
-  form.torquePlate = input.conditions.torquePlate;
-  input.cylinders.forEach((cylinder, i) => {
+  form.torquePlate = input.conditions.torquePlate ?? false;
+  (input.cylinders ?? []).forEach((cylinder, i) => {
     for (const depth of DEPTHS) {
       for (const direction of DIRECTIONS) form.cells[cellKey(i, `${depth}.${direction}`)] = length(cylinder[depth][direction]);
     }
     form.cells[cellKey(i, 'piston')] = length(cylinder.piston);
   });
   if (input.deck) {
-    form.deckReadings = input.deck.readings.map(length).join(' ');
+    form.deckReadings = (input.deck.readings ?? []).map(length).join(' ');
     form.deckRa = numberToText(input.deck.raUm);
   }
   if (input.finish?.mode === 'values') {

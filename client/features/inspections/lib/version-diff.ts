@@ -27,13 +27,13 @@ function entries(version: InspectionVersion): Entry[] {
     ['uncertainty', 'Measurement uncertainty', input.conditions.uncertainty !== undefined ? len(input.conditions.uncertainty) : 'gauge resolution (lower bound)'],
     ['torque-plate', 'Torque plate', input.conditions.torquePlate ? 'fitted' : 'not fitted'],
   ];
-  input.cylinders.forEach((cylinder, i) => {
+  (input.cylinders ?? []).forEach((cylinder, i) => {
     for (const depth of DEPTHS) {
       for (const direction of DIRECTIONS) list.push([`c${i}.${depth}.${direction}`, `Cylinder ${i + 1} ${depth} ${direction}`, len(cylinder[depth][direction])]);
     }
     list.push([`c${i}.piston`, `Cylinder ${i + 1} piston diameter`, len(cylinder.piston)]);
   });
-  list.push(['deck', 'Straightedge readings', input.deck ? input.deck.readings.map((r) => len(r)).join(', ') : '—']);
+  list.push(['deck', 'Straightedge readings', input.deck ? [...(input.deck.readings ?? []).map((r) => len(r)), ...(input.deck.straightedge ?? []).map((r) => `${r.position} ${len(r.value)}`)].join(', ') || '—' : '—']);
   list.push(['deck-ra', 'Deck Ra', um(input.deck?.raUm)]);
   if (input.finish?.mode === 'profile') {
     const filter = input.finish.filter;
@@ -57,7 +57,7 @@ function entries(version: InspectionVersion): Entry[] {
   list.push(['signed', 'Signed off by', input.signedOffBy], ['notes', 'Notes', input.notes || '—']);
 
   // Worked-out figures.
-  results.bores.cylinders.forEach((cylinder, i) => {
+  results.bores?.cylinders.forEach((cylinder, i) => {
     list.push([`f${i}.taper`, `Cylinder ${i + 1} taper (worked out)`, formatLength(cylinder.taper, unit)]);
     list.push([`f${i}.oor`, `Cylinder ${i + 1} out-of-round (worked out)`, formatLength(cylinder.outOfRound, unit)]);
     if (cylinder.clearance !== undefined) list.push([`f${i}.clearance`, `Cylinder ${i + 1} clearance (worked out)`, formatLength(cylinder.clearance, unit)]);

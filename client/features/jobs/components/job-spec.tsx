@@ -56,8 +56,8 @@ export function JobSpec({ spec }: { spec: JobInput }) {
             ['Engine', spec.engineFamily],
             ['Layout', layoutWords[spec.layout]],
             ['Cylinders', spec.cylinders],
-            ['Block material', materialWords[spec.blockMaterial]],
-            ['Piston type', pistonWords[spec.pistonType]],
+            ['Block material', spec.blockMaterial ? materialWords[spec.blockMaterial] : '—'],
+            ['Piston type', spec.pistonType ? pistonWords[spec.pistonType] : '—'],
           ]}
         />
       </Group>

@@ -21,8 +21,8 @@ export const statusWords: Record<JobStatus, { label: string; tone: BadgeTone; ex
 };
 
 export const layoutWords: Record<JobInput['layout'], string> = { inline: 'Inline', v: 'V', flat: 'Flat (opposed)', other: 'Other' };
-export const materialWords: Record<JobInput['blockMaterial'], string> = { 'cast-iron': 'Cast iron', aluminium: 'Aluminium' };
-export const pistonWords: Record<JobInput['pistonType'], string> = { cast: 'Cast', hypereutectic: 'Hypereutectic', forged: 'Forged' };
+export const materialWords: Record<NonNullable<JobInput['blockMaterial']>, string> = { 'cast-iron': 'Cast iron', aluminium: 'Aluminium' };
+export const pistonWords: Record<NonNullable<JobInput['pistonType']>, string> = { cast: 'Cast', hypereutectic: 'Hypereutectic', forged: 'Forged' };
 export const logisticsWords: Record<JobInput['logistics'], string> = {
   ship: 'I ship the parts to the shop',
   'drop-off': 'I drop the parts off at the shop',

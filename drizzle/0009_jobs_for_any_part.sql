@@ -1,0 +1,1 @@
+ALTER TABLE "jobs" ALTER COLUMN "block_material" DROP NOT NULL;
