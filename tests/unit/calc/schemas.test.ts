@@ -17,6 +17,7 @@ import {
   ringGapRequestSchema,
   roughnessRequestSchema,
 } from '../../../shared/schemas/calculations';
+import { circleTrack } from './expectations';
 
 /** The message for each failing path, joined with dots, e.g. { 'cylinders.0.top.thrust': '…' }. */
 function fieldMessages(schema: z.ZodType, input: unknown): Record<string, string> {
@@ -44,18 +45,7 @@ const valid = {
   'deck-flatness': { unit: 'in', readings: [0.001, 0.002], material: 'aluminium', gasket: 'mls' },
   roughness: { heightsUm: tenHeights, spacingUm: 0.5 },
   'ring-gap': { unit: 'mm', bore: 100, application: 'boost' },
-  'dynamic-compression': {
-    unit: 'in',
-    bore: 4,
-    stroke: 3.48,
-    chamberCc: 70,
-    pistonCc: 5,
-    deckClearance: 0.05,
-    gasketBore: 4,
-    gasketThickness: 0.02,
-    rodLength: 5.7,
-    intakeClosingDegAbdc: 60,
-  },
+  'dynamic-compression': { ...circleTrack, rodLength: 5.7, intakeClosingDegAbdc: 60 },
   'balance-tolerance': { rotorMassKg: 20, serviceRpm: 7000, grade: 2.5 },
   'bob-weight': { rotatingGrams: 1100, reciprocatingGrams: 1400, reciprocatingFactor: 0.5, oilGrams: 4 },
   'deck-clearance': { unit: 'in', deckHeight: 9.025, stroke: 3.48, rodLength: 5.7, compressionHeight: 1.56, gasketThickness: 0.015 },

@@ -5,7 +5,7 @@ import { SelectField } from '@client/components/ui/select-field';
 import { formatNumber, toNumber } from '@client/lib/numbers';
 import { useLiveCalculation } from '../hooks/use-live-calculation';
 import { type FieldKind, useUnitForm } from '../hooks/use-unit-form';
-import { CalculatorLayout, CommonPractice, FieldGrid, FigureList, GuidanceNote, HeadlineFigure, MissingHint, NumberField } from './calculator-parts';
+import { CalculatorLayout, CommonPractice, FieldGrid, FigureList, GuidanceNote, HeadlineFigure, MissingHint, numberFieldsFor } from './calculator-parts';
 
 const initial = { rotorMassKg: '', serviceRpm: '', grade: '2.5' };
 const kindOf = (): FieldKind => 'other';
@@ -24,6 +24,8 @@ export function BalanceToleranceCalculator() {
   );
   const { result, errors, missing, formError } = useLiveCalculation(balanceToleranceRequestSchema, input, compute);
 
+  const field = numberFieldsFor(values, setValue, errors);
+
   return (
     <CalculatorLayout
       id="balance-tolerance"
@@ -36,14 +38,8 @@ export function BalanceToleranceCalculator() {
       }
       inputs={
         <FieldGrid>
-          <NumberField label="Rotor mass (kg)" value={values.rotorMassKg} onValueChange={(text) => setValue('rotorMassKg', text)} error={errors.rotorMassKg} />
-          <NumberField
-            label="Service speed (rev/min)"
-            value={values.serviceRpm}
-            onValueChange={(text) => setValue('serviceRpm', text)}
-            error={errors.serviceRpm}
-            hint="The highest speed the engine runs at."
-          />
+          {field('rotorMassKg', 'Rotor mass (kg)')}
+          {field('serviceRpm', 'Service speed (rev/min)', 'The highest speed the engine runs at.')}
           <SelectField
             label="Balance grade"
             value={values.grade}

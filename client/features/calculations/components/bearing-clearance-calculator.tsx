@@ -4,7 +4,7 @@ import { type BearingClearanceRequest, bearingClearanceRequestSchema } from '@sh
 import { formatLength, formatNumber, toNumber } from '@client/lib/numbers';
 import { useLiveCalculation } from '../hooks/use-live-calculation';
 import { type FieldKind, useUnitForm } from '../hooks/use-unit-form';
-import { CalculatorLayout, CommonPractice, FieldGrid, FigureList, GuidanceNote, HeadlineFigure, MissingHint, NumberField } from './calculator-parts';
+import { CalculatorLayout, CommonPractice, FieldGrid, FigureList, GuidanceNote, HeadlineFigure, MissingHint, numberFieldsFor } from './calculator-parts';
 
 const initial = { housingBore: '', journalDiameter: '', shellWall: '' };
 const kindOf = (): FieldKind => 'length';
@@ -20,9 +20,7 @@ export function BearingClearanceCalculator({ unit }: { unit: LengthUnit }) {
   );
   const { result, errors, missing, formError } = useLiveCalculation(bearingClearanceRequestSchema, input, compute);
 
-  const field = (key: keyof typeof initial, label: string, hint?: string) => (
-    <NumberField label={label} value={values[key]} onValueChange={(text) => setValue(key, text)} error={errors[key]} hint={hint} />
-  );
+  const field = numberFieldsFor(values, setValue, errors);
 
   return (
     <CalculatorLayout

@@ -4,7 +4,7 @@ import { type BobWeightRequest, bobWeightRequestSchema } from '@shared/schemas/c
 import { formatNumber, toNumber } from '@client/lib/numbers';
 import { useLiveCalculation } from '../hooks/use-live-calculation';
 import { type FieldKind, useUnitForm } from '../hooks/use-unit-form';
-import { CalculatorLayout, CommonPractice, FieldGrid, FigureList, GuidanceNote, HeadlineFigure, MissingHint, NumberField } from './calculator-parts';
+import { CalculatorLayout, CommonPractice, FieldGrid, FigureList, GuidanceNote, HeadlineFigure, MissingHint, numberFieldsFor } from './calculator-parts';
 
 const initial = { rotatingGrams: '', reciprocatingGrams: '', reciprocatingFactor: '', oilGrams: '' };
 const kindOf = (): FieldKind => 'other';
@@ -26,6 +26,8 @@ export function BobWeightCalculator() {
   );
   const { result, errors, missing, formError } = useLiveCalculation(bobWeightRequestSchema, input, compute);
 
+  const field = numberFieldsFor(values, setValue, errors);
+
   return (
     <CalculatorLayout
       id="bob-weight"
@@ -33,28 +35,10 @@ export function BobWeightCalculator() {
       intro="The weight bolted to each crank throw on the balancing machine: all the rotating mass on the throw, a share of the reciprocating mass, and any oil allowance."
       inputs={
         <FieldGrid>
-          <NumberField
-            label="Rotating mass per throw (g)"
-            value={values.rotatingGrams}
-            onValueChange={(text) => setValue('rotatingGrams', text)}
-            error={errors.rotatingGrams}
-            hint="Rods' big ends and bearings on the throw."
-          />
-          <NumberField
-            label="Reciprocating mass per throw (g)"
-            value={values.reciprocatingGrams}
-            onValueChange={(text) => setValue('reciprocatingGrams', text)}
-            error={errors.reciprocatingGrams}
-            hint="Pistons, pins, locks, rings and rods' small ends."
-          />
-          <NumberField
-            label="Reciprocating share (0 to 1)"
-            value={values.reciprocatingFactor}
-            onValueChange={(text) => setValue('reciprocatingFactor', text)}
-            error={errors.reciprocatingFactor}
-            hint={`Left empty: ${DEFAULT_RECIPROCATING_FACTOR}.`}
-          />
-          <NumberField label="Oil allowance (g)" value={values.oilGrams} onValueChange={(text) => setValue('oilGrams', text)} error={errors.oilGrams} hint="Optional." />
+          {field('rotatingGrams', 'Rotating mass per throw (g)', "Rods' big ends and bearings on the throw.")}
+          {field('reciprocatingGrams', 'Reciprocating mass per throw (g)', "Pistons, pins, locks, rings and rods' small ends.")}
+          {field('reciprocatingFactor', 'Reciprocating share (0 to 1)', `Left empty: ${DEFAULT_RECIPROCATING_FACTOR}.`)}
+          {field('oilGrams', 'Oil allowance (g)', 'Optional.')}
         </FieldGrid>
       }
       results={

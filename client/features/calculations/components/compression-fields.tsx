@@ -5,7 +5,7 @@
  */
 import type { LengthUnit } from '@shared/calc';
 import { toNumber } from '@client/lib/numbers';
-import { FieldGrid, NumberField } from './calculator-parts';
+import { FieldGrid, numberFieldsFor } from './calculator-parts';
 
 export const compressionInitial = {
   bore: '',
@@ -55,9 +55,7 @@ export function CompressionFieldGrid({
   errors: Record<string, string>;
   onValueChange: (key: string, text: string) => void;
 }) {
-  const field = (key: keyof typeof compressionInitial, label: string, hint?: string) => (
-    <NumberField label={label} value={values[key] ?? ''} onValueChange={(text) => onValueChange(key, text)} error={errors[key]} hint={hint} />
-  );
+  const field = numberFieldsFor(values, onValueChange, errors);
   return (
     <FieldGrid>
       {field('bore', `Bore (${unit})`)}

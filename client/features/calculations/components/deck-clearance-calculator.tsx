@@ -4,7 +4,7 @@ import { type DeckClearanceRequest, deckClearanceRequestSchema } from '@shared/s
 import { formatLength, toNumber } from '@client/lib/numbers';
 import { useLiveCalculation } from '../hooks/use-live-calculation';
 import { type FieldKind, useUnitForm } from '../hooks/use-unit-form';
-import { CalculatorLayout, CommonPractice, FieldGrid, FigureList, GuidanceNote, HeadlineFigure, MissingHint, NumberField } from './calculator-parts';
+import { CalculatorLayout, CommonPractice, FieldGrid, FigureList, GuidanceNote, HeadlineFigure, MissingHint, numberFieldsFor } from './calculator-parts';
 
 const initial = { deckHeight: '', stroke: '', rodLength: '', compressionHeight: '', gasketThickness: '' };
 const kindOf = (): FieldKind => 'length';
@@ -32,9 +32,7 @@ export function DeckClearanceCalculator({ unit }: { unit: LengthUnit }) {
   );
   const { result, errors, missing, formError } = useLiveCalculation(deckClearanceRequestSchema, input, compute);
 
-  const field = (key: keyof typeof initial, label: string, hint?: string) => (
-    <NumberField label={label} value={values[key]} onValueChange={(text) => setValue(key, text)} error={errors[key]} hint={hint} />
-  );
+  const field = numberFieldsFor(values, setValue, errors);
 
   return (
     <CalculatorLayout

@@ -5,7 +5,7 @@ import { formatLength, formatNumber, toNumber } from '@client/lib/numbers';
 import { useLiveCalculation } from '../hooks/use-live-calculation';
 import { type FieldKind, useUnitForm } from '../hooks/use-unit-form';
 import { CompressionFieldGrid, compressionInitial, compressionInput, compressionLabels, compressionLengthKeys } from './compression-fields';
-import { CalculatorLayout, FieldGrid, FigureList, GuidanceNote, HeadlineFigure, MissingHint, NumberField } from './calculator-parts';
+import { CalculatorLayout, FieldGrid, FigureList, GuidanceNote, HeadlineFigure, MissingHint, numberFieldsFor } from './calculator-parts';
 
 const initial = { ...compressionInitial, rodLength: '', intakeClosingDegAbdc: '' };
 const lengthKeys = new Set([...compressionLengthKeys, 'rodLength']);
@@ -22,6 +22,8 @@ export function DynamicCompressionCalculator({ unit }: { unit: LengthUnit }) {
   );
   const { result, errors, missing, formError } = useLiveCalculation(dynamicCompressionRequestSchema, input, compute);
 
+  const field = numberFieldsFor(values, setValue, errors);
+
   return (
     <CalculatorLayout
       id="dynamic-compression"
@@ -36,20 +38,8 @@ export function DynamicCompressionCalculator({ unit }: { unit: LengthUnit }) {
         <>
           <CompressionFieldGrid unit={unit} values={values} errors={errors} onValueChange={setValue} />
           <FieldGrid>
-            <NumberField
-              label={`Rod length (${unit})`}
-              value={values.rodLength}
-              onValueChange={(text) => setValue('rodLength', text)}
-              error={errors.rodLength}
-              hint="Centre to centre."
-            />
-            <NumberField
-              label="Intake closing (° ABDC)"
-              value={values.intakeClosingDegAbdc}
-              onValueChange={(text) => setValue('intakeClosingDegAbdc', text)}
-              error={errors.intakeClosingDegAbdc}
-              hint="Degrees after bottom dead centre, from the cam card; note the lift it is timed at."
-            />
+            {field('rodLength', `Rod length (${unit})`, 'Centre to centre.')}
+            {field('intakeClosingDegAbdc', 'Intake closing (° ABDC)', 'Degrees after bottom dead centre, from the cam card; note the lift it is timed at.')}
           </FieldGrid>
         </>
       }
