@@ -1,13 +1,16 @@
 /**
- * Engine geometry: displacement, compression ratio, and what an overbore or a
- * deck cut does to both.
+ * Engine geometry: displacement, compression ratio (static, and dynamic from
+ * the intake closing angle), and what an overbore or a deck cut does to both.
  *
  * Lengths arrive in the caller's unit (inch or millimetre); volumes are
  * returned in cubic centimetres (cc). Formulas:
  * - swept volume per cylinder = π/4 · bore² · stroke (Math.PI, never 0.7854);
  * - compression ratio = (swept + clearance) / clearance, where clearance =
  *   chamber + gasket (π/4 · gasket bore² · compressed thickness)
- *   + deck (π/4 · bore² · deck clearance) + piston volume.
+ *   + deck (π/4 · bore² · deck clearance) + piston volume;
+ * - piston position from top dead centre (slider-crank, Heywood §2.2):
+ *   x = r(1 − cos θ) + l − √(l² − r² sin² θ), r = stroke/2, l = rod length;
+ * - dynamic ratio = (π/4 · bore² · x at intake closing + clearance) / clearance.
  *
  * Sign conventions: piston volume is positive for a dish or valve reliefs
  * (space added above the piston) and negative for a dome (space taken away);
@@ -169,5 +172,63 @@ export function machiningEffect(
       ratio: after.compression.ratio - before.compression.ratio,
     },
     boreExceedsGasket: after.bore > input.gasketBore,
+  };
+}
+
+export interface PistonPositionInput {
+  stroke: number;
+  /** Centre to centre, longer than half the stroke. */
+  rodLength: number;
+  /** Crank angle from top dead centre, degrees. */
+  crankAngleDeg: number;
+}
+
+/**
+ * Distance of the piston below top dead centre at a crank angle (slider-crank,
+ * Heywood §2.2): x = r(1 − cos θ) + l − √(l² − r² sin² θ), r = stroke/2.
+ */
+export function pistonPosition(input: PistonPositionInput): number {
+  const stroke = requirePositive(input.stroke, 'stroke', 'Stroke');
+  const rod = requirePositive(input.rodLength, 'rodLength', 'Rod length');
+  const theta = (requireFinite(input.crankAngleDeg, 'crankAngleDeg', 'Crank angle') * Math.PI) / 180;
+  const r = stroke / 2;
+  if (!(rod > r)) throw new CalculationError('Rod length must be longer than half the stroke.', 'rodLength');
+  const sin = Math.sin(theta);
+  const x = r * (1 - Math.cos(theta)) + rod - Math.sqrt(rod * rod - r * r * sin * sin);
+  // Exactly 0 to stroke on paper; the clamp keeps rounding from reporting a hair outside.
+  return Math.min(stroke, Math.max(0, x));
+}
+
+export interface DynamicCompressionInput extends CompressionInput {
+  rodLength: number;
+  /** Intake valve closing, degrees after bottom dead centre (0 to 180), at the lift the cam card times it. */
+  intakeClosingDegAbdc: number;
+}
+
+export interface DynamicCompressionResult {
+  staticRatio: number;
+  /** (swept volume left when the intake closes + clearance volume) ÷ clearance volume. */
+  dynamicRatio: number;
+  /** Piston distance below top dead centre when the intake closes, in the input's unit. */
+  effectiveStroke: number;
+}
+
+/**
+ * Compression ratio counted from intake closing: the piston position at
+ * θ = 180° + closing angle ABDC gives the stroke still to run, and the same
+ * clearance volume as the static ratio closes the sum.
+ */
+export function dynamicCompression(input: DynamicCompressionInput): DynamicCompressionResult {
+  const closing = requireFinite(input.intakeClosingDegAbdc, 'intakeClosingDegAbdc', 'Intake closing angle');
+  if (closing < 0 || closing > 180) {
+    throw new CalculationError('Intake closing angle must be between 0 and 180 degrees after bottom dead centre.', 'intakeClosingDegAbdc');
+  }
+  const compression = compressionRatio(input);
+  const effectiveStroke = pistonPosition({ stroke: input.stroke, rodLength: input.rodLength, crankAngleDeg: 180 + closing });
+  const effectiveSweptCc = cylinderVolumeCc(input.bore, effectiveStroke, input.unit);
+  return {
+    staticRatio: compression.ratio,
+    dynamicRatio: (effectiveSweptCc + compression.clearanceCc) / compression.clearanceCc,
+    effectiveStroke,
   };
 }

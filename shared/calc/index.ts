@@ -15,3 +15,5 @@ export * from './inspection-record';
 export * from './conformance';
 export * from './figures';
 export * from './check-figures';
+export * from './balance';
+export * from './stack-up';

@@ -12,6 +12,7 @@
 import { z } from 'zod';
 import { MIN_PROFILE_POINTS, gaussianFilterProblem } from '../calc/roughness';
 import { clearanceVolume } from '../calc/engine';
+import { BALANCE_GRADES } from '../calc/balance';
 
 /** Largest length accepted, in the request's unit (a 10 m bore in millimetres). */
 export const MAX_LENGTH = 10_000;
@@ -71,29 +72,99 @@ export const displacementRequestSchema = z.object({
     .max(MAX_CYLINDERS, `Number of cylinders must be at most ${MAX_CYLINDERS}.`),
 });
 
-export const compressionRatioRequestSchema = z
+const compressionFields = {
+  unit: lengthUnitSchema,
+  bore: positive('Bore'),
+  stroke: positive('Stroke'),
+  chamberCc: nonNegative('Chamber volume', MAX_VOLUME_CC),
+  pistonCc: signed('Piston volume', MAX_VOLUME_CC),
+  deckClearance: signed('Deck clearance'),
+  gasketBore: positive('Gasket bore'),
+  gasketThickness: nonNegative('Gasket thickness'),
+};
+
+type CompressionFieldValues = { [K in keyof typeof compressionFields]?: unknown };
+
+/** Refuses a set of volumes that leaves no space above the piston at top dead centre. */
+function refineClearanceVolume(value: CompressionFieldValues, ctx: z.RefinementCtx): void {
+  // Runs even when a field above failed, so only judge complete, valid input.
+  const numbers = [value.bore, value.stroke, value.chamberCc, value.pistonCc, value.deckClearance, value.gasketBore, value.gasketThickness];
+  if (!numbers.every((n) => typeof n === 'number' && Number.isFinite(n))) return;
+  if (value.unit !== 'in' && value.unit !== 'mm') return;
+  const input = value as z.infer<z.ZodObject<typeof compressionFields>>;
+  if (clearanceVolume(input).clearanceCc <= 0) {
+    ctx.addIssue({
+      code: 'custom',
+      path: [input.pistonCc < 0 ? 'pistonCc' : 'deckClearance'],
+      message:
+        'These volumes leave no space above the piston at top dead centre. Check the dome volume (negative) and the deck clearance (negative when the piston stands above the deck).',
+    });
+  }
+}
+
+export const compressionRatioRequestSchema = z.object(compressionFields).superRefine(refineClearanceVolume);
+
+export const dynamicCompressionRequestSchema = z
   .object({
-    unit: lengthUnitSchema,
-    bore: positive('Bore'),
-    stroke: positive('Stroke'),
-    chamberCc: nonNegative('Chamber volume', MAX_VOLUME_CC),
-    pistonCc: signed('Piston volume', MAX_VOLUME_CC),
-    deckClearance: signed('Deck clearance'),
-    gasketBore: positive('Gasket bore'),
-    gasketThickness: nonNegative('Gasket thickness'),
+    ...compressionFields,
+    rodLength: positive('Rod length'),
+    intakeClosingDegAbdc: numberField('Intake closing angle')
+      .min(0, 'Intake closing angle cannot be negative.')
+      .max(180, 'Intake closing angle must be at most 180 degrees after bottom dead centre.'),
   })
   .superRefine((value, ctx) => {
-    // Runs even when a field above failed, so only judge complete, valid input.
-    const numbers = [value.bore, value.stroke, value.chamberCc, value.pistonCc, value.deckClearance, value.gasketBore, value.gasketThickness];
-    if (!numbers.every((n) => typeof n === 'number' && Number.isFinite(n))) return;
-    if (value.unit !== 'in' && value.unit !== 'mm') return;
-    if (clearanceVolume(value).clearanceCc <= 0) {
-      ctx.addIssue({
-        code: 'custom',
-        path: [value.pistonCc < 0 ? 'pistonCc' : 'deckClearance'],
-        message:
-          'These volumes leave no space above the piston at top dead centre. Check the dome volume (negative) and the deck clearance (negative when the piston stands above the deck).',
-      });
+    refineClearanceVolume(value, ctx);
+    const { stroke, rodLength } = value;
+    if (typeof stroke === 'number' && typeof rodLength === 'number' && Number.isFinite(stroke) && rodLength <= stroke / 2) {
+      ctx.addIssue({ code: 'custom', path: ['rodLength'], message: 'Rod length must be longer than half the stroke.' });
+    }
+  });
+
+// --- balance ------------------------------------------------------------------
+
+/** Heaviest rotor accepted, kg. */
+export const MAX_ROTOR_MASS_KG = 100_000;
+/** Heaviest mass accepted in a bob weight, g. */
+export const MAX_GRAMS = 1_000_000;
+
+export const balanceToleranceRequestSchema = z.object({
+  rotorMassKg: positive('Rotor mass', MAX_ROTOR_MASS_KG),
+  serviceRpm: positive('Service speed', MAX_RATE),
+  grade: z.literal(BALANCE_GRADES, { error: `Choose an ISO 21940-11 balance grade: G ${BALANCE_GRADES.join(', G ')}.` }),
+});
+
+export const bobWeightRequestSchema = z.object({
+  rotatingGrams: nonNegative('Rotating mass', MAX_GRAMS),
+  reciprocatingGrams: nonNegative('Reciprocating mass', MAX_GRAMS),
+  /** Left out: 0.5, common practice for a 90° V8. */
+  reciprocatingFactor: nonNegative('Reciprocating factor', 1).optional(),
+  /** Left out: no oil allowance. */
+  oilGrams: nonNegative('Oil allowance', MAX_GRAMS).optional(),
+});
+
+// --- stack-up -------------------------------------------------------------------
+
+export const deckClearanceRequestSchema = z.object({
+  unit: lengthUnitSchema,
+  deckHeight: positive('Deck height'),
+  stroke: positive('Stroke'),
+  rodLength: positive('Rod length'),
+  compressionHeight: positive('Compression height'),
+  /** Left out: no quench figure. */
+  gasketThickness: nonNegative('Gasket thickness').optional(),
+});
+
+export const bearingClearanceRequestSchema = z
+  .object({
+    unit: lengthUnitSchema,
+    housingBore: positive('Housing bore'),
+    journalDiameter: positive('Journal diameter'),
+    shellWall: positive('Shell wall'),
+  })
+  .superRefine((value, ctx) => {
+    const { housingBore, journalDiameter } = value;
+    if (typeof housingBore === 'number' && typeof journalDiameter === 'number' && journalDiameter >= housingBore) {
+      ctx.addIssue({ code: 'custom', path: ['journalDiameter'], message: 'Journal diameter must be smaller than the housing bore.' });
     }
   });
 
@@ -259,6 +330,11 @@ export const calculationRequestSchemas = {
   'deck-flatness': deckFlatnessRequestSchema,
   roughness: roughnessRequestSchema,
   'ring-gap': ringGapRequestSchema,
+  'dynamic-compression': dynamicCompressionRequestSchema,
+  'balance-tolerance': balanceToleranceRequestSchema,
+  'bob-weight': bobWeightRequestSchema,
+  'deck-clearance': deckClearanceRequestSchema,
+  'bearing-clearance': bearingClearanceRequestSchema,
 } as const;
 
 export type CalculationRoute = keyof typeof calculationRequestSchemas;
@@ -409,6 +485,35 @@ export const ringGapAnswerSchema = inRequestUnit({
   secondFactor: z.number(),
 });
 
+export const dynamicCompressionAnswerSchema = inRequestUnit({
+  staticRatio: z.number(),
+  dynamicRatio: z.number(),
+  /** Piston distance below top dead centre when the intake closes. */
+  effectiveStroke: z.number(),
+});
+
+export const balanceToleranceAnswerSchema = z.object({
+  specificUnbalanceGmmPerKg: z.number(),
+  permissibleUnbalanceGmm: z.number(),
+  perPlaneGmm: z.number(),
+});
+
+export const bobWeightAnswerSchema = z.object({
+  bobWeightGrams: z.number(),
+  reciprocatingFactor: z.number(),
+});
+
+export const deckClearanceAnswerSchema = inRequestUnit({
+  pistonDeckClearance: z.number(),
+  /** There only when the gasket thickness was given. */
+  quench: z.number().optional(),
+});
+
+export const bearingClearanceAnswerSchema = inRequestUnit({
+  clearance: z.number(),
+  clearancePerInchOfJournal: z.number(),
+});
+
 export type LengthUnitInput = z.infer<typeof lengthUnitSchema>;
 export type DisplacementRequest = z.infer<typeof displacementRequestSchema>;
 export type CompressionRatioRequest = z.infer<typeof compressionRatioRequestSchema>;
@@ -432,3 +537,13 @@ export type DeckFlatnessAnswer = z.infer<typeof deckFlatnessAnswerSchema>;
 export type AppliedFilterAnswer = z.infer<typeof appliedFilterSchema>;
 export type RoughnessAnswer = z.infer<typeof roughnessAnswerSchema>;
 export type RingGapAnswer = z.infer<typeof ringGapAnswerSchema>;
+export type DynamicCompressionRequest = z.infer<typeof dynamicCompressionRequestSchema>;
+export type BalanceToleranceRequest = z.infer<typeof balanceToleranceRequestSchema>;
+export type BobWeightRequest = z.infer<typeof bobWeightRequestSchema>;
+export type DeckClearanceRequest = z.infer<typeof deckClearanceRequestSchema>;
+export type BearingClearanceRequest = z.infer<typeof bearingClearanceRequestSchema>;
+export type DynamicCompressionAnswer = z.infer<typeof dynamicCompressionAnswerSchema>;
+export type BalanceToleranceAnswer = z.infer<typeof balanceToleranceAnswerSchema>;
+export type BobWeightAnswer = z.infer<typeof bobWeightAnswerSchema>;
+export type DeckClearanceAnswer = z.infer<typeof deckClearanceAnswerSchema>;
+export type BearingClearanceAnswer = z.infer<typeof bearingClearanceAnswerSchema>;

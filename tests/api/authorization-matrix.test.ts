@@ -353,6 +353,14 @@ const matrix: Record<string, Row> = {
     expect: all(200),
   },
   'POST /api/calculations/ring-gap': { body: { unit: 'in', bore: 4.03, application: 'street' }, expect: all(200) },
+  'POST /api/calculations/dynamic-compression': {
+    body: { unit: 'in', bore: 4.03, stroke: 3.48, chamberCc: 64, pistonCc: -5, deckClearance: 0.005, gasketBore: 4.1, gasketThickness: 0.04, rodLength: 5.7, intakeClosingDegAbdc: 60 },
+    expect: all(200),
+  },
+  'POST /api/calculations/balance-tolerance': { body: { rotorMassKg: 20, serviceRpm: 7000, grade: 2.5 }, expect: all(200) },
+  'POST /api/calculations/bob-weight': { body: { rotatingGrams: 1100, reciprocatingGrams: 1400 }, expect: all(200) },
+  'POST /api/calculations/deck-clearance': { body: { unit: 'in', deckHeight: 9.025, stroke: 3.48, rodLength: 5.7, compressionHeight: 1.56, gasketThickness: 0.015 }, expect: all(200) },
+  'POST /api/calculations/bearing-clearance': { body: { unit: 'in', housingBore: 2.689, journalDiameter: 2.4995, shellWall: 0.0935 }, expect: all(200) },
 
   // --- shops ---------------------------------------------------------------
   'GET /api/shops': { expect: all(200) },

@@ -141,6 +141,56 @@ describe('calculation API: answers', () => {
     near(res.body.topRing, 0.4064, 1e-12); // common practice (no published source): 0.004 per unit of bore for a street top ring
     expect(res.body.secondRing).toBeGreaterThan(res.body.topRing);
   });
+
+  it('when dynamic compression is asked with the intake closing at bottom dead centre, then it equals the static ratio; later closing lowers it', async () => {
+    const atBdc = await calc('dynamic-compression', { ...circleTrack, rodLength: 5.7, intakeClosingDegAbdc: 0 });
+    expect(atBdc.status).toBe(200);
+    expect(atBdc.body.unit).toBe('in');
+    expect(Math.abs(atBdc.body.staticRatio - 9.01)).toBeLessThan(0.01); // source: Circle Track, "Compression Ratio Rules" (worked example, 9.01)
+    near(atBdc.body.dynamicRatio, atBdc.body.staticRatio, 1e-12); // derived: Heywood §2.2, x(180°) = stroke
+    near(atBdc.body.effectiveStroke, 3.48, 1e-12);
+    const late = await calc('dynamic-compression', { ...circleTrack, rodLength: 5.7, intakeClosingDegAbdc: 60 });
+    expect(late.status).toBe(200);
+    const r = 1.74;
+    const theta = (240 * Math.PI) / 180;
+    near(late.body.effectiveStroke, r * (1 - Math.cos(theta)) + 5.7 - Math.sqrt(5.7 ** 2 - r ** 2 * Math.sin(theta) ** 2), 1e-12); // derived: Heywood §2.2 slider-crank
+    expect(late.body.dynamicRatio).toBeLessThan(late.body.staticRatio);
+  });
+
+  it('when a balance tolerance is asked for G 2.5, 20 kg at 7000 rev/min, then about 68.2 g·mm, half in each plane', async () => {
+    const res = await calc('balance-tolerance', { rotorMassKg: 20, serviceRpm: 7000, grade: 2.5 });
+    expect(res.status).toBe(200);
+    near(res.body.specificUnbalanceGmmPerKg, 3.41, 0.0005); // derived: ISO 21940-11 e_per = 9549 · G / n
+    near(res.body.permissibleUnbalanceGmm, 68.2, 0.05); // derived: ISO 21940-11 U_per = e_per · m
+    near(res.body.perPlaneGmm, res.body.permissibleUnbalanceGmm / 2, 1e-12);
+  });
+
+  it('when a bob weight is asked without a factor, then the 90° V8 share of 0.5 is used and named', async () => {
+    const res = await calc('bob-weight', { rotatingGrams: 1100, reciprocatingGrams: 1400 });
+    expect(res.status).toBe(200);
+    expect(res.body).toEqual({ bobWeightGrams: 1800, reciprocatingFactor: 0.5 }); // common practice: 100 % rotating + 50 % reciprocating for a 90° V8
+    const withOil = await calc('bob-weight', { rotatingGrams: 1100, reciprocatingGrams: 1400, reciprocatingFactor: 0.52, oilGrams: 4 });
+    near(withOil.body.bobWeightGrams, 1832, 1e-9); // derived: 1100 + 0.52 · 1400 + 4
+  });
+
+  it('when deck clearance is asked, then quench comes back only with a gasket', async () => {
+    const stack = { unit: 'in', deckHeight: 9.025, stroke: 3.48, rodLength: 5.7, compressionHeight: 1.56 };
+    const withGasket = await calc('deck-clearance', { ...stack, gasketThickness: 0.015 });
+    expect(withGasket.status).toBe(200);
+    near(withGasket.body.pistonDeckClearance, 0.025, 1e-12); // derived: 9.025 − (1.74 + 5.7 + 1.56)
+    near(withGasket.body.quench, 0.04, 1e-12); // derived: deck clearance + compressed gasket
+    const bare = await calc('deck-clearance', stack);
+    expect(bare.status).toBe(200);
+    expect(bare.body).not.toHaveProperty('quench');
+  });
+
+  it('when bearing clearance is asked in millimetres, then the clearance is in millimetres and the ratio is unit-free', async () => {
+    const res = await calc('bearing-clearance', { unit: 'mm', housingBore: 68.3, journalDiameter: 63.5, shellWall: 2.375 });
+    expect(res.status).toBe(200);
+    expect(res.body.unit).toBe('mm');
+    near(res.body.clearance, 0.05, 1e-9); // derived: 68.3 − 63.5 − 2 × 2.375
+    near(res.body.clearancePerInchOfJournal, 0.05 / 63.5, 1e-12); // derived: clearance ÷ journal
+  });
 });
 
 describe('calculation API: bad input', () => {
@@ -157,6 +207,11 @@ describe('calculation API: bad input', () => {
     ['roughness', { heightsUm: [], spacingUm: 1 }, ['heightsUm']],
     ['roughness', { heightsUm: [1, 2, 3, 4, 5, 6, 7, 8, 9, 'ten'], spacingUm: 0 }, ['heightsUm.9', 'spacingUm']],
     ['ring-gap', { unit: 'in', bore: 4, application: 'lawnmower' }, ['application']],
+    ['dynamic-compression', { ...circleTrack, rodLength: 1.5, intakeClosingDegAbdc: -5 }, ['intakeClosingDegAbdc', 'rodLength']],
+    ['balance-tolerance', { rotorMassKg: 0, serviceRpm: 7000, grade: 3 }, ['grade', 'rotorMassKg']],
+    ['bob-weight', { rotatingGrams: -1, reciprocatingGrams: 1400, reciprocatingFactor: 2 }, ['reciprocatingFactor', 'rotatingGrams']],
+    ['deck-clearance', { unit: 'in', deckHeight: 9, stroke: 0, rodLength: 5.7, compressionHeight: 1.5, gasketThickness: -0.01 }, ['gasketThickness', 'stroke']],
+    ['bearing-clearance', { unit: 'in', housingBore: 2.5, journalDiameter: 2.6, shellWall: 0.09 }, ['journalDiameter']],
   ];
 
   it.each(cases)('when %s gets impossible input %j, then 400 names each field', async (route, body, fields) => {

@@ -35,7 +35,7 @@ describe('the calculator page, as a signed-out visitor', () => {
       "Engine and piston makers' specifications, calibrated instruments, local codes and licensed practice govern.",
     );
     const inPage = page.getByRole('navigation', { name: 'Calculators on this page' });
-    await expect(inPage.getByRole('link').count()).resolves.toBe(8);
+    await expect(inPage.getByRole('link').count()).resolves.toBe(13);
     await page.screenshot({ path: join(artifactsDir, 'calculator-top-768.png') });
 
     // The in-page list jumps to a calculator without leaving the page.
@@ -92,6 +92,23 @@ describe('the calculator page, as a signed-out visitor', () => {
     const clearanceAfter = clearanceBefore - (Math.PI / 4) * 16 * 0.01 * CC_PER_CUBIC_INCH;
     expect(after).toBeCloseTo((swept + clearanceAfter) / clearanceAfter, 2);
     await compression.screenshot({ path: join(artifactsDir, 'calculator-compression.png') });
+    expect(consoleErrors).toEqual([]);
+  });
+
+  it('when a piston stack is typed, then the deck clearance and the quench show with the guidance note', async () => {
+    await openCalculator();
+    const deck = card('Deck clearance and quench');
+    await deck.getByLabel('Deck height (in)', { exact: true }).fill('9.025');
+    await deck.getByLabel('Stroke (in)', { exact: true }).fill('3.48');
+    await deck.getByLabel('Rod length (in)', { exact: true }).fill('5.7');
+    await deck.getByLabel('Compression height (in)', { exact: true }).fill('1.56');
+    // derived: 9.025 − (3.48/2 + 5.7 + 1.56) = 0.025 in below the deck (references.md "Stack-up and bearings")
+    await expect(deck.getByTestId('piston-deck-clearance').textContent()).resolves.toBe('0.0250 in');
+    await expect(deck.getByTestId('quench').count()).resolves.toBe(0);
+    await deck.getByLabel('Gasket thickness (in)', { exact: true }).fill('0.015');
+    // derived: quench = 0.025 + 0.015 in compressed gasket
+    await expect(deck.getByTestId('quench').textContent()).resolves.toBe('0.0400 in');
+    await expect(deck.getByRole('region', { name: 'Results: Deck clearance and quench' }).getByText('Guidance only.').isVisible()).resolves.toBe(true);
     expect(consoleErrors).toEqual([]);
   });
 

@@ -1,6 +1,23 @@
 import { PageTitle } from '@client/components/ui/card';
 import { Notice } from '@client/components/ui/notice';
-import { BoreCheckCalculator, BoreSizeCalculator, CompressionCalculator, CrosshatchCalculator, DeckFlatnessCalculator, DisplacementCalculator, RingGapCalculator, RoughnessCalculator, UnitSwitch, usePageUnit, CALCULATOR_SECTIONS } from '@client/features/calculations';
+import {
+  BalanceToleranceCalculator,
+  BearingClearanceCalculator,
+  BobWeightCalculator,
+  BoreCheckCalculator,
+  BoreSizeCalculator,
+  CompressionCalculator,
+  CrosshatchCalculator,
+  DeckClearanceCalculator,
+  DeckFlatnessCalculator,
+  DisplacementCalculator,
+  DynamicCompressionCalculator,
+  RingGapCalculator,
+  RoughnessCalculator,
+  UnitSwitch,
+  usePageUnit,
+  CALCULATOR_SECTIONS,
+} from '@client/features/calculations';
 
 /**
  * The public calculator page: every calculation of the shared library as a
@@ -14,7 +31,7 @@ export function CalculatorRoute() {
       <div>
         <PageTitle
           title="Machining calculator"
-          lead="Figures for the bench: engine size and compression, bore checks and sizes, honing angle, deck flatness, surface finish and ring gaps. Results appear as you type; nothing is sent or saved."
+          lead="Figures for the bench: engine size and compression, bore checks and sizes, honing angle, deck flatness, surface finish, ring gaps, stack-ups, bearing clearance and balance. Results appear as you type; nothing is sent or saved."
         />
         <Notice tone="caution" title="Guidance, not a specification">
           <p data-testid="guidance-caution">
@@ -44,12 +61,17 @@ export function CalculatorRoute() {
 
       <DisplacementCalculator unit={unit} />
       <CompressionCalculator unit={unit} />
+      <DynamicCompressionCalculator unit={unit} />
+      <DeckClearanceCalculator unit={unit} />
       <BoreCheckCalculator unit={unit} />
       <BoreSizeCalculator unit={unit} />
       <CrosshatchCalculator unit={unit} />
       <DeckFlatnessCalculator unit={unit} />
       <RoughnessCalculator />
       <RingGapCalculator unit={unit} />
+      <BearingClearanceCalculator unit={unit} />
+      <BalanceToleranceCalculator />
+      <BobWeightCalculator />
     </div>
   );
 }

@@ -6,7 +6,9 @@ import {
   compressionRatio,
   cylinderVolumeCc,
   displacement,
+  dynamicCompression,
   machiningEffect,
+  pistonPosition,
 } from '../../../shared/calc/engine';
 import { CalculationError } from '../../../shared/calc/errors';
 import { inchesToMm } from '../../../shared/calc/units';
@@ -202,6 +204,70 @@ describe('machiningEffect', () => {
           );
           expectRelativelyNear(b.after.compression.ratio, a.after.compression.ratio, 1e-10); // derived: 1 in = 25.4 mm exactly
           expectRelativelyNear(b.after.displacement.cc, a.after.displacement.cc, 1e-10); // derived: 1 in³ = 16.387064 cc exactly
+        },
+      ),
+    );
+  });
+});
+
+describe('pistonPosition', () => {
+  const stroke = 3.48;
+  const rodLength = 5.7;
+  const r = stroke / 2;
+
+  it('when the crank is at 0°, 90° and 180°, then the piston is at top, l + r − √(l² − r²), and a full stroke down', () => {
+    expect(pistonPosition({ stroke, rodLength, crankAngleDeg: 0 })).toBe(0); // derived: Heywood §2.2, x(0) = r·0 + l − l
+    expectRelativelyNear(pistonPosition({ stroke, rodLength, crankAngleDeg: 90 }), rodLength + r - Math.sqrt(rodLength ** 2 - r ** 2), 1e-12); // derived: Heywood §2.2 at θ = 90°
+    expectRelativelyNear(pistonPosition({ stroke, rodLength, crankAngleDeg: 180 }), stroke, 1e-12); // derived: Heywood §2.2, x(180°) = 2r
+  });
+
+  it('when the rod is not longer than half the stroke, then a CalculationError names the rod', () => {
+    expectCalculationError(() => pistonPosition({ stroke, rodLength: r, crankAngleDeg: 90 }), 'rodLength');
+  });
+});
+
+describe('dynamicCompression', () => {
+  const engine = { ...circleTrack, rodLength: 5.7 };
+
+  it('when the intake closes at bottom dead centre, then the dynamic ratio is the static ratio', () => {
+    const result = dynamicCompression({ ...engine, intakeClosingDegAbdc: 0 });
+    expectRelativelyNear(result.staticRatio, compressionRatio(circleTrack).ratio); // derived: the same clearance and swept volume
+    expectRelativelyNear(result.dynamicRatio, result.staticRatio, 1e-12); // derived: x(180°) = stroke
+    expectRelativelyNear(result.effectiveStroke, circleTrack.stroke, 1e-12); // derived: Heywood §2.2, x(180°) = 2r
+  });
+
+  it('when the intake closes 60° after bottom dead centre, then the effective stroke follows the slider-crank equation', () => {
+    const result = dynamicCompression({ ...engine, intakeClosingDegAbdc: 60 });
+    const r = circleTrack.stroke / 2;
+    const theta = (240 * Math.PI) / 180;
+    const x = r * (1 - Math.cos(theta)) + 5.7 - Math.sqrt(5.7 ** 2 - r ** 2 * Math.sin(theta) ** 2);
+    expectRelativelyNear(result.effectiveStroke, x, 1e-12); // derived: Heywood §2.2 at θ = 180° + 60°
+    const clearance = compressionRatio(circleTrack).clearanceCc;
+    expectRelativelyNear(result.dynamicRatio, (cylinderVolumeCc(4, x, 'in') + clearance) / clearance, 1e-12); // derived: (π/4 · d² · x + Vc) / Vc
+    expect(result.dynamicRatio).toBeLessThan(result.staticRatio);
+  });
+
+  it.each([
+    { change: { rodLength: 1.74 }, field: 'rodLength' },
+    { change: { intakeClosingDegAbdc: -1 }, field: 'intakeClosingDegAbdc' },
+    { change: { intakeClosingDegAbdc: 181 }, field: 'intakeClosingDegAbdc' },
+    { change: { bore: 0 }, field: 'bore' },
+  ])('when $field is impossible, then a CalculationError names it', ({ change, field }) => {
+    expectCalculationError(() => dynamicCompression({ ...engine, intakeClosingDegAbdc: 60, ...change }), field);
+  });
+
+  it('when the intake closes later, then the dynamic ratio never rises above the static ratio and falls as the angle grows', () => {
+    fc.assert(
+      fc.property(
+        fc.double({ min: 0, max: 180, noNaN: true }),
+        fc.double({ min: 0, max: 180, noNaN: true }),
+        fc.double({ min: 4.5, max: 7, noNaN: true }),
+        (a, b, rodLength) => {
+          const [early, late] = a <= b ? [a, b] : [b, a];
+          const first = dynamicCompression({ ...circleTrack, rodLength, intakeClosingDegAbdc: early });
+          const second = dynamicCompression({ ...circleTrack, rodLength, intakeClosingDegAbdc: late });
+          expect(first.dynamicRatio).toBeLessThanOrEqual(first.staticRatio); // derived: x ≤ stroke for 180° ≤ θ ≤ 360°
+          expect(second.dynamicRatio).toBeLessThanOrEqual(first.dynamicRatio); // derived: x falls from 180° to 360°
         },
       ),
     );

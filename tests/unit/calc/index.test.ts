@@ -26,6 +26,12 @@ describe('shared/calc index', () => {
       'amplitudeParameters',
       'materialRatioParameters',
       'materialRatioCurve',
+      'dynamicCompression',
+      'pistonPosition',
+      'balanceTolerance',
+      'bobWeight',
+      'deckClearance',
+      'bearingClearance',
     ];
     for (const name of expected) expect(typeof (calc as Record<string, unknown>)[name]).toBe('function');
   });

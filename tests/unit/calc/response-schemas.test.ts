@@ -1,6 +1,11 @@
 import { describe, expect, expectTypeOf, it } from 'vitest';
 import * as calc from '../../../shared/calc';
 import type {
+  BalanceToleranceResult,
+  BearingClearanceResult,
+  BobWeightResult,
+  DeckClearanceResult,
+  DynamicCompressionResult,
   BoreInspection,
   BoreSize,
   CompressionResult,
@@ -13,6 +18,16 @@ import type {
   RoughnessResult,
 } from '../../../shared/calc';
 import {
+  balanceToleranceAnswerSchema,
+  bearingClearanceAnswerSchema,
+  bobWeightAnswerSchema,
+  deckClearanceAnswerSchema,
+  dynamicCompressionAnswerSchema,
+  type BalanceToleranceAnswer,
+  type BearingClearanceAnswer,
+  type BobWeightAnswer,
+  type DeckClearanceAnswer,
+  type DynamicCompressionAnswer,
   boreInspectionAnswerSchema,
   boreSizeAnswerSchema,
   compressionRatioAnswerSchema,
@@ -50,6 +65,11 @@ describe('calculation answer schemas', () => {
     expectTypeOf<DeckFlatnessAnswer>().toEqualTypeOf<WithUnit<DeckFlatnessResult>>();
     expectTypeOf<RoughnessAnswer>().toEqualTypeOf<RoughnessResult>();
     expectTypeOf<RingGapAnswer>().toEqualTypeOf<WithUnit<RingGapResult>>();
+    expectTypeOf<DynamicCompressionAnswer>().toEqualTypeOf<WithUnit<DynamicCompressionResult>>();
+    expectTypeOf<BalanceToleranceAnswer>().toEqualTypeOf<BalanceToleranceResult>();
+    expectTypeOf<BobWeightAnswer>().toEqualTypeOf<BobWeightResult>();
+    expectTypeOf<DeckClearanceAnswer>().toEqualTypeOf<WithUnit<DeckClearanceResult>>();
+    expectTypeOf<BearingClearanceAnswer>().toEqualTypeOf<WithUnit<BearingClearanceResult>>();
   });
 
   const pair = { thrust: 4.0301, axial: 4.03 };
@@ -79,6 +99,19 @@ describe('calculation answer schemas', () => {
     ['roughness with spacing, unfiltered', roughnessAnswerSchema, calc.roughness(wave, 0.5)],
     ['roughness, Gaussian-filtered', roughnessAnswerSchema, calc.roughness(wave, 0.5, { kind: 'gaussian', cutoffMm: 0.08 })],
     ['ring-gap', ringGapAnswerSchema, { unit: 'in', ...calc.ringGap({ bore: 4.03, application: 'race' }) }],
+    [
+      'dynamic-compression',
+      dynamicCompressionAnswerSchema,
+      {
+        unit: 'in',
+        ...calc.dynamicCompression({ unit: 'in', bore: 4, stroke: 3.48, chamberCc: 70, pistonCc: 5, deckClearance: 0.05, gasketBore: 4, gasketThickness: 0.02, rodLength: 5.7, intakeClosingDegAbdc: 60 }),
+      },
+    ],
+    ['balance-tolerance', balanceToleranceAnswerSchema, calc.balanceTolerance({ rotorMassKg: 20, serviceRpm: 7000, grade: 2.5 })],
+    ['bob-weight', bobWeightAnswerSchema, calc.bobWeight({ rotatingGrams: 1100, reciprocatingGrams: 1400 })],
+    ['deck-clearance with a gasket', deckClearanceAnswerSchema, { unit: 'in', ...calc.deckClearance({ unit: 'in', deckHeight: 9.025, stroke: 3.48, rodLength: 5.7, compressionHeight: 1.56, gasketThickness: 0.015 }) }],
+    ['deck-clearance without a gasket', deckClearanceAnswerSchema, { unit: 'mm', ...calc.deckClearance({ unit: 'mm', deckHeight: 229, stroke: 88, rodLength: 145, compressionHeight: 39 }) }],
+    ['bearing-clearance', bearingClearanceAnswerSchema, { unit: 'in', ...calc.bearingClearance({ unit: 'in', housingBore: 2.689, journalDiameter: 2.4995, shellWall: 0.0935 }) }],
   ] as const)('when the %s answer is sent as JSON, then its schema takes it whole', (_name, schema, answer) => {
     expect(responseMismatch(schema, answer)).toBeNull();
   });

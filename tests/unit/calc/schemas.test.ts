@@ -1,6 +1,11 @@
 import { describe, it, expect } from 'vitest';
 import type { z } from 'zod';
 import {
+  balanceToleranceRequestSchema,
+  bearingClearanceRequestSchema,
+  bobWeightRequestSchema,
+  deckClearanceRequestSchema,
+  dynamicCompressionRequestSchema,
   boreInspectionRequestSchema,
   boreSizeRequestSchema,
   calculationRequestSchemas,
@@ -12,6 +17,7 @@ import {
   ringGapRequestSchema,
   roughnessRequestSchema,
 } from '../../../shared/schemas/calculations';
+import { circleTrack } from './expectations';
 
 /** The message for each failing path, joined with dots, e.g. { 'cylinders.0.top.thrust': '…' }. */
 function fieldMessages(schema: z.ZodType, input: unknown): Record<string, string> {
@@ -39,6 +45,11 @@ const valid = {
   'deck-flatness': { unit: 'in', readings: [0.001, 0.002], material: 'aluminium', gasket: 'mls' },
   roughness: { heightsUm: tenHeights, spacingUm: 0.5 },
   'ring-gap': { unit: 'mm', bore: 100, application: 'boost' },
+  'dynamic-compression': { ...circleTrack, rodLength: 5.7, intakeClosingDegAbdc: 60 },
+  'balance-tolerance': { rotorMassKg: 20, serviceRpm: 7000, grade: 2.5 },
+  'bob-weight': { rotatingGrams: 1100, reciprocatingGrams: 1400, reciprocatingFactor: 0.5, oilGrams: 4 },
+  'deck-clearance': { unit: 'in', deckHeight: 9.025, stroke: 3.48, rodLength: 5.7, compressionHeight: 1.56, gasketThickness: 0.015 },
+  'bearing-clearance': { unit: 'mm', housingBore: 68.3, journalDiameter: 63.5, shellWall: 2.375 },
 } as const;
 
 describe('calculation request schemas', () => {
@@ -47,10 +58,23 @@ describe('calculation request schemas', () => {
     expect(schema.parse(valid[route])).toEqual(valid[route]);
   });
 
-  it('when the route list is read, then it names the nine routes of the API', () => {
-    expect(Object.keys(calculationRequestSchemas).sort()).toEqual(
-      ['bore-inspection', 'bore-size', 'compression-ratio', 'crosshatch', 'crosshatch-rate', 'deck-flatness', 'displacement', 'ring-gap', 'roughness'],
-    );
+  it('when the route list is read, then it names the fourteen routes of the API', () => {
+    expect(Object.keys(calculationRequestSchemas).sort()).toEqual([
+      'balance-tolerance',
+      'bearing-clearance',
+      'bob-weight',
+      'bore-inspection',
+      'bore-size',
+      'compression-ratio',
+      'crosshatch',
+      'crosshatch-rate',
+      'deck-clearance',
+      'deck-flatness',
+      'displacement',
+      'dynamic-compression',
+      'ring-gap',
+      'roughness',
+    ]);
   });
 
   it.each([
@@ -168,6 +192,37 @@ describe('calculation request schemas', () => {
   it('when a ring-gap request names an unknown use, then application lists the choices', () => {
     expect(fieldMessages(ringGapRequestSchema, { ...valid['ring-gap'], application: 'nitrous' }).application).toBe(
       'Choose street, performance, race or boost.',
+    );
+  });
+
+  it('when a dynamic-compression request has a short rod and a closing angle past 180°, then each is named', () => {
+    const messages = fieldMessages(dynamicCompressionRequestSchema, { ...valid['dynamic-compression'], rodLength: 1.7, intakeClosingDegAbdc: 181 });
+    expect(messages.rodLength).toBe('Rod length must be longer than half the stroke.');
+    expect(messages.intakeClosingDegAbdc).toBe('Intake closing angle must be at most 180 degrees after bottom dead centre.');
+  });
+
+  it('when a dynamic-compression request leaves no space above the piston, then pistonCc explains it as the static ratio does', () => {
+    expect(fieldMessages(dynamicCompressionRequestSchema, { ...valid['dynamic-compression'], pistonCc: -100 }).pistonCc).toMatch(/no space above the piston/);
+  });
+
+  it('when a balance request names a grade outside ISO 21940-11, then grade lists the grades', () => {
+    expect(fieldMessages(balanceToleranceRequestSchema, { ...valid['balance-tolerance'], grade: 3 }).grade).toMatch(/^Choose an ISO 21940-11 balance grade: G 0.4, G 1, G 2.5, G 6.3/);
+  });
+
+  it('when a bob-weight factor is above 1, then reciprocatingFactor says so; factor and oil may be left out', () => {
+    expect(fieldMessages(bobWeightRequestSchema, { ...valid['bob-weight'], reciprocatingFactor: 1.5 }).reciprocatingFactor).toBe('Reciprocating factor must be at most 1.');
+    expect(bobWeightRequestSchema.safeParse({ rotatingGrams: 1100, reciprocatingGrams: 1400 }).success).toBe(true);
+  });
+
+  it('when a deck-clearance request has no gasket, then it parses; a zero rod is named', () => {
+    const { gasketThickness: _unused, ...noGasket } = valid['deck-clearance'];
+    expect(deckClearanceRequestSchema.safeParse(noGasket).success).toBe(true);
+    expect(fieldMessages(deckClearanceRequestSchema, { ...noGasket, rodLength: 0 }).rodLength).toBe('Rod length must be greater than zero.');
+  });
+
+  it('when a bearing journal is as large as its housing, then journalDiameter says so', () => {
+    expect(fieldMessages(bearingClearanceRequestSchema, { ...valid['bearing-clearance'], journalDiameter: 68.3 }).journalDiameter).toBe(
+      'Journal diameter must be smaller than the housing bore.',
     );
   });
 });

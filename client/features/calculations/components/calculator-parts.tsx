@@ -64,6 +64,20 @@ export function NumberField({ value, onValueChange, ...rest }: NumberFieldProps)
   );
 }
 
+/**
+ * A maker of NumberFields for one card: each field shows the typed text of
+ * its key, writes back through `setValue` and shows that key's error.
+ */
+export function numberFieldsFor<K extends string>(
+  values: Record<K, string>,
+  setValue: (key: K, text: string) => void,
+  errors: Record<string, string | undefined>,
+) {
+  return function field(key: K, label: string, hint?: string) {
+    return <NumberField label={label} value={values[key]} onValueChange={(text) => setValue(key, text)} error={errors[key]} hint={hint} />;
+  };
+}
+
 /** The results column: a tinted panel that announces changes politely to screen readers. */
 export function ResultsPanel({ title = 'Results', children, className }: { title?: string; children: ReactNode; className?: string }) {
   const card = useContext(CardTitle);

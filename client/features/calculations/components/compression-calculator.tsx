@@ -5,32 +5,13 @@ import { formatChange, formatLength, formatNumber, isBlank, toNumber } from '@cl
 import { runLiveCalculation, useLiveCalculation } from '../hooks/use-live-calculation';
 import { type FieldKind, useUnitForm } from '../hooks/use-unit-form';
 import { machiningChangeSchema } from '../lib/form-schemas';
+import { CompressionFieldGrid, compressionInitial, compressionInput, compressionLabels, compressionLengthKeys } from './compression-fields';
 import { CalculatorLayout, FieldGrid, FigureList, GuidanceNote, HeadlineFigure, MissingHint, NumberField } from './calculator-parts';
 
-const initial = {
-  bore: '',
-  stroke: '',
-  chamberCc: '',
-  pistonCc: '',
-  deckClearance: '',
-  gasketBore: '',
-  gasketThickness: '',
-  cylinders: '',
-  overbore: '',
-  deckCut: '',
-};
-const lengthKeys = new Set(['bore', 'stroke', 'deckClearance', 'gasketBore', 'gasketThickness', 'overbore', 'deckCut']);
+const initial = { ...compressionInitial, cylinders: '', overbore: '', deckCut: '' };
+const lengthKeys = new Set([...compressionLengthKeys, 'overbore', 'deckCut']);
 const kindOf = (key: string): FieldKind => (lengthKeys.has(key) ? 'length' : 'other');
-const labels: Record<string, string> = {
-  bore: 'the bore',
-  stroke: 'the stroke',
-  chamberCc: 'the chamber volume',
-  pistonCc: 'the piston volume',
-  deckClearance: 'the deck clearance',
-  gasketBore: 'the gasket bore',
-  gasketThickness: 'the gasket thickness',
-  cylinders: 'the number of cylinders',
-};
+const labels: Record<string, string> = { ...compressionLabels, cylinders: 'the number of cylinders' };
 
 const computeRatio = (data: CompressionRatioRequest): CompressionResult => compressionRatio(data);
 const identity = <T,>(data: T) => data;
@@ -92,19 +73,7 @@ function EffectTable({ effect, unit }: { effect: MachiningEffect; unit: LengthUn
 
 export function CompressionCalculator({ unit }: { unit: LengthUnit }) {
   const { values, setValue } = useUnitForm(unit, initial, kindOf);
-  const input = useMemo(
-    () => ({
-      unit,
-      bore: toNumber(values.bore),
-      stroke: toNumber(values.stroke),
-      chamberCc: toNumber(values.chamberCc),
-      pistonCc: toNumber(values.pistonCc),
-      deckClearance: toNumber(values.deckClearance),
-      gasketBore: toNumber(values.gasketBore),
-      gasketThickness: toNumber(values.gasketThickness),
-    }),
-    [unit, values],
-  );
+  const input = useMemo(() => compressionInput(unit, values), [unit, values]);
   const ratio = useLiveCalculation(compressionRatioRequestSchema, input, computeRatio);
 
   const wantsEffect = !isBlank(values.overbore) || !isBlank(values.deckCut);
@@ -152,15 +121,7 @@ export function CompressionCalculator({ unit }: { unit: LengthUnit }) {
       }
       inputs={
         <>
-          <FieldGrid>
-            {field('bore', `Bore (${unit})`)}
-            {field('stroke', `Stroke (${unit})`)}
-            {field('chamberCc', 'Chamber volume (cc)', 'Measured in the head.')}
-            {field('pistonCc', 'Piston volume (cc)', 'Dish or valve reliefs positive, dome negative.')}
-            {field('deckClearance', `Deck clearance (${unit})`, 'Piston below the deck at top dead centre positive, above it negative.')}
-            {field('gasketBore', `Gasket bore (${unit})`)}
-            {field('gasketThickness', `Gasket thickness (${unit})`, 'Compressed, as installed.')}
-          </FieldGrid>
+          <CompressionFieldGrid unit={unit} values={values} errors={ratio.errors} onValueChange={setValue} />
           <fieldset className="rounded-lg border border-slate-200 p-4">
             <legend className="px-1 text-sm font-bold text-ink">Optional: overbore and deck cut</legend>
             <p className="mb-3 text-sm text-ink-soft">
