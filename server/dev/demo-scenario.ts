@@ -300,6 +300,34 @@ export async function buildDemoScenario(options: ScenarioOptions): Promise<numbe
     await (await as(shopEmail)).call('POST', `/api/jobs/${jobId}/inspection`, record);
   }
 
+  /** A job with no bore work leaves out the bore specification. */
+  const noBoreWork: Partial<JobInput> = {
+    stockBore: undefined,
+    stroke: undefined,
+    pistonDiameter: undefined,
+    clearanceMin: undefined,
+    clearanceMax: undefined,
+    pistonType: undefined,
+    crosshatchMinDeg: undefined,
+    crosshatchMaxDeg: undefined,
+    finishRaMaxUm: undefined,
+    maxTaper: undefined,
+    maxOutOfRound: undefined,
+    deckFlatnessMax: undefined,
+    deckNotes: '',
+  };
+
+  /** Received, worked on, and the record of its own sections submitted. */
+  async function throughSections(jobId: string, shopEmail: string, sections: InspectionInput['sections'], note: string) {
+    await logMilestones(shopEmail, jobId, [{ kind: 'block_received', note }]);
+    await (await as(shopEmail)).call('POST', `/api/jobs/${jobId}/inspection`, {
+      conditions: { unit: 'in', gaugeResolution: 0.0001, temperatureF: 69.8 },
+      sections,
+      signedOffBy: shopNames[shopEmail],
+      notes: 'Measured after the parts had stood overnight in the inspection room.',
+    });
+  }
+
   const plans: Record<string, JobPlan> = {
     openWithBids: { key: 'open', builder: 'juno@builders.test', finishBore: 4.0305, photos: 2, ageDays: 2, input: inchV8({ title: 'Iron small-block V8: bore .030 over, torque-plate hone, deck', notes: 'Forged pistons in hand, measured and tagged per cylinder. Block has a light rust ring in two bores.' }) },
     openMetric: { key: 'open-metric', builder: 'teodor@builders.test', finishBore: 86.51, photos: 1, ageDays: 1, input: metricFour({ title: 'Aluminium inline-four: bore and plateau-hone to new pistons', region: 'Oregon', city: 'Eugene', logistics: 'drop-off' }) },
@@ -314,6 +342,65 @@ export async function buildDemoScenario(options: ScenarioOptions): Promise<numbe
     done4: { key: 'done-4', builder: 'teodor@builders.test', finishBore: 4.0305, photos: 1, ageDays: 25, input: inchV8({ title: 'Fishing-boat V8: hone and deck', region: 'Georgia', city: 'Savannah', neededBy: isoDay(8) }) },
     disputed: { key: 'disputed', builder: 'mireille@builders.test', finishBore: 4.0305, photos: 2, ageDays: 20, input: inchV8({ title: 'Drag V8: bore, hone, deck (tight taper limit)', region: 'Georgia', city: 'Macon', maxTaper: 0.0003, neededBy: isoDay(9) }) },
     resolved: { key: 'resolved', builder: 'teodor@builders.test', finishBore: 4.0305, photos: 1, ageDays: 45, input: inchV8({ title: 'Work-truck V8: bore and hone', neededBy: isoDay(4) }) },
+    bottomEnd: {
+      key: 'bottom-end',
+      builder: 'juno@builders.test',
+      finishBore: 0,
+      photos: 0,
+      ageDays: 14,
+      input: inchV8({
+        title: 'Big-block bottom end: line hone the mains, grind the crank .010 under',
+        engineFamily: 'Big-block V8, cast iron, 1960s',
+        parts: ['block', 'crankshaft'],
+        ...noBoreWork,
+        operations: [
+          { code: 'line-hone', quantity: 1 },
+          { code: 'crank-grind', quantity: 1 },
+        ],
+        limits: { lineHone: { housingMin: 2.9365, housingMax: 2.9375 }, crankGrind: { mainStandard: 2.7495, rodStandard: 2.1985 } },
+        region: 'Indiana',
+        city: 'Muncie',
+        neededBy: isoDay(12),
+      }),
+    },
+    balanced: {
+      key: 'balanced',
+      builder: 'teodor@builders.test',
+      finishBore: 0,
+      photos: 0,
+      ageDays: 22,
+      input: inchV8({
+        title: 'Rotating assembly to balance for a 7,000 rpm build',
+        parts: ['rotating-assembly'],
+        ...noBoreWork,
+        blockMaterial: undefined,
+        operations: [{ code: 'balance', quantity: 1 }],
+        limits: { balance: { grade: 2.5, serviceRpm: 7000 } },
+        neededBy: isoDay(9),
+      }),
+    },
+    heads: {
+      key: 'heads',
+      builder: 'mireille@builders.test',
+      finishBore: 0,
+      photos: 0,
+      ageDays: 10,
+      input: inchV8({
+        title: 'Pair of aluminium heads: resurface and a three-angle valve job',
+        engineFamily: 'Small-block V8 aluminium heads, 64 cc chambers',
+        parts: ['heads'],
+        blockMaterial: 'aluminium',
+        ...noBoreWork,
+        operations: [
+          { code: 'head-resurface', quantity: 2 },
+          { code: 'valve-job', quantity: 2 },
+        ],
+        limits: { headResurface: { maxStockRemoved: 0.005 }, valveJob: { installedHeight: 1.8, springPressureMin: 120 } },
+        region: 'Oregon',
+        city: 'Medford',
+        neededBy: isoDay(11),
+      }),
+    },
     cancelled: { key: 'cancelled', builder: 'juno@builders.test', finishBore: 4.0305, photos: 0, ageDays: 9, input: inchV8({ title: 'Spare V8 block: deck only (sold the block)', operations: [{ code: 'deck', quantity: 1 }] }) },
   };
   const ids: Record<string, string> = {};
@@ -412,6 +499,24 @@ export async function buildDemoScenario(options: ScenarioOptions): Promise<numbe
   });
   step('dispute decided by a split');
 
+  // Work beyond the bores, each through its own sections of the record (readings invented, plausible).
+  ids.bottomEnd = await post(plans.bottomEnd);
+  await awardAndPay(plans.bottomEnd, ids.bottomEnd, await bid('bench@lanternhill.test', ids.bottomEnd, plans.bottomEnd, { turnaroundDays: 7 }));
+  await throughSections(ids.bottomEnd, 'bench@lanternhill.test', bottomEndSections(), 'Block and crank arrived together; main caps numbered and bagged.');
+  step('line hone and crank grind: record waiting, one rod journal under size');
+
+  ids.balanced = await post(plans.balanced);
+  await awardAndPay(plans.balanced, ids.balanced, await bid('desk@kessrow.test', ids.balanced, plans.balanced, { turnaroundDays: 4 }));
+  await throughSections(ids.balanced, 'desk@kessrow.test', balanceSections(), 'Crank, rods, pistons, pins, rings and bearings received, each bagged by cylinder.');
+  await (await as(plans.balanced.builder)).call('POST', `/api/jobs/${ids.balanced}/inspection/accept`);
+  await waitFor('the payout', async () => (await (await as(plans.balanced.builder)).call<{ job: { status: string } }>('GET', `/api/jobs/${ids.balanced}`)).job.status === 'completed');
+  step('balanced, accepted and paid out');
+
+  ids.heads = await post(plans.heads);
+  await awardAndPay(plans.heads, ids.heads, await bid('floor@orrinvale.test', ids.heads, plans.heads, { turnaroundDays: 6 }));
+  await throughSections(ids.heads, 'floor@orrinvale.test', headSections(), 'Both heads received with valves, springs and retainers in labelled trays.');
+  step('head job: record waiting');
+
   ids.cancelled = await post(plans.cancelled);
   await (await as(plans.cancelled.builder)).call('POST', `/api/jobs/${ids.cancelled}/cancel`, {});
   step('cancelled before any bid');
@@ -435,4 +540,66 @@ async function waitFor(what: string, check: () => Promise<boolean>, timeoutMs = 
     if (Date.now() > deadline) throw new Error(`demo scenario: timed out waiting for ${what}`);
     await new Promise((resolve) => setTimeout(resolve, 100));
   }
+}
+
+// ---------------------------------------------------------------------------
+// Records beyond the bores (invented, plausible readings in inches at 21 °C)
+
+const journalAt = (size: number, oval = 0, taper = 0) => ({ front: { vertical: size, horizontal: size - oval }, rear: { vertical: size - taper, horizontal: size - taper - oval } });
+
+/** Five main housing bores just inside 2.9365–2.9375 in, straight on the bar; mains and rods .010 under, one rod journal a tenth under its range. */
+function bottomEndSections(): InspectionInput['sections'] {
+  const housing = (v: number, s: number, centre: number) => ({ vertical: { front: v, rear: v + 0.0001 }, second: { front: s, rear: s }, centre });
+  return {
+    lineHone: {
+      secondDirection: '45',
+      bores: [housing(2.9371, 2.937, 0), housing(2.9372, 2.9371, 0.0001), housing(2.9371, 2.9371, 0.0002), housing(2.9372, 2.937, 0.0001), housing(2.9371, 2.9371, 0)],
+    },
+    crankGrind: {
+      undersize: 0.01,
+      mains: Array.from({ length: 5 }, (_, i) => journalAt(2.7394 - (i % 2) * 0.0001, 0.0001)),
+      rods: Array.from({ length: 8 }, (_, i) => journalAt(i === 5 ? 2.1877 : 2.1884 - (i % 3) * 0.0001, 0.0001)),
+      raUm: 0.18,
+    },
+  };
+}
+
+/** Weighed parts of a V8 rotating assembly and the residual after two correction runs. */
+function balanceSections(): InspectionInput['sections'] {
+  return {
+    balance: {
+      rotatingGrams: 1264,
+      reciprocatingGrams: 1196,
+      bobWeightGrams: 1862.5,
+      rotorMassKg: 22.7,
+      grade: 2.5,
+      serviceRpm: 7000,
+      residual: [
+        { plane: 'front', gmm: 24 },
+        { plane: 'rear', gmm: 31 },
+      ],
+    },
+  };
+}
+
+/** Two heads surfaced flat; sixteen valves set to height. */
+function headSections(): InspectionInput['sections'] {
+  const positions = ['lengthwise, left edge', 'lengthwise, centre', 'lengthwise, right edge', 'diagonal A', 'diagonal B'];
+  const head = (worst: number, stock: number) => ({ straightedge: positions.map((position, i) => ({ position, value: i === 1 ? worst : 0.0005 })), stockRemoved: stock, chamberBeforeCc: 64.2, chamberAfterCc: 63.4 });
+  return {
+    headResurface: { heads: [head(0.001, 0.004), head(0.0008, 0.003)] },
+    valveJob: {
+      valves: Array.from({ length: 16 }, (_, i) => {
+        const exhaust = i % 2 === 1;
+        return {
+          label: `${Math.floor(i / 2) + 1} ${exhaust ? 'exhaust' : 'intake'}`,
+          kind: exhaust ? ('exhaust' as const) : ('intake' as const),
+          seatWidth: exhaust ? 0.07 : 0.05,
+          installedHeight: 1.8 + (i % 3) * 0.002,
+          stemToGuide: exhaust ? 0.0022 : 0.0016,
+          springPressure: 128 + (i % 4),
+        };
+      }),
+    },
+  };
 }

@@ -40,7 +40,7 @@ afterAll(async () => {
 
 describe('the demo scenario', () => {
   it('has jobs in every state, each built through the app', async () => {
-    expect(made).toBe(14);
+    expect(made).toBe(17);
     const rows = await db.select({ status: jobs.status, n: sql<number>`count(*)::int` }).from(jobs).groupBy(jobs.status);
     const byStatus = Object.fromEntries(rows.map((r) => [r.status, r.n]));
     for (const status of ['draft', 'open', 'awarded', 'funded', 'in_work', 'inspection_submitted', 'completed', 'disputed', 'resolved', 'cancelled']) {
@@ -70,6 +70,18 @@ describe('the demo scenario', () => {
     expect(records.filter((r) => r.status === 'accepted').every((r) => r.pass)).toBe(true);
     expect(records.filter((r) => r.jobStatus === 'disputed' || r.jobStatus === 'resolved').every((r) => !r.pass)).toBe(true);
     expect(records.length).toBeGreaterThanOrEqual(7);
+  });
+
+  it('has records for work beyond the bores, each section judged by the server, one of them failing a check', async () => {
+    const rows = await db.select({ title: jobs.title, results: inspectionRecords.results }).from(inspectionRecords).innerJoin(jobs, eq(jobs.id, inspectionRecords.jobId));
+    const sectionsOf = (words: RegExp) => {
+      const row = rows.find((r) => words.test(r.title))!;
+      const results = row.results as { verdict: string; sections: Array<{ operation: string; verdict: string }>; checks: Array<{ what: string; verdict: string }> };
+      return { verdict: results.verdict, sections: Object.fromEntries(results.sections.map((s) => [s.operation, s.verdict])), failing: results.checks.filter((c) => c.verdict === 'fails').map((c) => c.what) };
+    };
+    expect(sectionsOf(/line hone the mains/)).toEqual({ verdict: 'fail', sections: { 'line-hone': 'conforms', 'crank-grind': 'fails' }, failing: ['rod journal 6 size'] });
+    expect(sectionsOf(/Rotating assembly to balance/)).toEqual({ verdict: 'pass', sections: { balance: 'conforms' }, failing: [] });
+    expect(sectionsOf(/aluminium heads/)).toEqual({ verdict: 'pass', sections: { 'head-resurface': 'conforms', 'valve-job': 'conforms' }, failing: [] });
   });
 
   it('has an open dispute with both sides’ statements in the admin queue', async () => {
