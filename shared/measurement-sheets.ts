@@ -100,6 +100,28 @@ export const measurementSheets: Readonly<Record<OperationCode, readonly Measurem
   ],
 };
 
+/**
+ * What the server works out from each sheet's readings and judges (shared/calc/record-sections.ts
+ * and inspection-record.ts); the job limits that apply are the operation's group in
+ * shared/operation-limits.ts (`limitGroupOperation`), plus the bore limits of the job's spec for bore work.
+ */
+export const sheetComputes: Readonly<Record<OperationCode, readonly string[]>> = {
+  clean: ['clean or not'],
+  'crack-test': ['crack found or not (a crack stops the record)'],
+  bore: ['size against the finished size', 'piston clearance on the thrust axis', 'taper', 'out-of-round'],
+  hone: ['size', 'piston clearance', 'taper', 'out-of-round', 'Ra (and Rk family) from a trace', 'crosshatch included angle'],
+  'plateau-hone': ['size', 'piston clearance', 'taper', 'out-of-round', 'Rk, Rpk, Rvk', 'crosshatch included angle'],
+  'torque-plate-hone': ['size', 'piston clearance', 'taper', 'out-of-round', 'Ra', 'crosshatch included angle'],
+  deck: ['out-of-flat (largest straightedge reading)', 'deck height front to rear and side to side', 'deck height against the target', 'deck Ra'],
+  'line-hone': ['housing size per bore', 'out-of-round per bore', 'taper per bore', 'alignment against the line through the end bores'],
+  sleeve: ['interference fit per cylinder', 'flange protrusion', 'the new bore as for bore work'],
+  'cam-bore': ['bearing inside diameter', 'clearance where the cam journals are given'],
+  'head-resurface': ['out-of-flat per head', 'stock removed', 'chamber volume change'],
+  'valve-job': ['seat width', 'installed height against the target', 'stem-to-guide clearance', 'spring pressure at installed height'],
+  'crank-grind': ['journal size against standard less undersize', 'journal taper', 'journal out-of-round', 'journal Ra'],
+  balance: ['bob weight from the weighed parts', 'permissible unbalance per plane (ISO 21940-11)', 'residual unbalance per plane'],
+};
+
 /** The catalogue with each operation's sheet, as GET /api/catalogue answers it. */
 export function catalogueWithSheets() {
   return operations.map((op) => ({
