@@ -148,6 +148,21 @@ describe('deck heights', () => {
   });
 });
 
+describe('a record that leaves out ordered work', () => {
+  it('property: whatever work is ordered, a record with no readings for it is never a pass, and every ordered operation has a section result', () => {
+    const codes = ['clean', 'crack-test', 'deck', 'line-hone', 'cam-bore', 'head-resurface', 'valve-job', 'crank-grind', 'balance'];
+    fc.assert(
+      fc.property(fc.subarray(codes, { minLength: 1 }), (ordered) => {
+        const result = evaluateInspection(record({}), spec(ordered));
+        expect(result.verdict).not.toBe('pass');
+        expect(result.pass).toBe(false);
+        expect(result.sections!.map((s) => s.operation).sort()).toEqual([...ordered].sort());
+        expect(result.sections!.every((s) => s.verdict === 'not-judged')).toBe(true);
+      }),
+    );
+  });
+});
+
 describe('the limits declaration', () => {
   it('every default names its source and gives both units, the millimetre figure within 5 % of the inch one', () => {
     for (const group of limitGroups) {
