@@ -256,15 +256,16 @@ describe('keyboard use, in a real browser', () => {
     // A radio group is one Tab stop; Space chooses the focused radio.
     await tabTo(page, 'Cast iron');
     await page.keyboard.press('Space');
+    // The bore specification follows the work: tick the bore work first.
+    await tabTo(page, 'Bore');
+    await page.keyboard.press('Space');
+    await tabTo(page, 'Hone');
+    await page.keyboard.press('Space');
     await typeInto('Stock bore (in)', '3.500');
     await typeInto('Stroke (in)', '3.25');
     await typeInto('Target bore (in), optional', '3.530');
     await tabTo(page, 'Piston type');
     await page.keyboard.type('Forged');
-    await tabTo(page, 'Bore');
-    await page.keyboard.press('Space');
-    await tabTo(page, 'Hone');
-    await page.keyboard.press('Space');
     await tabTo(page, 'I ship the parts to the shop');
     await page.keyboard.press('Space');
     await typeInto('Country', 'United States');
