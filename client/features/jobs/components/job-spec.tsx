@@ -51,7 +51,13 @@ function LimitFacts({ group, limits, unit }: { group: LimitGroup; limits: Operat
     const applied = limitFor(limits, group, key as never, unit);
     if (!applied) return undefined;
     const figure = formatLimit(applied.value, field.kind, unit);
-    return [field.label, applied.isDefault ? `${figure} (default) — ${applied.source}` : figure];
+    if (!applied.isDefault) return [field.label, figure];
+    return [
+      field.label,
+      <>
+        {figure} <span className="font-normal text-ink-soft">(default) — {applied.source}</span>
+      </>,
+    ];
   });
   return <Facts items={items} empty="None given." />;
 }

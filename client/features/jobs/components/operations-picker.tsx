@@ -121,7 +121,8 @@ export function OperationsPicker({ value, onChange, cylinders, parts, error, qua
                     className={cn(
                       'flex items-start gap-3 rounded-lg p-3 ring-1',
                       chosen ? 'bg-white ring-slate-500' : 'bg-paper-raised ring-slate-200',
-                      unavailable && 'opacity-75',
+                      // Unavailable work keeps its text at full contrast; the dashed edge and the note say it cannot be ticked.
+                      unavailable && 'ring-0 outline-1 outline-dashed outline-slate-400',
                     )}
                   >
                     <input
