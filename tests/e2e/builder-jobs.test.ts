@@ -315,6 +315,7 @@ describe('a builder posting a job and choosing a shop, in a real browser', () =>
     await form.getByText('Largest journal Ra (µm) must be a number.').waitFor();
     await expect(ra.getAttribute('aria-invalid')).resolves.toBe('true');
     await expect(page.locator(`[id="${(await ra.getAttribute('aria-describedby'))!.split(' ').at(-1)}"]`).textContent()).resolves.toBe('Largest journal Ra (µm) must be a number.');
+    await page.screenshot({ path: join(artifactsDir, 'job-form-crank-grind.png'), fullPage: true });
     await ra.fill('');
     await form.getByRole('button', { name: 'Save draft' }).click();
 
