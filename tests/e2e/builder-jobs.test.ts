@@ -301,6 +301,12 @@ describe('a builder posting a job and choosing a shop, in a real browser', () =>
     await expect(form.getByTestId('guidance-caution').count()).resolves.toBe(2);
     await limits.getByLabel('Main journal standard diameter (in), optional').fill('2.4995');
     await limits.getByLabel('Largest journal taper (in), optional').fill('0.0002');
+    // Millimetres convert the limits typed (1 in = 25.4 mm exactly: 2.4995 in = 63.4873 mm) and show the millimetre defaults, and back.
+    await form.getByRole('radio', { name: 'Millimetres' }).click();
+    await expect(limits.getByLabel('Main journal standard diameter (mm), optional').inputValue()).resolves.toBe('63.4873');
+    await limits.getByText('Empty: 0.013 mm — common practice, from memory; the maker’s figure governs').first().waitFor();
+    await form.getByRole('radio', { name: 'Inches' }).click();
+    await expect(limits.getByLabel('Main journal standard diameter (in), optional').inputValue()).resolves.toBe('2.4995');
     const ra = limits.getByLabel('Largest journal Ra (µm), optional');
     await ra.fill('smooth');
 
