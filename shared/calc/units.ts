@@ -76,3 +76,6 @@ export function microinchesToMicrometres(microinches: number): number {
 export function micrometresToMicroinches(micrometres: number): number {
   return micrometres / MICROMETRES_PER_MICROINCH;
 }
+
+/** Newtons in one pound-force (exact by definition: 0.45359237 kg × 9.80665 m/s²). */
+export const NEWTONS_PER_POUND_FORCE = 4.4482216152605;

@@ -39,6 +39,16 @@ const sentEmpty = (button: string): Stop['then'] => async (page) => {
   await page.locator('[aria-invalid="true"]').first().waitFor();
 };
 
+/** Sends the job form with a block and a rotating assembly, the work on them ticked and one limit mistyped: the limits fieldsets, their defaults and their messages are checked too. */
+const jobWithLimitsSent: Stop['then'] = async (page) => {
+  const form = page.getByRole('form', { name: 'Job details' });
+  await form.getByRole('checkbox', { name: 'Rotating assembly (crankshaft, rods and pistons)' }).check();
+  for (const work of ['Deck', 'Line hone', 'Crank grind', 'Balance']) await form.getByRole('checkbox', { name: work, exact: true }).check();
+  await form.getByLabel('Largest main housing bore (in), optional').fill('wide');
+  await form.getByRole('button', { name: 'Save draft' }).click();
+  await page.locator('[aria-invalid="true"]').first().waitFor();
+};
+
 /**
  * Opens each path and runs axe over it; returns one readable line per serious
  * or critical violation (page, rule, help text, the elements it found), so a
@@ -140,6 +150,16 @@ describe('accessibility (WCAG 2.1 A and AA) of every main page, in a real browse
     const { job: funded, builder, shop } = await suite.fundedJob(builderEmail, shopEmail, { title: 'Paid bore job for the accessibility check' });
     const { job: open } = await builder<{ job: JobDetail }>('POST', '/api/jobs', jobInput({ title: 'Open hone job for the accessibility check' }));
     await builder('POST', `/api/jobs/${open.id}/publish`);
+    const { job: balance } = await builder<{ job: JobDetail }>(
+      'POST',
+      '/api/jobs',
+      jobInput({
+        title: 'Bore and balance job for the accessibility check',
+        parts: ['block', 'rotating-assembly'],
+        operations: [{ code: 'bore', quantity: 8 }, { code: 'balance', quantity: 1 }],
+        limits: { balance: { grade: 2.5, serviceRpm: 6500 } },
+      }),
+    );
     await shop('POST', `/api/jobs/${open.id}/bids`, bidInput({ note: 'Torque plate honing included.' }));
     const { thread } = await shop<{ thread: { id: string } }>('POST', `/api/jobs/${funded.id}/threads`);
     await shop('POST', `/api/threads/${thread.id}/messages`, { clientId: 'a11y-check-0001', body: 'The block is booked in for next Tuesday.' });
@@ -150,6 +170,8 @@ describe('accessibility (WCAG 2.1 A and AA) of every main page, in a real browse
       '/jobs',
       '/jobs/new',
       { path: '/jobs/new', then: sentEmpty('Save draft'), label: '/jobs/new (sent empty)' },
+      { path: '/jobs/new', then: jobWithLimitsSent, label: '/jobs/new (limits for each kind of work, one mistyped)' },
+      `/jobs/${balance.id}`,
       `/jobs/${funded.id}?thread=${thread.id}`,
       `/jobs/${open.id}`,
       '/messages',
@@ -256,15 +278,16 @@ describe('keyboard use, in a real browser', () => {
     // A radio group is one Tab stop; Space chooses the focused radio.
     await tabTo(page, 'Cast iron');
     await page.keyboard.press('Space');
+    // The bore specification follows the work: tick the bore work first.
+    await tabTo(page, 'Bore');
+    await page.keyboard.press('Space');
+    await tabTo(page, 'Hone');
+    await page.keyboard.press('Space');
     await typeInto('Stock bore (in)', '3.500');
     await typeInto('Stroke (in)', '3.25');
     await typeInto('Target bore (in), optional', '3.530');
     await tabTo(page, 'Piston type');
     await page.keyboard.type('Forged');
-    await tabTo(page, 'Bore');
-    await page.keyboard.press('Space');
-    await tabTo(page, 'Hone');
-    await page.keyboard.press('Space');
     await tabTo(page, 'I ship the parts to the shop');
     await page.keyboard.press('Space');
     await typeInto('Country', 'United States');

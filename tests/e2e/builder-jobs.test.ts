@@ -270,6 +270,81 @@ describe('a builder posting a job and choosing a shop, in a real browser', () =>
     expect(consoleErrors, consoleErrors.join("\n")).toEqual([]);
   });
 
+  it('when the builder posts a crank-only grind with limits, then no block or bore spec is asked, and the job page lists the limits with the defaults that apply and their source', async () => {
+    await signIn(builder.email, '/jobs/new');
+    const form = page.getByRole('form', { name: 'Job details' });
+    const figures = page.getByRole('complementary', { name: 'Live figures' });
+    await form.getByLabel('Job title').fill('Grind an inline-six crank ten under');
+    await form.getByLabel('Engine', { exact: true }).fill('Inline six, 1960s');
+    await form.getByLabel('Layout').selectOption('inline');
+    await form.getByLabel('Cylinders', { exact: true }).fill('6');
+
+    // Only the crankshaft is sent: no material is asked, and block work cannot be ticked.
+    const sent = form.getByRole('group', { name: 'What you send' });
+    await sent.getByRole('checkbox', { name: 'Block', exact: true }).uncheck();
+    await sent.getByRole('checkbox', { name: 'Crankshaft', exact: true }).check();
+    await expect(form.getByRole('radio', { name: 'Cast iron' }).count()).resolves.toBe(0);
+    const bore = form.getByRole('checkbox', { name: 'Bore', exact: true });
+    await expect(bore.isDisabled()).resolves.toBe(true);
+    const boreNotes = (await bore.getAttribute('aria-describedby'))!.split(' ');
+    await expect(page.locator(`[id="${boreNotes[1]}"]`).textContent()).resolves.toBe('Add the block to what you send to choose this.');
+    await form.getByRole('checkbox', { name: 'Crank grind', exact: true }).check();
+    await expect(form.getByLabel('Stock bore (in)').count()).resolves.toBe(0);
+    await figures.getByText('Displacement and bore sizes show for work on the cylinder bores.').waitFor();
+
+    // The limits come from their declaration, each default shown under its field with its source.
+    const limits = form.getByRole('group', { name: 'Limits for crank grind' });
+    const tolerance = limits.getByLabel('Journal size tolerance (below the finished size) (in), optional');
+    const toleranceNotes = (await tolerance.getAttribute('aria-describedby'))!.split(' ');
+    await expect(page.locator(`[id="${toleranceNotes[0]}"]`).textContent()).resolves.toBe('Empty: 0.0005 in — common practice, from memory; the maker’s figure governs');
+    // The caution stands under the limits as well as beside the live figures.
+    await expect(form.getByTestId('guidance-caution').count()).resolves.toBe(2);
+    await limits.getByLabel('Main journal standard diameter (in), optional').fill('2.4995');
+    await limits.getByLabel('Largest journal taper (in), optional').fill('0.0002');
+    // Millimetres convert the limits typed (1 in = 25.4 mm exactly: 2.4995 in = 63.4873 mm) and show the millimetre defaults, and back.
+    await form.getByRole('radio', { name: 'Millimetres' }).click();
+    await expect(limits.getByLabel('Main journal standard diameter (mm), optional').inputValue()).resolves.toBe('63.4873');
+    await limits.getByText('Empty: 0.013 mm — common practice, from memory; the maker’s figure governs').first().waitFor();
+    await form.getByRole('radio', { name: 'Inches' }).click();
+    await expect(limits.getByLabel('Main journal standard diameter (in), optional').inputValue()).resolves.toBe('2.4995');
+    const ra = limits.getByLabel('Largest journal Ra (µm), optional');
+    await ra.fill('smooth');
+
+    await form.getByRole('radio', { name: 'I ship the parts to the shop' }).check();
+    await form.getByLabel('Country').fill('United States');
+    await form.getByLabel('State, province or county').fill('Ohio');
+    await form.getByLabel('Town or city').fill('Columbus');
+    await form.getByLabel('Date you need the parts back').fill(inDays(21));
+
+    // A limit that is not a number is marked beside it, by its nested path.
+    await form.getByRole('button', { name: 'Save draft' }).click();
+    await form.getByText('Largest journal Ra (µm) must be a number.').waitFor();
+    await expect(ra.getAttribute('aria-invalid')).resolves.toBe('true');
+    await expect(page.locator(`[id="${(await ra.getAttribute('aria-describedby'))!.split(' ').at(-1)}"]`).textContent()).resolves.toBe('Largest journal Ra (µm) must be a number.');
+    await page.screenshot({ path: join(artifactsDir, 'job-form-crank-grind.png'), fullPage: true });
+    await ra.fill('');
+    await form.getByRole('button', { name: 'Save draft' }).click();
+
+    await page.waitForURL(/\/jobs\/[0-9a-f-]{36}$/);
+    await page.getByRole('heading', { level: 1, name: 'Grind an inline-six crank ten under' }).waitFor();
+    await page.getByRole('heading', { name: 'Limits for crank grind' }).waitFor();
+    await expect(page.getByText('Crankshaft', { exact: true }).isVisible()).resolves.toBe(true);
+    await expect(page.getByText('2.4995 in', { exact: true }).isVisible()).resolves.toBe(true);
+    await expect(page.getByText('0.0002 in', { exact: true }).isVisible()).resolves.toBe(true);
+    await expect(page.getByText('0.0005 in (default) — common practice, from memory; the maker’s figure governs', { exact: true }).isVisible()).resolves.toBe(true);
+    await expect(page.getByText('0.25 µm (default) — common practice, from memory; the maker’s figure governs', { exact: true }).isVisible()).resolves.toBe(true);
+    await expect(page.getByText('Stock bore', { exact: true }).count()).resolves.toBe(0);
+    await page.screenshot({ path: join(artifactsDir, 'job-crank-grind-limits.png'), fullPage: true });
+
+    const jobId = new URL(page.url()).pathname.split('/').pop()!;
+    const juno = await apiAs(builder);
+    const { job } = await juno.send('GET', `/api/jobs/${jobId}`);
+    expect(job.spec).toMatchObject({ parts: ['crankshaft'], operations: [{ code: 'crank-grind', quantity: 1 }], limits: { crankGrind: { mainStandard: 2.4995, maxTaper: 0.0002 } } });
+    expect(job.spec.limits.crankGrind).not.toHaveProperty('journalRaMaxUm');
+    expect(job.blockMaterial).toBeNull();
+    expect(consoleErrors, consoleErrors.join("\n")).toEqual([]);
+  });
+
   it('when the builder edits an open job that has a bid, then the page warns that the bidder will be told; cancelling asks first', async () => {
     const job = await builderJob({ title: 'Line hone an aluminium block' }, true);
     await shopBids(await apiAs(lanternHill), job.id, {}, {});

@@ -12,6 +12,8 @@ export async function fillIronV8Job(form: Locator, job: { title: string; cylinde
   await form.getByLabel('Layout').selectOption('v');
   await form.getByLabel('Cylinders', { exact: true }).fill(job.cylinders);
   await form.getByRole('radio', { name: 'Cast iron' }).check();
+  // The bore and deck specification shows once the work on them is ticked.
+  for (const work of ['Bore', 'Hone', 'Deck']) await form.getByRole('checkbox', { name: work, exact: true }).check();
   await form.getByLabel('Stock bore (in)').fill('4.000');
   await form.getByLabel('Stroke (in)').fill('3.48');
   await form.getByLabel('Piston diameter (in), optional').fill('4.028');
@@ -23,7 +25,6 @@ export async function fillIronV8Job(form: Locator, job: { title: string; cylinde
   await form.getByLabel('Maximum taper (in), optional').fill('0.0005');
   if (job.maxOutOfRound !== undefined) await form.getByLabel('Maximum out-of-round (in), optional').fill(job.maxOutOfRound);
   await form.getByLabel('Deck out-of-flat limit (in), optional').fill('0.002');
-  for (const work of ['Bore', 'Hone', 'Deck']) await form.getByRole('checkbox', { name: work, exact: true }).check();
   await form.getByRole('radio', { name: 'I ship the parts to the shop' }).check();
   await form.getByLabel('Country').fill('United States');
   await form.getByLabel('State, province or county').fill('Ohio');

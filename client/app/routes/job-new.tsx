@@ -20,7 +20,7 @@ export function NewJobRoute() {
     <div>
       <PageTitle
         title="Post a job"
-        lead="Describe the block and the work you want. It is saved as a draft: only you see it until you publish it to the job board."
+        lead="Say what you send and the work you want. It is saved as a draft: only you see it until you publish it to the job board."
       />
       {unconfirmed && (
         <ConfirmEmailNotice

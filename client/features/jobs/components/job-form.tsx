@@ -1,8 +1,10 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useId, useState, type ReactNode } from 'react';
-import { Controller, useForm, useWatch, type FieldErrors, type Path, type UseFormRegisterReturn } from 'react-hook-form';
+import { Controller, get, useForm, useWatch, type FieldErrors, type Path, type Resolver, type UseFormRegisterReturn } from 'react-hook-form';
 import { Link } from 'react-router-dom';
 import { type LengthUnit, convertLength, sizeDisagreement } from '@shared/calc';
+import { operationCodes, partsOfJob } from '@shared/catalogue';
+import { limitGroups } from '@shared/operation-limits';
 import {
   blockMaterials,
   engineLayouts,
@@ -24,14 +26,29 @@ import { cn } from '@client/lib/cn';
 import { todayIso } from '@client/lib/dates';
 import { applyServerErrors } from '@client/lib/form-errors';
 import { JobFiguresPanel } from './job-figures';
+import { convertLimit, jobScope, keepInScope, limitEntries, limitPaths } from './job-scope';
 import { layoutWords, logisticsWords, materialWords, pistonWords } from './job-words';
+import { OperationLimitsFields } from './operation-limits-fields';
 import { OperationsPicker } from './operations-picker';
+import { PartsSentChoice } from './parts-sent-choice';
 
 /** Fields holding a length in the job's unit: converted in place when the unit changes. */
 const LENGTH_FIELDS = ['stockBore', 'stroke', 'targetBore', 'boreSizeTolerance', 'pistonDiameter', 'clearanceMin', 'clearanceMax', 'maxTaper', 'maxOutOfRound', 'deckFlatnessMax'] as const;
 
-/** Every field the server may name in a 400, for putting its messages beside the inputs. */
-const FIELD_NAMES = Object.keys(jobFieldsSchema.shape) as Array<Path<JobFormValues>>;
+/**
+ * Every field the server may name in a 400, for putting its messages beside
+ * the inputs: the top-level fields, each limit ("limits.lineHone.housingMax")
+ * and each operation's code and quantity ("operations.0.code").
+ */
+const FIELD_NAMES = [
+  ...Object.keys(jobFieldsSchema.shape),
+  ...limitPaths,
+  ...operationCodes.flatMap((_, index) => [`operations.${index}.code`, `operations.${index}.quantity`]),
+] as Array<Path<JobFormValues>>;
+
+/** The shared schema, checking only what the form shows for the parts and work chosen (see keepInScope). */
+const schemaResolver = zodResolver(jobInputSchema);
+const resolver: Resolver<JobFormValues, unknown, JobInput> = (values, context, options) => schemaResolver(keepInScope(values), context, options);
 
 const INVALID = 'invalid';
 
@@ -83,6 +100,7 @@ const tidy = (value: number) => Number(value.toPrecision(12));
 
 const blankJob: Partial<JobFormValues> = {
   unit: 'in',
+  parts: ['block'],
   operations: [],
   deckNotes: '',
   notes: '',
@@ -174,16 +192,19 @@ export function JobForm({ initial, submitLabel, onSave, cancelTo, saveNote }: Jo
   /** A server refusal's message, or 'invalid' while the form's own checks fail. */
   const [formError, setFormError] = useState<string>();
   const form = useForm<JobFormValues, unknown, JobInput>({
-    resolver: zodResolver(jobInputSchema),
-    defaultValues: (initial ?? blankJob) as JobFormValues,
+    resolver,
+    // A job posted before parts were named sent a block: the form says so.
+    defaultValues: (initial ? { ...initial, parts: [...partsOfJob(initial)] } : blankJob) as JobFormValues,
   });
   const { errors, isSubmitting } = form.formState;
   const values = useWatch({ control: form.control });
   const unit: LengthUnit = values.unit === 'mm' ? 'mm' : 'in';
+  const scope = jobScope({ parts: values.parts?.filter((part): part is NonNullable<typeof part> => Boolean(part)) ?? [], operations: values.operations });
 
   const number = (name: Path<JobFormValues>) => form.register(name, { setValueAs: typedNumber });
   const choice = (name: Path<JobFormValues>) => form.register(name, { setValueAs: emptyToUndefined });
   const message = (name: keyof JobFormValues) => (errors as FieldErrors<Record<string, unknown>>)[name]?.message as string | undefined;
+  const nestedMessage = (path: string) => (get(errors, path) as { message?: string } | undefined)?.message;
 
   const changeUnit = (next: LengthUnit) => {
     if (next === unit) return;
@@ -191,6 +212,15 @@ export function JobForm({ initial, submitLabel, onSave, cancelTo, saveNote }: Jo
       const value = form.getValues(field);
       if (typeof value === 'number' && Number.isFinite(value)) {
         form.setValue(field, tidy(convertLength(value, unit, next)), { shouldDirty: true });
+      }
+    }
+    for (const group of limitGroups) {
+      for (const [key, limit] of limitEntries(group)) {
+        const path = `limits.${group}.${key}` as Path<JobFormValues>;
+        const value = form.getValues(path);
+        if (typeof value === 'number' && Number.isFinite(value) && (limit.kind === 'length' || limit.kind === 'force')) {
+          form.setValue(path, tidy(convertLimit(value, limit.kind, unit, next)), { shouldDirty: true });
+        }
       }
     }
     form.setValue('unit', next, { shouldDirty: true });
@@ -225,7 +255,7 @@ export function JobForm({ initial, submitLabel, onSave, cancelTo, saveNote }: Jo
         <Notice tone="error">{formError === INVALID ? 'Some values need another look. Each one is marked below with what to change.' : formError}</Notice>
       )}
       <div className="grid items-start gap-6 lg:grid-cols-[minmax(0,1fr)_21rem]">
-        <FormSection title="The block" className="lg:col-start-1">
+        <FormSection title="The engine and what you send" className="lg:col-start-1">
           <TextField
             label="Job title"
             hint="One line shops read on the board, e.g. “Bore and hone an iron V8 block”."
@@ -247,55 +277,53 @@ export function JobForm({ initial, submitLabel, onSave, cancelTo, saveNote }: Jo
             />
             <TextField label="Cylinders" inputMode="numeric" autoComplete="off" error={message('cylinders')} {...number('cylinders')} />
           </Grid>
-          <ChoiceGroup
-            legend="Block material"
-            options={blockMaterials.map((v) => ({ value: v, label: materialWords[v] }))}
-            error={message('blockMaterial')}
-            registration={choice('blockMaterial')}
+          <Controller
+            control={form.control}
+            name="parts"
+            render={({ field }) => (
+              <PartsSentChoice value={field.value ?? []} onChange={field.onChange} error={nestedMessage('parts')} focusRef={field.ref} />
+            )}
           />
+          {scope.needsMaterial && (
+            <ChoiceGroup
+              legend={scope.materialLabel}
+              options={blockMaterials.map((v) => ({ value: v, label: materialWords[v] }))}
+              error={message('blockMaterial')}
+              registration={choice('blockMaterial')}
+            />
+          )}
         </FormSection>
 
         <FormSection
-          title="Sizes and clearance"
+          title="Work wanted"
           className="lg:col-start-1"
-          intro="Give a target bore, or the measured piston diameter with the clearance range its maker gives. Both is fine too."
+          intro="Tick the work you want done; what you send decides which work you can choose. Quantities start from the cylinder count; change them if you need to."
         >
+          <Controller
+            control={form.control}
+            name="operations"
+            render={({ field }) => (
+              <OperationsPicker
+                value={field.value ?? []}
+                onChange={field.onChange}
+                cylinders={values.cylinders}
+                parts={scope.parts}
+                error={operationErrors?.message ?? operationErrors?.root?.message}
+                quantityErrors={quantityErrors}
+                focusRef={field.ref}
+              />
+            )}
+          />
+        </FormSection>
+
+        <FormSection title="Measuring" className="lg:col-start-1">
           <div className="flex flex-wrap items-center gap-x-4 gap-y-2">
             <span className="text-sm font-semibold text-ink" aria-hidden>
               Lengths in
             </span>
             <SegmentedControl label="Length unit" options={unitOptions} value={unit} onChange={changeUnit} />
-            <span className="text-sm text-ink-soft">Switching converts what you have typed (1 in = 25.4 mm).</span>
+            <span className="text-sm text-ink-soft">Switching converts what you have typed (1 in = 25.4 mm; spring pressures 1 lbf = 4.448 N).</span>
           </div>
-          <Grid>
-            <TextField label={lengthLabel('Stock bore')} hint="The engine’s original bore." error={message('stockBore')} {...numberProps} {...number('stockBore')} />
-            <TextField label={lengthLabel('Stroke')} error={message('stroke')} {...numberProps} {...number('stroke')} />
-            <TextField
-              label={lengthLabel('Target bore', true)}
-              hint="The finished size you want, if you know it."
-              error={message('targetBore')}
-              {...numberProps}
-              {...number('targetBore')}
-            />
-            <TextField
-              label={lengthLabel('Finished-size tolerance ±', true)}
-              hint={`Allowed on every bore reading around the finished size. Left empty: ± ${unit === 'in' ? '0.0005 in' : '0.0127 mm'}, common practice (no published source).`}
-              placeholder={unit === 'in' ? '0.0005' : '0.0127'}
-              error={message('boreSizeTolerance')}
-              {...numberProps}
-              {...number('boreSizeTolerance')}
-            />
-            <TextField
-              label={lengthLabel('Piston diameter', true)}
-              hint="Measured at the gauge point, 90° to the pin."
-              error={message('pistonDiameter')}
-              {...numberProps}
-              {...number('pistonDiameter')}
-            />
-            <TextField label={lengthLabel('Smallest clearance', true)} hint="Piston to wall." error={message('clearanceMin')} {...numberProps} {...number('clearanceMin')} />
-            <TextField label={lengthLabel('Largest clearance', true)} error={message('clearanceMax')} {...numberProps} {...number('clearanceMax')} />
-          </Grid>
-          <SizeDisagreementNotice values={values} unit={unit} />
           <SelectField
             label="How the shop’s readings are judged"
             className="sm:max-w-md"
@@ -307,14 +335,52 @@ export function JobForm({ initial, submitLabel, onSave, cancelTo, saveNote }: Jo
             error={message('decisionRule')}
             {...choice('decisionRule')}
           />
-          <SelectField
-            label="Piston type"
-            className="sm:max-w-xs"
-            options={[{ value: '', label: 'Choose…' }, ...pistonTypes.map((v) => ({ value: v, label: pistonWords[v] }))]}
-            error={message('pistonType')}
-            {...choice('pistonType')}
-          />
         </FormSection>
+
+        {scope.boreWork && (
+          <FormSection
+            title="Bores: sizes and clearance"
+            className="lg:col-start-1"
+            intro="Give a target bore, or the measured piston diameter with the clearance range its maker gives. Both is fine too."
+          >
+            <Grid>
+              <TextField label={lengthLabel('Stock bore')} hint="The engine’s original bore." error={message('stockBore')} {...numberProps} {...number('stockBore')} />
+              <TextField label={lengthLabel('Stroke')} error={message('stroke')} {...numberProps} {...number('stroke')} />
+              <TextField
+                label={lengthLabel('Target bore', true)}
+                hint="The finished size you want, if you know it."
+                error={message('targetBore')}
+                {...numberProps}
+                {...number('targetBore')}
+              />
+              <TextField
+                label={lengthLabel('Finished-size tolerance ±', true)}
+                hint={`Allowed on every bore reading around the finished size. Left empty: ± ${unit === 'in' ? '0.0005 in' : '0.0127 mm'}, common practice (no published source).`}
+                placeholder={unit === 'in' ? '0.0005' : '0.0127'}
+                error={message('boreSizeTolerance')}
+                {...numberProps}
+                {...number('boreSizeTolerance')}
+              />
+              <TextField
+                label={lengthLabel('Piston diameter', true)}
+                hint="Measured at the gauge point, 90° to the pin."
+                error={message('pistonDiameter')}
+                {...numberProps}
+                {...number('pistonDiameter')}
+              />
+              <TextField label={lengthLabel('Smallest clearance', true)} hint="Piston to wall." error={message('clearanceMin')} {...numberProps} {...number('clearanceMin')} />
+              <TextField label={lengthLabel('Largest clearance', true)} error={message('clearanceMax')} {...numberProps} {...number('clearanceMax')} />
+            </Grid>
+            <SizeDisagreementNotice values={values} unit={unit} />
+            <SelectField
+              label="Piston type"
+              className="sm:max-w-xs"
+              options={[{ value: '', label: 'Choose…' }, ...pistonTypes.map((v) => ({ value: v, label: pistonWords[v] }))]}
+              error={message('pistonType')}
+              {...choice('pistonType')}
+            />
+          </FormSection>
+        )}
 
         <aside aria-label="Live figures" className="lg:sticky lg:top-4 lg:col-start-2 lg:row-span-8 lg:row-start-1">
           <JobFiguresPanel
@@ -327,63 +393,67 @@ export function JobForm({ initial, submitLabel, onSave, cancelTo, saveNote }: Jo
               pistonDiameter: values.pistonDiameter,
               clearanceMin: values.clearanceMin,
               clearanceMax: values.clearanceMax,
+              operations: values.operations ?? [],
+              limits: values.limits,
             }}
           />
         </aside>
 
-        <FormSection
-          title="Finish and geometry limits"
-          className="lg:col-start-1"
-          intro="All optional. Leave a box empty when the shop’s usual practice will do. Finishes in micrometres (1 µm ≈ 39.4 µin)."
-        >
-          <Grid>
-            <TextField label="Smallest crosshatch included angle (°), optional" error={message('crosshatchMinDeg')} {...numberProps} {...number('crosshatchMinDeg')} />
-            <TextField label="Largest crosshatch included angle (°), optional" error={message('crosshatchMaxDeg')} {...numberProps} {...number('crosshatchMaxDeg')} />
-            <TextField label="Largest bore Ra (µm), optional" error={message('finishRaMaxUm')} {...numberProps} {...number('finishRaMaxUm')} />
-            <TextField label="Largest Rk (µm), optional" error={message('finishRkMaxUm')} {...numberProps} {...number('finishRkMaxUm')} />
-            <TextField label="Largest Rpk (µm), optional" error={message('finishRpkMaxUm')} {...numberProps} {...number('finishRpkMaxUm')} />
-            <TextField label="Largest Rvk (µm), optional" error={message('finishRvkMaxUm')} {...numberProps} {...number('finishRvkMaxUm')} />
-            <TextField label={lengthLabel('Maximum taper', true)} error={message('maxTaper')} {...numberProps} {...number('maxTaper')} />
-            <TextField label={lengthLabel('Maximum out-of-round', true)} error={message('maxOutOfRound')} {...numberProps} {...number('maxOutOfRound')} />
-          </Grid>
-        </FormSection>
+        {scope.boreWork && (
+          <FormSection
+            title="Bores: finish and geometry limits"
+            className="lg:col-start-1"
+            intro="All optional. Leave a box empty when the shop’s usual practice will do. Finishes in micrometres (1 µm ≈ 39.4 µin)."
+          >
+            <Grid>
+              <TextField label="Smallest crosshatch included angle (°), optional" error={message('crosshatchMinDeg')} {...numberProps} {...number('crosshatchMinDeg')} />
+              <TextField label="Largest crosshatch included angle (°), optional" error={message('crosshatchMaxDeg')} {...numberProps} {...number('crosshatchMaxDeg')} />
+              <TextField label="Largest bore Ra (µm), optional" error={message('finishRaMaxUm')} {...numberProps} {...number('finishRaMaxUm')} />
+              <TextField label="Largest Rk (µm), optional" error={message('finishRkMaxUm')} {...numberProps} {...number('finishRkMaxUm')} />
+              <TextField label="Largest Rpk (µm), optional" error={message('finishRpkMaxUm')} {...numberProps} {...number('finishRpkMaxUm')} />
+              <TextField label="Largest Rvk (µm), optional" error={message('finishRvkMaxUm')} {...numberProps} {...number('finishRvkMaxUm')} />
+              <TextField label={lengthLabel('Maximum taper', true)} error={message('maxTaper')} {...numberProps} {...number('maxTaper')} />
+              <TextField label={lengthLabel('Maximum out-of-round', true)} error={message('maxOutOfRound')} {...numberProps} {...number('maxOutOfRound')} />
+            </Grid>
+          </FormSection>
+        )}
 
-        <FormSection title="Deck" className="lg:col-start-1">
-          <Grid>
-            <TextField
-              label={lengthLabel('Deck out-of-flat limit', true)}
-              hint="0 means no feeler leaf may pass under the straightedge anywhere. Leave it empty for the common-practice figure for the block and a multi-layer steel gasket."
-              error={message('deckFlatnessMax')}
-              {...numberProps}
-              {...number('deckFlatnessMax')}
-            />
-            <TextField label="Largest deck Ra (µm), optional" error={message('deckRaMaxUm')} {...numberProps} {...number('deckRaMaxUm')} />
-          </Grid>
-          <TextAreaField
-            label="Deck notes, optional"
-            rows={3}
-            hint="Deck height wanted, head gasket type, or anything else the deck needs."
-            error={message('deckNotes')}
-            {...form.register('deckNotes')}
-          />
-        </FormSection>
-
-        <FormSection title="Work wanted" className="lg:col-start-1" intro="Tick the work you want done. Quantities start from the cylinder count; change them if you need to.">
-          <Controller
-            control={form.control}
-            name="operations"
-            render={({ field }) => (
-              <OperationsPicker
-                value={field.value ?? []}
-                onChange={field.onChange}
-                cylinders={values.cylinders}
-                error={operationErrors?.message ?? operationErrors?.root?.message}
-                quantityErrors={quantityErrors}
-                focusRef={field.ref}
+        {scope.deckWork && (
+          <FormSection title="Deck" className="lg:col-start-1">
+            <Grid>
+              <TextField
+                label={lengthLabel('Deck out-of-flat limit', true)}
+                hint="0 means no feeler leaf may pass under the straightedge anywhere. Leave it empty for the common-practice figure for the block and a multi-layer steel gasket."
+                error={message('deckFlatnessMax')}
+                {...numberProps}
+                {...number('deckFlatnessMax')}
               />
-            )}
-          />
-        </FormSection>
+              <TextField label="Largest deck Ra (µm), optional" error={message('deckRaMaxUm')} {...numberProps} {...number('deckRaMaxUm')} />
+            </Grid>
+            <TextAreaField
+              label="Deck notes, optional"
+              rows={3}
+              hint="Head gasket type, or anything else the deck needs."
+              error={message('deckNotes')}
+              {...form.register('deckNotes')}
+            />
+          </FormSection>
+        )}
+
+        {scope.limitGroups.length > 0 && (
+          <FormSection
+            title="Limits for the work"
+            className="lg:col-start-1"
+            intro="Leave a box empty and the figure shown under it applies, where there is one; the shop measures and the record is judged against these."
+          >
+            <OperationLimitsFields
+              groups={scope.limitGroups}
+              unit={unit}
+              register={(path) => number(path as Path<JobFormValues>)}
+              errorFor={nestedMessage}
+            />
+          </FormSection>
+        )}
 
         <FormSection title="Getting the parts there" className="lg:col-start-1" intro="Shops see your town and region, never your address.">
           <ChoiceGroup

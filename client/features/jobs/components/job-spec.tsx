@@ -1,9 +1,11 @@
 import type { ReactNode } from 'react';
 import type { LengthUnit } from '@shared/calc';
-import { findOperation } from '@shared/catalogue';
+import { PART_SENT_WORDS, findOperation } from '@shared/catalogue';
+import { limitFor, limitGroupOperation, type LimitGroup, type OperationLimits } from '@shared/operation-limits';
 import type { JobDetail, JobInput } from '@shared/schemas/jobs';
 import { formatDay } from '@client/lib/dates';
-import { formatLength, layoutWords, materialWords, pistonWords, quantityText, unitWords } from './job-words';
+import { jobScope, limitEntries } from './job-scope';
+import { formatLength, formatLimit, layoutWords, materialWords, pistonWords, quantityText, unitWords } from './job-words';
 
 type Item = [label: string, value: ReactNode] | false | undefined;
 
@@ -43,61 +45,92 @@ function Group({ title, children }: { title: string; children: ReactNode }) {
   );
 }
 
-/** The block's specification in words, every length with its unit. */
+/** One ordered operation's limits: the job's own figures, else the default marked "(default)" with its source; limits with neither are left out. */
+function LimitFacts({ group, limits, unit }: { group: LimitGroup; limits: OperationLimits | undefined; unit: LengthUnit }) {
+  const items: Item[] = limitEntries(group).map(([key, field]) => {
+    const applied = limitFor(limits, group, key as never, unit);
+    if (!applied) return undefined;
+    const figure = formatLimit(applied.value, field.kind, unit);
+    if (!applied.isDefault) return [field.label, figure];
+    return [
+      field.label,
+      <>
+        {figure} <span className="font-normal text-ink-soft">(default) — {applied.source}</span>
+      </>,
+    ];
+  });
+  return <Facts items={items} empty="None given." />;
+}
+
+/** The job's specification in words, every length with its unit: what is sent, then only the parts of the spec its work needs. */
 export function JobSpec({ spec }: { spec: JobInput }) {
   const unit: LengthUnit = spec.unit;
+  const scope = jobScope(spec);
   const length = (n: number | undefined) => (given(n) ? formatLength(n, unit) : undefined);
+  const deckGiven = scope.deckWork || given(spec.deckFlatnessMax) || given(spec.deckRaMaxUm) || Boolean(spec.deckNotes);
   return (
     <div className="flex flex-col gap-5">
       <p className="text-sm text-ink-soft">Lengths in {unitWords[unit]}; surface finish in micrometres.</p>
-      <Group title="The block">
+      <Group title="The engine and what is sent">
         <Facts
           items={[
             ['Engine', spec.engineFamily],
             ['Layout', layoutWords[spec.layout]],
             ['Cylinders', spec.cylinders],
-            ['Block material', spec.blockMaterial ? materialWords[spec.blockMaterial] : '—'],
-            ['Piston type', spec.pistonType ? pistonWords[spec.pistonType] : '—'],
-          ]}
-        />
-      </Group>
-      <Group title="Sizes and clearance">
-        <Facts
-          items={[
-            ['Stock bore', length(spec.stockBore)],
-            ['Stroke', length(spec.stroke)],
-            ['Target bore', length(spec.targetBore)],
-            ['Piston diameter', length(spec.pistonDiameter)],
-            ['Piston-to-wall clearance', range(spec.clearanceMin, spec.clearanceMax, (n) => formatLength(n, unit))],
-            ['Finished-size tolerance', spec.boreSizeTolerance !== undefined ? `± ${formatLength(spec.boreSizeTolerance, unit)}` : `± ${unit === 'in' ? '0.0005 in' : '0.0127 mm'} (common-practice default)`],
+            ['Parts sent', scope.parts.map((part) => PART_SENT_WORDS[part]).join(', ')],
+            scope.needsMaterial && [scope.materialLabel, spec.blockMaterial ? materialWords[spec.blockMaterial] : '—'],
+            scope.boreWork && ['Piston type', spec.pistonType ? pistonWords[spec.pistonType] : '—'],
             ['Readings judged by', spec.decisionRule === 'guarded' ? 'Guarded acceptance (ISO 14253-1)' : 'Simple acceptance'],
           ]}
         />
       </Group>
-      <Group title="Finish and geometry limits">
-        <Facts
-          empty="None given: the shop’s usual practice applies."
-          items={[
-            ['Crosshatch included angle', range(spec.crosshatchMinDeg, spec.crosshatchMaxDeg, degrees)],
-            ['Largest bore Ra', given(spec.finishRaMaxUm) ? micrometres(spec.finishRaMaxUm) : undefined],
-            ['Largest Rk', given(spec.finishRkMaxUm) ? micrometres(spec.finishRkMaxUm) : undefined],
-            ['Largest Rpk', given(spec.finishRpkMaxUm) ? micrometres(spec.finishRpkMaxUm) : undefined],
-            ['Largest Rvk', given(spec.finishRvkMaxUm) ? micrometres(spec.finishRvkMaxUm) : undefined],
-            ['Maximum taper', length(spec.maxTaper)],
-            ['Maximum out-of-round', length(spec.maxOutOfRound)],
-          ]}
-        />
-      </Group>
-      <Group title="Deck">
-        <Facts
-          empty="No deck limits given."
-          items={[
-            ['Out-of-flat limit', length(spec.deckFlatnessMax)],
-            ['Largest deck Ra', given(spec.deckRaMaxUm) ? micrometres(spec.deckRaMaxUm) : undefined],
-          ]}
-        />
-        {spec.deckNotes && <p className="whitespace-pre-wrap text-ink">{spec.deckNotes}</p>}
-      </Group>
+      {scope.boreWork && (
+        <>
+          <Group title="Bores: sizes and clearance">
+            <Facts
+              items={[
+                ['Stock bore', length(spec.stockBore)],
+                ['Stroke', length(spec.stroke)],
+                ['Target bore', length(spec.targetBore)],
+                ['Piston diameter', length(spec.pistonDiameter)],
+                ['Piston-to-wall clearance', range(spec.clearanceMin, spec.clearanceMax, (n) => formatLength(n, unit))],
+                ['Finished-size tolerance', spec.boreSizeTolerance !== undefined ? `± ${formatLength(spec.boreSizeTolerance, unit)}` : `± ${unit === 'in' ? '0.0005 in' : '0.0127 mm'} (common-practice default)`],
+              ]}
+            />
+          </Group>
+          <Group title="Bores: finish and geometry limits">
+            <Facts
+              empty="None given: the shop’s usual practice applies."
+              items={[
+                ['Crosshatch included angle', range(spec.crosshatchMinDeg, spec.crosshatchMaxDeg, degrees)],
+                ['Largest bore Ra', given(spec.finishRaMaxUm) ? micrometres(spec.finishRaMaxUm) : undefined],
+                ['Largest Rk', given(spec.finishRkMaxUm) ? micrometres(spec.finishRkMaxUm) : undefined],
+                ['Largest Rpk', given(spec.finishRpkMaxUm) ? micrometres(spec.finishRpkMaxUm) : undefined],
+                ['Largest Rvk', given(spec.finishRvkMaxUm) ? micrometres(spec.finishRvkMaxUm) : undefined],
+                ['Maximum taper', length(spec.maxTaper)],
+                ['Maximum out-of-round', length(spec.maxOutOfRound)],
+              ]}
+            />
+          </Group>
+        </>
+      )}
+      {deckGiven && (
+        <Group title="Deck">
+          <Facts
+            empty="No deck limits given."
+            items={[
+              ['Out-of-flat limit', length(spec.deckFlatnessMax)],
+              ['Largest deck Ra', given(spec.deckRaMaxUm) ? micrometres(spec.deckRaMaxUm) : undefined],
+            ]}
+          />
+          {spec.deckNotes && <p className="whitespace-pre-wrap text-ink">{spec.deckNotes}</p>}
+        </Group>
+      )}
+      {scope.limitGroups.map((group) => (
+        <Group key={group} title={`Limits for ${(findOperation(limitGroupOperation[group])?.name ?? group).toLowerCase()}`}>
+          <LimitFacts group={group} limits={spec.limits} unit={unit} />
+        </Group>
+      ))}
     </div>
   );
 }

@@ -4,6 +4,7 @@
  * writes them.
  */
 import type { LengthUnit } from '@shared/calc';
+import { forceUnitFor, type LimitField } from '@shared/operation-limits';
 import type { BadgeTone } from '@client/components/ui/badge';
 import type { JobInput, JobStatus } from '@shared/schemas/jobs';
 
@@ -61,4 +62,35 @@ export function quantityText(op: { pricedPer: string; part: string } | undefined
   if (op.pricedPer === 'job') return quantity === 1 ? 'once' : `${quantity} times`;
   const [one, many] = countWords[op.part] ?? ['part', 'parts'];
   return plural(quantity, one, many);
+}
+
+const plainNumber = (value: number, decimals = 3) => new Intl.NumberFormat('en-US', { maximumFractionDigits: decimals }).format(value);
+
+/** A job limit with its unit, by its kind: a length in the job's unit, µm, lbf or N, rev/min, or a balance grade. */
+export function formatLimit(value: number, kind: LimitField['kind'], unit: LengthUnit): string {
+  switch (kind) {
+    case 'length':
+      return formatLength(value, unit);
+    case 'roughness':
+      return `${plainNumber(value)} µm`;
+    case 'force':
+      return `${plainNumber(value, 1)} ${forceUnitFor(unit)}`;
+    case 'speed':
+      return `${plainNumber(value, 0)} rev/min`;
+    case 'grade':
+      return `G ${plainNumber(value, 1)}`;
+  }
+}
+
+/** The unit a limit is typed in, for its label: "(in)", "(lbf)"; none where the label already names it. */
+export function limitUnitSuffix(kind: LimitField['kind'], unit: LengthUnit): string {
+  if (kind === 'length') return ` (${unit})`;
+  if (kind === 'force') return ` (${forceUnitFor(unit)})`;
+  return '';
+}
+
+/** What an empty limit means, e.g. "Empty: 0.0005 in — common practice, from memory; the maker’s figure governs". */
+export function limitDefaultWords(field: LimitField, unit: LengthUnit): string | undefined {
+  if (!field.default) return undefined;
+  return `Empty: ${formatLimit(field.default[unit], field.kind, unit)} — ${field.default.source}`;
 }

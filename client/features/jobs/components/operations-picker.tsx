@@ -1,5 +1,5 @@
 import { useEffect, useId, useRef, useState } from 'react';
-import { defaultQuantity, operations, type Operation, type PartKind } from '@shared/catalogue';
+import { defaultQuantity, operations, partsAllow, partsNeededWords, type Operation, type PartKind, type PartSent } from '@shared/catalogue';
 import type { JobFormValues } from '@shared/schemas/jobs';
 import { cn } from '@client/lib/cn';
 
@@ -28,6 +28,8 @@ export interface OperationsPickerProps {
   onChange: (next: Picked) => void;
   /** The job's cylinder count, for quantities of per-cylinder work. */
   cylinders: number | undefined;
+  /** What the builder sends: work on a part not sent cannot be ticked, and says which part to add. */
+  parts: readonly PartSent[];
   /** A message for the whole list ("choose at least one"). */
   error?: string;
   /** Messages for a quantity, by operation code. */
@@ -42,7 +44,7 @@ export interface OperationsPickerProps {
  * cylinder count for per-cylinder work); the quantity stays editable, and
  * follows the cylinder count until the builder changes it by hand.
  */
-export function OperationsPicker({ value, onChange, cylinders, error, quantityErrors, focusRef }: OperationsPickerProps) {
+export function OperationsPicker({ value, onChange, cylinders, parts, error, quantityErrors, focusRef }: OperationsPickerProps) {
   const baseId = useId();
   const errorId = `${baseId}-error`;
   const edited = useRef(new Set<string>());
@@ -109,6 +111,8 @@ export function OperationsPicker({ value, onChange, cylinders, error, quantityEr
                 const id = `${baseId}-${op.code}`;
                 const chosen = picked.get(op.code);
                 const quantityError = quantityErrors[op.code];
+                // Work already ticked stays tickable, so it can be taken off after a part is; the schema says why it cannot stay.
+                const unavailable = !chosen && !partsAllow(op.code, parts);
                 const isFirst = first;
                 first = false;
                 return (
@@ -117,6 +121,8 @@ export function OperationsPicker({ value, onChange, cylinders, error, quantityEr
                     className={cn(
                       'flex items-start gap-3 rounded-lg p-3 ring-1',
                       chosen ? 'bg-white ring-slate-500' : 'bg-paper-raised ring-slate-200',
+                      // Unavailable work keeps its text at full contrast; the dashed edge and the note say it cannot be ticked.
+                      unavailable && 'ring-0 outline-1 outline-dashed outline-slate-400',
                     )}
                   >
                     <input
@@ -124,8 +130,9 @@ export function OperationsPicker({ value, onChange, cylinders, error, quantityEr
                       id={id}
                       type="checkbox"
                       checked={Boolean(chosen)}
+                      disabled={unavailable}
                       onChange={(event) => toggle(op, event.target.checked)}
-                      aria-describedby={[`${id}-about`, error ? errorId : ''].filter(Boolean).join(' ')}
+                      aria-describedby={[`${id}-about`, unavailable ? `${id}-needs` : '', error ? errorId : ''].filter(Boolean).join(' ')}
                       aria-invalid={error ? true : undefined}
                       className="mt-1 size-5 shrink-0 accent-slate-700"
                     />
@@ -136,6 +143,11 @@ export function OperationsPicker({ value, onChange, cylinders, error, quantityEr
                       <p id={`${id}-about`} className="text-sm text-ink-soft">
                         {op.description}
                       </p>
+                      {unavailable && (
+                        <p id={`${id}-needs`} className="text-sm font-semibold text-ink">
+                          Add {partsNeededWords(op.code)} to what you send to choose this.
+                        </p>
+                      )}
                       {chosen && (
                         <div className="mt-2 flex flex-col gap-1">
                           <div className="flex items-center gap-2">
