@@ -21,7 +21,7 @@ import { balanceTolerance, bobWeight } from './balance';
 import { deckFlatnessLimit, type DeckMaterial } from './deck';
 import { judgeMax, judgeMin, judgeRange, verdictRank, type DecisionRule, type Verdict } from './decision-rule';
 import { EXPANSION_COEFFICIENTS, toReferenceTemperature, type ExpansionMaterial } from './thermal';
-import { convertLength, type LengthUnit } from './units';
+import { NEWTONS_PER_POUND_FORCE, convertLength, type LengthUnit } from './units';
 
 export const formatLength = (value: number, unit: LengthUnit) => `${value.toFixed(unit === 'in' ? 4 : 3)} ${unit}`;
 export const formatFineLength = (value: number, unit: LengthUnit) => `${value.toFixed(unit === 'in' ? 5 : 4)} ${unit}`;
@@ -259,7 +259,7 @@ function judgeValveJob(s: NonNullable<InspectionSections['valveJob']>, ctx: Sect
   const springMin = limit(ctx, 'valveJob', 'springPressureMin');
   if (springMin) {
     // A force limit is in the job's force unit: lbf for inches, N for millimetres (1 lbf = 4.4482216152605 N, exact by definition of the pound-force).
-    const least = jobForce === force ? springMin.value : jobForce === 'lbf' ? springMin.value * LBF_IN_N : springMin.value / LBF_IN_N;
+    const least = jobForce === force ? springMin.value : jobForce === 'lbf' ? springMin.value * NEWTONS_PER_POUND_FORCE : springMin.value / NEWTONS_PER_POUND_FORCE;
     const given = s.valves.filter((v) => v.springPressure !== undefined);
     if (given.length < s.valves.length) ctx.notJudged({ section: 'valve-job', what: 'spring pressure at installed height', why: 'the record does not give every valve’s spring pressure' });
     if (given.length > 0) {
@@ -273,9 +273,6 @@ function judgeValveJob(s: NonNullable<InspectionSections['valveJob']>, ctx: Sect
     { label: 'Installed height, lowest – highest', value: `${fmt(Math.min(...s.valves.map((v) => v.installedHeight)))} – ${fmt(Math.max(...s.valves.map((v) => v.installedHeight)))}` },
   ];
 }
-
-/** Newtons in one pound-force (exact by definition). */
-export const LBF_IN_N = 4.4482216152605;
 
 // --- crank grind ----------------------------------------------------------------
 
