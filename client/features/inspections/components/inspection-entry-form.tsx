@@ -11,6 +11,7 @@ import { SegmentedControl } from '@client/components/ui/segmented-control';
 import { SelectField } from '@client/components/ui/select-field';
 import { TextAreaField } from '@client/components/ui/text-area-field';
 import { TextField, type TextFieldProps } from '@client/components/ui/text-field';
+import { ProposeChangeOrder } from '@client/features/payments';
 import { ApiError } from '@client/lib/api-client';
 import { UNIT_WORDS } from '@client/lib/numbers';
 import { useSubmitInspection } from '../api/inspections';
@@ -18,7 +19,9 @@ import { useDraftAutosave, type DraftStatus } from '../hooks/use-draft-autosave'
 import { evaluateLive } from '../lib/evaluate';
 import { MAX_TRACE_POINTS, readTrace } from '../lib/profile-file';
 import { type CrosshatchMode, type FinishMode, type FinishUnit, PROFILE_FILTER_CHOICES, type RecordForm, checkRecord, fieldId, pathWords, toDraft } from '../lib/record-form';
+import { ordersBoreWork } from '../lib/section-fields';
 import { FailingChecksLine, InspectionResultsView } from './inspection-results';
+import { DeckPositionFields, OrderedSections, type SectionContext } from './sections';
 
 const clock = new Intl.DateTimeFormat('en-GB', { hour: '2-digit', minute: '2-digit' });
 
@@ -70,7 +73,10 @@ export interface InspectionEntryFormProps {
  * readings (the server works every figure out again).
  */
 export function InspectionEntryForm({ job, initial, origin, onSubmitted }: InspectionEntryFormProps) {
-  const count = job.cylinders;
+  const boreWork = ordersBoreWork(job.spec.operations);
+  const deckOrdered = job.spec.operations.some((op) => op.code === 'deck');
+  /** The bore grid's rows: none when the job orders no bore work. */
+  const count = boreWork ? job.cylinders : 0;
   const [form, setForm] = useState<RecordForm>(initial);
   const [tried, setTried] = useState(false);
   const [serverErrors, setServerErrors] = useState<Record<string, string>>({});
@@ -99,6 +105,12 @@ export function InspectionEntryForm({ job, initial, origin, onSubmitted }: Inspe
     setForm((current) => ({ ...current, ...change }));
     if (Object.keys(serverErrors).length > 0) setServerErrors({});
   };
+  const updateFields = (changes: Record<string, string>) => {
+    setForm((current) => ({ ...current, fields: { ...current.fields, ...changes } }));
+    if (Object.keys(serverErrors).length > 0) setServerErrors({});
+  };
+  const sectionCtx: SectionContext = { fields: form.fields, setFields: updateFields, errors, unit: form.unit, job, results: live.results };
+  const crackFound = form.fields['sections.crackTest.result'] === 'crack-found';
   const updateCells = (changes: Record<string, string>) => setForm((current) => ({ ...current, cells: { ...current.cells, ...changes } }));
   const text = (path: string, value: string, onValue: (text: string) => void) => ({
     value,
@@ -127,6 +139,7 @@ export function InspectionEntryForm({ job, initial, origin, onSubmitted }: Inspe
 
   const onSubmit = (event: FormEvent) => {
     event.preventDefault();
+    if (crackFound) return;
     setTried(true);
     setFormError(undefined);
     if (!check.input) {
@@ -222,6 +235,24 @@ export function InspectionEntryForm({ job, initial, origin, onSubmitted }: Inspe
           />
         </Section>
 
+        <OrderedSections ctx={sectionCtx} only={['clean', 'crackTest']} />
+
+        {crackFound && (
+          <div className="flex flex-col gap-3" data-testid="crack-stop">
+            <Notice tone="error" title="A crack was found: the record stops here">
+              A cracked part is not measured further and this record cannot be submitted. Propose the extra work the crack needs (a repair, or a
+              replacement part) to the builder below; once it is agreed and done, record the crack test again.
+            </Notice>
+            <ProposeChangeOrder
+              jobId={job.id}
+              description={`Crack found on crack test${form.fields['sections.crackTest.findings'] ? `: ${form.fields['sections.crackTest.findings']}` : '.'}`}
+              intro="The crack test’s findings are filled in; add what the repair is and its price. The builder agrees and pays before you do it."
+            />
+          </div>
+        )}
+
+        <div hidden={crackFound} className="flex flex-col gap-5">
+        {boreWork && (
         <Section title={`Bores: ${count} cylinders`}>
           <BoreReadingGrid
             cylinderCount={count}
@@ -246,8 +277,9 @@ export function InspectionEntryForm({ job, initial, origin, onSubmitted }: Inspe
           />
           <FailingChecksLine results={live.results} cylinderIndexes={live.cylinderIndexes} spec={job.spec} unit={form.unit} className="xl:hidden" />
         </Section>
+        )}
 
-        <Section title="Deck (optional)" intro="The thickest feeler leaf under a straightedge at each position: lengthwise, crosswise and on both diagonals.">
+        <Section title={deckOrdered ? 'Deck' : 'Deck (optional)'} intro="The thickest feeler leaf under a straightedge at each position: lengthwise, crosswise and on both diagonals.">
           <TextField
             id={fieldId('deck.readings')}
             label={`Straightedge readings (${unitShort}), separated by spaces or commas`}
@@ -258,6 +290,7 @@ export function InspectionEntryForm({ job, initial, origin, onSubmitted }: Inspe
             error={errors['deck.readings'] ?? Object.entries(errors).find(([path]) => path.startsWith('deck.readings.'))?.[1]}
           />
           <NumberInput label="Deck finish Ra (µm), optional" {...text('deck.raUm', form.deckRa, (v) => update({ deckRa: v }))} />
+          {deckOrdered && <DeckPositionFields ctx={sectionCtx} />}
         </Section>
 
         <Section title="Bore finish (optional)">
@@ -370,6 +403,9 @@ export function InspectionEntryForm({ job, initial, origin, onSubmitted }: Inspe
           )}
         </Section>
 
+        <OrderedSections ctx={sectionCtx} except={['clean', 'crackTest']} />
+        </div>
+
         <Section title="Sign-off">
           <TextField
             id={fieldId('signedOffBy')}
@@ -397,7 +433,7 @@ export function InspectionEntryForm({ job, initial, origin, onSubmitted }: Inspe
         )}
         {formError && <Notice tone="error">{formError}</Notice>}
         <div className="flex flex-wrap items-center gap-4">
-          <Button type="submit" busy={submit.isPending}>
+          <Button type="submit" busy={submit.isPending} disabled={crackFound}>
             Submit the record
           </Button>
           <DraftStatusLine status={draft.status} />

@@ -1,0 +1,130 @@
+/**
+ * One ordered operation's part of a judged record: its name and verdict, its
+ * figures, its checks (value, allowed, verdict, note), what could not be
+ * judged and its statements. Used live on the entry page, in the builder's
+ * review and on the certificate page.
+ */
+import type { InspectionResults, LimitCheck } from '@shared/schemas/inspection';
+import { checkVerdict } from '@shared/schemas/inspection';
+import type { SectionFigure, SectionResult, SectionVerdict } from '@shared/schemas/inspection-sections';
+import { cn } from '@client/lib/cn';
+import { VerdictMark } from './record-judgement';
+
+export const SECTION_VERDICT_WORDS: Record<SectionVerdict, string> = {
+  conforms: 'Conforms',
+  fails: 'Fails',
+  'not-proven': 'Not proven',
+  'not-judged': 'Not fully judged',
+  recorded: 'Recorded',
+};
+
+const SECTION_LOOK: Record<SectionVerdict, string> = {
+  conforms: 'bg-pass-soft text-pass ring-pass/30',
+  fails: 'bg-fail-soft text-fail ring-fail/30',
+  'not-proven': 'bg-caution-soft text-caution ring-caution/30',
+  'not-judged': 'bg-caution-soft text-caution ring-caution/30',
+  recorded: 'bg-slate-100 text-slate-700 ring-slate-300',
+};
+
+export function SectionVerdictBadge({ verdict }: { verdict: SectionVerdict }) {
+  return <span className={cn('inline-flex rounded-full px-2.5 py-0.5 text-sm font-bold ring-1', SECTION_LOOK[verdict])}>{SECTION_VERDICT_WORDS[verdict]}</span>;
+}
+
+/** The unit a check's limit is written in ("≤ 0.0030 in" → "in"), to print beside its value. */
+const unitOf = (allowed: string) => /(g·mm|µm|mm|in|cc|lbf|N|g|°)\s*$/.exec(allowed)?.[1];
+
+/** A check's value as the screen shows it: its words, or the number with the limit's unit. */
+export function checkValueText(check: LimitCheck): string {
+  if (check.valueText) return check.valueText;
+  const unit = unitOf(check.allowed);
+  const number = Number(check.value.toPrecision(6)).toString();
+  return unit ? `${number}${unit === '°' ? '' : ' '}${unit}` : number;
+}
+
+export const figureText = (figure: SectionFigure) => `${figure.value}${figure.unit ? ` ${figure.unit}` : ''}`;
+
+/** The checks and not-judged items one section covers. */
+export function sectionParts(section: SectionResult, results: InspectionResults) {
+  const covered = (s: string | undefined) => s !== undefined && section.covers.includes(s);
+  return { checks: results.checks.filter((check) => covered(check.section)), notJudged: (results.notJudged ?? []).filter((item) => covered(item.section)) };
+}
+
+const capitalise = (text: string) => text.charAt(0).toUpperCase() + text.slice(1);
+
+export function RecordSectionBlock({ section, results, headingLevel = 3, showChecks = true }: { section: SectionResult; results: InspectionResults; headingLevel?: 3 | 4; showChecks?: boolean }) {
+  const { checks, notJudged } = sectionParts(section, results);
+  const Heading = headingLevel === 3 ? 'h3' : 'h4';
+  return (
+    <section className="flex flex-col gap-2 rounded-lg border border-slate-200 bg-white p-3" data-testid={`record-section-${section.operation}`} data-verdict={section.verdict}>
+      <div className="flex flex-wrap items-center justify-between gap-2">
+        <Heading className="text-base font-bold text-ink">{section.name}</Heading>
+        <SectionVerdictBadge verdict={section.verdict} />
+      </div>
+      {section.figures.length > 0 && (
+        <dl className="grid gap-x-4 gap-y-1 text-sm sm:grid-cols-2">
+          {section.figures.map((figure) => (
+            <div key={figure.label} className="flex justify-between gap-2 border-b border-slate-100 py-0.5">
+              <dt className="text-ink-soft">{figure.label}</dt>
+              <dd className="text-right font-semibold tabular-nums">{figureText(figure)}</dd>
+            </div>
+          ))}
+        </dl>
+      )}
+      {showChecks && checks.length > 0 && (
+        <div className="overflow-x-auto">
+          <table className="w-full text-left text-sm">
+            <thead>
+              <tr className="text-ink-soft">
+                <th className="py-1 pr-2 font-semibold">Check</th>
+                <th className="py-1 pr-2 font-semibold">Value</th>
+                <th className="py-1 pr-2 font-semibold">Allowed</th>
+                <th className="py-1 font-semibold">Verdict</th>
+              </tr>
+            </thead>
+            <tbody>
+              {checks.map((check, i) => (
+                <tr key={`${check.what}-${i}`} className="border-t border-slate-100 align-top">
+                  <td className="py-1 pr-2">
+                    {capitalise(check.what)}
+                    {check.note && <span className="block text-ink-soft">{check.note}</span>}
+                  </td>
+                  <td className="py-1 pr-2 tabular-nums">{checkValueText(check)}</td>
+                  <td className="py-1 pr-2 tabular-nums">{check.allowed}</td>
+                  <td className="py-1">
+                    <VerdictMark verdict={checkVerdict(check)} compact />
+                  </td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </div>
+      )}
+      {notJudged.length > 0 && (
+        <ul className="list-disc pl-5 text-sm text-caution">
+          {notJudged.map((item) => (
+            <li key={item.what}>
+              Not judged: {item.what}, because {item.why}.
+            </li>
+          ))}
+        </ul>
+      )}
+      {section.statements.map((statement) => (
+        <p key={statement} className="text-sm text-ink-soft">
+          {statement}
+        </p>
+      ))}
+    </section>
+  );
+}
+
+/** Every section of a judged record, one block each; nothing for records stored before sections. */
+export function RecordSections({ results, headingLevel = 3 }: { results: InspectionResults; headingLevel?: 3 | 4 }) {
+  if (!results.sections?.length) return null;
+  return (
+    <div className="flex flex-col gap-3" data-testid="record-sections">
+      {results.sections.map((section) => (
+        <RecordSectionBlock key={section.operation} section={section} results={results} headingLevel={headingLevel} />
+      ))}
+    </div>
+  );
+}
