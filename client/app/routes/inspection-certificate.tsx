@@ -3,7 +3,7 @@ import { checkFigures, figureAgainstLimit, lengthDecimals, micrometresToMicroinc
 import { INSPECTION_STATUS_WORDS, methodLines, resultHeadline } from '@shared/inspection-words';
 import { Button } from '@client/components/ui/button';
 import { Notice } from '@client/components/ui/notice';
-import { useInspection, finishFilterWords } from '@client/features/inspections';
+import { RecordSections, useInspection, finishFilterWords } from '@client/features/inspections';
 import { useJob } from '@client/features/jobs';
 
 const GUIDANCE =
@@ -82,6 +82,8 @@ export function InspectionCertificateRoute() {
         </>
       )}
 
+      {input.cylinders && results.bores && (
+        <>
       <h2 className="mt-4 text-lg font-bold">Bores ({unit})</h2>
       <div className="overflow-x-auto">
         <table className="w-full text-sm tabular-nums">
@@ -119,6 +121,8 @@ export function InspectionCertificateRoute() {
         Taper: on the diameter, the largest minus the smallest reading over the three depths in one direction (the larger direction counts). Out-of-round:
         two-point, the difference of the thrust and axial diameters at one depth (the largest depth counts).
       </p>
+        </>
+      )}
 
       {results.deck && (
         <>
@@ -151,6 +155,12 @@ export function InspectionCertificateRoute() {
               : `Included angle ${results.crosshatch.includedAngleDeg.toFixed(1)}°, measured across the horizontal.`}
           </p>
         </>
+      )}
+      {results.sections && results.sections.length > 0 && (
+        <section data-testid="certificate-sections">
+          <h2 className="mt-4 text-lg font-bold">Each operation ordered</h2>
+          <RecordSections results={results} />
+        </section>
       )}
       <h2 className="mt-4 text-lg font-bold">Checks against the job’s limits</h2>
       {results.checks.length === 0 && notJudged.length === 0 ? (

@@ -3,7 +3,7 @@ import { createRequire } from 'node:module';
 import PDFDocument from 'pdfkit';
 import { checkFigures } from '../../../shared/calc/check-figures';
 import { figureAgainstLimit, lengthDecimals } from '../../../shared/calc/figures';
-import { INSPECTION_STATUS_WORDS, methodLines, resultHeadline } from '../../../shared/inspection-words';
+import { INSPECTION_STATUS_WORDS, SECTION_VERDICT_WORDS, checkValueText, figureText, methodLines, resultHeadline, sectionParts } from '../../../shared/inspection-words';
 import type { InspectionInput, InspectionResults, InspectionVersion } from '../../../shared/schemas/inspection';
 import type { JobInput } from '../../../shared/schemas/jobs';
 
@@ -132,6 +132,15 @@ export function certificatePdf(data: CertificateData): Promise<Buffer> {
         ? `Included angle ${results.crosshatch.includedAngleDeg.toFixed(1)}°, computed from settings (mid-stroke), not measured: ${input.crosshatch.spindleRpm} rpm, ${input.crosshatch.strokeLength} ${unit} stroke, ${input.crosshatch.cyclesPerMinute} full up-and-down cycles per minute. Across the horizontal.`
         : `Included angle ${results.crosshatch.includedAngleDeg.toFixed(1)}°, measured across the horizontal.`,
     );
+  }
+  // One part per ordered operation: its verdict, figures and checks.
+  for (const section of results.sections ?? []) {
+    heading(`${section.name}: ${SECTION_VERDICT_WORDS[section.verdict]}`);
+    if (section.figures.length > 0) line(section.figures.map((figure) => `${figure.label} ${figureText(figure)}`).join(' · '));
+    const parts = sectionParts(section, results);
+    for (const check of parts.checks) line(`${checkWord(check)} — ${check.what}: ${checkValueText(check)} (allowed ${check.allowed})${check.note ? `; ${check.note}` : ''}`);
+    for (const item of parts.notJudged) line(`NOT JUDGED — ${item.what}: ${item.why}`);
+    for (const statement of section.statements) line(statement);
   }
   heading('Checks against the job’s limits');
   if (results.checks.length === 0) line(resultHeadline(results, data.spec, unit).tone === 'none' ? 'The job gave no limits, so nothing was judged.' : 'No limit failed.');

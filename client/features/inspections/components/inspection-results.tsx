@@ -232,6 +232,8 @@ export function InspectionResultsView({
         )}
       </div>
 
+      {cylinderCount > 0 && (
+      <>
       <div className="overflow-x-auto">
         <table className="w-full min-w-[24rem] text-sm tabular-nums">
           <caption className="sr-only">Figures per cylinder, in {unit}</caption>
@@ -279,6 +281,8 @@ export function InspectionResultsView({
         Taper: on the diameter, largest minus smallest reading over the three depths in one direction. Out-of-round: two-point, thrust minus axial
         diameter at one depth.
       </p>
+      </>
+      )}
 
       <section aria-label="Checks against the job’s specification" className="flex flex-col gap-2">
         <Heading className="text-sm font-bold uppercase tracking-wider text-slate-700">Checks</Heading>

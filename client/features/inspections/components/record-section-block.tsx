@@ -4,19 +4,11 @@
  * judged and its statements. Used live on the entry page, in the builder's
  * review and on the certificate page.
  */
-import type { InspectionResults, LimitCheck } from '@shared/schemas/inspection';
-import { checkVerdict } from '@shared/schemas/inspection';
-import type { SectionFigure, SectionResult, SectionVerdict } from '@shared/schemas/inspection-sections';
+import { SECTION_VERDICT_WORDS, checkValueText, figureText, sectionParts } from '@shared/inspection-words';
+import { type InspectionResults, checkVerdict } from '@shared/schemas/inspection';
+import type { SectionResult, SectionVerdict } from '@shared/schemas/inspection-sections';
 import { cn } from '@client/lib/cn';
 import { VerdictMark } from './record-judgement';
-
-export const SECTION_VERDICT_WORDS: Record<SectionVerdict, string> = {
-  conforms: 'Conforms',
-  fails: 'Fails',
-  'not-proven': 'Not proven',
-  'not-judged': 'Not fully judged',
-  recorded: 'Recorded',
-};
 
 const SECTION_LOOK: Record<SectionVerdict, string> = {
   conforms: 'bg-pass-soft text-pass ring-pass/30',
@@ -28,25 +20,6 @@ const SECTION_LOOK: Record<SectionVerdict, string> = {
 
 export function SectionVerdictBadge({ verdict }: { verdict: SectionVerdict }) {
   return <span className={cn('inline-flex rounded-full px-2.5 py-0.5 text-sm font-bold ring-1', SECTION_LOOK[verdict])}>{SECTION_VERDICT_WORDS[verdict]}</span>;
-}
-
-/** The unit a check's limit is written in ("≤ 0.0030 in" → "in"), to print beside its value. */
-const unitOf = (allowed: string) => /(g·mm|µm|mm|in|cc|lbf|N|g|°)\s*$/.exec(allowed)?.[1];
-
-/** A check's value as the screen shows it: its words, or the number with the limit's unit. */
-export function checkValueText(check: LimitCheck): string {
-  if (check.valueText) return check.valueText;
-  const unit = unitOf(check.allowed);
-  const number = Number(check.value.toPrecision(6)).toString();
-  return unit ? `${number}${unit === '°' ? '' : ' '}${unit}` : number;
-}
-
-export const figureText = (figure: SectionFigure) => `${figure.value}${figure.unit ? ` ${figure.unit}` : ''}`;
-
-/** The checks and not-judged items one section covers. */
-export function sectionParts(section: SectionResult, results: InspectionResults) {
-  const covered = (s: string | undefined) => s !== undefined && section.covers.includes(s);
-  return { checks: results.checks.filter((check) => covered(check.section)), notJudged: (results.notJudged ?? []).filter((item) => covered(item.section)) };
 }
 
 const capitalise = (text: string) => text.charAt(0).toUpperCase() + text.slice(1);
