@@ -1,5 +1,5 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { useState } from 'react';
+import { useEffect, useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { useSearchParams } from 'react-router-dom';
 import { toast } from 'sonner';
@@ -210,6 +210,11 @@ function ChangeOrders({ job, side }: { job: JobDetail; side: 'builder' | 'shop' 
 export function ProposeChangeOrder({ jobId, description = '', intro }: { jobId: string; description?: string; intro?: string }) {
   const [formError, setFormError] = useState<string>();
   const form = useForm<z.infer<typeof changeOrderForm>>({ resolver: zodResolver(changeOrderForm), defaultValues: { description, dollars: '' } });
+  // A prefill that changes (findings still being typed) follows into the field until the shop edits it there.
+  const edited = form.formState.dirtyFields.description;
+  useEffect(() => {
+    if (!edited) form.resetField('description', { defaultValue: description });
+  }, [description, edited, form]);
   const propose = useProposeChangeOrder(jobId, {
     mutationConfig: {
       onSuccess: () => {
