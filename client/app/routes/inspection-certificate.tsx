@@ -84,43 +84,43 @@ export function InspectionCertificateRoute() {
 
       {input.cylinders && results.bores && (
         <>
-      <h2 className="mt-4 text-lg font-bold">Bores ({unit})</h2>
-      <div className="overflow-x-auto">
-        <table className="w-full text-sm tabular-nums">
-          <caption className="sr-only">Readings and figures per cylinder</caption>
-          <thead>
-            <tr className="border-b text-left">
-              {['Cyl', 'Top thrust', 'Top axial', 'Mid thrust', 'Mid axial', 'Bottom thrust', 'Bottom axial', 'Piston', 'Mean', 'Taper', 'Out-of-round', 'Clearance', 'Result'].map((h) => (
-                <th key={h} scope="col" className="py-1 pr-2">
-                  {h}
-                </th>
-              ))}
-            </tr>
-          </thead>
-          <tbody>
-            {(input.cylinders ?? []).map((c, i) => {
-              const r = results.bores!.cylinders[i];
-              return (
-                <tr key={i} className="border-b border-slate-100">
-                  <th scope="row" className="py-1 pr-2">
-                    {i + 1}
-                  </th>
-                  {[c.top.thrust, c.top.axial, c.middle.thrust, c.middle.axial, c.bottom.thrust, c.bottom.axial, c.piston, r.mean, r.taper, r.outOfRound, r.clearance].map((v, j) => (
-                    <td key={j} className="py-1 pr-2">
-                      {len(v)}
-                    </td>
+          <h2 className="mt-4 text-lg font-bold">Bores ({unit})</h2>
+          <div className="overflow-x-auto">
+            <table className="w-full text-sm tabular-nums">
+              <caption className="sr-only">Readings and figures per cylinder</caption>
+              <thead>
+                <tr className="border-b text-left">
+                  {['Cyl', 'Top thrust', 'Top axial', 'Mid thrust', 'Mid axial', 'Bottom thrust', 'Bottom axial', 'Piston', 'Mean', 'Taper', 'Out-of-round', 'Clearance', 'Result'].map((h) => (
+                    <th key={h} scope="col" className="py-1 pr-2">
+                      {h}
+                    </th>
                   ))}
-                  <td className={r.pass ? 'text-pass' : 'font-bold text-fail'}>{r.pass ? 'pass' : 'FAIL'}</td>
                 </tr>
-              );
-            })}
-          </tbody>
-        </table>
-      </div>
-      <p className="mt-1 text-sm">
-        Taper: on the diameter, the largest minus the smallest reading over the three depths in one direction (the larger direction counts). Out-of-round:
-        two-point, the difference of the thrust and axial diameters at one depth (the largest depth counts).
-      </p>
+              </thead>
+              <tbody>
+                {(input.cylinders ?? []).map((c, i) => {
+                  const r = results.bores!.cylinders[i];
+                  return (
+                    <tr key={i} className="border-b border-slate-100">
+                      <th scope="row" className="py-1 pr-2">
+                        {i + 1}
+                      </th>
+                      {[c.top.thrust, c.top.axial, c.middle.thrust, c.middle.axial, c.bottom.thrust, c.bottom.axial, c.piston, r.mean, r.taper, r.outOfRound, r.clearance].map((v, j) => (
+                        <td key={j} className="py-1 pr-2">
+                          {len(v)}
+                        </td>
+                      ))}
+                      <td className={r.pass ? 'text-pass' : 'font-bold text-fail'}>{r.pass ? 'pass' : 'FAIL'}</td>
+                    </tr>
+                  );
+                })}
+              </tbody>
+            </table>
+          </div>
+          <p className="mt-1 text-sm">
+            Taper: on the diameter, the largest minus the smallest reading over the three depths in one direction (the larger direction counts). Out-of-round:
+            two-point, the difference of the thrust and axial diameters at one depth (the largest depth counts).
+          </p>
         </>
       )}
 

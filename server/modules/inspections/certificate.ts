@@ -95,17 +95,17 @@ export function certificatePdf(data: CertificateData): Promise<Buffer> {
   }
 
   if (input.cylinders && results.bores) {
-  const bores = results.bores;
-  heading(`Bores (${unit})`);
-  line('Cyl | top thrust / axial | middle thrust / axial | bottom thrust / axial | piston | mean | taper | out-of-round | clearance | result');
-  input.cylinders.forEach((c, i) => {
-    const r = bores.cylinders[i];
-    line(
-      `${i + 1} | ${len(c.top.thrust)} / ${len(c.top.axial)} | ${len(c.middle.thrust)} / ${len(c.middle.axial)} | ${len(c.bottom.thrust)} / ${len(c.bottom.axial)} | ${c.piston !== undefined ? len(c.piston) : '—'} | ${len(r.mean)} | ${len(r.taper)} | ${len(r.outOfRound)} | ${r.clearance !== undefined ? len(r.clearance) : '—'} | ${r.pass ? 'pass' : 'FAIL'}`,
-    );
-  });
-  line(`Largest taper ${len(bores.worst.taper)} · largest out-of-round ${len(bores.worst.outOfRound)}.`);
-  line('Taper: on the diameter, the largest minus the smallest reading over the three depths in one direction (the larger direction counts). Out-of-round: two-point, the difference of the thrust and axial diameters at one depth (the largest depth counts).');
+    const bores = results.bores;
+    heading(`Bores (${unit})`);
+    line('Cyl | top thrust / axial | middle thrust / axial | bottom thrust / axial | piston | mean | taper | out-of-round | clearance | result');
+    input.cylinders.forEach((c, i) => {
+      const r = bores.cylinders[i];
+      line(
+        `${i + 1} | ${len(c.top.thrust)} / ${len(c.top.axial)} | ${len(c.middle.thrust)} / ${len(c.middle.axial)} | ${len(c.bottom.thrust)} / ${len(c.bottom.axial)} | ${c.piston !== undefined ? len(c.piston) : '—'} | ${len(r.mean)} | ${len(r.taper)} | ${len(r.outOfRound)} | ${r.clearance !== undefined ? len(r.clearance) : '—'} | ${r.pass ? 'pass' : 'FAIL'}`,
+      );
+    });
+    line(`Largest taper ${len(bores.worst.taper)} · largest out-of-round ${len(bores.worst.outOfRound)}.`);
+    line('Taper: on the diameter, the largest minus the smallest reading over the three depths in one direction (the larger direction counts). Out-of-round: two-point, the difference of the thrust and axial diameters at one depth (the largest depth counts).');
   }
 
   if (input.deck && results.deck) {

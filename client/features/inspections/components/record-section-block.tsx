@@ -7,6 +7,7 @@
 import { SECTION_VERDICT_WORDS, checkValueText, figureText, sectionParts } from '@shared/inspection-words';
 import { type InspectionResults, checkVerdict } from '@shared/schemas/inspection';
 import type { SectionResult, SectionVerdict } from '@shared/schemas/inspection-sections';
+import { TableHead } from '@client/components/ui/table-head';
 import { cn } from '@client/lib/cn';
 import { VerdictMark } from './record-judgement';
 
@@ -46,14 +47,7 @@ export function RecordSectionBlock({ section, results, headingLevel = 3, showChe
       {showChecks && checks.length > 0 && (
         <div className="overflow-x-auto">
           <table className="w-full text-left text-sm">
-            <thead>
-              <tr className="text-ink-soft">
-                <th className="py-1 pr-2 font-semibold">Check</th>
-                <th className="py-1 pr-2 font-semibold">Value</th>
-                <th className="py-1 pr-2 font-semibold">Allowed</th>
-                <th className="py-1 font-semibold">Verdict</th>
-              </tr>
-            </thead>
+            <TableHead columns={['Check', 'Value', 'Allowed', 'Verdict']} dense />
             <tbody>
               {checks.map((check, i) => (
                 <tr key={`${check.what}-${i}`} className="border-t border-slate-100 align-top">

@@ -9,7 +9,7 @@
  */
 import { boreOperationCodes, type OperationCode } from '@shared/catalogue';
 import type { InspectionInput } from '@shared/schemas/inspection';
-import type { InspectionSections } from '@shared/schemas/inspection-sections';
+import { SECTION_INPUT_KEYS, type InspectionSections } from '@shared/schemas/inspection-sections';
 import { numberToText, toNumber } from '@client/lib/numbers';
 
 /** Leaves holding words or a choice, not a number. */
@@ -49,18 +49,10 @@ const keyedRows = (path: string) => KEYED_ROWS[path.replace(/\.\d+\./g, '.#.')];
 
 /** Which part of the input each operation's own section fills. */
 export const SECTION_KEYS: Partial<Record<OperationCode, keyof InspectionSections>> = {
-  clean: 'clean',
-  'crack-test': 'crackTest',
+  ...SECTION_INPUT_KEYS,
   hone: 'hone',
   'plateau-hone': 'hone',
   'torque-plate-hone': 'hone',
-  'line-hone': 'lineHone',
-  'cam-bore': 'camBore',
-  sleeve: 'sleeve',
-  'head-resurface': 'headResurface',
-  'valve-job': 'valveJob',
-  'crank-grind': 'crankGrind',
-  balance: 'balance',
 };
 
 /** Whether the job orders work on the bores, and so needs the bore grid. */

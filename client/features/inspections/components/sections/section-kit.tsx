@@ -8,6 +8,7 @@ import type { LengthUnit } from '@shared/calc';
 import type { InspectionResults } from '@shared/schemas/inspection';
 import type { JobDetail } from '@shared/schemas/jobs';
 import { SelectField } from '@client/components/ui/select-field';
+import { TableHead } from '@client/components/ui/table-head';
 import { TextAreaField } from '@client/components/ui/text-area-field';
 import { TextField } from '@client/components/ui/text-field';
 import { UNIT_WORDS } from '@client/lib/numbers';
@@ -110,18 +111,7 @@ export function ReadingTable({ ctx, caption, rows, columns }: { ctx: SectionCont
     <div className="overflow-x-auto">
       <table className="min-w-full text-left text-sm">
         <caption className="pb-1 text-left text-sm font-semibold text-ink">{caption}</caption>
-        <thead>
-          <tr className="text-ink-soft">
-            <th className="py-1 pr-2 font-semibold" scope="col">
-              <span className="sr-only">Where</span>
-            </th>
-            {columns.map((column) => (
-              <th key={column.label} className="py-1 pr-2 font-semibold" scope="col">
-                {column.label}
-              </th>
-            ))}
-          </tr>
-        </thead>
+        <TableHead columns={[{ label: 'Where', srOnly: true }, ...columns.map((column) => column.label)]} dense />
         <tbody>
           {rows.map((row, i) => (
             <tr key={row} className="align-top">
