@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { inspectionInputSchema, type InspectionInput } from '../../shared/schemas/inspection';
-import { checkRecord, emptyRecord, fromDraft, fromInput, toDraft, toRawInput } from '../../client/features/inspections/lib/record-form';
+import { checkRecord, emptyRecord, fromDraft, fromInput, pathWords, toDraft, toRawInput } from '../../client/features/inspections/lib/record-form';
 import { deckPositions, sectionsFromFields } from '../../client/features/inspections/lib/section-fields';
 
 /** Every section filled, as a shop would type it (figures invented for the test). */
@@ -125,6 +125,8 @@ describe('record form sections', () => {
     const check = checkRecord(form, 0);
     expect(check.missing['sections.lineHone.bores.0.vertical.rear']).toBeDefined();
     expect(check.errors['sections.lineHone.bores']).toBe('Enter at least two main housing bores.');
+    expect(pathWords('sections.lineHone.bores.0.vertical.rear')).toBe('line hone: bores 1 vertical rear');
+    expect(pathWords('sections.balance.bobWeightGrams')).toBe('balance: bob weight grams');
   });
 
   it('lays the deck positions out from the cylinder count', () => {

@@ -10,7 +10,7 @@ import { type LengthUnit, STANDARD_CUTOFFS_MM, microinchesToMicrometres } from '
 import { inspectionInputSchema, type InspectionInput } from '@shared/schemas/inspection';
 import { DEPTHS, DIRECTIONS, type Depth, type GridColumn, cellKey, cellPathWords } from '@client/lib/bore-readings';
 import { lengthToText, numberToText, toNumber, toNumberList } from '@client/lib/numbers';
-import { deckFromFields, fieldsFromInput, isFieldPath, sectionsFromFields } from './section-fields';
+import { deckFromFields, fieldsFromInput, isFieldPath, sectionPathWords, sectionsFromFields } from './section-fields';
 
 export type FinishMode = 'none' | 'values' | 'profile';
 export type CrosshatchMode = 'none' | 'measured' | 'settings';
@@ -336,7 +336,7 @@ export function pathWords(path: string): string {
   if (cell) return cell;
   const reading = /^deck\.readings\.(\d+)$/.exec(path);
   if (reading) return `straightedge reading ${Number(reading[1]) + 1}`;
-  return FIELD_WORDS[path] ?? path;
+  return FIELD_WORDS[path] ?? sectionPathWords(path) ?? path;
 }
 
 /** The id of the input that holds a path, so a message can lead to it. */

@@ -181,3 +181,30 @@ export function deckPositions(cylinderCount: number): Array<{ position: string; 
     ...['A', 'B'].map((letter) => ({ position: `diagonal ${letter}`, group: 'Diagonal' })),
   ];
 }
+
+const SECTION_WORDS: Record<string, string> = {
+  clean: 'clean',
+  crackTest: 'crack test',
+  hone: 'hone',
+  lineHone: 'line hone',
+  camBore: 'cam bore',
+  sleeve: 'sleeve',
+  headResurface: 'head resurface',
+  valveJob: 'valve job',
+  crankGrind: 'crank grind',
+  balance: 'balance',
+  straightedge: 'deck straightedge',
+  heights: 'deck height',
+};
+
+/** A section's path in words: "sections.lineHone.bores.2.vertical.front" → "line hone: bores 3 vertical front". */
+export function sectionPathWords(path: string): string | undefined {
+  const match = /^(?:sections|deck)\.([A-Za-z]+)(?:\.(.+))?$/.exec(path);
+  if (!match || !SECTION_WORDS[match[1]]) return undefined;
+  const rest = (match[2] ?? '')
+    .split('.')
+    .filter(Boolean)
+    .map((part) => (/^\d+$/.test(part) ? String(Number(part) + 1) : part.replace(/([A-Z])/g, ' $1').toLowerCase()))
+    .join(' ');
+  return rest ? `${SECTION_WORDS[match[1]]}: ${rest}` : SECTION_WORDS[match[1]];
+}
