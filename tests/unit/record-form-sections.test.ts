@@ -2,6 +2,8 @@ import { describe, expect, it } from 'vitest';
 import { inspectionInputSchema, type InspectionInput } from '../../shared/schemas/inspection';
 import { checkRecord, emptyRecord, fromDraft, fromInput, pathWords, toDraft, toRawInput } from '../../client/features/inspections/lib/record-form';
 import { deckPositions, sectionsFromFields } from '../../client/features/inspections/lib/section-fields';
+import { versionChanges } from '../../client/features/inspections/lib/version-diff';
+import type { InspectionVersion } from '../../shared/schemas/inspection';
 
 /** Every section filled, as a shop would type it (figures invented for the test). */
 function filledForm() {
@@ -140,6 +142,26 @@ describe('record form sections', () => {
       'across cylinder 4',
       'diagonal A',
       'diagonal B',
+    ]);
+  });
+
+  it('names a changed section reading and a changed section verdict between two versions', () => {
+    const input = checkRecord(filledForm(), 0).input!;
+    const version = (n: number, front: number, verdict: 'fails' | 'conforms'): InspectionVersion => ({
+      id: `00000000-0000-4000-8000-00000000000${n}`,
+      version: n,
+      status: 'submitted',
+      input: { ...input, sections: { ...input.sections, lineHone: { ...input.sections!.lineHone!, bores: input.sections!.lineHone!.bores.map((b, i) => (i === 1 ? { ...b, vertical: { ...b.vertical, front } } : b)) } } },
+      results: { checks: [], pass: verdict === 'conforms', sections: [{ operation: 'line-hone', name: 'Line hone', verdict, covers: ['line-hone'], figures: [], statements: [] }] },
+      submittedAt: '2026-12-01T10:00:00.000Z',
+      decidedAt: null,
+      rejectReasons: null,
+    });
+    const changes = versionChanges(version(1, 2.6431, 'fails'), version(2, 2.6411, 'conforms'));
+    expect(changes.map(({ what, before, after }) => [what, before, after])).toEqual([
+      ['Line hone: bores 2 vertical front', '2.6431', '2.6411'],
+      ['Line hone (judged)', 'Fails', 'Conforms'],
+      ['Overall result', 'Fail: at least one check fails', 'Pass: every limit judged, every check conforms'],
     ]);
   });
 });
