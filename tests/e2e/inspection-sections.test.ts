@@ -1,5 +1,6 @@
 import { join } from 'node:path';
 import type { Page } from 'playwright-core';
+import sharp from 'sharp';
 import { describe, expect, it } from 'vitest';
 import type { OperationCode } from '../../shared/catalogue';
 import type { InspectionView } from '../../shared/schemas/inspection';
@@ -136,6 +137,13 @@ describe('an inspection record with a section per ordered operation, in a real b
     await record.getByLabel('Method').selectOption('magnetic-particle');
     await record.getByLabel('Result').selectOption('crack-found');
     await fill(shopPage, 'Findings: where and how long any indication is', 'Crack 20 mm long between cylinders 3 and 5 water jacket');
+    // A photo of the indication: uploaded at once through the milestone photo upload; its id goes in the section (kept in the draft).
+    const photo = await sharp({ create: { width: 640, height: 480, channels: 3, background: '#7a6f66' } }).jpeg().toBuffer();
+    await record.getByTestId('milestone-photo-input').setInputFiles({ name: 'crack.jpg', mimeType: 'image/jpeg', buffer: photo });
+    await record.getByTestId('milestone-upload-photos').getByRole('img').first().waitFor();
+    await expect
+      .poll(async () => ((await shop<InspectionView>('GET', `/api/jobs/${job.id}/inspection`)).draft as { form?: { fields?: Record<string, string> } } | null)?.form?.fields?.['sections.crackTest.photoIds'], { timeout: 8_000 })
+      .toMatch(/^[0-9a-f-]{36}$/);
     await shopPage.getByTestId('crack-stop').waitFor();
     await expect.poll(() => firstCell.isVisible()).toBe(false);
     expect(await record.getByRole('button', { name: 'Submit the record' }).isDisabled()).toBe(true);
