@@ -98,6 +98,7 @@ describe('an inspection record with a section per ordered operation, in a real b
     await expect(record.getByLabel('Residual unbalance, rear plane (g·mm)').inputValue()).resolves.toBe('55');
 
     await fill(shopPage, 'Signed off by (your name)', 'Bench Lead');
+    await shopPage.screenshot({ path: join(artifactsDir, 'inspection-sections-entry.png'), fullPage: true });
     await record.getByRole('button', { name: 'Submit the record' }).click();
     await shopPage.waitForURL(suite.url(`/jobs/${job.id}`));
 

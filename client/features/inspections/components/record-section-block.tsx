@@ -55,8 +55,8 @@ export function RecordSectionBlock({ section, results, headingLevel = 3, showChe
                     {capitalise(check.what)}
                     {check.note && <span className="block text-ink-soft">{check.note}</span>}
                   </td>
-                  <td className="py-1 pr-2 tabular-nums">{checkValueText(check)}</td>
-                  <td className="py-1 pr-2 tabular-nums">{check.allowed}</td>
+                  <td className="whitespace-nowrap py-1 pr-2 tabular-nums">{checkValueText(check)}</td>
+                  <td className="whitespace-nowrap py-1 pr-2 tabular-nums">{check.allowed}</td>
                   <td className="py-1">
                     <VerdictMark verdict={checkVerdict(check)} compact />
                   </td>
