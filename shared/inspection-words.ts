@@ -5,7 +5,8 @@
 import { recordConforms } from './calc/conformance';
 import { boreSpecFor } from './calc/inspection-record';
 import type { LengthUnit } from './calc/units';
-import type { InspectionResults, InspectionVersion } from './schemas/inspection';
+import type { InspectionResults, InspectionVersion, LimitCheck, NotJudged } from './schemas/inspection';
+import type { SectionFigure, SectionResult, SectionVerdict } from './schemas/inspection-sections';
 
 /** Every status a version can have, in words. */
 export const INSPECTION_STATUS_WORDS: Readonly<Record<InspectionVersion['status'], string>> = {
@@ -85,4 +86,33 @@ function filterWords(filter: unknown): string {
     return `${f.kind === 'gaussian' || f.kind === undefined ? 'Gaussian' : f.kind}, cut-off ${f.cutoffMm} mm${length}`;
   }
   return JSON.stringify(filter);
+}
+
+// --- sections -------------------------------------------------------------------
+
+export const SECTION_VERDICT_WORDS: Readonly<Record<SectionVerdict, string>> = {
+  conforms: 'Conforms',
+  fails: 'Fails',
+  'not-proven': 'Not proven',
+  'not-judged': 'Not fully judged',
+  recorded: 'Recorded',
+};
+
+/** The unit a check's limit is written in ("≤ 0.0030 in" → "in"), to print beside its value. */
+const unitOfLimit = (allowed: string) => /(g·mm|µm|mm|in|cc|lbf|N|g|°)\s*$/.exec(allowed)?.[1];
+
+/** A section check's value in words: its own words (a crack test's result), or the number with its limit's unit. */
+export function checkValueText(check: LimitCheck): string {
+  if (check.valueText) return check.valueText;
+  const unit = unitOfLimit(check.allowed);
+  const number = Number(check.value.toPrecision(6)).toString();
+  return unit ? `${number}${unit === '°' ? '' : ' '}${unit}` : number;
+}
+
+export const figureText = (figure: SectionFigure) => `${figure.value}${figure.unit ? ` ${figure.unit}` : ''}`;
+
+/** The checks and not-judged items one section covers. */
+export function sectionParts(section: SectionResult, results: InspectionResults): { checks: LimitCheck[]; notJudged: NotJudged[] } {
+  const covered = (s: string | undefined) => s !== undefined && section.covers.includes(s);
+  return { checks: results.checks.filter((check) => covered(check.section)), notJudged: (results.notJudged ?? []).filter((item) => covered(item.section)) };
 }

@@ -154,6 +154,19 @@ export const balanceSectionSchema = z.object({
     .refine((rows) => new Set(rows.map((r) => r.plane)).size === rows.length, 'Each plane once, please.'),
 });
 
+/** The section of the input each kind of work fills with its own readings (honing's stones are shared by every kind of hone: see the entry form). */
+export const SECTION_INPUT_KEYS = {
+  clean: 'clean',
+  'crack-test': 'crackTest',
+  'line-hone': 'lineHone',
+  'cam-bore': 'camBore',
+  sleeve: 'sleeve',
+  'head-resurface': 'headResurface',
+  'valve-job': 'valveJob',
+  'crank-grind': 'crankGrind',
+  balance: 'balance',
+} as const;
+
 /** Every section is optional in the schema; the server says which the job's work needs. */
 export const inspectionSectionsSchema = z.object({
   clean: cleanSectionSchema.optional(),

@@ -248,6 +248,43 @@ describe('inspection record', () => {
     expect((await builder.get(`/api/jobs/${job.id}/inspection/9/certificate.pdf`)).status).toBe(404);
   });
 
+  it('when a record without a bore grid has line hone and balance sections, then the PDF prints a part per operation with its checks, no bore table, and ≤ as text', async () => {
+    const { job, shop, builder } = await m.jobIn('inWork', {
+      input: jobInput({
+        title: 'Line hone and balance, no bore work',
+        parts: ['block', 'rotating-assembly'],
+        operations: [
+          { code: 'line-hone', quantity: 1 },
+          { code: 'balance', quantity: 1 },
+        ],
+        limits: { lineHone: { housingMin: 2.6406, housingMax: 2.6416 }, balance: { serviceRpm: 6500 } },
+      }),
+    });
+    const bore = { vertical: { front: 2.641, rear: 2.6411 }, second: { front: 2.641, rear: 2.6411 }, centre: 0 };
+    const input: InspectionInput = {
+      conditions: { unit: 'in', gaugeResolution: 0.0001, temperatureC: 20 },
+      sections: {
+        lineHone: { secondDirection: '45', bores: [bore, bore, { ...bore, centre: 0.0002 }, bore, bore] },
+        balance: { rotatingGrams: 1580, reciprocatingGrams: 1260, bobWeightGrams: 2210, rotorMassKg: 23, grade: 6.3, serviceRpm: 6500, residual: [{ plane: 'front', gmm: 60 }, { plane: 'rear', gmm: 55 }] },
+      },
+      signedOffBy: 'Ada Quernfield',
+      notes: '',
+    };
+    const submitted = await shop.post(`/api/jobs/${job.id}/inspection`, input);
+    expect(submitted.status).toBe(201);
+    expect(submitted.body.version.results.sections.map((s: { operation: string; verdict: string }) => [s.operation, s.verdict])).toEqual([
+      ['line-hone', 'conforms'],
+      ['balance', 'conforms'],
+    ]);
+    const text = await certificateText(builder, job.id, 1);
+    expect(text).toContain('Line hone: Conforms');
+    expect(text).toContain('Balance: Conforms');
+    expect(text).toContain('main bore alignment');
+    expect(text).toContain('residual unbalance, rear plane');
+    expect(text).toMatch(/allowed ≤ 0\.0005 in/);
+    expect(text).not.toContain('Bores (');
+  });
+
   it('when the shop saves drafts, then they come back only to it, stop once the record is submitted, and a long surface trace fits in the record', async () => {
     const { job, shop, builder } = await inWork();
     const saved = await shop.agent.put(`/api/jobs/${job.id}/inspection/draft`).set('X-CSRF-Token', shop.token).send({ draft: { cylinders: [{ top: { thrust: '4.03' } }] } });

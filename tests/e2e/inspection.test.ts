@@ -284,7 +284,8 @@ describe('the inspection record, from block received to payment released, in a r
     await builderPage.getByRole('link', { name: 'Certificate (print or PDF)' }).click();
     await builderPage.getByRole('heading', { name: 'Tenthmark inspection record' }).waitFor();
     await expect(builderPage.getByTestId('certificate-result').textContent()).resolves.toMatch(/^PASS/);
-    await expect(builderPage.getByRole('table').getByRole('row').count()).resolves.toBe(9);
+    // The bore table: a header row and one per cylinder (each operation's own block has tables of its own below it).
+    await expect(builderPage.getByRole('table', { name: 'Readings and figures per cylinder' }).getByRole('row').count()).resolves.toBe(9);
     await builderPage.getByText('Figures are guidance.', { exact: false }).waitFor();
     const pdfHref = await builderPage.getByRole('link', { name: 'Download the PDF' }).getAttribute('href');
     const pdf = await builderPage.request.get(url(pdfHref!));

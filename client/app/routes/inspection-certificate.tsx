@@ -3,7 +3,7 @@ import { checkFigures, figureAgainstLimit, lengthDecimals, micrometresToMicroinc
 import { INSPECTION_STATUS_WORDS, methodLines, resultHeadline } from '@shared/inspection-words';
 import { Button } from '@client/components/ui/button';
 import { Notice } from '@client/components/ui/notice';
-import { useInspection, finishFilterWords } from '@client/features/inspections';
+import { RecordSections, useInspection, finishFilterWords } from '@client/features/inspections';
 import { useJob } from '@client/features/jobs';
 
 const GUIDANCE =
@@ -82,43 +82,47 @@ export function InspectionCertificateRoute() {
         </>
       )}
 
-      <h2 className="mt-4 text-lg font-bold">Bores ({unit})</h2>
-      <div className="overflow-x-auto">
-        <table className="w-full text-sm tabular-nums">
-          <caption className="sr-only">Readings and figures per cylinder</caption>
-          <thead>
-            <tr className="border-b text-left">
-              {['Cyl', 'Top thrust', 'Top axial', 'Mid thrust', 'Mid axial', 'Bottom thrust', 'Bottom axial', 'Piston', 'Mean', 'Taper', 'Out-of-round', 'Clearance', 'Result'].map((h) => (
-                <th key={h} scope="col" className="py-1 pr-2">
-                  {h}
-                </th>
-              ))}
-            </tr>
-          </thead>
-          <tbody>
-            {(input.cylinders ?? []).map((c, i) => {
-              const r = results.bores!.cylinders[i];
-              return (
-                <tr key={i} className="border-b border-slate-100">
-                  <th scope="row" className="py-1 pr-2">
-                    {i + 1}
-                  </th>
-                  {[c.top.thrust, c.top.axial, c.middle.thrust, c.middle.axial, c.bottom.thrust, c.bottom.axial, c.piston, r.mean, r.taper, r.outOfRound, r.clearance].map((v, j) => (
-                    <td key={j} className="py-1 pr-2">
-                      {len(v)}
-                    </td>
+      {input.cylinders && results.bores && (
+        <>
+          <h2 className="mt-4 text-lg font-bold">Bores ({unit})</h2>
+          <div className="overflow-x-auto">
+            <table className="w-full text-sm tabular-nums">
+              <caption className="sr-only">Readings and figures per cylinder</caption>
+              <thead>
+                <tr className="border-b text-left">
+                  {['Cyl', 'Top thrust', 'Top axial', 'Mid thrust', 'Mid axial', 'Bottom thrust', 'Bottom axial', 'Piston', 'Mean', 'Taper', 'Out-of-round', 'Clearance', 'Result'].map((h) => (
+                    <th key={h} scope="col" className="py-1 pr-2">
+                      {h}
+                    </th>
                   ))}
-                  <td className={r.pass ? 'text-pass' : 'font-bold text-fail'}>{r.pass ? 'pass' : 'FAIL'}</td>
                 </tr>
-              );
-            })}
-          </tbody>
-        </table>
-      </div>
-      <p className="mt-1 text-sm">
-        Taper: on the diameter, the largest minus the smallest reading over the three depths in one direction (the larger direction counts). Out-of-round:
-        two-point, the difference of the thrust and axial diameters at one depth (the largest depth counts).
-      </p>
+              </thead>
+              <tbody>
+                {(input.cylinders ?? []).map((c, i) => {
+                  const r = results.bores!.cylinders[i];
+                  return (
+                    <tr key={i} className="border-b border-slate-100">
+                      <th scope="row" className="py-1 pr-2">
+                        {i + 1}
+                      </th>
+                      {[c.top.thrust, c.top.axial, c.middle.thrust, c.middle.axial, c.bottom.thrust, c.bottom.axial, c.piston, r.mean, r.taper, r.outOfRound, r.clearance].map((v, j) => (
+                        <td key={j} className="py-1 pr-2">
+                          {len(v)}
+                        </td>
+                      ))}
+                      <td className={r.pass ? 'text-pass' : 'font-bold text-fail'}>{r.pass ? 'pass' : 'FAIL'}</td>
+                    </tr>
+                  );
+                })}
+              </tbody>
+            </table>
+          </div>
+          <p className="mt-1 text-sm">
+            Taper: on the diameter, the largest minus the smallest reading over the three depths in one direction (the larger direction counts). Out-of-round:
+            two-point, the difference of the thrust and axial diameters at one depth (the largest depth counts).
+          </p>
+        </>
+      )}
 
       {results.deck && (
         <>
@@ -151,6 +155,12 @@ export function InspectionCertificateRoute() {
               : `Included angle ${results.crosshatch.includedAngleDeg.toFixed(1)}°, measured across the horizontal.`}
           </p>
         </>
+      )}
+      {results.sections && results.sections.length > 0 && (
+        <section data-testid="certificate-sections">
+          <h2 className="mt-4 text-lg font-bold">Each operation ordered</h2>
+          <RecordSections results={results} />
+        </section>
       )}
       <h2 className="mt-4 text-lg font-bold">Checks against the job’s limits</h2>
       {results.checks.length === 0 && notJudged.length === 0 ? (

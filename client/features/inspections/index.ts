@@ -5,4 +5,5 @@ export { InspectionEntryForm } from './components/inspection-entry-form';
 export type { InspectionEntryFormProps } from './components/inspection-entry-form';
 export { finishFilterWords } from './components/inspection-results';
 export { InspectionReview } from './components/inspection-review';
+export { RecordSections } from './components/record-section-block';
 export { draftSavedAt, emptyRecord, fromDraft, fromInput } from './lib/record-form';

@@ -2,3 +2,4 @@
 // Anything not exported here is internal to the feature (eslint.config.js enforces it).
 export { MilestonesPanel } from './components/milestones-panel';
 export { milestoneKindWords, milestoneTitle } from './components/milestone-words';
+export { MilestonePhotoPicker, type PendingPhoto } from './components/milestone-photo-picker';

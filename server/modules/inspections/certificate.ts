@@ -3,7 +3,7 @@ import { createRequire } from 'node:module';
 import PDFDocument from 'pdfkit';
 import { checkFigures } from '../../../shared/calc/check-figures';
 import { figureAgainstLimit, lengthDecimals } from '../../../shared/calc/figures';
-import { INSPECTION_STATUS_WORDS, methodLines, resultHeadline } from '../../../shared/inspection-words';
+import { INSPECTION_STATUS_WORDS, SECTION_VERDICT_WORDS, checkValueText, figureText, methodLines, resultHeadline, sectionParts } from '../../../shared/inspection-words';
 import type { InspectionInput, InspectionResults, InspectionVersion } from '../../../shared/schemas/inspection';
 import type { JobInput } from '../../../shared/schemas/jobs';
 
@@ -95,17 +95,17 @@ export function certificatePdf(data: CertificateData): Promise<Buffer> {
   }
 
   if (input.cylinders && results.bores) {
-  const bores = results.bores;
-  heading(`Bores (${unit})`);
-  line('Cyl | top thrust / axial | middle thrust / axial | bottom thrust / axial | piston | mean | taper | out-of-round | clearance | result');
-  input.cylinders.forEach((c, i) => {
-    const r = bores.cylinders[i];
-    line(
-      `${i + 1} | ${len(c.top.thrust)} / ${len(c.top.axial)} | ${len(c.middle.thrust)} / ${len(c.middle.axial)} | ${len(c.bottom.thrust)} / ${len(c.bottom.axial)} | ${c.piston !== undefined ? len(c.piston) : '—'} | ${len(r.mean)} | ${len(r.taper)} | ${len(r.outOfRound)} | ${r.clearance !== undefined ? len(r.clearance) : '—'} | ${r.pass ? 'pass' : 'FAIL'}`,
-    );
-  });
-  line(`Largest taper ${len(bores.worst.taper)} · largest out-of-round ${len(bores.worst.outOfRound)}.`);
-  line('Taper: on the diameter, the largest minus the smallest reading over the three depths in one direction (the larger direction counts). Out-of-round: two-point, the difference of the thrust and axial diameters at one depth (the largest depth counts).');
+    const bores = results.bores;
+    heading(`Bores (${unit})`);
+    line('Cyl | top thrust / axial | middle thrust / axial | bottom thrust / axial | piston | mean | taper | out-of-round | clearance | result');
+    input.cylinders.forEach((c, i) => {
+      const r = bores.cylinders[i];
+      line(
+        `${i + 1} | ${len(c.top.thrust)} / ${len(c.top.axial)} | ${len(c.middle.thrust)} / ${len(c.middle.axial)} | ${len(c.bottom.thrust)} / ${len(c.bottom.axial)} | ${c.piston !== undefined ? len(c.piston) : '—'} | ${len(r.mean)} | ${len(r.taper)} | ${len(r.outOfRound)} | ${r.clearance !== undefined ? len(r.clearance) : '—'} | ${r.pass ? 'pass' : 'FAIL'}`,
+      );
+    });
+    line(`Largest taper ${len(bores.worst.taper)} · largest out-of-round ${len(bores.worst.outOfRound)}.`);
+    line('Taper: on the diameter, the largest minus the smallest reading over the three depths in one direction (the larger direction counts). Out-of-round: two-point, the difference of the thrust and axial diameters at one depth (the largest depth counts).');
   }
 
   if (input.deck && results.deck) {
@@ -132,6 +132,15 @@ export function certificatePdf(data: CertificateData): Promise<Buffer> {
         ? `Included angle ${results.crosshatch.includedAngleDeg.toFixed(1)}°, computed from settings (mid-stroke), not measured: ${input.crosshatch.spindleRpm} rpm, ${input.crosshatch.strokeLength} ${unit} stroke, ${input.crosshatch.cyclesPerMinute} full up-and-down cycles per minute. Across the horizontal.`
         : `Included angle ${results.crosshatch.includedAngleDeg.toFixed(1)}°, measured across the horizontal.`,
     );
+  }
+  // One part per ordered operation: its verdict, figures and checks.
+  for (const section of results.sections ?? []) {
+    heading(`${section.name}: ${SECTION_VERDICT_WORDS[section.verdict]}`);
+    if (section.figures.length > 0) line(section.figures.map((figure) => `${figure.label} ${figureText(figure)}`).join(' · '));
+    const parts = sectionParts(section, results);
+    for (const check of parts.checks) line(`${checkWord(check)} — ${check.what}: ${checkValueText(check)} (allowed ${check.allowed})${check.note ? `; ${check.note}` : ''}`);
+    for (const item of parts.notJudged) line(`NOT JUDGED — ${item.what}: ${item.why}`);
+    for (const statement of section.statements) line(statement);
   }
   heading('Checks against the job’s limits');
   if (results.checks.length === 0) line(resultHeadline(results, data.spec, unit).tone === 'none' ? 'The job gave no limits, so nothing was judged.' : 'No limit failed.');

@@ -3,7 +3,7 @@ import { checksNotConforming, recordConforms } from '../../../shared/calc/confor
 import { evaluateInspection } from '../../../shared/calc/inspection-record';
 import { boreOperationCodes, findOperation, type OperationCode } from '../../../shared/catalogue';
 import type { InspectionInput, InspectionResults, InspectionVersion } from '../../../shared/schemas/inspection';
-import type { InspectionSections } from '../../../shared/schemas/inspection-sections';
+import { SECTION_INPUT_KEYS, type InspectionSections } from '../../../shared/schemas/inspection-sections';
 import type { JobInput } from '../../../shared/schemas/jobs';
 import type { Database, Executor } from '../../db/client';
 import { inspectionDrafts, inspectionRecords, jobs, milestones, users, type User } from '../../db/schema';
@@ -55,17 +55,7 @@ export async function inspectionView(db: Database, user: User, jobId: string) {
 }
 
 /** The section of the record each kind of work has, in the input's `sections`. */
-const SECTION_KEYS: Partial<Record<OperationCode, keyof InspectionSections>> = {
-  clean: 'clean',
-  'crack-test': 'crackTest',
-  'line-hone': 'lineHone',
-  'cam-bore': 'camBore',
-  sleeve: 'sleeve',
-  'head-resurface': 'headResurface',
-  'valve-job': 'valveJob',
-  'crank-grind': 'crankGrind',
-  balance: 'balance',
-};
+const SECTION_KEYS: Partial<Record<OperationCode, keyof InspectionSections>> = SECTION_INPUT_KEYS;
 
 /**
  * A record answers the job it is for: the bore grid when the job orders bore

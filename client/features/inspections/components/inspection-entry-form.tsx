@@ -11,6 +11,7 @@ import { SegmentedControl } from '@client/components/ui/segmented-control';
 import { SelectField } from '@client/components/ui/select-field';
 import { TextAreaField } from '@client/components/ui/text-area-field';
 import { TextField, type TextFieldProps } from '@client/components/ui/text-field';
+import { ProposeChangeOrder } from '@client/features/payments';
 import { ApiError } from '@client/lib/api-client';
 import { UNIT_WORDS } from '@client/lib/numbers';
 import { useSubmitInspection } from '../api/inspections';
@@ -18,7 +19,9 @@ import { useDraftAutosave, type DraftStatus } from '../hooks/use-draft-autosave'
 import { evaluateLive } from '../lib/evaluate';
 import { MAX_TRACE_POINTS, readTrace } from '../lib/profile-file';
 import { type CrosshatchMode, type FinishMode, type FinishUnit, PROFILE_FILTER_CHOICES, type RecordForm, checkRecord, fieldId, pathWords, toDraft } from '../lib/record-form';
+import { ordersBoreWork } from '../lib/section-fields';
 import { FailingChecksLine, InspectionResultsView } from './inspection-results';
+import { DeckPositionFields, OrderedSections, type SectionContext } from './sections';
 
 const clock = new Intl.DateTimeFormat('en-GB', { hour: '2-digit', minute: '2-digit' });
 
@@ -70,7 +73,10 @@ export interface InspectionEntryFormProps {
  * readings (the server works every figure out again).
  */
 export function InspectionEntryForm({ job, initial, origin, onSubmitted }: InspectionEntryFormProps) {
-  const count = job.cylinders;
+  const boreWork = ordersBoreWork(job.spec.operations);
+  const deckOrdered = job.spec.operations.some((op) => op.code === 'deck');
+  /** The bore grid's rows: none when the job orders no bore work. */
+  const count = boreWork ? job.cylinders : 0;
   const [form, setForm] = useState<RecordForm>(initial);
   const [tried, setTried] = useState(false);
   const [serverErrors, setServerErrors] = useState<Record<string, string>>({});
@@ -99,6 +105,12 @@ export function InspectionEntryForm({ job, initial, origin, onSubmitted }: Inspe
     setForm((current) => ({ ...current, ...change }));
     if (Object.keys(serverErrors).length > 0) setServerErrors({});
   };
+  const updateFields = (changes: Record<string, string>) => {
+    setForm((current) => ({ ...current, fields: { ...current.fields, ...changes } }));
+    if (Object.keys(serverErrors).length > 0) setServerErrors({});
+  };
+  const sectionCtx: SectionContext = { fields: form.fields, setFields: updateFields, errors, unit: form.unit, job, results: live.results };
+  const crackFound = form.fields['sections.crackTest.result'] === 'crack-found';
   const updateCells = (changes: Record<string, string>) => setForm((current) => ({ ...current, cells: { ...current.cells, ...changes } }));
   const text = (path: string, value: string, onValue: (text: string) => void) => ({
     value,
@@ -127,6 +139,7 @@ export function InspectionEntryForm({ job, initial, origin, onSubmitted }: Inspe
 
   const onSubmit = (event: FormEvent) => {
     event.preventDefault();
+    if (crackFound) return;
     setTried(true);
     setFormError(undefined);
     if (!check.input) {
@@ -222,153 +235,176 @@ export function InspectionEntryForm({ job, initial, origin, onSubmitted }: Inspe
           />
         </Section>
 
-        <Section title={`Bores: ${count} cylinders`}>
-          <BoreReadingGrid
-            cylinderCount={count}
-            unit={form.unit}
-            cells={form.cells}
-            errors={errors}
-            inputId={fieldId}
-            pasteRows
-            pistonNote="(diameter)"
-            tableClassName="min-w-[34rem]"
-            help={
-              <>
-                Readings in {UNIT_WORDS[form.unit].long}. Tab moves along a cylinder (top, middle, bottom; thrust then axial; then the piston); Enter
-                moves to the same reading of the next cylinder. Paste rows copied from a spreadsheet into any cell to fill the grid from there: one
-                row per cylinder, top thrust, top axial, middle thrust, middle axial, bottom thrust, bottom axial and, optionally, the piston.
-              </>
-            }
-            onChange={(changes) => {
-              updateCells(changes);
-              if (Object.keys(serverErrors).length > 0) setServerErrors({});
-            }}
-          />
-          <FailingChecksLine results={live.results} cylinderIndexes={live.cylinderIndexes} spec={job.spec} unit={form.unit} className="xl:hidden" />
-        </Section>
+        <OrderedSections ctx={sectionCtx} only={['clean', 'crackTest']} />
 
-        <Section title="Deck (optional)" intro="The thickest feeler leaf under a straightedge at each position: lengthwise, crosswise and on both diagonals.">
-          <TextField
-            id={fieldId('deck.readings')}
-            label={`Straightedge readings (${unitShort}), separated by spaces or commas`}
-            autoComplete="off"
-            spellCheck={false}
-            value={form.deckReadings}
-            onChange={(event) => update({ deckReadings: event.target.value })}
-            error={errors['deck.readings'] ?? Object.entries(errors).find(([path]) => path.startsWith('deck.readings.'))?.[1]}
-          />
-          <NumberInput label="Deck finish Ra (µm), optional" {...text('deck.raUm', form.deckRa, (v) => update({ deckRa: v }))} />
-        </Section>
+        {crackFound && (
+          <div className="flex flex-col gap-3" data-testid="crack-stop">
+            <Notice tone="error" title="A crack was found: the record stops here">
+              A cracked part is not measured further and this record cannot be submitted. Propose the extra work the crack needs (a repair, or a
+              replacement part) to the builder below; once it is agreed and done, record the crack test again.
+            </Notice>
+            <ProposeChangeOrder
+              jobId={job.id}
+              description={`Crack found on crack test${form.fields['sections.crackTest.findings'] ? `: ${form.fields['sections.crackTest.findings']}` : '.'}`}
+              intro="The crack test’s findings are filled in; add what the repair is and its price. The builder agrees and pays before you do it."
+            />
+          </div>
+        )}
 
-        <Section title="Bore finish (optional)">
-          <SegmentedControl<FinishMode>
-            label="Bore finish"
-            options={[
-              { value: 'none', label: 'Not measured' },
-              { value: 'values', label: 'Enter values' },
-              { value: 'profile', label: 'From a profile trace' },
-            ]}
-            value={form.finishMode}
-            onChange={(finishMode) => update({ finishMode })}
-            className="self-start"
-          />
-          {form.finishMode === 'values' && (
-            <div className="grid gap-3 sm:grid-cols-3">
-              <NumberInput label={`Ra (${finishUnitWord})`} {...text('finish.raUm', form.finish.ra, (v) => update({ finish: { ...form.finish, ra: v } }))} />
-              <NumberInput label={`Rk (${finishUnitWord}), optional`} {...text('finish.rkUm', form.finish.rk, (v) => update({ finish: { ...form.finish, rk: v } }))} />
-              <NumberInput label={`Rpk (${finishUnitWord}), optional`} {...text('finish.rpkUm', form.finish.rpk, (v) => update({ finish: { ...form.finish, rpk: v } }))} />
-              <NumberInput label={`Rvk (${finishUnitWord}), optional`} {...text('finish.rvkUm', form.finish.rvk, (v) => update({ finish: { ...form.finish, rvk: v } }))} />
-              <NumberInput label="Mr1 (%), optional" {...text('finish.mr1', form.finish.mr1, (v) => update({ finish: { ...form.finish, mr1: v } }))} />
-              <NumberInput label="Mr2 (%), optional" {...text('finish.mr2', form.finish.mr2, (v) => update({ finish: { ...form.finish, mr2: v } }))} />
-              <SegmentedControl<FinishUnit>
-                label="Ra, Rk, Rpk and Rvk typed in"
-                options={[
-                  { value: 'um', label: 'Typed in µm' },
-                  { value: 'uin', label: 'Typed in µin' },
-                ]}
-                value={form.finishUnit}
-                onChange={(finishUnit) => update({ finishUnit })}
-                className="self-start sm:col-span-3"
+        <div hidden={crackFound} className="flex flex-col gap-5">
+          {boreWork && (
+            <Section title={`Bores: ${count} cylinders`}>
+              <BoreReadingGrid
+                cylinderCount={count}
+                unit={form.unit}
+                cells={form.cells}
+                errors={errors}
+                inputId={fieldId}
+                pasteRows
+                pistonNote="(diameter)"
+                tableClassName="min-w-[34rem]"
+                help={
+                  <>
+                    Readings in {UNIT_WORDS[form.unit].long}. Tab moves along a cylinder (top, middle, bottom; thrust then axial; then the piston); Enter
+                    moves to the same reading of the next cylinder. Paste rows copied from a spreadsheet into any cell to fill the grid from there: one
+                    row per cylinder, top thrust, top axial, middle thrust, middle axial, bottom thrust, bottom axial and, optionally, the piston.
+                  </>
+                }
+                onChange={(changes) => {
+                  updateCells(changes);
+                  if (Object.keys(serverErrors).length > 0) setServerErrors({});
+                }}
               />
-            </div>
+              <FailingChecksLine results={live.results} cylinderIndexes={live.cylinderIndexes} spec={job.spec} unit={form.unit} className="xl:hidden" />
+            </Section>
           )}
-          {form.finishMode === 'profile' && (
-            <div className="flex flex-col gap-3">
-              <p className="text-sm text-ink-soft">
-                A CSV or text file of heights in micrometres at equal spacing, one per row (a header row, and a position column before the
-                heights, are fine). The file is read here in your browser; Ra, Rq, Rz and the Rk figures are worked out from it.
-              </p>
-              <div className="flex flex-col gap-1">
-                <label htmlFor={fieldId('finish.heightsUm')} className="text-sm font-semibold text-ink">
-                  Profile trace file
-                </label>
-                <input
-                  id={fieldId('finish.heightsUm')}
-                  type="file"
-                  accept=".csv,.txt,text/csv,text/plain"
-                  onChange={(event) => void onTraceFile(event)}
-                  aria-invalid={traceError || errors['finish.heightsUm'] ? true : undefined}
-                  className="text-sm"
-                />
-                {form.profile && (
-                  <p className="text-sm text-ink-soft" data-testid="trace-summary">
-                    {profilePoints
-                      ? `${profilePoints.toLocaleString('en-US')} heights from ${form.profile.fileName}.`
-                      : `${form.profile.fileName} was too long to keep in the draft: choose the file again.`}
-                  </p>
-                )}
-                {(traceError || errors['finish.heightsUm']) && <p className="text-sm font-semibold text-fail">{traceError ?? errors['finish.heightsUm']}</p>}
-              </div>
-              <NumberInput label="Sample spacing (µm)" {...text('finish.spacingUm', form.profileSpacing, (v) => update({ profileSpacing: v }))} />
-              <SelectField
-                id={fieldId('finish.filter.cutoffMm')}
-                label="Filter"
-                value={form.profileFilter}
-                onChange={(event) => update({ profileFilter: event.target.value })}
-                options={PROFILE_FILTER_CHOICES.map((choice) => ({
-                  value: choice,
-                  label: choice === 'none' ? 'None: the trace is a roughness profile already' : `Gaussian, cut-off ${choice} mm`,
-                }))}
-                error={errors['finish.filter.cutoffMm']}
-                hint="The Gaussian filter removes the form by a least-squares line, drops half a cut-off at each end and evaluates whole cut-offs."
-              />
-            </div>
-          )}
-        </Section>
 
-        <Section title="Crosshatch (optional)">
-          <SegmentedControl<CrosshatchMode>
-            label="Crosshatch"
-            options={[
-              { value: 'none', label: 'Not measured' },
-              { value: 'measured', label: 'Measured angle' },
-              { value: 'settings', label: 'From hone settings' },
-            ]}
-            value={form.crosshatchMode}
-            onChange={(crosshatchMode) => update({ crosshatchMode })}
-            className="self-start"
-          />
-          {form.crosshatchMode === 'measured' && (
-            <NumberInput label="Included angle (°)" {...text('crosshatch.includedAngleDeg', form.crosshatch.angle, (v) => update({ crosshatch: { ...form.crosshatch, angle: v } }))} />
-          )}
-          {form.crosshatchMode === 'settings' && (
-            <>
-              <p className="text-sm text-ink-soft">
-                The angle is computed from settings (mid-stroke), not measured: from the spindle and stroke speeds at the middle of the stroke, with the
-                mean bore of the readings. Count full up-and-down cycles: one stroke up and one down is one cycle (counting single strokes gives about
-                double the angle). The record stores it as computed from settings.
-              </p>
+          <Section title={deckOrdered ? 'Deck' : 'Deck (optional)'} intro="The thickest feeler leaf under a straightedge at each position: lengthwise, crosswise and on both diagonals.">
+            <TextField
+              id={fieldId('deck.readings')}
+              label={`Straightedge readings (${unitShort}), separated by spaces or commas`}
+              autoComplete="off"
+              spellCheck={false}
+              value={form.deckReadings}
+              onChange={(event) => update({ deckReadings: event.target.value })}
+              error={errors['deck.readings'] ?? Object.entries(errors).find(([path]) => path.startsWith('deck.readings.'))?.[1]}
+            />
+            <NumberInput label="Deck finish Ra (µm), optional" {...text('deck.raUm', form.deckRa, (v) => update({ deckRa: v }))} />
+            {deckOrdered && <DeckPositionFields ctx={sectionCtx} />}
+          </Section>
+
+          <Section title="Bore finish (optional)">
+            <SegmentedControl<FinishMode>
+              label="Bore finish"
+              options={[
+                { value: 'none', label: 'Not measured' },
+                { value: 'values', label: 'Enter values' },
+                { value: 'profile', label: 'From a profile trace' },
+              ]}
+              value={form.finishMode}
+              onChange={(finishMode) => update({ finishMode })}
+              className="self-start"
+            />
+            {form.finishMode === 'values' && (
               <div className="grid gap-3 sm:grid-cols-3">
-                <NumberInput label="Spindle speed (rev/min)" {...text('crosshatch.spindleRpm', form.crosshatch.spindleRpm, (v) => update({ crosshatch: { ...form.crosshatch, spindleRpm: v } }))} />
-                <NumberInput label={`Stroke length (${unitShort})`} {...text('crosshatch.strokeLength', form.crosshatch.strokeLength, (v) => update({ crosshatch: { ...form.crosshatch, strokeLength: v } }))} />
-                <NumberInput
-                  label="Full up-and-down cycles per minute"
-                  {...text('crosshatch.cyclesPerMinute', form.crosshatch.cyclesPerMinute, (v) => update({ crosshatch: { ...form.crosshatch, cyclesPerMinute: v } }))}
+                <NumberInput label={`Ra (${finishUnitWord})`} {...text('finish.raUm', form.finish.ra, (v) => update({ finish: { ...form.finish, ra: v } }))} />
+                <NumberInput label={`Rk (${finishUnitWord}), optional`} {...text('finish.rkUm', form.finish.rk, (v) => update({ finish: { ...form.finish, rk: v } }))} />
+                <NumberInput label={`Rpk (${finishUnitWord}), optional`} {...text('finish.rpkUm', form.finish.rpk, (v) => update({ finish: { ...form.finish, rpk: v } }))} />
+                <NumberInput label={`Rvk (${finishUnitWord}), optional`} {...text('finish.rvkUm', form.finish.rvk, (v) => update({ finish: { ...form.finish, rvk: v } }))} />
+                <NumberInput label="Mr1 (%), optional" {...text('finish.mr1', form.finish.mr1, (v) => update({ finish: { ...form.finish, mr1: v } }))} />
+                <NumberInput label="Mr2 (%), optional" {...text('finish.mr2', form.finish.mr2, (v) => update({ finish: { ...form.finish, mr2: v } }))} />
+                <SegmentedControl<FinishUnit>
+                  label="Ra, Rk, Rpk and Rvk typed in"
+                  options={[
+                    { value: 'um', label: 'Typed in µm' },
+                    { value: 'uin', label: 'Typed in µin' },
+                  ]}
+                  value={form.finishUnit}
+                  onChange={(finishUnit) => update({ finishUnit })}
+                  className="self-start sm:col-span-3"
                 />
               </div>
-            </>
-          )}
-        </Section>
+            )}
+            {form.finishMode === 'profile' && (
+              <div className="flex flex-col gap-3">
+                <p className="text-sm text-ink-soft">
+                  A CSV or text file of heights in micrometres at equal spacing, one per row (a header row, and a position column before the
+                  heights, are fine). The file is read here in your browser; Ra, Rq, Rz and the Rk figures are worked out from it.
+                </p>
+                <div className="flex flex-col gap-1">
+                  <label htmlFor={fieldId('finish.heightsUm')} className="text-sm font-semibold text-ink">
+                    Profile trace file
+                  </label>
+                  <input
+                    id={fieldId('finish.heightsUm')}
+                    type="file"
+                    accept=".csv,.txt,text/csv,text/plain"
+                    onChange={(event) => void onTraceFile(event)}
+                    aria-invalid={traceError || errors['finish.heightsUm'] ? true : undefined}
+                    className="text-sm"
+                  />
+                  {form.profile && (
+                    <p className="text-sm text-ink-soft" data-testid="trace-summary">
+                      {profilePoints
+                        ? `${profilePoints.toLocaleString('en-US')} heights from ${form.profile.fileName}.`
+                        : `${form.profile.fileName} was too long to keep in the draft: choose the file again.`}
+                    </p>
+                  )}
+                  {(traceError || errors['finish.heightsUm']) && <p className="text-sm font-semibold text-fail">{traceError ?? errors['finish.heightsUm']}</p>}
+                </div>
+                <NumberInput label="Sample spacing (µm)" {...text('finish.spacingUm', form.profileSpacing, (v) => update({ profileSpacing: v }))} />
+                <SelectField
+                  id={fieldId('finish.filter.cutoffMm')}
+                  label="Filter"
+                  value={form.profileFilter}
+                  onChange={(event) => update({ profileFilter: event.target.value })}
+                  options={PROFILE_FILTER_CHOICES.map((choice) => ({
+                    value: choice,
+                    label: choice === 'none' ? 'None: the trace is a roughness profile already' : `Gaussian, cut-off ${choice} mm`,
+                  }))}
+                  error={errors['finish.filter.cutoffMm']}
+                  hint="The Gaussian filter removes the form by a least-squares line, drops half a cut-off at each end and evaluates whole cut-offs."
+                />
+              </div>
+            )}
+          </Section>
+
+          <Section title="Crosshatch (optional)">
+            <SegmentedControl<CrosshatchMode>
+              label="Crosshatch"
+              options={[
+                { value: 'none', label: 'Not measured' },
+                { value: 'measured', label: 'Measured angle' },
+                { value: 'settings', label: 'From hone settings' },
+              ]}
+              value={form.crosshatchMode}
+              onChange={(crosshatchMode) => update({ crosshatchMode })}
+              className="self-start"
+            />
+            {form.crosshatchMode === 'measured' && (
+              <NumberInput label="Included angle (°)" {...text('crosshatch.includedAngleDeg', form.crosshatch.angle, (v) => update({ crosshatch: { ...form.crosshatch, angle: v } }))} />
+            )}
+            {form.crosshatchMode === 'settings' && (
+              <>
+                <p className="text-sm text-ink-soft">
+                  The angle is computed from settings (mid-stroke), not measured: from the spindle and stroke speeds at the middle of the stroke, with the
+                  mean bore of the readings. Count full up-and-down cycles: one stroke up and one down is one cycle (counting single strokes gives about
+                  double the angle). The record stores it as computed from settings.
+                </p>
+                <div className="grid gap-3 sm:grid-cols-3">
+                  <NumberInput label="Spindle speed (rev/min)" {...text('crosshatch.spindleRpm', form.crosshatch.spindleRpm, (v) => update({ crosshatch: { ...form.crosshatch, spindleRpm: v } }))} />
+                  <NumberInput label={`Stroke length (${unitShort})`} {...text('crosshatch.strokeLength', form.crosshatch.strokeLength, (v) => update({ crosshatch: { ...form.crosshatch, strokeLength: v } }))} />
+                  <NumberInput
+                    label="Full up-and-down cycles per minute"
+                    {...text('crosshatch.cyclesPerMinute', form.crosshatch.cyclesPerMinute, (v) => update({ crosshatch: { ...form.crosshatch, cyclesPerMinute: v } }))}
+                  />
+                </div>
+              </>
+            )}
+          </Section>
+
+          <OrderedSections ctx={sectionCtx} except={['clean', 'crackTest']} />
+        </div>
 
         <Section title="Sign-off">
           <TextField
@@ -397,7 +433,7 @@ export function InspectionEntryForm({ job, initial, origin, onSubmitted }: Inspe
         )}
         {formError && <Notice tone="error">{formError}</Notice>}
         <div className="flex flex-wrap items-center gap-4">
-          <Button type="submit" busy={submit.isPending}>
+          <Button type="submit" busy={submit.isPending} disabled={crackFound}>
             Submit the record
           </Button>
           <DraftStatusLine status={draft.status} />

@@ -232,53 +232,57 @@ export function InspectionResultsView({
         )}
       </div>
 
-      <div className="overflow-x-auto">
-        <table className="w-full min-w-[24rem] text-sm tabular-nums">
-          <caption className="sr-only">Figures per cylinder, in {unit}</caption>
-          <thead className="text-left text-ink-soft">
-            <tr>
-              <th scope="col" className="py-1 pr-2 font-semibold">Cyl.</th>
-              <th scope="col" className="py-1 pr-2 text-right font-semibold">Mean</th>
-              <th scope="col" className="py-1 pr-2 text-right font-semibold">Taper</th>
-              <th scope="col" className="py-1 pr-2 text-right font-semibold">Out-of-round</th>
-              <th scope="col" className="py-1 pr-2 text-right font-semibold">{results?.verdict ? 'Clearance (thrust)' : 'Clearance'}</th>
-              <th scope="col" className="py-1 pr-2 text-right font-semibold">From target</th>
-              <th scope="col" className="py-1 font-semibold">Result</th>
-            </tr>
-          </thead>
-          <tbody>
-            {Array.from({ length: cylinderCount }, (_, index) => {
-              const cylinder = byIndex.get(index);
-              if (!cylinder) {
-                return (
-                  <tr key={index} className="border-t border-slate-200">
-                    <th scope="row" className="py-1.5 pr-2 text-left">{index + 1}</th>
-                    <td colSpan={6} className="py-1.5 text-ink-faint">Still to enter</td>
-                  </tr>
-                );
-              }
-              const failed = (...names: string[]) => cylinder.failures.some((f) => names.includes(f.limit)) && 'font-bold text-fail';
-              return (
-                <tr key={index} className="border-t border-slate-200 align-top" data-testid={`result-cylinder-${index + 1}`}>
-                  <th scope="row" className="py-1.5 pr-2 text-left">{index + 1}</th>
-                  <td className="py-1.5 pr-2 text-right">{figure(cylinder.mean)}</td>
-                  <td className={cn('py-1.5 pr-2 text-right', failed('maxTaper'))}>{figure(cylinder.taper)}</td>
-                  <td className={cn('py-1.5 pr-2 text-right', failed('maxOutOfRound'))}>{figure(cylinder.outOfRound)}</td>
-                  <td className={cn('py-1.5 pr-2 text-right', failed('clearanceMin', 'clearanceMax'))}>{thrustClearance(index) ?? figure(cylinder.clearance)}</td>
-                  <td className={cn('py-1.5 pr-2 text-right', failed('targetBore'))}>{cylinder.deviation === undefined ? '—' : formatChange(cylinder.deviation, decimals)}</td>
-                  <td className="py-1.5">
-                    {results?.verdict ? <VerdictMark verdict={cylinderVerdict(index)} compact /> : <PassMark pass={cylinder.pass} />}
-                  </td>
+      {cylinderCount > 0 && (
+        <>
+          <div className="overflow-x-auto">
+            <table className="w-full min-w-[24rem] text-sm tabular-nums">
+              <caption className="sr-only">Figures per cylinder, in {unit}</caption>
+              <thead className="text-left text-ink-soft">
+                <tr>
+                  <th scope="col" className="py-1 pr-2 font-semibold">Cyl.</th>
+                  <th scope="col" className="py-1 pr-2 text-right font-semibold">Mean</th>
+                  <th scope="col" className="py-1 pr-2 text-right font-semibold">Taper</th>
+                  <th scope="col" className="py-1 pr-2 text-right font-semibold">Out-of-round</th>
+                  <th scope="col" className="py-1 pr-2 text-right font-semibold">{results?.verdict ? 'Clearance (thrust)' : 'Clearance'}</th>
+                  <th scope="col" className="py-1 pr-2 text-right font-semibold">From target</th>
+                  <th scope="col" className="py-1 font-semibold">Result</th>
                 </tr>
-              );
-            })}
-          </tbody>
-        </table>
-      </div>
-      <p className="text-xs text-ink-soft" data-testid="figure-definitions-short">
-        Taper: on the diameter, largest minus smallest reading over the three depths in one direction. Out-of-round: two-point, thrust minus axial
-        diameter at one depth.
-      </p>
+              </thead>
+              <tbody>
+                {Array.from({ length: cylinderCount }, (_, index) => {
+                  const cylinder = byIndex.get(index);
+                  if (!cylinder) {
+                    return (
+                      <tr key={index} className="border-t border-slate-200">
+                        <th scope="row" className="py-1.5 pr-2 text-left">{index + 1}</th>
+                        <td colSpan={6} className="py-1.5 text-ink-faint">Still to enter</td>
+                      </tr>
+                    );
+                  }
+                  const failed = (...names: string[]) => cylinder.failures.some((f) => names.includes(f.limit)) && 'font-bold text-fail';
+                  return (
+                    <tr key={index} className="border-t border-slate-200 align-top" data-testid={`result-cylinder-${index + 1}`}>
+                      <th scope="row" className="py-1.5 pr-2 text-left">{index + 1}</th>
+                      <td className="py-1.5 pr-2 text-right">{figure(cylinder.mean)}</td>
+                      <td className={cn('py-1.5 pr-2 text-right', failed('maxTaper'))}>{figure(cylinder.taper)}</td>
+                      <td className={cn('py-1.5 pr-2 text-right', failed('maxOutOfRound'))}>{figure(cylinder.outOfRound)}</td>
+                      <td className={cn('py-1.5 pr-2 text-right', failed('clearanceMin', 'clearanceMax'))}>{thrustClearance(index) ?? figure(cylinder.clearance)}</td>
+                      <td className={cn('py-1.5 pr-2 text-right', failed('targetBore'))}>{cylinder.deviation === undefined ? '—' : formatChange(cylinder.deviation, decimals)}</td>
+                      <td className="py-1.5">
+                        {results?.verdict ? <VerdictMark verdict={cylinderVerdict(index)} compact /> : <PassMark pass={cylinder.pass} />}
+                      </td>
+                    </tr>
+                  );
+                })}
+              </tbody>
+            </table>
+          </div>
+          <p className="text-xs text-ink-soft" data-testid="figure-definitions-short">
+            Taper: on the diameter, largest minus smallest reading over the three depths in one direction. Out-of-round: two-point, thrust minus axial
+            diameter at one depth.
+          </p>
+        </>
+      )}
 
       <section aria-label="Checks against the job’s specification" className="flex flex-col gap-2">
         <Heading className="text-sm font-bold uppercase tracking-wider text-slate-700">Checks</Heading>

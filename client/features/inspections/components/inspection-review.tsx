@@ -21,6 +21,7 @@ import { useAcceptInspection, useInspection, useRejectInspection } from '../api/
 import { type VersionChange, versionChanges } from '../lib/version-diff';
 import { BoreSizeChart } from './bore-size-chart';
 import { InspectionResultsView } from './inspection-results';
+import { RecordSections } from './record-section-block';
 import { ReadingsAt20 } from './record-judgement';
 
 /** Job states in which an inspection record may exist or be on its way. */
@@ -113,7 +114,7 @@ function VersionBody({ version, job }: { version: InspectionVersion; job: JobDet
           complete
         />
         <div className="flex min-w-0 flex-col gap-5">
-          <BoreSizeChart cylinders={version.input.cylinders ?? []} unit={unit} targetBore={target} />
+          {version.input.cylinders && <BoreSizeChart cylinders={version.input.cylinders} unit={unit} targetBore={target} />}
           <section aria-label="How the figures are defined" className="flex flex-col gap-1 text-sm" data-testid="figure-definitions">
             <h4 className="font-bold">How the figures are defined</h4>
             <p>
@@ -138,6 +139,12 @@ function VersionBody({ version, job }: { version: InspectionVersion; job: JobDet
           <ReadingsAt20 input={version.input} results={version.results} />
         </div>
       </div>
+      {version.results.sections && version.results.sections.length > 0 && (
+        <section aria-label="Each operation" className="flex flex-col gap-2">
+          <h4 className="font-bold">Each operation</h4>
+          <RecordSections results={version.results} headingLevel={4} />
+        </section>
+      )}
     </div>
   );
 }

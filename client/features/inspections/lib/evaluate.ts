@@ -27,17 +27,19 @@ export function evaluateLive(form: RecordForm, cylinderCount: number, spec: JobI
   const all = Array.from({ length: cylinderCount }, (_, i) => i);
   try {
     if (check.input) return { results: evaluateInspection(check.input, spec), cylinderIndexes: all, complete: true };
-    const raw = toRawInput(form, cylinderCount) as Record<string, unknown> & { cylinders: unknown[] };
+    const raw = toRawInput(form, cylinderCount) as Record<string, unknown> & { cylinders?: unknown[]; sections?: Record<string, unknown> };
     const wrong = (prefix: string) => check.order.some((path) => path === prefix || path.startsWith(`${prefix}.`));
     const indexes = all.filter((i) => !wrong(`cylinders.${i}`));
-    if (indexes.length === 0) return { cylinderIndexes: [], complete: false };
     const part = (name: 'deck' | 'finish' | 'crosshatch') => (raw[name] !== undefined && !wrong(name) ? { [name]: raw[name] } : {});
+    // Each section judged as soon as it is whole and right.
+    const sections = Object.fromEntries(Object.entries(raw.sections ?? {}).filter(([key]) => !wrong(`sections.${key}`)));
+    const parts = { ...part('deck'), ...part('finish'), ...part('crosshatch') };
+    if (indexes.length === 0 && Object.keys(sections).length === 0 && !parts.deck) return { cylinderIndexes: [], complete: false };
     const partial = {
       conditions: { unit: form.unit, gaugeResolution: 0.0001, temperatureC: 20, torquePlate: false },
-      cylinders: indexes.map((i) => raw.cylinders[i]),
-      ...part('deck'),
-      ...part('finish'),
-      ...part('crosshatch'),
+      ...(indexes.length > 0 ? { cylinders: indexes.map((i) => raw.cylinders![i]) } : {}),
+      ...parts,
+      ...(Object.keys(sections).length > 0 ? { sections } : {}),
       signedOffBy: '',
       notes: '',
     } as InspectionInput;

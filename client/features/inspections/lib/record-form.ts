@@ -10,6 +10,7 @@ import { type LengthUnit, STANDARD_CUTOFFS_MM, microinchesToMicrometres } from '
 import { inspectionInputSchema, type InspectionInput } from '@shared/schemas/inspection';
 import { DEPTHS, DIRECTIONS, type Depth, type GridColumn, cellKey, cellPathWords } from '@client/lib/bore-readings';
 import { lengthToText, numberToText, toNumber, toNumberList } from '@client/lib/numbers';
+import { deckFromFields, fieldsFromInput, isFieldPath, sectionPathWords, sectionsFromFields } from './section-fields';
 
 export type FinishMode = 'none' | 'values' | 'profile';
 export type CrosshatchMode = 'none' | 'measured' | 'settings';
@@ -43,6 +44,8 @@ export interface RecordForm {
   cells: Record<string, string>;
   deckReadings: string;
   deckRa: string;
+  /** The deck's positioned readings and heights, and every other section's readings, by request path (lib/section-fields.ts). */
+  fields: Record<string, string>;
   finishMode: FinishMode;
   finish: { ra: string; rk: string; rpk: string; rvk: string; mr1: string; mr2: string };
   /** The unit Ra, Rk, Rpk and Rvk are typed in; sent in micrometres. */
@@ -68,6 +71,7 @@ export function emptyRecord(unit: LengthUnit): RecordForm {
     cells: {},
     deckReadings: '',
     deckRa: '',
+    fields: {},
     finishMode: 'none',
     finish: { ra: '', rk: '', rpk: '', rvk: '', mr1: '', mr2: '' },
     finishUnit: 'um',
@@ -86,9 +90,12 @@ const withoutUndefined = <T extends Record<string, unknown>>(value: T): T =>
 
 const isBlank = (text: string) => text.trim() === '';
 
-/** The form as the request's shape, numbers read from the text; blanks are left undefined so the schema reports them as still to enter. */
+/**
+ * The form as the request's shape, numbers read from the text; blanks are left undefined so the schema reports them as still to enter.
+ * `cylinderCount` is the bore grid's rows: 0 when the job orders no bore work (the record then has no grid).
+ */
 export function toRawInput(form: RecordForm, cylinderCount: number): Record<string, unknown> {
-  const cylinders = Array.from({ length: cylinderCount }, (_, i) => {
+  const grid = Array.from({ length: cylinderCount }, (_, i) => {
     const pair = (depth: Depth) => ({
       thrust: toNumber(form.cells[cellKey(i, `${depth}.thrust` as GridColumn)]),
       axial: toNumber(form.cells[cellKey(i, `${depth}.axial` as GridColumn)]),
@@ -96,10 +103,11 @@ export function toRawInput(form: RecordForm, cylinderCount: number): Record<stri
     return withoutUndefined({ top: pair('top'), middle: pair('middle'), bottom: pair('bottom'), piston: toNumber(form.cells[cellKey(i, 'piston')]) });
   });
 
+  const positioned = deckFromFields(form.fields ?? {});
   const deck =
-    isBlank(form.deckReadings) && isBlank(form.deckRa)
+    isBlank(form.deckReadings) && isBlank(form.deckRa) && Object.keys(positioned).length === 0
       ? undefined
-      : withoutUndefined({ readings: toNumberList(form.deckReadings) ?? [], raUm: toNumber(form.deckRa) });
+      : withoutUndefined({ readings: isBlank(form.deckReadings) ? undefined : (toNumberList(form.deckReadings) ?? []), ...positioned, raUm: toNumber(form.deckRa) });
 
   const f = form.finish;
   const finish =
@@ -138,8 +146,9 @@ export function toRawInput(form: RecordForm, cylinderCount: number): Record<stri
       ...(form.temperatureScale === 'F' ? { temperatureF: toNumber(form.temperatureC) } : { temperatureC: toNumber(form.temperatureC) }),
       torquePlate: form.torquePlate,
     }),
-    cylinders,
+    cylinders: grid.length > 0 ? grid : undefined,
     deck,
+    sections: sectionsFromFields(form.fields ?? {}),
     finish,
     crosshatch,
     signedOffBy: isBlank(form.signedOffBy) ? undefined : form.signedOffBy,
@@ -221,6 +230,11 @@ export function fromDraft(draft: Record<string, unknown> | null | undefined, uni
     cells,
     deckReadings: text(saved.deckReadings),
     deckRa: text(saved.deckRa),
+    fields: Object.fromEntries(
+      Object.entries(saved.fields && typeof saved.fields === 'object' ? (saved.fields as Record<string, unknown>) : {})
+        .filter(([key]) => isFieldPath(key))
+        .map(([key, value]) => [key, text(value)]),
+    ),
     finishMode: pick(saved.finishMode, ['none', 'values', 'profile'] as const, 'none'),
     finish: group(saved.finish, base.finish),
     finishUnit: pick(saved.finishUnit, ['um', 'uin'] as const, 'um'),
@@ -253,6 +267,7 @@ export function fromInput(input: InspectionInput): RecordForm {
     }
     form.cells[cellKey(i, 'piston')] = length(cylinder.piston);
   });
+  form.fields = fieldsFromInput(input);
   if (input.deck) {
     form.deckReadings = (input.deck.readings ?? []).map(length).join(' ');
     form.deckRa = numberToText(input.deck.raUm);
@@ -321,7 +336,7 @@ export function pathWords(path: string): string {
   if (cell) return cell;
   const reading = /^deck\.readings\.(\d+)$/.exec(path);
   if (reading) return `straightedge reading ${Number(reading[1]) + 1}`;
-  return FIELD_WORDS[path] ?? path;
+  return FIELD_WORDS[path] ?? sectionPathWords(path) ?? path;
 }
 
 /** The id of the input that holds a path, so a message can lead to it. */

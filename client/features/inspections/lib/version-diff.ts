@@ -2,9 +2,11 @@
  * What changed between two versions of an inspection record: each reading
  * and condition as typed, and the worked-out figures, named in words.
  */
+import { SECTION_VERDICT_WORDS } from '@shared/inspection-words';
 import { type InspectionVersion, RECORD_VERDICT_WORDS, recordVerdict } from '@shared/schemas/inspection';
 import { DEPTHS, DIRECTIONS } from '@client/lib/bore-readings';
 import { formatLength, formatNumber, lengthToText, numberToText } from '@client/lib/numbers';
+import { fieldsFromInput, sectionPathWords } from './section-fields';
 
 export interface VersionChange {
   key: string;
@@ -54,6 +56,12 @@ function entries(version: InspectionVersion): Entry[] {
   } else {
     list.push(['crosshatch', 'Crosshatch', 'not measured']);
   }
+  // Each section's readings as typed (the deck's straightedge is in its own line above), and each operation's verdict below.
+  for (const [path, text] of Object.entries(fieldsFromInput({ sections: input.sections, deck: input.deck && { heights: input.deck.heights } }))) {
+    if (path.startsWith('rows.')) continue;
+    const words = sectionPathWords(path) ?? path;
+    list.push([path, words.charAt(0).toUpperCase() + words.slice(1), text]);
+  }
   list.push(['signed', 'Signed off by', input.signedOffBy], ['notes', 'Notes', input.notes || '—']);
 
   // Worked-out figures.
@@ -65,6 +73,7 @@ function entries(version: InspectionVersion): Entry[] {
   if (results.deck) list.push(['f.deck', 'Deck out-of-flat (worked out)', formatLength(results.deck.outOfFlat, unit)]);
   if (results.finish) list.push(['f.ra', 'Bore Ra', `${formatNumber(results.finish.raUm, 2)} µm`]);
   if (results.crosshatch) list.push(['f.angle', 'Crosshatch included angle', `${formatNumber(results.crosshatch.includedAngleDeg, 1)}°`]);
+  for (const section of results.sections ?? []) list.push([`f.section.${section.operation}`, `${section.name} (judged)`, SECTION_VERDICT_WORDS[section.verdict]]);
   list.push(['f.result', 'Overall result', RECORD_VERDICT_WORDS[recordVerdict(results)]]);
   return list;
 }

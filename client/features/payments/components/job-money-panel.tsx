@@ -1,5 +1,5 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { useState } from 'react';
+import { useEffect, useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { useSearchParams } from 'react-router-dom';
 import { toast } from 'sonner';
@@ -206,9 +206,15 @@ function ChangeOrders({ job, side }: { job: JobDetail; side: 'builder' | 'shop' 
   );
 }
 
-function ProposeChangeOrder({ jobId }: { jobId: string }) {
+/** The shop proposes extra work with its price; `description` prefills what needs doing (a crack test's findings, say). */
+export function ProposeChangeOrder({ jobId, description = '', intro }: { jobId: string; description?: string; intro?: string }) {
   const [formError, setFormError] = useState<string>();
-  const form = useForm<z.infer<typeof changeOrderForm>>({ resolver: zodResolver(changeOrderForm), defaultValues: { description: '', dollars: '' } });
+  const form = useForm<z.infer<typeof changeOrderForm>>({ resolver: zodResolver(changeOrderForm), defaultValues: { description, dollars: '' } });
+  // A prefill that changes (findings still being typed) follows into the field until the shop edits it there.
+  const edited = form.formState.dirtyFields.description;
+  useEffect(() => {
+    if (!edited) form.resetField('description', { defaultValue: description });
+  }, [description, edited, form]);
   const propose = useProposeChangeOrder(jobId, {
     mutationConfig: {
       onSuccess: () => {
@@ -225,7 +231,7 @@ function ProposeChangeOrder({ jobId }: { jobId: string }) {
   });
   return (
     <form onSubmit={onSubmit} noValidate aria-label="Propose extra work" className="mt-4 flex flex-col gap-3">
-      <p className="text-sm text-ink-soft">Found something on teardown? Propose the extra work with its price; the builder agrees and pays before you do it.</p>
+      <p className="text-sm text-ink-soft">{intro ?? 'Found something on teardown? Propose the extra work with its price; the builder agrees and pays before you do it.'}</p>
       {formError && <Notice tone="error">{formError}</Notice>}
       <TextAreaField label="What needs doing, and why" rows={3} error={form.formState.errors.description?.message} {...form.register('description')} />
       <TextField label="Price in dollars" inputMode="decimal" error={form.formState.errors.dollars?.message} {...form.register('dollars')} />

@@ -1,0 +1,31 @@
+import { cleanMethods } from '@shared/schemas/inspection-sections';
+import { PartCheckSection } from './part-check';
+import type { SectionContext } from './section-kit';
+
+export const METHOD_WORDS: Record<string, string> = {
+  'hot-tank': 'Hot tank',
+  'thermal-oven': 'Thermal oven',
+  'spray-wash': 'Spray wash',
+  other: 'Other',
+  'magnetic-particle': 'Magnetic particle',
+  'dye-penetrant': 'Dye penetrant',
+  'pressure-test': 'Pressure test',
+};
+
+/** Clean: the method, whether it came out clean, findings and photos. */
+export function CleanSection({ ctx }: { ctx: SectionContext }) {
+  return (
+    <PartCheckSection
+      ctx={ctx}
+      operation="clean"
+      title="Clean"
+      inputKey="clean"
+      methods={cleanMethods.map((m) => ({ value: m, label: METHOD_WORDS[m] }))}
+      results={[
+        { value: 'clean', label: 'Clean' },
+        { value: 'residue-left', label: 'Residue left' },
+      ]}
+      findingsLabel="Findings (optional)"
+    />
+  );
+}
