@@ -45,6 +45,7 @@ const navUnread = async (page: Page) => {
   return (await badge.count()) === 0 ? 0 : Number(await badge.textContent());
 };
 const poll = <T>(read: () => Promise<T>) => expect.poll(read, { timeout: 10_000, interval: 100 });
+const reconnectPoll = <T>(read: () => Promise<T>) => expect.poll(read, { timeout: 30_000, interval: 100 });
 const text = (locator: Locator) => locator.textContent().then((t) => t?.trim() ?? '');
 
 describe('live conversations between a builder and a shop, in two browsers', () => {
@@ -145,10 +146,12 @@ describe('live conversations between a builder and a shop, in two browsers', () 
       expect(await messagesWith(b.page, offline).count()).toBe(0);
       await s.page.screenshot({ path: join(artifactsDir, 'messages-shop-offline.png') });
 
-      // Back online: it goes out, and reaches the builder exactly once.
+      // Back online: it goes out, and reaches the builder exactly once. Coming back takes a new
+      // handshake and the outbox's send; on a loaded machine that has taken over 10 s, so these
+      // two waits allow 30 s (what is checked — sent, and arrived once — is unchanged).
       await s.context.setOffline(false);
-      await poll(() => waiting.getAttribute('data-state')).toBe('sent');
-      await poll(() => messagesWith(b.page, offline).count()).toBe(1);
+      await reconnectPoll(() => waiting.getAttribute('data-state')).toBe('sent');
+      await reconnectPoll(() => messagesWith(b.page, offline).count()).toBe(1);
       await b.page.waitForTimeout(1_500);
       expect(await messagesWith(b.page, offline).count()).toBe(1);
       expect(await messagesWith(s.page, offline).count()).toBe(1);
