@@ -52,7 +52,10 @@ export function balanceTolerance(input: BalanceToleranceInput): BalanceTolerance
     throw new CalculationError(`Balance grade must be one of the ISO 21940-11 grades: G ${BALANCE_GRADES.join(', G ')}.`, 'grade');
   }
   const specificUnbalanceGmmPerKg = (ISO_21940_CONSTANT * input.grade) / rpm;
+  // A speed so small that the figure overflows is no speed a rotor runs at.
+  if (!Number.isFinite(specificUnbalanceGmmPerKg)) throw new CalculationError('The service speed is too small to work out a tolerance.', 'serviceRpm');
   const permissibleUnbalanceGmm = specificUnbalanceGmmPerKg * mass;
+  if (!Number.isFinite(permissibleUnbalanceGmm)) throw new CalculationError('The rotor mass is too large for that speed and grade.', 'rotorMassKg');
   return { specificUnbalanceGmmPerKg, permissibleUnbalanceGmm, perPlaneGmm: permissibleUnbalanceGmm / 2 };
 }
 

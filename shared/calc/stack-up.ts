@@ -68,5 +68,8 @@ export function bearingClearance(input: BearingClearanceInput): BearingClearance
   const wall = requirePositive(input.shellWall, 'shellWall', 'Shell wall');
   if (journal >= housing) throw new CalculationError('Journal diameter must be smaller than the housing bore.', 'journalDiameter');
   const clearance = housing - journal - 2 * wall;
-  return { clearance, clearancePerInchOfJournal: clearance / journal };
+  const clearancePerInchOfJournal = clearance / journal;
+  // A journal so small that the ratio overflows is no journal a bearing runs on.
+  if (!Number.isFinite(clearancePerInchOfJournal)) throw new CalculationError('The journal diameter is too small to work out a clearance per inch.', 'journalDiameter');
+  return { clearance, clearancePerInchOfJournal };
 }

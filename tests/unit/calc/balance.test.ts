@@ -77,3 +77,9 @@ describe('bobWeight', () => {
     expectCalculationError(() => bobWeight({ rotatingGrams: 1100, reciprocatingGrams: 1400, ...change }), field);
   });
 });
+
+describe('figures too extreme to work out', () => {
+  it('refuses a service speed so small that the tolerance overflows, naming the field (found by the API fuzz test)', () => {
+    expectCalculationError(() => balanceTolerance({ rotorMassKg: 20, serviceRpm: 5e-324, grade: 2.5 }), 'serviceRpm');
+  });
+});

@@ -92,3 +92,9 @@ describe('bearingClearance', () => {
     );
   });
 });
+
+describe('bearing clearance on a vanishing journal', () => {
+  it('refuses a journal so small that the clearance per inch overflows, naming the field (found by the API fuzz test)', () => {
+    expectCalculationError(() => bearingClearance({ unit: 'in', housingBore: 2.4, journalDiameter: 5e-324, shellWall: 0.09 }), 'journalDiameter');
+  });
+});
