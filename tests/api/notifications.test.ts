@@ -93,6 +93,21 @@ describe('needs you and the notification centre', () => {
     expect(Date.parse(due!.dueAt!) - Date.now()).toBeLessThan(2 * 24 * 3_600_000 + 60_000);
     expect((await noticesOf(shop)).notifications[0]).toMatchObject({ kind: 'record_rejected', jobId: job.id });
   });
+
+  it('when the builder opens a dispute, then the shop must give its side, the admin must decide, and once answered the builder is told', async () => {
+    const admin = await signedIn(m.server.app, await createUser(m.db, { role: 'admin' }));
+    const { job, builder, shop, dispute } = await m.jobIn('disputed');
+    expect((await needsYouOf(shop)).find((item) => item.jobId === job.id)).toMatchObject({ kind: 'dispute-waiting', text: expect.stringMatching(/builder opened a dispute: give your side/) });
+    expect((await needsYouOf(builder)).some((item) => item.jobId === job.id)).toBe(false);
+    expect((await needsYouOf(admin)).find((item) => item.jobId === job.id)).toMatchObject({ kind: 'dispute-to-decide', href: `/admin/disputes/${dispute!.id}` });
+    expect((await noticesOf(shop)).notifications[0]).toMatchObject({ kind: 'dispute_opened', jobId: job.id });
+    expect((await noticesOf(admin)).notifications.find((n) => n.jobId === job.id)).toMatchObject({ kind: 'dispute_opened', href: `/admin/disputes/${dispute!.id}` });
+
+    expect((await shop.post(`/api/jobs/${job.id}/dispute/response`, { statement: 'Our gauge was checked against a ring that morning.' })).status).toBe(200);
+    expect((await needsYouOf(shop)).some((item) => item.jobId === job.id)).toBe(false);
+    expect((await needsYouOf(builder)).find((item) => item.jobId === job.id)).toMatchObject({ kind: 'dispute-waiting', text: expect.stringMatching(/shop answered your dispute/) });
+    expect((await noticesOf(builder)).notifications[0]).toMatchObject({ kind: 'dispute_answered', jobId: job.id });
+  });
 });
 
 describe('e-mail choices', () => {

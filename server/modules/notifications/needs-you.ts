@@ -27,6 +27,16 @@ interface JobTitleRow extends Record<string, unknown> {
   title: string;
 }
 
+/** One thing that waits, about the job of `row`, leading to the job's page unless `href` says otherwise. */
+const item = (kind: NeedsYouItem['kind'], row: JobTitleRow, text: string, options: { dueAt?: Date; href?: string } = {}): NeedsYouItem => ({
+  kind,
+  jobId: row.job_id,
+  title: row.title,
+  text,
+  dueAt: options.dueAt?.toISOString() ?? null,
+  href: options.href ?? jobHref(row.job_id),
+});
+
 /** Open jobs of this builder with active bids. */
 async function bidsToCompare(db: Executor, user: User): Promise<NeedsYouItem[]> {
   const { rows } = await db.execute<JobTitleRow & { bids: number }>(sql`
@@ -34,14 +44,7 @@ async function bidsToCompare(db: Executor, user: User): Promise<NeedsYouItem[]> 
     FROM jobs j JOIN bids b ON b.job_id = j.id AND b.status = 'active'
     WHERE j.builder_id = ${user.id} AND j.status = 'open'
     GROUP BY j.id ORDER BY min(b.created_at)`);
-  return rows.map((r) => ({
-    kind: 'bids-to-compare',
-    jobId: r.job_id,
-    title: r.title,
-    text: `${r.bids} ${r.bids === 1 ? 'bid' : 'bids'} to compare.`,
-    dueAt: null,
-    href: jobHref(r.job_id),
-  }));
+  return rows.map((r) => item('bids-to-compare', r, `${r.bids} ${r.bids === 1 ? 'bid' : 'bids'} to compare.`));
 }
 
 /** Jobs this builder awarded and has not paid for yet. */
@@ -49,14 +52,7 @@ async function paymentDue(db: Executor, user: User): Promise<NeedsYouItem[]> {
   const { rows } = await db.execute<JobTitleRow>(sql`
     SELECT j.id AS job_id, j.title FROM jobs j
     WHERE j.builder_id = ${user.id} AND j.status = 'awarded' ORDER BY j.updated_at`);
-  return rows.map((r) => ({
-    kind: 'payment-due',
-    jobId: r.job_id,
-    title: r.title,
-    text: 'You accepted a bid: pay it so the shop can start. The money is held until you accept the results.',
-    dueAt: null,
-    href: jobHref(r.job_id),
-  }));
+  return rows.map((r) => item('payment-due', r, 'You accepted a bid: pay it so the shop can start. The money is held until you accept the results.'));
 }
 
 /** Inspection records waiting for this builder's answer, with the review window's end. */
@@ -68,14 +64,7 @@ async function resultsToReview(db: Executor, user: User, now: Date): Promise<Nee
     ORDER BY r.review_due_at`);
   return rows.map((r) => {
     const dueAt = new Date(r.review_due_at);
-    return {
-      kind: 'results-to-review',
-      jobId: r.job_id,
-      title: r.title,
-      text: `Inspection results (version ${r.version}) wait for your review: ${timeLeftText(dueAt, now)} in the review window.`,
-      dueAt: dueAt.toISOString(),
-      href: jobHref(r.job_id),
-    };
+    return item('results-to-review', r, `Inspection results (version ${r.version}) wait for your review: ${timeLeftText(dueAt, now)} in the review window.`, { dueAt });
   });
 }
 
@@ -96,7 +85,7 @@ async function disputesWaiting(db: Executor, user: User): Promise<NeedsYouItem[]
         : r.opened_side === r.my_side && r.answered
           ? `The ${other} answered your dispute: read it; an administrator decides next.`
           : null;
-    return text ? [{ kind: 'dispute-waiting', jobId: r.job_id, title: r.title, text, dueAt: null, href: jobHref(r.job_id) }] : [];
+    return text ? [item('dispute-waiting', r, text)] : [];
   });
 }
 
@@ -106,14 +95,7 @@ async function awaitingPayment(db: Executor, user: User): Promise<NeedsYouItem[]
     SELECT j.id AS job_id, j.title FROM jobs j
     JOIN bids b ON b.id = j.awarded_bid_id JOIN shops s ON s.id = b.shop_id
     WHERE s.user_id = ${user.id} AND j.status = 'awarded' ORDER BY b.decided_at`);
-  return rows.map((r) => ({
-    kind: 'bid-accepted-awaiting-payment',
-    jobId: r.job_id,
-    title: r.title,
-    text: 'Your bid was accepted. Work starts once the builder pays; you will be told.',
-    dueAt: null,
-    href: jobHref(r.job_id),
-  }));
+  return rows.map((r) => item('bid-accepted-awaiting-payment', r, 'Your bid was accepted. Work starts once the builder pays; you will be told.'));
 }
 
 /** Jobs in this shop whose agreed finish (award day plus the bid's turnaround) is within COMING_DUE_DAYS or past. */
@@ -126,14 +108,7 @@ async function jobsComingDue(db: Executor, user: User, now: Date): Promise<Needs
     ORDER BY due_at`);
   return rows.map((r) => {
     const dueAt = new Date(r.due_at);
-    return {
-      kind: 'jobs-coming-due',
-      jobId: r.job_id,
-      title: r.title,
-      text: `Agreed finish: ${timeLeftText(dueAt, now)}.`,
-      dueAt: dueAt.toISOString(),
-      href: jobHref(r.job_id),
-    };
+    return item('jobs-coming-due', r, `Agreed finish: ${timeLeftText(dueAt, now)}.`, { dueAt });
   });
 }
 
@@ -144,14 +119,9 @@ async function recordsRejected(db: Executor, user: User): Promise<NeedsYouItem[]
     FROM jobs j JOIN bids b ON b.id = j.awarded_bid_id JOIN shops s ON s.id = b.shop_id
     JOIN LATERAL (SELECT version, status, reject_reasons FROM inspection_records WHERE job_id = j.id ORDER BY version DESC LIMIT 1) r ON r.status = 'rejected'
     WHERE s.user_id = ${user.id} AND j.status = 'in_work'`);
-  return rows.map((r) => ({
-    kind: 'record-rejected',
-    jobId: r.job_id,
-    title: r.title,
-    text: `The builder asked for changes to version ${r.version} of the inspection record${r.reject_reasons ? `: “${r.reject_reasons}”` : '.'}`,
-    dueAt: null,
-    href: jobHref(r.job_id),
-  }));
+  return rows.map((r) =>
+    item('record-rejected', r, `The builder asked for changes to version ${r.version} of the inspection record${r.reject_reasons ? `: “${r.reject_reasons}”` : '.'}`),
+  );
 }
 
 /** Every open dispute, for an administrator to decide. */
@@ -159,14 +129,11 @@ async function disputesToDecide(db: Executor): Promise<NeedsYouItem[]> {
   const { rows } = await db.execute<JobTitleRow & { id: string; opened_side: string; answered: boolean }>(sql`
     SELECT d.id, j.id AS job_id, j.title, d.opened_side, d.response IS NOT NULL AS answered
     FROM disputes d JOIN jobs j ON j.id = d.job_id WHERE d.status = 'open' ORDER BY d.opened_at`);
-  return rows.map((r) => ({
-    kind: 'dispute-to-decide',
-    jobId: r.job_id,
-    title: r.title,
-    text: `Opened by the ${r.opened_side}; ${r.answered ? 'the other side has answered' : 'the other side has not answered yet'}. Waiting for a decision.`,
-    dueAt: null,
-    href: `/admin/disputes/${r.id}`,
-  }));
+  return rows.map((r) =>
+    item('dispute-to-decide', r, `Opened by the ${r.opened_side}; ${r.answered ? 'the other side has answered' : 'the other side has not answered yet'}. Waiting for a decision.`, {
+      href: `/admin/disputes/${r.id}`,
+    }),
+  );
 }
 
 /** What waits on this person, soonest due first, then in the order of the kinds. */
