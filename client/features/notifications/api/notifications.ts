@@ -1,9 +1,10 @@
 import { infiniteQueryOptions, queryOptions, useInfiniteQuery, useQuery, useQueryClient } from '@tanstack/react-query';
+import { useEffect } from 'react';
 import type { NeedsYou, Notification, NotificationPage, NotificationPreferences, NotificationPreferencesInput, UnreadNotifications } from '@shared/schemas/notifications';
 import { api } from '@client/lib/api-client';
 import { type MutationOptions, useApiMutation } from '@client/lib/mutation';
 import { notificationKeys } from '@client/lib/query-keys';
-import { useSocketEvent } from '@client/lib/realtime';
+import { useSocket, useSocketEvent } from '@client/lib/realtime';
 import { toSearch } from '@client/lib/search-params';
 
 export const notificationQueries = {
@@ -56,10 +57,27 @@ export const useSaveNotificationPreferences = (options?: MutationOptions<Notific
 /**
  * Keeps the bell, the notices and the needs-you list current for a signed-in
  * person: a new notice counts at once (the list and what waits are fetched
- * again), and reading on another page recounts.
+ * again), reading on another page recounts, and so does coming back after
+ * a gap the connection could not replay.
  */
 export function useNotificationsLive() {
   const queryClient = useQueryClient();
+  const socket = useSocket();
+  useEffect(() => {
+    if (!socket) return;
+    let connectedBefore = socket.connected;
+    const up = () => {
+      if (connectedBefore && !socket.recovered) {
+        void queryClient.invalidateQueries({ queryKey: notificationKeys.unread() });
+        void queryClient.invalidateQueries({ queryKey: notificationKeys.needsYou() });
+      }
+      connectedBefore = true;
+    };
+    socket.on('connect', up);
+    return () => {
+      socket.off('connect', up);
+    };
+  }, [socket, queryClient]);
   useSocketEvent('notification:new', () => {
     queryClient.setQueryData<number>(notificationKeys.unread(), (count) => (count ?? 0) + 1);
     void queryClient.invalidateQueries({ queryKey: notificationKeys.unread() });
