@@ -13,6 +13,7 @@ import { reviewsRoutes } from './modules/reviews/reviews.routes';
 import { openApiRoutes } from './modules/health/openapi.routes';
 import { messagesRoutes } from './modules/messages/messages.routes';
 import { milestonesRoutes } from './modules/milestones/milestones.routes';
+import { notificationsRoutes } from './modules/notifications/notifications.routes';
 import { shopsRoutes } from './modules/shops/shops.routes';
 
 /**
@@ -35,6 +36,7 @@ export const routeModules = {
   inspections: inspectionsRoutes,
   disputes: disputesRoutes,
   reviews: reviewsRoutes,
+  notifications: notificationsRoutes,
   admin: adminRoutes,
   openapi: openApiRoutes,
 } satisfies Record<string, readonly RouteDef<never>[]>;

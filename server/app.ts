@@ -150,6 +150,7 @@ export function createApp(deps: AppDeps) {
   mount(routeModules.inspections, workDeps);
   mount(routeModules.disputes, paymentDeps);
   mount(routeModules.reviews, paymentDeps);
+  mount(routeModules.notifications, { db, hub });
   mount(routeModules.admin, { ...paymentDeps, defaultFeeBps: config.payments.platformFeeBps });
   // Any other address under /api/admin is refused as before to all but admins (admins get the 404 below).
   app.use('/api/admin', requireRole('admin'));

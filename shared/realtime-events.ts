@@ -1,5 +1,6 @@
 import type { z } from 'zod';
 import type { markReadSchema, Message, SentMessage, sendMessageSchema } from './schemas/messages';
+import type { Notification } from './schemas/notifications';
 
 /**
  * Every socket.io event, both ways, with its payload: the server's `Server`
@@ -55,6 +56,10 @@ export interface ServerToClientEvents {
   /** A read receipt moved, to everyone in the conversation's room. */
   read: (event: ReadMoved) => void;
   typing: (event: Typing) => void;
+  /** A new notice in the person's notification centre, to their own room. */
+  'notification:new': (notification: Notification) => void;
+  /** The person read notices on another page: the unread count moved. */
+  'notifications:read': (event: Record<string, never>) => void;
   /** Something changed on a job, to its watchers. */
   'job:changed': (event: JobRef & { change: JobChange }) => void;
 }

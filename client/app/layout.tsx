@@ -5,6 +5,7 @@ import type { Me } from '@shared/schemas/auth';
 import { CountBadge } from '@client/components/ui/count-badge';
 import { authKeys, useSignOut, useMe } from '@client/features/auth';
 import { useUnreadTotal } from '@client/features/messages';
+import { NotificationBell } from '@client/features/notifications';
 import { cn } from '@client/lib/cn';
 import { RealtimeProvider, useConnectionStatus } from '@client/lib/realtime';
 
@@ -159,6 +160,7 @@ export function Layout() {
             {me ? (
               <div className="flex flex-wrap items-center gap-3">
                 <ConnectionIndicator />
+                <NotificationBell />
                 <Account me={me} />
               </div>
             ) : (

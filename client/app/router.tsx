@@ -57,6 +57,11 @@ export const router = createBrowserRouter([
             children: [
               { path: '/dashboard', lazy: () => import('./routes/dashboard').then((m) => ({ Component: m.DashboardRoute })) },
               { path: '/account', lazy: () => import('./routes/account').then((m) => ({ Component: m.AccountRoute })) },
+              { path: '/notifications', lazy: () => import('./routes/notifications').then((m) => ({ Component: m.NotificationsRoute })) },
+              {
+                path: '/settings/notifications',
+                lazy: () => import('./routes/settings-notifications').then((m) => ({ Component: m.NotificationSettingsRoute })),
+              },
               { path: '/jobs/:jobId', lazy: () => import('./routes/job-detail').then((m) => ({ Component: m.JobDetailRoute })) },
               {
                 path: '/jobs/:jobId/inspection/:version/certificate',

@@ -95,11 +95,20 @@ export const adminKeys = {
   fee: () => [...adminKeys.all, 'fee'] as const,
 };
 
+/** The signed-in person's notices (pages and unread count), what needs them, and their e-mail choices. */
+export const notificationKeys = {
+  all: ['notifications'] as const,
+  lists: () => [...notificationKeys.all, 'list'] as const,
+  unread: () => [...notificationKeys.all, 'unread'] as const,
+  needsYou: () => [...notificationKeys.all, 'needs-you'] as const,
+  preferences: () => [...notificationKeys.all, 'preferences'] as const,
+};
+
 /**
  * Every query a change to one job can make stale: the job and the lists it
  * shows in, its bids, its conversations (an award or a cancellation closes
  * them), its money and change orders, its milestones and inspection record,
- * its dispute and reviews, and the money history. Mutations that change a job
+ * its dispute and reviews, the money history and what needs the person. Mutations that change a job
  * and the live-update handler both refresh this list; only the queries on
  * screen fetch again.
  */
@@ -117,5 +126,6 @@ export function jobChangeKeys(jobId: string): QueryKey[] {
     disputeKeys.forJob(jobId),
     reviewKeys.forJob(jobId),
     moneyHistoryKeys.all,
+    notificationKeys.needsYou(),
   ];
 }

@@ -1,6 +1,7 @@
 import type { Server } from 'socket.io';
 import type { ClientToServerEvents, JobChange, ServerToClientEvents } from '../../shared/realtime-events';
 import type { Message } from '../../shared/schemas/messages';
+import type { Notification } from '../../shared/schemas/notifications';
 
 /** The app's socket.io server, typed with the events declared in shared/realtime-events.ts. */
 export type RealtimeServer = Server<ClientToServerEvents, ServerToClientEvents>;
@@ -58,6 +59,16 @@ export class RealtimeHub {
       ?.in(rooms.job(jobId))
       .except([rooms.admins, ...partyUserIds.map(rooms.user)])
       .socketsLeave(rooms.job(jobId));
+  }
+
+  /** A notice was written for this person (after its transaction committed): their bell counts it. */
+  notified(userId: string, notification: Notification) {
+    this.io?.to(rooms.user(userId)).emit('notification:new', notification);
+  }
+
+  /** This person read notices on one page: their other pages recount. */
+  notificationsRead(userId: string) {
+    this.io?.to(rooms.user(userId)).emit('notifications:read', {});
   }
 
   readMoved(threadId: string, userId: string, messageId: string) {

@@ -41,6 +41,7 @@ import { openDispute } from '../../server/modules/disputes/disputes.service';
 import { submitInspection } from '../../server/modules/inspections/inspections.service';
 import { openThread, sendMessage } from '../../server/modules/messages/messages.service';
 import { logMilestone } from '../../server/modules/milestones/milestones.service';
+import { notify } from '../../server/modules/notifications/notify';
 import { appendLedger } from '../../server/modules/payments/ledger';
 import { startJobCheckout, startPayoutOnboarding } from '../../server/modules/payments/payments.service';
 import type { ShopRow } from '../../server/modules/shops/shops.repository';
@@ -626,6 +627,19 @@ const matrix: Record<string, Row> = {
     body: { outcome: 'release', decision },
     expect: adminOnly(200),
   },
+
+  // --- what needs the person, notices and e-mail choices ------------------------
+  'GET /api/me/needs-you': { expect: [401, 200, 200, 200, 200, 200] },
+  'GET /api/notifications': { expect: [401, 200, 200, 200, 200, 200] },
+  'GET /api/notifications/unread': { expect: [401, 200, 200, 200, 200, 200] },
+  'POST /api/notifications/read-all': { expect: [401, 200, 200, 200, 200, 200] },
+  'POST /api/notifications/:id/read': {
+    // A notice of builder A's: nobody else can tell it exists.
+    state: async () => ({ id: (await notify(db(), people.builderA.id, 'bid_received', { text: 'A bid came in.', href: '/jobs' })).id }),
+    expect: [401, 200, 404, 404, 404, 404],
+  },
+  'GET /api/me/notification-preferences': { expect: [401, 200, 200, 200, 200, 200] },
+  'PUT /api/me/notification-preferences': { body: { preferences: [{ kind: 'matching_jobs', email: false }] }, expect: [401, 200, 200, 200, 200, 200] },
 
   // --- the admin console -----------------------------------------------------
   'GET /api/admin/users': { expect: adminOnly(200) },

@@ -178,6 +178,8 @@ describe('accessibility (WCAG 2.1 A and AA) of every main page, in a real browse
       '/money',
       '/account',
       { path: '/account', then: sentEmpty('Change password'), label: '/account (sent empty)' },
+      '/notifications',
+      '/settings/notifications',
     ]);
     expect(problems, report(problems)).toEqual([]);
   }, AUDIT_TIMEOUT_MS);

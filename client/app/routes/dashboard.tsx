@@ -3,6 +3,7 @@ import type { Me } from '@shared/schemas/auth';
 import { Card, PageTitle } from '@client/components/ui/card';
 import { AdminOverview } from '@client/features/admin';
 import { ConfirmEmailNotice, useMe } from '@client/features/auth';
+import { NeedsYouList } from '@client/features/notifications';
 
 const roleWords: Record<Me['role'], { title: string; lead: string }> = {
   builder: {
@@ -34,6 +35,7 @@ export function DashboardRoute() {
     <div>
       <PageTitle title={words.title} lead={words.lead} />
       {!me.emailVerified && <ConfirmEmailNotice title="Please confirm your e-mail address" reason={confirmReasons[me.role]} className="mb-6" />}
+      <NeedsYouList />
       {me.role === 'builder' && (
         <Card className="mb-6 flex flex-wrap items-center gap-4">
           <p className="flex-1 text-ink-soft">Have a block that needs machining? Describe it once; shops bid with a price and a turnaround.</p>

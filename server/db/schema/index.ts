@@ -8,3 +8,4 @@ export * from './work';
 export * from './money';
 export * from './disputes-and-reviews';
 export * from './platform';
+export * from './notifications';

@@ -28,7 +28,8 @@ export const adminActions = pgTable(
   (t) => [index('admin_actions_created_idx').on(t.createdAt.desc()), index('admin_actions_action_idx').on(t.action, t.createdAt.desc())],
 );
 
-export const mailStatus = pgEnum('mail_status', ['pending', 'sent', 'failed']);
+/** `skipped`: an optional mail the person turned off (shared/notifications.ts); kept, never sent. */
+export const mailStatus = pgEnum('mail_status', ['pending', 'sent', 'failed', 'skipped']);
 
 /** Outgoing mail, written in the same transaction as the change that causes it. */
 export const mailOutbox = pgTable(

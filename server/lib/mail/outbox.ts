@@ -1,20 +1,36 @@
 import { and, eq, lte, sql } from 'drizzle-orm';
 import type { Transporter } from 'nodemailer';
 import type { Logger } from 'pino';
+import { mailTopicOf, mailTopics } from '../../../shared/notifications';
 import type { Database, Executor } from '../../db/client';
-import { mailOutbox } from '../../db/schema';
+import { mailOutbox, notificationPreferences, users } from '../../db/schema';
 import type { RenderedMail } from './templates';
 
 /**
  * Writes a mail into the outbox. Call it with the transaction that makes the
  * change the mail is about, so the mail exists exactly when the change does.
+ * A mail of an optional kind (shared/notifications.ts) that its reader turned
+ * off is kept as `skipped` and never sent; every other mail goes.
  */
 export async function enqueueMail(db: Executor, to: string, mail: RenderedMail): Promise<string> {
+  const status = (await turnedOff(db, to, mail.template)) ? 'skipped' : 'pending';
   const [row] = await db
     .insert(mailOutbox)
-    .values({ toAddress: to, subject: mail.subject, textBody: mail.text, htmlBody: mail.html, template: mail.template })
+    .values({ toAddress: to, subject: mail.subject, textBody: mail.text, htmlBody: mail.html, template: mail.template, status })
     .returning({ id: mailOutbox.id });
   return row.id;
+}
+
+/** Whether the account at this address turned off the optional kind of mail this template belongs to. */
+async function turnedOff(db: Executor, to: string, template: string): Promise<boolean> {
+  const topic = mailTopicOf(template);
+  if (!topic || !mailTopics[topic].optional) return false;
+  const [choice] = await db
+    .select({ email: notificationPreferences.email })
+    .from(notificationPreferences)
+    .innerJoin(users, eq(users.id, notificationPreferences.userId))
+    .where(and(sql`lower(${users.email}) = lower(${to})`, eq(notificationPreferences.kind, topic)));
+  return choice?.email === false;
 }
 
 export interface OutboxWorkerOptions {

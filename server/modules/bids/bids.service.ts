@@ -13,6 +13,8 @@ import { findJob, type JobRow } from '../jobs/jobs.repository';
 import { jobForViewer, mustBeBidsShop, mustBeBuilder, mustListBids, mustSeeBid, partyUserIdsById } from '../jobs/job-access';
 import { findShopByUser, shopIsListed, shopSuspended, type ShopRow } from '../shops/shops.repository';
 import { shopRatings } from '../reviews/ratings';
+import { Notices } from '../notifications/notify';
+import { formatCents } from '../../../shared/catalogue';
 
 export interface BidDeps {
   db: Database;
@@ -63,7 +65,7 @@ async function builderOf(tx: Executor, job: JobRow) {
 
 async function shopContact(tx: Executor, shopId: string) {
   const [row] = await tx
-    .select({ name: shops.name, email: users.email })
+    .select({ name: shops.name, email: users.email, userId: shops.userId })
     .from(shops)
     .innerJoin(users, eq(users.id, shops.userId))
     .where(eq(shops.id, shopId));
@@ -87,20 +89,28 @@ const bidTerms = (input: BidInput, totalCents: number, job: JobRow) => ({
   jobRevision: job.revision,
 });
 
-/** Tells the job's builder, in the bid's transaction, of a bid placed or revised. */
+/** Tells the job's builder, in the bid's transaction, of a bid placed or revised: a mail and a notice. */
 async function tellBuilder(
   tx: Executor,
   deps: BidDeps,
   job: JobRow,
   mail: typeof newBidMail,
   bid: { shopName: string; totalCents: number; turnaroundDays: number },
+  notices: Notices,
 ) {
   const builder = await builderOf(tx, job);
   await enqueueMail(tx, builder.email, mail({ builderName: builder.displayName, jobTitle: job.title, url: jobUrl(deps, job.id), ...bid }));
+  const verb = mail === newBidMail ? 'bid' : 'revised its bid to';
+  await notices.add(tx, job.builderId, 'bid_received', {
+    jobId: job.id,
+    text: `${bid.shopName} ${verb} ${formatCents(bid.totalCents)} on “${job.title}”, ready in ${bid.turnaroundDays} days.`,
+    href: `/jobs/${job.id}`,
+  });
 }
 
 export async function createBid(deps: BidDeps, user: User, jobId: string, input: BidInput): Promise<string> {
   const { lines, totalCents } = checkedBid(user, input);
+  const notices = new Notices();
   const bidId = await deps.db.transaction(async (tx) => {
     const shop = await requireShop(tx, user);
     const job = await findJob(tx, jobId, { forUpdate: true });
@@ -117,9 +127,10 @@ export async function createBid(deps: BidDeps, user: User, jobId: string, input:
       .returning();
     await writeLines(tx, bid.id, lines);
     await tx.update(jobs).set({ bidCount: sql`${jobs.bidCount} + 1` }).where(eq(jobs.id, job.id));
-    await tellBuilder(tx, deps, job, newBidMail, { shopName: shop.name, totalCents, turnaroundDays: input.turnaroundDays });
+    await tellBuilder(tx, deps, job, newBidMail, { shopName: shop.name, totalCents, turnaroundDays: input.turnaroundDays }, notices);
     return bid.id;
   });
+  notices.announce(deps.hub);
   deps.hub?.jobChanged(jobId, 'bid_placed');
   return bidId;
 }
@@ -143,6 +154,7 @@ async function ownBid(tx: Executor, user: User, bidId: string) {
 
 export async function reviseBid(deps: BidDeps, user: User, bidId: string, input: BidInput): Promise<void> {
   const { lines, totalCents } = checkedBid(user, input);
+  const notices = new Notices();
   const jobId = await deps.db.transaction(async (tx) => {
     const { bid, job, shop } = await ownBid(tx, user, bidId);
     if (bid.status !== 'active') throw conflict('Only an active bid can be revised.', 'bid_not_active');
@@ -163,9 +175,10 @@ export async function reviseBid(deps: BidDeps, user: User, bidId: string, input:
       .set({ version: bid.version + 1, ...bidTerms(input, totalCents, job) })
       .where(eq(bids.id, bid.id));
     await writeLines(tx, bid.id, lines);
-    await tellBuilder(tx, deps, job, bidRevisedMail, { shopName: shop.name, totalCents, turnaroundDays: input.turnaroundDays });
+    await tellBuilder(tx, deps, job, bidRevisedMail, { shopName: shop.name, totalCents, turnaroundDays: input.turnaroundDays }, notices);
     return job.id;
   });
+  notices.announce(deps.hub);
   deps.hub?.jobChanged(jobId, 'bid_revised');
 }
 
@@ -192,6 +205,7 @@ async function builderBid(tx: Executor, user: User, bidId: string) {
  * racing accepts wait; the first wins and the rest find the job awarded (409).
  */
 export async function acceptBid(deps: BidDeps, user: User, bidId: string): Promise<void> {
+  const notices = new Notices();
   const jobId = await deps.db.transaction(async (tx) => {
     const { bid, job } = await builderBid(tx, user, bidId);
     if (job.status !== 'open') throw conflict('This job already has an accepted bid, or is closed.', 'job_not_open');
@@ -213,12 +227,18 @@ export async function acceptBid(deps: BidDeps, user: User, bidId: string): Promi
 
     const winner = await shopContact(tx, bid.shopId);
     await enqueueMail(tx, winner.email, bidAcceptedMail({ shopName: winner.name, jobTitle: job.title, totalCents: bid.totalCents, url: jobUrl(deps, job.id) }));
+    await notices.add(tx, winner.userId, 'bid_accepted', {
+      jobId: job.id,
+      text: `Your bid of ${formatCents(bid.totalCents)} on “${job.title}” was accepted. Work starts once the builder pays.`,
+      href: `/jobs/${job.id}`,
+    });
     for (const { shopId } of declined) {
       const loser = await shopContact(tx, shopId);
       await enqueueMail(tx, loser.email, bidDeclinedMail({ shopName: loser.name, jobTitle: job.title, url: `${deps.appUrl}/board` }));
     }
     return job.id;
   });
+  notices.announce(deps.hub);
   deps.hub?.jobChanged(jobId, 'bid_accepted');
   // The losing shops heard of the award; the work that follows is for the two sides only.
   deps.hub?.keepOnlyParties(jobId, await partyUserIdsById(deps.db, jobId));

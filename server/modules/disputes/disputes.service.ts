@@ -16,6 +16,7 @@ import { AppError, conflict, forbidden, notFound } from '../../lib/errors';
 import { enqueueMail } from '../../lib/mail/outbox';
 import { disputeAnsweredMail, disputeDecidedMail, disputeOpenedMail } from '../../lib/mail/templates';
 import { recordAdminAction } from '../admin/audit';
+import { Notices } from '../notifications/notify';
 import { mustSeeWork, partiesOf, sideOf, type JobParties } from '../jobs/job-access';
 import { jobBalance } from '../payments/ledger';
 import { carryOut, planMoves, type PaymentDeps } from '../payments/payments.service';
@@ -106,11 +107,15 @@ export async function disputeViewFor(db: Database, user: User, jobId: string, no
 }
 
 async function adminEmails(db: Executor) {
-  return db.select({ email: users.email, name: users.displayName }).from(users).where(and(eq(users.role, 'admin'), eq(users.status, 'active')));
+  return db.select({ id: users.id, email: users.email, name: users.displayName }).from(users).where(and(eq(users.role, 'admin'), eq(users.status, 'active')));
 }
+
+/** A decision in a notice's words (the mail says the amounts). */
+const outcomeWords = { release: 'the held payment goes to the shop', refund: 'the held payment goes back to the builder', split: 'the held payment is split between the two sides' } as const;
 
 /** A party opens a dispute: the job becomes disputed, the held payment stays held, both sides and the admins are told. */
 export async function openDispute(deps: PaymentDeps, user: User, jobId: string, input: OpenDisputeInput, now = new Date()): Promise<Dispute> {
+  const notices = new Notices();
   const dispute = await deps.db.transaction(async (tx) => {
     const parties = await partiesOf(tx, jobId, { forUpdate: true });
     const side = sideOf(parties, user);
@@ -137,15 +142,22 @@ export async function openDispute(deps: PaymentDeps, user: User, jobId: string, 
     if (parties.shop) await enqueueMail(tx, parties.shop.email, mail(parties.shop.name, side === 'shop'));
     for (const admin of await adminEmails(tx)) {
       await enqueueMail(tx, admin.email, mail(admin.name, false));
+      await notices.add(tx, admin.id, 'dispute_opened', { jobId, text: `The ${side} opened a dispute on “${parties.job.title}” (${reason}).`, href: `/admin/disputes/${row.id}` });
+    }
+    const otherSide = side === 'builder' ? parties.shop?.userId : parties.builder.id;
+    if (otherSide) {
+      await notices.add(tx, otherSide, 'dispute_opened', { jobId, text: `The ${side} opened a dispute on “${parties.job.title}” (${reason}): give your side.`, href: `/jobs/${jobId}` });
     }
     return row;
   });
+  notices.announce(deps.hub);
   deps.hub?.jobChanged(jobId, 'job_updated');
   return toDispute(dispute);
 }
 
 /** The other side answers, once. */
 export async function answerDispute(deps: PaymentDeps, user: User, jobId: string, statement: string): Promise<Dispute> {
+  const notices = new Notices();
   const row = await deps.db.transaction(async (tx) => {
     const parties = await partiesOf(tx, jobId, { forUpdate: true });
     const side = sideOf(parties, user);
@@ -158,10 +170,15 @@ export async function answerDispute(deps: PaymentDeps, user: User, jobId: string
     if (open.openedSide === side) throw forbidden('The side that opened the dispute cannot answer it; add to it in the job’s messages.');
     if (open.response) throw conflict('This dispute already has your answer.', 'already_answered');
     const [updated] = await tx.update(disputes).set({ response: statement, responseBy: user.id, respondedAt: new Date() }).where(eq(disputes.id, open.id)).returning();
-    const opener = open.openedSide === 'builder' ? { email: parties.builder.email, name: parties.builder.displayName } : { email: parties.shop!.email, name: parties.shop!.name };
+    const opener =
+      open.openedSide === 'builder'
+        ? { id: parties.builder.id, email: parties.builder.email, name: parties.builder.displayName }
+        : { id: parties.shop!.userId, email: parties.shop!.email, name: parties.shop!.name };
     await enqueueMail(tx, opener.email, disputeAnsweredMail({ name: opener.name, jobTitle: parties.job.title, url: jobUrl(deps, jobId) }));
+    await notices.add(tx, opener.id, 'dispute_answered', { jobId, text: `The ${side} answered your dispute on “${parties.job.title}”. An administrator decides next.`, href: `/jobs/${jobId}` });
     return updated;
   });
+  notices.announce(deps.hub);
   deps.hub?.jobChanged(jobId, 'job_updated');
   return toDispute(row);
 }
@@ -173,6 +190,7 @@ export async function answerDispute(deps: PaymentDeps, user: User, jobId: string
  * the payments, so whatever happens the held money moves once.
  */
 export async function resolveDispute(deps: PaymentDeps, admin: User, disputeId: string, input: ResolveDisputeInput) {
+  const notices = new Notices();
   const row = await deps.db.transaction(async (tx) => {
     const [dispute] = await tx.select().from(disputes).where(eq(disputes.id, disputeId)).for('update');
     if (!dispute) throw notFound('No dispute with that id.');
@@ -203,8 +221,12 @@ export async function resolveDispute(deps: PaymentDeps, admin: User, disputeId: 
       disputeDecidedMail({ name, jobTitle: parties.job.title, outcome: input.outcome, shopCents, refundCents: held - shopCents, decision: input.decision, url: jobUrl(deps, dispute.jobId) });
     await enqueueMail(tx, parties.builder.email, mail(parties.builder.displayName));
     if (parties.shop) await enqueueMail(tx, parties.shop.email, mail(parties.shop.name));
+    const decided = { jobId: dispute.jobId, text: `The dispute on “${parties.job.title}” is decided: ${outcomeWords[input.outcome]}.`, href: `/jobs/${dispute.jobId}` };
+    await notices.add(tx, parties.builder.id, 'dispute_decided', decided);
+    if (parties.shop) await notices.add(tx, parties.shop.userId, 'dispute_decided', decided);
     return updated;
   });
+  notices.announce(deps.hub);
   const money = await carryOut(deps, row.jobId);
   return { dispute: toDispute(row), money };
 }

@@ -14,6 +14,7 @@ import { scheduleTask } from '../../lib/scheduler';
 import { releaseJob, type PaymentDeps } from '../payments/payments.service';
 import { certificatePdf } from './certificate';
 import { attachMilestonePhotos } from '../milestones/milestone-photos';
+import { Notices } from '../notifications/notify';
 import { mustBeJobsBuilder, mustBeWorkingShop, mustSeeWork, partiesOf, sideOf } from '../jobs/job-access';
 
 export interface InspectionDeps extends PaymentDeps {
@@ -109,6 +110,7 @@ export async function saveDraft(db: Database, user: User, jobId: string, draft: 
  * the job's spec, and stored with the readings as a new version.
  */
 export async function submitInspection(deps: InspectionDeps, user: User, jobId: string, input: InspectionInput) {
+  const notices = new Notices();
   const version = await deps.db.transaction(async (tx) => {
     const parties = await partiesOf(tx, jobId, { forUpdate: true });
     mustBeWorkingShop(parties, user);
@@ -143,11 +145,17 @@ export async function submitInspection(deps: InspectionDeps, user: User, jobId: 
       parties.builder.email,
       inspectionSubmittedMail({ name: parties.builder.displayName, shopName: parties.shop!.name, jobTitle: job.title, version: next, pass: results.pass, autoAccept: recordConforms(results), dueText: dayText(reviewDueAt), url }),
     );
+    await notices.add(tx, parties.builder.id, 'results_submitted', {
+      jobId: job.id,
+      text: `${parties.shop!.name} submitted inspection results for “${job.title}” (version ${next}): review them by ${dayText(reviewDueAt)}.`,
+      href: `/jobs/${job.id}`,
+    });
     const reminderAt = new Date(Math.max(Date.now(), reviewDueAt.getTime() - 24 * 60 * 60_000));
     await scheduleTask(tx, { kind: 'review-reminder', key: `review-reminder-${row.id}`, payload: { recordId: row.id }, runAt: reminderAt });
     await scheduleTask(tx, { kind: 'review-window-ended', key: `review-window-${row.id}`, payload: { recordId: row.id }, runAt: reviewDueAt });
     return toVersion(row);
   });
+  notices.announce(deps.hub);
   deps.hub?.jobChanged(jobId, 'job_updated');
   return version;
 }
@@ -171,6 +179,7 @@ const nothingToReview = () => conflict('There is no inspection record waiting fo
  * payment; the release is keyed by payment, so it happens once.
  */
 async function accept(deps: InspectionDeps, jobId: string, how: { by?: User; window?: { recordId: string } }) {
+  const notices = new Notices();
   const accepted = await deps.db.transaction(async (tx) => {
     const parties = await partiesOf(tx, jobId, { forUpdate: true });
     const record = await waitingRecord(tx, jobId);
@@ -189,8 +198,13 @@ async function accept(deps: InspectionDeps, jobId: string, how: { by?: User; win
     const decision = how.by ? 'accepted' : 'accepted_by_window';
     if (parties.shop) await enqueueMail(tx, parties.shop.email, inspectionDecidedMail({ name: parties.shop.name, jobTitle: parties.job.title, decision, url }));
     if (!how.by) await enqueueMail(tx, parties.builder.email, inspectionDecidedMail({ name: parties.builder.displayName, jobTitle: parties.job.title, decision, url }));
+    const accepted = how.by ? 'The builder accepted' : 'The review window closed and accepted';
+    const notice = { jobId, text: `${accepted} the inspection results for “${parties.job.title}”.`, href: `/jobs/${jobId}` };
+    if (parties.shop) await notices.add(tx, parties.shop.userId, 'record_accepted', notice);
+    if (!how.by) await notices.add(tx, parties.builder.id, 'record_accepted', notice);
     return row;
   });
+  notices.announce(deps.hub);
   if (!accepted) return null;
   await releaseJob(deps, jobId);
   deps.hub?.jobChanged(jobId, 'job_updated');
@@ -203,6 +217,7 @@ export async function acceptInspection(deps: InspectionDeps, user: User, jobId: 
 }
 
 export async function rejectInspection(deps: InspectionDeps, user: User, jobId: string, reasons: string) {
+  const notices = new Notices();
   const version = await deps.db.transaction(async (tx) => {
     const parties = await partiesOf(tx, jobId, { forUpdate: true });
     mustBeJobsBuilder(parties, user, 'Only the builder who posted the job rejects its inspection record.');
@@ -216,9 +231,11 @@ export async function rejectInspection(deps: InspectionDeps, user: User, jobId: 
     await tx.update(jobs).set({ status: 'in_work' }).where(eq(jobs.id, jobId));
     if (parties.shop) {
       await enqueueMail(tx, parties.shop.email, inspectionDecidedMail({ name: parties.shop.name, jobTitle: parties.job.title, decision: 'rejected', reasons, url: `${deps.appUrl}/jobs/${jobId}` }));
+      await notices.add(tx, parties.shop.userId, 'record_rejected', { jobId, text: `The builder asked for changes to the inspection results for “${parties.job.title}”: ${reasons}`, href: `/jobs/${jobId}` });
     }
     return toVersion(row);
   });
+  notices.announce(deps.hub);
   deps.hub?.jobChanged(jobId, 'job_updated');
   return version;
 }
@@ -254,14 +271,21 @@ export function inspectionTaskHandlers(deps: InspectionDeps) {
     'review-reminder': async (payload: Record<string, unknown>) => {
       const [record] = await deps.db.select().from(inspectionRecords).where(eq(inspectionRecords.id, String(payload.recordId)));
       if (!record || record.status !== 'submitted') return;
+      const notices = new Notices();
       await deps.db.transaction(async (tx: Executor) => {
         const parties = await partiesOf(tx, record.jobId);
+        await notices.add(tx, parties.builder.id, 'review_window_ending', {
+          jobId: record.jobId,
+          text: `The review window for “${parties.job.title}” closes ${dayText(record.reviewDueAt)}: accept the results or ask for changes.`,
+          href: `/jobs/${record.jobId}`,
+        });
         await enqueueMail(
           tx,
           parties.builder.email,
           reviewReminderMail({ name: parties.builder.displayName, jobTitle: parties.job.title, dueText: dayText(record.reviewDueAt), autoAccept: recordConforms(record.results as InspectionResults), url: `${deps.appUrl}/jobs/${record.jobId}` }),
         );
       });
+      notices.announce(deps.hub);
     },
     'review-window-ended': async (payload: Record<string, unknown>, now: Date) => {
       const [record] = await deps.db.select().from(inspectionRecords).where(eq(inspectionRecords.id, String(payload.recordId)));

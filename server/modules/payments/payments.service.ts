@@ -1,5 +1,6 @@
 import { and, asc, eq, inArray, lte, ne, sql } from 'drizzle-orm';
 import type Stripe from 'stripe';
+import { formatCents } from '../../../shared/catalogue';
 import type { Database, Executor } from '../../db/client';
 import { bids, changeOrders, jobs, moneyMoves, payments, shops, type User } from '../../db/schema';
 import { assertEmailConfirmed } from '../../lib/auth/guards';
@@ -12,6 +13,7 @@ import { mustBeBuilder, mustSeeMoney, partiesOf } from '../jobs/job-access';
 import { findJob } from '../jobs/jobs.repository';
 import { findShopByUser } from '../shops/shops.repository';
 import { recordAdminAction } from '../admin/audit';
+import { Notices } from '../notifications/notify';
 import { appendLedger, feeFor, jobBalance } from './ledger';
 import { closeOpenCheckouts, expireCheckoutSession, expireOpenCheckouts, scheduleCheckoutExpiry } from './open-checkouts';
 
@@ -185,6 +187,7 @@ export async function applyCheckoutSession(deps: PaymentDeps, sessionId: string)
   if (!known) return;
   const jobId = known.jobId;
   let lateMoveId: string | undefined;
+  const notices = new Notices();
   await deps.db.transaction(async (tx) => {
     // The job's row lock first, as a cancel, a decline and the money's settlement take it: a payment and the change that ends its need never pass each other.
     const job = (await findJob(tx, jobId, { forUpdate: true }))!;
@@ -219,7 +222,12 @@ export async function applyCheckoutSession(deps: PaymentDeps, sessionId: string)
     const receipt = { jobTitle: job.title, amountCents: payment.amountCents, what: payment.kind === 'bid' ? 'the accepted bid' : 'a change order', url: `${deps.appUrl}/jobs/${job.id}` };
     await enqueueMail(tx, parties.builderEmail, paymentReceiptMail({ ...receipt, name: parties.builderName, side: 'builder' }));
     if (parties.shopEmail) await enqueueMail(tx, parties.shopEmail, paymentReceiptMail({ ...receipt, name: parties.shopName!, side: 'shop' }));
+    const held = `${formatCents(payment.amountCents)} for ${receipt.what} on “${job.title}” is paid and held`;
+    const href = `/jobs/${job.id}`;
+    await notices.add(tx, parties.builderId, 'payment_held', { jobId: job.id, text: `${held} until you accept the results.`, href });
+    if (parties.shopUserId) await notices.add(tx, parties.shopUserId, 'payment_held', { jobId: job.id, text: `${held}: it is paid out to you when the builder accepts the results.`, href });
   });
+  notices.announce(deps.hub);
   await expireOpenCheckouts(deps, jobId);
   if (lateMoveId) await runMove(deps, lateMoveId);
   deps.hub?.jobChanged(jobId, 'job_updated');
@@ -307,7 +315,7 @@ export async function applyPaymentFailed(deps: PaymentDeps, intent: Stripe.Payme
 /** Whom a job's money mails go to: its builder and the shop doing the work (with a payment, the shop it was for). */
 async function mailPartiesOf(tx: Executor, jobId: string, payment?: Pick<typeof payments.$inferSelect, 'bidId' | 'changeOrderId'>) {
   const { builder, shop } = await partiesOf(tx, jobId, { payment });
-  return { builderEmail: builder.email, builderName: builder.displayName, shopEmail: shop?.email, shopName: shop?.name };
+  return { builderId: builder.id, builderEmail: builder.email, builderName: builder.displayName, shopUserId: shop?.userId, shopEmail: shop?.email, shopName: shop?.name };
 }
 
 // ---------------------------------------------------------------------------
@@ -382,6 +390,7 @@ export async function runMove(deps: PaymentDeps, moveId: string): Promise<'done'
       );
       providerId = refund.id;
     }
+    const notices = new Notices();
     await deps.db.transaction(async (tx) => {
       const [claimed] = await tx
         .update(moneyMoves)
@@ -396,8 +405,9 @@ export async function runMove(deps: PaymentDeps, moveId: string): Promise<'done'
         await appendLedger(tx, { jobId: move.jobId, paymentId: payment.id, kind: 'refunded', amountCents: move.amountCents, reference: providerId });
       }
       // A late payment's refund stands apart: its people were told when it was planned, and the job's state is not its business.
-      if (move.kind !== 'late_refund') await settleJobIfEmpty(deps, tx, move.jobId);
+      if (move.kind !== 'late_refund') await settleJobIfEmpty(deps, tx, move.jobId, notices);
     });
+    notices.announce(deps.hub);
     return 'done';
   } catch (error) {
     const message = error instanceof Error ? error.message : String(error);
@@ -414,7 +424,7 @@ export async function runMove(deps: PaymentDeps, moveId: string): Promise<'done'
 }
 
 /** Once nothing is held and every movement is done, the job reaches its end state and both sides get a receipt. */
-async function settleJobIfEmpty(deps: PaymentDeps, tx: Executor, jobId: string) {
+async function settleJobIfEmpty(deps: PaymentDeps, tx: Executor, jobId: string, notices: Notices) {
   const moves = await tx.select().from(moneyMoves).where(eq(moneyMoves.jobId, jobId));
   if (moves.some((m) => m.status === 'pending' && m.kind !== 'late_refund')) return;
   // Late payments sent back (or on their way back) are not the job's money: leave them out of its end state and receipts.
@@ -429,8 +439,12 @@ async function settleJobIfEmpty(deps: PaymentDeps, tx: Executor, jobId: string) 
   const url = `${deps.appUrl}/jobs/${jobId}`;
   if (balance.released + balance.fee > 0 && parties.shopEmail) {
     await enqueueMail(tx, parties.shopEmail, payoutSentMail({ name: parties.shopName!, jobTitle: job.title, amountCents: balance.released, feeCents: balance.fee, url }));
+    await notices.add(tx, parties.shopUserId!, 'payment_released', { jobId, text: `${formatCents(balance.released)} for “${job.title}” was paid out to you (fee ${formatCents(balance.fee)}).`, href: `/jobs/${jobId}` });
   }
-  if (balance.refunded > 0) await enqueueMail(tx, parties.builderEmail, refundSentMail({ name: parties.builderName, jobTitle: job.title, amountCents: balance.refunded, url }));
+  if (balance.refunded > 0) {
+    await enqueueMail(tx, parties.builderEmail, refundSentMail({ name: parties.builderName, jobTitle: job.title, amountCents: balance.refunded, url }));
+    await notices.add(tx, parties.builderId, 'refund_sent', { jobId, text: `${formatCents(balance.refunded)} for “${job.title}” was refunded to you.`, href: `/jobs/${jobId}` });
+  }
   // A disputed job ends as resolved whatever the decision; otherwise a full refund cancels it.
   const next = job.status === 'disputed' ? 'resolved' : balance.refunded === balance.paidIn ? 'cancelled' : 'completed';
   await tx.update(jobs).set({ status: next }).where(eq(jobs.id, jobId));
