@@ -99,14 +99,7 @@ export type MoneyHistoryRow = z.infer<typeof moneyHistoryRowSchema>;
  * the platform's fee, refunded, in the period; held at its end (paid in and
  * not yet paid out); and for a shop its net, what reached its payout account.
  */
-export const moneyTotalsSchema = z.object({
-  paidIn: z.number().int(),
-  released: z.number().int(),
-  fee: z.number().int(),
-  refunded: z.number().int(),
-  held: z.number().int(),
-  net: z.number().int(),
-});
+export const moneyTotalsSchema = jobBalanceSchema.extend({ net: z.number().int() });
 export type MoneyTotals = z.infer<typeof moneyTotalsSchema>;
 
 export const moneyHistorySchema = z.object({ rows: z.array(moneyHistoryRowSchema), total: z.number().int(), totals: moneyTotalsSchema });

@@ -71,7 +71,7 @@ describe('invoices', () => {
     expect(shopCopy).toContain('The work');
     expect(shopCopy).toContain('Total paid by the builder $500.00');
     // derived: the test app's fee is 800 basis points; 8 % of $500.00 is $40.00, rounded half up to the cent (common practice), leaving $460.00
-    expect(shopCopy).toContain('Tenthmark fee (8.00%) $40.00');
+    expect(shopCopy).toContain('Tenthmark fee (8%) $40.00');
     expect(shopCopy).toContain('Net payout to the shop $460.00');
     const builderCopy = flat(await pdfText(builder, `/api/jobs/${job.id}/invoice.pdf`));
     expect(builderCopy).toContain(`Invoice number ${number}`);

@@ -1,3 +1,4 @@
+import { feeRateWords } from '../../../shared/money';
 import type { BidLine } from '../../../shared/schemas/bids';
 import { money, stamp, startDocument, type PrintedDocument } from '../../lib/pdf/document';
 
@@ -75,7 +76,7 @@ export function invoicePdf(i: InvoiceData): Promise<Buffer> {
   if (i.refundedCents > 0) p.row('Refunded to the builder', money(i.refundedCents, i.currency));
   if (i.shopCopy) {
     p.heading('The shop’s copy: fee and payout');
-    p.row(`Tenthmark fee (${(i.shopCopy.feeBps / 100).toFixed(2)}%)`, money(i.shopCopy.feeCents, i.currency));
+    p.row(`Tenthmark fee (${feeRateWords(i.shopCopy.feeBps)})`, money(i.shopCopy.feeCents, i.currency));
     p.row('Net payout to the shop', money(i.shopCopy.netCents, i.currency), { bold: true });
   }
   p.footnote('Issued by the shop through Tenthmark. Paid in full through Tenthmark; nothing is owed on this invoice.');

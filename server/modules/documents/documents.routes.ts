@@ -3,13 +3,12 @@ import { z } from 'zod';
 import { bidParamsSchema } from '../../../shared/schemas/bids';
 import { uuidSchema } from '../../../shared/schemas/common';
 import { jobParamsSchema } from '../../../shared/schemas/jobs';
+import { sendDownload } from '../../lib/http/download';
 import { routesFor } from '../../lib/http/routes';
 import { invoiceFor, quoteFor, receiptFor, type DocumentDeps } from './documents.service';
 
-/** A document sent as a download, never cached by a shared cache. */
-const sendPdf = (res: Response, filename: string, pdf: Buffer): void => {
-  res.set({ 'Content-Type': 'application/pdf', 'Content-Disposition': `attachment; filename="${filename}"`, 'Cache-Control': 'private, no-store' }).send(pdf);
-};
+/** A document sent as a download. */
+const sendPdf = (res: Response, filename: string, pdf: Buffer) => sendDownload(res, { type: 'application/pdf', filename, body: pdf });
 
 const route = routesFor<DocumentDeps>('Documents');
 
@@ -22,10 +21,7 @@ export const documentsRoutes = [
     access: 'signed-in',
     params: z.object({ paymentId: uuidSchema }),
     reply: { file: 'application/pdf', description: 'The receipt' },
-    handler: async ({ deps, user, params, res }) => {
-      const { number, pdf } = await receiptFor(deps, user, params.paymentId);
-      sendPdf(res, `tenthmark-receipt-${number}.pdf`, pdf);
-    },
+    handler: async ({ deps, user, params, res }) => receiptFor(deps, user, params.paymentId).then(({ number, pdf }) => sendPdf(res, `tenthmark-receipt-${number}.pdf`, pdf)),
   }),
   route({
     method: 'get',
@@ -34,10 +30,7 @@ export const documentsRoutes = [
     access: 'signed-in',
     params: jobParamsSchema,
     reply: { file: 'application/pdf', description: 'The invoice' },
-    handler: async ({ deps, user, params, res }) => {
-      const { number, pdf } = await invoiceFor(deps, user, params.jobId);
-      sendPdf(res, `tenthmark-invoice-${number}.pdf`, pdf);
-    },
+    handler: async ({ deps, user, params, res }) => invoiceFor(deps, user, params.jobId).then(({ number, pdf }) => sendPdf(res, `tenthmark-invoice-${number}.pdf`, pdf)),
   }),
   route({
     method: 'get',

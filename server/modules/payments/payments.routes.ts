@@ -15,6 +15,7 @@ import {
   splitSchema,
   webhookReceiptSchema,
 } from '../../../shared/schemas/payments';
+import { sendDownload } from '../../lib/http/download';
 import { routesFor } from '../../lib/http/routes';
 import { AppError } from '../../lib/errors';
 import { approveChangeOrder, changeOrdersFor, declineChangeOrder, proposeChangeOrder } from './change-orders.service';
@@ -154,10 +155,12 @@ export const paymentsRoutes = [
     access: 'builder or shop',
     query: moneyPeriodSchema,
     reply: { file: 'text/csv', description: 'The period’s ledger rows, oldest first, then the totals' },
-    handler: async ({ deps, user, query, res }) => {
-      const name = `tenthmark-money-${query.from ?? 'start'}-to-${query.to ?? new Date().toISOString().slice(0, 10)}.csv`;
-      res.set({ 'Content-Type': 'text/csv; charset=utf-8', 'Content-Disposition': `attachment; filename="${name}"`, 'Cache-Control': 'private, no-store' }).send(await moneyCsv(deps.db, user, query));
-    },
+    handler: async ({ deps, user, query, res }) =>
+      sendDownload(res, {
+        type: 'text/csv; charset=utf-8',
+        filename: `tenthmark-money-${query.from ?? 'start'}-to-${query.to ?? new Date().toISOString().slice(0, 10)}.csv`,
+        body: await moneyCsv(deps.db, user, query),
+      }),
   }),
   // Hand release and split for support cases outside a dispute (disputes are decided in the disputes module). Both are audited in the money's transaction.
   route({
