@@ -78,8 +78,8 @@ export function MyBidsRoute() {
                   </td>
                   <td className="py-3 pr-4">{formatMoment(bid.updatedAt)}</td>
                   <td className="py-3">
-                    <a href={`/api/bids/${bid.id}/quote.pdf`} download aria-label={`Quote for ${bid.jobTitle || 'the job'} (PDF)`} className="font-semibold text-slate-700 underline underline-offset-4">
-                      PDF
+                    <a href={`/api/bids/${bid.id}/quote.pdf`} download className="font-semibold text-slate-700 underline underline-offset-4">
+                      Quote PDF
                     </a>
                   </td>
                 </tr>
