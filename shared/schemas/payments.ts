@@ -102,7 +102,11 @@ export type MoneyHistoryRow = z.infer<typeof moneyHistoryRowSchema>;
 export const moneyTotalsSchema = jobBalanceSchema.extend({ net: z.number().int() });
 export type MoneyTotals = z.infer<typeof moneyTotalsSchema>;
 
-export const moneyHistorySchema = z.object({ rows: z.array(moneyHistoryRowSchema), total: z.number().int(), totals: moneyTotalsSchema });
+/** A line of the money page: on a builder's payment in, its receipt (the payment and the receipt's number), null otherwise. */
+export const moneyPageRowSchema = moneyHistoryRowSchema.extend({ receipt: z.object({ paymentId: z.uuid(), number: z.string() }).nullable() });
+export type MoneyPageRow = z.infer<typeof moneyPageRowSchema>;
+
+export const moneyHistorySchema = z.object({ rows: z.array(moneyPageRowSchema), total: z.number().int(), totals: moneyTotalsSchema });
 export type MoneyHistory = z.infer<typeof moneyHistorySchema>;
 
 /** A period of whole days (UTC), either end open; the last day may not come before the first. */

@@ -106,6 +106,10 @@ describe('money page', () => {
     const page = await builder.get(`/api/me/money?from=${today}&to=${today}`);
     expect(page.status).toBe(200);
     expect(page.body.rows.map((r: { jobId: string }) => r.jobId)).toEqual([job.id]);
+    // The builder's payment in links its receipt; the shop's page lists the same payment without it.
+    const [money] = (await builder.get(`/api/jobs/${job.id}/money`)).body.payments;
+    expect(page.body.rows[0].receipt).toEqual({ paymentId: money.id, number: money.receiptNumber });
+    expect((await shop.get('/api/me/money')).body.rows.find((r: { jobId: string }) => r.jobId === job.id).receipt).toBeNull();
     expect(page.body.totals).toEqual({ paidIn: 12_300, released: 0, fee: 0, refunded: 0, held: 12_300, net: 0 });
 
     const csv = await builder.get(`/api/me/money.csv?from=${today}&to=${today}`);

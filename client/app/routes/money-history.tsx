@@ -169,7 +169,14 @@ export function MoneyHistoryRoute() {
                           {row.jobTitle || 'Untitled job'}
                         </Link>
                       </td>
-                      <td className="py-3 pr-4">{kindWords[side][row.kind]}</td>
+                      <td className="py-3 pr-4">
+                        {kindWords[side][row.kind]}
+                        {row.receipt && (
+                          <a href={`/api/payments/${row.receipt.paymentId}/receipt.pdf`} download className="block text-sm font-semibold text-slate-700 underline underline-offset-4">
+                            Receipt {row.receipt.number} (PDF)
+                          </a>
+                        )}
+                      </td>
                       <td className="py-3 text-right font-semibold tabular-nums">{formatCents(row.amountCents)}</td>
                     </tr>
                   ))}

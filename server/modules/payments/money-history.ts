@@ -47,16 +47,26 @@ async function totalsOf(db: Executor, user: User, period: MoneyPeriod): Promise<
 export async function moneyHistory(db: Executor, user: User, query: MoneyPeriod & { limit: number; offset: number }): Promise<MoneyHistory> {
   const where = sql`${mine(user)} AND ${inPeriod(query)}`;
   const [rows, total, totals] = await Promise.all([
-    db.execute<{ id: string; created_at: Date; job_id: string; job_title: string; kind: MoneyHistory['rows'][number]['kind']; amount_cents: number }>(sql`
-      SELECT l.id, l.created_at, l.job_id, j.title AS job_title, l.kind, l.amount_cents
+    db.execute<{ id: string; created_at: Date; job_id: string; job_title: string; kind: MoneyHistory['rows'][number]['kind']; amount_cents: number; payment_id: string | null; receipt_number: string | null }>(sql`
+      SELECT l.id, l.created_at, l.job_id, j.title AS job_title, l.kind, l.amount_cents, p.id AS payment_id, p.receipt_number
       FROM ledger_entries l JOIN jobs j ON j.id = l.job_id
+      LEFT JOIN payments p ON p.id = l.payment_id AND l.kind = 'paid_in' AND p.status = 'paid' AND p.receipt_number IS NOT NULL
       WHERE ${where}
       ORDER BY l.id DESC LIMIT ${query.limit} OFFSET ${query.offset}`),
     db.execute<{ total: number }>(sql`SELECT count(*)::int AS total FROM ledger_entries l JOIN jobs j ON j.id = l.job_id WHERE ${where}`),
     totalsOf(db, user, query),
   ]);
   return {
-    rows: rows.rows.map((r) => ({ id: Number(r.id), createdAt: new Date(r.created_at).toISOString(), jobId: r.job_id, jobTitle: r.job_title, kind: r.kind, amountCents: r.amount_cents })),
+    rows: rows.rows.map((r) => ({
+      id: Number(r.id),
+      createdAt: new Date(r.created_at).toISOString(),
+      jobId: r.job_id,
+      jobTitle: r.job_title,
+      kind: r.kind,
+      amountCents: r.amount_cents,
+      // Receipts are the payer's: a shop's page lists the same payments without them.
+      receipt: user.role === 'builder' && r.payment_id && r.receipt_number ? { paymentId: r.payment_id, number: r.receipt_number } : null,
+    })),
     total: total.rows[0].total,
     totals,
   };
