@@ -45,4 +45,14 @@ describe('the shop’s fee and net before it bids', () => {
     await expect.poll(() => row.getByTestId('my-bid-net').textContent()).toContain('$113.57');
     await expect(row.getByTestId('my-bid-net').textContent()).resolves.toContain('after $9.88 fee (8%)');
   });
+
+  it('when the builder has accepted and the money is released, then the shop’s payment box says it was released, with the fee, and offers the invoice', async () => {
+    const { job, shop } = await suite.jobIn('completed', builder.email, shopEmail, { bid: { lineItems: [{ description: 'Deck the block', quantity: 1, unitPriceCents: 50_000 }] } });
+    await expect.poll(async () => (await shop<{ balance: { held: number; released: number } }>('GET', `/api/jobs/${job.id}/money`)).balance.released, { timeout: 10_000 }).toBeGreaterThan(0);
+    await suite.signIn(page, shopEmail, `/jobs/${job.id}`);
+    // derived: 8 % of $500.00 is $40.00 kept as the fee; $460.00 goes to the shop
+    await expect.poll(() => page.getByTestId('shop-released').textContent()).toBe('Released: $460.00 was sent to your payout account, after Tenthmark’s fee of $40.00.');
+    await expect(page.getByText('when the builder accepts your inspection record').count()).resolves.toBe(0);
+    await page.getByRole('link', { name: 'Invoice with your fee and net payout (PDF)' }).waitFor();
+  });
 });
