@@ -4,6 +4,7 @@ import { authRoutes } from './modules/auth/auth.routes';
 import { bidsRoutes } from './modules/bids/bids.routes';
 import { calculationsRoutes } from './modules/calculations/calculations.routes';
 import { catalogueRoutes } from './modules/catalogue/catalogue.routes';
+import { documentsRoutes } from './modules/documents/documents.routes';
 import { disputesRoutes } from './modules/disputes/disputes.routes';
 import { healthRoutes } from './modules/health/health.routes';
 import { inspectionsRoutes } from './modules/inspections/inspections.routes';
@@ -31,6 +32,7 @@ export const routeModules = {
   jobs: jobsRoutes,
   bids: bidsRoutes,
   payments: paymentsRoutes,
+  documents: documentsRoutes,
   messages: messagesRoutes,
   milestones: milestonesRoutes,
   inspections: inspectionsRoutes,

@@ -144,6 +144,7 @@ export function createApp(deps: AppDeps) {
   mount(routeModules.jobs, { db, appUrl: config.appUrl, storage, hub, uploadLimit, payments: paymentsClient });
   mount(routeModules.bids, { db, appUrl: config.appUrl, hub, platformFeeBps: config.payments.platformFeeBps });
   mount(routeModules.payments, paymentDeps);
+  mount(routeModules.documents, { db, appUrl: config.appUrl });
   mount(routeModules.messages, { db, hub, storage, uploadLimit, rateLimit: messageRateLimit(db, config.rateLimits.messagesPer10s) });
   const workDeps = { ...paymentDeps, reviewWindowMs: config.reviewWindowDays * 24 * 60 * 60_000 };
   mount(routeModules.milestones, { db, hub, storage, uploadLimit });

@@ -25,6 +25,7 @@ export const bidKeys = {
   forJob: (jobId: string) => [...bidKeys.all, 'job', jobId] as const,
   mine: () => [...bidKeys.all, 'mine'] as const,
   detail: (id: string) => [...bidKeys.all, 'detail', id] as const,
+  feeRate: () => [...bidKeys.all, 'fee-rate'] as const,
 };
 
 export const shopKeys = {
@@ -81,7 +82,7 @@ export const reviewKeys = {
 /** A signed-in builder's or shop's own money history across their jobs. */
 export const moneyHistoryKeys = {
   all: ['money-history'] as const,
-  page: (offset: number) => [...moneyHistoryKeys.all, offset] as const,
+  page: (offset: number, period: { from?: string; to?: string } = {}) => [...moneyHistoryKeys.all, period, offset] as const,
 };
 
 /** The admin console: dispute queue and cases, shops, ledger, audit log, fee. */

@@ -71,11 +71,28 @@ export type BidRevision = z.infer<typeof bidRevisionSchema>;
 export const bidWithHistorySchema = z.object({ bid: bidSchema, revisions: z.array(bidRevisionSchema) });
 export type BidWithHistory = z.infer<typeof bidWithHistorySchema>;
 
-/** A bid in its shop's own list, with the title and status of the job it is for. */
-export const shopBidSchema = bidSchema.extend({ jobTitle: z.string(), jobStatus: z.string() });
+/**
+ * A bid in its shop's own list, with the title and status of the job it is
+ * for, what Tenthmark's fee takes from its total and what the shop keeps (at
+ * the rate fixed on the job once accepted, the current rate before), and for
+ * an accepted bid the day it is due: the day the parts arrived (or the award,
+ * before they do) plus the turnaround.
+ */
+export const shopBidSchema = bidSchema.extend({
+  jobTitle: z.string(),
+  jobStatus: z.string(),
+  feeBps: z.number().int(),
+  feeCents: z.number().int(),
+  netCents: z.number().int(),
+  dueOn: z.iso.date().nullable(),
+});
 export type ShopBid = z.infer<typeof shopBidSchema>;
 
 export const bidListAnswerSchema = z.object({ bids: z.array(bidSchema) });
 export const shopBidListAnswerSchema = z.object({ bids: z.array(shopBidSchema) });
 export type BidListAnswer = z.infer<typeof bidListAnswerSchema>;
 export type ShopBidListAnswer = z.infer<typeof shopBidListAnswerSchema>;
+
+/** The platform's fee rate now, in basis points: what a bid accepted today pays (a shop sees it while pricing). */
+export const feeRateSchema = z.object({ feeBps: z.number().int() });
+export type FeeRate = z.infer<typeof feeRateSchema>;

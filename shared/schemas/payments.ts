@@ -49,6 +49,8 @@ export const jobPaymentSchema = z.object({
   status: z.enum(['pending', 'paid', 'failed', 'expired', 'refunded']),
   failureMessage: z.string().nullable(),
   paidAt: z.iso.datetime().nullable(),
+  /** The receipt's number once paid (its PDF: /api/payments/:id/receipt.pdf, for the builder and admins). */
+  receiptNumber: z.string().nullable(),
 });
 
 /** A job's money as its page shows it: the balance, movements still on their way, and its payments. */
@@ -56,6 +58,8 @@ export const moneyViewSchema = z.object({
   balance: jobBalanceSchema,
   pending: z.array(pendingMoveSchema),
   payments: z.array(jobPaymentSchema),
+  /** Tenthmark's fee rate fixed on the job when its bid was accepted (basis points); null before. */
+  feeBps: z.number().int().nullable(),
 });
 export type MoneyView = z.infer<typeof moneyViewSchema>;
 
@@ -90,8 +94,33 @@ export const moneyHistoryRowSchema = z.object({
 });
 export type MoneyHistoryRow = z.infer<typeof moneyHistoryRowSchema>;
 
-export const moneyHistorySchema = z.object({ rows: z.array(moneyHistoryRowSchema), total: z.number().int() });
+/**
+ * A builder's or shop's money over a period: paid in, released to the shop,
+ * the platform's fee, refunded, in the period; held at its end (paid in and
+ * not yet paid out); and for a shop its net, what reached its payout account.
+ */
+export const moneyTotalsSchema = jobBalanceSchema.extend({ net: z.number().int() });
+export type MoneyTotals = z.infer<typeof moneyTotalsSchema>;
+
+/** A line of the money page: on a builder's payment in, its receipt (the payment and the receipt's number), null otherwise. */
+export const moneyPageRowSchema = moneyHistoryRowSchema.extend({ receipt: z.object({ paymentId: z.uuid(), number: z.string() }).nullable() });
+export type MoneyPageRow = z.infer<typeof moneyPageRowSchema>;
+
+export const moneyHistorySchema = z.object({ rows: z.array(moneyPageRowSchema), total: z.number().int(), totals: moneyTotalsSchema });
 export type MoneyHistory = z.infer<typeof moneyHistorySchema>;
 
-/** Which page of the money history: newest first. */
-export const moneyHistoryQuerySchema = z.object({ limit: queryInt('limit', 1, 100).default(25), offset: queryInt('offset', 0, 1_000_000).default(0) });
+/** A period of whole days (UTC), either end open; the last day may not come before the first. */
+const periodFields = {
+  from: z.iso.date({ error: 'Give the first day as a date like 2027-03-31.' }).optional(),
+  to: z.iso.date({ error: 'Give the last day as a date like 2027-03-31.' }).optional(),
+};
+const inOrder = (p: { from?: string; to?: string }) => !p.from || !p.to || p.from <= p.to;
+const outOfOrder = { path: ['to'], message: 'The last day cannot come before the first day.' };
+
+export const moneyPeriodSchema = z.object(periodFields).refine(inOrder, outOfOrder);
+export type MoneyPeriod = z.infer<typeof moneyPeriodSchema>;
+
+/** Which page of the money history, newest first, over which period. */
+export const moneyHistoryQuerySchema = z
+  .object({ limit: queryInt('limit', 1, 100).default(25), offset: queryInt('offset', 0, 1_000_000).default(0), ...periodFields })
+  .refine(inOrder, outOfOrder);

@@ -441,6 +441,7 @@ const matrix: Record<string, Row> = {
   },
   'POST /api/jobs/:jobId/bids': { state: async () => ({ jobId: await w.job() }), body: () => bidInput(), expect: [401, 403, 403, 201, 201, 403] },
   'GET /api/bids/mine': { expect: [401, 403, 403, 200, 200, 403] },
+  'GET /api/bids/fee-rate': { expect: [401, 403, 403, 200, 200, 403] },
   'GET /api/bids/:bidId': {
     once: true,
     state: async () => {
@@ -592,6 +593,19 @@ const matrix: Record<string, Row> = {
     expect: [401, 200, 404, 403, 403, 403],
   },
   'GET /api/me/money': { expect: [401, 200, 200, 200, 200, 403] },
+  'GET /api/me/money.csv': { expect: [401, 200, 200, 200, 200, 403] },
+  // The receipt is the payer's: to the shop it was for, as to everyone else, the payment does not exist.
+  'GET /api/payments/:paymentId/receipt.pdf': {
+    once: true,
+    state: async () => {
+      const job = await w.funded();
+      const [payment] = await db().select({ id: payments.id }).from(payments).where(eq(payments.jobId, job.jobId));
+      return { ...job, paymentId: payment.id };
+    },
+    expect: [401, 200, 404, 404, 404, 200],
+  },
+  'GET /api/jobs/:jobId/invoice.pdf': { once: true, state: () => w.completed(), expect: [401, 200, 403, 200, 403, 200] },
+  'GET /api/bids/:bidId/quote.pdf': { once: true, state: async () => ({ bidId: await w.bid(await w.job()) }), expect: [401, 200, 404, 200, 404, 200] },
   'POST /api/admin/jobs/:jobId/release': { once: true, state: () => w.funded('real'), expect: adminOnly(200) },
   'POST /api/admin/jobs/:jobId/split': { once: true, state: () => w.funded('real'), body: { shopCents: 30_000 }, expect: adminOnly(200) },
 

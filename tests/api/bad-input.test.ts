@@ -102,6 +102,7 @@ beforeAll(async () => {
   const threadPhoto = await upload(builder, `/api/threads/${threadId}/photos`);
   const milestonePhoto = await upload(shop, `/api/jobs/${funded.job.id}/milestone-photos`);
   for (const res of [jobPhoto, threadPhoto, milestonePhoto]) expect(res.status).toBe(201);
+  const jobMoney = await builder.get(`/api/jobs/${funded.job.id}/money`);
 
   Object.assign(realIds, {
     jobId: [funded.job.id, draft.id, open.id, awarded.id],
@@ -110,6 +111,7 @@ beforeAll(async () => {
     threadId: [threadId],
     photoId: [jobPhoto.body.photos[0].id, threadPhoto.body.photos[0].id, milestonePhoto.body.photos[0].id],
     changeOrderId: [order.body.changeOrder.id],
+    paymentId: jobMoney.body.payments.map((p: { id: string }) => p.id),
     userId: [victim.id],
     messageId: [message.body.message.id],
     disputeId: [], // no dispute in the fixture: random ids only

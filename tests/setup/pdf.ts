@@ -2,9 +2,11 @@ import { fileURLToPath } from 'node:url';
 import { expect } from 'vitest';
 import type { signedIn } from './test-env';
 
-/** The text of a version's certificate PDF, downloaded as `who` and read back with pdfjs-dist. */
-export async function certificateText(who: Awaited<ReturnType<typeof signedIn>>, jobId: string, version: number): Promise<string> {
-  const res = await who.agent.get(`/api/jobs/${jobId}/inspection/${version}/certificate.pdf`).buffer(true).parse((r, done) => {
+type Who = Awaited<ReturnType<typeof signedIn>>;
+
+/** A PDF downloaded from `path` as `who` (answered 200 as application/pdf), read back as text with pdfjs-dist. */
+export async function pdfText(who: Who, path: string): Promise<string> {
+  const res = await who.agent.get(path).buffer(true).parse((r, done) => {
     const chunks: Buffer[] = [];
     r.on('data', (c: Buffer) => chunks.push(c));
     r.on('end', () => done(null, Buffer.concat(chunks)));
@@ -21,3 +23,6 @@ export async function certificateText(who: Awaited<ReturnType<typeof signedIn>>,
   }
   return text;
 }
+
+/** The text of a version's certificate PDF, downloaded as `who`. */
+export const certificateText = (who: Who, jobId: string, version: number): Promise<string> => pdfText(who, `/api/jobs/${jobId}/inspection/${version}/certificate.pdf`);

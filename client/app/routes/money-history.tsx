@@ -1,14 +1,16 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import { Link } from 'react-router-dom';
 import { formatCents } from '@shared/catalogue';
-import type { MoneyHistory, MoneyHistoryRow } from '@shared/schemas/payments';
+import { moneyPeriodSchema, type MoneyHistory, type MoneyHistoryRow, type MoneyPeriod, type MoneyTotals } from '@shared/schemas/payments';
 import { PageTitle } from '@client/components/ui/card';
 import { Notice } from '@client/components/ui/notice';
 import { Pager } from '@client/components/ui/pager';
 import { useMe } from '@client/features/auth';
 import { api } from '@client/lib/api-client';
 import { moneyHistoryKeys } from '@client/lib/query-keys';
-import { useSearchParamUpdater } from '@client/lib/search-params';
+import { toSearch, useSearchParamUpdater } from '@client/lib/search-params';
+import { ClearFiltersButton, FilterForm } from '@client/components/ui/filter-form';
+import { TextField } from '@client/components/ui/text-field';
 import { TableHead } from '@client/components/ui/table-head';
 
 const PAGE_SIZE = 25;
@@ -17,12 +19,59 @@ const PAGE_SIZE = 25;
  * The one request this page makes. It lives here rather than in a feature:
  * the history spans every job of the signed-in person and nothing else uses it.
  */
-const moneyHistoryQuery = (offset: number) =>
+const moneyHistoryQuery = (offset: number, period: MoneyPeriod) =>
   queryOptions({
-    queryKey: moneyHistoryKeys.page(offset),
-    queryFn: () => api.get<MoneyHistory>(`/api/me/money?limit=${PAGE_SIZE}&offset=${offset}`),
+    queryKey: moneyHistoryKeys.page(offset, period),
+    queryFn: () => api.get<MoneyHistory>(`/api/me/money${toSearch({ limit: PAGE_SIZE, offset, ...period })}`),
     placeholderData: keepPreviousData,
   });
+
+const PERIOD_KEYS = ['from', 'to'] as const;
+
+/** The period from the address bar, checked with the API's own schema; a period the API would refuse is kept aside with its messages. */
+function readPeriod(params: URLSearchParams): { period: MoneyPeriod; errors: Partial<Record<'from' | 'to', string>> } {
+  const raw = Object.fromEntries(PERIOD_KEYS.flatMap((key) => (params.get(key) ? [[key, params.get(key)]] : [])));
+  const parsed = moneyPeriodSchema.safeParse(raw);
+  if (parsed.success) return { period: parsed.data, errors: {} };
+  return { period: {}, errors: Object.fromEntries(parsed.error.issues.map((issue) => [String(issue.path[0]), issue.message])) };
+}
+
+/** The period's totals, in the reader's words; a shop also sees what it kept. */
+const totalWords: Record<Side, Array<[keyof MoneyTotals, string]>> = {
+  builder: [
+    ['paidIn', 'You paid in'],
+    ['held', 'Held at the end of the period'],
+    ['released', 'Paid to shops'],
+    ['refunded', 'Refunded to you'],
+  ],
+  shop: [
+    ['paidIn', 'Builders paid in'],
+    ['held', 'Held at the end of the period'],
+    ['released', 'Paid to you (net)'],
+    ['fee', 'Tenthmark fee'],
+    ['refunded', 'Refunded to builders'],
+  ],
+};
+
+function MoneyTotalsBox({ totals, side }: { totals: MoneyTotals; side: Side }) {
+  return (
+    <section aria-labelledby="money-totals-heading" className="mb-6 rounded-card bg-paper-raised p-4 shadow-card ring-1 ring-slate-100">
+      <h2 id="money-totals-heading" className="text-base font-bold">
+        Totals for the period
+      </h2>
+      <dl className="mt-3 grid grid-cols-2 gap-4 sm:grid-cols-5">
+        {totalWords[side].map(([key, label]) => (
+          <div key={key}>
+            <dt className="text-sm text-ink-soft">{label}</dt>
+            <dd className="text-lg font-bold tabular-nums" data-testid={`money-total-${key}`}>
+              {formatCents(totals[key])}
+            </dd>
+          </div>
+        ))}
+      </dl>
+    </section>
+  );
+}
 
 type Side = 'builder' | 'shop';
 
@@ -47,15 +96,38 @@ function readPage(params: URLSearchParams): number {
 export function MoneyHistoryRoute() {
   const { data: me } = useMe();
   const side: Side = me?.role === 'shop' ? 'shop' : 'builder';
-  const { params, setPage } = useSearchParamUpdater();
+  const { params, setPage, setFilter, filtered, clearFilters } = useSearchParamUpdater(PERIOD_KEYS);
   const page = readPage(params);
-  const history = useQuery(moneyHistoryQuery((page - 1) * PAGE_SIZE));
-
+  const { period, errors } = readPeriod(params);
+  const valid = Object.keys(errors).length === 0;
+  const history = useQuery({ ...moneyHistoryQuery((page - 1) * PAGE_SIZE, period), enabled: valid });
 
   return (
     <div>
       <PageTitle title="Money" lead={leads[side]} />
-      {history.isPending && <p className="text-ink-soft">Loading your money history …</p>}
+      <FilterForm label="Choose the period" className="grid sm:grid-cols-3">
+        <TextField label="First day" type="date" value={params.get('from') ?? ''} error={errors.from} onChange={(event) => setFilter('from', event.target.value, { replace: true })} />
+        <TextField label="Last day" type="date" value={params.get('to') ?? ''} error={errors.to} onChange={(event) => setFilter('to', event.target.value, { replace: true })} />
+        <ClearFiltersButton filtered={filtered} onClear={clearFilters} />
+      </FilterForm>
+      {valid ? (
+        <div className="mb-4 flex flex-wrap items-center justify-between gap-3">
+          <p className="text-sm text-ink-soft">Days run midnight to midnight, UTC. The download holds every entry of the period and its totals, not only this page.</p>
+          <a
+            href={`/api/me/money.csv${toSearch(period)}`}
+            download
+            className="inline-flex min-h-11 items-center rounded-lg bg-paper-raised px-4 py-2 font-semibold text-slate-800 ring-1 ring-inset ring-slate-300 hover:bg-slate-50"
+          >
+            Download CSV
+          </a>
+        </div>
+      ) : (
+        <Notice tone="caution" title="Fix the marked day to see your money">
+          The entries show again once the period reads from a first day to a last day on or after it.
+        </Notice>
+      )}
+      {history.data && <MoneyTotalsBox totals={history.data.totals} side={side} />}
+      {valid && history.isPending && <p className="text-ink-soft">Loading your money history …</p>}
       {history.isError && (
         <Notice tone="error" title="Your money history could not be loaded">
           {history.error.message}
@@ -63,7 +135,7 @@ export function MoneyHistoryRoute() {
       )}
       {history.data && history.data.total === 0 && (
         <div className="rounded-card bg-paper-raised p-8 text-center ring-1 ring-slate-100">
-          <p className="text-lg font-bold">No money has moved yet</p>
+          <p className="text-lg font-bold">{filtered ? 'No money moved in this period' : 'No money has moved yet'}</p>
           <p className="mt-1 text-ink-soft">
             {side === 'builder'
               ? 'Payments appear here once you pay for a job whose bid you accepted.'
@@ -97,7 +169,14 @@ export function MoneyHistoryRoute() {
                           {row.jobTitle || 'Untitled job'}
                         </Link>
                       </td>
-                      <td className="py-3 pr-4">{kindWords[side][row.kind]}</td>
+                      <td className="py-3 pr-4">
+                        {kindWords[side][row.kind]}
+                        {row.receipt && (
+                          <a href={`/api/payments/${row.receipt.paymentId}/receipt.pdf`} download className="block text-sm font-semibold text-slate-700 underline underline-offset-4">
+                            Receipt {row.receipt.number} (PDF)
+                          </a>
+                        )}
+                      </td>
                       <td className="py-3 text-right font-semibold tabular-nums">{formatCents(row.amountCents)}</td>
                     </tr>
                   ))}

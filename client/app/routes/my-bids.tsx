@@ -1,5 +1,6 @@
 import { Link } from 'react-router-dom';
 import { formatCents } from '@shared/catalogue';
+import { feeRateWords } from '@shared/money';
 import { PageTitle } from '@client/components/ui/card';
 import { Notice } from '@client/components/ui/notice';
 import { useMyBids, BidStatusBadge, days, formatMoment } from '@client/features/bids';
@@ -16,6 +17,9 @@ const jobStatusWords: Record<string, string> = {
   resolved: 'resolved',
   cancelled: 'cancelled',
 };
+
+/** A due day (a calendar date, UTC) as people read it. */
+const dueWords = new Intl.DateTimeFormat('en-US', { dateStyle: 'medium', timeZone: 'UTC' });
 
 export function MyBidsRoute() {
   const bids = useMyBids();
@@ -42,8 +46,8 @@ export function MyBidsRoute() {
       )}
       {bids.data && bids.data.length > 0 && (
         <div role="region" aria-label="Your bids" tabIndex={0} className="relative overflow-x-auto rounded-card bg-paper-raised px-4 shadow-card ring-1 ring-slate-100">
-          <table className="w-full min-w-[40rem] text-left text-sm">
-            <TableHead columns={['Job', 'Status', { label: 'Total', align: 'right' }, 'Turnaround', 'Updated']} />
+          <table className="w-full min-w-[52rem] text-left text-sm">
+            <TableHead columns={['Job', 'Status', { label: 'Total', align: 'right' }, { label: 'You receive', align: 'right' }, 'Turnaround', 'Updated', 'Quote']} />
             <tbody>
               {bids.data.map((bid) => (
                 <tr key={bid.id} className="border-b border-slate-100 align-top">
@@ -58,8 +62,26 @@ export function MyBidsRoute() {
                     {bid.version > 1 && <span className="block pt-1 text-ink-soft">version {bid.version}</span>}
                   </td>
                   <td className="py-3 pr-4 text-right font-semibold tabular-nums">{formatCents(bid.totalCents)}</td>
-                  <td className="py-3 pr-4">{days(bid.turnaroundDays)}</td>
-                  <td className="py-3">{formatMoment(bid.updatedAt)}</td>
+                  <td className="py-3 pr-4 text-right tabular-nums" data-testid="my-bid-net">
+                    <span className="font-semibold">{formatCents(bid.netCents)}</span>
+                    <span className="block text-ink-soft">
+                      after {formatCents(bid.feeCents)} fee ({feeRateWords(bid.feeBps)})
+                    </span>
+                  </td>
+                  <td className="py-3 pr-4">
+                    {days(bid.turnaroundDays)}
+                    {bid.dueOn && (
+                      <span className="block font-semibold" data-testid="my-bid-due">
+                        Due {dueWords.format(new Date(`${bid.dueOn}T00:00:00Z`))}
+                      </span>
+                    )}
+                  </td>
+                  <td className="py-3 pr-4">{formatMoment(bid.updatedAt)}</td>
+                  <td className="py-3">
+                    <a href={`/api/bids/${bid.id}/quote.pdf`} download className="font-semibold text-slate-700 underline underline-offset-4">
+                      Quote PDF
+                    </a>
+                  </td>
                 </tr>
               ))}
             </tbody>

@@ -1,5 +1,5 @@
 import { sql } from 'drizzle-orm';
-import { bigserial, check, index, integer, jsonb, pgEnum, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core';
+import { bigserial, check, index, integer, jsonb, pgEnum, pgSequence, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core';
 import { mustReference, stampedNow, timestamps, uuidPrimaryKey } from './columns';
 import { bids, jobIdColumn, jobs } from './jobs';
 import { shops } from './shops';
@@ -33,6 +33,10 @@ export const changeOrders = pgTable(
   (t) => [index('change_orders_job_idx').on(t.jobId), check('change_orders_amount_check', sql`${t.amountCents} > 0`)],
 );
 
+/** Receipt and invoice numbers: sequential, never reused (a number taken by a transaction that rolled back leaves a gap). */
+export const receiptNumbers = pgSequence('receipt_numbers');
+export const invoiceNumbers = pgSequence('invoice_numbers');
+
 /** One Checkout Session: the bid total, or a change order. */
 export const payments = pgTable(
   'payments',
@@ -51,10 +55,13 @@ export const payments = pgTable(
     chargeId: text(),
     failureMessage: text(),
     paidAt: timestamp({ withTimezone: true }),
+    /** The receipt's number (R-2026-000123), given once, in the transaction that records the payment as paid. */
+    receiptNumber: text(),
     ...timestamps,
   },
   (t) => [
     index('payments_job_idx').on(t.jobId),
+    uniqueIndex('payments_receipt_number_idx').on(t.receiptNumber),
     uniqueIndex('payments_session_idx').on(t.checkoutSessionId),
     check('payments_amount_check', sql`${t.amountCents} > 0`),
   ],
@@ -120,4 +127,13 @@ export const paymentEvents = pgTable('payment_events', {
   payload: jsonb().notNull(),
   receivedAt: stampedNow(),
   appliedAt: timestamp({ withTimezone: true }),
+});
+
+/** The shop's invoice to the builder for a finished job: its number, given once, the first time it is asked for. */
+export const invoices = pgTable('invoices', {
+  jobId: uuid()
+    .primaryKey()
+    .references(() => jobs.id),
+  number: text().notNull().unique('invoices_number_key'),
+  issuedAt: stampedNow(),
 });

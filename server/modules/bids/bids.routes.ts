@@ -1,8 +1,8 @@
-import { bidInputSchema, bidListAnswerSchema, bidParamsSchema, bidWithHistorySchema, declineBidSchema, shopBidListAnswerSchema } from '../../../shared/schemas/bids';
+import { bidInputSchema, bidListAnswerSchema, bidParamsSchema, bidWithHistorySchema, declineBidSchema, feeRateSchema, shopBidListAnswerSchema } from '../../../shared/schemas/bids';
 import { jobParamsSchema } from '../../../shared/schemas/jobs';
 import type { User } from '../../db/schema';
 import { routesFor } from '../../lib/http/routes';
-import { acceptBid, bidsForJob, bidsOfShop, bidWithHistory, createBid, declineBid, reviseBid, withdrawBid, type BidDeps } from './bids.service';
+import { acceptBid, bidsForJob, bidsOfShop, bidWithHistory, createBid, declineBid, feeRateNow, reviseBid, withdrawBid, type BidDeps } from './bids.service';
 
 /** The bid once a change to it is done, as the person who made the change now sees it. */
 const answerBid = async (deps: BidDeps, user: User, bidId: string, change: Promise<void>) => {
@@ -40,6 +40,14 @@ export const bidsRoutes = [
     access: 'shop',
     reply: { json: shopBidListAnswerSchema },
     handler: async ({ deps, user }) => ({ bids: await bidsOfShop(deps, user) }),
+  }),
+  route({
+    method: 'get',
+    path: '/api/bids/fee-rate',
+    summary: 'Tenthmark’s fee rate now, for a shop working out what it keeps of a bid',
+    access: 'shop',
+    reply: { json: feeRateSchema },
+    handler: ({ deps }) => feeRateNow(deps),
   }),
   route({
     method: 'get',

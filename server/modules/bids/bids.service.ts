@@ -1,8 +1,9 @@
 import { and, asc, desc, eq, inArray, ne, or, sql } from 'drizzle-orm';
 import { lineAmountCents } from '../../../shared/catalogue';
-import type { Bid, BidInput, BidLine, BidRevision } from '../../../shared/schemas/bids';
+import { netOf } from '../../../shared/money';
+import type { Bid, BidInput, BidLine, BidRevision, ShopBid } from '../../../shared/schemas/bids';
 import type { Database, Executor } from '../../db/client';
-import { bidLineItems, bidRevisions, bids, jobs, shops, users, type User } from '../../db/schema';
+import { bidLineItems, bidRevisions, bids, jobs, milestones, shops, users, type User } from '../../db/schema';
 import { assertEmailConfirmed } from '../../lib/auth/guards';
 import { AppError, conflict, notFound } from '../../lib/errors';
 import { enqueueMail } from '../../lib/mail/outbox';
@@ -334,14 +335,42 @@ export async function bidWithHistory(deps: BidDeps, user: User, bidId: string): 
   };
 }
 
-export async function bidsOfShop(deps: BidDeps, user: User): Promise<Array<Bid & { jobTitle: string; jobStatus: string }>> {
+/** The platform's fee rate a bid accepted now would be charged. */
+export async function feeRateNow(deps: BidDeps): Promise<{ feeBps: number }> {
+  const { feeBps } = await currentFee(deps.db, deps.platformFeeBps ?? 0);
+  return { feeBps };
+}
+
+const DAY_MS = 24 * 60 * 60_000;
+
+export async function bidsOfShop(deps: BidDeps, user: User): Promise<ShopBid[]> {
   const shop = await findShopByUser(deps.db, user.id);
   if (!shop) return [];
   const rows = await deps.db.select().from(bids).where(eq(bids.shopId, shop.id)).orderBy(desc(bids.updatedAt));
   const presented = await present(deps.db, rows);
-  const titles = rows.length
-    ? await deps.db.select({ id: jobs.id, title: jobs.title, status: jobs.status }).from(jobs).where(inArray(jobs.id, rows.map((r) => r.jobId)))
-    : [];
-  const byId = new Map(titles.map((t) => [t.id, t]));
-  return presented.map((b) => ({ ...b, jobTitle: byId.get(b.jobId)?.title ?? '', jobStatus: byId.get(b.jobId)?.status ?? '' }));
+  const jobIds = rows.map((r) => r.jobId);
+  const [jobRows, received, { feeBps: rateNow }] = await Promise.all([
+    jobIds.length ? deps.db.select({ id: jobs.id, title: jobs.title, status: jobs.status, feeBps: jobs.feeBps }).from(jobs).where(inArray(jobs.id, jobIds)) : [],
+    jobIds.length
+      ? deps.db
+          .select({ jobId: milestones.jobId, at: sql<Date>`min(${milestones.createdAt})`.mapWith(milestones.createdAt) })
+          .from(milestones)
+          .where(and(inArray(milestones.jobId, jobIds), eq(milestones.kind, 'block_received')))
+          .groupBy(milestones.jobId)
+      : [],
+    feeRateNow(deps),
+  ]);
+  const byId = new Map(jobRows.map((t) => [t.id, t]));
+  const receivedOn = new Map(received.map((r) => [r.jobId, r.at]));
+  const rowById = new Map(rows.map((r) => [r.id, r]));
+  return presented.map((b) => {
+    const job = byId.get(b.jobId);
+    const accepted = b.status === 'accepted';
+    // An accepted bid pays the rate fixed on its job; any other would pay today's.
+    const feeBps = accepted ? (job?.feeBps ?? rateNow) : rateNow;
+    // Due: the turnaround counted from the parts' arrival, or from the award until they arrive (as the disputes' agreed finish date).
+    const start = receivedOn.get(b.jobId) ?? rowById.get(b.id)?.decidedAt;
+    const dueOn = accepted && start ? new Date(start.getTime() + b.turnaroundDays * DAY_MS).toISOString().slice(0, 10) : null;
+    return { ...b, jobTitle: job?.title ?? '', jobStatus: job?.status ?? '', feeBps, ...netOf(b.totalCents, feeBps), dueOn };
+  });
 }

@@ -1,27 +1,9 @@
-import { readFileSync } from 'node:fs';
-import { createRequire } from 'node:module';
-import PDFDocument from 'pdfkit';
 import { checkFigures } from '../../../shared/calc/check-figures';
 import { figureAgainstLimit, lengthDecimals } from '../../../shared/calc/figures';
 import { INSPECTION_STATUS_WORDS, SECTION_VERDICT_WORDS, checkValueText, figureText, methodLines, resultHeadline, sectionParts } from '../../../shared/inspection-words';
 import type { InspectionInput, InspectionResults, InspectionVersion } from '../../../shared/schemas/inspection';
 import type { JobInput } from '../../../shared/schemas/jobs';
-
-/**
- * Manrope, the product's typeface, embedded in the PDF. The web font package
- * (@fontsource/manrope) ships it cut into subsets whose Latin part has no ≤
- * or ≥, so the PDF uses the same Manrope (version 4.504) uncut, as TrueType
- * files from @expo-google-fonts/manrope: ≤, ±, µ, ° and − all print as text.
- */
-const require = createRequire(import.meta.url);
-let fonts: { regular: Buffer; bold: Buffer } | undefined;
-function manrope() {
-  fonts ??= {
-    regular: readFileSync(require.resolve('@expo-google-fonts/manrope/400Regular/Manrope_400Regular.ttf')),
-    bold: readFileSync(require.resolve('@expo-google-fonts/manrope/700Bold/Manrope_700Bold.ttf')),
-  };
-  return fonts;
-}
+import { stamp, startDocument } from '../../lib/pdf/document';
 
 export interface CertificateData {
   jobTitle: string;
@@ -61,24 +43,10 @@ export function certificatePdf(data: CertificateData): Promise<Buffer> {
   const unit = input.conditions.unit;
   const decimals = lengthDecimals(unit, input.conditions.gaugeResolution);
   const len = (value: number) => value.toFixed(decimals);
-  const font = manrope();
-  const doc = new PDFDocument({ size: 'A4', margin: 48, info: { Title: `Inspection record: ${data.jobTitle}`, Author: data.shopName, Creator: 'Tenthmark' } });
-  const chunks: Buffer[] = [];
-  doc.registerFont('Body', font.regular);
-  doc.registerFont('Body-Bold', font.bold);
-  doc.on('data', (chunk: Buffer) => chunks.push(chunk));
-  const done = new Promise<Buffer>((resolve, reject) => {
-    doc.on('end', () => resolve(Buffer.concat(chunks)));
-    doc.on('error', reject);
-  });
-
-  const heading = (text: string) => doc.moveDown(0.8).font('Body-Bold').fontSize(12).fillColor('#1d4e6b').text(text).fillColor('#16232d').font('Body').fontSize(9.5);
-  const line = (text: string) => doc.text(text);
-
-  doc.font('Body-Bold').fontSize(18).fillColor('#1d4e6b').text('Tenthmark inspection record');
-  doc.font('Body').fontSize(10).fillColor('#16232d');
+  const printed = startDocument({ title: `Inspection record: ${data.jobTitle}`, author: data.shopName, heading: 'Tenthmark inspection record' });
+  const { doc, heading, line } = printed;
   line(`${data.jobTitle} — ${data.engineFamily}`);
-  line(`Job number ${data.jobId} · version ${data.version} · submitted ${data.submittedAt.toISOString().slice(0, 16).replace('T', ' ')} UTC`);
+  line(`Job number ${data.jobId} · version ${data.version} · submitted ${stamp(data.submittedAt)}`);
   line(`Status: ${INSPECTION_STATUS_WORDS[data.status] ?? data.status}`);
   line(`Builder: ${data.builderName} · Shop: ${[data.shopName, data.shopPlace].filter(Boolean).join(', ')}`);
   doc.moveDown(0.5).font('Body-Bold').fontSize(11).text(`Result: ${resultHeadline(results, data.spec, unit).text}`).font('Body').fontSize(9.5);
@@ -154,7 +122,6 @@ export function certificatePdf(data: CertificateData): Promise<Buffer> {
   heading('Sign-off');
   line(`Measured and signed by ${input.signedOffBy} for ${data.shopName}.`);
   if (input.notes) line(`Notes: ${input.notes}`);
-  doc.moveDown(1).fontSize(8.5).fillColor('#5d6b75').text(GUIDANCE);
-  doc.end();
-  return done;
+  printed.footnote(GUIDANCE);
+  return printed.finish();
 }

@@ -38,7 +38,5 @@ export async function jobBalance(db: Executor, jobId: string): Promise<JobBalanc
   return { ...row, held };
 }
 
-/** Platform fee on an amount, in whole cents, rounded half up. */
-export function feeFor(amountCents: number, feeBps: number): number {
-  return Math.floor((amountCents * feeBps + 5_000) / 10_000);
-}
+/** The fee rule lives in shared/money.ts, so the shop's pages show the same fee the release takes. */
+export { feeFor } from '../../../shared/money';

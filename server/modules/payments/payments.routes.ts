@@ -8,12 +8,14 @@ import {
   changeOrderInputSchema,
   changeOrderListSchema,
   moneyHistoryQuerySchema,
+  moneyPeriodSchema,
   moneyHistorySchema,
   moneyViewSchema,
   providerLinkSchema,
   splitSchema,
   webhookReceiptSchema,
 } from '../../../shared/schemas/payments';
+import { sendDownload } from '../../lib/http/download';
 import { routesFor } from '../../lib/http/routes';
 import { AppError } from '../../lib/errors';
 import { approveChangeOrder, changeOrdersFor, declineChangeOrder, proposeChangeOrder } from './change-orders.service';
@@ -27,7 +29,7 @@ import {
   startPayoutOnboarding,
   type PaymentDeps,
 } from './payments.service';
-import { moneyHistory } from './money-history';
+import { moneyCsv, moneyHistory } from './money-history';
 
 const orderParams = z.object({ changeOrderId: uuidSchema });
 
@@ -145,6 +147,20 @@ export const paymentsRoutes = [
     query: moneyHistoryQuerySchema,
     reply: { json: moneyHistorySchema },
     handler: ({ deps, user, query }) => moneyHistory(deps.db, user, query),
+  }),
+  route({
+    method: 'get',
+    path: '/api/me/money.csv',
+    summary: 'The money history over a period as CSV, with a line per total',
+    access: 'builder or shop',
+    query: moneyPeriodSchema,
+    reply: { file: 'text/csv', description: 'The period’s ledger rows, oldest first, then the totals' },
+    handler: async ({ deps, user, query, res }) =>
+      sendDownload(res, {
+        type: 'text/csv; charset=utf-8',
+        filename: `tenthmark-money-${query.from ?? 'start'}-to-${query.to ?? new Date().toISOString().slice(0, 10)}.csv`,
+        body: await moneyCsv(deps.db, user, query),
+      }),
   }),
   // Hand release and split for support cases outside a dispute (disputes are decided in the disputes module). Both are audited in the money's transaction.
   route({

@@ -14,6 +14,7 @@ import { findJob } from '../jobs/jobs.repository';
 import { findShopByUser } from '../shops/shops.repository';
 import { recordAdminAction } from '../admin/audit';
 import { Notices } from '../notifications/notify';
+import { receiptNumberOnPaid } from './document-numbers';
 import { appendLedger, feeFor, jobBalance } from './ledger';
 import { closeOpenCheckouts, expireCheckoutSession, expireOpenCheckouts, scheduleCheckoutExpiry } from './open-checkouts';
 
@@ -208,7 +209,7 @@ export async function applyCheckoutSession(deps: PaymentDeps, sessionId: string)
     }
     await tx
       .update(payments)
-      .set({ status: 'paid', paidAt: new Date(), paymentIntentId: intent.id, chargeId: charge.id, checkoutSessionId: session.id, failureMessage: null })
+      .set({ status: 'paid', paidAt: new Date(), paymentIntentId: intent.id, chargeId: charge.id, checkoutSessionId: session.id, failureMessage: null, receiptNumber: receiptNumberOnPaid() })
       .where(eq(payments.id, payment.id));
     // Another page made for the same payment is no longer wanted.
     if (payment.checkoutSessionId && payment.checkoutSessionId !== session.id) await scheduleCheckoutExpiry(tx, jobId, payment.checkoutSessionId);
@@ -497,15 +498,17 @@ export async function cancelFundedJob(deps: PaymentDeps, user: User, jobId: stri
 
 /** The job's money as the page shows it: balance and whether a payout or refund is still on its way. */
 export async function moneyView(db: Executor, jobId: string) {
-  const [balance, moves, paymentRows] = await Promise.all([
+  const [balance, moves, paymentRows, [job]] = await Promise.all([
     jobBalance(db, jobId),
     db.select().from(moneyMoves).where(eq(moneyMoves.jobId, jobId)),
     db.select().from(payments).where(eq(payments.jobId, jobId)).orderBy(asc(payments.createdAt)),
+    db.select({ feeBps: jobs.feeBps }).from(jobs).where(eq(jobs.id, jobId)),
   ]);
   return {
+    feeBps: job?.feeBps ?? null,
     balance,
     pending: moves.filter((m) => m.status === 'pending').map((m) => ({ kind: m.kind, amountCents: m.amountCents, attempts: m.attempts, lastError: m.lastError })),
-    payments: paymentRows.map((p) => ({ id: p.id, kind: p.kind, amountCents: p.amountCents, status: p.status, failureMessage: p.failureMessage, paidAt: p.paidAt?.toISOString() ?? null })),
+    payments: paymentRows.map((p) => ({ id: p.id, kind: p.kind, amountCents: p.amountCents, status: p.status, failureMessage: p.failureMessage, paidAt: p.paidAt?.toISOString() ?? null, receiptNumber: p.receiptNumber })),
   };
 }
 

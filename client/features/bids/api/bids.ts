@@ -1,5 +1,5 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { BidInput, BidListAnswer, BidWithHistory, ShopBid, ShopBidListAnswer } from '@shared/schemas/bids';
+import type { BidInput, BidListAnswer, BidWithHistory, FeeRate, ShopBid, ShopBidListAnswer } from '@shared/schemas/bids';
 import { api } from '@client/lib/api-client';
 import { type MutationConfig, useApiMutation } from '@client/lib/mutation';
 import { bidKeys, jobChangeKeys } from '@client/lib/query-keys';
@@ -10,10 +10,13 @@ export const bidQueries = {
   forJob: (jobId: string) => queryOptions({ queryKey: bidKeys.forJob(jobId), queryFn: () => api.get<BidListAnswer>(`/api/jobs/${jobId}/bids`).then((r) => r.bids) }),
   mine: () => queryOptions({ queryKey: bidKeys.mine(), queryFn: () => api.get<ShopBidListAnswer>('/api/bids/mine').then((r) => r.bids) }),
   detail: (id: string) => queryOptions({ queryKey: bidKeys.detail(id), queryFn: () => api.get<BidWithHistory>(`/api/bids/${id}`) }),
+  /** Tenthmark's fee rate now: what a bid accepted today pays. */
+  feeRate: () => queryOptions({ queryKey: bidKeys.feeRate(), queryFn: () => api.get<FeeRate>('/api/bids/fee-rate').then((r) => r.feeBps), staleTime: 5 * 60_000 }),
 };
 
 export const useJobBids = (jobId: string) => useQuery(bidQueries.forJob(jobId));
 export const useMyBids = () => useQuery(bidQueries.mine());
+export const useFeeRate = () => useQuery(bidQueries.feeRate());
 export const useBid = (id: string | null | undefined) => useQuery({ ...bidQueries.detail(id ?? ''), enabled: Boolean(id) });
 
 type Config<TVars> = MutationConfig<BidWithHistory, TVars>;

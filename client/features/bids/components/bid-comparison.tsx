@@ -11,6 +11,7 @@ import { TextAreaField } from '@client/components/ui/text-area-field';
 import { cn } from '@client/lib/cn';
 import { formatDay, todayIso } from '@client/lib/dates';
 import { useAcceptBid, useDeclineBid, useJobBids } from '../api/bids';
+import { QuoteLink } from './bid-summary';
 
 export interface BidComparisonProps {
   jobId: string;
@@ -137,6 +138,7 @@ function BidTableRows({ bid, highlights, actions }: RowProps) {
             <div>
               <h4 className="text-sm font-bold text-ink">Note from the shop</h4>
               <p className="mt-1 whitespace-pre-wrap text-sm text-ink">{bid.note || 'No note.'}</p>
+              <QuoteLink bidId={bid.id} from={bid.shop.name} />
             </div>
           </div>
         </td>
@@ -170,6 +172,7 @@ function BidCard({ bid, highlights, actions }: RowProps) {
         </summary>
         <div className="px-3 pb-3">
           <LineItems bid={bid} />
+          <QuoteLink bidId={bid.id} from={bid.shop.name} />
         </div>
       </details>
       <div className="mt-auto flex flex-wrap gap-2">{actions}</div>

@@ -3,6 +3,7 @@ import { useFieldArray, useForm, useWatch, type Control, type Path } from 'react
 import { findOperation, formatCents, lineAmountCents, prefillBidLines, type OperationCode, type PricedPer } from '@shared/catalogue';
 import { bidInputSchema, type Bid, type BidInput } from '@shared/schemas/bids';
 import type { JobDetail } from '@shared/schemas/jobs';
+import { feeRateWords, netOf } from '@shared/money';
 import { Button } from '@client/components/ui/button';
 import { Notice } from '@client/components/ui/notice';
 import { TextAreaField } from '@client/components/ui/text-area-field';
@@ -10,6 +11,7 @@ import { TextField } from '@client/components/ui/text-field';
 import { applyServerErrors } from '@client/lib/form-errors';
 import { centsToDollars, dollarsFormResolver, parseDollars, tidyDollars, withFormPaths, type PreparedInput } from '@client/lib/money';
 import { cn } from '@client/lib/cn';
+import { useFeeRate } from '../api/bids';
 
 export interface BidLineFields {
   operation?: OperationCode;
@@ -102,6 +104,29 @@ function LineAmount({ control, index }: { control: Control<BidFormFields, unknow
   return <span className="tabular-nums">{cents === null ? '—' : formatCents(cents)}</span>;
 }
 
+/** What Tenthmark's fee takes from the total at today's rate and what the shop keeps, by the rule the payout uses. */
+function FeeAndNet({ totalCents }: { totalCents: number }) {
+  const rate = useFeeRate();
+  if (rate.data === undefined) return null;
+  const { feeCents, netCents } = netOf(totalCents, rate.data);
+  return (
+    <dl className="flex flex-col items-end text-sm" aria-live="polite">
+      <div className="flex gap-2">
+        <dt className="text-ink-soft">Tenthmark’s fee ({feeRateWords(rate.data)})</dt>
+        <dd className="tabular-nums" data-testid="bid-fee">
+          {formatCents(feeCents)}
+        </dd>
+      </div>
+      <div className="flex gap-2">
+        <dt className="font-semibold">You receive</dt>
+        <dd className="font-semibold tabular-nums" data-testid="bid-net">
+          {formatCents(netCents)}
+        </dd>
+      </div>
+    </dl>
+  );
+}
+
 function RunningTotal({ control }: { control: Control<BidFormFields, unknown, BidInput> }) {
   const lines = useWatch({ control, name: 'lineItems' }) ?? [];
   const amounts = lines.map(lineCents);
@@ -120,9 +145,10 @@ function RunningTotal({ control }: { control: Control<BidFormFields, unknown, Bi
           {unread === 1 ? 'One line is' : `${unread} lines are`} not counted until its quantity and price can be read.
         </p>
       )}
+      <FeeAndNet totalCents={total} />
       <p className="text-right text-sm text-ink-soft">
         Worked out here as you type. Tenthmark adds up the lines again in whole cents when you send the bid; that total is the one the
-        builder sees.
+        builder sees and pays. The fee comes out of it at today’s rate, which is fixed on the job when the builder accepts.
       </p>
     </div>
   );

@@ -51,3 +51,12 @@ export function BidLinesTable({ lines, totalCents, caption }: { lines: BidLine[]
     </div>
   );
 }
+
+/** The bid as the shop's quote, a PDF to keep or print (the bid's shop, the job's builder and admins). */
+export function QuoteLink({ bidId, from }: { bidId: string; from?: string }) {
+  return (
+    <a href={`/api/bids/${bidId}/quote.pdf`} download className="inline-flex min-h-9 items-center text-sm font-semibold text-slate-700 underline underline-offset-4 hover:text-slate-900">
+      Quote PDF{from && <span className="sr-only"> from {from}</span>}
+    </a>
+  );
+}

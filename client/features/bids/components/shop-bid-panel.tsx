@@ -13,7 +13,7 @@ import { ConfirmEmailNotice, useNeedsEmailConfirmation } from '@client/features/
 import { useOwnShop } from '@client/features/shops';
 import { useBid, useJobBids, usePlaceBid, useReviseBid, useWithdrawBid } from '../api/bids';
 import { BidForm, localDate, newBidValues, revisedBidValues } from './bid-form';
-import { BidLinesTable, BidStatusBadge, days, formatMoment } from './bid-summary';
+import { BidLinesTable, BidStatusBadge, days, formatMoment, QuoteLink } from './bid-summary';
 
 function Panel({ children, title }: { children: ReactNode; title: string }) {
   const headingId = useId();
@@ -118,6 +118,7 @@ function ActiveBid({ bidId, job }: { bidId: string; job: JobDetail }) {
             <Button variant="secondary" onClick={() => setConfirming(true)}>
               Withdraw bid
             </Button>
+            <QuoteLink bidId={bid.id} />
           </div>
         </>
       )}

@@ -5,8 +5,9 @@ import { useSearchParams } from 'react-router-dom';
 import { toast } from 'sonner';
 import { z } from 'zod';
 import { formatCents } from '@shared/catalogue';
+import { feeRateWords, netOf } from '@shared/money';
 import type { JobDetail } from '@shared/schemas/jobs';
-import type { ChangeOrder } from '@shared/schemas/payments';
+import type { ChangeOrder, MoneyView } from '@shared/schemas/payments';
 import { Button } from '@client/components/ui/button';
 import { Card } from '@client/components/ui/card';
 import { ConfirmDialog } from '@client/components/ui/modal-dialog';
@@ -96,7 +97,12 @@ function BuilderMoney({ job, acceptedTotalCents }: { job: JobDetail; acceptedTot
           )}
         </div>
       )}
-      {(PAID_STATES.has(job.status) || job.status === 'cancelled') && money.data && <Balance money={money.data} />}
+      {(PAID_STATES.has(job.status) || job.status === 'cancelled') && money.data && (
+        <>
+          <Balance money={money.data} side="builder" />
+          <Documents job={job} money={money.data} side="builder" />
+        </>
+      )}
       {job.status === 'funded' && (
         <>
           <p className="mt-3 text-sm text-ink-soft">{HELD_WORDS}</p>
@@ -121,7 +127,47 @@ function BuilderMoney({ job, acceptedTotalCents }: { job: JobDetail; acceptedTot
   );
 }
 
-function Balance({ money }: { money: NonNullable<ReturnType<typeof useMoney>['data']> }) {
+/** A download link to one of the job's documents (receipt, invoice). */
+function DocumentLink({ href, children }: { href: string; children: React.ReactNode }) {
+  return (
+    <a href={href} download className="font-semibold text-slate-700 underline underline-offset-4 hover:text-slate-900">
+      {children}
+    </a>
+  );
+}
+
+/** The invoice is issued once the job is completed, or a dispute ended with money to the shop. */
+const invoiceReady = (job: JobDetail, money: MoneyView) => job.status === 'completed' || (job.status === 'resolved' && money.balance.released + money.balance.fee > 0);
+
+/** The builder's receipts (one per payment made) and, once the job is finished, the shop's invoice. */
+function Documents({ job, money, side }: { job: JobDetail; money: MoneyView; side: 'builder' | 'shop' }) {
+  const receipts = side === 'builder' ? money.payments.filter((p) => p.status === 'paid' && p.receiptNumber) : [];
+  const invoice = invoiceReady(job, money);
+  if (receipts.length === 0 && !invoice) return null;
+  return (
+    <section className="mt-4" aria-labelledby="money-documents-heading">
+      <h3 id="money-documents-heading" className="text-base font-bold">
+        Documents
+      </h3>
+      <ul className="mt-1 flex flex-col gap-1 text-sm">
+        {receipts.map((p) => (
+          <li key={p.id}>
+            <DocumentLink href={`/api/payments/${p.id}/receipt.pdf`}>
+              Receipt {p.receiptNumber} ({p.kind === 'bid' ? 'the accepted bid' : 'extra work'}, {formatCents(p.amountCents)}, PDF)
+            </DocumentLink>
+          </li>
+        ))}
+        {invoice && (
+          <li>
+            <DocumentLink href={`/api/jobs/${job.id}/invoice.pdf`}>{side === 'shop' ? 'Invoice with your fee and net payout (PDF)' : 'The shop’s invoice (PDF)'}</DocumentLink>
+          </li>
+        )}
+      </ul>
+    </section>
+  );
+}
+
+function Balance({ money, side }: { money: MoneyView; side: 'builder' | 'shop' }) {
   const { balance, pending } = money;
   const late = money.payments.filter((p) => p.status === 'refunded');
   const lateOnItsWay = pending.some((p) => p.kind === 'late_refund');
@@ -130,7 +176,7 @@ function Balance({ money }: { money: NonNullable<ReturnType<typeof useMoney>['da
       <dl>
         <Row label="Paid in" value={formatCents(balance.paidIn)} testId="money-paid" />
         <Row label="Held now" value={formatCents(balance.held)} testId="money-held" />
-        {balance.released > 0 && <Row label="Paid to the shop" value={formatCents(balance.released)} testId="money-released" />}
+        {balance.released > 0 && <Row label={side === 'shop' ? 'Paid to you' : 'Paid to the shop'} value={formatCents(balance.released)} testId="money-released" />}
         {balance.fee > 0 && <Row label="Tenthmark’s fee" value={formatCents(balance.fee)} />}
         {balance.refunded > 0 && <Row label="Refunded" value={formatCents(balance.refunded)} testId="money-refunded" />}
       </dl>
@@ -244,19 +290,46 @@ export function ProposeChangeOrder({ jobId, description = '', intro }: { jobId: 
   );
 }
 
-/** The awarded shop: whether the builder has paid, what is held for it, and extra work. */
-function ShopMoney({ job }: { job: JobDetail }) {
-  const money = useMoney(job.id, { enabled: PAID_STATES.has(job.status) });
+/**
+ * What the shop keeps: the amount the builder pays (or paid), Tenthmark's fee
+ * at the rate fixed on the job, and the net, by the same rule the release uses.
+ */
+function ShopNet({ amountCents, feeBps, released }: { amountCents: number; feeBps: number; released: boolean }) {
+  const { feeCents, netCents } = netOf(amountCents, feeBps);
+  return (
+    <dl className="mt-3" aria-label="What you keep">
+      <Row label={released ? 'The builder paid' : 'The builder pays'} value={formatCents(amountCents)} />
+      <Row label={`Tenthmark’s fee (${feeRateWords(feeBps)})`} value={formatCents(feeCents)} testId="shop-fee" />
+      <Row label={released ? 'Your payout' : 'You receive'} value={formatCents(netCents)} testId="shop-net" />
+    </dl>
+  );
+}
+
+/** The awarded shop: whether the builder has paid, what it keeps after the fee, whether the money was released, its invoice, and extra work. */
+function ShopMoney({ job, acceptedTotalCents }: { job: JobDetail; acceptedTotalCents?: number }) {
+  const money = useMoney(job.id);
+  const data = money.data;
+  const paidCents = data?.payments.filter((p) => p.status === 'paid').reduce((sum, p) => sum + p.amountCents, 0) ?? 0;
+  const released = !!data && data.balance.released + data.balance.fee > 0 && data.balance.held === 0;
+  const amountCents = paidCents > 0 ? paidCents : acceptedTotalCents;
   return (
     <Card>
       <h2 className="text-xl font-bold">Payment</h2>
       {job.status === 'awarded' && <Notice className="mt-3">Waiting for the builder’s payment. Start once it shows as held here.</Notice>}
-      {money.data && <Balance money={money.data} />}
-      {PAID_STATES.has(job.status) && (
-        <p className="mt-3 text-sm text-ink-soft">
-          The payment is held by Tenthmark and goes to your payout account, less Tenthmark’s fee, when the builder accepts your inspection record.
-        </p>
-      )}
+      {data && amountCents !== undefined && data.feeBps !== null && !released && <ShopNet amountCents={amountCents} feeBps={data.feeBps} released={false} />}
+      {data && PAID_STATES.has(job.status) && <Balance money={data} side="shop" />}
+      {PAID_STATES.has(job.status) &&
+        (released ? (
+          <p className="mt-3 text-sm" data-testid="shop-released">
+            Released: {formatCents(data.balance.released)} was sent to your payout account, after Tenthmark’s fee of {formatCents(data.balance.fee)}.
+          </p>
+        ) : data?.pending.some((p) => p.kind === 'release') ? null : (
+          <p className="mt-3 text-sm text-ink-soft">
+            Tenthmark holds the builder’s payment while you work. When the builder accepts your inspection record (or the review window closes), it is sent to your payout
+            account, less Tenthmark’s fee.
+          </p>
+        ))}
+      {data && <Documents job={job} money={data} side="shop" />}
       <ChangeOrders job={job} side="shop" />
     </Card>
   );
@@ -267,6 +340,6 @@ export function JobMoneyPanel({ job, isAwardedShop, acceptedTotalCents }: { job:
   if (job.viewer.isOwner && (job.status === 'awarded' || job.status === 'cancelled' || PAID_STATES.has(job.status))) {
     return <BuilderMoney job={job} acceptedTotalCents={acceptedTotalCents} />;
   }
-  if (isAwardedShop && (job.status === 'awarded' || PAID_STATES.has(job.status))) return <ShopMoney job={job} />;
+  if (isAwardedShop && (job.status === 'awarded' || PAID_STATES.has(job.status))) return <ShopMoney job={job} acceptedTotalCents={acceptedTotalCents} />;
   return null;
 }
