@@ -4,6 +4,7 @@ export { authKeys, authQueries } from './api/auth-keys';
 export { useCompleteGithub, useConfirmPasswordReset, useRequestPasswordReset, useSignOut, useVerifyEmail } from './api/auth-mutations';
 export { useMe } from './api/use-me';
 export { ChangePasswordForm } from './components/change-password-form';
+export { ConsentField } from './components/consent-field';
 export { ConfirmEmailNotice, useNeedsEmailConfirmation } from './components/confirm-email-notice';
 export { GithubButton } from './components/github-button';
 export { NewPasswordFields } from './components/new-password-fields';
