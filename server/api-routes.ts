@@ -1,4 +1,5 @@
 import type { RouteDef } from './lib/http/routes';
+import { accountRoutes } from './modules/account/account.routes';
 import { adminRoutes } from './modules/admin/admin.routes';
 import { authRoutes } from './modules/auth/auth.routes';
 import { bidsRoutes } from './modules/bids/bids.routes';
@@ -26,6 +27,7 @@ export const routeModules = {
   health: healthRoutes,
   paymentsWebhook: paymentsWebhookRoutes,
   auth: authRoutes,
+  account: accountRoutes,
   calculations: calculationsRoutes,
   catalogue: catalogueRoutes,
   shops: shopsRoutes,

@@ -135,6 +135,7 @@ export function createApp(deps: AppDeps) {
     hub,
   });
 
+  mount(routeModules.account, { db, appUrl: config.appUrl, hub, sessionCookieName: SESSION_COOKIE, rateLimits: config.rateLimits });
   mount(routeModules.calculations, { db, perMinute: config.rateLimits.calculationsPerMinute });
   mount(routeModules.catalogue, {});
   const storage = deps.storage ?? new LocalDiskStorage(config.uploadsDir);

@@ -26,6 +26,7 @@ export const navigationByRole: Record<Me['role'] | 'anonymous', NavItem[]> = {
     { to: '/', label: 'How it works' },
     { to: '/shops', label: 'Shops' },
     { to: '/calculator', label: 'Calculator' },
+    { to: '/help', label: 'Help' },
   ],
   builder: [
     { to: '/dashboard', label: 'Workbench' },
@@ -111,8 +112,8 @@ function Account({ me }: { me: Me }) {
       <span className="hidden text-sm text-ink-soft sm:inline" data-testid="signed-in-as">
         {me.displayName} · <span className="capitalize">{me.role}</span>
       </span>
-      <NavLink to="/account" className={navClass}>
-        Account
+      <NavLink to="/settings" className={navClass}>
+        Settings
       </NavLink>
       <button
         type="button"
@@ -180,10 +181,23 @@ export function Layout() {
           <Outlet />
         </main>
         <footer className="border-t border-slate-200 bg-paper-sunk print:hidden">
-          <p className="mx-auto max-w-page px-4 py-4 text-sm text-ink-soft">
-            Tenthmark · figures shown are guidance; engine and piston makers' specifications, calibrated instruments, local codes and
-            licensed practice govern machine work.
-          </p>
+          <div className="mx-auto flex max-w-page flex-col gap-2 px-4 py-4 text-sm text-ink-soft">
+            <nav aria-label="About Tenthmark" className="flex flex-wrap gap-4">
+              <NavLink to="/help" className="font-semibold text-slate-800 underline">
+                Help
+              </NavLink>
+              <NavLink to="/terms" className="font-semibold text-slate-800 underline">
+                Terms of use
+              </NavLink>
+              <NavLink to="/privacy" className="font-semibold text-slate-800 underline">
+                Privacy
+              </NavLink>
+            </nav>
+            <p>
+              Tenthmark · figures shown are guidance; engine and piston makers' specifications, calibrated instruments, local codes and
+              licensed practice govern machine work.
+            </p>
+          </div>
         </footer>
       </div>
     </RealtimeProvider>

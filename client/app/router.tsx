@@ -1,4 +1,4 @@
-import { createBrowserRouter, Outlet } from 'react-router-dom';
+import { createBrowserRouter, Navigate, Outlet } from 'react-router-dom';
 import { GuestOnly, RequireRole } from './guards';
 import { Layout } from './layout';
 import { RouteError } from './routes/route-error';
@@ -29,6 +29,10 @@ export const router = createBrowserRouter([
           { path: '/forgot-password', lazy: () => import('./routes/forgot-password').then((m) => ({ Component: m.ForgotPasswordRoute })) },
           { path: '/reset-password', lazy: () => import('./routes/reset-password').then((m) => ({ Component: m.ResetPasswordRoute })) },
           { path: '/verify-email', lazy: () => import('./routes/verify-email').then((m) => ({ Component: m.VerifyEmailRoute })) },
+          { path: '/confirm-new-email', lazy: () => import('./routes/confirm-new-email').then((m) => ({ Component: m.ConfirmNewEmailRoute })) },
+          { path: '/help', lazy: () => import('./routes/help').then((m) => ({ Component: m.HelpRoute })) },
+          { path: '/terms', lazy: () => import('./routes/terms').then((m) => ({ Component: m.TermsRoute })) },
+          { path: '/privacy', lazy: () => import('./routes/privacy').then((m) => ({ Component: m.PrivacyRoute })) },
           { path: '/welcome/github', lazy: () => import('./routes/github-welcome').then((m) => ({ Component: m.GithubWelcomeRoute })) },
           {
             element: <RequireRole roles={['admin']}><Outlet /></RequireRole>,
@@ -56,7 +60,9 @@ export const router = createBrowserRouter([
             element: <RequireRole><Outlet /></RequireRole>,
             children: [
               { path: '/dashboard', lazy: () => import('./routes/dashboard').then((m) => ({ Component: m.DashboardRoute })) },
-              { path: '/account', lazy: () => import('./routes/account').then((m) => ({ Component: m.AccountRoute })) },
+              { path: '/settings', lazy: () => import('./routes/settings').then((m) => ({ Component: m.SettingsRoute })) },
+              // The settings page was called "account" before.
+              { path: '/account', element: <Navigate to="/settings" replace /> },
               { path: '/notifications', lazy: () => import('./routes/notifications').then((m) => ({ Component: m.NotificationsRoute })) },
               {
                 path: '/settings/notifications',

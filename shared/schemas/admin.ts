@@ -68,7 +68,7 @@ export type AuditQuery = z.infer<typeof auditQuerySchema>;
 
 // --- answers ------------------------------------------------------------------
 
-const accountStatusSchema = z.enum(['active', 'suspended']);
+const accountStatusSchema = z.enum(['active', 'suspended', 'closed']);
 const pageTotal = z.number().int();
 
 /** An account as the console lists it (never its password hash). */

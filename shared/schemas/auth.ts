@@ -5,7 +5,7 @@ export const selfServiceRoles = ['builder', 'shop'] as const;
 export const roles = ['builder', 'shop', 'admin'] as const;
 export type Role = (typeof roles)[number];
 
-const email = z
+export const emailSchema = z
   .string({ error: 'Enter your e-mail address.' })
   .trim()
   .min(1, 'Enter your e-mail address.')
@@ -19,38 +19,48 @@ export const newPasswordSchema = z
 
 const role = z.enum(selfServiceRoles, { error: 'Choose whether you build engines or run a machine shop.' });
 
+/** Consent to the terms and the privacy notice: a new account needs the box ticked (the version accepted is stored with the time). */
+export const acceptTermsSchema = z.literal(true, { error: 'Tick the box to accept the terms and the privacy notice.' });
+
 export const signUpSchema = z.object({
   displayName: z
     .string({ error: 'Enter your name or your business name.' })
     .trim()
     .min(1, 'Enter your name or your business name.')
     .max(80, 'Use at most 80 characters.'),
-  email,
+  email: emailSchema,
   password: newPasswordSchema,
   role,
+  acceptTerms: acceptTermsSchema,
 });
 export type SignUpInput = z.infer<typeof signUpSchema>;
 
 export const signInSchema = z.object({
-  email,
+  email: emailSchema,
   password: z.string({ error: 'Enter your password.' }).min(1, 'Enter your password.').max(200, 'That password is too long.'),
 });
 export type SignInInput = z.infer<typeof signInSchema>;
 
-export const passwordResetRequestSchema = z.object({ email });
+export const passwordResetRequestSchema = z.object({ email: emailSchema });
 export type PasswordResetRequestInput = z.infer<typeof passwordResetRequestSchema>;
 
-const token = z.string({ error: 'The link is incomplete.' }).regex(/^[A-Za-z0-9_-]{20,100}$/, 'The link is incomplete or damaged.');
+export const tokenSchema = z.string({ error: 'The link is incomplete.' }).regex(/^[A-Za-z0-9_-]{20,100}$/, 'The link is incomplete or damaged.');
 
-export const passwordResetConfirmSchema = z.object({ token, password: newPasswordSchema });
+export const passwordResetConfirmSchema = z.object({ token: tokenSchema, password: newPasswordSchema });
 export type PasswordResetConfirmInput = z.infer<typeof passwordResetConfirmSchema>;
 
-export const verifyEmailSchema = z.object({ token });
+export const verifyEmailSchema = z.object({ token: tokenSchema });
+
+/** The current password, proving it is the person themselves before a change to the account. */
+export const currentPasswordSchema = z
+  .string({ error: 'Enter your current password.' })
+  .min(1, 'Enter your current password.')
+  .max(200, 'That password is too long.');
 
 /** A signed-in person changing their password: the current one proves it is them. */
 export const changePasswordSchema = z
   .object({
-    currentPassword: z.string({ error: 'Enter your current password.' }).min(1, 'Enter your current password.').max(200, 'That password is too long.'),
+    currentPassword: currentPasswordSchema,
     newPassword: newPasswordSchema,
   })
   .refine((value) => value.newPassword !== value.currentPassword, {
@@ -59,7 +69,7 @@ export const changePasswordSchema = z
   });
 export type ChangePasswordInput = z.infer<typeof changePasswordSchema>;
 
-export const githubCompleteSchema = z.object({ role });
+export const githubCompleteSchema = z.object({ role, acceptTerms: acceptTermsSchema });
 export type GithubCompleteInput = z.infer<typeof githubCompleteSchema>;
 
 /** The signed-in person as the API shows them to themselves. */
@@ -71,6 +81,8 @@ export const meSchema = z.object({
   emailVerified: z.boolean(),
   hasPassword: z.boolean(),
   githubLinked: z.boolean(),
+  /** An address the person asked to move to, waiting for its link to be followed. */
+  pendingEmail: z.string().nullable(),
 });
 export type Me = z.infer<typeof meSchema>;
 

@@ -67,7 +67,7 @@ describe('TRUST_PROXY', () => {
     const trusting = appWith({ TRUST_PROXY: 'loopback', RATE_LIMIT_SIGNUP_MAX: '2' });
     const [a, b] = [nextAddress(), nextAddress()];
     const signUp = async (app: App, from: string) =>
-      postFrom(await agentFor(app), '/api/auth/signup', from, { displayName: 'Proxy Tester', email: uniqueEmail('proxy'), password: 'long enough password', role: 'builder' });
+      postFrom(await agentFor(app), '/api/auth/signup', from, { displayName: 'Proxy Tester', email: uniqueEmail('proxy'), password: 'long enough password', role: 'builder', acceptTerms: true });
     expect((await signUp(trusting, a)).status).toBe(201);
     expect((await signUp(trusting, a)).status).toBe(201);
     expect((await signUp(trusting, a)).status).toBe(429);

@@ -25,6 +25,7 @@ describe('sign-up', () => {
       email,
       password: 'a long enough password',
       role: 'builder',
+      acceptTerms: true,
     });
     expect(res.status).toBe(201);
     expect(res.body.user).toMatchObject({ email, role: 'builder', emailVerified: false, hasPassword: true });
@@ -48,6 +49,7 @@ describe('sign-up', () => {
       email: existing.email.toUpperCase(),
       password: 'another long password',
       role: 'shop',
+      acceptTerms: true,
     });
     expect(res.status).toBe(409);
     expect(res.body.error.code).toBe('email_taken');
@@ -59,7 +61,7 @@ describe('sign-up', () => {
     const res = await client.post('/api/auth/signup', { email: 'not-an-address', password: 'short', role: 'admin' });
     expect(res.status).toBe(400);
     expect(res.body.error.code).toBe('invalid_input');
-    expect(Object.keys(res.body.error.fields).sort()).toEqual(['displayName', 'email', 'password', 'role']);
+    expect(Object.keys(res.body.error.fields).sort()).toEqual(['acceptTerms', 'displayName', 'email', 'password', 'role']);
     expect(res.body.error.fields.password).toBe('Use at least 10 characters.');
   });
 
@@ -70,6 +72,7 @@ describe('sign-up', () => {
       email: uniqueEmail(),
       password: 'a long enough password',
       role: 'admin',
+      acceptTerms: true,
     });
     expect(res.status).toBe(400);
     expect(res.body.error.fields.role).toBeDefined();
@@ -190,7 +193,7 @@ describe('sessions and CSRF', () => {
     const client = await agentFor(ctx.app);
     const res = await client.agent
       .post('/api/auth/signup')
-      .send({ displayName: 'No Token', email, password: 'a long enough password', role: 'builder' });
+      .send({ displayName: 'No Token', email, password: 'a long enough password', role: 'builder', acceptTerms: true });
     expect(res.status).toBe(403);
     expect(res.body.error.code).toBe('csrf_failed');
     const rows = await ctx.db.select().from(users).where(eq(users.email, email));

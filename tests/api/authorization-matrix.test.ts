@@ -274,7 +274,7 @@ const matrix: Record<string, Row> = {
   'GET /api/auth/me': { expect: [401, 200, 200, 200, 200, 200] },
   'POST /api/auth/signup': {
     fresh: true,
-    body: () => ({ displayName: 'New Person', email: uniqueEmail('signup'), password: 'a long enough password', role: 'builder' }),
+    body: () => ({ displayName: 'New Person', email: uniqueEmail('signup'), password: 'a long enough password', role: 'builder', acceptTerms: true }),
     expect: all(201),
   },
   'POST /api/auth/login': {
@@ -316,6 +316,29 @@ const matrix: Record<string, Row> = {
     body: { currentPassword: 'not the password at all', newPassword: 'another long password' },
     expect: [401, 400, 400, 400, 400, 400],
   },
+  // --- the signed-in person's own account ---------------------------------------
+  'POST /api/me/email': {
+    // Only asks: the address changes when the link is followed, so the caller's account stays as the other rows need it.
+    body: (_p, turn) => ({ newEmail: uniqueEmail('moving'), currentPassword: turn.user?.password ?? 'not signed in' }),
+    expect: [401, 202, 202, 202, 202, 202],
+  },
+  'POST /api/me/email/confirm': {
+    state: async () => {
+      const someone = await w.stranger({ pendingEmail: uniqueEmail('moved') });
+      return { token: await issueToken(db(), someone.id, 'change_email', 60 * 60_000) };
+    },
+    body: (p) => ({ token: p.token }),
+    expect: all(200),
+  },
+  'GET /api/me/export': { expect: [401, 200, 200, 200, 200, 200] },
+  'GET /api/me/export.csv': { expect: [401, 200, 200, 200, 200, 200] },
+  'GET /api/me/deletion': { expect: [401, 200, 200, 200, 200, 200] },
+  'POST /api/me/delete': {
+    // A wrong current password is refused whoever asks (an admin's account is never closed from its settings); a right one
+    // would close the caller's account, which the other rows use: tests/api/account-settings.test.ts deletes for real.
+    body: { currentPassword: 'not the password at all' },
+    expect: [401, 400, 400, 400, 400, 400],
+  },
   'GET /api/auth/github': { serial: 'github', expect: all(302) },
   'GET /api/auth/github/callback': {
     serial: 'github',
@@ -331,7 +354,7 @@ const matrix: Record<string, Row> = {
   'POST /api/auth/github/complete': {
     fresh: true,
     state: async (turn) => (await w.githubPending(turn.client!), {}),
-    body: { role: 'shop' },
+    body: { role: 'shop', acceptTerms: true },
     expect: all(201),
   },
 

@@ -99,7 +99,7 @@ describe('e-mail verification', () => {
   it('when the link from the sign-up mail is followed, then the address is confirmed once', async () => {
     const client = await agentFor(ctx.app);
     const email = uniqueEmail('verify');
-    await client.post('/api/auth/signup', { displayName: 'Vera Lintwhistle', email, password: 'a long enough password', role: 'shop' });
+    await client.post('/api/auth/signup', { displayName: 'Vera Lintwhistle', email, password: 'a long enough password', role: 'shop', acceptTerms: true });
     expect((await client.get('/api/auth/me')).body.user.emailVerified).toBe(false);
 
     const token = await tokenFromLatestMail(email, 'verify_email');
@@ -115,7 +115,7 @@ describe('e-mail verification', () => {
   it('when a signed-in person asks again, then a new link is queued; once confirmed, asking again is a 409', async () => {
     const client = await agentFor(ctx.app);
     const email = uniqueEmail('resend');
-    await client.post('/api/auth/signup', { displayName: 'Otis Farrowby', email, password: 'a long enough password', role: 'builder' });
+    await client.post('/api/auth/signup', { displayName: 'Otis Farrowby', email, password: 'a long enough password', role: 'builder', acceptTerms: true });
     expect((await client.post('/api/auth/verify-email/resend')).status).toBe(202);
     const mails = await ctx.db.select().from(mailOutbox).where(eq(mailOutbox.toAddress, email));
     expect(mails.filter((m) => m.template === 'verify_email')).toHaveLength(2);

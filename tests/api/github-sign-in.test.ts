@@ -55,7 +55,7 @@ describe('GitHub sign-in through the local stand-in', () => {
     const badRole = await client.post('/api/auth/github/complete', { role: 'admin' });
     expect(badRole.status).toBe(400);
 
-    const done = await client.post('/api/auth/github/complete', { role: 'shop' });
+    const done = await client.post('/api/auth/github/complete', { role: 'shop', acceptTerms: true });
     expect(done.status).toBe(201);
     expect(done.body.user).toMatchObject({ email: identity.email, role: 'shop', emailVerified: true, githubLinked: true, hasPassword: false });
     const me = await client.get('/api/auth/me').expect(200);
@@ -74,7 +74,7 @@ describe('GitHub sign-in through the local stand-in', () => {
     const identity = newIdentity();
     const client = await agentFor(ctx.app);
     await roundTrip(client, identity);
-    await client.post('/api/auth/github/complete', { role: 'builder' });
+    await client.post('/api/auth/github/complete', { role: 'builder', acceptTerms: true });
     await client.post('/api/auth/logout');
     const again = await agentFor(ctx.app);
     const res = await roundTrip(again, identity, '//evil.example/steal');
@@ -100,7 +100,7 @@ describe('GitHub sign-in through the local stand-in', () => {
 
   it('when nobody started a GitHub sign-in, then completing one is a 404', async () => {
     const client = await agentFor(ctx.app);
-    const res = await client.post('/api/auth/github/complete', { role: 'builder' });
+    const res = await client.post('/api/auth/github/complete', { role: 'builder', acceptTerms: true });
     expect(res.status).toBe(404);
   });
 });

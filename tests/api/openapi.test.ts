@@ -36,7 +36,7 @@ describe('GET /api/openapi.json', () => {
     const res = await supertest(ctx.app).get('/api/openapi.json');
     const signup = res.body.paths['/api/auth/signup'].post;
     const schema = signup.requestBody.content['application/json'].schema;
-    expect(schema.required.sort()).toEqual(['displayName', 'email', 'password', 'role']);
+    expect(schema.required.sort()).toEqual(['acceptTerms', 'displayName', 'email', 'password', 'role']);
     expect(schema.properties.role.enum).toEqual(['builder', 'shop']);
     expect(schema.properties.password.minLength).toBe(10);
 

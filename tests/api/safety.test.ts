@@ -206,7 +206,7 @@ describe('redirects and links only go to our own paths', () => {
     const login = `gh-safety-${tag()}`;
     const first = await agentFor(ctx.app);
     await githubRoundTrip(first, login, '');
-    expect((await first.post('/api/auth/github/complete', { role: 'builder' })).status).toBe(201);
+    expect((await first.post('/api/auth/github/complete', { role: 'builder', acceptTerms: true })).status).toBe(201);
 
     const queries = [
       ...evilTargets.map((target) => `returnTo=${encodeURIComponent(target)}`),
@@ -501,7 +501,7 @@ describe('rate limits', () => {
       windowSeconds: 60 * 60,
       setup: async () => async () => {
         const client = await agentFor(ctx.app);
-        return client.post('/api/auth/signup', { displayName: 'Rate Limited', email: uniqueEmail('signup'), password: 'long enough password', role: 'builder' });
+        return client.post('/api/auth/signup', { displayName: 'Rate Limited', email: uniqueEmail('signup'), password: 'long enough password', role: 'builder', acceptTerms: true });
       },
     },
     {

@@ -1,11 +1,9 @@
 import { desc, eq, inArray } from 'drizzle-orm';
 import supertest from 'supertest';
-import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { changeOrders, jobs, mailOutbox, users } from '../../server/db/schema';
-import { createOutboxWorker } from '../../server/lib/mail/outbox';
-import { createTransport } from '../../server/lib/mail/transport';
 import { bidInput, createJob, createShop, createUser, inDays, jobInput, uniqueEmail } from '../factories';
-import { confirmationLink } from '../setup/mail-links';
+import { confirmationLink, deliverQueuedMail } from '../setup/mail-links';
 import { agentFor, setupTestApp, signedIn, type TestContext } from '../setup/test-env';
 
 let ctx: TestContext;
@@ -16,15 +14,6 @@ afterAll(async () => {
   await ctx?.close();
 });
 
-/** Sends the queued mail over SMTP into maildev (this app runs no mail worker of its own). */
-async function deliverQueuedMail() {
-  const transport = createTransport({ host: '127.0.0.1', port: inject('smtpPort'), secure: false });
-  try {
-    await createOutboxWorker({ db: ctx.db, transport, from: 'Tenthmark <no-reply@tenthmark.test>' }).processDue();
-  } finally {
-    transport.close();
-  }
-}
 
 const expectUnconfirmed = (res: supertest.Response) => {
   expect(res.status).toBe(403);
@@ -37,7 +26,7 @@ describe('a confirmed e-mail address before anyone relies on you', () => {
   it('when a builder who signed up has not confirmed, then publishing is refused; after following the mailed link it works', async () => {
     const client = await agentFor(ctx.app);
     const email = uniqueEmail('unconfirmed-builder');
-    expect((await client.post('/api/auth/signup', { displayName: 'Ansel Quirkwood', email, password: 'a long enough password', role: 'builder' })).status).toBe(201);
+    expect((await client.post('/api/auth/signup', { displayName: 'Ansel Quirkwood', email, password: 'a long enough password', role: 'builder', acceptTerms: true })).status).toBe(201);
     const draft = await client.post('/api/jobs', jobInput({ title: 'Unconfirmed builder block' }));
     expect(draft.status).toBe(201); // a draft is the builder's own business
 
@@ -46,7 +35,7 @@ describe('a confirmed e-mail address before anyone relies on you', () => {
     const [job] = await ctx.db.select().from(jobs).where(eq(jobs.id, draft.body.job.id));
     expect(job.status).toBe('draft');
 
-    await deliverQueuedMail();
+    await deliverQueuedMail(ctx.db);
     const { token } = await confirmationLink(email);
     expect((await client.post('/api/auth/verify-email', { token })).status).toBe(200);
 

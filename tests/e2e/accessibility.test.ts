@@ -142,6 +142,9 @@ describe('accessibility (WCAG 2.1 A and AA) of every main page, in a real browse
       '/shops',
       `/shops/${shops[0].id}`,
       '/calculator',
+      '/help',
+      '/terms',
+      '/privacy',
     ]);
     expect(problems, report(problems)).toEqual([]);
   }, AUDIT_TIMEOUT_MS);
@@ -176,8 +179,8 @@ describe('accessibility (WCAG 2.1 A and AA) of every main page, in a real browse
       `/jobs/${open.id}`,
       '/messages',
       '/money',
-      '/account',
-      { path: '/account', then: sentEmpty('Change password'), label: '/account (sent empty)' },
+      '/settings',
+      { path: '/settings', then: sentEmpty('Change password'), label: '/settings (sent empty)' },
       '/notifications',
       '/settings/notifications',
     ]);

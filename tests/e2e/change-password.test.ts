@@ -6,7 +6,7 @@ const suite = browserSuite();
 const builder = demoAccounts.find((a) => a.email === 'teodor@builders.test')!;
 
 describe('changing the password in the browser', () => {
-  it('when the signed-in person changes it on the Account page, then a wrong current password is marked beside its field, and on success the other devices are signed out at once', async () => {
+  it('when the signed-in person changes it on the Settings page, then a wrong current password is marked beside its field, and on success the other devices are signed out at once', async () => {
     const otherDevice = await suite.apiAs(builder.email);
     expect(await otherDevice<{ user: { email: string } }>('GET', '/api/auth/me')).toMatchObject({ user: { email: builder.email } });
     // Another browser, open on the dashboard with its live connection up.
@@ -14,8 +14,8 @@ describe('changing the password in the browser', () => {
     await expect.poll(() => otherBrowser.getByTestId('signed-in-as').isVisible()).toBe(true);
 
     const page = await suite.pageFor(builder.email, '/dashboard');
-    await page.getByRole('link', { name: 'Account' }).click();
-    await page.waitForURL(suite.url('/account'));
+    await page.getByRole('link', { name: 'Settings' }).click();
+    await page.waitForURL(suite.url('/settings'));
     const form = page.getByRole('form', { name: 'Change password' });
 
     await form.getByLabel('Current password').fill('not my password at all');

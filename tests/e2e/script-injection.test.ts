@@ -34,7 +34,7 @@ async function signUp(role: 'builder' | 'shop', displayName: string): Promise<st
   signUps.push(session);
   const { csrfToken } = await (await session.get('/api/auth/csrf')).json();
   const email = uniqueEmail(`inject-${role}`);
-  const res = await session.post('/api/auth/signup', { data: { displayName, email, password: DEMO_PASSWORD, role }, headers: { 'X-CSRF-Token': csrfToken } });
+  const res = await session.post('/api/auth/signup', { data: { displayName, email, password: DEMO_PASSWORD, role, acceptTerms: true }, headers: { 'X-CSRF-Token': csrfToken } });
   if (res.status() !== 201) throw new Error(`sign-up answered ${res.status()}: ${await res.text()}`);
   // Publishing and bidding need a confirmed address: follow the link from the real sign-up mail.
   const confirmed = await session.post('/api/auth/verify-email', {

@@ -90,7 +90,7 @@ describe('a shop in a real browser', () => {
     const signUp = await fetch(url('/api/auth/signup'), {
       method: 'POST',
       headers: { 'Content-Type': 'application/json', Cookie: csrf.headers.getSetCookie()[0].split(';')[0], 'X-CSRF-Token': (await csrf.json()).csrfToken },
-      body: JSON.stringify({ displayName: 'Lantern Hill Machine Works', email: newShop.email, password: DEMO_PASSWORD, role: 'shop' }),
+      body: JSON.stringify({ displayName: 'Lantern Hill Machine Works', email: newShop.email, password: DEMO_PASSWORD, role: 'shop', acceptTerms: true }),
     });
     expect(signUp.status).toBe(201);
     await signIn(newShop, '/board');

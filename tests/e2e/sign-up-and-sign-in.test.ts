@@ -35,6 +35,7 @@ describe('in a real browser', () => {
     await page.getByLabel('Your name or business name').fill('Harrow Lane Cylinder Works');
     await page.getByLabel('E-mail').fill(email);
     await page.getByLabel('Password').fill('shop floor password');
+    await page.getByLabel('I accept the terms of use and the privacy notice').check();
     await page.getByRole('button', { name: 'Create my account' }).click();
 
     await page.waitForURL(url('/dashboard'));
@@ -60,6 +61,7 @@ describe('in a real browser', () => {
     await page.getByLabel('Your name or business name').fill('Corwen Thistlebank');
     await page.getByLabel('E-mail').fill(email);
     await page.getByLabel('Password').fill('engine bench password');
+    await page.getByLabel('I accept the terms of use and the privacy notice').check();
     await page.getByRole('button', { name: 'Create my account' }).click();
     await page.waitForURL(url('/dashboard'));
 

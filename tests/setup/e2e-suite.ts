@@ -52,7 +52,7 @@ export function browserSuite(options: BrowserSuiteOptions = {}) {
     let client: ApiClient;
     if (typeof account === 'object' && 'signUp' in account) {
       client = await agentFor(app.server.url);
-      const res = await client.post('/api/auth/signup', { ...account.signUp, password: 'a long enough test password' });
+      const res = await client.post('/api/auth/signup', { ...account.signUp, password: 'a long enough test password', acceptTerms: true });
       if (res.status >= 300) throw new Error(`could not sign up: ${res.status} ${JSON.stringify(res.body)}`);
       // Bidding needs a confirmed address: follow the link from the real sign-up mail.
       const confirmed = await client.post('/api/auth/verify-email', { token: (await confirmationLink(account.signUp.email)).token });

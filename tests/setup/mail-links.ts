@@ -1,4 +1,7 @@
 import { inject } from 'vitest';
+import type { Database } from '../../server/db/client';
+import { createOutboxWorker } from '../../server/lib/mail/outbox';
+import { createTransport } from '../../server/lib/mail/transport';
 
 export const CONFIRM_SUBJECT = 'Confirm your e-mail address for Tenthmark';
 
@@ -30,4 +33,14 @@ export async function confirmationLink(to: string): Promise<{ path: string; toke
   const match = /https?:\/\/\S+?(\/verify-email\?token=([\w-]+))/.exec(mail.text);
   if (!match) throw new Error(`the confirmation mail to ${to} has no link`);
   return { path: match[1], token: match[2] };
+}
+
+/** Sends the queued mail over SMTP into maildev, for an app that runs no mail worker of its own. */
+export async function deliverQueuedMail(db: Database) {
+  const transport = createTransport({ host: '127.0.0.1', port: inject('smtpPort'), secure: false });
+  try {
+    await createOutboxWorker({ db, transport, from: 'Tenthmark <no-reply@tenthmark.test>' }).processDue();
+  } finally {
+    transport.close();
+  }
 }

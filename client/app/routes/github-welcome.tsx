@@ -7,7 +7,7 @@ import { githubCompleteSchema, type GithubCompleteInput } from '@shared/schemas/
 import { Button } from '@client/components/ui/button';
 import { Card, PageTitle } from '@client/components/ui/card';
 import { Notice } from '@client/components/ui/notice';
-import { authQueries, useCompleteGithub, RolePicker } from '@client/features/auth';
+import { authQueries, ConsentField, useCompleteGithub, RolePicker } from '@client/features/auth';
 import { applyServerErrors } from '@client/lib/form-errors';
 
 /** A first GitHub sign-in: the person chooses builder or shop before the account exists. */
@@ -19,7 +19,7 @@ export function GithubWelcomeRoute() {
   const complete = useCompleteGithub({ mutationConfig: { onSuccess: () => navigate('/dashboard', { replace: true }) } });
   const onSubmit = form.handleSubmit((values) => {
     setFormError(undefined);
-    complete.mutate(values, { onError: (error) => setFormError(applyServerErrors(error, form.setError, ['role'])) });
+    complete.mutate(values, { onError: (error) => setFormError(applyServerErrors(error, form.setError, ['role', 'acceptTerms'])) });
   });
 
   return (
@@ -40,6 +40,7 @@ export function GithubWelcomeRoute() {
             </p>
             {formError && <Notice tone="error">{formError}</Notice>}
             <RolePicker error={form.formState.errors.role?.message} {...form.register('role')} />
+            <ConsentField error={form.formState.errors.acceptTerms?.message} {...form.register('acceptTerms')} />
             <Button type="submit" busy={complete.isPending}>
               Create my account
             </Button>

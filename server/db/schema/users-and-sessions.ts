@@ -5,8 +5,9 @@ import { mustReference, stampedNow, timestamps, uuidPrimaryKey } from './columns
 // People and their ways in: accounts, single-use e-mail links and signed-in sessions.
 
 export const userRole = pgEnum('user_role', ['builder', 'shop', 'admin']);
-export const userStatus = pgEnum('user_status', ['active', 'suspended']);
-export const tokenPurpose = pgEnum('token_purpose', ['verify_email', 'reset_password']);
+/** closed: the person deleted their account; what identified them is gone and it can never sign in again. */
+export const userStatus = pgEnum('user_status', ['active', 'suspended', 'closed']);
+export const tokenPurpose = pgEnum('token_purpose', ['verify_email', 'reset_password', 'change_email']);
 
 export const users = pgTable(
   'users',
@@ -19,6 +20,13 @@ export const users = pgTable(
     passwordHash: text(),
     githubId: text(),
     emailVerifiedAt: timestamp({ withTimezone: true }),
+    /** The address a change of e-mail waits to move to until the link mailed there is followed. */
+    pendingEmail: text(),
+    /** When the person accepted the terms and privacy notice, and which version (shared/legal.ts); null for accounts made before consent was asked, or by an admin. */
+    termsAcceptedAt: timestamp({ withTimezone: true }),
+    termsVersion: text(),
+    /** When the person deleted the account (status closed). */
+    closedAt: timestamp({ withTimezone: true }),
     ...timestamps,
   },
   (t) => [

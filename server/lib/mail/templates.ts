@@ -86,6 +86,45 @@ export function passwordChangedMail(input: { displayName: string }): RenderedMai
   });
 }
 
+/** Sent to the new address: the change happens only when this link is followed. */
+export function confirmNewEmailMail(input: { displayName: string; url: string; hours: number }): RenderedMail {
+  return render({
+    template: 'confirm_new_email',
+    subject: 'Confirm your new e-mail address for Tenthmark',
+    greeting: `Hello ${input.displayName},`,
+    paragraphs: ['You asked to move your Tenthmark account to this e-mail address. It changes once you confirm here; until then your old address stays in use.'],
+    action: { label: 'Use this address', url: input.url },
+    footnote: `The link works once and expires in ${input.hours} hours. If you did not ask for this, ignore this message.`,
+  });
+}
+
+/** Sent to the old address once the change is confirmed. */
+export function emailChangedMail(input: { displayName: string; newEmail: string }): RenderedMail {
+  return render({
+    template: 'email_changed',
+    subject: 'Your Tenthmark e-mail address was changed',
+    greeting: `Hello ${input.displayName},`,
+    paragraphs: [
+      `Your Tenthmark account now uses ${input.newEmail}. Mail about your jobs goes there from now on, and you sign in with it.`,
+      'If this was not you, reset your password from the sign-in page straight away and write to us from the help page.',
+    ],
+  });
+}
+
+/** Sent to the address an account had, once the person has deleted it. */
+export function accountClosedMail(input: { displayName: string }): RenderedMail {
+  return render({
+    template: 'account_closed',
+    subject: 'Your Tenthmark account is deleted',
+    greeting: `Hello ${input.displayName},`,
+    paragraphs: [
+      'Your Tenthmark account is deleted: your name, e-mail address and password are removed and every signed-in device is signed out.',
+      'The jobs, records, reviews and money records you took part in stay, under the name "Deleted account", for the other party and for the books.',
+      'This is the last message we send to this address.',
+    ],
+  });
+}
+
 export function adminInviteMail(input: { displayName: string; invitedBy: string; url: string; hours: number }): RenderedMail {
   return render({
     template: 'admin_invite',

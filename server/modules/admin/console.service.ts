@@ -1,4 +1,4 @@
-import { and, count, desc, eq, gte, ilike, isNotNull, isNull, lt, or, sql, type SQL } from 'drizzle-orm';
+import { and, count, desc, eq, gte, ilike, isNotNull, isNull, lt, ne, or, sql, type SQL } from 'drizzle-orm';
 import type { AdminShopRow, AdminUserRow, LedgerPage, LedgerQuery, ShopSearchInput } from '../../../shared/schemas/admin';
 import type { Database, Executor } from '../../db/client';
 import { jobs, ledgerEntries, sessions, shops, users, type User } from '../../db/schema';
@@ -42,8 +42,8 @@ function toUserRow(u: User): AdminUserRow {
 export async function suspendUser(deps: ConsoleDeps, admin: User, userId: string, reason: string): Promise<AdminUserRow> {
   if (userId === admin.id) throw conflict('You cannot suspend your own account.', 'cannot_suspend_self');
   const user = await deps.db.transaction(async (tx) => {
-    const [row] = await tx.update(users).set({ status: 'suspended' }).where(eq(users.id, userId)).returning();
-    if (!row) throw notFound('No user with that id.');
+    const [row] = await tx.update(users).set({ status: 'suspended' }).where(and(eq(users.id, userId), ne(users.status, 'closed'))).returning();
+    if (!row) throw notFound('No open account with that id.');
     await tx.delete(sessions).where(sql`${sessions.sess} -> 'passport' ->> 'user' = ${userId}`);
     await recordAdminAction(tx, { adminId: admin.id, action: 'user.suspend', targetType: 'user', targetId: userId, details: { email: row.email, reason } });
     await enqueueMail(tx, row.email, accountSuspendedMail({ name: row.displayName, reason }));
@@ -55,8 +55,9 @@ export async function suspendUser(deps: ConsoleDeps, admin: User, userId: string
 
 export async function reinstateUser(deps: ConsoleDeps, admin: User, userId: string): Promise<AdminUserRow> {
   return deps.db.transaction(async (tx) => {
-    const [row] = await tx.update(users).set({ status: 'active' }).where(eq(users.id, userId)).returning();
-    if (!row) throw notFound('No user with that id.');
+    // A deleted account stays closed: it has nothing left to sign in with.
+    const [row] = await tx.update(users).set({ status: 'active' }).where(and(eq(users.id, userId), ne(users.status, 'closed'))).returning();
+    if (!row) throw notFound('No open account with that id.');
     await recordAdminAction(tx, { adminId: admin.id, action: 'user.reinstate', targetType: 'user', targetId: userId, details: { email: row.email } });
     return toUserRow(row);
   });

@@ -65,6 +65,16 @@ async function signedIn(deps: AuthRouteDeps, req: Request, user: User) {
   return { user: toMe(user), csrfToken: deps.generateCsrfToken(req, true) };
 }
 
+/** Ends the session this request came on: signed out, its row deleted, its sockets closed, its cookie cleared. */
+export async function signOutHere(deps: Pick<AuthRouteDeps, 'hub' | 'sessionCookieName'>, req: Request, res: Response): Promise<void> {
+  // passport gives the session a new id as it signs out: the old one names the sockets to close.
+  const sid = req.sessionID;
+  await new Promise<void>((resolve, reject) => req.logout((err) => (err ? reject(err) : resolve())));
+  await new Promise<void>((resolve, reject) => req.session.destroy((err) => (err ? reject(err) : resolve())));
+  endLiveSession(deps, sid);
+  res.clearCookie(deps.sessionCookieName, { path: '/' });
+}
+
 /**
  * Waits for passport middleware run inside a handler: it resolves with what
  * `run` hands back, or with undefined once passport has answered the request
@@ -143,7 +153,7 @@ const resetLimits = ({ db, rateLimits }: AuthRouteDeps) => [
 ];
 
 /** Wrong current passwords, per person. */
-const passwordChangeLimits = ({ db, rateLimits }: AuthRouteDeps) => [
+export const passwordChangeLimits = ({ db, rateLimits }: Pick<AuthRouteDeps, 'db' | 'rateLimits'>) => [
   createLimiter({
     db,
     name: 'password-change',
@@ -227,14 +237,7 @@ export const authRoutes = [
     summary: 'Sign out and end the session',
     access: 'public',
     reply: { status: 204, empty: true, description: 'Signed out' },
-    handler: async ({ deps, req, res }) => {
-      // passport gives the session a new id as it signs out: the old one names the sockets to close.
-      const sid = req.sessionID;
-      await new Promise<void>((resolve, reject) => req.logout((err) => (err ? reject(err) : resolve())));
-      await new Promise<void>((resolve, reject) => req.session.destroy((err) => (err ? reject(err) : resolve())));
-      endLiveSession(deps, sid);
-      res.clearCookie(deps.sessionCookieName, { path: '/' });
-    },
+    handler: ({ deps, req, res }) => signOutHere(deps, req, res),
   }),
   route({
     method: 'post',

@@ -15,6 +15,7 @@ import {
 } from '../users/users.repository';
 import type { RealtimeHub } from '../../realtime/hub';
 import { consumeToken, issueToken, spendAllTokens } from './tokens';
+import { TERMS_VERSION } from '../../../shared/legal';
 
 export const VERIFY_TTL_MS = 48 * 60 * 60_000;
 export const RESET_TTL_MS = 60 * 60_000;
@@ -26,14 +27,39 @@ export interface AuthDeps {
   hub?: RealtimeHub;
 }
 
-async function sendVerification(deps: AuthDeps, tx: Parameters<Parameters<Database['transaction']>[0]>[0], user: User) {
+export async function sendVerification(deps: AuthDeps, tx: Parameters<Parameters<Database['transaction']>[0]>[0], user: User) {
   const token = await issueToken(tx, user.id, 'verify_email', VERIFY_TTL_MS);
   const url = `${deps.appUrl}/verify-email?token=${token}`;
   await enqueueMail(tx, user.email, verifyEmailMail({ displayName: user.displayName, url, hours: VERIFY_TTL_MS / 3_600_000 }));
 }
 
+/** The consent a new account records: now, to the terms as they stand (shared/legal.ts). */
+const consentNow = () => ({ termsAcceptedAt: new Date(), termsVersion: TERMS_VERSION });
+
+/** An address that already has an account: the same words at sign-up and at a change of address, so neither tells more. */
+export const emailTaken = (field: string) =>
+  new AppError('email_taken', 'An account with this e-mail address already exists.', 409, {
+    [field]: 'An account with this e-mail address already exists. Sign in instead, or reset your password.',
+  });
+
+/**
+ * Holds a change to the account to the person's current password; an
+ * account without one (GitHub only) is told how to set one first.
+ */
+export async function proveCurrentPassword(user: User, currentPassword: string): Promise<void> {
+  if (!user.passwordHash) {
+    await verifyPassword(undefined, currentPassword);
+    throw new AppError('no_password', 'Your account signs in with GitHub and has no password yet. Use “Forgot your password?” on the sign-in page to set one.', 400, {
+      currentPassword: 'Your account has no password yet.',
+    });
+  }
+  if (!(await verifyPassword(user.passwordHash, currentPassword))) {
+    throw new AppError('wrong_password', 'Your current password is not right.', 400, { currentPassword: 'This is not your current password.' });
+  }
+}
+
 /** Someone signed out: the live connections of that session end, on every instance; their other sessions go on. */
-export function endLiveSession(deps: AuthDeps, sid: string): void {
+export function endLiveSession(deps: Pick<AuthDeps, 'hub'>, sid: string): void {
   deps.hub?.endSession(sid);
 }
 
@@ -46,12 +72,9 @@ export async function signUp(deps: AuthDeps, input: SignUpInput): Promise<User> 
       displayName: input.displayName,
       role: input.role,
       passwordHash,
+      ...consentNow(),
     });
-    if (!user) {
-      throw new AppError('email_taken', 'An account with this e-mail address already exists.', 409, {
-        email: 'An account with this e-mail address already exists. Sign in instead, or reset your password.',
-      });
-    }
+    if (!user) throw emailTaken('email');
     await sendVerification(deps, tx, user);
     return user;
   });
@@ -79,7 +102,7 @@ export async function requestPasswordReset(deps: AuthDeps, email: string): Promi
   });
 }
 
-const expiredLink = () =>
+export const expiredLink = () =>
   new AppError('link_expired', 'This link has expired or was already used. Ask for a new one.', 400, {
     token: 'This link has expired or was already used.',
   });
@@ -109,15 +132,7 @@ export async function confirmPasswordReset(deps: AuthDeps, token: string, passwo
  * ends; the session that asked (`keepSid`) stays signed in.
  */
 export async function changePassword(deps: AuthDeps, user: User, input: ChangePasswordInput, keepSid: string): Promise<User> {
-  if (!user.passwordHash) {
-    await verifyPassword(undefined, input.currentPassword);
-    throw new AppError('no_password', 'Your account signs in with GitHub and has no password yet. Use “Forgot your password?” on the sign-in page to set one.', 400, {
-      currentPassword: 'Your account has no password yet.',
-    });
-  }
-  if (!(await verifyPassword(user.passwordHash, input.currentPassword))) {
-    throw new AppError('wrong_password', 'Your current password is not right.', 400, { currentPassword: 'This is not your current password.' });
-  }
+  await proveCurrentPassword(user, input.currentPassword);
   const passwordHash = await hashPassword(input.newPassword);
   const changed = await deps.db.transaction(async (tx) => {
     const updated = await updateUser(tx, user.id, { passwordHash });
@@ -192,6 +207,8 @@ export async function completeGithubSignUp(
     githubId: pending.githubId,
     // GitHub told us this address is verified.
     emailVerifiedAt: new Date(),
+    // The role step asks for consent to the terms before the account is made.
+    ...consentNow(),
   });
   if (!user) throw conflict('An account for this GitHub user or e-mail address already exists.', 'email_taken');
   return user;

@@ -60,5 +60,6 @@ export function toMe(user: User) {
     emailVerified: user.emailVerifiedAt !== null,
     hasPassword: user.passwordHash !== null,
     githubLinked: user.githubId !== null,
+    pendingEmail: user.pendingEmail,
   };
 }

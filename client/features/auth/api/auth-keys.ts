@@ -1,4 +1,5 @@
 import { queryOptions } from '@tanstack/react-query';
+import type { DeletionCheck } from '@shared/schemas/account';
 import type { Me, MeAnswer, PendingGithubAnswer } from '@shared/schemas/auth';
 import { ApiError, api } from '@client/lib/api-client';
 
@@ -6,6 +7,7 @@ export const authKeys = {
   all: ['auth'] as const,
   me: () => [...authKeys.all, 'me'] as const,
   pendingGithub: () => [...authKeys.all, 'pending-github'] as const,
+  deletion: () => [...authKeys.all, 'deletion'] as const,
 };
 
 /** The signed-in person, or null when signed out (a 401 is an answer, not an error). */
@@ -27,4 +29,6 @@ export const authQueries = {
       queryFn: () => api.get<PendingGithubAnswer>('/api/auth/github/pending').then((r) => r.pending),
       retry: false,
     }),
+  /** Whether the account can be deleted now, and what stands in the way. */
+  deletion: () => queryOptions({ queryKey: authKeys.deletion(), queryFn: () => api.get<DeletionCheck>('/api/me/deletion') }),
 };

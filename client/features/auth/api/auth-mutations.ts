@@ -8,8 +8,9 @@ import type {
   SignInInput,
   SignUpInput,
 } from '@shared/schemas/auth';
-import { api, setCsrfToken } from '@client/lib/api-client';
+import { api } from '@client/lib/api-client';
 import { type MutationConfig, type MutationOptions, useApiMutation } from '@client/lib/mutation';
+import { forgetSession } from './account-mutations';
 import { authKeys } from './auth-keys';
 
 /** A mutation that signs someone in: the new user goes straight into the cache. */
@@ -26,13 +27,7 @@ export const useCompleteGithub = (options?: MutationOptions<Me, GithubCompleteIn
 export const useSignOut = (options?: MutationOptions<void, void>) =>
   useApiMutation(
     () => api.post<void>('/api/auth/logout'),
-    {
-      update: (queryClient) => {
-        setCsrfToken(undefined);
-        queryClient.clear();
-        queryClient.setQueryData(authKeys.me(), null);
-      },
-    },
+    { update: forgetSession },
     options?.mutationConfig,
   );
 

@@ -7,13 +7,14 @@ import { Notice } from '@client/components/ui/notice';
 import { TextField } from '@client/components/ui/text-field';
 import { applyServerErrors, fieldProps } from '@client/lib/form-errors';
 import { useSignUp } from '../api/auth-mutations';
+import { ConsentField } from './consent-field';
 import { RolePicker } from './role-picker';
 
 export function SignUpForm({ onSignedUp }: { onSignedUp: () => void }) {
   const [formError, setFormError] = useState<string>();
   const form = useForm<SignUpInput>({
     resolver: zodResolver(signUpSchema),
-    defaultValues: { displayName: '', email: '', password: '', role: undefined },
+    defaultValues: { displayName: '', email: '', password: '', role: undefined, acceptTerms: undefined },
   });
   const signUp = useSignUp({ mutationConfig: { onSuccess: onSignedUp } });
   const field = fieldProps(form);
@@ -21,7 +22,7 @@ export function SignUpForm({ onSignedUp }: { onSignedUp: () => void }) {
   const onSubmit = form.handleSubmit((values) => {
     setFormError(undefined);
     signUp.mutate(values, {
-      onError: (error) => setFormError(applyServerErrors(error, form.setError, ['displayName', 'email', 'password', 'role'])),
+      onError: (error) => setFormError(applyServerErrors(error, form.setError, ['displayName', 'email', 'password', 'role', 'acceptTerms'])),
     });
   });
 
@@ -32,6 +33,7 @@ export function SignUpForm({ onSignedUp }: { onSignedUp: () => void }) {
       <TextField label="Your name or business name" autoComplete="name" {...field('displayName')} />
       <TextField label="E-mail" type="email" autoComplete="email" {...field('email')} />
       <TextField label="Password" type="password" autoComplete="new-password" hint="At least 10 characters. A short sentence works well." {...field('password')} />
+      <ConsentField {...field('acceptTerms')} />
       <Button type="submit" busy={signUp.isPending}>
         Create my account
       </Button>
