@@ -72,7 +72,9 @@ export function browserSuite(options: BrowserSuiteOptions = {}) {
   /** A page in a context of its own, signed out, whose console errors are collected under `who`. */
   async function newPage(viewport = { width: 1280, height: 900 }, who = 'visitor'): Promise<Page> {
     const context = await browser.newContext({ viewport });
-    context.setDefaultTimeout(10_000);
+    // How long a wait (a locator, a full-page screenshot) may take before it fails. 10 s was short on
+    // this 2-core machine under load: a full-page screenshot of the review page once took longer.
+    context.setDefaultTimeout(20_000);
     contexts.push(context);
     return watch(await context.newPage(), who);
   }
