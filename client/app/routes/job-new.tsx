@@ -1,13 +1,14 @@
 import { useNavigate } from 'react-router-dom';
 import { toast } from 'sonner';
 import { PageTitle } from '@client/components/ui/card';
-import { useCreateJob, JobForm } from '@client/features/jobs';
-import { ConfirmEmailNotice, useNeedsEmailConfirmation } from '@client/features/auth';
+import { useCreateJob, JobForm, keptFormKey } from '@client/features/jobs';
+import { ConfirmEmailNotice, useMe, useNeedsEmailConfirmation } from '@client/features/auth';
 
 /** A new job, saved as a draft that only its builder sees until it is published. */
 export function NewJobRoute() {
   const navigate = useNavigate();
   const unconfirmed = useNeedsEmailConfirmation();
+  const { data: me } = useMe();
   const create = useCreateJob({
     mutationConfig: {
       onSuccess: (job) => {
@@ -20,7 +21,7 @@ export function NewJobRoute() {
     <div>
       <PageTitle
         title="Post a job"
-        lead="Say what you send and the work you want. It is saved as a draft: only you see it until you publish it to the job board."
+        lead="Say what you send and the work you want, step by step; what you type is kept on this device until you save. It is saved as a draft: only you see it until you publish it to the job board."
       />
       {unconfirmed && (
         <ConfirmEmailNotice
@@ -32,6 +33,7 @@ export function NewJobRoute() {
       <JobForm
         submitLabel="Save draft"
         cancelTo="/jobs"
+        keepKey={me ? keptFormKey(me.id) : undefined}
         saveNote="You can add photos on the next page."
         onSave={(input) => create.mutateAsync(input)}
       />

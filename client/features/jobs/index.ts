@@ -4,6 +4,7 @@ export { useBoard, useCreateJob, useJob, useMyJobs, useUpdateJob } from './api/j
 export { readBoardFilters } from './board-filters';
 export { JobFiguresPanel } from './components/job-figures';
 export { JobForm } from './components/job-form';
+export { keptFormKey } from './components/job-form-keeper';
 export { JobOwnerActions } from './components/job-owner-actions';
 export { JobLogistics, JobOperations, JobSpec } from './components/job-spec';
 export { JobStatusBadge } from './components/job-status-badge';
