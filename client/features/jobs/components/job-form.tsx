@@ -39,13 +39,16 @@ import { PartsSentChoice } from './parts-sent-choice';
 /** Fields holding a length in the job's unit: converted in place when the unit changes. */
 const LENGTH_FIELDS = ['stockBore', 'stroke', 'targetBore', 'boreSizeTolerance', 'pistonDiameter', 'clearanceMin', 'clearanceMax', 'maxTaper', 'maxOutOfRound', 'deckFlatnessMax'] as const;
 
+/** The form's top-level fields. */
+const TOP_FIELDS = Object.keys(jobFieldsSchema.shape) as Array<keyof JobFormValues>;
+
 /**
  * Every field the server may name in a 400, for putting its messages beside
  * the inputs: the top-level fields, each limit ("limits.lineHone.housingMax")
  * and each operation's code and quantity ("operations.0.code").
  */
 const FIELD_NAMES = [
-  ...Object.keys(jobFieldsSchema.shape),
+  ...TOP_FIELDS,
   ...limitPaths,
   ...operationCodes.flatMap((_, index) => [`operations.${index}.code`, `operations.${index}.quantity`]),
 ] as Array<Path<JobFormValues>>;
@@ -208,6 +211,8 @@ export function JobForm({ initial, submitLabel, onSave, cancelTo, saveNote, keep
     resolver,
     // A job posted before parts were named sent a block: the form says so.
     defaultValues: defaults,
+    // The field may be on another step: showFirstError opens it, then focuses the field.
+    shouldFocusError: false,
   });
   const { errors, isSubmitting } = form.formState;
   const values = useWatch({ control: form.control });
@@ -242,7 +247,7 @@ export function JobForm({ initial, submitLabel, onSave, cancelTo, saveNote, keep
       setChanged(true);
       // A message from Next stays in step with what is typed.
       const head = name.split('.')[0] as keyof JobFormValues;
-      if (form.formState.errors[head] && !form.formState.isSubmitted) void form.trigger(head);
+      if (form.getFieldState(head).error && !form.formState.isSubmitted) void form.trigger(head);
       clearTimeout(pending.timer);
       pending.flush = flush;
       pending.timer = setTimeout(flush, KEEP_AFTER_MS);
@@ -317,9 +322,10 @@ export function JobForm({ initial, submitLabel, onSave, cancelTo, saveNote, keep
     form.setValue('unit', next, { shouldDirty: true });
   };
 
-  /** Opens the earliest step holding a message, at its first field. */
+  /** Opens the earliest step holding a message, at its first field (read live: formState is the last render's). */
   const showFirstError = () => {
-    const paths = errorPaths(form.formState.errors);
+    const live = Object.fromEntries(TOP_FIELDS.flatMap((name) => (form.getFieldState(name).error ? [[name, form.getFieldState(name).error]] : [])));
+    const paths = errorPaths(live);
     if (paths.length === 0) return;
     const first = paths.reduce((best, path) => (stepOfPath(path) < stepOfPath(best) ? path : best));
     goTo(stepOfPath(first), { path: first });
