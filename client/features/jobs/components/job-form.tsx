@@ -469,7 +469,6 @@ export function JobForm({ initial, submitLabel, onSave, cancelTo, saveNote, keep
 
             <FormSection
               title="Work wanted"
-         
               intro="Tick the work you want done; what you send decides which work you can choose. Quantities start from the cylinder count; change them if you need to."
             >
               <Controller
@@ -515,7 +514,6 @@ export function JobForm({ initial, submitLabel, onSave, cancelTo, saveNote, keep
             {scope.boreWork && (
               <FormSection
                 title="Bores: sizes and clearance"
-           
                 intro="Give a target bore, or the measured piston diameter with the clearance range its maker gives. Both is fine too."
               >
                 <Grid>
@@ -560,7 +558,6 @@ export function JobForm({ initial, submitLabel, onSave, cancelTo, saveNote, keep
             {scope.boreWork && (
               <FormSection
                 title="Bores: finish and geometry limits"
-           
                 intro="All optional. Leave a box empty when the shop’s usual practice will do. Finishes in micrometres (1 µm ≈ 39.4 µin)."
               >
                 <Grid>
@@ -601,7 +598,6 @@ export function JobForm({ initial, submitLabel, onSave, cancelTo, saveNote, keep
             {scope.limitGroups.length > 0 && (
               <FormSection
                 title="Limits for the work"
-           
                 intro="Leave a box empty and the figure shown under it applies, where there is one; the shop measures and the record is judged against these."
               >
                 <OperationLimitsFields
