@@ -465,6 +465,21 @@ describe('a builder posting a job and choosing a shop, in a real browser', () =>
     expect(page.url()).toBe(url('/jobs/new'));
   });
 
+  it('when the builder saves and publishes from the summary, then the job opens already on the board and nothing is kept to offer back', async () => {
+    await signIn(otherBuilder.email, '/jobs/new');
+    const form = page.getByRole('form', { name: 'Job details' });
+    await fillIronV8Job(form, { title: 'Publish straight from the summary', cylinders: '8' });
+    await form.getByLabel('Date you need the parts back').fill(inDays(30));
+    await saveJobForm(form, 'Save and publish');
+    await page.waitForURL(/\/jobs\/[0-9a-f-]{36}$/);
+    await page.getByRole('heading', { level: 1, name: 'Publish straight from the summary' }).waitFor();
+    await page.getByText('Status: Open for bids', { exact: true }).waitFor();
+    await page.goto(url('/jobs/new'));
+    await form.getByLabel('Job title').waitFor();
+    await expect(page.getByText('You started a job here before').count()).resolves.toBe(0);
+    expect(consoleErrors, consoleErrors.join("\n")).toEqual([]);
+  });
+
   it('when a job has a photo, then My jobs shows it as the thumbnail beside the title', async () => {
     const job = await builderJob({ title: 'A job with a photo of its deck' }, false, photos.left);
     await signIn(builder.email, '/jobs');

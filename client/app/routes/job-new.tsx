@@ -1,7 +1,8 @@
 import { useNavigate } from 'react-router-dom';
 import { toast } from 'sonner';
 import { PageTitle } from '@client/components/ui/card';
-import { useCreateJob, JobForm, keptFormKey } from '@client/features/jobs';
+import type { JobInput } from '@shared/schemas/jobs';
+import { useCreateJob, usePublishJob, JobForm, keptFormKey } from '@client/features/jobs';
 import { ConfirmEmailNotice, useMe, useNeedsEmailConfirmation } from '@client/features/auth';
 
 /** A new job, saved as a draft that only its builder sees until it is published. */
@@ -9,14 +10,22 @@ export function NewJobRoute() {
   const navigate = useNavigate();
   const unconfirmed = useNeedsEmailConfirmation();
   const { data: me } = useMe();
-  const create = useCreateJob({
-    mutationConfig: {
-      onSuccess: (job) => {
-        toast.success('Draft saved. Add photos, then publish it when it is ready.');
-        navigate(`/jobs/${job.id}`);
-      },
-    },
-  });
+  const create = useCreateJob();
+  const publish = usePublishJob();
+  /** Saves the draft, publishes it when asked, then opens the job's page (a draft that could not be published stays a draft). */
+  const save = async (input: JobInput, { publish: andPublish }: { publish: boolean }) => {
+    const job = await create.mutateAsync(input);
+    if (!andPublish) toast.success('Draft saved. Add photos, then publish it when it is ready.');
+    else {
+      try {
+        await publish.mutateAsync(job.id);
+        toast.success('Published. Shops can see the job on the board now; you can still add photos.');
+      } catch (error) {
+        toast.error(`Saved as a draft, but not published: ${error instanceof Error ? error.message : 'try again from the job’s page.'}`);
+      }
+    }
+    navigate(`/jobs/${job.id}`);
+  };
   return (
     <div>
       <PageTitle
@@ -34,8 +43,9 @@ export function NewJobRoute() {
         submitLabel="Save draft"
         cancelTo="/jobs"
         keepKey={me ? keptFormKey(me.id) : undefined}
-        saveNote="You can add photos on the next page."
-        onSave={(input) => create.mutateAsync(input)}
+        publishLabel={unconfirmed ? undefined : 'Save and publish'}
+        saveNote="Photos are added on the job’s page; publish there once they are in, or now."
+        onSave={save}
       />
     </div>
   );

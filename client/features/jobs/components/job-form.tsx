@@ -182,8 +182,10 @@ export interface JobFormProps {
   /** The saved spec when editing; a blank form otherwise. */
   initial?: JobInput;
   submitLabel: string;
-  /** Saves the parsed spec; a rejected ApiError puts its field messages beside the inputs. */
-  onSave: (input: JobInput) => Promise<unknown>;
+  /** Saves the parsed spec (`publish` when the publish button was pressed); a rejected ApiError puts its field messages beside the inputs. */
+  onSave: (input: JobInput, how: { publish: boolean }) => Promise<unknown>;
+  /** A second button on the summary that saves and publishes; none without it. */
+  publishLabel?: string;
   /** Where "Cancel" goes. */
   cancelTo: string;
   /** Words beside the save button (what saving does). */
@@ -203,7 +205,7 @@ const KEEP_AFTER_MS = 600;
  * as it is typed (see job-form-keeper.ts) and leaving with unsaved changes
  * asks first.
  */
-export function JobForm({ initial, submitLabel, onSave, cancelTo, saveNote, keepKey }: JobFormProps) {
+export function JobForm({ initial, submitLabel, onSave, cancelTo, saveNote, keepKey, publishLabel }: JobFormProps) {
   /** A server refusal's message, or 'invalid' while the form's own checks fail. */
   const [formError, setFormError] = useState<string>();
   const defaults = (initial ? { ...initial, parts: [...partsOfJob(initial)] } : blankJob) as JobFormValues;
@@ -228,6 +230,8 @@ export function JobForm({ initial, submitLabel, onSave, cancelTo, saveNote, keep
   /** Changed since it was opened or last saved: leaving asks first. */
   const [changed, setChanged] = useState(false);
   const keep = useRef<{ timer?: ReturnType<typeof setTimeout>; flush?: () => void }>({});
+  /** Which summary button sent the form. */
+  const publishing = useRef(false);
   const stepRef = useRef(step);
   stepRef.current = step;
   const keeping = Boolean(keepKey) && !offer;
@@ -350,7 +354,7 @@ export function JobForm({ initial, submitLabel, onSave, cancelTo, saveNote, keep
       // Saving navigates away: nothing is left unsaved by then.
       setChanged(false);
       try {
-        await onSave(input);
+        await onSave(input, { publish: publishing.current });
         if (keepKey) forgetKeptForm(keepKey);
       } catch (error) {
         setChanged(true);
@@ -664,9 +668,16 @@ export function JobForm({ initial, submitLabel, onSave, cancelTo, saveNote, keep
               </Button>
             )}
             {onSummary ? (
-              <Button type="submit" busy={isSubmitting}>
-                {submitLabel}
-              </Button>
+              <>
+                <Button type="submit" busy={isSubmitting && !publishing.current} disabled={isSubmitting} onClick={() => (publishing.current = false)}>
+                  {submitLabel}
+                </Button>
+                {publishLabel && (
+                  <Button type="submit" variant="secondary" busy={isSubmitting && publishing.current} disabled={isSubmitting} onClick={() => (publishing.current = true)}>
+                    {publishLabel}
+                  </Button>
+                )}
+              </>
             ) : (
               <Button onClick={() => void next()}>Next</Button>
             )}
