@@ -351,8 +351,10 @@ export function JobForm({ initial, submitLabel, onSave, cancelTo, saveNote, keep
   const onSubmit = form.handleSubmit(
     async (input) => {
       setFormError(undefined);
-      // Saving navigates away: nothing is left unsaved by then.
+      // Saving navigates away: nothing is left unsaved by then, and no kept copy is written after it (the page unmounts later).
       setChanged(false);
+      clearTimeout(keep.current.timer);
+      keep.current.flush = undefined;
       try {
         await onSave(input, { publish: publishing.current });
         if (keepKey) forgetKeptForm(keepKey);
