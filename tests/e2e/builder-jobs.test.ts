@@ -384,6 +384,13 @@ describe('a builder posting a job and choosing a shop, in a real browser', () =>
     await expect(page.getByLabel('Job title').inputValue()).resolves.toBe('Line hone an aluminium block');
     await expect(page.getByLabel('Stock bore (in)').inputValue()).resolves.toBe('4');
     await page.getByLabel('Job title').fill('Line hone and deck an aluminium block');
+    // Unsaved changes to this job are kept on this device: a reload offers them back.
+    await page.getByRole('button', { name: '2. Sizes and limits' }).click();
+    page.once('dialog', (dialog) => void dialog.accept());
+    await page.reload();
+    await page.getByRole('button', { name: 'Continue with my changes' }).click();
+    await expect(page.getByLabel('Job title').inputValue()).resolves.toBe('Line hone and deck an aluminium block');
+    await page.getByRole('heading', { level: 2, name: 'Step 2 of 5: Sizes and limits' }).waitFor();
     await saveJobForm(page.getByRole('form', { name: 'Job details' }), 'Save changes');
     await page.getByRole('heading', { level: 1, name: 'Line hone and deck an aluminium block' }).waitFor();
 
