@@ -6,6 +6,7 @@ import type { JobDetail } from '../../shared/schemas/jobs';
 import { DEMO_PASSWORD, demoAccounts } from '../../server/dev/seed';
 import { bidInput, inDays, jobInput, uniformRecordInput } from '../factories';
 import { browserSuite } from '../setup/e2e-suite';
+import { openJobStep, type JobFormStep } from '../setup/job-form';
 
 const suite = browserSuite();
 const builderEmail = demoAccounts.find((a) => a.email === 'juno@builders.test')!.email;
@@ -44,9 +45,16 @@ const jobWithLimitsSent: Stop['then'] = async (page) => {
   const form = page.getByRole('form', { name: 'Job details' });
   await form.getByRole('checkbox', { name: 'Rotating assembly (crankshaft, rods and pistons)' }).check();
   for (const work of ['Deck', 'Line hone', 'Crank grind', 'Balance']) await form.getByRole('checkbox', { name: work, exact: true }).check();
+  await openJobStep(form, 'Sizes and limits');
   await form.getByLabel('Largest main housing bore (in), optional').fill('wide');
-  await form.getByRole('button', { name: 'Save draft' }).click();
+  // Next checks the step's fields: the limits' messages show.
+  await form.getByRole('button', { name: 'Next' }).click();
   await page.locator('[aria-invalid="true"]').first().waitFor();
+};
+
+/** The job form's summary step, before anything is typed: it names the steps still to answer. */
+const jobSummaryShown: Stop['then'] = async (page) => {
+  await openJobStep(page.getByRole('form', { name: 'Job details' }), 'Check and save');
 };
 
 /**
@@ -56,6 +64,8 @@ const jobWithLimitsSent: Stop['then'] = async (page) => {
  */
 async function audit(page: Page, stops: Array<string | Stop>): Promise<string[]> {
   const problems: string[] = [];
+  // A form left with typed changes asks before the next stop's page opens: the audit leaves.
+  page.on('dialog', (dialog) => void (dialog.type() === 'beforeunload' ? dialog.accept() : dialog.dismiss()));
   for (const stop of stops) {
     const { path, then, label = path } = typeof stop === 'string' ? { path: stop, then: undefined, label: undefined } : stop;
     await page.goto(suite.url(path));
@@ -172,7 +182,8 @@ describe('accessibility (WCAG 2.1 A and AA) of every main page, in a real browse
       '/dashboard',
       '/jobs',
       '/jobs/new',
-      { path: '/jobs/new', then: sentEmpty('Save draft'), label: '/jobs/new (sent empty)' },
+      { path: '/jobs/new', then: sentEmpty('Next'), label: '/jobs/new (first step sent empty)' },
+      { path: '/jobs/new', then: jobSummaryShown, label: '/jobs/new (the summary step, answers still missing)' },
       { path: '/jobs/new', then: jobWithLimitsSent, label: '/jobs/new (limits for each kind of work, one mistyped)' },
       `/jobs/${balance.id}`,
       `/jobs/${funded.id}?thread=${thread.id}`,
@@ -222,11 +233,13 @@ describe('accessibility (WCAG 2.1 A and AA) of every main page, in a real browse
 
 describe('keyboard use, in a real browser', () => {
   it('when a person moves by Tab, then the focused link, button, input, list, radio or checkbox shows a visible focus indicator', async () => {
-    const signedIn: Array<{ path: string; name: string | RegExp }> = [
+    const signedIn: Array<{ path: string; name: string | RegExp; step?: JobFormStep }> = [
       { path: '/jobs/new', name: 'Job title' },
       { path: '/jobs/new', name: 'Layout' },
       { path: '/jobs/new', name: 'Cast iron' },
-      { path: '/jobs/new', name: 'Inches' },
+      { path: '/jobs/new', name: 'Inches', step: 'Sizes and limits' },
+      { path: '/jobs/new', name: 'Next' },
+      { path: '/jobs/new', name: /^2\. Sizes and limits$/ },
       { path: '/jobs/new', name: 'Bore' },
       { path: '/jobs/new', name: 'Cancel' },
     ];
@@ -247,6 +260,7 @@ describe('keyboard use, in a real browser', () => {
       }
       await page.goto(suite.url(stop.path));
       await settled(page);
+      if ('step' in stop && stop.step) await openJobStep(page.getByRole('form', { name: 'Job details' }), stop.step);
       await tabTo(page, stop.name);
       const shown = await focusIndicator(page);
       if (shown.outline === 'none' && shown.boxShadow === 'none') missing.push(`${stop.path}: ${shown.tag} has no outline and no ring when focused`);
@@ -274,6 +288,11 @@ describe('keyboard use, in a real browser', () => {
       await tabTo(page, name);
       await page.keyboard.type(text);
     };
+    const nextStep = async (heading: string) => {
+      await tabTo(page, 'Next');
+      await page.keyboard.press('Enter');
+      await expect.poll(() => focusedName(page)).toBe(heading);
+    };
     await typeInto('Job title', 'Keyboard-only bore job for an inline four');
     await typeInto('Engine', 'Inline four, 1990s');
     // A closed drop-down list takes typed letters to choose its option.
@@ -288,11 +307,14 @@ describe('keyboard use, in a real browser', () => {
     await page.keyboard.press('Space');
     await tabTo(page, 'Hone');
     await page.keyboard.press('Space');
+    // Next checks the step and moves focus to the next step's heading.
+    await nextStep('Step 2 of 5: Sizes and limits');
     await typeInto('Stock bore (in)', '3.500');
     await typeInto('Stroke (in)', '3.25');
     await typeInto('Target bore (in), optional', '3.530');
     await tabTo(page, 'Piston type');
     await page.keyboard.type('Forged');
+    await nextStep('Step 3 of 5: Getting there, place and date');
     await tabTo(page, 'I ship the parts to the shop');
     await page.keyboard.press('Space');
     await typeInto('Country', 'United States');
@@ -301,6 +323,9 @@ describe('keyboard use, in a real browser', () => {
     // A date input takes its parts typed in the browser's order (month, day, year here).
     const [year, month, day] = inDays(30).split('-');
     await typeInto('Date you need the parts back', `${month}${day}${year}`);
+    await nextStep('Step 4 of 5: Notes and photos');
+    await nextStep('Step 5 of 5: Check and save');
+    await page.getByTestId('job-form-summary').getByText('Keyboard-only bore job for an inline four').waitFor();
     await tabTo(page, 'Save draft');
     await page.keyboard.press('Enter');
 

@@ -10,7 +10,7 @@ import { completeOnboardingPage } from '../setup/payments';
 import { artifactsDir } from '../setup/browser';
 import { deckPhotos } from '../setup/deck-photos';
 import { browserSuite } from '../setup/e2e-suite';
-import { fillIronV8Job } from '../setup/job-form';
+import { fillIronV8Job, openJobStep, saveJobForm } from '../setup/job-form';
 import { jobInState } from '../setup/job-states';
 
 const suite = browserSuite();
@@ -74,9 +74,13 @@ describe('a builder posting a job and choosing a shop, in a real browser', () =>
     // 20 cylinders is no engine the form accepts, so no displacement yet.
     await expect(figures.getByText(/Still to enter: the number of cylinders/).isVisible()).resolves.toBe(true);
 
-    await form.getByRole('button', { name: 'Save draft' }).click();
+    // Saving from the summary finds both, and opens the first step holding one at its field.
+    await saveJobForm(form);
     const cylinders = form.getByLabel('Cylinders', { exact: true });
     await form.getByText('At most 16 cylinders.').waitFor();
+    await form.getByRole('heading', { level: 2, name: 'Step 1 of 5: What you send and the work' }).waitFor();
+    await expect(form.getByRole('button', { name: '1. What you send and the work' }).getAttribute('aria-current')).resolves.toBe('step');
+    await expect(page.evaluate(() => (document.activeElement as HTMLInputElement | null)?.name)).resolves.toBe('cylinders');
     await expect(cylinders.getAttribute('aria-invalid')).resolves.toBe('true');
     const describedBy = (await cylinders.getAttribute('aria-describedby'))!;
     await expect(page.locator(`[id="${describedBy}"]`).textContent()).resolves.toBe('At most 16 cylinders.');
@@ -86,9 +90,11 @@ describe('a builder posting a job and choosing a shop, in a real browser', () =>
     await expect(page.locator(`[id="${(await neededBy.getAttribute('aria-describedby'))!.split(' ').at(-1)}"]`).textContent()).resolves.toBe(
       'Pick a date within two years from today.',
     );
+    await openJobStep(form, 'Getting there, place and date');
     await neededBy.fill(inDays(30));
 
     // Fixing the count brings the figures, and per-cylinder work follows it.
+    await openJobStep(form, 'What you send and the work');
     await cylinders.fill('8');
     await form.getByText('At most 16 cylinders.').waitFor({ state: 'detached' });
     // derived: π/4 · 4² · 3.48 · 8 in³ × 16.387064 = 5,733.0 cc
@@ -106,6 +112,7 @@ describe('a builder posting a job and choosing a shop, in a real browser', () =>
     await page.screenshot({ path: join(artifactsDir, 'job-form.png'), fullPage: true });
 
     // Millimetres convert what is typed (1 in = 25.4 mm exactly), and back.
+    await openJobStep(form, 'Sizes and limits');
     await form.getByRole('radio', { name: 'Millimetres' }).click();
     await expect(form.getByLabel('Stock bore (mm)').inputValue()).resolves.toBe('101.6');
     await expect(numberIn(figures.getByTestId('job-displacement-cc'))).resolves.toBeCloseTo(expectedCc, 0);
@@ -116,7 +123,21 @@ describe('a builder posting a job and choosing a shop, in a real browser', () =>
     await page.screenshot({ path: join(artifactsDir, 'job-form-1280.png'), fullPage: true });
     await page.setViewportSize({ width: 768, height: 1024 });
 
-    await form.getByRole('button', { name: 'Save draft' }).click();
+    // The summary lists what was entered, each part with a way back to its step.
+    await openJobStep(form, 'Check and save');
+    const summary = form.getByTestId('job-form-summary');
+    await summary.waitFor();
+    await summary.getByText('Bore, hone and deck an iron V8 block', { exact: true }).waitFor();
+    const summaryText = (await summary.textContent())!;
+    for (const shown of ['Bore8 cylinders', 'Hone8 cylinders', 'Deck1 block', 'Small-block V8, late 1970s', 'Cast iron', 'Forged', '4.000 in', '0.0025 in – 0.0035 in', 'Columbus, Ohio, United States', 'I ship the parts to the shop']) {
+      expect(summaryText, shown).toContain(shown);
+    }
+    await page.screenshot({ path: join(artifactsDir, 'job-form-summary.png'), fullPage: true });
+    await summary.getByRole('button', { name: 'Edit getting there, place and date' }).click();
+    await form.getByRole('heading', { level: 2, name: 'Step 3 of 5: Getting there, place and date' }).waitFor();
+    await expect(page.evaluate(() => document.activeElement?.textContent)).resolves.toBe('Step 3 of 5: Getting there, place and date');
+
+    await saveJobForm(form);
     await page.waitForURL(/\/jobs\/[0-9a-f-]{36}$/);
     const jobId = new URL(page.url()).pathname.split('/').pop()!;
     await page.getByRole('heading', { level: 1, name: 'Bore, hone and deck an iron V8 block' }).waitFor();
@@ -293,6 +314,7 @@ describe('a builder posting a job and choosing a shop, in a real browser', () =>
     await figures.getByText('Displacement and bore sizes show for work on the cylinder bores.').waitFor();
 
     // The limits come from their declaration, each default shown under its field with its source.
+    await openJobStep(form, 'Sizes and limits');
     const limits = form.getByRole('group', { name: 'Limits for crank grind' });
     const tolerance = limits.getByLabel('Journal size tolerance (below the finished size) (in), optional');
     const toleranceNotes = (await tolerance.getAttribute('aria-describedby'))!.split(' ');
@@ -310,19 +332,26 @@ describe('a builder posting a job and choosing a shop, in a real browser', () =>
     const ra = limits.getByLabel('Largest journal Ra (µm), optional');
     await ra.fill('smooth');
 
+    await openJobStep(form, 'Getting there, place and date');
     await form.getByRole('radio', { name: 'I ship the parts to the shop' }).check();
     await form.getByLabel('Country').fill('United States');
     await form.getByLabel('State, province or county').fill('Ohio');
     await form.getByLabel('Town or city').fill('Columbus');
     await form.getByLabel('Date you need the parts back').fill(inDays(21));
 
-    // A limit that is not a number is marked beside it, by its nested path.
-    await form.getByRole('button', { name: 'Save draft' }).click();
+    // A limit that is not a number is marked beside it, by its nested path, on the step that holds it.
+    await saveJobForm(form);
     await form.getByText('Largest journal Ra (µm) must be a number.').waitFor();
+    await form.getByRole('heading', { level: 2, name: 'Step 2 of 5: Sizes and limits' }).waitFor();
     await expect(ra.getAttribute('aria-invalid')).resolves.toBe('true');
     await expect(page.locator(`[id="${(await ra.getAttribute('aria-describedby'))!.split(' ').at(-1)}"]`).textContent()).resolves.toBe('Largest journal Ra (µm) must be a number.');
     await page.screenshot({ path: join(artifactsDir, 'job-form-crank-grind.png'), fullPage: true });
     await ra.fill('');
+    // Next checks this step's fields alone, and moves on once they pass.
+    for (const after of ['Step 3 of 5: Getting there, place and date', 'Step 4 of 5: Notes and photos', 'Step 5 of 5: Check and save']) {
+      await form.getByRole('button', { name: 'Next' }).click();
+      await form.getByRole('heading', { level: 2, name: after }).waitFor();
+    }
     await form.getByRole('button', { name: 'Save draft' }).click();
 
     await page.waitForURL(/\/jobs\/[0-9a-f-]{36}$/);
@@ -355,7 +384,14 @@ describe('a builder posting a job and choosing a shop, in a real browser', () =>
     await expect(page.getByLabel('Job title').inputValue()).resolves.toBe('Line hone an aluminium block');
     await expect(page.getByLabel('Stock bore (in)').inputValue()).resolves.toBe('4');
     await page.getByLabel('Job title').fill('Line hone and deck an aluminium block');
-    await page.getByRole('button', { name: 'Save changes' }).click();
+    // Unsaved changes to this job are kept on this device: a reload offers them back.
+    await page.getByRole('button', { name: '2. Sizes and limits' }).click();
+    page.once('dialog', (dialog) => void dialog.accept());
+    await page.reload();
+    await page.getByRole('button', { name: 'Continue with my changes' }).click();
+    await expect(page.getByLabel('Job title').inputValue()).resolves.toBe('Line hone and deck an aluminium block');
+    await page.getByRole('heading', { level: 2, name: 'Step 2 of 5: Sizes and limits' }).waitFor();
+    await saveJobForm(page.getByRole('form', { name: 'Job details' }), 'Save changes');
     await page.getByRole('heading', { level: 1, name: 'Line hone and deck an aluminium block' }).waitFor();
 
     await page.getByRole('button', { name: 'Cancel job' }).click();
@@ -368,6 +404,86 @@ describe('a builder posting a job and choosing a shop, in a real browser', () =>
     await confirm.getByRole('button', { name: 'Cancel the job' }).click();
     await page.getByText('Status: Cancelled', { exact: true }).waitFor();
     await expect(page.getByRole('link', { name: 'Edit' }).count()).resolves.toBe(0);
+    expect(consoleErrors, consoleErrors.join("\n")).toEqual([]);
+  });
+
+  it('the job form warns before losing typed text: a header link asks first, Stay keeps the text, and a reload offers it back', async () => {
+    await signIn(otherBuilder.email, '/jobs/new');
+    const form = page.getByRole('form', { name: 'Job details' });
+    const title = form.getByLabel('Job title');
+    await title.fill('Hot-tank and magnaflux a flathead block');
+
+    // A link in the header asks before leaving; Stay keeps the page and what was typed.
+    await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'My jobs' }).click();
+    const leave = page.getByRole('dialog', { name: 'Leave this page?' });
+    await leave.waitFor();
+    await expect(leave.textContent()).resolves.toContain('kept on this device');
+    await page.screenshot({ path: join(artifactsDir, 'job-form-leave.png') });
+    await leave.getByRole('button', { name: 'Stay' }).click();
+    await leave.waitFor({ state: 'hidden' });
+    expect(page.url()).toBe(url('/jobs/new'));
+    await expect(title.inputValue()).resolves.toBe('Hot-tank and magnaflux a flathead block');
+
+    // Reloading: the browser asks too, and the page that comes back offers what was typed.
+    const asked = new Promise<string>((resolve) => {
+      page.once('dialog', (dialog) => {
+        resolve(dialog.type());
+        void dialog.accept();
+      });
+    });
+    await page.reload();
+    await expect(asked).resolves.toBe('beforeunload');
+    const offer = page.getByRole('status').filter({ hasText: 'You started a job here before' });
+    await offer.getByText('“Hot-tank and magnaflux a flathead block” kept on this device', { exact: false }).waitFor();
+    await expect(title.inputValue()).resolves.toBe('');
+    await offer.getByRole('button', { name: 'Continue that job' }).click();
+    await expect(title.inputValue()).resolves.toBe('Hot-tank and magnaflux a flathead block');
+
+    // Leaving after all, then starting fresh, forgets it.
+    await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'My jobs' }).click();
+    await leave.getByRole('button', { name: 'Leave' }).click();
+    await page.waitForURL(url('/jobs'));
+    await page.goto(url('/jobs/new'));
+    await offer.getByRole('button', { name: 'Start fresh' }).click();
+    await offer.waitFor({ state: 'detached' });
+    await page.reload();
+    await form.getByLabel('Job title').waitFor();
+    await expect(offer.count()).resolves.toBe(0);
+    expect(consoleErrors, consoleErrors.join("\n")).toEqual([]);
+  });
+
+  it('when the server refuses a field on saving, then the form opens the step that holds it, at the field', async () => {
+    // The browser's clock a year ahead: its own check lets a date 2½ years out pass, the server's (two years from its today) does not.
+    await page.clock.setFixedTime(new Date(Date.now() + 365 * 24 * 3600 * 1000));
+    await signIn(otherBuilder.email, '/jobs/new');
+    const form = page.getByRole('form', { name: 'Job details' });
+    await fillIronV8Job(form, { title: 'Bore and hone a V8 for next year', cylinders: '8' });
+    const neededBy = form.getByLabel('Date you need the parts back');
+    await neededBy.fill(inDays(910));
+    await openJobStep(form, 'Notes and photos');
+    await form.getByLabel('Anything else the shop should know, optional').fill('No rush.');
+    await saveJobForm(form);
+
+    await form.getByRole('heading', { level: 2, name: 'Step 3 of 5: Getting there, place and date' }).waitFor();
+    await form.getByText('Pick a date within two years from today.').waitFor();
+    await expect(neededBy.getAttribute('aria-invalid')).resolves.toBe('true');
+    await expect(page.evaluate(() => (document.activeElement as HTMLInputElement | null)?.name)).resolves.toBe('neededBy');
+    await expect(page.getByRole('alert').first().textContent()).resolves.toContain('Please correct the marked fields.');
+    expect(page.url()).toBe(url('/jobs/new'));
+  });
+
+  it('when the builder saves and publishes from the summary, then the job opens already on the board and nothing is kept to offer back', async () => {
+    await signIn(otherBuilder.email, '/jobs/new');
+    const form = page.getByRole('form', { name: 'Job details' });
+    await fillIronV8Job(form, { title: 'Publish straight from the summary', cylinders: '8' });
+    await form.getByLabel('Date you need the parts back').fill(inDays(30));
+    await saveJobForm(form, 'Save and publish');
+    await page.waitForURL(/\/jobs\/[0-9a-f-]{36}$/);
+    await page.getByRole('heading', { level: 1, name: 'Publish straight from the summary' }).waitFor();
+    await page.getByText('Status: Open for bids', { exact: true }).waitFor();
+    await page.goto(url('/jobs/new'));
+    await form.getByLabel('Job title').waitFor();
+    await expect(page.getByText('You started a job here before').count()).resolves.toBe(0);
     expect(consoleErrors, consoleErrors.join("\n")).toEqual([]);
   });
 

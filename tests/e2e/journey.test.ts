@@ -9,7 +9,7 @@ import { bidInput, inDays, jobInput } from '../factories';
 import { artifactsDir } from '../setup/browser';
 import { deckPhotos } from '../setup/deck-photos';
 import { browserSuite } from '../setup/e2e-suite';
-import { fillIronV8Job } from '../setup/job-form';
+import { fillIronV8Job, saveJobForm } from '../setup/job-form';
 import { completeOnboardingPage } from '../setup/payments';
 
 /*
@@ -59,7 +59,7 @@ describe('whole journeys through the marketplace, one browser per person', () =>
       const form = b.getByRole('form', { name: 'Job details' });
       await fillIronV8Job(form, { title, cylinders: '8', maxOutOfRound: '0.0005' });
       await form.getByLabel('Date you need the parts back').fill(inDays(30));
-      await form.getByRole('button', { name: 'Save draft' }).click();
+      await saveJobForm(form);
       await b.waitForURL(/\/jobs\/[0-9a-f-]{36}$/);
       const jobId = new URL(b.url()).pathname.split('/').pop()!;
       const jobPath = `/jobs/${jobId}`;

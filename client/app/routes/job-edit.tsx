@@ -2,13 +2,15 @@ import { Link, useNavigate, useParams } from 'react-router-dom';
 import { toast } from 'sonner';
 import { PageTitle } from '@client/components/ui/card';
 import { Notice } from '@client/components/ui/notice';
-import { useJob, useUpdateJob, JobForm, plural } from '@client/features/jobs';
+import { useMe } from '@client/features/auth';
+import { useJob, useUpdateJob, JobForm, keptFormKey, plural } from '@client/features/jobs';
 
 /** Changes to a draft or an open job; shops that bid on an open job are told by e-mail. */
 export function EditJobRoute() {
   const { jobId = '' } = useParams();
   const navigate = useNavigate();
   const jobQuery = useJob(jobId);
+  const { data: me } = useMe();
   const update = useUpdateJob({
     mutationConfig: {
       onSuccess: (job) => {
@@ -64,6 +66,7 @@ export function EditJobRoute() {
         initial={job.spec}
         submitLabel="Save changes"
         cancelTo={`/jobs/${job.id}`}
+        keepKey={me ? keptFormKey(me.id, job.id) : undefined}
         saveNote={job.status === 'open' && job.bidCount > 0 ? 'Saving tells the shops that bid.' : undefined}
         onSave={(input) => update.mutateAsync({ id: job.id, input })}
       />
