@@ -1,7 +1,9 @@
 import { eq } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { TERMS_VERSION } from '../../shared/legal';
-import { bids, jobs, ledgerEntries, payments, shops, users } from '../../server/db/schema';
+import { bids, jobs, ledgerEntries, mailOutbox, payments, shops, users } from '../../server/db/schema';
+import { enqueueMail } from '../../server/lib/mail/outbox';
+import type { RenderedMail } from '../../server/lib/mail/templates';
 import { bidInput, createJob, createShop, createUser, uniqueEmail } from '../factories';
 import { deliverQueuedMail, mailFromMaildev } from '../setup/mail-links';
 import { agentFor, setupTestApp, signedIn, type TestContext } from '../setup/test-env';
@@ -169,6 +171,11 @@ describe('deleting the account', () => {
 
     const seen = await shopApi.get(`/api/jobs/${jobId}`).expect(200);
     expect(seen.body.job.builder.displayName).toBe('Deleted account');
+
+    // A notice about the job for the closed account is kept, never sent to its placeholder address.
+    const id = await enqueueMail(ctx.db, row.email, { subject: 'A review', text: 'x', html: '<p>x</p>', template: 'review_received' } as RenderedMail);
+    const [mail] = await ctx.db.select().from(mailOutbox).where(eq(mailOutbox.id, id));
+    expect(mail.status).toBe('skipped');
   });
 
   it('when a shop deletes its account, then its open bids are withdrawn and it leaves the directory', async () => {

@@ -13,12 +13,19 @@ import type { RenderedMail } from './templates';
  * off is kept as `skipped` and never sent; every other mail goes.
  */
 export async function enqueueMail(db: Executor, to: string, mail: RenderedMail): Promise<string> {
-  const status = (await turnedOff(db, to, mail.template)) ? 'skipped' : 'pending';
+  // Kept, not sent, when the person turned this kind off, or closed the account (its address no longer reaches anyone).
+  const status = (await closedAccount(db, to)) || (await turnedOff(db, to, mail.template)) ? 'skipped' : 'pending';
   const [row] = await db
     .insert(mailOutbox)
     .values({ toAddress: to, subject: mail.subject, textBody: mail.text, htmlBody: mail.html, template: mail.template, status })
     .returning({ id: mailOutbox.id });
   return row.id;
+}
+
+/** Whether the address is a closed account's. */
+async function closedAccount(db: Executor, to: string): Promise<boolean> {
+  const [row] = await db.select({ status: users.status }).from(users).where(sql`lower(${users.email}) = lower(${to})`).limit(1);
+  return row?.status === 'closed';
 }
 
 /** Whether the account at this address turned off the optional kind of mail this template belongs to. */
