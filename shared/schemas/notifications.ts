@@ -9,7 +9,7 @@ export const notificationsQuerySchema = z.object({
   cursor: uuidSchema.optional(),
 });
 
-export const notificationParamsSchema = z.object({ id: uuidSchema });
+export const notificationParamsSchema = z.object({ notificationId: uuidSchema });
 
 export const notificationPreferencesInputSchema = z.object({
   preferences: z

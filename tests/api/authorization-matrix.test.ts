@@ -670,9 +670,9 @@ const matrix: Record<string, Row> = {
   'GET /api/notifications': { expect: [401, 200, 200, 200, 200, 200] },
   'GET /api/notifications/unread': { expect: [401, 200, 200, 200, 200, 200] },
   'POST /api/notifications/read-all': { expect: [401, 200, 200, 200, 200, 200] },
-  'POST /api/notifications/:id/read': {
+  'POST /api/notifications/:notificationId/read': {
     // A notice of builder A's: nobody else can tell it exists.
-    state: async () => ({ id: (await notify(db(), people.builderA.id, 'bid_received', { text: 'A bid came in.', href: '/jobs' })).id }),
+    state: async () => ({ notificationId: (await notify(db(), people.builderA.id, 'bid_received', { text: 'A bid came in.', href: '/jobs' })).id }),
     expect: [401, 200, 404, 404, 404, 404],
   },
   'GET /api/me/notification-preferences': { expect: [401, 200, 200, 200, 200, 200] },

@@ -115,6 +115,7 @@ beforeAll(async () => {
     userId: [victim.id],
     messageId: [message.body.message.id],
     disputeId: [], // no dispute in the fixture: random ids only
+    notificationId: [], // someone else's or none: random ids only
     size: ['thumb', 'large'],
     version: ['1', '2'],
   });

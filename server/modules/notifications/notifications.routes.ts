@@ -60,12 +60,12 @@ export const notificationsRoutes = [
   }),
   route({
     method: 'post',
-    path: '/api/notifications/:id/read',
+    path: '/api/notifications/:notificationId/read',
     summary: 'Mark one of the person’s notices read',
     access: 'signed-in',
     params: notificationParamsSchema,
     reply: { json: z.object({ notification: notificationSchema }) },
-    handler: async ({ deps, user, params }) => ({ notification: await markNotificationRead(deps, user, params.id) }),
+    handler: async ({ deps, user, params }) => ({ notification: await markNotificationRead(deps, user, params.notificationId) }),
   }),
   route({
     method: 'get',
