@@ -32,7 +32,11 @@ export interface ShopProfileFormValues {
   turnaroundDays: number;
   rateCard: RateRow[];
   notifyMatchingJobs: boolean;
+  /** Two street lines; all blank means no receiving address. */
+  receivingAddress: { lines: [string, string]; city: string; region: string; postalCode: string; country: string };
 }
+
+const noAddress = (): ShopProfileFormValues['receivingAddress'] => ({ lines: ['', ''], city: '', region: '', postalCode: '', country: '' });
 
 function toFormValues(shop: OwnShop | null): ShopProfileFormValues {
   if (!shop) {
@@ -47,6 +51,7 @@ function toFormValues(shop: OwnShop | null): ShopProfileFormValues {
       turnaroundDays: undefined as unknown as number, // blank until the shop says
       rateCard: [],
       notifyMatchingJobs: true,
+      receivingAddress: noAddress(),
     };
   }
   const capabilities = inCatalogueOrder(shop.capabilities, (code) => code) as OperationCode[];
@@ -65,6 +70,9 @@ function toFormValues(shop: OwnShop | null): ShopProfileFormValues {
       return { operation, price: cents === undefined ? '' : centsToDollars(cents) };
     }),
     notifyMatchingJobs: shop.notifyMatchingJobs,
+    receivingAddress: shop.receivingAddress
+      ? { ...shop.receivingAddress, lines: [shop.receivingAddress.lines[0] ?? '', shop.receivingAddress.lines.slice(1).join(', ')] }
+      : noAddress(),
   };
 }
 
@@ -80,11 +88,15 @@ function prepare(values: ShopProfileFormValues): PreparedInput {
     formRowOf.push(index);
     rateCard.push({ operation: row.operation, priceCents: parsed.ok ? parsed.cents : Number.NaN });
   });
+  // A wholly blank address means the shop gives none; a partly filled one is checked field by field.
+  const address = values.receivingAddress;
+  const blank = [...address.lines, address.city, address.region, address.postalCode, address.country].every((part) => part.trim() === '');
   return {
-    input: { ...values, rateCard },
+    input: { ...values, rateCard, receivingAddress: blank ? null : address },
     moneyErrors,
     // A rate-card message (price or operation) goes beside that row's price input.
-    formPath: (path) => path.replace(/^rateCard\.(\d+)\.(priceCents|operation)$/, (_, row: string) => `rateCard.${formRowOf[Number(row)]}.price`),
+    formPath: (path) =>
+      path === 'receivingAddress.lines' ? 'receivingAddress.lines.0' : path.replace(/^rateCard\.(\d+)\.(priceCents|operation)$/, (_, row: string) => `rateCard.${formRowOf[Number(row)]}.price`),
   };
 }
 
@@ -101,6 +113,11 @@ const plainFields: Array<Path<ShopProfileFormValues>> = [
   'turnaroundDays',
   'rateCard',
   'notifyMatchingJobs',
+  'receivingAddress.lines.0',
+  'receivingAddress.city',
+  'receivingAddress.region',
+  'receivingAddress.postalCode',
+  'receivingAddress.country',
 ];
 
 export function ShopProfileForm({ shop }: { shop: OwnShop | null }) {
@@ -150,6 +167,7 @@ export function ShopProfileForm({ shop }: { shop: OwnShop | null }) {
   });
 
   const capabilitiesError = errors.capabilities?.message;
+  const addressErrors = errors.receivingAddress;
 
   return (
     <form onSubmit={onSubmit} noValidate aria-label="Shop profile" className="flex flex-col gap-6">
@@ -250,6 +268,23 @@ export function ShopProfileForm({ shop }: { shop: OwnShop | null }) {
           className="[&_textarea]:font-sans [&_textarea]:text-base"
           {...form.register('equipmentNotes')}
         />
+      </Card>
+
+      <Card className="flex flex-col gap-4">
+        <div>
+          <h2 className="text-xl font-bold">Receiving address</h2>
+          <p className="mt-1 text-sm text-ink-soft">
+            Where builders send parts. Only the builder of a job you won sees it, once that job is paid for. Leave it blank if you take drop-offs only.
+          </p>
+        </div>
+        <TextField label="Street address" autoComplete="address-line1" error={addressErrors?.lines?.message ?? addressErrors?.lines?.[0]?.message} {...form.register('receivingAddress.lines.0')} />
+        <TextField label="Street address, second line (optional)" autoComplete="address-line2" {...form.register('receivingAddress.lines.1')} />
+        <div className="grid gap-4 sm:grid-cols-2">
+          <TextField label="Town or city" autoComplete="address-level2" error={addressErrors?.city?.message} {...form.register('receivingAddress.city')} />
+          <TextField label="State, province or county" autoComplete="address-level1" error={addressErrors?.region?.message} {...form.register('receivingAddress.region')} />
+          <TextField label="Postal code" autoComplete="postal-code" className="max-w-xs" error={addressErrors?.postalCode?.message} {...form.register('receivingAddress.postalCode')} />
+          <TextField label="Country" autoComplete="country-name" error={addressErrors?.country?.message} {...form.register('receivingAddress.country')} />
+        </div>
       </Card>
 
       <Card className="flex flex-col gap-4">
