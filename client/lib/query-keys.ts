@@ -62,6 +62,12 @@ export const milestoneKeys = {
   forJob: (jobId: string) => [...milestoneKeys.all, 'job', jobId] as const,
 };
 
+/** A job's shipping: the shop's receiving address once paid, the return address, both trips. */
+export const shippingKeys = {
+  all: ['shipping'] as const,
+  forJob: (jobId: string) => [...shippingKeys.all, 'job', jobId] as const,
+};
+
 /** A job's inspection record: its versions, the shop's draft and the review deadline. */
 export const inspectionKeys = {
   all: ['inspections'] as const,
@@ -123,6 +129,7 @@ export function jobChangeKeys(jobId: string): QueryKey[] {
     threadKeys.forJob(jobId),
     paymentKeys.all(jobId),
     milestoneKeys.forJob(jobId),
+    shippingKeys.forJob(jobId),
     inspectionKeys.forJob(jobId),
     disputeKeys.forJob(jobId),
     reviewKeys.forJob(jobId),

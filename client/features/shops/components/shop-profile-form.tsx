@@ -3,6 +3,7 @@ import { useFieldArray, useForm, type Path } from 'react-hook-form';
 import { toast } from 'sonner';
 import { findOperation, type OperationCode } from '@shared/catalogue';
 import { shopProfileSchema, type ShopProfileInput } from '@shared/schemas/shops';
+import { addressError, addressFormValues, blankAddress, PostalAddressFields, type AddressFormValues } from '@client/components/postal-address';
 import { Button } from '@client/components/ui/button';
 import { Card } from '@client/components/ui/card';
 import { CheckboxField } from '@client/components/ui/checkbox-field';
@@ -32,11 +33,9 @@ export interface ShopProfileFormValues {
   turnaroundDays: number;
   rateCard: RateRow[];
   notifyMatchingJobs: boolean;
-  /** Two street lines; all blank means no receiving address. */
-  receivingAddress: { lines: [string, string]; city: string; region: string; postalCode: string; country: string };
+  /** All blank means no receiving address. */
+  receivingAddress: AddressFormValues;
 }
-
-const noAddress = (): ShopProfileFormValues['receivingAddress'] => ({ lines: ['', ''], city: '', region: '', postalCode: '', country: '' });
 
 function toFormValues(shop: OwnShop | null): ShopProfileFormValues {
   if (!shop) {
@@ -51,7 +50,7 @@ function toFormValues(shop: OwnShop | null): ShopProfileFormValues {
       turnaroundDays: undefined as unknown as number, // blank until the shop says
       rateCard: [],
       notifyMatchingJobs: true,
-      receivingAddress: noAddress(),
+      receivingAddress: blankAddress(),
     };
   }
   const capabilities = inCatalogueOrder(shop.capabilities, (code) => code) as OperationCode[];
@@ -70,9 +69,7 @@ function toFormValues(shop: OwnShop | null): ShopProfileFormValues {
       return { operation, price: cents === undefined ? '' : centsToDollars(cents) };
     }),
     notifyMatchingJobs: shop.notifyMatchingJobs,
-    receivingAddress: shop.receivingAddress
-      ? { ...shop.receivingAddress, lines: [shop.receivingAddress.lines[0] ?? '', shop.receivingAddress.lines.slice(1).join(', ')] }
-      : noAddress(),
+    receivingAddress: addressFormValues(shop.receivingAddress),
   };
 }
 
@@ -167,7 +164,6 @@ export function ShopProfileForm({ shop }: { shop: OwnShop | null }) {
   });
 
   const capabilitiesError = errors.capabilities?.message;
-  const addressErrors = errors.receivingAddress;
 
   return (
     <form onSubmit={onSubmit} noValidate aria-label="Shop profile" className="flex flex-col gap-6">
@@ -277,14 +273,7 @@ export function ShopProfileForm({ shop }: { shop: OwnShop | null }) {
             Where builders send parts. Only the builder of a job you won sees it, once that job is paid for. Leave it blank if you take drop-offs only.
           </p>
         </div>
-        <TextField label="Street address" autoComplete="address-line1" error={addressErrors?.lines?.message ?? addressErrors?.lines?.[0]?.message} {...form.register('receivingAddress.lines.0')} />
-        <TextField label="Street address, second line (optional)" autoComplete="address-line2" {...form.register('receivingAddress.lines.1')} />
-        <div className="grid gap-4 sm:grid-cols-2">
-          <TextField label="Town or city" autoComplete="address-level2" error={addressErrors?.city?.message} {...form.register('receivingAddress.city')} />
-          <TextField label="State, province or county" autoComplete="address-level1" error={addressErrors?.region?.message} {...form.register('receivingAddress.region')} />
-          <TextField label="Postal code" autoComplete="postal-code" className="max-w-xs" error={addressErrors?.postalCode?.message} {...form.register('receivingAddress.postalCode')} />
-          <TextField label="Country" autoComplete="country-name" error={addressErrors?.country?.message} {...form.register('receivingAddress.country')} />
-        </div>
+        <PostalAddressFields register={(part) => form.register(`receivingAddress.${part}`)} error={(part) => addressError(errors.receivingAddress, part)} />
       </Card>
 
       <Card className="flex flex-col gap-4">
