@@ -56,7 +56,7 @@ export const paymentKeys = {
   changeOrders: (jobId: string) => [...paymentKeys.all(jobId), 'change-orders'] as const,
 };
 
-/** A job's timeline of milestones (block received, operations, shipping). */
+/** A job's timeline of milestones (parts received, operations, shipping both ways). */
 export const milestoneKeys = {
   all: ['milestones'] as const,
   forJob: (jobId: string) => [...milestoneKeys.all, 'job', jobId] as const,

@@ -42,7 +42,7 @@ export async function listMilestones(db: Database, user: User, jobId: string): P
   }));
 }
 
-/** The working shop logs progress; "block received" starts the work (funded → in work). */
+/** The working shop logs progress; "parts received" (kind block_received) starts the work (funded → in work). */
 export async function logMilestone(deps: MilestoneDeps, user: User, jobId: string, input: MilestoneInput): Promise<Milestone> {
   await deps.db.transaction(async (tx) => {
     const parties = await partiesOf(tx, jobId, { forUpdate: true });
@@ -50,10 +50,10 @@ export async function logMilestone(deps: MilestoneDeps, user: User, jobId: strin
     const { job } = parties;
     if (!WORKING.has(job.status)) throw conflict('Progress can be logged once the job is paid for.', 'job_not_funded');
     if (input.kind === 'block_received') {
-      if (job.status !== 'funded') throw conflict('The block was already logged as received.', 'already_received');
+      if (job.status !== 'funded') throw conflict('The parts were already logged as received.', 'already_received');
       await tx.update(jobs).set({ status: 'in_work' }).where(eq(jobs.id, job.id));
     } else if (job.status === 'funded') {
-      throw conflict('Log “block received” first.', 'not_received');
+      throw conflict('Log “parts received” first.', 'not_received');
     }
     if (input.kind === 'shipped' && job.logistics === 'ship' && !job.returnAddress) {
       throw conflict('The builder has not given a return address yet; ship the parts back once they have.', 'no_return_address');
