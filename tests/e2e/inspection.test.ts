@@ -103,8 +103,8 @@ describe('the inspection record, from block received to payment released, in a r
     await builderPage.getByText('Status: Paid and held', { exact: true }).waitFor();
     const builderProgress = builderPage.getByRole('list', { name: 'Progress on this job' });
 
-    // Paid: the builder now sees where to send the parts, and logs them sent with the tracking number.
-    await builderPage.getByLabel('The shop’s receiving address').getByText('2215 Lantern Hill Road').waitFor();
+    // Paid: the builder now sees where to send the parts (the address the shop's profile gives), and logs them sent with the tracking number.
+    await builderPage.getByLabel('The shop’s receiving address').getByText('1180 Foundry Row').waitFor();
     const sent = builderPage.getByRole('form', { name: 'Sent to the shop' });
     await sent.getByLabel('Carrier').fill('Ridgeline Freight');
     await sent.getByRole('button', { name: 'Log “sent to the shop”' }).click();
