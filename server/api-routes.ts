@@ -16,6 +16,7 @@ import { openApiRoutes } from './modules/health/openapi.routes';
 import { messagesRoutes } from './modules/messages/messages.routes';
 import { milestonesRoutes } from './modules/milestones/milestones.routes';
 import { notificationsRoutes } from './modules/notifications/notifications.routes';
+import { shippingRoutes } from './modules/shipping/shipping.routes';
 import { shopsRoutes } from './modules/shops/shops.routes';
 
 /**
@@ -37,6 +38,7 @@ export const routeModules = {
   documents: documentsRoutes,
   messages: messagesRoutes,
   milestones: milestonesRoutes,
+  shipping: shippingRoutes,
   inspections: inspectionsRoutes,
   disputes: disputesRoutes,
   reviews: reviewsRoutes,

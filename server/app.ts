@@ -149,6 +149,7 @@ export function createApp(deps: AppDeps) {
   mount(routeModules.messages, { db, hub, storage, uploadLimit, rateLimit: messageRateLimit(db, config.rateLimits.messagesPer10s) });
   const workDeps = { ...paymentDeps, reviewWindowMs: config.reviewWindowDays * 24 * 60 * 60_000 };
   mount(routeModules.milestones, { db, hub, storage, uploadLimit });
+  mount(routeModules.shipping, { db, hub });
   mount(routeModules.inspections, workDeps);
   mount(routeModules.disputes, paymentDeps);
   mount(routeModules.reviews, paymentDeps);

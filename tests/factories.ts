@@ -57,6 +57,7 @@ export function shopProfileInput(overrides: Partial<ShopProfileInput> = {}): Sho
       { operation: 'deck', priceCents: 18000 },
     ],
     notifyMatchingJobs: false,
+    receivingAddress: { lines: ['1180 Foundry Row', 'Dock 2'], city: 'Dayton', region: 'Ohio', postalCode: '45402', country: 'United States' },
     ...overrides,
   };
 }

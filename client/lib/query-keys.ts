@@ -56,10 +56,16 @@ export const paymentKeys = {
   changeOrders: (jobId: string) => [...paymentKeys.all(jobId), 'change-orders'] as const,
 };
 
-/** A job's timeline of milestones (block received, operations, shipping). */
+/** A job's timeline of milestones (parts received, operations, shipping both ways). */
 export const milestoneKeys = {
   all: ['milestones'] as const,
   forJob: (jobId: string) => [...milestoneKeys.all, 'job', jobId] as const,
+};
+
+/** A job's shipping: the shop's receiving address once paid, the return address, both trips. */
+export const shippingKeys = {
+  all: ['shipping'] as const,
+  forJob: (jobId: string) => [...shippingKeys.all, 'job', jobId] as const,
 };
 
 /** A job's inspection record: its versions, the shop's draft and the review deadline. */
@@ -123,6 +129,7 @@ export function jobChangeKeys(jobId: string): QueryKey[] {
     threadKeys.forJob(jobId),
     paymentKeys.all(jobId),
     milestoneKeys.forJob(jobId),
+    shippingKeys.forJob(jobId),
     inspectionKeys.forJob(jobId),
     disputeKeys.forJob(jobId),
     reviewKeys.forJob(jobId),

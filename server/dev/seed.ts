@@ -13,6 +13,7 @@ export const DEMO_PASSWORD = 'tenthmark-demo';
 const demoShops = {
   'bench@lanternhill.test': {
     profile: { name: 'Lantern Hill Machine Works', country: 'United States', region: 'Ohio', city: 'Dayton', takesShipped: true, turnaroundDays: 8,
+      receivingAddress: { lines: ['2215 Lantern Hill Road', 'Receiving door 3'], city: 'Dayton', region: 'Ohio', postalCode: '45404', country: 'United States' },
       capabilities: ['clean', 'crack-test', 'bore', 'hone', 'plateau-hone', 'torque-plate-hone', 'deck', 'line-hone'],
       equipmentNotes: 'Vertical boring bar, power hone with torque plates for common small-block V8s, deck surfacer, 0.0001 in dial bore gauges checked against a setting ring.' },
     rates: { clean: 9_500, 'crack-test': 6_000, bore: 3_500, hone: 2_500, 'plateau-hone': 1_500, 'torque-plate-hone': 3_000, deck: 18_000, 'line-hone': 32_500 },
@@ -25,12 +26,14 @@ const demoShops = {
   },
   'floor@orrinvale.test': {
     profile: { name: 'Orrinvale Engine Machining', country: 'United States', region: 'Oregon', city: 'Bend', takesShipped: true, turnaroundDays: 10,
+      receivingAddress: { lines: ['88 Orrin Vale Court'], city: 'Bend', region: 'Oregon', postalCode: '97701', country: 'United States' },
       capabilities: ['clean', 'crack-test', 'bore', 'hone', 'plateau-hone', 'torque-plate-hone', 'deck', 'cam-bore', 'balance'],
       equipmentNotes: 'Climate-controlled inspection room at 20 °C; air gauging and dial bore gauges; profilometer for Ra and Rk on request.' },
     rates: { clean: 11_000, 'crack-test': 7_500, bore: 4_000, hone: 3_000, 'plateau-hone': 2_000, 'torque-plate-hone': 3_500, deck: 21_000, 'cam-bore': 38_000, balance: 29_000 },
   },
   'office@saltreed.test': {
     profile: { name: 'Saltreed Cylinder & Head', country: 'United States', region: 'Georgia', city: 'Savannah', takesShipped: true, turnaroundDays: 9,
+      receivingAddress: { lines: ['5 Saltreed Wharf Lane', 'Bay B'], city: 'Savannah', region: 'Georgia', postalCode: '31401', country: 'United States' },
       capabilities: ['clean', 'bore', 'hone', 'torque-plate-hone', 'deck', 'sleeve', 'head-resurface', 'valve-job'],
       equipmentNotes: 'Marine and industrial blocks a speciality; sleeving up to 5 in bores; head and deck surfacing.' },
     rates: { clean: 8_500, bore: 3_000, hone: 2_400, 'torque-plate-hone': 2_900, deck: 15_000, sleeve: 19_500, 'head-resurface': 8_500, 'valve-job': 39_000 },
@@ -66,7 +69,8 @@ export async function seedIfEmpty(db: Database): Promise<boolean> {
     for (const user of inserted) {
       const demo = demoShops[user.email as keyof typeof demoShops];
       if (!demo) continue;
-      const [shop] = await tx.insert(shops).values({ userId: user.id, ...demo.profile, capabilities: [...demo.profile.capabilities] }).returning();
+      const address = 'receivingAddress' in demo.profile ? { ...demo.profile.receivingAddress, lines: [...demo.profile.receivingAddress.lines] } : null;
+      const [shop] = await tx.insert(shops).values({ userId: user.id, ...demo.profile, capabilities: [...demo.profile.capabilities], receivingAddress: address }).returning();
       await tx.insert(shopRates).values(Object.entries(demo.rates).map(([operation, priceCents]) => ({ shopId: shop.id, operation, priceCents })));
     }
   });

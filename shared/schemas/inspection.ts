@@ -256,14 +256,18 @@ export type InspectionVersionAnswer = z.infer<typeof inspectionVersionAnswerSche
 export const draftSavedSchema = z.object({ savedAt: z.iso.datetime() });
 export type DraftSaved = z.infer<typeof draftSavedSchema>;
 
-export const milestoneKinds = ['block_received', 'teardown', 'operation_started', 'operation_finished', 'inspection_submitted', 'ready_for_pickup', 'shipped', 'delivered', 'note'] as const;
+/** `block_received` reads "Parts received" (the code stays for stored rows); `sent_to_shop` is the builder's, logged through its own route. */
+export const milestoneKinds = ['block_received', 'teardown', 'operation_started', 'operation_finished', 'inspection_submitted', 'ready_for_pickup', 'shipped', 'delivered', 'note', 'sent_to_shop'] as const;
 
 /** The most photos one milestone may carry. */
 export const MAX_PHOTOS_PER_MILESTONE = 4;
 
 export const milestoneInputSchema = z
   .object({
-    kind: z.enum(milestoneKinds, { error: 'Choose what happened.' }).refine((kind) => kind !== 'inspection_submitted', 'Submit the inspection record itself; it is logged on its own.'),
+    kind: z
+      .enum(milestoneKinds, { error: 'Choose what happened.' })
+      .refine((kind) => kind !== 'inspection_submitted', 'Submit the inspection record itself; it is logged on its own.')
+      .refine((kind) => kind !== 'sent_to_shop', 'Only the builder logs sending the parts to the shop.'),
     operation: z.string().max(40).optional(),
     note: z.string().trim().max(2000, 'Use at most 2,000 characters.').default(''),
     carrier: z.string().trim().max(60).optional(),

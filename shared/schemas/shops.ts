@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { centsSchema, operationCodeSchema, queryInt, regionSchema } from './common';
 import { ratingSummarySchema } from './reviews';
+import { postalAddressSchema } from './shipping';
 
 export const rateCardEntrySchema = z.object({
   operation: operationCodeSchema,
@@ -25,6 +26,8 @@ export const shopProfileSchema = z
       .max(365, 'At most 365 working days.'),
     rateCard: z.array(rateCardEntrySchema).max(50).default([]),
     notifyMatchingJobs: z.boolean().default(false),
+    /** Where builders send parts; shown only to the builder of a paid-for `ship` job. */
+    receivingAddress: postalAddressSchema.nullable().default(null),
   })
   .superRefine((shop, ctx) => {
     const seen = new Set<string>();
@@ -71,6 +74,7 @@ export type PublicShop = z.infer<typeof publicShopSchema>;
 /** What a shop sees of itself: the public profile, its e-mail choice and its payout account's state. */
 export const ownShopSchema = publicShopSchema.extend({
   notifyMatchingJobs: z.boolean(),
+  receivingAddress: postalAddressSchema.nullable(),
   payouts: z.enum(['none', 'pending', 'ready']),
 });
 export type OwnShop = z.infer<typeof ownShopSchema>;

@@ -543,6 +543,13 @@ const matrix: Record<string, Row> = {
     variants: [{ label: 'shop Y bid and lost', state: () => w.funded('fake', { loser: true }), expect: [401, 200, 403, 200, 403, 200] }],
   },
   'POST /api/jobs/:jobId/milestones': { state: () => w.inWork(), body: { kind: 'note', note: 'Bores measured before honing.' }, expect: [401, 403, 403, 201, 404, 403] },
+  'GET /api/jobs/:jobId/shipping': { once: true, state: () => w.funded(), expect: [401, 200, 403, 200, 403, 200] },
+  'POST /api/jobs/:jobId/sent-to-shop': { state: () => w.funded(), body: { carrier: 'Ridgeline Freight', trackingNumber: 'RF 5501 2210' }, expect: [401, 201, 403, 403, 403, 403] },
+  'PUT /api/jobs/:jobId/return-address': {
+    state: () => w.inWork(),
+    body: { lines: ['42 Camshaft Lane'], city: 'Fort Wayne', region: 'Indiana', postalCode: '46802', country: 'United States' },
+    expect: [401, 200, 403, 403, 403, 403],
+  },
   'POST /api/jobs/:jobId/milestone-photos': { state: () => w.inWork(), upload: true, expect: [401, 403, 403, 201, 404, 403] },
   'GET /api/jobs/:jobId/milestone-photos/:photoId/:size': {
     once: true,

@@ -103,15 +103,25 @@ describe('the inspection record, from block received to payment released, in a r
     await builderPage.getByText('Status: Paid and held', { exact: true }).waitFor();
     const builderProgress = builderPage.getByRole('list', { name: 'Progress on this job' });
 
+    // Paid: the builder now sees where to send the parts (the address the shop's profile gives), and logs them sent with the tracking number.
+    await builderPage.getByLabel('The shop’s receiving address').getByText('1180 Foundry Row').waitFor();
+    const sent = builderPage.getByRole('form', { name: 'Sent to the shop' });
+    await sent.getByLabel('Carrier').fill('Ridgeline Freight');
+    await sent.getByRole('button', { name: 'Log “sent to the shop”' }).click();
+    await sent.getByText('Enter the tracking number.').waitFor();
+    await sent.getByLabel('Tracking number').fill('RF 2200 1180');
+    await sent.getByRole('button', { name: 'Log “sent to the shop”' }).click();
+    await builderProgress.getByText('Sent to the shop by Ridgeline Freight, tracking RF 2200 1180').waitFor();
+
     // The shop logs the block as received; the builder's open page shows it without a reload.
     const shopPage = await pageFor(lanternHill.email, `/jobs/${job.id}`);
     const log = shopPage.getByRole('form', { name: 'Log progress' });
     await expect(log.getByLabel('What happened').inputValue()).resolves.toBe('block_received');
     await log.getByLabel('Note (optional)').fill('Block in on a pallet, all caps marked.');
     await log.getByRole('button', { name: 'Log it' }).click();
-    await shopPage.getByRole('list', { name: 'Progress on this job' }).getByText('Block received').waitFor();
+    await shopPage.getByRole('list', { name: 'Progress on this job' }).getByText('Parts received').waitFor();
     await shopPage.getByText('Status: In the shop', { exact: true }).waitFor();
-    await builderProgress.getByText('Block received').waitFor();
+    await builderProgress.getByText('Parts received').waitFor();
     await expect(builderProgress.textContent()).resolves.toContain('Lantern Hill Machine Works');
     await expect(builderProgress.textContent()).resolves.toContain('Block in on a pallet, all caps marked.');
     await builderPage.getByText('Status: In the shop', { exact: true }).waitFor();
@@ -357,6 +367,15 @@ describe('the inspection record, from block received to payment released, in a r
     const progress = shopPage.getByRole('list', { name: 'Progress on this job' });
     await progress.getByText('Hone started').waitFor();
     await progress.getByRole('button', { name: 'Open photo 1 of 1 full size' }).waitFor();
+    // The shop ships back only to an address the builder gave.
+    const returnForm = builderPage.getByRole('form', { name: 'Return address' });
+    await returnForm.getByLabel('Street address', { exact: true }).fill('42 Camshaft Lane');
+    await returnForm.getByLabel('Town or city').fill('Fort Wayne');
+    await returnForm.getByLabel('State, province or county').fill('Indiana');
+    await returnForm.getByLabel('Postal code').fill('46802');
+    await returnForm.getByLabel('Country').fill('United States');
+    await returnForm.getByRole('button', { name: 'Give the return address' }).click();
+    await shopPage.getByLabel('The builder’s return address').getByText('42 Camshaft Lane').waitFor();
     await log.getByLabel('What happened').selectOption('shipped');
     await log.getByLabel('Carrier').fill('Ridgeline Freight');
     await log.getByRole('button', { name: 'Log it' }).click();
@@ -364,9 +383,9 @@ describe('the inspection record, from block received to payment released, in a r
     await log.getByLabel('Tracking number').fill('RF 4471 0093');
     await log.getByRole('button', { name: 'Log it' }).click();
     await progress.getByText('RF 4471 0093').waitFor();
-    // Block received, version 1 submitted (logged by the server), hone started, shipped.
+    // Parts received, version 1 submitted (logged by the server), hone started, shipped.
     await expect(progress.getByTestId('milestone').count()).resolves.toBe(4);
-    await builderPage.getByRole('list', { name: 'Progress on this job' }).getByText('Carrier: Ridgeline Freight').waitFor();
+    await builderPage.getByRole('list', { name: 'Progress on this job' }).getByText('Shipped back by Ridgeline Freight, tracking RF 4471 0093').waitFor();
     await shopPage.getByRole('link', { name: 'Enter the inspection record' }).click();
     await shopPage.getByRole('heading', { level: 1, name: 'Inspection record, version 2' }).waitFor();
     await shopPage.getByText('The builder rejected version 1').waitFor();

@@ -149,7 +149,7 @@ describe('whole journeys through the marketplace, one browser per person', () =>
       await expect(log.getByLabel('What happened').inputValue()).resolves.toBe('block_received');
       await log.getByLabel('Note (optional)').fill('Block in on a pallet, all caps marked.');
       await log.getByRole('button', { name: 'Log it' }).click();
-      await progress.getByText('Block received').waitFor();
+      await progress.getByText('Parts received').waitFor();
       await status(s, 'In the shop');
       for (const [kind, words] of [
         ['operation_started', 'Bore started'],
@@ -162,7 +162,7 @@ describe('whole journeys through the marketplace, one browser per person', () =>
       }
       // The builder sees every step live.
       const builderProgress = b.getByRole('list', { name: 'Progress on this job' });
-      for (const words of ['Block received', 'Bore started', 'Bore finished']) await builderProgress.getByText(words).waitFor();
+      for (const words of ['Parts received', 'Bore started', 'Bore finished']) await builderProgress.getByText(words).waitFor();
       await status(b, 'In the shop');
 
       // ── The inspection record: the grid pasted from a spreadsheet, the rest typed. ──

@@ -13,7 +13,7 @@ import { formatDay } from '@client/lib/dates';
 import { useWatchJob } from '@client/lib/realtime';
 import { JobMoneyPanel } from '@client/features/payments';
 import { InspectionReview } from '@client/features/inspections';
-import { MilestonesPanel } from '@client/features/milestones';
+import { MilestonesPanel, ShippingPanel } from '@client/features/milestones';
 import { DisputePanel } from '@client/features/disputes';
 import { ReviewPanel } from '@client/features/reviews';
 
@@ -115,6 +115,7 @@ export function JobDetailRoute() {
       {workViewer && <InspectionReview job={job} viewer={workViewer} />}
       {workViewer && <DisputePanel job={job} viewer={workViewer} />}
       {workViewer && (job.status === 'completed' || job.status === 'resolved') && <ReviewPanel job={job} viewer={workViewer} />}
+      {workViewer && <ShippingPanel job={job} viewer={workViewer} />}
       {workViewer && <MilestonesPanel job={job} canLog={workViewer === 'shop'} />}
 
       {showBids && (

@@ -1,6 +1,7 @@
 import { sql } from 'drizzle-orm';
 import { check, date, index, integer, jsonb, pgEnum, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core';
 import { mustReference, stampedNow, timestamps, uuidPrimaryKey } from './columns';
+import type { PostalAddress } from '../../../shared/schemas/shipping';
 import { shops } from './shops';
 import { users } from './users-and-sessions';
 
@@ -52,6 +53,8 @@ export const jobs = pgTable(
     feeBps: integer(),
     publishedAt: timestamp({ withTimezone: true }),
     cancelledAt: timestamp({ withTimezone: true }),
+    /** Where the shop sends a `ship` job's parts back; the builder gives it once the job is paid for. */
+    returnAddress: jsonb().$type<PostalAddress>(),
     ...timestamps,
   },
   (t) => [

@@ -1,6 +1,7 @@
 import { sql } from 'drizzle-orm';
-import { boolean, check, index, integer, pgTable, primaryKey, text, timestamp, uniqueIndex } from 'drizzle-orm/pg-core';
+import { boolean, check, index, integer, jsonb, pgTable, primaryKey, text, timestamp, uniqueIndex } from 'drizzle-orm/pg-core';
 import { mustReference, timestamps, uuidPrimaryKey } from './columns';
+import type { PostalAddress } from '../../../shared/schemas/shipping';
 import { users } from './users-and-sessions';
 
 // Machine shops' public profiles and their prices.
@@ -20,6 +21,8 @@ export const shops = pgTable(
     equipmentNotes: text().notNull().default(''),
     turnaroundDays: integer().notNull(),
     notifyMatchingJobs: boolean().notNull().default(false),
+    /** Where builders send parts; shown only to the builder of a paid-for `ship` job. */
+    receivingAddress: jsonb().$type<PostalAddress>(),
     verifiedAt: timestamp({ withTimezone: true }),
     /** The shop's connected account at the payment provider, and when it became able to receive transfers. */
     payoutAccountId: text(),

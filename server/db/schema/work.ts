@@ -16,6 +16,8 @@ export const milestoneKind = pgEnum('milestone_kind', [
   'shipped',
   'delivered',
   'note',
+  /** Logged by the builder: the parts left for the shop. */
+  'sent_to_shop',
 ]);
 
 export const inspectionStatus = pgEnum('inspection_status', ['submitted', 'accepted', 'rejected', 'superseded']);

@@ -117,7 +117,7 @@ export async function submitInspection(deps: InspectionDeps, user: User, jobId: 
     const { job } = parties;
     if (job.status !== 'in_work') {
       throw conflict(
-        job.status === 'inspection_submitted' ? 'A record is already waiting for the builder.' : 'Log “block received” before the inspection record.',
+        job.status === 'inspection_submitted' ? 'A record is already waiting for the builder.' : 'Log “parts received” before the inspection record.',
         'job_not_in_work',
       );
     }

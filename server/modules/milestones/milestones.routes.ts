@@ -58,7 +58,7 @@ export const milestonesRoutes = [
   route({
     method: 'post',
     path: '/api/jobs/:jobId/milestones',
-    summary: 'The working shop logs progress (block received starts the work)',
+    summary: 'The working shop logs progress (parts received starts the work)',
     access: 'shop',
     params: jobParamsSchema,
     body: milestoneInputSchema,

@@ -58,6 +58,7 @@ export async function upsertShop(db: Executor, userId: string, input: ShopProfil
     equipmentNotes: input.equipmentNotes,
     turnaroundDays: input.turnaroundDays,
     notifyMatchingJobs: input.notifyMatchingJobs,
+    receivingAddress: input.receivingAddress,
   };
   const [row] = await db
     .insert(shops)

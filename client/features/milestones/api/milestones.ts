@@ -16,7 +16,7 @@ export const milestoneQueries = {
 
 export const useMilestones = (jobId: string, options: { enabled?: boolean } = {}) => useQuery({ ...milestoneQueries.forJob(jobId), ...options });
 
-/** The awarded shop logs progress; "block received" also moves the job into the shop's hands, so the job refreshes too. */
+/** The awarded shop logs progress; "parts received" also moves the job into the shop's hands, so the job refreshes too. */
 export const useLogMilestone = (jobId: string, options?: MutationOptions<Milestone, MilestoneInput>) =>
   useApiMutation(
     (input: MilestoneInput) => api.post<MilestoneAnswer>(`/api/jobs/${jobId}/milestones`, input).then((r) => r.milestone),

@@ -19,10 +19,10 @@ import { milestoneKindWords } from './milestone-words';
 type FormValues = z.input<typeof milestoneInputSchema>;
 type Kind = (typeof milestoneKinds)[number];
 
-/** Before the block arrives there is only one thing to log; afterwards, everything else. */
+/** Before the parts arrive there is only one thing to log; afterwards, everything else the shop logs. */
 function kindsFor(status: JobDetail['status']): Kind[] {
   if (status === 'funded') return ['block_received'];
-  return milestoneKinds.filter((kind) => kind !== 'block_received' && kind !== 'inspection_submitted');
+  return milestoneKinds.filter((kind) => kind !== 'block_received' && kind !== 'inspection_submitted' && kind !== 'sent_to_shop');
 }
 
 const NOTE_LABELS: Partial<Record<Kind, string>> = {

@@ -1,14 +1,14 @@
 import type { Milestone } from '@shared/schemas/milestones';
 import { MilestonePhotos } from './milestone-photos';
-import { formatWhen, milestoneTitle } from './milestone-words';
+import { formatWhen, milestoneTitle, shippingWords } from './milestone-words';
 
 /**
  * The job's progress as an ordered list, oldest first: what happened, when,
- * who logged it, and any note or tracking number.
+ * who logged it, and any note; the trips to and from the shop with carrier and tracking number.
  */
 export function MilestoneTimeline({ milestones }: { milestones: Milestone[] }) {
   if (milestones.length === 0) {
-    return <p className="text-ink-soft">Nothing logged yet. The shop logs each step here, starting when the block arrives.</p>;
+    return <p className="text-ink-soft">Nothing logged yet. The shop logs each step here, starting when the parts arrive.</p>;
   }
   return (
     <ol aria-label="Progress on this job" className="flex flex-col">
@@ -23,17 +23,7 @@ export function MilestoneTimeline({ milestones }: { milestones: Milestone[] }) {
             <p className="text-sm text-ink-soft">
               <time dateTime={m.createdAt}>{formatWhen(m.createdAt)}</time> · {m.author.displayName}
             </p>
-            {m.kind === 'shipped' && (m.carrier || m.trackingNumber) && (
-              <p className="mt-1 text-sm">
-                {m.carrier && <span>Carrier: {m.carrier}</span>}
-                {m.carrier && m.trackingNumber && ' · '}
-                {m.trackingNumber && (
-                  <span>
-                    Tracking number: <span className="font-mono">{m.trackingNumber}</span>
-                  </span>
-                )}
-              </p>
-            )}
+            {shippingWords(m) && <p className="mt-1 text-sm">{shippingWords(m)}</p>}
             {m.note && <p className="mt-1 whitespace-pre-wrap text-ink">{m.note}</p>}
             {m.photos.length > 0 && <MilestonePhotos photos={m.photos} title={milestoneTitle(m)} />}
           </div>

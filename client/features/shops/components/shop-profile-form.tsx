@@ -3,6 +3,7 @@ import { useFieldArray, useForm, type Path } from 'react-hook-form';
 import { toast } from 'sonner';
 import { findOperation, type OperationCode } from '@shared/catalogue';
 import { shopProfileSchema, type ShopProfileInput } from '@shared/schemas/shops';
+import { addressError, addressFormValues, blankAddress, PostalAddressFields, type AddressFormValues } from '@client/components/postal-address';
 import { Button } from '@client/components/ui/button';
 import { Card } from '@client/components/ui/card';
 import { CheckboxField } from '@client/components/ui/checkbox-field';
@@ -32,6 +33,8 @@ export interface ShopProfileFormValues {
   turnaroundDays: number;
   rateCard: RateRow[];
   notifyMatchingJobs: boolean;
+  /** All blank means no receiving address. */
+  receivingAddress: AddressFormValues;
 }
 
 function toFormValues(shop: OwnShop | null): ShopProfileFormValues {
@@ -47,6 +50,7 @@ function toFormValues(shop: OwnShop | null): ShopProfileFormValues {
       turnaroundDays: undefined as unknown as number, // blank until the shop says
       rateCard: [],
       notifyMatchingJobs: true,
+      receivingAddress: blankAddress(),
     };
   }
   const capabilities = inCatalogueOrder(shop.capabilities, (code) => code) as OperationCode[];
@@ -65,6 +69,7 @@ function toFormValues(shop: OwnShop | null): ShopProfileFormValues {
       return { operation, price: cents === undefined ? '' : centsToDollars(cents) };
     }),
     notifyMatchingJobs: shop.notifyMatchingJobs,
+    receivingAddress: addressFormValues(shop.receivingAddress),
   };
 }
 
@@ -80,11 +85,15 @@ function prepare(values: ShopProfileFormValues): PreparedInput {
     formRowOf.push(index);
     rateCard.push({ operation: row.operation, priceCents: parsed.ok ? parsed.cents : Number.NaN });
   });
+  // A wholly blank address means the shop gives none; a partly filled one is checked field by field.
+  const address = values.receivingAddress;
+  const blank = [...address.lines, address.city, address.region, address.postalCode, address.country].every((part) => part.trim() === '');
   return {
-    input: { ...values, rateCard },
+    input: { ...values, rateCard, receivingAddress: blank ? null : address },
     moneyErrors,
     // A rate-card message (price or operation) goes beside that row's price input.
-    formPath: (path) => path.replace(/^rateCard\.(\d+)\.(priceCents|operation)$/, (_, row: string) => `rateCard.${formRowOf[Number(row)]}.price`),
+    formPath: (path) =>
+      path === 'receivingAddress.lines' ? 'receivingAddress.lines.0' : path.replace(/^rateCard\.(\d+)\.(priceCents|operation)$/, (_, row: string) => `rateCard.${formRowOf[Number(row)]}.price`),
   };
 }
 
@@ -101,6 +110,11 @@ const plainFields: Array<Path<ShopProfileFormValues>> = [
   'turnaroundDays',
   'rateCard',
   'notifyMatchingJobs',
+  'receivingAddress.lines.0',
+  'receivingAddress.city',
+  'receivingAddress.region',
+  'receivingAddress.postalCode',
+  'receivingAddress.country',
 ];
 
 export function ShopProfileForm({ shop }: { shop: OwnShop | null }) {
@@ -250,6 +264,16 @@ export function ShopProfileForm({ shop }: { shop: OwnShop | null }) {
           className="[&_textarea]:font-sans [&_textarea]:text-base"
           {...form.register('equipmentNotes')}
         />
+      </Card>
+
+      <Card className="flex flex-col gap-4">
+        <div>
+          <h2 className="text-xl font-bold">Receiving address</h2>
+          <p className="mt-1 text-sm text-ink-soft">
+            Where builders send parts. Only the builder of a job you won sees it, once that job is paid for. Leave it blank if you take drop-offs only.
+          </p>
+        </div>
+        <PostalAddressFields register={(part) => form.register(`receivingAddress.${part}`)} error={(part) => addressError(errors.receivingAddress, part)} />
       </Card>
 
       <Card className="flex flex-col gap-4">
