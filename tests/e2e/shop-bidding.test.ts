@@ -106,9 +106,11 @@ describe('a shop in a real browser', () => {
     await page.waitForURL(url('/shop/profile'));
     await page.getByText('A shop needs a profile before it can bid').waitFor();
     await page.getByLabel('Shop name').fill('Lantern Hill Machine Works');
-    await page.getByLabel('Country').fill('United States');
-    await page.getByLabel('State, province or county').fill('Ohio');
-    await page.getByLabel('Town or city').fill('Akron');
+    // Where the shop is (its receiving address, further down, has fields of the same names).
+    const about = page.getByRole('region', { name: 'Your shop' });
+    await about.getByLabel('Country').fill('United States');
+    await about.getByLabel('State, province or county').fill('Ohio');
+    await about.getByLabel('Town or city').fill('Akron');
     for (const work of ['Bore', 'Hone', 'Torque-plate hone', 'Deck']) await page.getByRole('checkbox', { name: work, exact: true }).check();
     const borePrice = page.getByRole('textbox', { name: 'Bore', exact: true });
     await borePrice.fill('12.345');

@@ -1,8 +1,13 @@
 import type { ReactNode } from 'react';
 import { cn } from '@client/lib/cn';
 
-export function Card({ children, className }: { children: ReactNode; className?: string }) {
-  return <section className={cn('rounded-card bg-paper-raised p-6 shadow-card ring-1 ring-slate-100', className)}>{children}</section>;
+/** A raised card; with `aria-labelledby` (its heading's id) it is a named region, so its fields can be told from another card's. */
+export function Card({ children, className, 'aria-labelledby': labelledBy }: { children: ReactNode; className?: string; 'aria-labelledby'?: string }) {
+  return (
+    <section aria-labelledby={labelledBy} className={cn('rounded-card bg-paper-raised p-6 shadow-card ring-1 ring-slate-100', className)}>
+      {children}
+    </section>
+  );
 }
 
 export function PageTitle({ title, lead }: { title: string; lead?: ReactNode }) {

@@ -169,8 +169,8 @@ export function ShopProfileForm({ shop }: { shop: OwnShop | null }) {
     <form onSubmit={onSubmit} noValidate aria-label="Shop profile" className="flex flex-col gap-6">
       {formError && <Notice tone="error">{formError}</Notice>}
 
-      <Card className="flex flex-col gap-4">
-        <h2 className="text-xl font-bold">Your shop</h2>
+      <Card aria-labelledby="shop-profile-about" className="flex flex-col gap-4">
+        <h2 id="shop-profile-about" className="text-xl font-bold">Your shop</h2>
         <TextField label="Shop name" autoComplete="organization" error={errors.name?.message} {...form.register('name')} />
         <div className="grid gap-4 sm:grid-cols-3">
           <TextField label="Country" autoComplete="country-name" error={errors.country?.message} {...form.register('country')} />
@@ -266,9 +266,9 @@ export function ShopProfileForm({ shop }: { shop: OwnShop | null }) {
         />
       </Card>
 
-      <Card className="flex flex-col gap-4">
+      <Card aria-labelledby="shop-profile-receiving" className="flex flex-col gap-4">
         <div>
-          <h2 className="text-xl font-bold">Receiving address</h2>
+          <h2 id="shop-profile-receiving" className="text-xl font-bold">Receiving address</h2>
           <p className="mt-1 text-sm text-ink-soft">
             Where builders send parts. Only the builder of a job you won sees it, once that job is paid for. Leave it blank if you take drop-offs only.
           </p>
