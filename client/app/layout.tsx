@@ -221,7 +221,7 @@ export function Layout() {
               </NavLink>
               <MainNav items={items} unread={talks ? unread : 0} className="hidden md:flex md:flex-wrap md:gap-1" />
             </div>
-            <div className="flex items-center gap-2 md:gap-3">
+            <div className="flex flex-wrap items-center justify-end gap-2 md:gap-3">
               {me && <ConnectionIndicator />}
               {talks && (
                 <NavLink to="/messages" end className={(state) => cn(navClass(state), 'md:hidden')}>

@@ -27,8 +27,8 @@ async function tooWide(page: Page, paths: string[]) {
     await open(page, path);
     const [width, culprit] = await page.evaluate((screenWidth) => {
       // Content scrolled inside its own container (with a positioned scroller, so its absolute parts are clipped too) does not count.
-      const scrolled = (el: Element): boolean => el.parentElement?.closest('main *') && getComputedStyle(el.parentElement).overflowX !== 'visible' ? true : el.parentElement ? scrolled(el.parentElement) : false;
-      const past = [...document.querySelectorAll('main *')].find((el) => el.getBoundingClientRect().right > screenWidth + 0.5 && !scrolled(el));
+      const scrolled = (el: Element): boolean => el.parentElement?.closest('body *') && getComputedStyle(el.parentElement).overflowX !== 'visible' ? true : el.parentElement ? scrolled(el.parentElement) : false;
+      const past = [...document.querySelectorAll('body *')].find((el) => el.getBoundingClientRect().right > screenWidth + 0.5 && !scrolled(el));
       const name = past ? `${past.tagName.toLowerCase()}.${[...past.classList].join('.')} "${past.textContent?.slice(0, 40)}"` : '';
       return [document.documentElement.scrollWidth, name] as const;
     }, phone.width);
