@@ -229,3 +229,21 @@ export function loadConfig(source: NodeJS.ProcessEnv = process.env): AppConfig {
     },
   };
 }
+
+const LOOPBACK = new Set(['localhost', '127.0.0.1', '[::1]', '::1']);
+const EVERY_ADDRESS = new Set(['0.0.0.0', '::', '[::]']);
+
+/**
+ * A warning for the server log when the links Tenthmark sends (APP_URL: e-mail
+ * links, payment return pages) name another local host than the one the app
+ * listens on, e.g. `localhost` against `127.0.0.1`. The browser keeps the
+ * session cookie per host name, so such a link lands the person signed out.
+ * Nothing is said for a public name (a proxy in front) or when the app
+ * listens on every address.
+ */
+export function appUrlHostWarning(appUrl: string, listenHost: string): string | undefined {
+  const linkHost = new URL(appUrl).hostname.toLowerCase();
+  const host = listenHost.toLowerCase();
+  if (EVERY_ADDRESS.has(host) || !LOOPBACK.has(linkHost) || linkHost === host || linkHost === `[${host}]`) return undefined;
+  return `APP_URL (${appUrl}) names the host ${linkHost}, but the app listens on ${listenHost}: links in e-mails and from the payment pages will open a host where the person is not signed in. Set APP_URL to use ${listenHost}, or HOST to ${linkHost}.`;
+}

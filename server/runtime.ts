@@ -2,7 +2,7 @@ import { createServer, type Server } from 'node:http';
 import type { AddressInfo, Socket } from 'node:net';
 import { createApp, type AppDeps } from './app';
 import { createDb, createPool, runMigrations } from './db/client';
-import type { AppConfig } from './env';
+import { appUrlHostWarning, type AppConfig } from './env';
 import { createLogger } from './lib/logger';
 import { createOutboxWorker } from './lib/mail/outbox';
 import { createTransport } from './lib/mail/transport';
@@ -39,6 +39,8 @@ export async function startServer(
   } = {},
 ): Promise<RunningServer> {
   const logger = createLogger(config, { pretty: options.prettyLogs });
+  const hostWarning = appUrlHostWarning(config.appUrl, config.host);
+  if (hostWarning) logger.warn(hostWarning);
   if (options.migrate ?? true) await runMigrations(config.databaseUrl);
   const pool = createPool(config.databaseUrl);
   const db = createDb(pool);

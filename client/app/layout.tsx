@@ -1,6 +1,6 @@
 import { useQueryClient } from '@tanstack/react-query';
-import { lazy, Suspense, useEffect, useState } from 'react';
-import { NavLink, Outlet, ScrollRestoration, useNavigate } from 'react-router-dom';
+import { forwardRef, lazy, Suspense, useEffect, useRef, useState } from 'react';
+import { NavLink, Outlet, ScrollRestoration, useLocation, useNavigate } from 'react-router-dom';
 import type { Me } from '@shared/schemas/auth';
 import { CountBadge } from '@client/components/ui/count-badge';
 import { authKeys, useSignOut, useMe } from '@client/features/auth';
@@ -126,12 +126,82 @@ function Account({ me }: { me: Me }) {
   );
 }
 
+const MENU_ID = 'site-menu';
+
+/** The main navigation's links; the wide header shows them in a row, the phone's menu in a column. */
+function MainNav({ items, unread, className }: { items: NavItem[]; unread: number; className: string }) {
+  return (
+    <nav aria-label="Main" className={className}>
+      {items.map((item) => (
+        <NavLink key={item.to} to={item.to} end className={navClass}>
+          {item.label}
+          {item.to === '/messages' && <CountBadge count={unread} meaning="unread" />}
+        </NavLink>
+      ))}
+    </nav>
+  );
+}
+
+function SignInLinks() {
+  return (
+    <div className="flex flex-wrap gap-2">
+      <NavLink to="/signin" className={navClass}>
+        Sign in
+      </NavLink>
+      <NavLink to="/signup" className={navClass}>
+        Create an account
+      </NavLink>
+    </div>
+  );
+}
+
+/**
+ * The phone's menu state: closed again on a page change, and by Escape,
+ * which gives the focus back to the button that opened it.
+ */
+function useCompactMenu() {
+  const [open, setOpen] = useState(false);
+  const buttonRef = useRef<HTMLButtonElement>(null);
+  const { pathname } = useLocation();
+  useEffect(() => setOpen(false), [pathname]);
+  useEffect(() => {
+    if (!open) return;
+    const onKeyDown = (event: KeyboardEvent) => {
+      if (event.key !== 'Escape') return;
+      setOpen(false);
+      buttonRef.current?.focus();
+    };
+    document.addEventListener('keydown', onKeyDown);
+    return () => document.removeEventListener('keydown', onKeyDown);
+  }, [open]);
+  return { open, setOpen, buttonRef };
+}
+
+const MenuButton = forwardRef<HTMLButtonElement, { open: boolean; onToggle: () => void }>(function MenuButton({ open, onToggle }, ref) {
+  return (
+    <button
+      ref={ref}
+      type="button"
+      aria-expanded={open}
+      aria-controls={MENU_ID}
+      onClick={onToggle}
+      className="inline-flex h-10 items-center gap-2 rounded-md px-3 text-sm font-semibold text-slate-800 ring-1 ring-slate-300 hover:bg-slate-100 md:hidden"
+    >
+      <svg aria-hidden viewBox="0 0 24 24" className="size-5 fill-none stroke-current" strokeWidth={2} strokeLinecap="round">
+        {open ? <path d="M6 6l12 12M18 6L6 18" /> : <path d="M4 7h16M4 12h16M4 17h16" />}
+      </svg>
+      Menu
+    </button>
+  );
+});
+
 export function Layout() {
   const { data: me } = useMe();
   const queryClient = useQueryClient();
   const items = navigationByRole[me?.role ?? 'anonymous'];
   const talks = me?.role === 'builder' || me?.role === 'shop';
   const unread = useUnreadTotal({ enabled: talks });
+  const { open: menuOpen, setOpen: setMenuOpen, buttonRef: menuButton } = useCompactMenu();
   return (
     <RealtimeProvider userId={me?.id} onUnauthenticated={() => void queryClient.invalidateQueries({ queryKey: authKeys.me() })}>
       {me && (
@@ -144,34 +214,29 @@ export function Layout() {
           Skip to the content
         </a>
         <header className="border-b-4 border-brass-500 bg-paper-raised print:hidden">
-          <div className="mx-auto flex max-w-page flex-wrap items-center justify-between gap-3 px-4 py-3">
+          <div className="mx-auto flex max-w-page flex-wrap items-center justify-between gap-x-3 gap-y-2 px-4 py-2 md:py-3">
             <div className="flex items-center gap-6">
               <NavLink to={me ? '/dashboard' : '/'} className="text-xl font-extrabold tracking-tight text-slate-700">
                 Tenth<span className="text-brass-700">mark</span>
               </NavLink>
-              <nav aria-label="Main" className="flex flex-wrap gap-1">
-                {items.map((item) => (
-                  <NavLink key={item.to} to={item.to} end className={navClass}>
-                    {item.label}
-                    {item.to === '/messages' && talks && <CountBadge count={unread} meaning="unread" />}
-                  </NavLink>
-                ))}
-              </nav>
+              <MainNav items={items} unread={talks ? unread : 0} className="hidden md:flex md:flex-wrap md:gap-1" />
             </div>
-            {me ? (
-              <div className="flex flex-wrap items-center gap-3">
-                <ConnectionIndicator />
-                <NotificationBell />
-                <Account me={me} />
-              </div>
-            ) : (
-              <div className="flex gap-2">
-                <NavLink to="/signin" className={navClass}>
-                  Sign in
+            <div className="flex flex-wrap items-center justify-end gap-2 md:gap-3">
+              {me && <ConnectionIndicator />}
+              {talks && (
+                <NavLink to="/messages" end className={(state) => cn(navClass(state), 'md:hidden')}>
+                  Messages
+                  <CountBadge count={unread} meaning="unread" />
                 </NavLink>
-                <NavLink to="/signup" className={navClass}>
-                  Create an account
-                </NavLink>
+              )}
+              {me && <NotificationBell />}
+              <div className="hidden md:flex">{me ? <Account me={me} /> : <SignInLinks />}</div>
+              <MenuButton open={menuOpen} onToggle={() => setMenuOpen((open) => !open)} ref={menuButton} />
+            </div>
+            {menuOpen && (
+              <div id={MENU_ID} className="flex basis-full flex-col gap-3 border-t border-slate-200 pb-2 pt-3 md:hidden">
+                <MainNav items={items} unread={talks ? unread : 0} className="flex flex-col gap-1" />
+                <div className="border-t border-slate-200 pt-3">{me ? <Account me={me} /> : <SignInLinks />}</div>
               </div>
             )}
           </div>

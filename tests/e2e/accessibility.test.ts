@@ -129,7 +129,7 @@ async function tabTo(page: Page, name: string | RegExp, max = 80) {
 /** Signs out with the header's button: the session ends on the server, so no cookie still in flight brings it back. */
 async function signOut(page: Page) {
   await page.getByRole('button', { name: 'Sign out' }).click();
-  await page.getByRole('link', { name: 'Sign in' }).waitFor();
+  await page.getByRole('banner').getByRole('link', { name: 'Sign in' }).waitFor();
 }
 
 /** A page in a context of its own with nobody signed in (the suite's pages start signed in). */

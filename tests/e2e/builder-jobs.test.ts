@@ -508,6 +508,11 @@ describe('a builder posting a job and choosing a shop, in a real browser', () =>
     await page.getByText('No such job').waitFor();
     await expect(page.getByText('A draft nobody else sees').count()).resolves.toBe(0);
 
+    // A malformed id names no job either: the same clear page, not an invitation to try again.
+    await page.goto(url('/jobs/not-a-uuid'));
+    await page.getByText('No such job').waitFor();
+    await expect(page.getByRole('button', { name: 'Retry' }).count()).resolves.toBe(0);
+
     await page.goto(url(`/jobs/${open.id}`));
     await page.getByText('You cannot open this job', { exact: true }).waitFor();
     await expect(page.getByRole('alert').textContent()).resolves.toContain('This job is not yours to see.');

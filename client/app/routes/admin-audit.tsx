@@ -45,7 +45,7 @@ export function AdminAuditRoute() {
       </FilterForm>
       {audit.isPending && <p className="text-ink-soft">Loading the audit log …</p>}
       {audit.isError && (
-        <Notice tone="error" title="The audit log could not be loaded">
+        <Notice tone="error" title="The audit log could not be loaded" onRetry={() => void audit.refetch()}>
           {audit.error.message}
         </Notice>
       )}

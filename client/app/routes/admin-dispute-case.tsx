@@ -41,7 +41,7 @@ export function AdminDisputeCaseRoute() {
       <div>
         <BackLink />
         <PageTitle title={missing ? 'No such dispute' : 'The case could not be loaded'} />
-        <Notice tone="error">{caseQuery.error.message}</Notice>
+        <Notice tone="error" onRetry={missing ? undefined : () => void caseQuery.refetch()}>{caseQuery.error.message}</Notice>
       </div>
     );
   }
@@ -63,7 +63,7 @@ export function AdminDisputeCaseRoute() {
           </span>
         }
       />
-      <div className="grid items-start gap-6 lg:grid-cols-[3fr_2fr]">
+      <div className="grid grid-cols-1 items-start gap-6 lg:grid-cols-[3fr_2fr]">
         <div className="flex min-w-0 flex-col gap-6">
           <Section title="The case">
             <div className="flex flex-col gap-6">

@@ -49,7 +49,7 @@ export function AdminDisputesRoute() {
       </div>
       {queue.isPending && <p className="text-ink-soft">Loading disputes …</p>}
       {queue.isError && (
-        <Notice tone="error" title="The disputes could not be loaded">
+        <Notice tone="error" title="The disputes could not be loaded" onRetry={() => void queue.refetch()}>
           {queue.error.message}
         </Notice>
       )}

@@ -37,7 +37,7 @@ function LedgerResults({ filters, page, setPage }: { filters: LedgerFilters; pag
   if (ledger.isPending) return <p className="text-ink-soft">Loading the ledger …</p>;
   if (ledger.isError)
     return (
-      <Notice tone="error" title="The ledger could not be loaded">
+      <Notice tone="error" title="The ledger could not be loaded" onRetry={() => void ledger.refetch()}>
         {ledger.error.message}
       </Notice>
     );

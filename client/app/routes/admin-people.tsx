@@ -7,7 +7,7 @@ export function AdminPeopleRoute() {
   return (
     <div>
       <PageTitle title="People" lead="Every account on Tenthmark. Suspend an account that breaks the rules, and reinstate it later; new administrators are added here, by an administrator." />
-      <div className="grid gap-6 lg:grid-cols-[2fr_1fr]">
+      <div className="grid grid-cols-1 gap-6 lg:grid-cols-[2fr_1fr]">
         <Card>
           <PeopleTable currentUserId={me?.id} />
         </Card>

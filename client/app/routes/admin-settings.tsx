@@ -9,12 +9,12 @@ export function AdminSettingsRoute() {
       <PageTitle title="Platform fee" lead="What Tenthmark keeps from each job’s payment to the shop. It is fixed on a job when its bid is accepted." />
       {fee.isPending && <p className="text-ink-soft">Loading the fee …</p>}
       {fee.isError && (
-        <Notice tone="error" title="The fee could not be loaded">
+        <Notice tone="error" title="The fee could not be loaded" onRetry={() => void fee.refetch()}>
           {fee.error.message}
         </Notice>
       )}
       {fee.data && (
-        <div className="grid items-start gap-6 lg:grid-cols-2">
+        <div className="grid grid-cols-1 items-start gap-6 lg:grid-cols-2">
           <Card>
             <h2 className="text-xl font-bold">Current fee</h2>
             <p className="mt-3 text-4xl font-extrabold tabular-nums" data-testid="current-fee">

@@ -47,7 +47,7 @@ export function AdminShopsRoute() {
       </form>
       {shops.isPending && <p className="text-ink-soft">Loading shops …</p>}
       {shops.isError && (
-        <Notice tone="error" title="The shops could not be loaded">
+        <Notice tone="error" title="The shops could not be loaded" onRetry={() => void shops.refetch()}>
           {shops.error.message}
         </Notice>
       )}

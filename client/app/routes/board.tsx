@@ -200,7 +200,7 @@ export function BoardRoute() {
       </FilterForm>
 
       {board.isError && (
-        <Notice tone="error" title="The board could not be loaded">
+        <Notice tone="error" title="The board could not be loaded" onRetry={() => void board.refetch()}>
           {board.error.message}
         </Notice>
       )}

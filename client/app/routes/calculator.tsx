@@ -42,7 +42,7 @@ export function CalculatorRoute() {
       </div>
 
       <nav aria-label="Calculators on this page">
-        <ul className="grid gap-2 sm:grid-cols-2 lg:grid-cols-4">
+        <ul className="grid grid-cols-1 gap-2 sm:grid-cols-2 lg:grid-cols-4">
           {CALCULATOR_SECTIONS.map((section) => (
             <li key={section.id}>
               <a

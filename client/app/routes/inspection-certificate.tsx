@@ -85,7 +85,7 @@ export function InspectionCertificateRoute() {
       {input.cylinders && results.bores && (
         <>
           <h2 className="mt-4 text-lg font-bold">Bores ({unit})</h2>
-          <div className="overflow-x-auto">
+          <div className="relative overflow-x-auto">
             <table className="w-full text-sm tabular-nums">
               <caption className="sr-only">Readings and figures per cylinder</caption>
               <thead>

@@ -9,6 +9,7 @@ import { bidQueries, BidComparison, ShopBidPanel } from '@client/features/bids';
 import { useJob, JobFiguresPanel, JobOwnerActions, JobLogistics, JobOperations, JobSpec, JobStatusBadge, plural, statusWords, PhotoGallery, PhotoUploader } from '@client/features/jobs';
 import { ConversationPanel, type Bidder } from '@client/features/messages';
 import { ApiError } from '@client/lib/api-client';
+import { cn } from '@client/lib/cn';
 import { formatDay } from '@client/lib/dates';
 import { useWatchJob } from '@client/lib/realtime';
 import { JobMoneyPanel } from '@client/features/payments';
@@ -29,20 +30,21 @@ function Section({ title, children, action }: { title: string; children: ReactNo
   );
 }
 
-function LoadFailed({ error }: { error: Error }) {
+function LoadFailed({ error, onRetry }: { error: Error; onRetry: () => void }) {
   const status = error instanceof ApiError ? error.status : 0;
-  const title = status === 404 ? 'No such job' : status === 403 ? 'You cannot open this job' : 'The job could not be loaded';
-  const lead =
-    status === 404
-      ? 'It may have been removed, or the link may be mistyped. A draft is visible only to the builder writing it.'
-      : status === 403
-        ? 'A job is open to the builder who posted it, to shops while it takes bids, and afterwards to the shops that bid on it.'
-        : 'Try again in a moment.';
+  // A malformed id (the server refuses it as a bad request) names no job, as surely as an unknown one.
+  const missing = status === 404 || status === 400;
+  const title = missing ? 'No such job' : status === 403 ? 'You cannot open this job' : 'The job could not be loaded';
+  const lead = missing
+    ? 'It may have been removed, or the link may be mistyped. A draft is visible only to the builder writing it.'
+    : status === 403
+      ? 'A job is open to the builder who posted it, to shops while it takes bids, and afterwards to the shops that bid on it.'
+      : 'Try again in a moment.';
   return (
     <div className="mx-auto max-w-lg">
-      <Notice tone="error" title={title}>
-        <p>{error.message}</p>
-        <p className="mt-1">{lead}</p>
+      <Notice tone="error" title={title} onRetry={missing || status === 403 ? undefined : onRetry}>
+        {!missing && <p>{error.message}</p>}
+        <p className={cn(!missing && 'mt-1')}>{lead}</p>
       </Notice>
       <p className="mt-4">
         <Link to="/dashboard" className="font-semibold text-slate-700 underline underline-offset-4">
@@ -92,7 +94,7 @@ export function JobDetailRoute() {
   const bidsQuery = useQuery({ ...bidQueries.forJob(jobId), enabled: ownerTalks || shopAfterAward });
 
   if (jobQuery.isPending) return <p className="text-ink-soft">Loading the job …</p>;
-  if (jobQuery.isError) return <LoadFailed error={jobQuery.error} />;
+  if (jobQuery.isError) return <LoadFailed error={jobQuery.error} onRetry={() => void jobQuery.refetch()} />;
 
   const job = jobQuery.data;
   const isOwner = job.viewer.isOwner;
@@ -127,7 +129,7 @@ export function JobDetailRoute() {
       {me?.role === 'shop' && <ShopBidPanel job={job} />}
       {me?.role === 'shop' && <ConversationPanel side="shop" jobId={job.id} jobStatus={job.status} />}
 
-      <div className="grid items-start gap-6 lg:grid-cols-[minmax(0,1fr)_20rem]">
+      <div className="grid grid-cols-1 items-start gap-6 lg:grid-cols-[minmax(0,1fr)_20rem]">
         <div className="flex min-w-0 flex-col gap-6">
           <Section title="Photos">
             <PhotoGallery jobId={job.id} jobTitle={job.title} photos={job.photos} canRemove={isOwner && photosOpen} />

@@ -23,7 +23,7 @@ export function EditJobRoute() {
   if (jobQuery.isPending) return <p className="text-ink-soft">Loading the job …</p>;
   if (jobQuery.isError) {
     return (
-      <Notice tone="error" title="The job could not be loaded">
+      <Notice tone="error" title="The job could not be loaded" onRetry={() => void jobQuery.refetch()}>
         {jobQuery.error.message}
       </Notice>
     );

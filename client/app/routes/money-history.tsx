@@ -129,7 +129,7 @@ export function MoneyHistoryRoute() {
       {history.data && <MoneyTotalsBox totals={history.data.totals} side={side} />}
       {valid && history.isPending && <p className="text-ink-soft">Loading your money history …</p>}
       {history.isError && (
-        <Notice tone="error" title="Your money history could not be loaded">
+        <Notice tone="error" title="Your money history could not be loaded" onRetry={() => void history.refetch()}>
           {history.error.message}
         </Notice>
       )}

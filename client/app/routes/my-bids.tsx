@@ -28,7 +28,7 @@ export function MyBidsRoute() {
       <PageTitle title="My bids" lead="Every bid your shop has sent, most recently changed first." />
       {bids.isPending && <p className="text-ink-soft">Loading your bids …</p>}
       {bids.isError && (
-        <Notice tone="error" title="Your bids could not be loaded">
+        <Notice tone="error" title="Your bids could not be loaded" onRetry={() => void bids.refetch()}>
           {bids.error.message}
         </Notice>
       )}

@@ -81,7 +81,7 @@ export function MyJobsRoute() {
       />
 
       {jobsQuery.isPending && <p className="text-ink-soft">Loading your jobs …</p>}
-      {jobsQuery.isError && <Notice tone="error" title="Your jobs could not be loaded">{jobsQuery.error.message}</Notice>}
+      {jobsQuery.isError && <Notice tone="error" title="Your jobs could not be loaded" onRetry={() => void jobsQuery.refetch()}>{jobsQuery.error.message}</Notice>}
       {jobsQuery.data && jobsQuery.data.length === 0 && (
         <Card className="flex flex-col items-start gap-3">
           {status ? (

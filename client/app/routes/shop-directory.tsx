@@ -79,7 +79,7 @@ export function ShopDirectoryRoute() {
       </FilterForm>
 
       {shops.isError && (
-        <Notice tone="error" title="The shops could not be loaded">
+        <Notice tone="error" title="The shops could not be loaded" onRetry={() => void shops.refetch()}>
           {shops.error.message}
         </Notice>
       )}

@@ -45,7 +45,7 @@ export function ShopPageRoute() {
         <p className="text-lg text-ink-soft">{placeOf(data)}</p>
       </header>
 
-      <div className="grid gap-6 lg:grid-cols-[2fr_3fr]">
+      <div className="grid grid-cols-1 gap-6 lg:grid-cols-[2fr_3fr]">
         <Card className="flex flex-col gap-4">
           <h2 className="text-xl font-bold">At a glance</h2>
           <dl className="grid grid-cols-[max-content_1fr] gap-x-6 gap-y-2">

@@ -17,7 +17,7 @@ export function ShopProfileRoute() {
       />
       {own.isPending && <p className="text-ink-soft">Loading your profile …</p>}
       {own.isError && (
-        <Notice tone="error" title="Your profile could not be loaded">
+        <Notice tone="error" title="Your profile could not be loaded" onRetry={() => void own.refetch()}>
           {own.error.message}
         </Notice>
       )}

@@ -27,6 +27,12 @@ export interface BoreReadingGridProps {
 const capitalise = (text: string) => text.charAt(0).toUpperCase() + text.slice(1);
 
 /**
+ * The cylinder column stays in place while a narrow screen scrolls the
+ * readings sideways; its background hides the cells passing under it.
+ */
+const stickyColumn = 'sticky left-0 z-10 bg-paper-raised';
+
+/**
  * Bore readings as a keyboard-first grid, one row per cylinder. Tab runs
  * along a cylinder (top, middle, bottom; thrust then axial; then the piston),
  * Enter and the down arrow go to the same reading of the next cylinder (from
@@ -114,7 +120,7 @@ export function BoreReadingGrid({ cylinderCount, unit, cells, errors, onChange, 
       <p className="text-sm text-ink-soft" id={helpId}>
         {help}
       </p>
-      <div className="overflow-x-auto">
+      <div className="relative overflow-x-auto" data-testid="reading-grid-scroller">
         <table className={cn('w-full table-fixed border-separate border-spacing-1 text-sm', tableClassName)} aria-describedby={helpId}>
           <caption className="sr-only">Bore readings in {unit}, one row per cylinder</caption>
           <colgroup>
@@ -122,7 +128,7 @@ export function BoreReadingGrid({ cylinderCount, unit, cells, errors, onChange, 
           </colgroup>
           <thead className="text-ink-soft">
             <tr>
-              <th scope="col" rowSpan={2} className="text-left font-semibold">
+              <th scope="col" rowSpan={2} className={cn(stickyColumn, 'text-left font-semibold')}>
                 Cyl.
               </th>
               {DEPTHS.map((depth) => (
@@ -147,7 +153,7 @@ export function BoreReadingGrid({ cylinderCount, unit, cells, errors, onChange, 
           <tbody>
             {Array.from({ length: cylinderCount }, (_, row) => (
               <tr key={row}>
-                <th scope="row" className="text-left font-bold text-ink">
+                <th scope="row" className={cn(stickyColumn, 'text-left font-bold text-ink')}>
                   {row + 1}
                 </th>
                 {GRID_COLUMNS.map((_, column) => (

@@ -10,11 +10,36 @@ const tones: Record<Tone, string> = {
   caution: 'bg-caution-soft text-caution ring-caution/30',
 };
 
-export function Notice({ tone = 'info', title, children, className }: { tone?: Tone; title?: string; children?: ReactNode; className?: string }) {
+/**
+ * A boxed message. With `onRetry` (a load that failed), it carries a Retry
+ * button that asks again.
+ */
+export function Notice({
+  tone = 'info',
+  title,
+  children,
+  className,
+  onRetry,
+}: {
+  tone?: Tone;
+  title?: string;
+  children?: ReactNode;
+  className?: string;
+  onRetry?: () => void;
+}) {
   return (
     <div role={tone === 'error' ? 'alert' : 'status'} className={cn('rounded-lg px-4 py-3 text-sm ring-1', tones[tone], className)}>
       {title && <p className="font-bold">{title}</p>}
       {children && <div className={cn(title && 'mt-1')}>{children}</div>}
+      {onRetry && (
+        <button
+          type="button"
+          onClick={onRetry}
+          className="mt-2 min-h-10 rounded-md bg-white px-3 text-sm font-semibold text-slate-800 ring-1 ring-slate-300 hover:bg-slate-100"
+        >
+          Retry
+        </button>
+      )}
     </div>
   );
 }

@@ -62,7 +62,7 @@ export function PeopleTable({ currentUserId }: { currentUserId?: string }) {
           <p className="text-sm text-ink-soft" aria-live="polite">
             {users.data.total} {users.data.total === 1 ? 'account' : 'accounts'}
           </p>
-          <div className="overflow-x-auto">
+          <div className="relative overflow-x-auto">
             <table className="w-full text-left text-sm">
               <caption className="sr-only">Accounts</caption>
               <thead className="border-b border-slate-200 text-ink-soft">

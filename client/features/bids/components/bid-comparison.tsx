@@ -133,7 +133,7 @@ function BidTableRows({ bid, highlights, actions }: RowProps) {
       </tr>
       <tr id={detailsId} hidden={!open}>
         <td colSpan={6} className="pb-4">
-          <div className="grid gap-4 rounded-lg bg-slate-50 p-4 ring-1 ring-slate-200 xl:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
+          <div className="grid grid-cols-1 gap-4 rounded-lg bg-slate-50 p-4 ring-1 ring-slate-200 xl:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
             <LineItems bid={bid} />
             <div>
               <h4 className="text-sm font-bold text-ink">Note from the shop</h4>
@@ -209,7 +209,7 @@ export function BidComparison({ jobId, jobStatus, canDecide }: BidComparisonProp
   });
 
   if (bidsQuery.isPending) return <p className="text-ink-soft">Loading the bids …</p>;
-  if (bidsQuery.isError) return <Notice tone="error" title="The bids could not be loaded">{bidsQuery.error.message}</Notice>;
+  if (bidsQuery.isError) return <Notice tone="error" title="The bids could not be loaded" onRetry={() => void bidsQuery.refetch()}>{bidsQuery.error.message}</Notice>;
 
   const bids = [...bidsQuery.data].sort((a, b) => order[a.status] - order[b.status]);
   const active = bids.filter((b) => b.status === 'active');
@@ -283,7 +283,7 @@ export function BidComparison({ jobId, jobStatus, canDecide }: BidComparisonProp
       </p>
 
       {/* Wide screens: a table to read across. */}
-      <div className="hidden overflow-x-auto lg:block">
+      <div className="relative hidden overflow-x-auto lg:block">
         <table className="w-full text-left">
           <caption className="sr-only">Bids on this job, side by side</caption>
           <thead>

@@ -70,7 +70,7 @@ function ActiveBid({ bidId, job }: { bidId: string; job: JobDetail }) {
   });
 
   if (detail.isPending) return <p className="text-ink-soft">Loading your bid …</p>;
-  if (detail.isError) return <Notice tone="error" title="Your bid could not be loaded">{detail.error.message}</Notice>;
+  if (detail.isError) return <Notice tone="error" title="Your bid could not be loaded" onRetry={() => void detail.refetch()}>{detail.error.message}</Notice>;
   const { bid, revisions } = detail.data;
   const canRevise = job.status === 'open';
 
@@ -230,7 +230,7 @@ export function ShopBidPanel({ job }: { job: JobDetail }) {
   if (own.isError) {
     return (
       <Panel title="Your bid">
-        <Notice tone="error" title="Your shop profile could not be loaded">
+        <Notice tone="error" title="Your shop profile could not be loaded" onRetry={() => void own.refetch()}>
           {own.error.message}
         </Notice>
       </Panel>

@@ -151,7 +151,7 @@ export function BoreCheckCalculator({ unit }: { unit: LengthUnit }) {
         </>
       }
     >
-      <div className="grid gap-6 lg:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
+      <div className="grid grid-cols-1 gap-6 lg:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
         <div className="flex min-w-0 flex-col gap-3">
           <div className="flex flex-wrap items-end gap-3">
             <SelectField
@@ -233,7 +233,7 @@ export function BoreCheckCalculator({ unit }: { unit: LengthUnit }) {
                 {result.worst.outOfRoundCylinder + 1})
               </p>
             </div>
-            <div className="overflow-x-auto">
+            <div className="relative overflow-x-auto">
               <table className="w-full text-sm tabular-nums">
                 <caption className="pb-1 text-left text-sm text-ink-soft">Figures per cylinder, in {unit === 'in' ? 'inches' : 'millimetres'}</caption>
                 <thead>
@@ -290,7 +290,7 @@ export function BoreCheckCalculator({ unit }: { unit: LengthUnit }) {
                 </tbody>
               </table>
             </div>
-            <div className="grid gap-4 lg:grid-cols-[minmax(0,2fr)_minmax(0,1fr)]">
+            <div className="grid grid-cols-1 gap-4 lg:grid-cols-[minmax(0,2fr)_minmax(0,1fr)]">
               {chartReadings && (
                 <BoreDepthChart
                   readings={chartReadings}

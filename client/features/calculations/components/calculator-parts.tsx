@@ -32,7 +32,7 @@ export function CalculatorCard({ id, title, intro, children }: { id: string; tit
 /** Inputs and results side by side on a wide screen, results below on a tablet. */
 export function CardColumns({ inputs, results, wide = false }: { inputs: ReactNode; results: ReactNode; wide?: boolean }) {
   return (
-    <div className={cn('grid gap-6', wide ? 'lg:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]' : 'lg:grid-cols-2')}>
+    <div className={cn('grid grid-cols-1 gap-6', wide ? 'lg:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]' : 'lg:grid-cols-2')}>
       <div className="flex min-w-0 flex-col gap-4">{inputs}</div>
       <div className="min-w-0">{results}</div>
     </div>

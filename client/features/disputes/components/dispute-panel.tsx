@@ -308,7 +308,7 @@ export function DisputePanel({ job, viewer }: DisputePanelProps) {
     if (!inDispute) return null;
     body = <p className="text-ink-soft">Loading the dispute …</p>;
   } else if (query.isError) {
-    body = <Notice tone="error">The dispute could not be loaded: {query.error.message}</Notice>;
+    body = <Notice tone="error" onRetry={() => void query.refetch()}>The dispute could not be loaded: {query.error.message}</Notice>;
   } else {
     const { dispute, canOpenWith, canRespond } = query.data;
     const mayOpen = viewer !== 'admin' && !dispute && canOpenWith.length > 0;

@@ -166,7 +166,7 @@ export function InspectionEntryForm({ job, initial, origin, onSubmitted }: Inspe
   const finishUnitWord = form.finishUnit === 'uin' ? 'µin' : 'µm';
 
   return (
-    <div className="grid items-start gap-6 xl:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
+    <div className="grid grid-cols-1 items-start gap-6 xl:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
       <form noValidate aria-label="Inspection record" onSubmit={onSubmit} onKeyDown={onFormKeyDown} className="flex min-w-0 flex-col gap-5">
         {origin.rejected && (
           <Notice tone="caution" title={`The builder rejected version ${origin.rejected.version}`}>

@@ -234,7 +234,7 @@ export function InspectionResultsView({
 
       {cylinderCount > 0 && (
         <>
-          <div className="overflow-x-auto">
+          <div className="relative overflow-x-auto">
             <table className="w-full min-w-[24rem] text-sm tabular-nums">
               <caption className="sr-only">Figures per cylinder, in {unit}</caption>
               <thead className="text-left text-ink-soft">

@@ -44,7 +44,7 @@ function Changes({ changes, previous }: { changes: VersionChange[]; previous: nu
       {changes.length === 0 ? (
         <p className="text-sm text-ink-soft">Nothing changed: the same readings were sent again.</p>
       ) : (
-        <div className="overflow-x-auto">
+        <div className="relative overflow-x-auto">
           <table className="w-full min-w-[28rem] text-sm">
             <thead className="text-left text-ink-soft">
               <tr>
@@ -104,7 +104,7 @@ function VersionBody({ version, job }: { version: InspectionVersion; job: JobDet
   const target = boreSpecFor(job.spec, unit).targetBore;
   return (
     <div className="flex flex-col gap-5">
-      <div className="grid gap-5 lg:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
+      <div className="grid grid-cols-1 gap-5 lg:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
         <InspectionResultsView
           results={version.results}
           cylinderIndexes={(version.input.cylinders ?? []).map((_, i) => i)}

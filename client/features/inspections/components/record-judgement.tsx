@@ -186,7 +186,7 @@ export function ReadingsAt20({ input, results }: { input: InspectionInput; resul
         <p className="mt-1 text-sm text-ink-soft">
           Corrected with L20 = Lt / (1 + α·(t − 20)): block {t.block.words}; pistons {t.piston.words}. Source: {t.source}. Every figure on this record is judged at 20 °C.
         </p>
-        <div className="mt-2 overflow-x-auto">
+        <div className="relative mt-2 overflow-x-auto">
           <table className="w-full min-w-[36rem] text-xs tabular-nums">
             <caption className="sr-only">Each reading as taken and corrected to 20 °C, in {unit}</caption>
             <thead className="text-left text-ink-soft">

@@ -45,7 +45,7 @@ export function RecordSectionBlock({ section, results, headingLevel = 3, showChe
         </dl>
       )}
       {showChecks && checks.length > 0 && (
-        <div className="overflow-x-auto">
+        <div className="relative overflow-x-auto">
           <table className="w-full text-left text-sm">
             <TableHead columns={['Check', 'Value', 'Allowed', 'Verdict']} dense />
             <tbody>

@@ -133,7 +133,7 @@ function FormSection({ title, intro, children, className }: { title: string; int
 }
 
 function Grid({ children, columns = 2 }: { children: ReactNode; columns?: 2 | 3 }) {
-  return <div className={cn('grid gap-4 sm:grid-cols-2', columns === 3 && 'lg:grid-cols-3')}>{children}</div>;
+  return <div className={cn('grid grid-cols-1 gap-4 sm:grid-cols-2', columns === 3 && 'lg:grid-cols-3')}>{children}</div>;
 }
 
 /** Radio buttons for a short choice, with one message for the group. */
@@ -428,7 +428,7 @@ export function JobForm({ initial, submitLabel, onSave, cancelTo, saveNote, keep
       {formError && (formError !== INVALID || Object.keys(errors).length > 0) && (
         <Notice tone="error">{formError === INVALID ? 'Some values need another look. Each one is marked with what to change.' : formError}</Notice>
       )}
-      <div className="grid items-start gap-6 lg:grid-cols-[minmax(0,1fr)_21rem]">
+      <div className="grid grid-cols-1 items-start gap-6 lg:grid-cols-[minmax(0,1fr)_21rem]">
         <div className="flex flex-col gap-6">
           <h2 ref={stepHeading} tabIndex={-1} className="text-2xl font-bold tracking-tight text-ink focus:outline-none">
             Step {step + 1} of {jobFormSteps.length}: {jobFormSteps[step]?.title}

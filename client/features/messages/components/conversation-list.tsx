@@ -53,7 +53,7 @@ export function ConversationList() {
   if (threads.isPending) return <p className="text-ink-soft">Loading your conversations …</p>;
   if (threads.isError && !threads.data) {
     return (
-      <Notice tone="error" title="Your conversations could not be loaded">
+      <Notice tone="error" title="Your conversations could not be loaded" onRetry={() => void threads.refetch()}>
         {threads.error.message}
       </Notice>
     );

@@ -141,14 +141,14 @@ function BuilderPanel({ jobId, jobStatus, bidders }: { jobId: string; jobStatus:
     >
       {threads.isPending && <p className="text-ink-soft">Loading the conversations …</p>}
       {threads.isError && !threads.data && (
-        <Notice tone="error" title="The conversations could not be loaded">
+        <Notice tone="error" title="The conversations could not be loaded" onRetry={() => void threads.refetch()}>
           {threads.error.message}
         </Notice>
       )}
       {threads.data && rows.length === 0 && <p className="text-ink-soft">When shops bid or ask a question, you can write to them here.</p>}
       {open.error && <Notice tone="error">{open.error.message}</Notice>}
       {rows.length > 0 && (
-        <div className="grid items-start gap-5 lg:grid-cols-[minmax(0,19rem)_minmax(0,1fr)]">
+        <div className="grid grid-cols-1 items-start gap-5 lg:grid-cols-[minmax(0,19rem)_minmax(0,1fr)]">
           <ul aria-label="Shops on this job" className="flex flex-col gap-2">
             {rows.map((row) => {
               const isOpen = row.thread && row.thread.id === selected?.id;
@@ -238,7 +238,7 @@ function ShopPanel({ jobId, jobStatus }: { jobId: string; jobStatus: JobStatus }
   if (threads.isError && !threads.data) {
     return (
       <PanelFrame title="Questions to the builder" lead="Ask what the job does not say.">
-        <Notice tone="error" title="The conversation could not be loaded">
+        <Notice tone="error" title="The conversation could not be loaded" onRetry={() => void threads.refetch()}>
           {threads.error.message}
         </Notice>
       </PanelFrame>

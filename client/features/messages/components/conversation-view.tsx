@@ -311,7 +311,7 @@ export function ConversationView({ thread, side, jobStatus, focusComposer = fals
           )}
           {history.isPending && !history.data && <p className="text-ink-soft">Loading the messages …</p>}
           {history.isError && !history.data && (
-            <Notice tone="error" title="The messages could not be loaded">
+            <Notice tone="error" title="The messages could not be loaded" onRetry={() => void history.refetch()}>
               {history.error.message}
             </Notice>
           )}

@@ -157,7 +157,7 @@ export function ReviewPanel({ job, viewer }: ReviewPanelProps) {
 
   let body;
   if (query.isPending) body = <p className="text-ink-soft">Loading the reviews …</p>;
-  else if (query.isError) body = <Notice tone="error">The reviews could not be loaded: {query.error.message}</Notice>;
+  else if (query.isError) body = <Notice tone="error" onRetry={() => void query.refetch()}>The reviews could not be loaded: {query.error.message}</Notice>;
   else {
     const { reviews, canReview } = query.data;
     body = (

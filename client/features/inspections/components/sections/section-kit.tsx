@@ -108,7 +108,7 @@ export const columnsUnder = (base: (i: number) => string, columns: ReadonlyArray
 /** A table of readings: one row per item, one input per column. */
 export function ReadingTable({ ctx, caption, rows, columns }: { ctx: SectionContext; caption: string; rows: ReadonlyArray<string>; columns: ReadonlyArray<ReadingColumn> }) {
   return (
-    <div className="overflow-x-auto">
+    <div className="relative overflow-x-auto">
       <table className="min-w-full text-left text-sm">
         <caption className="pb-1 text-left text-sm font-semibold text-ink">{caption}</caption>
         <TableHead columns={[{ label: 'Where', srOnly: true }, ...columns.map((column) => column.label)]} dense />
