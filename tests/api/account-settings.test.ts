@@ -16,6 +16,9 @@ afterAll(async () => {
   await ctx?.close();
 });
 
+/** A postal address (invented) for the shop's receiving address or a job's return trip. */
+const RETURN_ADDRESS = { lines: ['7 Feeler Row'], city: 'Ashgrove', region: 'Ohio', postalCode: '43001', country: 'United States' };
+
 /** Builder and shop with a job of the builder's awarded to the shop (its bid accepted through the API). */
 async function awardedJob(title = 'Small block, bore and hone') {
   const builder = await createUser(ctx.db, { displayName: 'Ivo Pennybrook' });
@@ -155,7 +158,7 @@ describe('deleting the account', () => {
     expect(refused.status).toBe(409);
     expect(refused.body.error.message).toContain('Deletion test block');
 
-    await ctx.db.update(jobs).set({ status: 'completed' }).where(eq(jobs.id, jobId));
+    await ctx.db.update(jobs).set({ status: 'completed', returnAddress: RETURN_ADDRESS }).where(eq(jobs.id, jobId));
     expect((await builderApi.get('/api/me/deletion').expect(200)).body).toEqual({ allowed: true, blockers: [], alsoHappens: [] });
     const elsewhere = await signedIn(ctx.app, builder);
     expect((await builderApi.post('/api/me/delete', { currentPassword: 'not my password at all' })).status).toBe(400);
@@ -171,6 +174,9 @@ describe('deleting the account', () => {
 
     const seen = await shopApi.get(`/api/jobs/${jobId}`).expect(200);
     expect(seen.body.job.builder.displayName).toBe('Deleted account');
+    // The address the parts went back to identified the person too; the finished job no longer needs it.
+    const [finished] = await ctx.db.select().from(jobs).where(eq(jobs.id, jobId));
+    expect(finished.returnAddress).toBeNull();
 
     // A notice about the job for the closed account is kept, never sent to its placeholder address.
     const id = await enqueueMail(ctx.db, row.email, { subject: 'A review', text: 'x', html: '<p>x</p>', template: 'review_received' } as RenderedMail);
@@ -182,6 +188,7 @@ describe('deleting the account', () => {
     const builder = await createUser(ctx.db);
     const job = await createJob(ctx.db, builder.id);
     const { user, shop } = await createShop(ctx.db);
+    await ctx.db.update(shops).set({ receivingAddress: RETURN_ADDRESS }).where(eq(shops.id, shop.id));
     const shopApi = await signedIn(ctx.app, user);
     const bid = await shopApi.post(`/api/jobs/${job.id}/bids`, bidInput());
     const check = await shopApi.get('/api/me/deletion').expect(200);
@@ -191,6 +198,7 @@ describe('deleting the account', () => {
     expect(row.status).toBe('withdrawn');
     const [profile] = await ctx.db.select().from(shops).where(eq(shops.id, shop.id));
     expect(profile.name).toBe('Deleted account');
+    expect(profile.receivingAddress).toBeNull();
     await (await agentFor(ctx.app)).get(`/api/shops/${shop.id}`).expect(404);
   });
 });

@@ -78,7 +78,7 @@ export async function deletionCheck(deps: AccountDeps, user: User): Promise<Dele
 /**
  * Deletes the account: refused while jobs or money are in progress. What
  * identified the person goes (name, address, password, GitHub link,
- * sessions, links still out); their shop leaves the directory and its open
+ * sessions, links still out, postal addresses); their shop leaves the directory and its open
  * bids are withdrawn. Jobs, records, reviews and the ledger stay, under
  * "Deleted account", for the other party and the books.
  */
@@ -98,8 +98,13 @@ export async function deleteAccount(deps: AccountDeps, user: User, currentPasswo
         await tx.update(bids).set({ status: 'withdrawn', decidedAt: new Date() }).where(eq(bids.id, bid.id));
         await tx.update(jobs).set({ bidCount: sql`greatest(${jobs.bidCount} - 1, 0)` }).where(eq(jobs.id, bid.jobId));
       }
-      await tx.update(shops).set({ name: DELETED_ACCOUNT_NAME, equipmentNotes: '', notifyMatchingJobs: false }).where(eq(shops.id, shop.id));
+      await tx
+        .update(shops)
+        .set({ name: DELETED_ACCOUNT_NAME, equipmentNotes: '', notifyMatchingJobs: false, receivingAddress: null })
+        .where(eq(shops.id, shop.id));
     }
+    // No job of theirs is in progress (the blockers above), so no parcel still needs the address it goes back to.
+    await tx.update(jobs).set({ returnAddress: null }).where(eq(jobs.builderId, user.id));
     await updateUser(tx, user.id, {
       status: 'closed',
       closedAt: new Date(),
