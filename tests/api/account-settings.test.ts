@@ -1,4 +1,4 @@
-import { eq } from 'drizzle-orm';
+import { and, eq } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { TERMS_VERSION } from '../../shared/legal';
 import { bids, jobs, ledgerEntries, mailOutbox, payments, shops, users } from '../../server/db/schema';
@@ -96,6 +96,27 @@ describe('changing the e-mail address', () => {
     expect(notice.text).toContain(newEmail);
     // The link works once; the new address signs in.
     expect((await client.post('/api/me/email/confirm', { token })).status).toBe(400);
+    await signedIn(ctx.app, { email: newEmail, password: user.password });
+  });
+
+  it('when a reset link went to the old address, then it stops working once the account moves (the old mailbox may be why it moved)', async () => {
+    const user = await createUser(ctx.db);
+    const client = await signedIn(ctx.app, user);
+    const stranger = await agentFor(ctx.app);
+    expect((await stranger.post('/api/auth/password-reset/request', { email: user.email })).status).toBe(202);
+    const [resetMail] = await ctx.db.select().from(mailOutbox).where(and(eq(mailOutbox.toAddress, user.email), eq(mailOutbox.template, 'reset_password')));
+    const resetToken = /token=([\w-]+)/.exec(resetMail.textBody)?.[1];
+    expect(resetToken).toBeDefined();
+
+    const newEmail = uniqueEmail('moved-away');
+    expect((await client.post('/api/me/email', { newEmail, currentPassword: user.password })).status).toBe(202);
+    const [changeMail] = await ctx.db.select().from(mailOutbox).where(and(eq(mailOutbox.toAddress, newEmail), eq(mailOutbox.template, 'confirm_new_email')));
+    const changeToken = /token=([\w-]+)/.exec(changeMail.textBody)?.[1];
+    expect((await stranger.post('/api/me/email/confirm', { token: changeToken })).status).toBe(200);
+
+    const stale = await stranger.post('/api/auth/password-reset/confirm', { token: resetToken, password: 'taken over by the old inbox' });
+    expect(stale.status).toBe(400);
+    expect(stale.body.error.code).toBe('link_expired');
     await signedIn(ctx.app, { email: newEmail, password: user.password });
   });
 

@@ -56,8 +56,9 @@ export async function confirmEmailChange(deps: AccountDeps, token: string): Prom
     const holder = await findUserByEmail(tx, newEmail);
     if (holder && holder.id !== user.id) throw emailTaken('token');
     await updateUser(tx, user.id, { email: newEmail, pendingEmail: null, emailVerifiedAt: new Date() });
-    // Links sent to the old address no longer confirm anything.
+    // Links sent to the old address no longer confirm or reset anything: whoever still reads that mailbox must not take the account back.
     await spendAllTokens(tx, user.id, 'verify_email');
+    await spendAllTokens(tx, user.id, 'reset_password');
     await enqueueMail(tx, user.email, emailChangedMail({ displayName: user.displayName, newEmail }));
     return newEmail;
   });
