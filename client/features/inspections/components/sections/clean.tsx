@@ -3,7 +3,7 @@ import { PartCheckSection } from './part-check';
 import type { SectionContext } from './section-kit';
 
 export const METHOD_WORDS: Record<string, string> = {
-  'hot-tank': 'Hot tank',
+  'hot-tank': 'Hot tank (caustic: iron and steel only)',
   'thermal-oven': 'Thermal oven',
   'spray-wash': 'Spray wash',
   other: 'Other',
