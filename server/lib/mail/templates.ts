@@ -417,7 +417,7 @@ export function accountSuspendedMail(input: { name: string; reason: string; help
     greeting: `Hello ${input.name},`,
     paragraphs: [
       `An administrator suspended your account: ${input.reason}`,
-      `You have been signed out and cannot sign in until the account is reinstated. If you think this is a mistake, write to ${input.supportEmail}: this address takes no replies.`,
+      `You have been signed out and cannot sign in until the account is reinstated. If you think this is a mistake, write to ${input.supportEmail}; replies to this e-mail are not read.`,
     ],
     action: { label: 'How to reach us', url: input.helpUrl },
   });
