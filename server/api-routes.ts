@@ -8,6 +8,7 @@ import { catalogueRoutes } from './modules/catalogue/catalogue.routes';
 import { documentsRoutes } from './modules/documents/documents.routes';
 import { disputesRoutes } from './modules/disputes/disputes.routes';
 import { healthRoutes } from './modules/health/health.routes';
+import { helpRoutes } from './modules/help/help.routes';
 import { inspectionsRoutes } from './modules/inspections/inspections.routes';
 import { jobsRoutes } from './modules/jobs/jobs.routes';
 import { paymentsRoutes, paymentsWebhookRoutes } from './modules/payments/payments.routes';
@@ -31,6 +32,7 @@ export const routeModules = {
   account: accountRoutes,
   calculations: calculationsRoutes,
   catalogue: catalogueRoutes,
+  help: helpRoutes,
   shops: shopsRoutes,
   jobs: jobsRoutes,
   bids: bidsRoutes,

@@ -138,6 +138,7 @@ export function createApp(deps: AppDeps) {
   mount(routeModules.account, { db, appUrl: config.appUrl, hub, sessionCookieName: SESSION_COOKIE, rateLimits: config.rateLimits });
   mount(routeModules.calculations, { db, perMinute: config.rateLimits.calculationsPerMinute });
   mount(routeModules.catalogue, {});
+  mount(routeModules.help, { supportEmail: config.supportEmail });
   const storage = deps.storage ?? new LocalDiskStorage(config.uploadsDir);
   // One count of photo uploads per person, whichever route they go to.
   const uploadLimit = uploadLimiter(db, config.rateLimits.uploadsPer10Min);
@@ -154,7 +155,7 @@ export function createApp(deps: AppDeps) {
   mount(routeModules.disputes, paymentDeps);
   mount(routeModules.reviews, paymentDeps);
   mount(routeModules.notifications, { db, hub });
-  mount(routeModules.admin, { ...paymentDeps, defaultFeeBps: config.payments.platformFeeBps });
+  mount(routeModules.admin, { ...paymentDeps, defaultFeeBps: config.payments.platformFeeBps, supportEmail: config.supportEmail });
   // Any other address under /api/admin is refused as before to all but admins (admins get the 404 below).
   app.use('/api/admin', requireRole('admin'));
   mount(routeModules.openapi, { document: openApiDocument });

@@ -55,6 +55,8 @@ const schema = z
     SMTP_USER: z.string().optional(),
     SMTP_PASSWORD: z.string().optional(),
     MAIL_FROM: z.string().default('Tenthmark <no-reply@tenthmark.test>'),
+    /** The address that reaches Tenthmark's people (the mail sender takes no replies): named on the help page and in mail about an account. */
+    SUPPORT_EMAIL: z.email('must be an e-mail address').default('help@tenthmark.test'),
     MAILDEV_WEB_PORT: z.coerce.number().int().min(1).max(65535).default(1080),
 
     GITHUB_CLIENT_ID: z.string().optional(),
@@ -140,6 +142,8 @@ export interface AppConfig {
   uploadsDir: string;
   smtp: { host: string; port: number; secure: boolean; user?: string; password?: string };
   mailFrom: string;
+  /** Where people write to reach us (SUPPORT_EMAIL). */
+  supportEmail: string;
   maildevWebPort: number;
   github: GithubConfig;
   githubStandInPort: number;
@@ -208,6 +212,7 @@ export function loadConfig(source: NodeJS.ProcessEnv = process.env): AppConfig {
       password: env.SMTP_PASSWORD,
     },
     mailFrom: env.MAIL_FROM,
+    supportEmail: env.SUPPORT_EMAIL,
     maildevWebPort: env.MAILDEV_WEB_PORT,
     github,
     githubStandInPort: env.GITHUB_STAND_IN_PORT,

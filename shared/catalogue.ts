@@ -14,7 +14,7 @@ export interface Operation {
 }
 
 export const operations = [
-  { code: 'clean', name: 'Clean', description: 'Hot tank or thermal clean, plugs out, passages flushed.', pricedPer: 'part', part: 'block' },
+  { code: 'clean', name: 'Clean', description: 'Cleaned by a method suited to the metal (a caustic hot tank for iron and steel only; a thermal oven or spray wash for aluminium), plugs out, passages flushed.', pricedPer: 'part', part: 'block' },
   { code: 'crack-test', name: 'Crack test', description: 'Magnetic particle or dye penetrant check for cracks.', pricedPer: 'part', part: 'block' },
   { code: 'bore', name: 'Bore', description: 'Bore each cylinder to size, leaving stock for the hone.', pricedPer: 'cylinder', part: 'block' },
   { code: 'hone', name: 'Hone', description: 'Finish hone to the final size and crosshatch.', pricedPer: 'cylinder', part: 'block' },

@@ -20,7 +20,7 @@ export interface Measurement {
 }
 
 const cleanSheet: Measurement[] = [
-  { key: 'method', label: 'Method (hot tank, thermal oven, spray wash)', kind: 'choice' },
+  { key: 'method', label: 'Method (hot tank for iron and steel only, thermal oven, spray wash)', kind: 'choice' },
   { key: 'result', label: 'Result: clean, or what is left', kind: 'choice' },
   { key: 'findings', label: 'Findings, in words', kind: 'text' },
   { key: 'photos', label: 'Photos of the cleaned part', kind: 'photos' },

@@ -16,7 +16,7 @@
 import { operations, type OperationCode } from '../catalogue';
 import { CRANK_UNDERSIZE_STEPS, forceUnitFor, limitFor, operationLimitFields, type LimitField, type LimitGroup, type OperationLimits } from '../operation-limits';
 import type { LimitCheck, NotJudged } from '../schemas/inspection';
-import type { InspectionSections, JournalReadings, SectionFigure, SectionResult, SectionVerdict } from '../schemas/inspection-sections';
+import { HOT_TANK_ON_ALUMINIUM, cleanMethodsFor, type InspectionSections, type JournalReadings, type SectionFigure, type SectionResult, type SectionVerdict } from '../schemas/inspection-sections';
 import { balanceTolerance, bobWeight } from './balance';
 import { deckFlatnessLimit, type DeckMaterial } from './deck';
 import { judgeMax, judgeMin, judgeRange, verdictRank, type DecisionRule, type Verdict } from './decision-rule';
@@ -85,6 +85,10 @@ const CRACK_METHOD_WORDS = { 'magnetic-particle': 'magnetic particle', 'dye-pene
 
 function judgeClean(s: NonNullable<InspectionSections['clean']>, ctx: SectionContext): SectionFigure[] {
   ctx.add({ section: 'clean', what: 'part cleaned', value: 0, valueText: s.result === 'clean' ? 'clean' : 'residue left', allowed: 'clean', verdict: s.result === 'clean' ? 'conforms' : 'fails', note: s.findings || undefined });
+  // The server refuses such a record; a record kept from before is judged here, so it never reads as sound.
+  if (!cleanMethodsFor(ctx.spec.blockMaterial).includes(s.method)) {
+    ctx.add({ section: 'clean', what: 'cleaning method suits the metal', value: 0, valueText: `${CLEAN_WORDS[s.method]} on aluminium`, allowed: 'no caustic on aluminium', verdict: 'fails', note: HOT_TANK_ON_ALUMINIUM });
+  }
   return [{ label: 'Method', value: CLEAN_WORDS[s.method] }, { label: 'Findings', value: s.findings || '—' }, { label: 'Photos', value: s.photoIds?.length ?? 0 }];
 }
 

@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { BALANCE_GRADE_CHOICES } from '../operation-limits';
+import type { blockMaterials } from './jobs';
 
 /**
  * The inspection record's sections beyond the bore grid, deck, finish and
@@ -25,6 +26,18 @@ export const straightedgeReadingSchema = z.object({
 export type StraightedgeReading = z.infer<typeof straightedgeReadingSchema>;
 
 export const cleanMethods = ['hot-tank', 'thermal-oven', 'spray-wash', 'other'] as const;
+export type CleanMethod = (typeof cleanMethods)[number];
+
+/**
+ * The cleaning methods suited to the job's metal (its block and heads; null
+ * when it sends neither, e.g. a crankshaft alone). A caustic hot tank attacks
+ * aluminium (common practice), so it is offered for iron and steel only.
+ */
+export function cleanMethodsFor(material: (typeof blockMaterials)[number] | null | undefined): readonly CleanMethod[] {
+  return material === 'aluminium' ? cleanMethods.filter((m) => m !== 'hot-tank') : cleanMethods;
+}
+
+export const HOT_TANK_ON_ALUMINIUM = 'A caustic hot tank attacks aluminium: clean an aluminium part in a thermal oven or a spray wash.';
 export const crackTestMethods = ['magnetic-particle', 'dye-penetrant', 'pressure-test'] as const;
 
 export const cleanSectionSchema = z.object({

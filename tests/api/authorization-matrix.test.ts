@@ -389,6 +389,7 @@ const matrix: Record<string, Row> = {
   // --- shops ---------------------------------------------------------------
   'GET /api/shops': { expect: all(200) },
   'GET /api/catalogue': { once: true, expect: all(200) },
+  'GET /api/help/contact': { once: true, expect: all(200) },
   'GET /api/shops/:shopId': { state: async () => ({ shopId: shopX.id }), once: true, expect: all(200) },
   'GET /api/shop-profile': { expect: [401, 403, 403, 200, 200, 403] },
   'PUT /api/shop-profile': { body: (_p, turn) => shopProfileInput({ name: shopFor(turn).name }), expect: [401, 403, 403, 200, 200, 403] },

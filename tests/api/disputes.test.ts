@@ -243,6 +243,11 @@ describe('the admin console', () => {
     const suspended = await admin.post(`/api/admin/users/${user.id}/suspend`, { reason: 'Payment fraud reported by two shops.' });
     expect(suspended.status).toBe(200);
     expect(suspended.body.user.status).toBe('suspended');
+    // The mail comes from an address that takes no replies, so it names one that does (SUPPORT_EMAIL's default) and the help page.
+    const [mail] = await m.db.select().from(mailOutbox).where(and(eq(mailOutbox.template, 'account_suspended'), eq(mailOutbox.toAddress, user.email)));
+    expect(mail.textBody).toContain('write to help@tenthmark.test');
+    expect(mail.textBody).toMatch(/How to reach us: http\S+\/help/);
+    expect(mail.textBody).not.toMatch(/reply to this/i);
     expect((await session.get('/api/auth/me')).status).toBe(401);
     expect((await session.get('/api/jobs/mine')).status).toBe(401);
     expect(await m.db.select().from(sessions).where(sql`${sessions.sess} -> 'passport' ->> 'user' = ${user.id}`)).toHaveLength(0);
@@ -251,6 +256,8 @@ describe('the admin console', () => {
     const signIn = await again.post('/api/auth/login', { email: user.email, password: TEST_PASSWORD });
     expect(signIn.status).toBe(403);
     expect(signIn.body.error.code).toBe('suspended');
+    expect(signIn.body.error.message).toMatch(/help page/);
+    expect((await again.get('/api/help/contact')).body).toEqual({ email: 'help@tenthmark.test' });
     expect((await admin.post(`/api/admin/users/${adminUser.id}/suspend`, { reason: 'myself, by mistake' })).body.error.code).toBe('cannot_suspend_self');
 
     expect((await admin.post(`/api/admin/users/${user.id}/reinstate`)).body.user.status).toBe('active');

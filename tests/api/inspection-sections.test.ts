@@ -144,6 +144,18 @@ describe('inspection record sections', () => {
     expect(res.body.error.fields).toHaveProperty(['sections.valveJob']);
   });
 
+  it('when a record says an aluminium block was hot-tanked, then it is refused with the method field named; a spray wash is taken', async () => {
+    // Common practice: caustic hot-tank solutions attack aluminium.
+    const { job, shop } = await m.jobIn('inWork', { input: jobInput({ ...bottomEnd, blockMaterial: 'aluminium', operations: [{ code: 'clean', quantity: 1 }, ...bottomEnd.operations!] }) });
+    const res = await shop.post(`/api/jobs/${job.id}/inspection`, record({ ...goodSections(), clean: { method: 'hot-tank', result: 'clean', findings: '' } }));
+    expect(res.status).toBe(400);
+    expect(res.body.error.fields['sections.clean.method']).toMatch(/caustic hot tank attacks aluminium/);
+    expect((await shop.get(`/api/jobs/${job.id}`)).body.job.status).toBe('in_work');
+    const washed = await shop.post(`/api/jobs/${job.id}/inspection`, record({ ...goodSections(), clean: { method: 'spray-wash', result: 'clean', findings: '' } }));
+    expect(washed.status).toBe(201);
+    expect((await storedResults(job.id)).sections!.find((s) => s.operation === 'clean')!.verdict).toBe('conforms');
+  });
+
   it('when a bore job’s record has no bore grid, then it is refused: the grid is needed for bore work', async () => {
     const { job, shop } = await m.jobIn('inWork');
     const res = await shop.post(`/api/jobs/${job.id}/inspection`, record({}));

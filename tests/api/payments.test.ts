@@ -113,7 +113,7 @@ describe('payments through the official SDK and the stand-in', () => {
 
   it.each([
     ['4000 0000 0000 0002', /declined/i],
-    ['4000 0000 0000 9995', /insufficient funds/i],
+    ['4000 0000 0000 9995', /not enough funds/i],
   ])('when the card %s is declined, then the job stays unpaid with the reason, and a retry with the success card funds it', async (card, reason) => {
     const { job, builder } = await awardedJob(12_345);
     const declined = await payWith(builder, job.id, card);

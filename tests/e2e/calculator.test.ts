@@ -34,6 +34,8 @@ describe('the calculator page, as a signed-out visitor', () => {
     await expect(caution.textContent()).resolves.toContain(
       "Engine and piston makers' specifications, calibrated instruments, local codes and licensed practice govern.",
     );
+    // Said once, not twice over.
+    expect((await caution.textContent())!.match(/guidance/gi)).toHaveLength(1);
     const inPage = page.getByRole('navigation', { name: 'Calculators on this page' });
     await expect(inPage.getByRole('link').count()).resolves.toBe(13);
     await page.screenshot({ path: join(artifactsDir, 'calculator-top-768.png') });

@@ -155,4 +155,21 @@ describe('an inspection record with a section per ordered operation, in a real b
     expect((await shop<InspectionView>('GET', `/api/jobs/${job.id}/inspection`)).versions).toEqual([]);
     expect(consoleErrors, consoleErrors.join('\n')).toEqual([]);
   });
+
+  it('when an aluminium block is to be cleaned, then the clean section offers no caustic hot tank; an iron one does', async () => {
+    // Common practice: caustic hot-tank solutions attack aluminium.
+    const methodsFor = async (blockMaterial: 'aluminium' | 'cast-iron') => {
+      const { job } = await suite.jobIn('inWork', builder.email, lanternHill.email, {
+        input: { title: `Clean and bore a V8 (${blockMaterial})`, blockMaterial, operations: [{ code: 'clean', quantity: 1 }, { code: 'bore', quantity: 8 }] },
+        bid: { lineItems: linesFor(['clean', 'bore']) },
+      });
+      const shopPage = await pageFor(lanternHill.email, `/jobs/${job.id}/inspection/new`);
+      const section = shopPage.getByTestId('entry-section-clean');
+      await section.waitFor();
+      return section.getByLabel('Method').locator('option').evaluateAll((options) => options.map((o) => (o as HTMLOptionElement).value).filter(Boolean));
+    };
+    await expect(methodsFor('aluminium')).resolves.toEqual(['thermal-oven', 'spray-wash', 'other']);
+    await expect(methodsFor('cast-iron')).resolves.toEqual(['hot-tank', 'thermal-oven', 'spray-wash', 'other']);
+    expect(consoleErrors, consoleErrors.join('\n')).toEqual([]);
+  });
 });

@@ -79,7 +79,7 @@ describe('whole journeys through the marketplace, one browser per person', () =>
       const s = await suite.pageFor(shop.email, '/shop/profile');
       await s.getByRole('button', { name: 'Set up payouts' }).click();
       await s.waitForURL(onStandIn);
-      await s.getByRole('button', { name: 'Agree and submit' }).click();
+      await s.getByRole('button', { name: 'Send my details' }).click();
       await s.waitForURL(suite.url('/shop/profile?payouts=return'));
       await s.getByText('Ready to be paid').waitFor({ timeout: 15_000 });
 

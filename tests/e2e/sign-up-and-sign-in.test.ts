@@ -130,6 +130,21 @@ describe('in a real browser', () => {
     await page.waitForURL(/\/signin\?returnTo=%2Fdashboard$/);
   });
 
+  it('when a suspended account is refused at sign-in, then the page says how to reach us: the support address and the help page', async () => {
+    // The GitHub sign-in comes back with ?error=suspended; a password sign-in shows the same line under the server's message.
+    await page.goto(url('/signin?error=suspended'));
+    const notice = page.getByText('This account is suspended.', { exact: false });
+    await notice.waitFor();
+    const contact = page.getByTestId('contact-line');
+    await contact.getByRole('link', { name: 'help@tenthmark.test' }).waitFor();
+    await expect(contact.getByRole('link', { name: 'help@tenthmark.test' }).getAttribute('href')).resolves.toBe('mailto:help@tenthmark.test');
+    await contact.getByRole('link', { name: 'help page' }).click();
+    await page.waitForURL(url('/help'));
+    await page.getByRole('heading', { name: 'How do I reach Tenthmark’s people?' }).waitFor();
+    await page.getByTestId('contact-line').getByRole('link', { name: 'help@tenthmark.test' }).waitFor();
+    expect(consoleErrors, consoleErrors.join('\n')).toEqual([]);
+  });
+
   it('when the demo admin adds an administrator, then the newcomer shows in the people list; a builder cannot open that page', async () => {
     const admin = demoAccounts.find((a) => a.role === 'admin')!;
     await suite.signIn(page, admin.email, '/admin/people');

@@ -20,7 +20,7 @@ import { freePort } from './ports';
  * receiver (startHarness) for the stand-in's own tests; its hosted pages
  * filled in as a person would.
  */
-export { postForm, readForm };
+export { postForm, readForm, submitHostedPage };
 
 export const TEST_WEBHOOK_SECRET = 'whsec_tenthmark_test_app_secret';
 

@@ -1,6 +1,7 @@
 import { Link } from 'react-router-dom';
 import { Card, PageTitle } from '@client/components/ui/card';
 import { GuidanceCaution } from '@client/components/ui/guidance-caution';
+import { ContactLine } from '@client/features/help';
 
 const answers: Array<{ q: string; a: string[] }> = [
   {
@@ -63,6 +64,11 @@ export function HelpRoute() {
           {q.startsWith('What is an inspection record') && <GuidanceCaution className="mt-3" />}
         </Card>
       ))}
+      <Card>
+        <h2 className="mb-2 text-xl font-bold">How do I reach Tenthmark’s people?</h2>
+        <p className="mb-2 text-ink-soft">By e-mail, signed in or not: a suspended account, a payment that went wrong, anything these answers do not cover. Our mail is sent from an address that takes no replies, so write to this one.</p>
+        <ContactLine withHelpLink={false} />
+      </Card>
       <p className="text-ink-soft">
         More detail: the <Link to="/terms" className="underline">terms of use</Link> and the <Link to="/privacy" className="underline">privacy notice</Link>.
       </p>

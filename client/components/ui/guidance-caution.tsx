@@ -4,8 +4,8 @@ import { cn } from '@client/lib/cn';
 export function GuidanceCaution({ className }: { className?: string }) {
   return (
     <p className={cn('border-l-4 border-caution pl-3 text-sm text-caution', className)} data-testid="guidance-caution">
-      <strong>Guidance only.</strong> These figures are guidance. Engine and piston makers&apos; specifications, calibrated instruments, local
-      codes and licensed practice govern.
+      <strong>These figures are guidance only.</strong> Engine and piston makers&apos; specifications, calibrated instruments, local codes
+      and licensed practice govern.
     </p>
   );
 }

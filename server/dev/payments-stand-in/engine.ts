@@ -21,13 +21,13 @@ export const API_VERSION = '2026-10-28.endive';
 /** The provider's published test cards that the hosted page honours. */
 export const TEST_CARDS = {
   '4242424242424242': { outcome: 'success' },
-  '4000000000000002': { outcome: 'decline', declineCode: 'generic_decline', message: 'Your card was declined.' },
-  '4000000000009995': { outcome: 'decline', declineCode: 'insufficient_funds', message: 'Your card has insufficient funds.' },
+  '4000000000000002': { outcome: 'decline', declineCode: 'generic_decline', message: 'The bank declined this card.' },
+  '4000000000009995': { outcome: 'decline', declineCode: 'insufficient_funds', message: 'The bank declined this card: there are not enough funds for this payment.' },
   '4000002760003184': { outcome: 'authenticate' },
 } as const satisfies Record<string, { outcome: string; declineCode?: string; message?: string }>;
 
 export const AUTHENTICATION_FAILED_MESSAGE =
-  'We are unable to authenticate your payment method. Please choose a different payment method and try again.';
+  'The bank could not confirm this payment. Try again, or pay with another card.';
 
 export type PaymentOutcome =
   | { kind: 'succeeded'; session: CheckoutSession }

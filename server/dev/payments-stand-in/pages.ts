@@ -73,9 +73,9 @@ ${error ? `<p class="error" role="alert" id="payment-error">${escapeHtml(error)}
 ${cancel}
 <details><summary>Test cards this page accepts</summary><ul>
 <li><code>4242 4242 4242 4242</code>: succeeds</li>
-<li><code>4000 0000 0000 0002</code>: declined (generic decline)</li>
-<li><code>4000 0000 0000 9995</code>: declined (insufficient funds)</li>
-<li><code>4000 0027 6000 3184</code>: asks for authentication (3-D Secure)</li>
+<li><code>4000 0000 0000 0002</code>: the bank declines it</li>
+<li><code>4000 0000 0000 9995</code>: the bank declines it for want of funds</li>
+<li><code>4000 0027 6000 3184</code>: the bank asks you to confirm the payment</li>
 </ul></details>`;
 }
 
@@ -83,8 +83,8 @@ function authenticationStep(session: CheckoutSession): string {
   return `<h1>Confirm this payment with your bank</h1>
 <p>Your bank asks you to confirm the payment of ${formatAmount(session.amount_total, session.currency)}. On this local page you choose the bank's answer.</p>
 <form method="post" action="/pay/${escapeHtml(session.id)}/authenticate">
-<button type="submit" name="outcome" value="approve">Complete authentication</button>
-<button type="submit" name="outcome" value="fail">Fail authentication</button>
+<button type="submit" name="outcome" value="approve">Approve this payment</button>
+<button type="submit" name="outcome" value="fail">Decline this payment</button>
 </form>`;
 }
 
@@ -107,17 +107,17 @@ interface ParsedCard {
 
 function parseCard(body: Record<string, unknown>): ParsedCard | { error: string } {
   const number = String(body.card_number ?? '').replace(/[\s-]/g, '');
-  if (!/^\d{12,19}$/.test(number)) return { error: 'Your card number is incomplete.' };
+  if (!/^\d{12,19}$/.test(number)) return { error: 'The card number is not complete.' };
   const exp = String(body.exp ?? '').trim();
   if (!exp) return { number, expMonth: 12, expYear: 2034 };
   const match = /^(\d{1,2})\s*\/\s*(\d{2}|\d{4})$/.exec(exp);
-  if (!match) return { error: "Your card's expiration date is incomplete." };
+  if (!match) return { error: 'The expiry date is not complete: write it as MM / YY.' };
   const expMonth = Number(match[1]);
   const expYear = match[2].length === 2 ? 2000 + Number(match[2]) : Number(match[2]);
-  if (expMonth < 1 || expMonth > 12) return { error: "Your card's expiration month is invalid." };
+  if (expMonth < 1 || expMonth > 12) return { error: 'The expiry month must be from 01 to 12.' };
   const now = new Date();
   if (expYear < now.getFullYear() || (expYear === now.getFullYear() && expMonth < now.getMonth() + 1)) {
-    return { error: "Your card's expiration date is in the past." };
+    return { error: 'This card has expired: its expiry date has passed.' };
   }
   return { number, expMonth, expYear };
 }
@@ -204,7 +204,7 @@ ${error ? `<p class="error" role="alert">${escapeHtml(error)}</p>` : ''}
 <input id="routing_number" name="routing_number" inputmode="numeric" value="110000000" required>
 <label for="account_number">Account number</label>
 <input id="account_number" name="account_number" inputmode="numeric" value="000123456789" required>
-<button type="submit">Agree and submit</button>
+<button type="submit">Send my details</button>
 </form>
 <p><a href="${escapeHtml(grant.return_url)}">Return without finishing</a></p>`,
     );

@@ -410,12 +410,16 @@ export function disputeDecidedMail(input: { name: string; jobTitle: string; outc
   });
 }
 
-export function accountSuspendedMail(input: { name: string; reason: string }): RenderedMail {
+export function accountSuspendedMail(input: { name: string; reason: string; helpUrl: string; supportEmail: string }): RenderedMail {
   return render({
     template: 'account_suspended',
     subject: 'Your Tenthmark account is suspended',
     greeting: `Hello ${input.name},`,
-    paragraphs: [`An administrator suspended your account: ${input.reason}`, 'You have been signed out and cannot sign in until the account is reinstated. Reply to this e-mail if you think this is a mistake.'],
+    paragraphs: [
+      `An administrator suspended your account: ${input.reason}`,
+      `You have been signed out and cannot sign in until the account is reinstated. If you think this is a mistake, write to ${input.supportEmail}; replies to this e-mail are not read.`,
+    ],
+    action: { label: 'How to reach us', url: input.helpUrl },
   });
 }
 

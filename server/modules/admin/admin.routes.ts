@@ -33,7 +33,7 @@ const shopParams = z.object({ shopId: uuidSchema });
 const disputeParams = z.object({ disputeId: uuidSchema });
 
 /** A decision moves money, so the console needs the payment client besides the fee's default. */
-export type AdminDeps = PaymentDeps & { defaultFeeBps: number };
+export type AdminDeps = PaymentDeps & { defaultFeeBps: number; supportEmail: string };
 
 const route = routesFor<AdminDeps>('Admin');
 

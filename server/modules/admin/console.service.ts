@@ -15,6 +15,9 @@ export interface ConsoleDeps {
   db: Database;
   hub?: RealtimeHub;
   defaultFeeBps: number;
+  /** For mail that must say how to reach us: the help page under appUrl and the support address. */
+  appUrl: string;
+  supportEmail: string;
 }
 
 const escapeLike = (value: string) => `%${value.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
@@ -46,7 +49,7 @@ export async function suspendUser(deps: ConsoleDeps, admin: User, userId: string
     if (!row) throw notFound('No open account with that id.');
     await tx.delete(sessions).where(sql`${sessions.sess} -> 'passport' ->> 'user' = ${userId}`);
     await recordAdminAction(tx, { adminId: admin.id, action: 'user.suspend', targetType: 'user', targetId: userId, details: { email: row.email, reason } });
-    await enqueueMail(tx, row.email, accountSuspendedMail({ name: row.displayName, reason }));
+    await enqueueMail(tx, row.email, accountSuspendedMail({ name: row.displayName, reason, helpUrl: `${deps.appUrl}/help`, supportEmail: deps.supportEmail }));
     return row;
   });
   deps.hub?.signOut(userId);

@@ -80,13 +80,16 @@ export async function signUp(deps: AuthDeps, input: SignUpInput): Promise<User> 
   });
 }
 
+/** The sign-in page shows how to reach us beside this message (the help page and the support address). */
+const suspendedError = () => new AppError('suspended', 'This account is suspended. To ask why or to have it reinstated, write to us: the help page says how.', 403);
+
 /** Checks e-mail and password; the same answer whether the e-mail or the password was wrong. */
 export async function authenticate(deps: AuthDeps, email: string, password: string): Promise<User> {
   const user = await findUserByEmail(deps.db, email);
   const ok = await verifyPassword(user?.passwordHash, password);
   if (!user || !ok) throw new AppError('wrong_credentials', 'That e-mail and password do not match an account.', 401);
   if (user.status === 'suspended') {
-    throw new AppError('suspended', 'This account is suspended. Contact Tenthmark support.', 403);
+    throw suspendedError();
   }
   return user;
 }
@@ -176,7 +179,7 @@ export async function githubSignIn(deps: AuthDeps, profile: GithubProfile): Prom
   const known = await findUserByGithubId(deps.db, profile.githubId);
   if (known) {
     if (known.status === 'suspended') {
-      throw new AppError('suspended', 'This account is suspended. Contact Tenthmark support.', 403);
+      throw suspendedError();
     }
     return { kind: 'signed-in', user: known };
   }

@@ -3,7 +3,7 @@ import { checksNotConforming, recordConforms } from '../../../shared/calc/confor
 import { evaluateInspection } from '../../../shared/calc/inspection-record';
 import { boreOperationCodes, findOperation, type OperationCode } from '../../../shared/catalogue';
 import type { InspectionInput, InspectionResults, InspectionVersion } from '../../../shared/schemas/inspection';
-import { SECTION_INPUT_KEYS, type InspectionSections } from '../../../shared/schemas/inspection-sections';
+import { HOT_TANK_ON_ALUMINIUM, SECTION_INPUT_KEYS, cleanMethodsFor, type InspectionSections } from '../../../shared/schemas/inspection-sections';
 import type { JobInput } from '../../../shared/schemas/jobs';
 import type { Database, Executor } from '../../db/client';
 import { inspectionDrafts, inspectionRecords, jobs, milestones, users, type User } from '../../db/schema';
@@ -60,8 +60,8 @@ const SECTION_KEYS: Partial<Record<OperationCode, keyof InspectionSections>> = S
 
 /**
  * A record answers the job it is for: the bore grid when the job orders bore
- * work (one row per cylinder), no section for work the job does not order, and
- * no record at all while a crack test has found a crack: that stops the work
+ * work (one row per cylinder), no section for work the job does not order, no
+ * cleaning method that attacks the job's metal, and no record at all while a crack test has found a crack: that stops the work
  * until the builder agrees what to do, through extra work the shop proposes.
  */
 function mustCoverTheJob(input: InspectionInput, spec: JobInput, cylinders: number) {
@@ -73,6 +73,10 @@ function mustCoverTheJob(input: InspectionInput, spec: JobInput, cylinders: numb
       409,
       { 'sections.crackTest.result': 'A crack was found: propose extra work to the builder first.' },
     );
+  }
+  const clean = input.sections?.clean;
+  if (clean && !cleanMethodsFor(spec.blockMaterial).includes(clean.method)) {
+    throw new AppError('invalid_input', HOT_TANK_ON_ALUMINIUM, 400, { 'sections.clean.method': HOT_TANK_ON_ALUMINIUM });
   }
   const boreWork = spec.operations.some((op) => boreOperationCodes.includes(op.code));
   if (boreWork && !input.cylinders) {

@@ -10,7 +10,7 @@ import { describe, expect, it } from 'vitest';
 import { evaluateInspection } from '../../../shared/calc/inspection-record';
 import { STEEL_ALPHA, journalFigures, lineDeviations } from '../../../shared/calc/record-sections';
 import type { InspectionInput } from '../../../shared/schemas/inspection';
-import type { InspectionSections } from '../../../shared/schemas/inspection-sections';
+import { cleanMethods, cleanMethodsFor, type InspectionSections } from '../../../shared/schemas/inspection-sections';
 import type { JobInput } from '../../../shared/schemas/jobs';
 import { expectWithin } from './expectations';
 
@@ -143,6 +143,27 @@ describe('deck heights', () => {
     const result = evaluateInspection(record({}), spec(['deck']));
     expect(result.notJudged).toEqual([{ section: 'deck', what: 'deck out-of-flat', why: 'the record has no straightedge readings' }]);
     expect(result.sections).toMatchObject([{ operation: 'deck', verdict: 'not-judged' }]);
+  });
+});
+
+describe('clean', () => {
+  // Common practice: caustic hot-tank solutions attack aluminium, so an aluminium block or head is cleaned in a thermal oven or a spray wash.
+  it('offers the caustic hot tank for iron and for parts without a stated metal, never for aluminium', () => {
+    expect(cleanMethodsFor('cast-iron')).toEqual(cleanMethods);
+    expect(cleanMethodsFor(null)).toEqual(cleanMethods);
+    expect(cleanMethodsFor('aluminium')).toEqual(['thermal-oven', 'spray-wash', 'other']);
+  });
+
+  it('a record that says hot tank on an aluminium job fails, with the reason; the same on iron conforms', () => {
+    const clean = { method: 'hot-tank', result: 'clean', findings: '' } as const;
+    const aluminium = evaluateInspection(record({ clean }), spec(['clean'], { blockMaterial: 'aluminium' }));
+    expect(aluminium.checks.find((c) => c.what === 'cleaning method suits the metal')).toMatchObject({ verdict: 'fails', pass: false, note: expect.stringMatching(/caustic hot tank attacks aluminium/) });
+    expect(aluminium.sections).toMatchObject([{ operation: 'clean', verdict: 'fails' }]);
+    const iron = evaluateInspection(record({ clean }), spec(['clean']));
+    expect(iron.checks.map((c) => c.what)).toEqual(['part cleaned']);
+    expect(iron.sections).toMatchObject([{ operation: 'clean', verdict: 'conforms' }]);
+    const oven = evaluateInspection(record({ clean: { ...clean, method: 'thermal-oven' } }), spec(['clean'], { blockMaterial: 'aluminium' }));
+    expect(oven.sections).toMatchObject([{ operation: 'clean', verdict: 'conforms' }]);
   });
 });
 

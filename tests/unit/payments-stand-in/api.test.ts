@@ -103,6 +103,7 @@ describe('payout accounts and onboarding', () => {
     expect(page.status).toBe(200);
     const html = await page.text();
     expect(html).toContain('Local test payment page');
+    expect(html).toContain('<button type="submit">Send my details</button>');
     const form = readForm(html);
     expect(form.fields).toMatchObject({ routing_number: '110000000', account_number: '000123456789' });
     const submitted = await postForm(new URL(form.action, link.url).toString(), form.fields);

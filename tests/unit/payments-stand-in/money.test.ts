@@ -1,6 +1,6 @@
 import type Stripe from 'stripe';
 import { describe, expect, it } from 'vitest';
-import { createSession, harnessWithReceiverEachTest, paidSession, payOnPage, postForm, readForm, readyAccount } from '../../setup/payments';
+import { createSession, harnessWithReceiverEachTest, paidSession, payOnPage, postForm, readForm, readyAccount, submitHostedPage } from '../../setup/payments';
 
 const run = harnessWithReceiverEachTest();
 
@@ -36,8 +36,8 @@ describe('the hosted payment page', () => {
   });
 
   it.each([
-    ['4000000000000002', 'generic_decline', 'Your card was declined.'],
-    ['4000000000009995', 'insufficient_funds', 'Your card has insufficient funds.'],
+    ['4000000000000002', 'generic_decline', 'The bank declined this card.'],
+    ['4000000000009995', 'insufficient_funds', 'The bank declined this card: there are not enough funds for this payment.'],
   ])('when card %s is declined (%s), then the page shows the reason, payment_intent.payment_failed is sent, and another card can still pay', async (card, declineCode, message) => {
     const session = await createSession(run.harness.stripe);
     const answer = await payOnPage(session.url!, card);
@@ -69,6 +69,8 @@ describe('the hosted payment page', () => {
     expect(answer.status).toBe(200);
     const html = await answer.text();
     expect(html).toContain('Confirm this payment with your bank');
+    expect(html).toContain('>Approve this payment</button>');
+    expect(html).toContain('>Decline this payment</button>');
     const step = readForm(html);
     expect(step.action).toBe(`/pay/${session.id}/authenticate`);
     const pending = await run.harness.stripe.checkout.sessions.retrieve(session.id, { expand: ['payment_intent'] });
@@ -84,11 +86,24 @@ describe('the hosted payment page', () => {
     await payOnPage(session.url!, '4000002760003184');
     const failed = await postForm(`${run.harness.standIn.url}/pay/${session.id}/authenticate`, { outcome: 'fail' });
     expect(failed.status).toBe(402);
-    expect(await failed.text()).toContain('unable to authenticate');
+    expect(await failed.text()).toContain('The bank could not confirm this payment.');
     await run.harness.standIn.control.drain();
     const event = eventsOfType('payment_intent.payment_failed')[0];
     expect((event.data.object as Stripe.PaymentIntent).last_payment_error?.code).toBe('payment_intent_authentication_failure');
     expect((await run.harness.stripe.checkout.sessions.retrieve(session.id)).status).toBe('open');
+  });
+
+  it.each([
+    [{ card_number: '4242 4242' }, 'The card number is not complete.'],
+    [{ card_number: '4242424242424242', exp: '12' }, 'The expiry date is not complete: write it as MM / YY.'],
+    [{ card_number: '4242424242424242', exp: '13 / 34' }, 'The expiry month must be from 01 to 12.'],
+    [{ card_number: '4242424242424242', exp: '01 / 20' }, 'This card has expired: its expiry date has passed.'],
+  ])('when the card fields are %o, then the page says in plain words what to fix and nothing is paid', async (changes, sentence) => {
+    const session = await createSession(run.harness.stripe);
+    const answer = await submitHostedPage(session.url!, changes);
+    expect(answer.status).toBe(400);
+    expect(await answer.text()).toContain(sentence);
+    expect((await run.harness.stripe.checkout.sessions.retrieve(session.id)).payment_status).toBe('unpaid');
   });
 
   it('when a card number is not a test card, then the page refuses it and nothing is sent', async () => {

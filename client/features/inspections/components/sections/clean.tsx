@@ -1,9 +1,9 @@
-import { cleanMethods } from '@shared/schemas/inspection-sections';
+import { cleanMethodsFor } from '@shared/schemas/inspection-sections';
 import { PartCheckSection } from './part-check';
 import type { SectionContext } from './section-kit';
 
 export const METHOD_WORDS: Record<string, string> = {
-  'hot-tank': 'Hot tank',
+  'hot-tank': 'Hot tank (caustic: iron and steel only)',
   'thermal-oven': 'Thermal oven',
   'spray-wash': 'Spray wash',
   other: 'Other',
@@ -12,7 +12,7 @@ export const METHOD_WORDS: Record<string, string> = {
   'pressure-test': 'Pressure test',
 };
 
-/** Clean: the method, whether it came out clean, findings and photos. */
+/** Clean: the method (those suited to the job's metal: no caustic hot tank for aluminium), whether it came out clean, findings and photos. */
 export function CleanSection({ ctx }: { ctx: SectionContext }) {
   return (
     <PartCheckSection
@@ -20,7 +20,7 @@ export function CleanSection({ ctx }: { ctx: SectionContext }) {
       operation="clean"
       title="Clean"
       inputKey="clean"
-      methods={cleanMethods.map((m) => ({ value: m, label: METHOD_WORDS[m] }))}
+      methods={cleanMethodsFor(ctx.job.blockMaterial).map((m) => ({ value: m, label: METHOD_WORDS[m] }))}
       results={[
         { value: 'clean', label: 'Clean' },
         { value: 'residue-left', label: 'Residue left' },

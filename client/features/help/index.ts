@@ -1,0 +1,3 @@
+// The help feature's public face: what routes, the layout and other features may use.
+// Anything not exported here is internal to the feature (eslint.config.js enforces it).
+export { ContactLine } from './components/contact-line';
