@@ -5,6 +5,7 @@ import { Button } from '@client/components/ui/button';
 import { Notice } from '@client/components/ui/notice';
 import { RecordSections, useInspection, finishFilterWords } from '@client/features/inspections';
 import { useJob } from '@client/features/jobs';
+import { formatDateTime } from '@client/lib/dates';
 
 const GUIDANCE =
   'Figures are guidance. Engine and piston makers’ specifications, calibrated instruments, local codes and licensed practice govern machine work.';
@@ -54,7 +55,7 @@ export function InspectionCertificateRoute() {
         {job.data.title} — {job.data.engineFamily}
       </p>
       <p data-testid="certificate-job">
-        Job number {jobId} · version {record.version} · submitted {new Date(record.submittedAt).toLocaleString()}
+        Job number {jobId} · version {record.version} · submitted {formatDateTime(record.submittedAt)}
       </p>
       <p data-testid="certificate-status">Status: {INSPECTION_STATUS_WORDS[record.status] ?? record.status}</p>
       <p data-testid="certificate-parties">

@@ -21,6 +21,7 @@ import { useAcceptInspection, useInspection, useRejectInspection } from '../api/
 import { type VersionChange, versionChanges } from '../lib/version-diff';
 import { BoreSizeChart } from './bore-size-chart';
 import { InspectionResultsView } from './inspection-results';
+import { formatDateTime as formatWhen } from '@client/lib/dates';
 import { RecordSections } from './record-section-block';
 import { ReadingsAt20 } from './record-judgement';
 
@@ -34,8 +35,6 @@ const versionStatus: Record<InspectionVersion['status'], { label: string; tone: 
   superseded: { label: INSPECTION_STATUS_WORDS.superseded, tone: 'muted' },
 };
 
-const when = new Intl.DateTimeFormat('en-US', { dateStyle: 'medium', timeStyle: 'short' });
-const formatWhen = (iso: string) => when.format(new Date(iso));
 
 function Changes({ changes, previous }: { changes: VersionChange[]; previous: number }) {
   return (
