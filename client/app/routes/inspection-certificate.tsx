@@ -16,7 +16,14 @@ export function InspectionCertificateRoute() {
   const job = useJob(jobId);
   const inspection = useInspection(jobId);
   if (job.isPending || inspection.isPending) return <p className="text-ink-soft">Loading the record …</p>;
-  if (job.isError || inspection.isError) return <Notice tone="error">{(job.error ?? inspection.error)?.message}</Notice>;
+  if (job.isError || inspection.isError) {
+    const retry = () => void Promise.all([job.isError && job.refetch(), inspection.isError && inspection.refetch()]);
+    return (
+      <Notice tone="error" title="The record could not be loaded" onRetry={retry}>
+        {(job.error ?? inspection.error)?.message}
+      </Notice>
+    );
+  }
   const record = inspection.data.versions.find((v) => v.version === Number(version));
   if (!record) return <Notice tone="error">There is no version {version} of this record.</Notice>;
   const { input, results } = record;

@@ -56,7 +56,11 @@ export function PeopleTable({ currentUserId }: { currentUserId?: string }) {
           </select>
         </label>
       </div>
-      {users.isError && <Notice tone="error">{users.error.message}</Notice>}
+      {users.isError && (
+        <Notice tone="error" title="The people could not be loaded" onRetry={() => void users.refetch()}>
+          {users.error.message}
+        </Notice>
+      )}
       {users.data && (
         <>
           <p className="text-sm text-ink-soft" aria-live="polite">

@@ -310,7 +310,12 @@ export function InspectionReview({ job, viewer }: { job: JobDetail; viewer: 'bui
 
   let body;
   if (inspection.isPending) body = <p className="text-ink-soft">Loading the inspection record …</p>;
-  else if (inspection.isError) body = <Notice tone="error">The inspection record could not be loaded: {inspection.error.message}</Notice>;
+  else if (inspection.isError)
+    body = (
+      <Notice tone="error" onRetry={() => void inspection.refetch()}>
+        The inspection record could not be loaded: {inspection.error.message}
+      </Notice>
+    );
   else {
     const { versions, reviewDueAt, autoAccept = null, reviewWindowEnded = false } = inspection.data;
     const latest = versions[0];
