@@ -167,7 +167,7 @@ export function loadConfig(source: NodeJS.ProcessEnv = process.env): AppConfig {
     throw new Error(`The environment is not valid:\n${lines.join('\n')}`);
   }
   const env = parsed.data;
-  const appUrl = (env.APP_URL ?? `http://localhost:${env.PORT}`).replace(/\/$/, '');
+  const appUrl = (env.APP_URL ?? defaultAppUrl(env.HOST, env.PORT)).replace(/\/$/, '');
   const realGithub = Boolean(env.GITHUB_CLIENT_ID && env.GITHUB_CLIENT_SECRET);
   const standInUrl = (env.GITHUB_STAND_IN_URL ?? `http://127.0.0.1:${env.GITHUB_STAND_IN_PORT}`).replace(/\/$/, '');
   const github: GithubConfig = realGithub
@@ -237,6 +237,19 @@ export function loadConfig(source: NodeJS.ProcessEnv = process.env): AppConfig {
 
 const LOOPBACK = new Set(['localhost', '127.0.0.1', '[::1]', '::1']);
 const EVERY_ADDRESS = new Set(['0.0.0.0', '::', '[::]']);
+
+/**
+ * APP_URL when it is not set: the host and port the app listens on, so e-mail
+ * links and payment return pages open the host the person browses (the
+ * session cookie is kept per host name). When the app listens on every
+ * address there is no one host to name, so it says `localhost`.
+ */
+export function defaultAppUrl(listenHost: string, port: number): string {
+  const host = listenHost.toLowerCase();
+  if (EVERY_ADDRESS.has(host)) return `http://localhost:${port}`;
+  const bare = host.replace(/^\[(.*)\]$/, '$1');
+  return `http://${bare.includes(':') ? `[${bare}]` : bare}:${port}`;
+}
 
 /**
  * A warning for the server log when the links Tenthmark sends (APP_URL: e-mail

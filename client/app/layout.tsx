@@ -2,6 +2,7 @@ import { useQueryClient } from '@tanstack/react-query';
 import { forwardRef, lazy, Suspense, useEffect, useRef, useState } from 'react';
 import { NavLink, Outlet, ScrollRestoration, useLocation, useNavigate } from 'react-router-dom';
 import type { Me } from '@shared/schemas/auth';
+import { PageProgress } from '@client/components/page-progress';
 import { CountBadge } from '@client/components/ui/count-badge';
 import { authKeys, useSignOut, useMe } from '@client/features/auth';
 import { useUnreadTotal } from '@client/features/messages';
@@ -209,6 +210,7 @@ export function Layout() {
           <MessagesLive />
         </Suspense>
       )}
+      <PageProgress />
       <div className="flex min-h-screen flex-col">
         <a href="#main" className="sr-only focus:not-sr-only focus:absolute focus:left-2 focus:top-2 focus:rounded focus:bg-white focus:p-2">
           Skip to the content

@@ -234,7 +234,7 @@ describe('the inspection record, from block received to payment released, in a r
     await expect(results.getByTestId('surface-figures').textContent()).resolves.toContain('45.0°');
 
     // The draft saves itself and comes back after a reload.
-    await expect.poll(() => shopPage.getByTestId('draft-status').textContent(), { timeout: 8_000 }).toMatch(/^Saved at \d\d:\d\d$/);
+    await expect.poll(() => shopPage.getByTestId('draft-status').textContent(), { timeout: 8_000 }).toMatch(/^Saved at \d\d:\d\d \S+$/);
     // "Saved at" may still show an earlier save: wait until the kept draft holds the last thing typed (the sign-off).
     await expect.poll(async () => JSON.stringify((await lantern<{ draft: unknown }>('GET', `/api/jobs/${job.id}/inspection`)).draft), { timeout: 15_000 }).toContain('Rosa Okafor');
     await shopPage.reload();

@@ -12,7 +12,7 @@ import { TextField } from '@client/components/ui/text-field';
 import { useBoard, readBoardFilters } from '@client/features/jobs';
 import { useOwnShop } from '@client/features/shops';
 import { cn } from '@client/lib/cn';
-import { formatDay } from '@client/lib/dates';
+import { formatDate, formatDay } from '@client/lib/dates';
 import { useSearchParamUpdater } from '@client/lib/search-params';
 
 type Sort = BoardQuery['sort'];
@@ -29,10 +29,9 @@ const sorts: Record<Sort, { column: string; order: string; direction: 'ascending
   'fewest-bids': { column: 'Bids', order: 'fewest first', direction: 'ascending' },
 };
 
-/** A calendar date (YYYY-MM-DD) as the reader's date, without a time-zone shift. */
+/** The day a job was posted, as the reader's date. */
 function formatPosted(timestamp: string | null) {
-  if (!timestamp) return '—';
-  return new Date(timestamp).toLocaleDateString(undefined, { day: 'numeric', month: 'short' });
+  return timestamp ? formatDate(timestamp) : '—';
 }
 
 function SortHeader({ sort, current, onSort, className }: { sort: Sort; current: Sort; onSort: (sort: Sort) => void; className?: string }) {

@@ -5,6 +5,7 @@ import { Button } from '@client/components/ui/button';
 import { Notice } from '@client/components/ui/notice';
 import { RecordSections, useInspection, finishFilterWords } from '@client/features/inspections';
 import { useJob } from '@client/features/jobs';
+import { formatDateTime } from '@client/lib/dates';
 
 const GUIDANCE =
   'Figures are guidance. Engine and piston makers’ specifications, calibrated instruments, local codes and licensed practice govern machine work.';
@@ -15,7 +16,14 @@ export function InspectionCertificateRoute() {
   const job = useJob(jobId);
   const inspection = useInspection(jobId);
   if (job.isPending || inspection.isPending) return <p className="text-ink-soft">Loading the record …</p>;
-  if (job.isError || inspection.isError) return <Notice tone="error">{(job.error ?? inspection.error)?.message}</Notice>;
+  if (job.isError || inspection.isError) {
+    const retry = () => void Promise.all([job.isError && job.refetch(), inspection.isError && inspection.refetch()]);
+    return (
+      <Notice tone="error" title="The record could not be loaded" onRetry={retry}>
+        {(job.error ?? inspection.error)?.message}
+      </Notice>
+    );
+  }
   const record = inspection.data.versions.find((v) => v.version === Number(version));
   if (!record) return <Notice tone="error">There is no version {version} of this record.</Notice>;
   const { input, results } = record;
@@ -54,7 +62,7 @@ export function InspectionCertificateRoute() {
         {job.data.title} — {job.data.engineFamily}
       </p>
       <p data-testid="certificate-job">
-        Job number {jobId} · version {record.version} · submitted {new Date(record.submittedAt).toLocaleString()}
+        Job number {jobId} · version {record.version} · submitted {formatDateTime(record.submittedAt)}
       </p>
       <p data-testid="certificate-status">Status: {INSPECTION_STATUS_WORDS[record.status] ?? record.status}</p>
       <p data-testid="certificate-parties">

@@ -24,7 +24,7 @@ export function InspectionEntryRoute() {
     const error = job.error ?? inspection.error;
     return (
       <div className="mx-auto flex max-w-lg flex-col gap-4">
-        <Notice tone="error" title="The inspection record cannot be opened">
+        <Notice tone="error" title="The inspection record cannot be opened" onRetry={() => void Promise.all([job.isError && job.refetch(), inspection.isError && inspection.refetch()])}>
           {error?.message}
         </Notice>
         {back}

@@ -12,6 +12,7 @@ import { toSearch, useSearchParamUpdater } from '@client/lib/search-params';
 import { ClearFiltersButton, FilterForm } from '@client/components/ui/filter-form';
 import { TextField } from '@client/components/ui/text-field';
 import { TableHead } from '@client/components/ui/table-head';
+import { formatDateTime } from '@client/lib/dates';
 
 const PAGE_SIZE = 25;
 
@@ -86,7 +87,6 @@ const leads: Record<Side, string> = {
   shop: 'Every payment on your jobs, newest first: what builders paid in and is held, what was paid to you, the platform fee, and refunds.',
 };
 
-const when = new Intl.DateTimeFormat('en-US', { dateStyle: 'medium', timeStyle: 'short' });
 
 function readPage(params: URLSearchParams): number {
   const page = Number(params.get('page'));
@@ -162,7 +162,7 @@ export function MoneyHistoryRoute() {
                   {history.data.rows.map((row) => (
                     <tr key={row.id} className="border-b border-slate-100 align-top" data-testid="money-row">
                       <td className="py-3 pr-4 whitespace-nowrap">
-                        <time dateTime={row.createdAt}>{when.format(new Date(row.createdAt))}</time>
+                        <time dateTime={row.createdAt}>{formatDateTime(row.createdAt)}</time>
                       </td>
                       <td className="py-3 pr-4">
                         <Link to={`/jobs/${row.jobId}`} className="font-bold text-slate-700 underline-offset-4 hover:underline">

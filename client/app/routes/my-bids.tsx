@@ -5,6 +5,7 @@ import { PageTitle } from '@client/components/ui/card';
 import { Notice } from '@client/components/ui/notice';
 import { useMyBids, BidStatusBadge, days, formatMoment } from '@client/features/bids';
 import { TableHead } from '@client/components/ui/table-head';
+import { formatDay } from '@client/lib/dates';
 
 const jobStatusWords: Record<string, string> = {
   open: 'open for bids',
@@ -19,7 +20,6 @@ const jobStatusWords: Record<string, string> = {
 };
 
 /** A due day (a calendar date, UTC) as people read it. */
-const dueWords = new Intl.DateTimeFormat('en-US', { dateStyle: 'medium', timeZone: 'UTC' });
 
 export function MyBidsRoute() {
   const bids = useMyBids();
@@ -72,7 +72,7 @@ export function MyBidsRoute() {
                     {days(bid.turnaroundDays)}
                     {bid.dueOn && (
                       <span className="block font-semibold" data-testid="my-bid-due">
-                        Due {dueWords.format(new Date(`${bid.dueOn}T00:00:00Z`))}
+                        Due {formatDay(bid.dueOn)}
                       </span>
                     )}
                   </td>

@@ -13,7 +13,7 @@ export function ShopPageRoute() {
     const missing = shop.error instanceof ApiError && (shop.error.status === 404 || shop.error.status === 400);
     return (
       <div className="mx-auto max-w-lg">
-        <Notice tone="error" title={missing ? 'No such shop' : 'The shop could not be loaded'}>
+        <Notice tone="error" title={missing ? 'No such shop' : 'The shop could not be loaded'} onRetry={missing ? undefined : () => void shop.refetch()}>
           {missing ? 'This shop is not on Tenthmark, or its address is mistyped.' : shop.error.message}{' '}
           <Link to="/shops" className="font-semibold underline underline-offset-4">
             See all shops

@@ -2,6 +2,7 @@ import { readFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import PDFDocument from 'pdfkit';
 import { formatCents } from '../../../shared/catalogue';
+import { formatDateTime, SERVER_TIME_ZONE } from '../../../shared/dates';
 
 /**
  * The frame every document Tenthmark prints shares (inspection certificate,
@@ -30,8 +31,8 @@ const QUIET = '#5d6b75';
 /** Money on a document: whole cents written in the payment's currency. */
 export const money = (cents: number, currency = 'usd') => formatCents(cents, currency.toUpperCase(), 'en-US');
 
-/** A moment on a document: minutes, in UTC, said so. */
-export const stamp = (at: Date) => `${at.toISOString().slice(0, 16).replace('T', ' ')} UTC`;
+/** A moment on a document: minutes, in UTC, said so ("5 Dec 2026, 14:03 UTC"). */
+export const stamp = (at: Date) => formatDateTime(at, SERVER_TIME_ZONE);
 
 export interface PrintedDocument {
   doc: PDFKit.PDFDocument;

@@ -2,6 +2,7 @@ import { and, desc, eq, sql } from 'drizzle-orm';
 import { checksNotConforming, recordConforms } from '../../../shared/calc/conformance';
 import { evaluateInspection } from '../../../shared/calc/inspection-record';
 import { boreOperationCodes, findOperation, type OperationCode } from '../../../shared/catalogue';
+import { formatDateTime } from '../../../shared/dates';
 import type { InspectionInput, InspectionResults, InspectionVersion } from '../../../shared/schemas/inspection';
 import { HOT_TANK_ON_ALUMINIUM, SECTION_INPUT_KEYS, cleanMethodsFor, type InspectionSections } from '../../../shared/schemas/inspection-sections';
 import type { JobInput } from '../../../shared/schemas/jobs';
@@ -33,8 +34,6 @@ const toVersion = (row: RecordRow): InspectionVersion => ({
   decidedAt: row.decidedAt?.toISOString() ?? null,
   rejectReasons: row.rejectReasons,
 });
-
-const dayText = (date: Date) => date.toLocaleString('en-US', { dateStyle: 'long', timeStyle: 'short', timeZone: 'UTC' }) + ' UTC';
 
 export async function inspectionView(db: Database, user: User, jobId: string) {
   const parties = await partiesOf(db, jobId);
@@ -147,11 +146,11 @@ export async function submitInspection(deps: InspectionDeps, user: User, jobId: 
     await enqueueMail(
       tx,
       parties.builder.email,
-      inspectionSubmittedMail({ name: parties.builder.displayName, shopName: parties.shop!.name, jobTitle: job.title, version: next, pass: results.pass, autoAccept: recordConforms(results), dueText: dayText(reviewDueAt), url }),
+      inspectionSubmittedMail({ name: parties.builder.displayName, shopName: parties.shop!.name, jobTitle: job.title, version: next, pass: results.pass, autoAccept: recordConforms(results), dueText: formatDateTime(reviewDueAt), url }),
     );
     await notices.add(tx, parties.builder.id, 'results_submitted', {
       jobId: job.id,
-      text: `${parties.shop!.name} submitted inspection results for “${job.title}” (version ${next}): review them by ${dayText(reviewDueAt)}.`,
+      text: `${parties.shop!.name} submitted inspection results for “${job.title}” (version ${next}): review them by ${formatDateTime(reviewDueAt)}.`,
       href: `/jobs/${job.id}`,
     });
     const reminderAt = new Date(Math.max(Date.now(), reviewDueAt.getTime() - 24 * 60 * 60_000));
@@ -280,13 +279,13 @@ export function inspectionTaskHandlers(deps: InspectionDeps) {
         const parties = await partiesOf(tx, record.jobId);
         await notices.add(tx, parties.builder.id, 'review_window_ending', {
           jobId: record.jobId,
-          text: `The review window for “${parties.job.title}” closes ${dayText(record.reviewDueAt)}: accept the results or ask for changes.`,
+          text: `The review window for “${parties.job.title}” closes ${formatDateTime(record.reviewDueAt)}: accept the results or ask for changes.`,
           href: `/jobs/${record.jobId}`,
         });
         await enqueueMail(
           tx,
           parties.builder.email,
-          reviewReminderMail({ name: parties.builder.displayName, jobTitle: parties.job.title, dueText: dayText(record.reviewDueAt), autoAccept: recordConforms(record.results as InspectionResults), url: `${deps.appUrl}/jobs/${record.jobId}` }),
+          reviewReminderMail({ name: parties.builder.displayName, jobTitle: parties.job.title, dueText: formatDateTime(record.reviewDueAt), autoAccept: recordConforms(record.results as InspectionResults), url: `${deps.appUrl}/jobs/${record.jobId}` }),
         );
       });
       notices.announce(deps.hub);

@@ -1,4 +1,5 @@
 import { Link } from 'react-router-dom';
+import { Button } from '@client/components/ui/button';
 import { Card } from '@client/components/ui/card';
 import { useDisputeQueue } from '../api/admin-disputes';
 
@@ -19,6 +20,11 @@ export function AdminOverview() {
               ? 'No disputes are waiting for a decision.'
               : `${count === 1 ? '1 dispute is' : `${count} disputes are`} waiting for a decision; the money on ${count === 1 ? 'that job' : 'those jobs'} stays held until then.`}
         </p>
+        {open.isError && count === undefined && (
+          <Button variant="secondary" onClick={() => void open.refetch()}>
+            Retry
+          </Button>
+        )}
         <Link to="/admin/disputes" className="inline-flex min-h-11 items-center rounded-lg bg-slate-700 px-4 py-2 font-semibold text-white hover:bg-slate-800">
           Open the dispute queue{count ? ` (${count})` : ''}
         </Link>

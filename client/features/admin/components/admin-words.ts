@@ -1,14 +1,8 @@
 import type { DisputeOutcome } from '@shared/schemas/disputes';
 import type { LedgerKind } from '../api/admin-ledger';
 
-const dateTime = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'short' });
-const dateOnly = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium' });
-
-/** A moment as the reader's date and time: "3 Mar 2027, 14:05". */
-export const formatMoment = (iso: string) => dateTime.format(new Date(iso));
-
-/** A moment as the reader's date only. */
-export const formatDate = (iso: string) => dateOnly.format(new Date(iso));
+/** A moment as the reader's date, time and zone ("3 Mar 2027, 14:05 UTC"), or date only. */
+export { formatDateTime as formatMoment, formatDate } from '@client/lib/dates';
 
 export const plural = (count: number, one: string, many = `${one}s`) => `${count} ${count === 1 ? one : many}`;
 

@@ -4,10 +4,10 @@ import type { Role } from '@shared/schemas/auth';
 import { Badge } from '@client/components/ui/badge';
 import { Button } from '@client/components/ui/button';
 import { Notice } from '@client/components/ui/notice';
+import { formatDate } from '@client/lib/dates';
 import { useAdminUsers, useReinstateUser, type AdminUserRow } from '../api/admin-users';
 import { SuspendUserDialog } from './suspend-user-dialog';
 
-const dateFormat = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium' });
 
 function ReinstateButton({ user }: { user: AdminUserRow }) {
   const reinstate = useReinstateUser({
@@ -56,7 +56,11 @@ export function PeopleTable({ currentUserId }: { currentUserId?: string }) {
           </select>
         </label>
       </div>
-      {users.isError && <Notice tone="error">{users.error.message}</Notice>}
+      {users.isError && (
+        <Notice tone="error" title="The people could not be loaded" onRetry={() => void users.refetch()}>
+          {users.error.message}
+        </Notice>
+      )}
       {users.data && (
         <>
           <p className="text-sm text-ink-soft" aria-live="polite">
@@ -84,7 +88,7 @@ export function PeopleTable({ currentUserId }: { currentUserId?: string }) {
                     <td className="py-2 pr-4">{user.email}</td>
                     <td className="py-2 pr-4 capitalize">{user.role}</td>
                     <td className="py-2 pr-4">{user.status === 'active' ? 'Active' : <Badge tone="error">Suspended</Badge>}</td>
-                    <td className="py-2 pr-4">{dateFormat.format(new Date(user.createdAt))}</td>
+                    <td className="py-2 pr-4">{formatDate(user.createdAt)}</td>
                     <td className="py-2 text-right">
                       {currentUserId === undefined ? null : user.id === currentUserId ? (
                         <span className="text-ink-soft">You</span>

@@ -15,10 +15,8 @@ export function BidStatusBadge({ status }: { status: BidStatus }) {
   return <Badge tone={words.tone}>{words.label}</Badge>;
 }
 
-/** A calendar date (YYYY-MM-DD) as the reader's date, without a time-zone shift. */
-export function formatMoment(timestamp: string) {
-  return new Date(timestamp).toLocaleString(undefined, { day: 'numeric', month: 'short', year: 'numeric', hour: 'numeric', minute: '2-digit' });
-}
+/** A moment as the reader's date, time and zone. */
+export { formatDateTime as formatMoment } from '@client/lib/dates';
 
 export const days = (n: number) => `${n} working ${n === 1 ? 'day' : 'days'}`;
 

@@ -23,6 +23,7 @@ import { TextAreaField } from '@client/components/ui/text-area-field';
 import { ApiError } from '@client/lib/api-client';
 import { useRefreshJob } from '@client/lib/mutation';
 import { cn } from '@client/lib/cn';
+import { formatDateTime as formatWhen } from '@client/lib/dates';
 import { applyServerErrors } from '@client/lib/form-errors';
 import { useJobDispute, useOpenDispute, useRespondToDispute } from '../api/disputes';
 
@@ -34,8 +35,6 @@ const DISPUTE_STATES = new Set<JobDetail['status']>(['funded', 'in_work', 'inspe
 
 const HELD_NOTE = 'While the dispute is open, the payment stays held. An administrator reads both sides and the job’s record, then decides who is paid what.';
 
-const when = new Intl.DateTimeFormat('en-US', { dateStyle: 'medium', timeStyle: 'short' });
-const formatWhen = (iso: string) => when.format(new Date(iso));
 
 const otherSide = (side: Side): Side => (side === 'builder' ? 'shop' : 'builder');
 

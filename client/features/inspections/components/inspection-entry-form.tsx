@@ -13,6 +13,7 @@ import { TextAreaField } from '@client/components/ui/text-area-field';
 import { TextField, type TextFieldProps } from '@client/components/ui/text-field';
 import { ProposeChangeOrder } from '@client/features/payments';
 import { ApiError } from '@client/lib/api-client';
+import { formatTime } from '@client/lib/dates';
 import { UNIT_WORDS } from '@client/lib/numbers';
 import { useSubmitInspection } from '../api/inspections';
 import { useDraftAutosave, type DraftStatus } from '../hooks/use-draft-autosave';
@@ -23,14 +24,13 @@ import { ordersBoreWork } from '../lib/section-fields';
 import { FailingChecksLine, InspectionResultsView } from './inspection-results';
 import { DeckPositionFields, OrderedSections, type SectionContext } from './sections';
 
-const clock = new Intl.DateTimeFormat('en-GB', { hour: '2-digit', minute: '2-digit' });
 
 function DraftStatusLine({ status }: { status: DraftStatus }) {
   const words =
     status.kind === 'saving'
       ? 'Saving the draft …'
       : status.kind === 'saved'
-        ? `Saved at ${clock.format(new Date(status.at))}`
+        ? `Saved at ${formatTime(status.at)}`
         : status.kind === 'failed'
           ? `The draft could not be saved (${status.message}). It is tried again with your next change.`
           : 'The draft saves itself as you type.';
@@ -176,7 +176,7 @@ export function InspectionEntryForm({ job, initial, origin, onSubmitted }: Inspe
         )}
         {origin.draft && (
           <Notice>
-            Your draft is restored{origin.draft.savedAt ? ` as it was at ${clock.format(new Date(origin.draft.savedAt))}` : ''}. Carry on where you left off.
+            Your draft is restored{origin.draft.savedAt ? ` as it was at ${formatTime(origin.draft.savedAt)}` : ''}. Carry on where you left off.
           </Notice>
         )}
 

@@ -21,6 +21,7 @@ import { useAcceptInspection, useInspection, useRejectInspection } from '../api/
 import { type VersionChange, versionChanges } from '../lib/version-diff';
 import { BoreSizeChart } from './bore-size-chart';
 import { InspectionResultsView } from './inspection-results';
+import { formatDateTime as formatWhen } from '@client/lib/dates';
 import { RecordSections } from './record-section-block';
 import { ReadingsAt20 } from './record-judgement';
 
@@ -34,8 +35,6 @@ const versionStatus: Record<InspectionVersion['status'], { label: string; tone: 
   superseded: { label: INSPECTION_STATUS_WORDS.superseded, tone: 'muted' },
 };
 
-const when = new Intl.DateTimeFormat('en-US', { dateStyle: 'medium', timeStyle: 'short' });
-const formatWhen = (iso: string) => when.format(new Date(iso));
 
 function Changes({ changes, previous }: { changes: VersionChange[]; previous: number }) {
   return (
@@ -311,7 +310,12 @@ export function InspectionReview({ job, viewer }: { job: JobDetail; viewer: 'bui
 
   let body;
   if (inspection.isPending) body = <p className="text-ink-soft">Loading the inspection record …</p>;
-  else if (inspection.isError) body = <Notice tone="error">The inspection record could not be loaded: {inspection.error.message}</Notice>;
+  else if (inspection.isError)
+    body = (
+      <Notice tone="error" onRetry={() => void inspection.refetch()}>
+        The inspection record could not be loaded: {inspection.error.message}
+      </Notice>
+    );
   else {
     const { versions, reviewDueAt, autoAccept = null, reviewWindowEnded = false } = inspection.data;
     const latest = versions[0];

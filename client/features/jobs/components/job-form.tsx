@@ -24,7 +24,7 @@ import { SelectField } from '@client/components/ui/select-field';
 import { TextAreaField } from '@client/components/ui/text-area-field';
 import { TextField } from '@client/components/ui/text-field';
 import { cn } from '@client/lib/cn';
-import { todayIso } from '@client/lib/dates';
+import { formatDateTime, todayIso } from '@client/lib/dates';
 import { applyServerErrors } from '@client/lib/form-errors';
 import { JobFiguresPanel } from './job-figures';
 import { forgetKeptForm, readKeptForm, writeKeptForm, type KeptJobForm } from './job-form-keeper';
@@ -396,7 +396,7 @@ export function JobForm({ initial, submitLabel, onSave, cancelTo, saveNote, keep
         <Notice tone="info" title={initial ? 'You have changes here that were not saved' : 'You started a job here before'}>
           <p>
             {initial ? 'Changes' : offer.values.title ? `“${offer.values.title}”` : 'A job without a title yet'} kept on this device on{' '}
-            {new Date(offer.keptAt).toLocaleString()}.
+            {formatDateTime(offer.keptAt)}.
           </p>
           <div className="mt-3 flex flex-wrap gap-3">
             <Button onClick={continueKept}>{initial ? 'Continue with my changes' : 'Continue that job'}</Button>

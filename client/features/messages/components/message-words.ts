@@ -1,24 +1,21 @@
 import type { JobStatus } from '@shared/schemas/jobs';
 import { MAX_MESSAGE_LENGTH } from '@shared/schemas/messages';
+import { formatDate, formatTime, viewerParts } from '@client/lib/dates';
 
-const clock = new Intl.DateTimeFormat('en-US', { hour: 'numeric', minute: '2-digit' });
-const weekday = new Intl.DateTimeFormat('en-US', { weekday: 'short', hour: 'numeric', minute: '2-digit' });
-const day = new Intl.DateTimeFormat('en-US', { month: 'short', day: 'numeric' });
-const dayYear = new Intl.DateTimeFormat('en-US', { month: 'short', day: 'numeric', year: 'numeric' });
-const full = new Intl.DateTimeFormat('en-US', { dateStyle: 'medium', timeStyle: 'short' });
-
-/** "3:07 PM" today, "Tue 3:07 PM" this week, "Jul 3" this year, else "Jul 3, 2025". */
+/** "14:07 EST" today, "Tue 14:07" this week, "3 Jul" this year, else "3 Jul 2025"; the whole moment is in fullTime. */
 export function messageTime(iso: string, now = new Date()): string {
-  const at = new Date(iso);
-  const age = now.getTime() - at.getTime();
-  if (at.toDateString() === now.toDateString()) return clock.format(at);
-  if (age < 6 * 24 * 3600_000) return weekday.format(at);
-  if (at.getFullYear() === now.getFullYear()) return day.format(at);
-  return dayYear.format(at);
+  const at = viewerParts(iso);
+  const today = viewerParts(now);
+  if (!at || !today) return iso;
+  const age = now.getTime() - new Date(iso).getTime();
+  if (at.day === today.day && at.month === today.month && at.year === today.year) return formatTime(iso);
+  if (age < 6 * 24 * 3600_000) return `${at.weekday} ${at.hour}:${at.minute}`;
+  if (at.year === today.year) return `${at.day} ${at.month}`;
+  return formatDate(iso);
 }
 
-/** The whole date and time, for a tooltip and for <time dateTime>. */
-export const fullTime = (iso: string) => full.format(new Date(iso));
+/** The whole date, time and zone, for a tooltip and for <time dateTime>. */
+export { formatDateTime as fullTime } from '@client/lib/dates';
 
 /** Shown beside the composer once a message nears the limit. */
 export const COUNTER_FROM = MAX_MESSAGE_LENGTH - 400;

@@ -36,7 +36,5 @@ export function shippingWords(milestone: Pick<Milestone, 'kind' | 'carrier' | 't
   return `${start}${by}${tracking}`;
 }
 
-const when = new Intl.DateTimeFormat('en-US', { dateStyle: 'medium', timeStyle: 'short' });
-
-/** "Mar 4, 2026, 2:15 PM" in the reader's own time zone. */
-export const formatWhen = (iso: string) => when.format(new Date(iso));
+/** "4 Mar 2026, 14:15 EST" in the reader's own time zone, named. */
+export { formatDateTime as formatWhen } from '@client/lib/dates';

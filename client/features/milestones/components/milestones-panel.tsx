@@ -18,7 +18,11 @@ export function MilestonesPanel({ job, canLog }: { job: JobDetail; canLog: boole
     <Card className="flex flex-col gap-4">
       <h2 className="text-xl font-bold tracking-tight">Progress</h2>
       {milestones.isPending && <p className="text-ink-soft">Loading the timeline …</p>}
-      {milestones.isError && <Notice tone="error">The timeline could not be loaded: {milestones.error.message}</Notice>}
+      {milestones.isError && (
+        <Notice tone="error" onRetry={() => void milestones.refetch()}>
+          The timeline could not be loaded: {milestones.error.message}
+        </Notice>
+      )}
       {milestones.data && <MilestoneTimeline milestones={milestones.data} />}
       {canLog && LOGGING_STATES.has(job.status) && <LogProgressForm job={job} />}
     </Card>

@@ -95,7 +95,11 @@ export function ShippingPanel({ job, viewer }: { job: JobDetail; viewer: 'builde
     <Card className="flex flex-col gap-5">
       <h2 className="text-xl font-bold tracking-tight">Shipping</h2>
       {shipping.isPending && <p className="text-ink-soft">Loading the shipping details …</p>}
-      {shipping.isError && <Notice tone="error">The shipping details could not be loaded: {shipping.error.message}</Notice>}
+      {shipping.isError && (
+        <Notice tone="error" onRetry={() => void shipping.refetch()}>
+          The shipping details could not be loaded: {shipping.error.message}
+        </Notice>
+      )}
       {shipping.data && (
         <>
           <ShopAddress shipping={shipping.data} viewer={viewer} />

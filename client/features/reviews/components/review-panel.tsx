@@ -10,6 +10,7 @@ import { Card } from '@client/components/ui/card';
 import { Notice } from '@client/components/ui/notice';
 import { TextAreaField } from '@client/components/ui/text-area-field';
 import { cn } from '@client/lib/cn';
+import { formatDate } from '@client/lib/dates';
 import { applyServerErrors } from '@client/lib/form-errors';
 import { useJobReviews, useSubmitReview } from '../api/reviews';
 
@@ -20,7 +21,6 @@ export type ReviewViewer = Side | 'admin';
 const REVIEW_STATES = new Set<JobDetail['status']>(['completed', 'resolved']);
 const STARS = [1, 2, 3, 4, 5] as const;
 
-const day = new Intl.DateTimeFormat('en-US', { dateStyle: 'medium' });
 const starLabel = (n: number) => `${n} ${n === 1 ? 'star' : 'stars'}`;
 
 /** "4 of 5" in words, with five stars beside it for the eye (the words are what a screen reader reads). */
@@ -44,7 +44,7 @@ function ReviewItem({ review, viewer }: { review: Review; viewer: ReviewViewer }
       <div className="flex flex-wrap items-baseline justify-between gap-2">
         <StarRating rating={review.rating} />
         <time dateTime={review.createdAt} className="text-sm text-ink-soft">
-          {day.format(new Date(review.createdAt))}
+          {formatDate(review.createdAt)}
         </time>
       </div>
       <p className="text-sm text-ink-soft">
