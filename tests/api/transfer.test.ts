@@ -116,6 +116,27 @@ describe('addresses without a page', () => {
     }
   });
 
+  it('when the app runs on the dev server, then an address without a page gets 404 there too', async () => {
+    const devPool = createPool(ctx.config.databaseUrl, 1);
+    const dev = createApp({
+      config: ctx.config,
+      db: createDb(devPool),
+      pool: devPool,
+      logger: createLogger(ctx.config),
+      // Stands in for Vite's middleware, which passes on every address that is not one of its files.
+      client: { kind: 'middleware', handler: (_req, _res, next) => next(), indexHtml: async () => '<!doctype html><div id="root"></div>' },
+    });
+    try {
+      expect((await supertest(dev).get('/board')).status).toBe(200);
+      const missing = await supertest(dev).get('/no-such-page');
+      expect(missing.status).toBe(404);
+      expect(missing.text).toContain('<div id="root">');
+    } finally {
+      dev.sessionStore.close();
+      await devPool.end();
+    }
+  });
+
   it('when an /api/ address has no route, then 404 is JSON as before, and a missing hashed file is 404 too', async () => {
     const api = await get('/api/no-such-route');
     expect(api.status).toBe(404);
