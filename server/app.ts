@@ -24,6 +24,8 @@ import { ROUGHNESS_BODY_LIMIT } from './modules/calculations/calculations.routes
 import { openApiDocument } from './openapi';
 import { routeModules } from './api-routes';
 import { mountRoutes, type RouteDef } from './lib/http/routes';
+import { compressAnswers, setBuiltFileCaching } from './lib/http/transfer';
+import { isPagePath } from '../shared/page-paths';
 
 export const SESSION_COOKIE = 'tm.sid';
 
@@ -61,6 +63,8 @@ export function createApp(deps: AppDeps) {
       autoLogging: { ignore: (req) => req.url === '/api/health' },
     }),
   );
+
+  app.use(compressAnswers());
 
   const devClient = deps.client?.kind === 'middleware';
   app.use(
@@ -166,13 +170,14 @@ export function createApp(deps: AppDeps) {
     const dir = deps.client.dir;
     const indexFile = join(dir, 'index.html');
     if (!existsSync(indexFile)) throw new Error(`The browser app is not built (no ${indexFile}). Run: npm run build`);
-    app.use(express.static(dir, { index: false, maxAge: '1h' }));
-    app.get('/{*splat}', (_req, res) => res.sendFile(indexFile, { headers: { 'Cache-Control': 'no-cache' } }));
+    app.use(express.static(dir, { index: false, cacheControl: false, setHeaders: (res, path) => setBuiltFileCaching(res, path, dir) }));
+    // The app's HTML for every address; a status of 404 where the app has no page (it shows its not-found page).
+    app.get('/{*splat}', (req, res) => res.status(pageStatus(req.path)).sendFile(indexFile, { headers: { 'Cache-Control': 'no-cache' } }));
   } else if (deps.client?.kind === 'middleware') {
     const { handler, indexHtml } = deps.client;
     app.use(handler);
     app.get('/{*splat}', async (req, res) => {
-      res.type('html').send(await indexHtml(req.originalUrl));
+      res.status(pageStatus(req.path)).type('html').send(await indexHtml(req.originalUrl));
     });
   }
 
@@ -181,3 +186,5 @@ export function createApp(deps: AppDeps) {
 }
 
 export type App = ReturnType<typeof createApp>;
+
+const pageStatus = (path: string) => (isPagePath(path) ? 200 : 404);

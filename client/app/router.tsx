@@ -8,6 +8,10 @@ import { RouteError } from './routes/route-error';
  * layout, the guards and the error page stay in the entry (the error page must
  * render even when a page's chunk fails to load). `npm run bench:client`
  * reads the `import('./routes/…')` calls below to size each page's first load.
+ *
+ * Every path here is also listed in shared/page-paths.ts, which the server reads
+ * to answer 404 for addresses without a page (tests/unit/page-paths.test.ts fails
+ * until the two agree): add a page in both places.
  */
 export const router = createBrowserRouter([
   {

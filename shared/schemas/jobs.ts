@@ -199,6 +199,8 @@ export type JobInput = z.infer<typeof jobInputSchema>;
 export type JobFormValues = z.input<typeof jobInputSchema>;
 
 export const boardSorts = ['newest', 'needed-soonest', 'fewest-bids'] as const;
+/** The board counts matching jobs exactly up to this many; past it, it says "1,000+". */
+export const BOARD_COUNT_CAP = 1000;
 
 export const boardQuerySchema = z.object({
   operation: operationCodeSchema.optional(),
@@ -211,6 +213,8 @@ export const boardQuerySchema = z.object({
   sort: z.enum(boardSorts, { error: 'Sort by newest, needed-soonest or fewest-bids.' }).default('newest'),
   page: queryInt('Page', 1, 10_000).default(1),
   pageSize: queryInt('Page size', 1, 100).default(20),
+  /** Where the next page starts: the `nextCursor` of the page before (opaque). With it, `page` only names the page. */
+  cursor: z.string().regex(/^[\w-]{1,400}$/, 'That page link is not valid; start again from the first page.').optional(),
 });
 export type BoardQuery = z.infer<typeof boardQuerySchema>;
 
@@ -293,7 +297,11 @@ export type JobDetail = z.infer<typeof jobDetailSchema>;
 /** One page of the job board. */
 export const boardPageSchema = z.object({
   jobs: z.array(jobSummarySchema),
+  /** How many jobs match, counted up to BOARD_COUNT_CAP; past it, the cap with `totalIsCapped` (shown as "1,000+"). */
   total: z.number().int(),
+  totalIsCapped: z.boolean(),
+  /** Pass as `cursor` for the page after this one, in the same order; null on the last page. */
+  nextCursor: z.string().nullable(),
   page: z.number().int(),
   pageSize: z.number().int(),
   sort: z.enum(boardSorts),

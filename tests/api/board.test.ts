@@ -5,7 +5,8 @@ import { createApp } from '../../server/app';
 import { createDb, createPool } from '../../server/db/client';
 import { createLogger } from '../../server/lib/logger';
 import { boardRowsQuery } from '../../server/modules/jobs/jobs.repository';
-import { boardQuerySchema } from '../../shared/schemas/jobs';
+import { encodeBoardCursor } from '../../server/modules/jobs/board-cursor';
+import { BOARD_COUNT_CAP, boardQuerySchema, boardSorts } from '../../shared/schemas/jobs';
 import { jobs } from '../../server/db/schema';
 import { createJob, createShop, createUser, inDays } from '../factories';
 import { agentFor, setupTestApp, signedIn, type TestContext } from '../setup/test-env';
@@ -41,7 +42,7 @@ afterAll(async () => {
 const board = async (query: string) => {
   const res = await shopClient.get(`/api/jobs?country=${encodeURIComponent(country)}&${query}`);
   expect(res.status).toBe(200);
-  return res.body as { jobs: Array<{ id: string; title: string }>; total: number };
+  return res.body as { jobs: Array<{ id: string; title: string }>; total: number; totalIsCapped: boolean; nextCursor: string | null };
 };
 const names = (body: { jobs: Array<{ id: string }> }) => body.jobs.map((j) => Object.keys(ids).find((k) => ids[k] === j.id));
 
@@ -91,7 +92,16 @@ describe('job board', () => {
              'ship', 'Fillerland', 'Region ' || (g % 40), 'Town', current_date + (g % 90), '{}'::jsonb, now() - g * interval '1 minute'
       FROM generate_series(1, 20000) AS g`);
     await ctx.db.execute(sql`ANALYZE jobs`);
-    for (const raw of [{ operation: 'line-hone' }, { material: 'aluminium', cylinders: '6', region: 'Region 7' }, { sort: 'needed-soonest' }, {}]) {
+    // A place deep in the board (job 10,000 of 20,000) for each order's cursor.
+    const { rows: [deep] } = await ctx.pool.query<{ published_at: string; id: string; needed_by: string; bid_count: number }>(
+      `SELECT published_at::text, id, needed_by::text, bid_count FROM jobs WHERE country = 'Fillerland' ORDER BY published_at DESC, id DESC OFFSET 10000 LIMIT 1`,
+    );
+    const cursors = [
+      { cursor: encodeBoardCursor({ sort: 'newest', publishedAt: deep.published_at, id: deep.id }) },
+      { sort: 'needed-soonest', cursor: encodeBoardCursor({ sort: 'needed-soonest', neededBy: deep.needed_by, id: deep.id }) },
+      { sort: 'fewest-bids', cursor: encodeBoardCursor({ sort: 'fewest-bids', bidCount: deep.bid_count, publishedAt: deep.published_at, id: deep.id }) },
+    ];
+    for (const raw of [{ operation: 'line-hone' }, { material: 'aluminium', cylinders: '6', region: 'Region 7' }, { sort: 'needed-soonest' }, {}, ...cursors]) {
       const query = boardRowsQuery(ctx.db, boardQuerySchema.parse(raw)).toSQL();
       const plan = await ctx.pool.query(`EXPLAIN ${query.sql}`, query.params as unknown[]);
       const text = plan.rows.map((r: { 'QUERY PLAN': string }) => r['QUERY PLAN']).join('\n');
@@ -130,6 +140,76 @@ describe('job board', () => {
       app.sessionStore.close();
       await pool.end();
     }
+  });
+
+  it.each(boardSorts)('when the board is walked by cursor in "%s" order while jobs are added, then every job comes exactly once', async (sort) => {
+    const place = `Cursorland ${sort}`;
+    // 30 open jobs with many ties in every sort key: three per publication time (the same bid count within each three), four needed-by days.
+    const add = (count: number, publishedAt: string) =>
+      ctx.db.execute(sql`
+        INSERT INTO jobs (builder_id, status, title, engine_family, cylinders, block_material, operations, logistics, country, region, city, needed_by, spec, published_at, bid_count)
+        SELECT (SELECT id FROM users LIMIT 1), 'open', 'Cursor ' || g, 'Cursor engine', 4, 'cast-iron', ARRAY['bore'], 'ship', ${place}, 'Region', 'Town',
+               current_date + (g % 4), '{}'::jsonb, ${sql.raw(publishedAt)}, (g / 6) % 3
+        FROM generate_series(1, ${count}) AS g`);
+    await add(30, `date_trunc('minute', now()) - (g / 3) * interval '1 minute'`);
+    const { rows } = await ctx.pool.query<{ id: string }>('SELECT id FROM jobs WHERE country = $1', [place]);
+    const before = new Set(rows.map((r) => r.id));
+
+    const seen: string[] = [];
+    let cursor: string | null = null;
+    for (let fetches = 0; fetches < 20; fetches += 1) {
+      const query = `sort=${sort}&pageSize=4${cursor ? `&cursor=${cursor}` : ''}`;
+      const res = await shopClient.get(`/api/jobs?country=${encodeURIComponent(place)}&${query}`);
+      expect(res.status, query).toBe(200);
+      expect(res.body.jobs.length).toBeLessThanOrEqual(4);
+      seen.push(...res.body.jobs.map((j: { id: string }) => j.id));
+      cursor = res.body.nextCursor;
+      if (!cursor) break;
+      // Between two fetches, two more jobs are published (both at the same moment).
+      await add(2, 'now()');
+    }
+    expect(cursor).toBeNull();
+    expect(new Set(seen).size, 'a job came twice').toBe(seen.length);
+    expect(seen.filter((id) => before.has(id)).sort()).toEqual([...before].sort());
+    await ctx.db.delete(jobs).where(sql`${jobs.country} = ${place}`);
+  });
+
+  it('when a cursor is made up or belongs to another order, then 400 names the cursor', async () => {
+    const first = await board('pageSize=1');
+    expect(first.nextCursor).toEqual(expect.any(String));
+    for (const query of [`sort=needed-soonest&cursor=${first.nextCursor}`, 'cursor=bm90LWpzb24', `cursor=${Buffer.from('{"sort":"newest","publishedAt":"x","id":"1"}').toString('base64url')}`]) {
+      const res = await shopClient.get(`/api/jobs?${query}`);
+      expect(res.status, query).toBe(400);
+      expect(Object.keys(res.body.error.fields), query).toEqual(['cursor']);
+    }
+  });
+
+  it('when the last page is reached, by page number or cursor, then there is no next cursor', async () => {
+    expect((await board('pageSize=3')).nextCursor).toBeNull();
+    const first = await board('pageSize=2');
+    const second = await board(`pageSize=2&cursor=${first.nextCursor}`);
+    expect(names(second)).toEqual(['iron-v8-ship']);
+    expect(second.nextCursor).toBeNull();
+  });
+
+  it('when more jobs match than the count goes to, then the total stops at the cap and says so', async () => {
+    const place = 'Capland';
+    const add = (count: number) =>
+      ctx.db.execute(sql`
+        INSERT INTO jobs (builder_id, status, title, engine_family, cylinders, block_material, operations, logistics, country, region, city, needed_by, spec, published_at)
+        SELECT (SELECT id FROM users LIMIT 1), 'open', 'Cap ' || g, 'Cap engine', 4, 'cast-iron', ARRAY['bore'], 'ship', ${place}, 'Region', 'Town', current_date + 30, '{}'::jsonb, now()
+        FROM generate_series(1, ${count}) AS g`);
+    const count = async () => {
+      const res = await shopClient.get(`/api/jobs?country=${place}&pageSize=1`);
+      expect(res.status).toBe(200);
+      return { total: res.body.total, totalIsCapped: res.body.totalIsCapped };
+    };
+    await add(BOARD_COUNT_CAP);
+    expect(await count()).toEqual({ total: BOARD_COUNT_CAP, totalIsCapped: false });
+    await add(1);
+    expect(await count()).toEqual({ total: BOARD_COUNT_CAP, totalIsCapped: true });
+    expect((await board('')).totalIsCapped).toBe(false);
+    await ctx.db.delete(jobs).where(sql`${jobs.country} = ${place}`);
   });
 
   it('when a builder asks for the board, then 403; drafts never appear', async () => {

@@ -208,7 +208,8 @@ export function BoardRoute() {
         <>
           <div className="mb-3 flex flex-wrap items-end justify-between gap-3">
             <p className="text-lg font-bold" aria-live="polite" data-testid="board-total">
-              {board.data.total === 1 ? '1 job' : `${board.data.total} jobs`}
+              {/* Past the count's cap the server says only that there are more: "1,000+ jobs". */}
+              {board.data.totalIsCapped ? `${board.data.total.toLocaleString('en-US')}+ jobs` : board.data.total === 1 ? '1 job' : `${board.data.total} jobs`}
               <span className="font-normal text-ink-soft">
                 {filtered ? (board.data.total === 1 ? ' matches these filters' : ' match these filters') : ' open'}
               </span>

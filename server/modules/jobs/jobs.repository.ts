@@ -1,7 +1,8 @@
 import { and, arrayContains, asc, desc, eq, lte, sql, type SQL } from 'drizzle-orm';
-import type { BoardQuery, JobInput, JobSummary } from '../../../shared/schemas/jobs';
+import { BOARD_COUNT_CAP, type BoardPage, type BoardQuery, type JobInput, type JobSummary } from '../../../shared/schemas/jobs';
 import type { Executor } from '../../db/client';
 import { jobPhotos, jobs } from '../../db/schema';
+import { decodeBoardCursor, encodeBoardCursor, type BoardCursor } from './board-cursor';
 
 export type JobRow = typeof jobs.$inferSelect;
 
@@ -98,30 +99,85 @@ export function boardWhere(query: BoardQuery): SQL {
   return and(...filters)!;
 }
 
+// Each order ends with the id, so no two jobs tie and a cursor names one place exactly.
 const boardOrder = {
   newest: [desc(jobs.publishedAt), desc(jobs.id)],
   'needed-soonest': [asc(jobs.neededBy), asc(jobs.id)],
   'fewest-bids': [asc(jobs.bidCount), desc(jobs.publishedAt), desc(jobs.id)],
 } as const;
 
-/** The board's page query (exposed so a test can EXPLAIN exactly what runs). */
+/** After (publishedAt, id) in the order "published_at DESC, id DESC", where PostgreSQL puts a missing date first. */
+const afterPublished = (publishedAt: string | null, id: string) =>
+  publishedAt === null
+    ? sql`(${jobs.publishedAt} IS NOT NULL OR ${jobs.id} < ${id}::uuid)`
+    : sql`(${jobs.publishedAt}, ${jobs.id}) < (${publishedAt}::timestamptz, ${id}::uuid)`;
+
+/** The jobs that come after the cursor in its order (written as row comparisons so an index can start there). */
+function afterCursor(cursor: BoardCursor): SQL {
+  switch (cursor.sort) {
+    case 'newest':
+      return afterPublished(cursor.publishedAt, cursor.id);
+    case 'needed-soonest':
+      return sql`(${jobs.neededBy}, ${jobs.id}) > (${cursor.neededBy}::date, ${cursor.id}::uuid)`;
+    case 'fewest-bids':
+      return sql`${jobs.bidCount} >= ${cursor.bidCount} AND (${jobs.bidCount} > ${cursor.bidCount} OR ${afterPublished(cursor.publishedAt, cursor.id)})`;
+  }
+}
+
+const boardColumns = {
+  ...summaryColumns,
+  // The exact timestamp for the cursor: a JavaScript Date would drop its microseconds.
+  publishedKey: sql<string | null>`${jobs.publishedAt}::text`,
+};
+type BoardRow = { [K in keyof typeof boardColumns]: unknown } & { firstPhotoId: string | null; publishedKey: string | null };
+
+function cursorAfter(row: BoardRow, sort: BoardQuery['sort']): string {
+  const id = row.id as string;
+  switch (sort) {
+    case 'newest':
+      return encodeBoardCursor({ sort, publishedAt: row.publishedKey, id });
+    case 'needed-soonest':
+      return encodeBoardCursor({ sort, neededBy: row.neededBy as string, id });
+    case 'fewest-bids':
+      return encodeBoardCursor({ sort, bidCount: row.bidCount as number, publishedAt: row.publishedKey, id });
+  }
+}
+
+/**
+ * The board's page query (exposed so a test can EXPLAIN exactly what runs): from the cursor
+ * when there is one, else by page number; one row more than the page, to tell whether another follows.
+ */
 export function boardRowsQuery(db: Executor, query: BoardQuery) {
-  return db
-    .select(summaryColumns)
+  const cursor = decodeBoardCursor(query);
+  const rows = db
+    .select(boardColumns)
     .from(jobs)
-    .where(boardWhere(query))
+    .where(cursor ? and(boardWhere(query), afterCursor(cursor)) : boardWhere(query))
     .orderBy(...boardOrder[query.sort])
-    .limit(query.pageSize)
-    .offset((query.page - 1) * query.pageSize);
+    .limit(query.pageSize + 1);
+  return cursor ? rows : rows.offset((query.page - 1) * query.pageSize);
+}
+
+/** How many jobs match, counted no further than one past the cap: a large board costs no more to count than a page. */
+function boardCount(db: Executor, query: BoardQuery) {
+  const matching = db.select({ one: sql`1` }).from(jobs).where(boardWhere(query)).limit(BOARD_COUNT_CAP + 1).as('matching');
+  return db.select({ total: sql<number>`count(*)::int` }).from(matching);
 }
 
 /** One page of the board and the total: two statements whatever the page size. */
-export async function boardPage(db: Executor, query: BoardQuery) {
-  const [rows, [{ total }]] = await Promise.all([
-    boardRowsQuery(db, query),
-    db.select({ total: sql<number>`count(*)::int` }).from(jobs).where(boardWhere(query)),
-  ]);
-  return { jobs: rows.map(toSummary), total, page: query.page, pageSize: query.pageSize, sort: query.sort };
+export async function boardPage(db: Executor, query: BoardQuery): Promise<BoardPage> {
+  const [rows, [{ total }]] = await Promise.all([boardRowsQuery(db, query), boardCount(db, query)]);
+  const page = rows.slice(0, query.pageSize);
+  const more = rows.length > query.pageSize;
+  return {
+    jobs: page.map(toSummary),
+    total: Math.min(total, BOARD_COUNT_CAP),
+    totalIsCapped: total > BOARD_COUNT_CAP,
+    nextCursor: more ? cursorAfter(page[page.length - 1], query.sort) : null,
+    page: query.page,
+    pageSize: query.pageSize,
+    sort: query.sort,
+  };
 }
 
 export async function jobsOfBuilder(db: Executor, builderId: string, status?: JobRow['status']) {
