@@ -163,7 +163,7 @@ export function JobDetailRoute() {
       {ownerTalks && <ConversationPanel side="builder" jobId={job.id} jobStatus={job.status} bidders={bidders} />}
       {isShop && (
         // The spec beside the bid that prices it (stacked on a phone, the spec first).
-        <div className="grid grid-cols-1 items-start gap-6 lg:grid-cols-2">
+        <div className="grid grid-cols-1 items-start gap-6 lg:grid-cols-[minmax(0,2fr)_minmax(0,3fr)]">
           <div className="flex min-w-0 flex-col gap-6">{specSections}</div>
           <div className="min-w-0 lg:sticky lg:top-4">
             <ShopBidPanel job={job} />
