@@ -40,6 +40,7 @@ export const navigationByRole: Record<Me['role'] | 'anonymous', NavItem[]> = {
   ],
   shop: [
     { to: '/dashboard', label: 'Shop floor' },
+    { to: '/queue', label: 'Work queue' },
     { to: '/board', label: 'Job board' },
     { to: '/bids', label: 'My bids' },
     { to: '/messages', label: 'Messages' },

@@ -84,6 +84,7 @@ export const router = createBrowserRouter([
             children: [
               { path: '/board', lazy: () => import('./routes/board').then((m) => ({ Component: m.BoardRoute })) },
               { path: '/bids', lazy: () => import('./routes/my-bids').then((m) => ({ Component: m.MyBidsRoute })) },
+              { path: '/queue', lazy: () => import('./routes/work-queue').then((m) => ({ Component: m.WorkQueueRoute })) },
               { path: '/shop/profile', lazy: () => import('./routes/shop-profile').then((m) => ({ Component: m.ShopProfileRoute })) },
               { path: '/jobs/:jobId/inspection/new', lazy: () => import('./routes/inspection-entry').then((m) => ({ Component: m.InspectionEntryRoute })) },
             ],

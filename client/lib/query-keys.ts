@@ -26,6 +26,8 @@ export const bidKeys = {
   mine: () => [...bidKeys.all, 'mine'] as const,
   detail: (id: string) => [...bidKeys.all, 'detail', id] as const,
   feeRate: () => [...bidKeys.all, 'fee-rate'] as const,
+  /** The shop's won jobs not finished yet. */
+  queue: () => [...bidKeys.all, 'queue'] as const,
 };
 
 export const shopKeys = {
@@ -126,6 +128,7 @@ export function jobChangeKeys(jobId: string): QueryKey[] {
     jobKeys.mineAll(),
     bidKeys.forJob(jobId),
     bidKeys.mine(),
+    bidKeys.queue(),
     threadKeys.forJob(jobId),
     paymentKeys.all(jobId),
     milestoneKeys.forJob(jobId),

@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { centsSchema, isoDateSchema, operationCodeSchema, uuidSchema } from './common';
 import { publicShopSchema } from './shops';
+import { jobStatuses } from './jobs';
 
 export const bidStatuses = ['active', 'withdrawn', 'accepted', 'declined'] as const;
 export type BidStatus = (typeof bidStatuses)[number];
@@ -92,6 +93,36 @@ export const bidListAnswerSchema = z.object({ bids: z.array(bidSchema) });
 export const shopBidListAnswerSchema = z.object({ bids: z.array(shopBidSchema) });
 export type BidListAnswer = z.infer<typeof bidListAnswerSchema>;
 export type ShopBidListAnswer = z.infer<typeof shopBidListAnswerSchema>;
+
+/**
+ * Where a won job stands in its shop's work queue: waiting for the builder's
+ * payment, paid and waiting for the parts, in the shop, the builder asked for
+ * changes to the record, the record waiting for the builder, the parts
+ * shipped back or ready to be picked up.
+ */
+export const queueStages = ['payment_due', 'waiting_for_parts', 'in_shop', 'changes_asked', 'record_submitted', 'shipped_back', 'ready_for_pickup'] as const;
+export type QueueStage = (typeof queueStages)[number];
+
+/**
+ * A job the shop won and has not finished, with the day it is due (as in My
+ * bids: the parts' arrival, or the award before they arrive, plus the
+ * turnaround) and the whole days from today (UTC) to it, negative once overdue.
+ */
+export const queueJobSchema = z.object({
+  jobId: z.uuid(),
+  title: z.string(),
+  status: z.enum(jobStatuses),
+  stage: z.enum(queueStages),
+  dueOn: z.iso.date(),
+  daysLeft: z.number().int(),
+  turnaroundDays: z.number().int(),
+  builderName: z.string(),
+});
+export type QueueJob = z.infer<typeof queueJobSchema>;
+
+/** The signed-in shop's work queue, soonest due first. */
+export const workQueueAnswerSchema = z.object({ jobs: z.array(queueJobSchema) });
+export type WorkQueueAnswer = z.infer<typeof workQueueAnswerSchema>;
 
 /** The platform's fee rate now, in basis points: what a bid accepted today pays (a shop sees it while pricing). */
 export const feeRateSchema = z.object({ feeBps: z.number().int() });

@@ -466,6 +466,7 @@ const matrix: Record<string, Row> = {
   'POST /api/jobs/:jobId/bids': { state: async () => ({ jobId: await w.job() }), body: () => bidInput(), expect: [401, 403, 403, 201, 201, 403] },
   'GET /api/bids/mine': { expect: [401, 403, 403, 200, 200, 403] },
   'GET /api/bids/fee-rate': { expect: [401, 403, 403, 200, 200, 403] },
+  'GET /api/shop/queue': { expect: [401, 403, 403, 200, 200, 403] },
   'GET /api/bids/:bidId': {
     once: true,
     state: async () => {

@@ -203,7 +203,7 @@ describe('accessibility (WCAG 2.1 A and AA) of every main page, in a real browse
     await shop('POST', `/api/jobs/${job.id}/milestones`, { kind: 'block_received', note: 'On the bench.' });
 
     const page = await suite.pageFor(shopEmail, '/dashboard');
-    const problems = await audit(page, ['/dashboard', '/board', '/bids', '/shop/profile', `/jobs/${job.id}`, `/jobs/${job.id}/inspection/new`]);
+    const problems = await audit(page, ['/dashboard', '/board', '/bids', '/queue', '/shop/profile', `/jobs/${job.id}`, `/jobs/${job.id}/inspection/new`]);
     expect(problems, report(problems)).toEqual([]);
   }, AUDIT_TIMEOUT_MS);
 

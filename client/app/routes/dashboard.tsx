@@ -3,6 +3,8 @@ import type { Me } from '@shared/schemas/auth';
 import { Card, PageTitle } from '@client/components/ui/card';
 import { AdminOverview } from '@client/features/admin';
 import { ConfirmEmailNotice, useMe } from '@client/features/auth';
+import { WorkQueueList } from '@client/features/bids';
+import { JobStatusBadge } from '@client/features/jobs';
 import { NeedsYouList } from '@client/features/notifications';
 
 const roleWords: Record<Me['role'], { title: string; lead: string }> = {
@@ -36,6 +38,19 @@ export function DashboardRoute() {
       <PageTitle title={words.title} lead={words.lead} />
       {!me.emailVerified && <ConfirmEmailNotice title="Please confirm your e-mail address" reason={confirmReasons[me.role]} className="mb-6" />}
       <NeedsYouList />
+      {me.role === 'shop' && (
+        <Card className="mb-6" aria-labelledby="next-due-heading">
+          <div className="flex flex-wrap items-baseline justify-between gap-2">
+            <h2 className="text-xl font-bold" id="next-due-heading">
+              Next due in your shop
+            </h2>
+            <Link to="/queue" className="font-semibold text-slate-700 underline underline-offset-4">
+              See the whole work queue
+            </Link>
+          </div>
+          <WorkQueueList limit={3} StatusBadge={JobStatusBadge} headingId="next-due-heading" />
+        </Card>
+      )}
       {me.role === 'builder' && (
         <Card className="mb-6 flex flex-wrap items-center gap-4">
           <p className="flex-1 text-ink-soft">Have a block that needs machining? Describe it once; shops bid with a price and a turnaround.</p>

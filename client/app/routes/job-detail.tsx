@@ -6,13 +6,13 @@ import { Card } from '@client/components/ui/card';
 import { Notice } from '@client/components/ui/notice';
 import { useMe } from '@client/features/auth';
 import { bidQueries, BidComparison, ShopBidPanel } from '@client/features/bids';
-import { useJob, JobFiguresPanel, JobOwnerActions, JobLogistics, JobOperations, JobSpec, JobStatusBadge, plural, statusWords, PhotoGallery, PhotoUploader } from '@client/features/jobs';
+import { useJob, JobFiguresPanel, JobOwnerActions, JobLogistics, JobOperations, JobSpec, JobStatusBadge, otherShopExplain, plural, statusWords, workingShopExplain, PhotoGallery, PhotoUploader } from '@client/features/jobs';
 import { ConversationPanel, type Bidder } from '@client/features/messages';
 import { ApiError } from '@client/lib/api-client';
 import { cn } from '@client/lib/cn';
 import { formatDay } from '@client/lib/dates';
 import { useWatchJob } from '@client/lib/realtime';
-import { JobMoneyPanel } from '@client/features/payments';
+import { JobMoneyPanel, ShopExtraWork } from '@client/features/payments';
 import { InspectionReview } from '@client/features/inspections';
 import { MilestonesPanel, ShippingPanel } from '@client/features/milestones';
 import { DisputePanel } from '@client/features/disputes';
@@ -55,8 +55,19 @@ function LoadFailed({ error, onRetry }: { error: Error; onRetry: () => void }) {
   );
 }
 
-function Header({ job }: { job: JobDetail }) {
+/** Who reads the job page, as far as the status sentence goes: the working shop, a shop that lost the award, anyone else (null while unknown). */
+type Reader = 'working shop' | 'other shop' | 'other' | null;
+
+function statusSentence(job: JobDetail, reader: Reader): string | null {
+  if (reader === null) return null;
+  if (reader === 'working shop') return workingShopExplain[job.status];
+  if (reader === 'other shop' && job.awardedBidId) return job.status === 'cancelled' ? statusWords.cancelled.explain : otherShopExplain;
+  return statusWords[job.status].explain;
+}
+
+function Header({ job, reader }: { job: JobDetail; reader: Reader }) {
   const isOwner = job.viewer.isOwner;
+  const sentence = statusSentence(job, reader);
   return (
     <header className="flex flex-col gap-3">
       {isOwner && (
@@ -67,7 +78,11 @@ function Header({ job }: { job: JobDetail }) {
       <h1 className="text-3xl font-extrabold tracking-tight text-ink">{job.title}</h1>
       <div className="flex flex-wrap items-center gap-x-4 gap-y-2">
         <JobStatusBadge status={job.status} />
-        <span className="text-ink-soft">{statusWords[job.status].explain}</span>
+        {sentence && (
+          <span className="text-ink-soft" data-testid="job-status-sentence">
+            {sentence}
+          </span>
+        )}
       </div>
       <p className="text-ink-soft">
         {job.engineFamily} · {job.cylinders} cylinders · needed by {formatDay(job.neededBy)}
@@ -104,14 +119,33 @@ export function JobDetailRoute() {
   const isAwardedShop = me?.role === 'shop' && Boolean(awardedBid);
   // The work itself (progress, the inspection record) is for the builder, the shop doing it and administrators.
   const workViewer = isOwner ? 'builder' : isAwardedShop ? 'shop' : me?.role === 'admin' ? 'admin' : null;
+  // A shop learns whether it does the work once its own bids are in; until then the sentence waits rather than guess.
+  const reader: Reader = me?.role !== 'shop' || !job.awardedBidId ? 'other' : bidsQuery.isPending ? null : isAwardedShop ? 'working shop' : 'other shop';
   const bidders: Bidder[] = [...(bidsQuery.data ?? [])]
     .sort((a, b) => b.updatedAt.localeCompare(a.updatedAt))
     .filter((bid, index, all) => all.findIndex((other) => other.shop.id === bid.shop.id) === index)
     .map((bid) => ({ shopId: bid.shop.id, name: bid.shop.name, bidStatus: bid.status }));
 
+  const isShop = me?.role === 'shop';
+  const specSections = (
+    <>
+      <Section title="Work wanted">
+        <JobOperations spec={job.spec} />
+      </Section>
+      <Section title="Specification">
+        <JobSpec spec={job.spec} />
+      </Section>
+      {job.spec.notes && (
+        <Section title="Notes from the builder">
+          <p className="whitespace-pre-wrap text-ink">{job.spec.notes}</p>
+        </Section>
+      )}
+    </>
+  );
+
   return (
     <div className="flex flex-col gap-6">
-      <Header job={job} />
+      <Header job={job} reader={reader} />
       {isOwner && <JobOwnerActions job={job} />}
       <JobMoneyPanel job={job} isAwardedShop={isAwardedShop} acceptedTotalCents={awardedBid?.totalCents} />
       {workViewer && <InspectionReview job={job} viewer={workViewer} />}
@@ -119,6 +153,7 @@ export function JobDetailRoute() {
       {workViewer && (job.status === 'completed' || job.status === 'resolved') && <ReviewPanel job={job} viewer={workViewer} />}
       {workViewer && <ShippingPanel job={job} viewer={workViewer} />}
       {workViewer && <MilestonesPanel job={job} canLog={workViewer === 'shop'} />}
+      {workViewer === 'shop' && <ShopExtraWork job={job} />}
 
       {showBids && (
         <Section title="Bids">
@@ -126,8 +161,16 @@ export function JobDetailRoute() {
         </Section>
       )}
       {ownerTalks && <ConversationPanel side="builder" jobId={job.id} jobStatus={job.status} bidders={bidders} />}
-      {me?.role === 'shop' && <ShopBidPanel job={job} />}
-      {me?.role === 'shop' && <ConversationPanel side="shop" jobId={job.id} jobStatus={job.status} />}
+      {isShop && (
+        // The spec beside the bid that prices it (stacked on a phone, the spec first).
+        <div className="grid grid-cols-1 items-start gap-6 lg:grid-cols-[minmax(0,2fr)_minmax(0,3fr)]">
+          <div className="flex min-w-0 flex-col gap-6">{specSections}</div>
+          <div className="min-w-0 lg:sticky lg:top-4">
+            <ShopBidPanel job={job} />
+          </div>
+        </div>
+      )}
+      {isShop && <ConversationPanel side="shop" jobId={job.id} jobStatus={job.status} />}
 
       <div className="grid grid-cols-1 items-start gap-6 lg:grid-cols-[minmax(0,1fr)_20rem]">
         <div className="flex min-w-0 flex-col gap-6">
@@ -135,17 +178,7 @@ export function JobDetailRoute() {
             <PhotoGallery jobId={job.id} jobTitle={job.title} photos={job.photos} canRemove={isOwner && photosOpen} />
             {isOwner && photosOpen && <PhotoUploader jobId={job.id} existingCount={job.photos.length} />}
           </Section>
-          <Section title="Work wanted">
-            <JobOperations spec={job.spec} />
-          </Section>
-          <Section title="Specification">
-            <JobSpec spec={job.spec} />
-          </Section>
-          {job.spec.notes && (
-            <Section title="Notes from the builder">
-              <p className="whitespace-pre-wrap text-ink">{job.spec.notes}</p>
-            </Section>
-          )}
+          {!isShop && specSections}
         </div>
         <aside className="flex flex-col gap-6" aria-label="At a glance">
           <Section title="At a glance">

@@ -235,7 +235,7 @@ export function paymentReceiptMail(input: { name: string; side: 'builder' | 'sho
     paragraphs:
       input.side === 'builder'
         ? [`We received your payment of ${money(input.amountCents)} for ${input.what} on “${input.jobTitle}”.`, 'It is held until you accept the shop’s inspection record; then it goes to the shop.']
-        : [`The builder paid ${money(input.amountCents)} for ${input.what} on “${input.jobTitle}”.`, 'The payment is held and goes to your payout account when the builder accepts your inspection record.'],
+        : [`The builder paid ${money(input.amountCents)} for ${input.what} on “${input.jobTitle}”.`, 'Tenthmark holds it while you work. When the builder accepts your inspection record (or the review window ends without an answer), it goes to your payout account, less Tenthmark’s fee.'],
     action: { label: 'Open the job', url: input.url },
   });
 }

@@ -1,8 +1,8 @@
-import { bidInputSchema, bidListAnswerSchema, bidParamsSchema, bidWithHistorySchema, declineBidSchema, feeRateSchema, shopBidListAnswerSchema } from '../../../shared/schemas/bids';
+import { bidInputSchema, bidListAnswerSchema, bidParamsSchema, bidWithHistorySchema, declineBidSchema, feeRateSchema, shopBidListAnswerSchema, workQueueAnswerSchema } from '../../../shared/schemas/bids';
 import { jobParamsSchema } from '../../../shared/schemas/jobs';
 import type { User } from '../../db/schema';
 import { routesFor } from '../../lib/http/routes';
-import { acceptBid, bidsForJob, bidsOfShop, bidWithHistory, createBid, declineBid, feeRateNow, reviseBid, withdrawBid, type BidDeps } from './bids.service';
+import { acceptBid, bidsForJob, bidsOfShop, bidWithHistory, createBid, declineBid, feeRateNow, reviseBid, withdrawBid, workQueue, type BidDeps } from './bids.service';
 
 /** The bid once a change to it is done, as the person who made the change now sees it. */
 const answerBid = async (deps: BidDeps, user: User, bidId: string, change: Promise<void>) => {
@@ -40,6 +40,14 @@ export const bidsRoutes = [
     access: 'shop',
     reply: { json: shopBidListAnswerSchema },
     handler: async ({ deps, user }) => ({ bids: await bidsOfShop(deps, user) }),
+  }),
+  route({
+    method: 'get',
+    path: '/api/shop/queue',
+    summary: 'The signed-in shop’s won jobs not finished yet, soonest due first',
+    access: 'shop',
+    reply: { json: workQueueAnswerSchema },
+    handler: async ({ deps, user }) => ({ jobs: await workQueue(deps, user) }),
   }),
   route({
     method: 'get',

@@ -1,9 +1,10 @@
 import { and, asc, desc, eq, inArray, ne, or, sql } from 'drizzle-orm';
 import { lineAmountCents } from '../../../shared/catalogue';
 import { netOf } from '../../../shared/money';
-import type { Bid, BidInput, BidLine, BidRevision, ShopBid } from '../../../shared/schemas/bids';
+import type { Bid, BidInput, BidLine, BidRevision, QueueJob, QueueStage, ShopBid } from '../../../shared/schemas/bids';
+import type { JobStatus } from '../../../shared/schemas/jobs';
 import type { Database, Executor } from '../../db/client';
-import { bidLineItems, bidRevisions, bids, jobs, milestones, shops, users, type User } from '../../db/schema';
+import { bidLineItems, bidRevisions, bids, inspectionRecords, jobs, milestones, shops, users, type User } from '../../db/schema';
 import { assertEmailConfirmed } from '../../lib/auth/guards';
 import { AppError, conflict, notFound } from '../../lib/errors';
 import { enqueueMail } from '../../lib/mail/outbox';
@@ -27,6 +28,7 @@ export interface BidDeps {
 }
 
 type BidRow = typeof bids.$inferSelect;
+type MilestoneKind = (typeof milestones.$inferSelect)['kind'];
 
 const today = () => new Date().toISOString().slice(0, 10);
 
@@ -343,34 +345,103 @@ export async function feeRateNow(deps: BidDeps): Promise<{ feeBps: number }> {
 
 const DAY_MS = 24 * 60 * 60_000;
 
+/** When each of these jobs first had a milestone of this kind logged ("parts received", "shipped"). */
+async function firstLogged(db: Executor, jobIds: string[], kind: MilestoneKind): Promise<Map<string, Date>> {
+  if (jobIds.length === 0) return new Map();
+  const rows = await db
+    .select({ jobId: milestones.jobId, at: sql<Date>`min(${milestones.createdAt})`.mapWith(milestones.createdAt) })
+    .from(milestones)
+    .where(and(inArray(milestones.jobId, jobIds), eq(milestones.kind, kind)))
+    .groupBy(milestones.jobId);
+  return new Map(rows.map((r) => [r.jobId, r.at]));
+}
+
+/**
+ * The day an accepted bid is due (YYYY-MM-DD, UTC): its turnaround counted
+ * from the parts' arrival, or from the award until they arrive (as the
+ * disputes' agreed finish date). Null for a bid not accepted.
+ */
+function dueOnOf(bid: { turnaroundDays: number; decidedAt: Date | null }, partsReceivedAt: Date | undefined): string | null {
+  const start = partsReceivedAt ?? bid.decidedAt;
+  return start ? new Date(start.getTime() + bid.turnaroundDays * DAY_MS).toISOString().slice(0, 10) : null;
+}
+
 export async function bidsOfShop(deps: BidDeps, user: User): Promise<ShopBid[]> {
   const shop = await findShopByUser(deps.db, user.id);
   if (!shop) return [];
   const rows = await deps.db.select().from(bids).where(eq(bids.shopId, shop.id)).orderBy(desc(bids.updatedAt));
   const presented = await present(deps.db, rows);
   const jobIds = rows.map((r) => r.jobId);
-  const [jobRows, received, { feeBps: rateNow }] = await Promise.all([
+  const [jobRows, receivedOn, { feeBps: rateNow }] = await Promise.all([
     jobIds.length ? deps.db.select({ id: jobs.id, title: jobs.title, status: jobs.status, feeBps: jobs.feeBps }).from(jobs).where(inArray(jobs.id, jobIds)) : [],
-    jobIds.length
-      ? deps.db
-          .select({ jobId: milestones.jobId, at: sql<Date>`min(${milestones.createdAt})`.mapWith(milestones.createdAt) })
-          .from(milestones)
-          .where(and(inArray(milestones.jobId, jobIds), eq(milestones.kind, 'block_received')))
-          .groupBy(milestones.jobId)
-      : [],
+    firstLogged(deps.db, jobIds, 'block_received'),
     feeRateNow(deps),
   ]);
   const byId = new Map(jobRows.map((t) => [t.id, t]));
-  const receivedOn = new Map(received.map((r) => [r.jobId, r.at]));
   const rowById = new Map(rows.map((r) => [r.id, r]));
   return presented.map((b) => {
     const job = byId.get(b.jobId);
     const accepted = b.status === 'accepted';
     // An accepted bid pays the rate fixed on its job; any other would pay today's.
     const feeBps = accepted ? (job?.feeBps ?? rateNow) : rateNow;
-    // Due: the turnaround counted from the parts' arrival, or from the award until they arrive (as the disputes' agreed finish date).
-    const start = receivedOn.get(b.jobId) ?? rowById.get(b.id)?.decidedAt;
-    const dueOn = accepted && start ? new Date(start.getTime() + b.turnaroundDays * DAY_MS).toISOString().slice(0, 10) : null;
+    const row = rowById.get(b.id);
+    const dueOn = accepted && row ? dueOnOf(row, receivedOn.get(b.jobId)) : null;
     return { ...b, jobTitle: job?.title ?? '', jobStatus: job?.status ?? '', feeBps, ...netOf(b.totalCents, feeBps), dueOn };
   });
+}
+
+/** A won job's statuses while the shop still has work or a handover to do. */
+const QUEUED: JobStatus[] = ['awarded', 'funded', 'in_work', 'inspection_submitted'];
+
+/** Where a queued job stands: the parts on their way back count from the moment they are logged, a record asked to change while it is being redone. */
+function stageOf(status: JobStatus, facts: { shipped: boolean; readyForPickup: boolean; changesAsked: boolean }): QueueStage {
+  if (status === 'awarded') return 'payment_due';
+  if (status === 'funded') return 'waiting_for_parts';
+  if (status === 'in_work' && facts.changesAsked) return 'changes_asked';
+  if (facts.shipped) return 'shipped_back';
+  if (facts.readyForPickup) return 'ready_for_pickup';
+  return status === 'inspection_submitted' ? 'record_submitted' : 'in_shop';
+}
+
+/** The shop's won jobs not finished yet, soonest due first, each with its stage and the whole days left (negative once overdue). */
+export async function workQueue(deps: BidDeps, user: User, now = new Date()): Promise<QueueJob[]> {
+  const shop = await findShopByUser(deps.db, user.id);
+  if (!shop) return [];
+  const rows = await deps.db
+    .select({ job: { id: jobs.id, title: jobs.title, status: jobs.status }, bid: { turnaroundDays: bids.turnaroundDays, decidedAt: bids.decidedAt }, builderName: users.displayName })
+    .from(jobs)
+    .innerJoin(bids, eq(bids.id, jobs.awardedBidId))
+    .innerJoin(users, eq(users.id, jobs.builderId))
+    .where(and(eq(bids.shopId, shop.id), inArray(jobs.status, QUEUED)));
+  const jobIds = rows.map((r) => r.job.id);
+  const [receivedOn, shippedOn, readyOn, latestRecords] = await Promise.all([
+    firstLogged(deps.db, jobIds, 'block_received'),
+    firstLogged(deps.db, jobIds, 'shipped'),
+    firstLogged(deps.db, jobIds, 'ready_for_pickup'),
+    jobIds.length
+      ? deps.db
+          .selectDistinctOn([inspectionRecords.jobId], { jobId: inspectionRecords.jobId, status: inspectionRecords.status })
+          .from(inspectionRecords)
+          .where(inArray(inspectionRecords.jobId, jobIds))
+          .orderBy(inspectionRecords.jobId, desc(inspectionRecords.version))
+      : [],
+  ]);
+  const rejected = new Set(latestRecords.filter((r) => r.status === 'rejected').map((r) => r.jobId));
+  const today = Date.parse(now.toISOString().slice(0, 10));
+  return rows
+    .map(({ job, bid, builderName }) => {
+      const dueOn = dueOnOf(bid, receivedOn.get(job.id)) ?? now.toISOString().slice(0, 10);
+      const facts = { shipped: shippedOn.has(job.id), readyForPickup: readyOn.has(job.id), changesAsked: rejected.has(job.id) };
+      return {
+        jobId: job.id,
+        title: job.title,
+        status: job.status,
+        stage: stageOf(job.status, facts),
+        dueOn,
+        daysLeft: Math.round((Date.parse(dueOn) - today) / DAY_MS),
+        turnaroundDays: bid.turnaroundDays,
+        builderName,
+      };
+    })
+    .sort((a, b) => a.dueOn.localeCompare(b.dueOn) || a.title.localeCompare(b.title));
 }

@@ -1,14 +1,16 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { BidInput, BidListAnswer, BidWithHistory, FeeRate, ShopBid, ShopBidListAnswer } from '@shared/schemas/bids';
+import type { BidInput, BidListAnswer, BidWithHistory, FeeRate, QueueJob, ShopBid, ShopBidListAnswer, WorkQueueAnswer } from '@shared/schemas/bids';
 import { api } from '@client/lib/api-client';
 import { type MutationConfig, useApiMutation } from '@client/lib/mutation';
 import { bidKeys, jobChangeKeys } from '@client/lib/query-keys';
 
-export type { BidWithHistory, ShopBid as MyBid };
+export type { BidWithHistory, ShopBid as MyBid, QueueJob };
 
 export const bidQueries = {
   forJob: (jobId: string) => queryOptions({ queryKey: bidKeys.forJob(jobId), queryFn: () => api.get<BidListAnswer>(`/api/jobs/${jobId}/bids`).then((r) => r.bids) }),
   mine: () => queryOptions({ queryKey: bidKeys.mine(), queryFn: () => api.get<ShopBidListAnswer>('/api/bids/mine').then((r) => r.bids) }),
+  /** The shop's won jobs not finished yet, soonest due first. */
+  queue: () => queryOptions({ queryKey: bidKeys.queue(), queryFn: () => api.get<WorkQueueAnswer>('/api/shop/queue').then((r) => r.jobs) }),
   detail: (id: string) => queryOptions({ queryKey: bidKeys.detail(id), queryFn: () => api.get<BidWithHistory>(`/api/bids/${id}`) }),
   /** Tenthmark's fee rate now: what a bid accepted today pays. */
   feeRate: () => queryOptions({ queryKey: bidKeys.feeRate(), queryFn: () => api.get<FeeRate>('/api/bids/fee-rate').then((r) => r.feeBps), staleTime: 5 * 60_000 }),
@@ -16,6 +18,7 @@ export const bidQueries = {
 
 export const useJobBids = (jobId: string) => useQuery(bidQueries.forJob(jobId));
 export const useMyBids = () => useQuery(bidQueries.mine());
+export const useWorkQueue = () => useQuery(bidQueries.queue());
 export const useFeeRate = () => useQuery(bidQueries.feeRate());
 export const useBid = (id: string | null | undefined) => useQuery({ ...bidQueries.detail(id ?? ''), enabled: Boolean(id) });
 

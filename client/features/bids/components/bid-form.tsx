@@ -191,7 +191,7 @@ export function BidForm({ defaultValues, submit, submitLabel, onCancel, label }:
     cn('min-h-11 w-full rounded-lg border bg-white px-3 py-2 text-base text-ink', invalid ? 'border-fail' : 'border-slate-300 focus:border-slate-600');
 
   return (
-    <form onSubmit={onSubmit} noValidate aria-label={label} className="flex flex-col gap-5">
+    <form onSubmit={onSubmit} noValidate aria-label={label} className="@container flex flex-col gap-5">
       {formError && <Notice tone="error">{formError}</Notice>}
 
       <fieldset aria-describedby={linesError ? linesErrorId : undefined} className="flex flex-col gap-3">
@@ -203,7 +203,7 @@ export function BidForm({ defaultValues, submit, submitLabel, onCancel, label }:
         )}
         <div
           aria-hidden
-          className="hidden grid-cols-[minmax(0,1fr)_5.5rem_8.5rem_7rem_5.5rem] gap-3 border-b border-slate-200 pb-1 text-sm font-semibold text-ink-soft md:grid"
+          className="hidden grid-cols-[minmax(0,1fr)_5.5rem_8.5rem_7rem_5.5rem] gap-3 border-b border-slate-200 pb-1 text-sm font-semibold text-ink-soft @2xl:grid"
         >
           <span>Description</span>
           <span>Quantity</span>
@@ -220,10 +220,10 @@ export function BidForm({ defaultValues, submit, submitLabel, onCancel, label }:
             return (
               <li
                 key={field.id}
-                className="grid grid-cols-2 gap-3 rounded-lg bg-white p-3 ring-1 ring-slate-200 md:grid-cols-[minmax(0,1fr)_5.5rem_8.5rem_7rem_5.5rem] md:items-start md:bg-transparent md:p-0 md:ring-0"
+                className="grid grid-cols-2 gap-3 rounded-lg bg-white p-3 ring-1 ring-slate-200 @2xl:grid-cols-[minmax(0,1fr)_5.5rem_8.5rem_7rem_5.5rem] @2xl:items-start @2xl:bg-transparent @2xl:p-0 @2xl:ring-0"
               >
-                <div className="col-span-2 flex flex-col gap-1 md:col-span-1">
-                  <label htmlFor={`${id}-description`} className="text-sm font-semibold md:sr-only">
+                <div className="col-span-2 flex flex-col gap-1 @2xl:col-span-1">
+                  <label htmlFor={`${id}-description`} className="text-sm font-semibold @2xl:sr-only">
                     Line {number}: description
                   </label>
                   <input
@@ -245,7 +245,7 @@ export function BidForm({ defaultValues, submit, submitLabel, onCancel, label }:
                   )}
                 </div>
                 <div className="flex flex-col gap-1">
-                  <label htmlFor={`${id}-quantity`} className="text-sm font-semibold md:sr-only">
+                  <label htmlFor={`${id}-quantity`} className="text-sm font-semibold @2xl:sr-only">
                     Line {number}: quantity
                   </label>
                   <input
@@ -267,7 +267,7 @@ export function BidForm({ defaultValues, submit, submitLabel, onCancel, label }:
                   )}
                 </div>
                 <div className="flex flex-col gap-1">
-                  <label htmlFor={`${id}-price`} className="text-sm font-semibold md:sr-only">
+                  <label htmlFor={`${id}-price`} className="text-sm font-semibold @2xl:sr-only">
                     Line {number}: unit price in dollars
                   </label>
                   <div
@@ -296,8 +296,8 @@ export function BidForm({ defaultValues, submit, submitLabel, onCancel, label }:
                     </p>
                   )}
                 </div>
-                <p className="flex min-h-11 items-center justify-end gap-2 text-base md:justify-end">
-                  <span className="text-sm text-ink-soft md:sr-only">Amount</span>
+                <p className="flex min-h-11 items-center justify-end gap-2 text-base @2xl:justify-end">
+                  <span className="text-sm text-ink-soft @2xl:sr-only">Amount</span>
                   <LineAmount control={form.control} index={index} />
                 </p>
                 <div className="flex min-h-11 items-center justify-end">

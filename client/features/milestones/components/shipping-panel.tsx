@@ -72,11 +72,17 @@ function ReturnAddressForm({ jobId, current }: { jobId: string; current: PostalA
 
 function ShopAddress({ shipping, viewer }: { shipping: ShippingView; viewer: 'builder' | 'shop' | 'admin' }) {
   if (!shipping.shopAddress) {
-    return <p className="text-ink-soft">The shop has not given a receiving address yet. Ask for it in the conversation.</p>;
+    return viewer === 'shop' ? (
+      <p className="text-ink-soft">
+        You have not given a receiving address yet. Add it to your shop profile so the builder knows where to send the parts.
+      </p>
+    ) : (
+      <p className="text-ink-soft">The shop has not given a receiving address yet. Ask for it in the conversation.</p>
+    );
   }
   return (
     <div className="flex flex-col gap-1">
-      <h3 className="font-bold">{viewer === 'builder' ? 'Send the parts to' : 'The shop’s receiving address'}</h3>
+      <h3 className="font-bold">{viewer === 'builder' ? 'Send the parts to' : viewer === 'shop' ? 'The builder sends the parts to your receiving address' : 'The shop’s receiving address'}</h3>
       <PostalAddressBlock address={shipping.shopAddress} label="The shop’s receiving address" />
     </div>
   );

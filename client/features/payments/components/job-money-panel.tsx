@@ -189,7 +189,7 @@ function Balance({ money, side }: { money: MoneyView; side: 'builder' | 'shop' }
       )}
       {pending.length > 0 && (
         <Notice tone="caution" className="mt-3" title="A payout is on its way">
-          {pending.map((p) => `${p.kind === 'release' ? 'Payment to the shop' : 'Refund'} of ${formatCents(p.amountCents)}`).join('; ')} is waiting for the
+          {pending.map((p) => `${p.kind === 'release' ? (side === 'shop' ? 'Your payout' : 'Payment to the shop') : 'Refund'} of ${formatCents(p.amountCents)}`).join('; ')} is waiting for the
           payment provider and is retried by itself.
         </Notice>
       )}
@@ -202,18 +202,20 @@ const changeOrderForm = z.object({
   dollars: z.string().trim().regex(/^\d{1,7}(\.\d{1,2})?$/, 'Give a price in dollars, like 180 or 180.50.'),
 });
 
-function ChangeOrders({ job, side }: { job: JobDetail; side: 'builder' | 'shop' }) {
+/** Change orders: inside the builder's payment box, or (`ownCard`) a card of their own for the shop. */
+function ChangeOrders({ job, side, ownCard = false }: { job: JobDetail; side: 'builder' | 'shop'; ownCard?: boolean }) {
   const orders = useChangeOrders(job.id);
   const approve = useApproveChangeOrder();
   const unconfirmed = useNeedsEmailConfirmation() && side === 'builder';
   const decline = useDeclineChangeOrder(job.id, { mutationConfig: { onSuccess: () => toast.success('Change order declined; the shop is told.') } });
   const canPropose = side === 'shop' && (job.status === 'funded' || job.status === 'in_work');
   if (!orders.data?.length && !canPropose) return null;
+  const Heading = ownCard ? 'h2' : 'h3';
   return (
-    <section className="mt-6" aria-labelledby="change-orders-heading">
-      <h3 id="change-orders-heading" className="text-lg font-bold">
+    <section className={ownCard ? 'rounded-card bg-paper-raised p-6 shadow-card ring-1 ring-slate-100' : 'mt-6'} aria-labelledby="change-orders-heading">
+      <Heading id="change-orders-heading" className={ownCard ? 'text-xl font-bold' : 'text-lg font-bold'}>
         Extra work
-      </h3>
+      </Heading>
       {orders.data && orders.data.length > 0 && (
         <ul className="mt-2 flex flex-col gap-2">
           {orders.data.map((order: ChangeOrder) => (
@@ -247,9 +249,22 @@ function ChangeOrders({ job, side }: { job: JobDetail; side: 'builder' | 'shop' 
           className="mt-2"
         />
       )}
-      {canPropose && <ProposeChangeOrder jobId={job.id} />}
+      {canPropose && <CollapsedProposal jobId={job.id} />}
     </section>
   );
+}
+
+/** The shop's extra-work form, rarely needed, behind a button until asked for. */
+function CollapsedProposal({ jobId }: { jobId: string }) {
+  const [open, setOpen] = useState(false);
+  if (!open) {
+    return (
+      <Button variant="secondary" className="mt-3" onClick={() => setOpen(true)}>
+        Propose extra work
+      </Button>
+    );
+  }
+  return <ProposeChangeOrder jobId={jobId} />;
 }
 
 /** The shop proposes extra work with its price; `description` prefills what needs doing (a crack test's findings, say). */
@@ -305,6 +320,33 @@ function ShopNet({ amountCents, feeBps, released }: { amountCents: number; feeBp
   );
 }
 
+/** Where the builder's money stands, said to the shop: held while it works, held through a dispute, on its way, sent, or gone back to the builder. */
+function ShopMoneySentence({ job, money, released }: { job: JobDetail; money: MoneyView; released: boolean }) {
+  const { balance } = money;
+  if (released) {
+    return (
+      <p className="mt-3 text-sm" data-testid="shop-released">
+        Released: {formatCents(balance.released)} was sent to your payout account, after Tenthmark’s fee of {formatCents(balance.fee)}.
+      </p>
+    );
+  }
+  // A payout on its way says so in the balance above.
+  if (money.pending.some((p) => p.kind === 'release')) return null;
+  const words =
+    job.status === 'disputed'
+      ? 'The builder’s payment stays held while an administrator decides the dispute; the decision says how much of it is paid to you.'
+      : job.status === 'resolved' || job.status === 'completed'
+        ? balance.refunded > 0 && balance.held === 0
+          ? 'The builder’s payment went back to them; nothing is paid to you for this job.'
+          : null
+        : 'Tenthmark holds the builder’s payment while you work. When the builder accepts your inspection record (or the review window closes), it is sent to your payout account, less Tenthmark’s fee.';
+  return words ? (
+    <p className="mt-3 text-sm text-ink-soft" data-testid="shop-held">
+      {words}
+    </p>
+  ) : null;
+}
+
 /** The awarded shop: whether the builder has paid, what it keeps after the fee, whether the money was released, its invoice, and extra work. */
 function ShopMoney({ job, acceptedTotalCents }: { job: JobDetail; acceptedTotalCents?: number }) {
   const money = useMoney(job.id);
@@ -318,21 +360,19 @@ function ShopMoney({ job, acceptedTotalCents }: { job: JobDetail; acceptedTotalC
       {job.status === 'awarded' && <Notice className="mt-3">Waiting for the builder’s payment. Start once it shows as held here.</Notice>}
       {data && amountCents !== undefined && data.feeBps !== null && !released && <ShopNet amountCents={amountCents} feeBps={data.feeBps} released={false} />}
       {data && PAID_STATES.has(job.status) && <Balance money={data} side="shop" />}
-      {PAID_STATES.has(job.status) &&
-        (released ? (
-          <p className="mt-3 text-sm" data-testid="shop-released">
-            Released: {formatCents(data.balance.released)} was sent to your payout account, after Tenthmark’s fee of {formatCents(data.balance.fee)}.
-          </p>
-        ) : data?.pending.some((p) => p.kind === 'release') ? null : (
-          <p className="mt-3 text-sm text-ink-soft">
-            Tenthmark holds the builder’s payment while you work. When the builder accepts your inspection record (or the review window closes), it is sent to your payout
-            account, less Tenthmark’s fee.
-          </p>
-        ))}
+      {data && PAID_STATES.has(job.status) && <ShopMoneySentence job={job} money={data} released={released} />}
       {data && <Documents job={job} money={data} side="shop" />}
-      <ChangeOrders job={job} side="shop" />
     </Card>
   );
+}
+
+/**
+ * The working shop's extra work (change orders): what it proposed and their
+ * state, and the form to propose more, behind a button. On the job page it
+ * comes after "Log progress", which the shop uses far more often.
+ */
+export function ShopExtraWork({ job }: { job: JobDetail }) {
+  return PAID_STATES.has(job.status) ? <ChangeOrders job={job} side="shop" ownCard /> : null;
 }
 
 /** Money on the job page: only for the job's builder and the shop doing the work. */
