@@ -28,6 +28,7 @@ export const pagePaths = {
     '/jobs/:jobId/inspection/:version/certificate',
     '/board',
     '/bids',
+    '/queue',
     '/shop/profile',
     '/admin/people',
     '/admin/disputes',
