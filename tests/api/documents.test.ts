@@ -1,4 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { addWorkingDays } from '../../shared/due-day';
 import { startMoneyApp } from '../setup/money-app';
 import { payOnPage } from '../setup/payments';
 import { pdfText } from '../setup/pdf';
@@ -152,6 +153,7 @@ describe('the shop’s fee and net', () => {
     // derived: 8 % of $500.00 (rounded half up to the cent, common practice)
     expect(bid).toMatchObject({ status: 'accepted', feeBps: 800, feeCents: 4_000, netCents: 46_000 });
     // The parts arrived today (the inWork state logs it), so the work is due ten days on.
-    expect(bid.dueOn).toBe(new Date(Date.now() + 10 * 86_400_000).toISOString().slice(0, 10));
+    // Ten working days from the parts' arrival today (shared/due-day.ts, unit-tested there).
+    expect(bid.dueOn).toBe(addWorkingDays(new Date(), 10));
   });
 });

@@ -1,4 +1,5 @@
 import { and, eq } from 'drizzle-orm';
+import { addWorkingDays, dueDayEnd } from '../../shared/due-day';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { inspectionRecords, mailOutbox } from '../../server/db/schema';
 import { timeLeftText } from '../../server/modules/notifications/needs-you';
@@ -84,13 +85,15 @@ describe('needs you and the notification centre', () => {
   });
 
   it('when a shop’s agreed finish is near and the builder asks for changes, then the shop’s list says so', async () => {
-    const { job, builder, shop } = await m.jobIn('submitted', { bid: { turnaroundDays: 2 } });
+    // One working day from the parts' arrival today: due within three calendar days whatever today's weekday (Friday → Monday).
+    const { job, builder, shop } = await m.jobIn('submitted', { bid: { turnaroundDays: 1 } });
     expect((await builder.post(`/api/jobs/${job.id}/inspection/reject`, { reasons: 'Cylinder three reads high at the bottom.' })).status).toBe(200);
     const items = await needsYouOf(shop);
     expect(items.find((item) => item.kind === 'record-rejected')).toMatchObject({ jobId: job.id });
     const due = items.find((item) => item.kind === 'jobs-coming-due');
     expect(due).toMatchObject({ jobId: job.id });
-    expect(Date.parse(due!.dueAt!) - Date.now()).toBeLessThan(2 * 24 * 3_600_000 + 60_000);
+    // The end of the due day (UTC), by the one rule of shared/due-day.ts.
+    expect(due!.dueAt).toBe(dueDayEnd(addWorkingDays(new Date(), 1)).toISOString());
     expect((await noticesOf(shop)).notifications[0]).toMatchObject({ kind: 'record_rejected', jobId: job.id });
   });
 

@@ -1,4 +1,5 @@
 import { eq, sql } from 'drizzle-orm';
+import { addWorkingDays, daysUntil } from '../../shared/due-day';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { bids } from '../../server/db/schema';
 import type { QueueJob } from '../../shared/schemas/bids';
@@ -16,7 +17,9 @@ afterAll(async () => {
 });
 
 const DAY_MS = 24 * 60 * 60_000;
-const daysFromToday = (days: number) => new Date(Date.now() + days * DAY_MS).toISOString().slice(0, 10);
+/** The due day by the one rule (working days, shared/due-day.ts, unit-tested there) from a start this many days ago. */
+const dueFrom = (daysAgo: number, turnaroundDays: number) => addWorkingDays(new Date(Date.now() - daysAgo * DAY_MS), turnaroundDays);
+const left = (dueOn: string) => daysUntil(dueOn, new Date());
 const returnAddress = { lines: ['42 Camshaft Lane', ''], city: 'Fort Wayne', region: 'Indiana', postalCode: '46802', country: 'United States' };
 
 describe('the shop’s work queue', () => {
@@ -40,8 +43,8 @@ describe('the shop’s work queue', () => {
     await people.builder('POST', `/api/jobs/${redo}/inspection/reject`, { reasons: 'Cylinder three is over the taper limit.' });
     await people.builder('PUT', `/api/jobs/${shipped}/return-address`, returnAddress);
     await people.shop('POST', `/api/jobs/${shipped}/milestones`, { kind: 'shipped', carrier: 'Ridgeline Freight', trackingNumber: 'RF 77' });
-    // The awarded job was accepted 40 days ago on a 30-day turnaround: ten days overdue.
-    await m.db.update(bids).set({ decidedAt: sql`now() - interval '40 days'` }).where(eq(bids.jobId, awarded));
+    // The awarded job was accepted 60 days ago on a 30-working-day turnaround: long overdue.
+    await m.db.update(bids).set({ decidedAt: sql`now() - interval '60 days'` }).where(eq(bids.jobId, awarded));
 
     const res = await shopClient.get('/api/shop/queue');
     expect(res.status).toBe(200);
@@ -52,12 +55,16 @@ describe('the shop’s work queue', () => {
     // Soonest due first: the turnarounds from the award or the parts' arrival, all today.
     expect(ids).toEqual([awarded, inShop, funded, submitted, redo, shipped]);
     const byId = new Map(queue.map((j) => [j.jobId, j]));
-    expect(byId.get(awarded)).toMatchObject({ title: 'Awarded, not paid', status: 'awarded', stage: 'payment_due', dueOn: daysFromToday(-10), daysLeft: -10, turnaroundDays: 30, builderName: 'Dana Okafor' });
-    expect(byId.get(funded)).toMatchObject({ status: 'funded', stage: 'waiting_for_parts', dueOn: daysFromToday(12), daysLeft: 12 });
-    expect(byId.get(inShop)).toMatchObject({ status: 'in_work', stage: 'in_shop', daysLeft: 9 });
-    expect(byId.get(submitted)).toMatchObject({ status: 'inspection_submitted', stage: 'record_submitted', daysLeft: 14 });
-    expect(byId.get(redo)).toMatchObject({ status: 'in_work', stage: 'changes_asked', daysLeft: 20 });
-    expect(byId.get(shipped)).toMatchObject({ status: 'in_work', stage: 'shipped_back', daysLeft: 25 });
+    const overdue = dueFrom(60, 30);
+    expect(left(overdue)).toBeLessThan(-10);
+    expect(byId.get(awarded)).toMatchObject({ title: 'Awarded, not paid', status: 'awarded', stage: 'payment_due', dueOn: overdue, daysLeft: left(overdue), turnaroundDays: 30, builderName: 'Dana Okafor' });
+    expect(byId.get(funded)).toMatchObject({ status: 'funded', stage: 'waiting_for_parts', dueOn: dueFrom(0, 12), daysLeft: left(dueFrom(0, 12)) });
+    // Twelve working days are at least sixteen calendar days: weekends are not counted.
+    expect(byId.get(funded)!.daysLeft).toBeGreaterThanOrEqual(16);
+    expect(byId.get(inShop)).toMatchObject({ status: 'in_work', stage: 'in_shop', dueOn: dueFrom(0, 9), daysLeft: left(dueFrom(0, 9)) });
+    expect(byId.get(submitted)).toMatchObject({ status: 'inspection_submitted', stage: 'record_submitted', dueOn: dueFrom(0, 14) });
+    expect(byId.get(redo)).toMatchObject({ status: 'in_work', stage: 'changes_asked', dueOn: dueFrom(0, 20) });
+    expect(byId.get(shipped)).toMatchObject({ status: 'in_work', stage: 'shipped_back', dueOn: dueFrom(0, 25) });
 
     // The due day is the one My bids shows for the same accepted bid.
     const mine = (await shopClient.get('/api/bids/mine')).body.bids as Array<{ jobId: string; dueOn: string | null }>;

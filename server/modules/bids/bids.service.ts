@@ -1,6 +1,7 @@
 import { and, asc, desc, eq, inArray, ne, or, sql } from 'drizzle-orm';
 import { lineAmountCents } from '../../../shared/catalogue';
 import { netOf } from '../../../shared/money';
+import { daysUntil, dueDayOf } from '../../../shared/due-day';
 import type { Bid, BidInput, BidLine, BidRevision, QueueJob, QueueStage, ShopBid } from '../../../shared/schemas/bids';
 import type { JobStatus } from '../../../shared/schemas/jobs';
 import type { Database, Executor } from '../../db/client';
@@ -343,8 +344,6 @@ export async function feeRateNow(deps: BidDeps): Promise<{ feeBps: number }> {
   return { feeBps };
 }
 
-const DAY_MS = 24 * 60 * 60_000;
-
 /** When each of these jobs first had a milestone of this kind logged ("parts received", "shipped"). */
 async function firstLogged(db: Executor, jobIds: string[], kind: MilestoneKind): Promise<Map<string, Date>> {
   if (jobIds.length === 0) return new Map();
@@ -356,15 +355,9 @@ async function firstLogged(db: Executor, jobIds: string[], kind: MilestoneKind):
   return new Map(rows.map((r) => [r.jobId, r.at]));
 }
 
-/**
- * The day an accepted bid is due (YYYY-MM-DD, UTC): its turnaround counted
- * from the parts' arrival, or from the award until they arrive (as the
- * disputes' agreed finish date). Null for a bid not accepted.
- */
-function dueOnOf(bid: { turnaroundDays: number; decidedAt: Date | null }, partsReceivedAt: Date | undefined): string | null {
-  const start = partsReceivedAt ?? bid.decidedAt;
-  return start ? new Date(start.getTime() + bid.turnaroundDays * DAY_MS).toISOString().slice(0, 10) : null;
-}
+/** An accepted bid's due day (shared/due-day.ts has the rule); null for a bid not accepted. */
+const dueOnOf = (bid: { turnaroundDays: number; decidedAt: Date | null }, partsReceivedAt: Date | undefined) =>
+  dueDayOf({ turnaroundDays: bid.turnaroundDays, awardedAt: bid.decidedAt }, partsReceivedAt);
 
 export async function bidsOfShop(deps: BidDeps, user: User): Promise<ShopBid[]> {
   const shop = await findShopByUser(deps.db, user.id);
@@ -427,7 +420,6 @@ export async function workQueue(deps: BidDeps, user: User, now = new Date()): Pr
       : [],
   ]);
   const rejected = new Set(latestRecords.filter((r) => r.status === 'rejected').map((r) => r.jobId));
-  const today = Date.parse(now.toISOString().slice(0, 10));
   return rows
     .map(({ job, bid, builderName }) => {
       const dueOn = dueOnOf(bid, receivedOn.get(job.id)) ?? now.toISOString().slice(0, 10);
@@ -438,7 +430,7 @@ export async function workQueue(deps: BidDeps, user: User, now = new Date()): Pr
         status: job.status,
         stage: stageOf(job.status, facts),
         dueOn,
-        daysLeft: Math.round((Date.parse(dueOn) - today) / DAY_MS),
+        daysLeft: daysUntil(dueOn, now),
         turnaroundDays: bid.turnaroundDays,
         builderName,
       };

@@ -11,13 +11,15 @@ import {
   type ResolveDisputeInput,
 } from '../../../shared/schemas/disputes';
 import type { Database, Executor } from '../../db/client';
-import { bids, changeOrders, disputes, jobs, messages, threads, users, type User } from '../../db/schema';
+import { changeOrders, disputes, jobs, messages, threads, users, type User } from '../../db/schema';
 import { AppError, conflict, forbidden, notFound } from '../../lib/errors';
 import { enqueueMail } from '../../lib/mail/outbox';
 import { disputeAnsweredMail, disputeDecidedMail, disputeOpenedMail } from '../../lib/mail/templates';
 import { recordAdminAction } from '../admin/audit';
 import { Notices } from '../notifications/notify';
 import { mustSeeWork, partiesOf, sideOf, type JobParties } from '../jobs/job-access';
+import { dueDaysOf } from '../jobs/due-days';
+import { dueDayEnd } from '../../../shared/due-day';
 import { jobBalance } from '../payments/ledger';
 import { carryOut, planMoves, type PaymentDeps } from '../payments/payments.service';
 
@@ -51,7 +53,7 @@ const jobUrl = (deps: { appUrl: string }, jobId: string) => `${deps.appUrl}/jobs
  * The reasons this side may open a dispute with now, and if none, why not.
  * The builder disputes instead of accepting an inspection record. The shop
  * disputes when the builder has been silent for BUILDER_SILENCE_DAYS past the
- * agreed finish date (award day plus the bid's turnaround), or over a change
+ * agreed finish date (the job's due day, shared/due-day.ts), or over a change
  * order the builder has not paid.
  */
 async function openingRules(db: Executor, parties: JobParties, side: Side, now: Date): Promise<{ reasons: DisputeReason[]; why: string }> {
@@ -62,8 +64,8 @@ async function openingRules(db: Executor, parties: JobParties, side: Side, now: 
   }
   if (!SHOP_DISPUTABLE.has(job.status)) return { reasons: [], why: 'A dispute can be opened only while the payment is held for work in progress.' };
   const reasons: DisputeReason[] = [];
-  const [bid] = await db.select({ decidedAt: bids.decidedAt, turnaroundDays: bids.turnaroundDays }).from(bids).where(eq(bids.id, job.awardedBidId!));
-  const agreed = new Date((bid?.decidedAt ?? job.createdAt).getTime() + (bid?.turnaroundDays ?? 0) * DAY_MS);
+  const dueDay = (await dueDaysOf(db, [job.id])).get(job.id) ?? job.createdAt.toISOString().slice(0, 10);
+  const agreed = dueDayEnd(dueDay);
   const silentSince = new Date(now.getTime() - BUILDER_SILENCE_DAYS * DAY_MS);
   if (agreed < now) {
     const [spoke] = await db
@@ -82,7 +84,7 @@ async function openingRules(db: Executor, parties: JobParties, side: Side, now: 
   if (order) reasons.push('change_order');
   return {
     reasons,
-    why: `The shop can open a dispute when the builder has not written for ${BUILDER_SILENCE_DAYS} days after the agreed finish date (${agreed.toISOString().slice(0, 10)}), or over a change order that is not paid.`,
+    why: `The shop can open a dispute when the builder has not written for ${BUILDER_SILENCE_DAYS} days after the agreed finish date (${dueDay}), or over a change order that is not paid.`,
   };
 }
 

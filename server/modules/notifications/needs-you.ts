@@ -2,6 +2,8 @@ import { sql } from 'drizzle-orm';
 import type { NeedsYouItem } from '../../../shared/schemas/notifications';
 import type { Executor } from '../../db/client';
 import type { User } from '../../db/schema';
+import { daysUntil, dueDayEnd } from '../../../shared/due-day';
+import { dueDaysOf } from '../jobs/due-days';
 
 /** Days before a shop's agreed finish that a job shows as coming due. */
 export const COMING_DUE_DAYS = 3;
@@ -98,18 +100,20 @@ async function awaitingPayment(db: Executor, user: User): Promise<NeedsYouItem[]
   return rows.map((r) => item('bid-accepted-awaiting-payment', r, 'Your bid was accepted. Work starts once the builder pays; you will be told.'));
 }
 
-/** Jobs in this shop whose agreed finish (award day plus the bid's turnaround) is within COMING_DUE_DAYS or past. */
+/** Jobs in this shop whose due day (shared/due-day.ts) is within COMING_DUE_DAYS days or has passed. */
 async function jobsComingDue(db: Executor, user: User, now: Date): Promise<NeedsYouItem[]> {
-  const { rows } = await db.execute<JobTitleRow & { due_at: string }>(sql`
-    SELECT j.id AS job_id, j.title, b.decided_at + b.turnaround_days * interval '1 day' AS due_at
+  const { rows } = await db.execute<JobTitleRow>(sql`
+    SELECT j.id AS job_id, j.title
     FROM jobs j JOIN bids b ON b.id = j.awarded_bid_id JOIN shops s ON s.id = b.shop_id
-    WHERE s.user_id = ${user.id} AND j.status IN ('funded', 'in_work')
-      AND b.decided_at + b.turnaround_days * interval '1 day' <= ${now.toISOString()}::timestamptz + ${COMING_DUE_DAYS} * interval '1 day'
-    ORDER BY due_at`);
-  return rows.map((r) => {
-    const dueAt = new Date(r.due_at);
-    return item('jobs-coming-due', r, `Agreed finish: ${timeLeftText(dueAt, now)}.`, { dueAt });
-  });
+    WHERE s.user_id = ${user.id} AND j.status IN ('funded', 'in_work')`);
+  const dueDays = await dueDaysOf(db, rows.map((r) => r.job_id));
+  return rows
+    .flatMap((r) => {
+      const day = dueDays.get(r.job_id);
+      return day && daysUntil(day, now) <= COMING_DUE_DAYS ? [{ r, dueAt: dueDayEnd(day) }] : [];
+    })
+    .sort((a, b) => a.dueAt.getTime() - b.dueAt.getTime())
+    .map(({ r, dueAt }) => item('jobs-coming-due', r, `Agreed finish: ${timeLeftText(dueAt, now)}.`, { dueAt }));
 }
 
 /** Jobs in this shop whose newest inspection record the builder sent back. */
