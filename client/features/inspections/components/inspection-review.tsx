@@ -5,10 +5,10 @@ import { Link } from 'react-router-dom';
 import { toast } from 'sonner';
 import type { z } from 'zod';
 import { boreSpecFor, checksNotConforming } from '@shared/calc';
-import { INSPECTION_STATUS_WORDS } from '@shared/inspection-words';
+import { RECORD_STATUS, type Term } from '@shared/glossary';
 import { type InspectionVersion, rejectInspectionSchema } from '@shared/schemas/inspection';
 import type { JobDetail } from '@shared/schemas/jobs';
-import { Badge, type BadgeTone } from '@client/components/ui/badge';
+import { TermBadge } from '@client/components/ui/badge';
 import { Button } from '@client/components/ui/button';
 import { Card } from '@client/components/ui/card';
 import { CheckboxField } from '@client/components/ui/checkbox-field';
@@ -27,12 +27,7 @@ import { ReadingsAt20 } from './record-judgement';
 /** Job states in which an inspection record may exist or be on its way. */
 const RECORD_STATES = new Set<JobDetail['status']>(['in_work', 'inspection_submitted', 'completed', 'disputed', 'resolved']);
 
-const versionStatus: Record<InspectionVersion['status'], { label: string; tone: BadgeTone }> = {
-  submitted: { label: INSPECTION_STATUS_WORDS.submitted, tone: 'caution' },
-  accepted: { label: INSPECTION_STATUS_WORDS.accepted, tone: 'success' },
-  rejected: { label: INSPECTION_STATUS_WORDS.rejected, tone: 'error' },
-  superseded: { label: INSPECTION_STATUS_WORDS.superseded, tone: 'muted' },
-};
+const versionStatus: Readonly<Record<InspectionVersion['status'], Term>> = RECORD_STATUS;
 
 const when = new Intl.DateTimeFormat('en-US', { dateStyle: 'medium', timeStyle: 'short' });
 const formatWhen = (iso: string) => when.format(new Date(iso));
@@ -333,7 +328,7 @@ export function InspectionReview({ job, viewer }: { job: JobDetail; viewer: 'bui
         <div className="flex flex-col gap-5" data-testid="inspection-review">
           <div className="flex flex-wrap items-center gap-3">
             <h3 className="text-lg font-bold">Version {latest.version}</h3>
-            <Badge tone={versionStatus[latest.status].tone}>{versionStatus[latest.status].label}</Badge>
+            <TermBadge term={versionStatus[latest.status]} />
             <span className="text-sm text-ink-soft">submitted {formatWhen(latest.submittedAt)}</span>
             <Link to={`/jobs/${job.id}/inspection/${latest.version}/certificate`} className="text-sm font-semibold text-slate-700 underline underline-offset-4">
               Certificate (print or PDF)
