@@ -99,11 +99,11 @@ export const DISPUTE_STATUS: Glossary<'open' | 'resolved'> = {
 
 /** A payment's status (the payment for the bid, or for extra work). */
 export const PAYMENT_STATUS: Glossary<'pending' | 'paid' | 'failed' | 'expired' | 'refunded'> = {
-  pending: { label: 'Waiting for payment', tone: 'warning' },
-  paid: { label: 'Paid and held', tone: 'success' },
-  failed: { label: 'Payment failed', tone: 'danger' },
-  expired: { label: 'Payment page expired', tone: 'quiet' },
-  refunded: { label: 'Refunded', tone: 'neutral' },
+  pending: { label: 'Waiting', tone: 'warning', explain: 'The payment page is open; the money has not arrived.' },
+  paid: { label: 'Paid', tone: 'success' },
+  failed: { label: 'Failed', tone: 'danger' },
+  expired: { label: 'Expired', tone: 'quiet', explain: 'The payment page closed before anything was paid.' },
+  refunded: { label: 'Refunded', tone: 'neutral', explain: 'It arrived when it could no longer be used, and was refunded in full.' },
 };
 
 /** Extra work's status. */

@@ -179,7 +179,7 @@ function AcceptDialog({ job, version, open, onClose }: { job: JobDetail; version
       open={open}
       onClose={close}
       title={`Accept version ${version.version} of the inspection record?`}
-      description="The held payment goes to the shop, less Tenthmark’s fee, and the job is completed. This cannot be undone."
+      description="The held payment goes to the shop, less the Tenthmark fee, and the job is completed. This cannot be undone."
       size="sm"
     >
       {failing.length > 0 && (
