@@ -1,7 +1,10 @@
 /**
  * E-mail templates in the product's look: a plain-text part and an HTML part
  * built from the same words. Inline styles only, since mail clients drop <style>.
+ * Statuses and the names of things come from the glossary (shared/glossary.ts).
  */
+import { NAMES, RECORD_STATUS } from '../../../shared/glossary';
+
 export interface RenderedMail {
   template: string;
   subject: string;
@@ -245,7 +248,7 @@ export function payoutSentMail(input: { name: string; jobTitle: string; amountCe
     template: 'payout_sent',
     subject: `${money(input.amountCents)} is on its way for “${input.jobTitle}”`,
     greeting: `Hello ${input.name},`,
-    paragraphs: [`We sent ${money(input.amountCents)} to your payout account for “${input.jobTitle}” (Tenthmark’s fee: ${money(input.feeCents)}).`],
+    paragraphs: [`We sent ${money(input.amountCents)} to your payout account for “${input.jobTitle}” (${NAMES.fee}: ${money(input.feeCents)}).`],
     action: { label: 'Open the job', url: input.url },
   });
 }
@@ -352,13 +355,13 @@ export function reviewWindowHeldMail(input: { name: string; reader: 'builder' | 
 
 export function inspectionDecidedMail(input: { name: string; jobTitle: string; decision: 'accepted' | 'accepted_by_window' | 'rejected'; reasons?: string; url: string }): RenderedMail {
   const words = {
-    accepted: 'The builder accepted your inspection record. The held payment is on its way to your payout account, less Tenthmark’s fee.',
-    accepted_by_window: 'The review window ended with no answer, so your inspection record counts as accepted. The held payment is on its way to your payout account, less Tenthmark’s fee.',
+    accepted: 'The builder accepted your inspection record. The held payment is on its way to your payout account, less the Tenthmark fee.',
+    accepted_by_window: 'The review window ended with no answer, so your inspection record counts as accepted. The held payment is on its way to your payout account, less the Tenthmark fee.',
     rejected: 'The builder did not accept your inspection record yet and asks for another look.',
   }[input.decision];
   return render({
     template: `inspection_${input.decision}`,
-    subject: input.decision === 'rejected' ? `Changes asked on “${input.jobTitle}”` : `“${input.jobTitle}” is accepted`,
+    subject: input.decision === 'rejected' ? `${RECORD_STATUS.rejected.label} on “${input.jobTitle}”` : `“${input.jobTitle}” is accepted`,
     greeting: `Hello ${input.name},`,
     paragraphs: [words, ...(input.reasons ? [`Their reasons: ${input.reasons}`] : [])],
     action: { label: 'Open the job', url: input.url },
@@ -396,10 +399,10 @@ export function disputeAnsweredMail(input: { name: string; jobTitle: string; url
 export function disputeDecidedMail(input: { name: string; jobTitle: string; outcome: 'release' | 'refund' | 'split'; shopCents: number; refundCents: number; decision: string; url: string }): RenderedMail {
   const result =
     input.outcome === 'release'
-      ? `The held payment of ${money(input.shopCents)} goes to the shop (less Tenthmark’s fee).`
+      ? `The held payment of ${money(input.shopCents)} goes to the shop (less the Tenthmark fee).`
       : input.outcome === 'refund'
         ? `The held payment of ${money(input.refundCents)} goes back to the builder.`
-        : `The held payment is split: ${money(input.shopCents)} to the shop (less Tenthmark’s fee) and ${money(input.refundCents)} back to the builder.`;
+        : `The held payment is split: ${money(input.shopCents)} to the shop (less the Tenthmark fee) and ${money(input.refundCents)} back to the builder.`;
   return render({
     template: 'dispute_decided',
     subject: `The dispute on “${input.jobTitle}” is decided`,

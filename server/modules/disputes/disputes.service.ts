@@ -82,7 +82,7 @@ async function openingRules(db: Executor, parties: JobParties, side: Side, now: 
   if (order) reasons.push('change_order');
   return {
     reasons,
-    why: `The shop can open a dispute when the builder has not written for ${BUILDER_SILENCE_DAYS} days after the agreed finish date (${agreed.toISOString().slice(0, 10)}), or over a change order that is not paid.`,
+    why: `The shop can open a dispute when the builder has not written for ${BUILDER_SILENCE_DAYS} days after the agreed finish date (${agreed.toISOString().slice(0, 10)}), or over extra work that is not paid.`,
   };
 }
 
