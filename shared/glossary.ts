@@ -132,5 +132,6 @@ export const RETIRED_NAMES: ReadonlyArray<{ retired: RegExp; use: string }> = [
   { retired: /\bchange orders?\b/i, use: NAMES.extraWork },
   { retired: /\bmilestones?\b/i, use: NAMES.progress },
   { retired: /\b(platform|service) fee\b|\bcommission\b|Tenthmark[’']s fee/i, use: NAMES.fee },
+  { retired: /^Rejected\b|\bFee kept\b/, use: `${RECORD_STATUS.rejected.label}; ${NAMES.fee}` },
   { retired: /\bdashboard\b/i, use: 'the role’s home page name (HOME_PAGE_NAMES)' },
 ];

@@ -257,7 +257,7 @@ function RejectDialog({ job, version, open, onClose }: { job: JobDetail; version
       onSuccess: () => {
         onClose();
         form.reset();
-        toast.success('Rejected. The shop is told what to redo and will send a new version.');
+        toast.success(`${RECORD_STATUS.rejected.label}. The shop is told what to redo and will send a new version.`);
       },
       onError: (error) => setFormError(applyServerErrors(error, form.setError, ['reasons'])),
     },
