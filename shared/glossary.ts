@@ -128,7 +128,7 @@ export function jobStatusInSentence(status: string): string {
 export const RETIRED_NAMES: ReadonlyArray<{ retired: RegExp; use: string }> = [
   { retired: /\bin work\b/i, use: JOB_STATUS.in_work.label },
   { retired: /\bDispute settled\b/i, use: JOB_STATUS.resolved.label },
-  { retired: /\bRejected by the builder\b/i, use: RECORD_STATUS.rejected.label },
+  { retired: /\bRejected by the builder\b|\b(reject|rejects|rejected|sent back) (it|this|the|version|with)\b/i, use: `${RECORD_STATUS.rejected.label} (to ask: “Ask for changes”)` },
   { retired: /\bchange orders?\b/i, use: NAMES.extraWork },
   { retired: /\bmilestones?\b/i, use: NAMES.progress },
   { retired: /\b(platform|service) fee\b|\bcommission\b|Tenthmark[’']s fee/i, use: NAMES.fee },

@@ -309,8 +309,8 @@ export function inspectionSubmittedMail(input: { name: string; shopName: string;
     paragraphs: [
       `${input.shopName} submitted the measured inspection record for “${input.jobTitle}”. By the job’s limits it ${input.pass ? 'passes every check' : 'fails at least one check'}.`,
       input.autoAccept === false
-        ? `Accept it to release the held payment to the shop, or reject it with your reasons. Because at least one check does not conform, it is never accepted without you: after ${input.dueText} it still waits for your answer.`
-        : `Accept it to release the held payment to the shop, or reject it with your reasons. With no answer by ${input.dueText}, it counts as accepted.`,
+        ? `Accept it to release the held payment to the shop, or ask for changes, with your reasons. Because at least one check does not conform, it is never accepted without you: after ${input.dueText} it still waits for your answer.`
+        : `Accept it to release the held payment to the shop, or ask for changes, with your reasons. With no answer by ${input.dueText}, it counts as accepted.`,
     ],
     action: { label: 'Review the record', url: input.url },
   });
@@ -323,7 +323,7 @@ export function reviewReminderMail(input: { name: string; jobTitle: string; dueT
     greeting: `Hello ${input.name},`,
     paragraphs: [
       input.autoAccept === false
-        ? `The review window for the inspection record for “${input.jobTitle}” ends on ${input.dueText}. At least one check does not conform, so it is not accepted without you: please accept it (naming those checks) or reject it with your reasons.`
+        ? `The review window for the inspection record for “${input.jobTitle}” ends on ${input.dueText}. At least one check does not conform, so it is not accepted without you: please accept it (naming those checks) or ask for changes, with your reasons.`
         : `The inspection record for “${input.jobTitle}” counts as accepted on ${input.dueText} unless you answer before then.`,
     ],
     action: { label: 'Review the record', url: input.url },
@@ -337,7 +337,7 @@ export function reviewReminderMail(input: { name: string; jobTitle: string; dueT
 export function reviewWindowHeldMail(input: { name: string; reader: 'builder' | 'shop' | 'admin'; jobTitle: string; checks: string[]; url: string }): RenderedMail {
   const list = input.checks.join('; ');
   const next = {
-    builder: 'The record waits for you: accept it, confirming each of those checks, or reject it with your reasons. The payment stays held until then.',
+    builder: 'The record waits for you: accept it, confirming each of those checks, or ask for changes, with your reasons. The payment stays held until then.',
     shop: 'The record waits for the builder’s answer and the payment stays held. You may talk it over with the builder on the job page.',
     admin: 'Nothing was paid out. The record waits for the builder; look in if it stays unanswered.',
   }[input.reader];

@@ -236,7 +236,7 @@ function BuilderDecision({ job, version, reviewDueAt, autoAccept, windowEnded }:
       <div className="flex flex-wrap gap-3">
         <Button onClick={() => setAcceptOpen(true)}>Accept the record</Button>
         <Button variant="secondary" onClick={() => setRejectOpen(true)}>
-          Reject with reasons
+          Ask for changes
         </Button>
       </div>
       <p className="text-sm text-ink-soft">Something wrong that a new version cannot fix? Open a dispute below.</p>
@@ -267,8 +267,8 @@ function RejectDialog({ job, version, open, onClose }: { job: JobDetail; version
     reject.mutate(values);
   });
   return (
-    <ModalDialog open={open} onClose={onClose} title={`Reject version ${version.version}?`} description="The shop sees your reasons, redoes the work and submits a new version. The payment stays held.">
-      <form onSubmit={onSubmit} noValidate className="flex flex-col gap-4" aria-label="Reject the inspection record">
+    <ModalDialog open={open} onClose={onClose} title={`Ask for changes to version ${version.version}?`} description="The shop sees your reasons, redoes the work and submits a new version. The payment stays held.">
+      <form onSubmit={onSubmit} noValidate className="flex flex-col gap-4" aria-label="Ask for changes to the inspection record">
         <TextAreaField label="What needs redoing, and why" rows={4} data-autofocus error={form.formState.errors.reasons?.message} {...form.register('reasons')} />
         {formError && <Notice tone="error">{formError}</Notice>}
         <div className="flex flex-wrap justify-end gap-3">
@@ -276,7 +276,7 @@ function RejectDialog({ job, version, open, onClose }: { job: JobDetail; version
             Go back
           </Button>
           <Button type="submit" variant="danger" busy={reject.isPending}>
-            Reject and send the reasons
+            Send the changes asked
           </Button>
         </div>
       </form>
@@ -336,7 +336,7 @@ export function InspectionReview({ job, viewer }: { job: JobDetail; viewer: 'bui
           </div>
 
           {latest.status === 'rejected' && (
-            <Notice tone="error" title={viewer === 'shop' ? 'The builder rejected this version' : 'You rejected this version'}>
+            <Notice tone="error" title={viewer === 'shop' ? 'The builder asked for changes to this version' : 'You asked for changes to this version'}>
               <p className="whitespace-pre-wrap" data-testid="reject-reasons">{latest.rejectReasons}</p>
               {viewer === 'shop' && <p className="mt-1">Redo what is asked, then enter a new version; your last readings are filled in for you.</p>}
             </Notice>
