@@ -50,9 +50,17 @@ export const NAMES = {
 export const HOME_PAGE_NAMES = { builder: 'Workbench', shop: 'Shop floor', admin: 'Operations' } as const;
 export type HomePageRole = keyof typeof HOME_PAGE_NAMES;
 
-/** A link back home in words: "Back to your Workbench"; "Back to your home page" when the role is not known. */
+/** The home page inside a sentence: "your workbench", "your shop floor", "the operations page". */
+const HOME_PAGE_IN_SENTENCE: Readonly<Record<HomePageRole, string>> = { builder: 'your workbench', shop: 'your shop floor', admin: 'the operations page' };
+
+/** The home page in a sentence or a link: "Back to your workbench"; "your home page" when the role is not known. */
 export function homePageName(role: HomePageRole | undefined): string {
-  return role ? HOME_PAGE_NAMES[role] : 'home page';
+  return role ? HOME_PAGE_IN_SENTENCE[role] : 'your home page';
+}
+
+/** The home page's heading: "Your workbench", "Your shop floor", "Operations". */
+export function homePageTitle(role: HomePageRole): string {
+  return role === 'admin' ? HOME_PAGE_NAMES.admin : `${homePageName(role).charAt(0).toUpperCase()}${homePageName(role).slice(1)}`;
 }
 
 // --- statuses -------------------------------------------------------------------

@@ -3,7 +3,19 @@ import { join, relative } from 'node:path';
 import ts from 'typescript';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { bidStatus, disputeStatus, inspectionStatus, jobStatus, paymentStatus, changeOrderStatus } from '../../server/db/schema';
-import { BID_STATUS, DISPUTE_STATUS, EXTRA_WORK_STATUS, JOB_STATUS, PAYMENT_STATUS, RECORD_STATUS, RETIRED_NAMES, type Term } from '../../shared/glossary';
+import {
+  BID_STATUS,
+  DISPUTE_STATUS,
+  EXTRA_WORK_STATUS,
+  HOME_PAGE_NAMES,
+  homePageName,
+  homePageTitle,
+  JOB_STATUS,
+  PAYMENT_STATUS,
+  RECORD_STATUS,
+  RETIRED_NAMES,
+  type Term,
+} from '../../shared/glossary';
 import { bidStatuses } from '../../shared/schemas/bids';
 import { jobStatuses } from '../../shared/schemas/jobs';
 
@@ -33,6 +45,13 @@ describe('the glossary names every status once', () => {
   it('the schemas the API answers with list the same job and bid statuses as the database', () => {
     expect([...jobStatuses]).toEqual(jobStatus.enumValues);
     expect([...bidStatuses]).toEqual(bidStatus.enumValues);
+  });
+
+  it('each home page has one name: the menu’s, the heading’s and a link’s are the same words', () => {
+    expect([homePageTitle('builder'), homePageName('builder'), HOME_PAGE_NAMES.builder]).toEqual(['Your workbench', 'your workbench', 'Workbench']);
+    expect([homePageTitle('shop'), homePageName('shop'), HOME_PAGE_NAMES.shop]).toEqual(['Your shop floor', 'your shop floor', 'Shop floor']);
+    expect(homePageTitle('admin')).toBe(HOME_PAGE_NAMES.admin);
+    expect(homePageName(undefined)).toBe('your home page');
   });
 
   it('an awarded job whose payment is due does not look like a completed one', () => {

@@ -30,7 +30,7 @@ export function VerifyEmailRoute() {
         )}
         {verify.isError && (
           <Notice tone="error" title="That link did not work">
-            {verify.error.message} You can send a new one from your {home}.
+            {verify.error.message} You can send a new one from {home}.
           </Notice>
         )}
       </Card>
