@@ -3,17 +3,18 @@
  * job page, the web certificate and the PDF certificate.
  */
 import { recordConforms } from './calc/conformance';
+import { RECORD_STATUS } from './glossary';
 import { boreSpecFor } from './calc/inspection-record';
 import type { LengthUnit } from './calc/units';
 import type { InspectionResults, InspectionVersion, LimitCheck, NotJudged } from './schemas/inspection';
 import type { SectionFigure, SectionResult, SectionVerdict } from './schemas/inspection-sections';
 
-/** Every status a version can have, in words. */
+/** Every status a version can have, in words (the glossary's names). */
 export const INSPECTION_STATUS_WORDS: Readonly<Record<InspectionVersion['status'], string>> = {
-  submitted: 'Waiting for the builder’s answer',
-  accepted: 'Accepted',
-  rejected: 'Rejected by the builder',
-  superseded: 'Replaced by a later version',
+  submitted: RECORD_STATUS.submitted.label,
+  accepted: RECORD_STATUS.accepted.label,
+  rejected: RECORD_STATUS.rejected.label,
+  superseded: RECORD_STATUS.superseded.label,
 };
 
 export type ResultTone = 'none' | 'pass' | 'fail' | 'open';

@@ -38,7 +38,7 @@ export const mailTopics = {
   matching_jobs: { label: 'A new job matches my shop', optional: true, templates: ['matching_job'] },
   results_to_review: { label: 'Inspection results wait for my review, or the review window is held', optional: true, templates: ['inspection_submitted', 'review_window_held'] },
   review_window_ending: { label: 'The review window is about to close', optional: true, templates: ['review_reminder'] },
-  results_decided: { label: 'Inspection results are accepted or sent back', optional: true, templates: ['inspection_decided'] },
+  results_decided: { label: 'Inspection results are accepted, or changes are asked', optional: true, templates: ['inspection_decided'] },
   unread_messages: { label: 'Messages I have not read', optional: true, templates: ['unread_digest'] },
   disputes_opened_and_answered: { label: 'A dispute is opened or answered', optional: true, templates: ['dispute_opened', 'dispute_answered'] },
   reviews_of_me: { label: 'Someone reviews me', optional: true, templates: ['new_review'] },

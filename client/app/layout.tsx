@@ -3,6 +3,7 @@ import { forwardRef, lazy, Suspense, useEffect, useRef, useState } from 'react';
 import { NavLink, Outlet, ScrollRestoration, useLocation, useNavigate } from 'react-router-dom';
 import type { Me } from '@shared/schemas/auth';
 import { PageProgress } from '@client/components/page-progress';
+import { HOME_PAGE_NAMES, NAMES } from '@shared/glossary';
 import { CountBadge } from '@client/components/ui/count-badge';
 import { authKeys, useSignOut, useMe } from '@client/features/auth';
 import { useUnreadTotal } from '@client/features/messages';
@@ -30,7 +31,7 @@ export const navigationByRole: Record<Me['role'] | 'anonymous', NavItem[]> = {
     { to: '/help', label: 'Help' },
   ],
   builder: [
-    { to: '/dashboard', label: 'Workbench' },
+    { to: '/dashboard', label: HOME_PAGE_NAMES.builder },
     { to: '/jobs', label: 'My jobs' },
     { to: '/messages', label: 'Messages' },
     { to: '/money', label: 'Money' },
@@ -39,7 +40,7 @@ export const navigationByRole: Record<Me['role'] | 'anonymous', NavItem[]> = {
     { to: '/calculator', label: 'Calculator' },
   ],
   shop: [
-    { to: '/dashboard', label: 'Shop floor' },
+    { to: '/dashboard', label: HOME_PAGE_NAMES.shop },
     { to: '/queue', label: 'Work queue' },
     { to: '/board', label: 'Job board' },
     { to: '/bids', label: 'My bids' },
@@ -49,12 +50,12 @@ export const navigationByRole: Record<Me['role'] | 'anonymous', NavItem[]> = {
     { to: '/calculator', label: 'Calculator' },
   ],
   admin: [
-    { to: '/dashboard', label: 'Operations' },
+    { to: '/dashboard', label: HOME_PAGE_NAMES.admin },
     { to: '/admin/disputes', label: 'Disputes' },
     { to: '/admin/people', label: 'People' },
     { to: '/admin/shops', label: 'Shops' },
     { to: '/admin/ledger', label: 'Ledger' },
-    { to: '/admin/settings', label: 'Fee' },
+    { to: '/admin/settings', label: NAMES.fee },
     { to: '/admin/audit', label: 'Audit log' },
   ],
 };

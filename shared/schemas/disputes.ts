@@ -22,7 +22,7 @@ export const disputeReasonWords: Record<DisputeReason, string> = {
   parts_damaged_or_missing: 'Parts came back damaged or missing',
   other: 'Something else (explain below)',
   builder_silent: 'The builder has not answered past the agreed date',
-  change_order: 'A change order is not being paid or answered',
+  change_order: 'Extra work is not being paid or answered',
 };
 
 /** Days the builder must have been silent before the shop may open a dispute for silence. */

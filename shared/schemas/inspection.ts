@@ -275,7 +275,7 @@ export const milestoneInputSchema = z
     /** Photos the shop uploaded to this job first (POST /api/jobs/:jobId/milestone-photos). */
     photoIds: z
       .array(z.uuid({ error: 'That photo id is not valid.' }), { error: 'Send the photos as a list of ids.' })
-      .max(MAX_PHOTOS_PER_MILESTONE, `A milestone can carry at most ${MAX_PHOTOS_PER_MILESTONE} photos.`)
+      .max(MAX_PHOTOS_PER_MILESTONE, `A progress step can carry at most ${MAX_PHOTOS_PER_MILESTONE} photos.`)
       .refine((ids) => new Set(ids).size === ids.length, 'The same photo is attached twice.')
       .optional(),
   })

@@ -121,6 +121,6 @@ describe('the certificate', () => {
     expect(before).toContain('No limits given: nothing judged');
     expect(before).not.toContain('PASS');
     expect((await funded.builder.post(`/api/jobs/${funded.job.id}/inspection/reject`, { reasons: 'Please add the deck readings.' })).status).toBe(200);
-    expect(await pdfText(funded.builder, funded.job.id, 1)).toContain('Rejected by the builder');
+    expect(await pdfText(funded.builder, funded.job.id, 1)).toContain('Changes asked');
   });
 });

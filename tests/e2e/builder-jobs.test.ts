@@ -259,7 +259,7 @@ describe('a builder posting a job and choosing a shop, in a real browser', () =>
     await expect(acceptDialog.textContent()).resolves.toContain('The other open bid will be declined and its shop told.');
     await acceptDialog.getByRole('button', { name: 'Accept this bid' }).click();
     await acceptDialog.waitFor({ state: 'hidden' });
-    await page.getByText('Status: Awarded', { exact: true }).waitFor();
+    await page.getByText('Status: Awarded, payment due', { exact: true }).waitFor();
 
     // Paying: the builder leaves for the payment page (the local stand-in), is declined once, then pays.
     await page.getByText('held by Tenthmark until you accept the shop’s inspection record', { exact: false }).first().waitFor();

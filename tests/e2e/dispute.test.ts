@@ -81,7 +81,7 @@ describe('a dispute decided by a split, in a real browser', () => {
     await shot(builderPage, 'builder-money');
     await shopPage.goto(suite.url('/money'));
     await expect(historyAmount(shopPage, title, 'Paid to you')).resolves.toBe(formatCents(money.balance.released));
-    await expect(historyAmount(shopPage, title, 'Platform fee')).resolves.toBe(formatCents(money.balance.fee));
+    await expect(historyAmount(shopPage, title, 'Tenthmark fee')).resolves.toBe(formatCents(money.balance.fee));
     await shot(shopPage, 'shop-money');
 
     expect(suite.consoleErrors).toEqual([]);

@@ -341,15 +341,15 @@ describe('the inspection record, from block received to payment released, in a r
     const review = builderPage.getByTestId('inspection-review');
     await expect(review.getByTestId('inspection-verdict').textContent()).resolves.toContain('1 check fails');
     await review.getByText('0.00080 in; allowed ≤ 0.0005 in').waitFor();
-    await review.getByRole('button', { name: 'Reject with reasons' }).click();
-    const dialog = builderPage.getByRole('dialog', { name: 'Reject version 1?' });
-    await dialog.getByRole('button', { name: 'Reject and send the reasons' }).click();
+    await review.getByRole('button', { name: 'Ask for changes' }).click();
+    const dialog = builderPage.getByRole('dialog', { name: 'Ask for changes to version 1?' });
+    await dialog.getByRole('button', { name: 'Send the changes asked' }).click();
     await dialog.getByText('Say what needs redoing.').waitFor();
     await dialog.getByLabel('What needs redoing, and why').fill('Cylinder 3 tapers 0.0008 in; hone it straight and measure again.');
-    await dialog.getByRole('button', { name: 'Reject and send the reasons' }).click();
+    await dialog.getByRole('button', { name: 'Send the changes asked' }).click();
     await dialog.waitFor({ state: 'hidden' });
     await builderPage.getByText('Status: In the shop', { exact: true }).waitFor();
-    await review.getByText('You rejected this version').waitFor();
+    await review.getByText('You asked for changes to this version').waitFor();
 
     // The shop reads the reasons and enters version 2, which starts from version 1's readings.
     const shopPage = await pageFor(lanternHill.email, `/jobs/${job.id}`);
@@ -390,7 +390,7 @@ describe('the inspection record, from block received to payment released, in a r
     await builderPage.getByRole('list', { name: 'Progress on this job' }).getByText('Shipped back by Ridgeline Freight, tracking RF 4471 0093').waitFor();
     await shopPage.getByRole('link', { name: 'Enter the inspection record' }).click();
     await shopPage.getByRole('heading', { level: 1, name: 'Inspection record, version 2' }).waitFor();
-    await shopPage.getByText('The builder rejected version 1').waitFor();
+    await shopPage.getByText('The builder asked for changes to version 1').waitFor();
     const record = shopPage.getByRole('form', { name: 'Inspection record' });
     await expect(record.getByLabel('Cylinder 3 bottom thrust').inputValue()).resolves.toBe('4.0306');
     await expect(record.getByLabel('Cylinder 8 piston diameter').inputValue()).resolves.toBe('4.0280');

@@ -130,7 +130,7 @@ describe('whole journeys through the marketplace, one browser per person', () =>
       const acceptDialog = b.getByRole('dialog', { name: `Accept the bid from ${SHOP_NAME}?` });
       await acceptDialog.getByRole('button', { name: 'Accept this bid' }).click();
       await acceptDialog.waitFor({ state: 'hidden' });
-      await status(b, 'Awarded');
+      await status(b, 'Awarded, payment due');
       await b.getByRole('button', { name: 'Pay and hold for the work' }).click();
       await b.waitForURL(onStandIn);
       await b.getByRole('heading', { name: 'Pay $660.00' }).waitFor();
@@ -222,7 +222,7 @@ describe('whole journeys through the marketplace, one browser per person', () =>
       await s.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Money', exact: true }).click();
       await s.waitForURL(suite.url('/money'));
       await expect(historyAmount(s, title, 'Paid to you')).resolves.toBe(formatCents(balance.released));
-      await expect(historyAmount(s, title, 'Platform fee')).resolves.toBe(formatCents(balance.fee));
+      await expect(historyAmount(s, title, 'Tenthmark fee')).resolves.toBe(formatCents(balance.fee));
       await expect(historyAmount(s, title, 'Builder paid in (held)')).resolves.toBe('$660.00');
       await shot(s, 'money-shop');
 
@@ -271,7 +271,7 @@ describe('whole journeys through the marketplace, one browser per person', () =>
     await expect.poll(async () => (await juno<MoneyView>('GET', `/api/jobs/${job.id}/money`)).payments.at(-1)?.failureMessage ?? '', { timeout: 10_000 }).toMatch(/declined/i);
     await b.getByRole('link', { name: 'Cancel and go back' }).click();
     await b.waitForURL(suite.url(`/jobs/${job.id}?payment=cancelled`));
-    await status(b, 'Awarded');
+    await status(b, 'Awarded, payment due');
     await b.getByText('The last payment did not go through').waitFor();
     await shot(b, 'job-declined');
     await b.getByRole('button', { name: 'Try the payment again' }).click();

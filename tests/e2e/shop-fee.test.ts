@@ -17,7 +17,7 @@ const builder = demoAccounts.find((a) => a.role === 'builder')!;
 const shopEmail = 'desk@kessrow.test';
 
 describe('the shop’s fee and net before it bids', () => {
-  it('when a shop types its line prices, then the bid form shows Tenthmark’s fee and what the shop receives, and My bids shows the same after sending', async () => {
+  it('when a shop types its line prices, then the bid form shows the Tenthmark fee and what the shop receives, and My bids shows the same after sending', async () => {
     const builderApi = await suite.apiAs(builder.email);
     const { job } = await jobInState('open', { builder: builderApi }, { input: { title: 'Deck a small-block, fee shown', neededBy: inDays(20), operations: [{ code: 'deck', quantity: 1 }] } });
     const shopApi = await suite.apiAs(shopEmail);
@@ -32,7 +32,7 @@ describe('the shop’s fee and net before it bids', () => {
     // derived: 8 % of $1,000.00 is $80.00 (rounded half up to the cent, common practice); the shop keeps $920.00
     await expect.poll(() => form.getByTestId('bid-fee').textContent()).toBe('$80.00');
     await expect.poll(() => form.getByTestId('bid-net').textContent()).toBe('$920.00');
-    await form.getByText('Tenthmark’s fee (8%)').waitFor();
+    await form.getByText('Tenthmark fee (8%)').waitFor();
     // Live as the shop types: $123.45 → fee $9.876 rounds to $9.88, net $113.57.
     await form.getByLabel('Line 1: unit price in dollars').fill('123.45');
     await expect.poll(() => form.getByTestId('bid-net').textContent()).toBe('$113.57');
@@ -51,7 +51,7 @@ describe('the shop’s fee and net before it bids', () => {
     await expect.poll(async () => (await shop<{ balance: { held: number; released: number } }>('GET', `/api/jobs/${job.id}/money`)).balance.released, { timeout: 10_000 }).toBeGreaterThan(0);
     await suite.signIn(page, shopEmail, `/jobs/${job.id}`);
     // derived: 8 % of $500.00 is $40.00 kept as the fee; $460.00 goes to the shop
-    await expect.poll(() => page.getByTestId('shop-released').textContent()).toBe('Released: $460.00 was sent to your payout account, after Tenthmark’s fee of $40.00.');
+    await expect.poll(() => page.getByTestId('shop-released').textContent()).toBe('Released: $460.00 was sent to your payout account, after the Tenthmark fee of $40.00.');
     await expect(page.getByText('when the builder accepts your inspection record').count()).resolves.toBe(0);
     await page.getByRole('link', { name: 'Invoice with your fee and net payout (PDF)' }).waitFor();
   });

@@ -37,7 +37,7 @@ describe('the shop reads its own sentences on a job', () => {
     await page.goto(suite.url(`/jobs/${done.job.id}`));
     await expect
       .poll(() => page.getByTestId('job-status-sentence').textContent())
-      .toBe('The builder accepted your results; the payment was released to you, less Tenthmark’s fee.');
+      .toBe('The builder accepted your results; the payment was released to you, less the Tenthmark fee.');
     await page.getByTestId('shop-released').waitFor();
     await expect(page.getByTestId('shop-held').count()).resolves.toBe(0);
     await expectNoBuilderSentences();

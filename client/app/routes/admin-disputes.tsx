@@ -1,12 +1,13 @@
 import { useSearchParams } from 'react-router-dom';
+import { DISPUTE_STATUS } from '@shared/glossary';
 import { PageTitle } from '@client/components/ui/card';
 import { Notice } from '@client/components/ui/notice';
 import { SegmentedControl } from '@client/components/ui/segmented-control';
 import { useDisputeQueue, type DisputeQueueStatus, DisputeQueueTable } from '@client/features/admin';
 
 const statusOptions = [
-  { value: 'open', label: 'Open' },
-  { value: 'resolved', label: 'Decided' },
+  { value: 'open', label: DISPUTE_STATUS.open.label },
+  { value: 'resolved', label: DISPUTE_STATUS.resolved.label },
   { value: 'all', label: 'All' },
 ] as const satisfies ReadonlyArray<{ value: DisputeQueueStatus; label: string }>;
 

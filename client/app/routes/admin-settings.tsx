@@ -1,3 +1,4 @@
+import { NAMES } from '@shared/glossary';
 import { Card, PageTitle } from '@client/components/ui/card';
 import { Notice } from '@client/components/ui/notice';
 import { usePlatformFee, formatFee, formatMoment, PlatformFeeForm } from '@client/features/admin';
@@ -6,7 +7,7 @@ export function AdminSettingsRoute() {
   const fee = usePlatformFee();
   return (
     <div>
-      <PageTitle title="Platform fee" lead="What Tenthmark keeps from each job’s payment to the shop. It is fixed on a job when its bid is accepted." />
+      <PageTitle title={NAMES.fee} lead="What Tenthmark keeps from each job’s payment to the shop. It is fixed on a job when its bid is accepted." />
       {fee.isPending && <p className="text-ink-soft">Loading the fee …</p>}
       {fee.isError && (
         <Notice tone="error" title="The fee could not be loaded" onRetry={() => void fee.refetch()}>

@@ -1,4 +1,5 @@
 import { Link } from 'react-router-dom';
+import { homePageTitle } from '@shared/glossary';
 import type { Me } from '@shared/schemas/auth';
 import { Card, PageTitle } from '@client/components/ui/card';
 import { AdminOverview } from '@client/features/admin';
@@ -9,15 +10,15 @@ import { NeedsYouList } from '@client/features/notifications';
 
 const roleWords: Record<Me['role'], { title: string; lead: string }> = {
   builder: {
-    title: 'Your workbench',
+    title: homePageTitle('builder'),
     lead: 'Post a block for machining, compare what shops offer, and pay only once the measured results check out.',
   },
   shop: {
-    title: 'Your shop floor',
+    title: homePageTitle('shop'),
     lead: 'Find blocks that need your machines, bid with a price and a turnaround, and hand over measured results.',
   },
   admin: {
-    title: 'Operations',
+    title: homePageTitle('admin'),
     lead: 'Keep the marketplace honest: verify shops, settle disagreements and watch the money held for jobs.',
   },
 };

@@ -8,7 +8,7 @@ const answers: Array<{ q: string; a: string[] }> = [
     q: 'How does a held payment work?',
     a: [
       'When you accept a bid you pay its total by card. Tenthmark holds the money; the shop cannot spend it yet, and you cannot lose it to a shop that does not do the work.',
-      'The shop is paid, less Tenthmark’s fee, when you accept its inspection record, or when the review window ends without an answer from you.',
+      'The shop is paid, less the Tenthmark fee, when you accept its inspection record, or when the review window ends without an answer from you.',
     ],
   },
   {

@@ -39,7 +39,7 @@ export function InspectionEntryRoute() {
       <div className="mx-auto flex max-w-lg flex-col gap-4">
         <Notice title="Not waiting for an inspection record">
           {detail.status === 'inspection_submitted'
-            ? 'Your record is with the builder. If the builder rejects it, you can enter a new version here.'
+            ? 'Your record is with the builder. If the builder asks for changes, you can enter a new version here.'
             : detail.status === 'funded'
               ? 'Log the block as received on the job page first; then enter the record when the work is done.'
               : 'This job is not at the stage where the shop enters its inspection record.'}

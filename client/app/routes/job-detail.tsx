@@ -4,7 +4,7 @@ import { Link, useParams } from 'react-router-dom';
 import type { JobDetail } from '@shared/schemas/jobs';
 import { Card } from '@client/components/ui/card';
 import { Notice } from '@client/components/ui/notice';
-import { useMe } from '@client/features/auth';
+import { HomePageLink, useMe } from '@client/features/auth';
 import { bidQueries, BidComparison, ShopBidPanel } from '@client/features/bids';
 import { useJob, JobFiguresPanel, JobOwnerActions, JobLogistics, JobOperations, JobSpec, JobStatusBadge, otherShopExplain, plural, statusWords, workingShopExplain, PhotoGallery, PhotoUploader } from '@client/features/jobs';
 import { ConversationPanel, type Bidder } from '@client/features/messages';
@@ -47,9 +47,7 @@ function LoadFailed({ error, onRetry }: { error: Error; onRetry: () => void }) {
         <p className={cn(!missing && 'mt-1')}>{lead}</p>
       </Notice>
       <p className="mt-4">
-        <Link to="/dashboard" className="font-semibold text-slate-700 underline underline-offset-4">
-          Back to your dashboard
-        </Link>
+        <HomePageLink before="Back to" className="font-semibold text-slate-700 underline underline-offset-4" />
       </p>
     </div>
   );
@@ -61,8 +59,8 @@ type Reader = 'working shop' | 'other shop' | 'other' | null;
 function statusSentence(job: JobDetail, reader: Reader): string | null {
   if (reader === null) return null;
   if (reader === 'working shop') return workingShopExplain[job.status];
-  if (reader === 'other shop' && job.awardedBidId) return job.status === 'cancelled' ? statusWords.cancelled.explain : otherShopExplain;
-  return statusWords[job.status].explain;
+  if (reader === 'other shop' && job.awardedBidId) return job.status === 'cancelled' ? (statusWords.cancelled.explain ?? null) : otherShopExplain;
+  return statusWords[job.status].explain ?? null;
 }
 
 function Header({ job, reader }: { job: JobDetail; reader: Reader }) {

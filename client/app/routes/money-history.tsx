@@ -1,3 +1,4 @@
+import { NAMES } from '@shared/glossary';
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import { Link } from 'react-router-dom';
 import { formatCents } from '@shared/catalogue';
@@ -49,7 +50,7 @@ const totalWords: Record<Side, Array<[keyof MoneyTotals, string]>> = {
     ['paidIn', 'Builders paid in'],
     ['held', 'Held at the end of the period'],
     ['released', 'Paid to you (net)'],
-    ['fee', 'Tenthmark fee'],
+    ['fee', NAMES.fee],
     ['refunded', 'Refunded to builders'],
   ],
 };
@@ -78,13 +79,13 @@ type Side = 'builder' | 'shop';
 
 /** What each ledger entry means to the person reading it. */
 const kindWords: Record<Side, Record<MoneyHistoryRow['kind'], string>> = {
-  builder: { paid_in: 'You paid in', released: 'Paid to the shop', fee: 'Platform fee', refunded: 'Refunded to you' },
-  shop: { paid_in: 'Builder paid in (held)', released: 'Paid to you', fee: 'Platform fee', refunded: 'Refunded to the builder' },
+  builder: { paid_in: 'You paid in', released: 'Paid to the shop', fee: NAMES.fee, refunded: 'Refunded to you' },
+  shop: { paid_in: 'Builder paid in (held)', released: 'Paid to you', fee: NAMES.fee, refunded: 'Refunded to the builder' },
 };
 
 const leads: Record<Side, string> = {
-  builder: 'Every payment on your jobs, newest first: what you paid in, what went to the shop, the platform fee, and refunds.',
-  shop: 'Every payment on your jobs, newest first: what builders paid in and is held, what was paid to you, the platform fee, and refunds.',
+  builder: 'Every payment on your jobs, newest first: what you paid in, what went to the shop, the Tenthmark fee, and refunds.',
+  shop: 'Every payment on your jobs, newest first: what builders paid in and is held, what was paid to you, the Tenthmark fee, and refunds.',
 };
 
 

@@ -1,5 +1,6 @@
 import { Link } from 'react-router-dom';
 import { formatCents } from '@shared/catalogue';
+import { jobStatusInSentence } from '@shared/glossary';
 import { feeRateWords } from '@shared/money';
 import { PageTitle } from '@client/components/ui/card';
 import { Notice } from '@client/components/ui/notice';
@@ -7,17 +8,6 @@ import { useMyBids, BidStatusBadge, days, formatMoment } from '@client/features/
 import { TableHead } from '@client/components/ui/table-head';
 import { formatDay } from '@client/lib/dates';
 
-const jobStatusWords: Record<string, string> = {
-  open: 'open for bids',
-  awarded: 'awarded',
-  funded: 'paid, held until the builder accepts the inspection record',
-  in_work: 'in work',
-  inspection_submitted: 'inspection sent',
-  completed: 'completed',
-  disputed: 'in dispute',
-  resolved: 'resolved',
-  cancelled: 'cancelled',
-};
 
 /** A due day (a calendar date, UTC) as people read it. */
 
@@ -55,7 +45,7 @@ export function MyBidsRoute() {
                     <Link to={`/jobs/${bid.jobId}`} className="font-bold text-slate-700 underline-offset-4 hover:underline">
                       {bid.jobTitle || 'Untitled job'}
                     </Link>
-                    <span className="block text-ink-soft">Job {jobStatusWords[bid.jobStatus] ?? bid.jobStatus}</span>
+                    <span className="block text-ink-soft">Job {jobStatusInSentence(bid.jobStatus)}</span>
                   </th>
                   <td className="py-3 pr-4">
                     <BidStatusBadge status={bid.status} />

@@ -19,7 +19,7 @@ const sections = [
     heading: 'Jobs, bids and payment',
     paragraphs: [
       'A builder describes the work and its limits truthfully. A shop bids only on work it can do to those limits, within the time it states.',
-      'When a builder accepts a bid and pays, Tenthmark holds the money. It goes to the shop, less Tenthmark’s fee, when the builder accepts the inspection record or the review window ends without an answer; it goes back to the builder if the job is cancelled before work starts or a dispute decides so.',
+      'When a builder accepts a bid and pays, Tenthmark holds the money. It goes to the shop, less the Tenthmark fee, when the builder accepts the inspection record or the review window ends without an answer; it goes back to the builder if the job is cancelled before work starts or a dispute decides so.',
       'Fees are shown before a bid is placed and fixed when it is accepted.',
     ],
   },

@@ -1,13 +1,14 @@
 import { useEffect, useRef } from 'react';
-import { Link, useSearchParams } from 'react-router-dom';
+import { useSearchParams } from 'react-router-dom';
 import { Card, PageTitle } from '@client/components/ui/card';
 import { Notice } from '@client/components/ui/notice';
-import { useVerifyEmail } from '@client/features/auth';
+import { HomePageLink, useHomePageName, useVerifyEmail } from '@client/features/auth';
 
 export function VerifyEmailRoute() {
   const [params] = useSearchParams();
   const token = params.get('token') ?? '';
   const verify = useVerifyEmail();
+  const home = useHomePageName();
   const sent = useRef(false);
   useEffect(() => {
     // Once per visit, even under React's double effects in development.
@@ -24,12 +25,12 @@ export function VerifyEmailRoute() {
         {verify.isPending && <Notice>Confirming …</Notice>}
         {verify.isSuccess && (
           <Notice tone="success" title="Confirmed">
-            Thank you. <Link to="/dashboard" className="underline">Go to your dashboard</Link>.
+            Thank you. <HomePageLink before="Go to" className="underline" />.
           </Notice>
         )}
         {verify.isError && (
           <Notice tone="error" title="That link did not work">
-            {verify.error.message} You can send a new one from your dashboard.
+            {verify.error.message} You can send a new one from {home}.
           </Notice>
         )}
       </Card>

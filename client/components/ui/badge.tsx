@@ -1,7 +1,11 @@
 import type { ReactNode } from 'react';
+import type { Term, Tone } from '@shared/glossary';
 import { cn } from '@client/lib/cn';
 
 export type BadgeTone = 'neutral' | 'info' | 'success' | 'caution' | 'error' | 'muted';
+
+/** The badge colour for each tone of the glossary (shared/glossary.ts). */
+export const toneOfTerm: Record<Tone, BadgeTone> = { success: 'success', warning: 'caution', danger: 'error', neutral: 'neutral', active: 'info', quiet: 'muted' };
 
 const tones: Record<BadgeTone, string> = {
   neutral: 'bg-slate-50 text-slate-800 ring-slate-300',
@@ -18,5 +22,15 @@ export function Badge({ tone = 'neutral', children, className }: { tone?: BadgeT
     <span className={cn('inline-flex items-center gap-1 whitespace-nowrap rounded-full px-2.5 py-0.5 text-sm font-bold ring-1', tones[tone], className)}>
       {children}
     </span>
+  );
+}
+
+/** A status from the glossary as a badge, in its name and colour. */
+export function TermBadge({ term, className, prefix }: { term: Term; className?: string; prefix?: string }) {
+  return (
+    <Badge tone={toneOfTerm[term.tone]} className={className}>
+      {prefix && <span className="sr-only">{prefix}</span>}
+      {term.label}
+    </Badge>
   );
 }

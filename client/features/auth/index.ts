@@ -11,6 +11,7 @@ export { ExportData } from './components/export-data';
 export { ConsentField } from './components/consent-field';
 export { ConfirmEmailNotice, useNeedsEmailConfirmation } from './components/confirm-email-notice';
 export { GithubButton } from './components/github-button';
+export { HomePageLink, useHomePageName } from './components/home-page-link';
 export { NewPasswordFields } from './components/new-password-fields';
 export { RolePicker } from './components/role-picker';
 export { SignInForm } from './components/sign-in-form';

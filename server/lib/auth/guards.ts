@@ -38,7 +38,7 @@ export function assertEmailConfirmed(user: { emailVerifiedAt: Date | null }, act
   if (user.emailVerifiedAt) return;
   throw new AppError(
     'email_unconfirmed',
-    `Confirm your e-mail address before you ${action}: shops and builders rely on reaching you about the job. Follow the link we e-mailed you, or ask for a new link from your dashboard.`,
+    `Confirm your e-mail address before you ${action}: shops and builders rely on reaching you about the job. Follow the link we e-mailed you, or ask for a new link from your home page.`,
     403,
   );
 }

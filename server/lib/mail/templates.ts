@@ -1,7 +1,10 @@
 /**
  * E-mail templates in the product's look: a plain-text part and an HTML part
  * built from the same words. Inline styles only, since mail clients drop <style>.
+ * Statuses and the names of things come from the glossary (shared/glossary.ts).
  */
+import { NAMES, RECORD_STATUS } from '../../../shared/glossary';
+
 export interface RenderedMail {
   template: string;
   subject: string;
@@ -235,7 +238,7 @@ export function paymentReceiptMail(input: { name: string; side: 'builder' | 'sho
     paragraphs:
       input.side === 'builder'
         ? [`We received your payment of ${money(input.amountCents)} for ${input.what} on “${input.jobTitle}”.`, 'It is held until you accept the shop’s inspection record; then it goes to the shop.']
-        : [`The builder paid ${money(input.amountCents)} for ${input.what} on “${input.jobTitle}”.`, 'Tenthmark holds it while you work. When the builder accepts your inspection record (or the review window ends without an answer), it goes to your payout account, less Tenthmark’s fee.'],
+        : [`The builder paid ${money(input.amountCents)} for ${input.what} on “${input.jobTitle}”.`, 'Tenthmark holds it while you work. When the builder accepts your inspection record (or the review window ends without an answer), it goes to your payout account, less the Tenthmark fee.'],
     action: { label: 'Open the job', url: input.url },
   });
 }
@@ -245,7 +248,7 @@ export function payoutSentMail(input: { name: string; jobTitle: string; amountCe
     template: 'payout_sent',
     subject: `${money(input.amountCents)} is on its way for “${input.jobTitle}”`,
     greeting: `Hello ${input.name},`,
-    paragraphs: [`We sent ${money(input.amountCents)} to your payout account for “${input.jobTitle}” (Tenthmark’s fee: ${money(input.feeCents)}).`],
+    paragraphs: [`We sent ${money(input.amountCents)} to your payout account for “${input.jobTitle}” (${NAMES.fee}: ${money(input.feeCents)}).`],
     action: { label: 'Open the job', url: input.url },
   });
 }
@@ -306,8 +309,8 @@ export function inspectionSubmittedMail(input: { name: string; shopName: string;
     paragraphs: [
       `${input.shopName} submitted the measured inspection record for “${input.jobTitle}”. By the job’s limits it ${input.pass ? 'passes every check' : 'fails at least one check'}.`,
       input.autoAccept === false
-        ? `Accept it to release the held payment to the shop, or reject it with your reasons. Because at least one check does not conform, it is never accepted without you: after ${input.dueText} it still waits for your answer.`
-        : `Accept it to release the held payment to the shop, or reject it with your reasons. With no answer by ${input.dueText}, it counts as accepted.`,
+        ? `Accept it to release the held payment to the shop, or ask for changes, with your reasons. Because at least one check does not conform, it is never accepted without you: after ${input.dueText} it still waits for your answer.`
+        : `Accept it to release the held payment to the shop, or ask for changes, with your reasons. With no answer by ${input.dueText}, it counts as accepted.`,
     ],
     action: { label: 'Review the record', url: input.url },
   });
@@ -320,7 +323,7 @@ export function reviewReminderMail(input: { name: string; jobTitle: string; dueT
     greeting: `Hello ${input.name},`,
     paragraphs: [
       input.autoAccept === false
-        ? `The review window for the inspection record for “${input.jobTitle}” ends on ${input.dueText}. At least one check does not conform, so it is not accepted without you: please accept it (naming those checks) or reject it with your reasons.`
+        ? `The review window for the inspection record for “${input.jobTitle}” ends on ${input.dueText}. At least one check does not conform, so it is not accepted without you: please accept it (naming those checks) or ask for changes, with your reasons.`
         : `The inspection record for “${input.jobTitle}” counts as accepted on ${input.dueText} unless you answer before then.`,
     ],
     action: { label: 'Review the record', url: input.url },
@@ -334,7 +337,7 @@ export function reviewReminderMail(input: { name: string; jobTitle: string; dueT
 export function reviewWindowHeldMail(input: { name: string; reader: 'builder' | 'shop' | 'admin'; jobTitle: string; checks: string[]; url: string }): RenderedMail {
   const list = input.checks.join('; ');
   const next = {
-    builder: 'The record waits for you: accept it, confirming each of those checks, or reject it with your reasons. The payment stays held until then.',
+    builder: 'The record waits for you: accept it, confirming each of those checks, or ask for changes, with your reasons. The payment stays held until then.',
     shop: 'The record waits for the builder’s answer and the payment stays held. You may talk it over with the builder on the job page.',
     admin: 'Nothing was paid out. The record waits for the builder; look in if it stays unanswered.',
   }[input.reader];
@@ -352,13 +355,13 @@ export function reviewWindowHeldMail(input: { name: string; reader: 'builder' | 
 
 export function inspectionDecidedMail(input: { name: string; jobTitle: string; decision: 'accepted' | 'accepted_by_window' | 'rejected'; reasons?: string; url: string }): RenderedMail {
   const words = {
-    accepted: 'The builder accepted your inspection record. The held payment is on its way to your payout account, less Tenthmark’s fee.',
-    accepted_by_window: 'The review window ended with no answer, so your inspection record counts as accepted. The held payment is on its way to your payout account, less Tenthmark’s fee.',
+    accepted: 'The builder accepted your inspection record. The held payment is on its way to your payout account, less the Tenthmark fee.',
+    accepted_by_window: 'The review window ended with no answer, so your inspection record counts as accepted. The held payment is on its way to your payout account, less the Tenthmark fee.',
     rejected: 'The builder did not accept your inspection record yet and asks for another look.',
   }[input.decision];
   return render({
     template: `inspection_${input.decision}`,
-    subject: input.decision === 'rejected' ? `Changes asked on “${input.jobTitle}”` : `“${input.jobTitle}” is accepted`,
+    subject: input.decision === 'rejected' ? `${RECORD_STATUS.rejected.label} on “${input.jobTitle}”` : `“${input.jobTitle}” is accepted`,
     greeting: `Hello ${input.name},`,
     paragraphs: [words, ...(input.reasons ? [`Their reasons: ${input.reasons}`] : [])],
     action: { label: 'Open the job', url: input.url },
@@ -396,10 +399,10 @@ export function disputeAnsweredMail(input: { name: string; jobTitle: string; url
 export function disputeDecidedMail(input: { name: string; jobTitle: string; outcome: 'release' | 'refund' | 'split'; shopCents: number; refundCents: number; decision: string; url: string }): RenderedMail {
   const result =
     input.outcome === 'release'
-      ? `The held payment of ${money(input.shopCents)} goes to the shop (less Tenthmark’s fee).`
+      ? `The held payment of ${money(input.shopCents)} goes to the shop (less the Tenthmark fee).`
       : input.outcome === 'refund'
         ? `The held payment of ${money(input.refundCents)} goes back to the builder.`
-        : `The held payment is split: ${money(input.shopCents)} to the shop (less Tenthmark’s fee) and ${money(input.refundCents)} back to the builder.`;
+        : `The held payment is split: ${money(input.shopCents)} to the shop (less the Tenthmark fee) and ${money(input.refundCents)} back to the builder.`;
   return render({
     template: 'dispute_decided',
     subject: `The dispute on “${input.jobTitle}” is decided`,

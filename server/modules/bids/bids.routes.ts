@@ -52,7 +52,7 @@ export const bidsRoutes = [
   route({
     method: 'get',
     path: '/api/bids/fee-rate',
-    summary: 'Tenthmark’s fee rate now, for a shop working out what it keeps of a bid',
+    summary: 'The Tenthmark fee rate now, for a shop working out what it keeps of a bid',
     access: 'shop',
     reply: { json: feeRateSchema },
     handler: ({ deps }) => feeRateNow(deps),

@@ -84,7 +84,7 @@ async function openingRules(db: Executor, parties: JobParties, side: Side, now: 
   if (order) reasons.push('change_order');
   return {
     reasons,
-    why: `The shop can open a dispute when the builder has not written for ${BUILDER_SILENCE_DAYS} days after the agreed finish date (${dueDay}), or over a change order that is not paid.`,
+    why: `The shop can open a dispute when the builder has not written for ${BUILDER_SILENCE_DAYS} days after the agreed finish date (${dueDay}), or over extra work that is not paid.`,
   };
 }
 

@@ -40,12 +40,12 @@ export function receiptPdf(r: ReceiptData): Promise<Buffer> {
   p.line(`Receipt number ${r.number}`);
   p.line(`Paid ${stamp(r.paidAt)} by ${r.builderName}`);
   partiesBlock(p, r);
-  p.heading(r.what === 'bid' ? 'For the accepted bid' : 'For extra work (change order)');
+  p.heading(r.what === 'bid' ? 'For the accepted bid' : 'For extra work');
   linesBlock(p, r.lines, r.currency);
   p.row('Total paid', money(r.totalCents, r.currency), { bold: true });
   p.heading('Held until you accept the work');
   p.line(
-    'Tenthmark holds this payment until you accept the shop’s inspection results (or the review window closes). Then it goes to the shop, less Tenthmark’s fee; the fee is not added to what you pay.',
+    'Tenthmark holds this payment until you accept the shop’s inspection results (or the review window closes). Then it goes to the shop, less the Tenthmark fee; the fee is not added to what you pay.',
   );
   p.row('Held on this job now', money(r.heldCents, r.currency));
   p.footnote('A receipt for a payment made through Tenthmark. Keep it with the job’s inspection record.');

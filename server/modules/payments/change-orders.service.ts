@@ -39,7 +39,7 @@ export async function changeOrdersFor(deps: PaymentDeps, user: User, jobId: stri
 
 async function builderChangeOrder(deps: PaymentDeps, user: User, id: string) {
   const [row] = await deps.db.select().from(changeOrders).where(eq(changeOrders.id, id));
-  const job = mustBeBuilder(row ? await findJob(deps.db, row.jobId) : undefined, user, 'No change order with that id.');
+  const job = mustBeBuilder(row ? await findJob(deps.db, row.jobId) : undefined, user, 'No extra work with that id.');
   return { row, job };
 }
 
@@ -47,7 +47,7 @@ async function builderChangeOrder(deps: PaymentDeps, user: User, id: string) {
 export async function approveChangeOrder(deps: PaymentDeps, user: User, id: string): Promise<{ url: string }> {
   assertEmailConfirmed(user, 'pay');
   const { row, job } = await builderChangeOrder(deps, user, id);
-  if (!['proposed', 'approved'].includes(row.status)) throw conflict('This change order is already settled.', 'change_order_settled');
+  if (!['proposed', 'approved'].includes(row.status)) throw conflict('This extra work is already answered.', 'change_order_settled');
   if (!['funded', 'in_work'].includes(job.status)) throw conflict('The job is past the point where extra work can be paid for.', 'job_not_in_work');
   await deps.db.update(changeOrders).set({ status: 'approved', decidedAt: new Date() }).where(eq(changeOrders.id, row.id));
   return startChangeOrderCheckout(deps, job, row);
@@ -64,9 +64,9 @@ export async function declineChangeOrder(deps: PaymentDeps, user: User, id: stri
     // The job's lock first, as a payment arriving for this change order takes it.
     await findJob(tx, row.jobId, { forUpdate: true });
     const [current] = await tx.select().from(changeOrders).where(eq(changeOrders.id, row.id)).for('update');
-    if (!['proposed', 'approved'].includes(current.status)) throw conflict('Only a change order that is not paid can be declined.', 'change_order_settled');
+    if (!['proposed', 'approved'].includes(current.status)) throw conflict('Only extra work that is not paid can be declined.', 'change_order_settled');
     const paid = await tx.select({ id: payments.id }).from(payments).where(and(eq(payments.changeOrderId, row.id), inArray(payments.status, ['paid'])));
-    if (paid.length) throw conflict('This change order is paid.', 'change_order_settled');
+    if (paid.length) throw conflict('This extra work is paid.', 'change_order_settled');
     const [declined] = await tx.update(changeOrders).set({ status: 'declined', decidedAt: new Date() }).where(eq(changeOrders.id, row.id)).returning();
     await closeOpenCheckouts(tx, { jobId: row.jobId, changeOrderId: row.id });
     return declined;

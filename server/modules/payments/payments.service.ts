@@ -1,6 +1,7 @@
 import { and, asc, eq, inArray, lte, ne, sql } from 'drizzle-orm';
 import type Stripe from 'stripe';
 import { formatCents } from '../../../shared/catalogue';
+import { NAMES } from '../../../shared/glossary';
 import type { Database, Executor } from '../../db/client';
 import { bids, changeOrders, jobs, moneyMoves, payments, shops, type User } from '../../db/schema';
 import { assertEmailConfirmed } from '../../lib/auth/guards';
@@ -147,14 +148,14 @@ export async function startChangeOrderCheckout(
     const locked = await findJob(tx, job.id, { forUpdate: true });
     const [current] = await tx.select({ status: changeOrders.status }).from(changeOrders).where(eq(changeOrders.id, order.id));
     if (!locked || !CHANGE_ORDER_PAYABLE.has(locked.status) || current?.status !== 'approved') {
-      throw conflict('This change order can no longer be paid.', 'change_order_settled');
+      throw conflict('This extra work can no longer be paid.', 'change_order_settled');
     }
     const [existing] = await tx
       .select()
       .from(payments)
       .where(and(eq(payments.changeOrderId, order.id), inArray(payments.status, ['pending', 'paid'])))
       .for('update');
-    if (existing?.status === 'paid') throw conflict('This change order is already paid.', 'already_paid');
+    if (existing?.status === 'paid') throw conflict('This extra work is already paid.', 'already_paid');
     if (existing) return existing;
     const [created] = await tx
       .insert(payments)
@@ -220,7 +221,7 @@ export async function applyCheckoutSession(deps: PaymentDeps, sessionId: string)
       await tx.update(changeOrders).set({ status: 'paid' }).where(eq(changeOrders.id, payment.changeOrderId));
     }
     const parties = await mailPartiesOf(tx, job.id);
-    const receipt = { jobTitle: job.title, amountCents: payment.amountCents, what: payment.kind === 'bid' ? 'the accepted bid' : 'a change order', url: `${deps.appUrl}/jobs/${job.id}` };
+    const receipt = { jobTitle: job.title, amountCents: payment.amountCents, what: payment.kind === 'bid' ? 'the accepted bid' : 'extra work', url: `${deps.appUrl}/jobs/${job.id}` };
     await enqueueMail(tx, parties.builderEmail, paymentReceiptMail({ ...receipt, name: parties.builderName, side: 'builder' }));
     if (parties.shopEmail) await enqueueMail(tx, parties.shopEmail, paymentReceiptMail({ ...receipt, name: parties.shopName!, side: 'shop' }));
     const held = `${formatCents(payment.amountCents)} for ${receipt.what} on “${job.title}” is paid and held`;
@@ -440,7 +441,7 @@ async function settleJobIfEmpty(deps: PaymentDeps, tx: Executor, jobId: string, 
   const url = `${deps.appUrl}/jobs/${jobId}`;
   if (balance.released + balance.fee > 0 && parties.shopEmail) {
     await enqueueMail(tx, parties.shopEmail, payoutSentMail({ name: parties.shopName!, jobTitle: job.title, amountCents: balance.released, feeCents: balance.fee, url }));
-    await notices.add(tx, parties.shopUserId!, 'payment_released', { jobId, text: `${formatCents(balance.released)} for “${job.title}” was paid out to you (fee ${formatCents(balance.fee)}).`, href: `/jobs/${jobId}` });
+    await notices.add(tx, parties.shopUserId!, 'payment_released', { jobId, text: `${formatCents(balance.released)} for “${job.title}” was paid out to you (${NAMES.fee} ${formatCents(balance.fee)}).`, href: `/jobs/${jobId}` });
   }
   if (balance.refunded > 0) {
     await enqueueMail(tx, parties.builderEmail, refundSentMail({ name: parties.builderName, jobTitle: job.title, amountCents: balance.refunded, url }));

@@ -266,8 +266,11 @@ describe('dynamicCompression', () => {
           const [early, late] = a <= b ? [a, b] : [b, a];
           const first = dynamicCompression({ ...circleTrack, rodLength, intakeClosingDegAbdc: early });
           const second = dynamicCompression({ ...circleTrack, rodLength, intakeClosingDegAbdc: late });
-          expect(first.dynamicRatio).toBeLessThanOrEqual(first.staticRatio); // derived: x ≤ stroke for 180° ≤ θ ≤ 360°
-          expect(second.dynamicRatio).toBeLessThanOrEqual(first.dynamicRatio); // derived: x falls from 180° to 360°
+          // Near bottom centre the piston barely moves, so two angles a millionth of a degree apart may differ
+          // in the last bits of a double (fast-check found 0° against 1.4e-6°): allow one part in 10¹².
+          const roundOff = 1 + 1e-12;
+          expect(first.dynamicRatio).toBeLessThanOrEqual(first.staticRatio * roundOff); // derived: x ≤ stroke for 180° ≤ θ ≤ 360°
+          expect(second.dynamicRatio).toBeLessThanOrEqual(first.dynamicRatio * roundOff); // derived: x falls from 180° to 360°
         },
       ),
     );

@@ -1,3 +1,4 @@
+import { JOB_STATUS, NAMES } from '@shared/glossary';
 import type { DisputeOutcome } from '@shared/schemas/disputes';
 import type { LedgerKind } from '../api/admin-ledger';
 
@@ -19,7 +20,7 @@ export const sideWords: Record<'builder' | 'shop', string> = { builder: 'Builder
 export const ledgerKindWords: Record<LedgerKind, string> = {
   paid_in: 'Paid in',
   released: 'Paid to the shop',
-  fee: 'Fee kept',
+  fee: NAMES.fee,
   refunded: 'Refunded',
 };
 
@@ -32,15 +33,5 @@ export const outcomeWords: Record<DisputeOutcome, string> = {
 /** A fee in basis points as a percentage with two decimals: 750 → "7.50 %". */
 export const formatFee = (feeBps: number) => `${(feeBps / 100).toFixed(2)} %`;
 
-export const jobStatusWords: Record<string, string> = {
-  draft: 'Draft',
-  open: 'Open for bids',
-  awarded: 'Awarded',
-  funded: 'Paid and held',
-  in_work: 'In the shop',
-  inspection_submitted: 'Results to review',
-  completed: 'Completed',
-  disputed: 'In dispute',
-  resolved: 'Dispute settled',
-  cancelled: 'Cancelled',
-};
+/** A job's status by its name in the glossary. */
+export const jobStatusWords: Record<string, string> = Object.fromEntries(Object.entries(JOB_STATUS).map(([status, term]) => [status, term.label]));

@@ -1,4 +1,5 @@
 import { formatCents } from '@shared/catalogue';
+import { NAMES, PAYMENT_STATUS } from '@shared/glossary';
 import type { MoneyView } from '@shared/schemas/payments';
 import { Notice } from '@client/components/ui/notice';
 import { formatMoment } from './admin-words';
@@ -14,13 +15,11 @@ function Row({ label, cents, strong = false, testId }: { label: string; cents: n
   );
 }
 
-const paymentStatusWords: Record<MoneyView['payments'][number]['status'], string> = {
-  pending: 'waiting',
-  paid: 'paid',
-  failed: 'failed',
-  expired: 'expired',
-  refunded: 'arrived when it could no longer be used; refunded in full',
-};
+/** A payment's status in a sentence: "paid", or "refunded (it arrived when it could no longer be used …)". */
+function paymentStatusWords(status: MoneyView['payments'][number]['status']): string {
+  const term = PAYMENT_STATUS[status];
+  return status === 'refunded' && term.explain ? `${term.label.toLowerCase()}: ${term.explain.charAt(0).toLowerCase()}${term.explain.slice(1, -1)}` : term.label.toLowerCase();
+}
 
 /** What the job's money is now: paid in, and where it went; held is what a decision moves. */
 export function DisputeMoney({ money }: { money: MoneyView }) {
@@ -30,7 +29,7 @@ export function DisputeMoney({ money }: { money: MoneyView }) {
       <dl className="text-sm">
         <Row label="Paid in by the builder" cents={balance.paidIn} />
         <Row label="Paid to the shop" cents={balance.released} />
-        <Row label="Tenthmark’s fee" cents={balance.fee} />
+        <Row label={NAMES.fee} cents={balance.fee} />
         <Row label="Refunded to the builder" cents={balance.refunded} />
         <Row label="Held now" cents={balance.held} strong testId="case-held" />
       </dl>
@@ -48,8 +47,8 @@ export function DisputeMoney({ money }: { money: MoneyView }) {
           <ul className="mt-2 flex flex-col gap-1">
             {money.payments.map((payment) => (
               <li key={payment.id}>
-                {payment.kind === 'bid' ? 'Accepted bid' : 'Change order'}: <span className="font-semibold tabular-nums">{formatCents(payment.amountCents)}</span>,{' '}
-                {paymentStatusWords[payment.status]}
+                {payment.kind === 'bid' ? 'Accepted bid' : NAMES.extraWork}: <span className="font-semibold tabular-nums">{formatCents(payment.amountCents)}</span>,{' '}
+                {paymentStatusWords(payment.status)}
                 {payment.paidAt && <> on {formatMoment(payment.paidAt)}</>}
                 {payment.failureMessage && <span className="text-fail"> ({payment.failureMessage})</span>}
               </li>

@@ -1,13 +1,14 @@
 import { Link } from 'react-router-dom';
 import { formatCents } from '@shared/catalogue';
+import { DISPUTE_STATUS } from '@shared/glossary';
 import { disputeReasonWords, type DisputeQueueRow } from '@shared/schemas/disputes';
-import { Badge } from '@client/components/ui/badge';
+import { TermBadge } from '@client/components/ui/badge';
 import { cn } from '@client/lib/cn';
 import { formatAge, formatMoment, sideWords } from './admin-words';
 import { TableHead } from '@client/components/ui/table-head';
 
 export function DisputeStatusBadge({ status }: { status: 'open' | 'resolved' }) {
-  return status === 'open' ? <Badge tone="caution">Open</Badge> : <Badge tone="muted">Decided</Badge>;
+  return <TermBadge term={DISPUTE_STATUS[status]} />;
 }
 
 /** The dispute queue: one row per dispute, the job title leading to the case. */

@@ -2,6 +2,7 @@ import { useId, useState } from 'react';
 import { formatCents } from '@shared/catalogue';
 import { disputeReasonWords, type EvidenceItem } from '@shared/schemas/disputes';
 import type { InspectionResults } from '@shared/schemas/inspection';
+import { EXTRA_WORK_STATUS, NAMES } from '@shared/glossary';
 import { INSPECTION_STATUS_WORDS } from '@shared/inspection-words';
 import { Badge, type BadgeTone } from '@client/components/ui/badge';
 import { CheckboxField } from '@client/components/ui/checkbox-field';
@@ -16,9 +17,9 @@ type Group = 'dispute' | 'message' | 'milestone' | 'inspection' | 'change_order'
 const groups: Record<Group, { label: string; tone: BadgeTone }> = {
   dispute: { label: 'Dispute', tone: 'error' },
   message: { label: 'Message', tone: 'neutral' },
-  milestone: { label: 'Milestone', tone: 'info' },
+  milestone: { label: NAMES.progress, tone: 'info' },
   inspection: { label: 'Inspection record', tone: 'caution' },
-  change_order: { label: 'Change order', tone: 'neutral' },
+  change_order: { label: NAMES.extraWork, tone: 'neutral' },
   money: { label: 'Money', tone: 'success' },
   job_photo: { label: 'Job photos', tone: 'muted' },
 };
@@ -26,21 +27,15 @@ const groups: Record<Group, { label: string; tone: BadgeTone }> = {
 const filterLabels: Record<Group, string> = {
   dispute: 'Dispute statements',
   message: 'Messages',
-  milestone: 'Milestones',
+  milestone: NAMES.progress,
   inspection: 'Inspection records',
-  change_order: 'Change orders',
+  change_order: NAMES.extraWork,
   money: 'Money',
   job_photo: 'Job photos',
 };
 
 const groupOf = (item: EvidenceItem): Group => (item.kind === 'dispute_opened' || item.kind === 'dispute_answered' ? 'dispute' : item.kind);
 
-const changeOrderStatusWords: Record<string, string> = {
-  proposed: 'Proposed, not answered',
-  approved: 'Approved, not paid yet',
-  paid: 'Paid',
-  declined: 'Declined',
-};
 
 const figure = new Intl.NumberFormat(undefined, { maximumFractionDigits: 4 });
 
@@ -164,7 +159,7 @@ function ItemBody({ item, builderName, shopName }: { item: EvidenceItem; builder
       return (
         <>
           <p>
-            <span className="font-semibold tabular-nums">{formatCents(item.amountCents)}</span> · {changeOrderStatusWords[item.status] ?? item.status}
+            <span className="font-semibold tabular-nums">{formatCents(item.amountCents)}</span> · {EXTRA_WORK_STATUS[item.status].label}
           </p>
           <p className="whitespace-pre-wrap break-words">{item.description}</p>
         </>

@@ -45,7 +45,7 @@ function prepare(values: FeeFields): PreparedInput {
 // The shared schema checks the basis points; the percentage text is read first, like dollars are.
 const resolver = dollarsFormResolver<FeeFields, FeeInput>(platformFeeSchema, prepare);
 
-/** A new platform fee, confirmed before it is saved; it applies to bids accepted from then on. */
+/** A new Tenthmark fee, confirmed before it is saved; it applies to bids accepted from then on. */
 export function PlatformFeeForm({ current }: { current: PlatformFee }) {
   const form = useForm<FeeFields, unknown, FeeInput>({ resolver, defaultValues: { percent: (current.feeBps / 100).toFixed(2) } });
   const [pending, setPending] = useState<FeeInput>();
@@ -73,7 +73,7 @@ export function PlatformFeeForm({ current }: { current: PlatformFee }) {
   });
 
   return (
-    <form onSubmit={onSubmit} noValidate className="flex flex-col gap-4" aria-label="Change the platform fee">
+    <form onSubmit={onSubmit} noValidate className="flex flex-col gap-4" aria-label="Change the Tenthmark fee">
       {formError && <Notice tone="error">{formError}</Notice>}
       <TextField
         label="New fee (percent)"
@@ -94,7 +94,7 @@ export function PlatformFeeForm({ current }: { current: PlatformFee }) {
         open={pending !== undefined}
         onClose={() => !save.isPending && setPending(undefined)}
         onConfirm={() => pending && save.mutate(pending)}
-        title="Change the platform fee?"
+        title="Change the Tenthmark fee?"
         description={
           pending && (
             <p>

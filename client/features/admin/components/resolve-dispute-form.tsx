@@ -127,7 +127,7 @@ export function ResolveDisputeForm({ data }: { data: DisputeCase }) {
   });
 
   const outcomes: Array<{ value: DisputeOutcome; label: string; explain: string }> = [
-    { value: 'release', label: 'Release in full', explain: `All ${formatCents(heldCents)} held goes to ${shopName}, less Tenthmark’s fee.` },
+    { value: 'release', label: 'Release in full', explain: `All ${formatCents(heldCents)} held goes to ${shopName}, less the Tenthmark fee.` },
     { value: 'refund', label: 'Refund in full', explain: `All ${formatCents(heldCents)} held goes back to ${builderName}.` },
     { value: 'split', label: 'Split', explain: 'You choose the shop’s share; the rest goes back to the builder.' },
   ];
@@ -173,7 +173,7 @@ export function ResolveDisputeForm({ data }: { data: DisputeCase }) {
       {outcome === 'split' && (
         <MoneyField
           label="Amount to the shop"
-          hint={`From $0.00 to ${formatCents(heldCents)}. Tenthmark’s fee comes out of it; the rest of what is held goes back to the builder.`}
+          hint={`From $0.00 to ${formatCents(heldCents)}. The Tenthmark fee comes out of it; the rest of what is held goes back to the builder.`}
           error={errors.shopShare?.message}
           {...form.register('shopShare', { onBlur: (event) => tidyDollars(event, (text) => form.setValue('shopShare', text)) })}
         />

@@ -3,7 +3,8 @@ import { toast } from 'sonner';
 import { formatCents } from '@shared/catalogue';
 import type { Bid, BidStatus } from '@shared/schemas/bids';
 import type { JobStatus } from '@shared/schemas/jobs';
-import { Badge } from '@client/components/ui/badge';
+import { BID_STATUS } from '@shared/glossary';
+import { Badge, TermBadge } from '@client/components/ui/badge';
 import { Button } from '@client/components/ui/button';
 import { ConfirmDialog } from '@client/components/ui/modal-dialog';
 import { Notice } from '@client/components/ui/notice';
@@ -29,11 +30,6 @@ function ratingText(rating: Bid['shop']['rating']): string {
   return `${rating.average.toFixed(1)} of 5 (${rating.count} ${rating.count === 1 ? 'review' : 'reviews'})`;
 }
 
-const statusBadge: Record<Exclude<BidStatus, 'active'>, { label: string; tone: 'success' | 'muted' }> = {
-  accepted: { label: 'Accepted', tone: 'success' },
-  declined: { label: 'Declined', tone: 'muted' },
-  withdrawn: { label: 'Withdrawn by the shop', tone: 'muted' },
-};
 
 /** Accepted first, then the open bids (cheapest first, as the server sends them), then the closed ones. */
 const order: Record<BidStatus, number> = { accepted: 0, active: 1, declined: 2, withdrawn: 3 };
@@ -244,8 +240,7 @@ export function BidComparison({ jobId, jobStatus, canDecide }: BidComparisonProp
 
   const actions = (bid: Bid) => {
     if (bid.status !== 'active') {
-      const badge = statusBadge[bid.status];
-      return <Badge tone={badge.tone}>{badge.label}</Badge>;
+      return <TermBadge term={BID_STATUS[bid.status]} />;
     }
     if (!deciding) return <Badge tone="neutral">Open</Badge>;
     const expired = bid.validUntil < today;

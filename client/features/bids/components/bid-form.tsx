@@ -1,3 +1,4 @@
+import { NAMES } from '@shared/glossary';
 import { useId, useState } from 'react';
 import { useFieldArray, useForm, useWatch, type Control, type Path } from 'react-hook-form';
 import { findOperation, formatCents, lineAmountCents, prefillBidLines, type OperationCode, type PricedPer } from '@shared/catalogue';
@@ -112,7 +113,7 @@ function FeeAndNet({ totalCents }: { totalCents: number }) {
   return (
     <dl className="flex flex-col items-end text-sm" aria-live="polite">
       <div className="flex gap-2">
-        <dt className="text-ink-soft">Tenthmark’s fee ({feeRateWords(rate.data)})</dt>
+        <dt className="text-ink-soft">{NAMES.fee} ({feeRateWords(rate.data)})</dt>
         <dd className="tabular-nums" data-testid="bid-fee">
           {formatCents(feeCents)}
         </dd>

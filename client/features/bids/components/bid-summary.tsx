@@ -1,18 +1,13 @@
 import { formatCents } from '@shared/catalogue';
+import { BID_STATUS } from '@shared/glossary';
 import type { BidLine, BidStatus } from '@shared/schemas/bids';
-import { Badge, type BadgeTone } from '@client/components/ui/badge';
+import { TermBadge } from '@client/components/ui/badge';
 import { TableHead } from '@client/components/ui/table-head';
 
-export const bidStatusWords: Record<BidStatus, { label: string; tone: BadgeTone }> = {
-  active: { label: 'Active', tone: 'info' },
-  accepted: { label: 'Accepted', tone: 'success' },
-  declined: { label: 'Declined', tone: 'error' },
-  withdrawn: { label: 'Withdrawn', tone: 'muted' },
-};
+export const bidStatusWords = BID_STATUS;
 
 export function BidStatusBadge({ status }: { status: BidStatus }) {
-  const words = bidStatusWords[status];
-  return <Badge tone={words.tone}>{words.label}</Badge>;
+  return <TermBadge term={bidStatusWords[status]} />;
 }
 
 /** A moment as the reader's date, time and zone. */

@@ -5,6 +5,7 @@ import { Link } from 'react-router-dom';
 import { toast } from 'sonner';
 import type { z } from 'zod';
 import { formatCents } from '@shared/catalogue';
+import { DISPUTE_STATUS } from '@shared/glossary';
 import {
   type Dispute,
   type DisputeReason,
@@ -14,7 +15,7 @@ import {
   openDisputeSchema,
 } from '@shared/schemas/disputes';
 import type { JobDetail } from '@shared/schemas/jobs';
-import { Badge } from '@client/components/ui/badge';
+import { TermBadge } from '@client/components/ui/badge';
 import { Button } from '@client/components/ui/button';
 import { Card } from '@client/components/ui/card';
 import { ConfirmDialog } from '@client/components/ui/modal-dialog';
@@ -49,11 +50,11 @@ const capitalise = (text: string) => text.charAt(0).toUpperCase() + text.slice(1
 export function outcomeWords(resolution: NonNullable<Dispute['resolution']>): string {
   switch (resolution.outcome) {
     case 'release':
-      return `Paid to the shop in full: ${formatCents(resolution.shopCents)} (the platform fee comes out of the shop’s share).`;
+      return `Paid to the shop in full: ${formatCents(resolution.shopCents)} (the Tenthmark fee comes out of the shop’s share).`;
     case 'refund':
       return `Refunded to the builder in full: ${formatCents(resolution.refundCents)}.`;
     case 'split':
-      return `Split: ${formatCents(resolution.shopCents)} to the shop (the platform fee comes out of it), ${formatCents(resolution.refundCents)} back to the builder.`;
+      return `Split: ${formatCents(resolution.shopCents)} to the shop (the Tenthmark fee comes out of it), ${formatCents(resolution.refundCents)} back to the builder.`;
   }
 }
 
@@ -227,10 +228,7 @@ function DisputeDetails({ dispute, viewer, canRespond, jobId }: { dispute: Dispu
   return (
     <div className="flex flex-col gap-5" data-testid="dispute">
       <div className="flex flex-wrap items-center gap-3">
-        <Badge tone={decided ? 'neutral' : 'caution'}>
-          <span className="sr-only">Dispute status: </span>
-          {decided ? 'Decided' : 'Open'}
-        </Badge>
+        <TermBadge term={DISPUTE_STATUS[dispute.status]} prefix="Dispute status: " />
         <span className="text-ink-soft">
           Opened by {sideName(opener, viewer)} on {formatWhen(dispute.openedAt)}
         </span>
@@ -333,7 +331,7 @@ export function DisputePanel({ job, viewer }: DisputePanelProps) {
           <p className="text-ink-soft">
             {viewer === 'builder'
               ? 'If the work or the record is wrong in a way a new version cannot put right, you can open a dispute instead of accepting it. An administrator decides; until then the payment stays held.'
-              : 'If the builder has gone quiet past the agreed date, or a change order is not being paid or answered, you can open a dispute. An administrator decides; until then the payment stays held.'}
+              : 'If the builder has gone quiet past the agreed date, or extra work is not being paid or answered, you can open a dispute. An administrator decides; until then the payment stays held.'}
           </p>
           <div>
             <Button variant="secondary" onClick={() => setOpening(true)}>

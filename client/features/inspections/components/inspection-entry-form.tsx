@@ -169,7 +169,7 @@ export function InspectionEntryForm({ job, initial, origin, onSubmitted }: Inspe
     <div className="grid grid-cols-1 items-start gap-6 xl:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
       <form noValidate aria-label="Inspection record" onSubmit={onSubmit} onKeyDown={onFormKeyDown} className="flex min-w-0 flex-col gap-5">
         {origin.rejected && (
-          <Notice tone="caution" title={`The builder rejected version ${origin.rejected.version}`}>
+          <Notice tone="caution" title={`The builder asked for changes to version ${origin.rejected.version}`}>
             <p className="whitespace-pre-wrap" data-testid="reject-reasons">{origin.rejected.rejectReasons}</p>
             {!origin.draft && <p className="mt-1">Its readings are filled in below: change what was redone and submit the new version.</p>}
           </Notice>

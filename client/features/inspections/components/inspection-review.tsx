@@ -5,10 +5,10 @@ import { Link } from 'react-router-dom';
 import { toast } from 'sonner';
 import type { z } from 'zod';
 import { boreSpecFor, checksNotConforming } from '@shared/calc';
-import { INSPECTION_STATUS_WORDS } from '@shared/inspection-words';
+import { RECORD_STATUS, type Term } from '@shared/glossary';
 import { type InspectionVersion, rejectInspectionSchema } from '@shared/schemas/inspection';
 import type { JobDetail } from '@shared/schemas/jobs';
-import { Badge, type BadgeTone } from '@client/components/ui/badge';
+import { TermBadge } from '@client/components/ui/badge';
 import { Button } from '@client/components/ui/button';
 import { Card } from '@client/components/ui/card';
 import { CheckboxField } from '@client/components/ui/checkbox-field';
@@ -28,12 +28,7 @@ import { ReadingsAt20 } from './record-judgement';
 /** Job states in which an inspection record may exist or be on its way. */
 const RECORD_STATES = new Set<JobDetail['status']>(['in_work', 'inspection_submitted', 'completed', 'disputed', 'resolved']);
 
-const versionStatus: Record<InspectionVersion['status'], { label: string; tone: BadgeTone }> = {
-  submitted: { label: INSPECTION_STATUS_WORDS.submitted, tone: 'caution' },
-  accepted: { label: INSPECTION_STATUS_WORDS.accepted, tone: 'success' },
-  rejected: { label: INSPECTION_STATUS_WORDS.rejected, tone: 'error' },
-  superseded: { label: INSPECTION_STATUS_WORDS.superseded, tone: 'muted' },
-};
+const versionStatus: Readonly<Record<InspectionVersion['status'], Term>> = RECORD_STATUS;
 
 
 function Changes({ changes, previous }: { changes: VersionChange[]; previous: number }) {
@@ -183,7 +178,7 @@ function AcceptDialog({ job, version, open, onClose }: { job: JobDetail; version
       open={open}
       onClose={close}
       title={`Accept version ${version.version} of the inspection record?`}
-      description="The held payment goes to the shop, less Tenthmark’s fee, and the job is completed. This cannot be undone."
+      description="The held payment goes to the shop, less the Tenthmark fee, and the job is completed. This cannot be undone."
       size="sm"
     >
       {failing.length > 0 && (
@@ -240,7 +235,7 @@ function BuilderDecision({ job, version, reviewDueAt, autoAccept, windowEnded }:
       <div className="flex flex-wrap gap-3">
         <Button onClick={() => setAcceptOpen(true)}>Accept the record</Button>
         <Button variant="secondary" onClick={() => setRejectOpen(true)}>
-          Reject with reasons
+          Ask for changes
         </Button>
       </div>
       <p className="text-sm text-ink-soft">Something wrong that a new version cannot fix? Open a dispute below.</p>
@@ -261,7 +256,7 @@ function RejectDialog({ job, version, open, onClose }: { job: JobDetail; version
       onSuccess: () => {
         onClose();
         form.reset();
-        toast.success('Rejected. The shop is told what to redo and will send a new version.');
+        toast.success(`${RECORD_STATUS.rejected.label}. The shop is told what to redo and will send a new version.`);
       },
       onError: (error) => setFormError(applyServerErrors(error, form.setError, ['reasons'])),
     },
@@ -271,8 +266,8 @@ function RejectDialog({ job, version, open, onClose }: { job: JobDetail; version
     reject.mutate(values);
   });
   return (
-    <ModalDialog open={open} onClose={onClose} title={`Reject version ${version.version}?`} description="The shop sees your reasons, redoes the work and submits a new version. The payment stays held.">
-      <form onSubmit={onSubmit} noValidate className="flex flex-col gap-4" aria-label="Reject the inspection record">
+    <ModalDialog open={open} onClose={onClose} title={`Ask for changes to version ${version.version}?`} description="The shop sees your reasons, redoes the work and submits a new version. The payment stays held.">
+      <form onSubmit={onSubmit} noValidate className="flex flex-col gap-4" aria-label="Ask for changes to the inspection record">
         <TextAreaField label="What needs redoing, and why" rows={4} data-autofocus error={form.formState.errors.reasons?.message} {...form.register('reasons')} />
         {formError && <Notice tone="error">{formError}</Notice>}
         <div className="flex flex-wrap justify-end gap-3">
@@ -280,7 +275,7 @@ function RejectDialog({ job, version, open, onClose }: { job: JobDetail; version
             Go back
           </Button>
           <Button type="submit" variant="danger" busy={reject.isPending}>
-            Reject and send the reasons
+            Send the changes asked
           </Button>
         </div>
       </form>
@@ -337,7 +332,7 @@ export function InspectionReview({ job, viewer }: { job: JobDetail; viewer: 'bui
         <div className="flex flex-col gap-5" data-testid="inspection-review">
           <div className="flex flex-wrap items-center gap-3">
             <h3 className="text-lg font-bold">Version {latest.version}</h3>
-            <Badge tone={versionStatus[latest.status].tone}>{versionStatus[latest.status].label}</Badge>
+            <TermBadge term={versionStatus[latest.status]} />
             <span className="text-sm text-ink-soft">submitted {formatWhen(latest.submittedAt)}</span>
             <Link to={`/jobs/${job.id}/inspection/${latest.version}/certificate`} className="text-sm font-semibold text-slate-700 underline underline-offset-4">
               Certificate (print or PDF)
@@ -345,7 +340,7 @@ export function InspectionReview({ job, viewer }: { job: JobDetail; viewer: 'bui
           </div>
 
           {latest.status === 'rejected' && (
-            <Notice tone="error" title={viewer === 'shop' ? 'The builder rejected this version' : 'You rejected this version'}>
+            <Notice tone="error" title={viewer === 'shop' ? 'The builder asked for changes to this version' : 'You asked for changes to this version'}>
               <p className="whitespace-pre-wrap" data-testid="reject-reasons">{latest.rejectReasons}</p>
               {viewer === 'shop' && <p className="mt-1">Redo what is asked, then enter a new version; your last readings are filled in for you.</p>}
             </Notice>

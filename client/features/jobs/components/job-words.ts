@@ -5,21 +5,11 @@
  */
 import type { LengthUnit } from '@shared/calc';
 import { forceUnitFor, type LimitField } from '@shared/operation-limits';
-import type { BadgeTone } from '@client/components/ui/badge';
-import type { JobInput, JobStatus } from '@shared/schemas/jobs';
+import { JOB_STATUS } from '@shared/glossary';
+import type { JobInput } from '@shared/schemas/jobs';
 
-export const statusWords: Record<JobStatus, { label: string; tone: BadgeTone; explain: string }> = {
-  draft: { label: 'Draft', tone: 'muted', explain: 'Only you can see it. Publish it when it is ready for shops.' },
-  open: { label: 'Open for bids', tone: 'info', explain: 'Shops can see it on the job board and bid.' },
-  awarded: { label: 'Awarded', tone: 'success', explain: 'You accepted a bid. Pay next: the payment is held until you accept the inspection record.' },
-  funded: { label: 'Paid and held', tone: 'success', explain: 'Your payment is held by Tenthmark until you accept the inspection record; the shop may start.' },
-  in_work: { label: 'In the shop', tone: 'success', explain: 'The shop has the parts and is working on them.' },
-  inspection_submitted: { label: 'Results to review', tone: 'caution', explain: 'The shop sent its measured results for you to check.' },
-  completed: { label: 'Completed', tone: 'success', explain: 'You accepted the results and the shop was paid.' },
-  disputed: { label: 'In dispute', tone: 'error', explain: 'An administrator is looking at the disagreement.' },
-  resolved: { label: 'Dispute settled', tone: 'neutral', explain: 'An administrator decided the dispute.' },
-  cancelled: { label: 'Cancelled', tone: 'muted', explain: 'This job was cancelled.' },
-};
+/** A job's status: its name, tone and explanation come from the glossary. */
+export const statusWords = JOB_STATUS;
 
 export const layoutWords: Record<JobInput['layout'], string> = { inline: 'Inline', v: 'V', flat: 'Flat (opposed)', other: 'Other' };
 export const materialWords: Record<NonNullable<JobInput['blockMaterial']>, string> = { 'cast-iron': 'Cast iron', aluminium: 'Aluminium' };

@@ -14,7 +14,7 @@ export const workingShopExplain: Record<JobStatus, string> = {
   funded: 'The builder paid and Tenthmark holds the money while you work. Log “parts received” when the parts arrive.',
   in_work: 'The parts are in your shop. When the work is done, send the measured inspection record.',
   inspection_submitted: 'You sent your measured results; the builder is checking them.',
-  completed: 'The builder accepted your results; the payment was released to you, less Tenthmark’s fee.',
+  completed: 'The builder accepted your results; the payment was released to you, less the Tenthmark fee.',
   disputed: 'An administrator is looking at the disagreement; the payment stays held until they decide.',
   resolved: 'An administrator decided the dispute.',
   cancelled: 'This job was cancelled.',

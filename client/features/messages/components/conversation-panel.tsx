@@ -1,5 +1,6 @@
 import { useEffect, useId, useRef, useState, type ReactNode } from 'react';
 import { useSearchParams } from 'react-router-dom';
+import { BID_STATUS } from '@shared/glossary';
 import type { JobStatus } from '@shared/schemas/jobs';
 import type { ThreadSummary } from '@shared/schemas/messages';
 import { Badge } from '@client/components/ui/badge';
@@ -84,12 +85,7 @@ function LatestLine({ threadId }: { threadId: string }) {
   );
 }
 
-const bidWords: Record<Bidder['bidStatus'], string> = {
-  active: 'Bid open',
-  accepted: 'Bid accepted',
-  declined: 'Bid declined',
-  withdrawn: 'Bid withdrawn',
-};
+const bidWords = (status: Bidder['bidStatus']) => `Bid ${BID_STATUS[status].label.toLowerCase()}`;
 
 interface ShopRow {
   shopId: string;
@@ -177,13 +173,13 @@ function BuilderPanel({ jobId, jobStatus, bidders }: { jobId: string; jobStatus:
                         )}
                       </span>
                       <LatestLine threadId={row.thread.id} />
-                      {row.bidStatus && <span className="text-xs text-ink-soft">{bidWords[row.bidStatus]}</span>}
+                      {row.bidStatus && <span className="text-xs text-ink-soft">{bidWords(row.bidStatus)}</span>}
                     </button>
                   ) : (
                     <div className="flex flex-col gap-2 rounded-lg bg-white px-3 py-2 ring-1 ring-slate-200">
                       <span className="flex items-center justify-between gap-2">
                         <span className="min-w-0 truncate font-bold text-ink">{row.name}</span>
-                        {row.bidStatus && <span className="shrink-0 text-xs text-ink-soft">{bidWords[row.bidStatus]}</span>}
+                        {row.bidStatus && <span className="shrink-0 text-xs text-ink-soft">{bidWords(row.bidStatus)}</span>}
                       </span>
                       {canStart ? (
                         <Button

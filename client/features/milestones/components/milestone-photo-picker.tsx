@@ -17,7 +17,7 @@ export function MilestonePhotoPicker({ jobId, photos, onChange, error }: { jobId
     <div className="flex flex-col gap-2">
       <PendingPhotoList
         uploads={photos}
-        label="Photos for this milestone"
+        label="Photos for this progress step"
         testId="milestone-upload-photos"
         alt={(name) => `Photo to log: ${name}`}
         onRemove={pending.remove}
@@ -29,7 +29,7 @@ export function MilestonePhotoPicker({ jobId, photos, onChange, error }: { jobId
           disabled={pending.full}
           onFiles={pending.add}
           hintClassName="text-sm text-ink-soft"
-          hint={<>Optional. JPEG, PNG or WebP, up to 15 MB each, {MAX_PHOTOS_PER_MILESTONE} per milestone. Location and camera details are removed.</>}
+          hint={<>Optional. JPEG, PNG or WebP, up to 15 MB each, {MAX_PHOTOS_PER_MILESTONE} per step. Location and camera details are removed.</>}
         />
       </div>
     </div>

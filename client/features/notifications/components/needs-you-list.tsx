@@ -1,4 +1,5 @@
 import { Link } from 'react-router-dom';
+import { RECORD_STATUS } from '@shared/glossary';
 import type { NeedsYouItem } from '@shared/schemas/notifications';
 import { Button } from '@client/components/ui/button';
 import { Card } from '@client/components/ui/card';
@@ -14,7 +15,7 @@ const kindWords: Record<NeedsYouItem['kind'], string> = {
   'dispute-waiting': 'Dispute',
   'bid-accepted-awaiting-payment': 'Waiting for payment',
   'jobs-coming-due': 'Coming due',
-  'record-rejected': 'Changes asked',
+  'record-rejected': RECORD_STATUS.rejected.label,
   'dispute-to-decide': 'Dispute to decide',
 };
 

@@ -1,3 +1,4 @@
+import { EXTRA_WORK_STATUS, NAMES } from '@shared/glossary';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useEffect, useState } from 'react';
 import { useForm } from 'react-hook-form';
@@ -29,7 +30,7 @@ import {
 const PAID_STATES = new Set(['funded', 'in_work', 'inspection_submitted', 'completed', 'disputed', 'resolved']);
 
 const HELD_WORDS =
-  'Your payment is held by Tenthmark until you accept the shop’s inspection record; then it goes to the shop, less Tenthmark’s fee. Until the shop starts, you can cancel for a full refund.';
+  'Your payment is held by Tenthmark until you accept the shop’s inspection record; then it goes to the shop, less the Tenthmark fee. Until the shop starts, you can cancel for a full refund.';
 
 function Row({ label, value, testId }: { label: string; value: string; testId?: string }) {
   return (
@@ -42,7 +43,7 @@ function Row({ label, value, testId }: { label: string; value: string; testId?: 
   );
 }
 
-/** The builder pays, sees what is held, cancels for a refund, and answers change orders. */
+/** The builder pays, sees what is held, cancels for a refund, and answers extra work. */
 function BuilderMoney({ job, acceptedTotalCents }: { job: JobDetail; acceptedTotalCents?: number }) {
   const [params] = useSearchParams();
   const confirming = params.get('payment') === 'done' && job.status === 'awarded';
@@ -177,7 +178,7 @@ function Balance({ money, side }: { money: MoneyView; side: 'builder' | 'shop' }
         <Row label="Paid in" value={formatCents(balance.paidIn)} testId="money-paid" />
         <Row label="Held now" value={formatCents(balance.held)} testId="money-held" />
         {balance.released > 0 && <Row label={side === 'shop' ? 'Paid to you' : 'Paid to the shop'} value={formatCents(balance.released)} testId="money-released" />}
-        {balance.fee > 0 && <Row label="Tenthmark’s fee" value={formatCents(balance.fee)} />}
+        {balance.fee > 0 && <Row label={NAMES.fee} value={formatCents(balance.fee)} />}
         {balance.refunded > 0 && <Row label="Refunded" value={formatCents(balance.refunded)} testId="money-refunded" />}
       </dl>
       {late.length > 0 && (
@@ -207,7 +208,7 @@ function ChangeOrders({ job, side, ownCard = false }: { job: JobDetail; side: 'b
   const orders = useChangeOrders(job.id);
   const approve = useApproveChangeOrder();
   const unconfirmed = useNeedsEmailConfirmation() && side === 'builder';
-  const decline = useDeclineChangeOrder(job.id, { mutationConfig: { onSuccess: () => toast.success('Change order declined; the shop is told.') } });
+  const decline = useDeclineChangeOrder(job.id, { mutationConfig: { onSuccess: () => toast.success(`${NAMES.extraWork} declined; the shop is told.`) } });
   const canPropose = side === 'shop' && (job.status === 'funded' || job.status === 'in_work');
   if (!orders.data?.length && !canPropose) return null;
   const Heading = ownCard ? 'h2' : 'h3';
@@ -225,7 +226,7 @@ function ChangeOrders({ job, side, ownCard = false }: { job: JobDetail; side: 'b
                 <strong className="tabular-nums">{formatCents(order.amountCents)}</strong>
               </div>
               <p className="text-sm text-ink-soft">
-                {{ proposed: 'Waiting for the builder', approved: 'Agreed, waiting for payment', paid: 'Paid and held', declined: 'Declined' }[order.status]}
+                {EXTRA_WORK_STATUS[order.status].label}
               </p>
               {side === 'builder' && (order.status === 'proposed' || order.status === 'approved') && (
                 <div className="mt-2 flex gap-2">
@@ -314,7 +315,7 @@ function ShopNet({ amountCents, feeBps, released }: { amountCents: number; feeBp
   return (
     <dl className="mt-3" aria-label="What you keep">
       <Row label={released ? 'The builder paid' : 'The builder pays'} value={formatCents(amountCents)} />
-      <Row label={`Tenthmark’s fee (${feeRateWords(feeBps)})`} value={formatCents(feeCents)} testId="shop-fee" />
+      <Row label={`${NAMES.fee} (${feeRateWords(feeBps)})`} value={formatCents(feeCents)} testId="shop-fee" />
       <Row label={released ? 'Your payout' : 'You receive'} value={formatCents(netCents)} testId="shop-net" />
     </dl>
   );
@@ -326,7 +327,7 @@ function ShopMoneySentence({ job, money, released }: { job: JobDetail; money: Mo
   if (released) {
     return (
       <p className="mt-3 text-sm" data-testid="shop-released">
-        Released: {formatCents(balance.released)} was sent to your payout account, after Tenthmark’s fee of {formatCents(balance.fee)}.
+        Released: {formatCents(balance.released)} was sent to your payout account, after the Tenthmark fee of {formatCents(balance.fee)}.
       </p>
     );
   }
@@ -339,7 +340,7 @@ function ShopMoneySentence({ job, money, released }: { job: JobDetail; money: Mo
         ? balance.refunded > 0 && balance.held === 0
           ? 'The builder’s payment went back to them; nothing is paid to you for this job.'
           : null
-        : 'Tenthmark holds the builder’s payment while you work. When the builder accepts your inspection record (or the review window closes), it is sent to your payout account, less Tenthmark’s fee.';
+        : 'Tenthmark holds the builder’s payment while you work. When the builder accepts your inspection record (or the review window closes), it is sent to your payout account, less the Tenthmark fee.';
   return words ? (
     <p className="mt-3 text-sm text-ink-soft" data-testid="shop-held">
       {words}

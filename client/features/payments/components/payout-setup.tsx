@@ -15,7 +15,7 @@ export function PayoutSetup({ status, returned }: { status: 'none' | 'pending' |
       {status === 'ready' ? (
         <Notice tone="success" className="mt-3" title="Ready to be paid">
           Builders can accept your bids. When a builder accepts your inspection record, the payment goes to this account, less
-          Tenthmark’s fee.
+          the Tenthmark fee.
         </Notice>
       ) : (
         <>
