@@ -51,3 +51,16 @@ describe('the shop reads its own sentences on a job', () => {
     await expect(queue.locator('li', { hasText: 'Sentences check, accepted' }).count()).resolves.toBe(0);
   });
 });
+
+describe('an administrator reads the job as neither party', () => {
+  it('when an admin opens a paid job, then its status sentence is in the third person, not the builder’s or the shop’s', async () => {
+    const adminEmail = demoAccounts.find((a) => a.role === 'admin')!.email;
+    const funded = await suite.jobIn('funded', builder.email, shopEmail, { input: { title: 'Sentences check, read by staff' } });
+    await suite.signIn(page, adminEmail, `/jobs/${funded.job.id}`);
+    await expect
+      .poll(() => page.getByTestId('job-status-sentence').textContent())
+      .toBe('The builder paid; Tenthmark holds the money until the builder accepts the inspection record.');
+    const text = await page.locator('main').innerText();
+    for (const sentence of [...builderSentences, 'while you work']) expect(text, `the admin reads “${sentence}”`).not.toContain(sentence);
+  });
+});

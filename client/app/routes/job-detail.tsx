@@ -6,7 +6,7 @@ import { Card } from '@client/components/ui/card';
 import { Notice } from '@client/components/ui/notice';
 import { HomePageLink, useMe } from '@client/features/auth';
 import { bidQueries, BidComparison, ShopBidPanel } from '@client/features/bids';
-import { useJob, JobFiguresPanel, JobOwnerActions, JobLogistics, JobOperations, JobSpec, JobStatusBadge, otherShopExplain, plural, statusWords, workingShopExplain, PhotoGallery, PhotoUploader } from '@client/features/jobs';
+import { useJob, JobFiguresPanel, JobOwnerActions, JobLogistics, JobOperations, JobSpec, JobStatusBadge, otherShopExplain, plural, staffExplain, statusWords, workingShopExplain, PhotoGallery, PhotoUploader } from '@client/features/jobs';
 import { ConversationPanel, type Bidder } from '@client/features/messages';
 import { ApiError } from '@client/lib/api-client';
 import { cn } from '@client/lib/cn';
@@ -54,11 +54,12 @@ function LoadFailed({ error, onRetry }: { error: Error; onRetry: () => void }) {
 }
 
 /** Who reads the job page, as far as the status sentence goes: the working shop, a shop that lost the award, anyone else (null while unknown). */
-type Reader = 'working shop' | 'other shop' | 'other' | null;
+type Reader = 'working shop' | 'other shop' | 'staff' | 'other' | null;
 
 function statusSentence(job: JobDetail, reader: Reader): string | null {
   if (reader === null) return null;
   if (reader === 'working shop') return workingShopExplain[job.status];
+  if (reader === 'staff') return staffExplain[job.status];
   if (reader === 'other shop' && job.awardedBidId) return job.status === 'cancelled' ? (statusWords.cancelled.explain ?? null) : otherShopExplain;
   return statusWords[job.status].explain ?? null;
 }
@@ -118,7 +119,7 @@ export function JobDetailRoute() {
   // The work itself (progress, the inspection record) is for the builder, the shop doing it and administrators.
   const workViewer = isOwner ? 'builder' : isAwardedShop ? 'shop' : me?.role === 'admin' ? 'admin' : null;
   // A shop learns whether it does the work once its own bids are in; until then the sentence waits rather than guess.
-  const reader: Reader = me?.role !== 'shop' || !job.awardedBidId ? 'other' : bidsQuery.isPending ? null : isAwardedShop ? 'working shop' : 'other shop';
+  const reader: Reader = me?.role === 'admin' ? 'staff' : me?.role !== 'shop' || !job.awardedBidId ? 'other' : bidsQuery.isPending ? null : isAwardedShop ? 'working shop' : 'other shop';
   const bidders: Bidder[] = [...(bidsQuery.data ?? [])]
     .sort((a, b) => b.updatedAt.localeCompare(a.updatedAt))
     .filter((bid, index, all) => all.findIndex((other) => other.shop.id === bid.shop.id) === index)

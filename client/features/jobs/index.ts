@@ -9,6 +9,6 @@ export { JobOwnerActions } from './components/job-owner-actions';
 export { JobLogistics, JobOperations, JobSpec } from './components/job-spec';
 export { JobStatusBadge } from './components/job-status-badge';
 export { plural, statusWords } from './components/job-words';
-export { otherShopExplain, workingShopExplain } from './components/shop-job-words';
+export { otherShopExplain, staffExplain, workingShopExplain } from './components/shop-job-words';
 export { PhotoGallery } from './components/photo-gallery';
 export { PhotoUploader } from './components/photo-uploader';

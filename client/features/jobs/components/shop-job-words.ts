@@ -22,3 +22,17 @@ export const workingShopExplain: Record<JobStatus, string> = {
 
 /** For a shop whose bid was not accepted, once the builder chose another. */
 export const otherShopExplain = 'The builder accepted another shop’s bid.';
+
+/** For an administrator, who is neither party: the same facts in the third person. */
+export const staffExplain: Record<JobStatus, string> = {
+  draft: 'Not published yet; only the builder sees it.',
+  open: 'Shops can see it on the job board and bid.',
+  awarded: 'The builder accepted a bid; the payment is due from the builder.',
+  funded: 'The builder paid; Tenthmark holds the money until the builder accepts the inspection record.',
+  in_work: 'The shop has the parts and is working on them.',
+  inspection_submitted: 'The shop sent its measured results; the builder is checking them.',
+  completed: 'The builder accepted the results and the shop was paid.',
+  disputed: 'The dispute waits for an administrator’s decision; the payment stays held.',
+  resolved: 'An administrator decided the dispute.',
+  cancelled: 'This job was cancelled.',
+};
