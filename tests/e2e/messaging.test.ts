@@ -251,6 +251,42 @@ describe('live conversations between a builder and a shop, in two browsers', () 
     expect(problems).toEqual([]);
   }, 60_000);
 
+  it('when the socket loses a read receipt, then the page sends it again another way and the writer still sees "Seen"', async () => {
+    const { job } = await jobWithBid({ title: 'A receipt that loses its way' });
+    const jobPath = `/jobs/${job.id}`;
+    const b = await personPage({ width: 1280, height: 900 });
+    const s = await personPage({ width: 1280, height: 900 });
+    // The builder's live connection never carries a "read" to the server (as when a packet is lost
+    // under load), so no answer comes back for it; everything else passes.
+    let dropped = 0;
+    await b.page.routeWebSocket(/\/socket\.io\//, (ws) => {
+      const server = ws.connectToServer();
+      ws.onMessage((message) => {
+        if (typeof message === 'string' && /^42\d*\["read"/.test(message)) {
+          dropped += 1;
+          return;
+        }
+        server.send(message);
+      });
+    });
+    await Promise.all([signIn(b.page, builder.email, jobPath), signIn(s.page, lanternHill.email, jobPath)]);
+
+    await s.page.getByRole('button', { name: 'Ask the builder a question' }).click();
+    const question = 'Do you want the cam bearings left in or taken out?';
+    const shopComposer = s.page.getByLabel('Message to Juno Brackenridge');
+    await shopComposer.fill(question);
+    await shopComposer.press('Enter');
+    const sentQuestion = messagesWith(s.page, question);
+    await poll(() => sentQuestion.getAttribute('data-state')).toBe('sent');
+
+    const row = b.page.getByTestId('conversation-panel').getByTestId('conversation-row').filter({ hasText: SHOP_NAME });
+    await poll(() => text(row.getByTestId('latest-message'))).toBe(question);
+    await row.getByRole('button').click();
+    await messagesWith(b.page, question).waitFor();
+    await poll(async () => dropped).toBeGreaterThan(0);
+    await sentQuestion.getByTestId('seen').waitFor();
+  });
+
   it('when a shop writes faster than the limit, then the extra messages wait, go out by themselves, and every one is stored once, in order', async () => {
     const { job, juno } = await jobWithBid({ title: 'Deck a pair of flathead heads' }, { email: kessrow.email, name: 'Kessrow Bore & Deck' });
     const s = await personPage({ width: 1280, height: 900 });

@@ -29,6 +29,10 @@ export interface ConversationViewProps {
 
 const TYPING_SHOWN_MS = 3_000;
 const TYPING_SENT_EVERY_MS = 2_000;
+/** How long a read receipt waits for the server's answer on the socket before it goes over HTTP. */
+const READ_ACK_MS = 5_000;
+/** How long before a receipt that failed both ways is tried again. */
+const READ_RETRY_MS = 3_000;
 
 /** Whether the tab is in front of the person. */
 function usePageVisible(): boolean {
@@ -209,6 +213,8 @@ export function ConversationView({ thread, side, jobStatus, focusComposer = fals
   const onScreen = useOnScreen(scroller);
   const pageVisible = usePageVisible();
   const readSent = useRef<string | null>(null);
+  // Bumped to try a receipt again after it failed both ways.
+  const [readRetry, setReadRetry] = useState(0);
   const newestAtOpen = useRef<string | null | undefined>(undefined);
   if (newestAtOpen.current === undefined && history.data) newestAtOpen.current = newest?.id ?? null;
   useEffect(() => {
@@ -220,11 +226,17 @@ export function ConversationView({ thread, side, jobStatus, focusComposer = fals
     const done = () => void queryClient.invalidateQueries({ queryKey: threadKeys.lists() });
     const failed = () => {
       readSent.current = null;
+      window.setTimeout(() => setReadRetry((n) => n + 1), READ_RETRY_MS);
     };
-    const payload = { threadId: thread.id, messageId: newest.id };
-    if (socket?.connected) socket.emit('read', payload, (ack: SocketAck) => (ack.ok ? done() : failed()));
-    else api.post(`/api/threads/${thread.id}/read`, { messageId: newest.id }).then(done, failed);
-  }, [newest, me, onScreen, pageVisible, thread.id, thread.unread, socket, queryClient]);
+    const overHttp = () => api.post(`/api/threads/${thread.id}/read`, { messageId: newest.id }).then(done, failed);
+    // A receipt whose answer never comes (a dropped packet, a connection half gone) goes again over HTTP.
+    if (socket?.connected) {
+      socket
+        .timeout(READ_ACK_MS)
+        .emitWithAck('read', { threadId: thread.id, messageId: newest.id })
+        .then((ack: SocketAck) => (ack.ok ? done() : overHttp()), overHttp);
+    } else void overHttp();
+  }, [newest, me, onScreen, pageVisible, thread.id, thread.unread, socket, queryClient, readRetry]);
 
   // ---- scrolling: stay at the bottom for new messages; keep the place when older ones load ----
   const atBottom = useRef(true);
