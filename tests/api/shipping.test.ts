@@ -100,6 +100,13 @@ describe('the shop ships the parts back', () => {
     expect(shipped.status).toBe(201);
     const legs = (await builder.get(`/api/jobs/${job.id}/shipping`)).body.shipping.legs;
     expect(legs).toEqual([{ direction: 'to_builder', carrier: 'Valley Parcel', trackingNumber: 'VP-778', at: expect.any(String) }]);
+
+    // Once the parts are on their way, the address they went to stays as it was: a change now would
+    // misstate where the parcel went, so the builder is told to talk to the shop and the carrier instead.
+    const late = await builder.put(`/api/jobs/${job.id}/return-address`, { ...returnAddress, city: 'Muncie' });
+    expect(late.status).toBe(409);
+    expect(late.body.error.code).toBe('already_shipped');
+    expect((await shop.get(`/api/jobs/${job.id}/shipping`)).body.shipping.returnAddress).toEqual(stored);
   });
 
   it('when the parts are dropped off, then no return address is asked and the shop may log “shipped” as before', async () => {

@@ -41,13 +41,21 @@ export async function shippingOf(db: Database, user: User, jobId: string): Promi
   return viewOf(db, await workPartiesFor(db, jobId, user));
 }
 
-/** The builder gives (or corrects) where the shop sends the parts back, from payment until the record is accepted. */
+/** The builder gives (or corrects) where the shop sends the parts back, from payment until the shop ships them. */
 export async function setReturnAddress(deps: ShippingDeps, user: User, jobId: string, address: PostalAddress): Promise<ShippingView> {
   await deps.db.transaction(async (tx) => {
     const parties = await partiesOf(tx, jobId, { forUpdate: true });
     mustBeJobsBuilder(parties, user, 'Only the job’s builder gives the return address.');
     if (parties.job.logistics !== 'ship') throw conflict('This job’s parts are dropped off and collected, not shipped.', 'not_shipped_job');
     if (!RETURN_ADDRESS_OPEN.has(parties.job.status)) throw conflict('A return address can be given once the job is paid for, until the work is accepted.', 'wrong_status');
+    const [shipped] = await tx
+      .select({ id: milestones.id })
+      .from(milestones)
+      .where(and(eq(milestones.jobId, jobId), eq(milestones.kind, 'shipped')))
+      .limit(1);
+    if (shipped) {
+      throw conflict('The shop has already shipped the parts to the address given. To redirect the parcel, write to the shop and contact the carrier.', 'already_shipped');
+    }
     await tx.update(jobs).set({ returnAddress: address }).where(eq(jobs.id, jobId));
   });
   deps.hub?.jobChanged(jobId, 'job_updated');

@@ -110,11 +110,11 @@ export function ShippingPanel({ job, viewer }: { job: JobDetail; viewer: 'builde
         <>
           <ShopAddress shipping={shipping.data} viewer={viewer} />
           {viewer === 'builder' && SENDING.has(job.status) && <SentToShopForm jobId={job.id} />}
-          {viewer === 'builder' && RETURN_OPEN.has(job.status) ? (
+          {viewer === 'builder' && RETURN_OPEN.has(job.status) && !shipping.data.legs.some((leg) => leg.direction === 'to_builder') ? (
             <ReturnAddressForm jobId={job.id} current={shipping.data.returnAddress} />
           ) : shipping.data.returnAddress ? (
             <div className="flex flex-col gap-1">
-              <h3 className="font-bold">Ship the parts back to</h3>
+              <h3 className="font-bold">{shipping.data.legs.some((leg) => leg.direction === 'to_builder') ? 'Shipped back to' : 'Ship the parts back to'}</h3>
               <PostalAddressBlock address={shipping.data.returnAddress} label="The builder’s return address" />
             </div>
           ) : (
