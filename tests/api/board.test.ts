@@ -177,7 +177,19 @@ describe('job board', () => {
   it('when a cursor is made up or belongs to another order, then 400 names the cursor', async () => {
     const first = await board('pageSize=1');
     expect(first.nextCursor).toEqual(expect.any(String));
-    for (const query of [`sort=needed-soonest&cursor=${first.nextCursor}`, 'cursor=bm90LWpzb24', `cursor=${Buffer.from('{"sort":"newest","publishedAt":"x","id":"1"}').toString('base64url')}`]) {
+    const uuid = '00000000-0000-4000-8000-000000000000';
+    // Shaped like a cursor but not a real moment or day: the database must never be the one to refuse it.
+    const shapedButImpossible = [
+      { sort: 'newest', publishedAt: '2026-13-45 99:99:99+00', id: uuid },
+      { sort: 'needed-soonest', neededBy: '2026-02-30', id: uuid },
+      { sort: 'fewest-bids', bidCount: 1, publishedAt: '2026-02-30 10:00:00+00', id: uuid },
+    ].map((c) => `sort=${c.sort}&cursor=${Buffer.from(JSON.stringify(c)).toString('base64url')}`);
+    for (const query of [
+      `sort=needed-soonest&cursor=${first.nextCursor}`,
+      'cursor=bm90LWpzb24',
+      `cursor=${Buffer.from('{"sort":"newest","publishedAt":"x","id":"1"}').toString('base64url')}`,
+      ...shapedButImpossible,
+    ]) {
       const res = await shopClient.get(`/api/jobs?${query}`);
       expect(res.status, query).toBe(400);
       expect(Object.keys(res.body.error.fields), query).toEqual(['cursor']);

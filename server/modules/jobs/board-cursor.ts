@@ -8,7 +8,16 @@ import { badRequest } from '../../lib/errors';
  * timestamp travels as PostgreSQL's own text so no microsecond is lost.
  */
 // As PostgreSQL writes a timestamptz: 2026-12-05 09:15:07.123456+00
-const pgTimestamp = z.string().regex(/^\d{4}-\d{2}-\d{2} \d{2}:\d{2}:\d{2}(\.\d{1,6})?[+-]\d{2}(:\d{2}){0,2}$/).nullable();
+const PG_TIMESTAMP = /^(\d{4})-(\d{2})-(\d{2}) (\d{2}):(\d{2}):(\d{2})(\.\d{1,6})?[+-]\d{2}(:\d{2}){0,2}$/;
+/** A real calendar moment (no 30 February, no hour 99), so the database is never the one to refuse it. */
+function isRealMoment(text: string): boolean {
+  const parts = PG_TIMESTAMP.exec(text);
+  if (!parts) return false;
+  const [, y, mo, d, h, mi, sec] = parts.map(Number);
+  const at = new Date(Date.UTC(y, mo - 1, d, h, mi, sec));
+  return at.getUTCFullYear() === y && at.getUTCMonth() === mo - 1 && at.getUTCDate() === d && at.getUTCHours() === h && at.getUTCMinutes() === mi && at.getUTCSeconds() === sec;
+}
+const pgTimestamp = z.string().regex(PG_TIMESTAMP).refine(isRealMoment).nullable();
 const cursorSchema = z.discriminatedUnion('sort', [
   z.object({ sort: z.literal('newest'), publishedAt: pgTimestamp, id: z.uuid() }),
   z.object({ sort: z.literal('needed-soonest'), neededBy: z.iso.date(), id: z.uuid() }),
