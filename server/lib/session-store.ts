@@ -43,24 +43,27 @@ export function userReadWithSession(req: Request, userId: string): User | null |
  */
 export function createSessionStore(pool: pg.Pool, db: Database) {
   const PgStore = connectPgSimple(session);
+  // Prepared once (built once here, parsed once per connection by PostgreSQL): it runs on every signed-in request.
+  const sessionWithUser = db
+    .select({ sess: sessions.sess, user: users })
+    .from(sessions)
+    // The serializer writes the account id (a uuid) and nothing else under passport.user.
+    .leftJoin(users, sql`${users.id} = (${sessions.sess} #>> '{passport,user}')::uuid`)
+    // As connect-pg-simple asks: expiry to the second.
+    .where(and(eq(sessions.sid, sql.placeholder('sid')), sql`${sessions.expire} >= to_timestamp(${sql.placeholder('now')})`))
+    .prepare('session_with_user');
 
   class ThrottledPgStore extends PgStore {
     override get(sid: string, fn: (err: unknown, sess?: session.SessionData | null) => void) {
-      db.select({ sess: sessions.sess, user: users })
-        .from(sessions)
-        // The serializer writes the account id (a uuid) and nothing else under passport.user.
-        .leftJoin(users, sql`${users.id} = (${sessions.sess} #>> '{passport,user}')::uuid`)
-        // As connect-pg-simple asks: expiry to the second.
-        .where(and(eq(sessions.sid, sid), sql`${sessions.expire} >= to_timestamp(${Math.ceil(Date.now() / 1000)})`))
-        .then(
-          ([row]) => {
-            if (!row) return fn(null, null);
-            const sess = (typeof row.sess === 'string' ? JSON.parse(row.sess) : row.sess) as StoredSession;
-            if (sess.passport && typeof sess.passport === 'object') usersReadWithSession.set(sess.passport, row.user);
-            fn(null, sess);
-          },
-          (error: unknown) => fn(error),
-        );
+      sessionWithUser.execute({ sid, now: Math.ceil(Date.now() / 1000) }).then(
+        ([row]) => {
+          if (!row) return fn(null, null);
+          const sess = (typeof row.sess === 'string' ? JSON.parse(row.sess) : row.sess) as StoredSession;
+          if (sess.passport && typeof sess.passport === 'object') usersReadWithSession.set(sess.passport, row.user);
+          fn(null, sess);
+        },
+        (error: unknown) => fn(error),
+      );
     }
 
     override set(sid: string, sess: session.SessionData, fn?: Callback) {

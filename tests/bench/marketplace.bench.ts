@@ -192,7 +192,7 @@ try {
   const summary: string[] = [];
   const ratio = (what: string, f: Figures, against: Figures, aim: number) => {
     const r = f.rate / against.rate;
-    summary.push(`${what.padEnd(52)} ${r.toFixed(2).padStart(5)}  aim ≥ ${aim}  ${r >= aim ? 'met' : 'not met'}`);
+    summary.push(`${what.padEnd(52)} ${r.toFixed(3).padStart(6)}  aim ≥ ${aim}  ${r >= aim ? 'met' : 'not met'}`);
   };
 
   // The board is for signed-in people (a signed-out request gets 401), so every case carries the shop's session.
