@@ -195,42 +195,32 @@ try {
     summary.push(`${what.padEnd(52)} ${r.toFixed(3).padStart(6)}  aim ≥ ${aim}  ${r >= aim ? 'met' : 'not met'}`);
   };
 
+  /** The app's answer to `path` beside the bare handler's `barePath`, in turns; its ratio goes in the summary. */
+  const againstBare = async (title: string, ratioName: string, path: string, barePath: string, connections: number, aim: number) => {
+    section(title);
+    const [app, bareFigures] = await measureGroup(
+      [
+        { name: 'app', url: `${base}${path}` },
+        { name: 'bare', url: `${bareBase}${barePath}` },
+      ],
+      connections,
+    );
+    row('bare node:http + pg, same statements', bareFigures);
+    row('app, signed in as a shop', app, { name: 'bare', figures: bareFigures, aim });
+    ratio(ratioName, app, bareFigures, aim);
+  };
+
   // The board is for signed-in people (a signed-out request gets 401), so every case carries the shop's session.
-  section('board, newest 20, 20 connections');
-  const [newest, newestBare] = await measureGroup(
-    [
-      { name: 'app', url: `${base}/api/jobs?pageSize=20` },
-      { name: 'bare', url: `${bareBase}/newest` },
-    ],
+  await againstBare('board, newest 20, 20 connections', 'newest, against bare', '/api/jobs?pageSize=20', '/newest', 20, 0.75);
+  await againstBare('board, newest 20, 50 connections', 'newest at 50 connections, against bare', '/api/jobs?pageSize=20', '/newest', 50, 0.75);
+  await againstBare(
+    'board, filtered (bore, cast iron, Ohio) and sorted by needed-by, 20 connections',
+    'filtered, against its bare',
+    `/api/jobs?${new URLSearchParams(filteredRaw)}`,
+    '/filtered',
     20,
+    0.6,
   );
-  row('bare node:http + pg, same statements', newestBare);
-  row('app, signed in as a shop', newest, { name: 'bare', figures: newestBare, aim: 0.75 });
-  ratio('newest, against bare', newest, newestBare, 0.75);
-
-  section('board, newest 20, 50 connections');
-  const [newest50, bare50] = await measureGroup(
-    [
-      { name: 'app', url: `${base}/api/jobs?pageSize=20` },
-      { name: 'bare', url: `${bareBase}/newest` },
-    ],
-    50,
-  );
-  row('bare node:http + pg, same statements', bare50);
-  row('app, signed in as a shop', newest50, { name: 'bare', figures: bare50, aim: 0.75 });
-  ratio('newest at 50 connections, against bare', newest50, bare50, 0.75);
-
-  section('board, filtered (bore, cast iron, Ohio) and sorted by needed-by, 20 connections');
-  const [filtered, filteredBare] = await measureGroup(
-    [
-      { name: 'app', url: `${base}/api/jobs?${new URLSearchParams(filteredRaw)}` },
-      { name: 'bare', url: `${bareBase}/filtered` },
-    ],
-    20,
-  );
-  row('bare node:http + pg, same statements', filteredBare);
-  row('app, signed in as a shop', filtered, { name: 'bare', figures: filteredBare, aim: 0.6 });
-  ratio('filtered, against its bare', filtered, filteredBare, 0.6);
 
   section('board, 50-row pages, 20 connections');
   const [page1, page150, page150Cursor] = await measureGroup(
