@@ -61,6 +61,12 @@ export function createApp(deps: AppDeps) {
         return id;
       },
       autoLogging: { ignore: (req) => req.url === '/api/health' },
+      // One compact line per request: no headers (they cost serializing on every request and are
+      // where cookies and tokens travel); the request id ties it to anything else logged for it.
+      serializers: {
+        req: (req: { id: unknown; method: string; url: string }) => ({ id: req.id, method: req.method, url: req.url }),
+        res: (res: { statusCode: number }) => ({ statusCode: res.statusCode }),
+      },
     }),
   );
 
@@ -104,7 +110,7 @@ export function createApp(deps: AppDeps) {
   const paymentDeps = { db, payments: paymentsClient, appUrl: config.appUrl, hub };
   mount(routeModules.paymentsWebhook, { ...paymentDeps, webhookSecret: config.payments.webhookSecret });
 
-  const store = createSessionStore(pool);
+  const store = createSessionStore(pool, db);
   const secure = config.appUrl.startsWith('https://');
   const sessionMiddleware = session({
       name: SESSION_COOKIE,

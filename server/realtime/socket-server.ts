@@ -39,13 +39,12 @@ function failure(error: unknown): SocketAck {
   return { ok: false as const, error: { code: 'internal', message: 'Something went wrong on our side.' } };
 }
 
-/**
- * socket.io on the app's HTTP server. A socket connects with the same session
- * cookie as the pages (no session, no connection), joins its own user room,
- * and may join only the conversations and job pages its user may read.
- */
-/** The longest a publication waits for the one before it to finish. */
-const PUBLISH_ORDER_WAIT_MS = 250;
+/** The adapter's statement for a publication (socket.io-postgres-adapter 0.5). */
+const NOTIFY = 'SELECT pg_notify($1, $2)';
+/** Every publication waiting for its turn goes out in one statement, in the order they were made. */
+const NOTIFY_ALL = 'SELECT pg_notify(n.channel, n.payload) FROM unnest($1::text[], $2::text[]) WITH ORDINALITY AS n(channel, payload, place) ORDER BY n.place';
+/** While the database is away, at most this many publications wait; later ones fail (the adapter logs them). */
+const MAX_WAITING_PUBLICATIONS = 5_000;
 
 /**
  * The pool as the adapter sees it. The adapter keeps one connection checked
@@ -53,27 +52,41 @@ const PUBLISH_ORDER_WAIT_MS = 250;
  * takes a new one without releasing the old, so the pool would wait for it
  * for ever when the app shuts down. Here a connection that ends while checked
  * out goes back to the pool (as broken), once.
+ *
+ * Publications go out in the order they were made: an event and the room change
+ * after it (a job's last news, then its losing bidders leaving) reach every
+ * instance in that order. One statement is in flight at a time; whatever is
+ * published meanwhile waits and then goes out together in the next, in order (one
+ * transaction, whose notifications PostgreSQL delivers in the order they were
+ * made). A burst therefore costs two round trips to the database, not one per
+ * publication after the other. (Within one statement PostgreSQL delivers two
+ * byte-identical publications once; every event the hub sends is either unique,
+ * as a message with its id, or a signal to recount or refetch, so once is enough.)
  */
 function adapterPool(pool: pg.Pool): pg.Pool {
-  // Publications go out in the order they were made, each after the one before it has
-  // finished: an event and the room change after it (a job's last news, then its losing
-  // bidders leaving) reach every instance in that order instead of racing over two pool
-  // connections. None waits longer than PUBLISH_ORDER_WAIT_MS for the one before, so a
-  // database that is away does not pile up a queue that drains for minutes once it is back.
-  let last: Promise<unknown> = Promise.resolve();
-  const query = (...args: unknown[]) => {
-    const previous = last;
-    const turn = new Promise<void>((resolve) => {
-      const timer = setTimeout(resolve, PUBLISH_ORDER_WAIT_MS);
-      timer.unref();
-      void previous.then(() => {
-        clearTimeout(timer);
-        resolve();
-      });
+  let waiting: Array<{ channel: string; payload: string; settle: (error?: unknown) => void }> = [];
+  let sending = false;
+  const sendWaiting = async () => {
+    sending = true;
+    while (waiting.length > 0) {
+      const batch = waiting;
+      waiting = [];
+      try {
+        await pool.query(NOTIFY_ALL, [batch.map((p) => p.channel), batch.map((p) => p.payload)]);
+        for (const p of batch) p.settle();
+      } catch (error) {
+        for (const p of batch) p.settle(error);
+      }
+    }
+    sending = false;
+  };
+  const query = (text: string, values?: unknown[]) => {
+    if (text !== NOTIFY || !values) return pool.query(text, values);
+    if (waiting.length >= MAX_WAITING_PUBLICATIONS) return Promise.reject(new Error('too many publications are waiting for the database'));
+    return new Promise<void>((resolve, reject) => {
+      waiting.push({ channel: String(values[0]), payload: String(values[1]), settle: (error) => (error ? reject(error as Error) : resolve()) });
+      if (!sending) void sendWaiting();
     });
-    const run = turn.then(() => (pool.query as (...a: unknown[]) => Promise<unknown>)(...args));
-    last = run.catch(() => {});
-    return run;
   };
   return {
     query,
@@ -91,6 +104,11 @@ function adapterPool(pool: pg.Pool): pg.Pool {
   } as unknown as pg.Pool;
 }
 
+/**
+ * socket.io on the app's HTTP server. A socket connects with the same session
+ * cookie as the pages (no session, no connection), joins its own user room,
+ * and may join only the conversations and job pages its user may read.
+ */
 export function attachRealtime(options: RealtimeOptions): RealtimeServer {
   const { db, hub, logger } = options;
   const appOrigin = new URL(options.appUrl).origin;

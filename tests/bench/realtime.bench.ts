@@ -1,14 +1,18 @@
 /**
  * `npm run bench:realtime`: several hundred socket.io clients spread over two
  * app instances that share one PostgreSQL (the adapter carries messages
- * between them). Prints message delivery latency p50 / p99 and the number of
- * connections held; asserts nothing.
+ * between them). Prints message delivery latency p50 / p99 beside the aims of
+ * issue 19, the sender's acknowledgement (stored and published), the number of
+ * connections held, and as a floor a bare NOTIFY → LISTEN round trip between two
+ * plain connections to the same PostgreSQL, in bursts of the same size, measured
+ * in the same run; asserts nothing.
  */
 import { sql } from 'drizzle-orm';
 import { randomBytes } from 'node:crypto';
 import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+import pg from 'pg';
 import { io as connect, type Socket } from 'socket.io-client';
 import { createDb, createPool } from '../../server/db/client';
 import { hashPassword } from '../../server/lib/auth/passwords';
@@ -77,6 +81,7 @@ try {
 
   console.log(`connecting ${THREADS * (LISTENERS_PER_THREAD + 1)} clients over two instances …`);
   const latencies: number[] = [];
+  const acks: number[] = [];
   let expected = 0;
   const senders: Array<{ socket: Socket; threadId: string }> = [];
   for (const pair of pairs) {
@@ -100,11 +105,13 @@ try {
   for (let m = 0; m < MESSAGES_PER_THREAD; m += 1) {
     await Promise.all(
       senders.map(async ({ socket, threadId }) => {
+        const sentAt = performance.now();
         const answer = (await socket.timeout(10_000).emitWithAck('message:send', {
           threadId,
           clientId: randomBytes(8).toString('hex'),
-          body: `sent ${performance.now()}`,
+          body: `sent ${sentAt}`,
         })) as { ok: boolean };
+        acks.push(performance.now() - sentAt);
         if (answer.ok) expected += LISTENERS_PER_THREAD;
       }),
     );
@@ -113,15 +120,43 @@ try {
   while (latencies.length < expected && Date.now() < deadline) await new Promise((r) => setTimeout(r, 50));
   const elapsed = (performance.now() - started) / 1000;
 
-  latencies.sort((a, b) => a - b);
-  const pick = (q: number) => latencies[Math.min(latencies.length - 1, Math.floor(q * latencies.length))] ?? NaN;
+  // The floor: a bare NOTIFY from one plain connection reaching another that LISTENs, in bursts as large as the senders'.
+  const listener = new pg.Client({ connectionString: url });
+  const notifier = new pg.Pool({ connectionString: url, max: 10 });
+  await listener.connect();
+  const bare: number[] = [];
+  listener.on('notification', (n) => bare.push(performance.now() - Number(n.payload)));
+  await listener.query('LISTEN bench_floor');
+  for (let m = 0; m < MESSAGES_PER_THREAD; m += 1) {
+    await Promise.all(senders.map(() => notifier.query('SELECT pg_notify($1, $2)', ['bench_floor', String(performance.now())])));
+  }
+  const floorDeadline = Date.now() + 5_000;
+  while (bare.length < senders.length * MESSAGES_PER_THREAD && Date.now() < floorDeadline) await new Promise((r) => setTimeout(r, 20));
+  await listener.end();
+  await notifier.end();
+
+  const pick = (values: number[], q: number) => {
+    const sorted = [...values].sort((a, b) => a - b);
+    return sorted[Math.min(sorted.length - 1, Math.floor(q * sorted.length))] ?? NaN;
+  };
+  const ms = (value: number) => `${value.toFixed(1).padStart(7)} ms`;
+  const aim = (value: number, limit: number) => `aim ≤ ${limit} ms, ${value <= limit ? 'met' : 'not met'}`;
+  const p50 = pick(latencies, 0.5);
+  const p99 = pick(latencies, 0.99);
   console.log(`
 connections held        ${held} (instance A ${servers[0].io.engine.clientsCount}, instance B ${servers[1].io.engine.clientsCount})
-messages sent           ${THREADS * MESSAGES_PER_THREAD} (${THREADS} conversations × ${MESSAGES_PER_THREAD})
+messages sent           ${THREADS * MESSAGES_PER_THREAD} (${THREADS} conversations × ${MESSAGES_PER_THREAD}, ${THREADS} at a time)
 deliveries              ${latencies.length} of ${expected} expected, in ${elapsed.toFixed(1)} s
-delivery latency p50    ${pick(0.5).toFixed(1)} ms
-delivery latency p99    ${pick(0.99).toFixed(1)} ms
-delivery latency max    ${latencies.at(-1)?.toFixed(1)} ms`);
+
+                        p50          p99          max
+delivery (send → other sockets, both instances)
+                     ${ms(p50)}   ${ms(p99)}   ${ms(Math.max(...latencies))}
+  against the aims      p50 ${aim(p50, 15)}; p99 ${aim(p99, 40)}
+sender's answer (stored, committed, published)
+                     ${ms(pick(acks, 0.5))}   ${ms(pick(acks, 0.99))}   ${ms(Math.max(...acks))}
+floor: bare NOTIFY → LISTEN, same bursts (${bare.length} notifications)
+                     ${ms(pick(bare, 0.5))}   ${ms(pick(bare, 0.99))}   ${ms(Math.max(...bare))}
+  delivery p50 is ${(p50 / pick(bare, 0.5)).toFixed(1)} × the floor's p50`);
 } finally {
   for (const socket of sockets) socket.disconnect();
   for (const server of servers) await server.close();

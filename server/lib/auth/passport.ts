@@ -1,3 +1,4 @@
+import type { Request } from 'express';
 import { Passport } from 'passport';
 import { Strategy as GitHubStrategy, type Profile as GitHubProfile } from 'passport-github2';
 import { Strategy as LocalStrategy } from 'passport-local';
@@ -5,6 +6,7 @@ import type { Database } from '../../db/client';
 import type { GithubConfig } from '../../env';
 import { authenticate, type GithubProfile } from '../../modules/auth/auth.service';
 import { findUserById } from '../../modules/users/users.repository';
+import { userReadWithSession } from '../session-store';
 
 interface RawEmail {
   value: string;
@@ -59,10 +61,14 @@ export function createPassport(deps: { db: Database; appUrl: string; github: Git
   );
 
   passport.serializeUser((user, done) => done(null, (user as Express.User).id));
-  passport.deserializeUser((id: string, done) => {
+  // A suspended or deleted account is signed out on its next request.
+  const signedIn = (user: Express.User | null | undefined) => (user && user.status === 'active' ? user : false);
+  passport.deserializeUser((req: Request, id: string, done: (err: unknown, user?: Express.User | false) => void) => {
+    // Usually read with the session in the same statement (server/lib/session-store.ts).
+    const read = userReadWithSession(req, id);
+    if (read !== undefined) return done(null, signedIn(read));
     findUserById(deps.db, id).then(
-      // A suspended or deleted account is signed out on its next request.
-      (user) => done(null, user && user.status === 'active' ? user : false),
+      (user) => done(null, signedIn(user)),
       (error) => done(error),
     );
   });

@@ -63,8 +63,7 @@ async function writable(db: Executor, job: JobRow, thread: ThreadRow): Promise<b
 export async function threadFor(db: Executor, threadId: string, user: User): Promise<ThreadAccess> {
   const [thread] = await db.select().from(threads).where(eq(threads.id, threadId));
   if (!thread) throw notFound('No conversation with that id.');
-  const job = await findJob(db, thread.jobId);
-  const [shop] = await db.select({ userId: shops.userId }).from(shops).where(eq(shops.id, thread.shopId));
+  const [job, [shop]] = await Promise.all([findJob(db, thread.jobId), db.select({ userId: shops.userId }).from(shops).where(eq(shops.id, thread.shopId))]);
   if (!job || !shop) throw notFound('No conversation with that id.');
   const isParty = mustReadThread(job, shop.userId, user);
   return {
@@ -177,12 +176,15 @@ export async function sendMessage(
   options: { onTooFast?: (retryAfterSeconds: number) => void } = {},
 ): Promise<{ message: Message; duplicate: boolean; access: ThreadAccess }> {
   const { db } = deps;
-  await deps.rateLimit?.(user.id, options.onTooFast);
+  // The count and the conversation are read side by side; the limit's refusal still comes first.
+  const [limited, found] = await Promise.allSettled([deps.rateLimit?.(user.id, options.onTooFast), threadFor(db, threadId, user)]);
+  if (limited.status === 'rejected') throw limited.reason;
   // The shared schema says the same; callers that skip it (scripts, benches) meet it here, since the table allows ''.
   if (!input.body && !input.photoIds?.length) {
     throw new AppError('invalid_input', 'Write a message or add a photo.', 400, { body: 'Write a message or add a photo.' });
   }
-  const access = await threadFor(db, threadId, user);
+  if (found.status === 'rejected') throw found.reason;
+  const access = found.value;
   if (!access.canWrite) throw conflict('This conversation is closed to new messages.', 'thread_closed');
   const sent = await db.transaction(async (tx) => {
     const [inserted] = await tx
@@ -202,8 +204,9 @@ export async function sendMessage(
       await tx.update(threads).set({ lastMessageAt: row.createdAt }).where(eq(threads.id, threadId));
       await markReadTx(tx, threadId, user.id, row.id, row.createdAt);
     }
-    const photos = await photosOfMessages(tx, [row.id]);
-    return { message: toMessage(row, photos.get(row.id)), duplicate: !id, access };
+    // A message stored just now without photos has none; a resent one may.
+    const photos = id && !input.photoIds?.length ? undefined : (await photosOfMessages(tx, [row.id])).get(row.id);
+    return { message: toMessage(row, photos), duplicate: !id, access };
   });
   // Every open page of the conversation gets the message; the other side's unread count moves.
   if (!sent.duplicate) deps.hub?.messageCreated(sent.message, [access.builderId, access.shopUserId].filter((id) => id !== user.id));
