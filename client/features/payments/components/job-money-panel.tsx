@@ -1,10 +1,8 @@
 import { EXTRA_WORK_STATUS, NAMES } from '@shared/glossary';
-import { zodResolver } from '@hookform/resolvers/zod';
 import { useEffect, useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { useSearchParams } from 'react-router-dom';
 import { toast } from 'sonner';
-import { z } from 'zod';
 import { formatCents } from '@shared/catalogue';
 import { feeRateWords, netOf } from '@shared/money';
 import type { JobDetail } from '@shared/schemas/jobs';
@@ -17,6 +15,8 @@ import { TextAreaField } from '@client/components/ui/text-area-field';
 import { TextField } from '@client/components/ui/text-field';
 import { ConfirmEmailNotice, useNeedsEmailConfirmation } from '@client/features/auth';
 import { applyServerErrors } from '@client/lib/form-errors';
+import { lazyResolver } from '@client/lib/lazy-resolver';
+import type { ChangeOrderFormValues } from './change-order-form-schema';
 import {
   useApproveChangeOrder,
   useCancelAndRefund,
@@ -198,10 +198,7 @@ function Balance({ money, side }: { money: MoneyView; side: 'builder' | 'shop' }
   );
 }
 
-const changeOrderForm = z.object({
-  description: z.string().trim().min(4, 'Describe the extra work.').max(1000, 'Use at most 1,000 characters.'),
-  dollars: z.string().trim().regex(/^\d{1,7}(\.\d{1,2})?$/, 'Give a price in dollars, like 180 or 180.50.'),
-});
+const changeOrderResolver = lazyResolver(() => import('./change-order-form-schema').then((m) => m.changeOrderFormSchema));
 
 /** Change orders: inside the builder's payment box, or (`ownCard`) a card of their own for the shop. */
 function ChangeOrders({ job, side, ownCard = false }: { job: JobDetail; side: 'builder' | 'shop'; ownCard?: boolean }) {
@@ -271,7 +268,7 @@ function CollapsedProposal({ jobId }: { jobId: string }) {
 /** The shop proposes extra work with its price; `description` prefills what needs doing (a crack test's findings, say). */
 export function ProposeChangeOrder({ jobId, description = '', intro }: { jobId: string; description?: string; intro?: string }) {
   const [formError, setFormError] = useState<string>();
-  const form = useForm<z.infer<typeof changeOrderForm>>({ resolver: zodResolver(changeOrderForm), defaultValues: { description, dollars: '' } });
+  const form = useForm<ChangeOrderFormValues>({ resolver: changeOrderResolver, defaultValues: { description, dollars: '' } });
   // A prefill that changes (findings still being typed) follows into the field until the shop edits it there.
   const edited = form.formState.dirtyFields.description;
   useEffect(() => {
