@@ -1,6 +1,6 @@
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
-import { toast } from 'sonner';
+import { toast } from '@client/lib/toast';
 import type { CreateAdminInput } from '@shared/schemas/admin';
 import { Button } from '@client/components/ui/button';
 import { Notice } from '@client/components/ui/notice';

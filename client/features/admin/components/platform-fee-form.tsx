@@ -1,6 +1,6 @@
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
-import { toast } from 'sonner';
+import { toast } from '@client/lib/toast';
 import { platformFeeSchema, type PlatformFee } from '@shared/schemas/admin';
 import { Button } from '@client/components/ui/button';
 import { ConfirmDialog } from '@client/components/ui/modal-dialog';

@@ -1,6 +1,6 @@
 import { useId, useMemo, useState } from 'react';
 import { useForm, useWatch, type Control } from 'react-hook-form';
-import { toast } from 'sonner';
+import { toast } from '@client/lib/toast';
 import { formatCents } from '@shared/catalogue';
 import { resolveDisputeSchema, type DisputeCase, type DisputeOutcome, type ResolveDisputeInput } from '@shared/schemas/disputes';
 import { Button } from '@client/components/ui/button';

@@ -1,7 +1,7 @@
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import type { suspendUserSchema } from '@shared/schemas/admin';
-import { toast } from 'sonner';
+import { toast } from '@client/lib/toast';
 import type { z } from 'zod';
 import { ConfirmDialog } from '@client/components/ui/modal-dialog';
 import { TextAreaField } from '@client/components/ui/text-area-field';

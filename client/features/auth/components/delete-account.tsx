@@ -2,7 +2,7 @@ import { useQuery } from '@tanstack/react-query';
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { Link, useNavigate } from 'react-router-dom';
-import { toast } from 'sonner';
+import { toast } from '@client/lib/toast';
 import type { DeleteAccountInput } from '@shared/schemas/account';
 import { Button } from '@client/components/ui/button';
 import { ModalDialog } from '@client/components/ui/modal-dialog';

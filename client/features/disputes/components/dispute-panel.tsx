@@ -1,7 +1,7 @@
 import { useEffect, useId, useRef, useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { Link } from 'react-router-dom';
-import { toast } from 'sonner';
+import { toast } from '@client/lib/toast';
 import type { z } from 'zod';
 import { formatCents } from '@shared/catalogue';
 import { DISPUTE_STATUS } from '@shared/glossary';

@@ -1,7 +1,7 @@
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { Link } from 'react-router-dom';
-import { toast } from 'sonner';
+import { toast } from '@client/lib/toast';
 import type { z } from 'zod';
 import { boreSpecFor, checksNotConforming } from '@shared/calc';
 import { RECORD_STATUS, type Term } from '@shared/glossary';

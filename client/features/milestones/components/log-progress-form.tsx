@@ -1,6 +1,6 @@
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
-import { toast } from 'sonner';
+import { toast } from '@client/lib/toast';
 import type { z } from 'zod';
 import { findOperation } from '@shared/catalogue';
 import { milestoneKinds, type MilestoneInput, type milestoneInputSchema } from '@shared/schemas/inspection';

@@ -1,5 +1,5 @@
 import { useForm } from 'react-hook-form';
-import { toast } from 'sonner';
+import { toast } from '@client/lib/toast';
 import type { z } from 'zod';
 import type { JobDetail } from '@shared/schemas/jobs';
 import type { PostalAddress, SentToShopInput, ShippingView, sentToShopInputSchema } from '@shared/schemas/shipping';

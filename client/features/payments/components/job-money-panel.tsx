@@ -2,7 +2,7 @@ import { EXTRA_WORK_STATUS, NAMES } from '@shared/glossary';
 import { useEffect, useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { useSearchParams } from 'react-router-dom';
-import { toast } from 'sonner';
+import { toast } from '@client/lib/toast';
 import { formatCents } from '@shared/catalogue';
 import { feeRateWords, netOf } from '@shared/money';
 import type { JobDetail } from '@shared/schemas/jobs';

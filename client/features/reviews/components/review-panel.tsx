@@ -1,6 +1,6 @@
 import { useId, useState } from 'react';
 import { Controller, useForm } from 'react-hook-form';
-import { toast } from 'sonner';
+import { toast } from '@client/lib/toast';
 import type { z } from 'zod';
 import type { JobDetail } from '@shared/schemas/jobs';
 import type { Review, reviewInputSchema } from '@shared/schemas/reviews';

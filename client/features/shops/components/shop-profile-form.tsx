@@ -1,6 +1,6 @@
 import { useId, useMemo, useState } from 'react';
 import { useFieldArray, useForm, type Path } from 'react-hook-form';
-import { toast } from 'sonner';
+import { toast } from '@client/lib/toast';
 import { findOperation, type OperationCode } from '@shared/catalogue';
 import { shopProfileSchema, type ShopProfileInput } from '@shared/schemas/shops';
 import { addressError, addressFormValues, blankAddress, PostalAddressFields, type AddressFormValues } from '@client/components/postal-address';
