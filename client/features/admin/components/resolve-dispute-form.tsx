@@ -2,7 +2,7 @@ import { useId, useMemo, useState } from 'react';
 import { useForm, useWatch, type Control } from 'react-hook-form';
 import { toast } from '@client/lib/toast';
 import { formatCents } from '@shared/catalogue';
-import { resolveDisputeSchema, type DisputeCase, type DisputeOutcome, type ResolveDisputeInput } from '@shared/schemas/disputes';
+import { type DisputeCase, type DisputeOutcome, type ResolveDisputeInput } from '@shared/schemas/disputes';
 import { Button } from '@client/components/ui/button';
 import { ConfirmDialog } from '@client/components/ui/modal-dialog';
 import { MoneyField } from '@client/components/ui/money-field';
@@ -99,7 +99,7 @@ export function ResolveDisputeForm({ data }: { data: DisputeCase }) {
   const heldCents = data.money.balance.held;
   const shopName = data.shop?.name ?? 'the shop';
   const builderName = data.builder.name;
-  const resolver = useMemo(() => dollarsFormResolver<ResolveFields, ResolveDisputeInput>(resolveDisputeSchema, prepareFor(heldCents)), [heldCents]);
+  const resolver = useMemo(() => dollarsFormResolver<ResolveFields, ResolveDisputeInput>(() => import('@shared/schemas/disputes').then((m) => m.resolveDisputeSchema), prepareFor(heldCents)), [heldCents]);
   const form = useForm<ResolveFields, unknown, ResolveDisputeInput>({ resolver, defaultValues: { outcome: '', shopShare: '', decision: '' } });
   const [formError, setFormError] = useState<string>();
   const [pending, setPending] = useState<ResolveDisputeInput>();
