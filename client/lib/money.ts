@@ -79,14 +79,23 @@ export interface PreparedInput {
  * `prepare` converts the values to the schema's input; the shared schema then
  * checks everything, and its parsed output is what the form submits.
  * A money message wins over the schema's message for the same field.
+ * `loadSchema` is the schema's dynamic import: the schema, and zod with it,
+ * load at the first check rather than with the page (as in lazy-resolver.ts);
+ * a failed load is tried again at the next check. Making one has no side effects.
  */
+/*#__NO_SIDE_EFFECTS__*/
 export function dollarsFormResolver<TForm extends FieldValues, TOutput>(
-  schema: z.ZodType<TOutput>,
+  loadSchema: () => Promise<z.ZodType<TOutput>>,
   prepare: (values: TForm) => PreparedInput,
 ): Resolver<TForm, unknown, TOutput> {
+  let loading: Promise<z.ZodType<TOutput>> | undefined;
   return async (values, _context, options) => {
     const { input, moneyErrors, formPath } = prepare(values);
-    const result = await schema.safeParseAsync(input);
+    loading ??= loadSchema().catch((error: unknown) => {
+      loading = undefined;
+      throw error;
+    });
+    const result = await (await loading).safeParseAsync(input);
     const flat: Record<string, FieldError> = {};
     for (const [path, message] of Object.entries(moneyErrors)) flat[path] = { type: 'money', message };
     if (!result.success) {

@@ -5,25 +5,9 @@ import { messageSchema } from './messages';
 import { milestoneSchema } from './milestones';
 import { changeOrderSchema, ledgerEntryKindSchema, moneyViewSchema } from './payments';
 import { storedPhotoSchema } from './photos';
+import { disputeReasons } from './values';
 
-/**
- * Why a dispute is opened. The builder disputes instead of accepting an
- * inspection record; the shop disputes when the builder has gone silent past
- * the agreed date, or over a change order.
- */
-export const builderDisputeReasons = ['record_outside_limits', 'work_not_as_agreed', 'parts_damaged_or_missing', 'other'] as const;
-export const shopDisputeReasons = ['builder_silent', 'change_order'] as const;
-export const disputeReasons = [...builderDisputeReasons, ...shopDisputeReasons] as const;
-export type DisputeReason = (typeof disputeReasons)[number];
-
-export const disputeReasonWords: Record<DisputeReason, string> = {
-  record_outside_limits: 'The inspection record shows sizes outside the agreed limits',
-  work_not_as_agreed: 'The work done is not what was agreed',
-  parts_damaged_or_missing: 'Parts came back damaged or missing',
-  other: 'Something else (explain below)',
-  builder_silent: 'The builder has not answered past the agreed date',
-  change_order: 'Extra work is not being paid or answered',
-};
+export { builderDisputeReasons, disputeReasonWords, disputeReasons, shopDisputeReasons, type DisputeReason } from './values';
 
 /** Days the builder must have been silent before the shop may open a dispute for silence. */
 export const BUILDER_SILENCE_DAYS = 3;

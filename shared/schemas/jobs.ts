@@ -3,9 +3,10 @@ import { boreOperationCodes, findOperation, partsAllow, partsNeededWords, partsO
 import { BALANCE_GRADE_CHOICES, limitGroupOperation, limitGroups, operationLimitFields, type LimitField, type OperationLimits } from '../operation-limits';
 import { isoDateSchema, operationCodeSchema, queryInt, regionSchema, uuidSchema } from './common';
 import { photoFileParamsSchema } from './photos';
+import { jobStatuses } from './values';
 
-export const jobStatuses = ['draft', 'open', 'awarded', 'funded', 'in_work', 'inspection_submitted', 'completed', 'disputed', 'resolved', 'cancelled'] as const;
-export type JobStatus = (typeof jobStatuses)[number];
+export { jobStatuses, type JobStatus } from './values';
+
 
 export const blockMaterials = ['cast-iron', 'aluminium'] as const;
 export const engineLayouts = ['inline', 'v', 'flat', 'other'] as const;

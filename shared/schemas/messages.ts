@@ -2,10 +2,10 @@ import { z } from 'zod';
 import { roles } from './auth';
 import { uuidSchema } from './common';
 import { storedPhotoSchema, type StoredPhoto, type UploadedPhotos } from './photos';
+import { MAX_MESSAGE_LENGTH, MAX_PHOTOS_PER_MESSAGE } from './values';
 
-export const MAX_MESSAGE_LENGTH = 4000;
+export { MAX_MESSAGE_LENGTH, MAX_PHOTOS_PER_MESSAGE } from './values';
 
-export const MAX_PHOTOS_PER_MESSAGE = 4;
 
 const messageBodySchema = z
   .string({ error: 'Write a message.' })

@@ -168,7 +168,8 @@ describe('the calculator page, as a signed-out visitor', () => {
     await expect(first.getByText('Fail', { exact: true }).isVisible()).resolves.toBe(true);
     await expect(boreCheck.getByTestId('bore-row-2').getByText('Pass', { exact: true }).isVisible()).resolves.toBe(true);
     await expect(boreCheck.getByText('1 of 2 outside limits').isVisible()).resolves.toBe(true);
-    await expect(boreCheck.getByTestId('bore-depth-chart').locator('svg.recharts-surface').count()).resolves.toBeGreaterThan(0);
+    // The plot loads with the charting library after the figures: wait for it to be drawn.
+    await boreCheck.getByTestId('bore-depth-chart').locator('svg.recharts-surface').first().waitFor();
     await expect(boreCheck.getByTestId('bore-depth-chart').locator('.recharts-line').count()).resolves.toBe(2);
 
     // A reading of zero is refused with the schema's message, named by its cell, and the results go away.
@@ -188,7 +189,7 @@ describe('the calculator page, as a signed-out visitor', () => {
     await expect(rough.getByTestId('loaded-profile').textContent()).resolves.toContain('Synthetic example');
     await rough.getByTestId('roughness-result').waitFor();
     const chart = rough.getByTestId('material-ratio-chart');
-    await expect(chart.locator('svg.recharts-surface').count()).resolves.toBeGreaterThan(0);
+    await chart.locator('svg.recharts-surface').first().waitFor();
     await expect(chart.locator('.recharts-line').count()).resolves.toBe(5);
     await expect(chart.locator('.recharts-reference-area').count()).resolves.toBe(1);
 

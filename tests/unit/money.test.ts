@@ -80,7 +80,7 @@ describe('a form resolver for dollars fields checked by a shared schema', () => 
     lines: z.array(z.object({ priceCents: z.number().int().min(0).max(1000, 'At most $10.') })).min(1, 'Add a line.'),
   });
   type Form = { lines: Array<{ price: string }> };
-  const resolver = dollarsFormResolver<Form, z.infer<typeof schema>>(schema, (values) => {
+  const resolver = dollarsFormResolver<Form, z.infer<typeof schema>>(() => Promise.resolve(schema), (values) => {
     const moneyErrors: Record<string, string> = {};
     const lines = values.lines.map((line, index) => {
       const parsed = parseDollars(line.price);

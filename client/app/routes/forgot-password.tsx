@@ -1,18 +1,20 @@
-import { zodResolver } from '@hookform/resolvers/zod';
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { Link } from 'react-router-dom';
-import { passwordResetRequestSchema, type PasswordResetRequestInput } from '@shared/schemas/auth';
+import type { PasswordResetRequestInput } from '@shared/schemas/auth';
 import { Button } from '@client/components/ui/button';
 import { Card, PageTitle } from '@client/components/ui/card';
 import { Notice } from '@client/components/ui/notice';
 import { TextField } from '@client/components/ui/text-field';
 import { useRequestPasswordReset } from '@client/features/auth';
 import { applyServerErrors } from '@client/lib/form-errors';
+import { lazyResolver } from '@client/lib/lazy-resolver';
+
+const passwordResetRequestResolver = lazyResolver(() => import('@shared/schemas/auth').then((m) => m.passwordResetRequestSchema));
 
 export function ForgotPasswordRoute() {
   const [formError, setFormError] = useState<string>();
-  const form = useForm<PasswordResetRequestInput>({ resolver: zodResolver(passwordResetRequestSchema), defaultValues: { email: '' } });
+  const form = useForm<PasswordResetRequestInput>({ resolver: passwordResetRequestResolver, defaultValues: { email: '' } });
   const request = useRequestPasswordReset();
   const onSubmit = form.handleSubmit((values) => {
     setFormError(undefined);

@@ -1,21 +1,23 @@
-import { zodResolver } from '@hookform/resolvers/zod';
 import { useQuery } from '@tanstack/react-query';
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { Link, useNavigate } from 'react-router-dom';
-import { githubCompleteSchema, type GithubCompleteInput } from '@shared/schemas/auth';
+import type { GithubCompleteInput } from '@shared/schemas/auth';
 import { Button } from '@client/components/ui/button';
 import { Card, PageTitle } from '@client/components/ui/card';
 import { Notice } from '@client/components/ui/notice';
 import { authQueries, ConsentField, useCompleteGithub, RolePicker } from '@client/features/auth';
 import { applyServerErrors } from '@client/lib/form-errors';
+import { lazyResolver } from '@client/lib/lazy-resolver';
+
+const githubCompleteResolver = lazyResolver(() => import('@shared/schemas/auth').then((m) => m.githubCompleteSchema));
 
 /** A first GitHub sign-in: the person chooses builder or shop before the account exists. */
 export function GithubWelcomeRoute() {
   const navigate = useNavigate();
   const pending = useQuery(authQueries.pendingGithub());
   const [formError, setFormError] = useState<string>();
-  const form = useForm<GithubCompleteInput>({ resolver: zodResolver(githubCompleteSchema) });
+  const form = useForm<GithubCompleteInput>({ resolver: githubCompleteResolver });
   const complete = useCompleteGithub({ mutationConfig: { onSuccess: () => navigate('/dashboard', { replace: true }) } });
   const onSubmit = form.handleSubmit((values) => {
     setFormError(undefined);

@@ -1,5 +1,5 @@
 import { useNavigate } from 'react-router-dom';
-import { toast } from 'sonner';
+import { toast } from '@client/lib/toast';
 import { PageTitle } from '@client/components/ui/card';
 import type { JobInput } from '@shared/schemas/jobs';
 import { useCreateJob, usePublishJob, JobForm, keptFormKey } from '@client/features/jobs';

@@ -1,6 +1,7 @@
 import { Link, useSearchParams } from 'react-router-dom';
 import { findOperation } from '@shared/catalogue';
-import { jobStatuses, type JobStatus, type JobSummary } from '@shared/schemas/jobs';
+import type { JobStatus, JobSummary } from '@shared/schemas/jobs';
+import { jobStatuses } from '@shared/schemas/values';
 import { Card, PageTitle } from '@client/components/ui/card';
 import { Notice } from '@client/components/ui/notice';
 import { SelectField } from '@client/components/ui/select-field';

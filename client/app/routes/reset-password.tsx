@@ -1,27 +1,20 @@
-import { zodResolver } from '@hookform/resolvers/zod';
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { Link, useNavigate, useSearchParams } from 'react-router-dom';
-import { toast } from 'sonner';
-import { z } from 'zod';
-import { newPasswordSchema } from '@shared/schemas/auth';
+import { toast } from '@client/lib/toast';
 import { Button } from '@client/components/ui/button';
 import { Card, PageTitle } from '@client/components/ui/card';
 import { Notice } from '@client/components/ui/notice';
-import { NewPasswordFields, useConfirmPasswordReset } from '@client/features/auth';
+import { NewPasswordFields, resetPasswordResolver, useConfirmPasswordReset, type ResetPasswordFormValues } from '@client/features/auth';
 import { applyServerErrors, fieldProps } from '@client/lib/form-errors';
 
-const formSchema = z
-  .object({ password: newPasswordSchema, repeat: z.string() })
-  .refine((v) => v.password === v.repeat, { path: ['repeat'], message: 'The two passwords differ.' });
-type FormValues = z.infer<typeof formSchema>;
 
 export function ResetPasswordRoute() {
   const [params] = useSearchParams();
   const token = params.get('token') ?? '';
   const navigate = useNavigate();
   const [formError, setFormError] = useState<string>();
-  const form = useForm<FormValues>({ resolver: zodResolver(formSchema), defaultValues: { password: '', repeat: '' } });
+  const form = useForm<ResetPasswordFormValues>({ resolver: resetPasswordResolver, defaultValues: { password: '', repeat: '' } });
   const confirm = useConfirmPasswordReset({
     mutationConfig: {
       onSuccess: () => {

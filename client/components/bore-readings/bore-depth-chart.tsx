@@ -1,15 +1,17 @@
-import { useId, type ReactNode } from 'react';
-import { CartesianGrid, Line, LineChart, ReferenceLine, XAxis, YAxis } from 'recharts';
+import { lazy, Suspense, useId, type ReactNode } from 'react';
 import type { CylinderReadings, LengthUnit } from '@shared/calc';
 import { ChartLegend } from '@client/components/ui/chart-legend';
 import { DEPTHS } from '@client/lib/bore-readings';
 import { cn } from '@client/lib/cn';
-import { LENGTH_DECIMALS, formatLength, formatNumber, niceTicks } from '@client/lib/numbers';
+import { formatLength, niceTicks } from '@client/lib/numbers';
+import { AXIAL_COLOUR, TARGET_COLOUR, THRUST_COLOUR } from './bore-depth-colours';
+
+// The plot itself needs the charting library (about 90 KB gzipped): it loads with the first chart shown, in a
+// placeholder of the plot's own height so nothing moves when it arrives. Caption, key and table need no library.
+const BoreDepthPlot = lazy(() => import('./bore-depth-plot').then((m) => ({ default: m.BoreDepthPlot })));
+const PLOT_HEIGHT = 240;
 
 const DEPTH_WORDS = { top: 'Top', middle: 'Middle', bottom: 'Bottom' } as const;
-const THRUST_COLOUR = '#1d4e6b'; // slate-700
-const AXIAL_COLOUR = '#975c12'; // brass-600
-const TARGET_COLOUR = '#1e6b3a'; // pass green
 
 export type ChartDirections = 'both' | 'thrust' | 'axial';
 
@@ -45,7 +47,6 @@ export function BoreDepthChart({ readings, unit, cylinderNumber, targetBore, dir
   const high = Math.max(...values);
   // Leave room either side; at least a few tenths (or a few hundredths of a millimetre) so a perfect bore still reads.
   const pad = Math.max((high - low) * 0.25, unit === 'in' ? 0.0003 : 0.008);
-  const decimals = LENGTH_DECIMALS[unit];
   const axis = niceTicks(low - pad, high + pad, 5, unit === 'in' ? 0.0001 : 0.001);
 
   return (
@@ -59,41 +60,9 @@ export function BoreDepthChart({ readings, unit, cylinderNumber, targetBore, dir
         ]}
       />
       <div aria-hidden="true" data-testid={testId}>
-        <LineChart
-          layout="vertical"
-          data={depths}
-          responsive
-          accessibilityLayer={false}
-          style={{ width: '100%', height: 240 }}
-          margin={{ top: 10, right: 24, bottom: 24, left: 8 }}
-        >
-          <CartesianGrid stroke="#d8e3ea" />
-          <XAxis
-            type="number"
-            domain={axis.domain}
-            ticks={axis.ticks}
-            tickFormatter={(value: number) => formatNumber(value, decimals)}
-            tick={{ fill: '#3b4a55', fontSize: 12 }}
-            label={{ value: `Diameter (${unit})`, position: 'insideBottom', offset: -14, fill: '#3b4a55', fontSize: 12 }}
-          />
-          <YAxis type="category" dataKey="depth" width={64} tick={{ fill: '#3b4a55', fontSize: 12 }} />
-          {targetBore !== undefined && <ReferenceLine x={targetBore} stroke={TARGET_COLOUR} strokeWidth={1.5} strokeDasharray="5 3" />}
-          {showThrust && (
-            <Line dataKey="thrust" name="Thrust" stroke={THRUST_COLOUR} strokeWidth={2.5} dot={{ r: 4, fill: THRUST_COLOUR }} activeDot={false} isAnimationActive={false} />
-          )}
-          {showAxial && (
-            <Line
-              dataKey="axial"
-              name="Axial (along the crank)"
-              stroke={AXIAL_COLOUR}
-              strokeWidth={2.5}
-              strokeDasharray="6 4"
-              dot={{ r: 4, fill: AXIAL_COLOUR }}
-              activeDot={false}
-              isAnimationActive={false}
-            />
-          )}
-        </LineChart>
+        <Suspense fallback={<div style={{ height: PLOT_HEIGHT }} />}>
+          <BoreDepthPlot depths={depths} unit={unit} axis={axis} targetBore={targetBore} showThrust={showThrust} showAxial={showAxial} height={PLOT_HEIGHT} />
+        </Suspense>
       </div>
       <figcaption id={captionId} className="text-sm text-ink-soft">
         {caption}

@@ -16,3 +16,5 @@ export { NewPasswordFields } from './components/new-password-fields';
 export { RolePicker } from './components/role-picker';
 export { SignInForm } from './components/sign-in-form';
 export { SignUpForm } from './components/sign-up-form';
+export { resetPasswordResolver } from './components/password-form-resolvers';
+export type { ResetPasswordFormValues } from './components/password-form-schemas';

@@ -11,4 +11,4 @@ export { JobStatusBadge } from './components/job-status-badge';
 export { plural, statusWords } from './components/job-words';
 export { otherShopExplain, staffExplain, workingShopExplain } from './components/shop-job-words';
 export { PhotoGallery } from './components/photo-gallery';
-export { PhotoUploader } from './components/photo-uploader';
+export { PhotoUploader } from './components/lazy-panels';

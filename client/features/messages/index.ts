@@ -2,5 +2,5 @@
 // Anything not exported here is internal to the feature (eslint.config.js enforces it).
 export { useUnreadTotal } from './api/threads';
 export { ConversationList } from './components/conversation-list';
-export { ConversationPanel } from './components/conversation-panel';
 export type { Bidder } from './components/conversation-panel';
+export { ConversationPanel } from './components/lazy-panels';

@@ -1,3 +1,3 @@
 // The reviews feature's public face: what routes, the layout and other features may use.
 // Anything not exported here is internal to the feature (eslint.config.js enforces it).
-export { ReviewPanel } from './components/review-panel';
+export { ReviewPanel } from './components/lazy-panels';

@@ -1,18 +1,20 @@
-import { zodResolver } from '@hookform/resolvers/zod';
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
-import { toast } from 'sonner';
-import { createAdminSchema, type CreateAdminInput } from '@shared/schemas/admin';
+import { toast } from '@client/lib/toast';
+import type { CreateAdminInput } from '@shared/schemas/admin';
 import { Button } from '@client/components/ui/button';
 import { Notice } from '@client/components/ui/notice';
 import { TextField } from '@client/components/ui/text-field';
 import { applyServerErrors } from '@client/lib/form-errors';
 import { useCreateAdmin } from '../api/admin-users';
+import { lazyResolver } from '@client/lib/lazy-resolver';
+
+const createAdminResolver = lazyResolver(() => import('@shared/schemas/admin').then((m) => m.createAdminSchema));
 
 /** Admins exist only from the seed or by another admin; the newcomer chooses a password from an e-mailed link. */
 export function AddAdminForm() {
   const [formError, setFormError] = useState<string>();
-  const form = useForm<CreateAdminInput>({ resolver: zodResolver(createAdminSchema), defaultValues: { displayName: '', email: '' } });
+  const form = useForm<CreateAdminInput>({ resolver: createAdminResolver, defaultValues: { displayName: '', email: '' } });
   const create = useCreateAdmin({
     mutationConfig: {
       onSuccess: (user) => {

@@ -1,5 +1,5 @@
 import { Link } from 'react-router-dom';
-import { toast } from 'sonner';
+import { toast } from '@client/lib/toast';
 import type { AdminShopRow } from '@shared/schemas/admin';
 import { Badge } from '@client/components/ui/badge';
 import { Button } from '@client/components/ui/button';

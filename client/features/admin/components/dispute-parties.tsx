@@ -1,6 +1,7 @@
 import { Link } from 'react-router-dom';
 import { formatCents } from '@shared/catalogue';
-import { disputeReasonWords, type DisputeCase } from '@shared/schemas/disputes';
+import type { DisputeCase } from '@shared/schemas/disputes';
+import { disputeReasonWords } from '@shared/schemas/values';
 import { formatFee, formatMoment, jobStatusWords, sideWords } from './admin-words';
 
 function Person({ role, name, email }: { role: string; name: string; email: string }) {

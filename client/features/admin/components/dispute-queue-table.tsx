@@ -1,7 +1,8 @@
 import { Link } from 'react-router-dom';
 import { formatCents } from '@shared/catalogue';
 import { DISPUTE_STATUS } from '@shared/glossary';
-import { disputeReasonWords, type DisputeQueueRow } from '@shared/schemas/disputes';
+import type { DisputeQueueRow } from '@shared/schemas/disputes';
+import { disputeReasonWords } from '@shared/schemas/values';
 import { TermBadge } from '@client/components/ui/badge';
 import { cn } from '@client/lib/cn';
 import { formatAge, formatMoment, sideWords } from './admin-words';

@@ -1,6 +1,7 @@
 import { useId, useState } from 'react';
 import { formatCents } from '@shared/catalogue';
-import { disputeReasonWords, type EvidenceItem } from '@shared/schemas/disputes';
+import type { EvidenceItem } from '@shared/schemas/disputes';
+import { disputeReasonWords } from '@shared/schemas/values';
 import type { InspectionResults } from '@shared/schemas/inspection';
 import { EXTRA_WORK_STATUS, NAMES } from '@shared/glossary';
 import { INSPECTION_STATUS_WORDS } from '@shared/inspection-words';

@@ -1,5 +1,5 @@
 import { useDeferredValue, useState } from 'react';
-import { toast } from 'sonner';
+import { toast } from '@client/lib/toast';
 import type { Role } from '@shared/schemas/auth';
 import { Badge } from '@client/components/ui/badge';
 import { Button } from '@client/components/ui/button';

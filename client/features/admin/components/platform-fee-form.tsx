@@ -1,7 +1,7 @@
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
-import { toast } from 'sonner';
-import { platformFeeSchema, type PlatformFee } from '@shared/schemas/admin';
+import { toast } from '@client/lib/toast';
+import { type PlatformFee } from '@shared/schemas/admin';
 import { Button } from '@client/components/ui/button';
 import { ConfirmDialog } from '@client/components/ui/modal-dialog';
 import { Notice } from '@client/components/ui/notice';
@@ -43,7 +43,7 @@ function prepare(values: FeeFields): PreparedInput {
 }
 
 // The shared schema checks the basis points; the percentage text is read first, like dollars are.
-const resolver = dollarsFormResolver<FeeFields, FeeInput>(platformFeeSchema, prepare);
+const resolver = dollarsFormResolver<FeeFields, FeeInput>(() => import('@shared/schemas/admin').then((m) => m.platformFeeSchema), prepare);
 
 /** A new Tenthmark fee, confirmed before it is saved; it applies to bids accepted from then on. */
 export function PlatformFeeForm({ current }: { current: PlatformFee }) {

@@ -1,8 +1,8 @@
 import { useId, useMemo, useState } from 'react';
 import { useForm, useWatch, type Control } from 'react-hook-form';
-import { toast } from 'sonner';
+import { toast } from '@client/lib/toast';
 import { formatCents } from '@shared/catalogue';
-import { resolveDisputeSchema, type DisputeCase, type DisputeOutcome, type ResolveDisputeInput } from '@shared/schemas/disputes';
+import { type DisputeCase, type DisputeOutcome, type ResolveDisputeInput } from '@shared/schemas/disputes';
 import { Button } from '@client/components/ui/button';
 import { ConfirmDialog } from '@client/components/ui/modal-dialog';
 import { MoneyField } from '@client/components/ui/money-field';
@@ -11,7 +11,7 @@ import { TextAreaField } from '@client/components/ui/text-area-field';
 import { applyServerErrors } from '@client/lib/form-errors';
 import { dollarsFormResolver, parseDollars, tidyDollars, withFormPaths, type PreparedInput } from '@client/lib/money';
 import { useResolveDispute } from '../api/admin-disputes';
-import { formatFee, formatMoment, outcomeWords } from './admin-words';
+import { Split } from './dispute-decision';
 
 interface ResolveFields {
   outcome: DisputeOutcome | '';
@@ -55,24 +55,6 @@ function typedCents(text: string | undefined): number | null {
   return parsed.ok ? parsed.cents : null;
 }
 
-function Split({ toShop, toBuilder, feeBps, shopName, builderName }: { toShop: number; toBuilder: number; feeBps: number | null; shopName: string; builderName: string }) {
-  return (
-    <dl className="grid grid-cols-[1fr_auto] gap-x-4 gap-y-1 text-sm">
-      <dt>
-        To {shopName} (the shop)
-        {toShop > 0 && feeBps !== null && feeBps > 0 && <span className="block text-ink-soft">Tenthmark’s {formatFee(feeBps)} fee comes out of this</span>}
-      </dt>
-      <dd className="text-right font-semibold tabular-nums" data-testid="resolve-to-shop">
-        {formatCents(toShop)}
-      </dd>
-      <dt>Back to {builderName} (the builder)</dt>
-      <dd className="text-right font-semibold tabular-nums" data-testid="resolve-to-builder">
-        {formatCents(toBuilder)}
-      </dd>
-    </dl>
-  );
-}
-
 /** The live split under the form: what goes to each side as the outcome and the share change. */
 function LiveAmounts({ control, heldCents, ...names }: { control: Control<ResolveFields, unknown, ResolveDisputeInput>; heldCents: number; feeBps: number | null; shopName: string; builderName: string }) {
   const [outcome, shopShare] = useWatch({ control, name: ['outcome', 'shopShare'] });
@@ -99,7 +81,7 @@ export function ResolveDisputeForm({ data }: { data: DisputeCase }) {
   const heldCents = data.money.balance.held;
   const shopName = data.shop?.name ?? 'the shop';
   const builderName = data.builder.name;
-  const resolver = useMemo(() => dollarsFormResolver<ResolveFields, ResolveDisputeInput>(resolveDisputeSchema, prepareFor(heldCents)), [heldCents]);
+  const resolver = useMemo(() => dollarsFormResolver<ResolveFields, ResolveDisputeInput>(() => import('@shared/schemas/disputes').then((m) => m.resolveDisputeSchema), prepareFor(heldCents)), [heldCents]);
   const form = useForm<ResolveFields, unknown, ResolveDisputeInput>({ resolver, defaultValues: { outcome: '', shopShare: '', decision: '' } });
   const [formError, setFormError] = useState<string>();
   const [pending, setPending] = useState<ResolveDisputeInput>();
@@ -213,20 +195,3 @@ export function ResolveDisputeForm({ data }: { data: DisputeCase }) {
 }
 
 /** What was decided, once it is: the outcome, the amounts and the written decision. */
-export function DisputeDecision({ data }: { data: DisputeCase }) {
-  const resolution = data.dispute.resolution;
-  if (!resolution) return null;
-  return (
-    <div className="flex flex-col gap-3" data-testid="dispute-decision">
-      <p className="text-lg font-bold">{outcomeWords[resolution.outcome]}</p>
-      <p className="text-sm text-ink-soft">
-        Decided on {formatMoment(resolution.at)}
-      </p>
-      <Split toShop={resolution.shopCents} toBuilder={resolution.refundCents} feeBps={data.job.feeBps} shopName={data.shop?.name ?? 'the shop'} builderName={data.builder.name} />
-      <div>
-        <p className="text-sm font-semibold">Written decision</p>
-        <p className="whitespace-pre-wrap break-words rounded-lg bg-paper-sunk px-3 py-2">{resolution.decision}</p>
-      </div>
-    </div>
-  );
-}

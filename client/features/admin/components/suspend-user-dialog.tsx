@@ -1,19 +1,21 @@
-import { zodResolver } from '@hookform/resolvers/zod';
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
-import { toast } from 'sonner';
+import type { suspendUserSchema } from '@shared/schemas/admin';
+import { toast } from '@client/lib/toast';
 import type { z } from 'zod';
-import { suspendUserSchema } from '@shared/schemas/admin';
 import { ConfirmDialog } from '@client/components/ui/modal-dialog';
 import { TextAreaField } from '@client/components/ui/text-area-field';
 import { applyServerErrors } from '@client/lib/form-errors';
 import { useSuspendUser, type AdminUserRow } from '../api/admin-users';
+import { lazyResolver } from '@client/lib/lazy-resolver';
+
+const suspendUserResolver = lazyResolver(() => import('@shared/schemas/admin').then((m) => m.suspendUserSchema));
 
 type SuspendFields = z.infer<typeof suspendUserSchema>;
 
 /** Asks why before suspending an account; the reason goes into the audit log. */
 export function SuspendUserDialog({ user, onClose }: { user: AdminUserRow | null; onClose: () => void }) {
-  const form = useForm<SuspendFields>({ resolver: zodResolver(suspendUserSchema), defaultValues: { reason: '' } });
+  const form = useForm<SuspendFields>({ resolver: suspendUserResolver, defaultValues: { reason: '' } });
   const [formError, setFormError] = useState<string>();
   const suspend = useSuspendUser({
     mutationConfig: {

@@ -1,20 +1,22 @@
-import { zodResolver } from '@hookform/resolvers/zod';
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
-import { toast } from 'sonner';
-import { changeEmailSchema, type ChangeEmailInput } from '@shared/schemas/account';
+import { toast } from '@client/lib/toast';
+import type { ChangeEmailInput } from '@shared/schemas/account';
 import { Button } from '@client/components/ui/button';
 import { Notice } from '@client/components/ui/notice';
 import { TextField } from '@client/components/ui/text-field';
 import { applyServerErrors, fieldProps } from '@client/lib/form-errors';
 import { useChangeEmail } from '../api/account-mutations';
+import { lazyResolver } from '@client/lib/lazy-resolver';
+
+const changeEmailResolver = lazyResolver(() => import('@shared/schemas/account').then((m) => m.changeEmailSchema));
 
 const empty: ChangeEmailInput = { newEmail: '', currentPassword: '' };
 
 /** Moves the account to a new address: a link goes there, and the address changes only once it is followed. */
 export function ChangeEmailForm({ email, pendingEmail }: { email: string; pendingEmail: string | null }) {
   const [formError, setFormError] = useState<string>();
-  const form = useForm<ChangeEmailInput>({ resolver: zodResolver(changeEmailSchema), defaultValues: empty });
+  const form = useForm<ChangeEmailInput>({ resolver: changeEmailResolver, defaultValues: empty });
   const change = useChangeEmail({
     mutationConfig: {
       onSuccess: ({ pendingEmail: sentTo }) => {

@@ -1,28 +1,23 @@
-import { zodResolver } from '@hookform/resolvers/zod';
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { Link } from 'react-router-dom';
-import { toast } from 'sonner';
-import { z } from 'zod';
-import { changePasswordSchema } from '@shared/schemas/auth';
+import { toast } from '@client/lib/toast';
 import { Button } from '@client/components/ui/button';
 import { Notice } from '@client/components/ui/notice';
 import { TextField } from '@client/components/ui/text-field';
 import { applyServerErrors, fieldProps } from '@client/lib/form-errors';
 import { useChangePassword } from '../api/auth-mutations';
 import { NewPasswordFields } from './new-password-fields';
+import { changePasswordResolver } from './password-form-resolvers';
+import type { ChangePasswordFormValues as FormValues } from './password-form-schemas';
 
-const formSchema = changePasswordSchema
-  .and(z.object({ repeat: z.string() }))
-  .refine((v) => v.newPassword === v.repeat, { path: ['repeat'], message: 'The two new passwords differ.' });
-type FormValues = z.infer<typeof formSchema>;
 
 const empty: FormValues = { currentPassword: '', newPassword: '', repeat: '' };
 
 /** Change the password with the current one; every other signed-in device is signed out. */
 export function ChangePasswordForm() {
   const [formError, setFormError] = useState<string>();
-  const form = useForm<FormValues>({ resolver: zodResolver(formSchema), defaultValues: empty });
+  const form = useForm<FormValues>({ resolver: changePasswordResolver, defaultValues: empty });
   const change = useChangePassword({
     mutationConfig: {
       onSuccess: () => {

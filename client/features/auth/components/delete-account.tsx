@@ -1,10 +1,9 @@
-import { zodResolver } from '@hookform/resolvers/zod';
 import { useQuery } from '@tanstack/react-query';
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { Link, useNavigate } from 'react-router-dom';
-import { toast } from 'sonner';
-import { deleteAccountSchema, type DeleteAccountInput } from '@shared/schemas/account';
+import { toast } from '@client/lib/toast';
+import type { DeleteAccountInput } from '@shared/schemas/account';
 import { Button } from '@client/components/ui/button';
 import { ModalDialog } from '@client/components/ui/modal-dialog';
 import { Notice } from '@client/components/ui/notice';
@@ -12,6 +11,9 @@ import { TextField } from '@client/components/ui/text-field';
 import { applyServerErrors, fieldProps } from '@client/lib/form-errors';
 import { useDeleteAccount } from '../api/account-mutations';
 import { authQueries } from '../api/auth-keys';
+import { lazyResolver } from '@client/lib/lazy-resolver';
+
+const deleteAccountResolver = lazyResolver(() => import('@shared/schemas/account').then((m) => m.deleteAccountSchema));
 
 /**
  * Deleting the account: first what stands in the way (jobs and money in
@@ -22,7 +24,7 @@ export function DeleteAccount({ hasPassword }: { hasPassword: boolean }) {
   const [asking, setAsking] = useState(false);
   const [formError, setFormError] = useState<string>();
   const navigate = useNavigate();
-  const form = useForm<DeleteAccountInput>({ resolver: zodResolver(deleteAccountSchema), defaultValues: { currentPassword: '' } });
+  const form = useForm<DeleteAccountInput>({ resolver: deleteAccountResolver, defaultValues: { currentPassword: '' } });
   const remove = useDeleteAccount({
     mutationConfig: {
       onSuccess: () => {

@@ -1,8 +1,7 @@
-import { zodResolver } from '@hookform/resolvers/zod';
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { Link } from 'react-router-dom';
-import { signInSchema, type SignInInput } from '@shared/schemas/auth';
+import type { SignInInput } from '@shared/schemas/auth';
 import { Button } from '@client/components/ui/button';
 import { Notice } from '@client/components/ui/notice';
 import { TextField } from '@client/components/ui/text-field';
@@ -10,11 +9,14 @@ import { ContactLine } from '@client/features/help';
 import { ApiError } from '@client/lib/api-client';
 import { applyServerErrors, fieldProps } from '@client/lib/form-errors';
 import { useSignIn } from '../api/auth-mutations';
+import { lazyResolver } from '@client/lib/lazy-resolver';
+
+const signInResolver = lazyResolver(() => import('@shared/schemas/auth').then((m) => m.signInSchema));
 
 export function SignInForm({ onSignedIn }: { onSignedIn: () => void }) {
   const [formError, setFormError] = useState<string>();
   const [suspended, setSuspended] = useState(false);
-  const form = useForm<SignInInput>({ resolver: zodResolver(signInSchema), defaultValues: { email: '', password: '' } });
+  const form = useForm<SignInInput>({ resolver: signInResolver, defaultValues: { email: '', password: '' } });
   const signIn = useSignIn({ mutationConfig: { onSuccess: onSignedIn } });
   const field = fieldProps(form);
 

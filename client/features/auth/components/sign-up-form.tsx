@@ -1,7 +1,6 @@
-import { zodResolver } from '@hookform/resolvers/zod';
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
-import { signUpSchema, type SignUpInput } from '@shared/schemas/auth';
+import type { SignUpInput } from '@shared/schemas/auth';
 import { Button } from '@client/components/ui/button';
 import { Notice } from '@client/components/ui/notice';
 import { TextField } from '@client/components/ui/text-field';
@@ -9,11 +8,14 @@ import { applyServerErrors, fieldProps } from '@client/lib/form-errors';
 import { useSignUp } from '../api/auth-mutations';
 import { ConsentField } from './consent-field';
 import { RolePicker } from './role-picker';
+import { lazyResolver } from '@client/lib/lazy-resolver';
+
+const signUpResolver = lazyResolver(() => import('@shared/schemas/auth').then((m) => m.signUpSchema));
 
 export function SignUpForm({ onSignedUp }: { onSignedUp: () => void }) {
   const [formError, setFormError] = useState<string>();
   const form = useForm<SignUpInput>({
-    resolver: zodResolver(signUpSchema),
+    resolver: signUpResolver,
     defaultValues: { displayName: '', email: '', password: '', role: undefined, acceptTerms: undefined },
   });
   const signUp = useSignUp({ mutationConfig: { onSuccess: onSignedUp } });

@@ -1,5 +1,5 @@
 import { useId, useState, type ReactNode } from 'react';
-import { toast } from 'sonner';
+import { toast } from '@client/lib/toast';
 import { formatCents } from '@shared/catalogue';
 import type { Bid, BidStatus } from '@shared/schemas/bids';
 import type { JobStatus } from '@shared/schemas/jobs';

@@ -2,7 +2,7 @@ import { NAMES } from '@shared/glossary';
 import { useId, useState } from 'react';
 import { useFieldArray, useForm, useWatch, type Control, type Path } from 'react-hook-form';
 import { findOperation, formatCents, lineAmountCents, prefillBidLines, type OperationCode, type PricedPer } from '@shared/catalogue';
-import { bidInputSchema, type Bid, type BidInput } from '@shared/schemas/bids';
+import { type Bid, type BidInput } from '@shared/schemas/bids';
 import type { JobDetail } from '@shared/schemas/jobs';
 import { feeRateWords, netOf } from '@shared/money';
 import { Button } from '@client/components/ui/button';
@@ -88,7 +88,7 @@ function prepare(values: BidFormFields): PreparedInput {
   };
 }
 
-const resolver = dollarsFormResolver<BidFormFields, BidInput>(bidInputSchema, prepare);
+const resolver = dollarsFormResolver<BidFormFields, BidInput>(() => import('@shared/schemas/bids').then((m) => m.bidInputSchema), prepare);
 
 /** A line's amount while typing, or null while its quantity or price cannot be read yet. */
 function lineCents(line: Partial<BidLineFields> | undefined): number | null {

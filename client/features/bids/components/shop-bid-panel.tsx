@@ -1,6 +1,6 @@
 import { useId, useState, type ReactNode } from 'react';
 import { Link } from 'react-router-dom';
-import { toast } from 'sonner';
+import { toast } from '@client/lib/toast';
 import { formatCents } from '@shared/catalogue';
 import type { Bid } from '@shared/schemas/bids';
 import type { JobDetail } from '@shared/schemas/jobs';

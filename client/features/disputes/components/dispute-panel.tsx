@@ -1,19 +1,12 @@
-import { zodResolver } from '@hookform/resolvers/zod';
 import { useEffect, useId, useRef, useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { Link } from 'react-router-dom';
-import { toast } from 'sonner';
+import { toast } from '@client/lib/toast';
 import type { z } from 'zod';
 import { formatCents } from '@shared/catalogue';
 import { DISPUTE_STATUS } from '@shared/glossary';
-import {
-  type Dispute,
-  type DisputeReason,
-  disputeReasonWords,
-  disputeResponseSchema,
-  type OpenDisputeInput,
-  openDisputeSchema,
-} from '@shared/schemas/disputes';
+import type { Dispute, DisputeReason, OpenDisputeInput, openDisputeSchema, disputeResponseSchema } from '@shared/schemas/disputes';
+import { disputeReasonWords } from '@shared/schemas/values';
 import type { JobDetail } from '@shared/schemas/jobs';
 import { TermBadge } from '@client/components/ui/badge';
 import { Button } from '@client/components/ui/button';
@@ -27,6 +20,10 @@ import { cn } from '@client/lib/cn';
 import { formatDateTime as formatWhen } from '@client/lib/dates';
 import { applyServerErrors } from '@client/lib/form-errors';
 import { useJobDispute, useOpenDispute, useRespondToDispute } from '../api/disputes';
+import { lazyResolver } from '@client/lib/lazy-resolver';
+
+const openDisputeResolver = lazyResolver(() => import('@shared/schemas/disputes').then((m) => m.openDisputeSchema));
+const disputeResponseResolver = lazyResolver(() => import('@shared/schemas/disputes').then((m) => m.disputeResponseSchema));
 
 type Side = 'builder' | 'shop';
 export type DisputeViewer = Side | 'admin';
@@ -75,7 +72,7 @@ function OpenDisputeForm({ jobId, viewer, reasons, onCancel }: { jobId: string; 
   const [confirming, setConfirming] = useState<OpenDisputeInput | null>(null);
   const refreshOnConflict = useRefreshOnConflict(jobId);
   const form = useForm<OpenForm, unknown, z.output<typeof openDisputeSchema>>({
-    resolver: zodResolver(openDisputeSchema),
+    resolver: openDisputeResolver,
     defaultValues: { reason: reasons.length === 1 ? reasons[0] : undefined, statement: '' },
   });
   const open = useOpenDispute(jobId, {
@@ -172,7 +169,7 @@ function AnswerForm({ jobId, viewer, opener }: { jobId: string; viewer: Side; op
   const [formError, setFormError] = useState<string>();
   const refreshOnConflict = useRefreshOnConflict(jobId);
   const form = useForm<z.input<typeof disputeResponseSchema>, unknown, z.output<typeof disputeResponseSchema>>({
-    resolver: zodResolver(disputeResponseSchema),
+    resolver: disputeResponseResolver,
     defaultValues: { statement: '' },
   });
   const respond = useRespondToDispute(jobId, {

@@ -1,5 +1,5 @@
 import { useMemo, useState, type ChangeEvent, type FormEvent, type KeyboardEvent, type ReactNode } from 'react';
-import { toast } from 'sonner';
+import { toast } from '@client/lib/toast';
 import type { LengthUnit } from '@shared/calc';
 import type { InspectionVersion } from '@shared/schemas/inspection';
 import type { JobDetail } from '@shared/schemas/jobs';

@@ -1,12 +1,11 @@
-import { zodResolver } from '@hookform/resolvers/zod';
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { Link } from 'react-router-dom';
-import { toast } from 'sonner';
+import { toast } from '@client/lib/toast';
 import type { z } from 'zod';
 import { boreSpecFor, checksNotConforming } from '@shared/calc';
 import { RECORD_STATUS, type Term } from '@shared/glossary';
-import { type InspectionVersion, rejectInspectionSchema } from '@shared/schemas/inspection';
+import type { InspectionVersion, rejectInspectionSchema } from '@shared/schemas/inspection';
 import type { JobDetail } from '@shared/schemas/jobs';
 import { TermBadge } from '@client/components/ui/badge';
 import { Button } from '@client/components/ui/button';
@@ -24,6 +23,9 @@ import { InspectionResultsView } from './inspection-results';
 import { formatDateTime as formatWhen } from '@client/lib/dates';
 import { RecordSections } from './record-section-block';
 import { ReadingsAt20 } from './record-judgement';
+import { lazyResolver } from '@client/lib/lazy-resolver';
+
+const rejectInspectionResolver = lazyResolver(() => import('@shared/schemas/inspection').then((m) => m.rejectInspectionSchema));
 
 /** Job states in which an inspection record may exist or be on its way. */
 const RECORD_STATES = new Set<JobDetail['status']>(['in_work', 'inspection_submitted', 'completed', 'disputed', 'resolved']);
@@ -248,7 +250,7 @@ function BuilderDecision({ job, version, reviewDueAt, autoAccept, windowEnded }:
 function RejectDialog({ job, version, open, onClose }: { job: JobDetail; version: InspectionVersion; open: boolean; onClose: () => void }) {
   const [formError, setFormError] = useState<string>();
   const form = useForm<z.input<typeof rejectInspectionSchema>, unknown, z.output<typeof rejectInspectionSchema>>({
-    resolver: zodResolver(rejectInspectionSchema),
+    resolver: rejectInspectionResolver,
     defaultValues: { reasons: '' },
   });
   const reject = useRejectInspection(job.id, {

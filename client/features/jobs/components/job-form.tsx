@@ -1,20 +1,10 @@
-import { zodResolver } from '@hookform/resolvers/zod';
 import { useEffect, useId, useRef, useState, type ReactNode } from 'react';
 import { Controller, get, useForm, useWatch, type FieldErrors, type Path, type Resolver, type UseFormRegisterReturn } from 'react-hook-form';
 import { Link } from 'react-router-dom';
 import { type LengthUnit, convertLength, sizeDisagreement } from '@shared/calc';
 import { operationCodes, partsOfJob } from '@shared/catalogue';
 import { limitGroups } from '@shared/operation-limits';
-import {
-  blockMaterials,
-  engineLayouts,
-  jobFieldsSchema,
-  jobInputSchema,
-  logisticsOptions,
-  pistonTypes,
-  type JobFormValues,
-  type JobInput,
-} from '@shared/schemas/jobs';
+import { blockMaterials, engineLayouts, jobFieldsSchema, logisticsOptions, pistonTypes, type JobFormValues, type JobInput } from '@shared/schemas/jobs';
 import { UnsavedChangesGuard } from '@client/components/unsaved-changes-guard';
 import { FieldError } from '@client/components/ui/field-frame';
 import { Button } from '@client/components/ui/button';
@@ -35,6 +25,9 @@ import { layoutWords, logisticsWords, materialWords, pistonWords } from './job-w
 import { OperationLimitsFields } from './operation-limits-fields';
 import { OperationsPicker } from './operations-picker';
 import { PartsSentChoice } from './parts-sent-choice';
+import { lazyResolver } from '@client/lib/lazy-resolver';
+
+const jobInputResolver = lazyResolver(() => import('@shared/schemas/jobs').then((m) => m.jobInputSchema));
 
 /** Fields holding a length in the job's unit: converted in place when the unit changes. */
 const LENGTH_FIELDS = ['stockBore', 'stroke', 'targetBore', 'boreSizeTolerance', 'pistonDiameter', 'clearanceMin', 'clearanceMax', 'maxTaper', 'maxOutOfRound', 'deckFlatnessMax'] as const;
@@ -54,7 +47,7 @@ const FIELD_NAMES = [
 ] as Array<Path<JobFormValues>>;
 
 /** The shared schema, checking only what the form shows for the parts and work chosen (see keepInScope). */
-const schemaResolver = zodResolver(jobInputSchema);
+const schemaResolver = jobInputResolver;
 const resolver: Resolver<JobFormValues, unknown, JobInput> = (values, context, options) => schemaResolver(keepInScope(values), context, options);
 
 const INVALID = 'invalid';

@@ -1,4 +1,5 @@
-import { MAX_PHOTOS_PER_MESSAGE, type MessagePhoto } from '@shared/schemas/messages';
+import type { MessagePhoto } from '@shared/schemas/messages';
+import { MAX_PHOTOS_PER_MESSAGE } from '@shared/schemas/values';
 import { photoTarget } from '@client/lib/upload';
 
 /**

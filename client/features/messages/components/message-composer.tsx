@@ -1,5 +1,6 @@
 import { forwardRef, useId, useState, type FormEvent, type KeyboardEvent } from 'react';
-import { MAX_MESSAGE_LENGTH, MAX_PHOTOS_PER_MESSAGE, messageContentSchema, type MessagePhoto } from '@shared/schemas/messages';
+import { messageContentSchema, type MessagePhoto } from '@shared/schemas/messages';
+import { MAX_MESSAGE_LENGTH, MAX_PHOTOS_PER_MESSAGE } from '@shared/schemas/values';
 import { Button } from '@client/components/ui/button';
 import { FieldFrame, inputBorder, useFieldIds } from '@client/components/ui/field-frame';
 import { AddPhotosButton, PendingPhotoList, type PendingUpload } from '@client/components/ui/pending-photo-tile';

@@ -1,5 +1,5 @@
 import type { JobStatus } from '@shared/schemas/jobs';
-import { MAX_MESSAGE_LENGTH } from '@shared/schemas/messages';
+import { MAX_MESSAGE_LENGTH } from '@shared/schemas/values';
 import { formatDate, formatTime, viewerParts } from '@client/lib/dates';
 
 /** "14:07 EST" today, "Tue 14:07" this week, "3 Jul" this year, else "3 Jul 2025"; the whole moment is in fullTime. */

@@ -1,10 +1,9 @@
-import { zodResolver } from '@hookform/resolvers/zod';
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
-import { toast } from 'sonner';
+import { toast } from '@client/lib/toast';
 import type { z } from 'zod';
 import { findOperation } from '@shared/catalogue';
-import { milestoneInputSchema, milestoneKinds, type MilestoneInput } from '@shared/schemas/inspection';
+import { milestoneKinds, type MilestoneInput, type milestoneInputSchema } from '@shared/schemas/inspection';
 import type { JobDetail } from '@shared/schemas/jobs';
 import { Button } from '@client/components/ui/button';
 import { Notice } from '@client/components/ui/notice';
@@ -15,6 +14,9 @@ import { applyServerErrors } from '@client/lib/form-errors';
 import { useLogMilestone } from '../api/milestones';
 import { MilestonePhotoPicker, type PendingPhoto } from './milestone-photo-picker';
 import { milestoneKindWords } from './milestone-words';
+import { lazyResolver } from '@client/lib/lazy-resolver';
+
+const milestoneInputResolver = lazyResolver(() => import('@shared/schemas/inspection').then((m) => m.milestoneInputSchema));
 
 type FormValues = z.input<typeof milestoneInputSchema>;
 type Kind = (typeof milestoneKinds)[number];
@@ -37,7 +39,7 @@ export function LogProgressForm({ job }: { job: JobDetail }) {
   const [photoError, setPhotoError] = useState<string>();
   const kinds = kindsFor(job.status);
   const defaults: FormValues = { kind: (job.status === 'funded' ? 'block_received' : '') as Kind, operation: '', note: '', carrier: '', trackingNumber: '' };
-  const form = useForm<FormValues, unknown, MilestoneInput>({ resolver: zodResolver(milestoneInputSchema), defaultValues: defaults });
+  const form = useForm<FormValues, unknown, MilestoneInput>({ resolver: milestoneInputResolver, defaultValues: defaults });
   const kind = form.watch('kind') as Kind | '';
   const log = useLogMilestone(job.id, {
     mutationConfig: {

@@ -1,9 +1,8 @@
-import { zodResolver } from '@hookform/resolvers/zod';
 import { useForm } from 'react-hook-form';
-import { toast } from 'sonner';
+import { toast } from '@client/lib/toast';
 import type { z } from 'zod';
 import type { JobDetail } from '@shared/schemas/jobs';
-import { postalAddressSchema, sentToShopInputSchema, type PostalAddress, type SentToShopInput, type ShippingView } from '@shared/schemas/shipping';
+import type { PostalAddress, SentToShopInput, ShippingView, sentToShopInputSchema } from '@shared/schemas/shipping';
 import { addressError, addressFormValues, PostalAddressBlock, PostalAddressFields, type AddressFormValues } from '@client/components/postal-address';
 import { Button } from '@client/components/ui/button';
 import { Card } from '@client/components/ui/card';
@@ -11,6 +10,10 @@ import { Notice } from '@client/components/ui/notice';
 import { TextField } from '@client/components/ui/text-field';
 import { applyServerErrors } from '@client/lib/form-errors';
 import { useSendToShop, useSetReturnAddress, useShipping } from '../api/shipping';
+import { lazyResolver } from '@client/lib/lazy-resolver';
+
+const sentToShopInputResolver = lazyResolver(() => import('@shared/schemas/shipping').then((m) => m.sentToShopInputSchema));
+const postalAddressResolver = lazyResolver(() => import('@shared/schemas/shipping').then((m) => m.postalAddressSchema));
 
 /** Paid for and held, or later: the builder may learn where to send the parts. */
 const PAID = new Set<JobDetail['status']>(['funded', 'in_work', 'inspection_submitted', 'completed', 'disputed', 'resolved']);
@@ -20,7 +23,7 @@ const SENDING = new Set<JobDetail['status']>(['funded', 'in_work']);
 const RETURN_OPEN = new Set<JobDetail['status']>(['funded', 'in_work', 'inspection_submitted', 'completed']);
 
 function SentToShopForm({ jobId }: { jobId: string }) {
-  const form = useForm<z.input<typeof sentToShopInputSchema>, unknown, SentToShopInput>({ resolver: zodResolver(sentToShopInputSchema), defaultValues: { carrier: '', trackingNumber: '', note: '' } });
+  const form = useForm<z.input<typeof sentToShopInputSchema>, unknown, SentToShopInput>({ resolver: sentToShopInputResolver, defaultValues: { carrier: '', trackingNumber: '', note: '' } });
   const send = useSendToShop(jobId);
   const { errors } = form.formState;
   const onSubmit = form.handleSubmit((input) =>
@@ -48,7 +51,7 @@ function SentToShopForm({ jobId }: { jobId: string }) {
 }
 
 function ReturnAddressForm({ jobId, current }: { jobId: string; current: PostalAddress | null }) {
-  const form = useForm<AddressFormValues, unknown, PostalAddress>({ resolver: zodResolver(postalAddressSchema), defaultValues: addressFormValues(current) });
+  const form = useForm<AddressFormValues, unknown, PostalAddress>({ resolver: postalAddressResolver, defaultValues: addressFormValues(current) });
   const save = useSetReturnAddress(jobId);
   const onSubmit = form.handleSubmit((input) =>
     save.mutate(input, {

@@ -1,5 +1,5 @@
 import { useEffect, useState } from 'react';
-import { toast } from 'sonner';
+import { toast } from '@client/lib/toast';
 import { Button } from '@client/components/ui/button';
 import { Card } from '@client/components/ui/card';
 import { CheckboxField } from '@client/components/ui/checkbox-field';

@@ -1,10 +1,7 @@
 import { EXTRA_WORK_STATUS, NAMES } from '@shared/glossary';
-import { zodResolver } from '@hookform/resolvers/zod';
-import { useEffect, useState } from 'react';
-import { useForm } from 'react-hook-form';
+import { useState } from 'react';
 import { useSearchParams } from 'react-router-dom';
-import { toast } from 'sonner';
-import { z } from 'zod';
+import { toast } from '@client/lib/toast';
 import { formatCents } from '@shared/catalogue';
 import { feeRateWords, netOf } from '@shared/money';
 import type { JobDetail } from '@shared/schemas/jobs';
@@ -13,19 +10,19 @@ import { Button } from '@client/components/ui/button';
 import { Card } from '@client/components/ui/card';
 import { ConfirmDialog } from '@client/components/ui/modal-dialog';
 import { Notice } from '@client/components/ui/notice';
-import { TextAreaField } from '@client/components/ui/text-area-field';
-import { TextField } from '@client/components/ui/text-field';
 import { ConfirmEmailNotice, useNeedsEmailConfirmation } from '@client/features/auth';
-import { applyServerErrors } from '@client/lib/form-errors';
+import { lazyPanel } from '@client/components/lazy-panel';
 import {
   useApproveChangeOrder,
   useCancelAndRefund,
   useChangeOrders,
   useDeclineChangeOrder,
   useMoney,
-  useProposeChangeOrder,
   useStartCheckout,
 } from '../api/payments';
+
+// The extra-work form (react-hook-form) loads when the shop opens it.
+const ProposeChangeOrder = lazyPanel(() => import('./propose-change-order').then((m) => m.ProposeChangeOrder));
 
 const PAID_STATES = new Set(['funded', 'in_work', 'inspection_submitted', 'completed', 'disputed', 'resolved']);
 
@@ -198,10 +195,6 @@ function Balance({ money, side }: { money: MoneyView; side: 'builder' | 'shop' }
   );
 }
 
-const changeOrderForm = z.object({
-  description: z.string().trim().min(4, 'Describe the extra work.').max(1000, 'Use at most 1,000 characters.'),
-  dollars: z.string().trim().regex(/^\d{1,7}(\.\d{1,2})?$/, 'Give a price in dollars, like 180 or 180.50.'),
-});
 
 /** Change orders: inside the builder's payment box, or (`ownCard`) a card of their own for the shop. */
 function ChangeOrders({ job, side, ownCard = false }: { job: JobDetail; side: 'builder' | 'shop'; ownCard?: boolean }) {
@@ -266,44 +259,6 @@ function CollapsedProposal({ jobId }: { jobId: string }) {
     );
   }
   return <ProposeChangeOrder jobId={jobId} />;
-}
-
-/** The shop proposes extra work with its price; `description` prefills what needs doing (a crack test's findings, say). */
-export function ProposeChangeOrder({ jobId, description = '', intro }: { jobId: string; description?: string; intro?: string }) {
-  const [formError, setFormError] = useState<string>();
-  const form = useForm<z.infer<typeof changeOrderForm>>({ resolver: zodResolver(changeOrderForm), defaultValues: { description, dollars: '' } });
-  // A prefill that changes (findings still being typed) follows into the field until the shop edits it there.
-  const edited = form.formState.dirtyFields.description;
-  useEffect(() => {
-    if (!edited) form.resetField('description', { defaultValue: description });
-  }, [description, edited, form]);
-  const propose = useProposeChangeOrder(jobId, {
-    mutationConfig: {
-      onSuccess: () => {
-        toast.success('Sent to the builder.');
-        form.reset();
-      },
-    },
-  });
-  const onSubmit = form.handleSubmit(({ description, dollars }) => {
-    setFormError(undefined);
-    const [whole, fraction = ''] = dollars.split('.');
-    const amountCents = Number(whole) * 100 + Number(fraction.padEnd(2, '0'));
-    propose.mutate({ description, amountCents }, { onError: (error) => setFormError(applyServerErrors(error, form.setError, ['description'])) });
-  });
-  return (
-    <form onSubmit={onSubmit} noValidate aria-label="Propose extra work" className="mt-4 flex flex-col gap-3">
-      <p className="text-sm text-ink-soft">{intro ?? 'Found something on teardown? Propose the extra work with its price; the builder agrees and pays before you do it.'}</p>
-      {formError && <Notice tone="error">{formError}</Notice>}
-      <TextAreaField label="What needs doing, and why" rows={3} error={form.formState.errors.description?.message} {...form.register('description')} />
-      <TextField label="Price in dollars" inputMode="decimal" error={form.formState.errors.dollars?.message} {...form.register('dollars')} />
-      <div>
-        <Button type="submit" busy={propose.isPending}>
-          Send to the builder
-        </Button>
-      </div>
-    </form>
-  );
 }
 
 /**

@@ -1,10 +1,9 @@
-import { zodResolver } from '@hookform/resolvers/zod';
 import { useId, useState } from 'react';
 import { Controller, useForm } from 'react-hook-form';
-import { toast } from 'sonner';
+import { toast } from '@client/lib/toast';
 import type { z } from 'zod';
 import type { JobDetail } from '@shared/schemas/jobs';
-import { type Review, reviewInputSchema } from '@shared/schemas/reviews';
+import type { Review, reviewInputSchema } from '@shared/schemas/reviews';
 import { Button } from '@client/components/ui/button';
 import { Card } from '@client/components/ui/card';
 import { Notice } from '@client/components/ui/notice';
@@ -13,6 +12,9 @@ import { cn } from '@client/lib/cn';
 import { formatDate } from '@client/lib/dates';
 import { applyServerErrors } from '@client/lib/form-errors';
 import { useJobReviews, useSubmitReview } from '../api/reviews';
+import { lazyResolver } from '@client/lib/lazy-resolver';
+
+const reviewInputResolver = lazyResolver(() => import('@shared/schemas/reviews').then((m) => m.reviewInputSchema));
 
 type Side = 'builder' | 'shop';
 export type ReviewViewer = Side | 'admin';
@@ -61,7 +63,7 @@ function WriteReview({ jobId, viewer }: { jobId: string; viewer: Side }) {
   const id = useId();
   const [formError, setFormError] = useState<string>();
   const form = useForm<ReviewForm, unknown, z.output<typeof reviewInputSchema>>({
-    resolver: zodResolver(reviewInputSchema),
+    resolver: reviewInputResolver,
     defaultValues: { rating: undefined, comment: '' },
   });
   const submit = useSubmitReview(jobId, {

@@ -1,8 +1,8 @@
 import { useId, useMemo, useState } from 'react';
 import { useFieldArray, useForm, type Path } from 'react-hook-form';
-import { toast } from 'sonner';
+import { toast } from '@client/lib/toast';
 import { findOperation, type OperationCode } from '@shared/catalogue';
-import { shopProfileSchema, type ShopProfileInput } from '@shared/schemas/shops';
+import { type ShopProfileInput } from '@shared/schemas/shops';
 import { addressError, addressFormValues, blankAddress, PostalAddressFields, type AddressFormValues } from '@client/components/postal-address';
 import { Button } from '@client/components/ui/button';
 import { Card } from '@client/components/ui/card';
@@ -97,7 +97,7 @@ function prepare(values: ShopProfileFormValues): PreparedInput {
   };
 }
 
-const resolver = dollarsFormResolver<ShopProfileFormValues, ShopProfileInput>(shopProfileSchema, prepare);
+const resolver = dollarsFormResolver<ShopProfileFormValues, ShopProfileInput>(() => import('@shared/schemas/shops').then((m) => m.shopProfileSchema), prepare);
 
 const plainFields: Array<Path<ShopProfileFormValues>> = [
   'name',
