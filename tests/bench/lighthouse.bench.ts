@@ -15,6 +15,7 @@
  *   npm run bench:lighthouse                    build, then both presets
  *   npm run bench:lighthouse -- --dir <built>   a build made elsewhere (with its .vite/manifest.json or not)
  *   npm run bench:lighthouse -- --only phone    one preset (phone or desktop)
+ *   npm run bench:lighthouse -- --page /board   the pages whose path starts so (/, /calculator, /board, /jobs/)
  */
 import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
@@ -143,9 +144,11 @@ async function main() {
   });
   cleanups.push(() => browser.close());
 
+  const chosen = pages.filter((page) => !argAfter('--page') || (argAfter('--page') === '/' ? page.path === '/' : page.path.startsWith(argAfter('--page')!)));
   const rows: string[][] = [];
+  const shiftNotes: string[] = [];
   for (const preset of presets) {
-    for (const page of pages) {
+    for (const page of chosen) {
       const flags: Flags = {
         port: debuggingPort,
         output: 'json',
@@ -172,6 +175,7 @@ async function main() {
         cls == null ? '' : cls <= AIM_CLS ? 'yes' : 'no',
       ]);
       console.log(`  measured ${page.name} (${preset.name})`);
+      if (cls != null && cls > AIM_CLS) shiftNotes.push(`${page.name} (${preset.name}): ${movedElements(lhr.audits['layout-shifts'])}`);
     }
   }
 
@@ -183,6 +187,17 @@ async function main() {
   console.log(`aims (issue 19): performance score ≥ ${AIM_SCORE} on a phone, cumulative layout shift ≤ ${AIM_CLS}\n`);
   console.log(line(head));
   for (const row of rows) console.log(line(row));
+  if (shiftNotes.length) console.log(`\nwhat moved where CLS is over the aim (Lighthouse's layout-shifts audit):\n${shiftNotes.map((n) => `  ${n}`).join('\n')}`);
+}
+
+/** The elements of Lighthouse's layout-shifts audit with their share of the shift, largest first. */
+function movedElements(audit: { details?: unknown; errorMessage?: string; scoreDisplayMode?: string } | undefined) {
+  const items = (audit?.details as { items?: Array<{ node?: { snippet?: string; nodeLabel?: string }; score?: number }> } | undefined)?.items ?? [];
+  if (items.length === 0) return `(no elements named: ${audit?.errorMessage ?? audit?.scoreDisplayMode ?? 'no layout-shifts audit'})`;
+  return items
+    .slice(0, 5)
+    .map((item) => `${(item.score ?? 0).toFixed(3)} ${item.node?.nodeLabel?.slice(0, 50) ?? ''} ${item.node?.snippet?.slice(0, 80) ?? ''}`.trim())
+    .join('; ');
 }
 
 try {

@@ -81,15 +81,19 @@ async function shiftsOf(page: Page, path: string) {
 }
 
 describe('layout shift while a page arrives (desktop, 1280 × 900)', () => {
-  it('when a builder and a shop open the board and demo job pages, then the cumulative layout shift of each stays under 0.1', async () => {
+  it('when a visitor opens the landing page and the calculator, and a builder and a shop the board and demo job pages, then the cumulative layout shift of each stays under 0.1', async () => {
     const openJob = `/jobs/${jobIds.get(OPEN_JOB)}`;
     const inWork = `/jobs/${jobIds.get(IN_WORK_JOB)}`;
     const builder = await suite.pageFor(builderEmail, '/dashboard');
     await recordShifts(builder);
     const shop = await suite.pageFor(shopEmail, '/dashboard');
     await recordShifts(shop);
+    const visitor = await suite.newPage();
+    await recordShifts(visitor);
 
     const results = [
+      await shiftsOf(visitor, '/'),
+      await shiftsOf(visitor, '/calculator'),
       await shiftsOf(builder, openJob),
       await shiftsOf(builder, inWork),
       await shiftsOf(builder, '/dashboard'),
