@@ -157,10 +157,16 @@ async function main() {
         // The session travels as a header on every request, so Lighthouse's storage reset cannot sign the page out.
         ...(page.cookie ? { extraHeaders: { Cookie: page.cookie } } : {}),
       };
-      const result = await lighthouse(`${server.url}${page.path}`, flags, preset.config);
-      if (!result) throw new Error(`Lighthouse gave no result for ${page.path}`);
-      const { lhr } = result;
-      if (lhr.runtimeError) console.error(`  ${page.name} (${preset.name}): ${lhr.runtimeError.code} ${lhr.runtimeError.message}`);
+      // Lighthouse now and then fails to record the trace (NO_NAVSTART on a loaded machine): one more try.
+      let lhr;
+      for (let attempt = 1; attempt <= 2; attempt += 1) {
+        const result = await lighthouse(`${server.url}${page.path}`, flags, preset.config);
+        if (!result) throw new Error(`Lighthouse gave no result for ${page.path}`);
+        lhr = result.lhr;
+        if (!lhr.runtimeError) break;
+        console.error(`  ${page.name} (${preset.name}), try ${attempt}: ${lhr.runtimeError.code} ${lhr.runtimeError.message}`);
+      }
+      if (!lhr) throw new Error(`Lighthouse gave no result for ${page.path}`);
       const audit = (id: string) => lhr.audits[id]?.numericValue;
       const score = lhr.categories.performance?.score;
       const cls = audit('cumulative-layout-shift');
