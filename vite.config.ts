@@ -1,12 +1,27 @@
 import { fileURLToPath } from 'node:url';
 import react from '@vitejs/plugin-react';
 import tailwindcss from '@tailwindcss/vite';
+import type { Plugin } from 'vite';
 import { defineConfig } from 'vitest/config';
 
 const here = (path: string) => fileURLToPath(new URL(path, import.meta.url));
 
+/**
+ * The web font (the @fontsource files say `font-display: swap`) never swaps in under text already on
+ * screen, which would re-wrap every line and move the page (layout shift): with `optional` the browser
+ * uses Manrope when it is there for the first paint (from the cache on later visits: hashed files are
+ * kept a year) and otherwise keeps the fallback for that page. Runs on the compiled CSS.
+ */
+const fontDisplayOptional = (): Plugin => ({
+  name: 'tenthmark:font-display-optional',
+  transform(code, id) {
+    if (!/\.css(\?|$)/.test(id) || !code.includes('font-display')) return null;
+    return { code: code.replace(/font-display:\s*swap/g, 'font-display: optional'), map: null };
+  },
+});
+
 export default defineConfig({
-  plugins: [react(), tailwindcss()],
+  plugins: [react(), tailwindcss(), fontDisplayOptional()],
   resolve: {
     alias: {
       '@shared': here('./shared'),

@@ -70,7 +70,8 @@ function navClass({ isActive }: { isActive: boolean }) {
 /**
  * The live connection's state, said quietly and only when it matters: at
  * once when the browser is offline, after a short grace while reconnecting
- * (a blip should not flash a warning).
+ * (a blip should not flash a warning). It hangs below the header's edge, over
+ * the page, so coming and going it moves nothing.
  */
 function ConnectionIndicator() {
   const status = useConnectionStatus();
@@ -85,7 +86,14 @@ function ConnectionIndicator() {
   }, [status]);
   const visible = show && status !== 'connected';
   return (
-    <p role="status" className={cn('text-sm', visible && 'flex items-center gap-2 rounded-full bg-caution-soft px-3 py-1 font-semibold text-caution')} data-testid="connection-status">
+    <p
+      role="status"
+      className={cn(
+        'pointer-events-none absolute right-4 top-full z-20 mt-2 text-sm',
+        visible && 'flex items-center gap-2 rounded-full bg-caution-soft px-3 py-1 font-semibold text-caution shadow-sm',
+      )}
+      data-testid="connection-status"
+    >
       {visible && (
         <>
           <span aria-hidden className="size-2 rounded-full bg-caution" />
@@ -111,8 +119,8 @@ function Account({ me }: { me: Me }) {
     },
   });
   return (
-    <div className="flex items-center gap-3">
-      <span className="hidden text-sm text-ink-soft sm:inline" data-testid="signed-in-as">
+    <div className="flex min-w-0 items-center gap-3">
+      <span className="hidden max-w-64 truncate text-sm text-ink-soft sm:inline-block" data-testid="signed-in-as" title={`${me.displayName} · ${me.role}`}>
         {me.displayName} · <span className="capitalize">{me.role}</span>
       </span>
       <NavLink to="/settings" className={navClass}>
@@ -131,23 +139,47 @@ function Account({ me }: { me: Me }) {
 
 const MENU_ID = 'site-menu';
 
-/** The main navigation's links; the wide header shows them in a row, the phone's menu in a column. */
-function MainNav({ items, unread, className }: { items: NavItem[]; unread: number; className: string }) {
+/**
+ * The main navigation's links; the wide header shows them in a row, the phone's menu in a column.
+ * In the row the unread count sits over the link's corner (`badgeOver`), so its coming moves no link.
+ */
+function MainNav({ items, unread, className, badgeOver = false }: { items: NavItem[]; unread: number; className: string; badgeOver?: boolean }) {
   return (
     <nav aria-label="Main" className={className}>
       {items.map((item) => (
-        <NavLink key={item.to} to={item.to} end className={navClass}>
+        <NavLink key={item.to} to={item.to} end className={(state) => cn(navClass(state), badgeOver && 'relative shrink-0')}>
           {item.label}
-          {item.to === '/messages' && <CountBadge count={unread} meaning="unread" />}
+          {item.to === '/messages' && <CountBadge count={unread} meaning="unread" className={badgeOver ? 'absolute -right-1.5 -top-1 ml-0' : undefined} />}
         </NavLink>
       ))}
     </nav>
   );
 }
 
+/** The phone bar's way to the conversations: an icon in a box of fixed size, its unread count over the corner (as the bell's). */
+function MessagesIconLink({ unread }: { unread: number }) {
+  const label = unread > 0 ? `Messages, ${unread} unread` : 'Messages';
+  return (
+    <NavLink
+      to="/messages"
+      end
+      aria-label={label}
+      title={label}
+      className={({ isActive }) =>
+        cn('relative inline-flex size-10 shrink-0 items-center justify-center rounded-md md:hidden', isActive ? 'bg-slate-700 text-white' : 'text-slate-800 hover:bg-slate-100')
+      }
+    >
+      <svg aria-hidden viewBox="0 0 24 24" className="size-6 fill-none stroke-current" strokeWidth={2} strokeLinecap="round" strokeLinejoin="round">
+        <path d="M21 12a8 8 0 0 1-11.6 7.1L4 20.5l1.4-4.9A8 8 0 1 1 21 12z" />
+      </svg>
+      <CountBadge count={unread} meaning="unread" className="absolute -right-1 -top-1 ml-0 px-1" />
+    </NavLink>
+  );
+}
+
 function SignInLinks() {
   return (
-    <div className="flex flex-wrap gap-2">
+    <div className="flex gap-2 whitespace-nowrap">
       <NavLink to="/signin" className={navClass}>
         Sign in
       </NavLink>
@@ -188,7 +220,7 @@ const MenuButton = forwardRef<HTMLButtonElement, { open: boolean; onToggle: () =
       aria-expanded={open}
       aria-controls={MENU_ID}
       onClick={onToggle}
-      className="inline-flex h-10 items-center gap-2 rounded-md px-3 text-sm font-semibold text-slate-800 ring-1 ring-slate-300 hover:bg-slate-100 md:hidden"
+      className="inline-flex h-10 shrink-0 items-center gap-2 rounded-md px-3 text-sm font-semibold text-slate-800 ring-1 ring-slate-300 hover:bg-slate-100 md:hidden"
     >
       <svg aria-hidden viewBox="0 0 24 24" className="size-5 fill-none stroke-current" strokeWidth={2} strokeLinecap="round">
         {open ? <path d="M6 6l12 12M18 6L6 18" /> : <path d="M4 7h16M4 12h16M4 17h16" />}
@@ -198,8 +230,15 @@ const MenuButton = forwardRef<HTMLButtonElement, { open: boolean; onToggle: () =
   );
 });
 
+/**
+ * The header keeps one size whatever arrives after the first paint (who is signed in, unread counts,
+ * the connection's state): a bar of fixed height (logo; bell, account or sign-in links, the phone's
+ * Menu), and on wider screens a row of fixed height for the main navigation that scrolls sideways
+ * rather than wrapping. Until the session is known both stay empty, so no visitor's links are shown
+ * and then moved.
+ */
 export function Layout() {
-  const { data: me } = useMe();
+  const { data: me, isPending: sessionPending } = useMe();
   const queryClient = useQueryClient();
   const items = navigationByRole[me?.role ?? 'anonymous'];
   const talks = me?.role === 'builder' || me?.role === 'shop';
@@ -217,36 +256,34 @@ export function Layout() {
         <a href="#main" className="sr-only focus:not-sr-only focus:absolute focus:left-2 focus:top-2 focus:rounded focus:bg-white focus:p-2">
           Skip to the content
         </a>
-        <header className="border-b-4 border-brass-500 bg-paper-raised print:hidden">
-          <div className="mx-auto flex max-w-page flex-wrap items-center justify-between gap-x-3 gap-y-2 px-4 py-2 md:py-3">
-            <div className="flex items-center gap-6">
-              <NavLink to={me ? '/dashboard' : '/'} className="text-xl font-extrabold tracking-tight text-slate-700">
+        <header className="relative border-b-4 border-brass-500 bg-paper-raised print:hidden">
+          <div className="mx-auto max-w-page px-4">
+            <div className="flex h-14 items-center justify-between gap-3 md:h-16">
+              <NavLink to={me ? '/dashboard' : '/'} className="shrink-0 text-xl font-extrabold tracking-tight text-slate-700">
                 Tenth<span className="text-brass-700">mark</span>
               </NavLink>
-              <MainNav items={items} unread={talks ? unread : 0} className="hidden md:flex md:flex-wrap md:gap-1" />
+              <div className="flex min-w-0 items-center justify-end gap-2 md:gap-3">
+                {talks && <MessagesIconLink unread={unread} />}
+                {me && <NotificationBell />}
+                <div className="hidden min-w-0 md:flex">{sessionPending ? null : me ? <Account me={me} /> : <SignInLinks />}</div>
+                <MenuButton open={menuOpen} onToggle={() => setMenuOpen((open) => !open)} ref={menuButton} />
+              </div>
             </div>
-            <div className="flex flex-wrap items-center justify-end gap-2 md:gap-3">
-              {me && <ConnectionIndicator />}
-              {talks && (
-                <NavLink to="/messages" end className={(state) => cn(navClass(state), 'md:hidden')}>
-                  Messages
-                  <CountBadge count={unread} meaning="unread" />
-                </NavLink>
-              )}
-              {me && <NotificationBell />}
-              <div className="hidden md:flex">{me ? <Account me={me} /> : <SignInLinks />}</div>
-              <MenuButton open={menuOpen} onToggle={() => setMenuOpen((open) => !open)} ref={menuButton} />
+            <div className="-mx-1 hidden h-12 items-center overflow-x-auto px-1 md:flex" data-testid="main-nav-row">
+              {!sessionPending && <MainNav key={me?.role ?? 'anonymous'} items={items} unread={talks ? unread : 0} badgeOver className="flex items-center gap-1 whitespace-nowrap py-1" />}
             </div>
             {menuOpen && (
-              <div id={MENU_ID} className="flex basis-full flex-col gap-3 border-t border-slate-200 pb-2 pt-3 md:hidden">
+              <div id={MENU_ID} className="flex flex-col gap-3 border-t border-slate-200 pb-2 pt-3 md:hidden">
                 <MainNav items={items} unread={talks ? unread : 0} className="flex flex-col gap-1" />
                 <div className="border-t border-slate-200 pt-3">{me ? <Account me={me} /> : <SignInLinks />}</div>
               </div>
             )}
           </div>
+          {me && <ConnectionIndicator />}
         </header>
         <ScrollRestoration />
-        <main id="main" className="mx-auto w-full max-w-page flex-1 px-4 py-8">
+        {/* At least a screen tall, so the footer starts below the fold: a page growing as its data arrives never pushes it. */}
+        <main id="main" className="mx-auto min-h-screen w-full max-w-page flex-1 px-4 py-8">
           <Outlet />
         </main>
         <footer className="border-t border-slate-200 bg-paper-sunk print:hidden">

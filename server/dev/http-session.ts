@@ -17,8 +17,13 @@ export class HttpSession {
     return session;
   }
 
+  /** The session's cookies as a Cookie header (for a browser or tool told to send them). */
+  cookieHeader() {
+    return [...this.cookies].map(([k, v]) => `${k}=${v}`).join('; ');
+  }
+
   async call<T>(method: 'GET' | 'POST' | 'PUT', path: string, body?: unknown): Promise<T> {
-    const headers: Record<string, string> = { cookie: [...this.cookies].map(([k, v]) => `${k}=${v}`).join('; ') };
+    const headers: Record<string, string> = { cookie: this.cookieHeader() };
     if (method !== 'GET') headers['x-csrf-token'] = this.token;
     let payload: BodyInit | undefined;
     if (body instanceof FormData) payload = body;

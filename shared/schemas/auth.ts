@@ -100,6 +100,13 @@ export type CsrfToken = z.infer<typeof csrfTokenSchema>;
 export const meAnswerSchema = z.object({ user: meSchema });
 export type MeAnswer = z.infer<typeof meAnswerSchema>;
 
+/**
+ * GET /api/auth/session: who is signed in on this session, or null. A signed-out
+ * visitor is an answer here, not an error, so the browser logs no failed request.
+ */
+export const sessionAnswerSchema = z.object({ user: meSchema.nullable() });
+export type SessionAnswer = z.infer<typeof sessionAnswerSchema>;
+
 /** Signed in (sign-up, sign-in, a finished GitHub sign-up): the person, and a new CSRF token for the new session. */
 export const signedInSchema = z.object({ user: meSchema, csrfToken: z.string() });
 export type SignedIn = z.infer<typeof signedInSchema>;

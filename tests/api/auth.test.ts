@@ -148,6 +148,22 @@ describe('sign-in and sign-out', () => {
     expect(res.status).toBe(401);
     expect(res.body.error.code).toBe('unauthenticated');
   });
+
+  it('when the browser asks who is signed in, then /session answers 200 with the person, and 200 with null once signed out', async () => {
+    const anonymous = await supertest(ctx.app).get('/api/auth/session').expect(200);
+    expect(anonymous.body).toEqual({ user: null });
+
+    const user = await createUser(ctx.db, { role: 'shop' });
+    const client = await agentFor(ctx.app);
+    await client.post('/api/auth/login', { email: user.email, password: TEST_PASSWORD });
+    const signedIn = await client.get('/api/auth/session').expect(200);
+    expect(signedIn.body.user).toMatchObject({ id: user.id, email: user.email, role: 'shop' });
+    const me = await client.get('/api/auth/me').expect(200);
+    expect(signedIn.body).toEqual(me.body);
+
+    await client.post('/api/auth/logout');
+    expect((await client.get('/api/auth/session').expect(200)).body).toEqual({ user: null });
+  });
 });
 
 describe('sessions and CSRF', () => {

@@ -272,6 +272,7 @@ const matrix: Record<string, Row> = {
   'GET /api/openapi.json': { expect: all(200) },
   'GET /api/auth/csrf': { expect: all(200) },
   'GET /api/auth/me': { expect: [401, 200, 200, 200, 200, 200] },
+  'GET /api/auth/session': { expect: all(200) },
   'POST /api/auth/signup': {
     fresh: true,
     body: () => ({ displayName: 'New Person', email: uniqueEmail('signup'), password: 'a long enough password', role: 'builder', acceptTerms: true }),

@@ -29,7 +29,9 @@ export function launchBrowser(): Promise<Browser> {
  * served by a real HTTP server on a database of its own, with the demo accounts.
  */
 /** `env` overrides the test configuration's settings, e.g. a lower rate limit that a test must reach for sure. */
-export async function startBrowserApp(env: Record<string, string> = {}): Promise<{ server: RunningServer; payments: Awaited<ReturnType<typeof startTestStandIn>>['standIn']; close: () => Promise<void> }> {
+export async function startBrowserApp(
+  env: Record<string, string> = {},
+): Promise<{ server: RunningServer; payments: Awaited<ReturnType<typeof startTestStandIn>>['standIn']; databaseUrl: string; close: () => Promise<void> }> {
   mkdirSync(artifactsDir, { recursive: true });
   const database = await createTestDatabase();
   const seedPool = createPool(database.url, 2);
@@ -50,6 +52,7 @@ export async function startBrowserApp(env: Record<string, string> = {}): Promise
   return {
     server,
     payments: payments.standIn,
+    databaseUrl: database.url,
     close: async () => {
       await server.close();
       await payments.standIn.close();

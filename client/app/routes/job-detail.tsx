@@ -2,6 +2,7 @@ import { useQuery } from '@tanstack/react-query';
 import type { ReactNode } from 'react';
 import { Link, useParams } from 'react-router-dom';
 import type { JobDetail } from '@shared/schemas/jobs';
+import { RevealWhenSettled } from '@client/components/reveal-when-settled';
 import { Card } from '@client/components/ui/card';
 import { Notice } from '@client/components/ui/notice';
 import { HomePageLink, useMe } from '@client/features/auth';
@@ -107,7 +108,9 @@ export function JobDetailRoute() {
   const shopAfterAward = me?.role === 'shop' && Boolean(jobQuery.data?.awardedBidId);
   const bidsQuery = useQuery({ ...bidQueries.forJob(jobId), enabled: ownerTalks || shopAfterAward });
 
-  if (jobQuery.isPending) return <p className="text-ink-soft">Loading the job …</p>;
+  // The bids decide which panels this reader gets (the awarded shop's work, the builder's comparison and
+  // conversations); the page waits for them too, rather than drawing panels that later move down.
+  if (jobQuery.isPending || bidsQuery.isLoading) return <p className="text-ink-soft">Loading the job …</p>;
   if (jobQuery.isError) return <LoadFailed error={jobQuery.error} onRetry={() => void jobQuery.refetch()} />;
 
   const job = jobQuery.data;
@@ -143,49 +146,51 @@ export function JobDetailRoute() {
   );
 
   return (
-    <div className="flex flex-col gap-6">
-      <Header job={job} reader={reader} />
-      {isOwner && <JobOwnerActions job={job} />}
-      <JobMoneyPanel job={job} isAwardedShop={isAwardedShop} acceptedTotalCents={awardedBid?.totalCents} />
-      {workViewer && <InspectionReview job={job} viewer={workViewer} />}
-      {workViewer && <DisputePanel job={job} viewer={workViewer} />}
-      {workViewer && (job.status === 'completed' || job.status === 'resolved') && <ReviewPanel job={job} viewer={workViewer} />}
-      {workViewer && <ShippingPanel job={job} viewer={workViewer} />}
-      {workViewer && <MilestonesPanel job={job} canLog={workViewer === 'shop'} />}
-      {workViewer === 'shop' && <ShopExtraWork job={job} />}
+    <RevealWhenSettled placeholder={<p className="text-ink-soft">Loading the job …</p>}>
+      <div className="flex flex-col gap-6">
+        <Header job={job} reader={reader} />
+        {isOwner && <JobOwnerActions job={job} />}
+        <JobMoneyPanel job={job} isAwardedShop={isAwardedShop} acceptedTotalCents={awardedBid?.totalCents} />
+        {workViewer && <InspectionReview job={job} viewer={workViewer} />}
+        {workViewer && <DisputePanel job={job} viewer={workViewer} />}
+        {workViewer && (job.status === 'completed' || job.status === 'resolved') && <ReviewPanel job={job} viewer={workViewer} />}
+        {workViewer && <ShippingPanel job={job} viewer={workViewer} />}
+        {workViewer && <MilestonesPanel job={job} canLog={workViewer === 'shop'} />}
+        {workViewer === 'shop' && <ShopExtraWork job={job} />}
 
-      {showBids && (
-        <Section title="Bids">
-          <BidComparison jobId={job.id} jobStatus={job.status} canDecide={isOwner} />
-        </Section>
-      )}
-      {ownerTalks && <ConversationPanel side="builder" jobId={job.id} jobStatus={job.status} bidders={bidders} />}
-      {isShop && (
-        // The spec beside the bid that prices it (stacked on a phone, the spec first).
-        <div className="grid grid-cols-1 items-start gap-6 lg:grid-cols-[minmax(0,2fr)_minmax(0,3fr)]">
-          <div className="flex min-w-0 flex-col gap-6">{specSections}</div>
-          <div className="min-w-0 lg:sticky lg:top-4">
-            <ShopBidPanel job={job} />
+        {showBids && (
+          <Section title="Bids">
+            <BidComparison jobId={job.id} jobStatus={job.status} canDecide={isOwner} />
+          </Section>
+        )}
+        {ownerTalks && <ConversationPanel side="builder" jobId={job.id} jobStatus={job.status} bidders={bidders} />}
+        {isShop && (
+          // The spec beside the bid that prices it (stacked on a phone, the spec first).
+          <div className="grid grid-cols-1 items-start gap-6 lg:grid-cols-[minmax(0,2fr)_minmax(0,3fr)]">
+            <div className="flex min-w-0 flex-col gap-6">{specSections}</div>
+            <div className="min-w-0 lg:sticky lg:top-4">
+              <ShopBidPanel job={job} />
+            </div>
           </div>
-        </div>
-      )}
-      {isShop && <ConversationPanel side="shop" jobId={job.id} jobStatus={job.status} />}
+        )}
+        {isShop && <ConversationPanel side="shop" jobId={job.id} jobStatus={job.status} />}
 
-      <div className="grid grid-cols-1 items-start gap-6 lg:grid-cols-[minmax(0,1fr)_20rem]">
-        <div className="flex min-w-0 flex-col gap-6">
-          <Section title="Photos">
-            <PhotoGallery jobId={job.id} jobTitle={job.title} photos={job.photos} canRemove={isOwner && photosOpen} />
-            {isOwner && photosOpen && <PhotoUploader jobId={job.id} existingCount={job.photos.length} />}
-          </Section>
-          {!isShop && specSections}
+        <div className="grid grid-cols-1 items-start gap-6 lg:grid-cols-[minmax(0,1fr)_20rem]">
+          <div className="flex min-w-0 flex-col gap-6">
+            <Section title="Photos">
+              <PhotoGallery jobId={job.id} jobTitle={job.title} photos={job.photos} canRemove={isOwner && photosOpen} />
+              {isOwner && photosOpen && <PhotoUploader jobId={job.id} existingCount={job.photos.length} />}
+            </Section>
+            {!isShop && specSections}
+          </div>
+          <aside className="flex flex-col gap-6" aria-label="At a glance">
+            <Section title="At a glance">
+              <JobLogistics job={job} />
+            </Section>
+            <JobFiguresPanel title="Figures from the spec" input={job.spec} />
+          </aside>
         </div>
-        <aside className="flex flex-col gap-6" aria-label="At a glance">
-          <Section title="At a glance">
-            <JobLogistics job={job} />
-          </Section>
-          <JobFiguresPanel title="Figures from the spec" input={job.spec} />
-        </aside>
       </div>
-    </div>
+    </RevealWhenSettled>
   );
 }

@@ -11,6 +11,7 @@ import {
   passwordResetConfirmSchema,
   passwordResetRequestSchema,
   pendingGithubAnswerSchema,
+  sessionAnswerSchema,
   signedInSchema,
   signInSchema,
   signUpSchema,
@@ -199,6 +200,14 @@ export const authRoutes = [
     access: 'signed-in',
     reply: { json: meAnswerSchema, description: 'The person as they see themselves' },
     handler: ({ user }) => ({ user: toMe(user) }),
+  }),
+  route({
+    method: 'get',
+    path: '/api/auth/session',
+    summary: 'Who is signed in on this session, if anyone',
+    access: 'public',
+    reply: { json: sessionAnswerSchema, description: 'The person as they see themselves, or null when signed out' },
+    handler: ({ user }) => ({ user: user ? toMe(user) : null }),
   }),
   route({
     method: 'post',

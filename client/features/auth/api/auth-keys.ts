@@ -1,7 +1,7 @@
 import { queryOptions } from '@tanstack/react-query';
 import type { DeletionCheck } from '@shared/schemas/account';
-import type { Me, MeAnswer, PendingGithubAnswer } from '@shared/schemas/auth';
-import { ApiError, api } from '@client/lib/api-client';
+import type { Me, PendingGithubAnswer, SessionAnswer } from '@shared/schemas/auth';
+import { api } from '@client/lib/api-client';
 
 export const authKeys = {
   all: ['auth'] as const,
@@ -10,15 +10,13 @@ export const authKeys = {
   deletion: () => [...authKeys.all, 'deletion'] as const,
 };
 
-/** The signed-in person, or null when signed out (a 401 is an answer, not an error). */
+/**
+ * The signed-in person, or null when signed out. Asked of /api/auth/session, which
+ * answers 200 either way, so a signed-out visitor's browser logs no failed request.
+ */
 export async function getMe(): Promise<Me | null> {
-  try {
-    const { user } = await api.get<MeAnswer>('/api/auth/me');
-    return user;
-  } catch (error) {
-    if (error instanceof ApiError && error.status === 401) return null;
-    throw error;
-  }
+  const { user } = await api.get<SessionAnswer>('/api/auth/session');
+  return user;
 }
 
 export const authQueries = {
