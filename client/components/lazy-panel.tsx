@@ -1,4 +1,25 @@
-import { lazy, Suspense, type ComponentType, type ReactNode } from 'react';
+import { lazy, Suspense, useSyncExternalStore, type ComponentType, type ReactNode } from 'react';
+
+// How many panels' code is still on its way, for a page that shows its panels together (RevealWhenSettled).
+let loading = 0;
+const listeners = new Set<() => void>();
+const changed = () => listeners.forEach((listener) => listener());
+function tracked<T>(load: Promise<T>): Promise<T> {
+  loading += 1;
+  changed();
+  return load.finally(() => {
+    loading -= 1;
+    changed();
+  });
+}
+const subscribe = (listener: () => void) => {
+  listeners.add(listener);
+  return () => listeners.delete(listener);
+};
+/** The number of lazy panels whose code is loading now. */
+export function usePanelsLoading(): number {
+  return useSyncExternalStore(subscribe, () => loading);
+}
 
 /**
  * A panel whose code loads when it is first rendered, in a chunk of its own with
@@ -12,7 +33,7 @@ import { lazy, Suspense, type ComponentType, type ReactNode } from 'react';
  */
 /*#__NO_SIDE_EFFECTS__*/
 export function lazyPanel<P extends object>(load: () => Promise<ComponentType<P>>, placeholder: ReactNode = null): (props: P) => ReactNode {
-  const Panel = lazy(() => load().then((component) => ({ default: component })));
+  const Panel = lazy(() => tracked(load()).then((component) => ({ default: component })));
   return function LazyPanel(props: P) {
     return (
       <Suspense fallback={placeholder}>

@@ -1,5 +1,6 @@
 import { useIsFetching, type Query } from '@tanstack/react-query';
 import { useEffect, useState, type ReactNode } from 'react';
+import { usePanelsLoading } from '@client/components/lazy-panel';
 import { cn } from '@client/lib/cn';
 
 /** A query loading for the first time: it has nothing to show yet (a background refetch has). */
@@ -15,7 +16,8 @@ const SETTLE_MS = 60;
  * panel opened by the reader) show as before.
  */
 export function RevealWhenSettled({ placeholder, maxWaitMs = 1_500, children }: { placeholder: ReactNode; maxWaitMs?: number; children: ReactNode }) {
-  const firstLoads = useIsFetching({ predicate: firstLoad });
+  // Panels whose code is still loading count as not settled: they would appear and push the rest down.
+  const firstLoads = useIsFetching({ predicate: firstLoad }) + usePanelsLoading();
   const [revealed, setRevealed] = useState(false);
   useEffect(() => {
     const timer = setTimeout(() => setRevealed(true), maxWaitMs);
