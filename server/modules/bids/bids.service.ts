@@ -1,7 +1,7 @@
 import { and, asc, desc, eq, inArray, ne, or, sql } from 'drizzle-orm';
 import { lineAmountCents } from '../../../shared/catalogue';
 import { netOf } from '../../../shared/money';
-import { daysUntil, dueDayOf } from '../../../shared/due-day';
+import { daysUntil } from '../../../shared/due-day';
 import type { Bid, BidInput, BidLine, BidRevision, QueueJob, QueueStage, ShopBid } from '../../../shared/schemas/bids';
 import type { JobStatus } from '../../../shared/schemas/jobs';
 import type { Database, Executor } from '../../db/client';
@@ -12,6 +12,7 @@ import { enqueueMail } from '../../lib/mail/outbox';
 import { bidAcceptedMail, bidDeclinedMail, bidRevisedMail, newBidMail } from '../../lib/mail/templates';
 import type { RealtimeHub } from '../../realtime/hub';
 import { currentFee } from '../admin/platform-fee';
+import { dueDaysOf } from '../jobs/due-days';
 import { findJob, type JobRow } from '../jobs/jobs.repository';
 import { jobForViewer, mustBeBidsShop, mustBeBuilder, mustListBids, mustSeeBid, partyUserIdsById } from '../jobs/job-access';
 import { findShopByUser, shopIsListed, shopSuspended, type ShopRow } from '../shops/shops.repository';
@@ -355,30 +356,25 @@ async function firstLogged(db: Executor, jobIds: string[], kind: MilestoneKind):
   return new Map(rows.map((r) => [r.jobId, r.at]));
 }
 
-/** An accepted bid's due day (shared/due-day.ts has the rule); null for a bid not accepted. */
-const dueOnOf = (bid: { turnaroundDays: number; decidedAt: Date | null }, partsReceivedAt: Date | undefined) =>
-  dueDayOf({ turnaroundDays: bid.turnaroundDays, awardedAt: bid.decidedAt }, partsReceivedAt);
-
 export async function bidsOfShop(deps: BidDeps, user: User): Promise<ShopBid[]> {
   const shop = await findShopByUser(deps.db, user.id);
   if (!shop) return [];
   const rows = await deps.db.select().from(bids).where(eq(bids.shopId, shop.id)).orderBy(desc(bids.updatedAt));
   const presented = await present(deps.db, rows);
   const jobIds = rows.map((r) => r.jobId);
-  const [jobRows, receivedOn, { feeBps: rateNow }] = await Promise.all([
+  const acceptedJobIds = rows.filter((r) => r.status === 'accepted').map((r) => r.jobId);
+  const [jobRows, dueDays, { feeBps: rateNow }] = await Promise.all([
     jobIds.length ? deps.db.select({ id: jobs.id, title: jobs.title, status: jobs.status, feeBps: jobs.feeBps }).from(jobs).where(inArray(jobs.id, jobIds)) : [],
-    firstLogged(deps.db, jobIds, 'block_received'),
+    dueDaysOf(deps.db, acceptedJobIds),
     feeRateNow(deps),
   ]);
   const byId = new Map(jobRows.map((t) => [t.id, t]));
-  const rowById = new Map(rows.map((r) => [r.id, r]));
   return presented.map((b) => {
     const job = byId.get(b.jobId);
     const accepted = b.status === 'accepted';
     // An accepted bid pays the rate fixed on its job; any other would pay today's.
     const feeBps = accepted ? (job?.feeBps ?? rateNow) : rateNow;
-    const row = rowById.get(b.id);
-    const dueOn = accepted && row ? dueOnOf(row, receivedOn.get(b.jobId)) : null;
+    const dueOn = accepted ? (dueDays.get(b.jobId) ?? null) : null;
     return { ...b, jobTitle: job?.title ?? '', jobStatus: job?.status ?? '', feeBps, ...netOf(b.totalCents, feeBps), dueOn };
   });
 }
@@ -401,14 +397,14 @@ export async function workQueue(deps: BidDeps, user: User, now = new Date()): Pr
   const shop = await findShopByUser(deps.db, user.id);
   if (!shop) return [];
   const rows = await deps.db
-    .select({ job: { id: jobs.id, title: jobs.title, status: jobs.status }, bid: { turnaroundDays: bids.turnaroundDays, decidedAt: bids.decidedAt }, builderName: users.displayName })
+    .select({ job: { id: jobs.id, title: jobs.title, status: jobs.status }, bid: { turnaroundDays: bids.turnaroundDays }, builderName: users.displayName })
     .from(jobs)
     .innerJoin(bids, eq(bids.id, jobs.awardedBidId))
     .innerJoin(users, eq(users.id, jobs.builderId))
     .where(and(eq(bids.shopId, shop.id), inArray(jobs.status, QUEUED)));
   const jobIds = rows.map((r) => r.job.id);
-  const [receivedOn, shippedOn, readyOn, latestRecords] = await Promise.all([
-    firstLogged(deps.db, jobIds, 'block_received'),
+  const [dueDays, shippedOn, readyOn, latestRecords] = await Promise.all([
+    dueDaysOf(deps.db, jobIds),
     firstLogged(deps.db, jobIds, 'shipped'),
     firstLogged(deps.db, jobIds, 'ready_for_pickup'),
     jobIds.length
@@ -422,7 +418,7 @@ export async function workQueue(deps: BidDeps, user: User, now = new Date()): Pr
   const rejected = new Set(latestRecords.filter((r) => r.status === 'rejected').map((r) => r.jobId));
   return rows
     .map(({ job, bid, builderName }) => {
-      const dueOn = dueOnOf(bid, receivedOn.get(job.id)) ?? now.toISOString().slice(0, 10);
+      const dueOn = dueDays.get(job.id) ?? now.toISOString().slice(0, 10);
       const facts = { shipped: shippedOn.has(job.id), readyForPickup: readyOn.has(job.id), changesAsked: rejected.has(job.id) };
       return {
         jobId: job.id,
