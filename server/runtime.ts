@@ -58,11 +58,14 @@ export async function startServer(
     socket.once('close', () => sockets.delete(socket));
   });
 
+  // The live channel's own two connections (one listening, one publishing), so a publication never
+  // waits behind requests for a pooled connection.
+  const realtimePool = createPool(config.databaseUrl, 2);
   const io = attachRealtime({
     server,
     sessionMiddleware: app.sessionMiddleware,
     db,
-    pool,
+    pool: realtimePool,
     hub: app.hub,
     logger,
     appUrl: config.appUrl,
@@ -105,7 +108,7 @@ export async function startServer(
       transport.close();
       // The session store touches a session after its response has gone out; let the last ones land.
       await new Promise((resolve) => setTimeout(resolve, 100));
-      await pool.end();
+      await Promise.all([pool.end(), realtimePool.end()]);
     },
   };
 }

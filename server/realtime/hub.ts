@@ -29,9 +29,16 @@ export class RealtimeHub {
     this.io?.to(rooms.job(jobId)).emit('job:changed', { jobId, change });
   }
 
+  /**
+   * Pages with the conversation open get the message; the participants' other
+   * pages are told their unread count moved (a page that got the message knows
+   * that already, so it is not sent the signal too: half the frames in a busy
+   * conversation).
+   */
   messageCreated(message: Message, participants: string[]) {
-    this.io?.to(rooms.thread(message.threadId)).emit('message:new', message);
-    for (const userId of participants) this.io?.to(rooms.user(userId)).emit('unread:changed', { threadId: message.threadId });
+    const thread = rooms.thread(message.threadId);
+    this.io?.to(thread).emit('message:new', message);
+    if (participants.length) this.io?.to(participants.map(rooms.user)).except(thread).emit('unread:changed', { threadId: message.threadId });
   }
 
   /**

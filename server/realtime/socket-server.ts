@@ -21,6 +21,7 @@ export interface RealtimeOptions {
   server: HttpServer;
   sessionMiddleware: RequestHandler;
   db: Database;
+  /** The live channel's own connections: one held for LISTEN, one for publications (see adapterPool). */
   pool: pg.Pool;
   hub: RealtimeHub;
   logger: Logger;
@@ -153,11 +154,13 @@ export function attachRealtime(options: RealtimeOptions): RealtimeServer {
     const sid = (socket.request as unknown as { sessionID: string }).sessionID;
     void socket.join([rooms.user(user.id), rooms.session(sid), ...(user.role === 'admin' ? [rooms.admins] : [])]);
 
-    /** Belt and braces beside the disconnects: a socket whose session has ended is refused and closed. */
+    /**
+     * Belt and braces beside the disconnects: a socket whose session has ended
+     * is refused (and closed once the refusal has gone out, see handle).
+     */
+    const sessionEnded = new AppError('unauthenticated', 'Your session has ended. Sign in again.', 401);
     const checkSession = async () => {
-      if (await sessionIsLive(db, sid, user.id)) return;
-      setImmediate(() => socket.disconnect(true));
-      throw new AppError('unauthenticated', 'Your session has ended. Sign in again.', 401);
+      if (!(await sessionIsLive(db, sid, user.id))) throw sessionEnded;
     };
 
     /** The payload is whatever the client sent: each handler parses it with a schema before use. */
@@ -172,6 +175,7 @@ export function attachRealtime(options: RealtimeOptions): RealtimeServer {
         } catch (error) {
           if (!(error instanceof AppError) && !(error instanceof z.ZodError)) logger.error({ err: error, event }, 'socket handler failed');
           if (typeof ack === 'function') ack(failure(error));
+          if (error === sessionEnded) setImmediate(() => socket.disconnect(true));
         }
       };
       // TypeScript cannot resolve socket.io's listener type for an event not yet known; each call of handle names one.
@@ -207,9 +211,10 @@ export function attachRealtime(options: RealtimeOptions): RealtimeServer {
     handle('message:send', async (payload) => {
       const { threadId } = threadParamsSchema.parse(payload);
       const input = sendMessageSchema.parse(payload);
-      const { message, duplicate } = await sendMessage(messageDeps, user, threadId, input);
+      // The session is checked beside the message's other reads (one round trip), still before it is stored.
+      const { message, duplicate } = await sendMessage(messageDeps, user, threadId, input, { sessionCheck: checkSession });
       return { message, duplicate };
-    }, { sessionCheck: true });
+    });
 
     handle('typing', async (payload) => {
       const { threadId } = threadParamsSchema.parse(payload);

@@ -19,14 +19,17 @@ export async function migratedBenchDatabase(cluster: Cluster): Promise<string> {
   return url;
 }
 
-/** The app's configuration on `url` for a bench: production mode, silent, any free port; `limits` raises rate limits. */
-export function benchConfig(url: string, limits: Record<string, string> = {}) {
-  return loadConfig({
+/** The app's environment on `url` for a bench: production mode, silent, any free port; `limits` raises rate limits. */
+export function benchEnv(url: string, limits: Record<string, string> = {}): Record<string, string> {
+  return {
     NODE_ENV: 'production',
     LOG_LEVEL: 'silent',
     DATABASE_URL: url,
     PORT: '0',
     SESSION_SECRET: 'bench-session-secret-123456',
     ...limits,
-  });
+  };
 }
+
+/** The app's configuration for a bench (see benchEnv). */
+export const benchConfig = (url: string, limits: Record<string, string> = {}) => loadConfig(benchEnv(url, limits));

@@ -1,13 +1,16 @@
 /**
  * `npm run bench:realtime`: several hundred socket.io clients spread over two
  * app instances that share one PostgreSQL (the adapter carries messages
- * between them). Prints message delivery latency p50 / p99 beside the aims of
+ * between them). Each instance runs in a process of its own, as deployed
+ * (BENCH_INSTANCES=in-process runs both in the bench's own process, beside the
+ * clients, as the first version of this bench did). Prints message delivery latency p50 / p99 beside the aims of
  * issue 19, the sender's acknowledgement (stored and published), the number of
  * connections held, and as a floor a bare NOTIFY → LISTEN round trip between two
  * plain connections to the same PostgreSQL, in bursts of the same size, measured
  * in the same run; asserts nothing.
  */
 import { sql } from 'drizzle-orm';
+import { fork, type ChildProcess } from 'node:child_process';
 import { randomBytes } from 'node:crypto';
 import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
@@ -16,18 +19,61 @@ import pg from 'pg';
 import { io as connect, type Socket } from 'socket.io-client';
 import { createDb, createPool } from '../../server/db/client';
 import { hashPassword } from '../../server/lib/auth/passwords';
-import { startServer, type RunningServer } from '../../server/runtime';
+import { startServer } from '../../server/runtime';
 import { signedIn } from '../setup/api-session';
-import { benchCluster, benchConfig, migratedBenchDatabase } from './bench-app';
+import { benchCluster, benchConfig, benchEnv, migratedBenchDatabase } from './bench-app';
 
 const THREADS = Number(process.env.BENCH_THREADS ?? 20);
 const LISTENERS_PER_THREAD = Number(process.env.BENCH_LISTENERS ?? 15);
 const MESSAGES_PER_THREAD = Number(process.env.BENCH_MESSAGES ?? 10);
 const PASSWORD = 'bench password 1';
+const IN_PROCESS = process.env.BENCH_INSTANCES === 'in-process';
+
+/** An app instance as the bench uses it: where it listens, how many clients it holds, how to stop it. */
+interface Instance {
+  url: string;
+  clients(): Promise<number>;
+  close(): Promise<void>;
+}
+
+async function startInstance(env: Record<string, string>): Promise<Instance> {
+  if (IN_PROCESS) {
+    const running = await startServer(benchConfig(env.DATABASE_URL, env), { migrate: false });
+    return { url: running.url, clients: async () => running.io.engine.clientsCount, close: () => running.close() };
+  }
+  const child: ChildProcess = fork(new URL('./bench-instance.ts', import.meta.url), {
+    execArgv: ['--import', 'tsx'],
+    env: { ...process.env, BENCH_INSTANCE_ENV: JSON.stringify(env) },
+  });
+  const answer = <T>(key: string) =>
+    new Promise<T>((resolve, reject) => {
+      const onMessage = (message: Record<string, T>) => {
+        if (!(key in message)) return;
+        child.off('message', onMessage);
+        resolve(message[key]);
+      };
+      child.on('message', onMessage);
+      child.once('exit', (code) => reject(new Error(`the instance exited (${code})`)));
+    });
+  const url = await answer<string>('url');
+  return {
+    url,
+    clients: () => {
+      const count = answer<number>('clients');
+      child.send('count');
+      return count;
+    },
+    close: () =>
+      new Promise<void>((resolve) => {
+        child.once('exit', () => resolve());
+        child.send('close');
+      }),
+  };
+}
 
 const dir = mkdtempSync(join(tmpdir(), 'tenthmark-rt-bench-'));
 const cluster = await benchCluster(dir);
-const servers: RunningServer[] = [];
+const servers: Instance[] = [];
 const sockets: Socket[] = [];
 try {
   const url = await migratedBenchDatabase(cluster);
@@ -57,8 +103,8 @@ try {
   ).rows;
   await pool.end();
 
-  const config = benchConfig(url, { RATE_LIMIT_SIGNIN_MAX: '100000', RATE_LIMIT_MESSAGES_PER_10S: '100000' });
-  servers.push(await startServer(config, { migrate: false }), await startServer(config, { migrate: false }));
+  const env = benchEnv(url, { RATE_LIMIT_SIGNIN_MAX: '100000', RATE_LIMIT_MESSAGES_PER_10S: '100000' });
+  servers.push(...(await Promise.all([startInstance(env), startInstance(env)])));
 
   const cookies = new Map<string, string>();
   async function cookieFor(email: string): Promise<string> {
@@ -69,7 +115,7 @@ try {
     return cookie;
   }
 
-  const open = async (server: RunningServer, cookie: string) => {
+  const open = async (server: Instance, cookie: string) => {
     const socket = connect(server.url, { transports: ['websocket'], extraHeaders: { cookie }, reconnection: false, forceNew: true });
     sockets.push(socket);
     await new Promise<void>((resolve, reject) => {
@@ -99,7 +145,8 @@ try {
     }
     senders.push({ socket: await open(servers[0], shopCookie), threadId: pair.thread_id });
   }
-  const held = servers.reduce((sum, s) => sum + s.io.engine.clientsCount, 0);
+  const clientsHeld = await Promise.all(servers.map((s) => s.clients()));
+  const held = clientsHeld[0] + clientsHeld[1];
 
   const started = performance.now();
   for (let m = 0; m < MESSAGES_PER_THREAD; m += 1) {
@@ -144,7 +191,8 @@ try {
   const p50 = pick(latencies, 0.5);
   const p99 = pick(latencies, 0.99);
   console.log(`
-connections held        ${held} (instance A ${servers[0].io.engine.clientsCount}, instance B ${servers[1].io.engine.clientsCount})
+instances               two, ${IN_PROCESS ? 'both in the bench\'s own process, beside the clients' : 'each in a process of its own'}
+connections held        ${held} (instance A ${clientsHeld[0]}, instance B ${clientsHeld[1]})
 messages sent           ${THREADS * MESSAGES_PER_THREAD} (${THREADS} conversations × ${MESSAGES_PER_THREAD}, ${THREADS} at a time)
 deliveries              ${latencies.length} of ${expected} expected, in ${elapsed.toFixed(1)} s
 

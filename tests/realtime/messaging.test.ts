@@ -73,13 +73,17 @@ describe('live messaging', () => {
   it('when the shop sends through instance B, then the builder connected to instance A gets it live, and it is stored', async () => {
     const { threadId, builderAuth, shopAuth, builder } = await conversation();
     const builderSocket = socketFor(live.instanceA, builderAuth.cookie);
+    // The builder's other page (say, the home page), not showing the conversation.
+    const builderElsewhere = socketFor(live.instanceA, builderAuth.cookie);
     const shopSocket = socketFor(live.instanceB, shopAuth.cookie);
-    await Promise.all([connected(builderSocket), connected(shopSocket)]);
+    await Promise.all([connected(builderSocket), connected(builderElsewhere), connected(shopSocket)]);
     expect(await emit(builderSocket, 'thread:join', { threadId })).toMatchObject({ ok: true, canWrite: true });
     expect((await emit(shopSocket, 'thread:join', { threadId })).ok).toBe(true);
 
     const arriving = next(builderSocket, 'message:new');
-    const unread = next(builderSocket, 'unread:changed');
+    const unread = next(builderElsewhere, 'unread:changed');
+    let signalsToOpenPage = 0;
+    builderSocket.on('unread:changed', () => (signalsToOpenPage += 1));
     const typing = next(builderSocket, 'typing');
     await emit(shopSocket, 'typing', { threadId });
     expect(await typing).toMatchObject({ threadId });
@@ -88,6 +92,12 @@ describe('live messaging', () => {
     const received = await arriving;
     expect(received).toMatchObject({ id: sent.message.id, threadId, body: 'Cylinder 3 has a crack at the top.', author: { role: 'shop' } });
     expect(await unread).toEqual({ threadId });
+    // The open page learnt everything from the message: publications arrive in order, so once the
+    // shop's next typing signal is here, an unread signal sent with the message would be here too.
+    const typingAgain = next(builderSocket, 'typing');
+    await emit(shopSocket, 'typing', { threadId });
+    await typingAgain;
+    expect(signalsToOpenPage).toBe(0);
 
     const stored = await live.db.select().from(messages).where(eq(messages.threadId, threadId));
     expect(stored.map((m) => m.body)).toEqual(['Cylinder 3 has a crack at the top.']);
@@ -100,6 +110,26 @@ describe('live messaging', () => {
     expect(await receipt).toEqual({ threadId, userId: builder.id, messageId: sent.message.id });
     const after = await fetch(`${live.instanceA.url}/api/threads`, { headers: { Cookie: builderAuth.cookie } }).then((r) => r.json());
     expect(after.threads.find((t: { id: string }) => t.id === threadId).unread).toBe(0);
+  });
+
+  it('when a sender reuses one message id in another conversation, then it is refused there (client_id_reused) and nothing is stored; in its own conversation it is the same message', async () => {
+    const { builder, shopUser, threadId, builderAuth } = await conversation();
+    const otherJob = await createJob(live.db, builder.id);
+    const shopAuth = await session(live.instanceB, shopUser);
+    expect((await post(live.instanceB, shopAuth, `/api/jobs/${otherJob.id}/bids`, bidInput())).status).toBe(201);
+    const shopId = (await live.db.query.shops.findFirst({ where: (shops, { eq: is }) => is(shops.userId, shopUser.id) }))!.id;
+    const other = await post(live.instanceA, builderAuth, `/api/jobs/${otherJob.id}/threads`, { shopId });
+    expect(other.status).toBe(201);
+    const socket = socketFor(live.instanceA, builderAuth.cookie);
+    await connected(socket);
+    const id = clientId();
+    const first = await emit(socket, 'message:send', { threadId, clientId: id, body: 'Heads go out Monday.' });
+    expect(first).toMatchObject({ ok: true, duplicate: false });
+    const elsewhere = await emit(socket, 'message:send', { threadId: other.body.thread.id, clientId: id, body: 'Something else.' });
+    expect(elsewhere).toMatchObject({ ok: false, error: { code: 'client_id_reused' } });
+    expect(await live.db.select().from(messages).where(eq(messages.threadId, other.body.thread.id))).toHaveLength(0);
+    const again = await emit(socket, 'message:send', { threadId, clientId: id, body: 'Heads go out Monday.' });
+    expect(again).toMatchObject({ ok: true, duplicate: true, message: { id: first.message.id, createdAt: first.message.createdAt, author: { id: builder.id } } });
   });
 
   it('when a message is resent after a reconnect with the same id, then it is stored once', async () => {

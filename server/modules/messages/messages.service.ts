@@ -1,11 +1,11 @@
 import { and, desc, eq, lt, or, sql } from 'drizzle-orm';
 import type { HistoryPage, Message, MessagePhoto, SendMessageInput, ThreadSummary } from '../../../shared/schemas/messages';
 import type { Database, Executor } from '../../db/client';
-import { bids, messages, shops, threadReads, threads, users, type User } from '../../db/schema';
+import { bids, jobs, messages, shops, threads, users, type User } from '../../db/schema';
 import { AppError, conflict, forbidden, notFound } from '../../lib/errors';
 import { PostgresRateLimitStore } from '../../lib/rate-limit';
 import type { RealtimeHub } from '../../realtime/hub';
-import { awardedShopId, jobForViewer, mustOwnJob, mustReadThread, mustSeeDraft } from '../jobs/job-access';
+import { jobForViewer, mustOwnJob, mustReadThread, mustSeeDraft } from '../jobs/job-access';
 import { findJob, type JobRow } from '../jobs/jobs.repository';
 import { findShopByUser } from '../shops/shops.repository';
 import { attachPhotos, photosOfMessages } from './message-photos.repository';
@@ -50,29 +50,23 @@ export function messageRateLimit(db: Database, perTenSeconds: number): MessageRa
 const CLOSED_STATUSES = new Set(['cancelled', 'resolved']);
 
 /**
- * Whether the thread can take new messages: never once the job is closed;
- * after the award only the thread with the winning shop goes on.
+ * The thread if this person may read it: the job's builder, the thread's shop, or an admin (read only).
+ * One statement: the thread, its job, the shop's person and the shop the job was awarded to.
+ * Writable: never once the job is closed; after the award only the thread with the winning shop goes on.
  */
-async function writable(db: Executor, job: JobRow, thread: ThreadRow): Promise<boolean> {
-  if (CLOSED_STATUSES.has(job.status)) return false;
-  if (!job.awardedBidId) return true;
-  return (await awardedShopId(db, job)) === thread.shopId;
-}
-
-/** The thread if this person may read it: the job's builder, the thread's shop, or an admin (read only). */
 export async function threadFor(db: Executor, threadId: string, user: User): Promise<ThreadAccess> {
-  const [thread] = await db.select().from(threads).where(eq(threads.id, threadId));
-  if (!thread) throw notFound('No conversation with that id.');
-  const [job, [shop]] = await Promise.all([findJob(db, thread.jobId), db.select({ userId: shops.userId }).from(shops).where(eq(shops.id, thread.shopId))]);
-  if (!job || !shop) throw notFound('No conversation with that id.');
-  const isParty = mustReadThread(job, shop.userId, user);
-  return {
-    thread,
-    job,
-    builderId: job.builderId,
-    shopUserId: shop.userId,
-    canWrite: isParty && (await writable(db, job, thread)),
-  };
+  const [row] = await db
+    .select({ thread: threads, job: jobs, shopUserId: shops.userId, awardedShopId: bids.shopId })
+    .from(threads)
+    .innerJoin(jobs, eq(jobs.id, threads.jobId))
+    .innerJoin(shops, eq(shops.id, threads.shopId))
+    .leftJoin(bids, eq(bids.id, jobs.awardedBidId))
+    .where(eq(threads.id, threadId));
+  if (!row) throw notFound('No conversation with that id.');
+  const { thread, job, shopUserId } = row;
+  const isParty = mustReadThread(job, shopUserId, user);
+  const writable = !CLOSED_STATUSES.has(job.status) && (!job.awardedBidId || row.awardedShopId === thread.shopId);
+  return { thread, job, builderId: job.builderId, shopUserId, canWrite: isParty && writable };
 }
 
 /**
@@ -173,11 +167,13 @@ export async function sendMessage(
   user: User,
   threadId: string,
   input: Pick<SendMessageInput, 'clientId' | 'body'> & { photoIds?: string[] },
-  options: { onTooFast?: (retryAfterSeconds: number) => void } = {},
+  options: { onTooFast?: (retryAfterSeconds: number) => void; sessionCheck?: () => Promise<void> } = {},
 ): Promise<{ message: Message; duplicate: boolean; access: ThreadAccess }> {
   const { db } = deps;
-  // The count and the conversation are read side by side; the limit's refusal still comes first.
-  const [limited, found] = await Promise.allSettled([deps.rateLimit?.(user.id, options.onTooFast), threadFor(db, threadId, user)]);
+  // The session, the count and the conversation are read side by side, before anything is written;
+  // an ended session's refusal comes first, then the limit's.
+  const [live, limited, found] = await Promise.allSettled([options.sessionCheck?.(), deps.rateLimit?.(user.id, options.onTooFast), threadFor(db, threadId, user)]);
+  if (live.status === 'rejected') throw live.reason;
   if (limited.status === 'rejected') throw limited.reason;
   // The shared schema says the same; callers that skip it (scripts, benches) meet it here, since the table allows ''.
   if (!input.body && !input.photoIds?.length) {
@@ -186,53 +182,88 @@ export async function sendMessage(
   if (found.status === 'rejected') throw found.reason;
   const access = found.value;
   if (!access.canWrite) throw conflict('This conversation is closed to new messages.', 'thread_closed');
-  const sent = await db.transaction(async (tx) => {
-    const [inserted] = await tx
-      .insert(messages)
-      .values({ threadId, authorId: user.id, clientId: input.clientId, body: input.body })
-      .onConflictDoNothing({ target: [messages.authorId, messages.clientId] })
-      .returning({ id: messages.id });
-    const id = inserted?.id;
-    const [row] = await tx
-      .select(messageColumns)
-      .from(messages)
-      .innerJoin(users, eq(users.id, messages.authorId))
-      .where(id ? eq(messages.id, id) : and(eq(messages.authorId, user.id), eq(messages.clientId, input.clientId)));
-    if (row.threadId !== threadId) throw conflict('That message id was already used in another conversation.', 'client_id_reused');
-    if (id) {
-      if (input.photoIds?.length) await attachPhotos(tx, { threadId, userId: user.id, messageId: id, photoIds: input.photoIds });
-      await tx.update(threads).set({ lastMessageAt: row.createdAt }).where(eq(threads.id, threadId));
-      await markReadTx(tx, threadId, user.id, row.id, row.createdAt);
-    }
-    // A message stored just now without photos has none; a resent one may.
-    const photos = id && !input.photoIds?.length ? undefined : (await photosOfMessages(tx, [row.id])).get(row.id);
-    return { message: toMessage(row, photos), duplicate: !id, access };
-  });
+  const store = { threadId, authorId: user.id, clientId: input.clientId, body: input.body };
+  const photoIds = input.photoIds ?? [];
+  // Words alone are stored by one statement; photos are attached in the same transaction as their message.
+  const stored = photoIds.length
+    ? await db.transaction(async (tx) => {
+        const row = await storeMessage(tx, store);
+        if (row.inserted) await attachPhotos(tx, { threadId, userId: user.id, messageId: row.id, photoIds });
+        return { row, photos: (await photosOfMessages(tx, [row.id])).get(row.id) };
+      })
+    : { row: await storeMessage(db, store), photos: undefined };
+  const { row } = stored;
+  // A resent message may have photos from its first sending.
+  const photos = stored.photos ?? (row.inserted ? undefined : (await photosOfMessages(db, [row.id])).get(row.id));
+  const sent = { message: toMessage(row, photos), duplicate: !row.inserted, access };
   // Every open page of the conversation gets the message; the other side's unread count moves.
   if (!sent.duplicate) deps.hub?.messageCreated(sent.message, [access.builderId, access.shopUserId].filter((id) => id !== user.id));
   return sent;
 }
 
-async function markReadTx(tx: Executor, threadId: string, userId: string, messageId: string, at: Date) {
-  await tx
-    .insert(threadReads)
-    .values({ threadId, userId, lastReadAt: at, lastReadMessageId: messageId })
-    .onConflictDoUpdate({
-      target: [threadReads.threadId, threadReads.userId],
-      set: { lastReadAt: at, lastReadMessageId: messageId },
-      // Read receipts only move forward.
-      setWhere: sql`${threadReads.lastReadAt} IS NULL OR ${threadReads.lastReadAt} < ${at.toISOString()}::timestamptz`,
-    });
+/**
+ * The reader's mark moves to the message in the statement's `source` (with its
+ * id, thread_id and created_at); marks only move forward.
+ */
+const moveReadMark = (source: 'stored' | 'target', userId: string) => sql`
+  INSERT INTO thread_reads (thread_id, user_id, last_read_at, last_read_message_id)
+  SELECT thread_id, ${userId}::uuid, created_at, id FROM ${sql.identifier(source)}
+  ON CONFLICT (thread_id, user_id) DO UPDATE SET last_read_at = EXCLUDED.last_read_at, last_read_message_id = EXCLUDED.last_read_message_id
+  WHERE thread_reads.last_read_at IS NULL OR thread_reads.last_read_at < EXCLUDED.last_read_at`;
+
+interface StoredRow extends MessageRow {
+  /** False when the sender's client id was already used: the row is the earlier message. */
+  inserted: boolean;
+}
+
+/**
+ * Stores a message once per client id, in one statement: the message, the
+ * conversation's last-message time and the sender's read mark; answers the
+ * stored row with its author, or the earlier message with the same client id.
+ */
+async function storeMessage(db: Executor, input: { threadId: string; authorId: string; clientId: string; body: string }): Promise<StoredRow> {
+  const existing = sql`SELECT m.id, m.thread_id, m.author_id, m.client_id, m.body, m.created_at FROM messages m WHERE m.author_id = ${input.authorId} AND m.client_id = ${input.clientId}`;
+  const result = await db.execute<{ id: string; thread_id: string; author_id: string; client_id: string; body: string; created_at: string | Date; inserted: boolean; author_name: string; author_role: User['role'] }>(sql`
+    WITH stored AS (
+      INSERT INTO messages (thread_id, author_id, client_id, body) VALUES (${input.threadId}, ${input.authorId}, ${input.clientId}, ${input.body})
+      ON CONFLICT (author_id, client_id) DO NOTHING
+      RETURNING id, thread_id, author_id, client_id, body, created_at
+    ), touched AS (
+      UPDATE threads SET last_message_at = stored.created_at FROM stored WHERE threads.id = stored.thread_id
+    ), marked AS (${moveReadMark('stored', input.authorId)}),
+    found AS (
+      SELECT stored.*, true AS inserted FROM stored
+      UNION ALL SELECT e.*, false FROM (${existing}) e WHERE NOT EXISTS (SELECT 1 FROM stored)
+    )
+    SELECT found.*, u.display_name AS author_name, u.role AS author_role FROM found JOIN users u ON u.id = found.author_id`);
+  // Another request storing the same client id at this moment: its row was not yet visible to this statement.
+  const row = result.rows[0] ?? (await db.execute<(typeof result.rows)[number]>(sql`SELECT e.*, false AS inserted, u.display_name AS author_name, u.role AS author_role FROM (${existing}) e JOIN users u ON u.id = e.author_id`)).rows[0];
+  if (!row) throw conflict('That message could not be stored. Send it again.', 'message_not_stored');
+  if (row.thread_id !== input.threadId) throw conflict('That message id was already used in another conversation.', 'client_id_reused');
+  return {
+    id: row.id,
+    threadId: row.thread_id,
+    authorId: row.author_id,
+    clientId: row.client_id,
+    body: row.body,
+    createdAt: new Date(row.created_at),
+    authorName: row.author_name,
+    authorRole: row.author_role,
+    inserted: row.inserted,
+  };
 }
 
 export async function markRead(deps: MessageDeps, user: User, threadId: string, messageId: string): Promise<{ messageId: string; access: ThreadAccess }> {
   const { db } = deps;
   const access = await threadFor(db, threadId, user);
-  const [message] = await db.select().from(messages).where(and(eq(messages.id, messageId), eq(messages.threadId, threadId)));
-  if (!message) throw notFound('No such message in this conversation.');
-  await markReadTx(db, threadId, user.id, message.id, message.createdAt);
+  // The message is found and the mark moved in one statement.
+  const found = await db.execute<{ id: string }>(sql`
+    WITH target AS (SELECT id, thread_id, created_at FROM messages WHERE id = ${messageId} AND thread_id = ${threadId}),
+    moved AS (${moveReadMark('target', user.id)})
+    SELECT id FROM target`);
+  if (!found.rows[0]) throw notFound('No such message in this conversation.');
   deps.hub?.readMoved(threadId, user.id, messageId);
-  return { messageId: message.id, access };
+  return { messageId, access };
 }
 
 /** A job's conversations, for whoever may see the job. */
@@ -293,7 +324,7 @@ export async function myThreads(db: Database, user: User, jobId?: string): Promi
       builder: { id: row.builder_id, displayName: row.builder_name },
       lastMessageAt: row.last_message_at ? new Date(row.last_message_at).toISOString() : null,
       unread: isParty ? Number(row.unread) : 0,
-      // The same rule as writable(), in SQL, so the list costs one statement.
+      // The same rule as threadFor's writable, in SQL, so the list costs one statement.
       canWrite: isParty && row.open_for_writing,
       otherLastReadMessageId: row.other_last_read,
     };
