@@ -33,6 +33,10 @@ export const inspectionConditionsSchema = z
     if (c.temperatureC !== undefined && c.temperatureF !== undefined) {
       ctx.addIssue({ code: 'custom', path: ['temperatureF'], message: 'Give the temperature once, in °C or in °F.' });
     }
+    // The resolution is a lower bound on U (ISO 14253-1, ILAC-G8): a smaller U would narrow guarded acceptance below what the gauge can tell.
+    if (c.uncertainty !== undefined && c.uncertainty < c.gaugeResolution - 1e-12) {
+      ctx.addIssue({ code: 'custom', path: ['uncertainty'], message: 'The uncertainty cannot be smaller than the gauge’s resolution; leave it empty to use the resolution.' });
+    }
   });
 export type InspectionConditions = z.infer<typeof inspectionConditionsSchema>;
 
