@@ -91,6 +91,18 @@ export const rejectInspectionSchema = z.object({
 });
 export type RejectInspectionInput = z.input<typeof rejectInspectionSchema>;
 
+/**
+ * The builder accepts one version, the one they read: a version that is no
+ * longer the one waiting is refused. When that version has checks that do not
+ * conform, each is named here as the accept dialog listed it (the names of
+ * `checksNotConforming`).
+ */
+export const acceptInspectionSchema = z.object({
+  version: z.number({ error: 'Say which version of the record you accept.' }).int().min(1, 'Say which version of the record you accept.'),
+  confirmedChecks: z.array(z.string().max(500)).max(1000).optional(),
+});
+export type AcceptInspectionInput = z.input<typeof acceptInspectionSchema>;
+
 /** conforms, fails or not proven (ISO 14253-1's uncertainty range under guarded acceptance). */
 export const checkVerdictSchema = z.enum(['conforms', 'fails', 'not-proven']);
 export type CheckVerdict = z.infer<typeof checkVerdictSchema>;
