@@ -149,6 +149,18 @@ describe('the certificate', () => {
     expect(text).toMatch(/0\.8 mm/);
   });
 
+  it('when the crosshatch comes from hone settings, then the certificate says it was computed (mid-stroke) from full up-and-down cycles and defines taper and out-of-round', async () => {
+    // Issue 15 item 5 (honest words); the angle itself is unit-tested in tests/unit/calc/crosshatch.test.ts.
+    const { job, builder, shop } = await inWork();
+    const sent = await shop.post(`/api/jobs/${job.id}/inspection`, record({ crosshatch: { mode: 'settings', spindleRpm: 200, strokeLength: 4, cyclesPerMinute: 130 } }));
+    expect(sent.status).toBe(201);
+    // The PDF's line breaks split a hyphenated word ("up-and- down"): joined again before reading.
+    const text = (await pdfText(builder, job.id, 1)).replace(/-\s+/g, '-').replace(/\s+/g, ' ');
+    expect(text).toContain(`Included angle ${sent.body.version.results.crosshatch.includedAngleDeg.toFixed(1)}°, computed from settings (mid-stroke), not measured`);
+    expect(text).toContain('130 full up-and-down cycles per minute');
+    expect(text).toContain('Out-of-round: two-point');
+  });
+
   it('when the job gave no limits, then the certificate says nothing was judged (not PASS), and a decided record’s status is in words', async () => {
     const noLimits = jobInput({ targetBore: undefined, pistonDiameter: undefined, clearanceMin: undefined, clearanceMax: undefined, maxTaper: undefined, maxOutOfRound: undefined, crosshatchMinDeg: undefined, crosshatchMaxDeg: undefined });
     const funded = await m.jobIn('inWork', { input: noLimits, straightIntoDatabase: true, receivedNote: 'Arrived on a pallet.' });
