@@ -1,8 +1,9 @@
 import { sql } from 'drizzle-orm';
 import sharp from 'sharp';
 import { prefillBidLines } from '../../shared/catalogue';
+import { acceptAsRead } from '../../shared/calc/conformance';
 import { EXPANSION_COEFFICIENTS, PISTON_MATERIAL } from '../../shared/calc/thermal';
-import type { InspectionInput } from '../../shared/schemas/inspection';
+import type { InspectionInput, InspectionView } from '../../shared/schemas/inspection';
 import type { JobInput } from '../../shared/schemas/jobs';
 import type { Database } from '../db/client';
 import { HttpSession } from './http-session';
@@ -203,6 +204,12 @@ export async function buildDemoScenario(options: ScenarioOptions): Promise<numbe
     return session;
   };
   const admin = await as('admin@tenthmark.test');
+  /** The builder reads the waiting version and accepts it, naming each check that does not conform. */
+  const acceptNewest = async (builderEmail: string, jobId: string) => {
+    const builder = await as(builderEmail);
+    const { versions } = await builder.call<InspectionView>('GET', `/api/jobs/${jobId}/inspection`);
+    await builder.call('POST', `/api/jobs/${jobId}/inspection/accept`, acceptAsRead(versions[0]));
+  };
 
   // Every demo shop finishes payout onboarding on the stand-in's page.
   const shopEmails = ['bench@lanternhill.test', 'desk@kessrow.test', 'floor@orrinvale.test', 'office@saltreed.test'];
@@ -462,7 +469,7 @@ export async function buildDemoScenario(options: ScenarioOptions): Promise<numbe
     ids[key] = await post(plan);
     await awardAndPay(plan, ids[key], await bid(shopEmail, ids[key], plan));
     await throughRecord(plan, ids[key], shopEmail, (seed += 7));
-    await (await as(plan.builder)).call('POST', `/api/jobs/${ids[key]}/inspection/accept`);
+    await acceptNewest(plan.builder, ids[key]);
     await waitFor('the payout', async () => (await (await as(plan.builder)).call<{ job: { status: string } }>('GET', `/api/jobs/${ids[key]}`)).job.status === 'completed');
     await (await as(plan.builder)).call('POST', `/api/jobs/${ids[key]}/reviews`, { rating: shopStars, comment: shopWords });
     await (await as(shopEmail)).call('POST', `/api/jobs/${ids[key]}/reviews`, { rating: builderStars, comment: builderWords });
@@ -508,7 +515,7 @@ export async function buildDemoScenario(options: ScenarioOptions): Promise<numbe
   ids.balanced = await post(plans.balanced);
   await awardAndPay(plans.balanced, ids.balanced, await bid('desk@kessrow.test', ids.balanced, plans.balanced, { turnaroundDays: 4 }));
   await throughSections(ids.balanced, 'desk@kessrow.test', balanceSections(), 'Crank, rods, pistons, pins, rings and bearings received, each bagged by cylinder.');
-  await (await as(plans.balanced.builder)).call('POST', `/api/jobs/${ids.balanced}/inspection/accept`);
+  await acceptNewest(plans.balanced.builder, ids.balanced);
   await waitFor('the payout', async () => (await (await as(plans.balanced.builder)).call<{ job: { status: string } }>('GET', `/api/jobs/${ids.balanced}`)).job.status === 'completed');
   step('balanced, accepted and paid out');
 

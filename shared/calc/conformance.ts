@@ -55,3 +55,12 @@ export function recordConforms(results: InspectionResults): boolean {
   if (overall !== undefined && !(typeof overall === 'string' && CONFORMING_VERDICTS.has(overall))) return false;
   return results.pass === true && (results.bores === undefined || results.bores.pass === true) && checksNotConforming(results).length === 0;
 }
+
+/**
+ * The builder's accept for a version they have read in full: that version's
+ * number and every check of it that does not conform, named (what the accept
+ * dialog asks them to tick). For scripted runs (the demo, tests).
+ */
+export function acceptAsRead(version: { version: number; results: InspectionResults }): { version: number; confirmedChecks: string[] } {
+  return { version: version.version, confirmedChecks: checksNotConforming(version.results) };
+}

@@ -33,6 +33,10 @@ export const inspectionConditionsSchema = z
     if (c.temperatureC !== undefined && c.temperatureF !== undefined) {
       ctx.addIssue({ code: 'custom', path: ['temperatureF'], message: 'Give the temperature once, in °C or in °F.' });
     }
+    // The resolution is a lower bound on U (ISO 14253-1, ILAC-G8): a smaller U would narrow guarded acceptance below what the gauge can tell.
+    if (c.uncertainty !== undefined && c.uncertainty < c.gaugeResolution - 1e-12) {
+      ctx.addIssue({ code: 'custom', path: ['uncertainty'], message: 'The uncertainty cannot be smaller than the gauge’s resolution; leave it empty to use the resolution.' });
+    }
   });
 export type InspectionConditions = z.infer<typeof inspectionConditionsSchema>;
 
@@ -86,6 +90,18 @@ export const rejectInspectionSchema = z.object({
   reasons: z.string({ error: 'Say what needs redoing.' }).trim().min(5, 'Say what needs redoing.').max(2000),
 });
 export type RejectInspectionInput = z.input<typeof rejectInspectionSchema>;
+
+/**
+ * The builder accepts one version, the one they read: a version that is no
+ * longer the one waiting is refused. When that version has checks that do not
+ * conform, each is named here as the accept dialog listed it (the names of
+ * `checksNotConforming`).
+ */
+export const acceptInspectionSchema = z.object({
+  version: z.number({ error: 'Say which version of the record you accept.' }).int().min(1, 'Say which version of the record you accept.'),
+  confirmedChecks: z.array(z.string().max(500)).max(1000).optional(),
+});
+export type AcceptInspectionInput = z.input<typeof acceptInspectionSchema>;
 
 /** conforms, fails or not proven (ISO 14253-1's uncertainty range under guarded acceptance). */
 export const checkVerdictSchema = z.enum(['conforms', 'fails', 'not-proven']);

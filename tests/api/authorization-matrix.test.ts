@@ -567,7 +567,7 @@ const matrix: Record<string, Row> = {
   'GET /api/jobs/:jobId/inspection': { once: true, state: () => w.submitted(), expect: [401, 200, 403, 200, 403, 200] },
   'PUT /api/jobs/:jobId/inspection/draft': { state: () => w.inWork(), body: { draft: { notes: 'Half the bores measured.' } }, expect: [401, 403, 403, 200, 404, 403] },
   'POST /api/jobs/:jobId/inspection': { state: () => w.inWork(), body: () => record(), expect: [401, 403, 403, 201, 404, 403] },
-  'POST /api/jobs/:jobId/inspection/accept': { once: true, state: () => w.submitted('real'), expect: [401, 200, 403, 403, 403, 403] },
+  'POST /api/jobs/:jobId/inspection/accept': { once: true, state: () => w.submitted('real'), body: { version: 1 }, expect: [401, 200, 403, 403, 403, 403] },
   'POST /api/jobs/:jobId/inspection/reject': {
     state: () => w.submitted(),
     body: { reasons: 'Cylinder four taper is over the limit.' },

@@ -57,7 +57,7 @@ describe('opening and answering a dispute', () => {
     expect((await ledgerHolds(funded.job.id)).held).toBe(80_000);
     // A second dispute while one is open is refused; accepting the record is no longer possible either.
     expect((await funded.builder.post(`/api/jobs/${funded.job.id}/dispute`, { reason: 'other', statement })).status).toBe(409);
-    expect((await funded.builder.post(`/api/jobs/${funded.job.id}/inspection/accept`)).status).toBe(409);
+    expect((await funded.builder.post(`/api/jobs/${funded.job.id}/inspection/accept`, { version: 1 })).status).toBe(409);
 
     const mails = await m.db.select().from(mailOutbox).where(eq(mailOutbox.template, 'dispute_opened'));
     const to = mails.map((x) => x.toAddress);
@@ -201,7 +201,7 @@ describe('reviews', () => {
   it('a review can be left once and only by a party to a completed job; the shop’s rating shows in the directory and on its bids', async () => {
     const funded = await recordWaiting(30_000);
     expect((await funded.builder.post(`/api/jobs/${funded.job.id}/reviews`, { rating: 5, comment: 'Bores came back round and straight.' })).status).toBe(409);
-    expect((await funded.builder.post(`/api/jobs/${funded.job.id}/inspection/accept`)).status).toBe(200);
+    expect((await funded.builder.post(`/api/jobs/${funded.job.id}/inspection/accept`, { version: 1 })).status).toBe(200);
 
     const stranger = await signedIn(m.server.app, await createUser(m.db));
     expect((await stranger.post(`/api/jobs/${funded.job.id}/reviews`, { rating: 1, comment: 'Never worked with them at all.' })).status).toBe(403);
@@ -291,7 +291,7 @@ describe('the admin console', () => {
 
   it('the CSV export matches the ledger rows for the same filters', async () => {
     const funded = await recordWaiting(45_000);
-    await funded.builder.post(`/api/jobs/${funded.job.id}/inspection/accept`);
+    await funded.builder.post(`/api/jobs/${funded.job.id}/inspection/accept`, { version: 1 });
     const page = await admin.get(`/api/admin/ledger?jobId=${funded.job.id}`);
     const rows = await m.db.select().from(ledgerEntries).where(eq(ledgerEntries.jobId, funded.job.id)).orderBy(ledgerEntries.id);
     expect(page.body.total).toBe(rows.length);

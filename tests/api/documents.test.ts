@@ -63,7 +63,7 @@ describe('invoices', () => {
     const early = await shop.get(`/api/jobs/${job.id}/invoice.pdf`);
     expect(early.status).toBe(409);
     expect(early.body.error.code).toBe('job_not_finished');
-    expect((await builder.post(`/api/jobs/${job.id}/inspection/accept`)).status).toBe(200);
+    expect((await builder.post(`/api/jobs/${job.id}/inspection/accept`, { version: 1 })).status).toBe(200);
     await m.until('completed', async () => (await builder.get(`/api/jobs/${job.id}`)).body.job.status === 'completed', 15_000);
 
     const shopCopy = flat(await pdfText(shop, `/api/jobs/${job.id}/invoice.pdf`));

@@ -1,9 +1,10 @@
 import { and, eq } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { InspectionInput } from '../../shared/schemas/inspection';
+import type { InspectionInput, InspectionResults } from '../../shared/schemas/inspection';
 import { inspectionRecords, jobs, mailOutbox } from '../../server/db/schema';
 import { createScheduler } from '../../server/lib/scheduler';
 import { inspectionTaskHandlers } from '../../server/modules/inspections/inspections.service';
+import { checksNotConforming } from '../../shared/calc/conformance';
 import { createUser, inspectionRecordInput, jobInput } from '../factories';
 import { startMoneyApp } from '../setup/money-app';
 import { certificateText } from '../setup/pdf';
@@ -54,7 +55,7 @@ describe('the review window and a record that does not conform', () => {
     }
     expect(await m.db.select().from(mailOutbox).where(and(eq(mailOutbox.toAddress, shopUser.email), eq(mailOutbox.template, 'inspection_accepted_by_window')))).toHaveLength(0);
     // The builder can still answer.
-    expect((await builder.post(`/api/jobs/${job.id}/inspection/accept`)).status).toBe(200);
+    expect((await builder.post(`/api/jobs/${job.id}/inspection/accept`, { version: 1, confirmedChecks: checksNotConforming(still.results as InspectionResults) })).status).toBe(200);
   });
 
   it('when the window ends on a clean record, then it is still accepted by itself', async () => {
@@ -78,6 +79,43 @@ describe('the review window and a record that does not conform', () => {
       expect(res.body.version.results.deck).toMatchObject({ limit: 0, limitSource: 'shop', pass });
       expect(res.body.version.results.checks.find((c: { what: string }) => c.what === 'deck out-of-flat')).toMatchObject({ pass });
     }
+  });
+});
+
+describe('the builder accepts one version, naming what does not conform', () => {
+  it('when the builder answers a dialog opened on version 1 after version 2 came in, then the accept is refused: the version accepted is the one confirmed', async () => {
+    // common practice (no published source): a signature covers the document that was read, not a later one.
+    const { job, shop, builder } = await inWork();
+    await shop.post(`/api/jobs/${job.id}/inspection`, record({}, 2));
+    const v1 = (await builder.get(`/api/jobs/${job.id}/inspection`)).body.versions[0] as { version: number; results: InspectionResults };
+    const confirmedForV1 = checksNotConforming(v1.results);
+    expect(confirmedForV1).toContain('cylinder 3 taper');
+    // Meanwhile (another tab) the builder asks for changes and the shop sends version 2 with a different cylinder out.
+    expect((await builder.post(`/api/jobs/${job.id}/inspection/reject`, { reasons: 'Cylinder 3 taper is over.' })).status).toBe(200);
+    expect((await shop.post(`/api/jobs/${job.id}/inspection`, record({}, 5))).status).toBe(201);
+    const stale = await builder.post(`/api/jobs/${job.id}/inspection/accept`, { version: 1, confirmedChecks: confirmedForV1 });
+    expect(stale.status).toBe(409);
+    expect(stale.body.error.code).toBe('version_changed');
+    expect((await m.db.select().from(jobs).where(eq(jobs.id, job.id)))[0].status).toBe('inspection_submitted');
+    // Version 2's own checks, named, are needed too: version 1's names do not cover cylinder 6.
+    const wrongNames = await builder.post(`/api/jobs/${job.id}/inspection/accept`, { version: 2, confirmedChecks: confirmedForV1 });
+    expect(wrongNames.status).toBe(409);
+    expect(wrongNames.body.error.code).toBe('checks_not_confirmed');
+    expect(wrongNames.body.error.fields.confirmedChecks).toContain('cylinder 6 taper');
+    expect((await m.stripe.transfers.list({ transfer_group: job.id })).data).toHaveLength(0);
+    const v2 = (await builder.get(`/api/jobs/${job.id}/inspection`)).body.versions[0] as { version: number; results: InspectionResults };
+    const accepted = await builder.post(`/api/jobs/${job.id}/inspection/accept`, { version: 2, confirmedChecks: checksNotConforming(v2.results) });
+    expect(accepted.status).toBe(200);
+    expect(accepted.body.version).toMatchObject({ version: 2, status: 'accepted' });
+  });
+
+  it('when the accept names no version, then it is refused beside the field; a conforming record needs no checks named', async () => {
+    const { job, shop, builder } = await inWork();
+    await shop.post(`/api/jobs/${job.id}/inspection`, record());
+    const bare = await builder.post(`/api/jobs/${job.id}/inspection/accept`);
+    expect(bare.status).toBe(400);
+    expect(bare.body.error.fields.version).toBeTruthy();
+    expect((await builder.post(`/api/jobs/${job.id}/inspection/accept`, { version: 1 })).status).toBe(200);
   });
 });
 
@@ -109,6 +147,18 @@ describe('the certificate', () => {
     expect(text).toContain('Roughness filter');
     expect(text).toMatch(/Gaussian/);
     expect(text).toMatch(/0\.8 mm/);
+  });
+
+  it('when the crosshatch comes from hone settings, then the certificate says it was computed (mid-stroke) from full up-and-down cycles and defines taper and out-of-round', async () => {
+    // Issue 15 item 5 (honest words); the angle itself is unit-tested in tests/unit/calc/crosshatch.test.ts.
+    const { job, builder, shop } = await inWork();
+    const sent = await shop.post(`/api/jobs/${job.id}/inspection`, record({ crosshatch: { mode: 'settings', spindleRpm: 200, strokeLength: 4, cyclesPerMinute: 130 } }));
+    expect(sent.status).toBe(201);
+    // The PDF's line breaks split a hyphenated word ("up-and- down"): joined again before reading.
+    const text = (await pdfText(builder, job.id, 1)).replace(/-\s+/g, '-').replace(/\s+/g, ' ');
+    expect(text).toContain(`Included angle ${sent.body.version.results.crosshatch.includedAngleDeg.toFixed(1)}°, computed from settings (mid-stroke), not measured`);
+    expect(text).toContain('130 full up-and-down cycles per minute');
+    expect(text).toContain('Out-of-round: two-point');
   });
 
   it('when the job gave no limits, then the certificate says nothing was judged (not PASS), and a decided record’s status is in words', async () => {

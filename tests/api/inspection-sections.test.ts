@@ -9,7 +9,9 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { InspectionInput, InspectionResults } from '../../shared/schemas/inspection';
 import type { InspectionSections } from '../../shared/schemas/inspection-sections';
 import type { JobInput } from '../../shared/schemas/jobs';
-import { inspectionRecords, milestonePhotos } from '../../server/db/schema';
+import { inspectionRecords, jobs, milestonePhotos } from '../../server/db/schema';
+import { createScheduler } from '../../server/lib/scheduler';
+import { inspectionTaskHandlers } from '../../server/modules/inspections/inspections.service';
 import { jobInput } from '../factories';
 import { startMoneyApp } from '../setup/money-app';
 import sharp from 'sharp';
@@ -135,6 +137,28 @@ describe('inspection record sections', () => {
       ['balance', 'balance'],
     ]);
     expect(Object.fromEntries(results.sections!.map((s) => [s.operation, s.verdict]))).toMatchObject({ 'line-hone': 'not-judged', balance: 'not-judged' });
+  });
+
+  it('when the review window ends on a record whose crank-grind section fails, or whose balance section is missing, then neither is accepted by itself', async () => {
+    // Issue 15 item 6 (common practice: no silent acceptance of bad work), for the sections of issue 17.
+    const failingGrind = goodSections();
+    // Rod standard 2.0995 − 0.010 undersize, ± 0.0005 in default (common practice): 2.0884 is under 2.0890.
+    failingGrind.crankGrind!.rods[3] = journal(2.0884);
+    const missingBalance = goodSections();
+    delete missingBalance.balance;
+    for (const [sections, verdict] of [
+      [failingGrind, 'fail'],
+      [missingBalance, 'not-fully-judged'],
+    ] as const) {
+      const { job, shop, builder } = await m.jobIn('inWork', { input: jobInput(bottomEnd) });
+      expect((await shop.post(`/api/jobs/${job.id}/inspection`, record(sections))).status).toBe(201);
+      expect((await storedResults(job.id)).verdict).toBe(verdict);
+      expect((await builder.get(`/api/jobs/${job.id}/inspection`)).body.autoAccept).toBe(false);
+      const [row] = await m.db.select().from(inspectionRecords).where(eq(inspectionRecords.jobId, job.id));
+      await createScheduler({ db: m.db, handlers: inspectionTaskHandlers(m.server.app.workDeps) }).runDue(new Date(row.reviewDueAt.getTime() + 60_000));
+      expect((await m.db.select().from(jobs).where(eq(jobs.id, job.id)))[0].status).toBe('inspection_submitted');
+      expect((await m.stripe.transfers.list({ transfer_group: job.id })).data).toHaveLength(0);
+    }
   });
 
   it('when the record has a section for work the job does not order, then it is refused with the field named', async () => {

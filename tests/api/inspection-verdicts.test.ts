@@ -102,6 +102,17 @@ describe('stored inspection verdicts', () => {
     expect(refused.body.error.fields['conditions.temperatureC']).toMatch(/temperature/);
   });
 
+  it('when the stated uncertainty is smaller than the gauge’s resolution, then 400 names the field: guarded acceptance cannot be narrowed below what the gauge can tell', async () => {
+    // source: references.md "Judging a measurement" — a gauge's resolution is a lower bound on U (ISO 14253-1 / ILAC-G8);
+    // a U of 0.000001 in on a 0.0001 in gauge would make guarded acceptance as lenient as simple acceptance.
+    const { job, shop } = await inWork({ ...issueJob, decisionRule: 'guarded' });
+    const tooSmall = await shop.post(`/api/jobs/${job.id}/inspection`, record(Array.from({ length: 8 }, () => round(4.031, 4.028)), { uncertainty: 0.000001 }));
+    expect(tooSmall.status).toBe(400);
+    expect(tooSmall.body.error.fields['conditions.uncertainty']).toMatch(/resolution/);
+    // derived: U equal to the resolution is the lower bound itself, so it is taken.
+    expect((await shop.post(`/api/jobs/${job.id}/inspection`, record(Array.from({ length: 8 }, () => round(4.031, 4.028)), { uncertainty: 0.0001 }))).status).toBe(201);
+  });
+
   it('when a record stored before verdicts existed is read, then it still reads as it was', async () => {
     const { job, shop, builder } = await inWork(issueJob);
     await shop.post(`/api/jobs/${job.id}/inspection`, record(Array.from({ length: 8 }, () => round(4.031, 4.028))));

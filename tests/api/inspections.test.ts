@@ -184,7 +184,7 @@ describe('inspection record', () => {
   it('when 20 accepts race, then one succeeds, the payment is released exactly once and the job is completed', async () => {
     const { job, builder, shop } = await inWork();
     await shop.post(`/api/jobs/${job.id}/inspection`, record());
-    const answers = await Promise.all(Array.from({ length: 20 }, () => builder.post(`/api/jobs/${job.id}/inspection/accept`)));
+    const answers = await Promise.all(Array.from({ length: 20 }, () => builder.post(`/api/jobs/${job.id}/inspection/accept`, { version: 1 })));
     expect(answers.filter((a) => a.status === 200)).toHaveLength(1);
     expect(answers.filter((a) => a.status === 409)).toHaveLength(19);
     expect((await m.stripe.transfers.list({ transfer_group: job.id })).data).toHaveLength(1);
@@ -307,9 +307,9 @@ describe('inspection record', () => {
     const { job, builder, shop } = await inWork();
     expect((await builder.post(`/api/jobs/${job.id}/inspection`, record())).status).toBe(403);
     await shop.post(`/api/jobs/${job.id}/inspection`, record());
-    expect((await shop.post(`/api/jobs/${job.id}/inspection/accept`)).status).toBe(403);
+    expect((await shop.post(`/api/jobs/${job.id}/inspection/accept`, { version: 1 })).status).toBe(403);
     const otherBuilder = await signedIn(m.server.app, await createUser(m.db));
-    expect((await otherBuilder.post(`/api/jobs/${job.id}/inspection/accept`)).status).toBe(403);
+    expect((await otherBuilder.post(`/api/jobs/${job.id}/inspection/accept`, { version: 1 })).status).toBe(403);
     expect((await otherBuilder.get(`/api/jobs/${job.id}/inspection`)).status).toBe(403);
     expect((await builder.get(`/api/jobs/${job.id}/inspection`)).body.draft).toBeNull();
   });

@@ -1,5 +1,6 @@
 import type { BidInput } from '../../shared/schemas/bids';
-import type { InspectionInput } from '../../shared/schemas/inspection';
+import { acceptAsRead } from '../../shared/calc/conformance';
+import type { InspectionInput, InspectionView } from '../../shared/schemas/inspection';
 import type { JobDetail, JobInput } from '../../shared/schemas/jobs';
 import type { ShopProfileInput } from '../../shared/schemas/shops';
 import { bidInput, jobInput, shopProfileInput, uniformRecordInput } from '../factories';
@@ -112,7 +113,10 @@ export async function jobInState(state: JobState, people: { builder: Api; shop?:
   await shop('POST', `/api/jobs/${job.id}/milestones`, { kind: 'block_received', ...(options.receivedNote === undefined ? {} : { note: options.receivedNote }) });
   if (!reached('submitted')) return result;
   await shop('POST', `/api/jobs/${job.id}/inspection`, options.record ?? uniformRecordInput());
-  if (state === 'completed') await builder('POST', `/api/jobs/${job.id}/inspection/accept`);
+  if (state === 'completed') {
+    const { versions } = await builder<InspectionView>('GET', `/api/jobs/${job.id}/inspection`);
+    await builder('POST', `/api/jobs/${job.id}/inspection/accept`, acceptAsRead(versions[0]));
+  }
   if (state === 'disputed') {
     const opened = options.dispute ?? { reason: 'record_outside_limits', statement: 'Cylinder four measures well over the taper limit on my own gauge.' };
     result.dispute = (await builder<{ dispute: { id: string } }>('POST', `/api/jobs/${job.id}/dispute`, opened)).dispute;

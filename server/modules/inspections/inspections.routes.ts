@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { jobParamsSchema } from '../../../shared/schemas/jobs';
 import {
+  acceptInspectionSchema,
   draftSavedSchema,
   inspectionDraftSchema,
   inspectionInputSchema,
@@ -48,11 +49,12 @@ export const inspectionsRoutes = [
   route({
     method: 'post',
     path: '/api/jobs/:jobId/inspection/accept',
-    summary: 'Accept the record: the held payment is released to the shop',
+    summary: 'Accept one version of the record, naming each check that does not conform: the held payment is released to the shop',
     access: 'builder',
     params: jobParamsSchema,
+    body: acceptInspectionSchema,
     reply: { json: inspectionVersionAnswerSchema, description: 'Accepted' },
-    handler: async ({ deps, user, params }) => ({ version: await acceptInspection(deps, user, params.jobId) }),
+    handler: async ({ deps, user, params, body }) => ({ version: await acceptInspection(deps, user, params.jobId, body) }),
   }),
   route({
     method: 'post',

@@ -3,7 +3,7 @@ import { checksNotConforming, recordConforms } from '../../../shared/calc/confor
 import { evaluateInspection } from '../../../shared/calc/inspection-record';
 import { boreOperationCodes, findOperation, type OperationCode } from '../../../shared/catalogue';
 import { formatDateTime } from '../../../shared/dates';
-import type { InspectionInput, InspectionResults, InspectionVersion } from '../../../shared/schemas/inspection';
+import type { AcceptInspectionInput, InspectionInput, InspectionResults, InspectionVersion } from '../../../shared/schemas/inspection';
 import { HOT_TANK_ON_ALUMINIUM, SECTION_INPUT_KEYS, cleanMethodsFor, type InspectionSections } from '../../../shared/schemas/inspection-sections';
 import type { JobInput } from '../../../shared/schemas/jobs';
 import type { Database, Executor } from '../../db/client';
@@ -181,7 +181,7 @@ const nothingToReview = () => conflict('There is no inspection record waiting fo
  * accepted and the job completed in one transaction, then releases the held
  * payment; the release is keyed by payment, so it happens once.
  */
-async function accept(deps: InspectionDeps, jobId: string, how: { by?: User; window?: { recordId: string } }) {
+async function accept(deps: InspectionDeps, jobId: string, how: { by?: User; answer?: AcceptInspectionInput; window?: { recordId: string } }) {
   const notices = new Notices();
   const accepted = await deps.db.transaction(async (tx) => {
     const parties = await partiesOf(tx, jobId, { forUpdate: true });
@@ -191,6 +191,7 @@ async function accept(deps: InspectionDeps, jobId: string, how: { by?: User; win
       throw nothingToReview();
     }
     if (how.window && record.id !== how.window.recordId) return null;
+    if (how.answer) mustBeTheVersionConfirmed(record, how.answer);
     const [row] = await tx
       .update(inspectionRecords)
       .set({ status: 'accepted', decidedAt: new Date(), decidedBy: how.by?.id ?? null, decidedHow: how.by ? 'builder' : 'review window' })
@@ -214,9 +215,30 @@ async function accept(deps: InspectionDeps, jobId: string, how: { by?: User; win
   return toVersion(accepted);
 }
 
-export async function acceptInspection(deps: InspectionDeps, user: User, jobId: string) {
+/**
+ * The builder's accept covers the version they read and the checks they
+ * confirmed: another version waiting now (the record was answered and sent
+ * again meanwhile) or a check that does not conform left unnamed is refused,
+ * and nothing is paid.
+ */
+function mustBeTheVersionConfirmed(record: { version: number; results: unknown }, answer: AcceptInspectionInput) {
+  if (record.version !== answer.version) {
+    throw new AppError('version_changed', `Version ${record.version} of the record is the one waiting now, not version ${answer.version}: read it before you accept.`, 409, {
+      version: `Version ${record.version} is waiting now.`,
+    });
+  }
+  const confirmed = new Set(answer.confirmedChecks ?? []);
+  const missing = checksNotConforming(record.results as InspectionResults).filter((name) => !confirmed.has(name));
+  if (missing.length > 0) {
+    throw new AppError('checks_not_confirmed', `Confirm each check that does not conform before you accept: ${missing.join('; ')}.`, 409, {
+      confirmedChecks: `Not confirmed: ${missing.join('; ')}.`,
+    });
+  }
+}
+
+export async function acceptInspection(deps: InspectionDeps, user: User, jobId: string, answer: AcceptInspectionInput) {
   mustBeJobsBuilder(await partiesOf(deps.db, jobId), user, 'Only the builder who posted the job accepts its inspection record.');
-  return (await accept(deps, jobId, { by: user }))!;
+  return (await accept(deps, jobId, { by: user, answer }))!;
 }
 
 export async function rejectInspection(deps: InspectionDeps, user: User, jobId: string, reasons: string) {

@@ -1,5 +1,5 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { DraftSaved, InspectionInput, InspectionVersion, InspectionVersionAnswer, InspectionView, RejectInspectionInput } from '@shared/schemas/inspection';
+import type { AcceptInspectionInput, DraftSaved, InspectionInput, InspectionVersion, InspectionVersionAnswer, InspectionView, RejectInspectionInput } from '@shared/schemas/inspection';
 import { api } from '@client/lib/api-client';
 import { type MutationConfig, type MutationOptions, useApiMutation } from '@client/lib/mutation';
 import { inspectionKeys, jobChangeKeys } from '@client/lib/query-keys';
@@ -28,8 +28,13 @@ export const useSubmitInspection = (jobId: string, options?: MutationOptions<Ins
     options?.mutationConfig,
   );
 
-export const useAcceptInspection = (jobId: string, options?: MutationOptions<InspectionVersion, void>) =>
-  useVersionMutation(jobId, () => api.post<InspectionVersionAnswer>(`/api/jobs/${jobId}/inspection/accept`).then((r) => r.version), options?.mutationConfig);
+/** Accepts the version the builder read, naming each check of it that does not conform. */
+export const useAcceptInspection = (jobId: string, options?: MutationOptions<InspectionVersion, AcceptInspectionInput>) =>
+  useVersionMutation(
+    jobId,
+    (body: AcceptInspectionInput) => api.post<InspectionVersionAnswer>(`/api/jobs/${jobId}/inspection/accept`, body).then((r) => r.version),
+    options?.mutationConfig,
+  );
 
 export const useRejectInspection = (jobId: string, options?: MutationOptions<InspectionVersion, RejectInspectionInput>) =>
   useVersionMutation(

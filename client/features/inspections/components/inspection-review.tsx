@@ -205,7 +205,7 @@ function AcceptDialog({ job, version, open, onClose }: { job: JobDetail; version
         <Button variant="secondary" onClick={close} data-autofocus={failing.length === 0 ? true : undefined}>
           Not yet
         </Button>
-        <Button busy={accept.isPending} disabled={!allConfirmed} onClick={() => accept.mutate()}>
+        <Button busy={accept.isPending} disabled={!allConfirmed} onClick={() => accept.mutate({ version: version.version, confirmedChecks: failing.filter((name) => confirmed.has(name)) })}>
           Accept and pay the shop
         </Button>
       </div>
@@ -241,7 +241,8 @@ function BuilderDecision({ job, version, reviewDueAt, autoAccept, windowEnded }:
         </Button>
       </div>
       <p className="text-sm text-ink-soft">Something wrong that a new version cannot fix? Open a dispute below.</p>
-      <AcceptDialog job={job} version={version} open={acceptOpen} onClose={() => setAcceptOpen(false)} />
+      {/* Keyed by version: ticks given for one version never carry over to another that arrives while the dialog is open. */}
+      <AcceptDialog key={version.version} job={job} version={version} open={acceptOpen} onClose={() => setAcceptOpen(false)} />
       <RejectDialog job={job} version={version} open={rejectOpen} onClose={() => setRejectOpen(false)} />
     </div>
   );
