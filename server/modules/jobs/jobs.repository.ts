@@ -1,3 +1,4 @@
+import { LRUCache } from 'lru-cache';
 import { and, arrayContains, asc, desc, eq, lte, sql, type SQL } from 'drizzle-orm';
 import { BOARD_COUNT_CAP, type BoardPage, type BoardQuery, type JobInput, type JobSummary } from '../../../shared/schemas/jobs';
 import type { Executor } from '../../db/client';
@@ -164,9 +165,26 @@ export function boardCountQuery(db: Executor, query: BoardQuery) {
   return db.select({ total: sql<number>`count(*)::int` }).from(matching);
 }
 
+/**
+ * The board's two statements, built once per distinct query (filters, order,
+ * page) and kept for the most recent few hundred: building them cost drizzle
+ * more time than PostgreSQL takes to run a page. Prepared without a name, so
+ * PostgreSQL keeps nothing per connection.
+ */
+const boardStatements = new WeakMap<Executor, LRUCache<string, { rows: ReturnType<ReturnType<typeof boardRowsQuery>['prepare']>; count: ReturnType<ReturnType<typeof boardCountQuery>['prepare']> }>>();
+function boardStatementsFor(db: Executor, query: BoardQuery) {
+  let cache = boardStatements.get(db);
+  if (!cache) boardStatements.set(db, (cache = new LRUCache({ max: 500 })));
+  const key = JSON.stringify(query);
+  let statements = cache.get(key);
+  if (!statements) cache.set(key, (statements = { rows: boardRowsQuery(db, query).prepare(''), count: boardCountQuery(db, query).prepare('') }));
+  return statements;
+}
+
 /** One page of the board and the total: two statements whatever the page size. */
 export async function boardPage(db: Executor, query: BoardQuery): Promise<BoardPage> {
-  const [rows, [{ total }]] = await Promise.all([boardRowsQuery(db, query), boardCountQuery(db, query)]);
+  const statements = boardStatementsFor(db, query);
+  const [rows, [{ total }]] = await Promise.all([statements.rows.execute(), statements.count.execute()]);
   const page = rows.slice(0, query.pageSize);
   const more = rows.length > query.pageSize;
   return {
