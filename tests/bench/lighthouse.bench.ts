@@ -16,8 +16,9 @@
  *   npm run bench:lighthouse -- --dir <built>   a build made elsewhere (with its .vite/manifest.json or not)
  *   npm run bench:lighthouse -- --only phone    one preset (phone or desktop)
  *   npm run bench:lighthouse -- --page /board   the pages whose path starts so (/, /calculator, /board, /jobs/)
+ *   npm run bench:lighthouse -- --reports <dir> also writes each page's full Lighthouse report there (JSON)
  */
-import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -47,6 +48,7 @@ const DEMO_JOB_TITLE = 'Iron small-block V8: bore .030 over, torque-plate hone, 
 const args = process.argv.slice(2);
 const argAfter = (name: string) => (args.includes(name) ? args[args.indexOf(name) + 1] : undefined);
 const givenDir = argAfter('--dir') ? resolve(argAfter('--dir')!) : undefined;
+const reportsDir = argAfter('--reports') ? resolve(argAfter('--reports')!) : undefined;
 const presets: Array<{ name: 'phone' | 'desktop'; config?: Config }> = [
   { name: 'phone' as const, config: undefined },
   { name: 'desktop' as const, config: desktopConfig },
@@ -167,6 +169,10 @@ async function main() {
         console.error(`  ${page.name} (${preset.name}), try ${attempt}: ${lhr.runtimeError.code} ${lhr.runtimeError.message}`);
       }
       if (!lhr) throw new Error(`Lighthouse gave no result for ${page.path}`);
+      if (reportsDir) {
+        mkdirSync(reportsDir, { recursive: true });
+        writeFileSync(join(reportsDir, `${preset.name}-${page.name.replace(/[^a-z0-9]+/gi, '-').replace(/^-|-$/g, '') || 'home'}.json`), JSON.stringify(lhr));
+      }
       const audit = (id: string) => lhr.audits[id]?.numericValue;
       const score = lhr.categories.performance?.score;
       const cls = audit('cumulative-layout-shift');
