@@ -153,7 +153,10 @@ export function attachRealtime(options: RealtimeOptions): RealtimeServer {
     const sid = (socket.request as unknown as { sessionID: string }).sessionID;
     void socket.join([rooms.user(user.id), rooms.session(sid), ...(user.role === 'admin' ? [rooms.admins] : [])]);
 
-    /** Belt and braces beside the disconnects: a socket whose session has ended is refused and closed. */
+    /**
+     * Belt and braces beside the disconnects: a socket whose session has ended is refused and closed.
+     * Asked by every event that acts for the person (send, read, typing, join, watch); only leaving a room is not.
+     */
     const checkSession = async () => {
       if (await sessionIsLive(db, sid, user.id)) return;
       setImmediate(() => socket.disconnect(true));
@@ -216,14 +219,14 @@ export function attachRealtime(options: RealtimeOptions): RealtimeServer {
       if (!socket.rooms.has(rooms.thread(threadId))) throw new AppError('forbidden', 'Join the conversation first.', 403);
       socket.to(rooms.thread(threadId)).emit('typing', { threadId, userId: user.id, displayName: user.displayName });
       return {};
-    });
+    }, { sessionCheck: true });
 
     handle('read', async (payload) => {
       const { threadId } = threadParamsSchema.parse(payload);
       const { messageId } = markReadSchema.parse(payload);
       await markRead(messageDeps, user, threadId, messageId);
       return {};
-    });
+    }, { sessionCheck: true });
   });
 
   hub.io = io;

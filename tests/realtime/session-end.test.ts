@@ -9,7 +9,7 @@ import { randomBytes } from 'node:crypto';
 import { and, desc, eq, sql } from 'drizzle-orm';
 import type { Socket } from 'socket.io-client';
 import { describe, expect, it } from 'vitest';
-import { mailOutbox, messages } from '../../server/db/schema';
+import { mailOutbox, messages, threadReads } from '../../server/db/schema';
 import type { RunningServer } from '../../server/runtime';
 import { bidInput, createJob, createShop, createUser, TEST_PASSWORD } from '../factories';
 import { connected, emit, next, post, session, twoInstances, visitor, type Auth } from '../setup/realtime';
@@ -100,6 +100,32 @@ describe('sockets end with the session', () => {
     expect(answer).toMatchObject({ ok: false, error: { code: 'unauthenticated' } });
     expect(await closed).toBe('io server disconnect');
     expect(await live.db.select().from(messages).where(eq(messages.threadId, threadId))).toHaveLength(0);
+  });
+
+  it('when the session row is gone, then marking a message read and typing are refused too, and the read mark does not move', async () => {
+    const { builder, shopUser, threadId, shopAuth } = await conversation();
+    const builderAuth = await session(live.instanceB, builder);
+    const sent = await post(live.instanceB, builderAuth, `/api/threads/${threadId}/messages`, { clientId: clientId(), body: 'Is the block still on the stand?' });
+    expect(sent.status).toBe(201);
+    const messageId: string = sent.body.message.id;
+    const builderSocket = socketFor(live.instanceB, builderAuth.cookie);
+    // Two sockets of the shop's session: each is closed at its first refusal.
+    const reading = socketFor(live.instanceA, shopAuth.cookie);
+    const typing = socketFor(live.instanceB, shopAuth.cookie);
+    await Promise.all([connected(builderSocket), connected(reading), connected(typing)]);
+    for (const socket of [builderSocket, reading, typing]) expect((await emit(socket, 'thread:join', { threadId })).ok).toBe(true);
+    const typingHeard = heard(builderSocket, 'typing');
+    const readHeard = heard(builderSocket, 'read');
+    await live.db.execute(sql`DELETE FROM sessions WHERE sess -> 'passport' ->> 'user' = ${shopUser.id}`);
+
+    const closed = Promise.all([disconnected(reading), disconnected(typing)]);
+    expect(await emit(reading, 'read', { threadId, messageId })).toMatchObject({ ok: false, error: { code: 'unauthenticated' } });
+    expect(await emit(typing, 'typing', { threadId })).toMatchObject({ ok: false, error: { code: 'unauthenticated' } });
+    expect(await closed).toEqual(['io server disconnect', 'io server disconnect']);
+    await pause(300);
+    expect([...typingHeard, ...readHeard]).toEqual([]);
+    const marks = await live.db.select().from(threadReads).where(and(eq(threadReads.threadId, threadId), eq(threadReads.userId, shopUser.id)));
+    expect(marks.filter((mark) => mark.lastReadMessageId === messageId)).toEqual([]);
   });
 
   it('when the password is reset by mail, then every socket of that person is closed, on both instances', async () => {
