@@ -243,6 +243,10 @@ describe('socket origin', () => {
     await expect(connected(foreign)).rejects.toThrow();
     const lookalike = socketFor(live.instanceB, auth.cookie, `${new URL(live.config.appUrl).origin}.elsewhere.example`);
     await expect(connected(lookalike)).rejects.toThrow();
+    // The same host on another port is another origin (another app could be listening there).
+    const app = new URL(live.config.appUrl);
+    const otherPort = socketFor(live.instanceA, auth.cookie, `${app.protocol}//${app.hostname}:${Number(app.port || 80) + 1}`);
+    await expect(connected(otherPort)).rejects.toThrow();
 
     const own = socketFor(live.instanceA, auth.cookie, new URL(live.config.appUrl).origin);
     await connected(own);
