@@ -151,7 +151,17 @@ export function attachRealtime(options: RealtimeOptions): RealtimeServer {
   io.on('connection', (socket) => {
     const user = socket.data.user as User;
     const sid = (socket.request as unknown as { sessionID: string }).sessionID;
-    void socket.join([rooms.user(user.id), rooms.session(sid), ...(user.role === 'admin' ? [rooms.admins] : [])]);
+    // A sign-out, password change or suspension that lands after the session was read above but before these
+    // rooms are joined finds no socket to close; asking once the rooms are joined catches it (the session rows
+    // are deleted before the disconnect is sent, so one of the two always sees this socket).
+    void Promise.resolve(socket.join([rooms.user(user.id), rooms.session(sid), ...(user.role === 'admin' ? [rooms.admins] : [])]))
+      .then(() => sessionIsLive(db, sid, user.id))
+      .then(
+        (live) => {
+          if (!live) socket.disconnect(true);
+        },
+        (err: unknown) => logger.warn({ err }, 'could not re-check a new socket’s session'),
+      );
 
     /**
      * Belt and braces beside the disconnects: a socket whose session has ended is refused and closed.

@@ -92,6 +92,8 @@ describe('sockets end with the session', () => {
     const { shopUser, threadId, shopAuth } = await conversation();
     const socket = socketFor(live.instanceA, shopAuth.cookie);
     await connected(socket);
+    // In the conversation first, so the session's own check when the socket came in is behind it.
+    expect((await emit(socket, 'thread:join', { threadId })).ok).toBe(true);
     // Ended behind the app's back (expired, or deleted by hand): no disconnect was sent.
     await live.db.execute(sql`DELETE FROM sessions WHERE sess -> 'passport' ->> 'user' = ${shopUser.id}`);
 
@@ -183,6 +185,33 @@ describe('sockets end with the session', () => {
     expect((await session(live.instanceB, { email: shopUser.email, password: 'a changed password' })).cookie).toBeTruthy();
     const mails = await live.db.select().from(mailOutbox).where(and(eq(mailOutbox.toAddress, shopUser.email), eq(mailOutbox.template, 'password_changed')));
     expect(mails).toHaveLength(1);
+  });
+
+  it('when the password changes while a socket of another session is being let in, then that socket is closed as soon as it is in', async () => {
+    const user = await createUser(live.db);
+    const here = await session(live.instanceB, user);
+    const elsewhere = await session(live.instanceA, user);
+    // Hold the next connection on instance A after its session was read and before it joins its rooms.
+    let reached!: () => void;
+    let release!: () => void;
+    const atGate = new Promise<void>((resolve) => (reached = resolve));
+    const gate = new Promise<void>((resolve) => (release = resolve));
+    let holding = true;
+    live.instanceA.io.use((_socket, next) => {
+      if (!holding) return next();
+      holding = false;
+      reached();
+      void gate.then(() => next());
+    });
+
+    const socket = socketFor(live.instanceA, elsewhere.cookie);
+    await atGate;
+    const changed = await post(live.instanceB, here, '/api/auth/password', { currentPassword: TEST_PASSWORD, newPassword: 'changed while it knocked' });
+    expect(changed.status).toBe(200);
+    await pause(300); // the sign-out has reached instance A, and found no socket of that session in its rooms yet
+    const closed = disconnected(socket);
+    release();
+    expect(await closed).toBe('io server disconnect');
   });
 
   it('when nobody is signed in, then changing a password is 401', async () => {
