@@ -206,8 +206,16 @@ export function attachRealtime(options: RealtimeOptions): RealtimeServer {
 
     handle('job:watch', async (payload) => {
       const { jobId } = jobParamsSchema.parse(payload);
-      await jobForLiveWatcher(db, jobId, user);
+      const job = await jobForLiveWatcher(db, jobId, user);
       await socket.join(rooms.job(jobId));
+      // An award saved between the check and the join sent its room change before this socket was in the
+      // room (see keepOnlyParties): while the job looked open, ask again once in, and leave if no longer allowed.
+      if (job.status === 'open') {
+        await jobForLiveWatcher(db, jobId, user).catch(async (error: unknown) => {
+          await socket.leave(rooms.job(jobId));
+          throw error;
+        });
+      }
       return {};
     }, { sessionCheck: true });
 

@@ -264,6 +264,56 @@ describe('a job’s live room after the award', () => {
   });
 });
 
+describe('a job’s live room while the award is made', () => {
+  it('when a shop starts following the job just as another shop’s bid is accepted, then it does not stay in the room', async () => {
+    const builder = await createUser(live.db);
+    const job = await createJob(live.db, builder.id);
+    const late = await createShop(live.db);
+    const winner = await createShop(live.db);
+    const builderAuth = await session(live.instanceA, builder);
+    const winnerAuth = await session(live.instanceA, winner.user);
+    const winning = await post(live.instanceA, winnerAuth, `/api/jobs/${job.id}/bids`, bidInput());
+    expect(winning.status).toBe(201);
+
+    // Hold the late shop's join of the job's room on instance B until the award has gone out.
+    let reached!: () => void;
+    let release!: () => void;
+    const atGate = new Promise<void>((resolve) => (reached = resolve));
+    const gate = new Promise<void>((resolve) => (release = resolve));
+    live.instanceB.io.use((socket, next) => {
+      if ((socket.data.user as { id: string } | undefined)?.id === late.user.id) {
+        const join = socket.join.bind(socket);
+        socket.join = ((room: string | string[]) => {
+          if (room !== `job:${job.id}`) return join(room);
+          reached();
+          return gate.then(() => join(room));
+        }) as typeof socket.join;
+      }
+      next();
+    });
+    const lateSocket = socketFor(live.instanceB, (await session(live.instanceB, late.user)).cookie);
+    const winnerSocket = socketFor(live.instanceA, winnerAuth.cookie);
+    await Promise.all([connected(lateSocket), connected(winnerSocket)]);
+    expect((await emit(winnerSocket, 'job:watch', { jobId: job.id })).ok).toBe(true);
+    const lateHeard = heard(lateSocket, 'job:changed');
+
+    const watching = emit(lateSocket, 'job:watch', { jobId: job.id });
+    await atGate;
+    const awarded = next(winnerSocket, 'job:changed');
+    expect((await post(live.instanceA, builderAuth, `/api/bids/${winning.body.bid.id}/accept`)).status).toBe(200);
+    await awarded;
+    await pause(300); // the room change has reached instance B, before the late socket is in the room
+    release();
+    expect(await watching).toMatchObject({ ok: false, error: { code: 'forbidden' } });
+
+    const cancelled = next(winnerSocket, 'job:changed');
+    expect((await post(live.instanceA, builderAuth, `/api/jobs/${job.id}/cancel`)).status).toBe(200);
+    expect(await cancelled).toEqual({ jobId: job.id, change: 'job_cancelled' });
+    await pause(300);
+    expect(lateHeard).toEqual([]);
+  });
+});
+
 describe('socket origin', () => {
   it('when a page of another site opens a socket with the cookie, then it is refused; the app’s own origin connects', async () => {
     const user = await createUser(live.db);
