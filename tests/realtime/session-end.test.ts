@@ -37,6 +37,15 @@ function heard<T = any>(socket: Socket, event: string): T[] {
 }
 
 const pause = (ms: number) => new Promise((resolve) => setTimeout(resolve, ms));
+
+/** A point where the server is held: `reached` when it gets there (awaited as `atGate`), on again once `release`d (awaited as `gate`). */
+function holdPoint() {
+  let reached!: () => void;
+  let release!: () => void;
+  const atGate = new Promise<void>((resolve) => (reached = resolve));
+  const gate = new Promise<void>((resolve) => (release = resolve));
+  return { atGate, reached, gate, release };
+}
 const clientId = () => randomBytes(8).toString('hex');
 
 /** A job with a bid from one shop and the conversation the shop opened; the builder signed in. */
@@ -192,10 +201,7 @@ describe('sockets end with the session', () => {
     const here = await session(live.instanceB, user);
     const elsewhere = await session(live.instanceA, user);
     // Hold the next connection on instance A after its session was read and before it joins its rooms.
-    let reached!: () => void;
-    let release!: () => void;
-    const atGate = new Promise<void>((resolve) => (reached = resolve));
-    const gate = new Promise<void>((resolve) => (release = resolve));
+    const { atGate, reached, gate, release } = holdPoint();
     let holding = true;
     live.instanceA.io.use((_socket, next) => {
       if (!holding) return next();
@@ -276,10 +282,7 @@ describe('a job’s live room while the award is made', () => {
     expect(winning.status).toBe(201);
 
     // Hold the late shop's join of the job's room on instance B until the award has gone out.
-    let reached!: () => void;
-    let release!: () => void;
-    const atGate = new Promise<void>((resolve) => (reached = resolve));
-    const gate = new Promise<void>((resolve) => (release = resolve));
+    const { atGate, reached, gate, release } = holdPoint();
     live.instanceB.io.use((socket, next) => {
       if ((socket.data.user as { id: string } | undefined)?.id === late.user.id) {
         const join = socket.join.bind(socket);
