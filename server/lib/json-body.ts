@@ -52,6 +52,22 @@ export function textNestsDeeperThan(bytes: Uint8Array, max: number = MAX_JSON_DE
 
 export const tooDeep = () => new AppError('too_deep', `The request body nests deeper than ${MAX_JSON_DEPTH} levels.`, 400);
 
+/**
+ * Whether a body's text nests too deep, asked before it is parsed: UTF-8 as
+ * it came; UTF-16 decoded first (plain "utf-16" in both byte orders, as the
+ * parser may guess either). Any other charset the parser would take (UTF-32)
+ * is refused with 415, as it could not be scanned.
+ */
+function bodyNestsTooDeep(buf: Buffer, encoding: string): boolean {
+  if (/^utf-?8$/i.test(encoding)) return textNestsDeeperThan(buf);
+  const orders = /^utf-?16$/i.test(encoding) ? ['utf-16le', 'utf-16be'] : [encoding];
+  try {
+    return orders.some((order) => textNestsDeeperThan(Buffer.from(new TextDecoder(order).decode(buf), 'utf8')));
+  } catch {
+    throw new AppError('unsupported_charset', 'Send JSON as UTF-8.', 415);
+  }
+}
+
 const checked = Symbol('json depth checked');
 type Checked = { [checked]?: true };
 
@@ -61,16 +77,16 @@ type Checked = { [checked]?: true };
  * with 400 before any route, schema or database sees it (PostgreSQL's jsonb
  * parser, for one, fails on a few thousand levels). UTF-8 text is scanned
  * before JSON.parse runs (body-parser's `verify` hook hands over the raw
- * bytes; an AppError thrown there keeps its 400); a body in another UTF
- * charset is checked once parsed, by walking the value.
+ * bytes; an AppError thrown there keeps its status); a UTF-16 body is
+ * decoded and scanned the same way, and walked again once parsed.
  */
 export function jsonBody(options: { limit: string | number }): RequestHandler[] {
   const parse = express.json({
     limit: options.limit,
     verify: (req, _res, buf, encoding) => {
-      if (!/^utf-?8$/i.test(encoding)) return;
-      (req as Checked)[checked] = true;
-      if (textNestsDeeperThan(buf)) throw tooDeep();
+      if (bodyNestsTooDeep(buf, encoding)) throw tooDeep();
+      // UTF-16 is walked once parsed as well, in case the parser read its byte order otherwise.
+      if (/^utf-?8$/i.test(encoding)) (req as Checked)[checked] = true;
     },
   });
   const depthCheck: RequestHandler = (req, _res, next) => {

@@ -152,11 +152,22 @@ export function attachRealtime(options: RealtimeOptions): RealtimeServer {
   io.on('connection', (socket) => {
     const user = socket.data.user as User;
     const sid = (socket.request as unknown as { sessionID: string }).sessionID;
-    void socket.join([rooms.user(user.id), rooms.session(sid), ...(user.role === 'admin' ? [rooms.admins] : [])]);
+    // A sign-out, password change or suspension that lands after the session was read above but before these
+    // rooms are joined finds no socket to close; asking once the rooms are joined catches it (the session rows
+    // are deleted before the disconnect is sent, so one of the two always sees this socket).
+    void Promise.resolve(socket.join([rooms.user(user.id), rooms.session(sid), ...(user.role === 'admin' ? [rooms.admins] : [])]))
+      .then(() => sessionIsLive(db, sid, user.id))
+      .then(
+        (live) => {
+          if (!live) socket.disconnect(true);
+        },
+        (err: unknown) => logger.warn({ err }, 'could not re-check a new socket’s session'),
+      );
 
     /**
-     * Belt and braces beside the disconnects: a socket whose session has ended
-     * is refused (and closed once the refusal has gone out, see handle).
+     * Belt and braces beside the disconnects: a socket whose session has ended is refused (and closed once
+     * the refusal has gone out, see handle). Asked by every event that acts for the person (send, read,
+     * typing, join, watch); only leaving a room is not.
      */
     const sessionEnded = new AppError('unauthenticated', 'Your session has ended. Sign in again.', 401);
     const checkSession = async () => {
@@ -197,8 +208,16 @@ export function attachRealtime(options: RealtimeOptions): RealtimeServer {
 
     handle('job:watch', async (payload) => {
       const { jobId } = jobParamsSchema.parse(payload);
-      await jobForLiveWatcher(db, jobId, user);
+      const job = await jobForLiveWatcher(db, jobId, user);
       await socket.join(rooms.job(jobId));
+      // An award saved between the check and the join sent its room change before this socket was in the
+      // room (see keepOnlyParties): while the job looked open, ask again once in, and leave if no longer allowed.
+      if (job.status === 'open') {
+        await jobForLiveWatcher(db, jobId, user).catch(async (error: unknown) => {
+          await socket.leave(rooms.job(jobId));
+          throw error;
+        });
+      }
       return {};
     }, { sessionCheck: true });
 
@@ -221,14 +240,14 @@ export function attachRealtime(options: RealtimeOptions): RealtimeServer {
       if (!socket.rooms.has(rooms.thread(threadId))) throw new AppError('forbidden', 'Join the conversation first.', 403);
       socket.to(rooms.thread(threadId)).emit('typing', { threadId, userId: user.id, displayName: user.displayName });
       return {};
-    });
+    }, { sessionCheck: true });
 
     handle('read', async (payload) => {
       const { threadId } = threadParamsSchema.parse(payload);
       const { messageId } = markReadSchema.parse(payload);
       await markRead(messageDeps, user, threadId, messageId);
       return {};
-    });
+    }, { sessionCheck: true });
   });
 
   hub.io = io;

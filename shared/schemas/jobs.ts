@@ -20,12 +20,15 @@ const isPlainDate = (value: string) => /^\d{4}-\d{2}-\d{2}$/.test(value);
 export const NEEDED_BY_PAST_MESSAGE = 'Pick a date in the future: the work cannot be needed by a day that has passed.';
 export const NEEDED_BY_FAR_MESSAGE = 'Pick a date within two years from today.';
 
+/** Whether a needed-by date is a day that has passed (UTC calendar): refused when entered, and again when a draft saved earlier is published. */
+export const neededByHasPassed = (value: string) => isPlainDate(value) && value < utcDay(new Date());
+
 /**
  * The date a builder needs the work by: in the future (today counts, by the
  * UTC calendar, so no time zone's tomorrow is refused) and within two years.
  */
 export const neededBySchema = isoDateSchema('Needed by')
-  .refine((value) => !isPlainDate(value) || value >= utcDay(new Date()), NEEDED_BY_PAST_MESSAGE)
+  .refine((value) => !neededByHasPassed(value), NEEDED_BY_PAST_MESSAGE)
   .refine((value) => {
     if (!isPlainDate(value)) return true;
     const limit = new Date();

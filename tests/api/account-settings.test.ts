@@ -120,6 +120,37 @@ describe('changing the e-mail address', () => {
     await signedIn(ctx.app, { email: newEmail, password: user.password });
   });
 
+  it.each(['changed', 'reset by mail'] as const)(
+    'when a move to another address is pending and the password is then %s, then its link no longer moves the account (whoever asked for it may be why the password changed)',
+    async (how) => {
+      const user = await createUser(ctx.db);
+      const intruder = await signedIn(ctx.app, user);
+      const theirs = uniqueEmail('intruder');
+      expect((await intruder.post('/api/me/email', { newEmail: theirs, currentPassword: user.password })).status).toBe(202);
+      const [changeMail] = await ctx.db.select().from(mailOutbox).where(and(eq(mailOutbox.toAddress, theirs), eq(mailOutbox.template, 'confirm_new_email')));
+      const changeToken = /token=([\w-]+)/.exec(changeMail.textBody)![1];
+
+      const newPassword = 'taken back by the owner';
+      if (how === 'changed') {
+        const owner = await signedIn(ctx.app, user);
+        expect((await owner.post('/api/auth/password', { currentPassword: user.password, newPassword })).status).toBe(200);
+      } else {
+        const owner = await agentFor(ctx.app);
+        expect((await owner.post('/api/auth/password-reset/request', { email: user.email })).status).toBe(202);
+        const [resetMail] = await ctx.db.select().from(mailOutbox).where(and(eq(mailOutbox.toAddress, user.email), eq(mailOutbox.template, 'reset_password')));
+        const resetToken = /token=([\w-]+)/.exec(resetMail.textBody)![1];
+        expect((await owner.post('/api/auth/password-reset/confirm', { token: resetToken, password: newPassword })).status).toBe(200);
+      }
+
+      const late = await (await agentFor(ctx.app)).post('/api/me/email/confirm', { token: changeToken });
+      expect(late.status).toBe(400);
+      expect(late.body.error.code).toBe('link_expired');
+      const [after] = await ctx.db.select().from(users).where(eq(users.id, user.id));
+      expect(after).toMatchObject({ email: user.email, pendingEmail: null });
+      await signedIn(ctx.app, { email: user.email, password: newPassword });
+    },
+  );
+
   it('when the address belongs to another account, then 409 in the same words as sign-up; a wrong password is 400', async () => {
     const user = await createUser(ctx.db);
     const other = await createUser(ctx.db);

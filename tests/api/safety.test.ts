@@ -13,7 +13,7 @@ import { join } from 'node:path';
 import sharp from 'sharp';
 import Stripe from 'stripe';
 import supertest from 'supertest';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import { createApp, SESSION_COOKIE } from '../../server/app';
 import { createDb, createPool } from '../../server/db/client';
 import { mailOutbox, payments } from '../../server/db/schema';
@@ -453,6 +453,44 @@ describe('request bodies of any shape', () => {
     const justInside = await sendJson(builder, 'post', '/api/jobs', withNotes(deepObject(63)));
     expect(justInside.status).toBe(400);
     expect(justInside.body.error.code).toBe('invalid_input');
+  });
+
+  it('when a deep body comes in UTF-16 or a charset the scan cannot read, then it is refused before JSON.parse sees it (parsing millions of brackets costs seconds)', async () => {
+    const builder = await signedIn(ctx.app, await createUser(ctx.db));
+    const deep = deepObject(5_000);
+    const parsed: number[] = [];
+    const realParse = JSON.parse;
+    const spy = vi.spyOn(JSON, 'parse').mockImplementation((text: string, reviver?: Parameters<typeof JSON.parse>[1]) => {
+      if (typeof text === 'string' && text.includes('{"a":{"a":{"a":{"a":')) parsed.push(text.length);
+      return realParse(text, reviver);
+    });
+    try {
+      for (const [charset, bytes] of [
+        ['utf-16le', Buffer.from(deep, 'utf16le')],
+        ['utf-16be', Buffer.from(deep, 'utf16le').swap16()],
+      ] as const) {
+        const res = await builder.agent
+          .post('/api/jobs')
+          .set('X-CSRF-Token', builder.token)
+          .set('Content-Type', `application/json; charset=${charset}`)
+          .serialize((body: Buffer) => body as unknown as string)
+          .send(bytes);
+        expect(res.status, charset).toBe(400);
+        expect(res.body).toEqual({ error: { code: 'too_deep', message: expect.any(String) } });
+      }
+      expect(parsed).toEqual([]);
+      // UTF-32 cannot be scanned, so it is not taken (JSON between systems is UTF-8 anyway; UTF-16 stays for old clients).
+      const utf32 = await builder.agent
+        .post('/api/jobs')
+        .set('X-CSRF-Token', builder.token)
+        .set('Content-Type', 'application/json; charset=utf-32')
+        .serialize((body: Buffer) => body as unknown as string)
+        .send(Buffer.from('{"a":1}', 'utf8'));
+      expect(utf32.status).toBe(415);
+      expect(utf32.body.error.code).toBe('unsupported_charset');
+    } finally {
+      spy.mockRestore();
+    }
   });
 
   it('when a JSON body is just over its route’s size limit, then 413 with the error shape', async () => {

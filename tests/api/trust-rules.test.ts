@@ -107,6 +107,24 @@ describe('the date a builder needs the work by', () => {
     expect(edited.status).toBe(400);
     expect(edited.body.error.fields.neededBy).toMatch(/future/);
   });
+
+  it('when a draft’s date has passed by the time it is published, then publishing is refused with the date named; edited to a future date it publishes', async () => {
+    const builderUser = await createUser(ctx.db);
+    const builder = await signedIn(ctx.app, builderUser);
+    const draft = await createJob(ctx.db, builderUser.id, { status: 'draft' });
+    // Saved weeks ago for a date that was then ahead.
+    await ctx.db.update(jobs).set({ neededBy: inDays(-3) }).where(eq(jobs.id, draft.id));
+
+    const refused = await builder.post(`/api/jobs/${draft.id}/publish`);
+    expect(refused.status).toBe(400);
+    expect(refused.body.error.code).toBe('needed_by_passed');
+    expect(refused.body.error.fields.neededBy).toMatch(/future/);
+    const [still] = await ctx.db.select().from(jobs).where(eq(jobs.id, draft.id));
+    expect(still.status).toBe('draft');
+
+    expect((await builder.put(`/api/jobs/${draft.id}`, jobInput({ neededBy: inDays(30) }))).status).toBe(200);
+    expect((await builder.post(`/api/jobs/${draft.id}/publish`)).status).toBe(200);
+  });
 });
 
 describe('suspended shops', () => {

@@ -9,7 +9,7 @@ import { randomBytes } from 'node:crypto';
 import { and, desc, eq, sql } from 'drizzle-orm';
 import type { Socket } from 'socket.io-client';
 import { describe, expect, it } from 'vitest';
-import { mailOutbox, messages } from '../../server/db/schema';
+import { mailOutbox, messages, threadReads } from '../../server/db/schema';
 import type { RunningServer } from '../../server/runtime';
 import { bidInput, createJob, createShop, createUser, TEST_PASSWORD } from '../factories';
 import { connected, emit, next, post, session, twoInstances, visitor, type Auth } from '../setup/realtime';
@@ -37,6 +37,15 @@ function heard<T = any>(socket: Socket, event: string): T[] {
 }
 
 const pause = (ms: number) => new Promise((resolve) => setTimeout(resolve, ms));
+
+/** A point where the server is held: `reached` when it gets there (awaited as `atGate`), on again once `release`d (awaited as `gate`). */
+function holdPoint() {
+  let reached!: () => void;
+  let release!: () => void;
+  const atGate = new Promise<void>((resolve) => (reached = resolve));
+  const gate = new Promise<void>((resolve) => (release = resolve));
+  return { atGate, reached, gate, release };
+}
 const clientId = () => randomBytes(8).toString('hex');
 
 /** A job with a bid from one shop and the conversation the shop opened; the builder signed in. */
@@ -92,6 +101,8 @@ describe('sockets end with the session', () => {
     const { shopUser, threadId, shopAuth } = await conversation();
     const socket = socketFor(live.instanceA, shopAuth.cookie);
     await connected(socket);
+    // In the conversation first, so the session's own check when the socket came in is behind it.
+    expect((await emit(socket, 'thread:join', { threadId })).ok).toBe(true);
     // Ended behind the app's back (expired, or deleted by hand): no disconnect was sent.
     await live.db.execute(sql`DELETE FROM sessions WHERE sess -> 'passport' ->> 'user' = ${shopUser.id}`);
 
@@ -100,6 +111,32 @@ describe('sockets end with the session', () => {
     expect(answer).toMatchObject({ ok: false, error: { code: 'unauthenticated' } });
     expect(await closed).toBe('io server disconnect');
     expect(await live.db.select().from(messages).where(eq(messages.threadId, threadId))).toHaveLength(0);
+  });
+
+  it('when the session row is gone, then marking a message read and typing are refused too, and the read mark does not move', async () => {
+    const { builder, shopUser, threadId, shopAuth } = await conversation();
+    const builderAuth = await session(live.instanceB, builder);
+    const sent = await post(live.instanceB, builderAuth, `/api/threads/${threadId}/messages`, { clientId: clientId(), body: 'Is the block still on the stand?' });
+    expect(sent.status).toBe(201);
+    const messageId: string = sent.body.message.id;
+    const builderSocket = socketFor(live.instanceB, builderAuth.cookie);
+    // Two sockets of the shop's session: each is closed at its first refusal.
+    const reading = socketFor(live.instanceA, shopAuth.cookie);
+    const typing = socketFor(live.instanceB, shopAuth.cookie);
+    await Promise.all([connected(builderSocket), connected(reading), connected(typing)]);
+    for (const socket of [builderSocket, reading, typing]) expect((await emit(socket, 'thread:join', { threadId })).ok).toBe(true);
+    const typingHeard = heard(builderSocket, 'typing');
+    const readHeard = heard(builderSocket, 'read');
+    await live.db.execute(sql`DELETE FROM sessions WHERE sess -> 'passport' ->> 'user' = ${shopUser.id}`);
+
+    const closed = Promise.all([disconnected(reading), disconnected(typing)]);
+    expect(await emit(reading, 'read', { threadId, messageId })).toMatchObject({ ok: false, error: { code: 'unauthenticated' } });
+    expect(await emit(typing, 'typing', { threadId })).toMatchObject({ ok: false, error: { code: 'unauthenticated' } });
+    expect(await closed).toEqual(['io server disconnect', 'io server disconnect']);
+    await pause(300);
+    expect([...typingHeard, ...readHeard]).toEqual([]);
+    const marks = await live.db.select().from(threadReads).where(and(eq(threadReads.threadId, threadId), eq(threadReads.userId, shopUser.id)));
+    expect(marks.filter((mark) => mark.lastReadMessageId === messageId)).toEqual([]);
   });
 
   it('when the password is reset by mail, then every socket of that person is closed, on both instances', async () => {
@@ -159,6 +196,30 @@ describe('sockets end with the session', () => {
     expect(mails).toHaveLength(1);
   });
 
+  it('when the password changes while a socket of another session is being let in, then that socket is closed as soon as it is in', async () => {
+    const user = await createUser(live.db);
+    const here = await session(live.instanceB, user);
+    const elsewhere = await session(live.instanceA, user);
+    // Hold the next connection on instance A after its session was read and before it joins its rooms.
+    const { atGate, reached, gate, release } = holdPoint();
+    let holding = true;
+    live.instanceA.io.use((_socket, next) => {
+      if (!holding) return next();
+      holding = false;
+      reached();
+      void gate.then(() => next());
+    });
+
+    const socket = socketFor(live.instanceA, elsewhere.cookie);
+    await atGate;
+    const changed = await post(live.instanceB, here, '/api/auth/password', { currentPassword: TEST_PASSWORD, newPassword: 'changed while it knocked' });
+    expect(changed.status).toBe(200);
+    await pause(300); // the sign-out has reached instance A, and found no socket of that session in its rooms yet
+    const closed = disconnected(socket);
+    release();
+    expect(await closed).toBe('io server disconnect');
+  });
+
   it('when nobody is signed in, then changing a password is 401', async () => {
     const anon = await visitor(live.instanceA);
     const res = await post(live.instanceA, anon, '/api/auth/password', { currentPassword: TEST_PASSWORD, newPassword: 'a changed password' });
@@ -209,6 +270,53 @@ describe('a job’s live room after the award', () => {
   });
 });
 
+describe('a job’s live room while the award is made', () => {
+  it('when a shop starts following the job just as another shop’s bid is accepted, then it does not stay in the room', async () => {
+    const builder = await createUser(live.db);
+    const job = await createJob(live.db, builder.id);
+    const late = await createShop(live.db);
+    const winner = await createShop(live.db);
+    const builderAuth = await session(live.instanceA, builder);
+    const winnerAuth = await session(live.instanceA, winner.user);
+    const winning = await post(live.instanceA, winnerAuth, `/api/jobs/${job.id}/bids`, bidInput());
+    expect(winning.status).toBe(201);
+
+    // Hold the late shop's join of the job's room on instance B until the award has gone out.
+    const { atGate, reached, gate, release } = holdPoint();
+    live.instanceB.io.use((socket, next) => {
+      if ((socket.data.user as { id: string } | undefined)?.id === late.user.id) {
+        const join = socket.join.bind(socket);
+        socket.join = ((room: string | string[]) => {
+          if (room !== `job:${job.id}`) return join(room);
+          reached();
+          return gate.then(() => join(room));
+        }) as typeof socket.join;
+      }
+      next();
+    });
+    const lateSocket = socketFor(live.instanceB, (await session(live.instanceB, late.user)).cookie);
+    const winnerSocket = socketFor(live.instanceA, winnerAuth.cookie);
+    await Promise.all([connected(lateSocket), connected(winnerSocket)]);
+    expect((await emit(winnerSocket, 'job:watch', { jobId: job.id })).ok).toBe(true);
+    const lateHeard = heard(lateSocket, 'job:changed');
+
+    const watching = emit(lateSocket, 'job:watch', { jobId: job.id });
+    await atGate;
+    const awarded = next(winnerSocket, 'job:changed');
+    expect((await post(live.instanceA, builderAuth, `/api/bids/${winning.body.bid.id}/accept`)).status).toBe(200);
+    await awarded;
+    await pause(300); // the room change has reached instance B, before the late socket is in the room
+    release();
+    expect(await watching).toMatchObject({ ok: false, error: { code: 'forbidden' } });
+
+    const cancelled = next(winnerSocket, 'job:changed');
+    expect((await post(live.instanceA, builderAuth, `/api/jobs/${job.id}/cancel`)).status).toBe(200);
+    expect(await cancelled).toEqual({ jobId: job.id, change: 'job_cancelled' });
+    await pause(300);
+    expect(lateHeard).toEqual([]);
+  });
+});
+
 describe('socket origin', () => {
   it('when a page of another site opens a socket with the cookie, then it is refused; the app’s own origin connects', async () => {
     const user = await createUser(live.db);
@@ -217,6 +325,10 @@ describe('socket origin', () => {
     await expect(connected(foreign)).rejects.toThrow();
     const lookalike = socketFor(live.instanceB, auth.cookie, `${new URL(live.config.appUrl).origin}.elsewhere.example`);
     await expect(connected(lookalike)).rejects.toThrow();
+    // The same host on another port is another origin (another app could be listening there).
+    const app = new URL(live.config.appUrl);
+    const otherPort = socketFor(live.instanceA, auth.cookie, `${app.protocol}//${app.hostname}:${Number(app.port || 80) + 1}`);
+    await expect(connected(otherPort)).rejects.toThrow();
 
     const own = socketFor(live.instanceA, auth.cookie, new URL(live.config.appUrl).origin);
     await connected(own);

@@ -1,4 +1,4 @@
-import type { Database } from '../../db/client';
+import type { Database, Executor } from '../../db/client';
 import type { User } from '../../db/schema';
 import type { ChangePasswordInput, PendingGithub, Role, SignUpInput } from '../../../shared/schemas/auth';
 import { AppError, badRequest, conflict } from '../../lib/errors';
@@ -110,6 +110,16 @@ export const expiredLink = () =>
     token: 'This link has expired or was already used.',
   });
 
+/**
+ * A new password ends what the old one may have started: every reset link
+ * still out and a move to another address not yet confirmed (whoever asked
+ * for it may be why the password changed; the person can ask again).
+ */
+async function spendLinksOfOldPassword(tx: Executor, userId: string): Promise<void> {
+  await spendAllTokens(tx, userId, 'reset_password');
+  await spendAllTokens(tx, userId, 'change_email');
+}
+
 /** Spends the reset link and every other one still out, sets the password, ends every session of the account. */
 export async function confirmPasswordReset(deps: AuthDeps, token: string, password: string): Promise<User> {
   const passwordHash = await hashPassword(password);
@@ -118,9 +128,9 @@ export async function confirmPasswordReset(deps: AuthDeps, token: string, passwo
     if (!userId) throw expiredLink();
     // Following the link proves the person reads that mailbox.
     const user = await findUserById(tx, userId);
-    const updated = await updateUser(tx, userId, { passwordHash, emailVerifiedAt: user?.emailVerifiedAt ?? new Date() });
+    const updated = await updateUser(tx, userId, { passwordHash, pendingEmail: null, emailVerifiedAt: user?.emailVerifiedAt ?? new Date() });
     if (!updated) throw expiredLink();
-    await spendAllTokens(tx, userId, 'reset_password');
+    await spendLinksOfOldPassword(tx, userId);
     await deleteSessionsOfUser(tx, userId);
     await enqueueMail(tx, updated.email, passwordChangedMail({ displayName: updated.displayName }));
     return updated;
@@ -138,9 +148,9 @@ export async function changePassword(deps: AuthDeps, user: User, input: ChangePa
   await proveCurrentPassword(user, input.currentPassword);
   const passwordHash = await hashPassword(input.newPassword);
   const changed = await deps.db.transaction(async (tx) => {
-    const updated = await updateUser(tx, user.id, { passwordHash });
+    const updated = await updateUser(tx, user.id, { passwordHash, pendingEmail: null });
     if (!updated) throw new AppError('unauthenticated', 'You are not signed in.', 401);
-    await spendAllTokens(tx, user.id, 'reset_password');
+    await spendLinksOfOldPassword(tx, user.id);
     await deleteSessionsOfUser(tx, user.id, keepSid);
     await enqueueMail(tx, updated.email, passwordChangedMail({ displayName: updated.displayName }));
     return updated;

@@ -1,6 +1,6 @@
 import { and, arrayContains, eq, inArray, sql } from 'drizzle-orm';
 import { randomUUID } from 'node:crypto';
-import type { JobDetail, JobInput } from '../../../shared/schemas/jobs';
+import { NEEDED_BY_PAST_MESSAGE, neededByHasPassed, type JobDetail, type JobInput } from '../../../shared/schemas/jobs';
 import type { Database, Executor } from '../../db/client';
 import { bids, jobPhotos, jobs, shops, users, type User } from '../../db/schema';
 import { assertEmailConfirmed } from '../../lib/auth/guards';
@@ -127,6 +127,11 @@ export async function publishJob(deps: JobDeps, user: User, jobId: string): Prom
   const published = await deps.db.transaction(async (tx) => {
     const job = await ownJobForUpdate(tx, jobId, user);
     if (job.status !== 'draft') throw conflict('Only a draft can be published; this job is already out.', 'job_not_draft');
+    if (neededByHasPassed(job.neededBy)) {
+      throw new AppError('needed_by_passed', 'The date you need the work by has passed since the draft was saved. Edit the job and pick a new date, then publish.', 400, {
+        neededBy: NEEDED_BY_PAST_MESSAGE,
+      });
+    }
     const [published] = await tx
       .update(jobs)
       .set({ status: 'open', publishedAt: new Date() })
