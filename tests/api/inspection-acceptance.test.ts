@@ -4,7 +4,8 @@ import type { InspectionInput, InspectionResults } from '../../shared/schemas/in
 import { inspectionRecords, jobs, mailOutbox } from '../../server/db/schema';
 import { createScheduler } from '../../server/lib/scheduler';
 import { inspectionTaskHandlers } from '../../server/modules/inspections/inspections.service';
-import { checksNotConforming } from '../../shared/calc/conformance';
+import { NO_LIMITS_GIVEN, checksNotConforming } from '../../shared/calc/conformance';
+import { NOTHING_JUDGED_WORDS, recordVerdictText } from '../../shared/inspection-words';
 import { createUser, inspectionRecordInput, jobInput } from '../factories';
 import { startMoneyApp } from '../setup/money-app';
 import { certificateText } from '../setup/pdf';
@@ -56,6 +57,28 @@ describe('the review window and a record that does not conform', () => {
     expect(await m.db.select().from(mailOutbox).where(and(eq(mailOutbox.toAddress, shopUser.email), eq(mailOutbox.template, 'inspection_accepted_by_window')))).toHaveLength(0);
     // The builder can still answer.
     expect((await builder.post(`/api/jobs/${job.id}/inspection/accept`, { version: 1, confirmedChecks: checksNotConforming(still.results as InspectionResults) })).status).toBe(200);
+  });
+
+  it('when the job gave no limits, then a record with nothing to judge is not fully judged, not accepted by the window, and every screen says so in the same words', async () => {
+    // common practice (no published source): a record passes only when judged; the window accepts only a record whose every check conforms.
+    const noLimits = jobInput({ targetBore: undefined, pistonDiameter: undefined, clearanceMin: undefined, clearanceMax: undefined, maxTaper: undefined, maxOutOfRound: undefined, crosshatchMinDeg: undefined, crosshatchMaxDeg: undefined });
+    const { job, shop, builder, builderUser } = await m.jobIn('inWork', { input: noLimits, straightIntoDatabase: true, receivedNote: 'Arrived on a pallet.' });
+    const input = record({ deck: undefined, finish: undefined });
+    input.cylinders = input.cylinders!.map(({ piston: _piston, ...c }) => c);
+    const sent = await shop.post(`/api/jobs/${job.id}/inspection`, input);
+    expect(sent.status).toBe(201);
+    expect(sent.body.version.results).toMatchObject({ checks: [], verdict: 'not-fully-judged', pass: false, notJudged: [NO_LIMITS_GIVEN] });
+    const view = await builder.get(`/api/jobs/${job.id}/inspection`);
+    expect(view.body.autoAccept).toBe(false);
+    expect(recordVerdictText(view.body.versions[0].results)).toBe(NOTHING_JUDGED_WORDS);
+    expect(await pdfText(builder, job.id, 1)).toContain(NOTHING_JUDGED_WORDS);
+    const [submitted] = await m.db.select().from(inspectionRecords).where(eq(inspectionRecords.jobId, job.id));
+    await createScheduler({ db: m.db, handlers: inspectionTaskHandlers(m.server.app.workDeps) }).runDue(new Date(submitted.reviewDueAt.getTime() + 60_000));
+    expect((await m.db.select().from(jobs).where(eq(jobs.id, job.id)))[0].status).toBe('inspection_submitted');
+    const held = await m.db.select().from(mailOutbox).where(and(eq(mailOutbox.toAddress, builderUser.email), eq(mailOutbox.template, 'review_window_held')));
+    expect(held).toHaveLength(1);
+    expect(held[0].textBody).toContain(NO_LIMITS_GIVEN.what);
+    expect((await m.stripe.transfers.list({ transfer_group: job.id })).data).toHaveLength(0);
   });
 
   it('when the window ends on a clean record, then it is still accepted by itself', async () => {
@@ -168,9 +191,9 @@ describe('the certificate', () => {
     input.cylinders = input.cylinders!.map(({ piston: _piston, ...c }) => c);
     expect((await funded.shop.post(`/api/jobs/${funded.job.id}/inspection`, input)).status).toBe(201);
     const before = await pdfText(funded.builder, funded.job.id, 1);
-    expect(before).toContain('No limits given: nothing judged');
+    expect(before).toContain(NOTHING_JUDGED_WORDS);
     expect(before).not.toContain('PASS');
-    expect((await funded.builder.post(`/api/jobs/${funded.job.id}/inspection/reject`, { reasons: 'Please add the deck readings.' })).status).toBe(200);
+    expect((await funded.builder.post(`/api/jobs/${funded.job.id}/inspection/reject`, { version: 1, reasons: 'Please add the deck readings.' })).status).toBe(200);
     expect(await pdfText(funded.builder, funded.job.id, 1)).toContain('Changes asked');
   });
 });

@@ -32,7 +32,7 @@ export function InspectionCertificateRoute() {
   const len = (value: number | undefined) => (value === undefined ? '—' : value.toFixed(decimals));
   const spec = job.data.spec;
   const shop = inspection.data.shop;
-  const headline = resultHeadline(results, spec, unit);
+  const headline = resultHeadline(results);
   // The finish section below names the roughness filter in its own words; here only the rule, the temperature and the statements.
   const method = methodLines(results).filter((m) => m.label !== 'Roughness filter');
   const notJudged = results.notJudged ?? [];

@@ -49,7 +49,7 @@ export function certificatePdf(data: CertificateData): Promise<Buffer> {
   line(`Job number ${data.jobId} · version ${data.version} · submitted ${stamp(data.submittedAt)}`);
   line(`Status: ${INSPECTION_STATUS_WORDS[data.status] ?? data.status}`);
   line(`Builder: ${data.builderName} · Shop: ${[data.shopName, data.shopPlace].filter(Boolean).join(', ')}`);
-  doc.moveDown(0.5).font('Body-Bold').fontSize(11).text(`Result: ${resultHeadline(results, data.spec, unit).text}`).font('Body').fontSize(9.5);
+  doc.moveDown(0.5).font('Body-Bold').fontSize(11).text(`Result: ${resultHeadline(results).text}`).font('Body').fontSize(9.5);
 
   heading('Conditions');
   const conditions = input.conditions as InspectionInput['conditions'] & { temperatureC?: number; temperatureF?: number };
@@ -111,7 +111,7 @@ export function certificatePdf(data: CertificateData): Promise<Buffer> {
     for (const statement of section.statements) line(statement);
   }
   heading('Checks against the job’s limits');
-  if (results.checks.length === 0) line(resultHeadline(results, data.spec, unit).tone === 'none' ? 'The job gave no limits, so nothing was judged.' : 'No limit failed.');
+  if (results.checks.length === 0) line(resultHeadline(results).tone === 'none' ? 'The job gave no limits, so nothing was judged.' : 'No limit failed.');
   const ctx = { spec: data.spec, results, unit, resolution: input.conditions.gaugeResolution };
   for (const check of results.checks) {
     const figures = checkFigures(check, ctx);
