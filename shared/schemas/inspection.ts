@@ -86,7 +86,11 @@ export type InspectionInput = z.infer<typeof inspectionInputSchema>;
 /** A draft may be incomplete; it is only kept, never judged. */
 export const inspectionDraftSchema = z.object({ draft: z.record(z.string(), z.unknown()) });
 
+const versionAnsweredSchema = (verb: string) => z.number({ error: `Say which version of the record you ${verb}.` }).int().min(1, `Say which version of the record you ${verb}.`);
+
+/** The builder asks for changes to one version, the one they read: a version that is no longer the one waiting is refused. */
 export const rejectInspectionSchema = z.object({
+  version: versionAnsweredSchema('answer'),
   reasons: z.string({ error: 'Say what needs redoing.' }).trim().min(5, 'Say what needs redoing.').max(2000),
 });
 export type RejectInspectionInput = z.input<typeof rejectInspectionSchema>;
@@ -98,7 +102,7 @@ export type RejectInspectionInput = z.input<typeof rejectInspectionSchema>;
  * `checksNotConforming`).
  */
 export const acceptInspectionSchema = z.object({
-  version: z.number({ error: 'Say which version of the record you accept.' }).int().min(1, 'Say which version of the record you accept.'),
+  version: versionAnsweredSchema('accept'),
   confirmedChecks: z.array(z.string().max(500)).max(1000).optional(),
 });
 export type AcceptInspectionInput = z.input<typeof acceptInspectionSchema>;

@@ -114,7 +114,7 @@ describe('the builder accepts one version, naming what does not conform', () => 
     const confirmedForV1 = checksNotConforming(v1.results);
     expect(confirmedForV1).toContain('cylinder 3 taper');
     // Meanwhile (another tab) the builder asks for changes and the shop sends version 2 with a different cylinder out.
-    expect((await builder.post(`/api/jobs/${job.id}/inspection/reject`, { reasons: 'Cylinder 3 taper is over.' })).status).toBe(200);
+    expect((await builder.post(`/api/jobs/${job.id}/inspection/reject`, { version: 1, reasons: 'Cylinder 3 taper is over.' })).status).toBe(200);
     expect((await shop.post(`/api/jobs/${job.id}/inspection`, record({}, 5))).status).toBe(201);
     const stale = await builder.post(`/api/jobs/${job.id}/inspection/accept`, { version: 1, confirmedChecks: confirmedForV1 });
     expect(stale.status).toBe(409);
@@ -130,6 +130,25 @@ describe('the builder accepts one version, naming what does not conform', () => 
     const accepted = await builder.post(`/api/jobs/${job.id}/inspection/accept`, { version: 2, confirmedChecks: checksNotConforming(v2.results) });
     expect(accepted.status).toBe(200);
     expect(accepted.body.version).toMatchObject({ version: 2, status: 'accepted' });
+  });
+
+  it('when the builder asks for changes from a dialog opened on version 1 after version 2 came in, then it is refused: changes are asked of the version read', async () => {
+    // common practice (no published source): an answer covers the document that was read, not a later one.
+    const { job, shop, builder } = await inWork();
+    await shop.post(`/api/jobs/${job.id}/inspection`, record({}, 2));
+    const bare = await builder.post(`/api/jobs/${job.id}/inspection/reject`, { reasons: 'Cylinder 3 taper is over.' });
+    expect(bare.status).toBe(400);
+    expect(bare.body.error.fields.version).toBeTruthy();
+    // Another tab asks for changes to version 1 and the shop sends version 2; the first tab's dialog, still on version 1, then sends its answer.
+    expect((await builder.post(`/api/jobs/${job.id}/inspection/reject`, { version: 1, reasons: 'Cylinder 3 taper is over.' })).status).toBe(200);
+    expect((await shop.post(`/api/jobs/${job.id}/inspection`, record())).status).toBe(201);
+    const stale = await builder.post(`/api/jobs/${job.id}/inspection/reject`, { version: 1, reasons: 'Cylinder 3 taper is over.' });
+    expect(stale.status).toBe(409);
+    expect(stale.body.error.code).toBe('version_changed');
+    expect(stale.body.error.fields.version).toContain('Version 2');
+    expect((await m.db.select().from(jobs).where(eq(jobs.id, job.id)))[0].status).toBe('inspection_submitted');
+    const waiting = await m.db.select().from(inspectionRecords).where(and(eq(inspectionRecords.jobId, job.id), eq(inspectionRecords.version, 2)));
+    expect(waiting[0]).toMatchObject({ status: 'submitted', rejectReasons: null });
   });
 
   it('when the accept names no version, then it is refused beside the field; a conforming record needs no checks named', async () => {

@@ -3,7 +3,7 @@ import { checksNotConforming, recordConforms } from '../../../shared/calc/confor
 import { evaluateInspection } from '../../../shared/calc/inspection-record';
 import { boreOperationCodes, findOperation, type OperationCode } from '../../../shared/catalogue';
 import { formatDateTime } from '../../../shared/dates';
-import type { AcceptInspectionInput, InspectionInput, InspectionResults, InspectionVersion } from '../../../shared/schemas/inspection';
+import type { AcceptInspectionInput, InspectionInput, InspectionResults, InspectionVersion, RejectInspectionInput } from '../../../shared/schemas/inspection';
 import { HOT_TANK_ON_ALUMINIUM, SECTION_INPUT_KEYS, cleanMethodsFor, type InspectionSections } from '../../../shared/schemas/inspection-sections';
 import type { JobInput } from '../../../shared/schemas/jobs';
 import type { Database, Executor } from '../../db/client';
@@ -222,11 +222,7 @@ async function accept(deps: InspectionDeps, jobId: string, how: { by?: User; ans
  * and nothing is paid.
  */
 function mustBeTheVersionConfirmed(record: { version: number; results: unknown }, answer: AcceptInspectionInput) {
-  if (record.version !== answer.version) {
-    throw new AppError('version_changed', `Version ${record.version} of the record is the one waiting now, not version ${answer.version}: read it before you accept.`, 409, {
-      version: `Version ${record.version} is waiting now.`,
-    });
-  }
+  mustBeTheVersionRead(record, answer.version, 'accept');
   const confirmed = new Set(answer.confirmedChecks ?? []);
   const missing = checksNotConforming(record.results as InspectionResults).filter((name) => !confirmed.has(name));
   if (missing.length > 0) {
@@ -236,18 +232,28 @@ function mustBeTheVersionConfirmed(record: { version: number; results: unknown }
   }
 }
 
+/** The builder's answer (accept or ask for changes) covers the version they read: another version waiting now is refused (409 version_changed). */
+function mustBeTheVersionRead(record: { version: number }, version: number, verb: 'accept' | 'answer') {
+  if (record.version !== version) {
+    throw new AppError('version_changed', `Version ${record.version} of the record is the one waiting now, not version ${version}: read it before you ${verb}.`, 409, {
+      version: `Version ${record.version} is waiting now.`,
+    });
+  }
+}
+
 export async function acceptInspection(deps: InspectionDeps, user: User, jobId: string, answer: AcceptInspectionInput) {
   mustBeJobsBuilder(await partiesOf(deps.db, jobId), user, 'Only the builder who posted the job accepts its inspection record.');
   return (await accept(deps, jobId, { by: user, answer }))!;
 }
 
-export async function rejectInspection(deps: InspectionDeps, user: User, jobId: string, reasons: string) {
+export async function rejectInspection(deps: InspectionDeps, user: User, jobId: string, { version: read, reasons }: RejectInspectionInput) {
   const notices = new Notices();
   const version = await deps.db.transaction(async (tx) => {
     const parties = await partiesOf(tx, jobId, { forUpdate: true });
     mustBeJobsBuilder(parties, user, 'Only the builder who posted the job rejects its inspection record.');
     const record = await waitingRecord(tx, jobId);
     if (parties.job.status !== 'inspection_submitted' || !record) throw nothingToReview();
+    mustBeTheVersionRead(record, read, 'answer');
     const [row] = await tx
       .update(inspectionRecords)
       .set({ status: 'rejected', decidedAt: new Date(), decidedBy: user.id, decidedHow: 'builder', rejectReasons: reasons })
