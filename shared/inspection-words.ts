@@ -12,8 +12,13 @@ export const INSPECTION_STATUS_WORDS: Readonly<Record<InspectionVersion['status'
   submitted: RECORD_STATUS.submitted.label,
   accepted: RECORD_STATUS.accepted.label,
   rejected: RECORD_STATUS.rejected.label,
-  superseded: RECORD_STATUS.superseded.label,
 };
+
+/** A version's status in words, with the version that replaced it when there is one ("Changes asked; replaced by version 2"). */
+export function versionStatusWords(version: Pick<InspectionVersion, 'status' | 'replacedBy'>): string {
+  const status = INSPECTION_STATUS_WORDS[version.status] ?? version.status;
+  return version.replacedBy ? `${status}; replaced by version ${version.replacedBy}` : status;
+}
 
 export type ResultTone = 'none' | 'pass' | 'fail' | 'open';
 
@@ -23,10 +28,11 @@ export const NOTHING_JUDGED_WORDS = 'Not fully judged: no limits given, so nothi
 /**
  * True when the record judged nothing: no check at all, and nothing not
  * judged but the job's missing limits (records stored before that item was
- * written have none; they judged nothing all the same).
+ * written have none; they judged nothing all the same), and no section judged.
  */
 export function judgedNothing(results: InspectionResults): boolean {
-  return results.checks.length === 0 && (results.notJudged ?? []).every((item) => item.what === NO_LIMITS_GIVEN.what);
+  const judgedSection = (results.sections ?? []).some((section) => section.verdict === 'conforms' || section.verdict === 'fails' || section.verdict === 'not-proven');
+  return results.checks.length === 0 && !judgedSection && (results.notJudged ?? []).every((item) => item.what === NO_LIMITS_GIVEN.what);
 }
 
 /** The record's verdict as shown: a record that judged nothing is not fully judged, whatever an older record stored. */

@@ -243,12 +243,14 @@ const storedInputSchema = inspectionInputSchema.extend({ signedOffBy: z.string()
 export const inspectionVersionSchema = z.object({
   id: z.uuid(),
   version: z.number().int(),
-  status: z.enum(['submitted', 'accepted', 'rejected', 'superseded']),
+  status: z.enum(['submitted', 'accepted', 'rejected']),
   input: storedInputSchema,
   results: inspectionResultsSchema,
   submittedAt: z.iso.datetime(),
   decidedAt: z.iso.datetime().nullable(),
   rejectReasons: z.string().nullable(),
+  /** The version that replaced this one (the next one the shop sent after changes were asked); null for the newest. */
+  replacedBy: z.number().int().nullable(),
 });
 export type InspectionVersion = z.infer<typeof inspectionVersionSchema>;
 

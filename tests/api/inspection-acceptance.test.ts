@@ -203,6 +203,24 @@ describe('the certificate', () => {
     expect(text).toContain('Out-of-round: two-point');
   });
 
+  it('when a version was sent back and replaced, then its certificate and the record say by which version, and the newest says nothing of the kind', async () => {
+    // common practice (no published source): a superseded document names what superseded it.
+    const { job, shop, builder } = await inWork();
+    await shop.post(`/api/jobs/${job.id}/inspection`, record({}, 2));
+    expect((await builder.post(`/api/jobs/${job.id}/inspection/reject`, { version: 1, reasons: 'Cylinder 3 taper is over.' })).status).toBe(200);
+    expect((await shop.post(`/api/jobs/${job.id}/inspection`, record())).status).toBe(201);
+    const view = await builder.get(`/api/jobs/${job.id}/inspection`);
+    expect(view.body.versions.map((v: { version: number; status: string; replacedBy: number | null }) => [v.version, v.status, v.replacedBy])).toEqual([
+      [2, 'submitted', null],
+      [1, 'rejected', 2],
+    ]);
+    const older = (await pdfText(builder, job.id, 1)).replace(/\s+/g, ' ');
+    expect(older).toContain('Status: Changes asked; replaced by version 2');
+    const newest = await pdfText(builder, job.id, 2);
+    expect(newest).toContain('Waiting for the builder’s answer');
+    expect(newest).not.toContain('replaced by');
+  });
+
   it('when the job gave no limits, then the certificate says nothing was judged (not PASS), and a decided record’s status is in words', async () => {
     const noLimits = jobInput({ targetBore: undefined, pistonDiameter: undefined, clearanceMin: undefined, clearanceMax: undefined, maxTaper: undefined, maxOutOfRound: undefined, crosshatchMinDeg: undefined, crosshatchMaxDeg: undefined });
     const funded = await m.jobIn('inWork', { input: noLimits, straightIntoDatabase: true, receivedNote: 'Arrived on a pallet.' });

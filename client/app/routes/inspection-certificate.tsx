@@ -1,6 +1,6 @@
 import { Link, useParams } from 'react-router-dom';
 import { checkFigures, figureAgainstLimit, lengthDecimals, micrometresToMicroinches } from '@shared/calc';
-import { INSPECTION_STATUS_WORDS, methodLines, resultHeadline } from '@shared/inspection-words';
+import { methodLines, resultHeadline, versionStatusWords } from '@shared/inspection-words';
 import { Button } from '@client/components/ui/button';
 import { Notice } from '@client/components/ui/notice';
 import { RecordSections, useInspection, finishFilterWords } from '@client/features/inspections';
@@ -64,7 +64,7 @@ export function InspectionCertificateRoute() {
       <p data-testid="certificate-job">
         Job number {jobId} · version {record.version} · submitted {formatDateTime(record.submittedAt)}
       </p>
-      <p data-testid="certificate-status">Status: {INSPECTION_STATUS_WORDS[record.status] ?? record.status}</p>
+      <p data-testid="certificate-status">Status: {versionStatusWords(record)}</p>
       <p data-testid="certificate-parties">
         Builder: {job.data.builder.displayName} · Shop: {[shop?.name, shop?.place].filter(Boolean).join(', ') || '—'}
       </p>

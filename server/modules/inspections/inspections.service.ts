@@ -1,4 +1,4 @@
-import { and, desc, eq, sql } from 'drizzle-orm';
+import { and, asc, desc, eq, gt, sql } from 'drizzle-orm';
 import { checksNotConforming, recordConforms } from '../../../shared/calc/conformance';
 import { evaluateInspection } from '../../../shared/calc/inspection-record';
 import { boreOperationCodes, findOperation, type OperationCode } from '../../../shared/catalogue';
@@ -24,7 +24,8 @@ export interface InspectionDeps extends PaymentDeps {
 
 type RecordRow = typeof inspectionRecords.$inferSelect;
 
-const toVersion = (row: RecordRow): InspectionVersion => ({
+/** A version as answered; `replacedBy` is the number of the version sent after it, when there is one. */
+const toVersion = (row: RecordRow, replacedBy: number | null = null): InspectionVersion => ({
   id: row.id,
   version: row.version,
   status: row.status,
@@ -33,6 +34,7 @@ const toVersion = (row: RecordRow): InspectionVersion => ({
   submittedAt: row.submittedAt.toISOString(),
   decidedAt: row.decidedAt?.toISOString() ?? null,
   rejectReasons: row.rejectReasons,
+  replacedBy,
 });
 
 export async function inspectionView(db: Database, user: User, jobId: string) {
@@ -51,7 +53,8 @@ export async function inspectionView(db: Database, user: User, jobId: string) {
   // Who did the work, for the certificate page (the same lines as the PDF).
   const shopPlace = await placeOfShop(db, parties.job.awardedBidId);
   const shop = parties.shop ? { name: parties.shop.name, place: shopPlace } : null;
-  return { versions: rows.map(toVersion), draft, reviewDueAt: open?.reviewDueAt.toISOString() ?? null, autoAccept, reviewWindowEnded, shop };
+  // Newest first: each version was replaced by the one listed before it.
+  return { versions: rows.map((row, i) => toVersion(row, rows[i - 1]?.version ?? null)), draft, reviewDueAt: open?.reviewDueAt.toISOString() ?? null, autoAccept, reviewWindowEnded, shop };
 }
 
 /** The section of the record each kind of work has, in the input's `sections`. */
@@ -341,6 +344,12 @@ export async function certificateFor(db: Database, user: User, jobId: string, ve
   mustSeeWork(parties, user);
   const [row] = await db.select().from(inspectionRecords).where(and(eq(inspectionRecords.jobId, jobId), eq(inspectionRecords.version, version)));
   if (!row) throw new AppError('not_found', 'No inspection record with that version.', 404);
+  const [next] = await db
+    .select({ version: inspectionRecords.version })
+    .from(inspectionRecords)
+    .where(and(eq(inspectionRecords.jobId, jobId), gt(inspectionRecords.version, version)))
+    .orderBy(asc(inspectionRecords.version))
+    .limit(1);
   const shopPlace = await placeOfShop(db, parties.job.awardedBidId);
   return certificatePdf({
     jobTitle: parties.job.title,
@@ -351,6 +360,7 @@ export async function certificateFor(db: Database, user: User, jobId: string, ve
     shopPlace,
     version: row.version,
     status: row.status,
+    replacedBy: next?.version ?? null,
     submittedAt: row.submittedAt,
     spec: parties.job.spec as JobInput,
     input: row.input as InspectionInput,

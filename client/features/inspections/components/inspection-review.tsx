@@ -384,7 +384,8 @@ export function InspectionReview({ job, viewer }: { job: JobDetail; viewer: 'bui
                 return (
                   <details key={version.id} className="rounded-lg border border-slate-200 p-3" data-testid="older-version">
                     <summary className="cursor-pointer font-semibold">
-                      Version {version.version} · {versionStatus[version.status].label.toLowerCase()} · submitted {formatWhen(version.submittedAt)}
+                      Version {version.version} · {versionStatus[version.status].label.toLowerCase()}
+                      {version.replacedBy ? ` · replaced by version ${version.replacedBy}` : ''} · submitted {formatWhen(version.submittedAt)}
                     </summary>
                     <div className="mt-3 flex flex-col gap-4">
                       {version.rejectReasons && (
