@@ -92,11 +92,10 @@ export const BID_STATUS: Glossary<BidStatus> = {
 };
 
 /** An inspection record version's status: the same on the job page, the certificates and the evidence. */
-export const RECORD_STATUS: Glossary<'submitted' | 'accepted' | 'rejected' | 'superseded'> = {
+export const RECORD_STATUS: Glossary<'submitted' | 'accepted' | 'rejected'> = {
   submitted: { label: 'Waiting for the builder’s answer', tone: 'warning' },
   accepted: { label: 'Accepted', tone: 'success' },
   rejected: { label: 'Changes asked', tone: 'danger', explain: 'The builder asked the shop to change the record.' },
-  superseded: { label: 'Replaced by a later version', tone: 'quiet' },
 };
 
 /** A dispute's status. */

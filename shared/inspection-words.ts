@@ -2,11 +2,9 @@
  * An inspection record's status and overall result in words, the same on the
  * job page, the web certificate and the PDF certificate.
  */
-import { recordConforms } from './calc/conformance';
+import { NO_LIMITS_GIVEN, recordConforms } from './calc/conformance';
 import { RECORD_STATUS } from './glossary';
-import { boreSpecFor } from './calc/inspection-record';
-import type { LengthUnit } from './calc/units';
-import type { InspectionResults, InspectionVersion, LimitCheck, NotJudged } from './schemas/inspection';
+import { RECORD_VERDICT_WORDS, checkVerdict, recordVerdict, type InspectionResults, type InspectionVersion, type LimitCheck, type NotJudged, type RecordVerdict } from './schemas/inspection';
 import type { SectionFigure, SectionResult, SectionVerdict } from './schemas/inspection-sections';
 
 /** Every status a version can have, in words (the glossary's names). */
@@ -14,24 +12,58 @@ export const INSPECTION_STATUS_WORDS: Readonly<Record<InspectionVersion['status'
   submitted: RECORD_STATUS.submitted.label,
   accepted: RECORD_STATUS.accepted.label,
   rejected: RECORD_STATUS.rejected.label,
-  superseded: RECORD_STATUS.superseded.label,
 };
+
+/** A version's status in words, with the version that replaced it when there is one ("Changes asked; replaced by version 2"). */
+export function versionStatusWords(version: Pick<InspectionVersion, 'status' | 'replacedBy'>): string {
+  const status = INSPECTION_STATUS_WORDS[version.status] ?? version.status;
+  return version.replacedBy ? `${status}; replaced by version ${version.replacedBy}` : status;
+}
 
 export type ResultTone = 'none' | 'pass' | 'fail' | 'open';
 
-/** True when the job gave no limit at all that the record was judged against (the deck has a common-practice table of its own). */
-export function nothingJudged(results: InspectionResults, spec: Parameters<typeof boreSpecFor>[0], unit: LengthUnit): boolean {
-  const bore = boreSpecFor(spec, unit);
-  // A size tolerance (the job's or a default) judges nothing without a target size.
-  const sizeJudged = bore.targetBore !== undefined && bore.targetTolerance !== undefined;
-  const boreLimits = sizeJudged || [bore.clearanceMin, bore.clearanceMax, bore.maxTaper, bore.maxOutOfRound].some((v) => v !== undefined);
-  const notJudged = (results as { notJudged?: unknown[] }).notJudged ?? [];
-  return results.checks.length === 0 && notJudged.length === 0 && !results.deck && !boreLimits;
+/** What every screen (badge, review, certificate page and PDF) says of a record with nothing to judge. */
+export const NOTHING_JUDGED_WORDS = 'Not fully judged: no limits given, so nothing was judged';
+
+/**
+ * True when the record judged nothing: no check at all, and nothing not
+ * judged but the job's missing limits (records stored before that item was
+ * written have none; they judged nothing all the same), and no section judged.
+ */
+export function judgedNothing(results: InspectionResults): boolean {
+  const judgedSection = (results.sections ?? []).some((section) => section.verdict === 'conforms' || section.verdict === 'fails' || section.verdict === 'not-proven');
+  return results.checks.length === 0 && !judgedSection && (results.notJudged ?? []).every((item) => item.what === NO_LIMITS_GIVEN.what);
 }
 
-/** The overall result line: nothing judged, conforms, or why not. */
-export function resultHeadline(results: InspectionResults, spec: Parameters<typeof boreSpecFor>[0], unit: LengthUnit): { tone: ResultTone; text: string } {
-  if (nothingJudged(results, spec, unit)) return { tone: 'none', text: 'No limits given: nothing judged' };
+/** The record's verdict as shown: a record that judged nothing is not fully judged, whatever an older record stored. */
+export const shownVerdict = (results: InspectionResults): RecordVerdict => (judgedNothing(results) ? 'not-fully-judged' : recordVerdict(results));
+
+const count = (n: number, one: string, many: string) => `${n} ${n === 1 ? one : many}`;
+
+/** The record's verdict with how many checks fail, are not proven, or limits went unjudged (the job page's badge and the review). */
+export function recordVerdictText(results: InspectionResults): string {
+  if (judgedNothing(results)) return NOTHING_JUDGED_WORDS;
+  const verdict = recordVerdict(results);
+  if (!results.verdict) return RECORD_VERDICT_WORDS[verdict];
+  const verdicts = results.checks.map(checkVerdict);
+  const failing = verdicts.filter((v) => v === 'fails').length;
+  const unproven = verdicts.filter((v) => v === 'not-proven').length;
+  const unjudged = results.notJudged?.length ?? 0;
+  switch (verdict) {
+    case 'pass':
+      return 'Pass: every limit judged, every check conforms';
+    case 'fail':
+      return `Fail: ${count(failing, 'check fails', 'checks fail')}${unjudged > 0 ? `; ${count(unjudged, 'limit', 'limits')} not judged` : ''}`;
+    case 'not-fully-judged':
+      return `Not fully judged: ${count(unjudged, 'limit', 'limits')} not judged${unproven > 0 ? `; ${count(unproven, 'check', 'checks')} not proven` : ''}`;
+    case 'not-proven':
+      return `Not proven: ${count(unproven, 'check lies', 'checks lie')} within the uncertainty of the limit`;
+  }
+}
+
+/** The overall result line of the certificate: nothing judged, conforms, or why not. */
+export function resultHeadline(results: InspectionResults): { tone: ResultTone; text: string } {
+  if (judgedNothing(results)) return { tone: 'none', text: NOTHING_JUDGED_WORDS };
   if (recordConforms(results)) return { tone: 'pass', text: 'PASS — every check within the job’s limits' };
   const verdict = (results as { verdict?: string }).verdict;
   if (verdict === 'not-proven') return { tone: 'open', text: 'NOT PROVEN — no check fails, but at least one is too close to its limit to prove conformance' };

@@ -10,6 +10,13 @@
  */
 import type { InspectionResults, LimitCheck } from '../schemas/inspection';
 
+/**
+ * The one not-judged item of a record with nothing to judge: the job gave no
+ * limits (older jobs can have none), so no check was made. Such a record is
+ * "not fully judged", never a pass, and the window does not accept it.
+ */
+export const NO_LIMITS_GIVEN = { what: 'the job’s limits', why: 'the job gives no limits, so nothing was judged' } as const;
+
 /** The verdict words that mean a check conforms; anything else does not. */
 const CONFORMING_VERDICTS = new Set(['conforms', 'pass']);
 
@@ -40,7 +47,10 @@ export function checksNotConforming(results: InspectionResults): string[] {
     if (!names.includes(name)) names.push(name);
   };
   for (const check of results.checks as JudgedCheck[]) if (!checkConforms(check)) add(check.what);
-  for (const item of (results as JudgedResults).notJudged ?? []) add(`${item.what} (not judged)`);
+  const notJudged = (results as JudgedResults).notJudged ?? [];
+  for (const item of notJudged) add(`${item.what} (not judged)`);
+  // A record with no checks and nothing said about why (stored before the rule above) has judged nothing all the same.
+  if (results.checks.length === 0 && notJudged.length === 0) add(`${NO_LIMITS_GIVEN.what} (not judged)`);
   results.bores?.cylinders.forEach((cylinder, index) => {
     // A size with no tolerance is reported, not a limit; a clearance limit with no piston measured is a limit left unjudged.
     for (const limit of (cylinder.notChecked ?? []).filter((l) => l !== 'targetBore')) add(`cylinder ${index + 1} ${BORE_LIMIT_WORDS[limit] ?? limit} (not judged)`);

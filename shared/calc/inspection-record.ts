@@ -16,7 +16,8 @@
  *    and the record says so.
  * 3. Each check gets a verdict under the job's decision rule (`decision-rule.ts`):
  *    conforms, fails or not proven. A limit with nothing to judge it by goes
- *    into `notJudged`, and the record is then "not fully judged", never a pass.
+ *    into `notJudged`, and the record is then "not fully judged", never a pass;
+ *    a record with nothing to judge (the job gave no limits) is not fully judged too.
  */
 import type { CheckVerdict, CorrectedCylinder, InspectionInput, InspectionResults, LimitCheck, NotJudged, RecordVerdict } from '../schemas/inspection';
 import type { SectionFigure } from '../schemas/inspection-sections';
@@ -29,6 +30,7 @@ import { roughness } from './roughness';
 import { formatFineLength as fmtFine, formatLength as fmt, judgeOwnSections, sectionResults } from './record-sections';
 import { EXPANSION_COEFFICIENTS, EXPANSION_SOURCE, PISTON_MATERIAL, REFERENCE_TEMPERATURE_C, fahrenheitToCelsius, toReferenceTemperature } from './thermal';
 import { convertLength, type LengthUnit } from './units';
+import { NO_LIMITS_GIVEN } from './conformance';
 import { boreOperationCodes } from '../catalogue';
 import { limitFor } from '../operation-limits';
 
@@ -327,6 +329,8 @@ export function evaluateInspection(input: InspectionInput, spec: JobSpecPart): I
     `Decision rule: ${words.name}. ${words.words} Bore and other diameter readings: ${uncertaintyWords}. ${rule === 'guarded' ? 'Feeler, height, finish, angle, mass and unbalance readings carry no stated uncertainty and are judged by simple acceptance.' : ''}`.trim(),
   );
 
+  // Nothing to judge is not a pass: the record says the job gave no limits.
+  if (checks.length === 0 && notJudged.length === 0) notJudged.push({ ...NO_LIMITS_GIVEN });
   const verdicts = checks.map((check) => check.verdict as CheckVerdict);
   const verdict: RecordVerdict = verdicts.includes('fails') ? 'fail' : notJudged.length > 0 ? 'not-fully-judged' : verdicts.includes('not-proven') ? 'not-proven' : 'pass';
   return {

@@ -86,7 +86,11 @@ export type InspectionInput = z.infer<typeof inspectionInputSchema>;
 /** A draft may be incomplete; it is only kept, never judged. */
 export const inspectionDraftSchema = z.object({ draft: z.record(z.string(), z.unknown()) });
 
+const versionAnsweredSchema = (verb: string) => z.number({ error: `Say which version of the record you ${verb}.` }).int().min(1, `Say which version of the record you ${verb}.`);
+
+/** The builder asks for changes to one version, the one they read: a version that is no longer the one waiting is refused. */
 export const rejectInspectionSchema = z.object({
+  version: versionAnsweredSchema('answer'),
   reasons: z.string({ error: 'Say what needs redoing.' }).trim().min(5, 'Say what needs redoing.').max(2000),
 });
 export type RejectInspectionInput = z.input<typeof rejectInspectionSchema>;
@@ -98,7 +102,7 @@ export type RejectInspectionInput = z.input<typeof rejectInspectionSchema>;
  * `checksNotConforming`).
  */
 export const acceptInspectionSchema = z.object({
-  version: z.number({ error: 'Say which version of the record you accept.' }).int().min(1, 'Say which version of the record you accept.'),
+  version: versionAnsweredSchema('accept'),
   confirmedChecks: z.array(z.string().max(500)).max(1000).optional(),
 });
 export type AcceptInspectionInput = z.input<typeof acceptInspectionSchema>;
@@ -239,12 +243,14 @@ const storedInputSchema = inspectionInputSchema.extend({ signedOffBy: z.string()
 export const inspectionVersionSchema = z.object({
   id: z.uuid(),
   version: z.number().int(),
-  status: z.enum(['submitted', 'accepted', 'rejected', 'superseded']),
+  status: z.enum(['submitted', 'accepted', 'rejected']),
   input: storedInputSchema,
   results: inspectionResultsSchema,
   submittedAt: z.iso.datetime(),
   decidedAt: z.iso.datetime().nullable(),
   rejectReasons: z.string().nullable(),
+  /** The version that replaced this one (the next one the shop sent after changes were asked); null for the newest. */
+  replacedBy: z.number().int().nullable(),
 });
 export type InspectionVersion = z.infer<typeof inspectionVersionSchema>;
 

@@ -570,7 +570,7 @@ const matrix: Record<string, Row> = {
   'POST /api/jobs/:jobId/inspection/accept': { once: true, state: () => w.submitted('real'), body: { version: 1 }, expect: [401, 200, 403, 403, 403, 403] },
   'POST /api/jobs/:jobId/inspection/reject': {
     state: () => w.submitted(),
-    body: { reasons: 'Cylinder four taper is over the limit.' },
+    body: { version: 1, reasons: 'Cylinder four taper is over the limit.' },
     expect: [401, 200, 403, 403, 403, 403],
   },
   'GET /api/jobs/:jobId/inspection/:version/certificate.pdf': {

@@ -4,7 +4,8 @@ import type { InspectionInput, InspectionResults } from '../../shared/schemas/in
 import { inspectionRecords, jobs, mailOutbox } from '../../server/db/schema';
 import { createScheduler } from '../../server/lib/scheduler';
 import { inspectionTaskHandlers } from '../../server/modules/inspections/inspections.service';
-import { checksNotConforming } from '../../shared/calc/conformance';
+import { NO_LIMITS_GIVEN, checksNotConforming } from '../../shared/calc/conformance';
+import { NOTHING_JUDGED_WORDS, recordVerdictText } from '../../shared/inspection-words';
 import { createUser, inspectionRecordInput, jobInput } from '../factories';
 import { startMoneyApp } from '../setup/money-app';
 import { certificateText } from '../setup/pdf';
@@ -58,6 +59,28 @@ describe('the review window and a record that does not conform', () => {
     expect((await builder.post(`/api/jobs/${job.id}/inspection/accept`, { version: 1, confirmedChecks: checksNotConforming(still.results as InspectionResults) })).status).toBe(200);
   });
 
+  it('when the job gave no limits, then a record with nothing to judge is not fully judged, not accepted by the window, and every screen says so in the same words', async () => {
+    // common practice (no published source): a record passes only when judged; the window accepts only a record whose every check conforms.
+    const noLimits = jobInput({ targetBore: undefined, pistonDiameter: undefined, clearanceMin: undefined, clearanceMax: undefined, maxTaper: undefined, maxOutOfRound: undefined, crosshatchMinDeg: undefined, crosshatchMaxDeg: undefined });
+    const { job, shop, builder, builderUser } = await m.jobIn('inWork', { input: noLimits, straightIntoDatabase: true, receivedNote: 'Arrived on a pallet.' });
+    const input = record({ deck: undefined, finish: undefined });
+    input.cylinders = input.cylinders!.map(({ piston: _piston, ...c }) => c);
+    const sent = await shop.post(`/api/jobs/${job.id}/inspection`, input);
+    expect(sent.status).toBe(201);
+    expect(sent.body.version.results).toMatchObject({ checks: [], verdict: 'not-fully-judged', pass: false, notJudged: [NO_LIMITS_GIVEN] });
+    const view = await builder.get(`/api/jobs/${job.id}/inspection`);
+    expect(view.body.autoAccept).toBe(false);
+    expect(recordVerdictText(view.body.versions[0].results)).toBe(NOTHING_JUDGED_WORDS);
+    expect(await pdfText(builder, job.id, 1)).toContain(NOTHING_JUDGED_WORDS);
+    const [submitted] = await m.db.select().from(inspectionRecords).where(eq(inspectionRecords.jobId, job.id));
+    await createScheduler({ db: m.db, handlers: inspectionTaskHandlers(m.server.app.workDeps) }).runDue(new Date(submitted.reviewDueAt.getTime() + 60_000));
+    expect((await m.db.select().from(jobs).where(eq(jobs.id, job.id)))[0].status).toBe('inspection_submitted');
+    const held = await m.db.select().from(mailOutbox).where(and(eq(mailOutbox.toAddress, builderUser.email), eq(mailOutbox.template, 'review_window_held')));
+    expect(held).toHaveLength(1);
+    expect(held[0].textBody).toContain(NO_LIMITS_GIVEN.what);
+    expect((await m.stripe.transfers.list({ transfer_group: job.id })).data).toHaveLength(0);
+  });
+
   it('when the window ends on a clean record, then it is still accepted by itself', async () => {
     const { job, shop, builder, builderUser } = await inWork();
     await shop.post(`/api/jobs/${job.id}/inspection`, record());
@@ -91,7 +114,7 @@ describe('the builder accepts one version, naming what does not conform', () => 
     const confirmedForV1 = checksNotConforming(v1.results);
     expect(confirmedForV1).toContain('cylinder 3 taper');
     // Meanwhile (another tab) the builder asks for changes and the shop sends version 2 with a different cylinder out.
-    expect((await builder.post(`/api/jobs/${job.id}/inspection/reject`, { reasons: 'Cylinder 3 taper is over.' })).status).toBe(200);
+    expect((await builder.post(`/api/jobs/${job.id}/inspection/reject`, { version: 1, reasons: 'Cylinder 3 taper is over.' })).status).toBe(200);
     expect((await shop.post(`/api/jobs/${job.id}/inspection`, record({}, 5))).status).toBe(201);
     const stale = await builder.post(`/api/jobs/${job.id}/inspection/accept`, { version: 1, confirmedChecks: confirmedForV1 });
     expect(stale.status).toBe(409);
@@ -107,6 +130,25 @@ describe('the builder accepts one version, naming what does not conform', () => 
     const accepted = await builder.post(`/api/jobs/${job.id}/inspection/accept`, { version: 2, confirmedChecks: checksNotConforming(v2.results) });
     expect(accepted.status).toBe(200);
     expect(accepted.body.version).toMatchObject({ version: 2, status: 'accepted' });
+  });
+
+  it('when the builder asks for changes from a dialog opened on version 1 after version 2 came in, then it is refused: changes are asked of the version read', async () => {
+    // common practice (no published source): an answer covers the document that was read, not a later one.
+    const { job, shop, builder } = await inWork();
+    await shop.post(`/api/jobs/${job.id}/inspection`, record({}, 2));
+    const bare = await builder.post(`/api/jobs/${job.id}/inspection/reject`, { reasons: 'Cylinder 3 taper is over.' });
+    expect(bare.status).toBe(400);
+    expect(bare.body.error.fields.version).toBeTruthy();
+    // Another tab asks for changes to version 1 and the shop sends version 2; the first tab's dialog, still on version 1, then sends its answer.
+    expect((await builder.post(`/api/jobs/${job.id}/inspection/reject`, { version: 1, reasons: 'Cylinder 3 taper is over.' })).status).toBe(200);
+    expect((await shop.post(`/api/jobs/${job.id}/inspection`, record())).status).toBe(201);
+    const stale = await builder.post(`/api/jobs/${job.id}/inspection/reject`, { version: 1, reasons: 'Cylinder 3 taper is over.' });
+    expect(stale.status).toBe(409);
+    expect(stale.body.error.code).toBe('version_changed');
+    expect(stale.body.error.fields.version).toContain('Version 2');
+    expect((await m.db.select().from(jobs).where(eq(jobs.id, job.id)))[0].status).toBe('inspection_submitted');
+    const waiting = await m.db.select().from(inspectionRecords).where(and(eq(inspectionRecords.jobId, job.id), eq(inspectionRecords.version, 2)));
+    expect(waiting[0]).toMatchObject({ status: 'submitted', rejectReasons: null });
   });
 
   it('when the accept names no version, then it is refused beside the field; a conforming record needs no checks named', async () => {
@@ -161,6 +203,24 @@ describe('the certificate', () => {
     expect(text).toContain('Out-of-round: two-point');
   });
 
+  it('when a version was sent back and replaced, then its certificate and the record say by which version, and the newest says nothing of the kind', async () => {
+    // common practice (no published source): a superseded document names what superseded it.
+    const { job, shop, builder } = await inWork();
+    await shop.post(`/api/jobs/${job.id}/inspection`, record({}, 2));
+    expect((await builder.post(`/api/jobs/${job.id}/inspection/reject`, { version: 1, reasons: 'Cylinder 3 taper is over.' })).status).toBe(200);
+    expect((await shop.post(`/api/jobs/${job.id}/inspection`, record())).status).toBe(201);
+    const view = await builder.get(`/api/jobs/${job.id}/inspection`);
+    expect(view.body.versions.map((v: { version: number; status: string; replacedBy: number | null }) => [v.version, v.status, v.replacedBy])).toEqual([
+      [2, 'submitted', null],
+      [1, 'rejected', 2],
+    ]);
+    const older = (await pdfText(builder, job.id, 1)).replace(/\s+/g, ' ');
+    expect(older).toContain('Status: Changes asked; replaced by version 2');
+    const newest = await pdfText(builder, job.id, 2);
+    expect(newest).toContain('Waiting for the builder’s answer');
+    expect(newest).not.toContain('replaced by');
+  });
+
   it('when the job gave no limits, then the certificate says nothing was judged (not PASS), and a decided record’s status is in words', async () => {
     const noLimits = jobInput({ targetBore: undefined, pistonDiameter: undefined, clearanceMin: undefined, clearanceMax: undefined, maxTaper: undefined, maxOutOfRound: undefined, crosshatchMinDeg: undefined, crosshatchMaxDeg: undefined });
     const funded = await m.jobIn('inWork', { input: noLimits, straightIntoDatabase: true, receivedNote: 'Arrived on a pallet.' });
@@ -168,9 +228,9 @@ describe('the certificate', () => {
     input.cylinders = input.cylinders!.map(({ piston: _piston, ...c }) => c);
     expect((await funded.shop.post(`/api/jobs/${funded.job.id}/inspection`, input)).status).toBe(201);
     const before = await pdfText(funded.builder, funded.job.id, 1);
-    expect(before).toContain('No limits given: nothing judged');
+    expect(before).toContain(NOTHING_JUDGED_WORDS);
     expect(before).not.toContain('PASS');
-    expect((await funded.builder.post(`/api/jobs/${funded.job.id}/inspection/reject`, { reasons: 'Please add the deck readings.' })).status).toBe(200);
+    expect((await funded.builder.post(`/api/jobs/${funded.job.id}/inspection/reject`, { version: 1, reasons: 'Please add the deck readings.' })).status).toBe(200);
     expect(await pdfText(funded.builder, funded.job.id, 1)).toContain('Changes asked');
   });
 });

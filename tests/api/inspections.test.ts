@@ -165,7 +165,7 @@ describe('inspection record', () => {
   it('when the builder rejects with reasons and the shop resubmits, then both versions are kept and readable', async () => {
     const { job, builder, shop } = await inWork();
     await shop.post(`/api/jobs/${job.id}/inspection`, record({}, 4));
-    const rejected = await builder.post(`/api/jobs/${job.id}/inspection/reject`, { reasons: 'Cylinder 5 is tapered; hone it again.' });
+    const rejected = await builder.post(`/api/jobs/${job.id}/inspection/reject`, { version: 1, reasons: 'Cylinder 5 is tapered; hone it again.' });
     expect(rejected.status).toBe(200);
     expect(rejected.body.version.status).toBe('rejected');
     expect((await builder.get(`/api/jobs/${job.id}`)).body.job.status).toBe('in_work');
@@ -223,7 +223,7 @@ describe('inspection record', () => {
   it('when the builder answered in time, then the window ending changes nothing', async () => {
     const { job, builder, shop } = await inWork();
     await shop.post(`/api/jobs/${job.id}/inspection`, record());
-    await builder.post(`/api/jobs/${job.id}/inspection/reject`, { reasons: 'Deck finish is too rough.' });
+    await builder.post(`/api/jobs/${job.id}/inspection/reject`, { version: 1, reasons: 'Deck finish is too rough.' });
     const [first] = await m.db.select().from(inspectionRecords).where(eq(inspectionRecords.jobId, job.id));
     await createScheduler({ db: m.db, handlers: inspectionTaskHandlers(m.server.app.workDeps) }).runDue(new Date(first.reviewDueAt.getTime() + 60_000));
     expect((await m.db.select().from(jobs).where(eq(jobs.id, job.id)))[0].status).toBe('in_work');

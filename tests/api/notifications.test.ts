@@ -87,7 +87,7 @@ describe('needs you and the notification centre', () => {
   it('when a shop’s agreed finish is near and the builder asks for changes, then the shop’s list says so', async () => {
     // One working day from the parts' arrival today: due within three calendar days whatever today's weekday (Friday → Monday).
     const { job, builder, shop } = await m.jobIn('submitted', { bid: { turnaroundDays: 1 } });
-    expect((await builder.post(`/api/jobs/${job.id}/inspection/reject`, { reasons: 'Cylinder three reads high at the bottom.' })).status).toBe(200);
+    expect((await builder.post(`/api/jobs/${job.id}/inspection/reject`, { version: 1, reasons: 'Cylinder three reads high at the bottom.' })).status).toBe(200);
     const items = await needsYouOf(shop);
     expect(items.find((item) => item.kind === 'record-rejected')).toMatchObject({ jobId: job.id });
     const due = items.find((item) => item.kind === 'jobs-coming-due');

@@ -40,7 +40,7 @@ describe('the shop’s work queue', () => {
     const shipped = await make('inWork', 'Shipped back', 25);
     const completed = await make('completed', 'Done and paid', 2);
 
-    await people.builder('POST', `/api/jobs/${redo}/inspection/reject`, { reasons: 'Cylinder three is over the taper limit.' });
+    await people.builder('POST', `/api/jobs/${redo}/inspection/reject`, { version: 1, reasons: 'Cylinder three is over the taper limit.' });
     await people.builder('PUT', `/api/jobs/${shipped}/return-address`, returnAddress);
     await people.shop('POST', `/api/jobs/${shipped}/milestones`, { kind: 'shipped', carrier: 'Ridgeline Freight', trackingNumber: 'RF 77' });
     // The awarded job was accepted 60 days ago on a 30-working-day turnaround: long overdue.

@@ -414,6 +414,10 @@ describe('the inspection record, from block received to payment released, in a r
     await expect(older.count()).resolves.toBe(1);
     await older.locator('summary').first().click();
     await older.getByText('Cylinder 3 tapers 0.0008 in; hone it straight and measure again.').waitFor();
+    await expect(older.locator('summary').first().textContent()).resolves.toMatch(/^Version 1 · changes asked · replaced by version 2 · submitted /);
+    // Version 1's web certificate says what replaced it, as its PDF does.
+    const certificate = await pageFor(builder.email, `/jobs/${job.id}/inspection/1/certificate`);
+    await expect.poll(() => certificate.getByTestId('certificate-status').textContent()).toBe('Status: Changes asked; replaced by version 2');
     await builderPage.screenshot({ path: join(artifactsDir, 'inspection-review-v2.png'), fullPage: true });
     expect(consoleErrors, consoleErrors.join('\n')).toEqual([]);
   });

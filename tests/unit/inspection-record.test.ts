@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { boreSpecFor, evaluateInspection, sizeDisagreement } from '../../shared/calc/inspection-record';
+import { NO_LIMITS_GIVEN, checksNotConforming, recordConforms } from '../../shared/calc/conformance';
 import { responseMismatch } from '../../server/lib/http/routes';
 import { inspectionResultsSchema, type InspectionInput } from '../../shared/schemas/inspection';
 import { jobInput } from '../factories';
@@ -162,6 +163,22 @@ describe('evaluateInspection: every limit judged or visibly not judged (issue 15
     expect(result.verdict).toBe('not-fully-judged');
     expect(result.pass).toBe(false);
     expect(result.notJudged).toEqual([{ section: 'finish', what: 'bore Ra', why: expect.stringMatching(/no bore finish/) }]);
+  });
+
+  it('when the job gives no limits at all, then a record with no checks is not fully judged (never a pass), says no limits were given, and does not conform', () => {
+    // common practice (no published source): a record passes only when something was judged and conformed.
+    const noLimits = jobInput({ targetBore: undefined, pistonDiameter: undefined, clearanceMin: undefined, clearanceMax: undefined, maxTaper: undefined, maxOutOfRound: undefined, crosshatchMinDeg: undefined, crosshatchMaxDeg: undefined });
+    const result = evaluateInspection(record(Array.from({ length: 8 }, () => round(4.031))), noLimits);
+    expect(result.checks).toEqual([]);
+    expect(result.verdict).toBe('not-fully-judged');
+    expect(result.pass).toBe(false);
+    expect(result.notJudged).toEqual([NO_LIMITS_GIVEN]);
+    expect(recordConforms(result)).toBe(false);
+    expect(checksNotConforming(result)).toEqual([`${NO_LIMITS_GIVEN.what} (not judged)`]);
+    // A record stored before this rule (verdict pass, no checks, nothing not judged) does not conform either.
+    const stored = { ...result, verdict: 'pass' as const, pass: true, notJudged: [] };
+    expect(recordConforms(stored)).toBe(false);
+    expect(checksNotConforming(stored)).toEqual([`${NO_LIMITS_GIVEN.what} (not judged)`]);
   });
 
   it('when a target bore and the piston with its clearance disagree, then the disagreement says the shop works to the target', () => {

@@ -156,6 +156,7 @@ describe('record form sections', () => {
       submittedAt: '2026-12-01T10:00:00.000Z',
       decidedAt: null,
       rejectReasons: null,
+      replacedBy: null,
     });
     const changes = versionChanges(version(1, 2.6431, 'fails'), version(2, 2.6411, 'conforms'));
     expect(changes.map(({ what, before, after }) => [what, before, after])).toEqual([

@@ -1,6 +1,6 @@
 import { Link, useParams } from 'react-router-dom';
 import { checkFigures, figureAgainstLimit, lengthDecimals, micrometresToMicroinches } from '@shared/calc';
-import { INSPECTION_STATUS_WORDS, methodLines, resultHeadline } from '@shared/inspection-words';
+import { methodLines, resultHeadline, versionStatusWords } from '@shared/inspection-words';
 import { Button } from '@client/components/ui/button';
 import { Notice } from '@client/components/ui/notice';
 import { RecordSections, useInspection, finishFilterWords } from '@client/features/inspections';
@@ -32,7 +32,7 @@ export function InspectionCertificateRoute() {
   const len = (value: number | undefined) => (value === undefined ? '—' : value.toFixed(decimals));
   const spec = job.data.spec;
   const shop = inspection.data.shop;
-  const headline = resultHeadline(results, spec, unit);
+  const headline = resultHeadline(results);
   // The finish section below names the roughness filter in its own words; here only the rule, the temperature and the statements.
   const method = methodLines(results).filter((m) => m.label !== 'Roughness filter');
   const notJudged = results.notJudged ?? [];
@@ -64,7 +64,7 @@ export function InspectionCertificateRoute() {
       <p data-testid="certificate-job">
         Job number {jobId} · version {record.version} · submitted {formatDateTime(record.submittedAt)}
       </p>
-      <p data-testid="certificate-status">Status: {INSPECTION_STATUS_WORDS[record.status] ?? record.status}</p>
+      <p data-testid="certificate-status">Status: {versionStatusWords(record)}</p>
       <p data-testid="certificate-parties">
         Builder: {job.data.builder.displayName} · Shop: {[shop?.name, shop?.place].filter(Boolean).join(', ') || '—'}
       </p>

@@ -20,7 +20,7 @@ export const milestoneKind = pgEnum('milestone_kind', [
   'sent_to_shop',
 ]);
 
-export const inspectionStatus = pgEnum('inspection_status', ['submitted', 'accepted', 'rejected', 'superseded']);
+export const inspectionStatus = pgEnum('inspection_status', ['submitted', 'accepted', 'rejected']);
 
 export const milestones = pgTable(
   'milestones',

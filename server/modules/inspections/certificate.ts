@@ -1,6 +1,6 @@
 import { checkFigures } from '../../../shared/calc/check-figures';
 import { figureAgainstLimit, lengthDecimals } from '../../../shared/calc/figures';
-import { INSPECTION_STATUS_WORDS, SECTION_VERDICT_WORDS, checkValueText, figureText, methodLines, resultHeadline, sectionParts } from '../../../shared/inspection-words';
+import { SECTION_VERDICT_WORDS, versionStatusWords, checkValueText, figureText, methodLines, resultHeadline, sectionParts } from '../../../shared/inspection-words';
 import type { InspectionInput, InspectionResults, InspectionVersion } from '../../../shared/schemas/inspection';
 import type { JobInput } from '../../../shared/schemas/jobs';
 import { stamp, startDocument } from '../../lib/pdf/document';
@@ -14,6 +14,8 @@ export interface CertificateData {
   shopPlace: string;
   version: number;
   status: InspectionVersion['status'];
+  /** The version that replaced this one, if any. */
+  replacedBy: number | null;
   submittedAt: Date;
   /** The job's limits, to print each figure against its limit with enough decimals. */
   spec: JobInput;
@@ -47,9 +49,9 @@ export function certificatePdf(data: CertificateData): Promise<Buffer> {
   const { doc, heading, line } = printed;
   line(`${data.jobTitle} — ${data.engineFamily}`);
   line(`Job number ${data.jobId} · version ${data.version} · submitted ${stamp(data.submittedAt)}`);
-  line(`Status: ${INSPECTION_STATUS_WORDS[data.status] ?? data.status}`);
+  line(`Status: ${versionStatusWords(data)}`);
   line(`Builder: ${data.builderName} · Shop: ${[data.shopName, data.shopPlace].filter(Boolean).join(', ')}`);
-  doc.moveDown(0.5).font('Body-Bold').fontSize(11).text(`Result: ${resultHeadline(results, data.spec, unit).text}`).font('Body').fontSize(9.5);
+  doc.moveDown(0.5).font('Body-Bold').fontSize(11).text(`Result: ${resultHeadline(results).text}`).font('Body').fontSize(9.5);
 
   heading('Conditions');
   const conditions = input.conditions as InspectionInput['conditions'] & { temperatureC?: number; temperatureF?: number };
@@ -111,7 +113,7 @@ export function certificatePdf(data: CertificateData): Promise<Buffer> {
     for (const statement of section.statements) line(statement);
   }
   heading('Checks against the job’s limits');
-  if (results.checks.length === 0) line(resultHeadline(results, data.spec, unit).tone === 'none' ? 'The job gave no limits, so nothing was judged.' : 'No limit failed.');
+  if (results.checks.length === 0) line(resultHeadline(results).tone === 'none' ? 'The job gave no limits, so nothing was judged.' : 'No limit failed.');
   const ctx = { spec: data.spec, results, unit, resolution: input.conditions.gaugeResolution };
   for (const check of results.checks) {
     const figures = checkFigures(check, ctx);

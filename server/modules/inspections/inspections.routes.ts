@@ -59,12 +59,12 @@ export const inspectionsRoutes = [
   route({
     method: 'post',
     path: '/api/jobs/:jobId/inspection/reject',
-    summary: 'Reject the record with reasons; the shop submits a new version',
+    summary: 'Ask for changes to one version of the record, with reasons (another version waiting is refused); the shop submits a new version',
     access: 'builder',
     params: jobParamsSchema,
     body: rejectInspectionSchema,
     reply: { json: inspectionVersionAnswerSchema, description: 'Rejected' },
-    handler: async ({ deps, user, params, body }) => ({ version: await rejectInspection(deps, user, params.jobId, body.reasons) }),
+    handler: async ({ deps, user, params, body }) => ({ version: await rejectInspection(deps, user, params.jobId, body) }),
   }),
   route({
     method: 'get',

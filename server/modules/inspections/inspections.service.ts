@@ -1,9 +1,9 @@
-import { and, desc, eq, sql } from 'drizzle-orm';
+import { and, asc, desc, eq, gt, sql } from 'drizzle-orm';
 import { checksNotConforming, recordConforms } from '../../../shared/calc/conformance';
 import { evaluateInspection } from '../../../shared/calc/inspection-record';
 import { boreOperationCodes, findOperation, type OperationCode } from '../../../shared/catalogue';
 import { formatDateTime } from '../../../shared/dates';
-import type { AcceptInspectionInput, InspectionInput, InspectionResults, InspectionVersion } from '../../../shared/schemas/inspection';
+import type { AcceptInspectionInput, InspectionInput, InspectionResults, InspectionVersion, RejectInspectionInput } from '../../../shared/schemas/inspection';
 import { HOT_TANK_ON_ALUMINIUM, SECTION_INPUT_KEYS, cleanMethodsFor, type InspectionSections } from '../../../shared/schemas/inspection-sections';
 import type { JobInput } from '../../../shared/schemas/jobs';
 import type { Database, Executor } from '../../db/client';
@@ -24,7 +24,8 @@ export interface InspectionDeps extends PaymentDeps {
 
 type RecordRow = typeof inspectionRecords.$inferSelect;
 
-const toVersion = (row: RecordRow): InspectionVersion => ({
+/** A version as answered; `replacedBy` is the number of the version sent after it, when there is one. */
+const toVersion = (row: RecordRow, replacedBy: number | null = null): InspectionVersion => ({
   id: row.id,
   version: row.version,
   status: row.status,
@@ -33,6 +34,7 @@ const toVersion = (row: RecordRow): InspectionVersion => ({
   submittedAt: row.submittedAt.toISOString(),
   decidedAt: row.decidedAt?.toISOString() ?? null,
   rejectReasons: row.rejectReasons,
+  replacedBy,
 });
 
 export async function inspectionView(db: Database, user: User, jobId: string) {
@@ -51,7 +53,8 @@ export async function inspectionView(db: Database, user: User, jobId: string) {
   // Who did the work, for the certificate page (the same lines as the PDF).
   const shopPlace = await placeOfShop(db, parties.job.awardedBidId);
   const shop = parties.shop ? { name: parties.shop.name, place: shopPlace } : null;
-  return { versions: rows.map(toVersion), draft, reviewDueAt: open?.reviewDueAt.toISOString() ?? null, autoAccept, reviewWindowEnded, shop };
+  // Newest first: each version was replaced by the one listed before it.
+  return { versions: rows.map((row, i) => toVersion(row, rows[i - 1]?.version ?? null)), draft, reviewDueAt: open?.reviewDueAt.toISOString() ?? null, autoAccept, reviewWindowEnded, shop };
 }
 
 /** The section of the record each kind of work has, in the input's `sections`. */
@@ -222,11 +225,7 @@ async function accept(deps: InspectionDeps, jobId: string, how: { by?: User; ans
  * and nothing is paid.
  */
 function mustBeTheVersionConfirmed(record: { version: number; results: unknown }, answer: AcceptInspectionInput) {
-  if (record.version !== answer.version) {
-    throw new AppError('version_changed', `Version ${record.version} of the record is the one waiting now, not version ${answer.version}: read it before you accept.`, 409, {
-      version: `Version ${record.version} is waiting now.`,
-    });
-  }
+  mustBeTheVersionRead(record, answer.version, 'accept');
   const confirmed = new Set(answer.confirmedChecks ?? []);
   const missing = checksNotConforming(record.results as InspectionResults).filter((name) => !confirmed.has(name));
   if (missing.length > 0) {
@@ -236,18 +235,28 @@ function mustBeTheVersionConfirmed(record: { version: number; results: unknown }
   }
 }
 
+/** The builder's answer (accept or ask for changes) covers the version they read: another version waiting now is refused (409 version_changed). */
+function mustBeTheVersionRead(record: { version: number }, version: number, verb: 'accept' | 'answer') {
+  if (record.version !== version) {
+    throw new AppError('version_changed', `Version ${record.version} of the record is the one waiting now, not version ${version}: read it before you ${verb}.`, 409, {
+      version: `Version ${record.version} is waiting now.`,
+    });
+  }
+}
+
 export async function acceptInspection(deps: InspectionDeps, user: User, jobId: string, answer: AcceptInspectionInput) {
   mustBeJobsBuilder(await partiesOf(deps.db, jobId), user, 'Only the builder who posted the job accepts its inspection record.');
   return (await accept(deps, jobId, { by: user, answer }))!;
 }
 
-export async function rejectInspection(deps: InspectionDeps, user: User, jobId: string, reasons: string) {
+export async function rejectInspection(deps: InspectionDeps, user: User, jobId: string, { version: read, reasons }: RejectInspectionInput) {
   const notices = new Notices();
   const version = await deps.db.transaction(async (tx) => {
     const parties = await partiesOf(tx, jobId, { forUpdate: true });
     mustBeJobsBuilder(parties, user, 'Only the builder who posted the job rejects its inspection record.');
     const record = await waitingRecord(tx, jobId);
     if (parties.job.status !== 'inspection_submitted' || !record) throw nothingToReview();
+    mustBeTheVersionRead(record, read, 'answer');
     const [row] = await tx
       .update(inspectionRecords)
       .set({ status: 'rejected', decidedAt: new Date(), decidedBy: user.id, decidedHow: 'builder', rejectReasons: reasons })
@@ -335,6 +344,12 @@ export async function certificateFor(db: Database, user: User, jobId: string, ve
   mustSeeWork(parties, user);
   const [row] = await db.select().from(inspectionRecords).where(and(eq(inspectionRecords.jobId, jobId), eq(inspectionRecords.version, version)));
   if (!row) throw new AppError('not_found', 'No inspection record with that version.', 404);
+  const [next] = await db
+    .select({ version: inspectionRecords.version })
+    .from(inspectionRecords)
+    .where(and(eq(inspectionRecords.jobId, jobId), gt(inspectionRecords.version, version)))
+    .orderBy(asc(inspectionRecords.version))
+    .limit(1);
   const shopPlace = await placeOfShop(db, parties.job.awardedBidId);
   return certificatePdf({
     jobTitle: parties.job.title,
@@ -345,6 +360,7 @@ export async function certificateFor(db: Database, user: User, jobId: string, ve
     shopPlace,
     version: row.version,
     status: row.status,
+    replacedBy: next?.version ?? null,
     submittedAt: row.submittedAt,
     spec: parties.job.spec as JobInput,
     input: row.input as InspectionInput,

@@ -1,6 +1,7 @@
 import { type LengthUnit, micrometresToMicroinches } from '@shared/calc';
 import type { InspectionResults as Results } from '@shared/schemas/inspection';
 import type { JobInput } from '@shared/schemas/jobs';
+import { judgedNothing } from '@shared/inspection-words';
 import { GuidanceCaution } from '@client/components/ui/guidance-caution';
 import { cn } from '@client/lib/cn';
 import { LENGTH_DECIMALS, formatChange, formatLength, formatNumber } from '@client/lib/numbers';
@@ -212,7 +213,7 @@ export function InspectionResultsView({
   return (
     <div className="flex flex-col gap-4" data-testid="inspection-results">
       <div aria-live="polite">
-        {complete && results?.verdict ? (
+        {complete && results && (results.verdict || judgedNothing(results)) ? (
           <p className="flex flex-wrap items-center gap-2 font-semibold" data-testid="inspection-verdict">
             <RecordVerdictMark results={results} />
           </p>

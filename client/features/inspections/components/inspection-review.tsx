@@ -241,9 +241,9 @@ function BuilderDecision({ job, version, reviewDueAt, autoAccept, windowEnded }:
         </Button>
       </div>
       <p className="text-sm text-ink-soft">Something wrong that a new version cannot fix? Open a dispute below.</p>
-      {/* Keyed by version: ticks given for one version never carry over to another that arrives while the dialog is open. */}
+      {/* Keyed by version: ticks and reasons given for one version never carry over to another that arrives while a dialog is open. */}
       <AcceptDialog key={version.version} job={job} version={version} open={acceptOpen} onClose={() => setAcceptOpen(false)} />
-      <RejectDialog job={job} version={version} open={rejectOpen} onClose={() => setRejectOpen(false)} />
+      <RejectDialog key={version.version} job={job} version={version} open={rejectOpen} onClose={() => setRejectOpen(false)} />
     </div>
   );
 }
@@ -252,7 +252,7 @@ function RejectDialog({ job, version, open, onClose }: { job: JobDetail; version
   const [formError, setFormError] = useState<string>();
   const form = useForm<z.input<typeof rejectInspectionSchema>, unknown, z.output<typeof rejectInspectionSchema>>({
     resolver: rejectInspectionResolver,
-    defaultValues: { reasons: '' },
+    defaultValues: { version: version.version, reasons: '' },
   });
   const reject = useRejectInspection(job.id, {
     mutationConfig: {
@@ -266,7 +266,8 @@ function RejectDialog({ job, version, open, onClose }: { job: JobDetail; version
   });
   const onSubmit = form.handleSubmit((values) => {
     setFormError(undefined);
-    reject.mutate(values);
+    // The version this dialog shows: if another one is waiting by now, the server refuses (version_changed) and says so.
+    reject.mutate({ ...values, version: version.version });
   });
   return (
     <ModalDialog open={open} onClose={onClose} title={`Ask for changes to version ${version.version}?`} description="The shop sees your reasons, redoes the work and submits a new version. The payment stays held.">
@@ -383,7 +384,8 @@ export function InspectionReview({ job, viewer }: { job: JobDetail; viewer: 'bui
                 return (
                   <details key={version.id} className="rounded-lg border border-slate-200 p-3" data-testid="older-version">
                     <summary className="cursor-pointer font-semibold">
-                      Version {version.version} · {versionStatus[version.status].label.toLowerCase()} · submitted {formatWhen(version.submittedAt)}
+                      Version {version.version} · {versionStatus[version.status].label.toLowerCase()}
+                      {version.replacedBy ? ` · replaced by version ${version.replacedBy}` : ''} · submitted {formatWhen(version.submittedAt)}
                     </summary>
                     <div className="mt-3 flex flex-col gap-4">
                       {version.rejectReasons && (

@@ -7,15 +7,8 @@
  * Records stored before verdicts existed carry none of this; they show as they did.
  */
 import type { LengthUnit } from '@shared/calc';
-import {
-  type CheckVerdict,
-  type InspectionInput,
-  type InspectionResults,
-  type LimitCheck,
-  RECORD_VERDICT_WORDS,
-  checkVerdict,
-  recordVerdict,
-} from '@shared/schemas/inspection';
+import { type CheckVerdict, type InspectionInput, type InspectionResults, type LimitCheck, checkVerdict } from '@shared/schemas/inspection';
+import { recordVerdictText, shownVerdict } from '@shared/inspection-words';
 import { cn } from '@client/lib/cn';
 import { LENGTH_DECIMALS, formatNumber } from '@client/lib/numbers';
 
@@ -74,34 +67,12 @@ const RECORD_LOOK = {
   'not-fully-judged': 'bg-caution-soft text-caution ring-caution/30',
 } as const;
 
-const count = (n: number, one: string, many: string) => `${n} ${n === 1 ? one : many}`;
-
-/** The record's verdict with how many checks fail, are not proven, or limits went unjudged. */
-export function verdictWithCounts(results: InspectionResults): string {
-  const verdict = recordVerdict(results);
-  const verdicts = results.checks.map(checkVerdict);
-  const failing = verdicts.filter((v) => v === 'fails').length;
-  const unproven = verdicts.filter((v) => v === 'not-proven').length;
-  const unjudged = results.notJudged?.length ?? 0;
-  if (!results.verdict) return RECORD_VERDICT_WORDS[verdict];
-  switch (verdict) {
-    case 'pass':
-      return 'Pass: every limit judged, every check conforms';
-    case 'fail':
-      return `Fail: ${count(failing, 'check fails', 'checks fail')}${unjudged > 0 ? `; ${count(unjudged, 'limit', 'limits')} not judged` : ''}`;
-    case 'not-fully-judged':
-      return `Not fully judged: ${count(unjudged, 'limit', 'limits')} not judged${unproven > 0 ? `; ${count(unproven, 'check', 'checks')} not proven` : ''}`;
-    case 'not-proven':
-      return `Not proven: ${count(unproven, 'check lies', 'checks lie')} within the uncertainty of the limit`;
-  }
-}
-
 /** The record's verdict as a badge; also for records stored before verdicts. */
 export function RecordVerdictMark({ results }: { results: InspectionResults }) {
-  const verdict = recordVerdict(results);
+  const verdict = shownVerdict(results);
   return (
     <span className={cn('inline-flex items-center rounded-md px-2.5 py-1 text-sm font-bold ring-1', RECORD_LOOK[verdict])} data-testid="record-verdict" data-verdict={verdict}>
-      {verdictWithCounts(results)}
+      {recordVerdictText(results)}
     </span>
   );
 }

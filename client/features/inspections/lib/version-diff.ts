@@ -2,7 +2,7 @@
  * What changed between two versions of an inspection record: each reading
  * and condition as typed, and the worked-out figures, named in words.
  */
-import { SECTION_VERDICT_WORDS } from '@shared/inspection-words';
+import { NOTHING_JUDGED_WORDS, SECTION_VERDICT_WORDS, judgedNothing } from '@shared/inspection-words';
 import { type InspectionVersion, RECORD_VERDICT_WORDS, recordVerdict } from '@shared/schemas/inspection';
 import { DEPTHS, DIRECTIONS } from '@client/lib/bore-readings';
 import { formatLength, formatNumber, lengthToText, numberToText } from '@client/lib/numbers';
@@ -74,7 +74,7 @@ function entries(version: InspectionVersion): Entry[] {
   if (results.finish) list.push(['f.ra', 'Bore Ra', `${formatNumber(results.finish.raUm, 2)} µm`]);
   if (results.crosshatch) list.push(['f.angle', 'Crosshatch included angle', `${formatNumber(results.crosshatch.includedAngleDeg, 1)}°`]);
   for (const section of results.sections ?? []) list.push([`f.section.${section.operation}`, `${section.name} (judged)`, SECTION_VERDICT_WORDS[section.verdict]]);
-  list.push(['f.result', 'Overall result', RECORD_VERDICT_WORDS[recordVerdict(results)]]);
+  list.push(['f.result', 'Overall result', judgedNothing(results) ? NOTHING_JUDGED_WORDS : RECORD_VERDICT_WORDS[recordVerdict(results)]]);
   return list;
 }
 
