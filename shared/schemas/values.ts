@@ -27,3 +27,6 @@ export const disputeReasonWords: Record<DisputeReason, string> = {
   builder_silent: 'The builder has not answered past the agreed date',
   change_order: 'Extra work is not being paid or answered',
 };
+
+/** The kinds of ledger entry: money paid in, released to the shop, the platform's fee, refunded to the builder. */
+export const ledgerKinds = ['paid_in', 'released', 'fee', 'refunded'] as const;

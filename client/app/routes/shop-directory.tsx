@@ -1,5 +1,4 @@
 import { operations } from '@shared/catalogue';
-import { shopDirectoryQuerySchema } from '@shared/schemas/shops';
 import { Button } from '@client/components/ui/button';
 import { PageTitle } from '@client/components/ui/card';
 import { FilterForm } from '@client/components/ui/filter-form';
@@ -8,27 +7,39 @@ import { Notice } from '@client/components/ui/notice';
 import { Pager } from '@client/components/ui/pager';
 import { SelectField } from '@client/components/ui/select-field';
 import { useShops, type DirectoryFilters, ShopCard } from '@client/features/shops';
+import { lazyModule } from '@client/lib/lazy-module';
 import { useSearchParamUpdater } from '@client/lib/search-params';
 
 const PAGE_SIZE = 12;
 const FILTER_KEYS = ['q', 'operation', 'country', 'region', 'takesShipped'] as const;
-const shape = shopDirectoryQuerySchema.shape;
+const CHECKED_KEYS = ['q', 'operation', 'country', 'region', 'page'] as const;
+// The API's own schema checks the filters typed into the address; it (and zod) loads only when there are some.
+const useShopSchemas = lazyModule(() => import('@shared/schemas/shops'));
 
-/** The filters in the address bar, keeping only values the API accepts (a hand-edited address never breaks the page). */
-function readFilters(params: URLSearchParams): DirectoryFilters {
+/**
+ * The filters in the address bar, keeping only values the API accepts (a hand-edited address never breaks
+ * the page); undefined while the schema that checks them is still loading.
+ */
+function useFilters(params: URLSearchParams): DirectoryFilters | undefined {
+  const given = CHECKED_KEYS.some((key) => params.get(key));
+  const schemas = useShopSchemas(given);
+  const shipped = params.get('takesShipped');
+  const takesShipped = shipped === 'true' || shipped === 'false' ? shipped : undefined;
+  if (!given) return { takesShipped, page: 1, pageSize: PAGE_SIZE };
+  if (!schemas) return undefined;
+  const shape = schemas.shopDirectoryQuerySchema.shape;
   const text = (key: 'q' | 'country' | 'region') => {
     const value = params.get(key)?.trim();
     return value && shape[key].safeParse(value).success ? value : undefined;
   };
   const operation = shape.operation.safeParse(params.get('operation') ?? undefined);
-  const shipped = params.get('takesShipped');
   const page = shape.page.safeParse(params.get('page') ?? undefined);
   return {
     q: text('q'),
     operation: operation.success ? operation.data : undefined,
     country: text('country'),
     region: text('region'),
-    takesShipped: shipped === 'true' || shipped === 'false' ? shipped : undefined,
+    takesShipped,
     page: page.success ? page.data : 1,
     pageSize: PAGE_SIZE,
   };
@@ -37,8 +48,9 @@ function readFilters(params: URLSearchParams): DirectoryFilters {
 export function ShopDirectoryRoute() {
   // A new filter value starts again at page 1; typing replaces the history entry instead of adding one per pause.
   const { params, setParams, setFilter, filtered, setPage } = useSearchParamUpdater(FILTER_KEYS);
-  const filters = readFilters(params);
-  const shops = useShops(filters);
+  const checked = useFilters(params);
+  const filters = checked ?? { page: 1, pageSize: PAGE_SIZE };
+  const shops = useShops(filters, { enabled: checked !== undefined });
 
   return (
     <div>
