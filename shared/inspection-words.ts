@@ -4,7 +4,7 @@
  */
 import { recordConforms } from './calc/conformance';
 import { RECORD_STATUS } from './glossary';
-import { boreSpecFor } from './calc/inspection-record';
+import { boreSpecFor } from './calc/bore-spec';
 import type { LengthUnit } from './calc/units';
 import type { InspectionResults, InspectionVersion, LimitCheck, NotJudged } from './schemas/inspection';
 import type { SectionFigure, SectionResult, SectionVerdict } from './schemas/inspection-sections';

@@ -21,13 +21,14 @@
 import type { CheckVerdict, CorrectedCylinder, InspectionInput, InspectionResults, LimitCheck, NotJudged, RecordVerdict } from '../schemas/inspection';
 import type { SectionFigure } from '../schemas/inspection-sections';
 import type { JobInput } from '../schemas/jobs';
-import { DEPTHS, inspectBores, type BoreSpec, type CylinderReadings } from './bore';
+import { DEPTHS, inspectBores, type CylinderReadings } from './bore';
 import { crosshatchAngle } from './crosshatch';
 import { deckFlatness } from './deck';
 import { DECISION_RULE_WORDS, judgeMax, judgeMin, judgeRange, verdictRank, type DecisionRule, type Verdict } from './decision-rule';
 import { roughness } from './roughness';
 import { formatFineLength as fmtFine, formatLength as fmt, judgeOwnSections, sectionResults } from './record-sections';
 import { EXPANSION_COEFFICIENTS, EXPANSION_SOURCE, PISTON_MATERIAL, REFERENCE_TEMPERATURE_C, fahrenheitToCelsius, toReferenceTemperature } from './thermal';
+import { boreSpecFor, DEFAULT_SIZE_TOLERANCE_IN } from './bore-spec';
 import { convertLength, type LengthUnit } from './units';
 import { boreOperationCodes } from '../catalogue';
 import { limitFor } from '../operation-limits';
@@ -57,33 +58,7 @@ type JobSpecPart = Pick<
 
 const SLACK = 1e-9;
 
-/**
- * Finished-size tolerance when the job gives none: ± 0.0005 in on every
- * reading, common practice (no published source) — the same figure a freshly
- * machined bore holds for taper and out-of-round, and half of a typical
- * 0.001 in clearance band, so a bore at the edge of it still leaves the
- * clearance in range when the target is the band's middle.
- */
-export const DEFAULT_SIZE_TOLERANCE_IN = 0.0005;
-
-/** The job's bore limits, in the record's unit. Without a target bore, the piston plus the middle of the clearance range is the target. */
-export function boreSpecFor(spec: JobSpecPart, unit: LengthUnit): BoreSpec & { toleranceIsDefault: boolean } {
-  const to = (value: number | undefined) => (value === undefined ? undefined : convertLength(value, spec.unit, unit));
-  const target =
-    spec.targetBore ??
-    (spec.pistonDiameter !== undefined && spec.clearanceMin !== undefined && spec.clearanceMax !== undefined
-      ? spec.pistonDiameter + (spec.clearanceMin + spec.clearanceMax) / 2
-      : undefined);
-  return {
-    targetBore: to(target),
-    targetTolerance: spec.boreSizeTolerance !== undefined ? to(spec.boreSizeTolerance) : convertLength(DEFAULT_SIZE_TOLERANCE_IN, 'in', unit),
-    toleranceIsDefault: spec.boreSizeTolerance === undefined,
-    clearanceMin: to(spec.clearanceMin),
-    clearanceMax: to(spec.clearanceMax),
-    maxTaper: to(spec.maxTaper),
-    maxOutOfRound: to(spec.maxOutOfRound),
-  };
-}
+export { DEFAULT_SIZE_TOLERANCE_IN, boreSpecFor };
 
 /**
  * When the job gives a target bore and also a piston with a clearance range,

@@ -3,7 +3,7 @@
 export { useInspection } from './api/inspections';
 export { InspectionEntryForm } from './components/inspection-entry-form';
 export type { InspectionEntryFormProps } from './components/inspection-entry-form';
-export { finishFilterWords } from './components/inspection-results';
+export { finishFilterWords } from './lib/finish-filter-words';
 export { RecordSections } from './components/record-section-block';
 export { draftSavedAt, emptyRecord, fromDraft, fromInput } from './lib/record-form';
 export { InspectionReview } from './components/lazy-panels';
