@@ -7,6 +7,9 @@ import type { JobInput } from '../schemas/jobs';
 import type { BoreSpec } from './bore';
 import { convertLength, type LengthUnit } from './units';
 
+/** How far apart two lengths may be and still count as equal (floating-point rounding). */
+export const SLACK = 1e-9;
+
 type BoreSpecPart = Pick<JobInput, 'unit' | 'targetBore' | 'boreSizeTolerance' | 'pistonDiameter' | 'clearanceMin' | 'clearanceMax' | 'maxTaper' | 'maxOutOfRound'>;
 
 /**
@@ -35,4 +38,20 @@ export function boreSpecFor(spec: BoreSpecPart, unit: LengthUnit): BoreSpec & { 
     maxTaper: to(spec.maxTaper),
     maxOutOfRound: to(spec.maxOutOfRound),
   };
+}
+
+/**
+ * When the job gives a target bore and also a piston with a clearance range,
+ * and the target lies outside piston + [minimum, maximum], the two disagree:
+ * the shop works to the target bore (it is what `boreSpecFor` uses).
+ */
+export function sizeDisagreement(
+  spec: Pick<JobInput, 'targetBore' | 'pistonDiameter' | 'clearanceMin' | 'clearanceMax'>,
+): { worksTo: 'target'; target: number; fromPistonMin: number; fromPistonMax: number } | undefined {
+  const { targetBore, pistonDiameter, clearanceMin, clearanceMax } = spec;
+  if (targetBore === undefined || pistonDiameter === undefined || clearanceMin === undefined || clearanceMax === undefined) return undefined;
+  const fromPistonMin = pistonDiameter + clearanceMin;
+  const fromPistonMax = pistonDiameter + clearanceMax;
+  if (targetBore >= fromPistonMin - SLACK && targetBore <= fromPistonMax + SLACK) return undefined;
+  return { worksTo: 'target', target: targetBore, fromPistonMin, fromPistonMax };
 }

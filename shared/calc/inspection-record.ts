@@ -28,7 +28,7 @@ import { DECISION_RULE_WORDS, judgeMax, judgeMin, judgeRange, verdictRank, type 
 import { roughness } from './roughness';
 import { formatFineLength as fmtFine, formatLength as fmt, judgeOwnSections, sectionResults } from './record-sections';
 import { EXPANSION_COEFFICIENTS, EXPANSION_SOURCE, PISTON_MATERIAL, REFERENCE_TEMPERATURE_C, fahrenheitToCelsius, toReferenceTemperature } from './thermal';
-import { boreSpecFor, DEFAULT_SIZE_TOLERANCE_IN } from './bore-spec';
+import { SLACK, boreSpecFor, DEFAULT_SIZE_TOLERANCE_IN, sizeDisagreement } from './bore-spec';
 import { convertLength, type LengthUnit } from './units';
 import { boreOperationCodes } from '../catalogue';
 import { limitFor } from '../operation-limits';
@@ -56,25 +56,9 @@ type JobSpecPart = Pick<
 > &
   Partial<Pick<JobInput, 'limits' | 'operations'>>;
 
-const SLACK = 1e-9;
 
-export { DEFAULT_SIZE_TOLERANCE_IN, boreSpecFor };
+export { DEFAULT_SIZE_TOLERANCE_IN, boreSpecFor, sizeDisagreement };
 
-/**
- * When the job gives a target bore and also a piston with a clearance range,
- * and the target lies outside piston + [minimum, maximum], the two disagree:
- * the shop works to the target bore (it is what `boreSpecFor` uses).
- */
-export function sizeDisagreement(
-  spec: Pick<JobInput, 'targetBore' | 'pistonDiameter' | 'clearanceMin' | 'clearanceMax'>,
-): { worksTo: 'target'; target: number; fromPistonMin: number; fromPistonMax: number } | undefined {
-  const { targetBore, pistonDiameter, clearanceMin, clearanceMax } = spec;
-  if (targetBore === undefined || pistonDiameter === undefined || clearanceMin === undefined || clearanceMax === undefined) return undefined;
-  const fromPistonMin = pistonDiameter + clearanceMin;
-  const fromPistonMax = pistonDiameter + clearanceMax;
-  if (targetBore >= fromPistonMin - SLACK && targetBore <= fromPistonMax + SLACK) return undefined;
-  return { worksTo: 'target', target: targetBore, fromPistonMin, fromPistonMax };
-}
 
 
 /** The measured temperature in °C, whichever scale it was entered in. */

@@ -3,7 +3,6 @@
 // its own, so the server and the tests import them from there as before.
 
 import type { CheckVerdict, InspectionResults, LimitCheck, RecordVerdict } from './inspection';
-import type { blockMaterials } from './jobs';
 
 export const MAX_MESSAGE_LENGTH = 4000;
 
@@ -33,6 +32,11 @@ export const disputeReasonWords: Record<DisputeReason, string> = {
 
 /** The kinds of ledger entry: money paid in, released to the shop, the platform's fee, refunded to the builder. */
 export const ledgerKinds = ['paid_in', 'released', 'fee', 'refunded'] as const;
+
+export const blockMaterials = ['cast-iron', 'aluminium'] as const;
+export const engineLayouts = ['inline', 'v', 'flat', 'other'] as const;
+export const pistonTypes = ['cast', 'hypereutectic', 'forged'] as const;
+export const logisticsOptions = ['ship', 'drop-off'] as const;
 
 export const cleanMethods = ['hot-tank', 'thermal-oven', 'spray-wash', 'other'] as const;
 export type CleanMethod = (typeof cleanMethods)[number];
