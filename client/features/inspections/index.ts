@@ -3,4 +3,5 @@
 export { useInspection } from './api/inspections';
 export { finishFilterWords } from './lib/finish-filter-words';
 export { RecordSections } from './components/record-section-block';
-export { InspectionEntry, InspectionReview } from './components/lazy-panels';
+export { InspectionEntry } from './components/inspection-entry-panel';
+export { InspectionReview } from './components/lazy-panels';
