@@ -82,7 +82,8 @@ export function AdminLedgerRoute() {
       <FilterForm label="Filter the ledger" className="grid sm:grid-cols-2 lg:grid-cols-5">
         <SelectField
           label="Kind"
-          value={filters.kind ?? ''}
+          // While the filters are being checked, the choice shows what the address says (it would jump back otherwise).
+          value={(checking ? params.get('kind') : filters.kind) ?? ''}
           onChange={(event) => setFilter('kind', event.target.value)}
           options={[{ value: '', label: 'Every kind' }, ...ledgerKinds.map((kind) => ({ value: kind, label: ledgerKindWords[kind] }))]}
         />

@@ -49,8 +49,9 @@ export function ShopDirectoryRoute() {
   // A new filter value starts again at page 1; typing replaces the history entry instead of adding one per pause.
   const { params, setParams, setFilter, filtered, setPage } = useSearchParamUpdater(FILTER_KEYS);
   const checked = useFilters(params);
-  const filters = checked ?? { page: 1, pageSize: PAGE_SIZE };
-  const shops = useShops(filters, { enabled: checked !== undefined });
+  const shops = useShops(checked ?? { page: 1, pageSize: PAGE_SIZE }, { enabled: checked !== undefined });
+  // While the filters are being checked, the choices show what the address says (they would jump back otherwise).
+  const shown = (key: 'operation' | 'takesShipped') => (checked ? checked[key] : params.get(key)) ?? '';
 
   return (
     <div>
@@ -68,7 +69,7 @@ export function ShopDirectoryRoute() {
         />
         <SelectField
           label="Work"
-          value={filters.operation ?? ''}
+          value={shown('operation')}
           onChange={(event) => setFilter('operation', event.target.value)}
           options={[{ value: '', label: 'Any work' }, ...operations.map((op) => ({ value: op.code, label: op.name }))]}
         />
@@ -80,7 +81,7 @@ export function ShopDirectoryRoute() {
         />
         <SelectField
           label="Shipped parts"
-          value={filters.takesShipped ?? ''}
+          value={shown('takesShipped')}
           onChange={(event) => setFilter('takesShipped', event.target.value)}
           options={[
             { value: '', label: 'Either' },
