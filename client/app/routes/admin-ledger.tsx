@@ -14,7 +14,8 @@ import { toSearch, useSearchParamUpdater } from '@client/lib/search-params';
 const PAGE_SIZE = 50;
 const FILTER_KEYS = ['kind', 'jobId', 'from', 'to'] as const;
 type FilterKey = (typeof FILTER_KEYS)[number];
-// The API's own schema checks the filters typed into the address; it (and zod) loads only when there are some.
+// The API's own schema checks the filters in the address. It (with zod) loads after the first paint, so it is
+// there before anyone picks a filter (the results never blink out); only a page opened with filters waits for it.
 const useAdminSchemas = lazyModule(() => import('@shared/schemas/admin'));
 
 /**
@@ -28,7 +29,7 @@ function useFilters(params: URLSearchParams) {
     const raw = params.get(key)?.trim();
     return raw ? [[key, raw] as const] : [];
   });
-  const schemas = useAdminSchemas(given.length > 0);
+  const schemas = useAdminSchemas(true);
   const page = Math.max(1, Number.parseInt(params.get('page') ?? '1', 10) || 1);
   if (given.length === 0) return { filters, errors, page, checking: false };
   if (!schemas) return { filters, errors, page, checking: true };

@@ -31,7 +31,8 @@ const moneyHistoryQuery = (offset: number, period: MoneyPeriod) =>
 
 const PERIOD_KEYS = ['from', 'to'] as const;
 
-// The API's own schema checks a period typed into the address; it (and zod) loads only when there is one.
+// The API's own schema checks the period in the address. It (with zod) loads after the first paint, so it is
+// there before anyone picks a day (the results never blink out); only a page opened with a period waits for it.
 const usePaymentSchemas = lazyModule(() => import('@shared/schemas/payments'));
 type PeriodErrors = Partial<Record<'from' | 'to', string>>;
 
@@ -42,7 +43,7 @@ type PeriodErrors = Partial<Record<'from' | 'to', string>>;
 function usePeriod(params: URLSearchParams): { period: MoneyPeriod; errors: PeriodErrors; checking: boolean } {
   const raw = Object.fromEntries(PERIOD_KEYS.flatMap((key) => (params.get(key) ? [[key, params.get(key)]] : [])));
   const given = Object.keys(raw).length > 0;
-  const schemas = usePaymentSchemas(given);
+  const schemas = usePaymentSchemas(true);
   if (!given) return { period: {}, errors: {}, checking: false };
   if (!schemas) return { period: {}, errors: {}, checking: true };
   const parsed = schemas.moneyPeriodSchema.safeParse(raw);

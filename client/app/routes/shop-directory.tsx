@@ -13,7 +13,8 @@ import { useSearchParamUpdater } from '@client/lib/search-params';
 const PAGE_SIZE = 12;
 const FILTER_KEYS = ['q', 'operation', 'country', 'region', 'takesShipped'] as const;
 const CHECKED_KEYS = ['q', 'operation', 'country', 'region', 'page'] as const;
-// The API's own schema checks the filters typed into the address; it (and zod) loads only when there are some.
+// The API's own schema checks the filters in the address. It (with zod) loads after the first paint, so it is
+// there before anyone picks a filter (the results never blink out); only a page opened with filters waits for it.
 const useShopSchemas = lazyModule(() => import('@shared/schemas/shops'));
 
 /**
@@ -22,7 +23,7 @@ const useShopSchemas = lazyModule(() => import('@shared/schemas/shops'));
  */
 function useFilters(params: URLSearchParams): DirectoryFilters | undefined {
   const given = CHECKED_KEYS.some((key) => params.get(key));
-  const schemas = useShopSchemas(given);
+  const schemas = useShopSchemas(true);
   const shipped = params.get('takesShipped');
   const takesShipped = shipped === 'true' || shipped === 'false' ? shipped : undefined;
   if (!given) return { takesShipped, page: 1, pageSize: PAGE_SIZE };
