@@ -4,7 +4,8 @@
  */
 import { NO_LIMITS_GIVEN, recordConforms } from './calc/conformance';
 import { RECORD_STATUS } from './glossary';
-import { RECORD_VERDICT_WORDS, checkVerdict, recordVerdict, type InspectionResults, type InspectionVersion, type LimitCheck, type NotJudged, type RecordVerdict } from './schemas/inspection';
+import type { InspectionResults, InspectionVersion, LimitCheck, NotJudged, RecordVerdict } from './schemas/inspection';
+import { RECORD_VERDICT_WORDS, checkVerdict, recordVerdict } from './schemas/values';
 import type { SectionFigure, SectionResult, SectionVerdict } from './schemas/inspection-sections';
 
 /** Every status a version can have, in words (the glossary's names). */

@@ -27,18 +27,43 @@ export function usePanelsLoading(): number {
  * that shows it only sometimes, or below the fold, does not fetch it first.
  * `placeholder` holds its place meanwhile; give it the panel's size when the
  * panel is sure to show, and leave it empty when the panel may render nothing.
- * Making one has no side effects, so a feature can export one freely.
+ * Making one has no side effects, so a feature can export one freely. `preload()`
+ * starts the load before the panel renders (say, from an effect while the page
+ * still waits for the answers the panel needs), so the two arrive together.
  *
  *   export const DisputePanel = lazyPanel(() => import('./dispute-panel').then((m) => m.DisputePanel));
  */
 /*#__NO_SIDE_EFFECTS__*/
-export function lazyPanel<P extends object>(load: () => Promise<ComponentType<P>>, placeholder: ReactNode = null): (props: P) => ReactNode {
-  const Panel = lazy(() => tracked(load()).then((component) => ({ default: component })));
-  return function LazyPanel(props: P) {
+export function lazyPanel<P extends object>(
+  load: () => Promise<ComponentType<P>>,
+  placeholder: ReactNode = null,
+): ((props: P) => ReactNode) & { preload: () => void } {
+  let loading: Promise<ComponentType<P>> | undefined;
+  const start = () => (loading ??= tracked(load()));
+  const Panel = lazy(() => start().then((component) => ({ default: component })));
+  function LazyPanel(props: P) {
     return (
       <Suspense fallback={placeholder}>
         <Panel {...props} />
       </Suspense>
     );
-  };
+  }
+  return Object.assign(LazyPanel, {
+    preload: () => {
+      // A failed preload is left for the panel's own load to report when it renders.
+      start().catch(() => undefined);
+    },
+  });
+}
+
+/**
+ * The placeholder of a page's main part that loads as a lazy panel (a form, the calculator's cards):
+ * at least a screen tall, so the footer stays out of view and nothing below moves when the part comes.
+ */
+export function MainPartPlaceholder({ children }: { children: ReactNode }) {
+  return (
+    <p className="min-h-screen text-ink-soft" aria-busy="true">
+      {children}
+    </p>
+  );
 }

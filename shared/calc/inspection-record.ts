@@ -22,13 +22,14 @@
 import type { CheckVerdict, CorrectedCylinder, InspectionInput, InspectionResults, LimitCheck, NotJudged, RecordVerdict } from '../schemas/inspection';
 import type { SectionFigure } from '../schemas/inspection-sections';
 import type { JobInput } from '../schemas/jobs';
-import { DEPTHS, inspectBores, type BoreSpec, type CylinderReadings } from './bore';
+import { DEPTHS, inspectBores, type CylinderReadings } from './bore';
 import { crosshatchAngle } from './crosshatch';
 import { deckFlatness } from './deck';
 import { DECISION_RULE_WORDS, judgeMax, judgeMin, judgeRange, verdictRank, type DecisionRule, type Verdict } from './decision-rule';
 import { roughness } from './roughness';
 import { formatFineLength as fmtFine, formatLength as fmt, judgeOwnSections, sectionResults } from './record-sections';
 import { EXPANSION_COEFFICIENTS, EXPANSION_SOURCE, PISTON_MATERIAL, REFERENCE_TEMPERATURE_C, fahrenheitToCelsius, toReferenceTemperature } from './thermal';
+import { SLACK, boreSpecFor, DEFAULT_SIZE_TOLERANCE_IN, sizeDisagreement } from './bore-spec';
 import { convertLength, type LengthUnit } from './units';
 import { NO_LIMITS_GIVEN } from './conformance';
 import { boreOperationCodes } from '../catalogue';
@@ -57,51 +58,9 @@ type JobSpecPart = Pick<
 > &
   Partial<Pick<JobInput, 'limits' | 'operations'>>;
 
-const SLACK = 1e-9;
 
-/**
- * Finished-size tolerance when the job gives none: ± 0.0005 in on every
- * reading, common practice (no published source) — the same figure a freshly
- * machined bore holds for taper and out-of-round, and half of a typical
- * 0.001 in clearance band, so a bore at the edge of it still leaves the
- * clearance in range when the target is the band's middle.
- */
-export const DEFAULT_SIZE_TOLERANCE_IN = 0.0005;
+export { DEFAULT_SIZE_TOLERANCE_IN, boreSpecFor, sizeDisagreement };
 
-/** The job's bore limits, in the record's unit. Without a target bore, the piston plus the middle of the clearance range is the target. */
-export function boreSpecFor(spec: JobSpecPart, unit: LengthUnit): BoreSpec & { toleranceIsDefault: boolean } {
-  const to = (value: number | undefined) => (value === undefined ? undefined : convertLength(value, spec.unit, unit));
-  const target =
-    spec.targetBore ??
-    (spec.pistonDiameter !== undefined && spec.clearanceMin !== undefined && spec.clearanceMax !== undefined
-      ? spec.pistonDiameter + (spec.clearanceMin + spec.clearanceMax) / 2
-      : undefined);
-  return {
-    targetBore: to(target),
-    targetTolerance: spec.boreSizeTolerance !== undefined ? to(spec.boreSizeTolerance) : convertLength(DEFAULT_SIZE_TOLERANCE_IN, 'in', unit),
-    toleranceIsDefault: spec.boreSizeTolerance === undefined,
-    clearanceMin: to(spec.clearanceMin),
-    clearanceMax: to(spec.clearanceMax),
-    maxTaper: to(spec.maxTaper),
-    maxOutOfRound: to(spec.maxOutOfRound),
-  };
-}
-
-/**
- * When the job gives a target bore and also a piston with a clearance range,
- * and the target lies outside piston + [minimum, maximum], the two disagree:
- * the shop works to the target bore (it is what `boreSpecFor` uses).
- */
-export function sizeDisagreement(
-  spec: Pick<JobInput, 'targetBore' | 'pistonDiameter' | 'clearanceMin' | 'clearanceMax'>,
-): { worksTo: 'target'; target: number; fromPistonMin: number; fromPistonMax: number } | undefined {
-  const { targetBore, pistonDiameter, clearanceMin, clearanceMax } = spec;
-  if (targetBore === undefined || pistonDiameter === undefined || clearanceMin === undefined || clearanceMax === undefined) return undefined;
-  const fromPistonMin = pistonDiameter + clearanceMin;
-  const fromPistonMax = pistonDiameter + clearanceMax;
-  if (targetBore >= fromPistonMin - SLACK && targetBore <= fromPistonMax + SLACK) return undefined;
-  return { worksTo: 'target', target: targetBore, fromPistonMin, fromPistonMax };
-}
 
 
 /** The measured temperature in °C, whichever scale it was entered in. */

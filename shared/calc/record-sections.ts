@@ -16,7 +16,8 @@
 import { operations, type OperationCode } from '../catalogue';
 import { CRANK_UNDERSIZE_STEPS, forceUnitFor, limitFor, operationLimitFields, type LimitField, type LimitGroup, type OperationLimits } from '../operation-limits';
 import type { LimitCheck, NotJudged } from '../schemas/inspection';
-import { HOT_TANK_ON_ALUMINIUM, cleanMethodsFor, type InspectionSections, type JournalReadings, type SectionFigure, type SectionResult, type SectionVerdict } from '../schemas/inspection-sections';
+import type { InspectionSections, JournalReadings, SectionFigure, SectionResult, SectionVerdict } from '../schemas/inspection-sections';
+import { HOT_TANK_ON_ALUMINIUM, cleanMethodsFor } from '../schemas/values';
 import { balanceTolerance, bobWeight } from './balance';
 import { deckFlatnessLimit, type DeckMaterial } from './deck';
 import { judgeMax, judgeMin, judgeRange, verdictRank, type DecisionRule, type Verdict } from './decision-rule';

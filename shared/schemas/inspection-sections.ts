@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { BALANCE_GRADE_CHOICES } from '../operation-limits';
-import type { blockMaterials } from './jobs';
+import { type CleanMethod, HOT_TANK_ON_ALUMINIUM, SECTION_INPUT_KEYS, cleanMethods, cleanMethodsFor, crackTestMethods } from './values';
 
 /**
  * The inspection record's sections beyond the bore grid, deck, finish and
@@ -10,6 +10,8 @@ import type { blockMaterials } from './jobs';
  * inches, N for millimetres), unbalance in g·mm. Only raw readings come in; the
  * server works out every figure and judges it.
  */
+
+export { type CleanMethod, HOT_TANK_ON_ALUMINIUM, cleanMethods, cleanMethodsFor, crackTestMethods };
 
 const size = (label: string) =>
   z.number({ error: `${label}: enter a number.` }).positive(`${label} must be greater than zero.`).max(10_000, `${label} must be at most 10,000.`);
@@ -25,20 +27,6 @@ export const straightedgeReadingSchema = z.object({
 });
 export type StraightedgeReading = z.infer<typeof straightedgeReadingSchema>;
 
-export const cleanMethods = ['hot-tank', 'thermal-oven', 'spray-wash', 'other'] as const;
-export type CleanMethod = (typeof cleanMethods)[number];
-
-/**
- * The cleaning methods suited to the job's metal (its block and heads; null
- * when it sends neither, e.g. a crankshaft alone). A caustic hot tank attacks
- * aluminium (common practice), so it is offered for iron and steel only.
- */
-export function cleanMethodsFor(material: (typeof blockMaterials)[number] | null | undefined): readonly CleanMethod[] {
-  return material === 'aluminium' ? cleanMethods.filter((m) => m !== 'hot-tank') : cleanMethods;
-}
-
-export const HOT_TANK_ON_ALUMINIUM = 'A caustic hot tank attacks aluminium: clean an aluminium part in a thermal oven or a spray wash.';
-export const crackTestMethods = ['magnetic-particle', 'dye-penetrant', 'pressure-test'] as const;
 
 export const cleanSectionSchema = z.object({
   method: z.enum(cleanMethods, { error: 'Choose how the part was cleaned.' }),
@@ -167,18 +155,7 @@ export const balanceSectionSchema = z.object({
     .refine((rows) => new Set(rows.map((r) => r.plane)).size === rows.length, 'Each plane once, please.'),
 });
 
-/** The section of the input each kind of work fills with its own readings (honing's stones are shared by every kind of hone: see the entry form). */
-export const SECTION_INPUT_KEYS = {
-  clean: 'clean',
-  'crack-test': 'crackTest',
-  'line-hone': 'lineHone',
-  'cam-bore': 'camBore',
-  sleeve: 'sleeve',
-  'head-resurface': 'headResurface',
-  'valve-job': 'valveJob',
-  'crank-grind': 'crankGrind',
-  balance: 'balance',
-} as const;
+export { SECTION_INPUT_KEYS };
 
 /** Every section is optional in the schema; the server says which the job's work needs. */
 export const inspectionSectionsSchema = z.object({

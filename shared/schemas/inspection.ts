@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { MAX_PHOTOS_PER_MILESTONE, milestoneKinds } from './values';
 import {
   appliedFilterSchema,
   boreInspectionAnswerSchema,
@@ -224,18 +225,8 @@ export const inspectionResultsSchema = z.object({
 });
 export type InspectionResults = z.infer<typeof inspectionResultsSchema>;
 
-/** A check's verdict, also for records stored before verdicts existed. */
-export const checkVerdict = (check: LimitCheck): CheckVerdict => check.verdict ?? (check.pass ? 'conforms' : 'fails');
+export { RECORD_VERDICT_WORDS, checkVerdict, recordVerdict } from './values';
 
-/** The record's verdict, also for records stored before verdicts existed. */
-export const recordVerdict = (results: InspectionResults): RecordVerdict => results.verdict ?? (results.pass ? 'pass' : 'fail');
-
-export const RECORD_VERDICT_WORDS: Record<RecordVerdict, string> = {
-  pass: 'Pass: every limit judged, every check conforms',
-  fail: 'Fail: at least one check fails',
-  'not-fully-judged': 'Not fully judged: at least one limit could not be judged',
-  'not-proven': 'Not proven: no check fails, but at least one lies within the measurement uncertainty of its limit',
-};
 
 /** The readings as stored: the input schema without its trimming and default (a stored record always has both). */
 const storedInputSchema = inspectionInputSchema.extend({ signedOffBy: z.string(), notes: z.string() });
@@ -278,11 +269,8 @@ export type InspectionVersionAnswer = z.infer<typeof inspectionVersionAnswerSche
 export const draftSavedSchema = z.object({ savedAt: z.iso.datetime() });
 export type DraftSaved = z.infer<typeof draftSavedSchema>;
 
-/** `block_received` reads "Parts received" (the code stays for stored rows); `sent_to_shop` is the builder's, logged through its own route. */
-export const milestoneKinds = ['block_received', 'teardown', 'operation_started', 'operation_finished', 'inspection_submitted', 'ready_for_pickup', 'shipped', 'delivered', 'note', 'sent_to_shop'] as const;
 
-/** The most photos one milestone may carry. */
-export const MAX_PHOTOS_PER_MILESTONE = 4;
+export { MAX_PHOTOS_PER_MILESTONE, milestoneKinds };
 
 export const milestoneInputSchema = z
   .object({

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { blockMaterials, engineLayouts, logisticsOptions, pistonTypes } from './values';
 import { boreOperationCodes, findOperation, partsAllow, partsNeededWords, partsOfJob, partsSent } from '../catalogue';
 import { BALANCE_GRADE_CHOICES, limitGroupOperation, limitGroups, operationLimitFields, type LimitField, type OperationLimits } from '../operation-limits';
 import { isoDateSchema, operationCodeSchema, queryInt, regionSchema, uuidSchema } from './common';
@@ -8,10 +9,7 @@ import { jobStatuses } from './values';
 export { jobStatuses, type JobStatus } from './values';
 
 
-export const blockMaterials = ['cast-iron', 'aluminium'] as const;
-export const engineLayouts = ['inline', 'v', 'flat', 'other'] as const;
-export const pistonTypes = ['cast', 'hypereutectic', 'forged'] as const;
-export const logisticsOptions = ['ship', 'drop-off'] as const;
+export { blockMaterials, engineLayouts, logisticsOptions, pistonTypes };
 
 /** Today as YYYY-MM-DD by the UTC calendar, the same in the browser and on the server. */
 const utcDay = (date: Date) => date.toISOString().slice(0, 10);

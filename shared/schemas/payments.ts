@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { ledgerKinds } from './values';
 import { centsSchema, queryInt } from './common';
 
 export const changeOrderInputSchema = z.object({
@@ -16,9 +17,7 @@ export type ProviderLink = z.infer<typeof providerLinkSchema>;
 /** What the webhook answers the provider: received, and whether the event had been applied before. */
 export const webhookReceiptSchema = z.object({ received: z.literal(true), duplicate: z.literal(true).optional() });
 
-/** The kinds of ledger entry: money paid in, released to the shop, the platform's fee, refunded to the builder. */
-/** What a ledger entry records: money in, to the shop, the platform's fee, back to the builder. */
-export const ledgerKinds = ['paid_in', 'released', 'fee', 'refunded'] as const;
+export { ledgerKinds };
 export const ledgerEntryKindSchema = z.enum(ledgerKinds);
 export type LedgerEntryKind = z.infer<typeof ledgerEntryKindSchema>;
 

@@ -1,5 +1,5 @@
 import { Link } from 'react-router-dom';
-import { ledgerKinds, ledgerQuerySchema } from '@shared/schemas/admin';
+import { ledgerKinds } from '@shared/schemas/values';
 import { PageTitle } from '@client/components/ui/card';
 import { ClearFiltersButton, FilterForm } from '@client/components/ui/filter-form';
 import { DebouncedTextField } from '@client/components/ui/debounced-text-field';
@@ -8,27 +8,38 @@ import { Pager } from '@client/components/ui/pager';
 import { SelectField } from '@client/components/ui/select-field';
 import { TextField } from '@client/components/ui/text-field';
 import { ledgerCsvUrl, useLedger, type LedgerFilters, ledgerKindWords, LedgerTable, LedgerTotals } from '@client/features/admin';
+import { lazyModule } from '@client/lib/lazy-module';
 import { toSearch, useSearchParamUpdater } from '@client/lib/search-params';
 
 const PAGE_SIZE = 50;
 const FILTER_KEYS = ['kind', 'jobId', 'from', 'to'] as const;
 type FilterKey = (typeof FILTER_KEYS)[number];
-const shape = ledgerQuerySchema.shape;
+// The API's own schema checks the filters in the address. It (with zod) loads after the first paint, so it is
+// there before anyone picks a filter (the results never blink out); only a page opened with filters waits for it.
+const useAdminSchemas = lazyModule(() => import('@shared/schemas/admin'));
 
-/** The filters from the address bar; a value the API would refuse is kept aside with its message. */
-function readFilters(params: URLSearchParams) {
+/**
+ * The filters from the address bar; a value the API would refuse is kept aside with its message.
+ * `checking` while the schema is still loading (there is nothing to check without filters).
+ */
+function useFilters(params: URLSearchParams) {
   const filters: LedgerFilters = {};
   const errors: Partial<Record<FilterKey, string>> = {};
-  for (const key of FILTER_KEYS) {
+  const given = FILTER_KEYS.flatMap((key) => {
     const raw = params.get(key)?.trim();
-    if (!raw) continue;
-    const parsed = shape[key].safeParse(raw);
+    return raw ? [[key, raw] as const] : [];
+  });
+  const schemas = useAdminSchemas(true);
+  const page = Math.max(1, Number.parseInt(params.get('page') ?? '1', 10) || 1);
+  if (given.length === 0) return { filters, errors, page, checking: false };
+  if (!schemas) return { filters, errors, page, checking: true };
+  for (const [key, raw] of given) {
+    const parsed = schemas.ledgerQuerySchema.shape[key].safeParse(raw);
     if (parsed.success) Object.assign(filters, { [key]: parsed.data });
     else errors[key] = parsed.error.issues[0]?.message ?? 'That value is not valid.';
   }
   if (filters.from && filters.to && filters.from > filters.to) errors.to = 'The end date is before the start date.';
-  const page = Math.max(1, Number.parseInt(params.get('page') ?? '1', 10) || 1);
-  return { filters, errors, page };
+  return { filters, errors, page, checking: false };
 }
 
 function LedgerResults({ filters, page, setPage }: { filters: LedgerFilters; page: number; setPage: (page: number) => void }) {
@@ -63,7 +74,7 @@ function LedgerResults({ filters, page, setPage }: { filters: LedgerFilters; pag
 
 export function AdminLedgerRoute() {
   const { params, setFilter, filtered, clearFilters, setPage } = useSearchParamUpdater(FILTER_KEYS);
-  const { filters, errors, page } = readFilters(params);
+  const { filters, errors, page, checking } = useFilters(params);
   const valid = Object.keys(errors).length === 0;
 
   return (
@@ -72,7 +83,8 @@ export function AdminLedgerRoute() {
       <FilterForm label="Filter the ledger" className="grid sm:grid-cols-2 lg:grid-cols-5">
         <SelectField
           label="Kind"
-          value={filters.kind ?? ''}
+          // While the filters are being checked, the choice shows what the address says (it would jump back otherwise).
+          value={(checking ? params.get('kind') : filters.kind) ?? ''}
           onChange={(event) => setFilter('kind', event.target.value)}
           options={[{ value: '', label: 'Every kind' }, ...ledgerKinds.map((kind) => ({ value: kind, label: ledgerKindWords[kind] }))]}
         />
@@ -94,13 +106,16 @@ export function AdminLedgerRoute() {
           <a
             href={ledgerCsvUrl(filters)}
             download
-            className="inline-flex min-h-11 items-center rounded-lg bg-paper-raised px-4 py-2 font-semibold text-slate-800 ring-1 ring-inset ring-slate-300 hover:bg-slate-50"
+            // Kept in place (hidden) while the filters are being checked, so nothing moves when they are.
+            className={`inline-flex min-h-11 items-center rounded-lg bg-paper-raised px-4 py-2 font-semibold text-slate-800 ring-1 ring-inset ring-slate-300 hover:bg-slate-50 ${checking ? 'invisible' : ''}`}
           >
             Download CSV
           </a>
         ) : null}
       </div>
-      {valid ? (
+      {checking ? (
+        <p className="text-ink-soft">Loading the ledger …</p>
+      ) : valid ? (
         <LedgerResults filters={filters} page={page} setPage={setPage} />
       ) : (
         <Notice tone="caution" title="Fix the marked filter to see the ledger">

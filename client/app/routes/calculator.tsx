@@ -1,28 +1,11 @@
 import { PageTitle } from '@client/components/ui/card';
 import { Notice } from '@client/components/ui/notice';
-import {
-  BalanceToleranceCalculator,
-  BearingClearanceCalculator,
-  BobWeightCalculator,
-  BoreCheckCalculator,
-  BoreSizeCalculator,
-  CompressionCalculator,
-  CrosshatchCalculator,
-  DeckClearanceCalculator,
-  DeckFlatnessCalculator,
-  DisplacementCalculator,
-  DynamicCompressionCalculator,
-  RingGapCalculator,
-  RoughnessCalculator,
-  UnitSwitch,
-  usePageUnit,
-  CALCULATOR_SECTIONS,
-} from '@client/features/calculations';
+import { CalculatorCards, UnitSwitch, usePageUnit, CALCULATOR_SECTIONS } from '@client/features/calculations';
 
 /**
  * The public calculator page: every calculation of the shared library as a
  * form with live results, worked out in the browser. Loaded as its own chunk
- * (with recharts) from the router.
+ * from the router; the cards (with zod and the calculations) follow in one more.
  */
 export function CalculatorRoute() {
   const [unit, setUnit] = usePageUnit();
@@ -59,19 +42,7 @@ export function CalculatorRoute() {
 
       <UnitSwitch unit={unit} onChange={setUnit} />
 
-      <DisplacementCalculator unit={unit} />
-      <CompressionCalculator unit={unit} />
-      <DynamicCompressionCalculator unit={unit} />
-      <DeckClearanceCalculator unit={unit} />
-      <BoreCheckCalculator unit={unit} />
-      <BoreSizeCalculator unit={unit} />
-      <CrosshatchCalculator unit={unit} />
-      <DeckFlatnessCalculator unit={unit} />
-      <RoughnessCalculator />
-      <RingGapCalculator unit={unit} />
-      <BearingClearanceCalculator unit={unit} />
-      <BalanceToleranceCalculator />
-      <BobWeightCalculator />
+      <CalculatorCards unit={unit} />
     </div>
   );
 }

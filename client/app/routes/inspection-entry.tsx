@@ -1,7 +1,8 @@
+import { useEffect } from 'react';
 import { Link, useNavigate, useParams } from 'react-router-dom';
 import { PageTitle } from '@client/components/ui/card';
 import { Notice } from '@client/components/ui/notice';
-import { useInspection, InspectionEntryForm, type InspectionEntryFormProps, draftSavedAt, emptyRecord, fromDraft, fromInput } from '@client/features/inspections';
+import { useInspection, InspectionEntry } from '@client/features/inspections';
 import { useJob } from '@client/features/jobs';
 
 /**
@@ -18,6 +19,9 @@ export function InspectionEntryRoute() {
       ← Back to the job
     </Link>
   );
+
+  // The form's code comes while the job and the record do.
+  useEffect(() => InspectionEntry.preload(), []);
 
   if (job.isPending || inspection.isPending) return <p className="text-ink-soft">Loading the inspection record …</p>;
   if (job.isError || inspection.isError) {
@@ -49,14 +53,6 @@ export function InspectionEntryRoute() {
     );
   }
 
-  // A kept draft wins, unless it is older than a rejection (then the rejected version's readings are the better start).
-  const rejected = latest?.status === 'rejected' ? latest : null;
-  const savedAt = draftSavedAt(inspection.data.draft);
-  const draftIsCurrent = !rejected || !savedAt || Date.parse(savedAt) > Date.parse(rejected.decidedAt ?? rejected.submittedAt);
-  const draft = draftIsCurrent ? fromDraft(inspection.data.draft, detail.spec.unit) : null;
-  const initial = draft ?? (rejected ? fromInput(rejected.input) : emptyRecord(detail.spec.unit));
-  const origin: InspectionEntryFormProps['origin'] = { draft: draft ? { savedAt } : false, rejected };
-
   return (
     <div className="flex flex-col gap-4">
       {back}
@@ -64,7 +60,7 @@ export function InspectionEntryRoute() {
         title={latest ? `Inspection record, version ${latest.version + 1}` : 'Inspection record'}
         lead={`${detail.title} · ${detail.engineFamily} · ${detail.cylinders} cylinders. Enter what your gauges read; every figure is worked out and checked against the builder’s spec as you type.`}
       />
-      <InspectionEntryForm job={detail} initial={initial} origin={origin} onSubmitted={() => navigate(`/jobs/${detail.id}`)} />
+      <InspectionEntry job={detail} view={inspection.data} onSubmitted={() => navigate(`/jobs/${detail.id}`)} />
     </div>
   );
 }

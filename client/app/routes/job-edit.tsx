@@ -1,3 +1,4 @@
+import { useEffect } from 'react';
 import { Link, useNavigate, useParams } from 'react-router-dom';
 import { toast } from '@client/lib/toast';
 import { PageTitle } from '@client/components/ui/card';
@@ -19,6 +20,9 @@ export function EditJobRoute() {
       },
     },
   });
+
+  // The form's code comes while the job does.
+  useEffect(() => JobForm.preload(), []);
 
   if (jobQuery.isPending) return <p className="text-ink-soft">Loading the job …</p>;
   if (jobQuery.isError) {

@@ -2,7 +2,7 @@ import { NAMES } from '@shared/glossary';
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import { Link } from 'react-router-dom';
 import { formatCents } from '@shared/catalogue';
-import { moneyPeriodSchema, type MoneyHistory, type MoneyHistoryRow, type MoneyPeriod, type MoneyTotals } from '@shared/schemas/payments';
+import type { MoneyHistory, MoneyHistoryRow, MoneyPeriod, MoneyTotals } from '@shared/schemas/payments';
 import { PageTitle } from '@client/components/ui/card';
 import { Notice } from '@client/components/ui/notice';
 import { Pager } from '@client/components/ui/pager';
@@ -14,6 +14,7 @@ import { ClearFiltersButton, FilterForm } from '@client/components/ui/filter-for
 import { TextField } from '@client/components/ui/text-field';
 import { TableHead } from '@client/components/ui/table-head';
 import { formatDateTime } from '@client/lib/dates';
+import { lazyModule } from '@client/lib/lazy-module';
 
 const PAGE_SIZE = 25;
 
@@ -30,12 +31,24 @@ const moneyHistoryQuery = (offset: number, period: MoneyPeriod) =>
 
 const PERIOD_KEYS = ['from', 'to'] as const;
 
-/** The period from the address bar, checked with the API's own schema; a period the API would refuse is kept aside with its messages. */
-function readPeriod(params: URLSearchParams): { period: MoneyPeriod; errors: Partial<Record<'from' | 'to', string>> } {
+// The API's own schema checks the period in the address. It (with zod) loads after the first paint, so it is
+// there before anyone picks a day (the results never blink out); only a page opened with a period waits for it.
+const usePaymentSchemas = lazyModule(() => import('@shared/schemas/payments'));
+type PeriodErrors = Partial<Record<'from' | 'to', string>>;
+
+/**
+ * The period from the address bar, checked with the API's own schema; a period the API would refuse is kept
+ * aside with its messages. `checking` while the schema is still loading (there is nothing to check without a period).
+ */
+function usePeriod(params: URLSearchParams): { period: MoneyPeriod; errors: PeriodErrors; checking: boolean } {
   const raw = Object.fromEntries(PERIOD_KEYS.flatMap((key) => (params.get(key) ? [[key, params.get(key)]] : [])));
-  const parsed = moneyPeriodSchema.safeParse(raw);
-  if (parsed.success) return { period: parsed.data, errors: {} };
-  return { period: {}, errors: Object.fromEntries(parsed.error.issues.map((issue) => [String(issue.path[0]), issue.message])) };
+  const given = Object.keys(raw).length > 0;
+  const schemas = usePaymentSchemas(true);
+  if (!given) return { period: {}, errors: {}, checking: false };
+  if (!schemas) return { period: {}, errors: {}, checking: true };
+  const parsed = schemas.moneyPeriodSchema.safeParse(raw);
+  if (parsed.success) return { period: parsed.data, errors: {}, checking: false };
+  return { period: {}, errors: Object.fromEntries(parsed.error.issues.map((issue) => [String(issue.path[0]), issue.message])), checking: false };
 }
 
 /** The period's totals, in the reader's words; a shop also sees what it kept. */
@@ -99,9 +112,9 @@ export function MoneyHistoryRoute() {
   const side: Side = me?.role === 'shop' ? 'shop' : 'builder';
   const { params, setPage, setFilter, filtered, clearFilters } = useSearchParamUpdater(PERIOD_KEYS);
   const page = readPage(params);
-  const { period, errors } = readPeriod(params);
+  const { period, errors, checking } = usePeriod(params);
   const valid = Object.keys(errors).length === 0;
-  const history = useQuery({ ...moneyHistoryQuery((page - 1) * PAGE_SIZE, period), enabled: valid });
+  const history = useQuery({ ...moneyHistoryQuery((page - 1) * PAGE_SIZE, period), enabled: valid && !checking });
 
   return (
     <div>
@@ -117,7 +130,8 @@ export function MoneyHistoryRoute() {
           <a
             href={`/api/me/money.csv${toSearch(period)}`}
             download
-            className="inline-flex min-h-11 items-center rounded-lg bg-paper-raised px-4 py-2 font-semibold text-slate-800 ring-1 ring-inset ring-slate-300 hover:bg-slate-50"
+            // Kept in place (hidden) while the period is being checked, so nothing moves when it is.
+            className={`inline-flex min-h-11 items-center rounded-lg bg-paper-raised px-4 py-2 font-semibold text-slate-800 ring-1 ring-inset ring-slate-300 hover:bg-slate-50 ${checking ? 'invisible' : ''}`}
           >
             Download CSV
           </a>

@@ -1,5 +1,4 @@
 import { operations } from '@shared/catalogue';
-import { shopDirectoryQuerySchema } from '@shared/schemas/shops';
 import { Button } from '@client/components/ui/button';
 import { PageTitle } from '@client/components/ui/card';
 import { FilterForm } from '@client/components/ui/filter-form';
@@ -8,27 +7,40 @@ import { Notice } from '@client/components/ui/notice';
 import { Pager } from '@client/components/ui/pager';
 import { SelectField } from '@client/components/ui/select-field';
 import { useShops, type DirectoryFilters, ShopCard } from '@client/features/shops';
+import { lazyModule } from '@client/lib/lazy-module';
 import { useSearchParamUpdater } from '@client/lib/search-params';
 
 const PAGE_SIZE = 12;
 const FILTER_KEYS = ['q', 'operation', 'country', 'region', 'takesShipped'] as const;
-const shape = shopDirectoryQuerySchema.shape;
+const CHECKED_KEYS = ['q', 'operation', 'country', 'region', 'page'] as const;
+// The API's own schema checks the filters in the address. It (with zod) loads after the first paint, so it is
+// there before anyone picks a filter (the results never blink out); only a page opened with filters waits for it.
+const useShopSchemas = lazyModule(() => import('@shared/schemas/shops'));
 
-/** The filters in the address bar, keeping only values the API accepts (a hand-edited address never breaks the page). */
-function readFilters(params: URLSearchParams): DirectoryFilters {
+/**
+ * The filters in the address bar, keeping only values the API accepts (a hand-edited address never breaks
+ * the page); undefined while the schema that checks them is still loading.
+ */
+function useFilters(params: URLSearchParams): DirectoryFilters | undefined {
+  const given = CHECKED_KEYS.some((key) => params.get(key));
+  const schemas = useShopSchemas(true);
+  const shipped = params.get('takesShipped');
+  const takesShipped = shipped === 'true' || shipped === 'false' ? shipped : undefined;
+  if (!given) return { takesShipped, page: 1, pageSize: PAGE_SIZE };
+  if (!schemas) return undefined;
+  const shape = schemas.shopDirectoryQuerySchema.shape;
   const text = (key: 'q' | 'country' | 'region') => {
     const value = params.get(key)?.trim();
     return value && shape[key].safeParse(value).success ? value : undefined;
   };
   const operation = shape.operation.safeParse(params.get('operation') ?? undefined);
-  const shipped = params.get('takesShipped');
   const page = shape.page.safeParse(params.get('page') ?? undefined);
   return {
     q: text('q'),
     operation: operation.success ? operation.data : undefined,
     country: text('country'),
     region: text('region'),
-    takesShipped: shipped === 'true' || shipped === 'false' ? shipped : undefined,
+    takesShipped,
     page: page.success ? page.data : 1,
     pageSize: PAGE_SIZE,
   };
@@ -37,8 +49,10 @@ function readFilters(params: URLSearchParams): DirectoryFilters {
 export function ShopDirectoryRoute() {
   // A new filter value starts again at page 1; typing replaces the history entry instead of adding one per pause.
   const { params, setParams, setFilter, filtered, setPage } = useSearchParamUpdater(FILTER_KEYS);
-  const filters = readFilters(params);
-  const shops = useShops(filters);
+  const checked = useFilters(params);
+  const shops = useShops(checked ?? { page: 1, pageSize: PAGE_SIZE }, { enabled: checked !== undefined });
+  // While the filters are being checked, the choices show what the address says (they would jump back otherwise).
+  const shown = (key: 'operation' | 'takesShipped') => (checked ? checked[key] : params.get(key)) ?? '';
 
   return (
     <div>
@@ -56,7 +70,7 @@ export function ShopDirectoryRoute() {
         />
         <SelectField
           label="Work"
-          value={filters.operation ?? ''}
+          value={shown('operation')}
           onChange={(event) => setFilter('operation', event.target.value)}
           options={[{ value: '', label: 'Any work' }, ...operations.map((op) => ({ value: op.code, label: op.name }))]}
         />
@@ -68,7 +82,7 @@ export function ShopDirectoryRoute() {
         />
         <SelectField
           label="Shipped parts"
-          value={filters.takesShipped ?? ''}
+          value={shown('takesShipped')}
           onChange={(event) => setFilter('takesShipped', event.target.value)}
           options={[
             { value: '', label: 'Either' },

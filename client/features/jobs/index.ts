@@ -3,7 +3,7 @@
 export { useBoard, useCreateJob, useJob, useMyJobs, usePublishJob, useUpdateJob } from './api/jobs';
 export { readBoardFilters } from './board-filters';
 export { JobFiguresPanel } from './components/job-figures';
-export { JobForm } from './components/job-form';
+export { JobForm } from './components/job-form-panel';
 export { keptFormKey } from './components/job-form-keeper';
 export { JobOwnerActions } from './components/job-owner-actions';
 export { JobLogistics, JobOperations, JobSpec } from './components/job-spec';

@@ -1,6 +1,7 @@
 import { Link } from 'react-router-dom';
 import { formatCents } from '@shared/catalogue';
-import { ledgerKinds, type LedgerPage, type LedgerRow } from '@shared/schemas/admin';
+import type { LedgerPage, LedgerRow } from '@shared/schemas/admin';
+import { ledgerKinds } from '@shared/schemas/values';
 import { cn } from '@client/lib/cn';
 import { formatMoment, ledgerKindWords, plural } from './admin-words';
 import { TableHead } from '@client/components/ui/table-head';

@@ -6,6 +6,7 @@ import { GuidanceCaution } from '@client/components/ui/guidance-caution';
 import { cn } from '@client/lib/cn';
 import { LENGTH_DECIMALS, formatChange, formatLength, formatNumber } from '@client/lib/numbers';
 import { type CheckRow, boreLimits, cylinderChecks, otherChecks } from '../lib/evaluate';
+import { finishFilterWords } from '../lib/finish-filter-words';
 import { RecordJudgement, RecordVerdictMark, VerdictMark } from './record-judgement';
 
 export function PassMark({ pass, passText = 'Pass', failText = 'Fail' }: { pass: boolean | null; passText?: string; failText?: string }) {
@@ -69,18 +70,6 @@ const pct = (value: number | undefined) => (value === undefined ? undefined : `$
 /** A roughness height in micrometres with microinches beside it (1 µin = 0.0254 µm exactly). */
 const umAndMicroinches = (value: number | undefined) =>
   value === undefined ? undefined : `${formatNumber(value, 2)} µm (${formatNumber(micrometresToMicroinches(value), 1)} µin)`;
-
-/** What was done to the finish trace, in words; undefined for entered values and for results stored before the choice. */
-export function finishFilterWords(filter: NonNullable<Results['finish']>['filter']): string | undefined {
-  if (!filter) return undefined;
-  if (filter.kind === 'none') return 'None: the trace taken as a roughness profile already';
-  const mm = (value: number) => `${formatNumber(value, 3)} mm`;
-  return (
-    `Gaussian (ISO 16610-21), cut-off ${filter.cutoffMm} mm, least-squares line removed; ` +
-    `${mm(filter.evaluationLengthMm)} evaluated (${filter.samplingLengths} × ${filter.cutoffMm} mm), ` +
-    `${mm(filter.trimmedStartMm)} and ${mm(filter.trimmedEndMm)} dropped at the ends; Rk family on the ISO 13565-1 profile`
-  );
-}
 
 /** Finish, crosshatch and deck figures as label–value pairs. */
 export function SurfaceFigures({ results, unit }: { results: Results; unit: LengthUnit }) {

@@ -7,8 +7,9 @@
  * Records stored before verdicts existed carry none of this; they show as they did.
  */
 import type { LengthUnit } from '@shared/calc';
-import { type CheckVerdict, type InspectionInput, type InspectionResults, type LimitCheck, checkVerdict } from '@shared/schemas/inspection';
+import type { CheckVerdict, InspectionInput, InspectionResults, LimitCheck } from '@shared/schemas/inspection';
 import { recordVerdictText, shownVerdict } from '@shared/inspection-words';
+import { checkVerdict } from '@shared/schemas/values';
 import { cn } from '@client/lib/cn';
 import { LENGTH_DECIMALS, formatNumber } from '@client/lib/numbers';
 

@@ -5,7 +5,8 @@
  * review and on the certificate page.
  */
 import { SECTION_VERDICT_WORDS, checkValueText, figureText, sectionParts } from '@shared/inspection-words';
-import { type InspectionResults, checkVerdict } from '@shared/schemas/inspection';
+import type { InspectionResults } from '@shared/schemas/inspection';
+import { checkVerdict } from '@shared/schemas/values';
 import type { SectionResult, SectionVerdict } from '@shared/schemas/inspection-sections';
 import { TableHead } from '@client/components/ui/table-head';
 import { cn } from '@client/lib/cn';

@@ -9,7 +9,8 @@
  */
 import { boreOperationCodes, type OperationCode } from '@shared/catalogue';
 import type { InspectionInput } from '@shared/schemas/inspection';
-import { SECTION_INPUT_KEYS, type InspectionSections } from '@shared/schemas/inspection-sections';
+import type { InspectionSections } from '@shared/schemas/inspection-sections';
+import { SECTION_INPUT_KEYS } from '@shared/schemas/values';
 import { numberToText, toNumber } from '@client/lib/numbers';
 
 /** Leaves holding words or a choice, not a number. */

@@ -3,7 +3,8 @@
  * and condition as typed, and the worked-out figures, named in words.
  */
 import { NOTHING_JUDGED_WORDS, SECTION_VERDICT_WORDS, judgedNothing } from '@shared/inspection-words';
-import { type InspectionVersion, RECORD_VERDICT_WORDS, recordVerdict } from '@shared/schemas/inspection';
+import type { InspectionVersion } from '@shared/schemas/inspection';
+import { RECORD_VERDICT_WORDS, recordVerdict } from '@shared/schemas/values';
 import { DEPTHS, DIRECTIONS } from '@client/lib/bore-readings';
 import { formatLength, formatNumber, lengthToText, numberToText } from '@client/lib/numbers';
 import { fieldsFromInput, sectionPathWords } from './section-fields';

@@ -1,10 +1,12 @@
 import { useEffect, useId, useRef, useState, type ReactNode } from 'react';
 import { Controller, get, useForm, useWatch, type FieldErrors, type Path, type Resolver, type UseFormRegisterReturn } from 'react-hook-form';
 import { Link } from 'react-router-dom';
-import { type LengthUnit, convertLength, sizeDisagreement } from '@shared/calc';
+import { type LengthUnit, convertLength } from '@shared/calc';
+import { sizeDisagreement } from '@shared/calc/bore-spec';
 import { operationCodes, partsOfJob } from '@shared/catalogue';
 import { limitGroups } from '@shared/operation-limits';
-import { blockMaterials, engineLayouts, jobFieldsSchema, logisticsOptions, pistonTypes, type JobFormValues, type JobInput } from '@shared/schemas/jobs';
+import type { JobFormValues, JobInput } from '@shared/schemas/jobs';
+import { blockMaterials, engineLayouts, logisticsOptions, pistonTypes } from '@shared/schemas/values';
 import { UnsavedChangesGuard } from '@client/components/unsaved-changes-guard';
 import { FieldError } from '@client/components/ui/field-frame';
 import { Button } from '@client/components/ui/button';
@@ -17,9 +19,9 @@ import { cn } from '@client/lib/cn';
 import { formatDateTime, todayIso } from '@client/lib/dates';
 import { applyServerErrors } from '@client/lib/form-errors';
 import { JobFiguresPanel } from './job-figures';
+import { JobFormSummary } from './lazy-panels';
 import { forgetKeptForm, readKeptForm, writeKeptForm, type KeptJobForm } from './job-form-keeper';
 import { SUMMARY_STEP, errorPaths, jobFormSteps, stepOfPath } from './job-form-steps';
-import { JobFormSummary } from './job-form-summary';
 import { convertLimit, jobScope, keepInScope, limitEntries, limitPaths } from './job-scope';
 import { layoutWords, logisticsWords, materialWords, pistonWords } from './job-words';
 import { OperationLimitsFields } from './operation-limits-fields';
@@ -32,8 +34,8 @@ const jobInputResolver = lazyResolver(() => import('@shared/schemas/jobs').then(
 /** Fields holding a length in the job's unit: converted in place when the unit changes. */
 const LENGTH_FIELDS = ['stockBore', 'stroke', 'targetBore', 'boreSizeTolerance', 'pistonDiameter', 'clearanceMin', 'clearanceMax', 'maxTaper', 'maxOutOfRound', 'deckFlatnessMax'] as const;
 
-/** The form's top-level fields. */
-const TOP_FIELDS = Object.keys(jobFieldsSchema.shape) as Array<keyof JobFormValues>;
+/** The form's top-level fields: those of its steps (tests/unit/job-form-steps.test.ts holds them to the shared schema's). */
+const TOP_FIELDS = jobFormSteps.flatMap((step) => step.fields) as Array<keyof JobFormValues>;
 
 /**
  * Every field the server may name in a 400, for putting its messages beside

@@ -1,4 +1,4 @@
-import { MAX_PHOTOS_PER_MILESTONE } from '@shared/schemas/inspection';
+import { MAX_PHOTOS_PER_MILESTONE } from '@shared/schemas/values';
 import type { MilestonePhoto } from '@shared/schemas/milestones';
 import { photoTarget } from '@client/lib/upload';
 

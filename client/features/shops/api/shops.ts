@@ -33,7 +33,7 @@ export const shopQueries = {
 
 export type { DirectoryFilters };
 
-export const useShops = (filters: DirectoryFilters) => useQuery(shopQueries.list(filters));
+export const useShops = (filters: DirectoryFilters, { enabled = true } = {}) => useQuery({ ...shopQueries.list(filters), enabled });
 export const useShop = (id: string) => useQuery(shopQueries.detail(id));
 export const useOwnShop = (options: { refetchInterval?: (data: OwnShop | null | undefined) => number | false } = {}) =>
   useQuery({

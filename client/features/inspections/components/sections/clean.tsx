@@ -1,4 +1,4 @@
-import { cleanMethodsFor } from '@shared/schemas/inspection-sections';
+import { cleanMethodsFor } from '@shared/schemas/values';
 import { PartCheckSection } from './part-check';
 import type { SectionContext } from './section-kit';
 

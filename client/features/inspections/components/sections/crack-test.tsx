@@ -1,4 +1,4 @@
-import { crackTestMethods } from '@shared/schemas/inspection-sections';
+import { crackTestMethods } from '@shared/schemas/values';
 import { METHOD_WORDS } from './clean';
 import { PartCheckSection } from './part-check';
 import type { SectionContext } from './section-kit';
