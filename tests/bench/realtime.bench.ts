@@ -7,7 +7,8 @@
  * issue 19, the sender's acknowledgement (stored and published), the number of
  * connections held, and as a floor a bare NOTIFY → LISTEN round trip between two
  * plain connections to the same PostgreSQL, in bursts of the same size, measured
- * in the same run; asserts nothing.
+ * in the same run. Then one conversation's messages one at a time, for one
+ * message's path with nothing queued beside it. Asserts nothing.
  */
 import { sql } from 'drizzle-orm';
 import { fork, type ChildProcess } from 'node:child_process';
@@ -26,6 +27,8 @@ import { benchCluster, benchConfig, benchEnv, migratedBenchDatabase } from './be
 const THREADS = Number(process.env.BENCH_THREADS ?? 20);
 const LISTENERS_PER_THREAD = Number(process.env.BENCH_LISTENERS ?? 15);
 const MESSAGES_PER_THREAD = Number(process.env.BENCH_MESSAGES ?? 10);
+/** Messages sent one at a time after the bursts (BENCH_SINGLE). */
+const SINGLE_MESSAGES = Number(process.env.BENCH_SINGLE ?? 40);
 const PASSWORD = 'bench password 1';
 const IN_PROCESS = process.env.BENCH_INSTANCES === 'in-process';
 
@@ -167,6 +170,21 @@ try {
   while (latencies.length < expected && Date.now() < deadline) await new Promise((r) => setTimeout(r, 50));
   const elapsed = (performance.now() - started) / 1000;
 
+  // Then one conversation at a time: the first sender's messages one after another, each waiting for its
+  // deliveries, so the figure is one message's path with nothing queued beside it.
+  const burst = latencies.splice(0);
+  const single: number[] = [];
+  for (let m = 0; m < SINGLE_MESSAGES; m += 1) {
+    const { socket, threadId } = senders[0];
+    const before = latencies.length;
+    const sentAt = performance.now();
+    await socket.timeout(10_000).emitWithAck('message:send', { threadId, clientId: randomBytes(8).toString('hex'), body: `sent ${sentAt}` });
+    const waitUntil = Date.now() + 5_000;
+    while (latencies.length < before + LISTENERS_PER_THREAD && Date.now() < waitUntil) await new Promise((r) => setImmediate(r));
+  }
+  single.push(...latencies.splice(0));
+  latencies.push(...burst);
+
   // The floor: a bare NOTIFY from one plain connection reaching another that LISTENs, in bursts as large as the senders'.
   const listener = new pg.Client({ connectionString: url });
   const notifier = new pg.Pool({ connectionString: url, max: 10 });
@@ -197,10 +215,13 @@ messages sent           ${THREADS * MESSAGES_PER_THREAD} (${THREADS} conversatio
 deliveries              ${latencies.length} of ${expected} expected, in ${elapsed.toFixed(1)} s
 
                         p50          p99          max
-delivery (send → other sockets, both instances)
+delivery in bursts (${THREADS} conversations sending at once; send → other sockets, both instances)
                      ${ms(p50)}   ${ms(p99)}   ${ms(Math.max(...latencies))}
   against the aims      p50 ${aim(p50, 15)}; p99 ${aim(p99, 40)}
-sender's answer (stored, committed, published)
+one conversation at a time (${single.length} deliveries: ${SINGLE_MESSAGES} messages, each to ${LISTENERS_PER_THREAD} sockets, nothing else sent)
+                     ${ms(pick(single, 0.5))}   ${ms(pick(single, 0.99))}   ${ms(Math.max(...single))}
+  against the aims      p50 ${aim(pick(single, 0.5), 15)}; p99 ${aim(pick(single, 0.99), 40)}
+sender's answer in the bursts (stored, committed, published)
                      ${ms(pick(acks, 0.5))}   ${ms(pick(acks, 0.99))}   ${ms(Math.max(...acks))}
 floor: bare NOTIFY → LISTEN, same bursts (${bare.length} notifications)
                      ${ms(pick(bare, 0.5))}   ${ms(pick(bare, 0.99))}   ${ms(Math.max(...bare))}
