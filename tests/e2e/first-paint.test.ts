@@ -126,3 +126,30 @@ describe('a signed-out visitor', () => {
     expect({ errors, refused }).toEqual({ errors: [], refused: [] });
   }, 120_000);
 });
+
+describe('who is signed in', () => {
+  it('when a signed-in page loads, then the session is asked once, by the page itself before its code runs, and the app uses that answer', async () => {
+    const page = await suite.pageFor(shopEmail, '/dashboard');
+    const warnings: string[] = [];
+    page.on('console', (msg) => {
+      if (msg.type() === 'warning' || msg.type() === 'error') warnings.push(msg.text());
+    });
+    const asked: string[] = [];
+    page.on('request', (request) => {
+      if (new URL(request.url()).pathname === '/api/auth/session') asked.push(request.url());
+    });
+    await page.goto(suite.url('/board'));
+    await page.locator('main h1').first().waitFor();
+    await page.waitForLoadState('networkidle');
+    // The preload was the only request, and the app read it (an unused preload makes Chromium warn).
+    expect(asked).toHaveLength(1);
+    const [entry] = await page.evaluate(() =>
+      performance.getEntriesByType('resource').filter((e) => e.name.endsWith('/api/auth/session')).map((e) => (e as PerformanceResourceTiming).initiatorType),
+    );
+    expect(entry).toBe('link');
+    await page.waitForTimeout(3_500);
+    expect(warnings.filter((w) => /preload/i.test(w))).toEqual([]);
+    // Signed in from that answer: the board did not send the shop to the sign-in page.
+    expect(new URL(page.url()).pathname).toBe('/board');
+  }, 120_000);
+});
