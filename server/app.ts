@@ -24,6 +24,7 @@ import { ROUGHNESS_BODY_LIMIT } from './modules/calculations/calculations.routes
 import { openApiDocument } from './openapi';
 import { routeModules } from './api-routes';
 import { mountRoutes, type RouteDef } from './lib/http/routes';
+import { builtPageHtml } from './lib/http/page-html';
 import { compressAnswers, setBuiltFileCaching } from './lib/http/transfer';
 import { isPagePath } from '../shared/page-paths';
 
@@ -177,8 +178,10 @@ export function createApp(deps: AppDeps) {
     const indexFile = join(dir, 'index.html');
     if (!existsSync(indexFile)) throw new Error(`The browser app is not built (no ${indexFile}). Run: npm run build`);
     app.use(express.static(dir, { index: false, cacheControl: false, setHeaders: (res, path) => setBuiltFileCaching(res, path, dir) }));
-    // The app's HTML for every address; a status of 404 where the app has no page (it shows its not-found page).
-    app.get('/{*splat}', (req, res) => res.status(pageStatus(req.path)).sendFile(indexFile, { headers: { 'Cache-Control': 'no-cache' } }));
+    // The app's HTML for every address, naming the page's own code to fetch at once; a status of 404 where
+    // the app has no page (it shows its not-found page).
+    const pageHtml = builtPageHtml(dir);
+    app.get('/{*splat}', (req, res) => res.status(pageStatus(req.path)).set('Cache-Control', 'no-cache').type('html').send(pageHtml(req.path)));
   } else if (deps.client?.kind === 'middleware') {
     const { handler, indexHtml } = deps.client;
     app.use(handler);

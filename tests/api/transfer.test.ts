@@ -154,3 +154,41 @@ describe('robots.txt', () => {
     for (const rule of ['/api/', '/admin', '/settings', '/dashboard', '/board']) expect(res.text).toMatch(new RegExp(`^Disallow: ${rule}$`, 'm'));
   });
 });
+
+describe('a page names its own code', () => {
+  const modulePreloads = (html: string) => [...html.matchAll(/<link rel="modulepreload" crossorigin href="([^"]+)">/g)].map((m) => m[1]);
+  // The entry's own (index.html as built names what the entry needs).
+  const entryPreloads = modulePreloads(readFileSync(`${clientDir}/index.html`, 'utf8'));
+  const preloads = (html: string) => modulePreloads(html).filter((file) => !entryPreloads.includes(file));
+  const chunksOf = JSON.parse(readFileSync(`${clientDir}/.vite/page-chunks.json`, 'utf8')) as Record<string, string[]>;
+
+  it('when a page is asked for, then its HTML preloads exactly the chunks the build lists for that page, each of which is served; a fixed path beats a parameter', async () => {
+    for (const [path, pattern] of [
+      ['/board', '/board'],
+      [`/jobs/${randomUUID()}`, '/jobs/:jobId'],
+      ['/jobs/new', '/jobs/new'],
+      ['/calculator', '/calculator'],
+    ]) {
+      const res = await get(path);
+      expect(res.status, path).toBe(200);
+      expect(chunksOf[pattern]?.length, pattern).toBeGreaterThan(0);
+      expect(preloads(res.text), path).toEqual(chunksOf[pattern]);
+      expect(res.text.indexOf('modulepreload'), path).toBeLessThan(res.text.indexOf('</head>'));
+    }
+    // The build's list names the page's own route chunk and nothing the entry loads anyway.
+    expect(chunksOf['/jobs/new'][0]).toMatch(/^\/assets\/job-new-/);
+    expect(chunksOf['/jobs/:jobId'][0]).toMatch(/^\/assets\/job-detail-/);
+    expect(Object.values(chunksOf).flat()).not.toContain(entryScript);
+    for (const file of new Set(Object.values(chunksOf).flat())) {
+      const res = await get(file);
+      expect(res.status, file).toBe(200);
+      expect(res.headers['content-type'], file).toMatch(/javascript/);
+    }
+  });
+
+  it('when an address has no page, then its 404 HTML preloads nothing', async () => {
+    const res = await get('/no-such-page/here');
+    expect(res.status).toBe(404);
+    expect(preloads(res.text)).toEqual([]);
+  });
+});

@@ -28,6 +28,7 @@ import { users } from '../../server/db/schema';
 import { DEMO_PASSWORD, seedIfEmpty } from '../../server/dev/seed';
 import { startServer, type RunningServer } from '../../server/runtime';
 import { createJob } from '../factories';
+import { lazyPageModules } from '../../shared/page-modules';
 import { benchCluster, benchConfig, migratedBenchDatabase } from './bench-app';
 
 const root = fileURLToPath(new URL('../..', import.meta.url));
@@ -102,15 +103,7 @@ interface FirstLoad {
 }
 
 /** Each page's path and the module its `lazy` imports, read from the router's source. */
-function routesFromRouter(): Array<{ path: string; module: string }> {
-  const source = readFileSync(join(root, 'client/app/router.tsx'), 'utf8');
-  const routes = [...source.matchAll(/path:\s*'([^']+)',\s*lazy:\s*\(\)\s*=>\s*import\('\.\/routes\/([^']+)'\)/g)].map(([, path, module]) => ({
-    path,
-    module: `client/app/routes/${module}.tsx`,
-  }));
-  if (routes.length === 0) throw new Error('found no lazy routes in client/app/router.tsx; has its shape changed?');
-  return routes;
-}
+const routesFromRouter = () => lazyPageModules(readFileSync(join(root, 'client/app/router.tsx'), 'utf8'));
 
 function sizer(dir: string) {
   const manifest = JSON.parse(readFileSync(join(dir, '.vite/manifest.json'), 'utf8')) as Manifest;
