@@ -17,7 +17,7 @@ import { createPaymentsClient, type PaymentsClient } from './lib/payments-client
 import { RealtimeHub } from './realtime/hub';
 import { messageRateLimit } from './modules/messages/messages.service';
 import { createSessionStore } from './lib/session-store';
-import { LocalDiskStorage, type FileStorage } from './lib/storage';
+import { createStorage, type FileStorage } from './lib/storage';
 import { jsonBody } from './lib/json-body';
 import { uploadLimiter } from './lib/photo-upload';
 import { ROUGHNESS_BODY_LIMIT } from './modules/calculations/calculations.routes';
@@ -150,7 +150,7 @@ export function createApp(deps: AppDeps) {
   mount(routeModules.calculations, { db, perMinute: config.rateLimits.calculationsPerMinute });
   mount(routeModules.catalogue, {});
   mount(routeModules.help, { supportEmail: config.supportEmail });
-  const storage = deps.storage ?? new LocalDiskStorage(config.uploadsDir);
+  const storage = deps.storage ?? createStorage(config.storage);
   // One count of photo uploads per person, whichever route they go to.
   const uploadLimit = uploadLimiter(db, config.rateLimits.uploadsPer10Min);
   mount(routeModules.shops, { db });

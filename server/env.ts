@@ -23,6 +23,16 @@ const schema = z
     TENTHMARK_DEMO: z.stringbool().default(true),
     SESSION_SECRET: z.string().min(16).optional(),
     UPLOADS_DIR: z.string().min(1).optional(),
+    /** Where uploaded photos live: the uploads folder on this machine (disk), or an S3-compatible object store that every instance shares (s3). */
+    STORAGE: z.enum(['disk', 's3']).default('disk'),
+    /** The object store's address; unset means Amazon S3 itself in S3_REGION. */
+    S3_ENDPOINT: z.url().optional(),
+    S3_BUCKET: z.string().min(1).optional(),
+    S3_REGION: z.string().min(1).default('us-east-1'),
+    S3_ACCESS_KEY_ID: z.string().min(1).optional(),
+    S3_SECRET_ACCESS_KEY: z.string().min(1).optional(),
+    /** Address the bucket in the path (endpoint/bucket/key), as most self-hosted stores expect; false for bucket.endpoint names. */
+    S3_PATH_STYLE: z.stringbool().default(true),
     LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
     /** Hold each JSON answer to its route's declared schema: strict (a 500), log, or off. Default: strict in tests, log in development, off in production. */
     RESPONSE_CHECK: z.enum(['off', 'log', 'strict']).optional(),
@@ -85,6 +95,11 @@ const schema = z
     if (value.NODE_ENV === 'production' && !value.SESSION_SECRET) {
       ctx.addIssue({ code: 'custom', path: ['SESSION_SECRET'], message: 'is required in production (16+ characters)' });
     }
+    if (value.STORAGE === 's3') {
+      for (const name of ['S3_BUCKET', 'S3_ACCESS_KEY_ID', 'S3_SECRET_ACCESS_KEY'] as const) {
+        if (!value[name]) ctx.addIssue({ code: 'custom', path: [name], message: 'is required when STORAGE=s3' });
+      }
+    }
     if (Boolean(value.GITHUB_CLIENT_ID) !== Boolean(value.GITHUB_CLIENT_SECRET)) {
       ctx.addIssue({
         code: 'custom',
@@ -120,6 +135,11 @@ export interface GithubConfig {
   standIn: boolean;
 }
 
+/** Where uploaded files live (server/lib/storage.ts). */
+export type StorageConfig =
+  | { kind: 'disk'; dir: string }
+  | { kind: 's3'; endpoint?: string; bucket: string; region: string; accessKeyId: string; secretAccessKey: string; pathStyle: boolean };
+
 export interface AppConfig {
   nodeEnv: RawEnv['NODE_ENV'];
   port: number;
@@ -140,6 +160,8 @@ export interface AppConfig {
   /** Express's 'trust proxy' setting; false unless TRUST_PROXY names the proxies. */
   trustProxy: TrustProxy;
   uploadsDir: string;
+  /** The uploads folder (uploadsDir) or the object store the settings name. */
+  storage: StorageConfig;
   smtp: { host: string; port: number; secure: boolean; user?: string; password?: string };
   mailFrom: string;
   /** Where people write to reach us (SUPPORT_EMAIL). */
@@ -168,6 +190,7 @@ export function loadConfig(source: NodeJS.ProcessEnv = process.env): AppConfig {
   }
   const env = parsed.data;
   const appUrl = (env.APP_URL ?? defaultAppUrl(env.HOST, env.PORT)).replace(/\/$/, '');
+  const uploadsDir = env.UPLOADS_DIR ?? fileURLToPath(new URL('../uploads', import.meta.url));
   const realGithub = Boolean(env.GITHUB_CLIENT_ID && env.GITHUB_CLIENT_SECRET);
   const standInUrl = (env.GITHUB_STAND_IN_URL ?? `http://127.0.0.1:${env.GITHUB_STAND_IN_PORT}`).replace(/\/$/, '');
   const github: GithubConfig = realGithub
@@ -203,7 +226,19 @@ export function loadConfig(source: NodeJS.ProcessEnv = process.env): AppConfig {
     logLevel: env.LOG_LEVEL,
     responseCheck: env.RESPONSE_CHECK ?? ({ test: 'strict', development: 'log', production: 'off' } as const)[env.NODE_ENV],
     trustProxy: env.TRUST_PROXY,
-    uploadsDir: env.UPLOADS_DIR ?? fileURLToPath(new URL('../uploads', import.meta.url)),
+    uploadsDir,
+    storage:
+      env.STORAGE === 's3'
+        ? {
+            kind: 's3',
+            endpoint: env.S3_ENDPOINT,
+            bucket: env.S3_BUCKET!,
+            region: env.S3_REGION,
+            accessKeyId: env.S3_ACCESS_KEY_ID!,
+            secretAccessKey: env.S3_SECRET_ACCESS_KEY!,
+            pathStyle: env.S3_PATH_STYLE,
+          }
+        : { kind: 'disk', dir: uploadsDir },
     smtp: {
       host: env.SMTP_HOST,
       port: env.SMTP_PORT,

@@ -1,8 +1,10 @@
 import type { Request, RequestHandler, Response } from 'express';
+import { pipeline } from 'node:stream/promises';
 import multer from 'multer';
 import type { Database } from '../db/client';
 import { AppError } from './errors';
 import { createLimiter } from './rate-limit';
+import type { StoredFile } from './storage';
 
 /** The most one photo may weigh on the way in, before it is re-encoded. */
 export const MAX_PHOTO_BYTES = 15 * 1024 * 1024;
@@ -77,7 +79,19 @@ export function photoUploadSteps(mayUpload: (req: Request) => Promise<void>, upl
   ];
 }
 
-/** Sends a stored photo's WebP bytes, cached only by the person's own browser (every photo is someone's to see). */
-export function sendPhoto(res: Response, webp: Buffer): void {
-  res.set({ 'Content-Type': 'image/webp', 'Cache-Control': 'private, max-age=3600', 'X-Content-Type-Options': 'nosniff' }).send(webp);
+/**
+ * Streams a stored photo's WebP bytes (from disk or the object store, never
+ * whole in memory), cached only by the person's own browser (every photo is
+ * someone's to see). A read that breaks off midway cuts the connection, so the
+ * browser never keeps half a photo as if it were whole.
+ */
+export async function sendPhoto(res: Response, webp: StoredFile): Promise<void> {
+  res.set({ 'Content-Type': 'image/webp', 'Content-Length': String(webp.size), 'Cache-Control': 'private, max-age=3600', 'X-Content-Type-Options': 'nosniff' });
+  try {
+    await pipeline(webp.body, res);
+  } catch (error) {
+    // The person went away (nothing to answer), or the store failed after the headers went out.
+    if (res.destroyed && (error as NodeJS.ErrnoException).code === 'ERR_STREAM_PREMATURE_CLOSE') return;
+    throw error;
+  }
 }

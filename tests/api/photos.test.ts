@@ -4,6 +4,7 @@ import sharp from 'sharp';
 import supertest from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createJob, createShop, createUser } from '../factories';
+import { STORAGE_UNDER_TEST, storedKeys } from '../setup/storage';
 import { setupTestApp, signedIn, type TestContext } from '../setup/test-env';
 
 let ctx: TestContext;
@@ -52,6 +53,9 @@ describe('job photos', () => {
     expect(res.status).toBe(201);
     expect(res.body.photos).toHaveLength(2);
     expect(res.body.photos[0]).toMatchObject({ width: 2000, height: 1333 });
+    // Two sizes of each, in the storage this run is about (the uploads folder, or the S3 stand-in).
+    expect(ctx.config.storage.kind).toBe(STORAGE_UNDER_TEST);
+    expect(await storedKeys(ctx.config.storage, `jobs/${job.id}/`)).toHaveLength(4);
 
     const large = await b.agent.get(res.body.photos[0].largeUrl).buffer(true);
     expect(large.status).toBe(200);
@@ -108,6 +112,7 @@ describe('job photos', () => {
     expect(res.status).toBe(415);
     expect(res.body.error.code).toBe('unsupported_type');
     expect((await b.get(`/api/jobs/${job.id}`)).body.job.photos).toHaveLength(0);
+    expect(await storedKeys(ctx.config.storage, `jobs/${job.id}/`)).toEqual([]);
   });
 
   it('when a file is 20 MB, then 413', async () => {
@@ -144,6 +149,7 @@ describe('job photos', () => {
     const removed = await b.agent.delete(`/api/jobs/${job.id}/photos/${first.body.photos[0].id}`).set('X-CSRF-Token', b.token);
     expect(removed.status).toBe(204);
     expect((await b.get(first.body.photos[0].thumbUrl)).status).toBe(404);
+    expect((await storedKeys(ctx.config.storage, `jobs/${job.id}/`)).filter((key) => key.includes(first.body.photos[0].id))).toEqual([]);
     expect((await upload(b, job.id, [{ data: small, name: 'again.jpg' }])).status).toBe(201);
   });
 

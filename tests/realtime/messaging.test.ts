@@ -10,6 +10,7 @@ import { sendDueDigests } from '../../server/modules/messages/digest';
 import type { RunningServer } from '../../server/runtime';
 import { bidInput, createJob, createShop, createUser } from '../factories';
 import { connected, emit, next, post, session, twoInstances } from '../setup/realtime';
+import { storedKeys } from '../setup/storage';
 
 const live = twoInstances({ RATE_LIMIT_MESSAGES_PER_10S: '20' });
 const socketFor = live.socketFor;
@@ -268,6 +269,8 @@ describe('photos in messages', () => {
     expect(uploaded.status).toBe(201);
     const [photo] = uploaded.body.photos;
     expect(photo).toMatchObject({ width: 2000, height: 1333, thumbUrl: `/api/threads/${threadId}/photos/${photo.id}/thumb`, largeUrl: `/api/threads/${threadId}/photos/${photo.id}/large` });
+    // Both sizes are in the store the instances share (the uploads folder, or the S3 stand-in).
+    expect(await storedKeys(live.config.storage, `threads/${threadId}/`)).toEqual([`threads/${threadId}/${photo.id}-large.webp`, `threads/${threadId}/${photo.id}-thumb.webp`]);
     // Until it is sent, only the uploader sees it.
     expect((await getImage(live.instanceA, photo.thumbUrl, shopAuth.cookie)).status).toBe(200);
     expect((await getImage(live.instanceA, photo.thumbUrl, builderAuth.cookie)).status).toBe(404);

@@ -5,8 +5,10 @@ import type { TestProject } from 'vitest/node';
 import { runMigrations } from '../../server/db/client';
 import { startGithubStandIn } from '../../server/dev/github-stand-in';
 import { startMaildev } from '../../server/dev/maildev';
+import { startS3StandIn } from '../../server/dev/s3-stand-in';
 import { ensureCluster, ensureDatabase } from '../../server/dev/postgres';
 import { freePort } from './ports';
+import { TEST_BUCKET } from './storage';
 
 declare module 'vitest' {
   export interface ProvidedContext {
@@ -15,6 +17,7 @@ declare module 'vitest' {
     smtpPort: number;
     maildevUrl: string;
     githubStandInUrl: string;
+    s3Endpoint: string;
   }
 }
 
@@ -23,8 +26,9 @@ export const TEMPLATE_DATABASE = 'tenthmark_template';
 /**
  * One throwaway PostgreSQL cluster in a temporary folder for the whole run,
  * with the migrations applied once into a template database; each test file
- * copies the template into a database of its own. Also maildev and the GitHub
- * stand-in. Everything stops at the end, also when tests fail.
+ * copies the template into a database of its own. Also maildev, the GitHub
+ * stand-in and the S3 stand-in (for the suites run on object storage, see
+ * tests/setup/storage.ts). Everything stops at the end, also when tests fail.
  */
 export default async function setup(project: TestProject) {
   const dir = mkdtempSync(join(tmpdir(), 'tenthmark-test-'));
@@ -58,11 +62,15 @@ export default async function setup(project: TestProject) {
     const standIn = await startGithubStandIn({ port: 0, clientId: 'tenthmark-local', clientSecret: 'tenthmark-local-secret' });
     cleanups.push(() => standIn.close());
 
+    const s3 = await startS3StandIn({ port: await freePort(), buckets: [TEST_BUCKET] });
+    cleanups.push(() => s3.stop());
+
     project.provide('pgPort', pgPort);
     project.provide('templateDatabase', TEMPLATE_DATABASE);
     project.provide('smtpPort', smtpPort);
     project.provide('maildevUrl', maildev.webUrl);
     project.provide('githubStandInUrl', standIn.url);
+    project.provide('s3Endpoint', s3.endpoint);
   } catch (error) {
     await teardown();
     throw error;

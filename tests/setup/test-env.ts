@@ -8,6 +8,7 @@ import { createApp, type App } from '../../server/app';
 import { createDb, createPool, type Database } from '../../server/db/client';
 import { loadConfig, type AppConfig } from '../../server/env';
 import { createLogger } from '../../server/lib/logger';
+import { storageSettings } from './storage';
 
 const adminUrl = () => `postgres://postgres@127.0.0.1:${inject('pgPort')}/postgres`;
 
@@ -41,7 +42,7 @@ export async function createTestDatabase(): Promise<{ url: string; drop: () => P
   };
 }
 
-/** The app's configuration for tests, built through the same loader as production. */
+/** The app's configuration for tests, built through the same loader as production; photos on the storage under test (tests/setup/storage.ts). */
 export function testConfig(databaseUrl: string, overrides: Record<string, string> = {}): AppConfig {
   return loadConfig({
     NODE_ENV: 'test',
@@ -56,6 +57,7 @@ export function testConfig(databaseUrl: string, overrides: Record<string, string
     // Every test shares 127.0.0.1; the sign-in limit stays at its real value.
     RATE_LIMIT_SIGNUP_MAX: '1000',
     RATE_LIMIT_RESET_PER_ADDRESS: '1000',
+    ...storageSettings(inject('s3Endpoint')),
     ...overrides,
   });
 }

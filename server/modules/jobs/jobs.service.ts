@@ -8,7 +8,7 @@ import { AppError, conflict, notFound } from '../../lib/errors';
 import { processPhoto, type ProcessedPhoto } from '../../lib/images';
 import { enqueueMail } from '../../lib/mail/outbox';
 import { jobCancelledMail, jobChangedMail, matchingJobMail } from '../../lib/mail/templates';
-import type { FileStorage } from '../../lib/storage';
+import type { FileStorage, StoredFile } from '../../lib/storage';
 import type { PaymentsClient } from '../../lib/payments-client';
 import type { RealtimeHub } from '../../realtime/hub';
 import { closeOpenCheckouts, expireOpenCheckouts } from '../payments/open-checkouts';
@@ -239,7 +239,7 @@ export async function addPhotos(deps: JobDeps, user: User, jobId: string, files:
   }
 }
 
-export async function readPhoto(deps: JobDeps, user: User, jobId: string, photoId: string, size: 'large' | 'thumb'): Promise<Buffer> {
+export async function readPhoto(deps: JobDeps, user: User, jobId: string, photoId: string, size: 'large' | 'thumb'): Promise<StoredFile> {
   const job = await jobForViewer(deps.db, jobId, user);
   const [photo] = await deps.db.select().from(jobPhotos).where(and(eq(jobPhotos.id, photoId), eq(jobPhotos.jobId, job.id)));
   if (!photo) throw notFound('No such photo.');

@@ -4,7 +4,7 @@ import type { Database } from '../../db/client';
 import { messagePhotos, type User } from '../../db/schema';
 import { conflict, forbidden, notFound } from '../../lib/errors';
 import { withStoredPhotos } from '../../lib/images';
-import type { FileStorage } from '../../lib/storage';
+import type { FileStorage, StoredFile } from '../../lib/storage';
 import { messagePhotoKey, toMessagePhoto, type PhotoSize } from './message-photos.repository';
 import { threadFor } from './messages.service';
 
@@ -41,7 +41,7 @@ export async function addMessagePhotos(deps: MessagePhotoDeps, user: User, threa
  * A photo's file, for people who may read the conversation (threadFor: anyone
  * else gets 404). Until it is sent, only its uploader sees it.
  */
-export async function readMessagePhoto(deps: MessagePhotoDeps, user: User, threadId: string, photoId: string, size: PhotoSize): Promise<Buffer> {
+export async function readMessagePhoto(deps: MessagePhotoDeps, user: User, threadId: string, photoId: string, size: PhotoSize): Promise<StoredFile> {
   await threadFor(deps.db, threadId, user);
   const [photo] = await deps.db
     .select()

@@ -4,7 +4,7 @@ import type { Database, Executor } from '../../db/client';
 import { milestonePhotos, type User } from '../../db/schema';
 import { AppError, notFound } from '../../lib/errors';
 import { withStoredPhotos } from '../../lib/images';
-import type { FileStorage } from '../../lib/storage';
+import type { FileStorage, StoredFile } from '../../lib/storage';
 import { mustSeeWork, mustBeWorkingShop, partiesOf } from '../jobs/job-access';
 
 export interface MilestonePhotoDeps {
@@ -50,7 +50,7 @@ export async function addMilestonePhotos(deps: MilestonePhotoDeps, user: User, j
 }
 
 /** A photo's file, for people who may see the job's work; until it is attached, only its uploader sees it. */
-export async function readMilestonePhoto(deps: MilestonePhotoDeps, user: User, jobId: string, photoId: string, size: PhotoSize): Promise<Buffer> {
+export async function readMilestonePhoto(deps: MilestonePhotoDeps, user: User, jobId: string, photoId: string, size: PhotoSize): Promise<StoredFile> {
   mustSeeWork(await partiesOf(deps.db, jobId), user);
   const [photo] = await deps.db
     .select()

@@ -1,0 +1,82 @@
+import { mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { buffer } from 'node:stream/consumers';
+import sharp from 'sharp';
+import { afterAll, describe, expect, inject, it } from 'vitest';
+import { loadConfig } from '../../server/env';
+import { withStoredPhotos } from '../../server/lib/images';
+import { createStorage, type FileStorage } from '../../server/lib/storage';
+import { storageSettings, storedKeys } from '../setup/storage';
+
+/**
+ * The storage contract, the same checks on the uploads folder and on the S3
+ * stand-in (s3rver, started by the global setup): what goes in comes back as
+ * a stream of the same bytes, a missing key is "not there", removing is
+ * idempotent, and a photo save that fails leaves no file behind.
+ */
+const folders: string[] = [];
+afterAll(() => {
+  for (const dir of folders) rmSync(dir, { recursive: true, force: true });
+});
+
+function configFor(kind: 'disk' | 's3') {
+  const dir = mkdtempSync(join(tmpdir(), 'tenthmark-storage-'));
+  folders.push(dir);
+  return loadConfig({ NODE_ENV: 'test', UPLOADS_DIR: dir, ...storageSettings(inject('s3Endpoint'), kind) }).storage;
+}
+
+const unique = () => `t${Math.random().toString(36).slice(2, 10)}`;
+
+describe.each(['disk', 's3'] as const)('file storage on %s', (kind) => {
+  const config = configFor(kind);
+  const storage: FileStorage = createStorage(config);
+
+  it('when a file is put, then get streams back exactly its bytes with its size', async () => {
+    const key = `jobs/${unique()}/photo-large.webp`;
+    // Bytes that would show any framing or re-encoding: every byte value, twice, plus a CRLF run.
+    const data = Buffer.concat([Buffer.from(Array.from({ length: 512 }, (_, i) => i % 256)), Buffer.from('\r\n0\r\n\r\n')]);
+    await storage.put(key, data);
+    const file = await storage.get(key);
+    expect(file?.size).toBe(data.length);
+    expect(Buffer.compare(await buffer(file!.body), data)).toBe(0);
+  });
+
+  it('when a key was never stored, then get says it is not there', async () => {
+    expect(await storage.get(`jobs/${unique()}/missing-thumb.webp`)).toBeUndefined();
+  });
+
+  it('when a file is removed, then it is gone, and removing it again is not an error', async () => {
+    const key = `threads/${unique()}/photo-thumb.webp`;
+    await storage.put(key, Buffer.from('thumb'));
+    await storage.remove(key);
+    expect(await storage.get(key)).toBeUndefined();
+    await expect(storage.remove(key)).resolves.toBeUndefined();
+  });
+
+  it('when a file is put twice under one key, then the second copy is what comes back', async () => {
+    const key = `milestones/${unique()}/photo-large.webp`;
+    await storage.put(key, Buffer.from('first'));
+    await storage.put(key, Buffer.from('second, longer'));
+    expect((await buffer((await storage.get(key))!.body)).toString()).toBe('second, longer');
+  });
+
+  it('when a key is not one the app makes (a way out of the folder, an upper-case name), then it is refused before any I/O', async () => {
+    for (const key of ['../etc/passwd.txt', 'jobs/../../x.webp', 'Jobs/x.webp', 'jobs//x.webp', '/jobs/x.webp']) {
+      await expect(storage.put(key, Buffer.from('x'))).rejects.toThrow(/storage key/);
+      await expect(storage.get(key)).rejects.toThrow(/storage key/);
+    }
+  });
+
+  it('when saving the photos fails after both sizes are stored, then nothing is left behind', async () => {
+    const prefix = `jobs/${unique()}/`;
+    const jpeg = await sharp({ create: { width: 320, height: 240, channels: 3, background: '#8a8d90' } }).jpeg().toBuffer();
+    const failed = withStoredPhotos(storage, [{ buffer: jpeg }, { buffer: jpeg }], (id, size) => `${prefix}${id}-${size}.webp`, async () => {
+      // Both photos' files are in the store when the database refuses them.
+      expect(await storedKeys(config, prefix)).toHaveLength(4);
+      throw new Error('the insert failed');
+    });
+    await expect(failed).rejects.toThrow('the insert failed');
+    expect(await storedKeys(config, prefix)).toEqual([]);
+  });
+});
