@@ -86,7 +86,8 @@ export function photoUploadSteps(mayUpload: (req: Request) => Promise<void>, upl
  * browser never keeps half a photo as if it were whole.
  */
 export async function sendPhoto(res: Response, webp: StoredFile): Promise<void> {
-  res.set({ 'Content-Type': 'image/webp', 'Content-Length': String(webp.size), 'Cache-Control': 'private, max-age=3600', 'X-Content-Type-Options': 'nosniff' });
+  res.set({ 'Content-Type': 'image/webp', 'Cache-Control': 'private, max-age=3600', 'X-Content-Type-Options': 'nosniff' });
+  if (webp.size !== undefined) res.set('Content-Length', String(webp.size));
   try {
     await pipeline(webp.body, res);
   } catch (error) {

@@ -6,10 +6,10 @@ import type { Readable } from 'node:stream';
 import { DeleteObjectCommand, GetObjectCommand, PutObjectCommand, S3Client, S3ServiceException } from '@aws-sdk/client-s3';
 import type { StorageConfig } from '../env';
 
-/** A stored file as it is read back: its bytes as a stream (send it, or destroy it) and its length. */
+/** A stored file as it is read back: its bytes as a stream (send it, or destroy it) and its length when the store says it. */
 export interface StoredFile {
   body: Readable;
-  size: number;
+  size?: number;
 }
 
 /**
@@ -120,7 +120,7 @@ export class S3Storage implements FileStorage {
     try {
       const answer = await this.client.send(new GetObjectCommand({ Bucket: this.bucket, Key: checkKey(key) }));
       if (!answer.Body) throw new Error(`the object store sent no body for ${key}`);
-      return { body: answer.Body as Readable, size: answer.ContentLength ?? 0 };
+      return { body: answer.Body as Readable, size: answer.ContentLength };
     } catch (error) {
       if (error instanceof S3ServiceException && (error.name === 'NoSuchKey' || error.$metadata.httpStatusCode === 404)) return undefined;
       throw error;
