@@ -1,11 +1,15 @@
 import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
+import type { AddressInfo } from 'node:net';
 import { join } from 'node:path';
+import { Readable } from 'node:stream';
 import { buffer } from 'node:stream/consumers';
+import express from 'express';
 import sharp from 'sharp';
 import { afterAll, describe, expect, inject, it } from 'vitest';
 import { loadConfig } from '../../server/env';
 import { withStoredPhotos } from '../../server/lib/images';
+import { sendPhoto } from '../../server/lib/photo-upload';
 import { createStorage, type FileStorage } from '../../server/lib/storage';
 import { storageSettings, storedKeys } from '../setup/storage';
 
@@ -78,5 +82,27 @@ describe.each(['disk', 's3'] as const)('file storage on %s', (kind) => {
     });
     await expect(failed).rejects.toThrow('the insert failed');
     expect(await storedKeys(config, prefix)).toEqual([]);
+  });
+});
+
+describe('sending a stored photo', () => {
+  it('when the store fails after part of the photo went out, then the connection is cut, not a short photo passed off as whole', async () => {
+    const app = express();
+    app.get('/photo', (_req, res, next) => {
+      const body = new Readable({ read() {} });
+      body.push(Buffer.alloc(1000, 7));
+      setTimeout(() => body.destroy(new Error('the store went away')), 50);
+      sendPhoto(res, { body, size: 5000 }).catch(next);
+    });
+    const server = app.listen(0, '127.0.0.1');
+    await new Promise((resolve) => server.once('listening', resolve));
+    try {
+      const answer = await fetch(`http://127.0.0.1:${(server.address() as AddressInfo).port}/photo`);
+      expect(answer.status).toBe(200);
+      expect(answer.headers.get('content-length')).toBe('5000');
+      await expect(answer.arrayBuffer()).rejects.toThrow();
+    } finally {
+      server.close();
+    }
   });
 });
