@@ -3,7 +3,7 @@ import { mkdir, rm, stat, writeFile, rename } from 'node:fs/promises';
 import { dirname, join, resolve, sep } from 'node:path';
 import { randomUUID } from 'node:crypto';
 import type { Readable } from 'node:stream';
-import { DeleteObjectCommand, GetObjectCommand, PutObjectCommand, S3Client, S3ServiceException } from '@aws-sdk/client-s3';
+import type { S3Client } from '@aws-sdk/client-s3';
 import type { StorageConfig } from '../env';
 
 /** A stored file as it is read back: its bytes as a stream (send it, or destroy it) and its length when the store says it. */
@@ -75,8 +75,13 @@ const CONTENT_TYPES: Record<string, string> = { webp: 'image/webp', pdf: 'applic
 
 type S3Config = Extract<StorageConfig, { kind: 's3' }>;
 
+// The SDK takes a sixth of a second to load: only an app set up with STORAGE=s3 pays for it.
+let sdk: Promise<typeof import('@aws-sdk/client-s3')> | undefined;
+const loadSdk = () => (sdk ??= import('@aws-sdk/client-s3'));
+
 /** A client for the object store the settings name. */
-export function s3ClientFor(config: S3Config): S3Client {
+export async function s3ClientFor(config: S3Config): Promise<S3Client> {
+  const { S3Client } = await loadSdk();
   return new S3Client({
     endpoint: config.endpoint,
     region: config.region,
@@ -94,18 +99,18 @@ export function s3ClientFor(config: S3Config): S3Client {
 
 /** Any S3-compatible object store, one bucket, keys as given (path-style addressing when the settings ask for it). */
 export class S3Storage implements FileStorage {
-  constructor(
-    private readonly client: S3Client,
-    private readonly bucket: string,
-  ) {}
+  private readonly client: Promise<S3Client>;
+  private readonly bucket: string;
 
-  static fromConfig(config: S3Config): S3Storage {
-    return new S3Storage(s3ClientFor(config), config.bucket);
+  constructor(config: S3Config) {
+    this.client = s3ClientFor(config);
+    this.bucket = config.bucket;
   }
 
   async put(key: string, data: Buffer): Promise<void> {
     const extension = key.slice(key.lastIndexOf('.') + 1);
-    await this.client.send(
+    const { PutObjectCommand } = await loadSdk();
+    await (await this.client).send(
       new PutObjectCommand({
         Bucket: this.bucket,
         Key: checkKey(key),
@@ -117,8 +122,9 @@ export class S3Storage implements FileStorage {
   }
 
   async get(key: string): Promise<StoredFile | undefined> {
+    const { GetObjectCommand, S3ServiceException } = await loadSdk();
     try {
-      const answer = await this.client.send(new GetObjectCommand({ Bucket: this.bucket, Key: checkKey(key) }));
+      const answer = await (await this.client).send(new GetObjectCommand({ Bucket: this.bucket, Key: checkKey(key) }));
       if (!answer.Body) throw new Error(`the object store sent no body for ${key}`);
       return { body: answer.Body as Readable, size: answer.ContentLength };
     } catch (error) {
@@ -129,11 +135,12 @@ export class S3Storage implements FileStorage {
 
   async remove(key: string): Promise<void> {
     // S3 answers 204 for a key that is not there, so removing twice is fine.
-    await this.client.send(new DeleteObjectCommand({ Bucket: this.bucket, Key: checkKey(key) }));
+    const { DeleteObjectCommand } = await loadSdk();
+    await (await this.client).send(new DeleteObjectCommand({ Bucket: this.bucket, Key: checkKey(key) }));
   }
 }
 
 /** The storage the settings choose: the uploads folder, or the object store. */
 export function createStorage(config: StorageConfig): FileStorage {
-  return config.kind === 's3' ? S3Storage.fromConfig(config) : new LocalDiskStorage(config.dir);
+  return config.kind === 's3' ? new S3Storage(config) : new LocalDiskStorage(config.dir);
 }

@@ -39,7 +39,7 @@ export async function storedKeys(storage: StorageConfig, prefix: string): Promis
       .map((entry) => relative(storage.dir, join(entry.parentPath, entry.name)))
       .sort();
   }
-  const client = s3ClientFor(storage);
+  const client = await s3ClientFor(storage);
   try {
     const answer = await client.send(new ListObjectsV2Command({ Bucket: storage.bucket, Prefix: prefix }));
     return (answer.Contents ?? []).map((object) => object.Key!).sort();
