@@ -49,6 +49,8 @@ export const threadKeys = {
   history: (threadId: string) => [...threadKeys.histories(), threadId] as const,
   latests: () => [...threadKeys.all, 'latest'] as const,
   latest: (threadId: string) => [...threadKeys.latests(), threadId] as const,
+  /** The other person's read mark as live events last moved it; outside the lists, so refetching them leaves it be. */
+  otherRead: (threadId: string) => [...threadKeys.all, 'other-read', threadId] as const,
 };
 
 /** A job's money (payments, ledger balance, payouts on their way) and its change orders. */

@@ -1,4 +1,4 @@
-import { infiniteQueryOptions, queryOptions, useInfiniteQuery, useQuery, type InfiniteData, type QueryClient } from '@tanstack/react-query';
+import { infiniteQueryOptions, queryOptions, skipToken, useInfiniteQuery, useQuery, type InfiniteData, type QueryClient } from '@tanstack/react-query';
 import type { HistoryPage, Message, ThreadAnswer, ThreadList, ThreadSummary } from '@shared/schemas/messages';
 import { api } from '@client/lib/api-client';
 import { type MutationOptions, useApiMutation } from '@client/lib/mutation';
@@ -88,11 +88,31 @@ export function addMessageToCache(queryClient: QueryClient, message: Message) {
   );
 }
 
-/** The other person has read up to `messageId`: every list that shows the thread learns it. */
+/**
+ * The other person has read up to `messageId`: every list that shows the thread learns it, and
+ * the mark is kept apart too. A list fetched before the receipt (a new message refetches them)
+ * can land after it; the kept mark stops that answer from taking "Seen" back.
+ */
 export function setOtherRead(queryClient: QueryClient, threadId: string, messageId: string) {
+  queryClient.setQueryData(threadKeys.otherRead(threadId), messageId);
   queryClient.setQueriesData<ThreadSummary[]>({ queryKey: threadKeys.lists() }, (list) =>
     list?.map((thread) => (thread.id === threadId ? { ...thread, otherLastReadMessageId: messageId } : thread)),
   );
+}
+
+/** The read mark live events last set for a thread, if any. */
+export const liveReadMark = (queryClient: QueryClient, threadId: string) => queryClient.getQueryData<string>(threadKeys.otherRead(threadId));
+
+/** The same, kept current on screen (set only by `setOtherRead`, never fetched). */
+export const useLiveReadMark = (threadId: string) =>
+  useQuery<string>({ queryKey: threadKeys.otherRead(threadId), queryFn: skipToken, staleTime: Infinity }).data;
+
+/**
+ * Where in `delivered` (oldest first) the other person has read to: the later of the marks given,
+ * since a read mark only moves forward; -1 when none of them is among the loaded messages.
+ */
+export function otherReadIndex(delivered: Message[], ...marks: (string | null | undefined)[]): number {
+  return Math.max(-1, ...marks.map((mark) => (mark ? delivered.findIndex((m) => m.id === mark) : -1)));
 }
 
 /** The messages of a loaded history, oldest first, as a conversation reads. */

@@ -9,7 +9,7 @@ import { cn } from '@client/lib/cn';
 import { threadKeys } from '@client/lib/query-keys';
 import { useConnectionStatus, useRealtimeUserId, useRoom, useSocket, useSocketEvent, type SocketAck } from '@client/lib/realtime';
 import { useOutbox, useOutboxEntries } from '../api/live';
-import { chronological, useThreadHistory } from '../api/threads';
+import { chronological, otherReadIndex, useLiveReadMark, useThreadHistory } from '../api/threads';
 import type { OutboxEntry } from '../outbox';
 import { MessageComposer } from './message-composer';
 import { MessagePhotos } from './message-photos';
@@ -176,7 +176,8 @@ export function ConversationView({ thread, side, jobStatus, focusComposer = fals
   const recent = delivered.filter((m) => !(boundary.current && m.createdAt < boundary.current));
 
   // ---- "Seen": the last of my messages at or before where the other person has read ----
-  const readIndex = thread.otherLastReadMessageId ? delivered.findIndex((m) => m.id === thread.otherLastReadMessageId) : -1;
+  const liveRead = useLiveReadMark(thread.id);
+  const readIndex = otherReadIndex(delivered, thread.otherLastReadMessageId, liveRead);
   let seenId: string | null = null;
   for (let i = readIndex; i >= 0; i--) {
     if (delivered[i].author.id === me) {
