@@ -3,23 +3,35 @@
  * A private PostgreSQL cluster under .data/, migrations, demo data, maildev,
  * the GitHub sign-in stand-in, and the app itself. Ctrl-C stops what it started,
  * every time: PostgreSQL is stopped (and awaited) before this process exits.
+ *
+ * `npm run start:cluster` (`--cluster`, `--instances N`, default 3): the same, but
+ * the app runs as N instances in processes of their own with photos in the S3
+ * stand-in, behind a local reverse proxy on the app's port (server/dev/cluster.ts).
  */
 import { spawn } from 'node:child_process';
 import { fileURLToPath } from 'node:url';
 import { createDb, createPool, runMigrations } from '../db/client';
 import { loadConfig } from '../env';
 import { startServer } from '../runtime';
+import { startCluster } from './cluster';
 import { startGithubStandIn } from './github-stand-in';
 import { startMaildev } from './maildev';
 import { startPaymentsStandIn } from './payments-stand-in';
 import { ensureClusterAsync, ensureDatabase, type Cluster } from './postgres';
+import { S3_STAND_IN_CREDENTIALS, startS3StandIn } from './s3-stand-in';
 import { buildDemoScenario } from './demo-scenario';
 import { DEMO_PASSWORD, demoAccounts, seedIfEmpty } from './seed';
 
 const root = fileURLToPath(new URL('../..', import.meta.url));
 const dev = process.argv.includes('--dev');
+const instancesAt = process.argv.indexOf('--instances');
+/** How many app instances `--cluster` runs (`--instances N`); 0 means one in this process, as `npm start`. */
+const clusterSize = process.argv.includes('--cluster') || instancesAt > 0 ? Number(instancesAt > 0 ? process.argv[instancesAt + 1] : 3) : 0;
 const step = (text: string) => console.log(`[tenthmark] ${text}`);
 const sleep = (ms: number) => new Promise<void>((resolve) => setTimeout(resolve, ms));
+
+/** The S3 stand-in's bucket for `--cluster`. */
+const CLUSTER_BUCKET = 'tenthmark';
 
 /** How long the app, the stand-ins and maildev get to close before PostgreSQL is stopped regardless. */
 const CLOSE_DEADLINE_MS = 10_000;
@@ -103,7 +115,10 @@ process.on('unhandledRejection', (error) => {
 });
 
 try {
-  const config = loadConfig({ NODE_ENV: dev ? 'development' : 'production', SESSION_SECRET: 'local-machine-session-secret', ...process.env });
+  if (clusterSize && (!Number.isInteger(clusterSize) || clusterSize < 1)) throw new Error('--instances takes a whole number of 1 or more.');
+  if (clusterSize && dev) throw new Error('--cluster serves the production build; it does not run with --dev.');
+  const env = { NODE_ENV: dev ? 'development' : 'production', SESSION_SECRET: 'local-machine-session-secret', ...process.env };
+  const config = loadConfig(env);
 
   step(`PostgreSQL: private cluster in ${config.dataDir} …`);
   const databaseName = new URL(config.databaseUrl).pathname.slice(1) || 'tenthmark';
@@ -185,8 +200,38 @@ try {
   }
 
   stillStarting();
-  const app = await startServer({ ...config, databaseUrl }, { client, prettyLogs: process.stdout.isTTY });
-  cleanups.push(() => app.close());
+  let app: { url: string };
+  let instancesNote = '';
+  if (clusterSize && client.kind === 'static') {
+    // Every instance must see every photo: they share the S3 stand-in (its objects last as long as this run).
+    const s3 = await startS3StandIn({ buckets: [CLUSTER_BUCKET] });
+    cleanups.push(() => s3.stop());
+    stillStarting();
+    step(`starting ${clusterSize} app instances behind a proxy on port ${config.port} …`);
+    const cluster = await startCluster({
+      count: clusterSize,
+      port: config.port,
+      host: config.host,
+      env: {
+        ...env,
+        DATABASE_URL: databaseUrl,
+        APP_URL: config.appUrl,
+        TENTHMARK_CLIENT_DIR: client.dir,
+        STORAGE: 's3',
+        S3_ENDPOINT: s3.endpoint,
+        S3_BUCKET: CLUSTER_BUCKET,
+        S3_ACCESS_KEY_ID: S3_STAND_IN_CREDENTIALS.accessKeyId,
+        S3_SECRET_ACCESS_KEY: S3_STAND_IN_CREDENTIALS.secretAccessKey,
+      },
+    });
+    cleanups.push(() => cluster.stop());
+    app = cluster;
+    instancesNote = `\n    Instances    ${cluster.instances.map((instance) => `${instance.id} ${instance.url} (pid ${instance.pid})`).join(', ')}\n    Photos       S3 stand-in at ${s3.endpoint}, bucket ${CLUSTER_BUCKET}`;
+  } else {
+    const running = await startServer({ ...config, databaseUrl }, { client, prettyLogs: process.stdout.isTTY });
+    cleanups.push(() => running.close());
+    app = running;
+  }
 
   stillStarting();
   if (seeded && localPayments && config.demoScenario) {
@@ -204,13 +249,13 @@ try {
 
   stillStarting();
   console.log(`
-  Tenthmark is running${dev ? ' (development, hot reload)' : ''}.
+  Tenthmark is running${dev ? ' (development, hot reload)' : ''}${clusterSize ? ` as ${clusterSize} instances behind a proxy` : ''}.
 
     App          ${config.appUrl}
     Mail inbox   ${maildev.webUrl}
     GitHub       ${config.github.standIn ? `local stand-in on 127.0.0.1:${config.githubStandInPort}` : 'github.com'}
     Payments     ${paymentsNote} — test card 4242 4242 4242 4242
-    Database     ${databaseUrl}${pgCluster.adopted ? ' (was already running; stopped on exit)' : ''}
+    Database     ${databaseUrl}${pgCluster.adopted ? ' (was already running; stopped on exit)' : ''}${instancesNote}
 
   Demo accounts (password "${DEMO_PASSWORD}"):
 ${demoAccounts.map((a) => `    ${a.role.padEnd(8)} ${a.email.padEnd(26)} ${a.displayName}`).join('\n')}

@@ -11,7 +11,6 @@
  * message's path with nothing queued beside it. Asserts nothing.
  */
 import { sql } from 'drizzle-orm';
-import { fork, type ChildProcess } from 'node:child_process';
 import { randomBytes } from 'node:crypto';
 import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
@@ -19,6 +18,7 @@ import { join } from 'node:path';
 import pg from 'pg';
 import { io as connect, type Socket } from 'socket.io-client';
 import { createDb, createPool } from '../../server/db/client';
+import { forkInstance } from '../../server/dev/cluster';
 import { hashPassword } from '../../server/lib/auth/passwords';
 import { startServer } from '../../server/runtime';
 import { signedIn } from '../setup/api-session';
@@ -44,34 +44,7 @@ async function startInstance(env: Record<string, string>): Promise<Instance> {
     const running = await startServer(benchConfig(env.DATABASE_URL, env), { migrate: false });
     return { url: running.url, clients: async () => running.io.engine.clientsCount, close: () => running.close() };
   }
-  const child: ChildProcess = fork(new URL('./bench-instance.ts', import.meta.url), {
-    execArgv: ['--import', 'tsx'],
-    env: { ...process.env, BENCH_INSTANCE_ENV: JSON.stringify(env) },
-  });
-  const answer = <T>(key: string) =>
-    new Promise<T>((resolve, reject) => {
-      const onMessage = (message: Record<string, T>) => {
-        if (!(key in message)) return;
-        child.off('message', onMessage);
-        resolve(message[key]);
-      };
-      child.on('message', onMessage);
-      child.once('exit', (code) => reject(new Error(`the instance exited (${code})`)));
-    });
-  const url = await answer<string>('url');
-  return {
-    url,
-    clients: () => {
-      const count = answer<number>('clients');
-      child.send('count');
-      return count;
-    },
-    close: () =>
-      new Promise<void>((resolve) => {
-        child.once('exit', () => resolve());
-        child.send('close');
-      }),
-  };
+  return forkInstance(`bench-${randomBytes(3).toString('hex')}`, env);
 }
 
 const dir = mkdtempSync(join(tmpdir(), 'tenthmark-rt-bench-'));

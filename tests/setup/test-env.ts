@@ -42,9 +42,9 @@ export async function createTestDatabase(): Promise<{ url: string; drop: () => P
   };
 }
 
-/** The app's configuration for tests, built through the same loader as production; photos on the storage under test (tests/setup/storage.ts). */
-export function testConfig(databaseUrl: string, overrides: Record<string, string> = {}): AppConfig {
-  return loadConfig({
+/** The app's settings for tests, as the environment would give them; photos on the storage under test (tests/setup/storage.ts). */
+export function testEnv(databaseUrl: string, overrides: Record<string, string> = {}): Record<string, string> {
+  return {
     NODE_ENV: 'test',
     DATABASE_URL: databaseUrl,
     LOG_LEVEL: 'silent',
@@ -59,8 +59,11 @@ export function testConfig(databaseUrl: string, overrides: Record<string, string
     RATE_LIMIT_RESET_PER_ADDRESS: '1000',
     ...storageSettings(inject('s3Endpoint')),
     ...overrides,
-  });
+  };
 }
+
+/** The app's configuration for tests (testEnv), built through the same loader as production. */
+export const testConfig = (databaseUrl: string, overrides: Record<string, string> = {}): AppConfig => loadConfig(testEnv(databaseUrl, overrides));
 
 export interface TestContext {
   config: AppConfig;
