@@ -101,7 +101,7 @@ export default defineConfig({
         extends: true,
         test: {
           name: 'integration',
-          include: ['tests/api/**/*.test.ts', 'tests/realtime/**/*.test.ts', 'tests/e2e/**/*.test.ts'],
+          include: ['tests/api/**/*.test.ts', 'tests/realtime/**/*.test.ts', 'tests/cluster/**/*.test.ts', 'tests/e2e/**/*.test.ts'],
           environment: 'node',
           globalSetup: ['tests/setup/global-setup.ts'],
           testTimeout: 60_000,

@@ -214,13 +214,13 @@ export type Proxy = Awaited<ReturnType<typeof startProxy>>;
 
 /**
  * `count` instances with the same settings behind one proxy (on `port`, default any free
- * one). Each instance listens on a port of its own; APP_URL is the proxy's address unless
- * given, and the instances trust the proxy's X-Forwarded-* headers (TRUST_PROXY=loopback).
+ * one). Each instance listens on a port of its own on loopback; APP_URL is `appUrl` (the
+ * address people use), by default the proxy's, and the instances trust the proxy's X-Forwarded-* headers (TRUST_PROXY=loopback).
  * An instance whose process ends leaves the rotation.
  */
-export async function startCluster(options: { count: number; env: Record<string, string | undefined>; port?: number; host?: string }) {
+export async function startCluster(options: { count: number; env: Record<string, string | undefined>; port?: number; host?: string; appUrl?: string }) {
   const proxy = await startProxy({ port: options.port, host: options.host });
-  const env = { APP_URL: proxy.url, TRUST_PROXY: 'loopback', ...options.env, PORT: '0', HOST: '127.0.0.1' };
+  const env = { TRUST_PROXY: 'loopback', ...options.env, APP_URL: options.appUrl ?? proxy.url, PORT: '0', HOST: '127.0.0.1' };
   const started = await Promise.allSettled(Array.from({ length: options.count }, (_, n) => forkInstance(`i${n + 1}`, env)));
   const instances = started.flatMap((outcome) => (outcome.status === 'fulfilled' ? [outcome.value] : []));
   const stop = async () => {

@@ -212,10 +212,10 @@ try {
       count: clusterSize,
       port: config.port,
       host: config.host,
+      appUrl: config.appUrl,
       env: {
         ...env,
         DATABASE_URL: databaseUrl,
-        APP_URL: config.appUrl,
         TENTHMARK_CLIENT_DIR: client.dir,
         STORAGE: 's3',
         S3_ENDPOINT: s3.endpoint,

@@ -9,20 +9,23 @@ import { createTestDatabase, testConfig, type TestContext } from './test-env';
 /** A signed-in (or visiting) HTTP session: its cookie and a CSRF token for it. */
 export type Auth = { cookie: string; csrf: string };
 
+/** What the helpers below need of an app: where it listens (one instance, or a proxy in front of several). */
+type Reachable = Pick<RunningServer, 'url'>;
+
 /** Signs in over HTTP (the shared API-session helper) and returns the session cookie and a CSRF token for it. */
-export async function session(server: RunningServer, user: { email: string; password: string }): Promise<Auth> {
+export async function session(server: Reachable, user: { email: string; password: string }): Promise<Auth> {
   const client = await signedIn(server.url, user);
   return { cookie: client.cookie!, csrf: client.token };
 }
 
 /** A signed-out visitor's cookie and token, for the public routes. */
-export async function visitor(server: RunningServer): Promise<Auth> {
+export async function visitor(server: Reachable): Promise<Auth> {
   const client = await agentFor(server.url);
   return { cookie: client.cookie!, csrf: client.token };
 }
 
 /** POSTs JSON with the session's cookie and token; the status and the parsed body (empty when none). */
-export async function post(server: RunningServer, auth: Auth, path: string, body: unknown = {}) {
+export async function post(server: Reachable, auth: Auth, path: string, body: unknown = {}) {
   const res = await fetch(`${server.url}${path}`, {
     method: 'POST',
     headers: { 'Content-Type': 'application/json', Cookie: auth.cookie, 'X-CSRF-Token': auth.csrf },
@@ -35,7 +38,7 @@ export async function post(server: RunningServer, auth: Auth, path: string, body
  * A socket to `server` with the given cookie (and Origin, when a test plays another site), no
  * automatic reconnection; it goes into `sockets` so the test file can close them after each test.
  */
-export function socketFor(sockets: Socket[], server: RunningServer, cookie?: string, origin?: string): Socket {
+export function socketFor(sockets: Socket[], server: Reachable, cookie?: string, origin?: string): Socket {
   const headers: Record<string, string> = {};
   if (cookie) headers.cookie = cookie;
   if (origin) headers.origin = origin;
