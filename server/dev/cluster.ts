@@ -12,6 +12,9 @@ import { Readable } from 'node:stream';
 import httpProxy from 'http-proxy';
 import type { InstanceAnswer, InstanceAsk } from './instance-process';
 
+/** How long an instance gets to close before it is killed. */
+const CLOSE_DEADLINE_MS = 8_000;
+
 /** One forked app instance. */
 export interface Instance {
   id: string;
@@ -75,7 +78,10 @@ export async function forkInstance(id: string, env: Record<string, string | unde
     close: async () => {
       if (ended) return;
       ask({ ask: 'close' });
+      // An instance that cannot close (a pool waiting on a database already gone) is ended.
+      const stuck = setTimeout(() => child.kill('SIGKILL'), CLOSE_DEADLINE_MS);
       await exited;
+      clearTimeout(stuck);
     },
     kill: async () => {
       if (!ended) child.kill('SIGKILL');

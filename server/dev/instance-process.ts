@@ -19,9 +19,11 @@ const send = (answer: InstanceAnswer) => process.send?.(answer);
 
 const config = loadConfig(JSON.parse(process.env.TENTHMARK_INSTANCE_ENV ?? '{}') as Record<string, string>);
 const running = await startServer(config, { migrate: false, client: config.clientDir ? { kind: 'static', dir: config.clientDir } : undefined });
+let closing: Promise<void> | undefined;
+const closeAndExit = () => (closing ??= running.close().finally(() => process.exit(0)));
 process.on('message', (message: InstanceAsk) => {
   if (message.ask === 'count') send({ clients: running.io.engine.clientsCount });
-  if (message.ask === 'close') void running.close().then(() => process.exit(0));
+  if (message.ask === 'close') void closeAndExit();
   if (message.ask === 'run-due') {
     void running.scheduler.runDue(message.now ? new Date(message.now) : undefined).then(
       (ran) => send({ ran }),
@@ -30,5 +32,15 @@ process.on('message', (message: InstanceAsk) => {
   }
 });
 // The parent went away without asking: nothing is left running.
-process.on('disconnect', () => void running.close().finally(() => process.exit(0)));
-send({ listening: { host: config.host, port: running.port } });
+process.on('disconnect', () => void closeAndExit());
+// A terminal's Ctrl-C reaches the whole process group, this process too: while the parent is
+// there, it closes the instances in its own order (before stopping PostgreSQL); on its own, a
+// signal closes this instance.
+for (const signal of ['SIGINT', 'SIGTERM', 'SIGHUP'] as const) {
+  process.on(signal, () => {
+    if (!process.connected) void closeAndExit();
+  });
+}
+// The parent may have gone while this was starting (its 'disconnect' then came before the listener above).
+if (process.connected) send({ listening: { host: config.host, port: running.port } });
+else void closeAndExit();

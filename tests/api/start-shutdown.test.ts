@@ -70,9 +70,9 @@ async function makeSetup(): Promise<Setup> {
   return { dir, dataDir, pgDataDir: join(dataDir, 'pg'), ports, env };
 }
 
-function startApp(setup: Setup): Run {
+function startApp(setup: Setup, script: string[] = ['start']): Run {
   // detached: a process group of its own, as a terminal gives `npm start`.
-  const child = spawn('npm', ['start'], { cwd: root, env: setup.env, detached: true, stdio: ['ignore', 'pipe', 'pipe'] });
+  const child = spawn('npm', script, { cwd: root, env: setup.env, detached: true, stdio: ['ignore', 'pipe', 'pipe'] });
   let text = '';
   child.stdout!.on('data', (chunk) => (text += chunk));
   child.stderr!.on('data', (chunk) => (text += chunk));
@@ -254,6 +254,23 @@ describe('npm start stops what it started', () => {
     signalGroup(run, 'SIGINT');
     await waitForGroupGone(run);
 
+    await expectEverythingStopped(setup, run);
+  });
+
+  it('npm run start:cluster: stops the instances, the proxy, the stand-ins and PostgreSQL on Ctrl-C', { timeout: 150_000 }, async () => {
+    const setup = await makeSetup();
+    const run = startApp(setup, ['run', 'start:cluster', '--', '--instances', '2']);
+    await waitForHealth(run, setup.ports.PORT);
+    // The same traffic through the proxy: pages, a sign-in, a socket.io client over a websocket, a half-sent request.
+    const closeTraffic = await makeTraffic(setup.ports.PORT);
+    expect(run.output()).toContain('as 2 instances behind a proxy');
+
+    signalGroup(run, 'SIGINT');
+    try {
+      await waitForGroupGone(run);
+    } finally {
+      closeTraffic();
+    }
     await expectEverythingStopped(setup, run);
   });
 
