@@ -70,12 +70,25 @@ function releaseOnFailedBegin(db: Database, pool: pg.Pool) {
   };
 }
 
+/** The advisory lock key migrations are applied under (any fixed number; this one spells "tenthmig" in hex letters). */
+const MIGRATION_LOCK = 0x74656e74686d6967n;
+
+/**
+ * Applies pending migrations, once however many app instances start at the same moment: each
+ * waits for a PostgreSQL advisory lock held on a connection of its own, so the first applies them
+ * and the others then find none pending.
+ */
 export async function runMigrations(url: string): Promise<void> {
+  const lock = new pg.Client({ connectionString: url });
+  await lock.connect();
   const pool = createPool(url, 1);
   try {
+    await lock.query('SELECT pg_advisory_lock($1)', [MIGRATION_LOCK.toString()]);
     await migrate(createDb(pool), { migrationsFolder });
   } finally {
     await pool.end();
+    // Ending the session releases the lock.
+    await lock.end();
   }
 }
 

@@ -1,6 +1,10 @@
+import { randomBytes } from 'node:crypto';
+import { readFileSync } from 'node:fs';
+import { join } from 'node:path';
 import { eq, is, sql, Table } from 'drizzle-orm';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { createDb, createPool, type Database } from '../../server/db/client';
+import pg from 'pg';
+import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
+import { createDb, createPool, migrationsFolder, runMigrations, type Database } from '../../server/db/client';
 import * as schema from '../../server/db/schema';
 import { createTestDatabase } from '../setup/test-env';
 
@@ -57,5 +61,24 @@ describe('database schema', () => {
     expect(tableNames.length).toBeGreaterThan(25);
     expect(Object.keys(db.query).sort()).toEqual(tableNames);
     expect(await db.query.adminActions.findMany({ limit: 1 })).toEqual([]);
+  });
+
+  it('when three app instances start at once on an empty database, then each migration is applied once', async () => {
+    const name = `m_${randomBytes(6).toString('hex')}`;
+    const admin = new pg.Client({ connectionString: `postgres://postgres@127.0.0.1:${inject('pgPort')}/postgres` });
+    await admin.connect();
+    await admin.query(`CREATE DATABASE ${name}`);
+    cleanups.push(async () => {
+      await admin.query(`DROP DATABASE IF EXISTS ${name} WITH (FORCE)`);
+      await admin.end();
+    });
+    const url = `postgres://postgres@127.0.0.1:${inject('pgPort')}/${name}`;
+    await Promise.all([runMigrations(url), runMigrations(url), runMigrations(url)]);
+    const journal = JSON.parse(readFileSync(join(migrationsFolder, 'meta', '_journal.json'), 'utf8')) as { entries: unknown[] };
+    const applied = new pg.Client({ connectionString: url });
+    await applied.connect();
+    const { rows } = await applied.query('SELECT hash FROM drizzle.__drizzle_migrations').finally(() => applied.end());
+    expect(rows).toHaveLength(journal.entries.length);
+    expect(new Set(rows.map((row) => row.hash)).size).toBe(rows.length);
   });
 });
