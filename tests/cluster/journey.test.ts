@@ -8,7 +8,7 @@
 import { randomBytes } from 'node:crypto';
 import { and, eq, inArray } from 'drizzle-orm';
 import sharp from 'sharp';
-import type { Socket } from 'socket.io-client';
+import { io as connect, type Socket } from 'socket.io-client';
 import { afterAll, afterEach, beforeAll, describe, expect, inject, it } from 'vitest';
 import { createDb, createPool, type Database } from '../../server/db/client';
 import { startCluster, type Cluster } from '../../server/dev/cluster';
@@ -126,7 +126,7 @@ describe('the journey across three instances behind the proxy', () => {
     journey.shopEmail = shopUser.email;
   });
 
-  it('when the shop sends a message with a photo through one instance, then the builder’s sockets on every instance hear it live', async () => {
+  it('when the shop sends a message with a photo through one instance, then the builder’s sockets on every instance hear it live, a long-polling one too', async () => {
     const { builder, shop, jobId } = journey;
     const shopApi: Api = apiOf(shop);
     const profile = await shopApi<{ shop: { id: string } }>('GET', '/api/shop-profile');
@@ -139,6 +139,17 @@ describe('the journey across three instances behind the proxy', () => {
     const listening = cluster.instances.map(() => socketFor(sockets, cluster, builder.cookie));
     await Promise.all(listening.map(connected));
     for (const instance of cluster.instances) expect(cluster.proxy.served.get(instance.id)).toBeGreaterThan(before.get(instance.id) ?? 0);
+    // A client on long polling (where a network blocks websockets): each poll is a request of its own, kept on
+    // one instance by the proxy's cookie (here the last instance's, as a first answer would have set it).
+    const polling = connect(cluster.url, {
+      transports: ['polling'],
+      extraHeaders: { cookie: `${builder.cookie}; tenthmark_instance=${cluster.instances[2].id}` },
+      reconnection: false,
+      forceNew: true,
+    });
+    sockets.push(polling);
+    listening.push(polling);
+    await connected(polling);
     for (const socket of listening) expect(await emit(socket, 'thread:join', { threadId })).toMatchObject({ ok: true });
 
     const arriving = listening.map((socket) => next(socket, 'message:new'));
