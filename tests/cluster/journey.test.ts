@@ -192,7 +192,7 @@ describe('the journey across three instances behind the proxy', () => {
     const accepted = await builder.post(`/api/jobs/${jobId}/inspection/accept`, acceptAsRead(versions[0]));
     expect(accepted.status).toBe(200);
     await until('the payout done', async () => (await db.select().from(moneyMoves).where(eq(moneyMoves.jobId, jobId))).every((move) => move.status === 'done'), 30_000);
-    await until('the job completed', async () => (await builder.get(`/api/jobs/${jobId}`)).body.job.status === 'completed');
+    await until('the job completed', async () => (await builder.get(`/api/jobs/${jobId}`)).body.job.status === 'completed', 15_000);
     await pay.standIn.control.failNextRequests(0);
     const [release] = await db.select().from(moneyMoves).where(and(eq(moneyMoves.jobId, jobId), eq(moneyMoves.kind, 'release')));
     // Its first attempt (in the acceptance's request) failed; a money worker finished it.
