@@ -179,7 +179,8 @@ export async function startProxy(options: { port?: number; host?: string } = {})
     count(target);
     // The client sees the socket close and connects again, through the proxy, to an instance that answers.
     proxy.ws(req, socket, head, { target: target.url }, () => {
-      target.passedOverUntil = Date.now() + PASS_OVER_MS;
+      // The error is the instance's only while the client's side is still there (a browser that went away is not the instance's fault).
+      if (!socket.destroyed) target.passedOverUntil = Date.now() + PASS_OVER_MS;
       socket.destroy();
     });
   });
