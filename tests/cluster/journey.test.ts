@@ -187,16 +187,15 @@ describe('the journey across three instances behind the proxy', () => {
     const reminded = await Promise.all(left.map((instance) => instance.runDue(new Date(reviewDueAt.getTime() - 60 * 60_000))));
     expect(reminded.reduce((sum, ran) => sum + ran, 0)).toBe(1);
 
-    // The first payout attempt fails at the provider (with the SDK's two retries), so the money workers of both instances take the move over.
+    // The first payout attempts fail at the provider (three: the SDK tries twice more), so the move is left to the money
+    // workers of both instances, which may also race the acceptance's own attempt: the idempotency key and the claim of a
+    // pending move keep it to one transfer and one release, whoever finishes it.
     await pay.standIn.control.failNextRequests(3, 500, '/transfers');
     const accepted = await builder.post(`/api/jobs/${jobId}/inspection/accept`, acceptAsRead(versions[0]));
     expect(accepted.status).toBe(200);
     await until('the payout done', async () => (await db.select().from(moneyMoves).where(eq(moneyMoves.jobId, jobId))).every((move) => move.status === 'done'), 30_000);
     await until('the job completed', async () => (await builder.get(`/api/jobs/${jobId}`)).body.job.status === 'completed', 15_000);
     await pay.standIn.control.failNextRequests(0);
-    const [release] = await db.select().from(moneyMoves).where(and(eq(moneyMoves.jobId, jobId), eq(moneyMoves.kind, 'release')));
-    // Its first attempt (in the acceptance's request) failed; a money worker finished it.
-    expect(release.attempts).toBeGreaterThanOrEqual(1);
 
     // The window ends: the task runs once across the instances (it finds the record accepted and does nothing more).
     const ended = await Promise.all(left.map((instance) => instance.runDue(new Date(reviewDueAt.getTime() + 60_000))));
