@@ -13,10 +13,11 @@ import { useBoard, readBoardFilters } from '@client/features/jobs';
 import { useOwnShop } from '@client/features/shops';
 import { cn } from '@client/lib/cn';
 import { formatDate, formatDay } from '@client/lib/dates';
+import { DISTANCE_UNIT_WORDS, formatDistance, POSTAL_CODE_NOT_FOUND, type DistanceUnit } from '@shared/distance';
 import { useSearchParamUpdater } from '@client/lib/search-params';
 
 type Sort = BoardQuery['sort'];
-const FILTER_KEYS = ['operation', 'material', 'cylinders', 'country', 'region', 'logistics', 'neededBefore'] as const;
+const FILTER_KEYS = ['operation', 'material', 'cylinders', 'country', 'region', 'logistics', 'neededBefore', 'within'] as const;
 const PAGE_SIZES = [10, 20, 50, 100];
 
 const materialWords: Record<NonNullable<JobSummary['blockMaterial']>, string> = { 'cast-iron': 'Cast iron', aluminium: 'Aluminium' };
@@ -27,7 +28,18 @@ const sorts: Record<Sort, { column: string; order: string; direction: 'ascending
   newest: { column: 'Posted', order: 'newest first', direction: 'descending' },
   'needed-soonest': { column: 'Needed by', order: 'soonest first', direction: 'ascending' },
   'fewest-bids': { column: 'Bids', order: 'fewest first', direction: 'ascending' },
+  distance: { column: 'Where', order: 'nearest first', direction: 'ascending' },
 };
+
+/** How far the job's parts are from the shop, when both places are known. */
+function DistanceLine({ job, unit }: { job: JobSummary; unit: DistanceUnit | undefined }) {
+  if (!unit) return null;
+  return (
+    <span className="block text-sm text-ink-soft" data-testid="job-distance">
+      {job.distance !== null ? `${formatDistance(job.distance, unit)} away` : job.placeFound ? 'distance unknown' : 'postal code not found'}
+    </span>
+  );
+}
 
 /** The day a job was posted, as the reader's date. */
 function formatPosted(timestamp: string | null) {
@@ -57,7 +69,7 @@ function SortHeader({ sort, current, onSort, className }: { sort: Sort; current:
   );
 }
 
-function JobRow({ job }: { job: JobSummary }) {
+function JobRow({ job, unit }: { job: JobSummary; unit: DistanceUnit | undefined }) {
   return (
     <tr className="border-b border-slate-100 align-top">
       <td className="py-3 pr-3">
@@ -75,6 +87,7 @@ function JobRow({ job }: { job: JobSummary }) {
       <td className="py-3 pr-3">
         {[job.city, job.region].filter(Boolean).join(', ')}
         <span className="block text-sm text-ink-soft">{logisticsWords[job.logistics]}</span>
+        <DistanceLine job={job} unit={unit} />
       </td>
       <td className="py-3 pr-3 whitespace-nowrap">{formatPosted(job.publishedAt)}</td>
       <td className="py-3 pr-3 whitespace-nowrap">{formatDay(job.neededBy)}</td>
@@ -94,7 +107,7 @@ function Thumb({ job, className }: { job: JobSummary; className?: string }) {
 }
 
 /** The same facts as a table row, as a card for tablets and phones. */
-function JobCard({ job }: { job: JobSummary }) {
+function JobCard({ job, unit }: { job: JobSummary; unit: DistanceUnit | undefined }) {
   return (
     <article className="flex h-full gap-4 rounded-card bg-paper-raised p-4 shadow-card ring-1 ring-slate-100">
       <Thumb job={job} className="h-16 w-20 shrink-0" />
@@ -113,6 +126,7 @@ function JobCard({ job }: { job: JobSummary }) {
           <dt className="font-semibold text-ink-soft">Where</dt>
           <dd>
             {[job.city, job.region].filter(Boolean).join(', ')} · {logisticsWords[job.logistics].toLowerCase()}
+            <DistanceLine job={job} unit={unit} />
           </dd>
           <dt className="font-semibold text-ink-soft">Needed by</dt>
           <dd>{formatDay(job.neededBy)}</dd>
@@ -131,6 +145,8 @@ export function BoardRoute() {
   const filters = readBoardFilters(params);
   const board = useBoard(filters);
   const own = useOwnShop();
+  const distanceFrom = board.data?.distanceFrom ?? null;
+  const unit = distanceFrom?.unit;
 
   const setSort = (sort: Sort) =>
     update((next) => {
@@ -189,6 +205,12 @@ export function BoardRoute() {
           value={params.get('region') ?? ''}
           onCommit={(text) => setFilter('region', text, { replace: true })}
         />
+        <DebouncedTextField
+          label={`Within (${DISTANCE_UNIT_WORDS[unit ?? 'mi']} of your shop)`}
+          inputMode="decimal"
+          value={params.get('within') ?? ''}
+          onCommit={(text) => setFilter('within', text, { replace: true })}
+        />
         <TextField
           label="Needed before"
           type="date"
@@ -197,6 +219,16 @@ export function BoardRoute() {
         />
         <ClearFiltersButton filtered={filtered} onClear={clearFilters} />
       </FilterForm>
+
+      {distanceFrom && !distanceFrom.found && (
+        <Notice tone="caution" title="Your shop’s postal code was not found" className="mb-6">
+          {distanceFrom.postalCode ? `${distanceFrom.postalCode}: ` : 'No postal code in your shop profile: '}
+          {POSTAL_CODE_NOT_FOUND}.{' '}
+          <Link to="/shop/profile" className="font-semibold underline underline-offset-4">
+            Check your shop profile
+          </Link>
+        </Notice>
+      )}
 
       {board.isError && (
         <Notice tone="error" title="The board could not be loaded" onRetry={() => void board.refetch()}>
@@ -222,7 +254,7 @@ export function BoardRoute() {
                   onChange={(event) => setSort(event.target.value as Sort)}
                   className="min-h-11 rounded-lg border border-slate-300 bg-white px-3 text-base font-normal"
                 >
-                  {(Object.keys(sorts) as Sort[]).map((sort) => (
+                  {(Object.keys(sorts) as Sort[]).filter((sort) => sort !== 'distance' || distanceFrom).map((sort) => (
                     <option key={sort} value={sort}>
                       {sorts[sort].column}, {sorts[sort].order}
                     </option>
@@ -265,7 +297,7 @@ export function BoardRoute() {
               <ul aria-label="Open jobs" aria-busy={board.isFetching} className={cn('grid gap-4 md:grid-cols-2 lg:hidden', board.isPlaceholderData && 'opacity-60')}>
                 {board.data.jobs.map((job) => (
                   <li key={job.id}>
-                    <JobCard job={job} />
+                    <JobCard job={job} unit={unit} />
                   </li>
                 ))}
               </ul>
@@ -290,7 +322,11 @@ export function BoardRoute() {
                       </th>
                       <th scope="col" className="py-2 pr-3 align-bottom font-semibold">Material</th>
                       <th scope="col" className="py-2 pr-3 align-bottom font-semibold">Work</th>
-                      <th scope="col" className="py-2 pr-3 align-bottom font-semibold">Where</th>
+                      {distanceFrom ? (
+                        <SortHeader sort="distance" current={filters.sort} onSort={setSort} />
+                      ) : (
+                        <th scope="col" className="py-2 pr-3 align-bottom font-semibold">Where</th>
+                      )}
                       <SortHeader sort="newest" current={filters.sort} onSort={setSort} />
                       <SortHeader sort="needed-soonest" current={filters.sort} onSort={setSort} />
                       <SortHeader sort="fewest-bids" current={filters.sort} onSort={setSort} className="pr-0 text-right" />
@@ -298,7 +334,7 @@ export function BoardRoute() {
                   </thead>
                   <tbody>
                     {board.data.jobs.map((job) => (
-                      <JobRow key={job.id} job={job} />
+                      <JobRow key={job.id} job={job} unit={unit} />
                     ))}
                   </tbody>
                 </table>
