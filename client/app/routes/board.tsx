@@ -5,6 +5,7 @@ import { Button } from '@client/components/ui/button';
 import { PageTitle } from '@client/components/ui/card';
 import { ClearFiltersButton, FilterForm } from '@client/components/ui/filter-form';
 import { DebouncedTextField } from '@client/components/ui/debounced-text-field';
+import { WithinField } from '@client/components/ui/within-field';
 import { Notice } from '@client/components/ui/notice';
 import { Pager } from '@client/components/ui/pager';
 import { SelectField } from '@client/components/ui/select-field';
@@ -205,9 +206,8 @@ export function BoardRoute() {
           value={params.get('region') ?? ''}
           onCommit={(text) => setFilter('region', text, { replace: true })}
         />
-        <DebouncedTextField
+        <WithinField
           label={`Within (${DISTANCE_UNIT_WORDS[unit ?? 'mi']} of your shop)`}
-          inputMode="decimal"
           value={params.get('within') ?? ''}
           onCommit={(text) => setFilter('within', text, { replace: true })}
         />
@@ -219,16 +219,6 @@ export function BoardRoute() {
         />
         <ClearFiltersButton filtered={filtered} onClear={clearFilters} />
       </FilterForm>
-
-      {distanceFrom && !distanceFrom.found && (
-        <Notice tone="caution" title="Your shop’s postal code was not found" className="mb-6">
-          {distanceFrom.postalCode ? `${distanceFrom.postalCode}: ` : 'No postal code in your shop profile: '}
-          {POSTAL_CODE_NOT_FOUND}.{' '}
-          <Link to="/shop/profile" className="font-semibold underline underline-offset-4">
-            Check your shop profile
-          </Link>
-        </Notice>
-      )}
 
       {board.isError && (
         <Notice tone="error" title="The board could not be loaded" onRetry={() => void board.refetch()}>
@@ -246,6 +236,15 @@ export function BoardRoute() {
                 {filtered ? (board.data.total === 1 ? ' matches these filters' : ' match these filters') : ' open'}
               </span>
             </p>
+            {distanceFrom && !distanceFrom.found && (
+              // Shown with the list it explains, so nothing moves when it arrives.
+              <p className="basis-full text-sm text-ink-soft" data-testid="board-place-not-found">
+                {distanceFrom.postalCode ? `Your shop’s ${distanceFrom.postalCode}: ${POSTAL_CODE_NOT_FOUND}.` : 'Your shop profile has no postal code, so distances fall back to region.'}{' '}
+                <Link to="/shop/profile" className="font-semibold underline underline-offset-4">
+                  Check your shop profile
+                </Link>
+              </p>
+            )}
             <div className="flex flex-wrap items-center gap-4">
               <label className="flex items-center gap-2 text-sm font-semibold lg:hidden">
                 Sort by

@@ -4,6 +4,7 @@ import { Button } from '@client/components/ui/button';
 import { PageTitle } from '@client/components/ui/card';
 import { FilterForm } from '@client/components/ui/filter-form';
 import { DebouncedTextField } from '@client/components/ui/debounced-text-field';
+import { WithinField } from '@client/components/ui/within-field';
 import { Notice } from '@client/components/ui/notice';
 import { Pager } from '@client/components/ui/pager';
 import { SelectField } from '@client/components/ui/select-field';
@@ -92,12 +93,7 @@ export function ShopDirectoryRoute() {
           value={params.get('near') ?? ''}
           onCommit={(text) => setFilter('near', text, { replace: true })}
         />
-        <DebouncedTextField
-          label="Within (miles or km)"
-          inputMode="decimal"
-          value={params.get('within') ?? ''}
-          onCommit={(text) => setFilter('within', text, { replace: true })}
-        />
+        <WithinField label="Within (miles or km)" value={params.get('within') ?? ''} onCommit={(text) => setFilter('within', text, { replace: true })} />
         <SelectField
           label="Shipped parts"
           value={shown('takesShipped')}
