@@ -2,6 +2,7 @@ import { z } from 'zod';
 import { centsSchema, isoDateSchema, operationCodeSchema, uuidSchema } from './common';
 import { publicShopSchema } from './shops';
 import { jobStatuses } from './jobs';
+import { distanceUnits } from '../distance';
 
 export const bidStatuses = ['active', 'withdrawn', 'accepted', 'declined'] as const;
 export type BidStatus = (typeof bidStatuses)[number];
@@ -59,6 +60,8 @@ export const bidSchema = z.object({
   shop: publicShopSchema.pick({ id: true, name: true, country: true, region: true, city: true, verified: true, rating: true }),
   /** Share of the job's operations the shop lists as capabilities, 0 to 1. */
   capabilityMatch: z.number().min(0).max(1),
+  /** From the shop to the job's place, in the unit of the job's country; null when either postal code gave no place. */
+  distance: z.object({ value: z.number(), unit: z.enum(distanceUnits) }).nullable(),
   createdAt: z.iso.datetime(),
   updatedAt: z.iso.datetime(),
 });

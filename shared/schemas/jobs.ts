@@ -2,7 +2,8 @@ import { z } from 'zod';
 import { blockMaterials, engineLayouts, logisticsOptions, pistonTypes } from './values';
 import { boreOperationCodes, findOperation, partsAllow, partsNeededWords, partsOfJob, partsSent } from '../catalogue';
 import { BALANCE_GRADE_CHOICES, limitGroupOperation, limitGroups, operationLimitFields, type LimitField, type OperationLimits } from '../operation-limits';
-import { isoDateSchema, operationCodeSchema, queryInt, regionSchema, uuidSchema } from './common';
+import { isoDateSchema, nearSchema, operationCodeSchema, queryInt, regionSchema, uuidSchema, withinSchema } from './common';
+import { distanceUnits } from '../distance';
 import { photoFileParamsSchema } from './photos';
 import { jobStatuses } from './values';
 
@@ -200,7 +201,7 @@ export type JobInput = z.infer<typeof jobInputSchema>;
 /** What a form holds before parsing (defaults not yet applied). */
 export type JobFormValues = z.input<typeof jobInputSchema>;
 
-export const boardSorts = ['newest', 'needed-soonest', 'fewest-bids'] as const;
+export const boardSorts = ['newest', 'needed-soonest', 'fewest-bids', 'distance'] as const;
 /** The board counts matching jobs exactly up to this many; past it, it says "1,000+". */
 export const BOARD_COUNT_CAP = 1000;
 
@@ -212,7 +213,13 @@ export const boardQuerySchema = z.object({
   region: z.string().trim().min(1).max(60).optional(),
   logistics: z.enum(logisticsOptions, { error: 'Choose ship or drop-off.' }).optional(),
   neededBefore: isoDateSchema('Needed before').optional(),
-  sort: z.enum(boardSorts, { error: 'Sort by newest, needed-soonest or fewest-bids.' }).default('newest'),
+  sort: z.enum(boardSorts, { error: 'Sort by newest, needed-soonest, fewest-bids or distance.' }).default('newest'),
+  /** Only jobs within this distance of the shop (or of `near`); jobs whose place is unknown count when in the shop's region. */
+  within: withinSchema.optional(),
+  /** Miles or kilometres for `within` and the answers' distances; without it, the unit of the shop's country. */
+  unit: z.enum(distanceUnits, { error: 'Use mi or km.' }).optional(),
+  /** A postal code (United States or Canada) to measure from instead of the shop's own. */
+  near: nearSchema.optional(),
   page: queryInt('Page', 1, 10_000).default(1),
   pageSize: queryInt('Page size', 1, 100).default(20),
   /** Where the next page starts: the `nextCursor` of the page before (opaque). With it, `page` only names the page. */
@@ -264,6 +271,10 @@ export const jobSummarySchema = z.object({
   createdAt: z.iso.datetime(),
   /** The first photo's small size, if the job has photos. */
   thumbUrl: z.string().nullable(),
+  /** Whether the job's postal code gave a place; false means distances to it fall back to region. */
+  placeFound: z.boolean(),
+  /** From the shop (or the board's `near`) in the board's unit; null when either place is unknown or nothing is measured from. */
+  distance: z.number().nullable(),
 });
 export type JobSummary = z.infer<typeof jobSummarySchema>;
 
@@ -307,6 +318,8 @@ export const boardPageSchema = z.object({
   page: z.number().int(),
   pageSize: z.number().int(),
   sort: z.enum(boardSorts),
+  /** What the distances are measured from, in which unit; `found` false when its postal code gave no place (then `within` means the shop's region). Null when nothing is measured from. */
+  distanceFrom: z.object({ unit: z.enum(distanceUnits), postalCode: z.string().nullable(), found: z.boolean() }).nullable(),
 });
 export type BoardPage = z.infer<typeof boardPageSchema>;
 

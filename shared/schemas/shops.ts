@@ -1,5 +1,6 @@
 import { z } from 'zod';
-import { centsSchema, operationCodeSchema, queryInt, regionSchema } from './common';
+import { centsSchema, nearSchema, operationCodeSchema, queryInt, regionSchema, withinSchema } from './common';
+import { distanceUnits } from '../distance';
 import { ratingSummarySchema } from './reviews';
 import { postalAddressSchema } from './shipping';
 
@@ -49,9 +50,14 @@ export const shopDirectoryQuerySchema = z.object({
   country: z.string().trim().max(60).optional(),
   region: z.string().trim().max(60).optional(),
   takesShipped: z.enum(['true', 'false'], { error: 'Use true or false.' }).transform((v) => v === 'true').optional(),
+  /** A postal code (United States or Canada): the nearest shops first, each with its distance. */
+  near: nearSchema.optional(),
+  /** With `near`: only shops within this distance. */
+  within: withinSchema.optional(),
+  unit: z.enum(distanceUnits, { error: 'Use mi or km.' }).optional(),
   page: queryInt('Page', 1, 10_000).default(1),
   pageSize: queryInt('Page size', 1, 100).default(20),
-});
+}).refine((q) => q.within === undefined || q.near !== undefined, { path: ['near'], message: 'Give a postal code to measure the distance from.' });
 export type ShopDirectoryQuery = z.infer<typeof shopDirectoryQuerySchema>;
 
 /** A shop as anyone may see it. */
@@ -73,6 +79,9 @@ export type PublicShop = z.infer<typeof publicShopSchema>;
 
 /** What a shop sees of itself: the public profile, its e-mail choice and its payout account's state. */
 export const ownShopSchema = publicShopSchema.extend({
+  postalCode: z.string().nullable(),
+  /** Whether the postal code gave a place; false means distances from the shop fall back to region. */
+  placeFound: z.boolean(),
   notifyMatchingJobs: z.boolean(),
   receivingAddress: postalAddressSchema.nullable(),
   payouts: z.enum(['none', 'pending', 'ready']),
@@ -80,10 +89,12 @@ export const ownShopSchema = publicShopSchema.extend({
 export type OwnShop = z.infer<typeof ownShopSchema>;
 
 export const shopDirectoryPageSchema = z.object({
-  shops: z.array(publicShopSchema),
+  /** `distance` from `near` in `distanceFrom.unit`; null without `near` or when the shop's place is unknown. */
+  shops: z.array(publicShopSchema.extend({ distance: z.number().nullable() })),
   total: z.number().int(),
   page: z.number().int(),
   pageSize: z.number().int(),
+  distanceFrom: z.object({ unit: z.enum(distanceUnits), postalCode: z.string() }).nullable(),
 });
 export type ShopDirectoryPage = z.infer<typeof shopDirectoryPageSchema>;
 

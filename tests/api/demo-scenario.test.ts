@@ -48,6 +48,12 @@ describe('the demo scenario', () => {
     }
   });
 
+  it('places every demo shop and job from a real postal code, so the board and bids show distances', async () => {
+    const unplaced = await pool.query(`SELECT 'job' AS kind, title AS name FROM jobs WHERE latitude IS NULL OR postal_code IS NULL
+      UNION ALL SELECT 'shop', name FROM shops WHERE latitude IS NULL OR postal_code IS NULL`);
+    expect(unplaced.rows).toEqual([]);
+  });
+
   it('keeps the ledger whole on every job: paid in = released + fee + refunded + held', async () => {
     for (const job of await db.select({ id: jobs.id, status: jobs.status }).from(jobs)) {
       const b = await jobBalance(db, job.id);

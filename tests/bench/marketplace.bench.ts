@@ -2,7 +2,7 @@
  * `npm run bench`: the job board, job detail and message posting under load,
  * on a throwaway PostgreSQL cluster seeded with 10,000 open jobs. Prints p50,
  * p95, p99 and requests per second for each. The board's newest and filtered
- * pages are measured beside a bare node:http + pg handler running the same
+ * pages (and the distance-filtered one) are measured beside a bare node:http + pg handler running the same
  * statements (no Express, no session, no validation), page 150 beside page 1;
  * each ratio is printed with its aim. Cases compared with each other run in
  * alternating turns, so a busy machine weighs on both alike. Asserts nothing.
@@ -17,7 +17,8 @@ import { join } from 'node:path';
 import pg from 'pg';
 import { boardQuerySchema } from '../../shared/schemas/jobs';
 import { createDb, createPool } from '../../server/db/client';
-import { boardCountQuery, boardRowsQuery } from '../../server/modules/jobs/jobs.repository';
+import { boardCountQuery, boardRowsQuery, type BoardOrigin } from '../../server/modules/jobs/jobs.repository';
+import { placeOf } from '../../server/lib/postal-codes';
 import { hashPassword } from '../../server/lib/auth/passwords';
 import { startServer } from '../../server/runtime';
 import { benchCluster, benchConfig, migratedBenchDatabase } from './bench-app';
@@ -39,16 +40,19 @@ try {
   console.log(`seeding ${JOBS.toLocaleString()} open jobs …`);
   await db.execute(sql`INSERT INTO users (email, display_name, role, password_hash, email_verified_at)
     VALUES ('builder@bench.test', 'Bench Builder', 'builder', ${hash}, now()), ('shop@bench.test', 'Bench Shop', 'shop', ${hash}, now())`);
-  await db.execute(sql`INSERT INTO shops (user_id, name, country, region, city, takes_shipped, capabilities, turnaround_days)
-    SELECT id, 'Bench Shop', 'United States', 'Ohio', 'Dayton', true, ARRAY['bore','hone','deck'], 10 FROM users WHERE role = 'shop'`);
+  // The shop is placed by its postal code as the app places it; the jobs are spread over the continental United States.
+  const shopPlace = await placeOf('United States', '45402');
+  await db.execute(sql`INSERT INTO shops (user_id, name, country, region, city, postal_code, latitude, longitude, takes_shipped, capabilities, turnaround_days)
+    SELECT id, 'Bench Shop', 'United States', 'Ohio', 'Dayton', ${shopPlace.postalCode}, ${shopPlace.latitude}, ${shopPlace.longitude}, true, ARRAY['bore','hone','deck'], 10 FROM users WHERE role = 'shop'`);
   await db.execute(sql`
-    INSERT INTO jobs (builder_id, status, title, engine_family, cylinders, block_material, operations, logistics, country, region, city, needed_by, spec, published_at, bid_count)
+    INSERT INTO jobs (builder_id, status, title, engine_family, cylinders, block_material, operations, logistics, country, region, city, needed_by, spec, published_at, bid_count, latitude, longitude)
     SELECT (SELECT id FROM users WHERE role = 'builder'), 'open', 'Bench job ' || g, 'Bench V8', (ARRAY[4,6,8])[1 + g % 3],
       CASE WHEN g % 3 = 0 THEN 'aluminium' ELSE 'cast-iron' END,
       CASE g % 4 WHEN 0 THEN ARRAY['bore','hone'] WHEN 1 THEN ARRAY['deck'] WHEN 2 THEN ARRAY['bore','hone','deck'] ELSE ARRAY['line-hone'] END,
       CASE WHEN g % 2 = 0 THEN 'ship' ELSE 'drop-off' END,
       'United States', (ARRAY['Ohio','Oregon','Texas','Maine','Utah'])[1 + g % 5], 'Town ' || (g % 50), current_date + (g % 120),
-      jsonb_build_object('title', 'Bench job ' || g, 'unit', 'in', 'stockBore', 4, 'stroke', 3.48), now() - g * interval '1 minute', g % 7
+      jsonb_build_object('title', 'Bench job ' || g, 'unit', 'in', 'stockBore', 4, 'stroke', 3.48), now() - g * interval '1 minute', g % 7,
+      25 + (g % 100) * 0.25, -124 + (g / 100) * 0.57
     FROM generate_series(1, ${JOBS}) AS g`);
   await db.execute(sql`ANALYZE`);
   const [{ id: sampleJob }] = (await db.execute<{ id: string }>(sql`SELECT id FROM jobs ORDER BY published_at DESC LIMIT 1 OFFSET 500`)).rows;
@@ -57,13 +61,22 @@ try {
     await db.execute<{ id: string }>(sql`INSERT INTO threads (job_id, shop_id) SELECT ${sampleJob}, id FROM shops LIMIT 1 RETURNING id`)
   ).rows;
   // The exact statements the app runs for each board query, for the bare baselines.
-  const statements = (raw: Record<string, string>) => {
+  const statements = (raw: Record<string, string>, origin: BoardOrigin | null = null) => {
     const query = boardQuerySchema.parse(raw);
-    return { rows: boardRowsQuery(db, query).toSQL(), count: boardCountQuery(db, query).toSQL() };
+    return { rows: boardRowsQuery(db, query, origin).toSQL(), count: boardCountQuery(db, query, origin).toSQL() };
   };
   const newestSql = statements({ pageSize: '20' });
   const filteredRaw = { operation: 'bore', material: 'cast-iron', region: 'Ohio', sort: 'needed-soonest' };
   const filteredSql = statements(filteredRaw);
+  // Within 150 miles of the shop, nearest first: the origin the app builds for the signed-in shop.
+  const nearRaw = { within: '150', sort: 'distance' };
+  const nearOrigin: BoardOrigin = {
+    unit: 'mi',
+    postalCode: shopPlace.postalCode,
+    at: { latitude: shopPlace.latitude!, longitude: shopPlace.longitude! },
+    region: { country: 'United States', region: 'Ohio' },
+  };
+  const nearSql = statements(nearRaw, nearOrigin);
   await pool.end();
 
   const config = benchConfig(url, {
@@ -104,7 +117,7 @@ try {
       res.writeHead(200, { 'content-type': 'application/json' });
       res.end(JSON.stringify({ jobs: rows.rows, total: count.rows[0].total }));
     };
-  const bareRoutes: Record<string, ReturnType<typeof bareHandler>> = { '/newest': bareHandler(newestSql), '/filtered': bareHandler(filteredSql) };
+  const bareRoutes: Record<string, ReturnType<typeof bareHandler>> = { '/newest': bareHandler(newestSql), '/filtered': bareHandler(filteredSql), '/near': bareHandler(nearSql) };
   bare = createServer((req, res) => {
     const handle = bareRoutes[req.url ?? ''];
     if (!handle) return void res.writeHead(404).end();
@@ -218,6 +231,14 @@ try {
     'filtered, against its bare',
     `/api/jobs?${new URLSearchParams(filteredRaw)}`,
     '/filtered',
+    20,
+    0.6,
+  );
+  await againstBare(
+    'board, within 150 miles of the shop, nearest first (GiST index), 20 connections',
+    'within 150 miles, against its bare',
+    `/api/jobs?${new URLSearchParams(nearRaw)}`,
+    '/near',
     20,
     0.6,
   );

@@ -10,7 +10,7 @@ import { readBoardParam, type BoardFilterKey } from '../../client/features/jobs/
  * for every key, a value is kept exactly when the API would accept it, and
  * kept as the API would read it.
  */
-const keys: BoardFilterKey[] = ['operation', 'material', 'cylinders', 'country', 'region', 'logistics', 'neededBefore', 'sort', 'page', 'pageSize'];
+const keys: BoardFilterKey[] = ['operation', 'material', 'cylinders', 'country', 'region', 'logistics', 'neededBefore', 'within', 'unit', 'near', 'sort', 'page', 'pageSize'];
 const shape = boardQuerySchema.shape;
 
 function apiReads(key: BoardFilterKey, raw: string) {
@@ -19,7 +19,7 @@ function apiReads(key: BoardFilterKey, raw: string) {
 }
 
 const interesting = fc.oneof(
-  fc.constantFrom(...operations.map((op) => op.code), 'cast-iron', 'aluminium', 'ship', 'drop-off', 'newest', 'needed-soonest', 'fewest-bids'),
+  fc.constantFrom(...operations.map((op) => op.code), 'cast-iron', 'aluminium', 'ship', 'drop-off', 'newest', 'needed-soonest', 'fewest-bids', 'distance', 'mi', 'km', '45404', 'K1A 0B1', 'ab', '0.5', '5000', '5000.1', 'Infinity', 'NaN'),
   fc.constantFrom('0', '1', '16', '17', '100', '101', '10000', '10001', '007', '1.5', '-3', '1e2', ' 8 ', '2027-02-29', '2028-02-29', '2027-13-01', '2027-03-31', '27-03-31'),
   fc.integer({ min: -5, max: 20_000 }).map(String),
   fc.string({ maxLength: 70 }),

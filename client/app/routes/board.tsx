@@ -5,6 +5,7 @@ import { Button } from '@client/components/ui/button';
 import { PageTitle } from '@client/components/ui/card';
 import { ClearFiltersButton, FilterForm } from '@client/components/ui/filter-form';
 import { DebouncedTextField } from '@client/components/ui/debounced-text-field';
+import { WithinField } from '@client/components/ui/within-field';
 import { Notice } from '@client/components/ui/notice';
 import { Pager } from '@client/components/ui/pager';
 import { SelectField } from '@client/components/ui/select-field';
@@ -13,10 +14,11 @@ import { useBoard, readBoardFilters } from '@client/features/jobs';
 import { useOwnShop } from '@client/features/shops';
 import { cn } from '@client/lib/cn';
 import { formatDate, formatDay } from '@client/lib/dates';
+import { DISTANCE_UNIT_WORDS, formatDistance, POSTAL_CODE_NOT_FOUND, type DistanceUnit } from '@shared/distance';
 import { useSearchParamUpdater } from '@client/lib/search-params';
 
 type Sort = BoardQuery['sort'];
-const FILTER_KEYS = ['operation', 'material', 'cylinders', 'country', 'region', 'logistics', 'neededBefore'] as const;
+const FILTER_KEYS = ['operation', 'material', 'cylinders', 'country', 'region', 'logistics', 'neededBefore', 'within'] as const;
 const PAGE_SIZES = [10, 20, 50, 100];
 
 const materialWords: Record<NonNullable<JobSummary['blockMaterial']>, string> = { 'cast-iron': 'Cast iron', aluminium: 'Aluminium' };
@@ -27,7 +29,18 @@ const sorts: Record<Sort, { column: string; order: string; direction: 'ascending
   newest: { column: 'Posted', order: 'newest first', direction: 'descending' },
   'needed-soonest': { column: 'Needed by', order: 'soonest first', direction: 'ascending' },
   'fewest-bids': { column: 'Bids', order: 'fewest first', direction: 'ascending' },
+  distance: { column: 'Where', order: 'nearest first', direction: 'ascending' },
 };
+
+/** How far the job's parts are from the shop, when both places are known. */
+function DistanceLine({ job, unit }: { job: JobSummary; unit: DistanceUnit | undefined }) {
+  if (!unit) return null;
+  return (
+    <span className="block text-sm text-ink-soft" data-testid="job-distance">
+      {job.distance !== null ? `${formatDistance(job.distance, unit)} away` : job.placeFound ? 'distance unknown' : 'postal code not found'}
+    </span>
+  );
+}
 
 /** The day a job was posted, as the reader's date. */
 function formatPosted(timestamp: string | null) {
@@ -57,7 +70,7 @@ function SortHeader({ sort, current, onSort, className }: { sort: Sort; current:
   );
 }
 
-function JobRow({ job }: { job: JobSummary }) {
+function JobRow({ job, unit }: { job: JobSummary; unit: DistanceUnit | undefined }) {
   return (
     <tr className="border-b border-slate-100 align-top">
       <td className="py-3 pr-3">
@@ -75,6 +88,7 @@ function JobRow({ job }: { job: JobSummary }) {
       <td className="py-3 pr-3">
         {[job.city, job.region].filter(Boolean).join(', ')}
         <span className="block text-sm text-ink-soft">{logisticsWords[job.logistics]}</span>
+        <DistanceLine job={job} unit={unit} />
       </td>
       <td className="py-3 pr-3 whitespace-nowrap">{formatPosted(job.publishedAt)}</td>
       <td className="py-3 pr-3 whitespace-nowrap">{formatDay(job.neededBy)}</td>
@@ -94,7 +108,7 @@ function Thumb({ job, className }: { job: JobSummary; className?: string }) {
 }
 
 /** The same facts as a table row, as a card for tablets and phones. */
-function JobCard({ job }: { job: JobSummary }) {
+function JobCard({ job, unit }: { job: JobSummary; unit: DistanceUnit | undefined }) {
   return (
     <article className="flex h-full gap-4 rounded-card bg-paper-raised p-4 shadow-card ring-1 ring-slate-100">
       <Thumb job={job} className="h-16 w-20 shrink-0" />
@@ -113,6 +127,7 @@ function JobCard({ job }: { job: JobSummary }) {
           <dt className="font-semibold text-ink-soft">Where</dt>
           <dd>
             {[job.city, job.region].filter(Boolean).join(', ')} · {logisticsWords[job.logistics].toLowerCase()}
+            <DistanceLine job={job} unit={unit} />
           </dd>
           <dt className="font-semibold text-ink-soft">Needed by</dt>
           <dd>{formatDay(job.neededBy)}</dd>
@@ -131,6 +146,8 @@ export function BoardRoute() {
   const filters = readBoardFilters(params);
   const board = useBoard(filters);
   const own = useOwnShop();
+  const distanceFrom = board.data?.distanceFrom ?? null;
+  const unit = distanceFrom?.unit;
 
   const setSort = (sort: Sort) =>
     update((next) => {
@@ -189,6 +206,11 @@ export function BoardRoute() {
           value={params.get('region') ?? ''}
           onCommit={(text) => setFilter('region', text, { replace: true })}
         />
+        <WithinField
+          label={`Within (${DISTANCE_UNIT_WORDS[unit ?? 'mi']} of your shop)`}
+          value={params.get('within') ?? ''}
+          onCommit={(text) => setFilter('within', text, { replace: true })}
+        />
         <TextField
           label="Needed before"
           type="date"
@@ -214,6 +236,15 @@ export function BoardRoute() {
                 {filtered ? (board.data.total === 1 ? ' matches these filters' : ' match these filters') : ' open'}
               </span>
             </p>
+            {distanceFrom && !distanceFrom.found && (
+              // Shown with the list it explains, so nothing moves when it arrives.
+              <p className="basis-full text-sm text-ink-soft" data-testid="board-place-not-found">
+                {distanceFrom.postalCode ? `Your shop’s ${distanceFrom.postalCode}: ${POSTAL_CODE_NOT_FOUND}.` : 'Your shop profile has no postal code, so distances fall back to region.'}{' '}
+                <Link to="/shop/profile" className="font-semibold underline underline-offset-4">
+                  Check your shop profile
+                </Link>
+              </p>
+            )}
             <div className="flex flex-wrap items-center gap-4">
               <label className="flex items-center gap-2 text-sm font-semibold lg:hidden">
                 Sort by
@@ -222,7 +253,7 @@ export function BoardRoute() {
                   onChange={(event) => setSort(event.target.value as Sort)}
                   className="min-h-11 rounded-lg border border-slate-300 bg-white px-3 text-base font-normal"
                 >
-                  {(Object.keys(sorts) as Sort[]).map((sort) => (
+                  {(Object.keys(sorts) as Sort[]).filter((sort) => sort !== 'distance' || distanceFrom).map((sort) => (
                     <option key={sort} value={sort}>
                       {sorts[sort].column}, {sorts[sort].order}
                     </option>
@@ -265,7 +296,7 @@ export function BoardRoute() {
               <ul aria-label="Open jobs" aria-busy={board.isFetching} className={cn('grid gap-4 md:grid-cols-2 lg:hidden', board.isPlaceholderData && 'opacity-60')}>
                 {board.data.jobs.map((job) => (
                   <li key={job.id}>
-                    <JobCard job={job} />
+                    <JobCard job={job} unit={unit} />
                   </li>
                 ))}
               </ul>
@@ -290,7 +321,11 @@ export function BoardRoute() {
                       </th>
                       <th scope="col" className="py-2 pr-3 align-bottom font-semibold">Material</th>
                       <th scope="col" className="py-2 pr-3 align-bottom font-semibold">Work</th>
-                      <th scope="col" className="py-2 pr-3 align-bottom font-semibold">Where</th>
+                      {distanceFrom ? (
+                        <SortHeader sort="distance" current={filters.sort} onSort={setSort} />
+                      ) : (
+                        <th scope="col" className="py-2 pr-3 align-bottom font-semibold">Where</th>
+                      )}
                       <SortHeader sort="newest" current={filters.sort} onSort={setSort} />
                       <SortHeader sort="needed-soonest" current={filters.sort} onSort={setSort} />
                       <SortHeader sort="fewest-bids" current={filters.sort} onSort={setSort} className="pr-0 text-right" />
@@ -298,7 +333,7 @@ export function BoardRoute() {
                   </thead>
                   <tbody>
                     {board.data.jobs.map((job) => (
-                      <JobRow key={job.id} job={job} />
+                      <JobRow key={job.id} job={job} unit={unit} />
                     ))}
                   </tbody>
                 </table>

@@ -1,8 +1,10 @@
 import { operations } from '@shared/catalogue';
+import { formatDistance } from '@shared/distance';
 import { Button } from '@client/components/ui/button';
 import { PageTitle } from '@client/components/ui/card';
 import { FilterForm } from '@client/components/ui/filter-form';
 import { DebouncedTextField } from '@client/components/ui/debounced-text-field';
+import { WithinField } from '@client/components/ui/within-field';
 import { Notice } from '@client/components/ui/notice';
 import { Pager } from '@client/components/ui/pager';
 import { SelectField } from '@client/components/ui/select-field';
@@ -11,8 +13,8 @@ import { lazyModule } from '@client/lib/lazy-module';
 import { useSearchParamUpdater } from '@client/lib/search-params';
 
 const PAGE_SIZE = 12;
-const FILTER_KEYS = ['q', 'operation', 'country', 'region', 'takesShipped'] as const;
-const CHECKED_KEYS = ['q', 'operation', 'country', 'region', 'page'] as const;
+const FILTER_KEYS = ['q', 'operation', 'country', 'region', 'takesShipped', 'near', 'within'] as const;
+const CHECKED_KEYS = ['q', 'operation', 'country', 'region', 'near', 'within', 'page'] as const;
 // The API's own schema checks the filters in the address. It (with zod) loads after the first paint, so it is
 // there before anyone picks a filter (the results never blink out); only a page opened with filters waits for it.
 const useShopSchemas = lazyModule(() => import('@shared/schemas/shops'));
@@ -29,18 +31,23 @@ function useFilters(params: URLSearchParams): DirectoryFilters | undefined {
   if (!given) return { takesShipped, page: 1, pageSize: PAGE_SIZE };
   if (!schemas) return undefined;
   const shape = schemas.shopDirectoryQuerySchema.shape;
-  const text = (key: 'q' | 'country' | 'region') => {
+  const text = (key: 'q' | 'country' | 'region' | 'near') => {
     const value = params.get(key)?.trim();
     return value && shape[key].safeParse(value).success ? value : undefined;
   };
   const operation = shape.operation.safeParse(params.get('operation') ?? undefined);
   const page = shape.page.safeParse(params.get('page') ?? undefined);
+  const near = text('near');
+  const within = shape.within.safeParse(params.get('within') || undefined);
   return {
     q: text('q'),
     operation: operation.success ? operation.data : undefined,
     country: text('country'),
     region: text('region'),
     takesShipped,
+    near,
+    // A radius means something only from a postal code.
+    within: near && within.success ? within.data : undefined,
     page: page.success ? page.data : 1,
     pageSize: PAGE_SIZE,
   };
@@ -80,6 +87,13 @@ export function ShopDirectoryRoute() {
           value={params.get('region') ?? ''}
           onCommit={(text) => setFilter('region', text, { replace: true })}
         />
+        <DebouncedTextField
+          label="Near postal code"
+          autoComplete="postal-code"
+          value={params.get('near') ?? ''}
+          onCommit={(text) => setFilter('near', text, { replace: true })}
+        />
+        <WithinField label="Within (miles or km)" value={params.get('within') ?? ''} onCommit={(text) => setFilter('within', text, { replace: true })} />
         <SelectField
           label="Shipped parts"
           value={shown('takesShipped')}
@@ -122,7 +136,10 @@ export function ShopDirectoryRoute() {
             <ul className={`grid gap-4 sm:grid-cols-2 lg:grid-cols-3 ${shops.isPlaceholderData ? 'opacity-60' : ''}`} aria-busy={shops.isFetching}>
               {shops.data.shops.map((shop) => (
                 <li key={shop.id}>
-                  <ShopCard shop={shop} />
+                  <ShopCard
+                    shop={shop}
+                    distance={shops.data.distanceFrom ? (shop.distance === null ? 'distance unknown' : `${formatDistance(shop.distance, shops.data.distanceFrom.unit)} away`) : undefined}
+                  />
                 </li>
               ))}
             </ul>

@@ -36,7 +36,13 @@ const readers = {
   region: words(60),
   logistics: oneOf<NonNullable<BoardQuery['logistics']>>(['ship', 'drop-off']),
   neededBefore: calendarDay,
-  sort: oneOf<Sort>(['newest', 'needed-soonest', 'fewest-bids']),
+  sort: oneOf<Sort>(['newest', 'needed-soonest', 'fewest-bids', 'distance']),
+  within: (raw: string) => {
+    const value = Number(raw);
+    return value > 0 && value <= 5000 ? value : undefined;
+  },
+  unit: oneOf<NonNullable<BoardQuery['unit']>>(['mi', 'km']),
+  near: (raw: string) => (/^[A-Za-z0-9 -]{3,12}$/.test(raw) ? raw : undefined),
   page: wholeIn(1, 10_000),
   pageSize: wholeIn(1, 100),
 };
@@ -60,6 +66,9 @@ export function readBoardFilters(params: URLSearchParams): BoardFilters & { sort
     region: pick('region'),
     logistics: pick('logistics'),
     neededBefore: pick('neededBefore'),
+    within: pick('within'),
+    unit: pick('unit'),
+    near: pick('near'),
     sort: pick('sort') ?? 'newest',
     page: pick('page') ?? 1,
     pageSize: pick('pageSize') ?? 20,

@@ -1,4 +1,4 @@
-import { timestamp, uuid, type AnyPgColumn, type UpdateDeleteAction } from 'drizzle-orm/pg-core';
+import { doublePrecision, text, timestamp, uuid, type AnyPgColumn, type UpdateDeleteAction } from 'drizzle-orm/pg-core';
 
 // Column sets more than one table declares. Each helper builds fresh columns, so
 // a table spreads or calls it where it would have written the columns out.
@@ -24,3 +24,15 @@ export const timestamps = {
   createdAt: stampedNow(),
   updatedAt: updatedNow(),
 };
+
+/**
+ * Where a shop or a job's parts are, for distances: the postal code as given, and the
+ * coordinates the postal-code dataset has for it (server/lib/postal-codes.ts), looked up
+ * when the row is saved. Null coordinates mean the code was not given or not found:
+ * distances then fall back to region.
+ */
+export const placeColumns = () => ({
+  postalCode: text(),
+  latitude: doublePrecision(),
+  longitude: doublePrecision(),
+});

@@ -1,6 +1,6 @@
 import { sql } from 'drizzle-orm';
 import { check, date, index, integer, jsonb, pgEnum, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core';
-import { mustReference, stampedNow, timestamps, uuidPrimaryKey } from './columns';
+import { mustReference, placeColumns, stampedNow, timestamps, uuidPrimaryKey } from './columns';
 import type { PostalAddress } from '../../../shared/schemas/shipping';
 import { shops } from './shops';
 import { users } from './users-and-sessions';
@@ -42,6 +42,8 @@ export const jobs = pgTable(
     country: text().notNull(),
     region: text().notNull(),
     city: text().notNull(),
+    /** The pick-up or drop-off place of the parts. */
+    ...placeColumns(),
     neededBy: date({ mode: 'string' }).notNull(),
     spec: jsonb().notNull(),
     /** Bids received and not withdrawn (declined ones still count). */
@@ -64,6 +66,10 @@ export const jobs = pgTable(
     index('jobs_open_bids_idx').on(t.bidCount, t.publishedAt.desc().nullsFirst(), t.id.desc().nullsFirst()).where(sql`${t.status} = 'open'`),
     index('jobs_open_spec_idx').on(t.blockMaterial, t.cylinders, t.country, t.region).where(sql`${t.status} = 'open'`),
     index('jobs_operations_idx').using('gin', t.operations),
+    // "Within N miles of my shop": earth_box(...) @> ll_to_earth(latitude, longitude) reads this (cube and earthdistance extensions).
+    index('jobs_open_earth_idx').using('gist', sql`ll_to_earth(${t.latitude}, ${t.longitude})`).where(sql`${t.status} = 'open'`),
+    // The region fallback of the same filter, for open jobs whose postal code gave no place.
+    index('jobs_open_unplaced_region_idx').on(sql`lower(${t.country})`, sql`lower(${t.region})`).where(sql`${t.status} = 'open' AND ${t.latitude} IS NULL`),
     check('jobs_cylinders_check', sql`${t.cylinders} BETWEEN 1 AND 16`),
     check('jobs_bid_count_check', sql`${t.bidCount} >= 0`),
   ],

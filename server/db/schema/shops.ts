@@ -1,6 +1,6 @@
 import { sql } from 'drizzle-orm';
 import { boolean, check, index, integer, jsonb, pgTable, primaryKey, text, timestamp, uniqueIndex } from 'drizzle-orm/pg-core';
-import { mustReference, timestamps, uuidPrimaryKey } from './columns';
+import { mustReference, placeColumns, timestamps, uuidPrimaryKey } from './columns';
 import type { PostalAddress } from '../../../shared/schemas/shipping';
 import { users } from './users-and-sessions';
 
@@ -16,6 +16,7 @@ export const shops = pgTable(
     country: text().notNull(),
     region: text().notNull(),
     city: text().notNull(),
+    ...placeColumns(),
     takesShipped: boolean().notNull(),
     capabilities: text().array().notNull(),
     equipmentNotes: text().notNull().default(''),
@@ -33,6 +34,8 @@ export const shops = pgTable(
     uniqueIndex('shops_user_idx').on(t.userId),
     index('shops_capabilities_idx').using('gin', t.capabilities),
     index('shops_region_idx').on(t.country, t.region),
+    // "Shops near me" in the directory: earth_box(...) @> ll_to_earth(latitude, longitude) reads this.
+    index('shops_earth_idx').using('gist', sql`ll_to_earth(${t.latitude}, ${t.longitude})`),
   ],
 );
 

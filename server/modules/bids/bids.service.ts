@@ -19,6 +19,8 @@ import { findShopByUser, shopIsListed, shopSuspended, type ShopRow } from '../sh
 import { shopRatings } from '../reviews/ratings';
 import { Notices } from '../notifications/notify';
 import { formatCents } from '../../../shared/catalogue';
+import { distanceUnitFor, METRES_PER } from '../../../shared/distance';
+import { earthOf, metresBetween } from '../../db/earth';
 
 export interface BidDeps {
   db: Database;
@@ -266,11 +268,24 @@ export async function declineBid(deps: BidDeps, user: User, bidId: string, reaso
 async function present(db: Executor, rows: BidRow[]): Promise<Bid[]> {
   if (rows.length === 0) return [];
   const ids = rows.map((r) => r.id);
-  const [lines, shopRows, jobRows] = await Promise.all([
+  const [lines, shopRows, jobRows, distanceRows] = await Promise.all([
     db.select().from(bidLineItems).where(inArray(bidLineItems.bidId, ids)).orderBy(asc(bidLineItems.position)),
     db.select().from(shops).where(inArray(shops.id, [...new Set(rows.map((r) => r.shopId))])),
     db.select({ id: jobs.id, operations: jobs.operations }).from(jobs).where(inArray(jobs.id, [...new Set(rows.map((r) => r.jobId))])),
+    // Metres from each bidding shop to the job's place (null when either postal code gave no place).
+    db
+      .select({ id: bids.id, metres: metresBetween(earthOf(jobs.latitude, jobs.longitude), earthOf(shops.latitude, shops.longitude)), country: jobs.country })
+      .from(bids)
+      .innerJoin(jobs, eq(jobs.id, bids.jobId))
+      .innerJoin(shops, eq(shops.id, bids.shopId))
+      .where(inArray(bids.id, ids)),
   ]);
+  const distanceOf = new Map(
+    distanceRows.map(({ id, metres, country }) => {
+      const unit = distanceUnitFor(country);
+      return [id, metres === null ? null : { value: metres / METRES_PER[unit], unit }];
+    }),
+  );
   const shopById = new Map(shopRows.map((s) => [s.id, s]));
   const ratings = await shopRatings(db, [...shopById.keys()]);
   const opsByJob = new Map(jobRows.map((j) => [j.id, j.operations]));
@@ -292,6 +307,7 @@ async function present(db: Executor, rows: BidRow[]): Promise<Bid[]> {
         .map(({ operation, description, quantity, unitPriceCents, amountCents }) => ({ operation, description, quantity, unitPriceCents, amountCents })),
       shop: { id: shop.id, name: shop.name, country: shop.country, region: shop.region, city: shop.city, verified: shop.verifiedAt !== null, rating: ratings.get(shop.id) ?? null },
       capabilityMatch: ops.length ? covered / ops.length : 1,
+      distance: distanceOf.get(row.id) ?? null,
       createdAt: row.createdAt.toISOString(),
       updatedAt: row.updatedAt.toISOString(),
     };

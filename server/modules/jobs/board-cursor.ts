@@ -21,6 +21,8 @@ const pgTimestamp = z.string().regex(PG_TIMESTAMP).refine(isRealMoment).nullable
 const cursorSchema = z.discriminatedUnion('sort', [
   z.object({ sort: z.literal('newest'), publishedAt: pgTimestamp, id: z.uuid() }),
   z.object({ sort: z.literal('needed-soonest'), neededBy: z.iso.date(), id: z.uuid() }),
+  // Metres from the board's origin (null: a job of unknown place, which come last).
+  z.object({ sort: z.literal('distance'), metres: z.number().min(0).max(30_000_000).nullable(), id: z.uuid() }),
   z.object({ sort: z.literal('fewest-bids'), bidCount: z.number().int().min(0).max(2_147_483_647), publishedAt: pgTimestamp, id: z.uuid() }),
 ]);
 export type BoardCursor = z.infer<typeof cursorSchema>;

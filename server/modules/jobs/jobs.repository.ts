@@ -4,14 +4,18 @@ import { BOARD_COUNT_CAP, type BoardPage, type BoardQuery, type JobInput, type J
 import type { Executor } from '../../db/client';
 import { jobPhotos, jobs } from '../../db/schema';
 import { decodeBoardCursor, encodeBoardCursor, type BoardCursor } from './board-cursor';
+import { METRES_PER, type DistanceUnit } from '../../../shared/distance';
+import { distanceIn, earthAt, earthOf, metresBetween, withinMetres } from '../../db/earth';
+import { placeOf, type Coordinates } from '../../lib/postal-codes';
 
 export type JobRow = typeof jobs.$inferSelect;
 
 export const photoUrl = (jobId: string, photoId: string, size: 'thumb' | 'large') => `/api/jobs/${jobId}/photos/${photoId}/${size}`;
 
-/** Filterable columns taken from the specification. */
-export function columnsFromInput(input: JobInput) {
+/** Filterable columns taken from the specification, with the place its postal code names (looked up now, on save). */
+export async function columnsFromInput(input: JobInput) {
   return {
+    ...(await placeOf(input.country, input.postalCode)),
     title: input.title,
     engineFamily: input.engineFamily,
     cylinders: input.cylinders,
@@ -27,7 +31,7 @@ export function columnsFromInput(input: JobInput) {
 }
 
 export async function insertJob(db: Executor, builderId: string, input: JobInput): Promise<JobRow> {
-  const [row] = await db.insert(jobs).values({ builderId, ...columnsFromInput(input) }).returning();
+  const [row] = await db.insert(jobs).values({ builderId, ...(await columnsFromInput(input)) }).returning();
   return row;
 }
 
@@ -57,9 +61,10 @@ const summaryColumns = {
   publishedAt: jobs.publishedAt,
   createdAt: jobs.createdAt,
   firstPhotoId,
+  placeFound: sql<boolean>`(${jobs.latitude} IS NOT NULL)`,
 };
 
-type SummaryRow = { [K in keyof typeof summaryColumns]: unknown } & { firstPhotoId: string | null };
+type SummaryRow = { [K in keyof typeof summaryColumns]: unknown } & { firstPhotoId: string | null; distance?: unknown };
 
 export function toSummary(row: SummaryRow): JobSummary {
   const r = row as unknown as Omit<JobSummary, 'thumbUrl' | 'publishedAt' | 'createdAt'> & {
@@ -84,11 +89,35 @@ export function toSummary(row: SummaryRow): JobSummary {
     publishedAt: r.publishedAt ? r.publishedAt.toISOString() : null,
     createdAt: r.createdAt.toISOString(),
     thumbUrl: r.firstPhotoId ? photoUrl(r.id, r.firstPhotoId, 'thumb') : null,
+    placeFound: r.placeFound,
+    distance: (row.distance as number | null | undefined) ?? null,
   };
 }
 
+/**
+ * Where the board measures distances from: the shop's place (or the `near` postal
+ * code's), in the unit asked or the shop's country's. `at` is null when the postal
+ * code gave no place; `region` is the shop's, for the fallback.
+ */
+export type BoardOrigin = { unit: DistanceUnit; postalCode: string | null; at: Coordinates | null; region: { country: string; region: string } | null };
+
+const jobEarth = earthOf(jobs.latitude, jobs.longitude);
+const inRegion = (region: { country: string; region: string }) =>
+  sql`(lower(${jobs.country}) = lower(${region.country}) AND lower(${jobs.region}) = lower(${region.region}))`;
+
+/**
+ * "Within N of my shop": the jobs whose place is that close (the GiST index on their
+ * points answers the box), and, as a fallback, the jobs of the shop's region whose
+ * postal code gave no place. A shop whose own postal code gave no place gets its region.
+ */
+function withinFilter(within: number, origin: BoardOrigin): SQL {
+  if (!origin.at) return origin.region ? inRegion(origin.region) : sql`false`;
+  const near = withinMetres(earthAt(origin.at), jobEarth, within * METRES_PER[origin.unit]);
+  return origin.region ? sql`(${near} OR (${jobs.latitude} IS NULL AND ${inRegion(origin.region)}))` : near;
+}
+
 /** The filters of the job board as SQL; every one works on open jobs only. */
-export function boardWhere(query: BoardQuery): SQL {
+export function boardWhere(query: BoardQuery, origin: BoardOrigin | null = null): SQL {
   const filters: SQL[] = [eq(jobs.status, 'open')];
   if (query.operation) filters.push(arrayContains(jobs.operations, [query.operation]));
   if (query.material) filters.push(eq(jobs.blockMaterial, query.material));
@@ -97,6 +126,7 @@ export function boardWhere(query: BoardQuery): SQL {
   if (query.region) filters.push(sql`lower(${jobs.region}) = lower(${query.region})`);
   if (query.logistics) filters.push(eq(jobs.logistics, query.logistics));
   if (query.neededBefore) filters.push(lte(jobs.neededBy, query.neededBefore));
+  if (query.within !== undefined && origin) filters.push(withinFilter(query.within, origin));
   return and(...filters)!;
 }
 
@@ -107,6 +137,14 @@ const boardOrder = {
   'fewest-bids': [asc(jobs.bidCount), desc(jobs.publishedAt), desc(jobs.id)],
 } as const;
 
+/** Metres from the origin to the job (null when either place is unknown): the key of the distance order and its cursor. */
+const metresFrom = (origin: BoardOrigin | null): SQL<number | null> => (origin?.at ? metresBetween(earthAt(origin.at), jobEarth) : sql<null>`NULL::float8`);
+
+function orderOf(sort: BoardQuery['sort'], origin: BoardOrigin | null) {
+  // Nearest first, jobs of unknown place last; with nothing to measure from, by id alone.
+  return sort === 'distance' ? [sql`${metresFrom(origin)} ASC NULLS LAST`, asc(jobs.id)] : boardOrder[sort];
+}
+
 /** After (publishedAt, id) in the order "published_at DESC, id DESC", where PostgreSQL puts a missing date first. */
 const afterPublished = (publishedAt: string | null, id: string) =>
   publishedAt === null
@@ -114,8 +152,14 @@ const afterPublished = (publishedAt: string | null, id: string) =>
     : sql`(${jobs.publishedAt}, ${jobs.id}) < (${publishedAt}::timestamptz, ${id}::uuid)`;
 
 /** The jobs that come after the cursor in its order (written as row comparisons so an index can start there). */
-function afterCursor(cursor: BoardCursor): SQL {
+function afterCursor(cursor: BoardCursor, origin: BoardOrigin | null): SQL {
   switch (cursor.sort) {
+    case 'distance': {
+      const metres = metresFrom(origin);
+      return cursor.metres === null
+        ? sql`(${metres} IS NULL AND ${jobs.id} > ${cursor.id}::uuid)`
+        : sql`(${metres} IS NULL OR (${metres}, ${jobs.id}) > (${cursor.metres}::float8, ${cursor.id}::uuid))`;
+    }
     case 'newest':
       return afterPublished(cursor.publishedAt, cursor.id);
     case 'needed-soonest':
@@ -125,16 +169,21 @@ function afterCursor(cursor: BoardCursor): SQL {
   }
 }
 
-const boardColumns = {
+const boardColumns = (origin: BoardOrigin | null) => ({
   ...summaryColumns,
   // The exact timestamp for the cursor: a JavaScript Date would drop its microseconds.
   publishedKey: sql<string | null>`${jobs.publishedAt}::text`,
-};
-type BoardRow = { [K in keyof typeof boardColumns]: unknown } & { firstPhotoId: string | null; publishedKey: string | null };
+  // float8 comes back as the shortest text that reads back to the same number, so the cursor's metres compare equal.
+  metres: metresFrom(origin),
+  distance: origin?.at ? distanceIn(origin.unit, earthAt(origin.at), jobEarth) : sql<null>`NULL::float8`,
+});
+type BoardRow = { [K in keyof ReturnType<typeof boardColumns>]: unknown } & { firstPhotoId: string | null; publishedKey: string | null; metres: number | null };
 
 function cursorAfter(row: BoardRow, sort: BoardQuery['sort']): string {
   const id = row.id as string;
   switch (sort) {
+    case 'distance':
+      return encodeBoardCursor({ sort, metres: row.metres, id });
     case 'newest':
       return encodeBoardCursor({ sort, publishedAt: row.publishedKey, id });
     case 'needed-soonest':
@@ -148,20 +197,20 @@ function cursorAfter(row: BoardRow, sort: BoardQuery['sort']): string {
  * The board's page query (exposed so a test can EXPLAIN exactly what runs): from the cursor
  * when there is one, else by page number; one row more than the page, to tell whether another follows.
  */
-export function boardRowsQuery(db: Executor, query: BoardQuery) {
+export function boardRowsQuery(db: Executor, query: BoardQuery, origin: BoardOrigin | null = null) {
   const cursor = decodeBoardCursor(query);
   const rows = db
-    .select(boardColumns)
+    .select(boardColumns(origin))
     .from(jobs)
-    .where(cursor ? and(boardWhere(query), afterCursor(cursor)) : boardWhere(query))
-    .orderBy(...boardOrder[query.sort])
+    .where(cursor ? and(boardWhere(query, origin), afterCursor(cursor, origin)) : boardWhere(query, origin))
+    .orderBy(...orderOf(query.sort, origin))
     .limit(query.pageSize + 1);
   return cursor ? rows : rows.offset((query.page - 1) * query.pageSize);
 }
 
 /** How many jobs match, counted no further than one past the cap: a large board costs no more to count than a page (exposed for the bench's bare baseline). */
-export function boardCountQuery(db: Executor, query: BoardQuery) {
-  const matching = db.select({ one: sql`1` }).from(jobs).where(boardWhere(query)).limit(BOARD_COUNT_CAP + 1).as('matching');
+export function boardCountQuery(db: Executor, query: BoardQuery, origin: BoardOrigin | null = null) {
+  const matching = db.select({ one: sql`1` }).from(jobs).where(boardWhere(query, origin)).limit(BOARD_COUNT_CAP + 1).as('matching');
   return db.select({ total: sql<number>`count(*)::int` }).from(matching);
 }
 
@@ -172,18 +221,19 @@ export function boardCountQuery(db: Executor, query: BoardQuery) {
  * PostgreSQL keeps nothing per connection.
  */
 const boardStatements = new WeakMap<Executor, LRUCache<string, { rows: ReturnType<ReturnType<typeof boardRowsQuery>['prepare']>; count: ReturnType<ReturnType<typeof boardCountQuery>['prepare']> }>>();
-function boardStatementsFor(db: Executor, query: BoardQuery) {
+function boardStatementsFor(db: Executor, query: BoardQuery, origin: BoardOrigin | null) {
   let cache = boardStatements.get(db);
   if (!cache) boardStatements.set(db, (cache = new LRUCache({ max: 500 })));
-  const key = JSON.stringify(query);
+  // The origin's coordinates are written into the statement, so each place has statements of its own.
+  const key = JSON.stringify([query, origin]);
   let statements = cache.get(key);
-  if (!statements) cache.set(key, (statements = { rows: boardRowsQuery(db, query).prepare(''), count: boardCountQuery(db, query).prepare('') }));
+  if (!statements) cache.set(key, (statements = { rows: boardRowsQuery(db, query, origin).prepare(''), count: boardCountQuery(db, query, origin).prepare('') }));
   return statements;
 }
 
 /** One page of the board and the total: two statements whatever the page size. */
-export async function boardPage(db: Executor, query: BoardQuery): Promise<BoardPage> {
-  const statements = boardStatementsFor(db, query);
+export async function boardPage(db: Executor, query: BoardQuery, origin: BoardOrigin | null = null): Promise<BoardPage> {
+  const statements = boardStatementsFor(db, query, origin);
   const [rows, [{ total }]] = await Promise.all([statements.rows.execute(), statements.count.execute()]);
   const page = rows.slice(0, query.pageSize);
   const more = rows.length > query.pageSize;
@@ -191,10 +241,11 @@ export async function boardPage(db: Executor, query: BoardQuery): Promise<BoardP
     jobs: page.map(toSummary),
     total: Math.min(total, BOARD_COUNT_CAP),
     totalIsCapped: total > BOARD_COUNT_CAP,
-    nextCursor: more ? cursorAfter(page[page.length - 1], query.sort) : null,
+    nextCursor: more ? cursorAfter(page[page.length - 1] as BoardRow, query.sort) : null,
     page: query.page,
     pageSize: query.pageSize,
     sort: query.sort,
+    distanceFrom: origin ? { unit: origin.unit, postalCode: origin.postalCode, found: origin.at !== null } : null,
   };
 }
 

@@ -15,10 +15,11 @@ import { currentUser } from '../../lib/auth/guards';
 import { routesFor } from '../../lib/http/routes';
 import { photoUploadSteps, sendPhoto, uploadedFiles } from '../../lib/photo-upload';
 import type { User } from '../../db/schema';
-import { boardPage, jobsOfBuilder, type JobRow } from './jobs.repository';
+import { jobsOfBuilder, type JobRow } from './jobs.repository';
 import {
   addPhotos,
   assertMayAddPhotos,
+  boardFor,
   cancelJob,
   createJob,
   jobDetail,
@@ -53,7 +54,7 @@ export const jobsRoutes = [
     access: 'shop or admin',
     query: boardQuerySchema,
     reply: { json: boardPageSchema },
-    handler: ({ deps, query }) => boardPage(deps.db, query),
+    handler: ({ deps, user, query }) => boardFor(deps, user, query),
   }),
   route({
     method: 'get',

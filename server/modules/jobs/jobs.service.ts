@@ -1,10 +1,10 @@
 import { and, arrayContains, eq, inArray, sql } from 'drizzle-orm';
 import { randomUUID } from 'node:crypto';
-import { NEEDED_BY_PAST_MESSAGE, neededByHasPassed, type JobDetail, type JobInput } from '../../../shared/schemas/jobs';
+import { NEEDED_BY_PAST_MESSAGE, neededByHasPassed, type BoardPage, type BoardQuery, type JobDetail, type JobInput } from '../../../shared/schemas/jobs';
 import type { Database, Executor } from '../../db/client';
 import { bids, jobPhotos, jobs, shops, users, type User } from '../../db/schema';
 import { assertEmailConfirmed } from '../../lib/auth/guards';
-import { AppError, conflict, notFound } from '../../lib/errors';
+import { AppError, badRequest, conflict, notFound } from '../../lib/errors';
 import { processPhoto, type ProcessedPhoto } from '../../lib/images';
 import { enqueueMail } from '../../lib/mail/outbox';
 import { jobCancelledMail, jobChangedMail, matchingJobMail } from '../../lib/mail/templates';
@@ -14,7 +14,9 @@ import type { RealtimeHub } from '../../realtime/hub';
 import { closeOpenCheckouts, expireOpenCheckouts } from '../payments/open-checkouts';
 import { findShopByUser } from '../shops/shops.repository';
 import { jobForViewer, mustOwnJob } from './job-access';
-import { columnsFromInput, findJob, insertJob, photosOf, photoUrl, type JobRow } from './jobs.repository';
+import { boardPage, columnsFromInput, findJob, insertJob, photosOf, photoUrl, type BoardOrigin, type JobRow } from './jobs.repository';
+import { distanceUnitFor, POSTAL_CODE_NOT_FOUND } from '../../../shared/distance';
+import { locateAnyPostalCode } from '../../lib/postal-codes';
 
 export const MAX_PHOTOS_PER_JOB = 12;
 
@@ -78,10 +80,13 @@ export async function jobDetail(deps: JobDeps, job: JobRow, user: User): Promise
     bidCount: job.bidCount,
     publishedAt: job.publishedAt?.toISOString() ?? null,
     createdAt: job.createdAt.toISOString(),
+    placeFound: job.latitude !== null,
+    distance: null,
     updatedAt: job.updatedAt.toISOString(),
     thumbUrl: photos[0] ? photoUrl(job.id, photos[0].id, 'thumb') : null,
     builder: { id: builder.id, displayName: builder.displayName },
-    spec: job.spec as JobInput,
+    // The postal code is the builder's own: others see the town, the region and the distance.
+    spec: job.builderId === user.id ? (job.spec as JobInput) : { ...(job.spec as JobInput), postalCode: undefined },
     photos: photos.map((p) => ({ id: p.id, width: p.width, height: p.height, thumbUrl: photoUrl(job.id, p.id, 'thumb'), largeUrl: photoUrl(job.id, p.id, 'large') })),
     awardedBidId: job.awardedBidId,
     viewer: { isOwner: job.builderId === user.id, canBid, myBidId },
@@ -100,6 +105,7 @@ async function activeBidders(tx: Executor, jobId: string) {
 
 /** A draft changes quietly; an open job's bidders are told by e-mail. */
 export async function updateJob(deps: JobDeps, user: User, jobId: string, input: JobInput): Promise<JobRow> {
+  const columns = await columnsFromInput(input);
   const updated = await deps.db.transaction(async (tx) => {
     const job = await ownJobForUpdate(tx, jobId, user);
     if (job.status !== 'draft' && job.status !== 'open') {
@@ -107,7 +113,7 @@ export async function updateJob(deps: JobDeps, user: User, jobId: string, input:
     }
     const [updated] = await tx
       .update(jobs)
-      .set({ ...columnsFromInput(input), revision: job.revision + 1 })
+      .set({ ...columns, revision: job.revision + 1 })
       .where(eq(jobs.id, job.id))
       .returning();
     if (job.status === 'open') {
@@ -257,4 +263,26 @@ export async function removePhoto(deps: JobDeps, user: User, jobId: string, phot
   });
   await Promise.all((['large', 'thumb'] as const).map((size) => deps.storage.remove(photoKey(jobId, photoId, size))));
   deps.hub?.jobChanged(jobId, 'photos_changed');
+}
+
+/**
+ * The board as this person sees it: distances measured from the `near` postal code
+ * when given, else from the shop's own place; an admin without `near` gets none.
+ * Filtering `within` or sorting by distance needs something to measure from.
+ */
+export async function boardFor(deps: JobDeps, user: User, query: BoardQuery): Promise<BoardPage> {
+  const shop = user.role === 'shop' ? await findShopByUser(deps.db, user.id) : undefined;
+  let origin: BoardOrigin | null = null;
+  if (query.near !== undefined) {
+    const at = await locateAnyPostalCode(query.near);
+    if (!at) throw badRequest(`That postal code was not found (${POSTAL_CODE_NOT_FOUND}).`, { near: 'Postal code not found.' });
+    origin = { unit: query.unit ?? at.unit, postalCode: query.near, at, region: null };
+  } else if (shop) {
+    const at = shop.latitude !== null && shop.longitude !== null ? { latitude: shop.latitude, longitude: shop.longitude } : null;
+    origin = { unit: query.unit ?? distanceUnitFor(shop.country), postalCode: shop.postalCode, at, region: { country: shop.country, region: shop.region } };
+  }
+  if (!origin && (query.within !== undefined || query.sort === 'distance')) {
+    throw badRequest('Give a postal code to measure the distance from.', { near: 'Give a postal code to measure the distance from.' });
+  }
+  return boardPage(deps.db, query, origin);
 }

@@ -3,6 +3,10 @@ import type { PublicShop, ShopDirectoryQuery, ShopProfileInput } from '../../../
 import type { Executor } from '../../db/client';
 import { shopRates, shops, users } from '../../db/schema';
 import { shopRatings } from '../reviews/ratings';
+import { METRES_PER } from '../../../shared/distance';
+import { distanceIn, earthAt, earthOf, withinMetres } from '../../db/earth';
+import { badRequest } from '../../lib/errors';
+import { locateAnyPostalCode, placeOf } from '../../lib/postal-codes';
 
 export type ShopRow = typeof shops.$inferSelect;
 
@@ -53,6 +57,7 @@ export async function upsertShop(db: Executor, userId: string, input: ShopProfil
     country: input.country,
     region: input.region,
     city: input.city,
+    ...(await placeOf(input.country, input.postalCode)),
     takesShipped: input.takesShipped,
     capabilities: input.capabilities,
     equipmentNotes: input.equipmentNotes,
@@ -101,17 +106,32 @@ export async function searchShops(db: Executor, query: ShopDirectoryQuery) {
   if (query.country) filters.push(sql`lower(${shops.country}) = lower(${query.country})`);
   if (query.region) filters.push(sql`lower(${shops.region}) = lower(${query.region})`);
   if (query.takesShipped !== undefined) filters.push(eq(shops.takesShipped, query.takesShipped));
+  // Near a postal code: the nearest first (shops whose place is unknown last), within the radius when one is given.
+  const near = query.near === undefined ? null : await locateAnyPostalCode(query.near);
+  if (query.near !== undefined && !near) throw badRequest('That postal code was not found.', { near: 'Postal code not found.' });
+  const unit = query.unit ?? near?.unit ?? 'mi';
+  const shopEarth = earthOf(shops.latitude, shops.longitude);
+  if (near && query.within !== undefined) filters.push(withinMetres(earthAt(near), shopEarth, query.within * METRES_PER[unit]));
+  const distance = near ? distanceIn(unit, earthAt(near), shopEarth) : sql<null>`NULL::float8`;
+  const order = near ? [sql`${distance} ASC NULLS LAST`, asc(shops.id)] : [sql`${shops.verifiedAt} IS NULL`, asc(shops.name), asc(shops.id)];
   const where = and(...filters);
   const [rows, [{ total }]] = await Promise.all([
     db
-      .select()
+      .select({ shop: shops, distance })
       .from(shops)
       .where(where)
-      .orderBy(sql`${shops.verifiedAt} IS NULL`, asc(shops.name), asc(shops.id))
+      .orderBy(...order)
       .limit(query.pageSize)
       .offset((query.page - 1) * query.pageSize),
     db.select({ total: sql<number>`count(*)::int` }).from(shops).where(where),
   ]);
-  const [rates, ratings] = await Promise.all([ratesFor(db, rows.map((r) => r.id)), shopRatings(db, rows.map((r) => r.id))]);
-  return { shops: rows.map((row) => toPublicShop(row, rates.get(row.id) ?? [], ratings.get(row.id) ?? null)), total, page: query.page, pageSize: query.pageSize };
+  const ids = rows.map((r) => r.shop.id);
+  const [rates, ratings] = await Promise.all([ratesFor(db, ids), shopRatings(db, ids)]);
+  return {
+    shops: rows.map(({ shop, distance }) => ({ ...toPublicShop(shop, rates.get(shop.id) ?? [], ratings.get(shop.id) ?? null), distance })),
+    total,
+    page: query.page,
+    pageSize: query.pageSize,
+    distanceFrom: near ? { unit, postalCode: query.near! } : null,
+  };
 }

@@ -10,7 +10,7 @@ import { findListedShopById, findShopByUser, ratesFor, searchShops, toPublicShop
 /** What a shop sees of itself: the public profile, its e-mail choice and its payout account's state. */
 function ownShop(shop: ShopRow, rateCard: Array<{ operation: string; priceCents: number }>): OwnShop {
   const payouts = shop.payoutsReadyAt ? 'ready' : shop.payoutAccountId ? 'pending' : 'none';
-  return { ...toPublicShop(shop, rateCard), notifyMatchingJobs: shop.notifyMatchingJobs, receivingAddress: shop.receivingAddress ?? null, payouts };
+  return { ...toPublicShop(shop, rateCard), postalCode: shop.postalCode, placeFound: shop.latitude !== null, notifyMatchingJobs: shop.notifyMatchingJobs, receivingAddress: shop.receivingAddress ?? null, payouts };
 }
 
 const route = routesFor<{ db: Database }>('Shops');

@@ -1,6 +1,7 @@
 import { useId, useState, type ReactNode } from 'react';
 import { toast } from '@client/lib/toast';
 import { formatCents } from '@shared/catalogue';
+import { formatDistance } from '@shared/distance';
 import type { Bid, BidStatus } from '@shared/schemas/bids';
 import type { JobStatus } from '@shared/schemas/jobs';
 import { BID_STATUS } from '@shared/glossary';
@@ -87,7 +88,10 @@ function ShopName({ bid, highlights }: { bid: Bid; highlights: ReactNode }) {
           </Badge>
         )}
       </div>
-      <span className="text-sm text-ink-soft">{place(bid.shop)}</span>
+      <span className="text-sm text-ink-soft">
+        {place(bid.shop)}
+        {bid.distance && <span data-testid="bid-distance"> · {formatDistance(bid.distance.value, bid.distance.unit)} from the parts</span>}
+      </span>
       <span className="text-sm text-ink-soft">{ratingText(bid.shop.rating)}</span>
       {highlights}
     </div>

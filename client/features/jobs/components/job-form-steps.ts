@@ -14,7 +14,7 @@ export interface JobFormStep {
 export const jobFormSteps: readonly JobFormStep[] = [
   { title: 'What you send and the work', fields: ['title', 'engineFamily', 'layout', 'cylinders', 'parts', 'blockMaterial', 'operations'] },
   { title: 'Sizes and limits', fields: ['unit', 'decisionRule', ...BORE_FIELDS, ...DECK_FIELDS, 'deckNotes', 'limits'] },
-  { title: 'Getting there, place and date', fields: ['logistics', 'country', 'region', 'city', 'neededBy'] },
+  { title: 'Getting there, place and date', fields: ['logistics', 'country', 'region', 'city', 'postalCode', 'neededBy'] },
   { title: 'Notes and photos', fields: ['notes'] },
   { title: 'Check and save', fields: [] },
 ];

@@ -111,6 +111,7 @@ const blankJob: Partial<JobFormValues> = {
   country: '',
   region: '',
   city: '',
+  postalCode: '',
   neededBy: '',
 };
 
@@ -623,6 +624,13 @@ export function JobForm({ initial, submitLabel, onSave, cancelTo, saveNote, keep
                 <TextField label="Country" autoComplete="country-name" error={message('country')} {...form.register('country')} />
                 <TextField label="State, province or county" autoComplete="address-level1" error={message('region')} {...form.register('region')} />
                 <TextField label="Town or city" autoComplete="address-level2" error={message('city')} {...form.register('city')} />
+                <TextField
+                  label="Postal code (optional)"
+                  autoComplete="postal-code"
+                  hint="Shops see how far away the parts are, never the code."
+                  error={message('postalCode')}
+                  {...form.register('postalCode')}
+                />
               </Grid>
             </FormSection>
 

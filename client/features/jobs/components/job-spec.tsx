@@ -4,6 +4,7 @@ import { PART_SENT_WORDS, findOperation } from '@shared/catalogue';
 import { limitFor, limitGroupOperation, type LimitGroup, type OperationLimits } from '@shared/operation-limits';
 import type { JobDetail, JobInput } from '@shared/schemas/jobs';
 import { formatDay } from '@client/lib/dates';
+import { POSTAL_CODE_NOT_FOUND } from '@shared/distance';
 import { jobScope, limitEntries } from './job-scope';
 import { formatLength, formatLimit, layoutWords, materialWords, pistonWords, quantityText, unitWords } from './job-words';
 
@@ -161,6 +162,8 @@ export function JobLogistics({ job }: { job: JobDetail }) {
         ['Needed by', formatDay(job.neededBy)],
         ['Getting it there', job.logistics === 'ship' ? 'Shipped to the shop by the builder' : 'Dropped off at the shop by the builder'],
         ['Builder’s area', [job.city, job.region, job.country].filter(Boolean).join(', ')],
+        // Only the builder sees the postal code, and so whether it was found.
+        ...(job.spec.postalCode ? [['Postal code', job.placeFound ? job.spec.postalCode : `${job.spec.postalCode} (${POSTAL_CODE_NOT_FOUND})`] as [string, string]] : []),
         ['Posted by', job.builder.displayName],
       ]}
     />

@@ -26,7 +26,7 @@ export function VerifiedBadge() {
 }
 
 /** One shop in the directory: enough to decide whether to open its page. */
-export function ShopCard({ shop }: { shop: PublicShop }) {
+export function ShopCard({ shop, distance }: { shop: PublicShop; distance?: string }) {
   const capabilities = inCatalogueOrder(shop.capabilities, (code) => code);
   return (
     <article className="flex h-full flex-col gap-3 rounded-card bg-paper-raised p-5 shadow-card ring-1 ring-slate-100">
@@ -40,6 +40,7 @@ export function ShopCard({ shop }: { shop: PublicShop }) {
       </div>
       <p className="text-sm text-ink-soft">
         {placeOf(shop)} · {shop.takesShipped ? 'takes shipped parts' : 'drop-off only'}
+        {distance && <span className="block font-semibold text-ink">{distance}</span>}
       </p>
       <ul aria-label="Work they do" className="flex flex-wrap gap-1.5">
         {capabilities.map((code) => (

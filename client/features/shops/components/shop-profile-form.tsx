@@ -1,3 +1,4 @@
+import { POSTAL_CODE_NOT_FOUND } from '@shared/distance';
 import { useId, useMemo, useState } from 'react';
 import { useFieldArray, useForm, type Path } from 'react-hook-form';
 import { toast } from '@client/lib/toast';
@@ -27,6 +28,7 @@ export interface ShopProfileFormValues {
   country: string;
   region: string;
   city: string;
+  postalCode: string;
   takesShipped: boolean;
   capabilities: OperationCode[];
   equipmentNotes: string;
@@ -44,6 +46,7 @@ function toFormValues(shop: OwnShop | null): ShopProfileFormValues {
       country: '',
       region: '',
       city: '',
+      postalCode: '',
       takesShipped: true,
       capabilities: [],
       equipmentNotes: '',
@@ -60,6 +63,7 @@ function toFormValues(shop: OwnShop | null): ShopProfileFormValues {
     country: shop.country,
     region: shop.region,
     city: shop.city,
+    postalCode: shop.postalCode ?? '',
     takesShipped: shop.takesShipped,
     capabilities,
     equipmentNotes: shop.equipmentNotes,
@@ -104,6 +108,7 @@ const plainFields: Array<Path<ShopProfileFormValues>> = [
   'country',
   'region',
   'city',
+  'postalCode',
   'takesShipped',
   'capabilities',
   'equipmentNotes',
@@ -172,7 +177,7 @@ export function ShopProfileForm({ shop }: { shop: OwnShop | null }) {
       <Card aria-labelledby="shop-profile-about" className="flex flex-col gap-4">
         <h2 id="shop-profile-about" className="text-xl font-bold">Your shop</h2>
         <TextField label="Shop name" autoComplete="organization" error={errors.name?.message} {...form.register('name')} />
-        <div className="grid gap-4 sm:grid-cols-3">
+        <div className="grid gap-4 sm:grid-cols-2 lg:grid-cols-4">
           <TextField label="Country" autoComplete="country-name" error={errors.country?.message} {...form.register('country')} />
           <TextField
             label="State, province or county"
@@ -181,7 +186,19 @@ export function ShopProfileForm({ shop }: { shop: OwnShop | null }) {
             {...form.register('region')}
           />
           <TextField label="Town or city" autoComplete="address-level2" error={errors.city?.message} {...form.register('city')} />
+          <TextField
+            label="Postal code"
+            autoComplete="postal-code"
+            hint="For distances to jobs (United States and Canada)."
+            error={errors.postalCode?.message}
+            {...form.register('postalCode')}
+          />
         </div>
+        {shop && shop.postalCode && !shop.placeFound && (
+          <Notice tone="caution">
+            {shop.postalCode}: {POSTAL_CODE_NOT_FOUND}.
+          </Notice>
+        )}
       </Card>
 
       <Card className="flex flex-col gap-4">
