@@ -4,6 +4,7 @@ import { boreOperationCodes, findOperation, partsAllow, partsNeededWords, partsO
 import { BALANCE_GRADE_CHOICES, limitGroupOperation, limitGroups, operationLimitFields, type LimitField, type OperationLimits } from '../operation-limits';
 import { isoDateSchema, operationCodeSchema, queryInt, regionSchema, uuidSchema } from './common';
 import { photoFileParamsSchema } from './photos';
+import { builderStandingSchema } from './standing';
 import { jobStatuses } from './values';
 
 export { jobStatuses, type JobStatus } from './values';
@@ -286,7 +287,8 @@ export type JobSpec = z.infer<typeof jobSpecSchema>;
 
 /** A job as its page shows it, to its builder, to shops and to admins alike; `viewer` says what the one asking may do. */
 export const jobDetailSchema = jobSummarySchema.extend({
-  builder: z.object({ id: z.uuid(), displayName: z.string() }),
+  /** The builder, with their standing from their own history (shared/schemas/standing.ts), which shops weigh before bidding. */
+  builder: z.object({ id: z.uuid(), displayName: z.string(), standing: builderStandingSchema }),
   spec: jobSpecSchema,
   photos: z.array(jobPhotoSchema),
   awardedBidId: z.uuid().nullable(),

@@ -2,6 +2,7 @@ import { z } from 'zod';
 import { centsSchema, operationCodeSchema, queryInt, regionSchema } from './common';
 import { ratingSummarySchema } from './reviews';
 import { postalAddressSchema } from './shipping';
+import { shopStandingSchema } from './standing';
 
 export const rateCardEntrySchema = z.object({
   operation: operationCodeSchema,
@@ -68,6 +69,8 @@ export const publicShopSchema = z.object({
   rateCard: z.array(z.object({ operation: z.string(), priceCents: z.number().int() })),
   verified: z.boolean(),
   rating: ratingSummarySchema.nullable(),
+  /** Figures from the shop's own history on Tenthmark (shared/schemas/standing.ts). */
+  standing: shopStandingSchema,
 });
 export type PublicShop = z.infer<typeof publicShopSchema>;
 

@@ -117,6 +117,8 @@ export const bids = pgTable(
     uniqueIndex('bids_one_active_per_shop_idx').on(t.jobId, t.shopId).where(sql`${t.status} = 'active'`),
     // Exactly one bid can ever be accepted on a job, whatever races happen above.
     uniqueIndex('bids_one_accepted_per_job_idx').on(t.jobId).where(sql`${t.status} = 'accepted'`),
+    // A shop's won jobs, for its standing (server/modules/standing).
+    index('bids_accepted_shop_idx').on(t.shopId).where(sql`${t.status} = 'accepted'`),
     check('bids_total_check', sql`${t.totalCents} >= 0`),
   ],
 );

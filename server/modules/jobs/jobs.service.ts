@@ -15,6 +15,7 @@ import { closeOpenCheckouts, expireOpenCheckouts } from '../payments/open-checko
 import { findShopByUser } from '../shops/shops.repository';
 import { jobForViewer, mustOwnJob } from './job-access';
 import { columnsFromInput, findJob, insertJob, photosOf, photoUrl, type JobRow } from './jobs.repository';
+import { builderStanding } from '../standing/standing.repository';
 
 export const MAX_PHOTOS_PER_JOB = 12;
 
@@ -45,9 +46,10 @@ export async function jobDetailFor(deps: JobDeps, user: User, jobId: string): Pr
 }
 
 export async function jobDetail(deps: JobDeps, job: JobRow, user: User): Promise<JobDetail> {
-  const [photos, [builder]] = await Promise.all([
+  const [photos, [builder], standing] = await Promise.all([
     photosOf(deps.db, job.id),
     deps.db.select({ id: users.id, displayName: users.displayName }).from(users).where(eq(users.id, job.builderId)),
+    builderStanding(deps.db, job.builderId),
   ]);
   let canBid = false;
   let myBidId: string | null = null;
@@ -80,7 +82,7 @@ export async function jobDetail(deps: JobDeps, job: JobRow, user: User): Promise
     createdAt: job.createdAt.toISOString(),
     updatedAt: job.updatedAt.toISOString(),
     thumbUrl: photos[0] ? photoUrl(job.id, photos[0].id, 'thumb') : null,
-    builder: { id: builder.id, displayName: builder.displayName },
+    builder: { id: builder.id, displayName: builder.displayName, standing },
     spec: job.spec as JobInput,
     photos: photos.map((p) => ({ id: p.id, width: p.width, height: p.height, thumbUrl: photoUrl(job.id, p.id, 'thumb'), largeUrl: photoUrl(job.id, p.id, 'large') })),
     awardedBidId: job.awardedBidId,

@@ -1,8 +1,10 @@
 import { and, arrayContains, asc, eq, ilike, inArray, or, sql, type SQL } from 'drizzle-orm';
 import type { PublicShop, ShopDirectoryQuery, ShopProfileInput } from '../../../shared/schemas/shops';
+import type { ShopStanding } from '../../../shared/schemas/standing';
 import type { Executor } from '../../db/client';
 import { shopRates, shops, users } from '../../db/schema';
 import { shopRatings } from '../reviews/ratings';
+import { shopStandings } from '../standing/standing.repository';
 
 export type ShopRow = typeof shops.$inferSelect;
 
@@ -72,7 +74,7 @@ export async function upsertShop(db: Executor, userId: string, input: ShopProfil
   return row;
 }
 
-export function toPublicShop(row: ShopRow, rateCard: Array<{ operation: string; priceCents: number }>, rating: PublicShop['rating'] = null): PublicShop {
+export function toPublicShop(row: ShopRow, rateCard: Array<{ operation: string; priceCents: number }>, rating: PublicShop['rating'], standing: ShopStanding): PublicShop {
   return {
     id: row.id,
     name: row.name,
@@ -86,6 +88,7 @@ export function toPublicShop(row: ShopRow, rateCard: Array<{ operation: string; 
     rateCard,
     verified: row.verifiedAt !== null,
     rating,
+    standing,
   };
 }
 
@@ -112,6 +115,7 @@ export async function searchShops(db: Executor, query: ShopDirectoryQuery) {
       .offset((query.page - 1) * query.pageSize),
     db.select({ total: sql<number>`count(*)::int` }).from(shops).where(where),
   ]);
-  const [rates, ratings] = await Promise.all([ratesFor(db, rows.map((r) => r.id)), shopRatings(db, rows.map((r) => r.id))]);
-  return { shops: rows.map((row) => toPublicShop(row, rates.get(row.id) ?? [], ratings.get(row.id) ?? null)), total, page: query.page, pageSize: query.pageSize };
+  const ids = rows.map((r) => r.id);
+  const [rates, ratings, standings] = await Promise.all([ratesFor(db, ids), shopRatings(db, ids), shopStandings(db, ids)]);
+  return { shops: rows.map((row) => toPublicShop(row, rates.get(row.id) ?? [], ratings.get(row.id) ?? null, standings.get(row.id)!)), total, page: query.page, pageSize: query.pageSize };
 }

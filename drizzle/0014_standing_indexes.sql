@@ -1,0 +1,2 @@
+CREATE INDEX "bids_accepted_shop_idx" ON "bids" USING btree ("shop_id") WHERE "bids"."status" = 'accepted';--> statement-breakpoint
+CREATE INDEX "disputes_job_idx" ON "disputes" USING btree ("job_id");

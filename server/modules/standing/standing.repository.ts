@@ -1,0 +1,216 @@
+import { sql } from 'drizzle-orm';
+import { dueDayEnd, dueDayOf } from '../../../shared/due-day';
+import type { BuilderStanding, ShopStanding } from '../../../shared/schemas/standing';
+import { PAY_WITHIN_DAYS, shareOrNull, STANDING_MIN_COUNT } from '../../../shared/standing';
+import type { Executor } from '../../db/client';
+
+/*
+ * Standing, worked out on every read from the rows the events themselves write
+ * (bids, milestones, inspection records, disputes, messages, payments), never
+ * kept as a summary. Why on read: each figure is then right the moment its
+ * event commits, with nothing to keep in step in the six services that cause
+ * those events (a stored summary would need an update in each of their
+ * transactions, and a missed one would be wrong for good). The queries read a
+ * shop's or a builder's own rows through indexes (bids_accepted_shop_idx,
+ * milestones_job_idx, inspection_records_version_idx, disputes_job_idx,
+ * threads_shop_idx, messages_thread_idx, jobs_builder_idx, payments_job_idx),
+ * so they cost the size of that party's history, not of the tables; measured
+ * in tests/api/standing.test.ts's timing note and on the bench data.
+ *
+ * The rules (one place, beside their queries):
+ * - First-time acceptance: of the shop's won jobs whose first record version
+ *   was decided, or disputed while it waited, those accepted at version 1
+ *   (by the builder or at the end of the review window).
+ * - On time: the job is finished when the shop first logs "ready for pickup"
+ *   or "shipped"; it is on time when that day (UTC) is no later than the due
+ *   day of shared/due-day.ts (the bid's working days, Monday to Friday, from
+ *   the parts' arrival, or from the award until they arrive; holidays are not
+ *   known and count as working days). A job paid for and not finished whose
+ *   due day has passed counts as late already. Jobs completed without either
+ *   entry are not counted (nothing says when they were finished).
+ * - Disputes: every dispute over the shop's won jobs, beside its jobs
+ *   completed or decided (the count the minimum applies to), with outcomes.
+ * - Answer time: in each conversation, a builder's message that opens it or
+ *   follows a shop message starts a wait (further builder messages before an
+ *   answer belong to the same wait); the shop's next message ends it, whatever
+ *   it says. Clock time, nights and weekends included. Waits not yet answered
+ *   are counted as `waiting` and left out of the median.
+ * - Pays on time: the award's payment arrived within PAY_WITHIN_DAYS calendar
+ *   days of the award; an award left unpaid longer counts as late, also once
+ *   cancelled; one cancelled unpaid within those days is not counted.
+ * - Answers records: a record version the builder accepted, sent back or
+ *   disputed by the end of its review window; counted once decided or once
+ *   its window has ended.
+ */
+
+const DAY_MS = 86_400_000;
+
+const noShopStanding: ShopStanding = { firstTimeAcceptance: null, onTime: null, disputes: null, answerTime: null };
+const noBuilderStanding: BuilderStanding = { paysOnTime: null, answersRecords: null };
+
+const uuidList = (ids: string[]) => sql`${sql.param([...new Set(ids)])}::uuid[]`;
+const asDate = (value: string | Date | null) => (value === null ? null : new Date(value));
+
+interface WonJobRow extends Record<string, unknown> {
+  shop_id: string;
+  status: string;
+  turnaround_days: number;
+  awarded_at: string | Date | null;
+  parts_received_at: string | Date | null;
+  finished_at: string | Date | null;
+  first_record: string | null;
+  disputes_opened: number;
+  released: number;
+  refunded: number;
+  split: number;
+  undecided: number;
+}
+
+/** Each shop's standing, in two queries for any number of shops; a shop with no history has every figure null. */
+export async function shopStandings(db: Executor, shopIds: string[], now = new Date()): Promise<Map<string, ShopStanding>> {
+  const standings = new Map<string, ShopStanding>(shopIds.map((id) => [id, noShopStanding]));
+  if (shopIds.length === 0) return standings;
+  const [won, answers] = await Promise.all([
+    db.execute<WonJobRow>(sql`
+      SELECT b.shop_id, j.status, b.turnaround_days, b.decided_at AS awarded_at,
+        (SELECT min(m.created_at) FROM milestones m WHERE m.job_id = j.id AND m.kind = 'block_received') AS parts_received_at,
+        (SELECT min(m.created_at) FROM milestones m WHERE m.job_id = j.id AND m.kind IN ('ready_for_pickup', 'shipped')) AS finished_at,
+        (SELECT r.status FROM inspection_records r WHERE r.job_id = j.id AND r.version = 1) AS first_record,
+        d.opened, d.released, d.refunded, d.split, d.undecided
+      FROM bids b
+      JOIN jobs j ON j.awarded_bid_id = b.id
+      CROSS JOIN LATERAL (
+        SELECT count(*)::int AS opened,
+          count(*) FILTER (WHERE outcome = 'release')::int AS released,
+          count(*) FILTER (WHERE outcome = 'refund')::int AS refunded,
+          count(*) FILTER (WHERE outcome = 'split')::int AS split,
+          count(*) FILTER (WHERE status = 'open')::int AS undecided
+        FROM disputes WHERE disputes.job_id = j.id
+      ) d
+      WHERE b.status = 'accepted' AND b.shop_id = ANY(${uuidList(shopIds)})`),
+    db.execute<{ shop_id: string; answers: number; waiting: number; median_seconds: number | null }>(sql`
+      WITH said AS (
+        SELECT t.id AS thread_id, t.shop_id, m.created_at,
+          m.author_id = j.builder_id AS from_builder,
+          lag(m.author_id = j.builder_id) OVER w AS after_builder,
+          min(m.created_at) FILTER (WHERE m.author_id = s.user_id) OVER (w ROWS BETWEEN 1 FOLLOWING AND UNBOUNDED FOLLOWING) AS next_shop_at
+        FROM threads t
+        JOIN shops s ON s.id = t.shop_id
+        JOIN jobs j ON j.id = t.job_id
+        JOIN messages m ON m.thread_id = t.id
+        WHERE t.shop_id = ANY(${uuidList(shopIds)})
+        WINDOW w AS (PARTITION BY t.id ORDER BY m.created_at, m.id)
+      )
+      SELECT shop_id,
+        count(next_shop_at)::int AS answers,
+        (count(*) - count(next_shop_at))::int AS waiting,
+        percentile_cont(0.5) WITHIN GROUP (ORDER BY extract(epoch FROM next_shop_at - created_at)) AS median_seconds
+      FROM said
+      WHERE from_builder AND after_builder IS NOT TRUE
+      GROUP BY shop_id`),
+  ]);
+
+  const tallies = new Map<string, { firstDecided: number; firstAccepted: number; timed: number; onTime: number; completed: number; opened: number; release: number; refund: number; split: number; open: number }>();
+  for (const row of won.rows) {
+    const t = tallies.get(row.shop_id) ?? { firstDecided: 0, firstAccepted: 0, timed: 0, onTime: 0, completed: 0, opened: 0, release: 0, refund: 0, split: 0, open: 0 };
+    tallies.set(row.shop_id, t);
+    if (row.first_record && (row.first_record !== 'submitted' || row.status === 'disputed' || row.status === 'resolved')) {
+      t.firstDecided += 1;
+      if (row.first_record === 'accepted') t.firstAccepted += 1;
+    }
+    const dueDay = dueDayOf({ turnaroundDays: row.turnaround_days, awardedAt: asDate(row.awarded_at) }, asDate(row.parts_received_at));
+    const finishedAt = asDate(row.finished_at);
+    if (dueDay && finishedAt) {
+      t.timed += 1;
+      if (finishedAt.toISOString().slice(0, 10) <= dueDay) t.onTime += 1;
+    } else if (dueDay && ['funded', 'in_work', 'inspection_submitted'].includes(row.status) && now > dueDayEnd(dueDay)) {
+      t.timed += 1;
+    }
+    if (row.status === 'completed' || row.status === 'resolved') t.completed += 1;
+    t.opened += row.disputes_opened;
+    t.release += row.released;
+    t.refund += row.refunded;
+    t.split += row.split;
+    t.open += row.undecided;
+  }
+  const answerRows = new Map(answers.rows.map((r) => [r.shop_id, r]));
+  for (const shopId of standings.keys()) {
+    const t = tallies.get(shopId);
+    const a = answerRows.get(shopId);
+    standings.set(shopId, {
+      firstTimeAcceptance: t ? shareOrNull(t.firstAccepted, t.firstDecided) : null,
+      onTime: t ? shareOrNull(t.onTime, t.timed) : null,
+      disputes:
+        t && t.completed >= STANDING_MIN_COUNT
+          ? { opened: t.opened, completed: t.completed, outcomes: { release: t.release, refund: t.refund, split: t.split, open: t.open } }
+          : null,
+      answerTime:
+        a && a.answers >= STANDING_MIN_COUNT && a.median_seconds !== null
+          ? { minutes: Math.round(Number(a.median_seconds) / 60), of: a.answers, waiting: a.waiting }
+          : null,
+    });
+  }
+  return standings;
+}
+
+/** Each builder's standing, in two queries for any number of builders. */
+export async function builderStandings(db: Executor, builderIds: string[], now = new Date()): Promise<Map<string, BuilderStanding>> {
+  const standings = new Map<string, BuilderStanding>(builderIds.map((id) => [id, noBuilderStanding]));
+  if (builderIds.length === 0) return standings;
+  const [awards, records] = await Promise.all([
+    db.execute<{ builder_id: string; awarded_at: string | Date; cancelled_at: string | Date | null; paid_at: string | Date | null }>(sql`
+      SELECT j.builder_id, b.decided_at AS awarded_at, j.cancelled_at,
+        (SELECT min(p.paid_at) FROM payments p WHERE p.job_id = j.id AND p.kind = 'bid' AND p.status = 'paid') AS paid_at
+      FROM jobs j
+      JOIN bids b ON b.id = j.awarded_bid_id AND b.status = 'accepted'
+      WHERE j.builder_id = ANY(${uuidList(builderIds)}) AND b.decided_at IS NOT NULL`),
+    db.execute<{ builder_id: string; counted: number; answered: number }>(sql`
+      SELECT j.builder_id,
+        count(*) FILTER (WHERE r.status <> 'submitted' OR r.review_due_at < ${now} OR a.answered)::int AS counted,
+        count(*) FILTER (WHERE a.answered)::int AS answered
+      FROM inspection_records r
+      JOIN jobs j ON j.id = r.job_id
+      CROSS JOIN LATERAL (
+        SELECT (r.decided_how = 'builder' AND r.decided_at <= r.review_due_at)
+          OR EXISTS (SELECT 1 FROM disputes d WHERE d.job_id = r.job_id AND d.opened_side = 'builder' AND d.opened_at >= r.submitted_at AND d.opened_at <= r.review_due_at)
+          AS answered
+      ) a
+      WHERE j.builder_id = ANY(${uuidList(builderIds)})
+      GROUP BY j.builder_id`),
+  ]);
+  const pay = new Map<string, { of: number; onTime: number }>();
+  for (const row of awards.rows) {
+    const awardedAt = new Date(row.awarded_at).getTime();
+    const limit = awardedAt + PAY_WITHIN_DAYS * DAY_MS;
+    const paidAt = asDate(row.paid_at)?.getTime() ?? null;
+    const stoppedWaiting = asDate(row.cancelled_at)?.getTime() ?? now.getTime();
+    const t = pay.get(row.builder_id) ?? { of: 0, onTime: 0 };
+    pay.set(row.builder_id, t);
+    if (paidAt !== null) {
+      t.of += 1;
+      if (paidAt <= limit) t.onTime += 1;
+    } else if (stoppedWaiting > limit) {
+      t.of += 1;
+    }
+  }
+  const recordRows = new Map(records.rows.map((r) => [r.builder_id, r]));
+  for (const builderId of standings.keys()) {
+    const p = pay.get(builderId);
+    const r = recordRows.get(builderId);
+    standings.set(builderId, {
+      paysOnTime: p ? shareOrNull(p.onTime, p.of) : null,
+      answersRecords: r ? shareOrNull(r.answered, r.counted) : null,
+    });
+  }
+  return standings;
+}
+
+/** One shop's standing. */
+export async function shopStanding(db: Executor, shopId: string): Promise<ShopStanding> {
+  return (await shopStandings(db, [shopId])).get(shopId)!;
+}
+
+/** One builder's standing. */
+export async function builderStanding(db: Executor, builderId: string): Promise<BuilderStanding> {
+  return (await builderStandings(db, [builderId])).get(builderId)!;
+}
