@@ -76,7 +76,7 @@ export async function shopStandings(db: Executor, shopIds: string[], now = new D
         (SELECT min(m.created_at) FROM milestones m WHERE m.job_id = j.id AND m.kind = 'block_received') AS parts_received_at,
         (SELECT min(m.created_at) FROM milestones m WHERE m.job_id = j.id AND m.kind IN ('ready_for_pickup', 'shipped')) AS finished_at,
         (SELECT r.status FROM inspection_records r WHERE r.job_id = j.id AND r.version = 1) AS first_record,
-        d.opened, d.released, d.refunded, d.split, d.undecided
+        d.opened AS disputes_opened, d.released, d.refunded, d.split, d.undecided
       FROM bids b
       JOIN jobs j ON j.awarded_bid_id = b.id
       CROSS JOIN LATERAL (
