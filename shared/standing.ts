@@ -3,6 +3,12 @@
 /** Below this many counted events a figure is not shown: a share of three jobs says little about a shop. */
 export const STANDING_MIN_COUNT = 5;
 
+/**
+ * A shop's standing reads its latest this-many won jobs (by award) and conversations (by last message): it says
+ * how the shop works now, and reading it costs the same for a shop with ten years on Tenthmark.
+ */
+export const STANDING_RECENT = 100;
+
 /** A builder pays on time when the award's payment arrives within this many calendar days of the award. */
 export const PAY_WITHIN_DAYS = 3;
 

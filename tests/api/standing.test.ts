@@ -7,7 +7,7 @@ import { findShopByUser } from '../../server/modules/shops/shops.repository';
 import { builderStanding, shopStandings } from '../../server/modules/standing/standing.repository';
 import { acceptAsRead } from '../../shared/calc/conformance';
 import type { ShopStanding } from '../../shared/schemas/standing';
-import { PAY_WITHIN_DAYS, STANDING_MIN_COUNT } from '../../shared/standing';
+import { PAY_WITHIN_DAYS, STANDING_MIN_COUNT, STANDING_RECENT } from '../../shared/standing';
 import { createJob, createShop, createUser, inDays } from '../factories';
 import { startMoneyApp } from '../setup/money-app';
 import { payOnPage } from '../setup/payments';
@@ -101,6 +101,12 @@ async function pastJob(people: { builderId: string; shopId: string; shopUserId: 
   return job;
 }
 
+/** A message as sending one stores it: the row, and the conversation's last message time. */
+async function said(threadId: string, authorId: string, createdAt: Date, label: string) {
+  await m.db.insert(messages).values({ threadId, authorId, clientId: `${label}-${randomBytes(4).toString('hex')}`, body: 'About the block', createdAt });
+  await m.db.update(threads).set({ lastMessageAt: createdAt }).where(eq(threads.id, threadId));
+}
+
 /** A builder and a shop with nothing behind them yet. */
 async function newPair() {
   const builder = await createUser(m.db);
@@ -183,7 +189,7 @@ describe('a shop’s standing', () => {
     const t0 = at('2026-09-07T09:00:00Z').getTime();
     let n = 0;
     const say = (who: 'builder' | 'shop', minutesAfter: number) =>
-      m.db.insert(messages).values({ threadId: thread.id, authorId: who === 'builder' ? builder.id : shopUser.id, clientId: `history-${(n += 1)}-${randomBytes(4).toString('hex')}`, body: `${who} says`, createdAt: new Date(t0 + minutesAfter * MINUTE) });
+      said(thread.id, who === 'builder' ? builder.id : shopUser.id, new Date(t0 + minutesAfter * MINUTE), `history-${(n += 1)}`);
     // The shop writing first opens no wait.
     await say('shop', 0);
     // Waits of 30 (two builder messages, timed from the first), 10, 60 and 20 minutes.
@@ -202,6 +208,13 @@ describe('a shop’s standing', () => {
 
     await say('shop', 545); // 45 minutes: waits 10, 20, 30, 45, 60
     expect((await publicStanding(shop.id)).answerTime).toEqual({ minutes: 30, of: 5, waiting: 0 });
+  });
+
+  it('when a shop has more than STANDING_RECENT won jobs, then its figures read the latest ones only', async () => {
+    const { shop, people } = await newPair();
+    await pastJob(people, { awardedAt: at('2025-01-06T09:00:00Z'), firstRecord: 'rejected' });
+    for (let i = 0; i < STANDING_RECENT; i += 1) await pastJob(people, { awardedAt: new Date(at('2026-01-05T09:00:00Z').getTime() + i * DAY), firstRecord: 'accepted' });
+    expect((await publicStanding(shop.id)).firstTimeAcceptance).toEqual({ count: STANDING_RECENT, of: STANDING_RECENT, share: 1 });
   });
 
   it('when a shop has no history, then every figure is null on the directory and on its page', async () => {
@@ -262,13 +275,12 @@ describe('a standing is right the moment its event is answered', () => {
     const [thread] = await m.db.insert(threads).values({ jobId: job.id, shopId: shop.id }).returning();
     const now = Date.now();
     let n = 0;
-    const said = (authorId: string, minutesAgo: number) =>
-      m.db.insert(messages).values({ threadId: thread.id, authorId, clientId: `earlier-${(n += 1)}-${randomBytes(4).toString('hex')}`, body: 'Earlier', createdAt: new Date(now - minutesAgo * MINUTE) });
+    const ago = (authorId: string, minutesAgo: number) => said(thread.id, authorId, new Date(now - minutesAgo * MINUTE), `earlier-${(n += 1)}`);
     for (const [asked, answered] of [[1000, 990], [900, 880], [800, 770], [700, 660]]) {
-      await said(builder.id, asked);
-      await said(shopUser.id, answered);
+      await ago(builder.id, asked);
+      await ago(shopUser.id, answered);
     }
-    await said(builder.id, 15);
+    await ago(builder.id, 15);
     expect((await publicStanding(shop.id)).answerTime).toBeNull();
 
     const client = await signedIn(m.server.app, shopUser);

@@ -64,6 +64,8 @@ export const jobs = pgTable(
     index('jobs_open_bids_idx').on(t.bidCount, t.publishedAt.desc().nullsFirst(), t.id.desc().nullsFirst()).where(sql`${t.status} = 'open'`),
     index('jobs_open_spec_idx').on(t.blockMaterial, t.cylinders, t.country, t.region).where(sql`${t.status} = 'open'`),
     index('jobs_operations_idx').using('gin', t.operations),
+    // A builder's awarded jobs, for their standing (server/modules/standing), without reading every job they posted.
+    index('jobs_builder_awarded_idx').on(t.builderId).where(sql`${t.awardedBidId} IS NOT NULL`),
     check('jobs_cylinders_check', sql`${t.cylinders} BETWEEN 1 AND 16`),
     check('jobs_bid_count_check', sql`${t.bidCount} >= 0`),
   ],
@@ -117,8 +119,8 @@ export const bids = pgTable(
     uniqueIndex('bids_one_active_per_shop_idx').on(t.jobId, t.shopId).where(sql`${t.status} = 'active'`),
     // Exactly one bid can ever be accepted on a job, whatever races happen above.
     uniqueIndex('bids_one_accepted_per_job_idx').on(t.jobId).where(sql`${t.status} = 'accepted'`),
-    // A shop's won jobs, for its standing (server/modules/standing).
-    index('bids_accepted_shop_idx').on(t.shopId).where(sql`${t.status} = 'accepted'`),
+    // A shop's won jobs, latest first, for its standing (server/modules/standing).
+    index('bids_accepted_shop_idx').on(t.shopId, t.decidedAt).where(sql`${t.status} = 'accepted'`),
     check('bids_total_check', sql`${t.totalCents} >= 0`),
   ],
 );

@@ -1,7 +1,7 @@
 import { sql } from 'drizzle-orm';
 import { dueDayEnd, dueDayOf } from '../../../shared/due-day';
 import type { BuilderStanding, ShopStanding } from '../../../shared/schemas/standing';
-import { PAY_WITHIN_DAYS, shareOrNull, STANDING_MIN_COUNT } from '../../../shared/standing';
+import { PAY_WITHIN_DAYS, shareOrNull, STANDING_MIN_COUNT, STANDING_RECENT } from '../../../shared/standing';
 import type { Executor } from '../../db/client';
 
 /*
@@ -13,9 +13,21 @@ import type { Executor } from '../../db/client';
  * transactions, and a missed one would be wrong for good). The queries read a
  * shop's or a builder's own rows through indexes (bids_accepted_shop_idx,
  * milestones_job_idx, inspection_records_version_idx, disputes_job_idx,
- * threads_shop_idx, messages_thread_idx, jobs_builder_idx, payments_job_idx),
- * so they cost the size of that party's history, not of the tables; measured
- * in tests/api/standing.test.ts's timing note and on the bench data.
+ * threads_shop_idx, messages_thread_idx, jobs_builder_awarded_idx,
+ * payments_job_idx),
+ * so they cost the size of that party's history, not of the tables. A shop's
+ * figures read its latest STANDING_RECENT won jobs and conversations, which
+ * bounds the cost of a directory page: measured on a page of 20 shops with
+ * 500 won jobs and 3,000 messages each (10,000 jobs, 60,000 messages), all
+ * history read took about 570 ms (each query ~270 ms, and past the JIT's
+ * threshold); the latest 100 of each, 80 to 150 ms (each query ~75 ms), on a
+ * 2-core machine shared with other work. A shop page is about 12 ms. A
+ * builder's job page reads only their awarded jobs (jobs_builder_awarded_idx):
+ * about 20 ms beside 10,000 open jobs of theirs, the bench's shape. The demo
+ * data's shops have a few jobs each: a millisecond or two.
+ * tests/api/standing.test.ts holds a page of 20 small histories under 250 ms.
+ * Should pages of long histories get slow, the next step is a stored summary
+ * per shop updated in each event's transaction.
  *
  * The rules (one place, beside their queries):
  * - First-time acceptance: of the shop's won jobs whose first record version
@@ -72,12 +84,15 @@ export async function shopStandings(db: Executor, shopIds: string[], now = new D
   if (shopIds.length === 0) return standings;
   const [won, answers] = await Promise.all([
     db.execute<WonJobRow>(sql`
-      SELECT b.shop_id, j.status, b.turnaround_days, b.decided_at AS awarded_at,
+      SELECT s.shop_id, j.status, b.turnaround_days, b.decided_at AS awarded_at,
         (SELECT min(m.created_at) FROM milestones m WHERE m.job_id = j.id AND m.kind = 'block_received') AS parts_received_at,
         (SELECT min(m.created_at) FROM milestones m WHERE m.job_id = j.id AND m.kind IN ('ready_for_pickup', 'shipped')) AS finished_at,
         (SELECT r.status FROM inspection_records r WHERE r.job_id = j.id AND r.version = 1) AS first_record,
         d.opened AS disputes_opened, d.released, d.refunded, d.split, d.undecided
-      FROM bids b
+      FROM unnest(${uuidList(shopIds)}) AS s(shop_id)
+      CROSS JOIN LATERAL (
+        SELECT * FROM bids WHERE bids.shop_id = s.shop_id AND bids.status = 'accepted' ORDER BY bids.decided_at DESC LIMIT ${STANDING_RECENT}
+      ) b
       JOIN jobs j ON j.awarded_bid_id = b.id
       CROSS JOIN LATERAL (
         SELECT count(*)::int AS opened,
@@ -86,19 +101,20 @@ export async function shopStandings(db: Executor, shopIds: string[], now = new D
           count(*) FILTER (WHERE outcome = 'split')::int AS split,
           count(*) FILTER (WHERE status = 'open')::int AS undecided
         FROM disputes WHERE disputes.job_id = j.id
-      ) d
-      WHERE b.status = 'accepted' AND b.shop_id = ANY(${uuidList(shopIds)})`),
+      ) d`),
     db.execute<{ shop_id: string; answers: number; waiting: number; median_seconds: number | null }>(sql`
       WITH said AS (
         SELECT t.id AS thread_id, t.shop_id, m.created_at,
           m.author_id = j.builder_id AS from_builder,
           lag(m.author_id = j.builder_id) OVER w AS after_builder,
           min(m.created_at) FILTER (WHERE m.author_id = s.user_id) OVER (w ROWS BETWEEN 1 FOLLOWING AND UNBOUNDED FOLLOWING) AS next_shop_at
-        FROM threads t
-        JOIN shops s ON s.id = t.shop_id
+        FROM shops s
+        CROSS JOIN LATERAL (
+          SELECT * FROM threads WHERE threads.shop_id = s.id AND threads.last_message_at IS NOT NULL ORDER BY threads.last_message_at DESC LIMIT ${STANDING_RECENT}
+        ) t
         JOIN jobs j ON j.id = t.job_id
         JOIN messages m ON m.thread_id = t.id
-        WHERE t.shop_id = ANY(${uuidList(shopIds)})
+        WHERE s.id = ANY(${uuidList(shopIds)})
         WINDOW w AS (PARTITION BY t.id ORDER BY m.created_at, m.id)
       )
       SELECT shop_id,
@@ -163,7 +179,7 @@ export async function builderStandings(db: Executor, builderIds: string[], now =
         (SELECT min(p.paid_at) FROM payments p WHERE p.job_id = j.id AND p.kind = 'bid' AND p.status = 'paid') AS paid_at
       FROM jobs j
       JOIN bids b ON b.id = j.awarded_bid_id AND b.status = 'accepted'
-      WHERE j.builder_id = ANY(${uuidList(builderIds)}) AND b.decided_at IS NOT NULL`),
+      WHERE j.builder_id = ANY(${uuidList(builderIds)}) AND j.awarded_bid_id IS NOT NULL AND b.decided_at IS NOT NULL`),
     db.execute<{ builder_id: string; counted: number; answered: number }>(sql`
       SELECT j.builder_id,
         count(*) FILTER (WHERE r.status <> 'submitted' OR r.review_due_at < ${now} OR a.answered)::int AS counted,
@@ -175,7 +191,8 @@ export async function builderStandings(db: Executor, builderIds: string[], now =
           OR EXISTS (SELECT 1 FROM disputes d WHERE d.job_id = r.job_id AND d.opened_side = 'builder' AND d.opened_at >= r.submitted_at AND d.opened_at <= r.review_due_at)
           AS answered
       ) a
-      WHERE j.builder_id = ANY(${uuidList(builderIds)})
+      -- Only an awarded job has records; saying so lets the planner take jobs_builder_awarded_idx.
+      WHERE j.builder_id = ANY(${uuidList(builderIds)}) AND j.awarded_bid_id IS NOT NULL
       GROUP BY j.builder_id`),
   ]);
   const pay = new Map<string, { of: number; onTime: number }>();
