@@ -4,6 +4,7 @@ import { formatCents } from '@shared/catalogue';
 import type { Bid, BidStatus } from '@shared/schemas/bids';
 import type { JobStatus } from '@shared/schemas/jobs';
 import { BID_STATUS } from '@shared/glossary';
+import { ShopStandingList } from '@client/components/standing';
 import { Badge, TermBadge } from '@client/components/ui/badge';
 import { Button } from '@client/components/ui/button';
 import { ConfirmDialog } from '@client/components/ui/modal-dialog';
@@ -89,6 +90,7 @@ function ShopName({ bid, highlights }: { bid: Bid; highlights: ReactNode }) {
       </div>
       <span className="text-sm text-ink-soft">{place(bid.shop)}</span>
       <span className="text-sm text-ink-soft">{ratingText(bid.shop.rating)}</span>
+      <ShopStandingList standing={bid.shop.standing} className="max-w-sm text-xs" />
       {highlights}
     </div>
   );

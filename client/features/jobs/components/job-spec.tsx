@@ -6,6 +6,7 @@ import type { JobDetail, JobInput } from '@shared/schemas/jobs';
 import { formatDay } from '@client/lib/dates';
 import { jobScope, limitEntries } from './job-scope';
 import { formatLength, formatLimit, layoutWords, materialWords, pistonWords, quantityText, unitWords } from './job-words';
+import { BuilderStandingList } from '@client/components/standing';
 
 type Item = [label: string, value: ReactNode] | false | undefined;
 
@@ -162,6 +163,7 @@ export function JobLogistics({ job }: { job: JobDetail }) {
         ['Getting it there', job.logistics === 'ship' ? 'Shipped to the shop by the builder' : 'Dropped off at the shop by the builder'],
         ['Builder’s area', [job.city, job.region, job.country].filter(Boolean).join(', ')],
         ['Posted by', job.builder.displayName],
+        ['Builder’s record', <BuilderStandingList key="standing" standing={job.builder.standing} className="font-normal" />],
       ]}
     />
   );
