@@ -165,6 +165,9 @@ describe('a shop’s standing', () => {
 
     await pastJob(people, { awardedAt: friday, turnaroundDays: 5, finishedAt: at('2026-10-09T12:00:00Z') }); // due Friday 9 October: on time
     expect((await publicStanding(shop.id)).onTime).toEqual({ count: 3, of: 5, share: 0.6 });
+    // Accepted without "ready" or "shipped" ever logged, long past its due day: late too.
+    await pastJob(people, { awardedAt: friday, turnaroundDays: 2, status: 'completed', firstRecord: 'accepted' });
+    expect((await publicStanding(shop.id)).onTime).toEqual({ count: 3, of: 6, share: 0.5 });
   });
 
   it('when disputes are opened and decided, then they are counted beside the jobs completed, with how they ended', async () => {

@@ -37,10 +37,10 @@ import type { Executor } from '../../db/client';
  *   or "shipped"; it is on time when that day (UTC) is no later than the due
  *   day of shared/due-day.ts (the bid's working days, Monday to Friday, from
  *   the parts' arrival, or from the award until they arrive; holidays are not
- *   known and count as working days). A job paid for and still in the shop
- *   (funded or in work, no record sent) whose due day has passed counts as
- *   late already. Jobs whose record was sent or accepted without either entry
- *   are not counted (nothing says when the parts were ready).
+ *   known and count as working days). A job paid for with neither entry by
+ *   the end of its due day is late, whatever its status (still in the shop,
+ *   record sent, accepted or disputed), so no later step takes a late mark
+ *   away; an award never paid for, or cancelled, is not counted.
  * - Disputes: every dispute over the shop's won jobs, beside its jobs
  *   completed or decided (the count the minimum applies to), with outcomes.
  * - Answer time: in each conversation, a builder's message that opens it or
@@ -57,6 +57,8 @@ import type { Executor } from '../../db/client';
  */
 
 const DAY_MS = 86_400_000;
+/** Job statuses after the award's payment arrived. */
+const PAID_FOR = new Set(['funded', 'in_work', 'inspection_submitted', 'completed', 'disputed', 'resolved']);
 
 const noShopStanding: ShopStanding = { firstTimeAcceptance: null, onTime: null, disputes: null, answerTime: null };
 const noBuilderStanding: BuilderStanding = { paysOnTime: null, answersRecords: null };
@@ -140,7 +142,7 @@ export async function shopStandings(db: Executor, shopIds: string[], now = new D
     if (dueDay && finishedAt) {
       t.timed += 1;
       if (finishedAt.toISOString().slice(0, 10) <= dueDay) t.onTime += 1;
-    } else if (dueDay && (row.status === 'funded' || row.status === 'in_work') && now > dueDayEnd(dueDay)) {
+    } else if (dueDay && PAID_FOR.has(row.status) && now > dueDayEnd(dueDay)) {
       t.timed += 1;
     }
     if (row.status === 'completed' || row.status === 'resolved') t.completed += 1;
