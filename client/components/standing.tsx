@@ -71,10 +71,19 @@ function StandingList({ lines, label, className }: { lines: Line[]; label: strin
 /** How a standing is worked out, in one sentence for beneath it. */
 export const STANDING_NOTE = `Worked out from work done on Tenthmark (the latest ${STANDING_RECENT} jobs), never typed in; a figure shows once ${STANDING_MIN_COUNT} or more count. Working days are Monday to Friday.`;
 
+/** One short line instead of a list of "not enough" when no figure can be shown yet. */
+function NoRecordYet({ why, className }: { why: string; className?: string }) {
+  return <p className={cn('text-sm text-ink-soft', className)}>No record on Tenthmark yet: {why}.</p>;
+}
+
+const nothingShown = (standing: ShopStanding | BuilderStanding) => Object.values(standing).every((figure) => figure === null);
+
 export function ShopStandingList({ standing, className }: { standing: ShopStanding; className?: string }) {
+  if (nothingShown(standing)) return <NoRecordYet why="too few finished jobs for a figure" className={className} />;
   return <StandingList lines={shopStandingLines(standing)} label="Record on Tenthmark" className={className} />;
 }
 
 export function BuilderStandingList({ standing, className }: { standing: BuilderStanding; className?: string }) {
+  if (nothingShown(standing)) return <NoRecordYet why="too few awards and records for a figure" className={className} />;
   return <StandingList lines={builderStandingLines(standing)} label="Builder’s record on Tenthmark" className={className} />;
 }
