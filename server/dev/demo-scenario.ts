@@ -309,6 +309,12 @@ export async function buildDemoScenario(options: ScenarioOptions): Promise<numbe
     await (await as(shopEmail)).call('POST', `/api/jobs/${jobId}/inspection`, record);
   }
 
+  /** The shop sends its record again after the builder asked for changes. */
+  async function throughRecordAgain(plan: JobPlan, jobId: string, shopEmail: string, seed: number) {
+    const record = recordFor({ cylinders: plan.input.cylinders, unit: plan.input.unit, bore: plan.finishBore, piston: plan.input.pistonDiameter!, blockMaterial: plan.input.blockMaterial }, seed + 1, shopNames[shopEmail]);
+    await (await as(shopEmail)).call('POST', `/api/jobs/${jobId}/inspection`, record);
+  }
+
   /** A job with no bore work leaves out the bore specification. */
   const noBoreWork: Partial<JobInput> = {
     stockBore: undefined,
@@ -412,6 +418,13 @@ export async function buildDemoScenario(options: ScenarioOptions): Promise<numbe
         neededBy: isoDay(11),
       }),
     },
+    // Lantern Hill's earlier jobs for one builder, so its standing (and the builder's) has enough history to show figures.
+    ...Object.fromEntries(
+      ['Dirt-track V8', 'Shop-truck V8', 'Tractor-pull V8', 'Ski-boat V8', 'Delivery-van V8'].map((engine, i) => [
+        `earlier${i + 1}`,
+        { key: `earlier-${i + 1}`, builder: 'teodor@builders.test', finishBore: 4.0305, photos: 0, ageDays: 90 - i * 9, input: inchV8({ title: `${engine}: bore and hone`, logistics: 'drop-off', neededBy: isoDay(12 + i) }) },
+      ]),
+    ),
     cancelled: { key: 'cancelled', builder: 'juno@builders.test', finishBore: 4.0305, photos: 0, ageDays: 9, input: inchV8({ title: 'Spare V8 block: deck only (sold the block)', operations: [{ code: 'deck', quantity: 1 }] }) },
   };
   const ids: Record<string, string> = {};
@@ -479,6 +492,33 @@ export async function buildDemoScenario(options: ScenarioOptions): Promise<numbe
     await (await as(shopEmail)).call('POST', `/api/jobs/${ids[key]}/reviews`, { rating: builderStars, comment: builderWords });
     step('completed, paid out and reviewed');
   }
+
+  // Lantern Hill's earlier work for Teodor: a question answered, the record, "ready for pickup", accepted (one sent back once first).
+  const earlierAnswers = ['The block has a freeze-plug leak; can you replace the plugs too?', 'Can you keep the old pistons for me to weigh?', 'Is a torque plate needed for this block?', 'Could you check the lifter bores while it is there?', 'What finish do you leave for moly rings?'];
+  for (let i = 1; i <= 5; i += 1) {
+    const key = `earlier${i}`;
+    const plan = plans[key];
+    ids[key] = await post(plan);
+    await awardAndPay(plan, ids[key], await bid('bench@lanternhill.test', ids[key], plan, { turnaroundDays: 6 }));
+    await talk(ids[key], plan, 'bench@lanternhill.test', [
+      ['builder', earlierAnswers[i - 1]],
+      ['shop', 'Yes, we can do that; it is noted on the job.'],
+    ]);
+    await throughRecord(plan, ids[key], 'bench@lanternhill.test', 100 + i);
+    if (i === 3) {
+      await (await as(plan.builder)).call('POST', `/api/jobs/${ids[key]}/inspection/reject`, { version: 1, reasons: 'Please add the deck readings; the record leaves them out.' });
+      await throughRecordAgain(plan, ids[key], 'bench@lanternhill.test', 100 + i);
+    }
+    await logMilestones('bench@lanternhill.test', ids[key], [{ kind: 'ready_for_pickup', note: 'Bagged and on the pickup shelf.' }]);
+    await acceptNewest(plan.builder, ids[key]);
+    await waitFor('the payout', async () => (await (await as(plan.builder)).call<{ job: { status: string } }>('GET', `/api/jobs/${ids[key]}`)).job.status === 'completed');
+    step('earlier work of Lantern Hill, completed');
+  }
+  // Each builder's question waited a while before the shop's answer (messages are sent seconds apart above).
+  await options.db.execute(sql`
+    UPDATE messages m SET created_at = m.created_at - (20 + 10 * (ascii(m.body) % 5)) * interval '1 minute'
+    FROM threads t JOIN jobs j ON j.id = t.job_id
+    WHERE m.thread_id = t.id AND m.author_id = j.builder_id AND t.job_id IN (${sql.join([1, 2, 3, 4, 5].map((i) => sql`${ids[`earlier${i}`]}::uuid`), sql`, `)})`);
 
   // Disputed: the record shows one bore over the tight taper limit; the builder disputes, the shop answers.
   ids.disputed = await post(plans.disputed);

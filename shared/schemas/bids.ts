@@ -57,7 +57,7 @@ export const bidSchema = z.object({
   note: z.string(),
   lineItems: z.array(bidLineSchema),
   /** The bidding shop as its public page shows it. */
-  shop: publicShopSchema.pick({ id: true, name: true, country: true, region: true, city: true, verified: true, rating: true }),
+  shop: publicShopSchema.pick({ id: true, name: true, country: true, region: true, city: true, verified: true, rating: true, standing: true }),
   /** Share of the job's operations the shop lists as capabilities, 0 to 1. */
   capabilityMatch: z.number().min(0).max(1),
   /** From the shop to the job's place, in the unit of the job's country; null when either postal code gave no place. */

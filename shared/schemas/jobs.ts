@@ -5,6 +5,7 @@ import { BALANCE_GRADE_CHOICES, limitGroupOperation, limitGroups, operationLimit
 import { isoDateSchema, nearSchema, operationCodeSchema, queryInt, regionSchema, uuidSchema, withinSchema } from './common';
 import { distanceUnits } from '../distance';
 import { photoFileParamsSchema } from './photos';
+import { builderStandingSchema } from './standing';
 import { jobStatuses } from './values';
 
 export { jobStatuses, type JobStatus } from './values';
@@ -297,7 +298,8 @@ export type JobSpec = z.infer<typeof jobSpecSchema>;
 
 /** A job as its page shows it, to its builder, to shops and to admins alike; `viewer` says what the one asking may do. */
 export const jobDetailSchema = jobSummarySchema.extend({
-  builder: z.object({ id: z.uuid(), displayName: z.string() }),
+  /** The builder, with their standing from their own history (shared/schemas/standing.ts), which shops weigh before bidding. */
+  builder: z.object({ id: z.uuid(), displayName: z.string(), standing: builderStandingSchema }),
   spec: jobSpecSchema,
   photos: z.array(jobPhotoSchema),
   awardedBidId: z.uuid().nullable(),

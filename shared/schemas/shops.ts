@@ -3,6 +3,7 @@ import { centsSchema, nearSchema, operationCodeSchema, queryInt, regionSchema, w
 import { distanceUnits } from '../distance';
 import { ratingSummarySchema } from './reviews';
 import { postalAddressSchema } from './shipping';
+import { shopStandingSchema } from './standing';
 
 export const rateCardEntrySchema = z.object({
   operation: operationCodeSchema,
@@ -74,6 +75,8 @@ export const publicShopSchema = z.object({
   rateCard: z.array(z.object({ operation: z.string(), priceCents: z.number().int() })),
   verified: z.boolean(),
   rating: ratingSummarySchema.nullable(),
+  /** Figures from the shop's own history on Tenthmark (shared/schemas/standing.ts). */
+  standing: shopStandingSchema,
 });
 export type PublicShop = z.infer<typeof publicShopSchema>;
 

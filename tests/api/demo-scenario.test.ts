@@ -1,14 +1,15 @@
 import { eq, sql } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createDb, createPool, type Database } from '../../server/db/client';
-import { inspectionRecords, jobs } from '../../server/db/schema';
+import { inspectionRecords, jobs, users } from '../../server/db/schema';
 import { buildDemoScenario } from '../../server/dev/demo-scenario';
 import { demoAccounts, seedIfEmpty } from '../../server/dev/seed';
 import { startServer, type RunningServer } from '../../server/runtime';
 import { jobBalance } from '../../server/modules/payments/ledger';
+import { builderStanding } from '../../server/modules/standing/standing.repository';
 import { sendWebhooksTo, startTestStandIn, TEST_WEBHOOK_SECRET } from '../setup/payments';
 import { freePort } from '../setup/ports';
-import { createTestDatabase, signedIn, testConfig } from '../setup/test-env';
+import { agentFor, createTestDatabase, signedIn, testConfig } from '../setup/test-env';
 
 let database: Awaited<ReturnType<typeof createTestDatabase>>;
 let pool: ReturnType<typeof createPool>;
@@ -40,7 +41,7 @@ afterAll(async () => {
 
 describe('the demo scenario', () => {
   it('has jobs in every state, each built through the app', async () => {
-    expect(made).toBe(17);
+    expect(made).toBe(22);
     const rows = await db.select({ status: jobs.status, n: sql<number>`count(*)::int` }).from(jobs).groupBy(jobs.status);
     const byStatus = Object.fromEntries(rows.map((r) => [r.status, r.n]));
     for (const status of ['draft', 'open', 'awarded', 'funded', 'in_work', 'inspection_submitted', 'completed', 'disputed', 'resolved', 'cancelled']) {
@@ -69,6 +70,19 @@ describe('the demo scenario', () => {
     expect(body.shops.length).toBeGreaterThanOrEqual(4);
     for (const shop of body.shops) expect(shop.rating?.count, shop.name).toBeGreaterThan(0);
     expect(body.shops.filter((s: { verified: boolean }) => s.verified).length).toBe(2);
+  });
+
+  it('gives Lantern Hill and its builder enough history that their standing shows figures', async () => {
+    const { body } = await (await agentFor(server.app)).get('/api/shops?q=Lantern%20Hill');
+    const standing = body.shops[0].standing;
+    expect(standing.firstTimeAcceptance).toEqual({ count: 5, of: 6, share: 5 / 6 });
+    expect(standing.onTime).toEqual({ count: 5, of: 5, share: 1 });
+    expect(standing.disputes).toEqual({ opened: 0, completed: 6, outcomes: { release: 0, refund: 0, split: 0, open: 0 } });
+    expect(standing.answerTime.of).toBeGreaterThanOrEqual(5);
+    const teodor = (await db.select({ id: users.id }).from(users).where(eq(users.email, 'teodor@builders.test')))[0];
+    const builder = await builderStanding(db, teodor.id);
+    expect(builder.paysOnTime?.count).toBe(builder.paysOnTime?.of);
+    expect(builder.answersRecords?.of).toBeGreaterThanOrEqual(5);
   });
 
   it('stores inspection records whose results the server judged: accepted ones pass, the disputed ones fail', async () => {

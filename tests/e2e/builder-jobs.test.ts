@@ -234,6 +234,8 @@ describe('a builder posting a job and choosing a shop, in a real browser', () =>
     await expect(card('Kessrow Bore & Deck').getByText('67%').isVisible()).resolves.toBe(true);
     await expect(card('Kessrow Bore & Deck').getByText('Quickest').isVisible()).resolves.toBe(true);
     await expect(card('Quarry Bend Machining').getByText('No reviews yet').isVisible()).resolves.toBe(true);
+    // Each bid carries the shop's record on Tenthmark; a new shop has too little history for any figure.
+    await expect(card('Quarry Bend Machining').getByText('No record on Tenthmark yet: too few finished jobs for a figure.').isVisible()).resolves.toBe(true);
     await card('Lantern Hill Machine Works').locator('summary').click();
     await expect(card('Lantern Hill Machine Works').getByRole('cell', { name: '$180.00' }).first().isVisible()).resolves.toBe(true);
 

@@ -1,4 +1,5 @@
 import { Link, useParams } from 'react-router-dom';
+import { ShopStandingList, STANDING_NOTE } from '@client/components/standing';
 import { Card } from '@client/components/ui/card';
 import { Notice } from '@client/components/ui/notice';
 import { useShop, operationsByPart, RateCardTable, placeOf, RatingText, VerifiedBadge } from '@client/features/shops';
@@ -78,10 +79,17 @@ export function ShopPageRoute() {
             </>
           )}
         </Card>
-        <Card className="lg:self-start">
-          <h2 className="mb-3 text-xl font-bold">Rate card</h2>
-          <RateCardTable shop={data} />
-        </Card>
+        <div className="flex flex-col gap-6 lg:self-start">
+          <Card>
+            <h2 className="mb-3 text-xl font-bold">Record on Tenthmark</h2>
+            <ShopStandingList standing={data.standing} className="text-base" />
+            <p className="mt-3 text-sm text-ink-soft">{STANDING_NOTE}</p>
+          </Card>
+          <Card>
+            <h2 className="mb-3 text-xl font-bold">Rate card</h2>
+            <RateCardTable shop={data} />
+          </Card>
+        </div>
       </div>
     </div>
   );

@@ -38,6 +38,8 @@ export const disputes = pgTable(
     // One dispute at a time per job.
     uniqueIndex('disputes_one_open_per_job_idx').on(t.jobId).where(sql`${t.status} = 'open'`),
     index('disputes_queue_idx').on(t.status, t.openedAt),
+    // A job's disputes, closed ones too, for the shop's and the builder's standing.
+    index('disputes_job_idx').on(t.jobId),
     check('disputes_amounts_check', sql`coalesce(${t.shopCents}, 0) >= 0 AND coalesce(${t.refundCents}, 0) >= 0`),
   ],
 );

@@ -70,6 +70,8 @@ export const jobs = pgTable(
     index('jobs_open_earth_idx').using('gist', sql`ll_to_earth(${t.latitude}, ${t.longitude})`).where(sql`${t.status} = 'open'`),
     // The region fallback of the same filter, for open jobs whose postal code gave no place.
     index('jobs_open_unplaced_region_idx').on(sql`lower(${t.country})`, sql`lower(${t.region})`).where(sql`${t.status} = 'open' AND ${t.latitude} IS NULL`),
+    // A builder's awarded jobs, for their standing (server/modules/standing), without reading every job they posted.
+    index('jobs_builder_awarded_idx').on(t.builderId).where(sql`${t.awardedBidId} IS NOT NULL`),
     check('jobs_cylinders_check', sql`${t.cylinders} BETWEEN 1 AND 16`),
     check('jobs_bid_count_check', sql`${t.bidCount} >= 0`),
   ],
@@ -123,6 +125,8 @@ export const bids = pgTable(
     uniqueIndex('bids_one_active_per_shop_idx').on(t.jobId, t.shopId).where(sql`${t.status} = 'active'`),
     // Exactly one bid can ever be accepted on a job, whatever races happen above.
     uniqueIndex('bids_one_accepted_per_job_idx').on(t.jobId).where(sql`${t.status} = 'accepted'`),
+    // A shop's won jobs, latest first, for its standing (server/modules/standing).
+    index('bids_accepted_shop_idx').on(t.shopId, t.decidedAt).where(sql`${t.status} = 'accepted'`),
     check('bids_total_check', sql`${t.totalCents} >= 0`),
   ],
 );

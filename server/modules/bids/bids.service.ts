@@ -17,6 +17,7 @@ import { findJob, type JobRow } from '../jobs/jobs.repository';
 import { jobForViewer, mustBeBidsShop, mustBeBuilder, mustListBids, mustSeeBid, partyUserIdsById } from '../jobs/job-access';
 import { findShopByUser, shopIsListed, shopSuspended, type ShopRow } from '../shops/shops.repository';
 import { shopRatings } from '../reviews/ratings';
+import { shopStandings } from '../standing/standing.repository';
 import { Notices } from '../notifications/notify';
 import { formatCents } from '../../../shared/catalogue';
 import { distanceUnitFor, METRES_PER } from '../../../shared/distance';
@@ -287,7 +288,7 @@ async function present(db: Executor, rows: BidRow[]): Promise<Bid[]> {
     }),
   );
   const shopById = new Map(shopRows.map((s) => [s.id, s]));
-  const ratings = await shopRatings(db, [...shopById.keys()]);
+  const [ratings, standings] = await Promise.all([shopRatings(db, [...shopById.keys()]), shopStandings(db, [...shopById.keys()])]);
   const opsByJob = new Map(jobRows.map((j) => [j.id, j.operations]));
   return rows.map((row) => {
     const shop = shopById.get(row.shopId)!;
@@ -305,7 +306,7 @@ async function present(db: Executor, rows: BidRow[]): Promise<Bid[]> {
       lineItems: lines
         .filter((l) => l.bidId === row.id)
         .map(({ operation, description, quantity, unitPriceCents, amountCents }) => ({ operation, description, quantity, unitPriceCents, amountCents })),
-      shop: { id: shop.id, name: shop.name, country: shop.country, region: shop.region, city: shop.city, verified: shop.verifiedAt !== null, rating: ratings.get(shop.id) ?? null },
+      shop: { id: shop.id, name: shop.name, country: shop.country, region: shop.region, city: shop.city, verified: shop.verifiedAt !== null, rating: ratings.get(shop.id) ?? null, standing: standings.get(shop.id)! },
       capabilityMatch: ops.length ? covered / ops.length : 1,
       distance: distanceOf.get(row.id) ?? null,
       createdAt: row.createdAt.toISOString(),

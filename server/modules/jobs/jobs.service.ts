@@ -17,6 +17,7 @@ import { jobForViewer, mustOwnJob } from './job-access';
 import { boardPage, columnsFromInput, findJob, insertJob, photosOf, photoUrl, type BoardOrigin, type JobRow } from './jobs.repository';
 import { distanceUnitFor, POSTAL_CODE_NOT_FOUND } from '../../../shared/distance';
 import { locateAnyPostalCode } from '../../lib/postal-codes';
+import { builderStanding } from '../standing/standing.repository';
 
 export const MAX_PHOTOS_PER_JOB = 12;
 
@@ -47,9 +48,10 @@ export async function jobDetailFor(deps: JobDeps, user: User, jobId: string): Pr
 }
 
 export async function jobDetail(deps: JobDeps, job: JobRow, user: User): Promise<JobDetail> {
-  const [photos, [builder]] = await Promise.all([
+  const [photos, [builder], standing] = await Promise.all([
     photosOf(deps.db, job.id),
     deps.db.select({ id: users.id, displayName: users.displayName }).from(users).where(eq(users.id, job.builderId)),
+    builderStanding(deps.db, job.builderId),
   ]);
   let canBid = false;
   let myBidId: string | null = null;
@@ -84,7 +86,7 @@ export async function jobDetail(deps: JobDeps, job: JobRow, user: User): Promise
     distance: null,
     updatedAt: job.updatedAt.toISOString(),
     thumbUrl: photos[0] ? photoUrl(job.id, photos[0].id, 'thumb') : null,
-    builder: { id: builder.id, displayName: builder.displayName },
+    builder: { id: builder.id, displayName: builder.displayName, standing },
     // The postal code is the builder's own: others see the town, the region and the distance.
     spec: job.builderId === user.id ? (job.spec as JobInput) : { ...(job.spec as JobInput), postalCode: undefined },
     photos: photos.map((p) => ({ id: p.id, width: p.width, height: p.height, thumbUrl: photoUrl(job.id, p.id, 'thumb'), largeUrl: photoUrl(job.id, p.id, 'large') })),

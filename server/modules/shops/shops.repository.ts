@@ -1,5 +1,6 @@
 import { and, arrayContains, asc, eq, ilike, inArray, or, sql, type SQL } from 'drizzle-orm';
 import type { PublicShop, ShopDirectoryQuery, ShopProfileInput } from '../../../shared/schemas/shops';
+import type { ShopStanding } from '../../../shared/schemas/standing';
 import type { Executor } from '../../db/client';
 import { shopRates, shops, users } from '../../db/schema';
 import { shopRatings } from '../reviews/ratings';
@@ -7,6 +8,7 @@ import { METRES_PER } from '../../../shared/distance';
 import { distanceIn, earthAt, earthOf, withinMetres } from '../../db/earth';
 import { badRequest } from '../../lib/errors';
 import { locateAnyPostalCode, placeOf } from '../../lib/postal-codes';
+import { shopStandings } from '../standing/standing.repository';
 
 export type ShopRow = typeof shops.$inferSelect;
 
@@ -77,7 +79,7 @@ export async function upsertShop(db: Executor, userId: string, input: ShopProfil
   return row;
 }
 
-export function toPublicShop(row: ShopRow, rateCard: Array<{ operation: string; priceCents: number }>, rating: PublicShop['rating'] = null): PublicShop {
+export function toPublicShop(row: ShopRow, rateCard: Array<{ operation: string; priceCents: number }>, rating: PublicShop['rating'], standing: ShopStanding): PublicShop {
   return {
     id: row.id,
     name: row.name,
@@ -91,6 +93,7 @@ export function toPublicShop(row: ShopRow, rateCard: Array<{ operation: string; 
     rateCard,
     verified: row.verifiedAt !== null,
     rating,
+    standing,
   };
 }
 
@@ -126,9 +129,9 @@ export async function searchShops(db: Executor, query: ShopDirectoryQuery) {
     db.select({ total: sql<number>`count(*)::int` }).from(shops).where(where),
   ]);
   const ids = rows.map((r) => r.shop.id);
-  const [rates, ratings] = await Promise.all([ratesFor(db, ids), shopRatings(db, ids)]);
+  const [rates, ratings, standings] = await Promise.all([ratesFor(db, ids), shopRatings(db, ids), shopStandings(db, ids)]);
   return {
-    shops: rows.map(({ shop, distance }) => ({ ...toPublicShop(shop, rates.get(shop.id) ?? [], ratings.get(shop.id) ?? null), distance })),
+    shops: rows.map(({ shop, distance }) => ({ ...toPublicShop(shop, rates.get(shop.id) ?? [], ratings.get(shop.id) ?? null, standings.get(shop.id)!), distance })),
     total,
     page: query.page,
     pageSize: query.pageSize,

@@ -5,12 +5,14 @@ import type { Database } from '../../db/client';
 import { routesFor } from '../../lib/http/routes';
 import { notFound } from '../../lib/errors';
 import { shopRatings } from '../reviews/ratings';
+import { shopStanding } from '../standing/standing.repository';
 import { findListedShopById, findShopByUser, ratesFor, searchShops, toPublicShop, upsertShop, type ShopRow } from './shops.repository';
 
-/** What a shop sees of itself: the public profile, its e-mail choice and its payout account's state. */
-function ownShop(shop: ShopRow, rateCard: Array<{ operation: string; priceCents: number }>): OwnShop {
+/** What a shop sees of itself: the public profile (with its standing), its e-mail choice and its payout account's state. */
+async function ownShop(db: Database, shop: ShopRow): Promise<OwnShop> {
+  const [rates, standing] = await Promise.all([ratesFor(db, [shop.id]), shopStanding(db, shop.id)]);
   const payouts = shop.payoutsReadyAt ? 'ready' : shop.payoutAccountId ? 'pending' : 'none';
-  return { ...toPublicShop(shop, rateCard), postalCode: shop.postalCode, placeFound: shop.latitude !== null, notifyMatchingJobs: shop.notifyMatchingJobs, receivingAddress: shop.receivingAddress ?? null, payouts };
+  return { ...toPublicShop(shop, rates.get(shop.id) ?? [], null, standing), postalCode: shop.postalCode, placeFound: shop.latitude !== null, notifyMatchingJobs: shop.notifyMatchingJobs, receivingAddress: shop.receivingAddress ?? null, payouts };
 }
 
 const route = routesFor<{ db: Database }>('Shops');
@@ -36,8 +38,8 @@ export const shopsRoutes = [
     handler: async ({ deps: { db }, params }) => {
       const shop = await findListedShopById(db, params.shopId);
       if (!shop) throw notFound('No shop with that id.');
-      const [rates, ratings] = await Promise.all([ratesFor(db, [shop.id]), shopRatings(db, [shop.id])]);
-      return { shop: toPublicShop(shop, rates.get(shop.id) ?? [], ratings.get(shop.id) ?? null) };
+      const [rates, ratings, standing] = await Promise.all([ratesFor(db, [shop.id]), shopRatings(db, [shop.id]), shopStanding(db, shop.id)]);
+      return { shop: toPublicShop(shop, rates.get(shop.id) ?? [], ratings.get(shop.id) ?? null, standing) };
     },
   }),
   route({
@@ -49,8 +51,7 @@ export const shopsRoutes = [
     handler: async ({ deps: { db }, user }) => {
       const shop = await findShopByUser(db, user.id);
       if (!shop) throw notFound('You have not set up your shop profile yet.');
-      const rates = await ratesFor(db, [shop.id]);
-      return { shop: ownShop(shop, rates.get(shop.id) ?? []) };
+      return { shop: await ownShop(db, shop) };
     },
   }),
   route({
@@ -62,8 +63,7 @@ export const shopsRoutes = [
     reply: { json: ownShopAnswerSchema },
     handler: async ({ deps: { db }, user, body }) => {
       const shop = await db.transaction((tx) => upsertShop(tx, user.id, body));
-      const rates = await ratesFor(db, [shop.id]);
-      return { shop: ownShop(shop, rates.get(shop.id) ?? []) };
+      return { shop: await ownShop(db, shop) };
     },
   }),
 ];

@@ -5,6 +5,7 @@ import { formatDistance } from '@shared/distance';
 import type { Bid, BidStatus } from '@shared/schemas/bids';
 import type { JobStatus } from '@shared/schemas/jobs';
 import { BID_STATUS } from '@shared/glossary';
+import { ShopStandingList } from '@client/components/standing';
 import { Badge, TermBadge } from '@client/components/ui/badge';
 import { Button } from '@client/components/ui/button';
 import { ConfirmDialog } from '@client/components/ui/modal-dialog';
@@ -93,6 +94,7 @@ function ShopName({ bid, highlights }: { bid: Bid; highlights: ReactNode }) {
         {bid.distance && <span data-testid="bid-distance"> · {formatDistance(bid.distance.value, bid.distance.unit)} from the parts</span>}
       </span>
       <span className="text-sm text-ink-soft">{ratingText(bid.shop.rating)}</span>
+      <ShopStandingList standing={bid.shop.standing} className="max-w-sm text-xs" />
       {highlights}
     </div>
   );

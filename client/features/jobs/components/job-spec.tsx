@@ -7,6 +7,7 @@ import { formatDay } from '@client/lib/dates';
 import { POSTAL_CODE_NOT_FOUND } from '@shared/distance';
 import { jobScope, limitEntries } from './job-scope';
 import { formatLength, formatLimit, layoutWords, materialWords, pistonWords, quantityText, unitWords } from './job-words';
+import { BuilderStandingList } from '@client/components/standing';
 
 type Item = [label: string, value: ReactNode] | false | undefined;
 
@@ -165,6 +166,7 @@ export function JobLogistics({ job }: { job: JobDetail }) {
         // Only the builder sees the postal code, and so whether it was found.
         ...(job.spec.postalCode ? [['Postal code', job.placeFound ? job.spec.postalCode : `${job.spec.postalCode} (${POSTAL_CODE_NOT_FOUND})`] as [string, string]] : []),
         ['Posted by', job.builder.displayName],
+        ['Builder’s record', <BuilderStandingList key="standing" standing={job.builder.standing} className="font-normal" />],
       ]}
     />
   );

@@ -1,5 +1,6 @@
 import { Link } from 'react-router-dom';
 import type { PublicShop } from '@shared/schemas/shops';
+import { ShopStandingList } from '@client/components/standing';
 import { Badge } from '@client/components/ui/badge';
 import { inCatalogueOrder, operationName } from './operation-words';
 
@@ -59,6 +60,7 @@ export function ShopCard({ shop, distance }: { shop: PublicShop; distance?: stri
           <RatingText rating={shop.rating} />
         </dd>
       </dl>
+      <ShopStandingList standing={shop.standing} className="border-t border-slate-100 pt-2" />
     </article>
   );
 }
