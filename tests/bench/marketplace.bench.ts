@@ -9,7 +9,6 @@
  * BENCH_SECONDS (per case, default 10) and BENCH_ROUNDS (turns, default 2).
  */
 import autocannon from 'autocannon';
-import { sql } from 'drizzle-orm';
 import { mkdtempSync, rmSync } from 'node:fs';
 import { createServer, type Server } from 'node:http';
 import { tmpdir } from 'node:os';
@@ -18,12 +17,9 @@ import pg from 'pg';
 import { boardQuerySchema } from '../../shared/schemas/jobs';
 import { createDb, createPool } from '../../server/db/client';
 import { boardCountQuery, boardRowsQuery, type BoardOrigin } from '../../server/modules/jobs/jobs.repository';
-import { placeOf } from '../../server/lib/postal-codes';
-import { hashPassword } from '../../server/lib/auth/passwords';
 import { startServer } from '../../server/runtime';
-import { benchCluster, benchConfig, migratedBenchDatabase } from './bench-app';
+import { BENCH_JOBS as JOBS, benchCluster, benchConfig, migratedBenchDatabase, seedMarketplace, signInAsShop } from './bench-app';
 
-const JOBS = 10_000;
 const DURATION_S = Number(process.env.BENCH_SECONDS ?? 10);
 const ROUNDS = Number(process.env.BENCH_ROUNDS ?? 2);
 
@@ -36,30 +32,8 @@ try {
   const url = await migratedBenchDatabase(cluster);
   const pool = createPool(url, 2);
   const db = createDb(pool);
-  const hash = await hashPassword('bench password 1');
   console.log(`seeding ${JOBS.toLocaleString()} open jobs …`);
-  await db.execute(sql`INSERT INTO users (email, display_name, role, password_hash, email_verified_at)
-    VALUES ('builder@bench.test', 'Bench Builder', 'builder', ${hash}, now()), ('shop@bench.test', 'Bench Shop', 'shop', ${hash}, now())`);
-  // The shop is placed by its postal code as the app places it; the jobs are spread over the continental United States.
-  const shopPlace = await placeOf('United States', '45402');
-  await db.execute(sql`INSERT INTO shops (user_id, name, country, region, city, postal_code, latitude, longitude, takes_shipped, capabilities, turnaround_days)
-    SELECT id, 'Bench Shop', 'United States', 'Ohio', 'Dayton', ${shopPlace.postalCode}, ${shopPlace.latitude}, ${shopPlace.longitude}, true, ARRAY['bore','hone','deck'], 10 FROM users WHERE role = 'shop'`);
-  await db.execute(sql`
-    INSERT INTO jobs (builder_id, status, title, engine_family, cylinders, block_material, operations, logistics, country, region, city, needed_by, spec, published_at, bid_count, latitude, longitude)
-    SELECT (SELECT id FROM users WHERE role = 'builder'), 'open', 'Bench job ' || g, 'Bench V8', (ARRAY[4,6,8])[1 + g % 3],
-      CASE WHEN g % 3 = 0 THEN 'aluminium' ELSE 'cast-iron' END,
-      CASE g % 4 WHEN 0 THEN ARRAY['bore','hone'] WHEN 1 THEN ARRAY['deck'] WHEN 2 THEN ARRAY['bore','hone','deck'] ELSE ARRAY['line-hone'] END,
-      CASE WHEN g % 2 = 0 THEN 'ship' ELSE 'drop-off' END,
-      'United States', (ARRAY['Ohio','Oregon','Texas','Maine','Utah'])[1 + g % 5], 'Town ' || (g % 50), current_date + (g % 120),
-      jsonb_build_object('title', 'Bench job ' || g, 'unit', 'in', 'stockBore', 4, 'stroke', 3.48), now() - g * interval '1 minute', g % 7,
-      25 + (g % 100) * 0.25, -124 + (g / 100) * 0.57
-    FROM generate_series(1, ${JOBS}) AS g`);
-  await db.execute(sql`ANALYZE`);
-  const [{ id: sampleJob }] = (await db.execute<{ id: string }>(sql`SELECT id FROM jobs ORDER BY published_at DESC LIMIT 1 OFFSET 500`)).rows;
-  // A conversation between the builder and the shop on that job, for message posting.
-  const [{ id: threadId }] = (
-    await db.execute<{ id: string }>(sql`INSERT INTO threads (job_id, shop_id) SELECT ${sampleJob}, id FROM shops LIMIT 1 RETURNING id`)
-  ).rows;
+  const { shopPlace, sampleJob, threadId } = await seedMarketplace(db, JOBS);
   // The exact statements the app runs for each board query, for the bare baselines.
   const statements = (raw: Record<string, string>, origin: BoardOrigin | null = null) => {
     const query = boardQuerySchema.parse(raw);
@@ -88,17 +62,7 @@ try {
   const base = `http://127.0.0.1:${server.port}`;
 
   // Sign in as the shop once and reuse the session cookie.
-  const csrfRes = await fetch(`${base}/api/auth/csrf`);
-  const firstCookie = csrfRes.headers.get('set-cookie')!.split(';')[0];
-  const { csrfToken } = (await csrfRes.json()) as { csrfToken: string };
-  const login = await fetch(`${base}/api/auth/login`, {
-    method: 'POST',
-    headers: { 'Content-Type': 'application/json', Cookie: firstCookie, 'X-CSRF-Token': csrfToken },
-    body: JSON.stringify({ email: 'shop@bench.test', password: 'bench password 1' }),
-  });
-  if (login.status !== 200) throw new Error(`bench sign-in failed: ${login.status}`);
-  const cookie = login.headers.get('set-cookie')!.split(';')[0];
-  const { csrfToken: token } = (await login.json()) as { csrfToken: string };
+  const { cookie, token } = await signInAsShop(base);
   let sent = 0;
 
   // Page 150 of 50-row pages reached as a person paging on would: following each page's nextCursor.
