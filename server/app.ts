@@ -191,7 +191,7 @@ export function createApp(deps: AppDeps) {
   }
 
   app.use(errorHandler);
-  return Object.assign(app, { sessionStore: store, sessionMiddleware, hub, paymentDeps, workDeps });
+  return Object.assign(app, { sessionStore: store, sessionMiddleware, hub, paymentDeps, workDeps, storage });
 }
 
 export type App = ReturnType<typeof createApp>;

@@ -106,6 +106,7 @@ export async function startServer(
       await worker.stop();
       app.sessionStore.close();
       transport.close();
+      await app.storage.close();
       // The session store touches a session after its response has gone out; let the last ones land.
       await new Promise((resolve) => setTimeout(resolve, 100));
       await Promise.all([pool.end(), realtimePool.end()]);

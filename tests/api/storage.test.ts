@@ -35,6 +35,7 @@ const unique = () => `t${Math.random().toString(36).slice(2, 10)}`;
 describe.each(['disk', 's3'] as const)('file storage on %s', (kind) => {
   const config = configFor(kind);
   const storage: FileStorage = createStorage(config);
+  afterAll(() => storage.close());
 
   it('when a file is put, then get streams back exactly its bytes with its size', async () => {
     const key = `jobs/${unique()}/photo-large.webp`;
