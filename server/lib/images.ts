@@ -51,6 +51,12 @@ function tooManyPixels(width?: number, height?: number) {
   return new AppError('too_many_pixels', `This image has too many pixels${size}. Keep photos under ${MAX_INPUT_PIXELS / 1_000_000} megapixels.`, 413);
 }
 
+/**
+ * The stored files of a photo whose row says `storageKey` (e.g.
+ * `threads/<thread>/<photo>`): one WebP per size, as withStoredPhotos keys them.
+ */
+export const photoFileKeys = (storageKey: string): string[] => (['large', 'thumb'] as const).map((size) => `${storageKey}-${size}.webp`);
+
 export interface StoredPhoto {
   id: string;
   width: number;
