@@ -4,7 +4,7 @@ import type { Database, Executor } from '../../db/client';
 import { bids, jobPhotos, jobs, shops, users, type User } from '../../db/schema';
 import { assertEmailConfirmed } from '../../lib/auth/guards';
 import { AppError, conflict, notFound } from '../../lib/errors';
-import { withStoredPhotos } from '../../lib/images';
+import { withStoredPhotos, type PhotoSource } from '../../lib/images';
 import { enqueueMail } from '../../lib/mail/outbox';
 import { jobCancelledMail, jobChangedMail, matchingJobMail } from '../../lib/mail/templates';
 import type { FileStorage, StoredFile } from '../../lib/storage';
@@ -204,7 +204,7 @@ export async function assertMayAddPhotos(db: Executor, user: User, jobId: string
  * fails); the count limit is checked under the job's row lock so two uploads
  * at once cannot pass 12 together.
  */
-export async function addPhotos(deps: JobDeps, user: User, jobId: string, files: Array<{ buffer: Buffer }>) {
+export async function addPhotos(deps: JobDeps, user: User, jobId: string, files: PhotoSource[]) {
   const photos = await withStoredPhotos(deps.storage, files, (id, size) => photoKey(jobId, id, size), (stored) =>
     deps.db.transaction(async (tx) => {
       const job = await ownJobForUpdate(tx, jobId, user);
