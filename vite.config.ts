@@ -109,12 +109,12 @@ export default defineConfig({
         },
       },
       {
-        // The photo suites once more with photos in the S3 stand-in instead of the uploads folder
+        // The photo and document suites once more with files in the S3 stand-in instead of the uploads folder
         // (tests/setup/storage.ts): the same files, so both storages meet the same checks.
         extends: true,
         test: {
           name: 'integration-s3',
-          include: ['tests/api/photos.test.ts', 'tests/api/inspections.test.ts', 'tests/realtime/messaging.test.ts'],
+          include: ['tests/api/photos.test.ts', 'tests/api/inspections.test.ts', 'tests/api/documents.test.ts', 'tests/realtime/messaging.test.ts'],
           environment: 'node',
           env: { TENTHMARK_TEST_STORAGE: 's3' },
           globalSetup: ['tests/setup/global-setup.ts'],

@@ -157,9 +157,9 @@ export function createApp(deps: AppDeps) {
   mount(routeModules.jobs, { db, appUrl: config.appUrl, storage, hub, uploadLimit, payments: paymentsClient });
   mount(routeModules.bids, { db, appUrl: config.appUrl, hub, platformFeeBps: config.payments.platformFeeBps });
   mount(routeModules.payments, paymentDeps);
-  mount(routeModules.documents, { db, appUrl: config.appUrl });
+  mount(routeModules.documents, { db, appUrl: config.appUrl, storage });
   mount(routeModules.messages, { db, hub, storage, uploadLimit, rateLimit: messageRateLimit(db, config.rateLimits.messagesPer10s) });
-  const workDeps = { ...paymentDeps, reviewWindowMs: config.reviewWindowDays * 24 * 60 * 60_000 };
+  const workDeps = { ...paymentDeps, storage, reviewWindowMs: config.reviewWindowDays * 24 * 60 * 60_000 };
   mount(routeModules.milestones, { db, hub, storage, uploadLimit });
   mount(routeModules.shipping, { db, hub });
   mount(routeModules.inspections, workDeps);
@@ -191,7 +191,7 @@ export function createApp(deps: AppDeps) {
   }
 
   app.use(errorHandler);
-  return Object.assign(app, { sessionStore: store, sessionMiddleware, hub, paymentDeps, workDeps });
+  return Object.assign(app, { sessionStore: store, sessionMiddleware, hub, paymentDeps, workDeps, storage });
 }
 
 export type App = ReturnType<typeof createApp>;

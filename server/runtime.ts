@@ -11,6 +11,7 @@ import { startMoneyWorker } from './modules/payments/payments.service';
 import { inspectionTaskHandlers } from './modules/inspections/inspections.service';
 import { checkoutTaskHandlers } from './modules/payments/open-checkouts';
 import { createScheduler, type Scheduler } from './lib/scheduler';
+import { unattachedPhotoSweep } from './lib/unattached-photos';
 import { attachRealtime } from './realtime/socket-server';
 
 export interface RunningServer {
@@ -45,6 +46,9 @@ export async function startServer(
   const pool = createPool(config.databaseUrl);
   const db = createDb(pool);
   const app = createApp({ config, db, pool, logger, client: options.client });
+  // Every instance asks; the first to ask schedules this hour's sweep, and each sweep schedules the next.
+  const photoSweep = unattachedPhotoSweep({ db, storage: app.storage });
+  await photoSweep.schedule();
   const server = createServer(app);
   await new Promise<void>((resolve, reject) => {
     server.once('error', reject);
@@ -73,7 +77,7 @@ export async function startServer(
   });
   const digests = startDigestWorker({ db, appUrl: config.appUrl, logger });
   const money = startMoneyWorker(app.paymentDeps);
-  const scheduler = createScheduler({ db, handlers: { ...inspectionTaskHandlers(app.workDeps), ...checkoutTaskHandlers(app.paymentDeps) }, logger });
+  const scheduler = createScheduler({ db, handlers: { ...inspectionTaskHandlers(app.workDeps), ...checkoutTaskHandlers(app.paymentDeps), ...photoSweep.handlers }, logger });
   scheduler.start(30_000);
 
   const transport = createTransport(config.smtp);
@@ -106,6 +110,7 @@ export async function startServer(
       await worker.stop();
       app.sessionStore.close();
       transport.close();
+      await app.storage.close();
       // The session store touches a session after its response has gone out; let the last ones land.
       await new Promise((resolve) => setTimeout(resolve, 100));
       await Promise.all([pool.end(), realtimePool.end()]);

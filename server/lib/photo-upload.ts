@@ -1,4 +1,5 @@
 import type { Request, RequestHandler, Response } from 'express';
+import { rm } from 'node:fs/promises';
 import { pipeline } from 'node:stream/promises';
 import multer from 'multer';
 import type { Database } from '../db/client';
@@ -31,8 +32,11 @@ export function uploadLimiter(db: Database, perTenMinutes: number): RequestHandl
 }
 
 /**
- * Multipart photo uploads, held in memory for `processPhoto` (server/lib/images.ts),
- * in the field "photos", at most `maxFiles` per request. Every route puts the
+ * Multipart photo uploads in the field "photos", at most `maxFiles` per
+ * request, each streamed into a temporary file (the system's temp folder) for
+ * `processPhoto` (server/lib/images.ts) to read, so four 15 MB photos are never
+ * held in memory; the files are removed once the answer has gone (or the
+ * connection dropped), and multer removes them itself when it refuses an upload. Every route puts the
  * access check for its job or conversation and `uploadLimiter` before it, so
  * nothing is read or decoded for someone who may not upload. multer's own errors
  * come out in the API's error shape: too big or too many is 413, the rest
@@ -40,11 +44,15 @@ export function uploadLimiter(db: Database, perTenMinutes: number): RequestHandl
  */
 export function receivePhotos(maxFiles: number): RequestHandler {
   const upload = multer({
-    storage: multer.memoryStorage(),
+    storage: multer.diskStorage({}),
     limits: { fileSize: MAX_PHOTO_BYTES, files: maxFiles, fields: 5, parts: maxFiles + 5 },
   }).array('photos', maxFiles);
 
   return (req, res, next) => {
+    res.once('close', () => {
+      // A part cut off mid-way is listed without a path (multer removes what it wrote of it).
+      for (const file of uploadedFiles(req)) if (file.path) rm(file.path, { force: true }).catch(() => {});
+    });
     upload(req, res, (error: unknown) => {
       if (!error) return next();
       if (error instanceof multer.MulterError) {

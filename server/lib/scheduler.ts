@@ -11,6 +11,29 @@ export async function scheduleTask(db: Executor, task: { kind: string; key: stri
 }
 
 /**
+ * A task that comes back every `everyMs`, on the same leased rows as one-off
+ * tasks. Each run is keyed by its time slot, so however many instances
+ * schedule it, a slot is scheduled once and (leased like any task) runs once;
+ * each run schedules the slot after its own `now`. `schedule` at start-up puts
+ * in the current slot's run, which is nothing when another instance already has.
+ */
+export function recurringTask(options: { db: Database; kind: string; everyMs: number; run: (now: Date) => Promise<void> }) {
+  const { db, kind, everyMs } = options;
+  const slotOf = (time: Date) => Math.floor(time.getTime() / everyMs) * everyMs;
+  const scheduleSlot = (slot: number, runAt: Date) => scheduleTask(db, { kind, key: `${kind}@${new Date(slot).toISOString()}`, payload: {}, runAt });
+  return {
+    schedule: (now: Date = new Date()) => scheduleSlot(slotOf(now), now),
+    handlers: {
+      [kind]: async (_payload: Record<string, unknown>, now: Date) => {
+        await options.run(now);
+        const next = slotOf(now) + everyMs;
+        await scheduleSlot(next, new Date(next));
+      },
+    } satisfies Record<string, TaskHandler>,
+  };
+}
+
+/**
  * Runs due tasks. Each is leased with FOR UPDATE SKIP LOCKED before it runs,
  * so two instances never run the same task at once; a task whose worker died
  * mid-way is leased again when its lease ends. `now` can be given, so tests

@@ -22,6 +22,8 @@ export interface FileStorage {
   get(key: string): Promise<StoredFile | undefined>;
   /** Removing a file that is not there is not an error. */
   remove(key: string): Promise<void>;
+  /** Lets go of what the storage holds open (the object store's connections); called once, at shutdown. */
+  close(): Promise<void>;
 }
 
 const KEY_PATTERN = /^[a-z0-9][a-z0-9/_-]*\.[a-z0-9]+$/;
@@ -69,6 +71,9 @@ export class LocalDiskStorage implements FileStorage {
   async remove(key: string): Promise<void> {
     await rm(this.pathFor(key), { force: true });
   }
+
+  /** Nothing is held open between calls. */
+  async close(): Promise<void> {}
 }
 
 const CONTENT_TYPES: Record<string, string> = { webp: 'image/webp', pdf: 'application/pdf' };
@@ -137,6 +142,11 @@ export class S3Storage implements FileStorage {
     // S3 answers 204 for a key that is not there, so removing twice is fine.
     const { DeleteObjectCommand } = await loadSdk();
     await (await this.client).send(new DeleteObjectCommand({ Bucket: this.bucket, Key: checkKey(key) }));
+  }
+
+  /** Closes the client's kept-alive connections, so they hold neither the process nor the store's sockets after shutdown. */
+  async close(): Promise<void> {
+    (await this.client).destroy();
   }
 }
 

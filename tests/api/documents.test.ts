@@ -2,7 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { addWorkingDays } from '../../shared/due-day';
 import { startMoneyApp } from '../setup/money-app';
 import { payOnPage } from '../setup/payments';
-import { pdfText } from '../setup/pdf';
+import { expectStoredCopyServed, pdfText, storedDocuments } from '../setup/pdf';
 import { createUser } from '../factories';
 import { signedIn } from '../setup/test-env';
 
@@ -55,6 +55,22 @@ describe('receipts', () => {
     const admin = await signedIn(m.server.app, await createUser(m.db, { role: 'admin' }));
     expect(flat(await pdfText(admin, `/api/payments/${bidPayment.id}/receipt.pdf`))).toContain(bidPayment.receiptNumber!);
   });
+
+  it('when a receipt is downloaded again, then the stored copy is sent, not a new print; when the money it shows changes, then a new receipt is printed and kept', async () => {
+    const { job, builder, shop } = await m.jobIn('inWork', { totalCents: 50_000 });
+    const [bidPayment] = (await moneyOf(builder, job.id)).payments;
+    const path = `/api/payments/${bidPayment.id}/receipt.pdf`;
+    const stored = { config: m.config, storage: m.server.app.storage };
+    await expectStoredCopyServed(builder, path, stored, 'receipts', bidPayment.id);
+
+    // Paid extra work raises what is held, which the bid's receipt prints: another document, under another key.
+    const proposed = await shop.post(`/api/jobs/${job.id}/change-orders`, { description: 'Align hone the mains', amountCents: 12_000 });
+    const approve = await builder.post(`/api/change-orders/${proposed.body.changeOrder.id}/approve`);
+    expect((await payOnPage(approve.body.url, '4242424242424242')).status).toBeLessThan(400);
+    await m.until('extra work paid', async () => (await moneyOf(builder, job.id)).payments.filter((p) => p.receiptNumber).length === 2);
+    expect(flat(await pdfText(builder, path))).toContain('$620.00');
+    expect(await storedDocuments(m.config.storage, 'receipts', bidPayment.id)).toHaveLength(2);
+  });
 });
 
 describe('invoices', () => {
@@ -78,6 +94,8 @@ describe('invoices', () => {
     expect(builderCopy).toContain(`Invoice number ${number}`);
     expect(builderCopy).not.toContain('Net payout');
     expect(builderCopy).not.toContain('$460.00');
+    // Each copy is printed once and kept under its own key.
+    expect(await storedDocuments(m.config.storage, 'invoices', job.id)).toHaveLength(2);
     const stranger = await signedIn(m.server.app, await createUser(m.db));
     expect((await stranger.get(`/api/jobs/${job.id}/invoice.pdf`)).status).toBe(403);
   });

@@ -9,7 +9,7 @@ import { inspectionTaskHandlers } from '../../server/modules/inspections/inspect
 import { jobBalance } from '../../server/modules/payments/ledger';
 import { createUser, inspectionRecordInput, jobInput } from '../factories';
 import { startMoneyApp } from '../setup/money-app';
-import { certificateText } from '../setup/pdf';
+import { certificateText, expectStoredCopyServed, storedDocuments } from '../setup/pdf';
 import { signedIn } from '../setup/test-env';
 
 let m: Awaited<ReturnType<typeof startMoneyApp>>;
@@ -246,6 +246,16 @@ describe('inspection record', () => {
     const stranger = await signedIn(m.server.app, await createUser(m.db));
     expect((await stranger.get(`/api/jobs/${job.id}/inspection/1/certificate.pdf`)).status).toBe(403);
     expect((await builder.get(`/api/jobs/${job.id}/inspection/9/certificate.pdf`)).status).toBe(404);
+  });
+
+  it('when a certificate is downloaded again, then the stored copy is sent, not a new print; when its version is sent back, then a new one says so', async () => {
+    const { job, builder, shop } = await inWork();
+    await shop.post(`/api/jobs/${job.id}/inspection`, record());
+    const path = `/api/jobs/${job.id}/inspection/1/certificate.pdf`;
+    await expectStoredCopyServed(builder, path, { config: m.config, storage: m.server.app.storage }, 'certificates', `${job.id}-v1`);
+    expect((await builder.post(`/api/jobs/${job.id}/inspection/reject`, { version: 1, reasons: 'Deck finish is too rough.' })).status).toBe(200);
+    expect(await certificateText(builder, job.id, 1)).toContain('Changes asked');
+    expect(await storedDocuments(m.config.storage, 'certificates', `${job.id}-v1`)).toHaveLength(2);
   });
 
   it('when a record without a bore grid has line hone and balance sections, then the PDF prints a part per operation with its checks, no bore table, and ≤ as text', async () => {

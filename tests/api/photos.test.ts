@@ -141,6 +141,8 @@ describe('job photos', () => {
     const more = await upload(b, job.id, [{ data: small, name: 'thirteen.jpg' }]);
     expect(more.status).toBe(409);
     expect(more.body.error.code).toBe('too_many_photos');
+    // The thirteenth was stored before the count was checked under the job's lock, and removed again.
+    expect(await storedKeys(ctx.config.storage, `jobs/${job.id}/`)).toHaveLength(24);
 
     const { user } = await createShop(ctx.db);
     const shop = await signedIn(ctx.app, user);

@@ -1,4 +1,4 @@
-import { mkdtempSync, rmSync } from 'node:fs';
+import { existsSync, mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import type { AddressInfo } from 'node:net';
 import { join } from 'node:path';
@@ -9,7 +9,7 @@ import sharp from 'sharp';
 import { afterAll, describe, expect, inject, it } from 'vitest';
 import { loadConfig } from '../../server/env';
 import { withStoredPhotos } from '../../server/lib/images';
-import { sendPhoto } from '../../server/lib/photo-upload';
+import { receivePhotos, sendPhoto, uploadedFiles } from '../../server/lib/photo-upload';
 import { createStorage, type FileStorage } from '../../server/lib/storage';
 import { storageSettings, storedKeys } from '../setup/storage';
 
@@ -35,6 +35,7 @@ const unique = () => `t${Math.random().toString(36).slice(2, 10)}`;
 describe.each(['disk', 's3'] as const)('file storage on %s', (kind) => {
   const config = configFor(kind);
   const storage: FileStorage = createStorage(config);
+  afterAll(() => storage.close());
 
   it('when a file is put, then get streams back exactly its bytes with its size', async () => {
     const key = `jobs/${unique()}/photo-large.webp`;
@@ -101,6 +102,31 @@ describe('sending a stored photo', () => {
       expect(answer.status).toBe(200);
       expect(answer.headers.get('content-length')).toBe('5000');
       await expect(answer.arrayBuffer()).rejects.toThrow();
+    } finally {
+      server.close();
+    }
+  });
+});
+
+describe('receiving photos', () => {
+  it('when photos are uploaded, then each is streamed into a temporary file holding its bytes, and the files are gone once the answer has gone', async () => {
+    const photo = Buffer.from(Array.from({ length: 70_000 }, (_, i) => (i * 7) % 256));
+    let seen: Array<{ path: string; bytes: number }> = [];
+    const app = express();
+    app.post('/photos', receivePhotos(4), (req, res) => {
+      seen = uploadedFiles(req).map((file) => ({ path: file.path, bytes: file.size }));
+      // Still there while the handler works on them.
+      res.json({ present: seen.every((file) => existsSync(file.path)), inMemory: uploadedFiles(req).some((file) => file.buffer) });
+    });
+    const server = app.listen(0, '127.0.0.1');
+    await new Promise((resolve) => server.once('listening', resolve));
+    try {
+      const form = new FormData();
+      for (const name of ['a.jpg', 'b.jpg']) form.append('photos', new Blob([photo]), name);
+      const answer = await fetch(`http://127.0.0.1:${(server.address() as AddressInfo).port}/photos`, { method: 'POST', body: form });
+      expect(await answer.json()).toEqual({ present: true, inMemory: false });
+      expect(seen.map((file) => file.bytes)).toEqual([photo.length, photo.length]);
+      await expect.poll(() => seen.filter((file) => existsSync(file.path))).toEqual([]);
     } finally {
       server.close();
     }

@@ -13,10 +13,8 @@ export async function startMoneyApp(overrides: Record<string, string> = {}) {
   const pool = createPool(database.url, 4);
   const db: Database = createDb(pool);
   const pay = await startTestStandIn();
-  const server: RunningServer = await startServer(
-    testConfig(database.url, { PORT: '0', STRIPE_API_URL: pay.standIn.url, STRIPE_WEBHOOK_SECRET: TEST_WEBHOOK_SECRET, PLATFORM_FEE_BPS: '800', ...overrides }),
-    { migrate: false },
-  );
+  const config = testConfig(database.url, { PORT: '0', STRIPE_API_URL: pay.standIn.url, STRIPE_WEBHOOK_SECRET: TEST_WEBHOOK_SECRET, PLATFORM_FEE_BPS: '800', ...overrides });
+  const server: RunningServer = await startServer(config, { migrate: false });
   await sendWebhooksTo(pay.standIn, server.url);
   const url = new URL(pay.standIn.url);
   const stripe = new Stripe('sk_test_tenthmark_local', { host: url.hostname, port: Number(url.port), protocol: 'http', telemetry: false, maxNetworkRetries: 0 });
@@ -49,6 +47,7 @@ export async function startMoneyApp(overrides: Record<string, string> = {}) {
 
   return {
     db,
+    config,
     databaseUrl: database.url,
     server,
     stopServer,

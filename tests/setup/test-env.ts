@@ -97,6 +97,7 @@ export async function setupTestApp(overrides: Record<string, string> = {}): Prom
     newApp,
     close: async () => {
       for (const app of apps) app.sessionStore.close();
+      await Promise.all(apps.map((app) => app.storage.close()));
       await Promise.all(pools.map((pool) => pool.end().catch(() => {})));
       await database.drop();
       rmSync(config.uploadsDir, { recursive: true, force: true });

@@ -4,6 +4,8 @@ import type { Bid, BidLine } from '../../../shared/schemas/bids';
 import type { Database } from '../../db/client';
 import { changeOrders, moneyMoves, payments, type User } from '../../db/schema';
 import { conflict, notFound } from '../../lib/errors';
+import { storedDocument } from '../../lib/pdf/stored';
+import type { FileStorage } from '../../lib/storage';
 import { bidWithHistory } from '../bids/bids.service';
 import { mustSeeWork, partiesOf, type JobParties } from '../jobs/job-access';
 import { invoiceNumberOf, receiptNumberOf } from '../payments/document-numbers';
@@ -13,6 +15,8 @@ import { invoicePdf, quotePdf, receiptPdf, type DocumentParties } from './docume
 export interface DocumentDeps {
   db: Database;
   appUrl: string;
+  /** Where printed receipts and invoices are kept (server/lib/pdf/stored.ts). */
+  storage: FileStorage;
 }
 
 /** The bid's lines and shop, read as `user` (who has already been let see the job's work or the bid). */
@@ -54,7 +58,7 @@ export async function receiptFor(deps: DocumentDeps, user: User, paymentId: stri
   if (!bidId) throw conflict('This job has no accepted bid.', 'job_not_awarded');
   const bid = await bidOf(deps, user, bidId);
   const number = await receiptNumberOf(deps.db, payment.id);
-  const pdf = await receiptPdf({
+  const data = {
     ...partiesFor(parties, bid),
     number,
     paidAt: payment.paidAt,
@@ -63,7 +67,8 @@ export async function receiptFor(deps: DocumentDeps, user: User, paymentId: stri
     totalCents: payment.amountCents,
     currency: payment.currency,
     heldCents: (await jobBalance(deps.db, payment.jobId)).held,
-  });
+  };
+  const pdf = await storedDocument(deps.storage, 'receipts', payment.id, data, receiptPdf);
   return { number, pdf };
 }
 
@@ -97,7 +102,7 @@ export async function invoiceFor(deps: DocumentDeps, user: User, jobId: string):
         ? { feeBps, feeCents: releases.reduce((sum, m) => sum + m.feeCents, 0), netCents: releases.reduce((sum, m) => sum + m.amountCents, 0) }
         : { feeBps, ...netOf(totalPaidCents - refundedCents, feeBps) };
   const { number, issuedAt } = await invoiceNumberOf(deps.db, jobId);
-  const pdf = await invoicePdf({
+  const data = {
     ...partiesFor(parties, bid),
     number,
     issuedAt,
@@ -107,11 +112,18 @@ export async function invoiceFor(deps: DocumentDeps, user: User, jobId: string):
     refundedCents,
     currency: paid[0]?.currency ?? 'usd',
     shopCopy,
-  });
+  };
+  // The builder's copy and the shop's (with the fee) differ in their data, so each is kept under its own key.
+  const pdf = await storedDocument(deps.storage, 'invoices', jobId, data, invoicePdf);
   return { number, pdf };
 }
 
-/** A bid as the shop's quote, for the bid's shop, the job's builder and admins (404 to anyone else, as the bid itself). */
+/**
+ * A bid as the shop's quote, for the bid's shop, the job's builder and admins
+ * (404 to anyone else, as the bid itself). Printed on each request, not
+ * stored: it follows a bid still open to change (its status, its validity),
+ * where receipts, invoices and certificates record what is settled.
+ */
 export async function quoteFor(deps: DocumentDeps, user: User, bidId: string): Promise<Buffer> {
   const bid = await bidOf(deps, user, bidId);
   const parties = await partiesOf(deps.db, bid.jobId);

@@ -9,6 +9,7 @@ import {
   inspectionViewSchema,
   rejectInspectionSchema,
 } from '../../../shared/schemas/inspection';
+import { sendDownload } from '../../lib/http/download';
 import { routesFor } from '../../lib/http/routes';
 import { acceptInspection, certificateFor, inspectionView, rejectInspection, saveDraft, submitInspection, type InspectionDeps } from './inspections.service';
 
@@ -74,10 +75,7 @@ export const inspectionsRoutes = [
     params: jobParamsSchema.extend({ version: z.coerce.number().int().min(1).max(1000) }),
     reply: { file: 'application/pdf', description: 'The certificate' },
     handler: async ({ deps, user, params: { jobId, version }, res }) => {
-      const pdf = await certificateFor(deps.db, user, jobId, version);
-      res
-        .set({ 'Content-Type': 'application/pdf', 'Content-Disposition': `attachment; filename="inspection-record-v${version}.pdf"`, 'Cache-Control': 'private, no-store' })
-        .send(pdf);
+      sendDownload(res, { type: 'application/pdf', filename: `inspection-record-v${version}.pdf`, body: await certificateFor(deps, user, jobId, version) });
     },
   }),
 ];

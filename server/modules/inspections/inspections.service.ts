@@ -11,7 +11,9 @@ import { inspectionDrafts, inspectionRecords, jobs, milestones, users, type User
 import { AppError, conflict } from '../../lib/errors';
 import { enqueueMail } from '../../lib/mail/outbox';
 import { inspectionDecidedMail, inspectionSubmittedMail, reviewReminderMail, reviewWindowHeldMail } from '../../lib/mail/templates';
+import { storedDocument } from '../../lib/pdf/stored';
 import { scheduleTask } from '../../lib/scheduler';
+import type { FileStorage } from '../../lib/storage';
 import { releaseJob, type PaymentDeps } from '../payments/payments.service';
 import { certificatePdf } from './certificate';
 import { attachMilestonePhotos } from '../milestones/milestone-photos';
@@ -20,6 +22,8 @@ import { mustBeJobsBuilder, mustBeWorkingShop, mustSeeWork, partiesOf, sideOf } 
 
 export interface InspectionDeps extends PaymentDeps {
   reviewWindowMs: number;
+  /** Where printed certificates are kept (server/lib/pdf/stored.ts). */
+  storage: FileStorage;
 }
 
 type RecordRow = typeof inspectionRecords.$inferSelect;
@@ -339,7 +343,8 @@ async function placeOfShop(db: Executor, awardedBidId: string | null): Promise<s
 }
 
 /** The PDF certificate of one version, for the builder, the shop doing the work and admins. */
-export async function certificateFor(db: Database, user: User, jobId: string, version: number): Promise<Buffer> {
+export async function certificateFor(deps: { db: Database; storage: FileStorage }, user: User, jobId: string, version: number): Promise<Buffer> {
+  const { db } = deps;
   const parties = await partiesOf(db, jobId);
   mustSeeWork(parties, user);
   const [row] = await db.select().from(inspectionRecords).where(and(eq(inspectionRecords.jobId, jobId), eq(inspectionRecords.version, version)));
@@ -351,7 +356,7 @@ export async function certificateFor(db: Database, user: User, jobId: string, ve
     .orderBy(asc(inspectionRecords.version))
     .limit(1);
   const shopPlace = await placeOfShop(db, parties.job.awardedBidId);
-  return certificatePdf({
+  const data = {
     jobTitle: parties.job.title,
     jobId,
     engineFamily: parties.job.engineFamily,
@@ -365,5 +370,7 @@ export async function certificateFor(db: Database, user: User, jobId: string, ve
     spec: parties.job.spec as JobInput,
     input: row.input as InspectionInput,
     results: row.results as InspectionResults,
-  });
+  };
+  // A version's status and "replaced by" change its certificate, and so its key.
+  return storedDocument(deps.storage, 'certificates', `${jobId}-v${version}`, data, certificatePdf);
 }

@@ -1,11 +1,10 @@
 import { and, arrayContains, eq, inArray, sql } from 'drizzle-orm';
-import { randomUUID } from 'node:crypto';
 import { NEEDED_BY_PAST_MESSAGE, neededByHasPassed, type BoardPage, type BoardQuery, type JobDetail, type JobInput } from '../../../shared/schemas/jobs';
 import type { Database, Executor } from '../../db/client';
 import { bids, jobPhotos, jobs, shops, users, type User } from '../../db/schema';
 import { assertEmailConfirmed } from '../../lib/auth/guards';
 import { AppError, badRequest, conflict, notFound } from '../../lib/errors';
-import { processPhoto, type ProcessedPhoto } from '../../lib/images';
+import { withStoredPhotos, type PhotoSource } from '../../lib/images';
 import { enqueueMail } from '../../lib/mail/outbox';
 import { jobCancelledMail, jobChangedMail, matchingJobMail } from '../../lib/mail/templates';
 import type { FileStorage, StoredFile } from '../../lib/storage';
@@ -208,43 +207,27 @@ export async function assertMayAddPhotos(db: Executor, user: User, jobId: string
 }
 
 /**
- * Adds photos to a job. Every file is checked and re-encoded before anything
- * is stored; the count limit is checked under the job's row lock so two
- * uploads at once cannot pass 12 together.
+ * Adds photos to a job. Every file is checked, re-encoded and stored before
+ * the job is touched (withStoredPhotos removes the files again if the save
+ * fails); the count limit is checked under the job's row lock so two uploads
+ * at once cannot pass 12 together.
  */
-export async function addPhotos(deps: JobDeps, user: User, jobId: string, files: Array<{ buffer: Buffer }>) {
-  if (files.length === 0) throw new AppError('invalid_input', 'Choose at least one photo.', 400, { photos: 'Choose at least one photo.' });
-  const processed: ProcessedPhoto[] = [];
-  for (const file of files) processed.push(await processPhoto(file.buffer));
-
-  const stored: string[] = [];
-  try {
-    const photos = await deps.db.transaction(async (tx) => {
+export async function addPhotos(deps: JobDeps, user: User, jobId: string, files: PhotoSource[]) {
+  const photos = await withStoredPhotos(deps.storage, files, (id, size) => photoKey(jobId, id, size), (stored) =>
+    deps.db.transaction(async (tx) => {
       const job = await ownJobForUpdate(tx, jobId, user);
       if (!['draft', 'open'].includes(job.status)) throw conflict('Photos can be added only while the job is a draft or open.', 'job_not_editable');
       const [{ count }] = await tx.select({ count: sql<number>`count(*)::int` }).from(jobPhotos).where(eq(jobPhotos.jobId, job.id));
-      if (count + processed.length > MAX_PHOTOS_PER_JOB) {
+      if (count + stored.length > MAX_PHOTOS_PER_JOB) {
         throw conflict(`A job can have at most ${MAX_PHOTOS_PER_JOB} photos; this one has ${count}.`, 'too_many_photos');
       }
-      const rows = [];
-      for (const [index, photo] of processed.entries()) {
-        const id = randomUUID();
-        for (const size of ['large', 'thumb'] as const) {
-          const key = photoKey(job.id, id, size);
-          await deps.storage.put(key, size === 'large' ? photo.large : photo.thumb);
-          stored.push(key);
-        }
-        rows.push({ id, jobId: job.id, uploadedBy: user.id, storageKey: `jobs/${job.id}/${id}`, width: photo.width, height: photo.height, bytes: photo.large.length, position: count + index });
-      }
+      const rows = stored.map((photo, index) => ({ ...photo, jobId: job.id, uploadedBy: user.id, storageKey: `jobs/${job.id}/${photo.id}`, position: count + index }));
       const inserted = await tx.insert(jobPhotos).values(rows).returning();
       return inserted.map((p) => ({ id: p.id, width: p.width, height: p.height, thumbUrl: photoUrl(job.id, p.id, 'thumb'), largeUrl: photoUrl(job.id, p.id, 'large') }));
-    });
-    deps.hub?.jobChanged(jobId, 'photos_changed');
-    return photos;
-  } catch (error) {
-    await Promise.all(stored.map((key) => deps.storage.remove(key).catch(() => {})));
-    throw error;
-  }
+    }),
+  );
+  deps.hub?.jobChanged(jobId, 'photos_changed');
+  return photos;
 }
 
 export async function readPhoto(deps: JobDeps, user: User, jobId: string, photoId: string, size: 'large' | 'thumb'): Promise<StoredFile> {

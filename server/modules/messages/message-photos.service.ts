@@ -3,7 +3,7 @@ import type { MessagePhoto } from '../../../shared/schemas/messages';
 import type { Database } from '../../db/client';
 import { messagePhotos, type User } from '../../db/schema';
 import { conflict, forbidden, notFound } from '../../lib/errors';
-import { withStoredPhotos } from '../../lib/images';
+import { withStoredPhotos, type PhotoSource } from '../../lib/images';
 import type { FileStorage, StoredFile } from '../../lib/storage';
 import { messagePhotoKey, toMessagePhoto, type PhotoSize } from './message-photos.repository';
 import { threadFor } from './messages.service';
@@ -26,7 +26,7 @@ export async function assertMaySendPhotos(db: Database, user: User, threadId: st
  * limit). Only a person who may write to the conversation can upload; the
  * photos wait, visible to their uploader alone, until a message carries them.
  */
-export async function addMessagePhotos(deps: MessagePhotoDeps, user: User, threadId: string, files: Array<{ buffer: Buffer }>): Promise<MessagePhoto[]> {
+export async function addMessagePhotos(deps: MessagePhotoDeps, user: User, threadId: string, files: PhotoSource[]): Promise<MessagePhoto[]> {
   await assertMaySendPhotos(deps.db, user, threadId);
   return withStoredPhotos(deps.storage, files, (id, size) => messagePhotoKey(threadId, id, size), async (photos) => {
     const inserted = await deps.db

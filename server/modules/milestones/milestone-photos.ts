@@ -3,7 +3,7 @@ import type { MilestonePhoto } from '../../../shared/schemas/milestones';
 import type { Database, Executor } from '../../db/client';
 import { milestonePhotos, type User } from '../../db/schema';
 import { AppError, notFound } from '../../lib/errors';
-import { withStoredPhotos } from '../../lib/images';
+import { withStoredPhotos, type PhotoSource } from '../../lib/images';
 import type { FileStorage, StoredFile } from '../../lib/storage';
 import { mustSeeWork, mustBeWorkingShop, partiesOf } from '../jobs/job-access';
 
@@ -38,7 +38,7 @@ export async function assertMayUploadMilestonePhotos(db: Database, user: User, j
  * (type sniffed from the bytes, re-encoded to WebP, metadata dropped, pixel
  * limit). They wait, visible to the uploader alone, until a milestone carries them.
  */
-export async function addMilestonePhotos(deps: MilestonePhotoDeps, user: User, jobId: string, files: Array<{ buffer: Buffer }>): Promise<MilestonePhoto[]> {
+export async function addMilestonePhotos(deps: MilestonePhotoDeps, user: User, jobId: string, files: PhotoSource[]): Promise<MilestonePhoto[]> {
   await assertMayUploadMilestonePhotos(deps.db, user, jobId);
   return withStoredPhotos(deps.storage, files, (id, size) => milestonePhotoKey(jobId, id, size), async (photos) => {
     const inserted = await deps.db
