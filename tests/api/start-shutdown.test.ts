@@ -118,6 +118,29 @@ async function waitForHealth(run: Run, port: number, timeoutMs = 90_000) {
   throw new Error(`npm start did not answer /api/health within ${timeoutMs} ms:\n${run.output()}`);
 }
 
+/**
+ * Starts `npm <script>` and waits for its health answer. The ports were free when chosen, but tests
+ * running beside this one open ports too (instances on port 0 among them): when one was taken in
+ * between (EADDRINUSE), the run is tried once more on newly chosen ports.
+ */
+async function startAnswering(setup: Setup, script?: string[]): Promise<Run> {
+  const run = startApp(setup, script);
+  try {
+    await waitForHealth(run, setup.ports.PORT);
+    return run;
+  } catch (error) {
+    if (!run.output().includes('EADDRINUSE')) throw error;
+    await waitForGroupGone(run);
+    for (const key of Object.keys(setup.ports) as Array<keyof Setup['ports']>) {
+      setup.ports[key] = await freePort();
+      setup.env[key] = String(setup.ports[key]);
+    }
+    const again = startApp(setup, script);
+    await waitForHealth(again, setup.ports.PORT);
+    return again;
+  }
+}
+
 /** Every process of the group gone (npm, sh, node and anything they spawned into it). */
 async function waitForGroupGone(run: Run, timeoutMs = 30_000) {
   await Promise.race([run.exited, sleep(timeoutMs)]);
@@ -213,8 +236,7 @@ describe('npm start stops what it started', () => {
   // About 15 s each on an idle machine; start-up alone can take much longer when the cores are busy.
   it('stops PostgreSQL, maildev, the stand-ins and the app when a second signal arrives during shutdown', { timeout: 150_000 }, async () => {
     const setup = await makeSetup();
-    const run = startApp(setup);
-    await waitForHealth(run, setup.ports.PORT);
+    const run = await startAnswering(setup);
     const closeTraffic = await makeTraffic(setup.ports.PORT);
 
     // Ctrl-C reaches the whole group at once; then a SIGTERM while it is stopping, and Ctrl-C
@@ -246,8 +268,7 @@ describe('npm start stops what it started', () => {
     expect(earlier.startedHere).toBe(true);
     expect(existsSync(join(setup.pgDataDir, 'postmaster.pid'))).toBe(true);
 
-    const run = startApp(setup);
-    await waitForHealth(run, setup.ports.PORT);
+    const run = await startAnswering(setup);
     const health = await fetch(`http://127.0.0.1:${setup.ports.PORT}/api/health`);
     expect(health.status).toBe(200);
 
@@ -259,8 +280,7 @@ describe('npm start stops what it started', () => {
 
   it('npm run start:cluster: stops the instances, the proxy, the stand-ins and PostgreSQL on Ctrl-C', { timeout: 150_000 }, async () => {
     const setup = await makeSetup();
-    const run = startApp(setup, ['run', 'start:cluster', '--', '--instances', '2']);
-    await waitForHealth(run, setup.ports.PORT);
+    const run = await startAnswering(setup, ['run', 'start:cluster', '--', '--instances', '2']);
     // The same traffic through the proxy: pages, a sign-in, a socket.io client over a websocket, a half-sent request.
     const closeTraffic = await makeTraffic(setup.ports.PORT);
     expect(run.output()).toContain('as 2 instances behind a proxy');

@@ -184,8 +184,11 @@ describe('the journey across three instances behind the proxy', () => {
     const servedByKilled = cluster.proxy.served.get(killed.id);
 
     // The reminder falls due (a day before the window ends): both instances look for due tasks at once; one runs it.
-    const reminded = await Promise.all(left.map((instance) => instance.runDue(new Date(reviewDueAt.getTime() - 60 * 60_000))));
-    expect(reminded.reduce((sum, ran) => sum + ran, 0)).toBe(1);
+    // (Other tasks fall due too, such as the hourly photo sweep: the reminder's own row says how often it ran.)
+    const reminderKey = `review-reminder-${versions[0].id}`;
+    await Promise.all(left.map((instance) => instance.runDue(new Date(reviewDueAt.getTime() - 60 * 60_000))));
+    const [reminder] = await db.select().from(scheduledTasks).where(eq(scheduledTasks.key, reminderKey));
+    expect(reminder).toMatchObject({ attempts: 1, lastError: null, doneAt: expect.any(Date) });
 
     // The first payout attempts fail at the provider (three: the SDK tries twice more), so the move is left to the money
     // workers of both instances, which may also race the acceptance's own attempt: the idempotency key and the claim of a
@@ -198,9 +201,8 @@ describe('the journey across three instances behind the proxy', () => {
     await pay.standIn.control.failNextRequests(0);
 
     // The window ends: the task runs once across the instances (it finds the record accepted and does nothing more).
-    const ended = await Promise.all(left.map((instance) => instance.runDue(new Date(reviewDueAt.getTime() + 60_000))));
-    expect(ended.reduce((sum, ran) => sum + ran, 0)).toBe(1);
-    const tasks = await db.select().from(scheduledTasks).where(inArray(scheduledTasks.key, [`review-reminder-${versions[0].id}`, `review-window-${versions[0].id}`]));
+    await Promise.all(left.map((instance) => instance.runDue(new Date(reviewDueAt.getTime() + 60_000))));
+    const tasks = await db.select().from(scheduledTasks).where(inArray(scheduledTasks.key, [reminderKey, `review-window-${versions[0].id}`]));
     expect(tasks).toHaveLength(2);
     for (const task of tasks) expect(task).toMatchObject({ attempts: 1, lastError: null, doneAt: expect.any(Date) });
 
