@@ -3,6 +3,7 @@
  * migrated `bench` database in it, and the app's configuration for a run
  * (production mode, no logging, the limits a bench must raise).
  */
+import type autocannon from 'autocannon';
 import { sql } from 'drizzle-orm';
 import { runMigrations, type Database } from '../../server/db/client';
 import { hashPassword } from '../../server/lib/auth/passwords';
@@ -85,4 +86,28 @@ export async function signInAsShop(base: string): Promise<{ cookie: string; toke
   const cookie = login.headers.get('set-cookie')!.split(';')[0];
   const { csrfToken: token } = (await login.json()) as { csrfToken: string };
   return { cookie, token };
+}
+
+/**
+ * autocannon's options for one case, signed in by `cookie`: a GET of `url`, or with `post` a message
+ * posted to it, each with a client id of its own, as each browser message has.
+ */
+export function loadOptions(c: { url: string; connections: number; seconds: number; cookie: string; token: string; post?: boolean }): autocannon.Options {
+  let sent = 0;
+  return {
+    url: c.url,
+    connections: c.connections,
+    duration: c.seconds,
+    headers: { cookie: c.cookie, ...(c.post ? { 'x-csrf-token': c.token, 'content-type': 'application/json' } : {}) },
+    ...(c.post
+      ? {
+          method: 'POST' as const,
+          setupClient: (client: autocannon.Client) => {
+            const next = () => client.setBody(JSON.stringify({ clientId: `bench-${process.pid}-${(sent += 1)}`, body: 'Bench message: bores measured, record on its way.' }));
+            next();
+            client.on('response', next);
+          },
+        }
+      : {}),
+  };
 }

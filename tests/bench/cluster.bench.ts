@@ -19,7 +19,7 @@ import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { startCluster, type Cluster } from '../../server/dev/cluster';
 import { createDb, createPool } from '../../server/db/client';
-import { BENCH_JOBS, benchCluster, benchEnv, migratedBenchDatabase, seedMarketplace, signInAsShop } from './bench-app';
+import { BENCH_JOBS, benchCluster, benchEnv, loadOptions, migratedBenchDatabase, seedMarketplace, signInAsShop } from './bench-app';
 
 const DURATION_S = Number(process.env.BENCH_SECONDS ?? 10);
 const CONNECTIONS = Number(process.env.BENCH_CONNECTIONS ?? 50);
@@ -42,25 +42,8 @@ interface LoadAnswer {
 }
 
 async function load(ask: LoadAsk): Promise<LoadAnswer> {
-  let sent = 0;
   const started = process.cpuUsage();
-  const result = await autocannon({
-    url: ask.url,
-    connections: CONNECTIONS,
-    duration: DURATION_S,
-    headers: { cookie: ask.cookie, ...(ask.post ? { 'x-csrf-token': ask.token, 'content-type': 'application/json' } : {}) },
-    ...(ask.post
-      ? {
-          method: 'POST' as const,
-          // Each message has its own client id, as each browser message does.
-          setupClient: (client: autocannon.Client) => {
-            const next = () => client.setBody(JSON.stringify({ clientId: `bench-${process.pid}-${(sent += 1)}`, body: 'Bench message: bores measured, record on its way.' }));
-            next();
-            client.on('response', next);
-          },
-        }
-      : {}),
-  });
+  const result = await autocannon(loadOptions({ ...ask, connections: CONNECTIONS, seconds: DURATION_S }));
   const used = process.cpuUsage(started);
   return { cpu: (used.user + used.system) / 1e6, rate: result.requests.total / result.duration, p50: result.latency.p50, p99: result.latency.p99, errors: result.errors + result.non2xx };
 }

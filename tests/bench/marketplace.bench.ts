@@ -18,7 +18,7 @@ import { boardQuerySchema } from '../../shared/schemas/jobs';
 import { createDb, createPool } from '../../server/db/client';
 import { boardCountQuery, boardRowsQuery, type BoardOrigin } from '../../server/modules/jobs/jobs.repository';
 import { startServer } from '../../server/runtime';
-import { BENCH_JOBS as JOBS, benchCluster, benchConfig, migratedBenchDatabase, seedMarketplace, signInAsShop } from './bench-app';
+import { BENCH_JOBS as JOBS, benchCluster, benchConfig, loadOptions, migratedBenchDatabase, seedMarketplace, signInAsShop } from './bench-app';
 
 const DURATION_S = Number(process.env.BENCH_SECONDS ?? 10);
 const ROUNDS = Number(process.env.BENCH_ROUNDS ?? 2);
@@ -63,7 +63,6 @@ try {
 
   // Sign in as the shop once and reuse the session cookie.
   const { cookie, token } = await signInAsShop(base);
-  let sent = 0;
 
   // Page 150 of 50-row pages reached as a person paging on would: following each page's nextCursor.
   let cursor: string | null = null;
@@ -103,27 +102,8 @@ try {
     p99: number[];
     errors: number;
   }
-  const run = async (c: Case, connections: number, seconds: number): Promise<autocannon.Result> =>
-    autocannon({
-      url: c.url,
-      connections,
-      duration: seconds,
-      headers: {
-        cookie,
-        ...(c.post ? { 'x-csrf-token': token, 'content-type': 'application/json' } : {}),
-      },
-      ...(c.post
-        ? {
-            method: 'POST' as const,
-            // Each message has its own client id, as each browser message does.
-            setupClient: (client: autocannon.Client) => {
-              const next = () => client.setBody(JSON.stringify({ clientId: `bench-${process.pid}-${(sent += 1)}`, body: 'Bench message: bores measured, record on its way.' }));
-              next();
-              client.on('response', next);
-            },
-          }
-        : {}),
-    });
+  const run = (c: Case, connections: number, seconds: number): Promise<autocannon.Result> =>
+    autocannon(loadOptions({ url: c.url, connections, seconds, cookie, token, post: c.post }));
 
   /**
    * Runs the cases of a group in turns (ROUNDS rounds of DURATION_S / ROUNDS seconds each), so
