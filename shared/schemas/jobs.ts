@@ -300,6 +300,8 @@ export type JobSpec = z.infer<typeof jobSpecSchema>;
 export const jobDetailSchema = jobSummarySchema.extend({
   /** The builder, with their standing from their own history (shared/schemas/standing.ts), which shops weigh before bidding. */
   builder: z.object({ id: z.uuid(), displayName: z.string(), standing: builderStandingSchema }),
+  /** For a shop, `distance` is from its own place to the job's, in this unit (its country's); null with `distance` null (the builder, an admin, or either place unknown). */
+  distanceUnit: z.enum(distanceUnits).nullable(),
   spec: jobSpecSchema,
   photos: z.array(jobPhotoSchema),
   awardedBidId: z.uuid().nullable(),

@@ -6,7 +6,9 @@ import { boardQuerySchema } from '../../shared/schemas/jobs';
 import { jobs } from '../../server/db/schema';
 import { locatePostalCode } from '../../server/lib/postal-codes';
 import { boardRowsQuery, type BoardOrigin } from '../../server/modules/jobs/jobs.repository';
-import { bidInput, createJob, createShop, createUser } from '../factories';
+import { mailOutbox } from '../../server/db/schema';
+import { bidInput, createJob, createShop, createUser, jobInput, shopProfileInput } from '../factories';
+import { apiOf, jobInState } from '../setup/job-states';
 import { setupTestApp, signedIn, type TestContext } from '../setup/test-env';
 
 /**
@@ -257,5 +259,78 @@ describe('distance on bids', () => {
     expect(res.body.bids[0].distance).toMatchObject({ unit: 'mi' });
     expect(res.body.bids[0].distance.value).toBeGreaterThan(60);
     expect(res.body.bids[0].distance.value).toBeLessThan(75);
+  });
+});
+
+describe('distance on the job page', () => {
+  it('when a shop opens a job, then it sees the distance from its own place in its unit; the builder and a shop of unknown place see none', async () => {
+    const builder = await createUser(ctx.db);
+    const own = await signedIn(ctx.app, builder);
+    const job = await createJob(ctx.db, builder.id, { input: { postalCode: '43215', region: 'Ohio', city: 'Columbus' } });
+    const seen = await shopClient.get(`/api/jobs/${job.id}`);
+    expect(seen.status, JSON.stringify(seen.body)).toBe(200);
+    // Columbus is about 65 miles from Dayton (ZIP centroids; common knowledge of the two cities).
+    expect(seen.body.job.distanceUnit).toBe('mi');
+    expect(seen.body.job.distance).toBeGreaterThan(60);
+    expect(seen.body.job.distance).toBeLessThan(75);
+    // The same figure the board gives for the same pair of places.
+    const row = (await board(shopClient, 'sort=distance&pageSize=100')).jobs.find((j) => j.id === job.id)!;
+    expect(seen.body.job.distance).toBeCloseTo(row.distance!, 6);
+    expect((await own.get(`/api/jobs/${job.id}`)).body.job).toMatchObject({ distance: null, distanceUnit: null });
+    expect((await unplacedShopClient.get(`/api/jobs/${job.id}`)).body.job).toMatchObject({ distance: null, distanceUnit: null });
+  });
+});
+
+describe('the builder’s postal code stays theirs', () => {
+  it('when a shop is told of a job, bids, wins it and reads everything about it, then no answer and no e-mail carries the job’s postal code', async () => {
+    const code = '45459';
+    const builderUser = await createUser(ctx.db);
+    const shopUser = await createUser(ctx.db, { role: 'shop' });
+    const shopSession = await signedIn(ctx.app, shopUser);
+    const shop = apiOf(shopSession);
+    await shop('PUT', '/api/shop-profile', shopProfileInput({ postalCode: '45402', region: 'Ohio', city: 'Dayton', notifyMatchingJobs: true }));
+    const builder = apiOf(await signedIn(ctx.app, builderUser));
+    const input = { postalCode: code, region: 'Ohio', city: 'Centerville' };
+    const { job, bid } = await jobInState('bid', { builder, shop }, { input });
+    // The builder changes the job, so its bidder is e-mailed and told about it.
+    await builder('PUT', `/api/jobs/${job.id}`, jobInput({ ...input, title: 'Changed: V8 bore and hone' }));
+    const stored = await ctx.pool.query<{ postal_code: string }>('SELECT postal_code FROM jobs WHERE id = $1', [job.id]);
+    expect(stored.rows[0].postal_code).toBe(code);
+    const paths = [
+      `/api/jobs/${job.id}`,
+      '/api/jobs?pageSize=100',
+      '/api/jobs?sort=distance&pageSize=100',
+      `/api/jobs/${job.id}/bids`,
+      `/api/bids/${bid!.id}`,
+      '/api/bids/mine',
+      '/api/shop/queue',
+      '/api/notifications',
+      '/api/me/needs-you',
+      '/api/threads',
+      `/api/jobs/${job.id}/threads`,
+      `/api/jobs/${job.id}/milestones`,
+      `/api/jobs/${job.id}/money`,
+      `/api/jobs/${job.id}/shipping`,
+      '/api/me/export',
+      '/api/openapi.json',
+    ];
+    const leaks = async () => {
+      const found: string[] = [];
+      for (const path of paths) {
+        const res = await shopSession.get(path);
+        // The work's own pages open only once the shop has won it; a refusal must not carry the code either.
+        expect([200, 403], `${path}: ${JSON.stringify(res.body)}`).toContain(res.status);
+        if (JSON.stringify(res.body).includes(code)) found.push(path);
+      }
+      return found;
+    };
+    expect(await leaks()).toEqual([]);
+    // And the shop wins it (set in the database: the payment steps add nothing here), so its data export holds the job.
+    await ctx.pool.query("UPDATE bids SET status = 'accepted', decided_at = now() WHERE id = $1", [bid!.id]);
+    await ctx.pool.query("UPDATE jobs SET status = 'awarded', awarded_bid_id = $1 WHERE id = $2", [bid!.id, job.id]);
+    expect(await leaks()).toEqual([]);
+    const mails = await ctx.db.select().from(mailOutbox).where(sql`${mailOutbox.toAddress} = ${shopUser.email}`);
+    expect(mails.map((m) => m.template)).toEqual(expect.arrayContaining(['matching_job', 'job_changed']));
+    for (const mail of mails) expect(`${mail.subject}\n${mail.textBody}\n${mail.htmlBody}`, mail.template).not.toContain(code);
   });
 });
