@@ -311,9 +311,13 @@ export const jobDetailSchema = jobSummarySchema.extend({
 });
 export type JobDetail = z.infer<typeof jobDetailSchema>;
 
+/** A job on the board: its summary with its builder's standing (pays on time, answers records), which shops weigh before bidding. */
+export const boardJobSchema = jobSummarySchema.extend({ builderStanding: builderStandingSchema });
+export type BoardJob = z.infer<typeof boardJobSchema>;
+
 /** One page of the job board. */
 export const boardPageSchema = z.object({
-  jobs: z.array(jobSummarySchema),
+  jobs: z.array(boardJobSchema),
   /** How many jobs match, counted up to BOARD_COUNT_CAP; past it, the cap with `totalIsCapped` (shown as "1,000+"). */
   total: z.number().int(),
   totalIsCapped: z.boolean(),

@@ -7,6 +7,7 @@ import { decodeBoardCursor, encodeBoardCursor, type BoardCursor } from './board-
 import { METRES_PER, type DistanceUnit } from '../../../shared/distance';
 import { distanceIn, earthAt, earthOf, metresBetween, withinMetres } from '../../db/earth';
 import { placeOf, type Coordinates } from '../../lib/postal-codes';
+import { builderStandings } from '../standing/standing.repository';
 
 export type JobRow = typeof jobs.$inferSelect;
 
@@ -171,13 +172,15 @@ function afterCursor(cursor: BoardCursor, origin: BoardOrigin | null): SQL {
 
 const boardColumns = (origin: BoardOrigin | null) => ({
   ...summaryColumns,
+  // Whose standing the row carries (not itself sent).
+  builderId: jobs.builderId,
   // The exact timestamp for the cursor: a JavaScript Date would drop its microseconds.
   publishedKey: sql<string | null>`${jobs.publishedAt}::text`,
   // float8 comes back as the shortest text that reads back to the same number, so the cursor's metres compare equal.
   metres: metresFrom(origin),
   distance: origin?.at ? distanceIn(origin.unit, earthAt(origin.at), jobEarth) : sql<null>`NULL::float8`,
 });
-type BoardRow = { [K in keyof ReturnType<typeof boardColumns>]: unknown } & { firstPhotoId: string | null; publishedKey: string | null; metres: number | null };
+type BoardRow = { [K in keyof ReturnType<typeof boardColumns>]: unknown } & { firstPhotoId: string | null; publishedKey: string | null; metres: number | null; builderId: string };
 
 function cursorAfter(row: BoardRow, sort: BoardQuery['sort']): string {
   const id = row.id as string;
@@ -231,17 +234,21 @@ function boardStatementsFor(db: Executor, query: BoardQuery, origin: BoardOrigin
   return statements;
 }
 
-/** One page of the board and the total: two statements whatever the page size. */
+/**
+ * One page of the board and the total: two prepared statements whatever the page size, then the
+ * standing of the page's builders, worked out for all of them together (builderStandings).
+ */
 export async function boardPage(db: Executor, query: BoardQuery, origin: BoardOrigin | null = null): Promise<BoardPage> {
   const statements = boardStatementsFor(db, query, origin);
   const [rows, [{ total }]] = await Promise.all([statements.rows.execute(), statements.count.execute()]);
-  const page = rows.slice(0, query.pageSize);
+  const page = rows.slice(0, query.pageSize) as BoardRow[];
   const more = rows.length > query.pageSize;
+  const standings = await builderStandings(db, page.map((row) => row.builderId));
   return {
-    jobs: page.map(toSummary),
+    jobs: page.map((row) => ({ ...toSummary(row), builderStanding: standings.get(row.builderId)! })),
     total: Math.min(total, BOARD_COUNT_CAP),
     totalIsCapped: total > BOARD_COUNT_CAP,
-    nextCursor: more ? cursorAfter(page[page.length - 1] as BoardRow, query.sort) : null,
+    nextCursor: more ? cursorAfter(page[page.length - 1], query.sort) : null,
     page: query.page,
     pageSize: query.pageSize,
     sort: query.sort,
