@@ -1,5 +1,6 @@
 import { sql } from 'drizzle-orm';
 import geodesic from 'geographiclib-geodesic';
+import supertest from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { METRES_PER } from '../../shared/distance';
 import { boardQuerySchema } from '../../shared/schemas/jobs';
@@ -226,7 +227,7 @@ describe('the directory near a postal code', () => {
     const far = await createShop(ctx.db, { name: 'Lakefront Test Boring', postalCode: '60601', region: 'Illinois', city: 'Chicago' });
     const res = await builderClient.get('/api/shops?near=45402&within=10');
     expect(res.status).toBe(200);
-    expect(res.body.distanceFrom).toEqual({ unit: 'mi', postalCode: '45402' });
+    expect(res.body.distanceFrom).toEqual({ unit: 'mi', postalCode: '45402', from: 'near', found: true, region: null });
     expect(res.body.shops.map((s: { city: string; distance: number }) => [s.city, s.distance])).toEqual([['Dayton', 0]]);
     const wide = await builderClient.get('/api/shops?near=45402');
     const order = wide.body.shops.map((s: { id: string; distance: number | null }) => s.distance);
@@ -235,6 +236,44 @@ describe('the directory near a postal code', () => {
     // Chicago is roughly 250 miles from Dayton (common knowledge of the two cities; ZIP centroids).
     expect(order[1]).toBeGreaterThan(230);
     expect(order[1]).toBeLessThan(270);
+  });
+
+  it('when a builder opens the directory without a postal code, then the nearest shops to their latest job with a known place come first', async () => {
+    const builder = await createUser(ctx.db);
+    const client = await signedIn(ctx.app, builder);
+    // Signed in with no job yet: nothing to measure from, as before.
+    expect((await client.get('/api/shops')).body.distanceFrom).toBeNull();
+    await createJob(ctx.db, builder.id, { input: { postalCode: '60601', region: 'Illinois', city: 'Chicago' } });
+    // The latest job's postal code gives no place, so the one before it is used.
+    await createJob(ctx.db, builder.id, { status: 'draft', input: { postalCode: '00000', region: 'Ohio', city: 'Nowhere' } });
+    const near = await createShop(ctx.db, { name: 'Loop Test Honing', postalCode: '60601', region: 'Illinois', city: 'Chicago' });
+    const res = await client.get('/api/shops?pageSize=100');
+    expect(res.status, JSON.stringify(res.body)).toBe(200);
+    expect(res.body.distanceFrom).toEqual({ unit: 'mi', postalCode: '60601', from: 'latest-job', found: true, region: null });
+    const distances = res.body.shops.map((s: { distance: number | null }) => s.distance);
+    expect(distances[0]).toBe(0);
+    expect(res.body.shops.slice(0, 2).map((s: { id: string }) => s.id)).toContain(near.shop.id);
+    const known = distances.filter((d: number | null) => d !== null);
+    expect(known).toEqual([...known].sort((a: number, b: number) => a - b));
+    expect(distances.slice(known.length).every((d: number | null) => d === null)).toBe(true);
+    // A postal code typed in still wins.
+    expect((await client.get('/api/shops?near=45402')).body.distanceFrom).toMatchObject({ postalCode: '45402', from: 'near' });
+    // Nobody else gets the builder's place: signed out, the directory measures nothing.
+    expect((await supertest(ctx.app).get('/api/shops')).body.distanceFrom).toBeNull();
+  });
+
+  it('when none of the builder’s jobs has a known place, then the shops of their latest job’s region come first, and the answer says so', async () => {
+    const builder = await createUser(ctx.db);
+    const client = await signedIn(ctx.app, builder);
+    await createJob(ctx.db, builder.id, { input: { postalCode: '00000', region: 'Illinois', city: 'Nowhere' } });
+    const res = await client.get('/api/shops?pageSize=100');
+    expect(res.status, JSON.stringify(res.body)).toBe(200);
+    expect(res.body.distanceFrom).toEqual({ unit: 'mi', postalCode: '00000', from: 'latest-job', found: false, region: 'Illinois' });
+    const regions = res.body.shops.map((s: { region: string }) => s.region);
+    const inRegion = regions.filter((r: string) => r === 'Illinois').length;
+    expect(inRegion).toBeGreaterThan(0);
+    expect(regions.slice(0, inRegion).every((r: string) => r === 'Illinois')).toBe(true);
+    expect(res.body.shops.every((s: { distance: number | null }) => s.distance === null)).toBe(true);
   });
 
   it('when the directory query is wrong, then 400 names the field', async () => {

@@ -268,3 +268,22 @@ export async function jobsOfBuilder(db: Executor, builderId: string, status?: Jo
 export async function photosOf(db: Executor, jobId: string) {
   return db.select().from(jobPhotos).where(eq(jobPhotos.jobId, jobId)).orderBy(asc(jobPhotos.position), asc(jobPhotos.createdAt));
 }
+
+export type JobPlace = { postalCode: string | null; country: string; region: string; latitude: number | null; longitude: number | null };
+
+/**
+ * Where a builder is, as their own jobs say (drafts and closed jobs too, whatever their status): the latest job whose
+ * postal code gave a place, and the latest job of all (for its region when none did). Both null without a job.
+ */
+export async function builderPlace(db: Executor, builderId: string): Promise<{ placed: JobPlace | null; latest: JobPlace | null }> {
+  const columns = { postalCode: jobs.postalCode, country: jobs.country, region: jobs.region, latitude: jobs.latitude, longitude: jobs.longitude };
+  const latest = (placedOnly: boolean) =>
+    db
+      .select(columns)
+      .from(jobs)
+      .where(placedOnly ? and(eq(jobs.builderId, builderId), sql`${jobs.latitude} IS NOT NULL`) : eq(jobs.builderId, builderId))
+      .orderBy(desc(jobs.createdAt), desc(jobs.id))
+      .limit(1);
+  const [[placed], [last]] = await Promise.all([latest(true), latest(false)]);
+  return { placed: placed ?? null, latest: last ?? null };
+}
