@@ -240,10 +240,13 @@ function boardStatementsFor(db: Executor, query: BoardQuery, origin: BoardOrigin
  */
 export async function boardPage(db: Executor, query: BoardQuery, origin: BoardOrigin | null = null): Promise<BoardPage> {
   const statements = boardStatementsFor(db, query, origin);
-  const [rows, [{ total }]] = await Promise.all([statements.rows.execute(), statements.count.execute()]);
-  const page = rows.slice(0, query.pageSize) as BoardRow[];
-  const more = rows.length > query.pageSize;
-  const standings = await builderStandings(db, page.map((row) => row.builderId));
+  // The standings wait only for the rows (they need the page's builders), not for the count.
+  const pageOf = async () => {
+    const rows = await statements.rows.execute();
+    const page = rows.slice(0, query.pageSize) as BoardRow[];
+    return { page, more: rows.length > query.pageSize, standings: await builderStandings(db, page.map((row) => row.builderId)) };
+  };
+  const [{ page, more, standings }, [{ total }]] = await Promise.all([pageOf(), statements.count.execute()]);
   return {
     jobs: page.map((row) => ({ ...toSummary(row), builderStanding: standings.get(row.builderId)! })),
     total: Math.min(total, BOARD_COUNT_CAP),
