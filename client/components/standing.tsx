@@ -87,3 +87,17 @@ export function BuilderStandingList({ standing, className }: { standing: Builder
   if (nothingShown(standing)) return <NoRecordYet why="too few awards and records for a figure" className={className} />;
   return <StandingList lines={builderStandingLines(standing)} label="Builder’s record on Tenthmark" className={className} />;
 }
+
+/** A builder's standing in one short line for a board row: each figure there is, or that there is none yet. */
+export function BuilderStandingBrief({ standing, className }: { standing: BuilderStanding; className?: string }) {
+  const { paysOnTime, answersRecords } = standing;
+  const parts = [
+    paysOnTime && `paid ${paysOnTime.count} of ${paysOnTime.of} awards on time`,
+    answersRecords && `answered ${answersRecords.count} of ${answersRecords.of} records in time`,
+  ].filter(Boolean);
+  return (
+    <span className={cn('block text-sm text-ink-soft', className)} data-testid="builder-standing">
+      {parts.length ? `Builder ${parts.join(', ')}` : 'Builder: no record on Tenthmark yet'}
+    </span>
+  );
+}

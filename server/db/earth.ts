@@ -1,5 +1,6 @@
 import { sql, type AnyColumn, type SQL } from 'drizzle-orm';
 import { METRES_PER, type DistanceUnit } from '../../shared/distance';
+import type { Executor } from './client';
 import type { Coordinates } from '../lib/postal-codes';
 
 /**
@@ -30,3 +31,14 @@ export const distanceIn = (unit: DistanceUnit, a: SQL, b: SQL): SQL<number | nul
  */
 export const withinMetres = (origin: SQL, place: SQL, metres: number): SQL =>
   sql`(earth_box(${origin}, ${metres}::float8) @> ${place} AND earth_distance(${origin}, ${place}) <= ${metres}::float8)`;
+
+/** The coordinates of a row's place columns, or null when its postal code gave none. */
+export const placeAt = (row: { latitude: number | null; longitude: number | null }): Coordinates | null =>
+  row.latitude === null || row.longitude === null ? null : { latitude: row.latitude, longitude: row.longitude };
+
+/** The distance between two known places, measured by PostgreSQL as everywhere else; null when either is unknown. */
+export async function distanceBetween(db: Executor, unit: DistanceUnit, a: Coordinates | null, b: Coordinates | null): Promise<number | null> {
+  if (!a || !b) return null;
+  const { rows } = await db.execute<{ distance: number }>(sql`SELECT ${distanceIn(unit, earthAt(a), earthAt(b))} AS distance`);
+  return Number(rows[0].distance);
+}

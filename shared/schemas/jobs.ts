@@ -300,6 +300,8 @@ export type JobSpec = z.infer<typeof jobSpecSchema>;
 export const jobDetailSchema = jobSummarySchema.extend({
   /** The builder, with their standing from their own history (shared/schemas/standing.ts), which shops weigh before bidding. */
   builder: z.object({ id: z.uuid(), displayName: z.string(), standing: builderStandingSchema }),
+  /** For a shop, `distance` is from its own place to the job's, in this unit (its country's); null with `distance` null (the builder, an admin, or either place unknown). */
+  distanceUnit: z.enum(distanceUnits).nullable(),
   spec: jobSpecSchema,
   photos: z.array(jobPhotoSchema),
   awardedBidId: z.uuid().nullable(),
@@ -309,9 +311,13 @@ export const jobDetailSchema = jobSummarySchema.extend({
 });
 export type JobDetail = z.infer<typeof jobDetailSchema>;
 
+/** A job on the board: its summary with its builder's standing (pays on time, answers records), which shops weigh before bidding. */
+export const boardJobSchema = jobSummarySchema.extend({ builderStanding: builderStandingSchema });
+export type BoardJob = z.infer<typeof boardJobSchema>;
+
 /** One page of the job board. */
 export const boardPageSchema = z.object({
-  jobs: z.array(jobSummarySchema),
+  jobs: z.array(boardJobSchema),
   /** How many jobs match, counted up to BOARD_COUNT_CAP; past it, the cap with `totalIsCapped` (shown as "1,000+"). */
   total: z.number().int(),
   totalIsCapped: z.boolean(),

@@ -91,13 +91,29 @@ export const ownShopSchema = publicShopSchema.extend({
 });
 export type OwnShop = z.infer<typeof ownShopSchema>;
 
+/** Where the directory measures from: a postal code typed in, or the signed-in builder's latest job. */
+export const directoryOrigins = ['near', 'latest-job'] as const;
+
 export const shopDirectoryPageSchema = z.object({
   /** `distance` from `near` in `distanceFrom.unit`; null without `near` or when the shop's place is unknown. */
   shops: z.array(publicShopSchema.extend({ distance: z.number().nullable() })),
   total: z.number().int(),
   page: z.number().int(),
   pageSize: z.number().int(),
-  distanceFrom: z.object({ unit: z.enum(distanceUnits), postalCode: z.string() }).nullable(),
+  /**
+   * What the order and distances are measured from: the `near` postal code, or for a signed-in builder without one,
+   * their latest job with a known place (`from: 'latest-job'`). `found` false: none of their jobs' postal codes gave a
+   * place, so the shops of `region` (their latest job's) come first and no distance is given. Null: nothing to measure from.
+   */
+  distanceFrom: z
+    .object({
+      unit: z.enum(distanceUnits),
+      postalCode: z.string().nullable(),
+      from: z.enum(directoryOrigins),
+      found: z.boolean(),
+      region: z.string().nullable(),
+    })
+    .nullable(),
 });
 export type ShopDirectoryPage = z.infer<typeof shopDirectoryPageSchema>;
 

@@ -1,12 +1,15 @@
 import { sql } from 'drizzle-orm';
 import geodesic from 'geographiclib-geodesic';
+import supertest from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { METRES_PER } from '../../shared/distance';
 import { boardQuerySchema } from '../../shared/schemas/jobs';
 import { jobs } from '../../server/db/schema';
 import { locatePostalCode } from '../../server/lib/postal-codes';
 import { boardRowsQuery, type BoardOrigin } from '../../server/modules/jobs/jobs.repository';
-import { bidInput, createJob, createShop, createUser } from '../factories';
+import { mailOutbox } from '../../server/db/schema';
+import { bidInput, createJob, createShop, createUser, jobInput, shopProfileInput } from '../factories';
+import { apiOf, jobInState } from '../setup/job-states';
 import { setupTestApp, signedIn, type TestContext } from '../setup/test-env';
 
 /**
@@ -224,7 +227,7 @@ describe('the directory near a postal code', () => {
     const far = await createShop(ctx.db, { name: 'Lakefront Test Boring', postalCode: '60601', region: 'Illinois', city: 'Chicago' });
     const res = await builderClient.get('/api/shops?near=45402&within=10');
     expect(res.status).toBe(200);
-    expect(res.body.distanceFrom).toEqual({ unit: 'mi', postalCode: '45402' });
+    expect(res.body.distanceFrom).toEqual({ unit: 'mi', postalCode: '45402', from: 'near', found: true, region: null });
     expect(res.body.shops.map((s: { city: string; distance: number }) => [s.city, s.distance])).toEqual([['Dayton', 0]]);
     const wide = await builderClient.get('/api/shops?near=45402');
     const order = wide.body.shops.map((s: { id: string; distance: number | null }) => s.distance);
@@ -233,6 +236,44 @@ describe('the directory near a postal code', () => {
     // Chicago is roughly 250 miles from Dayton (common knowledge of the two cities; ZIP centroids).
     expect(order[1]).toBeGreaterThan(230);
     expect(order[1]).toBeLessThan(270);
+  });
+
+  it('when a builder opens the directory without a postal code, then the nearest shops to their latest job with a known place come first', async () => {
+    const builder = await createUser(ctx.db);
+    const client = await signedIn(ctx.app, builder);
+    // Signed in with no job yet: nothing to measure from, as before.
+    expect((await client.get('/api/shops')).body.distanceFrom).toBeNull();
+    await createJob(ctx.db, builder.id, { input: { postalCode: '60601', region: 'Illinois', city: 'Chicago' } });
+    // The latest job's postal code gives no place, so the one before it is used.
+    await createJob(ctx.db, builder.id, { status: 'draft', input: { postalCode: '00000', region: 'Ohio', city: 'Nowhere' } });
+    const near = await createShop(ctx.db, { name: 'Loop Test Honing', postalCode: '60601', region: 'Illinois', city: 'Chicago' });
+    const res = await client.get('/api/shops?pageSize=100');
+    expect(res.status, JSON.stringify(res.body)).toBe(200);
+    expect(res.body.distanceFrom).toEqual({ unit: 'mi', postalCode: '60601', from: 'latest-job', found: true, region: null });
+    const distances = res.body.shops.map((s: { distance: number | null }) => s.distance);
+    expect(distances[0]).toBe(0);
+    expect(res.body.shops.slice(0, 2).map((s: { id: string }) => s.id)).toContain(near.shop.id);
+    const known = distances.filter((d: number | null) => d !== null);
+    expect(known).toEqual([...known].sort((a: number, b: number) => a - b));
+    expect(distances.slice(known.length).every((d: number | null) => d === null)).toBe(true);
+    // A postal code typed in still wins.
+    expect((await client.get('/api/shops?near=45402')).body.distanceFrom).toMatchObject({ postalCode: '45402', from: 'near' });
+    // Nobody else gets the builder's place: signed out, the directory measures nothing.
+    expect((await supertest(ctx.app).get('/api/shops')).body.distanceFrom).toBeNull();
+  });
+
+  it('when none of the builder’s jobs has a known place, then the shops of their latest job’s region come first, and the answer says so', async () => {
+    const builder = await createUser(ctx.db);
+    const client = await signedIn(ctx.app, builder);
+    await createJob(ctx.db, builder.id, { input: { postalCode: '00000', region: 'Illinois', city: 'Nowhere' } });
+    const res = await client.get('/api/shops?pageSize=100');
+    expect(res.status, JSON.stringify(res.body)).toBe(200);
+    expect(res.body.distanceFrom).toEqual({ unit: 'mi', postalCode: '00000', from: 'latest-job', found: false, region: 'Illinois' });
+    const regions = res.body.shops.map((s: { region: string }) => s.region);
+    const inRegion = regions.filter((r: string) => r === 'Illinois').length;
+    expect(inRegion).toBeGreaterThan(0);
+    expect(regions.slice(0, inRegion).every((r: string) => r === 'Illinois')).toBe(true);
+    expect(res.body.shops.every((s: { distance: number | null }) => s.distance === null)).toBe(true);
   });
 
   it('when the directory query is wrong, then 400 names the field', async () => {
@@ -257,5 +298,78 @@ describe('distance on bids', () => {
     expect(res.body.bids[0].distance).toMatchObject({ unit: 'mi' });
     expect(res.body.bids[0].distance.value).toBeGreaterThan(60);
     expect(res.body.bids[0].distance.value).toBeLessThan(75);
+  });
+});
+
+describe('distance on the job page', () => {
+  it('when a shop opens a job, then it sees the distance from its own place in its unit; the builder and a shop of unknown place see none', async () => {
+    const builder = await createUser(ctx.db);
+    const own = await signedIn(ctx.app, builder);
+    const job = await createJob(ctx.db, builder.id, { input: { postalCode: '43215', region: 'Ohio', city: 'Columbus' } });
+    const seen = await shopClient.get(`/api/jobs/${job.id}`);
+    expect(seen.status, JSON.stringify(seen.body)).toBe(200);
+    // Columbus is about 65 miles from Dayton (ZIP centroids; common knowledge of the two cities).
+    expect(seen.body.job.distanceUnit).toBe('mi');
+    expect(seen.body.job.distance).toBeGreaterThan(60);
+    expect(seen.body.job.distance).toBeLessThan(75);
+    // The same figure the board gives for the same pair of places.
+    const row = (await board(shopClient, 'sort=distance&pageSize=100')).jobs.find((j) => j.id === job.id)!;
+    expect(seen.body.job.distance).toBeCloseTo(row.distance!, 6);
+    expect((await own.get(`/api/jobs/${job.id}`)).body.job).toMatchObject({ distance: null, distanceUnit: null });
+    expect((await unplacedShopClient.get(`/api/jobs/${job.id}`)).body.job).toMatchObject({ distance: null, distanceUnit: null });
+  });
+});
+
+describe('the builder’s postal code stays theirs', () => {
+  it('when a shop is told of a job, bids, wins it and reads everything about it, then no answer and no e-mail carries the job’s postal code', async () => {
+    const code = '45459';
+    const builderUser = await createUser(ctx.db);
+    const shopUser = await createUser(ctx.db, { role: 'shop' });
+    const shopSession = await signedIn(ctx.app, shopUser);
+    const shop = apiOf(shopSession);
+    await shop('PUT', '/api/shop-profile', shopProfileInput({ postalCode: '45402', region: 'Ohio', city: 'Dayton', notifyMatchingJobs: true }));
+    const builder = apiOf(await signedIn(ctx.app, builderUser));
+    const input = { postalCode: code, region: 'Ohio', city: 'Centerville' };
+    const { job, bid } = await jobInState('bid', { builder, shop }, { input });
+    // The builder changes the job, so its bidder is e-mailed and told about it.
+    await builder('PUT', `/api/jobs/${job.id}`, jobInput({ ...input, title: 'Changed: V8 bore and hone' }));
+    const stored = await ctx.pool.query<{ postal_code: string }>('SELECT postal_code FROM jobs WHERE id = $1', [job.id]);
+    expect(stored.rows[0].postal_code).toBe(code);
+    const paths = [
+      `/api/jobs/${job.id}`,
+      '/api/jobs?pageSize=100',
+      '/api/jobs?sort=distance&pageSize=100',
+      `/api/jobs/${job.id}/bids`,
+      `/api/bids/${bid!.id}`,
+      '/api/bids/mine',
+      '/api/shop/queue',
+      '/api/notifications',
+      '/api/me/needs-you',
+      '/api/threads',
+      `/api/jobs/${job.id}/threads`,
+      `/api/jobs/${job.id}/milestones`,
+      `/api/jobs/${job.id}/money`,
+      `/api/jobs/${job.id}/shipping`,
+      '/api/me/export',
+      '/api/openapi.json',
+    ];
+    const leaks = async () => {
+      const found: string[] = [];
+      for (const path of paths) {
+        const res = await shopSession.get(path);
+        // The work's own pages open only once the shop has won it; a refusal must not carry the code either.
+        expect([200, 403], `${path}: ${JSON.stringify(res.body)}`).toContain(res.status);
+        if (JSON.stringify(res.body).includes(code)) found.push(path);
+      }
+      return found;
+    };
+    expect(await leaks()).toEqual([]);
+    // And the shop wins it (set in the database: the payment steps add nothing here), so its data export holds the job.
+    await ctx.pool.query("UPDATE bids SET status = 'accepted', decided_at = now() WHERE id = $1", [bid!.id]);
+    await ctx.pool.query("UPDATE jobs SET status = 'awarded', awarded_bid_id = $1 WHERE id = $2", [bid!.id, job.id]);
+    expect(await leaks()).toEqual([]);
+    const mails = await ctx.db.select().from(mailOutbox).where(sql`${mailOutbox.toAddress} = ${shopUser.email}`);
+    expect(mails.map((m) => m.template)).toEqual(expect.arrayContaining(['matching_job', 'job_changed']));
+    for (const mail of mails) expect(`${mail.subject}\n${mail.textBody}\n${mail.htmlBody}`, mail.template).not.toContain(code);
   });
 });

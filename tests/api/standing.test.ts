@@ -325,6 +325,24 @@ describe('a standing is right the moment its event is answered', () => {
   });
 });
 
+describe('the builder’s standing on the board', () => {
+  it('when a shop reads the board, then each row carries its builder’s standing, and a builder with no history has every figure null', async () => {
+    const paying = await newPair();
+    const awardedAt = at('2026-09-01T09:00:00Z');
+    for (let i = 0; i < STANDING_MIN_COUNT; i += 1) await pastJob(paying.people, { awardedAt, paidAt: new Date(awardedAt.getTime() + DAY) });
+    const newcomer = await createUser(m.db);
+    const [theirs, fresh] = await Promise.all([createJob(m.db, paying.builder.id), createJob(m.db, newcomer.id)]);
+    const shop = await signedIn(m.server.app, paying.shopUser);
+    const res = await shop.get('/api/jobs?pageSize=100');
+    expect(res.status, JSON.stringify(res.body)).toBe(200);
+    const row = (id: string) => res.body.jobs.find((j: { id: string }) => j.id === id);
+    expect(row(theirs.id).builderStanding).toEqual({ paysOnTime: { count: STANDING_MIN_COUNT, of: STANDING_MIN_COUNT, share: 1 }, answersRecords: null });
+    expect(row(fresh.id).builderStanding).toEqual({ paysOnTime: null, answersRecords: null });
+    // The same figures as the job page gives.
+    expect(row(theirs.id).builderStanding).toEqual((await shop.get(`/api/jobs/${theirs.id}`)).body.job.builder.standing);
+  });
+});
+
 describe('how long a standing takes to work out', () => {
   it('when a page of twenty shops with history is read, then the standings take well under the answer’s budget', async () => {
     const ids: string[] = [];

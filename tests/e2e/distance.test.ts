@@ -50,4 +50,22 @@ describe('distances on the board and on bids', () => {
     for (const text of texts) expect(text).toMatch(/· \d[\d,.]* miles from the parts$/);
     await page.screenshot({ path: join(artifactsDir, 'bids-with-distance.png'), fullPage: true });
   });
+
+  it('when the demo shop opens a job, then the job page says how far it is from the shop', async () => {
+    const page = await suite.pageFor(shopEmail, '/board');
+    await page.getByRole('table').getByRole('link', { name: OPEN_JOB }).click();
+    await expect.poll(async () => page.getByText(/miles from your shop$/).first().textContent()).toMatch(/^\d[\d,.]* miles from your shop$/);
+  });
+
+  it('when the builder opens the shop directory, then the shops nearest their latest job come first, and another postal code can be typed', async () => {
+    const page = await suite.pageFor(builderEmail, '/shops');
+    await expect.poll(async () => page.getByTestId('directory-origin').textContent()).toMatch(/^Nearest to \d{5} \(your latest job\) first/);
+    const distances = (await page.getByTestId('shop-distance').allTextContents()).map((text) => Number(text.replace(/[^\d.]/g, '')));
+    expect(distances.length).toBeGreaterThan(0);
+    expect([...distances].sort((a, b) => a - b)).toEqual(distances);
+    await page.getByLabel('Near postal code').fill('45402');
+    await page.waitForURL(/near=45402/);
+    await expect.poll(async () => page.getByTestId('directory-origin').textContent()).toMatch(/^Nearest to 45402 first/);
+    await page.screenshot({ path: join(artifactsDir, 'directory-near-latest-job.png'), fullPage: true });
+  });
 });

@@ -1,6 +1,7 @@
 import { Link } from 'react-router-dom';
 import { findOperation, operations } from '@shared/catalogue';
-import type { BoardQuery, JobSummary } from '@shared/schemas/jobs';
+import type { BoardJob, BoardQuery, JobSummary } from '@shared/schemas/jobs';
+import { BuilderStandingBrief } from '@client/components/standing';
 import { Button } from '@client/components/ui/button';
 import { PageTitle } from '@client/components/ui/card';
 import { ClearFiltersButton, FilterForm } from '@client/components/ui/filter-form';
@@ -70,7 +71,7 @@ function SortHeader({ sort, current, onSort, className }: { sort: Sort; current:
   );
 }
 
-function JobRow({ job, unit }: { job: JobSummary; unit: DistanceUnit | undefined }) {
+function JobRow({ job, unit }: { job: BoardJob; unit: DistanceUnit | undefined }) {
   return (
     <tr className="border-b border-slate-100 align-top">
       <td className="py-3 pr-3">
@@ -80,6 +81,7 @@ function JobRow({ job, unit }: { job: JobSummary; unit: DistanceUnit | undefined
         <Link to={`/jobs/${job.id}`} className="font-bold text-slate-700 underline-offset-4 hover:underline">
           {job.title}
         </Link>
+        <BuilderStandingBrief standing={job.builderStanding} />
       </th>
       <td className="py-3 pr-3">{job.engineFamily}</td>
       <td className="py-3 pr-3 text-right tabular-nums">{job.cylinders}</td>
@@ -108,7 +110,7 @@ function Thumb({ job, className }: { job: JobSummary; className?: string }) {
 }
 
 /** The same facts as a table row, as a card for tablets and phones. */
-function JobCard({ job, unit }: { job: JobSummary; unit: DistanceUnit | undefined }) {
+function JobCard({ job, unit }: { job: BoardJob; unit: DistanceUnit | undefined }) {
   return (
     <article className="flex h-full gap-4 rounded-card bg-paper-raised p-4 shadow-card ring-1 ring-slate-100">
       <Thumb job={job} className="h-16 w-20 shrink-0" />
@@ -123,6 +125,7 @@ function JobCard({ job, unit }: { job: JobSummary; unit: DistanceUnit | undefine
           {job.blockMaterial && ` · ${materialWords[job.blockMaterial].toLowerCase()}`}
         </p>
         <p className="text-sm">{job.operations.map((code) => findOperation(code)?.name ?? code).join(', ')}</p>
+        <BuilderStandingBrief standing={job.builderStanding} />
         <dl className="grid grid-cols-[max-content_1fr] gap-x-3 gap-y-0.5 text-sm">
           <dt className="font-semibold text-ink-soft">Where</dt>
           <dd>

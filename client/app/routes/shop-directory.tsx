@@ -1,5 +1,6 @@
 import { operations } from '@shared/catalogue';
-import { formatDistance } from '@shared/distance';
+import { formatDistance, POSTAL_CODE_NOT_FOUND } from '@shared/distance';
+import type { ShopDirectoryPage } from '@shared/schemas/shops';
 import { Button } from '@client/components/ui/button';
 import { PageTitle } from '@client/components/ui/card';
 import { FilterForm } from '@client/components/ui/filter-form';
@@ -51,6 +52,19 @@ function useFilters(params: URLSearchParams): DirectoryFilters | undefined {
     page: page.success ? page.data : 1,
     pageSize: PAGE_SIZE,
   };
+}
+
+/** What the order is measured from, said beside the count: a postal code typed in, or the builder's latest job. */
+function MeasuredFrom({ from }: { from: ShopDirectoryPage['distanceFrom'] }) {
+  if (!from) return null;
+  const whose = from.from === 'latest-job' ? ' (your latest job)' : '';
+  return (
+    <span className="block text-sm font-normal text-ink-soft" data-testid="directory-origin">
+      {from.found
+        ? `Nearest to ${from.postalCode}${whose} first. Type another postal code to measure from there.`
+        : `${from.postalCode ? `${from.postalCode}${whose}: ${POSTAL_CODE_NOT_FOUND}` : `Your jobs give no postal code: distances fall back to region`}; shops in ${from.region} first. Type a postal code to measure from there.`}
+    </span>
+  );
 }
 
 export function ShopDirectoryRoute() {
@@ -118,6 +132,7 @@ export function ShopDirectoryRoute() {
             <p className="font-semibold" aria-live="polite">
               {shops.data.total === 1 ? '1 shop' : `${shops.data.total} shops`}
               {filtered ? (shops.data.total === 1 ? ' matches these filters' : ' match these filters') : ''}
+              <MeasuredFrom from={shops.data.distanceFrom} />
             </p>
             {filtered && (
               <Button variant="quiet" onClick={() => setParams(new URLSearchParams())}>
@@ -138,7 +153,7 @@ export function ShopDirectoryRoute() {
                 <li key={shop.id}>
                   <ShopCard
                     shop={shop}
-                    distance={shops.data.distanceFrom ? (shop.distance === null ? 'distance unknown' : `${formatDistance(shop.distance, shops.data.distanceFrom.unit)} away`) : undefined}
+                    distance={shops.data.distanceFrom?.found ? (shop.distance === null ? 'distance unknown' : `${formatDistance(shop.distance, shops.data.distanceFrom.unit)} away`) : undefined}
                   />
                 </li>
               ))}

@@ -86,6 +86,14 @@ export async function activeBidsOfShop(db: Executor, shopId: string) {
     .where(and(eq(bids.shopId, shopId), eq(bids.status, 'active')));
 }
 
+type JobRow = typeof jobs.$inferSelect;
+
+/** A job row without where its builder is (postal code, coordinates, the postal code in the specification); the town and region stay. */
+function withoutBuildersPlace({ postalCode: _postalCode, latitude: _latitude, longitude: _longitude, ...job }: JobRow): Omit<JobRow, 'postalCode' | 'latitude' | 'longitude'> {
+  const { postalCode: _specPostalCode, ...spec } = job.spec as Record<string, unknown>;
+  return { ...job, spec };
+}
+
 /** Everything stored about the jobs a person took part in, for their export. */
 export async function exportRows(db: Executor, user: User, shopId: string | undefined, jobIds: string[]) {
   const inJobs = (column: AnyPgColumn) => (jobIds.length > 0 ? inArray(column, jobIds) : sql`false`);
@@ -149,7 +157,8 @@ export async function exportRows(db: Executor, user: User, shopId: string | unde
         .orderBy(ledgerEntries.id),
     ]);
   return {
-    jobs: jobRows,
+    // The job's postal code and the coordinates looked up from it are the builder's own: a shop's export leaves them out, as the job page does.
+    jobs: user.role === 'builder' ? jobRows : jobRows.map(withoutBuildersPlace),
     bids: bidRows.map((r) => ({
       ...r.bid,
       shopName: r.shopName,

@@ -7,6 +7,7 @@ import { decodeBoardCursor, encodeBoardCursor, type BoardCursor } from './board-
 import { METRES_PER, type DistanceUnit } from '../../../shared/distance';
 import { distanceIn, earthAt, earthOf, metresBetween, withinMetres } from '../../db/earth';
 import { placeOf, type Coordinates } from '../../lib/postal-codes';
+import { builderStandings } from '../standing/standing.repository';
 
 export type JobRow = typeof jobs.$inferSelect;
 
@@ -171,13 +172,15 @@ function afterCursor(cursor: BoardCursor, origin: BoardOrigin | null): SQL {
 
 const boardColumns = (origin: BoardOrigin | null) => ({
   ...summaryColumns,
+  // Whose standing the row carries (not itself sent).
+  builderId: jobs.builderId,
   // The exact timestamp for the cursor: a JavaScript Date would drop its microseconds.
   publishedKey: sql<string | null>`${jobs.publishedAt}::text`,
   // float8 comes back as the shortest text that reads back to the same number, so the cursor's metres compare equal.
   metres: metresFrom(origin),
   distance: origin?.at ? distanceIn(origin.unit, earthAt(origin.at), jobEarth) : sql<null>`NULL::float8`,
 });
-type BoardRow = { [K in keyof ReturnType<typeof boardColumns>]: unknown } & { firstPhotoId: string | null; publishedKey: string | null; metres: number | null };
+type BoardRow = { [K in keyof ReturnType<typeof boardColumns>]: unknown } & { firstPhotoId: string | null; publishedKey: string | null; metres: number | null; builderId: string };
 
 function cursorAfter(row: BoardRow, sort: BoardQuery['sort']): string {
   const id = row.id as string;
@@ -231,17 +234,24 @@ function boardStatementsFor(db: Executor, query: BoardQuery, origin: BoardOrigin
   return statements;
 }
 
-/** One page of the board and the total: two statements whatever the page size. */
+/**
+ * One page of the board and the total: two prepared statements whatever the page size, then the
+ * standing of the page's builders, worked out for all of them together (builderStandings).
+ */
 export async function boardPage(db: Executor, query: BoardQuery, origin: BoardOrigin | null = null): Promise<BoardPage> {
   const statements = boardStatementsFor(db, query, origin);
-  const [rows, [{ total }]] = await Promise.all([statements.rows.execute(), statements.count.execute()]);
-  const page = rows.slice(0, query.pageSize);
-  const more = rows.length > query.pageSize;
+  // The standings wait only for the rows (they need the page's builders), not for the count.
+  const pageOf = async () => {
+    const rows = await statements.rows.execute();
+    const page = rows.slice(0, query.pageSize) as BoardRow[];
+    return { page, more: rows.length > query.pageSize, standings: await builderStandings(db, page.map((row) => row.builderId)) };
+  };
+  const [{ page, more, standings }, [{ total }]] = await Promise.all([pageOf(), statements.count.execute()]);
   return {
-    jobs: page.map(toSummary),
+    jobs: page.map((row) => ({ ...toSummary(row), builderStanding: standings.get(row.builderId)! })),
     total: Math.min(total, BOARD_COUNT_CAP),
     totalIsCapped: total > BOARD_COUNT_CAP,
-    nextCursor: more ? cursorAfter(page[page.length - 1] as BoardRow, query.sort) : null,
+    nextCursor: more ? cursorAfter(page[page.length - 1], query.sort) : null,
     page: query.page,
     pageSize: query.pageSize,
     sort: query.sort,
@@ -260,4 +270,23 @@ export async function jobsOfBuilder(db: Executor, builderId: string, status?: Jo
 
 export async function photosOf(db: Executor, jobId: string) {
   return db.select().from(jobPhotos).where(eq(jobPhotos.jobId, jobId)).orderBy(asc(jobPhotos.position), asc(jobPhotos.createdAt));
+}
+
+export type JobPlace = { postalCode: string | null; country: string; region: string; latitude: number | null; longitude: number | null };
+
+/**
+ * Where a builder is, as their own jobs say (drafts and closed jobs too, whatever their status): the latest job whose
+ * postal code gave a place, and the latest job of all (for its region when none did). Both null without a job.
+ */
+export async function builderPlace(db: Executor, builderId: string): Promise<{ placed: JobPlace | null; latest: JobPlace | null }> {
+  const columns = { postalCode: jobs.postalCode, country: jobs.country, region: jobs.region, latitude: jobs.latitude, longitude: jobs.longitude };
+  const latest = (placedOnly: boolean) =>
+    db
+      .select(columns)
+      .from(jobs)
+      .where(placedOnly ? and(eq(jobs.builderId, builderId), sql`${jobs.latitude} IS NOT NULL`) : eq(jobs.builderId, builderId))
+      .orderBy(desc(jobs.createdAt), desc(jobs.id))
+      .limit(1);
+  const [[placed], [last]] = await Promise.all([latest(true), latest(false)]);
+  return { placed: placed ?? null, latest: last ?? null };
 }

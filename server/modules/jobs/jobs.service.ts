@@ -14,7 +14,8 @@ import { closeOpenCheckouts, expireOpenCheckouts } from '../payments/open-checko
 import { findShopByUser } from '../shops/shops.repository';
 import { jobForViewer, mustOwnJob } from './job-access';
 import { boardPage, columnsFromInput, findJob, insertJob, photosOf, photoUrl, type BoardOrigin, type JobRow } from './jobs.repository';
-import { distanceUnitFor, POSTAL_CODE_NOT_FOUND } from '../../../shared/distance';
+import { distanceUnitFor, POSTAL_CODE_NOT_FOUND, type DistanceUnit } from '../../../shared/distance';
+import { distanceBetween, placeAt } from '../../db/earth';
 import { locateAnyPostalCode } from '../../lib/postal-codes';
 import { builderStanding } from '../standing/standing.repository';
 
@@ -54,15 +55,20 @@ export async function jobDetail(deps: JobDeps, job: JobRow, user: User): Promise
   ]);
   let canBid = false;
   let myBidId: string | null = null;
+  let distance: { value: number; unit: DistanceUnit } | null = null;
   if (user.role === 'shop') {
     const shop = await findShopByUser(deps.db, user.id);
     if (shop) {
-      const [mine] = await deps.db
-        .select({ id: bids.id })
-        .from(bids)
-        .where(and(eq(bids.jobId, job.id), eq(bids.shopId, shop.id), eq(bids.status, 'active')));
+      const [[mine], value] = await Promise.all([
+        deps.db
+          .select({ id: bids.id })
+          .from(bids)
+          .where(and(eq(bids.jobId, job.id), eq(bids.shopId, shop.id), eq(bids.status, 'active'))),
+        distanceBetween(deps.db, distanceUnitFor(shop.country), placeAt(shop), placeAt(job)),
+      ]);
       myBidId = mine?.id ?? null;
       canBid = job.status === 'open' && !mine;
+      distance = value === null ? null : { value, unit: distanceUnitFor(shop.country) };
     }
   }
   return {
@@ -82,7 +88,8 @@ export async function jobDetail(deps: JobDeps, job: JobRow, user: User): Promise
     publishedAt: job.publishedAt?.toISOString() ?? null,
     createdAt: job.createdAt.toISOString(),
     placeFound: job.latitude !== null,
-    distance: null,
+    distance: distance?.value ?? null,
+    distanceUnit: distance?.unit ?? null,
     updatedAt: job.updatedAt.toISOString(),
     thumbUrl: photos[0] ? photoUrl(job.id, photos[0].id, 'thumb') : null,
     builder: { id: builder.id, displayName: builder.displayName, standing },
@@ -263,7 +270,7 @@ export async function boardFor(deps: JobDeps, user: User, query: BoardQuery): Pr
     if (!at) throw badRequest(`That postal code was not found (${POSTAL_CODE_NOT_FOUND}).`, { near: 'Postal code not found.' });
     origin = { unit: query.unit ?? at.unit, postalCode: query.near, at, region: null };
   } else if (shop) {
-    const at = shop.latitude !== null && shop.longitude !== null ? { latitude: shop.latitude, longitude: shop.longitude } : null;
+    const at = placeAt(shop);
     origin = { unit: query.unit ?? distanceUnitFor(shop.country), postalCode: shop.postalCode, at, region: { country: shop.country, region: shop.region } };
   }
   if (!origin && (query.within !== undefined || query.sort === 'distance')) {

@@ -1,13 +1,12 @@
 import { and, arrayContains, asc, eq, ilike, inArray, or, sql, type SQL } from 'drizzle-orm';
-import type { PublicShop, ShopDirectoryQuery, ShopProfileInput } from '../../../shared/schemas/shops';
+import type { directoryOrigins, PublicShop, ShopDirectoryQuery, ShopProfileInput } from '../../../shared/schemas/shops';
 import type { ShopStanding } from '../../../shared/schemas/standing';
 import type { Executor } from '../../db/client';
 import { shopRates, shops, users } from '../../db/schema';
 import { shopRatings } from '../reviews/ratings';
-import { METRES_PER } from '../../../shared/distance';
+import { METRES_PER, type DistanceUnit } from '../../../shared/distance';
 import { distanceIn, earthAt, earthOf, withinMetres } from '../../db/earth';
-import { badRequest } from '../../lib/errors';
-import { locateAnyPostalCode, placeOf } from '../../lib/postal-codes';
+import { placeOf, type Coordinates } from '../../lib/postal-codes';
 import { shopStandings } from '../standing/standing.repository';
 
 export type ShopRow = typeof shops.$inferSelect;
@@ -99,7 +98,22 @@ export function toPublicShop(row: ShopRow, rateCard: Array<{ operation: string; 
 
 const escapeLike = (value: string) => value.replace(/[\\%_]/g, (c) => `\\${c}`);
 
-export async function searchShops(db: Executor, query: ShopDirectoryQuery) {
+/**
+ * Where the directory measures from (shops.service.ts directoryOrigin): a place to order by distance from, or, when
+ * its postal code gave none, a region whose shops come first. `from` says whose place it is.
+ */
+export type DirectoryOrigin = {
+  unit: DistanceUnit;
+  postalCode: string | null;
+  from: (typeof directoryOrigins)[number];
+  at: Coordinates | null;
+  region: { country: string; region: string } | null;
+};
+
+const inRegion = (region: { country: string; region: string }) =>
+  sql`(lower(${shops.country}) = lower(${region.country}) AND lower(${shops.region}) = lower(${region.region}))`;
+
+export async function searchShops(db: Executor, query: ShopDirectoryQuery, origin: DirectoryOrigin | null = null) {
   const filters: SQL[] = [shopIsListed];
   if (query.q) {
     const pattern = `%${escapeLike(query.q)}%`;
@@ -109,14 +123,14 @@ export async function searchShops(db: Executor, query: ShopDirectoryQuery) {
   if (query.country) filters.push(sql`lower(${shops.country}) = lower(${query.country})`);
   if (query.region) filters.push(sql`lower(${shops.region}) = lower(${query.region})`);
   if (query.takesShipped !== undefined) filters.push(eq(shops.takesShipped, query.takesShipped));
-  // Near a postal code: the nearest first (shops whose place is unknown last), within the radius when one is given.
-  const near = query.near === undefined ? null : await locateAnyPostalCode(query.near);
-  if (query.near !== undefined && !near) throw badRequest('That postal code was not found.', { near: 'Postal code not found.' });
-  const unit = query.unit ?? near?.unit ?? 'mi';
+  // From a place: the nearest first (shops whose place is unknown last), within the radius when one is given.
+  // From a region only (a postal code that gave no place): that region's shops first.
+  const at = origin?.at ?? null;
   const shopEarth = earthOf(shops.latitude, shops.longitude);
-  if (near && query.within !== undefined) filters.push(withinMetres(earthAt(near), shopEarth, query.within * METRES_PER[unit]));
-  const distance = near ? distanceIn(unit, earthAt(near), shopEarth) : sql<null>`NULL::float8`;
-  const order = near ? [sql`${distance} ASC NULLS LAST`, asc(shops.id)] : [sql`${shops.verifiedAt} IS NULL`, asc(shops.name), asc(shops.id)];
+  if (at && query.within !== undefined) filters.push(withinMetres(earthAt(at), shopEarth, query.within * METRES_PER[origin!.unit]));
+  const distance = at ? distanceIn(origin!.unit, earthAt(at), shopEarth) : sql<null>`NULL::float8`;
+  const byName = [sql`${shops.verifiedAt} IS NULL`, asc(shops.name), asc(shops.id)];
+  const order = at ? [sql`${distance} ASC NULLS LAST`, asc(shops.id)] : origin?.region ? [sql`${inRegion(origin.region)} DESC`, ...byName] : byName;
   const where = and(...filters);
   const [rows, [{ total }]] = await Promise.all([
     db
@@ -135,6 +149,6 @@ export async function searchShops(db: Executor, query: ShopDirectoryQuery) {
     total,
     page: query.page,
     pageSize: query.pageSize,
-    distanceFrom: near ? { unit, postalCode: query.near! } : null,
+    distanceFrom: origin && { unit: origin.unit, postalCode: origin.postalCode, from: origin.from, found: at !== null, region: at ? null : (origin.region?.region ?? null) },
   };
 }

@@ -6,7 +6,8 @@ import { routesFor } from '../../lib/http/routes';
 import { notFound } from '../../lib/errors';
 import { shopRatings } from '../reviews/ratings';
 import { shopStanding } from '../standing/standing.repository';
-import { findListedShopById, findShopByUser, ratesFor, searchShops, toPublicShop, upsertShop, type ShopRow } from './shops.repository';
+import { findListedShopById, findShopByUser, ratesFor, toPublicShop, upsertShop, type ShopRow } from './shops.repository';
+import { shopDirectory } from './shops.service';
 
 /** What a shop sees of itself: the public profile (with its standing), its e-mail choice and its payout account's state. */
 async function ownShop(db: Database, shop: ShopRow): Promise<OwnShop> {
@@ -26,7 +27,7 @@ export const shopsRoutes = [
     access: 'public',
     query: shopDirectoryQuerySchema,
     reply: { json: shopDirectoryPageSchema },
-    handler: ({ deps, query }) => searchShops(deps.db, query),
+    handler: ({ deps, user, query }) => shopDirectory(deps.db, user, query),
   }),
   route({
     method: 'get',

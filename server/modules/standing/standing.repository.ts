@@ -172,21 +172,26 @@ export async function shopStandings(db: Executor, shopIds: string[], now = new D
   return standings;
 }
 
-/** Each builder's standing, in two queries for any number of builders. */
+/** Each builder's standing, in one statement for any number of builders. */
 export async function builderStandings(db: Executor, builderIds: string[], now = new Date()): Promise<Map<string, BuilderStanding>> {
   const standings = new Map<string, BuilderStanding>(builderIds.map((id) => [id, noBuilderStanding]));
   if (builderIds.length === 0) return standings;
-  const [awards, records] = await Promise.all([
-    db.execute<{ builder_id: string; awarded_at: string | Date; cancelled_at: string | Date | null; paid_at: string | Date | null }>(sql`
-      SELECT j.builder_id, b.decided_at AS awarded_at, j.cancelled_at,
-        (SELECT min(p.paid_at) FROM payments p WHERE p.job_id = j.id AND p.kind = 'bid' AND p.status = 'paid') AS paid_at
+  // One statement (one connection, one round trip, as the board's page asks for every page): each award's row, then
+  // each builder's record tally, told apart by `kind`.
+  const { rows } = await db.execute<
+    | { kind: 'award'; builder_id: string; awarded_at: string | Date; cancelled_at: string | Date | null; paid_at: string | Date | null; counted: null; answered: null }
+    | { kind: 'records'; builder_id: string; awarded_at: null; cancelled_at: null; paid_at: null; counted: number; answered: number }
+  >(sql`
+      SELECT 'award' AS kind, j.builder_id, b.decided_at AS awarded_at, j.cancelled_at,
+        (SELECT min(p.paid_at) FROM payments p WHERE p.job_id = j.id AND p.kind = 'bid' AND p.status = 'paid') AS paid_at,
+        NULL::int AS counted, NULL::int AS answered
       FROM jobs j
       JOIN bids b ON b.id = j.awarded_bid_id AND b.status = 'accepted'
-      WHERE j.builder_id = ANY(${uuidList(builderIds)}) AND j.awarded_bid_id IS NOT NULL AND b.decided_at IS NOT NULL`),
-    db.execute<{ builder_id: string; counted: number; answered: number }>(sql`
-      SELECT j.builder_id,
-        count(*) FILTER (WHERE r.status <> 'submitted' OR r.review_due_at < ${now} OR a.answered)::int AS counted,
-        count(*) FILTER (WHERE a.answered)::int AS answered
+      WHERE j.builder_id = ANY(${uuidList(builderIds)}) AND j.awarded_bid_id IS NOT NULL AND b.decided_at IS NOT NULL
+      UNION ALL
+      SELECT 'records', j.builder_id, NULL, NULL, NULL,
+        count(*) FILTER (WHERE r.status <> 'submitted' OR r.review_due_at < ${now} OR a.answered)::int,
+        count(*) FILTER (WHERE a.answered)::int
       FROM inspection_records r
       JOIN jobs j ON j.id = r.job_id
       CROSS JOIN LATERAL (
@@ -196,10 +201,11 @@ export async function builderStandings(db: Executor, builderIds: string[], now =
       ) a
       -- Only an awarded job has records; saying so lets the planner take jobs_builder_awarded_idx.
       WHERE j.builder_id = ANY(${uuidList(builderIds)}) AND j.awarded_bid_id IS NOT NULL
-      GROUP BY j.builder_id`),
-  ]);
+      GROUP BY j.builder_id`);
+  const awards = rows.filter((row) => row.kind === 'award');
+  const records = rows.filter((row) => row.kind === 'records');
   const pay = new Map<string, { of: number; onTime: number }>();
-  for (const row of awards.rows) {
+  for (const row of awards) {
     const awardedAt = new Date(row.awarded_at).getTime();
     const limit = awardedAt + PAY_WITHIN_DAYS * DAY_MS;
     const paidAt = asDate(row.paid_at)?.getTime() ?? null;
@@ -213,7 +219,7 @@ export async function builderStandings(db: Executor, builderIds: string[], now =
       t.of += 1;
     }
   }
-  const recordRows = new Map(records.rows.map((r) => [r.builder_id, r]));
+  const recordRows = new Map(records.map((r) => [r.builder_id, r]));
   for (const builderId of standings.keys()) {
     const p = pay.get(builderId);
     const r = recordRows.get(builderId);

@@ -4,7 +4,7 @@ import { PART_SENT_WORDS, findOperation } from '@shared/catalogue';
 import { limitFor, limitGroupOperation, type LimitGroup, type OperationLimits } from '@shared/operation-limits';
 import type { JobDetail, JobInput } from '@shared/schemas/jobs';
 import { formatDay } from '@client/lib/dates';
-import { POSTAL_CODE_NOT_FOUND } from '@shared/distance';
+import { formatDistance, POSTAL_CODE_NOT_FOUND } from '@shared/distance';
 import { jobScope, limitEntries } from './job-scope';
 import { formatLength, formatLimit, layoutWords, materialWords, pistonWords, quantityText, unitWords } from './job-words';
 import { BuilderStandingList } from '@client/components/standing';
@@ -163,6 +163,8 @@ export function JobLogistics({ job }: { job: JobDetail }) {
         ['Needed by', formatDay(job.neededBy)],
         ['Getting it there', job.logistics === 'ship' ? 'Shipped to the shop by the builder' : 'Dropped off at the shop by the builder'],
         ['Builder’s area', [job.city, job.region, job.country].filter(Boolean).join(', ')],
+        // A shop sees how far the job is from its own place.
+        job.distance !== null && job.distanceUnit !== null && ['Distance', `${formatDistance(job.distance, job.distanceUnit)} from your shop`],
         // Only the builder sees the postal code, and so whether it was found.
         ...(job.spec.postalCode ? [['Postal code', job.placeFound ? job.spec.postalCode : `${job.spec.postalCode} (${POSTAL_CODE_NOT_FOUND})`] as [string, string]] : []),
         ['Posted by', job.builder.displayName],

@@ -41,7 +41,7 @@ export function ShopCard({ shop, distance }: { shop: PublicShop; distance?: stri
       </div>
       <p className="text-sm text-ink-soft">
         {placeOf(shop)} · {shop.takesShipped ? 'takes shipped parts' : 'drop-off only'}
-        {distance && <span className="block font-semibold text-ink">{distance}</span>}
+        {distance && <span className="block font-semibold text-ink" data-testid="shop-distance">{distance}</span>}
       </p>
       <ul aria-label="Work they do" className="flex flex-wrap gap-1.5">
         {capabilities.map((code) => (
