@@ -6,7 +6,7 @@
  * migrate), and every instance gets the same settings.
  */
 import { fork, type ChildProcess } from 'node:child_process';
-import { createServer, type IncomingMessage, type ServerResponse } from 'node:http';
+import { Agent, createServer, type IncomingMessage, type ServerResponse } from 'node:http';
 import type { AddressInfo, Socket } from 'node:net';
 import { Readable } from 'node:stream';
 import httpProxy from 'http-proxy';
@@ -115,7 +115,11 @@ interface Target {
  * gets 502 with the app's error shape. `served` counts the answers per instance id.
  */
 export async function startProxy(options: { port?: number; host?: string } = {}) {
-  const proxy = httpProxy.createProxyServer({ xfwd: true });
+  // Connections to the instances are kept open and reused. Without an agent, http-proxy asks each instance to close
+  // its connection after the answer, and passes that "Connection: close" on to the client, so every request cost two
+  // new connections, and under load requests already sent on a closing connection were sent again.
+  const agent = new Agent({ keepAlive: true });
+  const proxy = httpProxy.createProxyServer({ xfwd: true, agent });
   const targets: Target[] = [];
   const served = new Map<string, number>();
   const chosen = new WeakMap<IncomingMessage, Target>();
@@ -178,7 +182,8 @@ export async function startProxy(options: { port?: number; host?: string } = {})
     if (!target) return socket.destroy();
     count(target);
     // The client sees the socket close and connects again, through the proxy, to an instance that answers.
-    proxy.ws(req, socket, head, { target: target.url }, () => {
+    // A websocket is a connection of its own for as long as it lives: not one from the pool of reused ones.
+    proxy.ws(req, socket, head, { target: target.url, agent: false }, () => {
       // The error is the instance's only while the client's side is still there (a browser that went away is not the instance's fault).
       if (!socket.destroyed) target.passedOverUntil = Date.now() + PASS_OVER_MS;
       socket.destroy();
@@ -213,6 +218,7 @@ export async function startProxy(options: { port?: number; host?: string } = {})
         server.close(() => resolve());
         for (const socket of sockets) socket.destroy();
         proxy.close();
+        agent.destroy();
       }),
   };
 }

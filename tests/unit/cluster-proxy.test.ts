@@ -1,4 +1,4 @@
-import { createServer, type Server } from 'node:http';
+import { Agent, createServer, get, type Server } from 'node:http';
 import type { AddressInfo } from 'node:net';
 import { afterEach, describe, expect, it } from 'vitest';
 import { startProxy, type Proxy } from '../../server/dev/cluster';
@@ -10,8 +10,10 @@ async function backend(name: string) {
     req.resume();
     req.on('end', () => res.end(name));
   });
+  let connections = 0;
+  server.on('connection', () => (connections += 1));
   await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', () => resolve()));
-  return { id: name, url: `http://127.0.0.1:${(server.address() as AddressInfo).port}`, close: () => new Promise<void>((resolve) => server.close(() => resolve())) };
+  return { id: name, connections: () => connections, url: `http://127.0.0.1:${(server.address() as AddressInfo).port}`, close: () => new Promise<void>((resolve) => server.close(() => resolve())) };
 }
 
 const open: Array<{ close: () => Promise<void> }> = [];
@@ -54,6 +56,29 @@ describe('the cluster proxy', () => {
     expect(await write.json()).toEqual({ error: { code: 'bad_gateway', message: expect.any(String) } });
     // The one that did not answer is passed over for a while: the next POST reaches a live one.
     expect(await (await fetch(`${proxyToGone.url}/api/jobs`, { method: 'POST', body: '{}' })).text()).toBe('a');
+  });
+
+  it('when a client sends requests one after another, then its connection and the connection to the instance are kept open', async () => {
+    const a = await backend('a');
+    open.push(a);
+    const proxy = await proxyOver([a]);
+    const agent = new Agent({ keepAlive: true, maxSockets: 1 });
+    const answers: Array<string | undefined> = [];
+    for (let turn = 0; turn < 4; turn += 1) {
+      answers.push(
+        await new Promise<string | undefined>((resolve, reject) =>
+          get(`${proxy.url}/api/health`, { agent }, (res) => {
+            res.resume();
+            res.on('end', () => resolve(res.headers.connection));
+          }).on('error', reject),
+        ),
+      );
+    }
+    agent.destroy();
+    // Without keep-alive each answer says "close": the client connects again for every request (and under load
+    // requests already sent on a closing connection are sent again), and the proxy opens a connection per request.
+    expect(answers).toEqual(['keep-alive', 'keep-alive', 'keep-alive', 'keep-alive']);
+    expect(a.connections()).toBe(1);
   });
 
   it('when no instance answers, then 502', async () => {
