@@ -1,7 +1,8 @@
+import { createHash } from 'node:crypto';
 import { LRUCache } from 'lru-cache';
 import { and, arrayContains, asc, desc, eq, lte, sql, type SQL } from 'drizzle-orm';
 import { BOARD_COUNT_CAP, type BoardPage, type BoardQuery, type JobInput, type JobSummary } from '../../../shared/schemas/jobs';
-import type { Executor } from '../../db/client';
+import type { Database, Executor } from '../../db/client';
 import { jobPhotos, jobs } from '../../db/schema';
 import { decodeBoardCursor, encodeBoardCursor, type BoardCursor } from './board-cursor';
 import { METRES_PER, type DistanceUnit } from '../../../shared/distance';
@@ -219,18 +220,28 @@ export function boardCountQuery(db: Executor, query: BoardQuery, origin: BoardOr
 
 /**
  * The board's two statements, built once per distinct query (filters, order,
- * page) and kept for the most recent few hundred: building them cost drizzle
- * more time than PostgreSQL takes to run a page. Prepared without a name, so
- * PostgreSQL keeps nothing per connection.
+ * page, place measured from) and kept for the most recent few hundred: building
+ * them cost drizzle more time than PostgreSQL takes to run a page. Each is
+ * prepared under a name made from its SQL text, so each connection plans a shape
+ * once: planning the distance expressions (ll_to_earth, earth_distance) on every
+ * request cost PostgreSQL more than running the page. The values (filters, the
+ * place's coordinates, the cursor) are parameters, so shops share their shapes,
+ * and the shapes are few (which filters are given, the order, cursor or page).
  */
 const boardStatements = new WeakMap<Executor, LRUCache<string, { rows: ReturnType<ReturnType<typeof boardRowsQuery>['prepare']>; count: ReturnType<ReturnType<typeof boardCountQuery>['prepare']> }>>();
+const statementName = (kind: string, text: string) => `board_${kind}_${createHash('sha1').update(text).digest('hex').slice(0, 20)}`;
 function boardStatementsFor(db: Executor, query: BoardQuery, origin: BoardOrigin | null) {
   let cache = boardStatements.get(db);
   if (!cache) boardStatements.set(db, (cache = new LRUCache({ max: 500 })));
-  // The origin's coordinates are written into the statement, so each place has statements of its own.
+  // drizzle binds the values when it builds a statement, so each query and place has its own here.
   const key = JSON.stringify([query, origin]);
   let statements = cache.get(key);
-  if (!statements) cache.set(key, (statements = { rows: boardRowsQuery(db, query, origin).prepare(''), count: boardCountQuery(db, query, origin).prepare('') }));
+  if (!statements) {
+    const rows = boardRowsQuery(db, query, origin);
+    const count = boardCountQuery(db, query, origin);
+    statements = { rows: rows.prepare(statementName('rows', rows.toSQL().sql)), count: count.prepare(statementName('count', count.toSQL().sql)) };
+    cache.set(key, statements);
+  }
   return statements;
 }
 
@@ -238,7 +249,7 @@ function boardStatementsFor(db: Executor, query: BoardQuery, origin: BoardOrigin
  * One page of the board and the total: two prepared statements whatever the page size, then the
  * standing of the page's builders, worked out for all of them together (builderStandings).
  */
-export async function boardPage(db: Executor, query: BoardQuery, origin: BoardOrigin | null = null): Promise<BoardPage> {
+export async function boardPage(db: Database, query: BoardQuery, origin: BoardOrigin | null = null): Promise<BoardPage> {
   const statements = boardStatementsFor(db, query, origin);
   // The standings wait only for the rows (they need the page's builders), not for the count.
   const pageOf = async () => {

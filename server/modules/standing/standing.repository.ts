@@ -2,7 +2,7 @@ import { sql } from 'drizzle-orm';
 import { dueDayEnd, dueDayOf } from '../../../shared/due-day';
 import type { BuilderStanding, ShopStanding } from '../../../shared/schemas/standing';
 import { PAY_WITHIN_DAYS, shareOrNull, STANDING_MIN_COUNT, STANDING_RECENT } from '../../../shared/standing';
-import type { Executor } from '../../db/client';
+import type { Database, Executor } from '../../db/client';
 
 /*
  * Standing, worked out on every read from the rows the events themselves write
@@ -173,35 +173,40 @@ export async function shopStandings(db: Executor, shopIds: string[], now = new D
 }
 
 /** Each builder's standing, in one statement for any number of builders. */
-export async function builderStandings(db: Executor, builderIds: string[], now = new Date()): Promise<Map<string, BuilderStanding>> {
+type BuilderStandingRow =
+  | { kind: 'award'; builder_id: string; awarded_at: string | Date; cancelled_at: string | Date | null; paid_at: string | Date | null; counted: null; answered: null }
+  | { kind: 'records'; builder_id: string; awarded_at: null; cancelled_at: null; paid_at: null; counted: number; answered: number };
+
+/** $1: the builders' ids; $2: now. */
+const BUILDER_STANDINGS_SQL = `
+  SELECT 'award' AS kind, j.builder_id, b.decided_at AS awarded_at, j.cancelled_at,
+    (SELECT min(p.paid_at) FROM payments p WHERE p.job_id = j.id AND p.kind = 'bid' AND p.status = 'paid') AS paid_at,
+    NULL::int AS counted, NULL::int AS answered
+  FROM jobs j
+  JOIN bids b ON b.id = j.awarded_bid_id AND b.status = 'accepted'
+  WHERE j.builder_id = ANY($1::uuid[]) AND j.awarded_bid_id IS NOT NULL AND b.decided_at IS NOT NULL
+  UNION ALL
+  SELECT 'records', j.builder_id, NULL, NULL, NULL,
+    count(*) FILTER (WHERE r.status <> 'submitted' OR r.review_due_at < $2::timestamptz OR a.answered)::int,
+    count(*) FILTER (WHERE a.answered)::int
+  FROM inspection_records r
+  JOIN jobs j ON j.id = r.job_id
+  CROSS JOIN LATERAL (
+    SELECT (r.decided_how = 'builder' AND r.decided_at <= r.review_due_at)
+      OR EXISTS (SELECT 1 FROM disputes d WHERE d.job_id = r.job_id AND d.opened_side = 'builder' AND d.opened_at >= r.submitted_at AND d.opened_at <= r.review_due_at)
+      AS answered
+  ) a
+  -- Only an awarded job has records; saying so lets the planner take jobs_builder_awarded_idx.
+  WHERE j.builder_id = ANY($1::uuid[]) AND j.awarded_bid_id IS NOT NULL
+  GROUP BY j.builder_id`;
+
+export async function builderStandings(db: Database, builderIds: string[], now = new Date()): Promise<Map<string, BuilderStanding>> {
   const standings = new Map<string, BuilderStanding>(builderIds.map((id) => [id, noBuilderStanding]));
   if (builderIds.length === 0) return standings;
   // One statement (one connection, one round trip, as the board's page asks for every page): each award's row, then
-  // each builder's record tally, told apart by `kind`.
-  const { rows } = await db.execute<
-    | { kind: 'award'; builder_id: string; awarded_at: string | Date; cancelled_at: string | Date | null; paid_at: string | Date | null; counted: null; answered: null }
-    | { kind: 'records'; builder_id: string; awarded_at: null; cancelled_at: null; paid_at: null; counted: number; answered: number }
-  >(sql`
-      SELECT 'award' AS kind, j.builder_id, b.decided_at AS awarded_at, j.cancelled_at,
-        (SELECT min(p.paid_at) FROM payments p WHERE p.job_id = j.id AND p.kind = 'bid' AND p.status = 'paid') AS paid_at,
-        NULL::int AS counted, NULL::int AS answered
-      FROM jobs j
-      JOIN bids b ON b.id = j.awarded_bid_id AND b.status = 'accepted'
-      WHERE j.builder_id = ANY(${uuidList(builderIds)}) AND j.awarded_bid_id IS NOT NULL AND b.decided_at IS NOT NULL
-      UNION ALL
-      SELECT 'records', j.builder_id, NULL, NULL, NULL,
-        count(*) FILTER (WHERE r.status <> 'submitted' OR r.review_due_at < ${now} OR a.answered)::int,
-        count(*) FILTER (WHERE a.answered)::int
-      FROM inspection_records r
-      JOIN jobs j ON j.id = r.job_id
-      CROSS JOIN LATERAL (
-        SELECT (r.decided_how = 'builder' AND r.decided_at <= r.review_due_at)
-          OR EXISTS (SELECT 1 FROM disputes d WHERE d.job_id = r.job_id AND d.opened_side = 'builder' AND d.opened_at >= r.submitted_at AND d.opened_at <= r.review_due_at)
-          AS answered
-      ) a
-      -- Only an awarded job has records; saying so lets the planner take jobs_builder_awarded_idx.
-      WHERE j.builder_id = ANY(${uuidList(builderIds)}) AND j.awarded_bid_id IS NOT NULL
-      GROUP BY j.builder_id`);
+  // each builder's record tally, told apart by `kind`. Prepared by name on each connection: the board asks it on
+  // every page, and planning it each time cost about as much as the board's own statements.
+  const { rows } = await db.$client.query<BuilderStandingRow>({ name: 'builder-standings', text: BUILDER_STANDINGS_SQL, values: [[...new Set(builderIds)], now] });
   const awards = rows.filter((row) => row.kind === 'award');
   const records = rows.filter((row) => row.kind === 'records');
   const pay = new Map<string, { of: number; onTime: number }>();
@@ -237,6 +242,6 @@ export async function shopStanding(db: Executor, shopId: string): Promise<ShopSt
 }
 
 /** One builder's standing. */
-export async function builderStanding(db: Executor, builderId: string): Promise<BuilderStanding> {
+export async function builderStanding(db: Database, builderId: string): Promise<BuilderStanding> {
   return (await builderStandings(db, [builderId])).get(builderId)!;
 }
