@@ -46,6 +46,7 @@ interface LoadAnswer {
 async function load(ask: LoadAsk): Promise<LoadAnswer> {
   const started = process.cpuUsage();
   const result = await autocannon(loadOptions({ ...ask, connections: CONNECTIONS, seconds: ask.seconds ?? DURATION_S }));
+  if (result.errors + result.non2xx) console.error(ask.url, JSON.stringify({ errors: result.errors, timeouts: result.timeouts, non2xx: result.non2xx, codes: result.statusCodeStats }));
   const used = process.cpuUsage(started);
   return { cpu: (used.user + used.system) / 1e6, rate: result.requests.total / result.duration, p50: result.latency.p50, p99: result.latency.p99, errors: result.errors + result.non2xx };
 }
