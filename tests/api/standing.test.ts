@@ -343,19 +343,16 @@ describe('the builder’s standing on the board', () => {
   });
 });
 
-describe('how long a standing takes to work out', () => {
-  it('when a page of twenty shops with history is read, then the standings take well under the answer’s budget', async () => {
+describe('a page of standings', () => {
+  // How long it takes is measured by the benchmarks, never asserted here (see the repository's notes for figures).
+  it('when a page of twenty shops with history is read, then each shop gets its own figures from the one call', async () => {
     const ids: string[] = [];
     for (let s = 0; s < 20; s += 1) {
       const { shop, people } = await newPair();
       ids.push(shop.id);
-      for (let j = 0; j < 5; j += 1) await pastJob(people, { awardedAt: at('2026-09-01T09:00:00Z'), firstRecord: 'accepted', finishedAt: at('2026-09-03T09:00:00Z') });
+      for (let j = 0; j < 5 + (s % 3); j += 1) await pastJob(people, { awardedAt: at('2026-09-01T09:00:00Z'), firstRecord: 'accepted', finishedAt: at('2026-09-03T09:00:00Z') });
     }
-    await shopStandings(m.db, ids);
-    const started = performance.now();
     const standings = await shopStandings(m.db, ids);
-    const took = performance.now() - started;
-    expect([...standings.values()].every((s) => s.firstTimeAcceptance?.of === 5 && s.onTime?.of === 5)).toBe(true);
-    expect(took).toBeLessThan(250);
+    expect(ids.map((id) => [standings.get(id)?.firstTimeAcceptance?.of, standings.get(id)?.onTime?.of])).toEqual(ids.map((_, s) => [5 + (s % 3), 5 + (s % 3)]));
   });
 });
