@@ -81,7 +81,6 @@ function JobRow({ job, unit }: { job: BoardJob; unit: DistanceUnit | undefined }
         <Link to={`/jobs/${job.id}`} className="font-bold text-slate-700 underline-offset-4 hover:underline">
           {job.title}
         </Link>
-        <BuilderStandingBrief standing={job.builderStanding} />
       </th>
       <td className="py-3 pr-3">{job.engineFamily}</td>
       <td className="py-3 pr-3 text-right tabular-nums">{job.cylinders}</td>
@@ -92,7 +91,11 @@ function JobRow({ job, unit }: { job: BoardJob; unit: DistanceUnit | undefined }
         <span className="block text-sm text-ink-soft">{logisticsWords[job.logistics]}</span>
         <DistanceLine job={job} unit={unit} />
       </td>
-      <td className="py-3 pr-3 whitespace-nowrap">{formatPosted(job.publishedAt)}</td>
+      <td className="py-3 pr-3">
+        <span className="whitespace-nowrap">{formatPosted(job.publishedAt)}</span>
+        {/* Who posted it, in a cell of its own: the row's header stays the job's title alone. */}
+        <BuilderStandingBrief standing={job.builderStanding} />
+      </td>
       <td className="py-3 pr-3 whitespace-nowrap">{formatDay(job.neededBy)}</td>
       <td className="py-3 text-right tabular-nums">{job.bidCount}</td>
     </tr>
