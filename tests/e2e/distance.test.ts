@@ -33,7 +33,7 @@ describe('distances on the board and on bids', () => {
     expect(first).toMatch(/^\d+(\.\d)? miles away$/);
     await page.getByLabel('Within (miles of your shop)').fill('100');
     await page.waitForURL(/within=100/);
-    await expect.poll(async () => page.getByTestId('board-total').textContent()).toMatch(/match these filters/);
+    await expect.poll(async () => page.getByTestId('board-total').textContent()).toMatch(/match(es)? these filters/);
     // The rows of the earlier answer stay on screen until the narrowed one arrives.
     const shown = async () => (await table.getByTestId('job-distance').allTextContents()).map((text) => Number(text.replace(/[^\d.]/g, '')));
     await expect.poll(async () => { const now = await shown(); return now.length > 0 && now.every((d) => d <= 100); }).toBe(true);
